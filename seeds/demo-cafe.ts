@@ -1,0 +1,189 @@
+// The demo café: Harbour & Hearth Coffee, an invented quay-side café with invented staff.
+// Loaded only into an empty database when SEED_DEMO is on.
+import type { Knex } from 'knex';
+import { hashPassword, verifyPassword } from '../server/auth/passwords';
+
+export const DEMO_PASSWORD = 'jugline-demo';
+
+export const DEMO_STAFF = [
+  { username: 'owner', name: 'Mara Quill', role: 'owner' },
+  { username: 'lead', name: 'Theo Brand', role: 'lead' },
+  { username: 'cashier', name: 'Priya Onslow', role: 'cashier' },
+  { username: 'barista', name: 'Jonah Reyes', role: 'barista' },
+  { username: 'barista2', name: 'Ines Calder', role: 'barista' },
+] as const;
+
+type SizeSeed = [name: string, volumeMl: number, priceCents: number, milkMl: number];
+const SML = (prices: [number, number, number], milk: [number, number, number]): SizeSeed[] => [
+  ['Small', 240, prices[0], milk[0]],
+  ['Regular', 350, prices[1], milk[1]],
+  ['Large', 470, prices[2], milk[2]],
+];
+
+interface ItemSeed {
+  name: string;
+  station: 'bar' | 'counter';
+  shots?: number;
+  milk?: boolean;
+  texture?: 'flat' | 'silky' | 'foamy' | 'cold';
+  priceCents?: number;
+  sizes?: SizeSeed[];
+  allergens?: string[];
+}
+
+const MENU: { category: string; items: ItemSeed[] }[] = [
+  {
+    category: 'Espresso',
+    items: [
+      { name: 'Espresso', station: 'bar', shots: 2, sizes: [['Single cup', 53, 320, 0]] },
+      { name: 'Long black', station: 'bar', shots: 2, sizes: [['Regular', 240, 400, 0]] },
+      { name: 'Flat white', station: 'bar', shots: 2, milk: true, texture: 'flat', sizes: [['Regular', 160, 460, 120]] },
+      { name: 'Latte', station: 'bar', shots: 2, milk: true, texture: 'silky', sizes: SML([480, 540, 590], [180, 270, 360]) },
+      { name: 'Cappuccino', station: 'bar', shots: 2, milk: true, texture: 'foamy', sizes: SML([480, 540, 590], [140, 210, 280]) },
+      { name: 'Mocha', station: 'bar', shots: 2, milk: true, texture: 'silky', sizes: SML([520, 580, 630], [170, 250, 340]) },
+      { name: 'Iced latte', station: 'bar', shots: 2, milk: true, texture: 'cold', sizes: [['Regular', 350, 540, 200], ['Large', 470, 590, 280]] },
+    ],
+  },
+  {
+    category: 'Tea & brew',
+    items: [
+      { name: 'Chai latte', station: 'bar', shots: 0, milk: true, texture: 'silky', sizes: SML([490, 550, 600], [200, 290, 380]) },
+      { name: 'Batch brew', station: 'bar', shots: 0, sizes: [['Small', 240, 350, 0], ['Regular', 350, 400, 0]] },
+    ],
+  },
+  {
+    category: 'Food',
+    items: [
+      { name: 'Butter croissant', station: 'counter', priceCents: 425, allergens: ['wheat', 'milk', 'eggs'] },
+      { name: 'Almond croissant', station: 'counter', priceCents: 495, allergens: ['tree nuts', 'wheat', 'milk', 'eggs'] },
+      { name: 'Banana bread', station: 'counter', priceCents: 395, allergens: ['wheat', 'eggs', 'milk'] },
+      { name: 'Bottled water', station: 'counter', priceCents: 250 },
+    ],
+  },
+];
+
+// Allergen tags from the US list of nine (FALCPA + FASTER Act); coconut is not a tree nut
+// under FDA guidance of January 2025, and oat is not a US major allergen.
+const MILKS = [
+  { name: 'Whole', code: 'WH', upcharge: 0, allergens: ['milk'] },
+  { name: 'Skim', code: 'SK', upcharge: 0, allergens: ['milk'] },
+  { name: 'Oat', code: 'OA', upcharge: 70, allergens: [] },
+  { name: 'Soy', code: 'SO', upcharge: 70, allergens: ['soybeans'] },
+  { name: 'Almond', code: 'AL', upcharge: 80, allergens: ['tree nuts'] },
+  { name: 'Coconut', code: 'CO', upcharge: 80, allergens: [] },
+];
+
+const MODIFIERS = [
+  { group: 'Coffee', name: 'Decaf', price: 50 },
+  { group: 'Syrup', name: 'Vanilla syrup', price: 60 },
+  { group: 'Syrup', name: 'Caramel syrup', price: 60 },
+  { group: 'Syrup', name: 'Hazelnut syrup', price: 60 },
+  { group: 'Temperature', name: 'Extra hot', price: 0 },
+  { group: 'Sweetness', name: 'Half sweet', price: 0 },
+];
+
+export async function isEmpty(db: Knex): Promise<boolean> {
+  const row = await db('locations').count<{ n: number }>({ n: '*' }).first();
+  return Number(row?.n ?? 0) === 0;
+}
+
+/** True while the demo owner can still sign in with the demo password. */
+export async function demoPasswordStillSet(db: Knex): Promise<boolean> {
+  const owner = await db('users').where({ username: 'owner' }).first('password_hash');
+  return owner ? verifyPassword(DEMO_PASSWORD, owner.password_hash) : false;
+}
+
+export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: number): Promise<number> {
+  const createdAt = now.toISOString();
+  const hashes = await Promise.all(DEMO_STAFF.map(() => hashPassword(DEMO_PASSWORD, passwordCost)));
+  return db.transaction(async (trx) => {
+    const [{ id: locationId }] = await trx('locations')
+      .insert({
+        name: 'Harbour & Hearth Coffee',
+        time_zone: 'America/New_York',
+        currency: 'USD',
+        locale: 'en-US',
+        tax_mode: 'exclusive',
+        tax_rate_milli_pct: 8250,
+        extra_shot_cents: 100,
+        wait_target_seconds: 240,
+        pickup_timeout_seconds: 600,
+        allergen_list: 'US',
+        created_at: createdAt,
+      })
+      .returning('id');
+
+    await trx('users').insert(
+      DEMO_STAFF.map((s, i) => ({
+        location_id: locationId,
+        username: s.username,
+        name: s.name,
+        role: s.role,
+        password_hash: hashes[i],
+        created_at: createdAt,
+      })),
+    );
+
+    const milkIds: number[] = [];
+    for (const [i, m] of MILKS.entries()) {
+      const [{ id }] = await trx('milk_options')
+        .insert({
+          location_id: locationId,
+          name: m.name,
+          code: m.code,
+          upcharge_cents: m.upcharge,
+          allergens: JSON.stringify(m.allergens),
+          sort: i,
+        })
+        .returning('id');
+      milkIds.push(id);
+    }
+
+    for (const [ci, cat] of MENU.entries()) {
+      const [{ id: categoryId }] = await trx('menu_categories')
+        .insert({ location_id: locationId, name: cat.category, sort: ci })
+        .returning('id');
+      for (const [ii, item] of cat.items.entries()) {
+        const [{ id: itemId }] = await trx('menu_items')
+          .insert({
+            category_id: categoryId,
+            name: item.name,
+            station: item.station,
+            price_cents: item.priceCents ?? null,
+            shots: item.shots ?? 0,
+            takes_milk: item.milk ?? false,
+            default_milk_id: item.milk ? milkIds[0] : null,
+            texture: item.texture ?? null,
+            allergens: JSON.stringify(item.allergens ?? []),
+            sort: ii,
+          })
+          .returning('id');
+        const sizes = item.sizes ?? [];
+        const defaultIndex = sizes.findIndex(([name]) => name === 'Regular');
+        for (const [si, [name, volumeMl, priceCents, milkMl]] of sizes.entries()) {
+          await trx('item_sizes').insert({
+            item_id: itemId,
+            name,
+            volume_ml: volumeMl,
+            price_cents: priceCents,
+            shots: item.shots ?? 0,
+            milk_ml: milkMl,
+            is_default: si === (defaultIndex >= 0 ? defaultIndex : 0),
+            sort: si,
+          });
+        }
+      }
+    }
+
+    await trx('modifiers').insert(
+      MODIFIERS.map((m, i) => ({
+        location_id: locationId,
+        group_name: m.group,
+        name: m.name,
+        price_cents: m.price,
+        sort: i,
+      })),
+    );
+    return locationId;
+  });
+}

@@ -1,0 +1,55 @@
+// createApp(deps): the Express app without listen(), so tests drive it in-process.
+import express, { type RequestHandler } from 'express';
+import type { Knex } from 'knex';
+import { createPassport, createSessionMiddleware } from './auth/session';
+import type { Config } from './config';
+import { HttpError, errorHandler } from './errors';
+import { createInProcessHub, type Hub } from './realtime/hub';
+import { mountRoutes, type ApiRoute } from './routes/define';
+import { orderRoutes } from './routes/orders';
+import { sessionRoutes } from './routes/session';
+import { ticketRoutes } from './routes/tickets';
+import type { Clock, Deps } from './services/deps';
+import type { PageRenderer } from './ssr/pages';
+
+export interface AppOptions {
+  db: Knex;
+  config: Pick<Config, 'sessionSecret' | 'env'>;
+  clock?: Clock;
+  hub?: Hub;
+  /** Server-side rendering of the screens; left out by API-only tests. */
+  pages?: PageRenderer;
+  sessionCleanupIntervalMs?: number;
+}
+
+export interface App {
+  app: express.Express;
+  deps: Deps;
+  sessionMiddleware: RequestHandler;
+  passport: ReturnType<typeof createPassport>;
+  routes: ApiRoute[];
+}
+
+export function createApp(opts: AppOptions): App {
+  const deps: Deps = { db: opts.db, clock: opts.clock ?? (() => new Date()), hub: opts.hub ?? createInProcessHub() };
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+
+  const sessionMiddleware = createSessionMiddleware(opts.db, opts.config.sessionSecret, {
+    cleanupIntervalMs: opts.sessionCleanupIntervalMs,
+  });
+  const passport = createPassport(opts.db);
+  const routes = [...sessionRoutes(passport), ...orderRoutes(deps), ...ticketRoutes(deps)];
+
+  app.use('/api', express.json({ limit: '32kb' }), sessionMiddleware, passport.initialize(), passport.session());
+  app.use('/api', mountRoutes(routes));
+  app.use('/api', (req, _res, next) => next(new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}`)));
+
+  if (opts.pages) {
+    app.use(opts.pages.assets);
+    app.get('/{*splat}', sessionMiddleware, passport.initialize(), passport.session(), opts.pages.handler(deps));
+  }
+  app.use(errorHandler);
+  return { app, deps, sessionMiddleware, passport, routes };
+}

@@ -1,0 +1,61 @@
+// Environment → typed config, parsed once with zod. Bad values stop start-up with a message
+// that names the variable to set.
+import { randomBytes } from 'node:crypto';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
+import { z } from 'zod';
+
+const bool = z
+  .enum(['true', 'false', '1', '0', 'yes', 'no'], { error: 'use true or false' })
+  .transform((v) => v === 'true' || v === '1' || v === 'yes');
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  PORT: z.coerce.number({ error: 'use a port number' }).int().min(0).max(65535).default(3000),
+  HOST: z.string().min(1).default('127.0.0.1'),
+  DATABASE_FILE: z.string().min(1).default('data/jugline.sqlite'),
+  SESSION_SECRET: z.string().min(32, 'use at least 32 characters').optional(),
+  SEED_DEMO: bool.default(true),
+});
+
+export interface Config {
+  env: 'development' | 'production' | 'test';
+  port: number;
+  host: string;
+  databaseFile: string;
+  sessionSecret: string;
+  seedDemo: boolean;
+}
+
+export class ConfigError extends Error {}
+
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
+  const parsed = envSchema.safeParse(env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new ConfigError(`Jugline cannot start; fix these settings:\n${lines.join('\n')}`);
+  }
+  const e = parsed.data;
+  const databaseFile = path.resolve(e.DATABASE_FILE);
+  mkdirSync(path.dirname(databaseFile), { recursive: true });
+  return {
+    env: e.NODE_ENV,
+    port: e.PORT,
+    host: e.HOST,
+    databaseFile,
+    sessionSecret: e.SESSION_SECRET ?? storedSessionSecret(databaseFile),
+    seedDemo: e.SEED_DEMO,
+  };
+}
+
+/**
+ * With no SESSION_SECRET set, a random one is made on first run and kept beside the database,
+ * so sessions survive a restart without a secret in the code.
+ */
+function storedSessionSecret(databaseFile: string): string {
+  const file = `${databaseFile}.session-secret`;
+  if (existsSync(file)) return readFileSync(file, 'utf8').trim();
+  const secret = randomBytes(48).toString('base64url');
+  writeFileSync(file, secret + '\n', { mode: 0o600 });
+  return secret;
+}

@@ -1,0 +1,63 @@
+// One error type for the whole API; the error handler turns it into
+// { error: { code, message, details? } } with its status.
+import type { NextFunction, Request, Response } from 'express';
+import { z } from 'zod';
+
+export type ErrorCode =
+  | 'validation_failed'
+  | 'unauthenticated'
+  | 'forbidden'
+  | 'not_found'
+  | 'conflict'
+  | 'unavailable'
+  | 'payload_too_large'
+  | 'internal';
+
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: ErrorCode,
+    message: string,
+    readonly details?: unknown,
+  ) {
+    super(message);
+  }
+}
+
+export const notFound = (what: string) => new HttpError(404, 'not_found', `${what} not found`);
+export const conflict = (message: string, details?: unknown) => new HttpError(409, 'conflict', message, details);
+
+/** Field-by-field details from a zod error: [{ path: 'items.0.sizeId', message }]. */
+export function validationError(error: z.ZodError, where?: string): HttpError {
+  const details = error.issues.map((i) => ({
+    path: [where, ...i.path].filter((p) => p !== undefined && p !== '').join('.'),
+    message: i.message,
+  }));
+  return new HttpError(400, 'validation_failed', 'Some fields need fixing', details);
+}
+
+export function parse<T extends z.ZodType>(schema: T, value: unknown, where?: string): z.infer<T> {
+  const result = schema.safeParse(value);
+  if (!result.success) throw validationError(result.error, where);
+  return result.data;
+}
+
+export function errorHandler(err: unknown, _req: Request, res: Response, _next: NextFunction): void {
+  if (res.headersSent) return;
+  if (err instanceof HttpError) {
+    res.status(err.status).json({ error: { code: err.code, message: err.message, details: err.details } });
+    return;
+  }
+  // body-parser errors carry a status and a type
+  const e = err as { status?: number; type?: string; message?: string };
+  if (e?.type === 'entity.parse.failed') {
+    res.status(400).json({ error: { code: 'validation_failed', message: 'The body is not valid JSON' } });
+    return;
+  }
+  if (e?.type === 'entity.too.large') {
+    res.status(413).json({ error: { code: 'payload_too_large', message: 'The body is too large' } });
+    return;
+  }
+  console.error(err);
+  res.status(500).json({ error: { code: 'internal', message: 'Something went wrong on our side' } });
+}

@@ -1,0 +1,155 @@
+// The live socket at /ws on the app's own HTTP server. Authenticated from the session cookie at
+// the upgrade; every message checked by zod; a screen resumes from the last `seq` it saw.
+import type { IncomingMessage, Server } from 'node:http';
+import type { Duplex } from 'node:stream';
+import type { RequestHandler } from 'express';
+import { WebSocket, WebSocketServer } from 'ws';
+import { clientMessage } from '../../src/domain/schemas';
+import type { LiveEvent, ServerMessage, SessionUser } from '../../src/domain/types';
+import { findActiveUser } from '../auth/session';
+import type { Deps } from '../services/deps';
+import { eventsSince, latestSeq } from '../services/events';
+import { boardSnapshot } from '../services/tickets';
+
+/** A screen further behind than this gets a fresh snapshot instead of a replay. */
+export const MAX_REPLAY = 500;
+export const HEARTBEAT_MS = 30_000;
+const MAX_MESSAGE_BYTES = 4096;
+
+interface Peer {
+  socket: WebSocket;
+  user: SessionUser;
+  /** Events are sent only once the screen has said where it is (`resume`). */
+  live: boolean;
+  resuming: boolean;
+  pending: LiveEvent[];
+  lastSent: number;
+  alive: boolean;
+}
+
+export interface SocketServer {
+  close(code?: number, reason?: string): Promise<void>;
+  peers(): number;
+}
+
+function send(peer: Peer, message: ServerMessage) {
+  if (peer.socket.readyState === WebSocket.OPEN) peer.socket.send(JSON.stringify(message));
+}
+
+function sendEvent(peer: Peer, event: LiveEvent) {
+  if (event.seq <= peer.lastSent) return;
+  peer.lastSent = event.seq;
+  send(peer, { type: 'event', event });
+}
+
+export function attachSocketServer(
+  server: Server,
+  deps: Deps,
+  sessionMiddleware: RequestHandler,
+): SocketServer {
+  const wss = new WebSocketServer({ noServer: true, maxPayload: MAX_MESSAGE_BYTES });
+  const peers = new Set<Peer>();
+
+  async function authenticate(req: IncomingMessage): Promise<SessionUser | null> {
+    await new Promise<void>((resolve, reject) =>
+      sessionMiddleware(req as never, {} as never, (err?: unknown) => (err ? reject(err) : resolve())),
+    );
+    const id = (req as unknown as { session?: { passport?: { user?: number } } }).session?.passport?.user;
+    return typeof id === 'number' ? findActiveUser(deps.db, id) : null;
+  }
+
+  function refuse(socket: Duplex, status: number, text: string) {
+    socket.end(`HTTP/1.1 ${status} ${text}\r\nConnection: close\r\nContent-Length: 0\r\n\r\n`);
+  }
+
+  const onUpgrade = (req: IncomingMessage, socket: Duplex, head: Buffer) => {
+    const path = (req.url ?? '').split('?')[0];
+    if (path !== '/ws') return; // leave other upgrades (Vite's HMR socket in dev) alone
+    authenticate(req).then(
+      (user) => {
+        if (!user) return refuse(socket, 401, 'Unauthorized');
+        wss.handleUpgrade(req, socket, head, (ws) => onConnection(ws, user));
+      },
+      () => refuse(socket, 500, 'Internal Server Error'),
+    );
+  };
+  server.on('upgrade', onUpgrade);
+
+  async function resume(peer: Peer, since: number) {
+    peer.resuming = true;
+    peer.pending = [];
+    try {
+      const missed = await eventsSince(deps.db, peer.user.locationId, since, MAX_REPLAY);
+      if (missed.length > MAX_REPLAY) {
+        const snapshot = await boardSnapshot(deps, peer.user.locationId);
+        peer.lastSent = snapshot.seq;
+        send(peer, { type: 'snapshot', snapshot });
+      } else {
+        peer.lastSent = since;
+        for (const e of missed) sendEvent(peer, e);
+      }
+      // events published while we read the log: sendEvent drops what the replay already sent
+      for (const e of peer.pending) sendEvent(peer, e);
+      peer.live = true;
+    } finally {
+      peer.resuming = false;
+      peer.pending = [];
+    }
+  }
+
+  function onConnection(socket: WebSocket, user: SessionUser) {
+    const peer: Peer = { socket, user, live: false, resuming: false, pending: [], lastSent: 0, alive: true };
+    peers.add(peer);
+    const unsubscribe = deps.hub.subscribe(user.locationId, (event) => {
+      if (peer.resuming) peer.pending.push(event);
+      else if (peer.live) sendEvent(peer, event);
+    });
+    socket.on('pong', () => (peer.alive = true));
+    socket.on('close', () => {
+      unsubscribe();
+      peers.delete(peer);
+    });
+    socket.on('message', (data) => {
+      let parsed: unknown;
+      try {
+        parsed = JSON.parse(data.toString());
+      } catch {
+        return send(peer, { type: 'error', code: 'validation_failed', message: 'Messages are JSON' });
+      }
+      const result = clientMessage.safeParse(parsed);
+      if (!result.success) {
+        return send(peer, { type: 'error', code: 'validation_failed', message: result.error.issues[0]?.message ?? 'Bad message' });
+      }
+      const message = result.data;
+      if (message.type === 'ping') return send(peer, { type: 'pong' });
+      resume(peer, message.since).catch(() => send(peer, { type: 'error', code: 'internal', message: 'Could not resume' }));
+    });
+    latestSeq(deps.db, user.locationId).then(
+      (seq) => send(peer, { type: 'hello', seq }),
+      () => socket.close(1011, 'database unavailable'),
+    );
+  }
+
+  // Sockets that miss a heartbeat are dropped; their screen reconnects and resumes.
+  const heartbeat = setInterval(() => {
+    for (const peer of peers) {
+      if (!peer.alive) {
+        peer.socket.terminate();
+        continue;
+      }
+      peer.alive = false;
+      peer.socket.ping();
+    }
+  }, HEARTBEAT_MS);
+  heartbeat.unref();
+
+  return {
+    peers: () => peers.size,
+    close(code = 1001, reason = 'server going away') {
+      clearInterval(heartbeat);
+      server.off('upgrade', onUpgrade);
+      for (const peer of peers) peer.socket.close(code, reason);
+      return new Promise((resolve) => wss.close(() => resolve()));
+    },
+  };
+}

@@ -1,0 +1,40 @@
+import type { Request, Response, NextFunction } from 'express';
+import type { createPassport } from '../auth/session';
+import { signInBody } from '../../src/domain/schemas';
+import type { SessionUser } from '../../src/domain/types';
+import { HttpError, parse } from '../errors';
+import type { ApiRoute } from './define';
+
+const publicUser = (u: SessionUser) => ({ id: u.id, name: u.name, role: u.role });
+
+export function sessionRoutes(passport: ReturnType<typeof createPassport>): ApiRoute[] {
+  const signIn = (req: Request, res: Response, next: NextFunction) => {
+    req.body = parse(signInBody, req.body);
+    passport.authenticate('local', { session: true }, (err: unknown, user: SessionUser | false) => {
+      if (err) return next(err);
+      if (!user) return next(new HttpError(401, 'unauthenticated', 'That name and password do not match'));
+      // passport ≥ 0.6 regenerates the session id here, so a planted id is never promoted.
+      req.logIn(user, (loginErr) => (loginErr ? next(loginErr) : res.json({ user: publicUser(user) })));
+    })(req, res, next);
+  };
+
+  return [
+    { method: 'post', path: '/session', capability: null, handler: signIn },
+    {
+      method: 'get',
+      path: '/session',
+      capability: null,
+      handler: (req, res) => res.json({ user: req.user ? publicUser(req.user) : null }),
+    },
+    {
+      method: 'delete',
+      path: '/session',
+      capability: null,
+      handler: (req, res, next) =>
+        req.logOut((err) => {
+          if (err) return next(err);
+          req.session.destroy((destroyErr) => (destroyErr ? next(destroyErr) : res.status(204).end()));
+        }),
+    },
+  ];
+}

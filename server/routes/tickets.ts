@@ -1,0 +1,39 @@
+import { idParam, ticketsQuery } from '../../src/domain/schemas';
+import { openTickets, pickupView } from '../../src/domain/tickets';
+import { userOf } from '../auth/guards';
+import { parse } from '../errors';
+import type { Deps } from '../services/deps';
+import { boardSnapshot, bumpDrink, bumpTicket, recallTicket, startDrink } from '../services/tickets';
+import type { ApiRoute } from './define';
+
+
+type Command = typeof bumpDrink;
+
+export function ticketRoutes(deps: Deps): ApiRoute[] {
+  const command = (run: Command): ApiRoute['handler'] => async (req, res) => {
+    const { id } = parse(idParam, req.params, 'params');
+    res.json({ ticket: await run(deps, userOf(req), id) });
+  };
+  return [
+    {
+      method: 'get',
+      path: '/tickets',
+      capability: 'viewQueue',
+      handler: async (req, res) => {
+        const { status } = parse(ticketsQuery, req.query, 'query');
+        const board = await boardSnapshot(deps, userOf(req).locationId);
+        res.json(status === 'open' ? { ...board, tickets: board.tickets.filter((t) => openTickets(t, 0)) } : board);
+      },
+    },
+    {
+      method: 'get',
+      path: '/pickup',
+      capability: 'viewPickup',
+      handler: async (req, res) => res.json(pickupView(await boardSnapshot(deps, userOf(req).locationId))),
+    },
+    { method: 'post', path: '/drinks/:id/start', capability: 'makeDrinks', handler: command(startDrink) },
+    { method: 'post', path: '/drinks/:id/bump', capability: 'makeDrinks', handler: command(bumpDrink) },
+    { method: 'post', path: '/tickets/:id/bump', capability: 'makeDrinks', handler: command(bumpTicket) },
+    { method: 'post', path: '/tickets/:id/recall', capability: 'makeDrinks', handler: command(recallTicket) },
+  ];
+}

@@ -1,0 +1,71 @@
+// Start Jugline on one HTTP server: the Express app, the screens and the live socket.
+import { createServer, type Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import type { Knex } from 'knex';
+import { DEMO_PASSWORD, DEMO_STAFF, isEmpty, seedDemoCafe } from '../seeds/demo-cafe';
+import { createApp } from './app';
+import type { Config } from './config';
+import { createDb, migrate } from './db/knex';
+import { attachSocketServer } from './realtime/socket-server';
+import type { Clock } from './services/deps';
+import { developmentPages, productionPages } from './ssr/pages';
+
+export interface RunningServer {
+  url: string;
+  server: Server;
+  db: Knex;
+  close(): Promise<void>;
+}
+
+export interface StartOptions {
+  clock?: Clock;
+  /** 'production' serves dist/; 'development' runs Vite in middleware mode. */
+  pages?: 'production' | 'development' | 'none';
+  log?: (line: string) => void;
+}
+
+export async function prepareDatabase(config: Pick<Config, 'databaseFile' | 'seedDemo'>, log = console.log) {
+  const db = createDb(config.databaseFile);
+  await migrate(db);
+  if (config.seedDemo && (await isEmpty(db))) {
+    await seedDemoCafe(db);
+    log('Loaded the demo café, Harbour & Hearth Coffee.');
+  }
+  return db;
+}
+
+export async function startServer(config: Config, opts: StartOptions = {}): Promise<RunningServer> {
+  const log = opts.log ?? console.log;
+  const db = await prepareDatabase(config, log);
+  const server = createServer();
+  const mode = opts.pages ?? (config.env === 'production' ? 'production' : 'development');
+  const pages = mode === 'none' ? undefined : mode === 'production' ? productionPages() : await developmentPages(server);
+  const { app, deps, sessionMiddleware } = createApp({ db, config, clock: opts.clock, pages });
+  server.on('request', app);
+  const sockets = attachSocketServer(server, deps, sessionMiddleware);
+
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(config.port, config.host, () => resolve());
+  });
+  const { port } = server.address() as AddressInfo;
+  const url = `http://${config.host.includes(':') ? `[${config.host}]` : config.host}:${port}`;
+
+  let closing: Promise<void> | undefined;
+  const close = () =>
+    (closing ??= (async () => {
+      // 1012 "service restart": screens reconnect and resume from their last seq
+      await sockets.close(1012, 'server restarting');
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      server.closeAllConnections();
+      await pages?.close();
+      await db.destroy();
+    })());
+  return { url, server, db, close };
+}
+
+export function printSignIns(url: string, log = console.log) {
+  log(`Jugline is serving at ${url}`);
+  log(`Demo sign-ins (password "${DEMO_PASSWORD}"): ${DEMO_STAFF.map((s) => `${s.username} (${s.role})`).join(', ')}`);
+  log('Before real use: set SEED_DEMO=false on a new database and give every person their own password.');
+}

@@ -1,0 +1,55 @@
+// The events table is the realtime log: appended inside each command's transaction, published
+// after commit, replayed to screens that resume.
+import type { Knex } from 'knex';
+import type { EventType, LiveEvent, TicketView } from '../../src/domain/types';
+import type { Deps } from './deps';
+
+export interface PendingEvent {
+  locationId: number;
+  event: LiveEvent;
+}
+
+export async function appendEvent(
+  trx: Knex.Transaction,
+  locationId: number,
+  type: EventType,
+  ticket: TicketView,
+  at: string,
+  actorId: number | null,
+): Promise<PendingEvent> {
+  const [{ id }] = await trx('events')
+    .insert({ location_id: locationId, type, payload: JSON.stringify({ ticket }), actor_id: actorId, created_at: at })
+    .returning('id');
+  return { locationId, event: { seq: id, type, at, ticket } };
+}
+
+/** Run a command in one transaction; publish its events only once it has committed. */
+export async function runCommand<T>(
+  deps: Deps,
+  work: (trx: Knex.Transaction) => Promise<{ result: T; events: PendingEvent[] }>,
+): Promise<T> {
+  const { result, events } = await deps.db.transaction(work);
+  for (const { locationId, event } of events) deps.hub.publish(locationId, event);
+  return result;
+}
+
+export async function latestSeq(db: Knex | Knex.Transaction, locationId: number): Promise<number> {
+  const row = await db('events').where({ location_id: locationId }).max<{ seq: number | null }>({ seq: 'id' }).first();
+  return row?.seq ?? 0;
+}
+
+/** Events after `since`, oldest first; `limit + 1` rows tell the caller it is too far behind. */
+export async function eventsSince(db: Knex, locationId: number, since: number, limit: number): Promise<LiveEvent[]> {
+  const rows = await db('events')
+    .where({ location_id: locationId })
+    .andWhere('id', '>', since)
+    .orderBy('id')
+    .limit(limit + 1)
+    .select('id', 'type', 'payload', 'created_at');
+  return rows.map((r) => ({
+    seq: r.id,
+    type: r.type,
+    at: r.created_at,
+    ticket: (typeof r.payload === 'string' ? JSON.parse(r.payload) : r.payload).ticket,
+  }));
+}

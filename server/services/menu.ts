@@ -1,0 +1,82 @@
+// The menu as the Counter and the pricing see it.
+import type { Knex } from 'knex';
+import type { LocationView, MenuView, Texture } from '../../src/domain/types';
+import { bool, json } from '../db/rows';
+import { notFound } from '../errors';
+
+export async function loadLocation(db: Knex | Knex.Transaction, locationId: number): Promise<LocationView> {
+  const l = await db('locations').where({ id: locationId }).first();
+  if (!l) throw notFound('Location');
+  return {
+    id: l.id,
+    name: l.name,
+    timeZone: l.time_zone,
+    currency: l.currency,
+    taxMode: l.tax_mode,
+    taxRateMilliPct: l.tax_rate_milli_pct,
+    extraShotCents: l.extra_shot_cents,
+    waitTargetSeconds: l.wait_target_seconds,
+    pickupTimeoutSeconds: l.pickup_timeout_seconds,
+  };
+}
+
+export async function loadMenu(db: Knex | Knex.Transaction, locationId: number): Promise<MenuView> {
+  const location = await loadLocation(db, locationId);
+  const categories = await db('menu_categories')
+    .where({ location_id: locationId })
+    .whereNull('retired_at')
+    .orderBy(['sort', 'id'])
+    .select('id', 'name');
+  const items = await db('menu_items')
+    .whereIn('category_id', categories.map((c) => c.id))
+    .whereNull('retired_at')
+    .orderBy(['sort', 'id']);
+  const sizes = await db('item_sizes')
+    .whereIn('item_id', items.map((i) => i.id))
+    .orderBy(['sort', 'id']);
+  const milks = await db('milk_options')
+    .where({ location_id: locationId })
+    .whereNull('retired_at')
+    .orderBy(['sort', 'id']);
+  const modifiers = await db('modifiers')
+    .where({ location_id: locationId })
+    .whereNull('retired_at')
+    .orderBy(['sort', 'id']);
+
+  return {
+    location,
+    categories,
+    items: items.map((i) => ({
+      id: i.id,
+      categoryId: i.category_id,
+      name: i.name,
+      station: i.station,
+      priceCents: i.price_cents,
+      shots: i.shots,
+      takesMilk: bool(i.takes_milk),
+      defaultMilkId: i.default_milk_id,
+      texture: (i.texture as Texture | null) ?? null,
+      available: bool(i.available),
+      allergens: json<string[]>(i.allergens, []),
+      sizes: sizes
+        .filter((s) => s.item_id === i.id)
+        .map((s) => ({
+          id: s.id,
+          name: s.name,
+          volumeMl: s.volume_ml,
+          priceCents: s.price_cents,
+          shots: s.shots,
+          milkMl: s.milk_ml,
+          isDefault: bool(s.is_default),
+        })),
+    })),
+    milks: milks.map((m) => ({
+      id: m.id,
+      name: m.name,
+      code: m.code,
+      upchargeCents: m.upcharge_cents,
+      allergens: json<string[]>(m.allergens, []),
+    })),
+    modifiers: modifiers.map((m) => ({ id: m.id, groupName: m.group_name, name: m.name, priceCents: m.price_cents })),
+  };
+}

@@ -1,0 +1,61 @@
+// Reading tickets (orders with their bar drinks) into the shape the screens use.
+import type { Knex } from 'knex';
+import type { DrinkView, TicketView } from '../../src/domain/types';
+import { json } from '../db/rows';
+
+type Db = Knex | Knex.Transaction;
+
+function toDrink(r: Record<string, any>): DrinkView {
+  return {
+    id: r.id,
+    ticketId: r.order_id,
+    itemName: r.item_name,
+    sizeName: r.size_name,
+    volumeMl: r.volume_ml,
+    milk: r.milk_id ? { id: r.milk_id, name: r.milk_name, code: r.milk_code } : null,
+    shots: r.shots,
+    milkMl: r.milk_ml,
+    texture: r.texture,
+    modifiers: json<{ name: string }[]>(r.modifiers, []).map((m) => m.name),
+    note: r.note,
+    status: r.status,
+    startedAt: r.started_at,
+    doneAt: r.done_at,
+  };
+}
+
+export async function loadTickets(db: Db, orders: Record<string, any>[]): Promise<TicketView[]> {
+  if (orders.length === 0) return [];
+  const drinks = await db('order_items')
+    .whereIn('order_id', orders.map((o) => o.id))
+    .andWhere({ station: 'bar' })
+    .orderBy(['order_id', 'line_no']);
+  const byOrder = new Map<number, DrinkView[]>();
+  for (const d of drinks) byOrder.set(d.order_id, [...(byOrder.get(d.order_id) ?? []), toDrink(d)]);
+  return orders.map((o) => ({
+    id: o.id,
+    number: o.number,
+    customerName: o.customer_name,
+    status: o.status,
+    firedAt: o.fired_at,
+    readyAt: o.ready_at,
+    collectedAt: o.collected_at,
+    drinks: byOrder.get(o.id) ?? [],
+  }));
+}
+
+export async function loadTicket(db: Db, orderId: number): Promise<TicketView> {
+  const order = await db('orders').where({ id: orderId }).first();
+  const [ticket] = await loadTickets(db, [order]);
+  return ticket;
+}
+
+/** Open tickets, plus ready ones still inside the Pickup board's timeout. */
+export async function loadBoardTickets(db: Db, locationId: number, nowMs: number, pickupTimeoutSeconds: number) {
+  const readySince = new Date(nowMs - pickupTimeoutSeconds * 1000).toISOString();
+  const orders = await db('orders')
+    .where({ location_id: locationId })
+    .andWhere((q) => q.where({ status: 'open' }).orWhere((r) => r.where({ status: 'ready' }).andWhere('ready_at', '>', readySince)))
+    .orderBy([{ column: 'fired_at' }, { column: 'id' }]);
+  return loadTickets(db, orders);
+}

@@ -1,0 +1,21 @@
+// The screens' Api during server rendering: straight to the services, as the signed-in user.
+import type { Api } from '../../src/lib/api';
+import { pickupView } from '../../src/domain/tickets';
+import type { SessionUser } from '../../src/domain/types';
+import { HttpError } from '../errors';
+import type { Deps } from '../services/deps';
+import { loadMenu } from '../services/menu';
+import { boardSnapshot } from '../services/tickets';
+
+export function serverApi(deps: Deps, user: SessionUser | undefined): Api {
+  const locationId = () => {
+    if (!user) throw new HttpError(401, 'unauthenticated', 'Sign in first');
+    return user.locationId;
+  };
+  return {
+    session: async () => ({ user: user ? { id: user.id, name: user.name, role: user.role } : null }),
+    menu: () => loadMenu(deps.db, locationId()),
+    tickets: () => boardSnapshot(deps, locationId()),
+    pickup: async () => pickupView(await boardSnapshot(deps, locationId())),
+  };
+}

@@ -1,0 +1,90 @@
+// Turn what the cashier picked into a priced line, checked against the menu. Pure: the server
+// uses it to price every order (prices are never taken from the client); the Counter uses it
+// to show a running price before sending.
+import type { OrderLineInput } from './schemas';
+import type { MenuView, MilkView, SizeView, Station, Texture } from './types';
+
+export interface ResolvedLine {
+  menuItemId: number;
+  itemName: string;
+  station: Station;
+  size: SizeView | null;
+  milk: MilkView | null;
+  shots: number;
+  milkMl: number;
+  texture: Texture | null;
+  modifiers: { id: number; name: string; priceCents: number }[];
+  note: string | null;
+  priceCents: number;
+}
+
+export type LineProblem = { field: string; message: string; kind: 'invalid' | 'unavailable' };
+export type LineResult = { ok: true; line: ResolvedLine } | { ok: false; problem: LineProblem };
+
+const fail = (field: string, message: string, kind: LineProblem['kind'] = 'invalid'): LineResult => ({
+  ok: false,
+  problem: { field, message, kind },
+});
+
+export function resolveLine(menu: MenuView, input: OrderLineInput): LineResult {
+  const item = menu.items.find((i) => i.id === input.menuItemId);
+  if (!item) return fail('menuItemId', `No menu item ${input.menuItemId}`);
+  if (!item.available) return fail('menuItemId', `${item.name} is 86'd`, 'unavailable');
+
+  let size: SizeView | null = null;
+  if (item.sizes.length > 0) {
+    size =
+      input.sizeId === undefined
+        ? (item.sizes.find((s) => s.isDefault) ?? item.sizes[0])
+        : (item.sizes.find((s) => s.id === input.sizeId) ?? null);
+    if (!size) return fail('sizeId', `${item.name} has no size ${input.sizeId}`);
+  } else if (input.sizeId !== undefined) {
+    return fail('sizeId', `${item.name} comes in one size`);
+  }
+
+  let milk: MilkView | null = null;
+  if (item.takesMilk) {
+    const milkId = input.milkId ?? item.defaultMilkId;
+    milk = menu.milks.find((m) => m.id === milkId) ?? null;
+    if (!milk) return fail('milkId', `Choose a milk for ${item.name}`);
+  } else if (input.milkId !== undefined) {
+    return fail('milkId', `${item.name} takes no milk`);
+  }
+
+  const recipeShots = size?.shots ?? item.shots;
+  const shots = input.shots ?? recipeShots;
+  const extraShots = Math.max(0, shots - recipeShots);
+
+  const ids = input.modifierIds ?? [];
+  if (new Set(ids).size !== ids.length) return fail('modifierIds', 'An extra is listed twice');
+  const modifiers = [];
+  for (const id of ids) {
+    const mod = menu.modifiers.find((m) => m.id === id);
+    if (!mod) return fail('modifierIds', `No extra ${id}`);
+    modifiers.push({ id: mod.id, name: mod.name, priceCents: mod.priceCents });
+  }
+
+  const base = size?.priceCents ?? item.priceCents ?? 0;
+  const priceCents =
+    base +
+    (milk?.upchargeCents ?? 0) +
+    extraShots * menu.location.extraShotCents +
+    modifiers.reduce((sum, m) => sum + m.priceCents, 0);
+
+  return {
+    ok: true,
+    line: {
+      menuItemId: item.id,
+      itemName: item.name,
+      station: item.station,
+      size,
+      milk,
+      shots,
+      milkMl: item.takesMilk ? (size?.milkMl ?? 0) : 0,
+      texture: item.texture,
+      modifiers,
+      note: input.note ? input.note : null,
+      priceCents,
+    },
+  };
+}

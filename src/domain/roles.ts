@@ -1,0 +1,27 @@
+// Staff roles and what each may do. A lead can do everything a cashier and a barista can;
+// an owner can do everything.
+export const ROLES = ['cashier', 'barista', 'lead', 'owner'] as const;
+export type Role = (typeof ROLES)[number];
+
+/** Which roles each capability needs. Kept as one table so routes and screens agree. */
+export const CAPABILITIES = {
+  takeOrders: ['cashier', 'lead', 'owner'],
+  makeDrinks: ['barista', 'lead', 'owner'],
+  viewQueue: ['cashier', 'barista', 'lead', 'owner'],
+  viewPickup: ['cashier', 'barista', 'lead', 'owner'],
+} as const satisfies Record<string, readonly Role[]>;
+
+export type Capability = keyof typeof CAPABILITIES;
+
+export function can(role: Role | undefined | null, capability: Capability): boolean {
+  if (!role) return false;
+  return (CAPABILITIES[capability] as readonly Role[]).includes(role);
+}
+
+/** Where each role lands after signing in. */
+export const HOME_SCREEN: Record<Role, string> = {
+  cashier: '/counter',
+  barista: '/bar',
+  lead: '/bar',
+  owner: '/counter',
+};

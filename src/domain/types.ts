@@ -1,0 +1,176 @@
+// Shapes the API answers with and the screens render. Shared by client and server.
+import type { Role } from './roles';
+
+export type Station = 'bar' | 'counter';
+/** Milk texture a drink is steamed for, thinnest first. Our own names. */
+export const TEXTURES = ['flat', 'silky', 'foamy', 'cold'] as const;
+export type Texture = (typeof TEXTURES)[number];
+export type DrinkStatus = 'queued' | 'making' | 'done';
+export type TicketStatus = 'open' | 'ready' | 'collected';
+
+export interface SessionUser {
+  id: number;
+  name: string;
+  role: Role;
+  locationId: number;
+}
+
+export interface LocationView {
+  id: number;
+  name: string;
+  timeZone: string;
+  currency: string;
+  taxMode: 'exclusive' | 'inclusive';
+  /** Tax rate in thousandths of a percent: 8.25 % is 8250. */
+  taxRateMilliPct: number;
+  extraShotCents: number;
+  waitTargetSeconds: number;
+  pickupTimeoutSeconds: number;
+}
+
+export interface MilkView {
+  id: number;
+  name: string;
+  /** Two-letter badge shown on lane headers, chosen in the menu. */
+  code: string;
+  upchargeCents: number;
+  allergens: string[];
+}
+
+export interface SizeView {
+  id: number;
+  name: string;
+  volumeMl: number;
+  priceCents: number;
+  shots: number;
+  milkMl: number;
+  /** The size a tap on the tile picks. */
+  isDefault: boolean;
+}
+
+export interface ModifierView {
+  id: number;
+  groupName: string;
+  name: string;
+  priceCents: number;
+}
+
+export interface MenuItemView {
+  id: number;
+  categoryId: number;
+  name: string;
+  station: Station;
+  /** Price when the item has no sizes. */
+  priceCents: number | null;
+  shots: number;
+  takesMilk: boolean;
+  defaultMilkId: number | null;
+  texture: Texture | null;
+  available: boolean;
+  allergens: string[];
+  sizes: SizeView[];
+}
+
+export interface MenuView {
+  location: LocationView;
+  categories: { id: number; name: string }[];
+  items: MenuItemView[];
+  milks: MilkView[];
+  modifiers: ModifierView[];
+}
+
+export interface MilkRef {
+  id: number;
+  name: string;
+  code: string;
+}
+
+export interface DrinkView {
+  id: number;
+  ticketId: number;
+  itemName: string;
+  sizeName: string | null;
+  volumeMl: number | null;
+  milk: MilkRef | null;
+  shots: number;
+  milkMl: number;
+  texture: Texture | null;
+  modifiers: string[];
+  note: string | null;
+  status: DrinkStatus;
+  startedAt: string | null;
+  doneAt: string | null;
+}
+
+export interface TicketView {
+  id: number;
+  number: number;
+  customerName: string;
+  status: TicketStatus;
+  firedAt: string;
+  readyAt: string | null;
+  collectedAt: string | null;
+  /** Bar drinks only; counter items are handed over at the counter. */
+  drinks: DrinkView[];
+}
+
+export interface OrderLineView {
+  id: number;
+  menuItemId: number;
+  itemName: string;
+  station: Station;
+  sizeName: string | null;
+  milkName: string | null;
+  shots: number;
+  modifiers: string[];
+  note: string | null;
+  priceCents: number;
+}
+
+export interface OrderView {
+  id: number;
+  clientOrderId: string;
+  number: number;
+  customerName: string;
+  status: TicketStatus;
+  lines: OrderLineView[];
+  subtotalCents: number;
+  discountCents: number;
+  taxCents: number;
+  totalCents: number;
+  payment: { method: 'cash'; tenderedCents: number; changeCents: number };
+  changeCents: number;
+  firedAt: string;
+}
+
+export const EVENT_TYPES = [
+  'order.fired',
+  'drink.started',
+  'drink.bumped',
+  'ticket.bumped',
+  'ticket.recalled',
+] as const;
+export type EventType = (typeof EVENT_TYPES)[number];
+
+/** One row of the realtime log; `seq` is its id and strictly increases. */
+export interface LiveEvent {
+  seq: number;
+  type: EventType;
+  at: string;
+  ticket: TicketView;
+}
+
+export interface BoardSnapshot {
+  seq: number;
+  now: string;
+  location: { name: string; waitTargetSeconds: number; pickupTimeoutSeconds: number };
+  tickets: TicketView[];
+}
+
+/** Messages the server sends over the live socket. */
+export type ServerMessage =
+  | { type: 'hello'; seq: number }
+  | { type: 'event'; event: LiveEvent }
+  | { type: 'snapshot'; snapshot: BoardSnapshot }
+  | { type: 'pong' }
+  | { type: 'error'; code: string; message: string };

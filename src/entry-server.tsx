@@ -1,0 +1,41 @@
+// Server rendering: run the matched routes' loaders into a fresh QueryClient for this request,
+// render the screen to HTML, and hand the data to the browser as non-executable JSON.
+import { dehydrate, QueryClient, QueryClientProvider } from '@tanstack/react-query';
+import { StrictMode } from 'react';
+import { renderToString } from 'react-dom/server';
+import { createStaticHandler, createStaticRouter, StaticRouterProvider } from 'react-router';
+import type { Api } from './lib/api';
+import { ApiContext } from './lib/api-context';
+import { escapeHtml, jsonForScript } from './lib/html';
+import { createRoutes } from './routes';
+import { titleOf } from './routes/root';
+
+export type RenderResult =
+  | { kind: 'redirect'; status: number; location: string }
+  | { kind: 'page'; status: number; head: string; html: string; state: string };
+
+export async function render(request: Request, api: Api): Promise<RenderResult> {
+  // Never module-level on the server: one request's data must not reach another's page.
+  const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false, staleTime: 30_000 } } });
+  const handler = createStaticHandler(createRoutes({ queryClient, api }));
+  const context = await handler.query(request);
+  if (context instanceof Response) {
+    return { kind: 'redirect', status: context.status, location: context.headers.get('Location') ?? '/' };
+  }
+  const router = createStaticRouter(handler.dataRoutes, context);
+  const html = renderToString(
+    <StrictMode>
+      <ApiContext.Provider value={api}>
+        <QueryClientProvider client={queryClient}>
+          <StaticRouterProvider router={router} context={context} hydrate={false} />
+        </QueryClientProvider>
+      </ApiContext.Provider>
+    </StrictMode>,
+  );
+  const state = {
+    query: dehydrate(queryClient),
+    router: { loaderData: context.loaderData, actionData: context.actionData, errors: context.errors },
+  };
+  const title = titleOf(context.matches.map((m) => ({ handle: m.route.handle })));
+  return { kind: 'page', status: context.statusCode, head: `<title>${escapeHtml(title)}</title>`, html, state: jsonForScript(state) };
+}

@@ -1,0 +1,80 @@
+import type { DrinkCard as Card } from '../../domain/lanes';
+import { ticketAgeSeconds } from '../../domain/tickets';
+import { cn } from '../../lib/cn';
+import { Button } from '../../components/ui/button';
+import { PourLine, ageLabel } from './pour-line';
+
+interface Props {
+  card: Card;
+  nowMs: number;
+  targetSeconds: number;
+  /** 1–9: the number key that bumps this card. */
+  keyNumber: number | null;
+  busy: boolean;
+  onStart(): void;
+  onBump(): void;
+}
+
+export function DrinkCard({ card, nowMs, targetSeconds, keyNumber, busy, onStart, onBump }: Props) {
+  const age = ticketAgeSeconds(card.firedAt, nowMs);
+  const late = age > targetSeconds;
+  const size = card.sizeName ? `${card.sizeName}${card.volumeMl ? ` ${card.volumeMl} ml` : ''}` : null;
+  return (
+    <article
+      data-testid="drink-card"
+      data-drink-id={card.id}
+      data-ticket={card.ticketNumber}
+      aria-label={`Ticket ${card.ticketNumber}, ${card.customerName}: ${card.itemName}`}
+      className={cn(
+        'rounded-xl border-2 bg-roast-750 p-3 text-crema-100',
+        card.status === 'making' ? 'border-crema-100' : 'border-transparent',
+        late && 'border-dashed border-copper-300',
+      )}
+    >
+      <header className="flex items-baseline gap-3">
+        {keyNumber !== null && (
+          <kbd
+            title={`Press ${keyNumber} to bump`}
+            className="grid size-9 shrink-0 place-items-center rounded-md bg-crema-100 font-display text-2xl font-semibold text-roast-950"
+          >
+            {keyNumber}
+          </kbd>
+        )}
+        <span className="font-display text-5xl leading-none font-semibold">#{card.ticketNumber}</span>
+        <span className="truncate text-2xl font-semibold">{card.customerName}</span>
+        {card.ticketSize > 1 && (
+          <span className="ml-auto shrink-0 rounded-md border border-crema-300 px-2 text-lg font-semibold text-crema-300">
+            {card.indexInTicket} of {card.ticketSize}
+          </span>
+        )}
+      </header>
+      <p className="mt-2 text-3xl leading-tight font-semibold">{card.itemName}</p>
+      <p className="text-xl text-crema-300">
+        {[size, card.shots ? `${card.shots} shot${card.shots > 1 ? 's' : ''}` : null, ...card.modifiers]
+          .filter(Boolean)
+          .join(' · ')}
+      </p>
+      {card.note && <p className="mt-1 text-xl font-semibold text-alert-ink">Note: {card.note}</p>}
+      <div className="mt-3 flex items-center gap-3">
+        <PourLine ageSeconds={age} targetSeconds={targetSeconds} />
+        <span data-testid="age" className={cn('shrink-0 font-display text-4xl font-semibold', late && 'underline decoration-4')}>
+          {ageLabel(age, targetSeconds)}
+        </span>
+      </div>
+      <div className="mt-3 flex gap-3">
+        {card.status === 'queued' ? (
+          <Button tone="dark" size="lg" className="flex-1" disabled={busy} onClick={onStart}>
+            Start
+          </Button>
+        ) : (
+          <span className="flex flex-1 items-center justify-center rounded-lg border-2 border-crema-300 text-xl font-semibold">
+            Making
+          </span>
+        )}
+        <Button tone="bump" size="lg" className="flex-[2]" disabled={busy} onClick={onBump}>
+          Bump ✓
+        </Button>
+      </div>
+    </article>
+  );
+}

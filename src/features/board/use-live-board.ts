@@ -1,0 +1,60 @@
+// One live socket per screen. Every board query in the cache is kept current from it.
+import { useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { useEffect, useState } from 'react';
+import { applyEvent, pickupTicket, upsertTicket, type BoardFilter } from '../../domain/tickets';
+import type { BoardSnapshot, LiveEvent, TicketView } from '../../domain/types';
+import { connectLive, liveUrl, type LinkState } from '../../lib/live-socket';
+import { syncServerClock } from '../../lib/server-clock';
+import { boardKeys } from './queries';
+
+// Boards keep ready tickets for a while (recall tray, Pickup's "ready"); each screen hides them
+// itself once its own time is up. Past this they are dropped so a day's tickets don't pile up.
+const KEEP_READY_MS = 30 * 60_000;
+const keepOnBoard: BoardFilter = (t, nowMs) =>
+  t.status === 'open' || (t.status === 'ready' && t.readyAt !== null && nowMs - Date.parse(t.readyAt) < KEEP_READY_MS);
+
+const boards: { key: readonly string[]; keep: BoardFilter; view: (t: TicketView) => TicketView }[] = [
+  { key: boardKeys.bar, keep: keepOnBoard, view: (t) => t },
+  { key: boardKeys.pickup, keep: keepOnBoard, view: pickupTicket },
+];
+
+function eachBoard(qc: QueryClient, fn: (b: BoardSnapshot, spec: (typeof boards)[number]) => BoardSnapshot) {
+  for (const spec of boards) {
+    const current = qc.getQueryData<BoardSnapshot>(spec.key);
+    if (current) qc.setQueryData<BoardSnapshot>(spec.key, fn(current, spec));
+  }
+}
+
+export function applyLiveEvent(qc: QueryClient, event: LiveEvent) {
+  eachBoard(qc, (b, spec) => applyEvent(b, { ...event, ticket: spec.view(event.ticket) }, spec.keep));
+}
+
+/** A command's answer shows at once; the event that follows changes nothing further. */
+export function applyTicket(qc: QueryClient, ticket: TicketView) {
+  eachBoard(qc, (b, spec) => upsertTicket(b, spec.view(ticket), spec.keep, Date.now()));
+}
+
+export function useLiveBoard(): LinkState {
+  const qc = useQueryClient();
+  const [state, setState] = useState<LinkState>('connecting');
+  useEffect(() => {
+    const lastSeq = () =>
+      Math.max(0, ...boards.map((b) => qc.getQueryData<BoardSnapshot>(b.key)?.seq ?? 0));
+    return connectLive(liveUrl(window.location), {
+      lastSeq,
+      onState: setState,
+      onEvent: (event) => {
+        syncServerClock(event.at);
+        applyLiveEvent(qc, event);
+      },
+      onSnapshot: (snapshot) => {
+        syncServerClock(snapshot.now);
+        eachBoard(qc, (_b, spec) => ({
+          ...snapshot,
+          tickets: snapshot.tickets.filter((t) => spec.keep(t, Date.parse(snapshot.now))).map(spec.view),
+        }));
+      },
+    });
+  }, [qc]);
+  return state;
+}

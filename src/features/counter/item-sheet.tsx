@@ -1,0 +1,134 @@
+// The item sheet: size, milk, shots and extras for one drink, as big touch choices.
+import { useState } from 'react';
+import { formatCents } from '../../domain/money';
+import { resolveLine } from '../../domain/order-lines';
+import type { OrderLineInput } from '../../domain/schemas';
+import type { MenuItemView, MenuView } from '../../domain/types';
+import { Button } from '../../components/ui/button';
+import { Segmented } from '../../components/ui/segmented';
+import { cn } from '../../lib/cn';
+
+interface Props {
+  menu: MenuView;
+  item: MenuItemView;
+  initial?: OrderLineInput;
+  onAdd(line: OrderLineInput): void;
+  onClose(): void;
+}
+
+export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
+  const defaultSize = item.sizes.find((s) => s.isDefault) ?? item.sizes[0];
+  const [line, setLine] = useState<OrderLineInput>(
+    initial ?? {
+      menuItemId: item.id,
+      sizeId: defaultSize?.id,
+      milkId: item.takesMilk ? (item.defaultMilkId ?? undefined) : undefined,
+      modifierIds: [],
+    },
+  );
+  const priced = resolveLine(menu, line);
+  const recipeShots = (item.sizes.find((s) => s.id === line.sizeId) ?? defaultSize)?.shots ?? item.shots;
+  const shots = line.shots ?? recipeShots;
+  const money = (c: number) => formatCents(c, menu.location.currency);
+  const toggleModifier = (id: number) => {
+    const ids = line.modifierIds ?? [];
+    setLine({ ...line, modifierIds: ids.includes(id) ? ids.filter((x) => x !== id) : [...ids, id] });
+  };
+
+  return (
+    <div role="dialog" aria-modal="true" aria-label={item.name} className="fixed inset-0 z-20 flex flex-col justify-end bg-ink-900/40">
+      <button type="button" aria-label="Close" className="flex-1 cursor-default" onClick={onClose} />
+      <div className="max-h-[85vh] overflow-y-auto rounded-t-2xl bg-steam-50 p-6 shadow-2xl">
+        <div className="flex items-baseline gap-4">
+          <h2 className="text-3xl font-semibold">{item.name}</h2>
+          <span className="text-2xl text-ink-600">{priced.ok ? money(priced.line.priceCents) : ''}</span>
+          <Button tone="quiet" className="ml-auto" onClick={onClose}>
+            Cancel
+          </Button>
+        </div>
+        <div className="mt-4 flex flex-col gap-4">
+          {item.sizes.length > 1 && (
+            <Segmented
+              label="Size"
+              value={line.sizeId}
+              onChange={(sizeId) => setLine({ ...line, sizeId, shots: undefined })}
+              options={item.sizes.map((s) => ({ value: s.id, label: s.name, hint: `${s.volumeMl} ml · ${money(s.priceCents)}` }))}
+            />
+          )}
+          {item.takesMilk && (
+            <Segmented
+              label="Milk"
+              value={line.milkId}
+              onChange={(milkId) => setLine({ ...line, milkId })}
+              options={menu.milks.map((m) => ({
+                value: m.id,
+                label: m.name,
+                hint: [m.upchargeCents ? `+${money(m.upchargeCents)}` : '', m.allergens.join(', ')].filter(Boolean).join(' · ') || undefined,
+              }))}
+            />
+          )}
+          {recipeShots > 0 && (
+            <fieldset>
+              <legend className="mb-1 text-sm font-semibold tracking-widest text-ink-600 uppercase">Shots</legend>
+              <div className="flex items-center gap-3">
+                <Button tone="quiet" size="lg" aria-label="One shot fewer" disabled={shots <= 1} onClick={() => setLine({ ...line, shots: shots - 1 })}>
+                  −
+                </Button>
+                <output aria-live="polite" className="w-28 text-center text-2xl font-semibold">
+                  {shots} shot{shots === 1 ? '' : 's'}
+                </output>
+                <Button tone="quiet" size="lg" aria-label="One shot more" disabled={shots >= 6} onClick={() => setLine({ ...line, shots: shots + 1 })}>
+                  +
+                </Button>
+                {shots > recipeShots && (
+                  <span className="text-lg text-ink-600">
+                    +{money((shots - recipeShots) * menu.location.extraShotCents)} extra shot
+                  </span>
+                )}
+              </div>
+            </fieldset>
+          )}
+          {item.station === 'bar' && (
+            <fieldset>
+              <legend className="mb-1 text-sm font-semibold tracking-widest text-ink-600 uppercase">Extras</legend>
+              <div className="flex flex-wrap gap-2">
+                {menu.modifiers.map((m) => {
+                  const on = line.modifierIds?.includes(m.id) ?? false;
+                  return (
+                    <button
+                      key={m.id}
+                      type="button"
+                      aria-pressed={on}
+                      onClick={() => toggleModifier(m.id)}
+                      className={cn(
+                        'min-h-14 rounded-lg border-2 px-4 text-lg font-semibold',
+                        on ? 'border-ink-900 bg-ink-900 text-steam-50' : 'border-steam-200 bg-white',
+                      )}
+                    >
+                      {on && <span aria-hidden>✓ </span>}
+                      {m.name}
+                      {m.priceCents > 0 && <span className="ml-1 text-sm font-medium">+{money(m.priceCents)}</span>}
+                    </button>
+                  );
+                })}
+              </div>
+            </fieldset>
+          )}
+          <label className="block">
+            <span className="mb-1 block text-sm font-semibold tracking-widest text-ink-600 uppercase">Note for the bar</span>
+            <input
+              className="w-full rounded-lg border border-steam-200 bg-white px-3 py-3 text-lg"
+              maxLength={140}
+              value={line.note ?? ''}
+              onChange={(e) => setLine({ ...line, note: e.target.value || undefined })}
+            />
+          </label>
+          {!priced.ok && <p role="alert" className="font-semibold text-copper-700">{priced.problem.message}</p>}
+          <Button size="xl" disabled={!priced.ok} onClick={() => onAdd(line)}>
+            {initial ? 'Update line' : 'Add to order'} {priced.ok ? `· ${money(priced.line.priceCents)}` : ''}
+          </Button>
+        </div>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,50 @@
+import { useState } from 'react';
+import { formatCents } from '../../domain/money';
+import type { MenuItemView, MenuView } from '../../domain/types';
+import { cn } from '../../lib/cn';
+
+export function fromPrice(item: MenuItemView): number {
+  return item.sizes.length ? Math.min(...item.sizes.map((s) => s.priceCents)) : (item.priceCents ?? 0);
+}
+
+export function MenuGrid({ menu, onPick }: { menu: MenuView; onPick(item: MenuItemView): void }) {
+  const [categoryId, setCategoryId] = useState(menu.categories[0]?.id);
+  const items = menu.items.filter((i) => i.categoryId === categoryId);
+  return (
+    <div className="flex min-h-0 flex-col">
+      <div role="tablist" aria-label="Menu categories" className="flex gap-2">
+        {menu.categories.map((c) => (
+          <button
+            key={c.id}
+            role="tab"
+            type="button"
+            aria-selected={c.id === categoryId}
+            onClick={() => setCategoryId(c.id)}
+            className={cn(
+              'min-h-14 rounded-t-lg border-b-4 px-5 text-lg font-semibold',
+              c.id === categoryId ? 'border-copper-700 bg-steam-100' : 'border-transparent text-ink-600',
+            )}
+          >
+            {c.name}
+          </button>
+        ))}
+      </div>
+      <div role="tabpanel" className="grid grid-cols-[repeat(auto-fill,minmax(10rem,1fr))] gap-3 overflow-y-auto pt-3">
+        {items.map((item) => (
+          <button
+            key={item.id}
+            type="button"
+            disabled={!item.available}
+            onClick={() => onPick(item)}
+            className="flex min-h-24 flex-col items-start justify-between rounded-xl border border-steam-200 bg-white p-3 text-left shadow-sm hover:border-copper-500 disabled:bg-steam-100 disabled:opacity-60"
+          >
+            <span className="text-xl leading-tight font-semibold">{item.name}</span>
+            <span className="text-base text-ink-600">
+              {item.available ? `${item.sizes.length > 1 ? 'from ' : ''}${formatCents(fromPrice(item), menu.location.currency)}` : "86'd — unavailable"}
+            </span>
+          </button>
+        ))}
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,24 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { data, redirect } from 'react-router';
+import { can, type Capability } from '../domain/roles';
+import { sessionQuery } from '../features/session/queries';
+import type { Api, PublicUser } from '../lib/api';
+
+/** What route loaders receive: the request's QueryClient and the api to fill it from. */
+export interface RouteDeps {
+  queryClient: QueryClient;
+  api: Api;
+}
+
+/** Signed out → to sign-in and back; signed in without the capability → a 403 page. */
+export async function requireScreen(deps: RouteDeps, request: Request, capability: Capability): Promise<PublicUser> {
+  const { user } = await deps.queryClient.ensureQueryData(sessionQuery(deps.api));
+  if (!user) {
+    const url = new URL(request.url);
+    throw redirect(`/signin?next=${encodeURIComponent(url.pathname + url.search)}`);
+  }
+  if (!can(user.role, capability)) {
+    throw data({ message: `This screen is not open to the ${user.role} role.` }, { status: 403, statusText: 'Forbidden' });
+  }
+  return user;
+}

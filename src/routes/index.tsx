@@ -1,0 +1,49 @@
+// The screens. Loaders fill the request's QueryClient (on the server they read the services
+// directly; in the browser they fetch), so a server-rendered screen arrives with its data.
+import { data, redirect, type RouteObject } from 'react-router';
+import { HOME_SCREEN } from '../domain/roles';
+import { sessionQuery } from '../features/session/queries';
+import { RouteError } from './route-error';
+import { Root } from './root';
+import { barRoute } from './bar';
+import { counterRoute } from './counter';
+import { pickupRoute } from './pickup';
+import { signInRoute } from './signin';
+import type { RouteDeps } from './deps';
+
+export function createRoutes(deps: RouteDeps): RouteObject[] {
+  return [
+    {
+      id: 'root',
+      path: '/',
+      Component: Root,
+      ErrorBoundary: RouteError,
+      loader: async () => {
+        await deps.queryClient.ensureQueryData(sessionQuery(deps.api));
+        return null;
+      },
+      children: [
+        {
+          id: 'home',
+          index: true,
+          loader: async () => {
+            const { user } = await deps.queryClient.ensureQueryData(sessionQuery(deps.api));
+            throw redirect(user ? HOME_SCREEN[user.role] : '/signin');
+          },
+        },
+        { id: 'signin', path: 'signin', ...signInRoute(deps) },
+        { id: 'counter', path: 'counter', ...counterRoute(deps) },
+        { id: 'bar', path: 'bar', ...barRoute(deps) },
+        { id: 'pickup', path: 'pickup', ...pickupRoute(deps) },
+        {
+          id: 'not-found',
+          path: '*',
+          handle: { title: 'Not found' },
+          loader: () => {
+            throw data({ message: 'There is no screen here.' }, { status: 404, statusText: 'Not Found' });
+          },
+        },
+      ],
+    },
+  ];
+}

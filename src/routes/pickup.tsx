@@ -1,0 +1,77 @@
+// The Pickup board for customers: first names and numbers only, "Being made" and "Ready".
+import { useSuspenseQuery } from '@tanstack/react-query';
+import type { LoaderFunctionArgs } from 'react-router';
+import { pickupBoard } from '../domain/tickets';
+import type { TicketView } from '../domain/types';
+import { LinkStateBadge } from '../components/ui/link-state';
+import { pickupBoardQuery } from '../features/board/queries';
+import { useLiveBoard } from '../features/board/use-live-board';
+import { useApi } from '../lib/api-context';
+import { cn } from '../lib/cn';
+import { useNow } from '../lib/use-now';
+import { requireScreen, type RouteDeps } from './deps';
+
+/** A name that turned ready this recently gets the slow underline. */
+const FRESH_MS = 20_000;
+
+function NameRow({ t, fresh }: { t: TicketView; fresh?: boolean }) {
+  return (
+    <li data-testid="pickup-name" className="flex items-baseline gap-5">
+      <span className={cn('font-display text-8xl leading-tight font-semibold', fresh && 'ready-fresh')}>{t.customerName}</span>
+      <span className="font-display text-5xl text-crema-300">#{t.number}</span>
+    </li>
+  );
+}
+
+function Pickup() {
+  const { data: board } = useSuspenseQuery(pickupBoardQuery(useApi()));
+  const link = useLiveBoard();
+  const now = useNow(Date.parse(board.now));
+  const shown = board.tickets.filter((t) => pickupBoard(board.location.pickupTimeoutSeconds)(t, now));
+  const making = shown.filter((t) => t.status === 'open');
+  const ready = shown
+    .filter((t) => t.status === 'ready')
+    .sort((a, b) => (b.readyAt ?? '').localeCompare(a.readyAt ?? ''));
+
+  return (
+    <div className="on-dark flex h-screen flex-col bg-roast-950 text-crema-100">
+      <div className="grid flex-1 grid-cols-2 divide-x divide-crema-300/30">
+        <section aria-labelledby="making" className="overflow-hidden p-10">
+          <h1 id="making" className="font-display text-6xl font-semibold uppercase tracking-wide text-crema-300">
+            Being made
+          </h1>
+          <ul className="mt-8 flex flex-col gap-4">
+            {making.map((t) => (
+              <NameRow key={t.id} t={t} />
+            ))}
+          </ul>
+        </section>
+        <section aria-labelledby="ready" className="overflow-hidden bg-roast-850 p-10">
+          <h1 id="ready" className="font-display text-6xl font-semibold uppercase tracking-wide">
+            Ready ✓
+          </h1>
+          <ul className="mt-8 flex flex-col gap-4">
+            {ready.map((t) => (
+              <NameRow key={t.id} t={t} fresh={now - Date.parse(t.readyAt ?? '') < FRESH_MS} />
+            ))}
+          </ul>
+        </section>
+      </div>
+      <footer className="flex items-center gap-6 px-10 py-3 text-xl text-crema-300">
+        <span>{board.location.name}</span>
+        <span>Careful — drinks are hot.</span>
+        <LinkStateBadge state={link} className="ml-auto" />
+      </footer>
+    </div>
+  );
+}
+
+export const pickupRoute = (deps: RouteDeps) => ({
+  Component: Pickup,
+  handle: { title: 'Pickup' },
+  loader: async ({ request }: LoaderFunctionArgs) => {
+    await requireScreen(deps, request, 'viewPickup');
+    await deps.queryClient.ensureQueryData(pickupBoardQuery(deps.api));
+    return null;
+  },
+});

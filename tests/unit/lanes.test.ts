@@ -1,0 +1,118 @@
+import { describe, it, expect } from 'vitest';
+import { groupIntoLanes } from '../../src/domain/lanes';
+import type { DrinkStatus, DrinkView, MilkRef, TicketView } from '../../src/domain/types';
+
+const OAT: MilkRef = { id: 7, name: 'Oat', code: 'OT' };
+const WHOLE: MilkRef = { id: 3, name: 'Whole', code: 'WM' };
+
+let nextDrinkId = 1;
+function drink(ticketId: number, milk: MilkRef | null, shots: number, status: DrinkStatus = 'queued'): DrinkView {
+  return {
+    id: nextDrinkId++,
+    ticketId,
+    itemName: milk ? 'Flat white' : 'Long black',
+    sizeName: null,
+    volumeMl: null,
+    milk,
+    shots,
+    milkMl: milk ? 150 : 0,
+    texture: milk ? 'flat' : null,
+    modifiers: [],
+    note: null,
+    status,
+    startedAt: null,
+    doneAt: null,
+  };
+}
+
+function ticket(id: number, firedAt: string, drinks: DrinkView[]): TicketView {
+  return {
+    id,
+    number: 100 + id,
+    customerName: `Guest ${id}`,
+    status: 'open',
+    firedAt,
+    readyAt: null,
+    collectedAt: null,
+    drinks,
+  };
+}
+
+describe('groupIntoLanes', () => {
+  it('puts drinks sharing a milk in one lane, split by shot count', () => {
+    // Common practice: drinks sharing a milk are steamed together, so they share one lane;
+    // within it, drinks with the same shot count are pulled together.
+    const lanes = groupIntoLanes([
+      ticket(1, '2025-03-01T08:00:00.000Z', [drink(1, OAT, 2), drink(1, OAT, 1)]),
+      ticket(2, '2025-03-01T08:01:00.000Z', [drink(2, OAT, 2)]),
+    ]);
+    expect(lanes).toHaveLength(1);
+    expect(lanes[0].key).toBe('milk:7');
+    expect(lanes[0].milk).toEqual(OAT);
+    expect(lanes[0].drinkCount).toBe(3);
+    expect(lanes[0].groups.map((g) => [g.shots, g.drinks.length])).toEqual([
+      [1, 1],
+      [2, 2],
+    ]);
+  });
+
+  it("keys the no-milk lane 'none'", () => {
+    const lanes = groupIntoLanes([ticket(1, '2025-03-01T08:00:00.000Z', [drink(1, null, 2)])]);
+    expect(lanes.map((l) => l.key)).toEqual(['none']);
+    expect(lanes[0].milk).toBeNull();
+  });
+
+  it('leaves out drinks that are done', () => {
+    const lanes = groupIntoLanes([
+      ticket(1, '2025-03-01T08:00:00.000Z', [drink(1, OAT, 2, 'done'), drink(1, WHOLE, 2, 'making')]),
+      ticket(2, '2025-03-01T08:02:00.000Z', [drink(2, OAT, 1, 'done')]),
+    ]);
+    // The oat lane had only done drinks, so it is gone.
+    expect(lanes.map((l) => l.key)).toEqual(['milk:3']);
+    expect(lanes[0].drinkCount).toBe(1);
+  });
+
+  it('orders drinks oldest ticket first inside a shot group, whatever the input order', () => {
+    // Common practice: first fired, first made.
+    const lanes = groupIntoLanes([
+      ticket(5, '2025-03-01T08:09:00.000Z', [drink(5, WHOLE, 2)]),
+      ticket(4, '2025-03-01T08:03:00.000Z', [drink(4, WHOLE, 2)]),
+      ticket(6, '2025-03-01T08:06:00.000Z', [drink(6, WHOLE, 2)]),
+    ]);
+    expect(lanes[0].groups[0].drinks.map((d) => d.ticketId)).toEqual([4, 6, 5]);
+    expect(lanes[0].oldestFiredAt).toBe('2025-03-01T08:03:00.000Z');
+  });
+
+  it('puts the widest lane first and breaks ties by the oldest ticket', () => {
+    const lanes = groupIntoLanes([
+      // Whole: one drink, oldest ticket of all.
+      ticket(1, '2025-03-01T08:00:00.000Z', [drink(1, WHOLE, 2)]),
+      // Oat: three drinks, newer.
+      ticket(2, '2025-03-01T08:05:00.000Z', [drink(2, OAT, 2), drink(2, OAT, 2), drink(2, OAT, 1)]),
+      // No milk: one drink, fired between the other two.
+      ticket(3, '2025-03-01T08:02:00.000Z', [drink(3, null, 2)]),
+    ]);
+    // Oat has the most drinks; Whole and None tie at one and Whole's ticket is older.
+    expect(lanes.map((l) => l.key)).toEqual(['milk:7', 'milk:3', 'none']);
+  });
+
+  it("gives each card its place among the ticket's drinks and the ticket's size", () => {
+    const t = ticket(9, '2025-03-01T08:00:00.000Z', [drink(9, WHOLE, 2), drink(9, null, 2), drink(9, WHOLE, 1)]);
+    const lanes = groupIntoLanes([t]);
+    const cards = lanes.flatMap((l) => l.groups.flatMap((g) => g.drinks));
+    const byId = new Map(cards.map((c) => [c.id, c]));
+    t.drinks.forEach((d, i) => {
+      const card = byId.get(d.id)!;
+      expect(card.indexInTicket).toBe(i + 1);
+      expect(card.ticketSize).toBe(3);
+      expect(card.ticketNumber).toBe(109);
+      expect(card.customerName).toBe('Guest 9');
+      expect(card.firedAt).toBe('2025-03-01T08:00:00.000Z');
+    });
+  });
+
+  it('returns no lanes for no open drinks', () => {
+    expect(groupIntoLanes([])).toEqual([]);
+    expect(groupIntoLanes([ticket(1, '2025-03-01T08:00:00.000Z', [])])).toEqual([]);
+  });
+});

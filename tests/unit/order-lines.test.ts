@@ -1,0 +1,234 @@
+import { describe, it, expect } from 'vitest';
+import { resolveLine, type LineResult, type ResolvedLine } from '../../src/domain/order-lines';
+import type { MenuItemView, MenuView } from '../../src/domain/types';
+
+// An invented "Test Café"; none of these numbers come from the demo café.
+const EXTRA_SHOT = 95;
+const DAIRY = 1; // no upcharge
+const PEA = 2; // +65
+const HEMP = 3; // +45
+const LATTE = 10;
+const GIBRALTAR = 11; // milk drink, one size, no default milk
+const POUR_OVER = 12; // sized, no milk
+const SCONE = 13; // counter item, no sizes
+const AFFOGATO = 14; // 86'd
+const MAPLE = 31; // +55
+const CINNAMON = 32; // +15
+
+function item(over: Partial<MenuItemView> & Pick<MenuItemView, 'id' | 'name'>): MenuItemView {
+  return {
+    categoryId: 1,
+    station: 'bar',
+    priceCents: null,
+    shots: 0,
+    takesMilk: false,
+    defaultMilkId: null,
+    texture: null,
+    available: true,
+    allergens: [],
+    sizes: [],
+    ...over,
+  };
+}
+
+function testMenu(): MenuView {
+  return {
+    location: {
+      id: 1,
+      name: 'Test Café',
+      timeZone: 'UTC',
+      currency: 'USD',
+      taxMode: 'exclusive',
+      taxRateMilliPct: 6500,
+      extraShotCents: EXTRA_SHOT,
+      waitTargetSeconds: 300,
+      pickupTimeoutSeconds: 120,
+    },
+    categories: [{ id: 1, name: 'Drinks' }],
+    items: [
+      item({
+        id: LATTE,
+        name: 'Test latte',
+        shots: 2,
+        takesMilk: true,
+        defaultMilkId: DAIRY,
+        texture: 'silky',
+        // The default is deliberately not the first size.
+        sizes: [
+          { id: 101, name: 'Short', volumeMl: 230, priceCents: 300, shots: 1, milkMl: 150, isDefault: false },
+          { id: 102, name: 'Tall', volumeMl: 340, priceCents: 410, shots: 2, milkMl: 240, isDefault: true },
+          { id: 103, name: 'Grande', volumeMl: 450, priceCents: 515, shots: 3, milkMl: 320, isDefault: false },
+        ],
+      }),
+      item({ id: GIBRALTAR, name: 'Gibraltar', priceCents: 375, shots: 2, takesMilk: true, texture: 'flat' }),
+      item({
+        id: POUR_OVER,
+        name: 'Pour-over',
+        sizes: [
+          { id: 121, name: 'Cup', volumeMl: 250, priceCents: 420, shots: 0, milkMl: 0, isDefault: false },
+          { id: 122, name: 'Carafe', volumeMl: 500, priceCents: 760, shots: 0, milkMl: 0, isDefault: false },
+        ],
+      }),
+      item({ id: SCONE, name: 'Cheese scone', station: 'counter', priceCents: 330 }),
+      item({ id: AFFOGATO, name: 'Affogato', priceCents: 480, shots: 1, available: false }),
+    ],
+    milks: [
+      { id: DAIRY, name: 'Dairy', code: 'DA', upchargeCents: 0, allergens: ['milk'] },
+      { id: PEA, name: 'Pea', code: 'PE', upchargeCents: 65, allergens: [] },
+      { id: HEMP, name: 'Hemp', code: 'HE', upchargeCents: 45, allergens: [] },
+    ],
+    modifiers: [
+      { id: MAPLE, groupName: 'Syrup', name: 'Maple', priceCents: 55 },
+      { id: CINNAMON, groupName: 'Topping', name: 'Cinnamon', priceCents: 15 },
+    ],
+  };
+}
+
+function ok(result: LineResult): ResolvedLine {
+  if (!result.ok) throw new Error(`expected a line, got ${JSON.stringify(result.problem)}`);
+  return result.line;
+}
+
+function problem(result: LineResult) {
+  if (result.ok) throw new Error('expected a problem, got a line');
+  return result.problem;
+}
+
+describe('resolveLine: sizes', () => {
+  it('picks the size marked isDefault when none is given', () => {
+    const line = ok(resolveLine(testMenu(), { menuItemId: LATTE }));
+    expect(line.size?.id).toBe(102);
+    // Price from the test menu: Tall 410 + Dairy 0
+    expect(line.priceCents).toBe(410);
+    expect(line.shots).toBe(2);
+    expect(line.milkMl).toBe(240);
+  });
+
+  it('falls back to the first size when none is marked default', () => {
+    const line = ok(resolveLine(testMenu(), { menuItemId: POUR_OVER }));
+    expect(line.size?.id).toBe(121);
+    expect(line.priceCents).toBe(420);
+  });
+
+  it('uses the size asked for', () => {
+    const line = ok(resolveLine(testMenu(), { menuItemId: LATTE, sizeId: 101 }));
+    expect(line.size?.name).toBe('Short');
+    expect(line.priceCents).toBe(300);
+  });
+
+  it('rejects an unknown size', () => {
+    const p = problem(resolveLine(testMenu(), { menuItemId: LATTE, sizeId: 999 }));
+    expect(p).toMatchObject({ field: 'sizeId', kind: 'invalid' });
+  });
+
+  it('rejects a size for an item that has none', () => {
+    const p = problem(resolveLine(testMenu(), { menuItemId: SCONE, sizeId: 101 }));
+    expect(p).toMatchObject({ field: 'sizeId', kind: 'invalid' });
+  });
+
+  it('prices an unsized counter item from the item itself', () => {
+    const line = ok(resolveLine(testMenu(), { menuItemId: SCONE }));
+    expect(line.size).toBeNull();
+    expect(line.milk).toBeNull();
+    expect(line.station).toBe('counter');
+    expect(line.priceCents).toBe(330);
+    expect(line.milkMl).toBe(0);
+  });
+});
+
+describe('resolveLine: items', () => {
+  it('rejects an unknown item', () => {
+    const p = problem(resolveLine(testMenu(), { menuItemId: 4040 }));
+    expect(p).toMatchObject({ field: 'menuItemId', kind: 'invalid' });
+  });
+
+  it("reports an 86'd item as unavailable, not invalid", () => {
+    // Common practice: "86'd" means sold out for now; the counter shows it differently from a bad request
+    const p = problem(resolveLine(testMenu(), { menuItemId: AFFOGATO }));
+    expect(p).toMatchObject({ field: 'menuItemId', kind: 'unavailable' });
+  });
+});
+
+describe('resolveLine: milk', () => {
+  it("uses the item's default milk when none is given", () => {
+    const line = ok(resolveLine(testMenu(), { menuItemId: LATTE }));
+    expect(line.milk?.id).toBe(DAIRY);
+  });
+
+  it('adds the chosen milk upcharge', () => {
+    // Common practice: plant milks carry an upcharge. Tall 410 + Pea 65 = 475
+    const line = ok(resolveLine(testMenu(), { menuItemId: LATTE, milkId: PEA }));
+    expect(line.milk?.code).toBe('PE');
+    expect(line.priceCents).toBe(475);
+  });
+
+  it('asks for a milk when the item has no default and none is given', () => {
+    const p = problem(resolveLine(testMenu(), { menuItemId: GIBRALTAR }));
+    expect(p).toMatchObject({ field: 'milkId', kind: 'invalid' });
+  });
+
+  it('rejects an unknown milk', () => {
+    const p = problem(resolveLine(testMenu(), { menuItemId: LATTE, milkId: 77 }));
+    expect(p.field).toBe('milkId');
+  });
+
+  it('rejects a milk for an item that takes none', () => {
+    const p = problem(resolveLine(testMenu(), { menuItemId: POUR_OVER, milkId: DAIRY }));
+    expect(p).toMatchObject({ field: 'milkId', kind: 'invalid' });
+    const q = problem(resolveLine(testMenu(), { menuItemId: SCONE, milkId: HEMP }));
+    expect(q.field).toBe('milkId');
+  });
+});
+
+describe('resolveLine: shots', () => {
+  it('charges each extra shot on top of the recipe at location.extraShotCents', () => {
+    // Common practice: an extra espresso shot is charged on top of the recipe's shots.
+    // Tall has 2 shots; 4 asked → 2 extra × 95 = 190; 410 + 190 = 600
+    const line = ok(resolveLine(testMenu(), { menuItemId: LATTE, shots: 4 }));
+    expect(line.shots).toBe(4);
+    expect(line.priceCents).toBe(600);
+  });
+
+  it('counts extras against the chosen size, not the item', () => {
+    // Grande's recipe is 3 shots; 4 asked → 1 extra: 515 + 95 = 610
+    const line = ok(resolveLine(testMenu(), { menuItemId: LATTE, sizeId: 103, shots: 4 }));
+    expect(line.priceCents).toBe(610);
+  });
+
+  it('gives no discount for fewer shots than the recipe', () => {
+    // Common practice: a weaker drink costs the menu price. Tall (2 shots) asked with 1 → still 410
+    const line = ok(resolveLine(testMenu(), { menuItemId: LATTE, shots: 1 }));
+    expect(line.shots).toBe(1);
+    expect(line.priceCents).toBe(410);
+    const none = ok(resolveLine(testMenu(), { menuItemId: LATTE, shots: 0 }));
+    expect(none.priceCents).toBe(410);
+  });
+});
+
+describe('resolveLine: modifiers and the full price', () => {
+  it('rejects a modifier listed twice', () => {
+    const p = problem(resolveLine(testMenu(), { menuItemId: LATTE, modifierIds: [MAPLE, MAPLE] }));
+    expect(p).toMatchObject({ field: 'modifierIds', kind: 'invalid' });
+  });
+
+  it('rejects an unknown modifier', () => {
+    const p = problem(resolveLine(testMenu(), { menuItemId: LATTE, modifierIds: [999] }));
+    expect(p.field).toBe('modifierIds');
+  });
+
+  it('prices a line as size + milk upcharge + extra shots + modifiers', () => {
+    // Hand-worked from the test menu: Grande 515 + Hemp 45 + (5 − 3) × 95 + Maple 55 + Cinnamon 15 = 820
+    const line = ok(
+      resolveLine(testMenu(), { menuItemId: LATTE, sizeId: 103, milkId: HEMP, shots: 5, modifierIds: [MAPLE, CINNAMON] }),
+    );
+    expect(line.priceCents).toBe(820);
+    expect(line.modifiers.map((m) => m.name)).toEqual(['Maple', 'Cinnamon']);
+    expect(line.texture).toBe('silky');
+    expect(line.milkMl).toBe(320);
+  });
+
+  it('keeps a note and turns an empty one into null', () => {
+    expect(ok(resolveLine(testMenu(), { menuItemId: LATTE, note: 'half foam' })).note).toBe('half foam');
+    expect(ok(resolveLine(testMenu(), { menuItemId: LATTE, note: '' })).note).toBeNull();
+  });
+});

@@ -1,0 +1,44 @@
+/// <reference types="vitest/config" />
+import { defineConfig } from 'vite';
+import react from '@vitejs/plugin-react';
+import tailwindcss from '@tailwindcss/vite';
+
+export default defineConfig({
+  plugins: [react(), tailwindcss()],
+  build: { sourcemap: true },
+  test: {
+    // Fail on unhandled errors; a console.error in a test is turned into a failure in setup.
+    projects: [
+      {
+        extends: true,
+        test: {
+          name: 'unit',
+          environment: 'node',
+          include: ['tests/unit/**/*.test.ts'],
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'components',
+          environment: 'jsdom',
+          include: ['tests/components/**/*.test.tsx'],
+          setupFiles: ['tests/support/dom-setup.ts'],
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'server',
+          environment: 'node',
+          include: ['tests/api/**/*.test.ts', 'tests/realtime/**/*.test.ts'],
+          setupFiles: ['tests/support/server-setup.ts'],
+          // knex imports .ts migrations with native import(): tsx must be loaded in the workers.
+          execArgv: ['--import', 'tsx'],
+          testTimeout: 20_000,
+          hookTimeout: 30_000,
+        },
+      },
+    ],
+  },
+});
