@@ -6,7 +6,8 @@ import { DEMO_PASSWORD, DEMO_STAFF, isEmpty, seedDemoCafe } from '../seeds/demo-
 import { createApp } from './app';
 import type { Config } from './config';
 import { createDb, migrate } from './db/knex';
-import { attachSocketServer } from './realtime/socket-server';
+import { attachSocketServer, type SocketServer } from './realtime/socket-server';
+import type { ApiRoute } from './routes/define';
 import type { Clock } from './services/deps';
 import { developmentPages, productionPages } from './ssr/pages';
 
@@ -14,6 +15,9 @@ export interface RunningServer {
   url: string;
   server: Server;
   db: Knex;
+  /** Every API route the app mounts (the role matrix is generated from it). */
+  routes: ApiRoute[];
+  sockets: SocketServer;
   close(): Promise<void>;
 }
 
@@ -40,7 +44,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
   const server = createServer();
   const mode = opts.pages ?? (config.env === 'production' ? 'production' : 'development');
   const pages = mode === 'none' ? undefined : mode === 'production' ? productionPages() : await developmentPages(server);
-  const { app, deps, sessionMiddleware } = createApp({ db, config, clock: opts.clock, pages });
+  const { app, deps, sessionMiddleware, routes } = createApp({ db, config, clock: opts.clock, pages });
   server.on('request', app);
   const sockets = attachSocketServer(server, deps, sessionMiddleware);
 
@@ -61,7 +65,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
       await pages?.close();
       await db.destroy();
     })());
-  return { url, server, db, close };
+  return { url, server, db, routes, sockets, close };
 }
 
 export function printSignIns(url: string, log = console.log) {

@@ -1,0 +1,80 @@
+// A real Jugline server for one test file: its own freshly migrated SQLite file with the demo
+// café, a real HTTP server on loopback, and signed-in supertest agents per role.
+import { randomBytes } from 'node:crypto';
+import { mkdtempSync, rmSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import request from 'supertest';
+import type { Config } from '../../server/config';
+import { startServer, type RunningServer } from '../../server/server';
+import type { Clock } from '../../server/services/deps';
+import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
+
+export type DemoLogin = 'owner' | 'lead' | 'cashier' | 'barista' | 'barista2';
+
+export interface TestServer extends RunningServer {
+  dir: string;
+  /** A supertest agent with its own cookie jar, signed in as the demo person. */
+  signIn(login: DemoLogin): Promise<ReturnType<typeof request.agent>>;
+  /** The session cookie header for that person (for WebSocket clients). */
+  cookieFor(login: DemoLogin): Promise<string>;
+}
+
+/** A clock the test moves by hand. */
+export function manualClock(startIso = '2026-03-02T14:00:00.000Z') {
+  let now = Date.parse(startIso);
+  const clock: Clock = () => new Date(now);
+  return { clock, advance: (ms: number) => (now += ms), set: (iso: string) => (now = Date.parse(iso)) };
+}
+
+export async function startTestServer(opts: { clock?: Clock } = {}): Promise<TestServer> {
+  const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-test-'));
+  const config: Config = {
+    env: 'test',
+    port: 0,
+    host: '127.0.0.1',
+    databaseFile: path.join(dir, 'jugline.sqlite'),
+    sessionSecret: randomBytes(32).toString('hex'),
+    seedDemo: true,
+  };
+  const running = await startServer(config, { pages: 'none', clock: opts.clock, log: () => {} });
+
+  async function signIn(login: DemoLogin) {
+    const agent = request.agent(running.url);
+    const res = await agent.post('/api/session').send({ username: login, password: DEMO_PASSWORD });
+    if (res.status !== 200) throw new Error(`sign-in as ${login} failed: ${res.status}`);
+    return agent;
+  }
+
+  async function cookieFor(login: DemoLogin) {
+    const res = await request(running.url).post('/api/session').send({ username: login, password: DEMO_PASSWORD });
+    const cookies = ([] as string[]).concat(res.headers['set-cookie'] ?? []);
+    return cookies.map((c) => c.split(';')[0]).join('; ');
+  }
+
+  return {
+    ...running,
+    dir,
+    signIn,
+    cookieFor,
+    close: async () => {
+      await running.close();
+      rmSync(dir, { recursive: true, force: true });
+    },
+  };
+}
+
+/** Ids the demo seed gives its menu, looked up by name so tests don't hard-code them. */
+export async function demoMenu(server: TestServer) {
+  const items = await server.db('menu_items').select('id', 'name');
+  const milks = await server.db('milk_options').select('id', 'name');
+  const sizes = await server.db('item_sizes').select('id', 'item_id', 'name');
+  const mods = await server.db('modifiers').select('id', 'name');
+  const item = (name: string) => items.find((i) => i.name === name)!.id as number;
+  return {
+    item,
+    milk: (name: string) => milks.find((m) => m.name === name)!.id as number,
+    size: (itemName: string, sizeName: string) => sizes.find((s) => s.item_id === item(itemName) && s.name === sizeName)!.id as number,
+    modifier: (name: string) => mods.find((m) => m.name === name)!.id as number,
+  };
+}
