@@ -1,0 +1,63 @@
+// Screens and sign-in: where a signed-out browser goes, what a wrong role sees, and the
+// server-rendered Bar HTML without any JavaScript.
+import { DEMO_PASSWORD, errorsOf, expect, pageAs, signIn, test } from './fixtures';
+
+test('a signed-out browser on a screen is sent to sign-in and back', async ({ page }) => {
+  await page.goto('/bar');
+  await expect(page).toHaveURL(/\/signin\?next=%2Fbar$/);
+  await page.screenshot({ path: 'docs/screenshots/signin.png' });
+  await signIn(page, 'barista', '/bar');
+  await expect(page).toHaveURL(/\/bar$/);
+  await expect(page.getByRole('heading', { name: 'Bar', level: 1 })).toBeVisible();
+});
+
+test('a wrong password says so and stays on sign-in', async ({ page }) => {
+  await page.goto('/signin');
+  await expect(page.getByRole('button', { name: 'Sign in' })).toBeEnabled();
+  await page.getByLabel('Sign-in name').fill('barista');
+  await page.getByLabel('Password').fill('not-the-password');
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await expect(page.getByRole('alert')).toContainText('do not match');
+  await expect(page).toHaveURL(/\/signin/);
+});
+
+test('a cashier who opens the Bar gets the 403 screen', async ({ browser }) => {
+  const page = await pageAs(browser, 'cashier', '/counter');
+  const res = await page.goto('/bar');
+  expect(res?.status()).toBe(403);
+  await expect(page.getByRole('heading', { name: 'Not your screen' })).toBeVisible();
+});
+
+test('the server-rendered Bar lists every open drink before any script runs', async ({ playwright, baseURL }) => {
+  const api = await playwright.request.newContext({ baseURL });
+  await api.post('/api/session', { data: { username: 'cashier', password: DEMO_PASSWORD } });
+  const menu = await (await api.get('/api/menu')).json();
+  const id = (name: string) => menu.items.find((i: { name: string }) => i.name === name).id;
+  const milk = (name: string) => menu.milks.find((m: { name: string }) => m.name === name).id;
+  const orders = [
+    { name: 'Kit Morrow', items: [{ menuItemId: id('Mocha'), milkId: milk('Soy') }, { menuItemId: id('Long black') }] },
+    { name: 'Dana Pell', items: [{ menuItemId: id('Chai latte'), milkId: milk('Almond') }] },
+  ];
+  for (const o of orders) {
+    const res = await api.post('/api/orders', {
+      data: { clientOrderId: crypto.randomUUID(), customerName: o.name, items: o.items, payment: { method: 'cash', tenderedCents: 5000 } },
+    });
+    expect(res.status()).toBe(201);
+  }
+  await api.post('/api/session', { data: { username: 'barista', password: DEMO_PASSWORD } });
+  const open = await (await api.get('/api/tickets?status=open')).json();
+  const html = await (await api.get('/bar')).text();
+  const drinks = open.tickets.flatMap((t: { drinks: { id: number }[] }) => t.drinks);
+  expect(drinks.length).toBeGreaterThanOrEqual(3);
+  for (const d of drinks) expect(html).toContain(`data-drink-id="${d.id}"`);
+  for (const name of ['Mocha', 'Long black', 'Chai latte', 'Kit Morrow', 'Dana Pell']) expect(html).toContain(name);
+  await api.dispose();
+});
+
+test('the Bar and Pickup hydrate without console errors', async ({ browser }) => {
+  const bar = await pageAs(browser, 'lead', '/bar');
+  await expect(bar.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
+  await bar.goto('/pickup');
+  await expect(bar.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
+  expect(errorsOf(bar)).toEqual([]);
+});

@@ -1,0 +1,37 @@
+// Playwright fixtures: a signed-in page per role, and a check that no page logs an error.
+import { test as base, expect, type Browser, type Page } from '@playwright/test';
+
+export const DEMO_PASSWORD = 'jugline-demo';
+export type Login = 'owner' | 'lead' | 'cashier' | 'barista' | 'barista2';
+
+/** Sign in through the real form, as a person would. */
+export async function signIn(page: Page, login: Login, next?: string) {
+  await page.goto(next ? `/signin?next=${encodeURIComponent(next)}` : '/signin');
+  await expect(page.getByRole('button', { name: 'Sign in' })).toBeEnabled(); // hydrated
+  await page.getByLabel('Sign-in name').fill(login);
+  await page.getByLabel('Password').fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+export async function pageAs(browser: Browser, login: Login, path: string, viewport = { width: 1920, height: 1080 }) {
+  const context = await browser.newContext({ viewport });
+  const page = await context.newPage();
+  watchForErrors(page);
+  await signIn(page, login, path);
+  await page.waitForURL(`**${path}`);
+  return page;
+}
+
+const pageErrors = new WeakMap<Page, string[]>();
+export function watchForErrors(page: Page) {
+  const errors: string[] = [];
+  pageErrors.set(page, errors);
+  page.on('pageerror', (e) => errors.push(e.message));
+  page.on('console', (m) => {
+    if (m.type() === 'error') errors.push(m.text());
+  });
+}
+export const errorsOf = (page: Page) => pageErrors.get(page) ?? [];
+
+export const test = base;
+export { expect };

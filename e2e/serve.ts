@@ -1,0 +1,20 @@
+// The server the e2e run drives: the production build, on a fresh demo database in a temp folder.
+import { mkdtempSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { loadConfig } from '../server/config';
+import { startServer } from '../server/server';
+
+const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-e2e-'));
+const config = loadConfig({
+  NODE_ENV: 'production',
+  PORT: process.env.E2E_PORT ?? '4310',
+  HOST: '127.0.0.1',
+  DATABASE_FILE: path.join(dir, 'jugline.sqlite'),
+  SEED_DEMO: 'true',
+});
+const running = await startServer(config, { pages: 'production' });
+console.log(`e2e server at ${running.url} on ${config.databaseFile}`);
+const stop = () => running.close().then(() => process.exit(0));
+process.once('SIGTERM', stop);
+process.once('SIGINT', stop);

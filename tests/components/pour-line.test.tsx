@@ -1,0 +1,31 @@
+// The pour line never tells lateness by colour alone: past target it hatches and the text says so.
+import { render, screen } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import { PourLine, ageLabel } from '../../src/features/bar/pour-line';
+
+describe('ageLabel', () => {
+  it('writes minutes out, and how late past target', () => {
+    expect(ageLabel(59, 240)).toBe('0 min');
+    expect(ageLabel(180, 240)).toBe('3 min');
+    expect(ageLabel(240, 240)).toBe('4 min');
+    expect(ageLabel(250, 240)).toBe('+1 min late'); // any time past target reads late
+    expect(ageLabel(240 + 150, 240)).toBe('+2 min late');
+  });
+});
+
+describe('PourLine', () => {
+  it('fills toward the target before it', () => {
+    render(<PourLine ageSeconds={120} targetSeconds={240} />);
+    const meter = screen.getByRole('meter');
+    expect(meter).toHaveAttribute('aria-valuetext', '2 min');
+    const fill = meter.firstElementChild as HTMLElement;
+    expect(fill.style.width).toBe('50%');
+    expect(fill).not.toHaveClass('pour-hatch');
+  });
+  it('hatches past the target', () => {
+    render(<PourLine ageSeconds={400} targetSeconds={240} />);
+    const meter = screen.getByRole('meter');
+    expect(meter).toHaveAttribute('aria-valuetext', '+2 min late');
+    expect(meter.firstElementChild).toHaveClass('pour-hatch');
+  });
+});

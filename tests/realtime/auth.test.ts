@@ -1,0 +1,62 @@
+// The live socket is authenticated from the session cookie at the upgrade: no valid session,
+// no connection.
+import request from 'supertest';
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import { SESSION_COOKIE } from '../../server/auth/session';
+import { startTestServer, type TestServer } from '../support/test-server';
+import { closeAllSockets, connect, tryUpgrade } from './ws-client';
+
+let server: TestServer;
+beforeAll(async () => {
+  server = await startTestServer();
+});
+afterEach(() => closeAllSockets());
+afterAll(() => server.close());
+
+describe('upgrading to the live socket', () => {
+  it('is refused with 401 without a cookie', async () => {
+    expect(await tryUpgrade(server.url)).toEqual({ opened: false, status: 401 });
+    expect(server.sockets.peers()).toBe(0);
+  });
+
+  it('is refused with 401 for a made-up session cookie', async () => {
+    expect(await tryUpgrade(server.url, { Cookie: `${SESSION_COOKIE}=s%3Anot-a-session.bogus-signature` })).toEqual({
+      opened: false,
+      status: 401,
+    });
+    expect(await tryUpgrade(server.url, { Cookie: `${SESSION_COOKIE}=plainly-unsigned` })).toEqual({
+      opened: false,
+      status: 401,
+    });
+  });
+
+  it('is refused for a real session id whose signature was tampered with', async () => {
+    const cookie = await server.cookieFor('barista');
+    const tampered = cookie.replace(/\.([^.;]+)$/, (_m, sig: string) => `.${sig.startsWith('A') ? 'B' : 'A'}${sig.slice(1)}`);
+    expect(tampered).not.toBe(cookie);
+    expect(await tryUpgrade(server.url, { Cookie: tampered })).toEqual({ opened: false, status: 401 });
+  });
+
+  it('is accepted with a signed-in cookie, and refused once that session has signed out', async () => {
+    const cookie = await server.cookieFor('barista');
+    // the same cookie works while signed in, so the refusal below is down to the sign-out
+    const client = await connect(server.url, cookie);
+    expect(await client.next((m) => m.type === 'hello', 'hello')).toMatchObject({ type: 'hello' });
+    await client.close();
+
+    const out = await request(server.url).delete('/api/session').set('Cookie', cookie);
+    expect(out.status).toBe(204);
+    expect(await tryUpgrade(server.url, { Cookie: cookie })).toEqual({ opened: false, status: 401 });
+  });
+
+  it('is refused for a person who has been deactivated since signing in', async () => {
+    const cookie = await server.cookieFor('barista2');
+    expect(await tryUpgrade(server.url, { Cookie: cookie })).toEqual({ opened: true });
+    await server.db('users').where({ username: 'barista2' }).update({ active: false });
+    try {
+      expect(await tryUpgrade(server.url, { Cookie: cookie })).toEqual({ opened: false, status: 401 });
+    } finally {
+      await server.db('users').where({ username: 'barista2' }).update({ active: true });
+    }
+  });
+});
