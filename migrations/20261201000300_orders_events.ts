@@ -48,7 +48,9 @@ export async function up(knex: Knex): Promise<void> {
     t.string('started_at');
     t.string('done_at');
     t.integer('done_by').references('users.id');
-    t.string('bump_id', 36); // drinks bumped by one command share it, so one recall undoes them
+    // Bumps are numbered in order; drinks bumped by one command share the number, so a recall
+    // undoes exactly the last command even when two land in the same millisecond.
+    t.integer('bump_seq');
     t.index(['order_id']);
   });
 

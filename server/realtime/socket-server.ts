@@ -65,9 +65,14 @@ export function attachSocketServer(
   const onUpgrade = (req: IncomingMessage, socket: Duplex, head: Buffer) => {
     const path = (req.url ?? '').split('?')[0];
     if (path !== '/ws') return; // leave other upgrades (Vite's HMR socket in dev) alone
+    // Node drops its own socket error handler on upgrade and ws adds one only in handleUpgrade:
+    // without this, a client resetting the connection while we authenticate crashes the process.
+    const onEarlyError = () => socket.destroy();
+    socket.on('error', onEarlyError);
     authenticate(req).then(
       (user) => {
         if (!user) return refuse(socket, 401, 'Unauthorized');
+        socket.off('error', onEarlyError);
         wss.handleUpgrade(req, socket, head, (ws) => onConnection(ws, user));
       },
       () => refuse(socket, 500, 'Internal Server Error'),

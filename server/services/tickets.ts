@@ -1,5 +1,4 @@
 // Bar commands: start, bump and recall. Each is one transaction plus its event.
-import { randomUUID } from 'node:crypto';
 import type { Knex } from 'knex';
 import type { BoardSnapshot, SessionUser } from '../../src/domain/types';
 import { RECALL_WINDOW_SECONDS } from '../../src/domain/timing';
@@ -46,6 +45,11 @@ async function orderInLocation(trx: Knex.Transaction, orderId: number, user: Ses
   return order;
 }
 
+async function nextBumpSeq(trx: Knex.Transaction): Promise<number> {
+  const row = await trx('order_items').max<{ n: number | null }>({ n: 'bump_seq' }).first();
+  return (row?.n ?? 0) + 1;
+}
+
 /** Once every bar drink is done the ticket is ready for pickup. */
 async function settleTicket(trx: Knex.Transaction, orderId: number, at: string) {
   const left = await trx('order_items')
@@ -75,7 +79,7 @@ export function bumpDrink(deps: Deps, user: SessionUser, drinkId: number) {
     const changed = await trx('order_items')
       .where({ id: drinkId })
       .whereNot({ status: 'done' })
-      .update({ status: 'done', done_at: at, done_by: user.id, bump_id: randomUUID(), started_at: drink.started_at ?? at });
+      .update({ status: 'done', done_at: at, done_by: user.id, bump_seq: await nextBumpSeq(trx), started_at: drink.started_at ?? at });
     if (changed !== 1) throw conflict('This drink was already bumped');
     await settleTicket(trx, drink.order_id, at);
     const ticket = await loadTicket(trx, drink.order_id);
@@ -88,14 +92,14 @@ export function bumpTicket(deps: Deps, user: SessionUser, orderId: number) {
     const order = await orderInLocation(trx, orderId, user);
     if (order.status !== 'open') throw conflict('This ticket has no drinks left to bump');
     const at = deps.clock().toISOString();
-    const bumpId = randomUUID();
+    const bumpSeq = await nextBumpSeq(trx);
     await trx('order_items')
       .where({ order_id: orderId, station: 'bar', status: 'queued' })
       .update({ started_at: at });
     const changed = await trx('order_items')
       .where({ order_id: orderId, station: 'bar' })
       .whereNot({ status: 'done' })
-      .update({ status: 'done', done_at: at, done_by: user.id, bump_id: bumpId });
+      .update({ status: 'done', done_at: at, done_by: user.id, bump_seq: bumpSeq });
     if (changed === 0) throw conflict('This ticket has no drinks left to bump');
     await settleTicket(trx, orderId, at);
     const ticket = await loadTicket(trx, orderId);
@@ -110,9 +114,9 @@ export function recallTicket(deps: Deps, user: SessionUser, orderId: number) {
     if (order.status === 'collected') throw conflict('This ticket was already collected');
     const last = await trx('order_items')
       .where({ order_id: orderId, station: 'bar', status: 'done' })
-      .whereNotNull('bump_id')
-      .orderBy([{ column: 'done_at', order: 'desc' }, { column: 'id', order: 'desc' }])
-      .first('bump_id', 'done_at');
+      .whereNotNull('bump_seq')
+      .orderBy('bump_seq', 'desc')
+      .first('bump_seq', 'done_at');
     if (!last) throw conflict('Nothing on this ticket to recall');
     const now = deps.clock();
     if (now.getTime() - Date.parse(last.done_at) > RECALL_WINDOW_SECONDS * 1000) {
@@ -121,8 +125,8 @@ export function recallTicket(deps: Deps, user: SessionUser, orderId: number) {
     const at = now.toISOString();
     // A recalled drink goes back to "making": the barista had started it.
     await trx('order_items')
-      .where({ order_id: orderId, bump_id: last.bump_id })
-      .update({ status: 'making', done_at: null, done_by: null, bump_id: null });
+      .where({ order_id: orderId, bump_seq: last.bump_seq })
+      .update({ status: 'making', done_at: null, done_by: null, bump_seq: null });
     await trx('orders').where({ id: orderId }).update({ status: 'open', ready_at: null });
     const ticket = await loadTicket(trx, orderId);
     return { result: ticket, events: [await appendEvent(trx, user.locationId, 'ticket.recalled', ticket, at, user.id)] };
