@@ -1,0 +1,47 @@
+// Start-up configuration: defaults that work with nothing set, a stored session secret, and a
+// message naming the variable when a value is wrong.
+import { mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { ConfigError, loadConfig } from '../../server/config';
+
+const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-config-'));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+const file = path.join(dir, 'sub', 'cafe.sqlite');
+
+describe('loadConfig', () => {
+  it('has working defaults', () => {
+    const c = loadConfig({ DATABASE_FILE: file });
+    expect(c).toMatchObject({ port: 3000, host: '127.0.0.1', seedDemo: true, env: 'development', databaseFile: file });
+  });
+
+  it('makes a session secret on first run, keeps it private, and reuses it', () => {
+    const first = loadConfig({ DATABASE_FILE: file }).sessionSecret;
+    const second = loadConfig({ DATABASE_FILE: file }).sessionSecret;
+    expect(first.length).toBeGreaterThanOrEqual(32);
+    expect(second).toBe(first);
+    expect(readFileSync(`${file}.session-secret`, 'utf8').trim()).toBe(first);
+    expect(statSync(`${file}.session-secret`).mode & 0o077).toBe(0); // owner-only
+  });
+
+  it('uses SESSION_SECRET when set', () => {
+    const secret = 'x'.repeat(40);
+    expect(loadConfig({ DATABASE_FILE: file, SESSION_SECRET: secret }).sessionSecret).toBe(secret);
+  });
+
+  it.each([
+    [{ PORT: 'eighty' }, 'PORT'],
+    [{ PORT: '70000' }, 'PORT'],
+    [{ SEED_DEMO: 'maybe' }, 'SEED_DEMO'],
+    [{ SESSION_SECRET: 'short' }, 'SESSION_SECRET'],
+    [{ NODE_ENV: 'staging' }, 'NODE_ENV'],
+  ])('refuses %o and names %s', (env, name) => {
+    expect(() => loadConfig({ DATABASE_FILE: file, ...env })).toThrow(ConfigError);
+    expect(() => loadConfig({ DATABASE_FILE: file, ...env })).toThrow(new RegExp(`${name}:`));
+  });
+
+  it('turns the demo seed off with SEED_DEMO=false', () => {
+    expect(loadConfig({ DATABASE_FILE: file, SEED_DEMO: 'false' }).seedDemo).toBe(false);
+  });
+});
