@@ -5,12 +5,13 @@ import path from 'node:path';
 import { loadConfig } from '../server/config';
 import { startServer } from '../server/server';
 
-const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-e2e-'));
+// E2E_DATABASE_FILE: a test that stops and restarts the server keeps its data (and sessions).
+const databaseFile = process.env.E2E_DATABASE_FILE ?? path.join(mkdtempSync(path.join(os.tmpdir(), 'jugline-e2e-')), 'jugline.sqlite');
 const config = loadConfig({
   NODE_ENV: 'production',
   PORT: process.env.E2E_PORT ?? '4310',
   HOST: '127.0.0.1',
-  DATABASE_FILE: path.join(dir, 'jugline.sqlite'),
+  DATABASE_FILE: databaseFile,
   SEED_DEMO: 'true',
 });
 const running = await startServer(config, { pages: 'production' });

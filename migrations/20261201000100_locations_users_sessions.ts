@@ -15,6 +15,8 @@ export async function up(knex: Knex): Promise<void> {
     t.integer('wait_target_seconds').notNullable().defaultTo(240);
     t.integer('pickup_timeout_seconds').notNullable().defaultTo(600);
     t.string('allergen_list', 2).notNullable().defaultTo('US').checkIn(['US', 'EU']);
+    t.integer('baristas_on_bar').notNullable().defaultTo(1); // the shift lead changes it during service
+    t.string('receipt_footer', 200);
     t.string('created_at').notNullable();
   });
 

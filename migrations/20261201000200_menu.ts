@@ -49,10 +49,27 @@ export async function up(knex: Knex): Promise<void> {
     t.integer('sort').notNullable().defaultTo(0);
   });
 
+  // A group of extras: single choice (one syrup) or several (decaf + extra hot), optional or
+  // required, offered only on the items it is linked to.
+  await knex.schema.createTable('modifier_groups', (t) => {
+    t.increments('id');
+    t.integer('location_id').notNullable().references('locations.id');
+    t.string('name', 40).notNullable();
+    t.string('selection', 6).notNullable().defaultTo('multi').checkIn(['single', 'multi']);
+    t.boolean('required').notNullable().defaultTo(false);
+    t.integer('sort').notNullable().defaultTo(0);
+  });
+
+  await knex.schema.createTable('item_modifier_groups', (t) => {
+    t.integer('item_id').notNullable().references('menu_items.id').onDelete('CASCADE');
+    t.integer('group_id').notNullable().references('modifier_groups.id').onDelete('CASCADE');
+    t.primary(['item_id', 'group_id']);
+  });
+
   await knex.schema.createTable('modifiers', (t) => {
     t.increments('id');
     t.integer('location_id').notNullable().references('locations.id');
-    t.string('group_name', 40).notNullable();
+    t.integer('group_id').notNullable().references('modifier_groups.id');
     t.string('name', 40).notNullable();
     t.integer('price_cents').notNullable().defaultTo(0);
     t.json('allergens').notNullable().defaultTo('[]');
@@ -62,7 +79,7 @@ export async function up(knex: Knex): Promise<void> {
 }
 
 export async function down(knex: Knex): Promise<void> {
-  for (const table of ['modifiers', 'item_sizes', 'menu_items', 'milk_options', 'menu_categories']) {
+  for (const table of ['modifiers', 'item_modifier_groups', 'modifier_groups', 'item_sizes', 'menu_items', 'milk_options', 'menu_categories']) {
     await knex.schema.dropTable(table);
   }
 }

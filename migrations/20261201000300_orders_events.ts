@@ -8,16 +8,27 @@ export async function up(knex: Knex): Promise<void> {
     t.string('business_date', 10).notNullable(); // the café's local date; numbers restart daily
     t.integer('number').notNullable();
     t.string('customer_name', 40).notNullable();
-    t.string('status', 10).notNullable().checkIn(['open', 'ready', 'collected']);
+    // pending: taken, waiting for its payment; open: fired to the bar; void: never made
+    t.string('status', 10).notNullable().checkIn(['pending', 'open', 'ready', 'collected', 'void']);
+    t.string('payment_status', 10).notNullable().defaultTo('unpaid').checkIn(['unpaid', 'paid', 'refunded']);
+    t.string('service', 8).notNullable().defaultTo('takeaway').checkIn(['takeaway', 'dine_in']);
+    t.json('allergens').notNullable().defaultTo('[]');
+    t.string('allergy_note', 200);
+    t.string('customer_email', 254);
     t.integer('subtotal_cents').notNullable();
     t.integer('discount_cents').notNullable().defaultTo(0);
+    t.string('discount_reason', 120);
     t.integer('tax_cents').notNullable();
     t.integer('total_cents').notNullable();
-    t.string('payment_method', 10).notNullable().checkIn(['cash']);
+    t.integer('refunded_cents').notNullable().defaultTo(0);
+    t.string('payment_method', 10).notNullable().checkIn(['cash', 'card']);
     t.integer('tendered_cents');
     t.integer('change_cents');
+    t.integer('quoted_wait_seconds');
     t.integer('taken_by').references('users.id');
-    t.string('fired_at').notNullable();
+    t.string('created_at').notNullable();
+    t.string('fired_at'); // when it reached the bar: once paid
+    t.string('void_reason', 200);
     t.string('ready_at');
     t.string('collected_at');
     t.unique(['location_id', 'business_date', 'number']);
@@ -54,6 +65,38 @@ export async function up(knex: Knex): Promise<void> {
     t.index(['order_id']);
   });
 
+  // Every payment attempt. At most one is in progress or succeeded per order, so an order can
+  // never be charged twice, whatever the client retries.
+  await knex.schema.createTable('payments', (t) => {
+    t.increments('id');
+    t.integer('order_id').notNullable().references('orders.id');
+    t.string('method', 10).notNullable().checkIn(['cash', 'card']);
+    t.string('status', 12).notNullable().checkIn(['processing', 'succeeded', 'declined', 'failed', 'canceled']);
+    t.integer('amount_cents').notNullable();
+    t.integer('tendered_cents');
+    t.integer('change_cents');
+    t.string('provider_id', 64);
+    t.string('decline_code', 40);
+    t.string('message', 200);
+    t.string('created_at').notNullable();
+    t.string('updated_at').notNullable();
+    t.index(['order_id']);
+  });
+  await knex.raw(
+    "CREATE UNIQUE INDEX payments_one_live_per_order ON payments (order_id) WHERE status IN ('processing', 'succeeded')",
+  );
+
+  await knex.schema.createTable('refunds', (t) => {
+    t.increments('id');
+    t.integer('order_id').notNullable().references('orders.id');
+    t.integer('payment_id').notNullable().references('payments.id');
+    t.integer('amount_cents').notNullable();
+    t.string('reason', 200).notNullable();
+    t.string('provider_id', 64);
+    t.integer('created_by').notNullable().references('users.id');
+    t.string('created_at').notNullable();
+  });
+
   // The realtime log. Its id is the sequence number a screen resumes from.
   await knex.schema.createTable('events', (t) => {
     t.increments('id');
@@ -68,6 +111,8 @@ export async function up(knex: Knex): Promise<void> {
 
 export async function down(knex: Knex): Promise<void> {
   await knex.schema.dropTable('events');
+  await knex.schema.dropTable('refunds');
+  await knex.schema.dropTable('payments');
   await knex.schema.dropTable('order_items');
   await knex.schema.dropTable('orders');
 }

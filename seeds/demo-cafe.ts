@@ -73,7 +73,16 @@ const MILKS = [
   { name: 'Coconut', code: 'CO', upcharge: 80, allergens: [] },
 ];
 
-const MODIFIERS = [
+const GROUPS = [
+  { name: 'Coffee', selection: 'multi' },
+  { name: 'Syrup', selection: 'multi' },
+  { name: 'Temperature', selection: 'single' },
+  { name: 'Sweetness', selection: 'single' },
+] as const;
+type GroupName = (typeof GROUPS)[number]['name'];
+
+// Hazelnut syrup carries no tree-nut flag: the owner sets it if their syrup contains nut.
+const MODIFIERS: { group: GroupName; name: string; price: number }[] = [
   { group: 'Coffee', name: 'Decaf', price: 50 },
   { group: 'Syrup', name: 'Vanilla syrup', price: 60 },
   { group: 'Syrup', name: 'Caramel syrup', price: 60 },
@@ -81,6 +90,18 @@ const MODIFIERS = [
   { group: 'Temperature', name: 'Extra hot', price: 0 },
   { group: 'Sweetness', name: 'Half sweet', price: 0 },
 ];
+
+/** Which extras each drink offers. */
+const OFFERED: Record<string, GroupName[]> = {
+  Espresso: ['Coffee', 'Syrup'],
+  'Long black': ['Coffee', 'Syrup', 'Temperature'],
+  'Flat white': ['Coffee', 'Syrup', 'Temperature', 'Sweetness'],
+  Latte: ['Coffee', 'Syrup', 'Temperature', 'Sweetness'],
+  Cappuccino: ['Coffee', 'Syrup', 'Temperature', 'Sweetness'],
+  Mocha: ['Coffee', 'Syrup', 'Temperature', 'Sweetness'],
+  'Iced latte': ['Coffee', 'Syrup', 'Sweetness'],
+  'Chai latte': ['Syrup', 'Temperature', 'Sweetness'],
+};
 
 export async function isEmpty(db: Knex): Promise<boolean> {
   const row = await db('locations').count<{ n: number }>({ n: '*' }).first();
@@ -139,6 +160,14 @@ export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: nu
       milkIds.push(id);
     }
 
+    const groupIds = new Map<GroupName, number>();
+    for (const [i, g] of GROUPS.entries()) {
+      const [{ id }] = await trx('modifier_groups')
+        .insert({ location_id: locationId, name: g.name, selection: g.selection, required: false, sort: i })
+        .returning('id');
+      groupIds.set(g.name, id);
+    }
+
     for (const [ci, cat] of MENU.entries()) {
       const [{ id: categoryId }] = await trx('menu_categories')
         .insert({ location_id: locationId, name: cat.category, sort: ci })
@@ -158,6 +187,9 @@ export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: nu
             sort: ii,
           })
           .returning('id');
+        for (const group of OFFERED[item.name] ?? []) {
+          await trx('item_modifier_groups').insert({ item_id: itemId, group_id: groupIds.get(group) });
+        }
         const sizes = item.sizes ?? [];
         const defaultIndex = sizes.findIndex(([name]) => name === 'Regular');
         for (const [si, [name, volumeMl, priceCents, milkMl]] of sizes.entries()) {
@@ -178,7 +210,7 @@ export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: nu
     await trx('modifiers').insert(
       MODIFIERS.map((m, i) => ({
         location_id: locationId,
-        group_name: m.group,
+        group_id: groupIds.get(m.group),
         name: m.name,
         price_cents: m.price,
         sort: i,

@@ -6,10 +6,13 @@ import type { Config } from './config';
 import { HttpError, errorHandler } from './errors';
 import { createInProcessHub, type Hub } from './realtime/hub';
 import { mountRoutes, type ApiRoute } from './routes/define';
-import { orderRoutes } from './routes/orders';
+import { mailRoutes } from './routes/mail';
+import { orderRoutes, WEBHOOK_PATH } from './routes/orders';
 import { sessionRoutes } from './routes/session';
 import { ticketRoutes } from './routes/tickets';
 import type { Clock, Deps } from './services/deps';
+import type { Mailer } from './services/mail';
+import type { PaymentGateway } from './payments/gateway';
 import type { PageRenderer } from './ssr/pages';
 
 export interface AppOptions {
@@ -20,6 +23,10 @@ export interface AppOptions {
   /** Server-side rendering of the screens; left out by API-only tests. */
   pages?: PageRenderer;
   sessionCleanupIntervalMs?: number;
+  /** Outgoing mail (receipts); without it the mail routes are not mounted. */
+  mailer?: Mailer;
+  /** Card payments; without it orders take cash only. */
+  payments?: PaymentGateway;
 }
 
 export interface App {
@@ -31,7 +38,12 @@ export interface App {
 }
 
 export function createApp(opts: AppOptions): App {
-  const deps: Deps = { db: opts.db, clock: opts.clock ?? (() => new Date()), hub: opts.hub ?? createInProcessHub() };
+  const deps: Deps = {
+    db: opts.db,
+    clock: opts.clock ?? (() => new Date()),
+    hub: opts.hub ?? createInProcessHub(),
+    payments: opts.payments ?? null,
+  };
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
@@ -41,8 +53,13 @@ export function createApp(opts: AppOptions): App {
   });
   const passport = createPassport(opts.db);
   const routes = [...sessionRoutes(passport), ...orderRoutes(deps), ...ticketRoutes(deps)];
+  if (opts.mailer) routes.push(...mailRoutes(deps, opts.mailer));
 
-  app.use('/api', express.json({ limit: '32kb' }), sessionMiddleware, passport.initialize(), passport.session());
+  // The payment webhook is verified against its exact bytes, so it alone keeps a raw body.
+  const json = express.json({ limit: '32kb' });
+  const raw = express.raw({ type: 'application/json', limit: '256kb' });
+  app.use('/api', (req, res, next) => (req.path === WEBHOOK_PATH ? raw : json)(req, res, next));
+  app.use('/api', sessionMiddleware, passport.initialize(), passport.session());
   app.use('/api', mountRoutes(routes));
   app.use('/api', (req, _res, next) => next(new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}`)));
 

@@ -11,6 +11,8 @@ export type ErrorCode =
   | 'conflict'
   | 'unavailable'
   | 'payload_too_large'
+  | 'payment_declined'
+  | 'payment_unavailable'
   | 'internal';
 
 export class HttpError extends Error {

@@ -9,6 +9,9 @@ import { createDb, migrate } from './db/knex';
 import { attachSocketServer, type SocketServer } from './realtime/socket-server';
 import type { ApiRoute } from './routes/define';
 import type { Clock } from './services/deps';
+import { startMail } from './services/mail';
+import { startPayments } from './payments/start';
+import { WEBHOOK_PATH } from './routes/orders';
 import { developmentPages, productionPages } from './ssr/pages';
 
 export interface RunningServer {
@@ -44,7 +47,16 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
   const server = createServer();
   const mode = opts.pages ?? (config.env === 'production' ? 'production' : 'development');
   const pages = mode === 'none' ? undefined : mode === 'production' ? productionPages() : await developmentPages(server);
-  const { app, deps, sessionMiddleware, routes } = createApp({ db, config, clock: opts.clock, pages });
+  const mail = await startMail({ smtpUrl: config.smtpUrl, db, clock: opts.clock, log });
+  const payments = await startPayments({ secretKey: config.stripeSecretKey, webhookSecret: config.stripeWebhookSecret, log });
+  const { app, deps, sessionMiddleware, routes } = createApp({
+    db,
+    config,
+    clock: opts.clock,
+    pages,
+    mailer: mail.mailer,
+    payments: payments.gateway,
+  });
   server.on('request', app);
   const sockets = attachSocketServer(server, deps, sessionMiddleware);
 
@@ -54,6 +66,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
   });
   const { port } = server.address() as AddressInfo;
   const url = `http://${config.host.includes(':') ? `[${config.host}]` : config.host}:${port}`;
+  payments.listening(url, WEBHOOK_PATH);
 
   let closing: Promise<void> | undefined;
   const close = () =>
@@ -63,6 +76,8 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections();
       await pages?.close();
+      await mail.close();
+      await payments.close();
       await db.destroy();
     })());
   return { url, server, db, routes, sockets, close };

@@ -1,11 +1,11 @@
 // The realtime hub: services publish committed events, sockets subscribe per location.
 // Kept behind this small interface so a broker-backed hub (several processes) is one module.
-import type { LiveEvent } from '../../src/domain/types';
+import type { AnyLiveEvent } from '../../src/domain/types';
 
-export type EventListener = (event: LiveEvent) => void;
+export type EventListener = (event: AnyLiveEvent) => void;
 
 export interface Hub {
-  publish(locationId: number, event: LiveEvent): void;
+  publish(locationId: number, event: AnyLiveEvent): void;
   subscribe(locationId: number, listener: EventListener): () => void;
 }
 

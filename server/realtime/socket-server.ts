@@ -5,7 +5,7 @@ import type { Duplex } from 'node:stream';
 import type { RequestHandler } from 'express';
 import { WebSocket, WebSocketServer } from 'ws';
 import { clientMessage } from '../../src/domain/schemas';
-import type { LiveEvent, ServerMessage, SessionUser } from '../../src/domain/types';
+import type { AnyLiveEvent, ServerMessage, SessionUser } from '../../src/domain/types';
 import { findActiveUser } from '../auth/session';
 import type { Deps } from '../services/deps';
 import { eventsSince, latestSeq } from '../services/events';
@@ -22,7 +22,7 @@ interface Peer {
   /** Events are sent only once the screen has said where it is (`resume`). */
   live: boolean;
   resuming: boolean;
-  pending: LiveEvent[];
+  pending: AnyLiveEvent[];
   lastSent: number;
   alive: boolean;
 }
@@ -36,7 +36,7 @@ function send(peer: Peer, message: ServerMessage) {
   if (peer.socket.readyState === WebSocket.OPEN) peer.socket.send(JSON.stringify(message));
 }
 
-function sendEvent(peer: Peer, event: LiveEvent) {
+function sendEvent(peer: Peer, event: AnyLiveEvent) {
   if (event.seq <= peer.lastSent) return;
   peer.lastSent = event.seq;
   send(peer, { type: 'event', event });

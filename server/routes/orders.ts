@@ -1,12 +1,18 @@
-import { createOrderBody } from '../../src/domain/schemas';
+import { availabilityBody, createOrderBody, idParam, ordersQuery, refundBody, voidBody } from '../../src/domain/schemas';
 import { userOf } from '../auth/guards';
-import { parse } from '../errors';
+import { HttpError, notFound, parse } from '../errors';
+import { handlePaymentWebhook } from '../services/card-payments';
 import type { Deps } from '../services/deps';
+import { setItemAvailability } from '../services/menu-availability';
 import { loadMenu } from '../services/menu';
-import { createOrder } from '../services/orders';
+import { createOrder, findOrderInLocation, listOrders, loadOrder } from '../services/orders';
+import { refundOrder, voidOrder } from '../services/refunds';
 import type { ApiRoute } from './define';
 
+export const WEBHOOK_PATH = '/webhooks/payments';
+
 export function orderRoutes(deps: Deps): ApiRoute[] {
+  const id = (params: unknown) => parse(idParam, params, 'params').id;
   return [
     {
       method: 'get',
@@ -16,12 +22,78 @@ export function orderRoutes(deps: Deps): ApiRoute[] {
     },
     {
       method: 'post',
+      path: '/menu/items/:id/availability',
+      capability: 'eightySix',
+      handler: async (req, res) => {
+        const itemId = id(req.params);
+        const { available } = parse(availabilityBody, req.body);
+        res.json({ item: await setItemAvailability(deps, userOf(req), itemId, available) });
+      },
+    },
+    {
+      method: 'post',
       path: '/orders',
       capability: 'takeOrders',
       handler: async (req, res) => {
         const body = parse(createOrderBody, req.body);
         const { order, created } = await createOrder(deps, userOf(req), body);
         res.status(created ? 201 : 200).json({ order });
+      },
+    },
+    {
+      method: 'get',
+      path: '/orders',
+      capability: 'takeOrders',
+      handler: async (req, res) => {
+        const { q, limit } = parse(ordersQuery, req.query, 'query');
+        res.json({ orders: await listOrders(deps, userOf(req), q, limit) });
+      },
+    },
+    {
+      method: 'get',
+      path: '/orders/:id',
+      capability: 'takeOrders',
+      handler: async (req, res) => {
+        const orderId = id(req.params);
+        if (!(await findOrderInLocation(deps.db, userOf(req), orderId))) throw notFound('Order');
+        res.json({ order: await loadOrder(deps.db, orderId) });
+      },
+    },
+    {
+      method: 'post',
+      path: '/orders/:id/refund',
+      capability: 'refundOrders',
+      handler: async (req, res) => {
+        const orderId = id(req.params);
+        res.json({ order: await refundOrder(deps, userOf(req), orderId, parse(refundBody, req.body)) });
+      },
+    },
+    {
+      method: 'post',
+      path: '/orders/:id/void',
+      capability: 'refundOrders',
+      handler: async (req, res) => {
+        const orderId = id(req.params);
+        res.json({ order: await voidOrder(deps, userOf(req), orderId, parse(voidBody, req.body).reason) });
+      },
+    },
+    {
+      // The payment provider calls this; its signature, not a session, says who it is.
+      method: 'post',
+      path: WEBHOOK_PATH,
+      capability: null,
+      handler: async (req, res) => {
+        if (!deps.payments) throw notFound('Route');
+        const signature = req.get('stripe-signature');
+        if (!signature || !Buffer.isBuffer(req.body)) throw new HttpError(400, 'validation_failed', 'Missing signature or body');
+        let event;
+        try {
+          event = deps.payments.parseWebhook(req.body, signature);
+        } catch {
+          throw new HttpError(400, 'validation_failed', 'The webhook signature does not match');
+        }
+        await handlePaymentWebhook(deps, event);
+        res.json({ received: true });
       },
     },
   ];

@@ -1,5 +1,6 @@
 // What every service receives: the database, the clock and the realtime hub.
 import type { Knex } from 'knex';
+import type { PaymentGateway } from '../payments/gateway';
 import type { Hub } from '../realtime/hub';
 
 export type Clock = () => Date;
@@ -8,4 +9,6 @@ export interface Deps {
   db: Knex;
   clock: Clock;
   hub: Hub;
+  /** Card payments; null where no card service is set up (cash only). */
+  payments: PaymentGateway | null;
 }

@@ -1,26 +1,42 @@
 // The events table is the realtime log: appended inside each command's transaction, published
 // after commit, replayed to screens that resume.
 import type { Knex } from 'knex';
-import type { EventType, LiveEvent, TicketView } from '../../src/domain/types';
+import type { AnyLiveEvent, MenuEvent, TicketEventType, TicketView } from '../../src/domain/types';
 import type { Deps } from './deps';
 
 export interface PendingEvent {
   locationId: number;
-  event: LiveEvent;
+  event: AnyLiveEvent;
+}
+
+async function insertEvent(trx: Knex.Transaction, locationId: number, type: string, payload: object, at: string, actorId: number | null) {
+  const [{ id }] = await trx('events')
+    .insert({ location_id: locationId, type, payload: JSON.stringify(payload), actor_id: actorId, created_at: at })
+    .returning('id');
+  return id as number;
 }
 
 export async function appendEvent(
   trx: Knex.Transaction,
   locationId: number,
-  type: EventType,
+  type: TicketEventType,
   ticket: TicketView,
   at: string,
   actorId: number | null,
 ): Promise<PendingEvent> {
-  const [{ id }] = await trx('events')
-    .insert({ location_id: locationId, type, payload: JSON.stringify({ ticket }), actor_id: actorId, created_at: at })
-    .returning('id');
-  return { locationId, event: { seq: id, type, at, ticket } };
+  const seq = await insertEvent(trx, locationId, type, { ticket }, at, actorId);
+  return { locationId, event: { seq, type, at, ticket } };
+}
+
+export async function appendMenuEvent(
+  trx: Knex.Transaction,
+  locationId: number,
+  item: MenuEvent['item'],
+  at: string,
+  actorId: number | null,
+): Promise<PendingEvent> {
+  const seq = await insertEvent(trx, locationId, 'menu.availability', { item }, at, actorId);
+  return { locationId, event: { seq, type: 'menu.availability', at, item } };
 }
 
 /** Run a command in one transaction; publish its events only once it has committed. */
@@ -39,7 +55,7 @@ export async function latestSeq(db: Knex | Knex.Transaction, locationId: number)
 }
 
 /** Events after `since`, oldest first; `limit + 1` rows tell the caller it is too far behind. */
-export async function eventsSince(db: Knex, locationId: number, since: number, limit: number): Promise<LiveEvent[]> {
+export async function eventsSince(db: Knex, locationId: number, since: number, limit: number): Promise<AnyLiveEvent[]> {
   const rows = await db('events')
     .where({ location_id: locationId })
     .andWhere('id', '>', since)
@@ -50,6 +66,6 @@ export async function eventsSince(db: Knex, locationId: number, since: number, l
     seq: r.id,
     type: r.type,
     at: r.created_at,
-    ticket: (typeof r.payload === 'string' ? JSON.parse(r.payload) : r.payload).ticket,
+    ...(typeof r.payload === 'string' ? JSON.parse(r.payload) : r.payload),
   }));
 }

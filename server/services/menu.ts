@@ -17,6 +17,9 @@ export async function loadLocation(db: Knex | Knex.Transaction, locationId: numb
     extraShotCents: l.extra_shot_cents,
     waitTargetSeconds: l.wait_target_seconds,
     pickupTimeoutSeconds: l.pickup_timeout_seconds,
+    allergenList: l.allergen_list,
+    baristasOnBar: l.baristas_on_bar,
+    receiptFooter: l.receipt_footer ?? null,
   };
 }
 
@@ -38,10 +41,13 @@ export async function loadMenu(db: Knex | Knex.Transaction, locationId: number):
     .where({ location_id: locationId })
     .whereNull('retired_at')
     .orderBy(['sort', 'id']);
+  const groups = await db('modifier_groups').where({ location_id: locationId }).orderBy(['sort', 'id']);
   const modifiers = await db('modifiers')
     .where({ location_id: locationId })
     .whereNull('retired_at')
     .orderBy(['sort', 'id']);
+  const links = await db('item_modifier_groups').whereIn('item_id', items.map((i) => i.id));
+  const groupName = new Map(groups.map((g) => [g.id, g.name as string]));
 
   return {
     location,
@@ -69,6 +75,7 @@ export async function loadMenu(db: Knex | Knex.Transaction, locationId: number):
           milkMl: s.milk_ml,
           isDefault: bool(s.is_default),
         })),
+      modifierGroupIds: links.filter((l) => l.item_id === i.id).map((l) => l.group_id),
     })),
     milks: milks.map((m) => ({
       id: m.id,
@@ -77,6 +84,14 @@ export async function loadMenu(db: Knex | Knex.Transaction, locationId: number):
       upchargeCents: m.upcharge_cents,
       allergens: json<string[]>(m.allergens, []),
     })),
-    modifiers: modifiers.map((m) => ({ id: m.id, groupName: m.group_name, name: m.name, priceCents: m.price_cents })),
+    modifierGroups: groups.map((g) => ({ id: g.id, name: g.name, selection: g.selection, required: bool(g.required) })),
+    modifiers: modifiers.map((m) => ({
+      id: m.id,
+      groupId: m.group_id,
+      groupName: groupName.get(m.group_id) ?? '',
+      name: m.name,
+      priceCents: m.price_cents,
+      allergens: json<string[]>(m.allergens, []),
+    })),
   };
 }

@@ -1,31 +1,37 @@
-// Taking an order: price it on the server, store it with its drinks and its event in one
-// transaction, and make a replay of the same client order id return the same order.
+// Taking an order: price it on the server, store it with its drinks, payment and event in one
+// transaction, and make a replay of the same client order id return the same order. Cash is
+// fired to the bar at once; a card order waits, unfired, until its payment has succeeded.
 import type { Knex } from 'knex';
-import { orderTotals } from '../../src/domain/money';
-import { resolveLine, type ResolvedLine } from '../../src/domain/order-lines';
 import type { CreateOrderBody } from '../../src/domain/schemas';
 import type { OrderView, SessionUser } from '../../src/domain/types';
 import { isUniqueViolation, json } from '../db/rows';
 import { HttpError, conflict } from '../errors';
+import { payByCard } from './card-payments';
 import type { Deps } from './deps';
 import { appendEvent, runCommand } from './events';
-import { loadMenu } from './menu';
+import { priceOrder, type PricedOrder } from './order-pricing';
+import { quoteForNewOrder } from './quotes';
 import { loadTicket } from './ticket-views';
+
+type Db = Knex | Knex.Transaction;
 
 /** The café's own calendar date; order numbers start again at 1 each day. */
 export function businessDate(at: Date, timeZone: string): string {
   return new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(at);
 }
 
-export async function loadOrder(db: Knex | Knex.Transaction, orderId: number): Promise<OrderView> {
-  const o = await db('orders').where({ id: orderId }).first();
-  const items = await db('order_items').where({ order_id: orderId }).orderBy('line_no');
+export function toOrderView(o: Record<string, any>, items: Record<string, any>[], payment?: Record<string, any>, takenBy?: string): OrderView {
   return {
     id: o.id,
     clientOrderId: o.client_order_id,
     number: o.number,
     customerName: o.customer_name,
     status: o.status,
+    paymentStatus: o.payment_status,
+    service: o.service,
+    allergens: json<string[]>(o.allergens, []),
+    allergyNote: o.allergy_note ?? null,
+    customerEmail: o.customer_email ?? null,
     lines: items.map((i) => ({
       id: i.id,
       menuItemId: i.menu_item_id,
@@ -40,19 +46,127 @@ export async function loadOrder(db: Knex | Knex.Transaction, orderId: number): P
     })),
     subtotalCents: o.subtotal_cents,
     discountCents: o.discount_cents,
+    discountReason: o.discount_reason ?? null,
     taxCents: o.tax_cents,
     totalCents: o.total_cents,
-    payment: { method: o.payment_method, tenderedCents: o.tendered_cents, changeCents: o.change_cents },
+    refundedCents: o.refunded_cents,
+    payment: {
+      method: o.payment_method,
+      tenderedCents: o.tendered_cents,
+      changeCents: o.change_cents,
+      providerId: payment?.provider_id ?? null,
+    },
     changeCents: o.change_cents,
+    quotedWaitSeconds: o.quoted_wait_seconds,
+    takenBy: takenBy ?? null,
+    createdAt: o.created_at,
     firedAt: o.fired_at,
+    voidReason: o.void_reason ?? null,
   };
 }
 
-async function findByClientId(db: Knex | Knex.Transaction, user: SessionUser, clientOrderId: string) {
+export async function loadOrder(db: Db, orderId: number): Promise<OrderView> {
+  const o = await db('orders').where({ id: orderId }).first();
+  const items = await db('order_items').where({ order_id: orderId }).orderBy('line_no');
+  const payment = await db('payments').where({ order_id: orderId, status: 'succeeded' }).first('provider_id');
+  const user = o.taken_by ? await db('users').where({ id: o.taken_by }).first('name') : null;
+  return toOrderView(o, items, payment, user?.name);
+}
+
+export async function findOrderInLocation(db: Db, user: SessionUser, orderId: number) {
+  const o = await db('orders').where({ id: orderId, location_id: user.locationId }).first();
+  return o ?? null;
+}
+
+async function findByClientId(db: Db, user: SessionUser, clientOrderId: string) {
   const existing = await db('orders').where({ client_order_id: clientOrderId }).first('id', 'location_id');
   if (!existing) return null;
   if (existing.location_id !== user.locationId) throw conflict('This order id is already in use');
   return loadOrder(db, existing.id);
+}
+
+async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody, priced: PricedOrder): Promise<number> {
+  const { menu, lines, totals } = priced;
+  const cash = body.payment.method === 'cash' ? body.payment : null;
+  return runCommand(deps, async (trx) => {
+    const now = deps.clock();
+    const at = now.toISOString();
+    const day = businessDate(now, menu.location.timeZone);
+    const last = await trx('orders')
+      .where({ location_id: user.locationId, business_date: day })
+      .max<{ n: number | null }>({ n: 'number' })
+      .first();
+    const barDrinks = lines.filter((l) => l.station === 'bar').length;
+    const quote = await quoteForNewOrder(trx, user.locationId, barDrinks, menu.location.baristasOnBar);
+    // An order of counter items only is handed over at the till once paid.
+    const firedStatus = barDrinks > 0 ? 'open' : 'collected';
+    const [{ id: orderId }] = await trx('orders')
+      .insert({
+        location_id: user.locationId,
+        client_order_id: body.clientOrderId,
+        business_date: day,
+        number: (last?.n ?? 0) + 1,
+        customer_name: body.customerName,
+        status: cash ? firedStatus : 'pending',
+        payment_status: cash ? 'paid' : 'unpaid',
+        service: body.service,
+        allergens: JSON.stringify(body.allergens),
+        allergy_note: body.allergyNote || null,
+        customer_email: body.customerEmail ?? null,
+        subtotal_cents: totals.subtotalCents,
+        discount_cents: totals.discountCents,
+        discount_reason: body.discount?.reason ?? null,
+        tax_cents: totals.taxCents,
+        total_cents: totals.totalCents,
+        payment_method: body.payment.method,
+        tendered_cents: cash?.tenderedCents ?? null,
+        change_cents: cash ? cash.tenderedCents - totals.totalCents : null,
+        quoted_wait_seconds: quote,
+        taken_by: user.id,
+        created_at: at,
+        fired_at: cash ? at : null,
+        ready_at: cash && barDrinks === 0 ? at : null,
+        collected_at: cash && barDrinks === 0 ? at : null,
+      })
+      .returning('id');
+    await trx('order_items').insert(
+      lines.map((l, i) => ({
+        order_id: orderId,
+        menu_item_id: l.menuItemId,
+        line_no: i + 1,
+        item_name: l.itemName,
+        station: l.station,
+        size_id: l.size?.id ?? null,
+        size_name: l.size?.name ?? null,
+        volume_ml: l.size?.volumeMl ?? null,
+        milk_id: l.milk?.id ?? null,
+        milk_name: l.milk?.name ?? null,
+        milk_code: l.milk?.code ?? null,
+        shots: l.shots,
+        milk_ml: l.milkMl,
+        texture: l.texture,
+        modifiers: JSON.stringify(l.modifiers),
+        note: l.note,
+        price_cents: l.priceCents,
+        status: l.station === 'bar' ? 'queued' : 'done',
+      })),
+    );
+    if (cash) {
+      await trx('payments').insert({
+        order_id: orderId,
+        method: 'cash',
+        status: 'succeeded',
+        amount_cents: totals.totalCents,
+        tendered_cents: cash.tenderedCents,
+        change_cents: cash.tenderedCents - totals.totalCents,
+        created_at: at,
+        updated_at: at,
+      });
+    }
+    const ticket = await loadTicket(trx, orderId);
+    const event = await appendEvent(trx, user.locationId, cash ? 'order.fired' : 'order.taken', ticket, at, user.id);
+    return { result: orderId, events: [event] };
+  });
 }
 
 export async function createOrder(
@@ -61,82 +175,22 @@ export async function createOrder(
   body: CreateOrderBody,
 ): Promise<{ order: OrderView; created: boolean }> {
   const replay = await findByClientId(deps.db, user, body.clientOrderId);
-  if (replay) return { order: replay, created: false };
-
-  const menu = await loadMenu(deps.db, user.locationId);
-  const lines: ResolvedLine[] = body.items.map((input, i) => {
-    const r = resolveLine(menu, input);
-    if (r.ok) return r.line;
-    const details = [{ path: `items.${i}.${r.problem.field}`, message: r.problem.message }];
-    if (r.problem.kind === 'unavailable') throw new HttpError(409, 'unavailable', r.problem.message, details);
-    throw new HttpError(400, 'validation_failed', 'Some fields need fixing', details);
-  });
-  const totals = orderTotals(lines.map((l) => l.priceCents), menu.location);
-  const tendered = body.payment.tenderedCents;
-  if (tendered < totals.totalCents) {
-    throw new HttpError(400, 'validation_failed', 'The cash tendered is less than the total', [
-      { path: 'payment.tenderedCents', message: `At least ${totals.totalCents} cents are due` },
-    ]);
+  if (replay) {
+    // A declined card may be tried again with another card; a paid order is never charged again.
+    if (replay.status === 'pending' && replay.paymentStatus === 'unpaid') {
+      const order =
+        body.payment.method === 'card'
+          ? await payByCard(deps, user, replay.id, body.payment.paymentMethod)
+          : await payPendingByCash(deps, user, replay.id, body.payment.tenderedCents);
+      return { order, created: false };
+    }
+    return { order: replay, created: false };
   }
 
+  const priced = await priceOrder(deps, user, body);
+  let orderId: number;
   try {
-    return await runCommand(deps, async (trx) => {
-      const now = deps.clock();
-      const at = now.toISOString();
-      const day = businessDate(now, menu.location.timeZone);
-      const last = await trx('orders')
-        .where({ location_id: user.locationId, business_date: day })
-        .max<{ n: number | null }>({ n: 'number' })
-        .first();
-      const hasBarDrinks = lines.some((l) => l.station === 'bar');
-      const [{ id: orderId }] = await trx('orders')
-        .insert({
-          location_id: user.locationId,
-          client_order_id: body.clientOrderId,
-          business_date: day,
-          number: (last?.n ?? 0) + 1,
-          customer_name: body.customerName,
-          // An order of counter items only is handed over at the till.
-          status: hasBarDrinks ? 'open' : 'collected',
-          subtotal_cents: totals.subtotalCents,
-          discount_cents: totals.discountCents,
-          tax_cents: totals.taxCents,
-          total_cents: totals.totalCents,
-          payment_method: 'cash',
-          tendered_cents: tendered,
-          change_cents: tendered - totals.totalCents,
-          taken_by: user.id,
-          fired_at: at,
-          ready_at: hasBarDrinks ? null : at,
-          collected_at: hasBarDrinks ? null : at,
-        })
-        .returning('id');
-      await trx('order_items').insert(
-        lines.map((l, i) => ({
-          order_id: orderId,
-          menu_item_id: l.menuItemId,
-          line_no: i + 1,
-          item_name: l.itemName,
-          station: l.station,
-          size_id: l.size?.id ?? null,
-          size_name: l.size?.name ?? null,
-          volume_ml: l.size?.volumeMl ?? null,
-          milk_id: l.milk?.id ?? null,
-          milk_name: l.milk?.name ?? null,
-          milk_code: l.milk?.code ?? null,
-          shots: l.shots,
-          milk_ml: l.milkMl,
-          texture: l.texture,
-          modifiers: JSON.stringify(l.modifiers),
-          note: l.note,
-          price_cents: l.priceCents,
-          status: l.station === 'bar' ? 'queued' : 'done',
-        })),
-      );
-      const ticket = await loadTicket(trx, orderId);
-      const event = await appendEvent(trx, user.locationId, 'order.fired', ticket, at, user.id);
-      return { result: { order: await loadOrder(trx, orderId), created: true }, events: [event] };
-    });
+    orderId = await insertOrder(deps, user, body, priced);
   } catch (err) {
     // Two sends of one order raced: the loser answers with the winner's order.
     if (isUniqueViolation(err)) {
@@ -145,4 +199,67 @@ export async function createOrder(
     }
     throw err;
   }
+  if (body.payment.method === 'card') {
+    return { order: await payByCard(deps, user, orderId, body.payment.paymentMethod), created: true };
+  }
+  return { order: await loadOrder(deps.db, orderId), created: true };
+}
+
+/** A card was declined and the customer pays cash instead: settle the waiting order and fire it. */
+async function payPendingByCash(deps: Deps, user: SessionUser, orderId: number, tendered: number): Promise<OrderView> {
+  return runCommand(deps, async (trx) => {
+    const order = await trx('orders').where({ id: orderId, location_id: user.locationId }).first();
+    if (order.status !== 'pending' || order.payment_status !== 'unpaid') return { result: await loadOrder(trx, orderId), events: [] };
+    if (tendered < order.total_cents) {
+      throw new HttpError(400, 'validation_failed', 'The cash tendered is less than the total', [
+        { path: 'payment.tenderedCents', message: `At least ${order.total_cents} cents are due` },
+      ]);
+    }
+    const live = await trx('payments').where({ order_id: orderId, status: 'processing' }).first('id');
+    if (live) throw conflict('A card payment for this order is in progress');
+    const at = deps.clock().toISOString();
+    const change = tendered - order.total_cents;
+    await trx('payments').insert({
+      order_id: orderId,
+      method: 'cash',
+      status: 'succeeded',
+      amount_cents: order.total_cents,
+      tendered_cents: tendered,
+      change_cents: change,
+      created_at: at,
+      updated_at: at,
+    });
+    const hasBar = await trx('order_items').where({ order_id: orderId, station: 'bar' }).first('id');
+    await trx('orders')
+      .where({ id: orderId })
+      .update({
+        payment_method: 'cash',
+        payment_status: 'paid',
+        tendered_cents: tendered,
+        change_cents: change,
+        status: hasBar ? 'open' : 'collected',
+        fired_at: at,
+        ready_at: hasBar ? null : at,
+        collected_at: hasBar ? null : at,
+      });
+    const ticket = await loadTicket(trx, orderId);
+    const event = await appendEvent(trx, user.locationId, 'order.fired', ticket, at, user.id);
+    return { result: await loadOrder(trx, orderId), events: [event] };
+  });
+}
+
+/** Today's orders at the café, newest first; `q` matches a name or an order number. */
+export async function listOrders(deps: Deps, user: SessionUser, q: string | undefined, limit: number): Promise<OrderView[]> {
+  const location = await deps.db('locations').where({ id: user.locationId }).first('time_zone');
+  const day = businessDate(deps.clock(), location.time_zone);
+  const query = deps.db('orders').where({ location_id: user.locationId, business_date: day });
+  if (q) {
+    const n = Number(q.replace(/^#/, ''));
+    query.andWhere((w) => {
+      w.whereLike('customer_name', `%${q.replace(/[%_]/g, '')}%`);
+      if (Number.isInteger(n) && n > 0) w.orWhere('number', n);
+    });
+  }
+  const rows = await query.orderBy('id', 'desc').limit(limit).select('id');
+  return Promise.all(rows.map((r) => loadOrder(deps.db, r.id)));
 }

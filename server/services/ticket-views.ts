@@ -37,9 +37,12 @@ export async function loadTickets(db: Db, orders: Record<string, any>[]): Promis
     number: o.number,
     customerName: o.customer_name,
     status: o.status,
-    firedAt: o.fired_at,
+    firedAt: o.fired_at ?? o.created_at, // a card order waiting for payment has not been fired yet
     readyAt: o.ready_at,
     collectedAt: o.collected_at,
+    service: o.service,
+    allergens: json<string[]>(o.allergens, []),
+    allergyNote: o.allergy_note ?? null,
     drinks: byOrder.get(o.id) ?? [],
   }));
 }

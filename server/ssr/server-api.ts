@@ -4,7 +4,9 @@ import { pickupView } from '../../src/domain/tickets';
 import type { SessionUser } from '../../src/domain/types';
 import { HttpError } from '../errors';
 import type { Deps } from '../services/deps';
+import { outboxView } from '../services/mail';
 import { loadMenu } from '../services/menu';
+import { findOrderInLocation, listOrders, loadOrder } from '../services/orders';
 import { boardSnapshot } from '../services/tickets';
 
 export function serverApi(deps: Deps, user: SessionUser | undefined): Api {
@@ -12,10 +14,20 @@ export function serverApi(deps: Deps, user: SessionUser | undefined): Api {
     if (!user) throw new HttpError(401, 'unauthenticated', 'Sign in first');
     return user.locationId;
   };
+  const signedIn = () => {
+    locationId();
+    return user!;
+  };
   return {
     session: async () => ({ user: user ? { id: user.id, name: user.name, role: user.role } : null }),
     menu: () => loadMenu(deps.db, locationId()),
     tickets: () => boardSnapshot(deps, locationId()),
     pickup: async () => pickupView(await boardSnapshot(deps, locationId())),
+    outbox: () => outboxView(deps.db, locationId()),
+    orders: async (q) => ({ orders: await listOrders(deps, signedIn(), q, 100) }),
+    order: async (id) => {
+      if (!(await findOrderInLocation(deps.db, signedIn(), id))) throw new HttpError(404, 'not_found', 'Order not found');
+      return { order: await loadOrder(deps.db, id) };
+    },
   };
 }

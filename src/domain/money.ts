@@ -56,3 +56,10 @@ export function parseAmountToCents(text: string): number | null {
 export function cashQuickAmounts(totalCents: number, notes = [500, 1000, 2000, 5000, 10000]): number[] {
   return notes.filter((n) => n >= totalCents).slice(0, 3);
 }
+
+/** A discount in cents: a whole percent of the subtotal (half up) or a fixed amount. */
+export function discountCents(subtotalCents: number, d: { kind: 'percent' | 'amount'; value: number } | undefined): number {
+  if (!d) return 0;
+  const raw = d.kind === 'percent' ? divideHalfUp(subtotalCents * Math.min(100, d.value), 100) : d.value;
+  return Math.min(raw, subtotalCents);
+}

@@ -61,7 +61,13 @@ export function resolveLine(menu: MenuView, input: OrderLineInput): LineResult {
   for (const id of ids) {
     const mod = menu.modifiers.find((m) => m.id === id);
     if (!mod) return fail('modifierIds', `No extra ${id}`);
-    modifiers.push({ id: mod.id, name: mod.name, priceCents: mod.priceCents });
+    if (!item.modifierGroupIds.includes(mod.groupId)) return fail('modifierIds', `${mod.name} is not offered on ${item.name}`);
+    modifiers.push({ id: mod.id, name: mod.name, priceCents: mod.priceCents, groupId: mod.groupId });
+  }
+  for (const group of menu.modifierGroups.filter((g) => item.modifierGroupIds.includes(g.id))) {
+    const chosen = modifiers.filter((m) => m.groupId === group.id).length;
+    if (group.selection === 'single' && chosen > 1) return fail('modifierIds', `Choose one ${group.name.toLowerCase()}`);
+    if (group.required && chosen === 0) return fail('modifierIds', `Choose a ${group.name.toLowerCase()} for ${item.name}`);
   }
 
   const base = size?.priceCents ?? item.priceCents ?? 0;
@@ -82,7 +88,7 @@ export function resolveLine(menu: MenuView, input: OrderLineInput): LineResult {
       shots,
       milkMl: item.takesMilk ? (size?.milkMl ?? 0) : 0,
       texture: item.texture,
-      modifiers,
+      modifiers: modifiers.map(({ id, name, priceCents }) => ({ id, name, priceCents })),
       note: input.note ? input.note : null,
       priceCents,
     },

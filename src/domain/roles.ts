@@ -9,6 +9,10 @@ export const CAPABILITIES = {
   makeDrinks: ['barista', 'lead', 'owner'],
   viewQueue: ['cashier', 'barista', 'lead', 'owner'],
   viewPickup: ['cashier', 'barista', 'lead', 'owner'],
+  viewOutbox: ['lead', 'owner'],
+  giveDiscounts: ['lead', 'owner'],
+  refundOrders: ['lead', 'owner'],
+  eightySix: ['lead', 'owner'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Capability = keyof typeof CAPABILITIES;

@@ -25,17 +25,51 @@ export const cashPayment = z.object({
   tenderedCents: z.number().int().min(0).max(10_000_00),
 });
 
+/** A card from the Counter's card reader, as the payment provider's payment method id. */
+export const cardPayment = z.object({
+  method: z.literal('card'),
+  paymentMethod: z.string().regex(/^pm_[A-Za-z0-9_]{1,60}$/, 'Not a payment method id'),
+});
+
+export const discountInput = z.object({
+  kind: z.enum(['percent', 'amount']),
+  /** whole percent (1–100) or cents */
+  value: z.number().int().positive().max(100_000),
+  reason: z.string().trim().min(3, 'Say why the discount is given').max(120),
+});
+export type DiscountInput = z.infer<typeof discountInput>;
+
 export const createOrderBody = z.object({
   clientOrderId: z.uuid(),
   customerName: z.string().trim().min(1, 'Enter the customer name').max(40),
+  service: z.enum(['takeaway', 'dine_in']).default('takeaway'),
+  allergens: z.array(z.string().min(1).max(40)).max(14).default([]),
+  allergyNote: z.string().trim().max(200).optional(),
+  customerEmail: z.email('Not an e-mail address').max(254).optional(),
+  discount: discountInput.optional(),
   items: z.array(orderLineInput).min(1, 'Add at least one item').max(40),
-  payment: z.discriminatedUnion('method', [cashPayment]),
+  payment: z.discriminatedUnion('method', [cashPayment, cardPayment]),
 });
 export type CreateOrderBody = z.infer<typeof createOrderBody>;
 
 export const ticketsQuery = z.object({
   status: z.enum(['open', 'board']).default('open'),
 });
+
+export const ordersQuery = z.object({
+  q: z.string().trim().max(40).optional(),
+  limit: z.coerce.number().int().min(1).max(200).default(100),
+});
+
+export const refundBody = z.object({
+  /** Leave out to refund everything still refundable. */
+  amountCents: z.number().int().positive().optional(),
+  reason: z.string().trim().min(3, 'Say why').max(200),
+});
+
+export const voidBody = z.object({ reason: z.string().trim().min(3, 'Say why').max(200) });
+
+export const availabilityBody = z.object({ available: z.boolean() });
 
 /** Messages a screen may send over the live socket. */
 export const clientMessage = z.discriminatedUnion('type', [
@@ -45,5 +79,19 @@ export const clientMessage = z.discriminatedUnion('type', [
 export type ClientMessage = z.infer<typeof clientMessage>;
 
 /** The Counter's form: the order without its id and payment, which are added on send. */
-export const orderDraft = createOrderBody.pick({ customerName: true, items: true });
+export const orderDraft = createOrderBody.pick({
+  customerName: true,
+  service: true,
+  allergens: true,
+  allergyNote: true,
+  items: true,
+});
 export type OrderDraft = z.infer<typeof orderDraft>;
+/** The form's own values, before zod fills in defaults. */
+export type OrderDraftInput = z.input<typeof orderDraft>;
+
+/** Where to mail an order's receipt; 254 is the longest address SMTP carries (RFC 5321 errata). */
+export const receiptEmailBody = z.object({
+  email: z.email('Enter an e-mail address like name@example.com').max(254),
+});
+export type ReceiptEmailBody = z.infer<typeof receiptEmailBody>;

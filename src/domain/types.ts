@@ -6,7 +6,9 @@ export type Station = 'bar' | 'counter';
 export const TEXTURES = ['flat', 'silky', 'foamy', 'cold'] as const;
 export type Texture = (typeof TEXTURES)[number];
 export type DrinkStatus = 'queued' | 'making' | 'done';
-export type TicketStatus = 'open' | 'ready' | 'collected';
+export type TicketStatus = 'pending' | 'open' | 'ready' | 'collected' | 'void';
+export type PaymentStatus = 'unpaid' | 'paid' | 'refunded';
+export type Service = 'takeaway' | 'dine_in';
 
 export interface SessionUser {
   id: number;
@@ -26,6 +28,9 @@ export interface LocationView {
   extraShotCents: number;
   waitTargetSeconds: number;
   pickupTimeoutSeconds: number;
+  allergenList: 'US' | 'EU';
+  baristasOnBar: number;
+  receiptFooter: string | null;
 }
 
 export interface MilkView {
@@ -50,9 +55,18 @@ export interface SizeView {
 
 export interface ModifierView {
   id: number;
+  groupId: number;
   groupName: string;
   name: string;
   priceCents: number;
+  allergens: string[];
+}
+
+export interface ModifierGroupView {
+  id: number;
+  name: string;
+  selection: 'single' | 'multi';
+  required: boolean;
 }
 
 export interface MenuItemView {
@@ -69,6 +83,8 @@ export interface MenuItemView {
   available: boolean;
   allergens: string[];
   sizes: SizeView[];
+  /** The extras offered on this item, by group. */
+  modifierGroupIds: number[];
 }
 
 export interface MenuView {
@@ -76,6 +92,7 @@ export interface MenuView {
   categories: { id: number; name: string }[];
   items: MenuItemView[];
   milks: MilkView[];
+  modifierGroups: ModifierGroupView[];
   modifiers: ModifierView[];
 }
 
@@ -110,6 +127,10 @@ export interface TicketView {
   firedAt: string;
   readyAt: string | null;
   collectedAt: string | null;
+  service: Service;
+  /** Allergens the customer named, from the location's list, and their own words. */
+  allergens: string[];
+  allergyNote: string | null;
   /** Bar drinks only; counter items are handed over at the counter. */
   drinks: DrinkView[];
 }
@@ -133,32 +154,65 @@ export interface OrderView {
   number: number;
   customerName: string;
   status: TicketStatus;
+  paymentStatus: PaymentStatus;
+  service: Service;
+  allergens: string[];
+  allergyNote: string | null;
+  customerEmail: string | null;
   lines: OrderLineView[];
   subtotalCents: number;
   discountCents: number;
+  discountReason: string | null;
   taxCents: number;
   totalCents: number;
-  payment: { method: 'cash'; tenderedCents: number; changeCents: number };
-  changeCents: number;
-  firedAt: string;
+  refundedCents: number;
+  payment: {
+    method: 'cash' | 'card';
+    tenderedCents: number | null;
+    changeCents: number | null;
+    /** The provider's id of the successful card payment. */
+    providerId: string | null;
+  };
+  changeCents: number | null;
+  quotedWaitSeconds: number | null;
+  takenBy: string | null;
+  createdAt: string;
+  firedAt: string | null;
+  voidReason: string | null;
 }
 
-export const EVENT_TYPES = [
+export const TICKET_EVENT_TYPES = [
+  'order.taken',
   'order.fired',
+  'order.voided',
+  'order.refunded',
   'drink.started',
   'drink.bumped',
   'ticket.bumped',
   'ticket.recalled',
 ] as const;
-export type EventType = (typeof EVENT_TYPES)[number];
+export type TicketEventType = (typeof TICKET_EVENT_TYPES)[number];
+export type EventType = TicketEventType | 'menu.availability';
 
-/** One row of the realtime log; `seq` is its id and strictly increases. */
+/** One row of the realtime log about a ticket; `seq` is its id and strictly increases. */
 export interface LiveEvent {
   seq: number;
-  type: EventType;
+  type: TicketEventType;
   at: string;
   ticket: TicketView;
 }
+
+/** An item was 86'd or is back. */
+export interface MenuEvent {
+  seq: number;
+  type: 'menu.availability';
+  at: string;
+  item: { id: number; available: boolean };
+}
+
+export type AnyLiveEvent = LiveEvent | MenuEvent;
+
+export const isTicketEvent = (e: AnyLiveEvent): e is LiveEvent => e.type !== 'menu.availability';
 
 export interface BoardSnapshot {
   seq: number;
@@ -170,7 +224,7 @@ export interface BoardSnapshot {
 /** Messages the server sends over the live socket. */
 export type ServerMessage =
   | { type: 'hello'; seq: number }
-  | { type: 'event'; event: LiveEvent }
+  | { type: 'event'; event: AnyLiveEvent }
   | { type: 'snapshot'; snapshot: BoardSnapshot }
   | { type: 'pong' }
   | { type: 'error'; code: string; message: string };

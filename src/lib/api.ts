@@ -1,7 +1,8 @@
 // What screens read, as one interface: over HTTP in the browser, straight from the services
 // during server rendering (so a page render makes no network round trip).
+import type { OutboxView } from '../domain/outbox';
 import type { Role } from '../domain/roles';
-import type { BoardSnapshot, MenuView } from '../domain/types';
+import type { BoardSnapshot, MenuView, OrderView } from '../domain/types';
 import { http } from './http';
 
 export interface PublicUser {
@@ -15,6 +16,11 @@ export interface Api {
   menu(): Promise<MenuView>;
   tickets(): Promise<BoardSnapshot>;
   pickup(): Promise<BoardSnapshot>;
+  /** Today's orders, newest first; `q` matches a name or number. */
+  orders(q?: string): Promise<{ orders: OrderView[] }>;
+  order(id: number): Promise<{ order: OrderView }>;
+  /** Mail the local SMTP fake caught for this café, newest first. */
+  outbox(): Promise<OutboxView>;
 }
 
 export const httpApi: Api = {
@@ -22,4 +28,7 @@ export const httpApi: Api = {
   menu: () => http('GET', '/menu'),
   tickets: () => http('GET', '/tickets?status=board'),
   pickup: () => http('GET', '/pickup'),
+  outbox: () => http('GET', '/outbox'),
+  orders: (q) => http('GET', `/orders${q ? `?q=${encodeURIComponent(q)}` : ''}`),
+  order: (id) => http('GET', `/orders/${id}`),
 };

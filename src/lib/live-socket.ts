@@ -1,12 +1,12 @@
 // The screen's end of the live socket: connects, says where it is (resume from the last seq),
 // hands events on, answers heartbeats, and reconnects with backoff when the line drops.
-import type { BoardSnapshot, LiveEvent, ServerMessage } from '../domain/types';
+import type { AnyLiveEvent, BoardSnapshot, ServerMessage } from '../domain/types';
 
 export type LinkState = 'connecting' | 'live' | 'offline';
 
 export interface LiveSocketHandlers {
   lastSeq(): number;
-  onEvent(event: LiveEvent): void;
+  onEvent(event: AnyLiveEvent): void;
   onSnapshot(snapshot: BoardSnapshot): void;
   onState(state: LinkState): void;
 }
@@ -14,6 +14,13 @@ export interface LiveSocketHandlers {
 const PING_EVERY_MS = 15_000;
 const PONG_WITHIN_MS = 10_000;
 const MAX_BACKOFF_MS = 10_000;
+
+const connectedListeners = new Set<() => void>();
+/** Told each time a live socket (re)connects: the server is back, so anything waiting can go. */
+export function onLiveConnected(listener: () => void): () => void {
+  connectedListeners.add(listener);
+  return () => void connectedListeners.delete(listener);
+}
 
 export function connectLive(url: string, h: LiveSocketHandlers): () => void {
   let socket: WebSocket | null = null;
@@ -42,8 +49,10 @@ export function connectLive(url: string, h: LiveSocketHandlers): () => void {
     };
     ws.onmessage = (msg) => {
       const m = JSON.parse(String(msg.data)) as ServerMessage;
-      if (m.type === 'hello') h.onState('live');
-      else if (m.type === 'pong') clearTimeout(pongTimer);
+      if (m.type === 'hello') {
+        h.onState('live');
+        for (const listener of connectedListeners) listener();
+      } else if (m.type === 'pong') clearTimeout(pongTimer);
       else if (m.type === 'event') h.onEvent(m.event);
       else if (m.type === 'snapshot') h.onSnapshot(m.snapshot);
     };

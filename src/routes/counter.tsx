@@ -1,24 +1,31 @@
 // The Counter: menu tiles, the item sheet, the order, cash and Send.
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useSuspenseQuery } from '@tanstack/react-query';
-import { useRef, useState } from 'react';
+import { useCallback, useRef, useState } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
 import type { LoaderFunctionArgs } from 'react-router';
-import { formatCents, orderTotals, parseAmountToCents } from '../domain/money';
-import { resolveLine } from '../domain/order-lines';
-import { orderDraft, type OrderDraft, type OrderLineInput } from '../domain/schemas';
+import { formatCents } from '../domain/money';
+import { quoteLabel } from '../domain/quote';
+import { can } from '../domain/roles';
+import { orderDraft, type OrderDraft, type OrderDraftInput, type OrderLineInput } from '../domain/schemas';
 import type { MenuItemView, OrderView } from '../domain/types';
 import { Button } from '../components/ui/button';
 import { LinkStateBadge } from '../components/ui/link-state';
 import { barBoardQuery } from '../features/board/queries';
 import { useLiveBoard } from '../features/board/use-live-board';
+import { emptyCheckout, previewTotals, tenderedCents, type Checkout } from '../features/counter/checkout';
+import { CheckoutPanel } from '../features/counter/checkout-panel';
 import { ItemSheet } from '../features/counter/item-sheet';
+import { OrdersDrawer } from '../features/counter/orders-drawer';
 import { MenuGrid } from '../features/counter/menu-grid';
 import { OrderPanel } from '../features/counter/order-panel';
+import { PendingOrdersBanner } from '../features/counter/pending-orders-banner';
+import { usePendingOrders } from '../features/counter/use-pending-orders';
 import { useSendOrder } from '../features/counter/use-send-order';
 import { menuQuery } from '../features/menu/queries';
+import { sessionQuery } from '../features/session/queries';
 import { useApi } from '../lib/api-context';
-import { ApiError } from '../lib/http';
+import { ApiError, http } from '../lib/http';
 import { uuid } from '../lib/uuid';
 import { requireScreen, type RouteDeps } from './deps';
 
@@ -28,57 +35,82 @@ function Counter() {
   const api = useApi();
   const { data: menu } = useSuspenseQuery(menuQuery(api));
   const { data: board } = useSuspenseQuery(barBoardQuery(api));
+  const { data: session } = useSuspenseQuery(sessionQuery(api));
   const link = useLiveBoard();
-  const form = useForm<OrderDraft>({ resolver: zodResolver(orderDraft), defaultValues: { customerName: '', items: [] } });
+  const form = useForm<OrderDraftInput, unknown, OrderDraft>({ resolver: zodResolver(orderDraft), defaultValues: BLANK_DRAFT });
   const lines = useFieldArray({ control: form.control, name: 'items' });
   const [sheet, setSheet] = useState<Sheet>(null);
-  const [tendered, setTendered] = useState('');
+  const [checkout, setCheckout] = useState<Checkout>(emptyCheckout);
   const [sent, setSent] = useState<OrderView | null>(null);
-  // One id per order being built: a retry after a lost answer can't take the order twice.
+  const [ordersOpen, setOrdersOpen] = useState(false);
+  // One id per order being built: a retry after a lost answer (or a declined card) can't take
+  // the order twice.
   const clientOrderId = useRef<string | null>(null);
   const send = useSendOrder();
+  const outbox = usePendingOrders(send.mutateAsync);
 
+  const items = form.watch('items');
+  const totals = previewTotals(menu, items, checkout.discount);
   const queued = board.tickets.filter((t) => t.status === 'open').flatMap((t) => t.drinks.filter((d) => d.status !== 'done'));
 
-  const pick = (item: MenuItemView) => {
-    setSent(null);
-    if (item.station === 'counter') lines.append({ menuItemId: item.id });
-    else setSheet({ item, index: null });
-  };
-  const saveLine = (line: OrderLineInput) => {
-    if (sheet?.index !== null && sheet?.index !== undefined) lines.update(sheet.index, line);
-    else lines.append(line);
-    form.clearErrors('items');
-    setSheet(null);
+  const pick = useCallback(
+    (item: MenuItemView) => {
+      setSent(null);
+      if (item.station === 'counter') lines.append({ menuItemId: item.id });
+      else setSheet({ item, index: null });
+    },
+    [lines],
+  );
+  const saveLine = useCallback(
+    (line: OrderLineInput) => {
+      setSheet((current) => {
+        if (current?.index !== null && current?.index !== undefined) lines.update(current.index, line);
+        else lines.append(line);
+        return null;
+      });
+      form.clearErrors('items');
+    },
+    [lines, form],
+  );
+  const closeSheet = useCallback(() => setSheet(null), []);
+
+  const finish = (order: OrderView | null) => {
+    setSent(order);
+    clientOrderId.current = null;
+    form.reset(BLANK_DRAFT);
+    setCheckout(emptyCheckout);
   };
 
   const onSubmit = form.handleSubmit(async (draft) => {
-    const exact = orderTotals(
-      draft.items.map((l) => {
-        const r = resolveLine(menu, l);
-        return r.ok ? r.line.priceCents : 0;
-      }),
-      menu.location,
-    ).totalCents;
-    // blank means the customer paid exactly; the server checks it covers its own total
-    const tenderedCents = tendered.trim() === '' ? exact : (parseAmountToCents(tendered) ?? 0);
     clientOrderId.current ??= uuid();
+    const base = {
+      clientOrderId: clientOrderId.current,
+      ...draft,
+      allergyNote: draft.allergyNote || undefined,
+      customerEmail: checkout.email.trim() || undefined,
+      discount: checkout.discount ?? undefined,
+    };
     try {
-      const { order } = await send.mutateAsync({
-        clientOrderId: clientOrderId.current,
-        ...draft,
-        payment: { method: 'cash', tenderedCents },
-      });
-      setSent(order);
-      clientOrderId.current = null;
-      form.reset({ customerName: '', items: [] });
-      setTendered('');
+      if (checkout.method === 'card') {
+        // A card is charged while the customer stands there: never queued for later.
+        const { order } = await send.mutateAsync({ ...base, payment: { method: 'card', paymentMethod: checkout.paymentMethod! } });
+        finish(order);
+        if (base.customerEmail) mailReceipt(order.id, base.customerEmail);
+        return;
+      }
+      const cash = tenderedCents(checkout, totals.totalCents) ?? 0;
+      const result = await outbox.sendOrQueue({ ...base, payment: { method: 'cash', tenderedCents: cash } }, { totalCents: totals.totalCents });
+      // kept in this browser and resent by itself: the banner shows it, not an error
+      if (result.queued) send.reset();
+      finish(result.queued ? null : result.order);
+      if (!result.queued && base.customerEmail) mailReceipt(result.order.id, base.customerEmail);
     } catch {
       /* shown from send.error; the same id is kept for the retry */
     }
   });
 
   const error = send.error instanceof ApiError ? send.error.message : send.error ? 'Could not send the order' : null;
+  const money = (c: number | null) => formatCents(c ?? 0, menu.location.currency);
   return (
     <div className="flex h-screen flex-col bg-steam-50 text-ink-900">
       <header className="flex items-center gap-6 border-b border-steam-200 px-5 py-3">
@@ -87,36 +119,63 @@ function Counter() {
         <span data-testid="queue-glance" className="text-lg">
           In the queue: <strong>{queued.length}</strong> drink{queued.length === 1 ? '' : 's'}
         </span>
+        <Button tone="quiet" onClick={() => setOrdersOpen(true)}>
+          Today’s orders
+        </Button>
+        <span className="hidden text-sm text-ink-600 xl:inline">Keys: 1–9 tile · Enter add · Esc close</span>
         <LinkStateBadge state={link} className="ml-auto text-base" />
       </header>
+      <PendingOrdersBanner queue={outbox} currency={menu.location.currency} />
       {sent && (
-        <div role="status" className="flex items-center gap-4 bg-ink-900 px-5 py-3 text-xl text-steam-50">
+        <div role="status" className="flex flex-wrap items-center gap-x-5 gap-y-1 bg-ink-900 px-5 py-3 text-xl text-steam-50">
           <span>
-            Sent <strong>#{sent.number}</strong> for <strong>{sent.customerName}</strong> · {formatCents(sent.totalCents, menu.location.currency)}
+            Sent <strong>#{sent.number}</strong> for <strong>{sent.customerName}</strong> · {money(sent.totalCents)}{' '}
+            {sent.payment.method === 'card' ? '· card paid' : ''}
           </span>
-          <span>
-            Change due <strong data-testid="sent-change">{formatCents(sent.changeCents, menu.location.currency)}</strong>
-          </span>
+          {sent.payment.method === 'cash' && (
+            <span>
+              Change due <strong data-testid="sent-change">{money(sent.changeCents)}</strong>
+            </span>
+          )}
+          {sent.quotedWaitSeconds !== null && sent.status === 'open' && (
+            <span data-testid="quote">Tell them: {quoteLabel(sent.quotedWaitSeconds)}</span>
+          )}
+          <a className="underline" href={`/receipts/${sent.id}`} target="_blank" rel="noreferrer">
+            Receipt
+          </a>
+          <a className="underline" href={`/labels/${sent.id}`} target="_blank" rel="noreferrer">
+            Cup labels
+          </a>
           <Button tone="quiet" className="ml-auto" onClick={() => setSent(null)}>
             OK
           </Button>
         </div>
       )}
-      <form onSubmit={onSubmit} noValidate className="grid min-h-0 flex-1 grid-cols-[1fr_24rem] gap-4 p-4">
+      <form onSubmit={onSubmit} noValidate className="grid min-h-0 flex-1 grid-cols-[1fr_26rem] gap-4 p-4">
         <MenuGrid menu={menu} onPick={pick} />
-        <OrderPanel
-          menu={menu}
-          form={form}
-          tendered={tendered}
-          onTendered={setTendered}
-          onEditLine={(index) => {
-            const item = menu.items.find((i) => i.id === form.getValues(`items.${index}`).menuItemId);
-            if (item && item.station === 'bar') setSheet({ item, index });
-          }}
-          onRemoveLine={(index) => lines.remove(index)}
-          sending={send.isPending}
-          error={error}
-        />
+        <aside className="flex min-h-0 flex-col overflow-y-auto rounded-2xl border border-steam-200 bg-white p-4">
+          <OrderPanel
+            menu={menu}
+            items={items}
+            totals={totals}
+            error={form.formState.errors.items?.message ?? form.formState.errors.items?.root?.message}
+            onEditLine={(index) => {
+              const item = menu.items.find((i) => i.id === form.getValues(`items.${index}`).menuItemId);
+              if (item && item.station === 'bar') setSheet({ item, index });
+            }}
+            onRemoveLine={(index) => lines.remove(index)}
+          />
+          <CheckoutPanel
+            menu={menu}
+            form={form}
+            checkout={checkout}
+            onCheckout={setCheckout}
+            totalCents={totals.totalCents}
+            canDiscount={can(session.user?.role, 'giveDiscounts')}
+            sending={send.isPending}
+            error={error}
+          />
+        </aside>
       </form>
       {sheet && (
         <ItemSheet
@@ -125,12 +184,20 @@ function Counter() {
           item={sheet.item}
           initial={sheet.index === null ? undefined : form.getValues(`items.${sheet.index}`)}
           onAdd={saveLine}
-          onClose={() => setSheet(null)}
+          onClose={closeSheet}
         />
       )}
+      {ordersOpen && <OrdersDrawer canRefund={can(session.user?.role, 'refundOrders')} currency={menu.location.currency} onClose={() => setOrdersOpen(false)} />}
     </div>
   );
 }
+
+/** Mail the receipt; a failure here is not the cashier's emergency, so it stays quiet. */
+function mailReceipt(orderId: number, email: string) {
+  http('POST', `/orders/${orderId}/receipt`, { email }).catch(() => undefined);
+}
+
+const BLANK_DRAFT: OrderDraft = { customerName: '', service: 'takeaway', allergens: [], allergyNote: undefined, items: [] };
 
 export const counterRoute = (deps: RouteDeps) => ({
   Component: Counter,

@@ -22,3 +22,10 @@ export async function requireScreen(deps: RouteDeps, request: Request, capabilit
   }
   return user;
 }
+
+/** A screen's `:id` as a positive integer, or a 404 page. */
+export function orderIdFrom(params: Record<string, string | undefined>): number {
+  const id = Number(params.id);
+  if (!Number.isInteger(id) || id <= 0) throw data({ message: 'There is no such order.' }, { status: 404, statusText: 'Not Found' });
+  return id;
+}

@@ -7,7 +7,10 @@ import { RouteError } from './route-error';
 import { Root } from './root';
 import { barRoute } from './bar';
 import { counterRoute } from './counter';
+import { outboxRoute } from './outbox';
+import { labelsRoute } from './labels';
 import { pickupRoute } from './pickup';
+import { receiptRoute } from './receipt';
 import { signInRoute } from './signin';
 import type { RouteDeps } from './deps';
 
@@ -35,6 +38,9 @@ export function createRoutes(deps: RouteDeps): RouteObject[] {
         { id: 'counter', path: 'counter', ...counterRoute(deps) },
         { id: 'bar', path: 'bar', ...barRoute(deps) },
         { id: 'pickup', path: 'pickup', ...pickupRoute(deps) },
+        { id: 'receipt', path: 'receipts/:id', ...receiptRoute(deps) },
+        { id: 'labels', path: 'labels/:id', ...labelsRoute(deps) },
+        { id: 'outbox', path: 'outbox', ...outboxRoute(deps) },
         {
           id: 'not-found',
           path: '*',

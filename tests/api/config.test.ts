@@ -36,6 +36,7 @@ describe('loadConfig', () => {
     [{ SEED_DEMO: 'maybe' }, 'SEED_DEMO'],
     [{ SESSION_SECRET: 'short' }, 'SESSION_SECRET'],
     [{ NODE_ENV: 'staging' }, 'NODE_ENV'],
+    [{ SMTP_URL: 'mail.example.com:587' }, 'SMTP_URL'],
   ])('refuses %o and names %s', (env, name) => {
     expect(() => loadConfig({ DATABASE_FILE: file, ...env })).toThrow(ConfigError);
     expect(() => loadConfig({ DATABASE_FILE: file, ...env })).toThrow(new RegExp(`${name}:`));

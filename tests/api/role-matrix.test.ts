@@ -70,6 +70,8 @@ describe('the route list', () => {
         'POST /api/drinks/:id/bump',
         'POST /api/tickets/:id/bump',
         'POST /api/tickets/:id/recall',
+        'POST /api/orders/:id/receipt',
+        'GET /api/outbox',
       ]),
     );
     for (const r of server.routes) {

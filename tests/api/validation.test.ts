@@ -61,12 +61,20 @@ describe('POST /api/orders: the shape of the body', () => {
     expect(res.body).toEqual(validationFailed([{ path: 'items', message: 'Add at least one item' }]));
   });
 
-  it('refuses a payment that is not cash', async () => {
+  it('refuses a payment method it does not know', async () => {
     const res = await cashier
       .post('/api/orders')
-      .send({ ...orderBody('Tamsin Vale', [latte()]), payment: { method: 'card', tenderedCents: 1000 } });
+      .send({ ...orderBody('Tamsin Vale', [latte()]), payment: { method: 'cheque', tenderedCents: 1000 } });
     expect(res.status).toBe(400);
     expect(paths(res.body)).toEqual(['payment.method']);
+  });
+
+  it('refuses a card payment without a payment method id', async () => {
+    const res = await cashier
+      .post('/api/orders')
+      .send({ ...orderBody('Tamsin Vale', [latte()]), payment: { method: 'card', paymentMethod: '4242 4242 4242 4242' } });
+    expect(res.status).toBe(400);
+    expect(paths(res.body)).toEqual(['payment.paymentMethod']);
   });
 });
 

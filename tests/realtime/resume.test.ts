@@ -1,7 +1,7 @@
 // Done means: a screen that drops and comes back with resume { since } gets exactly what it
 // missed, in order, and then carries on live — nothing lost, nothing twice.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import type { LiveEvent } from '../../src/domain/types';
+import type { AnyLiveEvent } from '../../src/domain/types';
 import { startTestServer, type TestServer } from '../support/test-server';
 import {
   barLines,
@@ -33,7 +33,7 @@ beforeAll(async () => {
 afterEach(() => closeAllSockets());
 afterAll(() => server.close());
 
-const describeMessages = (messages: { type: string; event?: LiveEvent }[]) =>
+const describeMessages = (messages: { type: string; event?: AnyLiveEvent }[]) =>
   messages.map((m) => (m.type === 'event' ? `${m.event!.type}#${m.event!.seq}` : m.type));
 
 describe('resuming after a drop', () => {

@@ -52,7 +52,7 @@ export function connect(httpUrl: string, cookie: string): Promise<LiveClient> {
   const client: LiveClient = {
     socket,
     messages,
-    events: () => messages.flatMap((m) => (m.type === 'event' ? [m.event] : [])),
+    events: () => messages.flatMap((m) => (m.type === 'event' ? [m.event as LiveEvent] : [])),
     next(predicate = () => true, what = 'a matching message') {
       return new Promise<ServerMessage>((resolve, reject) => {
         const check = () => {
@@ -86,7 +86,7 @@ export function connect(httpUrl: string, cookie: string): Promise<LiveClient> {
         (msg) => msg.type === 'event' && (type === undefined || msg.event.type === type),
         type ? `a ${type} event` : 'an event',
       );
-      return (m as Extract<ServerMessage, { type: 'event' }>).event;
+      return (m as Extract<ServerMessage, { type: 'event' }>).event as LiveEvent;
     },
     send(message) {
       socket.send(JSON.stringify(message));

@@ -34,6 +34,9 @@ function ticket(id: number, firedAt: string, drinks: DrinkView[]): TicketView {
     firedAt,
     readyAt: null,
     collectedAt: null,
+    service: 'takeaway',
+    allergens: [],
+    allergyNote: null,
     drinks,
   };
 }

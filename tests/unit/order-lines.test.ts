@@ -12,6 +12,8 @@ const GIBRALTAR = 11; // milk drink, one size, no default milk
 const POUR_OVER = 12; // sized, no milk
 const SCONE = 13; // counter item, no sizes
 const AFFOGATO = 14; // 86'd
+const SYRUPS = 41;
+const TOPPINGS = 42;
 const MAPLE = 31; // +55
 const CINNAMON = 32; // +15
 
@@ -27,6 +29,7 @@ function item(over: Partial<MenuItemView> & Pick<MenuItemView, 'id' | 'name'>): 
     available: true,
     allergens: [],
     sizes: [],
+    modifierGroupIds: [SYRUPS, TOPPINGS],
     ...over,
   };
 }
@@ -43,6 +46,9 @@ function testMenu(): MenuView {
       extraShotCents: EXTRA_SHOT,
       waitTargetSeconds: 300,
       pickupTimeoutSeconds: 120,
+      allergenList: 'US',
+      baristasOnBar: 1,
+      receiptFooter: null,
     },
     categories: [{ id: 1, name: 'Drinks' }],
     items: [
@@ -77,9 +83,13 @@ function testMenu(): MenuView {
       { id: PEA, name: 'Pea', code: 'PE', upchargeCents: 65, allergens: [] },
       { id: HEMP, name: 'Hemp', code: 'HE', upchargeCents: 45, allergens: [] },
     ],
+    modifierGroups: [
+      { id: SYRUPS, name: 'Syrup', selection: 'multi', required: false },
+      { id: TOPPINGS, name: 'Topping', selection: 'multi', required: false },
+    ],
     modifiers: [
-      { id: MAPLE, groupName: 'Syrup', name: 'Maple', priceCents: 55 },
-      { id: CINNAMON, groupName: 'Topping', name: 'Cinnamon', priceCents: 15 },
+      { id: MAPLE, groupId: SYRUPS, groupName: 'Syrup', name: 'Maple', priceCents: 55, allergens: [] },
+      { id: CINNAMON, groupId: TOPPINGS, groupName: 'Topping', name: 'Cinnamon', priceCents: 15, allergens: [] },
     ],
   };
 }
@@ -230,5 +240,33 @@ describe('resolveLine: modifiers and the full price', () => {
   it('keeps a note and turns an empty one into null', () => {
     expect(ok(resolveLine(testMenu(), { menuItemId: LATTE, note: 'half foam' })).note).toBe('half foam');
     expect(ok(resolveLine(testMenu(), { menuItemId: LATTE, note: '' })).note).toBeNull();
+  });
+});
+
+describe('resolveLine: extras by group', () => {
+  it('refuses an extra from a group the item does not offer', () => {
+    const menu = testMenu();
+    menu.items = menu.items.map((i) => ({ ...i, modifierGroupIds: [SYRUPS] }));
+    const r = resolveLine(menu, { menuItemId: menu.items[0].id, modifierIds: [CINNAMON] });
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.problem).toMatchObject({ field: 'modifierIds', kind: 'invalid' });
+  });
+
+  it('allows one choice in a single-choice group and insists on a required one', () => {
+    const menu = testMenu();
+    const MINT = 33;
+    menu.modifierGroups = [
+      { id: SYRUPS, name: 'Syrup', selection: 'single', required: true },
+      { id: TOPPINGS, name: 'Topping', selection: 'multi', required: false },
+    ];
+    menu.modifiers.push({ id: MINT, groupId: SYRUPS, groupName: 'Syrup', name: 'Mint', priceCents: 55, allergens: [] });
+    const itemId = menu.items[0].id;
+    const two = resolveLine(menu, { menuItemId: itemId, modifierIds: [MAPLE, MINT] });
+    expect(two.ok).toBe(false);
+    if (!two.ok) expect(two.problem.message).toMatch(/one syrup/i);
+    const none = resolveLine(menu, { menuItemId: itemId, modifierIds: [CINNAMON] });
+    expect(none.ok).toBe(false);
+    if (!none.ok) expect(none.problem.message).toMatch(/choose a syrup/i);
+    expect(resolveLine(menu, { menuItemId: itemId, modifierIds: [MINT, CINNAMON] }).ok).toBe(true);
   });
 });

@@ -36,6 +36,9 @@ function ticket(id: number, firedAt: string, status: TicketStatus = 'open', read
     firedAt,
     readyAt,
     collectedAt: null,
+    service: 'takeaway',
+    allergens: [],
+    allergyNote: null,
     drinks: [{ ...aDrink, ticketId: id }],
   };
 }

@@ -2,9 +2,10 @@
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 import { applyEvent, pickupTicket, upsertTicket, type BoardFilter } from '../../domain/tickets';
-import type { BoardSnapshot, LiveEvent, TicketView } from '../../domain/types';
+import { isTicketEvent, type AnyLiveEvent, type BoardSnapshot, type LiveEvent, type MenuView, type TicketView } from '../../domain/types';
 import { connectLive, liveUrl, type LinkState } from '../../lib/live-socket';
 import { syncServerClock } from '../../lib/server-clock';
+import { menuKeys } from '../menu/queries';
 import { boardKeys } from './queries';
 
 // Boards keep ready tickets for a while (recall tray, Pickup's "ready"); each screen hides them
@@ -25,8 +26,17 @@ function eachBoard(qc: QueryClient, fn: (b: BoardSnapshot, spec: (typeof boards)
   }
 }
 
-export function applyLiveEvent(qc: QueryClient, event: LiveEvent) {
-  eachBoard(qc, (b, spec) => applyEvent(b, { ...event, ticket: spec.view(event.ticket) }, spec.keep));
+export function applyLiveEvent(qc: QueryClient, event: AnyLiveEvent) {
+  if (isTicketEvent(event)) {
+    eachBoard(qc, (b, spec) => applyEvent(b, { ...event, ticket: spec.view(event.ticket) } as LiveEvent, spec.keep));
+    return;
+  }
+  // 86 / back on: the menu tile changes at once; the boards still move to this seq
+  const { id, available } = event.item;
+  qc.setQueryData<MenuView>(menuKeys.all, (menu) =>
+    menu && { ...menu, items: menu.items.map((i) => (i.id === id ? { ...i, available } : i)) },
+  );
+  eachBoard(qc, (b) => (event.seq > b.seq ? { ...b, seq: event.seq } : b));
 }
 
 /** A command's answer shows at once; the event that follows changes nothing further. */
@@ -49,6 +59,7 @@ export function useLiveBoard(): LinkState {
       },
       onSnapshot: (snapshot) => {
         syncServerClock(snapshot.now);
+        qc.invalidateQueries({ queryKey: menuKeys.all }); // a snapshot carries no menu changes
         eachBoard(qc, (_b, spec) => ({
           ...snapshot,
           tickets: snapshot.tickets.filter((t) => spec.keep(t, Date.parse(snapshot.now))).map(spec.view),

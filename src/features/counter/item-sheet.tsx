@@ -1,5 +1,5 @@
 // The item sheet: size, milk, shots and extras for one drink, as big touch choices.
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { formatCents } from '../../domain/money';
 import { resolveLine } from '../../domain/order-lines';
 import type { OrderLineInput } from '../../domain/schemas';
@@ -27,12 +27,25 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
     },
   );
   const priced = resolveLine(menu, line);
+
+  // Esc closes the sheet; Enter adds the drink (unless typing a note).
+  useEffect(() => {
+    const onKey = (e: KeyboardEvent) => {
+      if (e.key === 'Escape') onClose();
+      else if (e.key === 'Enter' && !(e.target as HTMLElement | null)?.closest('input, button') && priced.ok) onAdd(line);
+    };
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [line, priced.ok, onAdd, onClose]);
   const recipeShots = (item.sizes.find((s) => s.id === line.sizeId) ?? defaultSize)?.shots ?? item.shots;
   const shots = line.shots ?? recipeShots;
   const money = (c: number) => formatCents(c, menu.location.currency);
-  const toggleModifier = (id: number) => {
+  /** In a pick-one group, choosing an extra replaces the group's other choice. */
+  const toggleModifier = (id: number, singleGroupId: number | null) => {
     const ids = line.modifierIds ?? [];
-    setLine({ ...line, modifierIds: ids.includes(id) ? ids.filter((x) => x !== id) : [...ids, id] });
+    if (ids.includes(id)) return setLine({ ...line, modifierIds: ids.filter((x) => x !== id) });
+    const others = singleGroupId === null ? ids : ids.filter((x) => menu.modifiers.find((m) => m.id === x)?.groupId !== singleGroupId);
+    setLine({ ...line, modifierIds: [...others, id] });
   };
 
   return (
@@ -88,32 +101,41 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
               </div>
             </fieldset>
           )}
-          {item.station === 'bar' && (
-            <fieldset>
-              <legend className="mb-1 text-sm font-semibold tracking-widest text-ink-600 uppercase">Extras</legend>
-              <div className="flex flex-wrap gap-2">
-                {menu.modifiers.map((m) => {
-                  const on = line.modifierIds?.includes(m.id) ?? false;
-                  return (
-                    <button
-                      key={m.id}
-                      type="button"
-                      aria-pressed={on}
-                      onClick={() => toggleModifier(m.id)}
-                      className={cn(
-                        'min-h-14 rounded-lg border-2 px-4 text-lg font-semibold',
-                        on ? 'border-ink-900 bg-ink-900 text-steam-50' : 'border-steam-200 bg-white',
-                      )}
-                    >
-                      {on && <span aria-hidden>✓ </span>}
-                      {m.name}
-                      {m.priceCents > 0 && <span className="ml-1 text-sm font-medium">+{money(m.priceCents)}</span>}
-                    </button>
-                  );
-                })}
-              </div>
-            </fieldset>
-          )}
+          {menu.modifierGroups
+            .filter((g) => item.modifierGroupIds.includes(g.id))
+            .map((group) => (
+              <fieldset key={group.id}>
+                <legend className="mb-1 text-sm font-semibold tracking-widest text-ink-600 uppercase">
+                  {group.name}
+                  {group.selection === 'single' ? ' · pick one' : ''}
+                  {group.required ? ' · required' : ''}
+                </legend>
+                <div className="flex flex-wrap gap-2">
+                  {menu.modifiers
+                    .filter((m) => m.groupId === group.id)
+                    .map((m) => {
+                      const on = line.modifierIds?.includes(m.id) ?? false;
+                      return (
+                        <button
+                          key={m.id}
+                          type="button"
+                          aria-pressed={on}
+                          onClick={() => toggleModifier(m.id, group.selection === 'single' ? group.id : null)}
+                          className={cn(
+                            'min-h-14 rounded-lg border-2 px-4 text-lg font-semibold',
+                            on ? 'border-ink-900 bg-ink-900 text-steam-50' : 'border-steam-200 bg-white',
+                          )}
+                        >
+                          {on && <span aria-hidden>✓ </span>}
+                          {m.name}
+                          {m.priceCents > 0 && <span className="ml-1 text-sm font-medium">+{money(m.priceCents)}</span>}
+                          {m.allergens.length > 0 && <span className="ml-1 text-sm font-medium">⚠ {m.allergens.join(', ')}</span>}
+                        </button>
+                      );
+                    })}
+                </div>
+              </fieldset>
+            ))}
           <label className="block">
             <span className="mb-1 block text-sm font-semibold tracking-widest text-ink-600 uppercase">Note for the bar</span>
             <input

@@ -1,0 +1,34 @@
+// Card payments for this process: the real provider when keys are configured, otherwise the
+// local fake on loopback, so dev, tests and the demo take cards with no outside service.
+import { startPaymentFake } from '../fakes/payment-fake';
+import { createStripeGateway, type PaymentGateway } from './gateway';
+
+export interface Payments {
+  gateway: PaymentGateway;
+  /** Tell the fake where to send webhooks once the app is listening. */
+  listening(appUrl: string, webhookPath: string): void;
+  close(): Promise<void>;
+}
+
+export async function startPayments(opts: {
+  secretKey?: string;
+  webhookSecret?: string;
+  log?: (line: string) => void;
+}): Promise<Payments> {
+  if (opts.secretKey && opts.webhookSecret) {
+    const gateway = createStripeGateway({ secretKey: opts.secretKey, webhookSecret: opts.webhookSecret });
+    return { gateway, listening: () => {}, close: async () => {} };
+  }
+  const fake = await startPaymentFake();
+  opts.log?.(`Card payments go to the local payment fake at ${fake.url} (no real money moves).`);
+  const gateway = createStripeGateway({
+    secretKey: fake.secretKey,
+    webhookSecret: fake.webhookSecret,
+    endpoint: { host: fake.host, port: fake.port, protocol: 'http' },
+  });
+  return {
+    gateway,
+    listening: (appUrl, webhookPath) => fake.setWebhookUrl(`${appUrl}/api${webhookPath}`),
+    close: () => fake.close(),
+  };
+}

@@ -1,0 +1,49 @@
+// Check an order against the menu and price it: every line, the discount, the tax, the allergens.
+import { allergensOf } from '../../src/domain/allergens';
+import { discountCents, orderTotals, type OrderTotals } from '../../src/domain/money';
+import { resolveLine, type ResolvedLine } from '../../src/domain/order-lines';
+import { can } from '../../src/domain/roles';
+import type { CreateOrderBody } from '../../src/domain/schemas';
+import type { MenuView, SessionUser } from '../../src/domain/types';
+import { HttpError } from '../errors';
+import type { Deps } from './deps';
+import { loadMenu } from './menu';
+
+export interface PricedOrder {
+  menu: MenuView;
+  lines: ResolvedLine[];
+  totals: OrderTotals;
+}
+
+const invalid = (path: string, message: string) =>
+  new HttpError(400, 'validation_failed', 'Some fields need fixing', [{ path, message }]);
+
+export async function priceOrder(deps: Deps, user: SessionUser, body: CreateOrderBody): Promise<PricedOrder> {
+  const menu = await loadMenu(deps.db, user.locationId);
+  const lines = body.items.map((input, i) => {
+    const r = resolveLine(menu, input);
+    if (r.ok) return r.line;
+    const details = [{ path: `items.${i}.${r.problem.field}`, message: r.problem.message }];
+    if (r.problem.kind === 'unavailable') throw new HttpError(409, 'unavailable', r.problem.message, details);
+    throw new HttpError(400, 'validation_failed', 'Some fields need fixing', details);
+  });
+
+  const known = allergensOf(menu.location.allergenList);
+  body.allergens.forEach((a, i) => {
+    if (!known.includes(a)) throw invalid(`allergens.${i}`, `"${a}" is not on this café's allergen list`);
+  });
+
+  if (body.discount && !can(user.role, 'giveDiscounts')) {
+    throw new HttpError(403, 'forbidden', 'Only a shift lead or the owner can give a discount');
+  }
+  const lineCents = lines.map((l) => l.priceCents);
+  const subtotal = lineCents.reduce((a, b) => a + b, 0);
+  const totals = orderTotals(lineCents, menu.location, discountCents(subtotal, body.discount));
+
+  if (body.payment.method === 'cash' && body.payment.tenderedCents < totals.totalCents) {
+    throw new HttpError(400, 'validation_failed', 'The cash tendered is less than the total', [
+      { path: 'payment.tenderedCents', message: `At least ${totals.totalCents} cents are due` },
+    ]);
+  }
+  return { menu, lines, totals };
+}

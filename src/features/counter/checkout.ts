@@ -1,0 +1,31 @@
+// What the Counter knows about paying for the order being built, apart from its lines.
+import { discountCents, orderTotals, parseAmountToCents, type OrderTotals } from '../../domain/money';
+import { resolveLine } from '../../domain/order-lines';
+import type { DiscountInput, OrderLineInput } from '../../domain/schemas';
+import type { MenuView } from '../../domain/types';
+
+export interface Checkout {
+  method: 'cash' | 'card';
+  /** Cash tendered as typed; blank means exact. */
+  tendered: string;
+  paymentMethod: string | null;
+  email: string;
+  discount: DiscountInput | null;
+}
+
+export const emptyCheckout: Checkout = { method: 'cash', tendered: '', paymentMethod: null, email: '', discount: null };
+
+/** The same pure pricing the server uses, for the running total on screen. */
+export function previewTotals(menu: MenuView, items: OrderLineInput[], discount: DiscountInput | null): OrderTotals {
+  const cents = items.map((l) => {
+    const r = resolveLine(menu, l);
+    return r.ok ? r.line.priceCents : 0;
+  });
+  const subtotal = cents.reduce((a, b) => a + b, 0);
+  return orderTotals(cents, menu.location, discountCents(subtotal, discount ?? undefined));
+}
+
+/** Tendered cents, the total when blank, null when it isn't an amount. */
+export function tenderedCents(checkout: Checkout, totalCents: number): number | null {
+  return checkout.tendered.trim() === '' ? totalCents : parseAmountToCents(checkout.tendered);
+}

@@ -1,0 +1,204 @@
+// The Counter's outbox. An order the server can't be reached for (no connection, or a gateway
+// answering 502/503/504) is kept in this browser and resent with the same clientOrderId: on a
+// timer with backoff, when the browser says it is back online, when the live socket reconnects,
+// and when the cashier taps "Send now". An order the server refuses (4xx) is never queued; one
+// that was queued and is refused later stays, with the server's message, until discarded.
+import { useQueryClient } from '@tanstack/react-query';
+import { useCallback, useEffect, useRef, useState } from 'react';
+import type { CreateOrderBody } from '../../domain/schemas';
+import type { OrderView } from '../../domain/types';
+import { ApiError, http } from '../../lib/http';
+import { onLiveConnected } from '../../lib/live-socket';
+import { menuKeys } from '../menu/queries';
+import { listPending, putPending, removePending, type PendingOrder } from './pending-orders';
+
+export type SendOrderFn = (body: CreateOrderBody) => Promise<{ order: OrderView }>;
+
+export type SendOutcome = { queued: false; order: OrderView } | { queued: true; pending: PendingOrder };
+
+export interface PendingOrdersOptions {
+  /** Resends of queued orders; POST /api/orders unless a test passes its own. */
+  resend?: SendOrderFn;
+  /** Wait before the n-th automatic resend after a failed round (n from 1). */
+  retryDelayMs?: (failures: number) => number;
+}
+
+export interface PendingOrders {
+  /** Orders not on the server yet, the oldest first. */
+  pending: PendingOrder[];
+  /** True while a round of resends is running. */
+  resending: boolean;
+  /**
+   * Send an order; if the server can't be reached, keep it and resend it later. Resolves with
+   * the order, or with `queued: true`. Rejects, as a plain send would, when the server refuses it.
+   */
+  sendOrQueue(body: CreateOrderBody, summary?: { totalCents?: number }): Promise<SendOutcome>;
+  /** Resend now; with an id, also give a refused order another try. */
+  retryNow(clientOrderId?: string): void;
+  /** Drop an order for good (the cashier's decision, after a refusal). */
+  discard(clientOrderId: string): Promise<void>;
+}
+
+/** No answer from the server at all, or a gateway saying it has none: worth trying again. */
+export function isUnreachable(err: unknown): boolean {
+  return err instanceof ApiError && (err.status === 0 || err.status === 502 || err.status === 503 || err.status === 504);
+}
+
+/** The server looked at the order and said no; sending the same body again won't change that. */
+function isRefusal(err: unknown): err is ApiError {
+  return err instanceof ApiError && err.status >= 400 && err.status < 500 && err.status !== 408 && err.status !== 429;
+}
+
+const postOrder: SendOrderFn = (body) => http<{ order: OrderView }>('POST', '/orders', body);
+
+// 2 s, 4 s, 8 s … up to 30 s, with jitter so a room of tablets doesn't resend at once.
+const defaultDelay = (failures: number) => Math.min(30_000, 1000 * 2 ** failures) * (0.75 + Math.random() / 2);
+
+const errorOf = (err: unknown): PendingOrder['lastError'] =>
+  err instanceof ApiError
+    ? { status: err.status, code: err.code, message: err.message }
+    : { status: 0, code: 'internal', message: err instanceof Error ? err.message : 'Could not send the order' };
+
+/**
+ * @param send the first send of each new order. The Counter passes its own mutation's
+ * `mutateAsync`, so "Sending…" and a refusal show there as before; resends don't go through it.
+ */
+export function usePendingOrders(send: SendOrderFn = postOrder, options: PendingOrdersOptions = {}): PendingOrders {
+  const qc = useQueryClient();
+  const [pending, setPending] = useState<PendingOrder[]>([]);
+  const [resending, setResending] = useState(false);
+  const fns = useRef({ send, resend: options.resend ?? postOrder, delay: options.retryDelayMs ?? defaultDelay });
+  fns.current = { send, resend: options.resend ?? postOrder, delay: options.retryDelayMs ?? defaultDelay };
+  const loop = useRef({ running: false, again: false, failures: 0, timer: undefined as ReturnType<typeof setTimeout> | undefined, alive: false });
+
+  const refresh = useCallback(async () => {
+    const list = await listPending();
+    if (loop.current.alive) setPending(list);
+    return list;
+  }, []);
+
+  const flushRef = useRef<() => Promise<void>>(async () => {});
+  /** Set the next automatic round, if anything is still waiting. */
+  const schedule = useCallback((list: PendingOrder[]) => {
+    const l = loop.current;
+    clearTimeout(l.timer);
+    l.timer = undefined;
+    if (!l.alive || !list.some((o) => o.state === 'waiting')) return;
+    l.timer = setTimeout(() => void flushRef.current(), fns.current.delay(Math.max(1, l.failures)));
+  }, []);
+
+  /** One round: resend every waiting order in the order taken; stop at the first that can't get through. */
+  const flush = useCallback(async () => {
+    const l = loop.current;
+    if (!l.alive) return;
+    if (l.running) {
+      l.again = true; // one round at a time; a trigger during a round runs another after it
+      return;
+    }
+    l.running = true;
+    clearTimeout(l.timer);
+    setResending(true);
+    try {
+      do {
+        l.again = false;
+        let blocked = false;
+        for (const order of (await listPending()).filter((o) => o.state === 'waiting')) {
+          try {
+            await fns.current.resend(order.body);
+            await removePending(order.clientOrderId).catch(() => {
+              /* still stored: the next round resends it and the server answers the same order */
+            });
+          } catch (err) {
+            if (isRefusal(err)) {
+              await putPending({ ...order, attempts: order.attempts + 1, state: 'refused', lastError: errorOf(err) });
+              if (err.status === 409) void qc.invalidateQueries({ queryKey: menuKeys.all }); // something was 86'd
+              continue;
+            }
+            await putPending({ ...order, attempts: order.attempts + 1, lastError: errorOf(err) });
+            blocked = true;
+            break;
+          }
+        }
+        l.failures = blocked ? l.failures + 1 : 0;
+        if (blocked) break;
+      } while (l.again && l.alive);
+    } finally {
+      l.running = false;
+      if (l.alive) setResending(false);
+      const list = await refresh().catch(() => []);
+      schedule(list);
+    }
+  }, [qc, refresh, schedule]);
+  flushRef.current = flush;
+
+  /** A sign the server may be back: forget the backoff and try at once. */
+  const retrySoon = useCallback(() => {
+    loop.current.failures = 0;
+    void flush();
+  }, [flush]);
+
+  useEffect(() => {
+    const l = loop.current;
+    l.alive = true;
+    // orders left from before a reload are resent as soon as the Counter opens
+    void refresh().then((list) => {
+      if (list.some((o) => o.state === 'waiting')) void flush();
+    });
+    window.addEventListener('online', retrySoon);
+    const offLive = onLiveConnected(retrySoon);
+    return () => {
+      l.alive = false;
+      clearTimeout(l.timer);
+      window.removeEventListener('online', retrySoon);
+      offLive();
+    };
+  }, [refresh, flush, retrySoon]);
+
+  const sendOrQueue = useCallback(
+    async (body: CreateOrderBody, summary: { totalCents?: number } = {}): Promise<SendOutcome> => {
+      try {
+        const { order } = await fns.current.send(body);
+        return { queued: false, order };
+      } catch (err) {
+        if (!isUnreachable(err)) throw err;
+        const kept: PendingOrder = {
+          clientOrderId: body.clientOrderId,
+          body,
+          totalCents: summary.totalCents ?? null,
+          queuedAt: new Date().toISOString(),
+          attempts: 0,
+          state: 'waiting',
+          lastError: errorOf(err),
+        };
+        await putPending(kept);
+        const list = await refresh();
+        if (!loop.current.running) schedule(list);
+        return { queued: true, pending: kept };
+      }
+    },
+    [refresh, schedule],
+  );
+
+  const retryNow = useCallback(
+    (clientOrderId?: string) => {
+      void (async () => {
+        if (clientOrderId) {
+          const order = (await listPending()).find((o) => o.clientOrderId === clientOrderId);
+          if (order?.state === 'refused') await putPending({ ...order, state: 'waiting' });
+        }
+        retrySoon();
+      })();
+    },
+    [retrySoon],
+  );
+
+  const discard = useCallback(
+    async (clientOrderId: string) => {
+      await removePending(clientOrderId);
+      await refresh();
+    },
+    [refresh],
+  );
+
+  return { pending, resending, sendOrQueue, retryNow, discard };
+}

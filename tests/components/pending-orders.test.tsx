@@ -1,0 +1,205 @@
+// The Counter's outbox: orders the server couldn't be reached for are kept in IndexedDB and
+// resent with the same clientOrderId; orders the server refuses are not kept.
+import 'fake-indexeddb/auto';
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
+import { act, render, renderHook, screen, waitFor } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
+import { createStore, values } from 'idb-keyval';
+import type { ReactNode } from 'react';
+import { afterEach, describe, expect, it } from 'vitest';
+import { createOrderBody, type CreateOrderBody } from '../../src/domain/schemas';
+import type { OrderView } from '../../src/domain/types';
+import { PendingOrdersBanner } from '../../src/features/counter/pending-orders-banner';
+import { listPending, putPending, removePending, type PendingOrder } from '../../src/features/counter/pending-orders';
+import { usePendingOrders, type SendOrderFn } from '../../src/features/counter/use-pending-orders';
+import { ApiError } from '../../src/lib/http';
+import { uuid } from '../../src/lib/uuid';
+
+// Read IndexedDB itself, not through the module, to be sure the order is really stored there.
+const inIndexedDb = () => values<PendingOrder>(createStore('jugline', 'pending-orders'));
+
+const body = (customerName: string): CreateOrderBody =>
+  createOrderBody.parse({
+    clientOrderId: uuid(),
+    customerName,
+    items: [{ menuItemId: 1 }],
+    payment: { method: 'cash', tenderedCents: 500 },
+  });
+
+const pendingOf = (b: CreateOrderBody, queuedAt: string): PendingOrder => ({
+  clientOrderId: b.clientOrderId,
+  body: b,
+  totalCents: 379,
+  queuedAt,
+  attempts: 0,
+  state: 'waiting',
+  lastError: null,
+});
+
+/** A stand-in for the server's POST /orders: answers from a script, and records every body. */
+function scriptedServer(...answers: ('ok' | ApiError)[]) {
+  const bodies: CreateOrderBody[] = [];
+  const send: SendOrderFn = async (b) => {
+    bodies.push(b);
+    const answer = answers.shift() ?? 'ok';
+    if (answer !== 'ok') throw answer;
+    return { order: { clientOrderId: b.clientOrderId, customerName: b.customerName, number: bodies.length } as OrderView };
+  };
+  return { send, bodies };
+}
+
+const offline = () => new ApiError(0, 'offline', 'No connection to the Jugline server');
+const never = () => 3_600_000; // no automatic round during a test: each resend here is asked for
+
+function wrapper({ children }: { children: ReactNode }) {
+  return <QueryClientProvider client={new QueryClient()}>{children}</QueryClientProvider>;
+}
+
+afterEach(async () => {
+  for (const o of await listPending()) await removePending(o.clientOrderId);
+});
+
+describe('pending orders store', () => {
+  it('puts, lists the oldest first, and removes, in IndexedDB', async () => {
+    const a = body('Ada');
+    const b = body('Bo');
+    await putPending(pendingOf(b, '2026-12-01T09:00:02.000Z'));
+    await putPending(pendingOf(a, '2026-12-01T09:00:01.000Z'));
+    expect((await listPending()).map((o) => o.body.customerName)).toEqual(['Ada', 'Bo']);
+    expect((await inIndexedDb()).map((o) => o.clientOrderId).sort()).toEqual([a.clientOrderId, b.clientOrderId].sort());
+
+    await putPending({ ...pendingOf(a, '2026-12-01T09:00:01.000Z'), attempts: 3 }); // same id: replaced
+    expect(await listPending()).toHaveLength(2);
+    expect((await listPending())[0].attempts).toBe(3);
+
+    await removePending(a.clientOrderId);
+    expect((await listPending()).map((o) => o.body.customerName)).toEqual(['Bo']);
+    expect(await inIndexedDb()).toHaveLength(1);
+  });
+});
+
+describe('usePendingOrders', () => {
+  it('queues an order it cannot send and resends it with the same clientOrderId until it lands', async () => {
+    const first = scriptedServer(offline());
+    const later = scriptedServer(new ApiError(503, 'internal', 'Service unavailable'), 'ok');
+    const { result } = renderHook(() => usePendingOrders(first.send, { resend: later.send, retryDelayMs: never }), { wrapper });
+    const order = body('Wren Ashby');
+
+    let outcome: Awaited<ReturnType<typeof result.current.sendOrQueue>> | undefined;
+    await act(async () => {
+      outcome = await result.current.sendOrQueue(order, { totalCents: 379 });
+    });
+    expect(outcome?.queued).toBe(true);
+    expect(result.current.pending.map((o) => o.clientOrderId)).toEqual([order.clientOrderId]);
+    expect(result.current.pending[0].totalCents).toBe(379);
+    expect((await inIndexedDb()).map((o) => o.clientOrderId)).toEqual([order.clientOrderId]);
+
+    // first resend: the server is still away, so the order stays
+    act(() => result.current.retryNow());
+    await waitFor(() => expect(result.current.pending[0]?.attempts).toBe(1));
+    expect(result.current.pending[0].state).toBe('waiting');
+    expect(later.bodies).toHaveLength(1);
+
+    // second resend: it lands, and leaves the store
+    act(() => result.current.retryNow());
+    await waitFor(() => expect(result.current.pending).toEqual([]));
+    expect(await inIndexedDb()).toEqual([]);
+
+    const ids = [...first.bodies, ...later.bodies].map((b) => b.clientOrderId);
+    expect(ids).toEqual([order.clientOrderId, order.clientOrderId, order.clientOrderId]);
+    expect(later.bodies.every((b) => JSON.stringify(b) === JSON.stringify(order))).toBe(true);
+  });
+
+  it('queues on a gateway answer (502/503/504) too', async () => {
+    for (const status of [502, 503, 504]) {
+      const server = scriptedServer(new ApiError(status, 'internal', 'gateway'));
+      const { result, unmount } = renderHook(() => usePendingOrders(server.send, { resend: server.send, retryDelayMs: never }), { wrapper });
+      const order = body(`Gate ${status}`);
+      await act(async () => {
+        expect((await result.current.sendOrQueue(order)).queued).toBe(true);
+      });
+      expect((await listPending()).map((o) => o.clientOrderId)).toContain(order.clientOrderId);
+      unmount();
+    }
+  });
+
+  it('does not queue an order the server refuses: the error goes to the cashier', async () => {
+    const refusal = new ApiError(409, 'unavailable', 'Oat milk is 86’d');
+    const server = scriptedServer(refusal);
+    const { result } = renderHook(() => usePendingOrders(server.send, { resend: server.send, retryDelayMs: never }), { wrapper });
+    await act(async () => {
+      await expect(result.current.sendOrQueue(body('Kit'))).rejects.toBe(refusal);
+    });
+    expect(result.current.pending).toEqual([]);
+    expect(await inIndexedDb()).toEqual([]);
+  });
+
+  it('resends what an earlier page left behind as soon as it mounts, and on the online event', async () => {
+    const left = body('From before the reload');
+    await putPending(pendingOf(left, '2026-12-01T09:00:00.000Z'));
+    const server = scriptedServer(offline(), 'ok');
+    const { result } = renderHook(() => usePendingOrders(server.send, { resend: server.send, retryDelayMs: never }), { wrapper });
+    await waitFor(() => expect(result.current.pending[0]?.attempts).toBe(1)); // tried on mount, still away
+    expect(server.bodies.map((b) => b.clientOrderId)).toEqual([left.clientOrderId]);
+
+    act(() => void window.dispatchEvent(new Event('online')));
+    await waitFor(() => expect(result.current.pending).toEqual([]));
+    expect(server.bodies.map((b) => b.clientOrderId)).toEqual([left.clientOrderId, left.clientOrderId]);
+  });
+});
+
+function Counterish({ send, resend }: { send: SendOrderFn; resend: SendOrderFn }) {
+  const queue = usePendingOrders(send, { resend, retryDelayMs: never });
+  return (
+    <>
+      <button type="button" onClick={() => void queue.sendOrQueue(body('Wren Ashby'), { totalCents: 379 }).catch(() => {})}>
+        Take Wren
+      </button>
+      <button type="button" onClick={() => void queue.sendOrQueue(body('Robin Vale'), { totalCents: 1250 }).catch(() => {})}>
+        Take Robin
+      </button>
+      <PendingOrdersBanner queue={queue} currency="USD" />
+    </>
+  );
+}
+
+describe('PendingOrdersBanner', () => {
+  it('says in words how many orders wait, whose and how much, and sends them on "Send now"', async () => {
+    const user = userEvent.setup();
+    const first = scriptedServer(offline(), offline());
+    const later = scriptedServer('ok', 'ok');
+    render(<Counterish send={first.send} resend={later.send} />, { wrapper });
+    expect(screen.queryByText(/not sent yet/)).toBeNull();
+
+    await user.click(screen.getByRole('button', { name: 'Take Wren' }));
+    await screen.findByRole('heading', { name: '1 order not sent yet — will send when the server is back' });
+    await user.click(screen.getByRole('button', { name: 'Take Robin' }));
+    await screen.findByRole('heading', { name: '2 orders not sent yet — will send when the server is back' });
+    const rows = screen.getAllByTestId('pending-order');
+    expect(rows.map((r) => r.textContent)).toEqual(['Wren Ashby$3.79Not sent yet', 'Robin Vale$12.50Not sent yet']);
+
+    await user.click(screen.getByRole('button', { name: 'Send now' }));
+    await waitFor(() => expect(screen.queryByTestId('pending-orders')).toBeNull());
+    expect(later.bodies.map((b) => b.customerName)).toEqual(['Wren Ashby', 'Robin Vale']); // in the order taken
+    expect(later.bodies.map((b) => b.clientOrderId)).toEqual(first.bodies.map((b) => b.clientOrderId));
+  });
+
+  it('keeps a queued order the server later refuses, with its message, until the cashier discards it', async () => {
+    const user = userEvent.setup();
+    const first = scriptedServer(offline());
+    const later = scriptedServer(new ApiError(409, 'unavailable', 'Espresso is 86’d'));
+    render(<Counterish send={first.send} resend={later.send} />, { wrapper });
+    await user.click(screen.getByRole('button', { name: 'Take Wren' }));
+    await user.click(await screen.findByRole('button', { name: 'Send now' }));
+
+    await screen.findByRole('heading', { name: '1 order refused by the server — check and discard' });
+    expect(screen.getByTestId('pending-order')).toHaveTextContent('Refused: Espresso is 86’d');
+    expect(screen.queryByRole('button', { name: 'Send now' })).toBeNull(); // not resent by itself
+    expect((await inIndexedDb()).map((o) => o.state)).toEqual(['refused']);
+
+    await user.click(screen.getByRole('button', { name: 'Discard Wren Ashby' }));
+    await waitFor(() => expect(screen.queryByTestId('pending-orders')).toBeNull());
+    expect(await inIndexedDb()).toEqual([]);
+    expect(later.bodies).toHaveLength(1);
+  });
+});

@@ -1,0 +1,81 @@
+// The receipt mail, from an invented order: what a customer needs to read on it, money written in
+// the café's currency, and nothing the customer typed able to become markup.
+import { describe, expect, it } from 'vitest';
+import { receiptEmail } from '../../server/services/receipts';
+import type { OrderView } from '../../src/domain/types';
+
+function order(over: Partial<OrderView> = {}): OrderView {
+  return {
+    id: 7,
+    clientOrderId: '5b3f4d5e-7c1a-4b2e-9a51-0c6f1e2d3a4b',
+    number: 42,
+    customerName: 'Maud Gallant',
+    status: 'open',
+    paymentStatus: 'paid',
+    service: 'takeaway',
+    allergens: [],
+    allergyNote: null,
+    customerEmail: null,
+    lines: [
+      { id: 1, menuItemId: 3, itemName: 'Latte', station: 'bar', sizeName: 'Large', milkName: 'Oat', shots: 3, modifiers: ['Vanilla syrup', 'Extra hot'], note: 'half sweet', priceCents: 790 },
+      { id: 2, menuItemId: 9, itemName: 'Butter croissant', station: 'counter', sizeName: null, milkName: null, shots: 0, modifiers: [], note: null, priceCents: 425 },
+    ],
+    subtotalCents: 1215,
+    discountCents: 0,
+    discountReason: null,
+    taxCents: 100,
+    totalCents: 1315,
+    refundedCents: 0,
+    payment: { method: 'cash', tenderedCents: 2000, changeCents: 685, providerId: null },
+    changeCents: 685,
+    quotedWaitSeconds: null,
+    takenBy: null,
+    createdAt: '2026-03-02T14:05:00.000Z',
+    firedAt: '2026-03-02T14:05:00.000Z',
+    voidReason: null,
+    ...over,
+  };
+}
+
+const cafe = { name: 'Harbour & Hearth Coffee', currency: 'USD', locale: 'en-US', timeZone: 'America/New_York' };
+
+describe('receiptEmail', () => {
+  it('carries the café, the number, the first name, each line with its choices, totals and the change', () => {
+    const { subject, text } = receiptEmail(order(), cafe, 'See you tomorrow.');
+    expect(subject).toBe('Your receipt from Harbour & Hearth Coffee — order #42');
+    expect(text).toContain('Harbour & Hearth Coffee\nReceipt for order #42\nThank you, Maud!');
+    expect(text).toContain('Latte — $7.90\n  Large · Oat milk · 3 shots · Vanilla syrup, Extra hot\n  Note: half sweet');
+    expect(text).toContain('Butter croissant — $4.25\n\n'); // no empty details line for a plain item
+    expect(text).toContain('Subtotal: $12.15\nTax: $1.00\nTotal: $13.15');
+    expect(text).not.toContain('Discount');
+    expect(text).toContain('Paid in cash: $20.00 · change $6.85');
+    // 14:05 UTC is 09:05 in New York on 2 March 2026 (EST, UTC−5)
+    expect(text).toMatch(/March 2, 2026 at 9:05\sAM/);
+    expect(text).toContain('See you tomorrow.');
+  });
+
+  it('shows a discount with its reason, and a card payment without change', () => {
+    const { text } = receiptEmail(
+      order({ discountCents: 150, discountReason: 'Regular', payment: { method: 'card', tenderedCents: null, changeCents: null, providerId: 'pi_1' } }),
+      cafe,
+    );
+    expect(text).toContain('Discount (Regular): −$1.50');
+    expect(text).toContain('Paid by card: $13.15');
+    expect(text).not.toContain('change');
+  });
+
+  it('writes money in the café’s currency and locale', () => {
+    const { text } = receiptEmail(order(), { name: 'North Quay Espresso', currency: 'GBP', locale: 'en-GB', timeZone: 'Europe/London' });
+    expect(text).toContain('Total: £13.15');
+    expect(text).toMatch(/2 March 2026 at 14:05/);
+  });
+
+  it('escapes what people typed in the HTML and keeps it as written in the text', () => {
+    const { html, text } = receiptEmail(order({ customerName: '<b>Al</b> & co' }), { ...cafe, name: 'Tom "Quote" <Café>' });
+    expect(html).not.toContain('<b>Al</b>');
+    expect(html).toContain('&#60;b&#62;Al&#60;/b&#62;');
+    expect(html).toContain('Tom &#34;Quote&#34; &#60;Café&#62;');
+    expect(html).not.toMatch(/<Café>|<b>/);
+    expect(text).toContain('Thank you, <b>Al</b>!');
+  });
+});
