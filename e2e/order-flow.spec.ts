@@ -38,7 +38,7 @@ test('an order of three drinks travels live from the Counter to the Bar to Picku
   await expect(oat.getByTestId('drink-card').filter({ hasText: 'Robin Vale' })).toHaveCount(1);
   test.info().annotations.push({ type: 'order → bar screen (ms, informational)', description: String(Date.now() - sentAt) });
   await expect(whole.getByTestId('drink-card').filter({ hasText: 'Robin Vale' })).toHaveCount(2);
-  await expect(oat.getByTestId('drink-card')).toContainText('Latte');
+  await expect(oat.getByTestId('drink-card').filter({ hasText: 'Robin Vale' })).toContainText('Latte');
   await expect(whole.getByTestId('drink-card').filter({ hasText: 'Cappuccino' })).toContainText('Robin Vale');
   await expect(whole.getByTestId('drink-card').filter({ hasText: 'Flat white' })).toBeVisible();
   expect(await bar.evaluate(() => (window as unknown as { marker?: number }).marker)).toBe(42);

@@ -21,6 +21,8 @@ export interface RunningServer {
   /** Every API route the app mounts (the role matrix is generated from it). */
   routes: ApiRoute[];
   sockets: SocketServer;
+  /** Card payments: the secret the webhook route checks signatures against. */
+  payments: { webhookSecret: string };
   close(): Promise<void>;
 }
 
@@ -80,7 +82,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
       await payments.close();
       await db.destroy();
     })());
-  return { url, server, db, routes, sockets, close };
+  return { url, server, db, routes, sockets, payments: { webhookSecret: payments.webhookSecret }, close };
 }
 
 export function printSignIns(url: string, log = console.log) {

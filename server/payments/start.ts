@@ -5,6 +5,8 @@ import { createStripeGateway, type PaymentGateway } from './gateway';
 
 export interface Payments {
   gateway: PaymentGateway;
+  /** The secret webhooks are signed with (tests sign their own events with it). */
+  webhookSecret: string;
   /** Tell the fake where to send webhooks once the app is listening. */
   listening(appUrl: string, webhookPath: string): void;
   close(): Promise<void>;
@@ -17,7 +19,7 @@ export async function startPayments(opts: {
 }): Promise<Payments> {
   if (opts.secretKey && opts.webhookSecret) {
     const gateway = createStripeGateway({ secretKey: opts.secretKey, webhookSecret: opts.webhookSecret });
-    return { gateway, listening: () => {}, close: async () => {} };
+    return { gateway, webhookSecret: opts.webhookSecret, listening: () => {}, close: async () => {} };
   }
   const fake = await startPaymentFake();
   opts.log?.(`Card payments go to the local payment fake at ${fake.url} (no real money moves).`);
@@ -28,6 +30,7 @@ export async function startPayments(opts: {
   });
   return {
     gateway,
+    webhookSecret: fake.webhookSecret,
     listening: (appUrl, webhookPath) => fake.setWebhookUrl(`${appUrl}/api${webhookPath}`),
     close: () => fake.close(),
   };

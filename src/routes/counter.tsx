@@ -14,7 +14,7 @@ import { LinkStateBadge } from '../components/ui/link-state';
 import { barBoardQuery } from '../features/board/queries';
 import { useLiveBoard } from '../features/board/use-live-board';
 import { emptyCheckout, previewTotals, tenderedCents, type Checkout } from '../features/counter/checkout';
-import { CheckoutPanel } from '../features/counter/checkout-panel';
+import { CheckoutPanel, SendBar } from '../features/counter/checkout-panel';
 import { ItemSheet } from '../features/counter/item-sheet';
 import { OrdersDrawer } from '../features/counter/orders-drawer';
 import { MenuGrid } from '../features/counter/menu-grid';
@@ -153,7 +153,8 @@ function Counter() {
       )}
       <form onSubmit={onSubmit} noValidate className="grid min-h-0 flex-1 grid-cols-[1fr_26rem] gap-4 p-4">
         <MenuGrid menu={menu} onPick={pick} />
-        <aside className="flex min-h-0 flex-col overflow-y-auto rounded-2xl border border-steam-200 bg-white p-4">
+        <aside className="flex min-h-0 flex-col rounded-2xl border border-steam-200 bg-white p-4">
+          <div className="min-h-0 flex-1 overflow-y-auto pr-1">
           <OrderPanel
             menu={menu}
             items={items}
@@ -172,9 +173,9 @@ function Counter() {
             onCheckout={setCheckout}
             totalCents={totals.totalCents}
             canDiscount={can(session.user?.role, 'giveDiscounts')}
-            sending={send.isPending}
-            error={error}
           />
+          </div>
+          <SendBar menu={menu} form={form} checkout={checkout} totalCents={totals.totalCents} sending={send.isPending} error={error} />
         </aside>
       </form>
       {sheet && (

@@ -24,7 +24,7 @@ interface Props {
   error: string | null;
 }
 
-export function CheckoutPanel({ menu, form, checkout, onCheckout, totalCents, canDiscount, sending, error }: Props) {
+export function CheckoutPanel({ menu, form, checkout, onCheckout, totalCents, canDiscount }: Omit<Props, 'sending' | 'error'>) {
   const money = (c: number) => formatCents(c, menu.location.currency);
   const [allergyOpen, setAllergyOpen] = useState(false);
   const allergens = form.watch('allergens') ?? [];
@@ -33,9 +33,6 @@ export function CheckoutPanel({ menu, form, checkout, onCheckout, totalCents, ca
   const tendered = tenderedCents(checkout, totalCents);
   const change = tendered === null ? null : tendered - totalCents;
   const set = (patch: Partial<Checkout>) => onCheckout({ ...checkout, ...patch });
-  const items = form.watch('items');
-  const cardReady = checkout.method === 'card' && checkout.paymentMethod !== null;
-  const canSend = items.length > 0 && !sending && (checkout.method === 'card' ? cardReady : change !== null && change >= 0);
 
   return (
     <div className="flex flex-col gap-3 border-t border-steam-200 pt-3">
@@ -69,37 +66,26 @@ export function CheckoutPanel({ menu, form, checkout, onCheckout, totalCents, ca
           onNote={(n) => form.setValue('allergyNote', n || undefined)}
         />
       )}
-      <Segmented
-        label="Service"
-        value={form.watch('service')}
-        onChange={(service) => form.setValue('service', service)}
-        options={[
-          { value: 'takeaway', label: 'To go' },
-          { value: 'dine_in', label: 'Here' },
-        ]}
-      />
-      <label>
-        <span className="block text-sm font-semibold tracking-widest text-ink-600 uppercase">E-mail receipt (optional)</span>
-        <input
-          type="email"
-          inputMode="email"
-          autoComplete="off"
-          className="mt-1 w-full rounded-lg border border-steam-200 px-3 py-2 text-lg"
-          value={checkout.email}
-          onChange={(e) => set({ email: e.target.value })}
+      <div className="flex flex-wrap gap-x-6 gap-y-3">
+        <Segmented
+          label="Service"
+          value={form.watch('service')}
+          onChange={(service) => form.setValue('service', service)}
+          options={[
+            { value: 'takeaway', label: 'To go' },
+            { value: 'dine_in', label: 'Here' },
+          ]}
         />
-      </label>
-      {canDiscount && <DiscountEditor value={checkout.discount} onChange={(discount) => set({ discount })} />}
-
-      <Segmented
-        label="Payment"
-        value={checkout.method}
-        onChange={(method) => set({ method })}
-        options={[
-          { value: 'cash', label: 'Cash' },
-          { value: 'card', label: 'Card' },
-        ]}
-      />
+        <Segmented
+          label="Payment"
+          value={checkout.method}
+          onChange={(method) => set({ method })}
+          options={[
+            { value: 'cash', label: 'Cash' },
+            { value: 'card', label: 'Card' },
+          ]}
+        />
+      </div>
       {checkout.method === 'cash' ? (
         <div>
           <label className="block text-base font-semibold" htmlFor="tendered">
@@ -153,13 +139,37 @@ export function CheckoutPanel({ menu, form, checkout, onCheckout, totalCents, ca
           </div>
         </fieldset>
       )}
+      <label>
+        <span className="block text-sm font-semibold tracking-widest text-ink-600 uppercase">E-mail receipt (optional)</span>
+        <input
+          type="email"
+          inputMode="email"
+          autoComplete="off"
+          className="mt-1 w-full rounded-lg border border-steam-200 px-3 py-2 text-lg"
+          value={checkout.email}
+          onChange={(e) => set({ email: e.target.value })}
+        />
+      </label>
+      {canDiscount && <DiscountEditor value={checkout.discount} onChange={(discount) => set({ discount })} />}
+    </div>
+  );
+}
+
+/** Always in view at the bottom of the order: what went wrong, and the one big action. */
+export function SendBar({ menu, form, checkout, totalCents, sending, error }: Omit<Props, 'onCheckout' | 'canDiscount'>) {
+  const tendered = tenderedCents(checkout, totalCents);
+  const items = form.watch('items');
+  const ready =
+    checkout.method === 'card' ? checkout.paymentMethod !== null : tendered !== null && tendered >= totalCents;
+  return (
+    <div className="flex flex-col gap-2 border-t border-steam-200 bg-white pt-3">
       {error && (
         <p role="alert" className="rounded-lg bg-alert-ink px-3 py-2 text-lg font-semibold text-ink-900">
           {error}
         </p>
       )}
-      <Button type="submit" size="xl" className="w-full" disabled={!canSend}>
-        {sending ? 'Sending…' : `${checkout.method === 'card' ? 'Charge card' : 'Send'} · ${money(totalCents)}`}
+      <Button type="submit" size="xl" className="w-full" disabled={items.length === 0 || sending || !ready}>
+        {sending ? 'Sending…' : `${checkout.method === 'card' ? 'Charge card' : 'Send'} · ${formatCents(totalCents, menu.location.currency)}`}
       </Button>
     </div>
   );

@@ -1,0 +1,75 @@
+// The Counter's payments end to end: a card that pays (drink to the bar, croissant kept at the
+// counter, receipt mailed to the Outbox), a card that is declined (nothing on the bar), and cash
+// with change. Card numbers are the provider's documented test cards (see check-values.md).
+import { errorsOf, expect, pageAs, test } from './fixtures';
+
+test('card, decline and cash at the Counter', async ({ browser }) => {
+  const counter = await pageAs(browser, 'cashier', '/counter', { width: 1280, height: 900 });
+  const bar = await pageAs(browser, 'barista', '/bar');
+  await expect(counter.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
+  await expect(bar.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
+
+  // An oat latte with an extra shot and a croissant, paid by a card that approves
+  await counter.getByRole('button', { name: /^Latte/ }).click();
+  await counter.getByRole('radio', { name: /Oat/ }).click();
+  await counter.getByRole('button', { name: 'One shot more' }).click();
+  await counter.getByRole('button', { name: /Add to order/ }).click();
+  await counter.getByRole('tab', { name: 'Food' }).click();
+  await counter.getByRole('button', { name: /^Butter croissant/ }).click();
+  await expect(counter.getByTestId('order-line')).toHaveCount(2);
+  await counter.getByLabel('Name for the cup').fill('Nadia Ferris');
+  await counter.getByLabel('E-mail receipt (optional)').fill('nadia@example.test');
+  await counter.getByRole('radio', { name: 'Card' }).click();
+  await counter.getByRole('radio', { name: /4242/ }).click();
+  await counter.screenshot({ path: 'docs/screenshots/counter-card.png' });
+  await counter.getByRole('button', { name: /^Charge card/ }).click();
+  const sent = counter.getByRole('status').filter({ hasText: /Sent #\d+ for Nadia Ferris/ });
+  await expect(sent).toContainText('card paid');
+  await expect(sent.getByTestId('quote')).toContainText(/About \d+ min/);
+  const number = /Sent #(\d+)/.exec((await sent.textContent()) ?? '')![1];
+
+  const nadia = bar.getByTestId('drink-card').filter({ hasText: 'Nadia Ferris' });
+  await expect(nadia).toHaveCount(1); // the latte; the croissant stays at the counter
+  await expect(nadia).toContainText('Latte');
+  await expect(nadia).toContainText('3 shots');
+  await expect(bar.getByTestId('lane').filter({ has: bar.getByRole('heading', { name: 'Oat' }) })).toContainText('Nadia Ferris');
+  await expect(bar.getByText('Butter croissant')).toHaveCount(0);
+
+  const lead = await pageAs(browser, 'lead', '/outbox', { width: 1280, height: 900 });
+  await expect(lead.getByText('nadia@example.test').first()).toBeVisible();
+  await expect(lead.getByText(new RegExp(`#${number}`)).first()).toBeVisible();
+
+  // A card that is declined: a clear message, and nothing on the bar
+  await counter.getByRole('button', { name: 'OK' }).click();
+  await counter.getByRole('tab', { name: 'Espresso' }).click();
+  await counter.getByRole('button', { name: /^Espresso/ }).click();
+  await counter.getByRole('button', { name: /Add to order/ }).click();
+  await counter.getByLabel('Name for the cup').fill('Omar Quint');
+  await counter.getByRole('radio', { name: 'Card' }).click();
+  await counter.getByRole('radio', { name: /0002/ }).click();
+  await counter.getByRole('button', { name: /^Charge card/ }).click();
+  await expect(counter.getByRole('alert')).toContainText('declined');
+  await counter.screenshot({ path: 'docs/screenshots/counter-declined.png' });
+  await expect(bar.getByTestId('drink-card').filter({ hasText: 'Omar Quint' })).toHaveCount(0);
+
+  // The customer pays cash instead: the same order, now fired
+  await counter.getByRole('radio', { name: 'Cash' }).click();
+  await counter.getByRole('button', { name: /^Send/ }).click();
+  await expect(counter.getByRole('status').filter({ hasText: 'Omar Quint' })).toBeVisible();
+  await expect(bar.getByTestId('drink-card').filter({ hasText: 'Omar Quint' })).toHaveCount(1);
+
+  // Cash with change: a small whole-milk latte, $4.80 + 8.25 % tax = $5.20 (0.396 rounds up,
+  // Streamlined Sales and Use Tax Agreement §324); $20.00 tendered → $14.80 change
+  await counter.getByRole('button', { name: 'OK' }).click();
+  await counter.getByRole('button', { name: /^Latte/ }).click();
+  await counter.getByRole('radio', { name: /Small/ }).click();
+  await counter.getByRole('button', { name: /Add to order/ }).click();
+  await counter.getByLabel('Name for the cup').fill('Pia Lund');
+  await expect(counter.getByTestId('order-total')).toHaveText('$5.20');
+  await counter.getByLabel(/Cash tendered/).fill('20.00');
+  await expect(counter.getByTestId('change-due')).toHaveText('$14.80');
+  await counter.getByRole('button', { name: /^Send/ }).click();
+  await expect(counter.getByTestId('sent-change')).toHaveText('$14.80');
+
+  for (const page of [counter, bar, lead]) expect(errorsOf(page).filter((e) => !/402/.test(e))).toEqual([]);
+});
