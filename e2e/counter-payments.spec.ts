@@ -73,3 +73,34 @@ test('card, decline and cash at the Counter', async ({ browser }) => {
 
   for (const page of [counter, bar, lead]) expect(errorsOf(page).filter((e) => !/402/.test(e))).toEqual([]);
 });
+
+test('the receipt and cup labels print what was ordered, with the allergy', async ({ browser }) => {
+  const counter = await pageAs(browser, 'cashier', '/counter', { width: 1280, height: 900 });
+  await counter.getByRole('button', { name: /^Cappuccino/ }).click();
+  await counter.getByRole('radio', { name: /Almond/ }).click();
+  await counter.getByRole('button', { name: /Add to order/ }).click();
+  await counter.getByRole('button', { name: /^Mocha/ }).click();
+  await counter.getByRole('button', { name: /Add to order/ }).click();
+  await counter.getByLabel('Name for the cup').fill('Quinn Arlo');
+  await counter.getByRole('button', { name: /Allergy/ }).click();
+  await counter.getByRole('button', { name: 'sesame' }).click();
+  await counter.getByLabel("Allergy in the customer's words").fill('severe');
+  await counter.getByRole('button', { name: /^Send/ }).click();
+  const sent = counter.getByRole('status').filter({ hasText: 'Quinn Arlo' });
+  await expect(sent).toBeVisible();
+
+  const [labels] = await Promise.all([counter.waitForEvent('popup'), sent.getByRole('link', { name: 'Cup labels' }).click()]);
+  await expect(labels.getByTestId('cup-label')).toHaveCount(2);
+  await expect(labels.getByTestId('cup-label').first()).toContainText('ALLERGY: sesame · severe');
+  await expect(labels.getByTestId('cup-label').first()).toContainText('Almond');
+  await labels.screenshot({ path: 'docs/screenshots/cup-labels.png' });
+
+  const [receipt] = await Promise.all([counter.waitForEvent('popup'), sent.getByRole('link', { name: 'Receipt' }).click()]);
+  await expect(receipt.getByRole('heading', { name: 'Harbour & Hearth Coffee' })).toBeVisible();
+  await expect(receipt.getByText('Cappuccino (Regular)')).toBeVisible();
+  await receipt.screenshot({ path: 'docs/screenshots/receipt.png', fullPage: true });
+
+  const missing = await receipt.goto('/receipts/999999');
+  expect(missing?.status()).toBe(404);
+  for (const page of [counter, labels]) expect(errorsOf(page)).toEqual([]);
+});

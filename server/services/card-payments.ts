@@ -10,6 +10,7 @@ import { CardDeclined } from '../payments/gateway';
 import type { Deps } from './deps';
 import { appendEvent, runCommand } from './events';
 import { loadLocation } from './menu';
+import { fireOrder } from './fire-order';
 import { loadOrder } from './orders';
 import { loadTicket } from './ticket-views';
 
@@ -85,16 +86,7 @@ export async function settleCardPayment(deps: Deps, paymentId: number, providerI
     }
     const at = deps.clock().toISOString();
     await trx('payments').where({ id: paymentId }).update({ status: 'succeeded', provider_id: providerId, updated_at: at });
-    const hasBar = await trx('order_items').where({ order_id: order.id, station: 'bar' }).first('id');
-    await trx('orders')
-      .where({ id: order.id })
-      .update({
-        payment_status: 'paid',
-        status: hasBar ? 'open' : 'collected',
-        fired_at: at,
-        ready_at: hasBar ? null : at,
-        collected_at: hasBar ? null : at,
-      });
+    await fireOrder(trx, order.id, at);
     const ticket = await loadTicket(trx, order.id);
     const event = await appendEvent(trx, order.location_id, 'order.fired', ticket, at, null);
     return { result: await loadOrder(trx, order.id), events: [event] };

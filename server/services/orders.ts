@@ -7,6 +7,7 @@ import type { OrderView, SessionUser } from '../../src/domain/types';
 import { isUniqueViolation, json } from '../db/rows';
 import { HttpError, conflict } from '../errors';
 import { payByCard } from './card-payments';
+import { fireOrder } from './fire-order';
 import type { Deps } from './deps';
 import { appendEvent, runCommand } from './events';
 import { priceOrder, type PricedOrder } from './order-pricing';
@@ -229,19 +230,7 @@ async function payPendingByCash(deps: Deps, user: SessionUser, orderId: number, 
       created_at: at,
       updated_at: at,
     });
-    const hasBar = await trx('order_items').where({ order_id: orderId, station: 'bar' }).first('id');
-    await trx('orders')
-      .where({ id: orderId })
-      .update({
-        payment_method: 'cash',
-        payment_status: 'paid',
-        tendered_cents: tendered,
-        change_cents: change,
-        status: hasBar ? 'open' : 'collected',
-        fired_at: at,
-        ready_at: hasBar ? null : at,
-        collected_at: hasBar ? null : at,
-      });
+    await fireOrder(trx, orderId, at, { payment_method: 'cash', tendered_cents: tendered, change_cents: change });
     const ticket = await loadTicket(trx, orderId);
     const event = await appendEvent(trx, user.locationId, 'order.fired', ticket, at, user.id);
     return { result: await loadOrder(trx, orderId), events: [event] };

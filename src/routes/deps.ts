@@ -29,3 +29,15 @@ export function orderIdFrom(params: Record<string, string | undefined>): number 
   if (!Number.isInteger(id) || id <= 0) throw data({ message: 'There is no such order.' }, { status: 404, statusText: 'Not Found' });
   return id;
 }
+
+/** A record the api says isn't there (404 from the server or the services) becomes the 404 page. */
+export async function orNotFound<T>(work: Promise<T>): Promise<T> {
+  try {
+    return await work;
+  } catch (err) {
+    if ((err as { status?: number })?.status === 404) {
+      throw data({ message: 'There is no such order.' }, { status: 404, statusText: 'Not Found' });
+    }
+    throw err;
+  }
+}

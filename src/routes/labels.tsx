@@ -4,7 +4,7 @@ import { useParams, type LoaderFunctionArgs } from 'react-router';
 import { Button } from '../components/ui/button';
 import { orderQuery } from '../features/orders/queries';
 import { useApi } from '../lib/api-context';
-import { orderIdFrom, requireScreen, type RouteDeps } from './deps';
+import { orNotFound, orderIdFrom, requireScreen, type RouteDeps } from './deps';
 
 function Labels() {
   const api = useApi();
@@ -54,7 +54,7 @@ export const labelsRoute = (deps: RouteDeps) => ({
   handle: { title: 'Cup labels' },
   loader: async ({ request, params }: LoaderFunctionArgs) => {
     await requireScreen(deps, request, 'takeOrders');
-    await deps.queryClient.ensureQueryData(orderQuery(deps.api, orderIdFrom(params)));
+    await orNotFound(deps.queryClient.ensureQueryData(orderQuery(deps.api, orderIdFrom(params))));
     return null;
   },
 });

@@ -6,7 +6,7 @@ import { Button } from '../components/ui/button';
 import { menuQuery } from '../features/menu/queries';
 import { orderQuery } from '../features/orders/queries';
 import { useApi } from '../lib/api-context';
-import { orderIdFrom, requireScreen, type RouteDeps } from './deps';
+import { orNotFound, orderIdFrom, requireScreen, type RouteDeps } from './deps';
 
 function Receipt() {
   const api = useApi();
@@ -83,7 +83,7 @@ export const receiptRoute = (deps: RouteDeps) => ({
   loader: async ({ request, params }: LoaderFunctionArgs) => {
     await requireScreen(deps, request, 'takeOrders');
     const id = orderIdFrom(params);
-    await Promise.all([deps.queryClient.ensureQueryData(orderQuery(deps.api, id)), deps.queryClient.ensureQueryData(menuQuery(deps.api))]);
+    await Promise.all([orNotFound(deps.queryClient.ensureQueryData(orderQuery(deps.api, id))), deps.queryClient.ensureQueryData(menuQuery(deps.api))]);
     return null;
   },
 });
