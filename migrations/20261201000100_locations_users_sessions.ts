@@ -17,6 +17,8 @@ export async function up(knex: Knex): Promise<void> {
     t.string('allergen_list', 2).notNullable().defaultTo('US').checkIn(['US', 'EU']);
     t.integer('baristas_on_bar').notNullable().defaultTo(1); // the shift lead changes it during service
     t.string('receipt_footer', 200);
+    // milk lost per jug (left in the pitcher, purged): added to every batch the jug plan pours
+    t.integer('jug_waste_ml').notNullable().defaultTo(15);
     t.string('created_at').notNullable();
   });
 
@@ -31,6 +33,16 @@ export async function up(knex: Knex): Promise<void> {
     t.string('created_at').notNullable();
   });
 
+  // Milk pitchers on the bar. The fill line is how much cold milk leaves room to stretch:
+  // by common practice just below the base of the spout, a little over half the capacity.
+  await knex.schema.createTable('pitchers', (t) => {
+    t.increments('id');
+    t.integer('location_id').notNullable().references('locations.id');
+    t.integer('capacity_ml').notNullable();
+    t.integer('fill_line_ml').notNullable();
+    t.check('?? > 0 AND ?? <= ??', ['fill_line_ml', 'fill_line_ml', 'capacity_ml']);
+  });
+
   // express-session rows, read and written by connect-session-knex
   await knex.schema.createTable('sessions', (t) => {
     t.string('sid').primary();
@@ -41,6 +53,7 @@ export async function up(knex: Knex): Promise<void> {
 
 export async function down(knex: Knex): Promise<void> {
   await knex.schema.dropTable('sessions');
+  await knex.schema.dropTable('pitchers');
   await knex.schema.dropTable('users');
   await knex.schema.dropTable('locations');
 }

@@ -45,6 +45,8 @@ export async function up(knex: Knex): Promise<void> {
     t.integer('price_cents').notNullable();
     t.integer('shots').notNullable().defaultTo(0);
     t.integer('milk_ml').notNullable().defaultTo(0); // cold milk the recipe takes
+    t.integer('dose_dg').notNullable().defaultTo(0); // ground coffee for the recipe's shots, in 0.1 g
+    t.integer('yield_dg').notNullable().defaultTo(0); // espresso out, in 0.1 g
     t.boolean('is_default').notNullable().defaultTo(false);
     t.integer('sort').notNullable().defaultTo(0);
   });

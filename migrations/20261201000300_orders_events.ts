@@ -29,6 +29,7 @@ export async function up(knex: Knex): Promise<void> {
     t.string('created_at').notNullable();
     t.string('fired_at'); // when it reached the bar: once paid
     t.string('void_reason', 200);
+    t.string('rushed_at'); // a lead moved it to the front of the bar
     t.string('ready_at');
     t.string('collected_at');
     t.unique(['location_id', 'business_date', 'number']);
@@ -55,7 +56,11 @@ export async function up(knex: Knex): Promise<void> {
     t.json('modifiers').notNullable().defaultTo('[]');
     t.string('note', 140);
     t.integer('price_cents').notNullable();
+    t.integer('dose_dg').notNullable().defaultTo(0); // coffee this drink's shots take, in 0.1 g
     t.string('status', 8).notNullable().checkIn(['queued', 'making', 'done']);
+    // an allergy drink can't be bumped until a barista has read the allergy
+    t.string('allergy_ack_at');
+    t.integer('allergy_ack_by').references('users.id');
     t.string('started_at');
     t.string('done_at');
     t.integer('done_by').references('users.id');

@@ -145,6 +145,14 @@ export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: nu
       })),
     );
 
+    await trx('pitchers').insert(
+      [
+        [350, 190],
+        [600, 330],
+        [950, 520],
+      ].map(([capacity_ml, fill_line_ml]) => ({ location_id: locationId, capacity_ml, fill_line_ml })),
+    );
+
     const milkIds: number[] = [];
     for (const [i, m] of MILKS.entries()) {
       const [{ id }] = await trx('milk_options')
@@ -200,6 +208,9 @@ export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: nu
             price_cents: priceCents,
             shots: item.shots ?? 0,
             milk_ml: milkMl,
+            // the house recipe: 19 g in, 38 g out for a double (19 × shots / 2)
+            dose_dg: (item.shots ?? 0) * 95,
+            yield_dg: (item.shots ?? 0) * 190,
             is_default: si === (defaultIndex >= 0 ? defaultIndex : 0),
             sort: si,
           });

@@ -8,7 +8,7 @@ import type { Api } from './lib/api';
 import { ApiContext } from './lib/api-context';
 import { escapeHtml, jsonForScript } from './lib/html';
 import { createRoutes } from './routes';
-import { titleOf } from './routes/root';
+import { headOf, titleOf } from './routes/root';
 
 export type RenderResult =
   | { kind: 'redirect'; status: number; location: string }
@@ -36,6 +36,7 @@ export async function render(request: Request, api: Api): Promise<RenderResult> 
     query: dehydrate(queryClient),
     router: { loaderData: context.loaderData, actionData: context.actionData, errors: context.errors },
   };
-  const title = titleOf(context.matches.map((m) => ({ handle: m.route.handle })));
-  return { kind: 'page', status: context.statusCode, head: `<title>${escapeHtml(title)}</title>`, html, state: jsonForScript(state) };
+  const handles = context.matches.map((m) => ({ handle: m.route.handle }));
+  const head = `<title>${escapeHtml(titleOf(handles))}</title>${headOf(handles)}`;
+  return { kind: 'page', status: context.statusCode, head, html, state: jsonForScript(state) };
 }

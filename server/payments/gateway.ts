@@ -14,6 +14,8 @@ export class CardDeclined extends Error {
 }
 
 export class GatewayUnavailable extends Error {}
+/** The provider looked at the request and said no (e.g. nothing left to refund). */
+export class GatewayRefused extends Error {}
 
 export interface PaymentGateway {
   /** Create and confirm a payment; resolves once it has succeeded, throws CardDeclined otherwise. */
@@ -51,6 +53,9 @@ export function createStripeGateway(config: GatewayConfig): PaymentGateway {
     }
     if (err instanceof Stripe.errors.StripeConnectionError || err instanceof Stripe.errors.StripeAPIError) {
       throw new GatewayUnavailable(err.message);
+    }
+    if (err instanceof Stripe.errors.StripeInvalidRequestError || err instanceof Stripe.errors.StripeIdempotencyError) {
+      throw new GatewayRefused(err.message);
     }
     throw err;
   };

@@ -1,9 +1,11 @@
-import { idParam, ticketsQuery } from '../../src/domain/schemas';
+import { drinkBatchBody, idParam, ticketsQuery } from '../../src/domain/schemas';
 import { openTickets, pickupView } from '../../src/domain/tickets';
 import { userOf } from '../auth/guards';
 import { parse } from '../errors';
 import type { Deps } from '../services/deps';
-import { boardSnapshot, bumpDrink, bumpTicket, recallTicket, startDrink } from '../services/tickets';
+import { planBar } from '../../src/domain/lanes';
+import { acknowledgeAllergy, collectTicket, rushTicket } from '../services/ticket-care';
+import { boardSnapshot, bumpDrink, bumpDrinks, bumpTicket, recallTicket, startDrink, startDrinks } from '../services/tickets';
 import type { ApiRoute } from './define';
 
 
@@ -31,7 +33,32 @@ export function ticketRoutes(deps: Deps): ApiRoute[] {
       capability: 'viewPickup',
       handler: async (req, res) => res.json(pickupView(await boardSnapshot(deps, userOf(req).locationId))),
     },
+    {
+      method: 'get',
+      path: '/bar/lanes',
+      capability: 'viewQueue',
+      handler: async (req, res) => {
+        const board = await boardSnapshot(deps, userOf(req).locationId);
+        const open = board.tickets.filter((t) => openTickets(t, 0));
+        res.json({ seq: board.seq, now: board.now, ...planBar(open, board.location.pitchers, board.location.jugWasteMl) });
+      },
+    },
+    {
+      method: 'post',
+      path: '/drinks/start',
+      capability: 'makeDrinks',
+      handler: async (req, res) => res.json({ tickets: await startDrinks(deps, userOf(req), parse(drinkBatchBody, req.body).drinkIds) }),
+    },
+    {
+      method: 'post',
+      path: '/drinks/bump',
+      capability: 'makeDrinks',
+      handler: async (req, res) => res.json({ tickets: await bumpDrinks(deps, userOf(req), parse(drinkBatchBody, req.body).drinkIds) }),
+    },
     { method: 'post', path: '/drinks/:id/start', capability: 'makeDrinks', handler: command(startDrink) },
+    { method: 'post', path: '/drinks/:id/acknowledge-allergy', capability: 'makeDrinks', handler: command(acknowledgeAllergy) },
+    { method: 'post', path: '/tickets/:id/rush', capability: 'rushTickets', handler: command(rushTicket) },
+    { method: 'post', path: '/tickets/:id/collect', capability: 'handOver', handler: command(collectTicket) },
     { method: 'post', path: '/drinks/:id/bump', capability: 'makeDrinks', handler: command(bumpDrink) },
     { method: 'post', path: '/tickets/:id/bump', capability: 'makeDrinks', handler: command(bumpTicket) },
     { method: 'post', path: '/tickets/:id/recall', capability: 'makeDrinks', handler: command(recallTicket) },

@@ -25,7 +25,13 @@ async function startAttempt(deps: Deps, user: SessionUser, orderId: number) {
         .insert({ order_id: orderId, method: 'card', status: 'processing', amount_cents: order.total_cents, created_at: at, updated_at: at })
         .returning('id');
       const location = await loadLocation(trx, user.locationId);
-      return { paymentId: id as number, amountCents: order.total_cents as number, currency: location.currency };
+      const declines = await trx('payments').where({ order_id: orderId, status: 'declined' }).count<{ n: number }>({ n: '*' }).first();
+      return {
+        paymentId: id as number,
+        amountCents: order.total_cents as number,
+        currency: location.currency,
+        declines: Number(declines?.n ?? 0),
+      };
     } catch (err) {
       if (isUniqueViolation(err)) throw conflict('A card payment for this order is already in progress');
       throw err;
@@ -49,7 +55,9 @@ export async function payByCard(deps: Deps, user: SessionUser, orderId: number, 
       amountCents: attempt.amountCents,
       currency: attempt.currency,
       paymentMethod,
-      idempotencyKey: `jugline-payment-${attempt.paymentId}`,
+      // Same order, same card, no decline in between: the same key. If an earlier try's answer was
+      // lost, the provider replays its outcome instead of charging the card a second time.
+      idempotencyKey: `jugline-order-${orderId}-${attempt.declines}-${paymentMethod}`,
       metadata: { orderId: String(orderId), paymentId: String(attempt.paymentId) },
     }));
   } catch (err) {

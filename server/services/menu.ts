@@ -20,7 +20,13 @@ export async function loadLocation(db: Knex | Knex.Transaction, locationId: numb
     allergenList: l.allergen_list,
     baristasOnBar: l.baristas_on_bar,
     receiptFooter: l.receipt_footer ?? null,
+    jugWasteMl: l.jug_waste_ml,
   };
+}
+
+export async function loadPitchers(db: Knex | Knex.Transaction, locationId: number) {
+  const rows = await db('pitchers').where({ location_id: locationId }).orderBy('fill_line_ml');
+  return rows.map((p) => ({ capacityMl: p.capacity_ml as number, fillLineMl: p.fill_line_ml as number }));
 }
 
 export async function loadMenu(db: Knex | Knex.Transaction, locationId: number): Promise<MenuView> {
@@ -73,6 +79,8 @@ export async function loadMenu(db: Knex | Knex.Transaction, locationId: number):
           priceCents: s.price_cents,
           shots: s.shots,
           milkMl: s.milk_ml,
+          doseDg: s.dose_dg,
+          yieldDg: s.yield_dg,
           isDefault: bool(s.is_default),
         })),
       modifierGroupIds: links.filter((l) => l.item_id === i.id).map((l) => l.group_id),

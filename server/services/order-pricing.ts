@@ -40,6 +40,10 @@ export async function priceOrder(deps: Deps, user: SessionUser, body: CreateOrde
   const subtotal = lineCents.reduce((a, b) => a + b, 0);
   const totals = orderTotals(lineCents, menu.location, discountCents(subtotal, body.discount));
 
+  // The provider's smallest card charge in US dollars is 50 cents (from memory of its docs).
+  if (body.payment.method === 'card' && totals.totalCents < 50) {
+    throw invalid('payment.method', 'Card payments start at 50 cents; take this one as cash');
+  }
   if (body.payment.method === 'cash' && body.payment.tenderedCents < totals.totalCents) {
     throw new HttpError(400, 'validation_failed', 'The cash tendered is less than the total', [
       { path: 'payment.tenderedCents', message: `At least ${totals.totalCents} cents are due` },

@@ -2,6 +2,7 @@
 // refunded order that was still being made leaves the bar.
 import type { SessionUser } from '../../src/domain/types';
 import { HttpError, conflict, notFound } from '../errors';
+import { GatewayRefused, GatewayUnavailable } from '../payments/gateway';
 import type { Deps } from './deps';
 import { appendEvent, runCommand } from './events';
 import { findOrderInLocation, loadOrder } from './orders';
@@ -26,19 +27,35 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
   if (payment.method === 'card') {
     if (!deps.payments) throw new HttpError(503, 'unavailable', 'Card payments are not set up here');
     // The key names what is being refunded, so a retried request can't refund twice.
-    ({ providerId } = await deps.payments.refund({
-      providerId: payment.provider_id,
-      amountCents: amount,
-      reason: input.reason,
-      idempotencyKey: `jugline-refund-${orderId}-${order.refunded_cents}-${amount}`,
-    }));
+    try {
+      ({ providerId } = await deps.payments.refund({
+        providerId: payment.provider_id,
+        amountCents: amount,
+        reason: input.reason,
+        idempotencyKey: `jugline-refund-${orderId}-${order.refunded_cents}-${amount}`,
+      }));
+    } catch (err) {
+      if (err instanceof GatewayRefused) throw conflict(`The card service refused the refund: ${err.message}`);
+      if (err instanceof GatewayUnavailable) {
+        throw new HttpError(502, 'payment_unavailable', 'The card service did not answer; nothing was refunded. Try again.');
+      }
+      throw err;
+    }
   }
 
   return runCommand(deps, async (trx) => {
     const at = deps.clock().toISOString();
     // re-read inside the transaction: another refund may have landed meanwhile
     const fresh = await trx('orders').where({ id: orderId }).first();
-    if (fresh.refunded_cents !== order.refunded_cents) throw conflict('Another refund changed this order; look again');
+    if (fresh.refunded_cents !== order.refunded_cents) {
+      // Cash: nothing has been handed back yet, so refuse. Card: the provider has already given
+      // this money back (it checks the charge's own balance), so it must be recorded, unless it
+      // is the same refund again, replayed by the provider for the same idempotency key.
+      if (!providerId) throw conflict('Another refund changed this order; look again');
+      if (await trx('refunds').where({ order_id: orderId, provider_id: providerId }).first('id')) {
+        return { result: await loadOrder(trx, orderId), events: [] };
+      }
+    }
     const refunded = fresh.refunded_cents + amount;
     const full = refunded === fresh.total_cents;
     await trx('refunds').insert({

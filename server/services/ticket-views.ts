@@ -18,18 +18,23 @@ function toDrink(r: Record<string, any>): DrinkView {
     texture: r.texture,
     modifiers: json<{ name: string }[]>(r.modifiers, []).map((m) => m.name),
     note: r.note,
+    doseDg: r.dose_dg,
     status: r.status,
     startedAt: r.started_at,
     doneAt: r.done_at,
+    allergyAckAt: r.allergy_ack_at ?? null,
+    allergyAckBy: r.ack_by_name ?? null,
   };
 }
 
 export async function loadTickets(db: Db, orders: Record<string, any>[]): Promise<TicketView[]> {
   if (orders.length === 0) return [];
   const drinks = await db('order_items')
-    .whereIn('order_id', orders.map((o) => o.id))
-    .andWhere({ station: 'bar' })
-    .orderBy(['order_id', 'line_no']);
+    .leftJoin('users', 'users.id', 'order_items.allergy_ack_by')
+    .whereIn('order_items.order_id', orders.map((o) => o.id))
+    .andWhere('order_items.station', 'bar')
+    .orderBy(['order_items.order_id', 'order_items.line_no'])
+    .select('order_items.*', 'users.name as ack_by_name');
   const byOrder = new Map<number, DrinkView[]>();
   for (const d of drinks) byOrder.set(d.order_id, [...(byOrder.get(d.order_id) ?? []), toDrink(d)]);
   return orders.map((o) => ({
@@ -43,6 +48,7 @@ export async function loadTickets(db: Db, orders: Record<string, any>[]): Promis
     service: o.service,
     allergens: json<string[]>(o.allergens, []),
     allergyNote: o.allergy_note ?? null,
+    rushedAt: o.rushed_at ?? null,
     drinks: byOrder.get(o.id) ?? [],
   }));
 }

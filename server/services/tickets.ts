@@ -1,11 +1,12 @@
 // Bar commands: start, bump and recall. Each is one transaction plus its event.
 import type { Knex } from 'knex';
-import type { BoardSnapshot, SessionUser } from '../../src/domain/types';
+import type { BoardSnapshot, SessionUser, TicketEventType } from '../../src/domain/types';
+import { json } from '../db/rows';
 import { RECALL_WINDOW_SECONDS } from '../../src/domain/timing';
 import { conflict, notFound } from '../errors';
 import type { Deps } from './deps';
 import { appendEvent, latestSeq, runCommand } from './events';
-import { loadLocation } from './menu';
+import { loadLocation, loadPitchers } from './menu';
 import { loadBoardTickets, loadTicket } from './ticket-views';
 
 
@@ -22,21 +23,34 @@ export async function boardSnapshot(deps: Deps, locationId: number): Promise<Boa
         name: location.name,
         waitTargetSeconds: location.waitTargetSeconds,
         pickupTimeoutSeconds: location.pickupTimeoutSeconds,
+        pitchers: await loadPitchers(trx, locationId),
+        jugWasteMl: location.jugWasteMl,
       },
       tickets,
     };
   });
 }
 
-async function drinkInLocation(trx: Knex.Transaction, drinkId: number, user: SessionUser) {
-  const drink = await trx('order_items')
+/** The bar drinks a command names, each checked: in this café, on an open ticket. */
+async function openDrinks(trx: Knex.Transaction, user: SessionUser, drinkIds: number[]) {
+  const rows = await trx('order_items')
     .join('orders', 'orders.id', 'order_items.order_id')
-    .where('order_items.id', drinkId)
+    .whereIn('order_items.id', drinkIds)
     .andWhere('orders.location_id', user.locationId)
     .andWhere('order_items.station', 'bar')
-    .first('order_items.*', 'orders.status as order_status');
-  if (!drink) throw notFound('Drink');
-  return drink;
+    .select('order_items.*', 'orders.status as order_status', 'orders.allergens as order_allergens', 'orders.allergy_note');
+  for (const id of drinkIds) if (!rows.some((r) => r.id === id)) throw notFound(`Drink ${id}`);
+  for (const r of rows) if (r.order_status !== 'open') throw conflict(`Drink ${r.id} is not on an open ticket`);
+  return rows;
+}
+
+const hasAllergy = (r: Record<string, any>) =>
+  json<string[]>(r.order_allergens, []).length > 0 || !!r.allergy_note;
+
+/** An allergy drink is bumped only once a barista has confirmed reading its allergy. */
+function assertAllergyRead(rows: Record<string, any>[]) {
+  const unread = rows.find((r) => hasAllergy(r) && !r.allergy_ack_at);
+  if (unread) throw conflict('Read the allergy on this ticket and acknowledge it before bumping', { drinkId: unread.id });
 }
 
 async function orderInLocation(trx: Knex.Transaction, orderId: number, user: SessionUser) {
@@ -60,47 +74,69 @@ async function settleTicket(trx: Knex.Transaction, orderId: number, at: string) 
   if (Number(left?.n) === 0) await trx('orders').where({ id: orderId, status: 'open' }).update({ status: 'ready', ready_at: at });
 }
 
-export function startDrink(deps: Deps, user: SessionUser, drinkId: number) {
+/** One event per ticket the command touched, each carrying the ticket's new state. */
+async function ticketEvents(trx: Knex.Transaction, user: SessionUser, orderIds: number[], type: TicketEventType, at: string) {
+  const events = [];
+  const tickets = [];
+  for (const id of [...new Set(orderIds)]) {
+    const ticket = await loadTicket(trx, id);
+    tickets.push(ticket);
+    events.push(await appendEvent(trx, user.locationId, type, ticket, at, user.id));
+  }
+  return { tickets, events };
+}
+
+/** Start one drink or a batch (queued → making). */
+export function startDrinks(deps: Deps, user: SessionUser, drinkIds: number[]) {
   return runCommand(deps, async (trx) => {
-    const drink = await drinkInLocation(trx, drinkId, user);
-    if (drink.status !== 'queued') throw conflict(`This drink is already ${drink.status === 'done' ? 'done' : 'being made'}`);
+    const rows = await openDrinks(trx, user, drinkIds);
+    const busy = rows.find((r) => r.status !== 'queued');
+    if (busy) throw conflict(`Drink ${busy.id} is already ${busy.status === 'done' ? 'done' : 'being made'}`);
     const at = deps.clock().toISOString();
-    await trx('order_items').where({ id: drinkId, status: 'queued' }).update({ status: 'making', started_at: at });
-    const ticket = await loadTicket(trx, drink.order_id);
-    return { result: ticket, events: [await appendEvent(trx, user.locationId, 'drink.started', ticket, at, user.id)] };
+    await trx('order_items').whereIn('id', drinkIds).andWhere({ status: 'queued' }).update({ status: 'making', started_at: at });
+    const { tickets, events } = await ticketEvents(trx, user, rows.map((r) => r.order_id), 'drink.started', at);
+    return { result: tickets, events };
   });
 }
 
-export function bumpDrink(deps: Deps, user: SessionUser, drinkId: number) {
+/** Bump one drink or a batch. Two screens bumping the same drink: one wins, the other gets 409. */
+export function bumpDrinks(deps: Deps, user: SessionUser, drinkIds: number[]) {
   return runCommand(deps, async (trx) => {
-    const drink = await drinkInLocation(trx, drinkId, user);
-    if (drink.status === 'done') throw conflict('This drink was already bumped');
+    const rows = await openDrinks(trx, user, drinkIds);
+    const done = rows.find((r) => r.status === 'done');
+    if (done) throw conflict(`Drink ${done.id} was already bumped`);
+    assertAllergyRead(rows);
     const at = deps.clock().toISOString();
+    const bumpSeq = await nextBumpSeq(trx);
+    await trx('order_items').whereIn('id', drinkIds).whereNull('started_at').update({ started_at: at });
     const changed = await trx('order_items')
-      .where({ id: drinkId })
+      .whereIn('id', drinkIds)
       .whereNot({ status: 'done' })
-      .update({ status: 'done', done_at: at, done_by: user.id, bump_seq: await nextBumpSeq(trx), started_at: drink.started_at ?? at });
-    if (changed !== 1) throw conflict('This drink was already bumped');
-    await settleTicket(trx, drink.order_id, at);
-    const ticket = await loadTicket(trx, drink.order_id);
-    return { result: ticket, events: [await appendEvent(trx, user.locationId, 'drink.bumped', ticket, at, user.id)] };
+      .update({ status: 'done', done_at: at, done_by: user.id, bump_seq: bumpSeq });
+    if (changed !== drinkIds.length) throw conflict('A drink was already bumped');
+    for (const orderId of new Set(rows.map((r) => r.order_id))) await settleTicket(trx, orderId, at);
+    const { tickets, events } = await ticketEvents(trx, user, rows.map((r) => r.order_id), 'drink.bumped', at);
+    return { result: tickets, events };
   });
 }
+
+export const startDrink = async (deps: Deps, user: SessionUser, drinkId: number) => (await startDrinks(deps, user, [drinkId]))[0];
+export const bumpDrink = async (deps: Deps, user: SessionUser, drinkId: number) => (await bumpDrinks(deps, user, [drinkId]))[0];
 
 export function bumpTicket(deps: Deps, user: SessionUser, orderId: number) {
   return runCommand(deps, async (trx) => {
     const order = await orderInLocation(trx, orderId, user);
     if (order.status !== 'open') throw conflict('This ticket has no drinks left to bump');
+    const left = await trx('order_items').where({ order_id: orderId, station: 'bar' }).whereNot({ status: 'done' }).select('id');
+    if (left.length === 0) throw conflict('This ticket has no drinks left to bump');
+    assertAllergyRead(await openDrinks(trx, user, left.map((d) => d.id)));
     const at = deps.clock().toISOString();
     const bumpSeq = await nextBumpSeq(trx);
+    await trx('order_items').where({ order_id: orderId, station: 'bar', status: 'queued' }).update({ started_at: at });
     await trx('order_items')
-      .where({ order_id: orderId, station: 'bar', status: 'queued' })
-      .update({ started_at: at });
-    const changed = await trx('order_items')
       .where({ order_id: orderId, station: 'bar' })
       .whereNot({ status: 'done' })
       .update({ status: 'done', done_at: at, done_by: user.id, bump_seq: bumpSeq });
-    if (changed === 0) throw conflict('This ticket has no drinks left to bump');
     await settleTicket(trx, orderId, at);
     const ticket = await loadTicket(trx, orderId);
     return { result: ticket, events: [await appendEvent(trx, user.locationId, 'ticket.bumped', ticket, at, user.id)] };
@@ -111,7 +147,7 @@ export function bumpTicket(deps: Deps, user: SessionUser, orderId: number) {
 export function recallTicket(deps: Deps, user: SessionUser, orderId: number) {
   return runCommand(deps, async (trx) => {
     const order = await orderInLocation(trx, orderId, user);
-    if (order.status === 'collected') throw conflict('This ticket was already collected');
+    if (order.status !== 'open' && order.status !== 'ready') throw conflict(`This ticket is ${order.status}; nothing to recall`);
     const last = await trx('order_items')
       .where({ order_id: orderId, station: 'bar', status: 'done' })
       .whereNotNull('bump_seq')

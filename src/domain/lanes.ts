@@ -1,4 +1,5 @@
 // Milk lanes: the bar's open drinks grouped by milk, then by shot count, oldest ticket first.
+import { planJugs, type JugBatch, type Pitcher } from './jug-plan';
 import type { DrinkView, MilkRef, TicketView } from './types';
 
 /** A drink as the bar shows it: with its ticket's number, name and age, and its place in it. */
@@ -6,6 +7,10 @@ export interface DrinkCard extends DrinkView {
   ticketNumber: number;
   customerName: string;
   firedAt: string;
+  rushedAt: string | null;
+  /** The ticket's allergy, if any; the drink can't be bumped until it is acknowledged. */
+  allergens: string[];
+  allergyNote: string | null;
   /** 1-based place of this drink among the ticket's bar drinks, and how many there are. */
   indexInTicket: number;
   ticketSize: number;
@@ -25,8 +30,16 @@ export interface Lane {
   oldestFiredAt: string;
 }
 
+/** Rushed tickets first (in the order they were rushed), then oldest first. */
 const byAge = (a: DrinkCard, b: DrinkCard) =>
-  a.firedAt.localeCompare(b.firedAt) || a.ticketId - b.ticketId || a.id - b.id;
+  (a.rushedAt ? 0 : 1) - (b.rushedAt ? 0 : 1) ||
+  (a.rushedAt ?? '').localeCompare(b.rushedAt ?? '') ||
+  a.firedAt.localeCompare(b.firedAt) ||
+  a.ticketId - b.ticketId ||
+  a.id - b.id;
+
+export const hasAllergy = (d: { allergens: string[]; allergyNote: string | null }) => d.allergens.length > 0 || !!d.allergyNote;
+export const needsAllergyAck = (d: DrinkCard) => hasAllergy(d) && d.allergyAckAt === null;
 
 export function groupIntoLanes(tickets: TicketView[]): Lane[] {
   const lanes = new Map<string, { milk: MilkRef | null; cards: DrinkCard[] }>();
@@ -40,6 +53,9 @@ export function groupIntoLanes(tickets: TicketView[]): Lane[] {
         ticketNumber: ticket.number,
         customerName: ticket.customerName,
         firedAt: ticket.firedAt,
+        rushedAt: ticket.rushedAt,
+        allergens: ticket.allergens,
+        allergyNote: ticket.allergyNote,
         indexInTicket: i + 1,
         ticketSize: ticket.drinks.length,
       });
@@ -62,4 +78,33 @@ export function groupIntoLanes(tickets: TicketView[]): Lane[] {
   return result.sort(
     (a, b) => b.drinkCount - a.drinkCount || a.oldestFiredAt.localeCompare(b.oldestFiredAt) || a.key.localeCompare(b.key),
   );
+}
+
+export interface ShotPlan {
+  /** Shots still to pull (drinks not started yet) and the coffee they take, in 0.1 g. */
+  shots: number;
+  doseDg: number;
+}
+
+export interface PlannedLane extends Lane {
+  jugPlan: JugBatch[];
+  shotPlan: ShotPlan;
+}
+
+export function shotPlan(cards: DrinkCard[]): ShotPlan {
+  const waiting = cards.filter((c) => c.status === 'queued');
+  return { shots: waiting.reduce((n, c) => n + c.shots, 0), doseDg: waiting.reduce((n, c) => n + c.doseDg, 0) };
+}
+
+/** Lanes with their jug plan and shot plan: what the Bar shows and GET /api/bar/lanes answers. */
+export function planBar(tickets: TicketView[], pitchers: Pitcher[], wasteMl: number): { lanes: PlannedLane[]; shotPlan: ShotPlan } {
+  const lanes = groupIntoLanes(tickets).map((lane) => {
+    const cards = lane.groups.flatMap((g) => g.drinks).sort(byAge);
+    return { ...lane, jugPlan: planJugs(cards, pitchers, wasteMl), shotPlan: shotPlan(cards) };
+  });
+  const all = lanes.map((l) => l.shotPlan);
+  return {
+    lanes,
+    shotPlan: { shots: all.reduce((n, s) => n + s.shots, 0), doseDg: all.reduce((n, s) => n + s.doseDg, 0) },
+  };
 }

@@ -12,6 +12,8 @@ export interface ResolvedLine {
   milk: MilkView | null;
   shots: number;
   milkMl: number;
+  /** Coffee for the shots actually ordered, from the recipe's dose per shot, in 0.1 g. */
+  doseDg: number;
   texture: Texture | null;
   modifiers: { id: number; name: string; priceCents: number }[];
   note: string | null;
@@ -87,6 +89,7 @@ export function resolveLine(menu: MenuView, input: OrderLineInput): LineResult {
       milk,
       shots,
       milkMl: item.takesMilk ? (size?.milkMl ?? 0) : 0,
+      doseDg: size && size.shots > 0 ? Math.round((size.doseDg / size.shots) * shots) : 0,
       texture: item.texture,
       modifiers: modifiers.map(({ id, name, priceCents }) => ({ id, name, priceCents })),
       note: input.note ? input.note : null,

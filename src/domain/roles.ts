@@ -13,6 +13,8 @@ export const CAPABILITIES = {
   giveDiscounts: ['lead', 'owner'],
   refundOrders: ['lead', 'owner'],
   eightySix: ['lead', 'owner'],
+  rushTickets: ['lead', 'owner'],
+  handOver: ['cashier', 'barista', 'lead', 'owner'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Capability = keyof typeof CAPABILITIES;

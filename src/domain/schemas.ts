@@ -69,6 +69,15 @@ export const refundBody = z.object({
 
 export const voidBody = z.object({ reason: z.string().trim().min(3, 'Say why').max(200) });
 
+/** A batch of drinks to start or bump in one command. */
+export const drinkBatchBody = z.object({
+  drinkIds: z
+    .array(z.number().int().positive())
+    .min(1, 'Name at least one drink')
+    .max(30)
+    .refine((ids) => new Set(ids).size === ids.length, 'A drink is listed twice'),
+});
+
 export const availabilityBody = z.object({ available: z.boolean() });
 
 /** Messages a screen may send over the live socket. */

@@ -31,6 +31,7 @@ export interface LocationView {
   allergenList: 'US' | 'EU';
   baristasOnBar: number;
   receiptFooter: string | null;
+  jugWasteMl: number;
 }
 
 export interface MilkView {
@@ -49,6 +50,9 @@ export interface SizeView {
   priceCents: number;
   shots: number;
   milkMl: number;
+  /** Recipe coffee in and espresso out for the size's shots, in tenths of a gram. */
+  doseDg: number;
+  yieldDg: number;
   /** The size a tap on the tile picks. */
   isDefault: boolean;
 }
@@ -114,9 +118,14 @@ export interface DrinkView {
   texture: Texture | null;
   modifiers: string[];
   note: string | null;
+  /** Ground coffee for this drink's shots, in tenths of a gram. */
+  doseDg: number;
   status: DrinkStatus;
   startedAt: string | null;
   doneAt: string | null;
+  /** When a barista confirmed reading the ticket's allergy, and who. */
+  allergyAckAt: string | null;
+  allergyAckBy: string | null;
 }
 
 export interface TicketView {
@@ -131,6 +140,8 @@ export interface TicketView {
   /** Allergens the customer named, from the location's list, and their own words. */
   allergens: string[];
   allergyNote: string | null;
+  /** Set when a lead moved the ticket to the front of the bar. */
+  rushedAt: string | null;
   /** Bar drinks only; counter items are handed over at the counter. */
   drinks: DrinkView[];
 }
@@ -190,6 +201,9 @@ export const TICKET_EVENT_TYPES = [
   'drink.bumped',
   'ticket.bumped',
   'ticket.recalled',
+  'ticket.rushed',
+  'ticket.collected',
+  'drink.allergy_acknowledged',
 ] as const;
 export type TicketEventType = (typeof TICKET_EVENT_TYPES)[number];
 export type EventType = TicketEventType | 'menu.availability';
@@ -217,7 +231,13 @@ export const isTicketEvent = (e: AnyLiveEvent): e is LiveEvent => e.type !== 'me
 export interface BoardSnapshot {
   seq: number;
   now: string;
-  location: { name: string; waitTargetSeconds: number; pickupTimeoutSeconds: number };
+  location: {
+    name: string;
+    waitTargetSeconds: number;
+    pickupTimeoutSeconds: number;
+    pitchers: { capacityMl: number; fillLineMl: number }[];
+    jugWasteMl: number;
+  };
   tickets: TicketView[];
 }
 

@@ -17,6 +17,7 @@ import { emptyCheckout, previewTotals, tenderedCents, type Checkout } from '../f
 import { CheckoutPanel, SendBar } from '../features/counter/checkout-panel';
 import { ItemSheet } from '../features/counter/item-sheet';
 import { OrdersDrawer } from '../features/counter/orders-drawer';
+import { ReadyStrip } from '../features/counter/ready-strip';
 import { MenuGrid } from '../features/counter/menu-grid';
 import { OrderPanel } from '../features/counter/order-panel';
 import { PendingOrdersBanner } from '../features/counter/pending-orders-banner';
@@ -126,6 +127,7 @@ function Counter() {
         <LinkStateBadge state={link} className="ml-auto text-base" />
       </header>
       <PendingOrdersBanner queue={outbox} currency={menu.location.currency} />
+      <ReadyStrip tickets={board.tickets} />
       {sent && (
         <div role="status" className="flex flex-wrap items-center gap-x-5 gap-y-1 bg-ink-900 px-5 py-3 text-xl text-steam-50">
           <span>

@@ -3,6 +3,12 @@ import { Outlet, useMatches } from 'react-router';
 
 export interface RouteHandle {
   title?: string;
+  /** Extra markup for the page head, rendered on the server (e.g. a no-script refresh). */
+  head?: string;
+}
+
+export function headOf(matches: { handle?: unknown }[]): string {
+  return matches.map((m) => (m.handle as RouteHandle | undefined)?.head ?? '').join('');
 }
 
 export function titleOf(matches: { handle?: unknown }[]): string {

@@ -80,7 +80,7 @@ describe('GET /api/tickets', () => {
     expect(Object.keys(res.body).sort()).toEqual(['location', 'now', 'seq', 'tickets']);
     expect(res.body.seq).toBe(await maxEventId());
     expect(res.body.now).toBe(nowIso());
-    expect(res.body.location).toEqual({ name: 'Harbour & Hearth Coffee', waitTargetSeconds: 240, pickupTimeoutSeconds: 600 });
+    expect(res.body.location).toMatchObject({ name: 'Harbour & Hearth Coffee', waitTargetSeconds: 240, pickupTimeoutSeconds: 600 });
 
     const ticket = res.body.tickets.find((t: TicketView) => t.id === id);
     expect(ticket).toMatchObject({ customerName: 'Anouk Pemberton', status: 'open', readyAt: null });

@@ -240,6 +240,7 @@ describe('two sends of one new card order at once', () => {
       for (const a of answers) expect([200, 201, 409], JSON.stringify(a.body)).toContain(a.status);
       expect(answers.some((a) => a.status === 201 || a.status === 200)).toBe(true);
       expect(answers.some((a) => a.body.order?.paymentStatus === 'paid')).toBe(true);
+      for (const a of answers.filter((x) => x.status === 409)) expect(a.body.error.code).toBe('conflict');
 
       expect(await ordersWithClientId(body.clientOrderId)).toBe(1);
       const order = await server.db('orders').where({ client_order_id: body.clientOrderId }).first();
@@ -248,6 +249,12 @@ describe('two sends of one new card order at once', () => {
       expect(payments.filter((p) => p.status === 'succeeded')).toHaveLength(1);
       expect(payments.filter((p) => p.status !== 'succeeded')).toEqual([]);
       expect(await eventTypes(order.id)).toEqual(['order.taken', 'order.fired']);
+
+      // The send that was told to wait sends again and gets the paid order, charged once.
+      const resend = await cashier.post('/api/orders').send(body);
+      expect(resend.status).toBe(200);
+      expect(resend.body.order).toMatchObject({ id: order.id, paymentStatus: 'paid' });
+      expect(await paymentRows(order.id)).toHaveLength(1);
     }
   });
 });

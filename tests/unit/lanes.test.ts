@@ -19,9 +19,12 @@ function drink(ticketId: number, milk: MilkRef | null, shots: number, status: Dr
     texture: milk ? 'flat' : null,
     modifiers: [],
     note: null,
+    doseDg: shots * 95,
     status,
     startedAt: null,
     doneAt: null,
+    allergyAckAt: null,
+    allergyAckBy: null,
   };
 }
 
@@ -37,6 +40,7 @@ function ticket(id: number, firedAt: string, drinks: DrinkView[]): TicketView {
     service: 'takeaway',
     allergens: [],
     allergyNote: null,
+    rushedAt: null,
     drinks,
   };
 }
@@ -112,6 +116,26 @@ describe('groupIntoLanes', () => {
       expect(card.customerName).toBe('Guest 9');
       expect(card.firedAt).toBe('2025-03-01T08:00:00.000Z');
     });
+  });
+
+  it('puts rushed tickets first, in the order they were rushed, then the rest oldest first', () => {
+    // A lead moves a ticket to the front of the bar; two rushes keep the order they were made in.
+    const lanes = groupIntoLanes([
+      ticket(1, '2025-03-01T08:00:00.000Z', [drink(1, WHOLE, 2)]),
+      ticket(2, '2025-03-01T08:02:00.000Z', [drink(2, WHOLE, 2)]),
+      { ...ticket(3, '2025-03-01T08:04:00.000Z', [drink(3, WHOLE, 2)]), rushedAt: '2025-03-01T08:07:00.000Z' },
+      { ...ticket(4, '2025-03-01T08:05:00.000Z', [drink(4, WHOLE, 2)]), rushedAt: '2025-03-01T08:06:00.000Z' },
+    ]);
+    // Ticket 4 was rushed first (08:06), then ticket 3 (08:07); then 1 and 2 by age.
+    expect(lanes[0].groups[0].drinks.map((d) => d.ticketId)).toEqual([4, 3, 1, 2]);
+    expect(lanes[0].groups[0].drinks[0].rushedAt).toBe('2025-03-01T08:06:00.000Z');
+  });
+
+  it("carries the ticket's allergy onto each card", () => {
+    const t = { ...ticket(1, '2025-03-01T08:00:00.000Z', [drink(1, OAT, 2)]), allergens: ['peanuts'], allergyNote: 'EpiPen on file' };
+    const [card] = groupIntoLanes([t])[0].groups[0].drinks;
+    expect(card.allergens).toEqual(['peanuts']);
+    expect(card.allergyNote).toBe('EpiPen on file');
   });
 
   it('returns no lanes for no open drinks', () => {

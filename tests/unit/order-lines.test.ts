@@ -49,6 +49,7 @@ function testMenu(): MenuView {
       allergenList: 'US',
       baristasOnBar: 1,
       receiptFooter: null,
+      jugWasteMl: 0,
     },
     categories: [{ id: 1, name: 'Drinks' }],
     items: [
@@ -61,9 +62,9 @@ function testMenu(): MenuView {
         texture: 'silky',
         // The default is deliberately not the first size.
         sizes: [
-          { id: 101, name: 'Short', volumeMl: 230, priceCents: 300, shots: 1, milkMl: 150, isDefault: false },
-          { id: 102, name: 'Tall', volumeMl: 340, priceCents: 410, shots: 2, milkMl: 240, isDefault: true },
-          { id: 103, name: 'Grande', volumeMl: 450, priceCents: 515, shots: 3, milkMl: 320, isDefault: false },
+          { id: 101, name: 'Petite', volumeMl: 230, priceCents: 300, shots: 1, milkMl: 150, doseDg: 90, yieldDg: 180, isDefault: false },
+          { id: 102, name: 'Standard', volumeMl: 340, priceCents: 410, shots: 2, milkMl: 240, doseDg: 180, yieldDg: 360, isDefault: true },
+          { id: 103, name: 'Jumbo', volumeMl: 450, priceCents: 515, shots: 3, milkMl: 320, doseDg: 270, yieldDg: 540, isDefault: false },
         ],
       }),
       item({ id: GIBRALTAR, name: 'Gibraltar', priceCents: 375, shots: 2, takesMilk: true, texture: 'flat' }),
@@ -71,8 +72,8 @@ function testMenu(): MenuView {
         id: POUR_OVER,
         name: 'Pour-over',
         sizes: [
-          { id: 121, name: 'Cup', volumeMl: 250, priceCents: 420, shots: 0, milkMl: 0, isDefault: false },
-          { id: 122, name: 'Carafe', volumeMl: 500, priceCents: 760, shots: 0, milkMl: 0, isDefault: false },
+          { id: 121, name: 'Cup', volumeMl: 250, priceCents: 420, shots: 0, milkMl: 0, doseDg: 0, yieldDg: 0, isDefault: false },
+          { id: 122, name: 'Carafe', volumeMl: 500, priceCents: 760, shots: 0, milkMl: 0, doseDg: 0, yieldDg: 0, isDefault: false },
         ],
       }),
       item({ id: SCONE, name: 'Cheese scone', station: 'counter', priceCents: 330 }),
@@ -108,7 +109,7 @@ describe('resolveLine: sizes', () => {
   it('picks the size marked isDefault when none is given', () => {
     const line = ok(resolveLine(testMenu(), { menuItemId: LATTE }));
     expect(line.size?.id).toBe(102);
-    // Price from the test menu: Tall 410 + Dairy 0
+    // Price from the test menu: Standard 410 + Dairy 0
     expect(line.priceCents).toBe(410);
     expect(line.shots).toBe(2);
     expect(line.milkMl).toBe(240);
@@ -122,7 +123,7 @@ describe('resolveLine: sizes', () => {
 
   it('uses the size asked for', () => {
     const line = ok(resolveLine(testMenu(), { menuItemId: LATTE, sizeId: 101 }));
-    expect(line.size?.name).toBe('Short');
+    expect(line.size?.name).toBe('Petite');
     expect(line.priceCents).toBe(300);
   });
 
@@ -166,7 +167,7 @@ describe('resolveLine: milk', () => {
   });
 
   it('adds the chosen milk upcharge', () => {
-    // Common practice: plant milks carry an upcharge. Tall 410 + Pea 65 = 475
+    // Common practice: plant milks carry an upcharge. Standard 410 + Pea 65 = 475
     const line = ok(resolveLine(testMenu(), { menuItemId: LATTE, milkId: PEA }));
     expect(line.milk?.code).toBe('PE');
     expect(line.priceCents).toBe(475);
@@ -193,20 +194,20 @@ describe('resolveLine: milk', () => {
 describe('resolveLine: shots', () => {
   it('charges each extra shot on top of the recipe at location.extraShotCents', () => {
     // Common practice: an extra espresso shot is charged on top of the recipe's shots.
-    // Tall has 2 shots; 4 asked → 2 extra × 95 = 190; 410 + 190 = 600
+    // Standard has 2 shots; 4 asked → 2 extra × 95 = 190; 410 + 190 = 600
     const line = ok(resolveLine(testMenu(), { menuItemId: LATTE, shots: 4 }));
     expect(line.shots).toBe(4);
     expect(line.priceCents).toBe(600);
   });
 
   it('counts extras against the chosen size, not the item', () => {
-    // Grande's recipe is 3 shots; 4 asked → 1 extra: 515 + 95 = 610
+    // Jumbo's recipe is 3 shots; 4 asked → 1 extra: 515 + 95 = 610
     const line = ok(resolveLine(testMenu(), { menuItemId: LATTE, sizeId: 103, shots: 4 }));
     expect(line.priceCents).toBe(610);
   });
 
   it('gives no discount for fewer shots than the recipe', () => {
-    // Common practice: a weaker drink costs the menu price. Tall (2 shots) asked with 1 → still 410
+    // Common practice: a weaker drink costs the menu price. Standard (2 shots) asked with 1 → still 410
     const line = ok(resolveLine(testMenu(), { menuItemId: LATTE, shots: 1 }));
     expect(line.shots).toBe(1);
     expect(line.priceCents).toBe(410);
@@ -227,7 +228,7 @@ describe('resolveLine: modifiers and the full price', () => {
   });
 
   it('prices a line as size + milk upcharge + extra shots + modifiers', () => {
-    // Hand-worked from the test menu: Grande 515 + Hemp 45 + (5 − 3) × 95 + Maple 55 + Cinnamon 15 = 820
+    // Hand-worked from the test menu: Jumbo 515 + Hemp 45 + (5 − 3) × 95 + Maple 55 + Cinnamon 15 = 820
     const line = ok(
       resolveLine(testMenu(), { menuItemId: LATTE, sizeId: 103, milkId: HEMP, shots: 5, modifierIds: [MAPLE, CINNAMON] }),
     );

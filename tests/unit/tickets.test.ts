@@ -22,9 +22,12 @@ const aDrink: DrinkView = {
   texture: 'flat',
   modifiers: [],
   note: null,
+  doseDg: 190,
   status: 'queued',
   startedAt: null,
   doneAt: null,
+  allergyAckAt: null,
+  allergyAckBy: null,
 };
 
 function ticket(id: number, firedAt: string, status: TicketStatus = 'open', readyAt: string | null = null): TicketView {
@@ -39,12 +42,13 @@ function ticket(id: number, firedAt: string, status: TicketStatus = 'open', read
     service: 'takeaway',
     allergens: [],
     allergyNote: null,
+    rushedAt: null,
     drinks: [{ ...aDrink, ticketId: id }],
   };
 }
 
 function board(seq: number, tickets: TicketView[]): BoardSnapshot {
-  return { seq, now: '2025-04-02T10:00:00.000Z', location: { name: 'Test Café', waitTargetSeconds: 240, pickupTimeoutSeconds: 600 }, tickets };
+  return { seq, now: '2025-04-02T10:00:00.000Z', location: { name: 'Test Café', waitTargetSeconds: 240, pickupTimeoutSeconds: 600, pitchers: [], jugWasteMl: 0 }, tickets };
 }
 
 function event(seq: number, t: TicketView, at = '2025-04-02T10:05:00.000Z'): LiveEvent {

@@ -1,4 +1,4 @@
-import type { DrinkCard as Card } from '../../domain/lanes';
+import { needsAllergyAck, hasAllergy, type DrinkCard as Card } from '../../domain/lanes';
 import { ticketAgeSeconds } from '../../domain/tickets';
 import { cn } from '../../lib/cn';
 import { Button } from '../../components/ui/button';
@@ -10,12 +10,20 @@ interface Props {
   targetSeconds: number;
   /** 1–9: the number key that bumps this card. */
   keyNumber: number | null;
+  /** "Jug 1 · pour 2": where this drink sits in its lane's jug plan. */
+  jugLabel: string | null;
+  focused: boolean;
   busy: boolean;
+  canRush: boolean;
   onStart(): void;
   onBump(): void;
+  onAcknowledge(): void;
+  onRush(): void;
 }
 
-export function DrinkCard({ card, nowMs, targetSeconds, keyNumber, busy, onStart, onBump }: Props) {
+export function DrinkCard({ card, nowMs, targetSeconds, keyNumber, jugLabel, focused, busy, canRush, onStart, onBump, onAcknowledge, onRush }: Props) {
+  const allergy = hasAllergy(card);
+  const unread = needsAllergyAck(card);
   const age = ticketAgeSeconds(card.firedAt, nowMs);
   const late = age > targetSeconds;
   const size = card.sizeName ? `${card.sizeName}${card.volumeMl ? ` ${card.volumeMl} ml` : ''}` : null;
@@ -25,12 +33,20 @@ export function DrinkCard({ card, nowMs, targetSeconds, keyNumber, busy, onStart
       data-drink-id={card.id}
       data-ticket={card.ticketNumber}
       aria-label={`Ticket ${card.ticketNumber}, ${card.customerName}: ${card.itemName}`}
+      data-focused={focused || undefined}
       className={cn(
         'rounded-xl border-2 bg-roast-750 p-3 text-crema-100',
         card.status === 'making' ? 'border-crema-100' : 'border-transparent',
         late && 'border-dashed border-copper-300',
+        focused && 'outline-4 outline-offset-2 outline-copper-300',
       )}
     >
+      {(card.rushedAt || jugLabel) && (
+        <p className="mb-1 flex gap-2 text-lg font-semibold">
+          {card.rushedAt && <span className="rounded-md bg-crema-100 px-2 text-roast-950">RUSH</span>}
+          {jugLabel && <span className="text-crema-300">{jugLabel}</span>}
+        </p>
+      )}
       <header className="flex items-baseline gap-3">
         {keyNumber !== null && (
           <kbd
@@ -55,6 +71,20 @@ export function DrinkCard({ card, nowMs, targetSeconds, keyNumber, busy, onStart
           .join(' · ')}
       </p>
       {card.note && <p className="mt-1 text-xl font-semibold text-alert-ink">Note: {card.note}</p>}
+      {allergy && (
+        <div data-testid="allergy" className="mt-2 rounded-lg border-2 border-alert-ink p-2 text-alert-ink">
+          <p className="text-xl font-semibold">
+            ⚠ ALLERGY: {[...card.allergens, card.allergyNote].filter(Boolean).join(' · ')}
+          </p>
+          {unread ? (
+            <Button tone="dark" className="mt-2 w-full border-alert-ink text-alert-ink" disabled={busy} onClick={onAcknowledge}>
+              I have read the allergy
+            </Button>
+          ) : (
+            <p className="text-base">Read by {card.allergyAckBy ?? 'the bar'} — clean wand, jug and cup</p>
+          )}
+        </div>
+      )}
       <div className="mt-3 flex items-center gap-3">
         <PourLine ageSeconds={age} targetSeconds={targetSeconds} />
         <span data-testid="age" className={cn('shrink-0 font-display text-4xl font-semibold', late && 'underline decoration-4')}>
@@ -71,9 +101,21 @@ export function DrinkCard({ card, nowMs, targetSeconds, keyNumber, busy, onStart
             Making
           </span>
         )}
-        <Button tone="bump" size="lg" className="flex-[2]" disabled={busy} onClick={onBump}>
+        <Button
+          tone="bump"
+          size="lg"
+          className="flex-[2]"
+          disabled={busy || unread}
+          title={unread ? 'Read the allergy first' : undefined}
+          onClick={onBump}
+        >
           Bump ✓
         </Button>
+        {canRush && !card.rushedAt && (
+          <Button tone="dark" size="lg" disabled={busy} onClick={onRush}>
+            Rush
+          </Button>
+        )}
       </div>
     </article>
   );

@@ -1,43 +1,65 @@
-import type { Lane } from '../../domain/lanes';
+import { describeBatch } from '../../domain/jug-plan';
+import type { PlannedLane } from '../../domain/lanes';
+import { Button } from '../../components/ui/button';
 
-/** Cold milk the lane's hot drinks need in total; the jug plan will split it into pitchers. */
-export function laneColdMilkMl(lane: Lane): number {
-  return lane.groups
-    .flatMap((g) => g.drinks)
-    .filter((d) => d.texture !== 'cold')
-    .reduce((sum, d) => sum + d.milkMl, 0);
+export const grams = (dg: number) => `${(dg / 10).toFixed(dg % 10 === 0 ? 0 : 1)} g`;
+
+interface Props {
+  lane: PlannedLane;
+  busy: boolean;
+  onStartBatch(drinkIds: number[]): void;
+  onBumpBatch(drinkIds: number[]): void;
+  children: (group: PlannedLane['groups'][number]) => React.ReactNode;
 }
 
-export function laneShots(lane: Lane): number {
-  return lane.groups.flatMap((g) => g.drinks).reduce((sum, d) => sum + d.shots, 0);
-}
-
-export function LaneColumn({ lane, children }: { lane: Lane; children: (group: Lane['groups'][number]) => React.ReactNode }) {
-  const milkMl = laneColdMilkMl(lane);
-  const shots = laneShots(lane);
+/** A milk lane: its name and badge, its jug plan and shot plan, then its drinks by shot count. */
+export function LaneColumn({ lane, busy, onStartBatch, onBumpBatch, children }: Props) {
+  const [first, ...rest] = lane.jugPlan;
+  const name = lane.milk?.name ?? 'No milk';
   return (
     <section
       data-testid="lane"
-      data-lane={lane.milk?.name ?? 'No milk'}
-      aria-label={`${lane.milk?.name ?? 'No milk'} lane`}
+      data-lane={name}
+      aria-label={`${name} lane`}
       className="flex w-[27rem] shrink-0 flex-col rounded-2xl bg-roast-850 p-3"
     >
-      <header className="flex items-center gap-3 border-b border-crema-300/30 pb-2">
-        <span className="grid size-12 place-items-center rounded-lg border-2 border-crema-100 font-display text-2xl font-semibold">
-          {lane.milk?.code ?? '—'}
-        </span>
-        <h2 className="font-display text-4xl font-semibold uppercase tracking-wide">{lane.milk?.name ?? 'No milk'}</h2>
-        <span className="ml-auto text-right text-lg leading-tight text-crema-300">
-          {lane.drinkCount} drink{lane.drinkCount === 1 ? '' : 's'}
-          <br />
-          {shots} shot{shots === 1 ? '' : 's'}
-          {milkMl > 0 ? ` · ${milkMl} ml milk` : ''}
-        </span>
+      <header className="border-b border-crema-300/30 pb-2">
+        <div className="flex items-center gap-3">
+          <span className="grid size-12 place-items-center rounded-lg border-2 border-crema-100 font-display text-2xl font-semibold">
+            {lane.milk?.code ?? '—'}
+          </span>
+          <h2 className="font-display text-4xl font-semibold tracking-wide uppercase">{name}</h2>
+          <span data-testid="shot-plan" className="ml-auto text-right text-lg leading-tight text-crema-300">
+            {lane.drinkCount} drink{lane.drinkCount === 1 ? '' : 's'}
+            <br />
+            {lane.shotPlan.shots} shot{lane.shotPlan.shots === 1 ? '' : 's'} · {grams(lane.shotPlan.doseDg)}
+          </span>
+        </div>
+        {first && (
+          <div data-testid="jug-plan" className="mt-2 rounded-lg bg-roast-750 p-2">
+            <p className="text-xl font-semibold">
+              <span className="text-crema-300">Jug 1:</span> {describeBatch(first)}
+            </p>
+            <div className="mt-2 flex gap-2">
+              <Button tone="dark" className="flex-1" disabled={busy} onClick={() => onStartBatch(first.drinkIds)}>
+                Start jug 1
+              </Button>
+              <Button tone="bump" className="flex-1" disabled={busy} onClick={() => onBumpBatch(first.drinkIds)}>
+                Bump jug 1
+              </Button>
+            </div>
+            {rest.map((b, i) => (
+              <p key={i} className="mt-1 text-lg text-crema-300">
+                Jug {i + 2}: {describeBatch(b)}
+              </p>
+            ))}
+          </div>
+        )}
       </header>
       <div className="mt-2 flex flex-col gap-3 overflow-y-auto">
         {lane.groups.map((group) => (
           <div key={group.shots} data-testid="shot-group" data-shots={group.shots}>
-            <h3 className="mb-2 text-lg font-semibold uppercase tracking-widest text-crema-300">
+            <h3 className="mb-2 text-lg font-semibold tracking-widest text-crema-300 uppercase">
               {group.shots === 0 ? 'No shots' : `${group.shots} shot${group.shots > 1 ? 's' : ''}`}
             </h3>
             <div className="flex flex-col gap-3">{children(group)}</div>

@@ -1,0 +1,55 @@
+// The bar's keyboard, as a bump bar: 1–9 bump the Nth card, arrows move a focus ring, Enter bumps
+// the focused card, S starts it, A acknowledges its allergy, R recalls the last bump.
+import { useEffect } from 'react';
+import { needsAllergyAck, type DrinkCard } from '../../domain/lanes';
+import type { BarCommand } from './commands';
+
+interface Options {
+  cards: DrinkCard[];
+  focusId: number | null;
+  setFocusId(id: number | null): void;
+  run(c: BarCommand): void;
+  recallLast: number | null;
+}
+
+export function useBumpKeys({ cards, focusId, setFocusId, run, recallLast }: Options) {
+  useEffect(() => {
+    const onKey = (e: KeyboardEvent) => {
+      if (e.altKey || e.ctrlKey || e.metaKey || (e.target as HTMLElement | null)?.closest('input, textarea, select')) return;
+      const at = cards.findIndex((c) => c.id === focusId);
+      const focused = at >= 0 ? cards[at] : undefined;
+      const bump = (card: DrinkCard | undefined) => {
+        if (!card) return;
+        run(needsAllergyAck(card) ? { kind: 'acknowledge-allergy', id: card.id } : { kind: 'bump-drink', id: card.id });
+      };
+      const n = Number(e.key);
+      if (n >= 1 && n <= 9) return bump(cards[n - 1]);
+      switch (e.key) {
+        case 'ArrowDown':
+        case 'ArrowRight':
+          e.preventDefault();
+          return setFocusId(cards[Math.min(cards.length - 1, at + 1)]?.id ?? null);
+        case 'ArrowUp':
+        case 'ArrowLeft':
+          e.preventDefault();
+          return setFocusId(cards[Math.max(0, at - 1)]?.id ?? null);
+        case 'Enter':
+          return bump(focused);
+        case 's':
+        case 'S':
+          if (focused?.status === 'queued') run({ kind: 'start-drink', id: focused.id });
+          return;
+        case 'a':
+        case 'A':
+          if (focused && needsAllergyAck(focused)) run({ kind: 'acknowledge-allergy', id: focused.id });
+          return;
+        case 'r':
+        case 'R':
+          if (recallLast !== null) run({ kind: 'recall-ticket', id: recallLast });
+          return;
+      }
+    };
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [cards, focusId, setFocusId, run, recallLast]);
+}
