@@ -104,3 +104,22 @@ test('the receipt and cup labels print what was ordered, with the allergy', asyn
   expect(missing?.status()).toBe(404);
   for (const page of [counter, labels]) expect(errorsOf(page)).toEqual([]);
 });
+
+test("an item the lead 86'd greys out on an open Counter at once, and comes back", async ({ browser, playwright, baseURL }) => {
+  const counter = await pageAs(browser, 'cashier', '/counter', { width: 1280, height: 900 });
+  await expect(counter.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
+  const mocha = counter.getByRole('button', { name: /^Mocha/ });
+  await expect(mocha).toBeEnabled();
+
+  const lead = await playwright.request.newContext({ baseURL });
+  await lead.post('/api/session', { data: { username: 'lead', password: 'jugline-demo' } });
+  const menu = await (await lead.get('/api/menu')).json();
+  const id = menu.items.find((i: { name: string }) => i.name === 'Mocha').id;
+  expect((await lead.post(`/api/menu/items/${id}/availability`, { data: { available: false } })).status()).toBe(200);
+  await expect(mocha).toBeDisabled();
+  await expect(mocha).toContainText("86'd");
+  expect((await lead.post(`/api/menu/items/${id}/availability`, { data: { available: true } })).status()).toBe(200);
+  await expect(mocha).toBeEnabled();
+  await lead.dispose();
+  expect(errorsOf(counter)).toEqual([]);
+});

@@ -9,6 +9,7 @@
 // - the jug is steamed for the foamiest texture in it and poured thinnest first (flat, then
 //   silky, then foamy), since the foam rises to the top as the jug empties;
 // - iced drinks take cold milk straight from the fridge: no jug.
+// Drinks already started stay in the plan: a jug being steamed stays "Jug 1" until it is bumped.
 import type { Texture } from './types';
 
 export interface Pitcher {
@@ -71,7 +72,7 @@ export function planJugs(drinks: JugDrink[], pitchers: Pitcher[], wasteMl: numbe
   });
 }
 
-/** "600 ml pitcher · pour 340 ml · 3 drinks" */
+/** "600 ml pitcher · pour 340 ml · 3 drinks · steam silky" */
 export function describeBatch(b: JugBatch): string {
   const n = b.drinkIds.length;
   return `${b.pitcher.capacityMl} ml pitcher · pour ${b.coldMl} ml · ${n} drink${n === 1 ? '' : 's'} · steam ${b.steamFor}`;

@@ -71,7 +71,7 @@ export function groupIntoLanes(tickets: TicketView[]): Lane[] {
     const groups = [...byShots.entries()]
       .sort(([a], [b]) => a - b)
       .map(([shots, drinks]) => ({ shots, drinks }));
-    result.push({ key, milk, groups, drinkCount: cards.length, oldestFiredAt: cards[0].firedAt });
+    result.push({ key, milk, groups, drinkCount: cards.length, oldestFiredAt: cards.reduce((m, c) => (c.firedAt < m ? c.firedAt : m), cards[0].firedAt) });
   }
   // Widest lane first, so the milk with the most drinks waiting gets the most room;
   // on a tie the lane holding the oldest ticket goes first.

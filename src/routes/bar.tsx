@@ -75,6 +75,7 @@ function Bar() {
           <LaneColumn
             key={lane.key}
             lane={lane}
+            narrow={plan.lanes.length > 4}
             busy={command.isPending}
             onStartBatch={(drinkIds) =>
               command.mutate({ kind: 'start-batch', drinkIds: drinkIds.filter((id) => cards.find((c) => c.id === id)?.status === 'queued') })

@@ -138,6 +138,22 @@ describe('groupIntoLanes', () => {
     expect(card.allergyNote).toBe('EpiPen on file');
   });
 
+  it("keeps a lane's oldest ticket time when a newer ticket in it is rushed", () => {
+    const lanes = groupIntoLanes([
+      // Oat: a ticket from 08:00 and a newer one (08:09) rushed to the front at 08:10.
+      ticket(1, '2025-03-01T08:00:00.000Z', [drink(1, OAT, 2)]),
+      { ...ticket(2, '2025-03-01T08:09:00.000Z', [drink(2, OAT, 2)]), rushedAt: '2025-03-01T08:10:00.000Z' },
+      // Whole: two drinks on one ticket from 08:05.
+      ticket(3, '2025-03-01T08:05:00.000Z', [drink(3, WHOLE, 2), drink(3, WHOLE, 2)]),
+    ]);
+    // The rushed card leads the oat lane, but the lane's oldest ticket is still 08:00.
+    const oat = lanes.find((l) => l.key === 'milk:7')!;
+    expect(oat.groups[0].drinks.map((d) => d.ticketId)).toEqual([2, 1]);
+    expect(oat.oldestFiredAt).toBe('2025-03-01T08:00:00.000Z');
+    // Both lanes hold two drinks; oat's oldest ticket (08:00) is older than whole's (08:05).
+    expect(lanes.map((l) => l.key)).toEqual(['milk:7', 'milk:3']);
+  });
+
   it('returns no lanes for no open drinks', () => {
     expect(groupIntoLanes([])).toEqual([]);
     expect(groupIntoLanes([ticket(1, '2025-03-01T08:00:00.000Z', [])])).toEqual([]);

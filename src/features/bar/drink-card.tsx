@@ -77,7 +77,7 @@ export function DrinkCard({ card, nowMs, targetSeconds, keyNumber, jugLabel, foc
             ⚠ ALLERGY: {[...card.allergens, card.allergyNote].filter(Boolean).join(' · ')}
           </p>
           {unread ? (
-            <Button tone="dark" className="mt-2 w-full border-alert-ink text-alert-ink" disabled={busy} onClick={onAcknowledge}>
+            <Button tone="dark" size="lg" className="mt-2 w-full border-alert-ink text-alert-ink" disabled={busy} onClick={onAcknowledge}>
               I have read the allergy
             </Button>
           ) : (

@@ -6,6 +6,8 @@ export const grams = (dg: number) => `${(dg / 10).toFixed(dg % 10 === 0 ? 0 : 1)
 
 interface Props {
   lane: PlannedLane;
+  /** Narrower lanes when there are many, so five milks fit a 1920 px screen. */
+  narrow?: boolean;
   busy: boolean;
   onStartBatch(drinkIds: number[]): void;
   onBumpBatch(drinkIds: number[]): void;
@@ -13,7 +15,7 @@ interface Props {
 }
 
 /** A milk lane: its name and badge, its jug plan and shot plan, then its drinks by shot count. */
-export function LaneColumn({ lane, busy, onStartBatch, onBumpBatch, children }: Props) {
+export function LaneColumn({ lane, narrow, busy, onStartBatch, onBumpBatch, children }: Props) {
   const [first, ...rest] = lane.jugPlan;
   const name = lane.milk?.name ?? 'No milk';
   return (
@@ -21,7 +23,7 @@ export function LaneColumn({ lane, busy, onStartBatch, onBumpBatch, children }: 
       data-testid="lane"
       data-lane={name}
       aria-label={`${name} lane`}
-      className="flex w-[27rem] shrink-0 flex-col rounded-2xl bg-roast-850 p-3"
+      className={`flex ${narrow ? 'w-[22.5rem]' : 'w-[27rem]'} shrink-0 flex-col rounded-2xl bg-roast-850 p-3`}
     >
       <header className="border-b border-crema-300/30 pb-2">
         <div className="flex items-center gap-3">
@@ -48,11 +50,12 @@ export function LaneColumn({ lane, busy, onStartBatch, onBumpBatch, children }: 
                 Bump jug 1
               </Button>
             </div>
-            {rest.map((b, i) => (
-              <p key={i} className="mt-1 text-lg text-crema-300">
-                Jug {i + 2}: {describeBatch(b)}
+            {rest[0] && (
+              <p className="mt-1 text-lg text-crema-300">
+                Jug 2: {describeBatch(rest[0])}
+                {rest.length > 1 ? ` · then ${rest.length - 1} more jug${rest.length > 2 ? 's' : ''}` : ''}
               </p>
-            ))}
+            )}
           </div>
         )}
       </header>
