@@ -40,7 +40,7 @@ test('card, decline and cash at the Counter', async ({ browser }) => {
   await expect(lead.getByText(new RegExp(`#${number}`)).first()).toBeVisible();
 
   // A card that is declined: a clear message, and nothing on the bar
-  await counter.getByRole('button', { name: 'OK' }).click();
+  await counter.getByRole('button', { name: 'OK', exact: true }).click();
   await counter.getByRole('tab', { name: 'Espresso' }).click();
   await counter.getByRole('button', { name: /^Espresso/ }).click();
   await counter.getByRole('button', { name: /Add to order/ }).click();
@@ -60,7 +60,7 @@ test('card, decline and cash at the Counter', async ({ browser }) => {
 
   // Cash with change: a small whole-milk latte, $4.80 + 8.25 % tax = $5.20 (0.396 rounds up,
   // Streamlined Sales and Use Tax Agreement §324); $20.00 tendered → $14.80 change
-  await counter.getByRole('button', { name: 'OK' }).click();
+  await counter.getByRole('button', { name: 'OK', exact: true }).click();
   await counter.getByRole('button', { name: /^Latte/ }).click();
   await counter.getByRole('radio', { name: /Small/ }).click();
   await counter.getByRole('button', { name: /Add to order/ }).click();
