@@ -27,6 +27,7 @@ export async function up(knex: Knex): Promise<void> {
     t.integer('location_id').notNullable().references('locations.id');
     t.string('username', 64).notNullable().unique();
     t.string('name', 80).notNullable();
+    t.string('email', 254); // where the owner gets shift reports
     t.string('role', 10).notNullable().checkIn(['cashier', 'barista', 'lead', 'owner']);
     t.string('password_hash').notNullable();
     t.boolean('active').notNullable().defaultTo(true);

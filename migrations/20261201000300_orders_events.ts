@@ -62,6 +62,7 @@ export async function up(knex: Knex): Promise<void> {
     t.string('allergy_ack_at');
     t.integer('allergy_ack_by').references('users.id');
     t.string('started_at');
+    t.integer('started_by').references('users.id');
     t.string('done_at');
     t.integer('done_by').references('users.id');
     // Bumps are numbered in order; drinks bumped by one command share the number, so a recall

@@ -6,7 +6,7 @@ import { hashPassword, verifyPassword } from '../server/auth/passwords';
 export const DEMO_PASSWORD = 'jugline-demo';
 
 export const DEMO_STAFF = [
-  { username: 'owner', name: 'Mara Quill', role: 'owner' },
+  { username: 'owner', name: 'Mara Quill', role: 'owner', email: 'mara@harbour-hearth.example' },
   { username: 'lead', name: 'Theo Brand', role: 'lead' },
   { username: 'cashier', name: 'Priya Onslow', role: 'cashier' },
   { username: 'barista', name: 'Jonah Reyes', role: 'barista' },
@@ -140,6 +140,7 @@ export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: nu
         username: s.username,
         name: s.name,
         role: s.role,
+        email: 'email' in s ? s.email : null,
         password_hash: hashes[i],
         created_at: createdAt,
       })),

@@ -8,6 +8,8 @@ import { createInProcessHub, type Hub } from './realtime/hub';
 import { mountRoutes, type ApiRoute } from './routes/define';
 import { mailRoutes } from './routes/mail';
 import { orderRoutes, WEBHOOK_PATH } from './routes/orders';
+import { reportRoutes } from './routes/reports';
+import { shiftRoutes } from './routes/shifts';
 import { sessionRoutes } from './routes/session';
 import { ticketRoutes } from './routes/tickets';
 import type { Clock, Deps } from './services/deps';
@@ -43,6 +45,7 @@ export function createApp(opts: AppOptions): App {
     clock: opts.clock ?? (() => new Date()),
     hub: opts.hub ?? createInProcessHub(),
     payments: opts.payments ?? null,
+    mailer: opts.mailer ?? null,
   };
   const app = express();
   app.disable('x-powered-by');
@@ -52,7 +55,7 @@ export function createApp(opts: AppOptions): App {
     cleanupIntervalMs: opts.sessionCleanupIntervalMs,
   });
   const passport = createPassport(opts.db);
-  const routes = [...sessionRoutes(passport), ...orderRoutes(deps), ...ticketRoutes(deps)];
+  const routes = [...sessionRoutes(passport), ...orderRoutes(deps), ...ticketRoutes(deps), ...shiftRoutes(deps), ...reportRoutes(deps)];
   if (opts.mailer) routes.push(...mailRoutes(deps, opts.mailer));
 
   // The payment webhook is verified against its exact bytes, so it alone keeps a raw body.

@@ -2,6 +2,7 @@
 import type { Knex } from 'knex';
 import type { PaymentGateway } from '../payments/gateway';
 import type { Hub } from '../realtime/hub';
+import type { Mailer } from './mail';
 
 export type Clock = () => Date;
 
@@ -11,4 +12,6 @@ export interface Deps {
   hub: Hub;
   /** Card payments; null where no card service is set up (cash only). */
   payments: PaymentGateway | null;
+  /** Outgoing mail (receipts, shift reports); null where none is set up. */
+  mailer: Mailer | null;
 }

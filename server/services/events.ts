@@ -1,7 +1,7 @@
 // The events table is the realtime log: appended inside each command's transaction, published
 // after commit, replayed to screens that resume.
 import type { Knex } from 'knex';
-import type { AnyLiveEvent, MenuEvent, TicketEventType, TicketView } from '../../src/domain/types';
+import type { AnyLiveEvent, MenuEvent, ShiftView, TicketEventType, TicketView } from '../../src/domain/types';
 import type { Deps } from './deps';
 
 export interface PendingEvent {
@@ -26,6 +26,17 @@ export async function appendEvent(
 ): Promise<PendingEvent> {
   const seq = await insertEvent(trx, locationId, type, { ticket }, at, actorId);
   return { locationId, event: { seq, type, at, ticket } };
+}
+
+export async function appendShiftEvent(
+  trx: Knex.Transaction,
+  locationId: number,
+  shift: ShiftView,
+  at: string,
+  actorId: number | null,
+): Promise<PendingEvent> {
+  const seq = await insertEvent(trx, locationId, 'shift.changed', { shift }, at, actorId);
+  return { locationId, event: { seq, type: 'shift.changed', at, shift } };
 }
 
 export async function appendMenuEvent(

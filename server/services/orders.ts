@@ -99,11 +99,13 @@ async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody,
       .first();
     const barDrinks = lines.filter((l) => l.station === 'bar').length;
     const quote = await quoteForNewOrder(trx, user.locationId, barDrinks, menu.location.baristasOnBar);
+    const shift = await trx('shifts').where({ location_id: user.locationId }).whereNull('closed_at').first('id');
     // An order of counter items only is handed over at the till once paid.
     const firedStatus = barDrinks > 0 ? 'open' : 'collected';
     const [{ id: orderId }] = await trx('orders')
       .insert({
         location_id: user.locationId,
+        shift_id: shift?.id ?? null,
         client_order_id: body.clientOrderId,
         business_date: day,
         number: (last?.n ?? 0) + 1,

@@ -12,8 +12,9 @@ export function acknowledgeAllergy(deps: Deps, user: SessionUser, drinkId: numbe
     const drink = await trx('order_items')
       .join('orders', 'orders.id', 'order_items.order_id')
       .where({ 'order_items.id': drinkId, 'orders.location_id': user.locationId, 'order_items.station': 'bar' })
-      .first('order_items.id', 'order_items.order_id', 'order_items.allergy_ack_at', 'orders.allergens', 'orders.allergy_note');
+      .first('order_items.id', 'order_items.order_id', 'order_items.allergy_ack_at', 'orders.allergens', 'orders.allergy_note', 'orders.status');
     if (!drink) throw notFound('Drink');
+    if (drink.status !== 'open') throw conflict('This drink is not on an open ticket');
     if (json<string[]>(drink.allergens, []).length === 0 && !drink.allergy_note) throw conflict('This drink has no allergy to acknowledge');
     if (drink.allergy_ack_at) throw conflict('This allergy was already acknowledged');
     const at = deps.clock().toISOString();

@@ -93,7 +93,7 @@ export function startDrinks(deps: Deps, user: SessionUser, drinkIds: number[]) {
     const busy = rows.find((r) => r.status !== 'queued');
     if (busy) throw conflict(`Drink ${busy.id} is already ${busy.status === 'done' ? 'done' : 'being made'}`);
     const at = deps.clock().toISOString();
-    await trx('order_items').whereIn('id', drinkIds).andWhere({ status: 'queued' }).update({ status: 'making', started_at: at });
+    await trx('order_items').whereIn('id', drinkIds).andWhere({ status: 'queued' }).update({ status: 'making', started_at: at, started_by: user.id });
     const { tickets, events } = await ticketEvents(trx, user, rows.map((r) => r.order_id), 'drink.started', at);
     return { result: tickets, events };
   });

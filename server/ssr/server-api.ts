@@ -7,6 +7,7 @@ import type { Deps } from '../services/deps';
 import { outboxView } from '../services/mail';
 import { loadMenu } from '../services/menu';
 import { findOrderInLocation, listOrders, loadOrder } from '../services/orders';
+import { pulse } from '../services/pulse';
 import { boardSnapshot } from '../services/tickets';
 
 export function serverApi(deps: Deps, user: SessionUser | undefined): Api {
@@ -24,6 +25,7 @@ export function serverApi(deps: Deps, user: SessionUser | undefined): Api {
     tickets: () => boardSnapshot(deps, locationId()),
     pickup: async () => pickupView(await boardSnapshot(deps, locationId())),
     outbox: () => outboxView(deps.db, locationId()),
+    pulse: () => pulse(deps, locationId()),
     orders: async (q) => ({ orders: await listOrders(deps, signedIn(), q, 100) }),
     order: async (id) => {
       if (!(await findOrderInLocation(deps.db, signedIn(), id))) throw new HttpError(404, 'not_found', 'Order not found');

@@ -15,6 +15,9 @@ export const CAPABILITIES = {
   eightySix: ['lead', 'owner'],
   rushTickets: ['lead', 'owner'],
   handOver: ['cashier', 'barista', 'lead', 'owner'],
+  viewPulse: ['lead', 'owner'],
+  viewReports: ['lead', 'owner'],
+  runShifts: ['lead', 'owner'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Capability = keyof typeof CAPABILITIES;
@@ -28,6 +31,6 @@ export function can(role: Role | undefined | null, capability: Capability): bool
 export const HOME_SCREEN: Record<Role, string> = {
   cashier: '/counter',
   barista: '/bar',
-  lead: '/bar',
+  lead: '/pulse',
   owner: '/counter',
 };

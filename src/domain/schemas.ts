@@ -1,6 +1,7 @@
 // Request bodies, query strings and socket messages, written once and used by both the forms
 // and the server routes.
 import { z } from 'zod';
+import { TICKET_SORTS } from './reports';
 
 export const signInBody = z.object({
   username: z.string().trim().min(1, 'Enter your sign-in name').max(64),
@@ -104,3 +105,59 @@ export const receiptEmailBody = z.object({
   email: z.email('Enter an e-mail address like name@example.com').max(254),
 });
 export type ReceiptEmailBody = z.infer<typeof receiptEmailBody>;
+
+export const openShiftBody = z.object({
+  openingFloatCents: z.number().int().min(0).max(1_000_000),
+  baristasOnBar: z.number().int().min(1).max(20),
+  waitTargetSeconds: z.number().int().min(60).max(3600),
+});
+
+export const baristasBody = z.object({ baristasOnBar: z.number().int().min(1).max(20) });
+
+export const closeShiftBody = z.object({
+  countedCashCents: z.number().int().min(0).max(10_000_000),
+  note: z.string().trim().max(200).optional(),
+});
+
+/** A café-local calendar date, YYYY-MM-DD, that exists on the calendar. */
+export const calendarDate = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-03-02')
+  .refine((d) => {
+    const t = Date.parse(`${d}T00:00:00Z`);
+    return Number.isFinite(t) && new Date(t).toISOString().slice(0, 10) === d;
+  }, 'There is no such date');
+
+const fromNotAfterTo = (r: { from?: string; to?: string }) => !r.from || !r.to || r.from <= r.to;
+const rangeOrder = { message: 'The range ends before it starts', path: ['to'] };
+
+/** GET /api/reports/range and range.csv: both days included. */
+export const reportRangeQuery = z.object({ from: calendarDate, to: calendarDate }).refine(fromNotAfterTo, rangeOrder);
+
+const ticketFilterFields = {
+  from: calendarDate.optional(),
+  to: calendarDate.optional(),
+  /** part of a name, or a ticket number; empty means no search */
+  q: z
+    .string()
+    .trim()
+    .max(40)
+    .optional()
+    .transform((q) => q || undefined),
+  status: z.enum(['pending', 'open', 'ready', 'collected', 'void']).optional(),
+  sort: z.enum(TICKET_SORTS).default('createdAt'),
+  dir: z.enum(['asc', 'desc']).default('desc'),
+};
+
+/** GET /api/reports/tickets: filtered, sorted and paged on the server. */
+export const ticketHistoryQuery = z
+  .object({
+    ...ticketFilterFields,
+    page: z.coerce.number().int().min(1).max(100_000).default(1),
+    pageSize: z.coerce.number().int().min(1).max(200).default(25),
+  })
+  .refine(fromNotAfterTo, rangeOrder);
+export type TicketHistoryQuery = z.infer<typeof ticketHistoryQuery>;
+
+/** GET /api/reports/tickets.csv: the same filter and order, every matching row. */
+export const ticketCsvQuery = z.object(ticketFilterFields).refine(fromNotAfterTo, rangeOrder);

@@ -206,7 +206,7 @@ export const TICKET_EVENT_TYPES = [
   'drink.allergy_acknowledged',
 ] as const;
 export type TicketEventType = (typeof TICKET_EVENT_TYPES)[number];
-export type EventType = TicketEventType | 'menu.availability';
+export type EventType = TicketEventType | 'menu.availability' | 'shift.changed';
 
 /** One row of the realtime log about a ticket; `seq` is its id and strictly increases. */
 export interface LiveEvent {
@@ -224,9 +224,31 @@ export interface MenuEvent {
   item: { id: number; available: boolean };
 }
 
-export type AnyLiveEvent = LiveEvent | MenuEvent;
+export interface ShiftView {
+  id: number;
+  openedAt: string;
+  openedBy: string;
+  openingFloatCents: number;
+  baristasOnBar: number;
+  waitTargetSeconds: number;
+  closedAt: string | null;
+  closedBy: string | null;
+  expectedCashCents: number | null;
+  countedCashCents: number | null;
+  closeNote: string | null;
+}
 
-export const isTicketEvent = (e: AnyLiveEvent): e is LiveEvent => e.type !== 'menu.availability';
+/** A shift was opened, changed (baristas on bar) or closed. */
+export interface ShiftEvent {
+  seq: number;
+  type: 'shift.changed';
+  at: string;
+  shift: ShiftView;
+}
+
+export type AnyLiveEvent = LiveEvent | MenuEvent | ShiftEvent;
+
+export const isTicketEvent = (e: AnyLiveEvent): e is LiveEvent => e.type !== 'menu.availability' && e.type !== 'shift.changed';
 
 export interface BoardSnapshot {
   seq: number;

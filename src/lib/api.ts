@@ -1,6 +1,7 @@
 // What screens read, as one interface: over HTTP in the browser, straight from the services
 // during server rendering (so a page render makes no network round trip).
 import type { OutboxView } from '../domain/outbox';
+import type { PulseView } from '../domain/pulse';
 import type { Role } from '../domain/roles';
 import type { BoardSnapshot, MenuView, OrderView } from '../domain/types';
 import { http } from './http';
@@ -19,6 +20,8 @@ export interface Api {
   /** Today's orders, newest first; `q` matches a name or number. */
   orders(q?: string): Promise<{ orders: OrderView[] }>;
   order(id: number): Promise<{ order: OrderView }>;
+  /** The shift lead's live numbers. */
+  pulse(): Promise<PulseView>;
   /** Mail the local SMTP fake caught for this café, newest first. */
   outbox(): Promise<OutboxView>;
 }
@@ -31,4 +34,5 @@ export const httpApi: Api = {
   outbox: () => http('GET', '/outbox'),
   orders: (q) => http('GET', `/orders${q ? `?q=${encodeURIComponent(q)}` : ''}`),
   order: (id) => http('GET', `/orders/${id}`),
+  pulse: () => http('GET', '/pulse'),
 };

@@ -10,6 +10,7 @@ import { counterRoute } from './counter';
 import { outboxRoute } from './outbox';
 import { labelsRoute } from './labels';
 import { pickupRoute } from './pickup';
+import { pulseRoute } from './pulse';
 import { receiptRoute } from './receipt';
 import { signInRoute } from './signin';
 import type { RouteDeps } from './deps';
@@ -38,6 +39,7 @@ export function createRoutes(deps: RouteDeps): RouteObject[] {
         { id: 'counter', path: 'counter', ...counterRoute(deps) },
         { id: 'bar', path: 'bar', ...barRoute(deps) },
         { id: 'pickup', path: 'pickup', ...pickupRoute(deps) },
+        { id: 'pulse', path: 'pulse', ...pulseRoute(deps) },
         { id: 'receipt', path: 'receipts/:id', ...receiptRoute(deps) },
         { id: 'labels', path: 'labels/:id', ...labelsRoute(deps) },
         { id: 'outbox', path: 'outbox', ...outboxRoute(deps) },

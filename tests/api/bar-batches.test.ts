@@ -339,10 +339,12 @@ describe('POST /api/drinks/start and /api/drinks/bump (batches)', () => {
   });
 
   it('two baristas bumping overlapping batches at once: one 200, one 409, each drink done once', async () => {
-    const a = await place('Rosalind Thorne', [{ menuItemId: ids.item('Latte') }, { menuItemId: ids.item('Flat white') }]);
-    const b = await place('Silas Merrow', [{ menuItemId: ids.item('Cappuccino') }]);
-    const [x, y] = await drinkIdsOf(a);
-    const [z] = await drinkIdsOf(b);
+    // Each ticket keeps a drink outside both batches, so both stay open whichever batch wins and
+    // the loser is refused for the drink already bumped, not for a ticket gone ready.
+    const a = await place('Rosalind Thorne', [{ menuItemId: ids.item('Latte') }, { menuItemId: ids.item('Flat white') }, { menuItemId: ids.item('Espresso') }]);
+    const b = await place('Silas Merrow', [{ menuItemId: ids.item('Cappuccino') }, { menuItemId: ids.item('Long black') }]);
+    const [x, y, aRest] = await drinkIdsOf(a);
+    const [z, bRest] = await drinkIdsOf(b);
     tick();
     const since = await maxEventId();
     // Both batches name y.
@@ -354,12 +356,14 @@ describe('POST /api/drinks/start and /api/drinks/bump (batches)', () => {
     expect([one.status, two.status].sort()).toEqual([200, 409]);
     const firstWon = one.status === 200;
     const [winner, loser] = firstWon ? [one, two] : [two, one];
-    expect(loser.body.error).toMatchObject({ code: 'conflict' });
+    expect(loser.body.error).toMatchObject({ code: 'conflict', message: expect.stringMatching(/already bumped/) });
     const [winnerId, won, lost] = firstWon ? [baristaId, [x, y], z] : [barista2Id, [y, z], x];
 
     for (const id of won) expect(await drinkRow(id)).toMatchObject({ status: 'done', done_by: winnerId, done_at: nowIso() });
     // The loser's other drink was not touched.
-    expect(await drinkRow(lost)).toMatchObject({ status: 'queued', started_at: null, done_at: null, done_by: null });
+    for (const id of [lost, aRest, bRest]) expect(await drinkRow(id)).toMatchObject({ status: 'queued', started_at: null, done_at: null, done_by: null });
+    expect(await orderRow(a)).toMatchObject({ status: 'open' });
+    expect(await orderRow(b)).toMatchObject({ status: 'open' });
 
     const events = await eventsAfter(since);
     const expectedTickets = firstWon ? [a] : [a, b];

@@ -1,0 +1,51 @@
+// Pulse: a lead opens a shift, orders flow and the numbers move live, the shift closes with a
+// cash count, and the shift report reaches the owner's mail (the Outbox).
+import { request as apiRequest } from '@playwright/test';
+import { DEMO_PASSWORD, errorsOf, expect, pageAs, test } from './fixtures';
+
+test('a shift on Pulse: open, live numbers, close with a count, report mailed', async ({ browser, baseURL }) => {
+  const pulse = await pageAs(browser, 'lead', '/pulse', { width: 1440, height: 1200 });
+  await expect(pulse.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
+  await pulse.evaluate(() => ((window as unknown as { marker: number }).marker = 5));
+
+  const openForm = pulse.getByRole('form', { name: 'Open a shift' });
+  await openForm.getByLabel('Cash float ($)').fill('150.00');
+  await openForm.getByRole('button', { name: 'Open shift' }).click();
+  await expect(pulse.getByRole('region', { name: 'Shift' })).toContainText('Shift open since');
+  await pulse.getByRole('tab', { name: 'This shift' }).click();
+  const done = pulse.getByTestId('pulse-number').filter({ hasText: 'Tickets done' });
+  await expect(done).toContainText('0');
+
+  const cashier = await apiRequest.newContext({ baseURL });
+  await cashier.post('/api/session', { data: { username: 'cashier', password: DEMO_PASSWORD } });
+  const barista = await apiRequest.newContext({ baseURL });
+  await barista.post('/api/session', { data: { username: 'barista', password: DEMO_PASSWORD } });
+  const menu = await (await cashier.get('/api/menu')).json();
+  const latte = menu.items.find((i: { name: string }) => i.name === 'Latte').id;
+  const ids: number[] = [];
+  for (const name of ['Nell Prior', 'Oren Kade', 'Pax Ruiz']) {
+    const res = await cashier.post('/api/orders', {
+      data: { clientOrderId: crypto.randomUUID(), customerName: name, items: [{ menuItemId: latte }], payment: { method: 'cash', tenderedCents: 1000 } },
+    });
+    ids.push((await res.json()).order.id);
+  }
+  await expect(pulse.getByRole('table').filter({ hasText: 'Open tickets' })).toContainText('Pax Ruiz');
+  for (const id of ids.slice(0, 2)) expect((await barista.post(`/api/tickets/${id}/bump`)).status()).toBe(200);
+  await expect(done).toContainText('2'); // moved live
+  expect(await pulse.evaluate(() => (window as unknown as { marker?: number }).marker)).toBe(5);
+  await expect(pulse.getByTestId('staffing')).not.toBeEmpty();
+  await pulse.screenshot({ path: 'docs/screenshots/pulse.png', fullPage: true });
+
+  const expected = (await pulse.getByTestId('expected-cash').textContent())!.replace(/[$,]/g, '');
+  const closeForm = pulse.getByRole('form', { name: 'Close the shift' });
+  await closeForm.getByLabel('Cash counted ($)').fill(expected);
+  await closeForm.getByRole('button', { name: 'Close shift' }).click();
+  await expect(pulse.getByRole('status').filter({ hasText: 'Last shift closed' })).toContainText('difference $0.00');
+
+  await pulse.goto('/outbox');
+  await expect(pulse.getByText('mara@harbour-hearth.example').first()).toBeVisible();
+  await expect(pulse.getByText(/shift report/i).first()).toBeVisible();
+  await cashier.dispose();
+  await barista.dispose();
+  expect(errorsOf(pulse)).toEqual([]);
+});

@@ -1,0 +1,89 @@
+// CSV exports of the ticket history and of a report, through toCsv (every text cell neutralised
+// against formula injection, OWASP "CSV Injection"). Money as decimal amounts in the café's
+// currency (12.5 for $12.50) so a spreadsheet can add them up; times as ISO-8601 UTC.
+import { toCsv } from '../../../src/domain/csv';
+import { hourLabel, type ReportView, type TicketHistoryRow } from '../../../src/domain/reports';
+import { PERCENTILE_METHOD } from '../../../src/domain/stats';
+
+const amount = (cents: number) => cents / 100;
+
+export function ticketsCsv(rows: TicketHistoryRow[], currency = 'USD'): string {
+  const columns = [
+    { key: 'businessDate', header: 'Date' },
+    { key: 'number', header: 'Ticket' },
+    { key: 'customerName', header: 'Customer' },
+    { key: 'status', header: 'Status' },
+    { key: 'paymentStatus', header: 'Payment' },
+    { key: 'paymentMethod', header: 'Method' },
+    { key: 'total', header: `Total (${currency})` },
+    { key: 'refunded', header: `Refunded (${currency})` },
+    { key: 'drinks', header: 'Drinks' },
+    { key: 'createdAt', header: 'Taken at (UTC)' },
+    { key: 'readyAt', header: 'Ready at (UTC)' },
+    { key: 'waitSeconds', header: 'Wait (s)' },
+  ];
+  return toCsv(
+    columns,
+    rows.map((r) => ({ ...r, total: amount(r.totalCents), refunded: amount(r.refundedCents) })),
+  );
+}
+
+/** A report as long-format rows: section, item, metric, value (one fact per row). */
+export function reportCsv(report: ReportView): string {
+  const cur = report.currency;
+  const rows: { section: string; item?: string; metric: string; value: number | string | null }[] = [];
+  const add = (section: string, item: string | undefined, metric: string, value: number | string | null) => rows.push({ section, item, metric, value });
+  const p = report.period;
+  add('Period', undefined, 'kind', p.kind);
+  add('Period', undefined, 'from', p.from);
+  add('Period', undefined, 'to', p.to);
+  if (p.shift) {
+    add('Period', undefined, 'shift', p.shift.id);
+    add('Period', undefined, 'opened at (UTC)', p.shift.openedAt);
+    add('Period', undefined, 'closed at (UTC)', p.shift.closedAt);
+  }
+  add('Totals', undefined, 'orders', report.orders);
+  add('Totals', undefined, 'drinks', report.drinks);
+  add('Totals', undefined, `gross (${cur})`, amount(report.grossCents));
+  add('Totals', undefined, `tax (${cur})`, amount(report.taxCents));
+  add('Totals', undefined, `discounts (${cur})`, amount(report.discountCents));
+  add('Totals', undefined, `refunds (${cur})`, amount(report.refundsCents));
+  add('Totals', undefined, `net (${cur})`, amount(report.netCents));
+  for (const m of ['cash', 'card'] as const) {
+    add('Payment mix', m, 'orders', report.paymentMix[m].orders);
+    add('Payment mix', m, `taken (${cur})`, amount(report.paymentMix[m].cents));
+  }
+  const w = report.waits;
+  add('Waits', undefined, 'tickets timed', w.count);
+  add('Waits', undefined, 'target (s)', report.targetSeconds);
+  add('Waits', undefined, 'mean (s)', w.meanSeconds);
+  add('Waits', undefined, 'median (s)', w.medianSeconds);
+  add('Waits', undefined, 'p90 (s)', w.p90Seconds);
+  add('Waits', undefined, 'max (s)', w.maxSeconds);
+  add('Waits', undefined, 'over target share', w.overTargetShare);
+  add('Waits', undefined, 'percentile method', PERCENTILE_METHOD);
+  add('Bar', undefined, 'shots pulled', report.shotsPulled);
+  add('Bar', undefined, 'coffee used (g)', report.coffeeUsedDg / 10);
+  for (const m of report.milkUsedMl) add('Milk used', m.milk, 'ml', m.ml);
+  for (const i of report.topItems) {
+    add('Top items', i.item, 'count', i.count);
+    add('Top items', i.item, `sales (${cur})`, amount(i.cents));
+  }
+  for (const h of report.hourly) {
+    const label = hourLabel(h.hour);
+    add('Hourly', label, 'orders', h.orders);
+    add('Hourly', label, 'drinks', h.drinks);
+    add('Hourly', label, `sales (${cur})`, amount(h.cents));
+    add('Hourly', label, 'median wait (s)', h.medianWaitSeconds);
+  }
+  for (const t of report.overTarget) add('Over target', `${t.businessDate} #${t.number} ${t.customerName}`, 'wait (s)', t.waitSeconds);
+  return toCsv(
+    [
+      { key: 'section', header: 'Section' },
+      { key: 'item', header: 'Item' },
+      { key: 'metric', header: 'Metric' },
+      { key: 'value', header: 'Value' },
+    ],
+    rows,
+  );
+}

@@ -1,0 +1,70 @@
+// Which orders a report covers: a shift's (orders.shift_id) or a range of café-local dates
+// (orders.business_date), always within one café. Both filters ride on an index.
+import type { Knex } from 'knex';
+import type { ReportPeriod } from '../../../src/domain/reports';
+import { notFound } from '../../errors';
+import { businessDate } from '../orders';
+
+export interface ReportLocation {
+  id: number;
+  name: string;
+  currency: string;
+  locale: string;
+  timeZone: string;
+  waitTargetSeconds: number;
+}
+
+export interface Scope {
+  period: ReportPeriod;
+  location: ReportLocation;
+  targetSeconds: number;
+  /** SQL condition on the orders table aliased `o`, with its bindings */
+  where: string;
+  bindings: (string | number)[];
+}
+
+/** Orders whose money counts: paid, or paid and then refunded in part or in full. */
+export const PAID = `o.payment_status IN ('paid', 'refunded')`;
+
+export async function loadReportLocation(db: Knex, locationId: number): Promise<ReportLocation> {
+  const l = await db('locations').where({ id: locationId }).first();
+  if (!l) throw notFound('Location');
+  return {
+    id: l.id,
+    name: l.name,
+    currency: l.currency,
+    locale: l.locale,
+    timeZone: l.time_zone,
+    waitTargetSeconds: l.wait_target_seconds,
+  };
+}
+
+export async function shiftScope(db: Knex, locationId: number, shiftId: number, now: Date): Promise<Scope> {
+  const s = await db('shifts').where({ id: shiftId, location_id: locationId }).first();
+  if (!s) throw notFound('Shift');
+  const location = await loadReportLocation(db, locationId);
+  const day = (iso: string) => businessDate(new Date(iso), location.timeZone);
+  return {
+    period: {
+      kind: 'shift',
+      from: day(s.opened_at),
+      to: s.closed_at ? day(s.closed_at) : businessDate(now, location.timeZone),
+      shift: { id: s.id, openedAt: s.opened_at, closedAt: s.closed_at ?? null, waitTargetSeconds: s.wait_target_seconds },
+    },
+    location,
+    targetSeconds: s.wait_target_seconds,
+    where: 'o.location_id = ? AND o.shift_id = ?',
+    bindings: [locationId, shiftId],
+  };
+}
+
+export async function rangeScope(db: Knex, locationId: number, from: string, to: string): Promise<Scope> {
+  const location = await loadReportLocation(db, locationId);
+  return {
+    period: { kind: 'range', from, to },
+    location,
+    targetSeconds: location.waitTargetSeconds,
+    where: 'o.location_id = ? AND o.business_date BETWEEN ? AND ?',
+    bindings: [locationId, from, to],
+  };
+}

@@ -1,0 +1,58 @@
+// What the Pulse board shows: live ticket times against the target, and whether to move people.
+import type { ShiftView } from './types';
+
+export interface WaitSummary {
+  count: number;
+  meanSeconds: number | null;
+  medianSeconds: number | null;
+  p90Seconds: number | null;
+  maxSeconds: number | null;
+  overTargetShare: number | null;
+}
+
+export interface PulseWindow {
+  label: string;
+  minutes: number | null; // null: the whole shift (or day)
+  waits: WaitSummary;
+  drinksPer15: number;
+}
+
+export interface PulseBucket {
+  start: string;
+  arrivals: number;
+  drinks: number;
+  medianWaitSeconds: number | null;
+  p90WaitSeconds: number | null;
+}
+
+export interface PulseOpenTicket {
+  id: number;
+  number: number;
+  customerName: string;
+  firedAt: string;
+  ageSeconds: number;
+  drinks: number;
+  drinksLeft: number;
+  makers: string[];
+}
+
+export interface PulseView {
+  now: string;
+  targetSeconds: number;
+  percentileMethod: string;
+  shift: ShiftView | null;
+  expectedCashCents: number | null;
+  open: PulseOpenTicket[];
+  windows: PulseWindow[];
+  buckets: PulseBucket[];
+  quoteVsActual: { count: number; meanQuotedSeconds: number | null; meanActualSeconds: number | null; shareLongerThanQuoted: number | null };
+  perBarista: { name: string; drinks: number; medianMakeSeconds: number | null }[];
+  perCategory: { category: string; drinks: number; medianMakeSeconds: number | null }[];
+  staffing: {
+    inputs: { arrivalsPerMinute: number; servicePerMinutePerBarista: number; baristas: number };
+    now: { stable: boolean; probabilityOfWaiting: number; meanWaitSeconds: number | null };
+    withOneMore: { stable: boolean; probabilityOfWaiting: number; meanWaitSeconds: number | null };
+    sentence: string;
+  };
+  alert: string | null;
+}

@@ -1,0 +1,131 @@
+// The lead's shift controls: open with a float, move baristas on and off bar, close with a count.
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { formatCents, parseAmountToCents } from '../../domain/money';
+import type { ShiftView } from '../../domain/types';
+import { Button } from '../../components/ui/button';
+import { FieldError } from '../../components/ui/field-error';
+import { ApiError, http } from '../../lib/http';
+import { pulseKeys } from './queries';
+
+// The forms take dollars and minutes as typed; the API takes cents and seconds.
+const amount = z.string().refine((v) => parseAmountToCents(v) !== null, 'Enter an amount like 150 or 150.00');
+const openForm = z.object({
+  float: amount,
+  baristas: z.coerce.number().int().min(1, 'At least 1').max(20),
+  targetMinutes: z.coerce.number().min(1).max(60),
+});
+const closeForm = z.object({ counted: amount, note: z.string().max(200).optional() });
+
+function useShiftCommand<T>(path: string) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (body: T) => http<{ shift: ShiftView }>('POST', path, body),
+    onSuccess: () => qc.invalidateQueries({ queryKey: pulseKeys.all }),
+  });
+}
+
+const input = 'mt-1 w-28 rounded-lg border border-steam-200 bg-white px-3 py-2 text-lg';
+
+export function ShiftPanel({
+  shift,
+  expectedCashCents,
+  currency,
+  timeZone,
+}: {
+  shift: ShiftView | null;
+  expectedCashCents: number | null;
+  currency: string;
+  timeZone: string;
+}) {
+  const open = useShiftCommand<{ openingFloatCents: number; baristasOnBar: number; waitTargetSeconds: number }>('/shifts');
+  const baristas = useShiftCommand<{ baristasOnBar: number }>('/shifts/current/baristas');
+  const close = useShiftCommand<{ countedCashCents: number; note?: string }>('/shifts/current/close');
+  const openF = useForm({ resolver: zodResolver(openForm), defaultValues: { float: '150.00', baristas: 2, targetMinutes: 4 } });
+  const closeF = useForm({ resolver: zodResolver(closeForm), defaultValues: { counted: '', note: '' } });
+  const money = (c: number) => formatCents(c, currency);
+  const error = [open.error, baristas.error, close.error].find(Boolean);
+  const closed = close.data?.shift;
+
+  if (!shift) {
+    return (
+      <form
+        aria-label="Open a shift"
+        className="flex flex-wrap items-end gap-4 rounded-2xl border border-steam-200 bg-white p-4"
+        onSubmit={openF.handleSubmit((v) =>
+          open.mutate({ openingFloatCents: parseAmountToCents(v.float)!, baristasOnBar: v.baristas, waitTargetSeconds: Math.round(v.targetMinutes * 60) }),
+        )}
+      >
+        <h2 className="w-full text-xl font-semibold">No shift open</h2>
+        {closed && (
+          <p role="status" className="w-full text-lg">
+            Last shift closed: expected {money(closed.expectedCashCents ?? 0)}, counted {money(closed.countedCashCents ?? 0)}, difference{' '}
+            <strong>{money((closed.countedCashCents ?? 0) - (closed.expectedCashCents ?? 0))}</strong>. The report was mailed to the owner.
+          </p>
+        )}
+        <label>
+          Cash float ($)
+          <input className={input} {...openF.register('float')} />
+          <FieldError message={openF.formState.errors.float?.message} />
+        </label>
+        <label>
+          Baristas on bar
+          <input className={input} inputMode="numeric" {...openF.register('baristas')} />
+        </label>
+        <label>
+          Wait target (min)
+          <input className={input} inputMode="decimal" {...openF.register('targetMinutes')} />
+        </label>
+        <Button type="submit" size="lg" disabled={open.isPending}>
+          Open shift
+        </Button>
+        {error && <p role="alert" className="w-full font-semibold text-copper-700">{error instanceof ApiError ? error.message : 'That did not work'}</p>}
+      </form>
+    );
+  }
+
+  return (
+    <section aria-label="Shift" className="flex flex-wrap items-end gap-4 rounded-2xl border border-steam-200 bg-white p-4">
+      <h2 className="w-full text-xl font-semibold">
+        Shift open since {new Date(shift.openedAt).toLocaleTimeString('en-US', { hour: 'numeric', minute: '2-digit', timeZone })} ·{' '}
+        {shift.openedBy}
+      </h2>
+      <div className="flex items-center gap-2">
+        <span className="text-lg">On bar:</span>
+        <Button tone="quiet" aria-label="One barista fewer" disabled={shift.baristasOnBar <= 1 || baristas.isPending} onClick={() => baristas.mutate({ baristasOnBar: shift.baristasOnBar - 1 })}>
+          −
+        </Button>
+        <strong data-testid="baristas-on-bar" className="w-8 text-center font-display text-3xl">
+          {shift.baristasOnBar}
+        </strong>
+        <Button tone="quiet" aria-label="One barista more" disabled={baristas.isPending} onClick={() => baristas.mutate({ baristasOnBar: shift.baristasOnBar + 1 })}>
+          +
+        </Button>
+      </div>
+      <p className="text-lg">
+        Float {money(shift.openingFloatCents)} · cash expected in the drawer now <strong data-testid="expected-cash">{money(expectedCashCents ?? 0)}</strong>
+      </p>
+      <form
+        aria-label="Close the shift"
+        className="ml-auto flex items-end gap-3"
+        onSubmit={closeF.handleSubmit((v) => close.mutate({ countedCashCents: parseAmountToCents(v.counted)!, note: v.note || undefined }))}
+      >
+        <label>
+          Cash counted ($)
+          <input className={input} {...closeF.register('counted')} />
+          <FieldError message={closeF.formState.errors.counted?.message} />
+        </label>
+        <label>
+          Note
+          <input className="mt-1 w-48 rounded-lg border border-steam-200 bg-white px-3 py-2 text-lg" {...closeF.register('note')} />
+        </label>
+        <Button type="submit" size="lg" disabled={close.isPending}>
+          Close shift
+        </Button>
+      </form>
+      {error && <p role="alert" className="w-full font-semibold text-copper-700">{error instanceof ApiError ? error.message : 'That did not work'}</p>}
+    </section>
+  );
+}

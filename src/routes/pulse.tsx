@@ -1,0 +1,169 @@
+// Pulse: the shift lead's live board of ticket times against the target, and staffing.
+import { useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
+import { lazy, Suspense, useEffect, useState } from 'react';
+import type { LoaderFunctionArgs } from 'react-router';
+import type { WaitSummary } from '../domain/pulse';
+import { LinkStateBadge } from '../components/ui/link-state';
+import { barBoardQuery } from '../features/board/queries';
+import { useLiveBoard } from '../features/board/use-live-board';
+import { menuQuery } from '../features/menu/queries';
+import { pulseKeys, pulseQuery } from '../features/pulse/queries';
+import { ShiftPanel } from '../features/pulse/shift-panel';
+import { useApi } from '../lib/api-context';
+import { cn } from '../lib/cn';
+import { useHydrated } from '../lib/use-hydrated';
+import { requireScreen, type RouteDeps } from './deps';
+
+const PulseChart = lazy(() => import('../features/pulse/pulse-chart'));
+
+const min = (s: number | null) => (s === null ? '—' : `${(s / 60).toFixed(1)} min`);
+const pct = (x: number | null) => (x === null ? '—' : `${Math.round(x * 100)} %`);
+
+function Numbers({ w, target }: { w: WaitSummary; target: number }) {
+  const tiles = [
+    { label: 'Median wait', value: min(w.medianSeconds), over: (w.medianSeconds ?? 0) > target },
+    { label: '90th percentile', value: min(w.p90Seconds), over: (w.p90Seconds ?? 0) > target },
+    { label: 'Over target', value: pct(w.overTargetShare), over: false },
+    { label: 'Tickets done', value: String(w.count), over: false },
+  ];
+  return (
+    <div className="grid grid-cols-4 gap-4">
+      {tiles.map((t) => (
+        <div key={t.label} data-testid="pulse-number" className="rounded-2xl border border-steam-200 bg-white p-4">
+          <p className="text-base font-semibold tracking-widest text-ink-600 uppercase">{t.label}</p>
+          <p className={cn('font-display text-6xl font-semibold', t.over && 'underline decoration-copper-700 decoration-4')}>{t.value}</p>
+          {t.over && <p className="text-sm font-semibold text-copper-700">over the target</p>}
+        </div>
+      ))}
+    </div>
+  );
+}
+
+function Table({ caption, head, rows }: { caption: string; head: string[]; rows: (string | number)[][] }) {
+  return (
+    <table className="w-full text-left text-lg">
+      <caption className="mb-1 text-left text-base font-semibold tracking-widest text-ink-600 uppercase">{caption}</caption>
+      <thead>
+        <tr className="border-b border-steam-200">{head.map((h) => <th key={h} className="py-1 pr-3 font-semibold">{h}</th>)}</tr>
+      </thead>
+      <tbody>
+        {rows.length === 0 && (
+          <tr>
+            <td colSpan={head.length} className="py-2 text-ink-600">Nothing yet</td>
+          </tr>
+        )}
+        {rows.map((r, i) => (
+          <tr key={i} className="border-b border-steam-100">{r.map((c, j) => <td key={j} className="py-1 pr-3">{c}</td>)}</tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
+/** Pulse refreshes its numbers whenever the live board moves (debounced). */
+function useRefreshOnEvents(seq: number) {
+  const qc = useQueryClient();
+  useEffect(() => {
+    const t = setTimeout(() => qc.invalidateQueries({ queryKey: pulseKeys.all }), 400);
+    return () => clearTimeout(t);
+  }, [seq, qc]);
+}
+
+function Pulse() {
+  const api = useApi();
+  const { data: p } = useSuspenseQuery(pulseQuery(api));
+  const { data: board } = useSuspenseQuery(barBoardQuery(api));
+  const { data: menu } = useSuspenseQuery(menuQuery(api));
+  const link = useLiveBoard();
+  useRefreshOnEvents(board.seq);
+  const hydrated = useHydrated();
+  const [windowIndex, setWindowIndex] = useState(1);
+  const w = p.windows[windowIndex];
+  return (
+    <div className="min-h-screen bg-steam-50 p-5 text-ink-900">
+      <header className="flex items-center gap-5">
+        <h1 className="text-3xl font-semibold">Pulse</h1>
+        <span className="text-lg text-ink-600">{menu.location.name}</span>
+        <span className="text-lg">Target {Math.round(p.targetSeconds / 60)} min</span>
+        <a className="text-lg underline" href="/reports">
+          Reports
+        </a>
+        <LinkStateBadge state={link} className="ml-auto" />
+      </header>
+      {p.alert && (
+        <p role="alert" className="mt-3 rounded-xl border-2 border-ink-900 bg-alert-ink px-4 py-3 text-xl font-semibold">
+          ⚠ {p.alert}
+        </p>
+      )}
+      <div className="mt-4">
+        <ShiftPanel shift={p.shift} expectedCashCents={p.expectedCashCents} currency={menu.location.currency} timeZone={menu.location.timeZone} />
+      </div>
+      <div role="tablist" aria-label="Time window" className="mt-4 flex gap-2">
+        {p.windows.map((x, i) => (
+          <button
+            key={x.label}
+            role="tab"
+            aria-selected={i === windowIndex}
+            onClick={() => setWindowIndex(i)}
+            className={cn('min-h-11 rounded-lg border-2 px-4 font-semibold', i === windowIndex ? 'border-ink-900 bg-ink-900 text-steam-50' : 'border-steam-200 bg-white')}
+          >
+            {x.label}
+          </button>
+        ))}
+        <span className="ml-4 self-center text-lg">
+          <strong data-testid="drinks-per-15">{w.drinksPer15}</strong> drinks per 15 min
+        </span>
+      </div>
+      <div className="mt-3">
+        <Numbers w={w.waits} target={p.targetSeconds} />
+        <p className="mt-1 text-sm text-ink-600">Wait = fired to ready. Percentiles: {p.percentileMethod}.</p>
+      </div>
+      <section aria-label="Staffing" className="mt-4 rounded-2xl border-2 border-ink-900 bg-white p-4">
+        <p data-testid="staffing" className="text-2xl font-semibold">{p.staffing.sentence}</p>
+        <p className="mt-1 text-base text-ink-600">
+          From {p.staffing.inputs.arrivalsPerMinute.toFixed(2)} drinks/min arriving (last 30 min) and{' '}
+          {p.staffing.inputs.servicePerMinutePerBarista.toFixed(2)} drinks/min per barista (last hour), {p.staffing.inputs.baristas} on
+          bar — an M/M/c (Erlang C) estimate, a guide rather than a promise.
+        </p>
+      </section>
+      <section aria-label="Waits and arrivals per 15 minutes" className="mt-4 rounded-2xl border border-steam-200 bg-white p-4">
+        {hydrated ? (
+          <Suspense fallback={<p className="h-[280px]">Loading the chart…</p>}>
+            <PulseChart buckets={p.buckets} targetSeconds={p.targetSeconds} timeZone={menu.location.timeZone} />
+          </Suspense>
+        ) : (
+          <p className="h-[280px]">Loading the chart…</p>
+        )}
+      </section>
+      <div className="mt-4 grid grid-cols-2 gap-6">
+        <Table
+          caption="Open tickets, oldest first"
+          head={['#', 'Name', 'Age', 'Drinks left', 'Making']}
+          rows={p.open.map((t) => [`#${t.number}`, t.customerName, min(t.ageSeconds), `${t.drinksLeft} of ${t.drinks}`, t.makers.join(', ') || '—'])}
+        />
+        <Table
+          caption="Quote vs actual (today)"
+          head={['Tickets', 'Quoted (mean)', 'Actual (mean)', 'Longer than quoted']}
+          rows={[[p.quoteVsActual.count, min(p.quoteVsActual.meanQuotedSeconds), min(p.quoteVsActual.meanActualSeconds), pct(p.quoteVsActual.shareLongerThanQuoted)]]}
+        />
+        <Table caption="Per barista" head={['Barista', 'Drinks', 'Median make']} rows={p.perBarista.map((b) => [b.name, b.drinks, min(b.medianMakeSeconds)])} />
+        <Table caption="Per category" head={['Category', 'Drinks', 'Median make']} rows={p.perCategory.map((c) => [c.category, c.drinks, min(c.medianMakeSeconds)])} />
+      </div>
+    </div>
+  );
+}
+
+export const pulseRoute = (deps: RouteDeps) => ({
+  Component: Pulse,
+  handle: { title: 'Pulse' },
+  loader: async ({ request }: LoaderFunctionArgs) => {
+    await requireScreen(deps, request, 'viewPulse');
+    await Promise.all([
+      deps.queryClient.ensureQueryData(pulseQuery(deps.api)),
+      deps.queryClient.ensureQueryData(barBoardQuery(deps.api)),
+      deps.queryClient.ensureQueryData(menuQuery(deps.api)),
+    ]);
+    return null;
+  },
+});
+
