@@ -14,10 +14,10 @@ const USAGE = 'Usage: npm run db:history -- --days <n> [--file <path>] [--seed <
 
 class UsageError extends Error {}
 
-function wholeNumber(name: string, text: string | undefined, fallback: number, max: number): number {
+function wholeNumber(name: string, text: string | undefined, fallback: number, min: number, max: number): number {
   if (text === undefined) return fallback;
   const n = Number(text);
-  if (!Number.isInteger(n) || n < 0 || n > max) throw new UsageError(`--${name} takes a whole number from 0 to ${max}, not "${text}"`);
+  if (!Number.isInteger(n) || n < min || n > max) throw new UsageError(`--${name} takes a whole number from ${min} to ${max}, not "${text}"`);
   return n;
 }
 
@@ -49,9 +49,8 @@ export async function main(argv: string[], env: NodeJS.ProcessEnv = process.env)
       console.log(USAGE);
       return 0;
     }
-    const days = wholeNumber('days', values.days, 365, 3660);
-    if (days < 1) throw new UsageError('--days must be at least 1');
-    const seed = wholeNumber('seed', values.seed, DEFAULT_SEED, 2 ** 32 - 1);
+    const days = wholeNumber('days', values.days, 365, 1, 3660);
+    const seed = wholeNumber('seed', values.seed, DEFAULT_SEED, 0, 2 ** 32 - 1);
     let file: string;
     if (values.file) {
       file = path.resolve(values.file);

@@ -9,7 +9,7 @@ import { basket, type MenuIndex } from './basket';
 import { iso, localDayStartMs, weekday } from './calendar';
 import { fakeId, payment, priceOrder, refund, type Payment, type Priced, type RefundPlan } from './checkout';
 import { FIRST_NAMES } from './names';
-import { createRandom } from './random';
+import { createRandom, type Random } from './random';
 
 export interface Staff {
   lead: number;
@@ -79,7 +79,7 @@ function timeDrinks(lines: ResolvedLine[], timings: DrinkTiming[], at: (s: numbe
   });
 }
 
-function closeCount(expected: number, random: ReturnType<typeof createRandom>) {
+function closeCount(expected: number, random: Random) {
   if (!random.chance(0.15)) return { counted: expected, note: null };
   const off = random.int(1, 9) * (random.chance(0.5) ? 1 : -1);
   return { counted: expected + off, note: `Till ${Math.abs(off)}¢ ${off > 0 ? 'over' : 'short'} at the count` };

@@ -1,6 +1,7 @@
 // Writing planned days with better-sqlite3 prepared statements, one transaction per day. The
 // columns are filled as server/services/orders.ts and the bar commands fill them; no events rows
 // (the realtime log is for live screens, not for history).
+import { orderItemRow } from '../../server/services/order-item-row';
 import type { Database } from 'better-sqlite3';
 import type { DayPlan } from './day';
 
@@ -48,12 +49,12 @@ export function dayWriter(conn: Database, locationId: number, lead: number): Day
     `INSERT INTO refunds (order_id, payment_id, amount_cents, reason, provider_id, created_by, created_at)
      VALUES (@order_id, @payment_id, @amount_cents, @reason, @provider_id, @created_by, @created_at)`,
   );
-  const lastBump = conn.prepare('SELECT MAX(bump_seq) AS n FROM order_items');
+  // Bumps are numbered in the order they happened, after any the bar has made already (read once:
+  // bump_seq has no index, and history is the only writer while it runs).
+  let seq = Number((conn.prepare('SELECT MAX(bump_seq) AS n FROM order_items').get() as { n: number | null }).n ?? 0);
 
   const writeDay = conn.transaction((day: DayPlan): Written => {
     const written: Written = { orders: 0, items: 0, payments: 0, refunds: 0 };
-    // Bumps are numbered in the order they happened, after any the bar has made already.
-    let seq = Number((lastBump.get() as { n: number | null }).n ?? 0);
     const bumps = day.orders
       .flatMap((o, oi) => o.drinks.map((d, li) => (d ? { key: `${oi}/${li}`, doneAt: d.doneAt } : null)))
       .filter((b) => b !== null)
@@ -107,24 +108,7 @@ export function dayWriter(conn: Database, locationId: number, lead: number): Day
       lines.forEach((l, li) => {
         const drink = o.drinks[li];
         item.run({
-          order_id: orderId,
-          menu_item_id: l.menuItemId,
-          line_no: li + 1,
-          item_name: l.itemName,
-          station: l.station,
-          size_id: l.size?.id ?? null,
-          size_name: l.size?.name ?? null,
-          volume_ml: l.size?.volumeMl ?? null,
-          milk_id: l.milk?.id ?? null,
-          milk_name: l.milk?.name ?? null,
-          milk_code: l.milk?.code ?? null,
-          shots: l.shots,
-          milk_ml: l.milkMl,
-          dose_dg: l.doseDg,
-          texture: l.texture,
-          modifiers: JSON.stringify(l.modifiers),
-          note: l.note,
-          price_cents: l.priceCents,
+          ...orderItemRow(l, Number(orderId), li + 1),
           started_at: drink?.startedAt ?? null,
           done_at: drink?.doneAt ?? null,
           done_by: drink?.doneBy ?? null,

@@ -8,6 +8,7 @@ import { isUniqueViolation, json } from '../db/rows';
 import { HttpError, conflict } from '../errors';
 import { payByCard } from './card-payments';
 import { fireOrder } from './fire-order';
+import { orderItemRow } from './order-item-row';
 import type { Deps } from './deps';
 import { appendEvent, runCommand } from './events';
 import { priceOrder, type PricedOrder } from './order-pricing';
@@ -134,24 +135,7 @@ async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody,
       .returning('id');
     await trx('order_items').insert(
       lines.map((l, i) => ({
-        order_id: orderId,
-        menu_item_id: l.menuItemId,
-        line_no: i + 1,
-        item_name: l.itemName,
-        station: l.station,
-        size_id: l.size?.id ?? null,
-        size_name: l.size?.name ?? null,
-        volume_ml: l.size?.volumeMl ?? null,
-        milk_id: l.milk?.id ?? null,
-        milk_name: l.milk?.name ?? null,
-        milk_code: l.milk?.code ?? null,
-        shots: l.shots,
-        milk_ml: l.milkMl,
-        dose_dg: l.doseDg,
-        texture: l.texture,
-        modifiers: JSON.stringify(l.modifiers),
-        note: l.note,
-        price_cents: l.priceCents,
+        ...orderItemRow(l, orderId, i + 1),
         status: l.station === 'bar' ? 'queued' : 'done',
       })),
     );

@@ -1,14 +1,9 @@
 // What the Pulse board shows: live ticket times against the target, and whether to move people.
+import type { WaitSummary } from './stats';
 import type { ShiftView } from './types';
 
-export interface WaitSummary {
-  count: number;
-  meanSeconds: number | null;
-  medianSeconds: number | null;
-  p90Seconds: number | null;
-  maxSeconds: number | null;
-  overTargetShare: number | null;
-}
+export type { WaitSummary };
+
 
 export interface PulseWindow {
   label: string;
