@@ -42,6 +42,8 @@ export async function pulse(deps: Deps, locationId: number): Promise<PulseView> 
     .leftJoin('users as starter', 'starter.id', 'order_items.started_by')
     .where({ 'orders.location_id': locationId, 'orders.business_date': day, 'order_items.station': 'bar' })
     .whereNotNull('orders.fired_at')
+    // as for the tickets above: an order refunded in full before it was made left the bar
+    .whereNot('orders.status', 'void')
     .select(
       'order_items.order_id',
       'order_items.status',

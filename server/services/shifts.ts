@@ -35,20 +35,24 @@ export async function openShiftOf(db: Db, locationId: number): Promise<ShiftView
   return row ? loadShift(db, row.id) : null;
 }
 
-/** What should be in the drawer: the float, plus cash taken, less cash given back. */
+/**
+ * What should be in the drawer: the float, plus cash taken for this shift's orders, less cash
+ * handed back during the shift (whichever shift the refunded order was taken in).
+ */
 export async function expectedCash(db: Db, shiftId: number): Promise<number> {
-  const shift = await db('shifts').where({ id: shiftId }).first('opening_float_cents');
+  const shift = await db('shifts').where({ id: shiftId }).first('opening_float_cents', 'location_id', 'opened_at', 'closed_at');
   const taken = await db('payments')
     .join('orders', 'orders.id', 'payments.order_id')
     .where({ 'orders.shift_id': shiftId, 'payments.method': 'cash', 'payments.status': 'succeeded' })
     .sum<{ n: number | null }>({ n: 'payments.amount_cents' })
     .first();
-  const refunded = await db('refunds')
+  const refundedQuery = db('refunds')
     .join('payments', 'payments.id', 'refunds.payment_id')
     .join('orders', 'orders.id', 'refunds.order_id')
-    .where({ 'orders.shift_id': shiftId, 'payments.method': 'cash' })
-    .sum<{ n: number | null }>({ n: 'refunds.amount_cents' })
-    .first();
+    .where({ 'orders.location_id': shift.location_id, 'payments.method': 'cash' })
+    .andWhere('refunds.created_at', '>=', shift.opened_at);
+  if (shift.closed_at) refundedQuery.andWhere('refunds.created_at', '<=', shift.closed_at);
+  const refunded = await refundedQuery.sum<{ n: number | null }>({ n: 'refunds.amount_cents' }).first();
   return shift.opening_float_cents + Number(taken?.n ?? 0) - Number(refunded?.n ?? 0);
 }
 
