@@ -1,4 +1,5 @@
 // createApp(deps): the Express app without listen(), so tests drive it in-process.
+import { EventEmitter } from 'node:events';
 import express, { type RequestHandler } from 'express';
 import type { Knex } from 'knex';
 import { createPassport, createSessionMiddleware } from './auth/session';
@@ -46,6 +47,7 @@ export function createApp(opts: AppOptions): App {
     hub: opts.hub ?? createInProcessHub(),
     payments: opts.payments ?? null,
     mailer: opts.mailer ?? null,
+    sessions: new EventEmitter(),
   };
   const app = express();
   app.disable('x-powered-by');
@@ -55,7 +57,7 @@ export function createApp(opts: AppOptions): App {
     cleanupIntervalMs: opts.sessionCleanupIntervalMs,
   });
   const passport = createPassport(opts.db);
-  const routes = [...sessionRoutes(passport), ...orderRoutes(deps), ...ticketRoutes(deps), ...shiftRoutes(deps), ...reportRoutes(deps)];
+  const routes = [...sessionRoutes(passport, deps), ...orderRoutes(deps), ...ticketRoutes(deps), ...shiftRoutes(deps), ...reportRoutes(deps)];
   if (opts.mailer) routes.push(...mailRoutes(deps, opts.mailer));
 
   // The payment webhook is verified against its exact bytes, so it alone keeps a raw body.

@@ -19,6 +19,7 @@ const MAX_MESSAGE_BYTES = 4096;
 interface Peer {
   socket: WebSocket;
   user: SessionUser;
+  sessionId: string;
   /** Events are sent only once the screen has said where it is (`resume`). */
   live: boolean;
   resuming: boolean;
@@ -50,6 +51,17 @@ export function attachSocketServer(
   const wss = new WebSocketServer({ noServer: true, maxPayload: MAX_MESSAGE_BYTES });
   const peers = new Set<Peer>();
 
+  /** A browser says where the page came from; only our own pages may open the live socket. */
+  function sameOrigin(req: IncomingMessage): boolean {
+    const origin = req.headers.origin;
+    if (!origin) return true; // not a browser (screens always send one)
+    try {
+      return new URL(origin).host === req.headers.host;
+    } catch {
+      return false;
+    }
+  }
+
   async function authenticate(req: IncomingMessage): Promise<SessionUser | null> {
     await new Promise<void>((resolve, reject) =>
       sessionMiddleware(req as never, {} as never, (err?: unknown) => (err ? reject(err) : resolve())),
@@ -69,11 +81,13 @@ export function attachSocketServer(
     // without this, a client resetting the connection while we authenticate crashes the process.
     const onEarlyError = () => socket.destroy();
     socket.on('error', onEarlyError);
+    if (!sameOrigin(req)) return refuse(socket, 403, 'Forbidden');
     authenticate(req).then(
       (user) => {
         if (!user) return refuse(socket, 401, 'Unauthorized');
         socket.off('error', onEarlyError);
-        wss.handleUpgrade(req, socket, head, (ws) => onConnection(ws, user));
+        const sessionId = (req as unknown as { sessionID: string }).sessionID;
+        wss.handleUpgrade(req, socket, head, (ws) => onConnection(ws, user, sessionId));
       },
       () => refuse(socket, 500, 'Internal Server Error'),
     );
@@ -102,8 +116,8 @@ export function attachSocketServer(
     }
   }
 
-  function onConnection(socket: WebSocket, user: SessionUser) {
-    const peer: Peer = { socket, user, live: false, resuming: false, pending: [], lastSent: 0, alive: true };
+  function onConnection(socket: WebSocket, user: SessionUser, sessionId: string) {
+    const peer: Peer = { socket, user, sessionId, live: false, resuming: false, pending: [], lastSent: 0, alive: true };
     peers.add(peer);
     const unsubscribe = deps.hub.subscribe(user.locationId, (event) => {
       if (peer.resuming) peer.pending.push(event);
@@ -135,6 +149,12 @@ export function attachSocketServer(
     );
   }
 
+  // Signing out ends that session's live sockets too (4401: the screen goes to sign-in).
+  const onSignedOut = (sid: string) => {
+    for (const peer of peers) if (peer.sessionId === sid) peer.socket.close(4401, 'signed out');
+  };
+  deps.sessions.on('signed-out', onSignedOut);
+
   // Sockets that miss a heartbeat are dropped; their screen reconnects and resumes.
   const heartbeat = setInterval(() => {
     for (const peer of peers) {
@@ -153,6 +173,7 @@ export function attachSocketServer(
     close(code = 1001, reason = 'server going away') {
       clearInterval(heartbeat);
       server.off('upgrade', onUpgrade);
+      deps.sessions.off('signed-out', onSignedOut);
       for (const peer of peers) peer.socket.close(code, reason);
       return new Promise((resolve) => wss.close(() => resolve()));
     },

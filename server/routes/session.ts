@@ -3,11 +3,12 @@ import type { createPassport } from '../auth/session';
 import { signInBody } from '../../src/domain/schemas';
 import type { SessionUser } from '../../src/domain/types';
 import { HttpError, parse } from '../errors';
+import type { Deps } from '../services/deps';
 import type { ApiRoute } from './define';
 
 const publicUser = (u: SessionUser) => ({ id: u.id, name: u.name, role: u.role });
 
-export function sessionRoutes(passport: ReturnType<typeof createPassport>): ApiRoute[] {
+export function sessionRoutes(passport: ReturnType<typeof createPassport>, deps: Deps): ApiRoute[] {
   const signIn = (req: Request, res: Response, next: NextFunction) => {
     req.body = parse(signInBody, req.body);
     passport.authenticate('local', { session: true }, (err: unknown, user: SessionUser | false) => {
@@ -30,11 +31,14 @@ export function sessionRoutes(passport: ReturnType<typeof createPassport>): ApiR
       method: 'delete',
       path: '/session',
       capability: null,
-      handler: (req, res, next) =>
+      handler: (req, res, next) => {
+        const sid = req.sessionID; // the id the person's live sockets were opened with
         req.logOut((err) => {
           if (err) return next(err);
+          deps.sessions.emit('signed-out', sid);
           req.session.destroy((destroyErr) => (destroyErr ? next(destroyErr) : res.status(204).end()));
-        }),
+        });
+      },
     },
   ];
 }

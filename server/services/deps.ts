@@ -1,4 +1,5 @@
 // What every service receives: the database, the clock and the realtime hub.
+import type { EventEmitter } from 'node:events';
 import type { Knex } from 'knex';
 import type { PaymentGateway } from '../payments/gateway';
 import type { Hub } from '../realtime/hub';
@@ -14,4 +15,6 @@ export interface Deps {
   payments: PaymentGateway | null;
   /** Outgoing mail (receipts, shift reports); null where none is set up. */
   mailer: Mailer | null;
+  /** 'signed-out' (session id): the live sockets of that session are closed. */
+  sessions: EventEmitter;
 }

@@ -5,6 +5,7 @@ import type { SessionUser } from '../../src/domain/types';
 import { HttpError } from '../errors';
 import type { Deps } from '../services/deps';
 import { outboxView } from '../services/mail';
+import { reportsServerApi } from './reports-api';
 import { loadMenu } from '../services/menu';
 import { findOrderInLocation, listOrders, loadOrder } from '../services/orders';
 import { pulse } from '../services/pulse';
@@ -25,6 +26,7 @@ export function serverApi(deps: Deps, user: SessionUser | undefined): Api {
     tickets: () => boardSnapshot(deps, locationId()),
     pickup: async () => pickupView(await boardSnapshot(deps, locationId())),
     outbox: () => outboxView(deps.db, locationId()),
+    reports: reportsServerApi(deps, locationId),
     pulse: () => pulse(deps, locationId()),
     orders: async (q) => ({ orders: await listOrders(deps, signedIn(), q, 100) }),
     order: async (id) => {

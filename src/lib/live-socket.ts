@@ -14,6 +14,8 @@ export interface LiveSocketHandlers {
 const PING_EVERY_MS = 15_000;
 const PONG_WITHIN_MS = 10_000;
 const MAX_BACKOFF_MS = 10_000;
+/** The server's close code when the socket's session signs out. */
+const SIGNED_OUT = 4401;
 
 const connectedListeners = new Set<() => void>();
 /** Told each time a live socket (re)connects: the server is back, so anything waiting can go. */
@@ -56,9 +58,14 @@ export function connectLive(url: string, h: LiveSocketHandlers): () => void {
       else if (m.type === 'event') h.onEvent(m.event);
       else if (m.type === 'snapshot') h.onSnapshot(m.snapshot);
     };
-    ws.onclose = () => {
+    ws.onclose = (event) => {
       clearTimers();
       if (stopped) return;
+      if (event.code === SIGNED_OUT) {
+        // this session was signed out (here or on another tab): back to sign-in, no retry
+        window.location.assign(`/signin?next=${encodeURIComponent(window.location.pathname)}`);
+        return;
+      }
       h.onState('offline');
       // 0.5 s, 1 s, 2 s … up to 10 s, with jitter so a room of screens doesn't reconnect at once
       const delay = Math.min(MAX_BACKOFF_MS, 500 * 2 ** attempts++) * (0.75 + Math.random() / 2);

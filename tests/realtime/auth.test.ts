@@ -3,6 +3,7 @@
 import request from 'supertest';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { SESSION_COOKIE } from '../../server/auth/session';
+import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
 import { startTestServer, type TestServer } from '../support/test-server';
 import { closeAllSockets, connect, tryUpgrade } from './ws-client';
 
@@ -58,5 +59,30 @@ describe('upgrading to the live socket', () => {
     } finally {
       await server.db('users').where({ username: 'barista2' }).update({ active: true });
     }
+  });
+});
+
+describe('signing out and origins', () => {
+  it('signing out closes that session’s live sockets, and only those', async () => {
+    const signIn = await request(server.url).post('/api/session').send({ username: 'barista', password: DEMO_PASSWORD });
+    const cookie = ([] as string[]).concat(signIn.headers['set-cookie']).map((c) => c.split(';')[0]).join('; ');
+    const other = await connect(server.url, await server.cookieFor('lead'));
+    const mine = await connect(server.url, cookie);
+    await mine.next((m) => m.type === 'hello');
+    await other.next((m) => m.type === 'hello');
+    const closed = new Promise<number>((resolve) => mine.socket.once('close', (code) => resolve(code)));
+    await request(server.url).delete('/api/session').set('Cookie', cookie).expect(204);
+    expect(await closed).toBe(4401);
+    other.send({ type: 'ping' });
+    expect((await other.next((m) => m.type === 'pong')).type).toBe('pong');
+    other.socket.close();
+  });
+
+  it('refuses an upgrade from another site’s page (Origin check)', async () => {
+    const cookie = await server.cookieFor('barista');
+    const result = await tryUpgrade(server.url, { Cookie: cookie, Origin: 'http://evil.example' });
+    expect(result).toMatchObject({ status: 403 });
+    const same = await tryUpgrade(server.url, { Cookie: cookie, Origin: server.url });
+    expect(same).toMatchObject({ opened: true });
   });
 });

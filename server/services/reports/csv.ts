@@ -5,7 +5,8 @@ import { toCsv } from '../../../src/domain/csv';
 import { hourLabel, type ReportView, type TicketHistoryRow } from '../../../src/domain/reports';
 import { PERCENTILE_METHOD } from '../../../src/domain/stats';
 
-const amount = (cents: number) => cents / 100;
+/** 790 → "7.90": two decimals, as a spreadsheet reads an amount */
+const amount = (cents: number) => (cents / 100).toFixed(2);
 
 export function ticketsCsv(rows: TicketHistoryRow[], currency = 'USD'): string {
   const columns = [

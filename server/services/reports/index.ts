@@ -1,14 +1,14 @@
 // Reports for the lead and the owner: a shift's or a date range's numbers, the ticket history,
 // their CSV exports and the shift report mail. The parts live in ./reports/.
 import type { Knex } from 'knex';
-import type { ReportShiftsView } from '../../src/domain/reports';
-import { businessDate } from './orders';
-import { loadReportLocation } from './reports/scope';
+import type { ReportShiftsView } from '../../../src/domain/reports';
+import { businessDate } from '../orders';
+import { loadReportLocation } from './scope';
 
-export { reportCsv, ticketsCsv } from './reports/csv';
-export { shiftReportEmail, type ReportEmail, type ReportMailLocation } from './reports/email';
-export { rangeReport, shiftReport } from './reports/report';
-export { ticketHistory, ticketRows, type TicketFilter, type TicketQuery } from './reports/tickets';
+export { reportCsv, ticketsCsv } from './csv';
+export { shiftReportEmail, type ReportEmail, type ReportMailLocation } from './email';
+export { rangeReport, shiftReport } from './report';
+export { ticketHistory, ticketRows, type TicketFilter, type TicketQuery } from './tickets';
 
 /** The café's most recent shifts, newest first, and its date today. */
 export async function reportShifts(db: Knex, locationId: number, now: Date, limit = 60): Promise<ReportShiftsView> {

@@ -36,7 +36,7 @@ export interface OffsetStretch {
 
 const DAY = 86_400_000;
 
-/** The stretches of constant offset between two instants, found day by day, then to the second. */
+/** The stretches of constant offset between two instants, found day by day, then to the millisecond. */
 export function offsetStretches(fromMs: number, toMs: number, timeZone: string): OffsetStretch[] {
   const stretches: OffsetStretch[] = [{ startMs: fromMs, offsetMinutes: offsetMinutes(fromMs, timeZone) }];
   for (let t = fromMs; t < toMs; t += DAY) {
@@ -46,7 +46,7 @@ export function offsetStretches(fromMs: number, toMs: number, timeZone: string):
     if (after === current) continue;
     let lo = t; // offset is `current` at lo, `after` at hi
     let hi = next;
-    while (hi - lo > 1000) {
+    while (hi - lo > 1) {
       const mid = Math.floor((lo + hi) / 2);
       if (offsetMinutes(mid, timeZone) === current) lo = mid;
       else hi = mid;
@@ -57,11 +57,11 @@ export function offsetStretches(fromMs: number, toMs: number, timeZone: string):
 }
 
 /**
- * SQL for the café-local hour (0–23) of `column`, valid for timestamps between fromIso and toIso.
+ * SQL for the café-local hour (0–23) of `column`, exact for timestamps between fromMs and toMs.
  * Every timestamp is stored as toISOString() writes it, so text comparison is time comparison.
  */
-export function localHourSql(column: string, fromIso: string, toIso: string, timeZone: string): { sql: string; bindings: string[] } {
-  const stretches = offsetStretches(Date.parse(fromIso), Date.parse(toIso), timeZone);
+export function localHourSql(column: string, fromMs: number, toMs: number, timeZone: string): { sql: string; bindings: string[] } {
+  const stretches = offsetStretches(fromMs, toMs, timeZone);
   const modifier = (m: number) => `${m >= 0 ? '+' : ''}${m} minutes`;
   if (stretches.length === 1) {
     return { sql: `CAST(strftime('%H', ${column}, ?) AS INTEGER)`, bindings: [modifier(stretches[0].offsetMinutes)] };

@@ -18,12 +18,16 @@ export interface Scope {
   period: ReportPeriod;
   location: ReportLocation;
   targetSeconds: number;
+  /** instants (ms) every order of the period was taken between, with a day to spare either side */
+  spanMs: [number, number];
   /** SQL condition on the orders table aliased `o`, with its bindings */
   where: string;
   bindings: (string | number)[];
 }
 
 /** Orders whose money counts: paid, or paid and then refunded in part or in full. */
+const DAY_MS = 86_400_000;
+
 export const PAID = `o.payment_status IN ('paid', 'refunded')`;
 
 export async function loadReportLocation(db: Knex, locationId: number): Promise<ReportLocation> {
@@ -53,6 +57,7 @@ export async function shiftScope(db: Knex, locationId: number, shiftId: number, 
     },
     location,
     targetSeconds: s.wait_target_seconds,
+    spanMs: [Date.parse(s.opened_at) - DAY_MS, (s.closed_at ? Date.parse(s.closed_at) : now.getTime()) + DAY_MS],
     where: 'o.location_id = ? AND o.shift_id = ?',
     bindings: [locationId, shiftId],
   };
@@ -64,6 +69,8 @@ export async function rangeScope(db: Knex, locationId: number, from: string, to:
     period: { kind: 'range', from, to },
     location,
     targetSeconds: location.waitTargetSeconds,
+    // a café-local date starts within 14 hours of the same date's UTC midnight
+    spanMs: [Date.parse(`${from}T00:00:00Z`) - DAY_MS, Date.parse(`${to}T00:00:00Z`) + 2 * DAY_MS],
     where: 'o.location_id = ? AND o.business_date BETWEEN ? AND ?',
     bindings: [locationId, from, to],
   };

@@ -26,9 +26,9 @@ const WAIT = `CASE WHEN o.fired_at IS NOT NULL AND o.ready_at IS NOT NULL AND ${
 const SORT_SQL: Record<TicketSort, string> = {
   number: 'o.number',
   createdAt: 'o.created_at',
-  wait: 'wait',
+  wait: WAIT,
   total: 'o.total_cents',
-  customer: 'o.customer_name COLLATE NOCASE',
+  customer: 'o.customer_name',
 };
 
 function whereOf(locationId: number, f: TicketFilter): { sql: string; bindings: (string | number)[] } {
@@ -69,18 +69,25 @@ function toRow(r: Record<string, any>): TicketHistoryRow {
   };
 }
 
-/** Rows in the asked order; `limit` null for all of them (the CSV). */
+/**
+ * Rows in the asked order; `limit` null for all of them (the CSV). The page is chosen on the sort
+ * key alone, so the per-ticket columns (wait, drink count) are worked out only for its rows.
+ */
 export async function ticketRows(db: Knex, locationId: number, q: Omit<TicketQuery, 'page' | 'pageSize'>, limit: number | null, offset = 0) {
   const where = whereOf(locationId, q);
   const dir = q.dir === 'asc' ? 'ASC' : 'DESC';
-  // Tickets without a wait sort after those with one, whichever the direction.
-  const order = q.sort === 'wait' ? `wait IS NULL, wait ${dir}` : `${SORT_SQL[q.sort]} ${dir}`;
+  const collate = q.sort === 'customer' ? ' COLLATE NOCASE' : '';
+  // Tickets without a wait sort after those with one, whichever the direction; ties by order id.
+  const orderBy = (k: string, id: string) => `${q.sort === 'wait' ? `${k} IS NULL, ` : ''}${k}${collate} ${dir}, ${id} ${dir}`;
   const rows: Record<string, any>[] = await db.raw(
-    `SELECT o.id, o.business_date, o.number, o.customer_name, o.status, o.payment_status, o.payment_method,
-       o.total_cents, o.refunded_cents, o.created_at, o.ready_at, ${WAIT} AS wait, ${BAR_DRINKS} AS drinks
-     FROM orders o WHERE ${where.sql}
-     ORDER BY ${order}, o.id ${dir}
-     ${limit === null ? '' : 'LIMIT ? OFFSET ?'}`,
+    `WITH p AS (
+       SELECT o.id AS id, ${SORT_SQL[q.sort]} AS k FROM orders o WHERE ${where.sql}
+       ORDER BY ${orderBy('k', 'o.id')} ${limit === null ? '' : 'LIMIT ? OFFSET ?'}
+     )
+     SELECT o.id, o.business_date, o.number, o.customer_name, o.status, o.payment_status, o.payment_method,
+       o.total_cents, o.refunded_cents, o.created_at, o.ready_at, ${q.sort === 'wait' ? 'p.k' : WAIT} AS wait, ${BAR_DRINKS} AS drinks
+     FROM p JOIN orders o ON o.id = p.id
+     ORDER BY ${orderBy('p.k', 'p.id')}`,
     limit === null ? where.bindings : [...where.bindings, limit, offset],
   );
   return rows.map(toRow);

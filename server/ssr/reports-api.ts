@@ -1,0 +1,19 @@
+// The Reports part of the screens' Api during server rendering: straight to the services.
+import { parse } from '../errors';
+import { reportRangeQuery, ticketHistoryQuery } from '../../src/domain/schemas';
+import type { ReportsApi } from '../../src/lib/reports-api';
+import type { Deps } from '../services/deps';
+import { rangeReport, reportShifts, shiftReport, ticketHistory } from '../services/reports';
+
+/** `locationId` throws 401 when nobody is signed in. Input is checked as the HTTP routes check it. */
+export function reportsServerApi(deps: Deps, locationId: () => number): ReportsApi {
+  return {
+    shifts: () => reportShifts(deps.db, locationId(), deps.clock()),
+    shift: (id) => shiftReport(deps.db, locationId(), id, deps.clock()),
+    range: (from, to) => {
+      const q = parse(reportRangeQuery, { from, to }, 'query');
+      return rangeReport(deps.db, locationId(), q.from, q.to);
+    },
+    tickets: (params) => ticketHistory(deps.db, locationId(), parse(ticketHistoryQuery, params, 'query')),
+  };
+}
