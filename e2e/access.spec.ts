@@ -66,3 +66,13 @@ test('the Bar and Pickup hydrate without console errors', async ({ browser }) =>
   await expect(bar.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
   expect(errorsOf(bar)).toEqual([]);
 });
+
+test('signing out from a screen returns to sign-in and closes the screen to that browser', async ({ browser }) => {
+  const page = await pageAs(browser, 'lead', '/bar');
+  await expect(page.getByRole('navigation', { name: 'Screens' })).toContainText('Theo Brand');
+  await expect(page.getByRole('link', { name: 'Pulse' })).toBeVisible(); // the lead's other screens
+  await page.getByRole('button', { name: 'Sign out' }).click();
+  await expect(page).toHaveURL(/\/signin$/);
+  await page.goto('/bar');
+  await expect(page).toHaveURL(/\/signin\?next=%2Fbar$/);
+});

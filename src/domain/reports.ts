@@ -136,5 +136,8 @@ export function formatShare(share: number | null, locale = 'en-US'): string {
   return new Intl.NumberFormat(locale, { style: 'percent', maximumFractionDigits: 1 }).format(share);
 }
 
+/** 163042 → "163,042". */
+export const formatCount = (n: number, locale = 'en-US') => new Intl.NumberFormat(locale).format(n);
+
 /** 7 → "07:00". */
 export const hourLabel = (hour: number) => `${String(hour).padStart(2, '0')}:00`;

@@ -5,6 +5,7 @@ import type { PulseView } from '../domain/pulse';
 import type { Role } from '../domain/roles';
 import type { BoardSnapshot, MenuView, OrderView } from '../domain/types';
 import { http } from './http';
+import { httpReportsApi, type ReportsApi } from './reports-api';
 
 export interface PublicUser {
   id: number;
@@ -24,6 +25,8 @@ export interface Api {
   pulse(): Promise<PulseView>;
   /** Mail the local SMTP fake caught for this café, newest first. */
   outbox(): Promise<OutboxView>;
+  /** Reports for the lead and the owner (src/lib/reports-api.ts). */
+  reports: ReportsApi;
 }
 
 export const httpApi: Api = {
@@ -32,6 +35,7 @@ export const httpApi: Api = {
   tickets: () => http('GET', '/tickets?status=board'),
   pickup: () => http('GET', '/pickup'),
   outbox: () => http('GET', '/outbox'),
+  reports: httpReportsApi,
   orders: (q) => http('GET', `/orders${q ? `?q=${encodeURIComponent(q)}` : ''}`),
   order: (id) => http('GET', `/orders/${id}`),
   pulse: () => http('GET', '/pulse'),

@@ -8,6 +8,7 @@ import { can } from '../domain/roles';
 import { RECALL_WINDOW_SECONDS } from '../domain/timing';
 import { Button } from '../components/ui/button';
 import { LinkStateBadge } from '../components/ui/link-state';
+import { StaffMenu } from '../components/ui/staff-menu';
 import { barBoardQuery } from '../features/board/queries';
 import { useLiveBoard } from '../features/board/use-live-board';
 import { useBarCommand } from '../features/bar/commands';
@@ -67,6 +68,7 @@ function Bar() {
           </p>
         )}
         <LinkStateBadge state={link} className="ml-auto text-xl" />
+        <StaffMenu dark />
       </header>
 
       <main className="flex flex-1 gap-4 overflow-x-auto px-5 pb-3" aria-label="Milk lanes">

@@ -11,6 +11,7 @@ import { orderDraft, type OrderDraft, type OrderDraftInput, type OrderLineInput 
 import type { MenuItemView, OrderView } from '../domain/types';
 import { Button } from '../components/ui/button';
 import { LinkStateBadge } from '../components/ui/link-state';
+import { StaffMenu } from '../components/ui/staff-menu';
 import { barBoardQuery } from '../features/board/queries';
 import { useLiveBoard } from '../features/board/use-live-board';
 import { emptyCheckout, previewTotals, tenderedCents, type Checkout } from '../features/counter/checkout';
@@ -125,6 +126,7 @@ function Counter() {
         </Button>
         <span className="hidden text-sm text-ink-600 xl:inline">Keys: 1–9 tile · Enter add · Esc close</span>
         <LinkStateBadge state={link} className="ml-auto text-base" />
+        <StaffMenu />
       </header>
       <PendingOrdersBanner queue={outbox} currency={menu.location.currency} />
       <ReadyStrip tickets={board.tickets} />

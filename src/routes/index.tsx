@@ -12,6 +12,7 @@ import { labelsRoute } from './labels';
 import { pickupRoute } from './pickup';
 import { pulseRoute } from './pulse';
 import { receiptRoute } from './receipt';
+import { reportsRoute } from './reports';
 import { signInRoute } from './signin';
 import type { RouteDeps } from './deps';
 
@@ -43,6 +44,7 @@ export function createRoutes(deps: RouteDeps): RouteObject[] {
         { id: 'receipt', path: 'receipts/:id', ...receiptRoute(deps) },
         { id: 'labels', path: 'labels/:id', ...labelsRoute(deps) },
         { id: 'outbox', path: 'outbox', ...outboxRoute(deps) },
+        { id: 'reports', path: 'reports', ...reportsRoute(deps) },
         {
           id: 'not-found',
           path: '*',

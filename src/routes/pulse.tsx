@@ -4,6 +4,7 @@ import { lazy, Suspense, useEffect, useState } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
 import type { WaitSummary } from '../domain/pulse';
 import { LinkStateBadge } from '../components/ui/link-state';
+import { StaffMenu } from '../components/ui/staff-menu';
 import { barBoardQuery } from '../features/board/queries';
 import { useLiveBoard } from '../features/board/use-live-board';
 import { menuQuery } from '../features/menu/queries';
@@ -85,10 +86,8 @@ function Pulse() {
         <h1 className="text-3xl font-semibold">Pulse</h1>
         <span className="text-lg text-ink-600">{menu.location.name}</span>
         <span className="text-lg">Target {Math.round(p.targetSeconds / 60)} min</span>
-        <a className="text-lg underline" href="/reports">
-          Reports
-        </a>
         <LinkStateBadge state={link} className="ml-auto" />
+        <StaffMenu />
       </header>
       {p.alert && (
         <p role="alert" className="mt-3 rounded-xl border-2 border-ink-900 bg-alert-ink px-4 py-3 text-xl font-semibold">

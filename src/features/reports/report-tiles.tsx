@@ -1,0 +1,55 @@
+// The report's headline numbers as tiles, and which percentile definition the waits use.
+import type { ReactNode } from 'react';
+import { formatCents } from '../../domain/money';
+import { formatCount, formatShare, formatWait, type ReportView } from '../../domain/reports';
+import { PERCENTILE_METHOD } from '../../domain/stats';
+
+export function Tile({ label, value, hint, testId }: { label: string; value: ReactNode; hint?: ReactNode; testId?: string }) {
+  return (
+    <div className="rounded-xl border border-steam-200 bg-white px-4 py-3" data-testid={testId}>
+      <dt className="text-sm font-semibold tracking-widest text-ink-600 uppercase">{label}</dt>
+      <dd className="font-display text-3xl font-semibold whitespace-nowrap tabular-nums 2xl:text-4xl">{value}</dd>
+      {hint && <dd className="text-sm text-ink-600">{hint}</dd>}
+    </div>
+  );
+}
+
+export function ReportTiles({ report }: { report: ReportView }) {
+  const money = (cents: number) => formatCents(cents, report.currency, report.locale);
+  const { waits } = report;
+  const target = formatWait(report.targetSeconds);
+  const group = 'grid grid-cols-3 gap-3 lg:grid-cols-6';
+  const heading = 'mb-1 text-sm font-semibold tracking-widest text-ink-600 uppercase';
+  return (
+    <>
+      <section aria-labelledby="sales-heading">
+        <h2 id="sales-heading" className={heading}>
+          Sales
+        </h2>
+        <dl className={group}>
+          <Tile label="Orders" value={formatCount(report.orders, report.locale)} hint="paid" testId="tile-orders" />
+          <Tile label="Drinks" value={formatCount(report.drinks, report.locale)} hint="from the bar" testId="tile-drinks" />
+          <Tile label="Net revenue" value={money(report.netCents)} hint={`gross ${money(report.grossCents)} less refunds`} testId="tile-net" />
+          <Tile label="Tax" value={money(report.taxCents)} hint="charged" />
+          <Tile label="Discounts" value={money(report.discountCents)} hint="given" />
+          <Tile label="Refunds" value={money(report.refundsCents)} hint="given back" />
+        </dl>
+      </section>
+      <section aria-labelledby="waits-heading">
+        <h2 id="waits-heading" className={heading}>
+          Ticket waits
+        </h2>
+        <div className={group}>
+          <dl className="col-span-3 grid grid-cols-3 gap-3">
+            <Tile label="Median wait" value={formatWait(waits.medianSeconds)} hint={`of ${formatCount(waits.count, report.locale)} ${waits.count === 1 ? 'ticket' : 'tickets'} timed`} testId="tile-median" />
+            <Tile label="p90 wait" value={formatWait(waits.p90Seconds)} hint="9 in 10 waited less" testId="tile-p90" />
+            <Tile label="Over target" value={formatShare(waits.overTargetShare, report.locale)} hint={`waited longer than ${target}`} />
+          </dl>
+          <p className="col-span-3 self-center text-base text-ink-600" data-testid="percentile-method">
+            Wait: from the ticket reaching the bar to ready, in minutes:seconds. Median and 90th percentile (p90) by {PERCENTILE_METHOD}.
+          </p>
+        </div>
+      </section>
+    </>
+  );
+}

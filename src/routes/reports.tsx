@@ -1,0 +1,106 @@
+// Reports, for the lead and the owner: a shift's, today's or some dates' numbers, the bar's use
+// of milk and coffee, the day by the hour, and every ticket, with CSV downloads. Light theme.
+import { useSuspenseQuery } from '@tanstack/react-query';
+import { useMemo } from 'react';
+import { data, Link, useSearchParams, type LoaderFunctionArgs } from 'react-router';
+import type { ReportView } from '../domain/reports';
+import { buttonStyles } from '../components/ui/button';
+import { HourlyTable, OverTargetList } from '../features/reports/hourly-table';
+import { periodFrom, ticketParams, type PeriodChoice } from '../features/reports/params';
+import { PeriodPicker, shiftLabel } from '../features/reports/period-picker';
+import { reportQuery, reportShiftsQuery, ticketHistoryQuery } from '../features/reports/queries';
+import { BarUse, PaymentMix, TopItems } from '../features/reports/report-breakdowns';
+import { ReportTiles } from '../features/reports/report-tiles';
+import { TicketTable } from '../features/reports/ticket-table';
+import { useApi } from '../lib/api-context';
+import { queryString } from '../lib/reports-api';
+import { requireScreen, type RouteDeps } from './deps';
+
+type Period = Exclude<PeriodChoice, { kind: 'today' }>;
+const periodOf = (choice: PeriodChoice, today: string): Period => (choice.kind === 'today' ? { kind: 'range', from: today, to: today } : choice);
+
+function dayLabel(date: string, locale: string) {
+  return new Intl.DateTimeFormat(locale, { weekday: 'short', day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' }).format(
+    new Date(`${date}T00:00:00Z`),
+  );
+}
+
+function periodTitle(choice: PeriodChoice, report: ReportView): string {
+  const { period, locale, timeZone } = report;
+  if (period.shift) return `Shift · ${shiftLabel(period.shift, locale, timeZone)}`;
+  const days = period.from === period.to ? dayLabel(period.from, locale) : `${dayLabel(period.from, locale)} – ${dayLabel(period.to, locale)}`;
+  return choice.kind === 'today' ? `Today · ${days}` : days;
+}
+
+function reportCsvHref(period: Period) {
+  return period.kind === 'shift' ? `/api/reports/shift/${period.id}.csv` : `/api/reports/range.csv${queryString({ from: period.from, to: period.to })}`;
+}
+
+function Reports() {
+  const api = useApi();
+  const [search] = useSearchParams();
+  const { data: shifts } = useSuspenseQuery(reportShiftsQuery(api));
+  const choice = periodFrom(search);
+  const period = periodOf(choice, shifts.today);
+  const { data: report } = useSuspenseQuery(reportQuery(api, period));
+  const params = ticketParams(report.period, search);
+  const { data: tickets } = useSuspenseQuery(ticketHistoryQuery(api, params));
+  const multiDay = report.period.from !== report.period.to;
+  const context = useMemo(
+    () => ({ currency: report.currency, locale: report.locale, timeZone: report.timeZone, targetSeconds: report.targetSeconds, multiDay }),
+    [report.currency, report.locale, report.timeZone, report.targetSeconds, multiDay],
+  );
+
+  return (
+    <div className="min-h-screen bg-steam-50 text-ink-900">
+      <header className="flex flex-wrap items-center gap-x-6 gap-y-2 border-b border-steam-200 px-5 py-3">
+        <h1 className="text-2xl font-semibold">Reports</h1>
+        <p className="text-lg text-ink-600" data-testid="period-title">
+          {periodTitle(choice, report)}
+        </p>
+        <a href={reportCsvHref(period)} download className={buttonStyles({ tone: 'quiet' })} data-testid="report-csv">
+          Download report CSV
+        </a>
+        <Link to="/" className="ml-auto text-lg font-semibold underline">
+          Back to my screen
+        </Link>
+      </header>
+      <main className="flex flex-col gap-4 p-5">
+        <PeriodPicker choice={choice} shifts={shifts} dates={report.period} locale={report.locale} />
+        <ReportTiles report={report} />
+        <div className="grid grid-cols-3 items-start gap-4">
+          <PaymentMix report={report} />
+          <BarUse report={report} />
+          <TopItems report={report} />
+          <HourlyTable report={report} />
+          <OverTargetList report={report} multiDay={multiDay} />
+        </div>
+        <TicketTable key={`${params.from}_${params.to}`} page={tickets} params={params} context={context} />
+      </main>
+    </div>
+  );
+}
+
+/** A shift that isn't there (or is another café's) is the 404 page. */
+async function loadReport(deps: RouteDeps, period: Period) {
+  try {
+    return await deps.queryClient.ensureQueryData(reportQuery(deps.api, period));
+  } catch (err) {
+    if ((err as { status?: number })?.status === 404) throw data({ message: 'There is no such shift.' }, { status: 404, statusText: 'Not Found' });
+    throw err;
+  }
+}
+
+export const reportsRoute = (deps: RouteDeps) => ({
+  Component: Reports,
+  handle: { title: 'Reports' },
+  loader: async ({ request }: LoaderFunctionArgs) => {
+    await requireScreen(deps, request, 'viewReports');
+    const search = new URL(request.url).searchParams;
+    const shifts = await deps.queryClient.ensureQueryData(reportShiftsQuery(deps.api));
+    const report = await loadReport(deps, periodOf(periodFrom(search), shifts.today));
+    await deps.queryClient.ensureQueryData(ticketHistoryQuery(deps.api, ticketParams(report.period, search)));
+    return null;
+  },
+});
+

@@ -1,0 +1,40 @@
+// UTC offsets of a café's zone over a period, for the Reports' café-local hours.
+// US daylight saving time (from memory: Energy Policy Act of 2005): it starts on the second Sunday
+// of March at 02:00 local standard time and ends on the first Sunday of November at 02:00 local
+// daylight time. In 2026: 8 March 07:00 UTC (EST, UTC−5 → EDT, UTC−4) and 1 November 06:00 UTC.
+// India (from memory): UTC+05:30 all year, no daylight saving time.
+import { describe, expect, it } from 'vitest';
+import { offsetMinutes, offsetStretches } from '../../server/services/reports/local-hours';
+
+const ms = (iso: string) => Date.parse(iso);
+
+describe('offsetMinutes', () => {
+  it('New York: −300 in winter, −240 in summer; Kolkata +330; UTC 0', () => {
+    expect(offsetMinutes(ms('2026-01-15T12:00:00Z'), 'America/New_York')).toBe(-300);
+    expect(offsetMinutes(ms('2026-07-15T12:00:00Z'), 'America/New_York')).toBe(-240);
+    expect(offsetMinutes(ms('2026-07-15T12:00:00Z'), 'Asia/Kolkata')).toBe(330);
+    expect(offsetMinutes(ms('2026-07-15T12:00:00.999Z'), 'UTC')).toBe(0);
+  });
+});
+
+describe('offsetStretches', () => {
+  it('a year in New York: three stretches, changing on the exact millisecond of each switch', () => {
+    expect(offsetStretches(ms('2025-12-01T05:00:00Z'), ms('2026-12-01T05:00:00Z'), 'America/New_York')).toEqual([
+      { startMs: ms('2025-12-01T05:00:00Z'), offsetMinutes: -300 },
+      { startMs: ms('2026-03-08T07:00:00.000Z'), offsetMinutes: -240 },
+      { startMs: ms('2026-11-01T06:00:00.000Z'), offsetMinutes: -300 },
+    ]);
+  });
+
+  it('a switch inside the last, partial day is found too', () => {
+    const stretches = offsetStretches(ms('2026-03-07T12:00:00Z'), ms('2026-03-08T08:00:00Z'), 'America/New_York');
+    expect(stretches.map((s) => s.offsetMinutes)).toEqual([-300, -240]);
+    expect(stretches[1].startMs).toBe(ms('2026-03-08T07:00:00Z'));
+  });
+
+  it('a zone without daylight saving time: one stretch', () => {
+    expect(offsetStretches(ms('2026-01-01T00:00:00Z'), ms('2026-12-31T00:00:00Z'), 'Asia/Kolkata')).toEqual([
+      { startMs: ms('2026-01-01T00:00:00Z'), offsetMinutes: 330 },
+    ]);
+  });
+});
