@@ -50,7 +50,7 @@ export function reportRoutes(deps: Deps): ApiRoute[] {
       capability: 'viewReports',
       handler: async (req, res) => {
         const { from, to } = parse(reportRangeQuery, req.query, 'query');
-        sendCsv(res, `jugline-report-${span(from, to)}.csv`, reportCsv(await rangeReport(deps.db, userOf(req).locationId, from, to)));
+        sendCsv(res, `jugline-report-${span(from, to)}.csv`, reportCsv(await rangeReport(deps.db, userOf(req).locationId, from, to, deps.clock())));
       },
     },
     {
@@ -59,7 +59,7 @@ export function reportRoutes(deps: Deps): ApiRoute[] {
       capability: 'viewReports',
       handler: async (req, res) => {
         const { from, to } = parse(reportRangeQuery, req.query, 'query');
-        res.json(await rangeReport(deps.db, userOf(req).locationId, from, to));
+        res.json(await rangeReport(deps.db, userOf(req).locationId, from, to, deps.clock()));
       },
     },
     {

@@ -7,6 +7,7 @@ import { conflict, notFound } from '../errors';
 import type { Deps } from './deps';
 import { appendEvent, latestSeq, runCommand } from './events';
 import { loadLocation, loadPitchers } from './menu';
+import { WAIT_OF_ORDER } from './reports/sql';
 import { loadBoardTickets, loadTicket } from './ticket-views';
 
 
@@ -71,7 +72,10 @@ async function settleTicket(trx: Knex.Transaction, orderId: number, at: string) 
     .whereNot({ status: 'done' })
     .count<{ n: number }>({ n: '*' })
     .first();
-  if (Number(left?.n) === 0) await trx('orders').where({ id: orderId, status: 'open' }).update({ status: 'ready', ready_at: at });
+  if (Number(left?.n) === 0) {
+    const changed = await trx('orders').where({ id: orderId, status: 'open' }).update({ status: 'ready', ready_at: at });
+    if (changed) await trx.raw(`UPDATE orders AS o SET wait_seconds = ${WAIT_OF_ORDER} WHERE o.id = ?`, [orderId]);
+  }
 }
 
 /** One event per ticket the command touched, each carrying the ticket's new state. */
@@ -163,7 +167,7 @@ export function recallTicket(deps: Deps, user: SessionUser, orderId: number) {
     await trx('order_items')
       .where({ order_id: orderId, bump_seq: last.bump_seq })
       .update({ status: 'making', done_at: null, done_by: null, bump_seq: null });
-    await trx('orders').where({ id: orderId }).update({ status: 'open', ready_at: null });
+    await trx('orders').where({ id: orderId }).update({ status: 'open', ready_at: null, wait_seconds: null });
     const ticket = await loadTicket(trx, orderId);
     return { result: ticket, events: [await appendEvent(trx, user.locationId, 'ticket.recalled', ticket, at, user.id)] };
   });

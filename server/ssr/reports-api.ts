@@ -12,7 +12,7 @@ export function reportsServerApi(deps: Deps, locationId: () => number): ReportsA
     shift: (id) => shiftReport(deps.db, locationId(), id, deps.clock()),
     range: (from, to) => {
       const q = parse(reportRangeQuery, { from, to }, 'query');
-      return rangeReport(deps.db, locationId(), q.from, q.to);
+      return rangeReport(deps.db, locationId(), q.from, q.to, deps.clock());
     },
     tickets: (params) => ticketHistory(deps.db, locationId(), parse(ticketHistoryQuery, params, 'query')),
   };

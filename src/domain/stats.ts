@@ -13,8 +13,16 @@ export const PERCENTILE_METHOD = 'Hyndman & Fan type 7 (linear interpolation, as
  */
 export function quantile(values: number[], p: number): number {
   if (!(p >= 0 && p <= 1)) throw new RangeError(`quantile: p must be between 0 and 1, got ${p}`);
-  if (values.length === 0) return NaN;
-  const sorted = [...values].sort((a, b) => a - b);
+  return quantileOfSorted(sortedCopy(values), p);
+}
+
+/** Ascending copy; a typed array's numeric sort is the (a, b) => a − b order, several times faster. */
+function sortedCopy(values: number[]): Float64Array {
+  return Float64Array.from(values).sort();
+}
+
+function quantileOfSorted(sorted: Float64Array, p: number): number {
+  if (sorted.length === 0) return NaN;
   const h = (sorted.length - 1) * p;
   const lo = Math.floor(h);
   const hi = Math.ceil(h);
@@ -55,11 +63,12 @@ export function summarizeWaits(seconds: number[], targetSeconds: number): WaitSu
     if (s > max) max = s;
     if (s > targetSeconds) over++;
   }
+  const sorted = sortedCopy(seconds); // once, for both percentiles
   return {
     count: seconds.length,
     meanSeconds: mean(seconds),
-    medianSeconds: median(seconds),
-    p90Seconds: quantile(seconds, 0.9),
+    medianSeconds: quantileOfSorted(sorted, 0.5),
+    p90Seconds: quantileOfSorted(sorted, 0.9),
     maxSeconds: max,
     overTargetShare: over / seconds.length,
   };

@@ -1,9 +1,11 @@
-// A period's report in four passes, each an SQL aggregate except the waits: the orders by
-// café-local hour (money), their lines by item, milk and hour (drinks, milk, shots, items), the
-// ticket waits (two numeric columns: hour and seconds, for the percentiles) and the 20 longest.
+// A shift's report in four passes (a range's is summed day by day: ./days.ts), each an SQL
+// aggregate except the waits: the orders by café-local hour (money), their lines by item, milk and
+// hour (drinks, milk, shots, items), the ticket waits (two numeric columns: hour and seconds, for
+// the percentiles) and the 20 longest.
 import type { Knex } from 'knex';
 import type { HourRow, OverTargetTicket, ReportView } from '../../../src/domain/reports';
 import { median, summarizeWaits } from '../../../src/domain/stats';
+import { datesBetween, mergeDays, rangeDays } from './days';
 import { localHourSql } from './local-hours';
 import { PAID, rangeScope, shiftScope, type Scope } from './scope';
 import { HAS_WAIT, WAIT_SECONDS, n } from './sql';
@@ -17,9 +19,21 @@ export async function shiftReport(db: Knex, locationId: number, shiftId: number,
   return buildReport(db, await shiftScope(db, locationId, shiftId, now));
 }
 
-/** From and to are café-local dates (YYYY-MM-DD), both included. */
-export async function rangeReport(db: Knex, locationId: number, fromDate: string, toDate: string): Promise<ReportView> {
-  return buildReport(db, await rangeScope(db, locationId, fromDate, toDate));
+/**
+ * From and to are café-local dates (YYYY-MM-DD), both included. Summed day by day: past days'
+ * partials are kept in report_days (./days.ts), today's are worked out live; `now` says which is today.
+ */
+export async function rangeReport(db: Knex, locationId: number, fromDate: string, toDate: string, now = new Date()): Promise<ReportView> {
+  const s = await rangeScope(db, locationId, fromDate, toDate);
+  const parts = await rangeDays(db, s.location, fromDate, toDate, now);
+  return {
+    period: s.period,
+    currency: s.location.currency,
+    locale: s.location.locale,
+    timeZone: s.location.timeZone,
+    targetSeconds: s.targetSeconds,
+    ...mergeDays(parts, datesBetween(fromDate, toDate), s.targetSeconds),
+  };
 }
 
 const hourSql = (s: Scope) => localHourSql('o.created_at', s.spanMs[0], s.spanMs[1], s.location.timeZone);

@@ -2,7 +2,7 @@
 import type { Knex } from 'knex';
 import type { TicketHistoryPage, TicketHistoryRow, TicketSort } from '../../../src/domain/reports';
 import type { TicketStatus } from '../../../src/domain/types';
-import { BAR_DRINKS, HAS_BAR_DRINK, WAIT_SECONDS } from './sql';
+import { BAR_DRINKS } from './sql';
 
 export interface TicketFilter {
   /** café-local dates, both included; left out: no bound */
@@ -20,7 +20,8 @@ export interface TicketQuery extends TicketFilter {
   pageSize: number;
 }
 
-const WAIT = `CASE WHEN o.fired_at IS NOT NULL AND o.ready_at IS NOT NULL AND ${HAS_BAR_DRINK} THEN ${WAIT_SECONDS} END`;
+/** WAIT_OF_ORDER (./sql.ts), stored when the ticket became ready */
+const WAIT = 'o.wait_seconds';
 
 /** Sort columns by name, never from the request's text. Ties fall back to the order id. */
 const SORT_SQL: Record<TicketSort, string> = {
