@@ -123,3 +123,24 @@ test("an item the lead 86'd greys out on an open Counter at once, and comes back
   await lead.dispose();
   expect(errorsOf(counter)).toEqual([]);
 });
+
+test('a drink that contains the customer’s allergen is caught at the Counter and flagged on the Bar', async ({ browser }) => {
+  const counter = await pageAs(browser, 'cashier', '/counter', { width: 1024, height: 768 });
+  const bar = await pageAs(browser, 'barista', '/bar');
+  await counter.getByRole('button', { name: /^Flat white/ }).click();
+  await counter.getByRole('radio', { name: /Almond/ }).click();
+  await counter.getByRole('button', { name: /Add to order/ }).click();
+  await counter.getByLabel('Name for the cup').fill('Rhea Tamm');
+  await counter.getByRole('button', { name: /Allergy/ }).click();
+  await counter.getByRole('button', { name: 'tree nuts' }).click();
+  const clash = counter.getByTestId('allergy-clash');
+  await expect(clash).toContainText('Flat white with almond milk contains tree nuts');
+  await expect(counter.getByRole('button', { name: /^Send/ })).toBeDisabled();
+  await counter.screenshot({ path: 'docs/screenshots/counter-allergy-clash.png' });
+  await clash.getByRole('checkbox').check();
+  await counter.getByRole('button', { name: /^Send/ }).click();
+  await expect(counter.getByRole('status').filter({ hasText: 'Rhea Tamm' })).toContainText('allergy flagged');
+  const card = bar.getByTestId('drink-card').filter({ hasText: 'Rhea Tamm' });
+  await expect(card.getByTestId('contains-clash')).toContainText('THIS DRINK CONTAINS TREE NUTS');
+  for (const page of [counter, bar]) expect(errorsOf(page)).toEqual([]);
+});

@@ -54,6 +54,7 @@ export async function up(knex: Knex): Promise<void> {
     t.integer('milk_ml').notNullable().defaultTo(0);
     t.string('texture', 8);
     t.json('modifiers').notNullable().defaultTo('[]');
+    t.json('contains').notNullable().defaultTo('[]'); // allergens of the item, its milk and extras
     t.string('note', 140);
     t.integer('price_cents').notNullable();
     t.integer('dose_dg').notNullable().defaultTo(0); // coffee this drink's shots take, in 0.1 g

@@ -20,6 +20,7 @@ export function orderItemRow(line: ResolvedLine, orderId: number, lineNo: number
     dose_dg: line.doseDg,
     texture: line.texture,
     modifiers: JSON.stringify(line.modifiers),
+    contains: JSON.stringify(line.contains),
     note: line.note,
     price_cents: line.priceCents,
   };

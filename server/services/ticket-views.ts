@@ -18,6 +18,7 @@ function toDrink(r: Record<string, any>): DrinkView {
     texture: r.texture,
     modifiers: json<{ name: string }[]>(r.modifiers, []).map((m) => m.name),
     note: r.note,
+    contains: json<string[]>(r.contains, []),
     doseDg: r.dose_dg,
     status: r.status,
     startedAt: r.started_at,

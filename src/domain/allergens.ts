@@ -36,3 +36,8 @@ export type AllergenList = 'US' | 'EU';
 export function allergensOf(list: AllergenList): readonly string[] {
   return list === 'EU' ? EU_ALLERGENS : US_ALLERGENS;
 }
+
+/** The allergens a drink contains that the customer said they must avoid. */
+export function allergyClash(contains: readonly string[], avoid: readonly string[]): string[] {
+  return contains.filter((a) => avoid.includes(a));
+}

@@ -14,6 +14,8 @@ export interface ResolvedLine {
   milkMl: number;
   /** Coffee for the shots actually ordered, from the recipe's dose per shot, in 0.1 g. */
   doseDg: number;
+  /** Allergens the drink itself contains: the item's, its milk's and its extras'. */
+  contains: string[];
   texture: Texture | null;
   modifiers: { id: number; name: string; priceCents: number }[];
   note: string | null;
@@ -90,6 +92,7 @@ export function resolveLine(menu: MenuView, input: OrderLineInput): LineResult {
       shots,
       milkMl: item.takesMilk ? (size?.milkMl ?? 0) : 0,
       doseDg: size && size.shots > 0 ? Math.round((size.doseDg / size.shots) * shots) : 0,
+      contains: [...new Set([...item.allergens, ...(milk?.allergens ?? []), ...ids.flatMap((id) => menu.modifiers.find((m) => m.id === id)?.allergens ?? [])])],
       texture: item.texture,
       modifiers: modifiers.map(({ id, name, priceCents }) => ({ id, name, priceCents })),
       note: input.note ? input.note : null,

@@ -118,6 +118,8 @@ export interface DrinkView {
   texture: Texture | null;
   modifiers: string[];
   note: string | null;
+  /** Allergens the drink itself contains (its milk, extras, the item). */
+  contains: string[];
   /** Ground coffee for this drink's shots, in tenths of a gram. */
   doseDg: number;
   status: DrinkStatus;

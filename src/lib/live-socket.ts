@@ -63,7 +63,9 @@ export function connectLive(url: string, h: LiveSocketHandlers): () => void {
       if (stopped) return;
       if (event.code === SIGNED_OUT) {
         // this session was signed out (here or on another tab): back to sign-in, no retry
-        window.location.assign(`/signin?next=${encodeURIComponent(window.location.pathname)}`);
+        if (!window.location.pathname.startsWith('/signin')) {
+          window.location.assign(`/signin?next=${encodeURIComponent(window.location.pathname)}`);
+        }
         return;
       }
       h.onState('offline');

@@ -45,6 +45,7 @@ function Counter() {
   const [checkout, setCheckout] = useState<Checkout>(emptyCheckout);
   const [sent, setSent] = useState<OrderView | null>(null);
   const [ordersOpen, setOrdersOpen] = useState(false);
+  const [orderCount, setOrderCount] = useState(0);
   // One id per order being built: a retry after a lost answer (or a declined card) can't take
   // the order twice.
   const clientOrderId = useRef<string | null>(null);
@@ -77,6 +78,7 @@ function Counter() {
   const closeSheet = useCallback(() => setSheet(null), []);
 
   const finish = (order: OrderView | null) => {
+    setOrderCount((n) => n + 1); // a fresh checkout panel (allergy picker closed) for the next customer
     setSent(order);
     clientOrderId.current = null;
     form.reset(BLANK_DRAFT);
@@ -117,7 +119,7 @@ function Counter() {
     <div className="flex h-screen flex-col bg-steam-50 text-ink-900">
       <header className="flex items-center gap-6 border-b border-steam-200 px-5 py-3">
         <h1 className="text-2xl font-semibold">Counter</h1>
-        <span className="text-lg text-ink-600">{menu.location.name}</span>
+        <span className="hidden text-lg text-ink-600 xl:inline">{menu.location.name}</span>
         <span data-testid="queue-glance" className="text-lg">
           In the queue: <strong>{queued.length}</strong> drink{queued.length === 1 ? '' : 's'}
         </span>
@@ -131,10 +133,15 @@ function Counter() {
       <PendingOrdersBanner queue={outbox} currency={menu.location.currency} />
       <ReadyStrip tickets={board.tickets} />
       {sent && (
-        <div role="status" className="flex flex-wrap items-center gap-x-5 gap-y-1 bg-ink-900 px-5 py-3 text-xl text-steam-50">
+        // over the menu, not above it: the tiles must not jump under the cashier's finger
+        <div
+          role="status"
+          className="fixed bottom-4 left-4 z-10 flex max-w-[calc(100%-30rem)] flex-wrap items-center gap-x-5 gap-y-1 rounded-xl bg-ink-900 px-5 py-3 text-xl text-steam-50 shadow-xl"
+        >
           <span>
             Sent <strong>#{sent.number}</strong> for <strong>{sent.customerName}</strong> · {money(sent.totalCents)}{' '}
             {sent.payment.method === 'card' ? '· card paid' : ''}
+            {sent.allergens.length > 0 || sent.allergyNote ? ' · ⚠ allergy flagged' : ''}
           </span>
           {sent.payment.method === 'cash' && (
             <span>
@@ -171,6 +178,7 @@ function Counter() {
             onRemoveLine={(index) => lines.remove(index)}
           />
           <CheckoutPanel
+            key={orderCount}
             menu={menu}
             form={form}
             checkout={checkout}
@@ -179,7 +187,15 @@ function Counter() {
             canDiscount={can(session.user?.role, 'giveDiscounts')}
           />
           </div>
-          <SendBar menu={menu} form={form} checkout={checkout} totalCents={totals.totalCents} sending={send.isPending} error={error} />
+          <SendBar
+            menu={menu}
+            form={form}
+            checkout={checkout}
+            onCheckout={setCheckout}
+            totalCents={totals.totalCents}
+            sending={send.isPending}
+            error={error}
+          />
         </aside>
       </form>
       {sheet && (

@@ -40,7 +40,7 @@ function Pickup() {
           <h1 id="making" className="font-display text-6xl font-semibold uppercase tracking-wide text-crema-300">
             Being made
           </h1>
-          <ul className="mt-8 flex flex-wrap gap-x-12 gap-y-4">
+          <ul className="mt-8 grid grid-cols-2 gap-x-10 gap-y-4">
             {making.map((t) => (
               <NameRow key={t.id} t={t} />
             ))}
@@ -50,7 +50,7 @@ function Pickup() {
           <h1 id="ready" className="font-display text-6xl font-semibold uppercase tracking-wide">
             Ready ✓
           </h1>
-          <ul className="mt-8 flex flex-wrap gap-x-12 gap-y-4">
+          <ul className="mt-8 grid grid-cols-2 gap-x-10 gap-y-4">
             {ready.map((t) => (
               <NameRow key={t.id} t={t} fresh={now - Date.parse(t.readyAt ?? '') < FRESH_MS} />
             ))}

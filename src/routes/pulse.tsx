@@ -17,7 +17,12 @@ import { requireScreen, type RouteDeps } from './deps';
 
 const PulseChart = lazy(() => import('../features/pulse/pulse-chart'));
 
-const min = (s: number | null) => (s === null ? '—' : `${(s / 60).toFixed(1)} min`);
+/** m:ss, as the Reports write waits too. */
+const min = (s: number | null) => {
+  if (s === null) return '—';
+  const r = Math.round(s);
+  return `${Math.floor(r / 60)}:${String(r % 60).padStart(2, '0')}`;
+};
 const pct = (x: number | null) => (x === null ? '—' : `${Math.round(x * 100)} %`);
 
 function Numbers({ w, target }: { w: WaitSummary; target: number }) {

@@ -45,6 +45,7 @@ function drink(ticketId: number, o: DrinkOpts = {}): DrinkView {
     texture: o.texture !== undefined ? o.texture : milk ? 'flat' : null,
     modifiers: [],
     note: null,
+    contains: [],
     doseDg: shots === 2 ? DOUBLE_DG : SINGLE_DG,
     status: o.status ?? 'queued',
     startedAt: o.status === 'making' ? '2025-03-01T08:20:00.000Z' : null,

@@ -19,6 +19,7 @@ function drink(ticketId: number, milk: MilkRef | null, shots: number, status: Dr
     texture: milk ? 'flat' : null,
     modifiers: [],
     note: null,
+    contains: [],
     doseDg: shots * 95,
     status,
     startedAt: null,

@@ -22,6 +22,7 @@ const aDrink: DrinkView = {
   texture: 'flat',
   modifiers: [],
   note: null,
+  contains: [],
   doseDg: 190,
   status: 'queued',
   startedAt: null,

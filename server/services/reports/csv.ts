@@ -57,10 +57,12 @@ export function reportCsv(report: ReportView): string {
   const w = report.waits;
   add('Waits', undefined, 'tickets timed', w.count);
   add('Waits', undefined, 'target (s)', report.targetSeconds);
-  add('Waits', undefined, 'mean (s)', w.meanSeconds);
-  add('Waits', undefined, 'median (s)', w.medianSeconds);
-  add('Waits', undefined, 'p90 (s)', w.p90Seconds);
-  add('Waits', undefined, 'max (s)', w.maxSeconds);
+  // seconds to one decimal: a spreadsheet has no use for 102.48490000000001
+  const s1 = (x: number | null) => (x === null ? null : Math.round(x * 10) / 10);
+  add('Waits', undefined, 'mean (s)', s1(w.meanSeconds));
+  add('Waits', undefined, 'median (s)', s1(w.medianSeconds));
+  add('Waits', undefined, 'p90 (s)', s1(w.p90Seconds));
+  add('Waits', undefined, 'max (s)', s1(w.maxSeconds));
   add('Waits', undefined, 'over target share', w.overTargetShare);
   add('Waits', undefined, 'percentile method', PERCENTILE_METHOD);
   add('Bar', undefined, 'shots pulled', report.shotsPulled);
@@ -75,7 +77,7 @@ export function reportCsv(report: ReportView): string {
     add('Hourly', label, 'orders', h.orders);
     add('Hourly', label, 'drinks', h.drinks);
     add('Hourly', label, `sales (${cur})`, amount(h.cents));
-    add('Hourly', label, 'median wait (s)', h.medianWaitSeconds);
+    add('Hourly', label, 'median wait (s)', h.medianWaitSeconds === null ? null : Math.round(h.medianWaitSeconds * 10) / 10);
   }
   for (const t of report.overTarget) add('Over target', `${t.businessDate} #${t.number} ${t.customerName}`, 'wait (s)', t.waitSeconds);
   return toCsv(

@@ -1,3 +1,4 @@
+import { allergyClash } from '../../domain/allergens';
 import { needsAllergyAck, hasAllergy, type DrinkCard as Card } from '../../domain/lanes';
 import { ticketAgeSeconds } from '../../domain/tickets';
 import { cn } from '../../lib/cn';
@@ -57,7 +58,7 @@ export function DrinkCard({ card, nowMs, targetSeconds, keyNumber, jugLabel, foc
           </kbd>
         )}
         <span className="font-display text-5xl leading-none font-semibold">#{card.ticketNumber}</span>
-        <span className="truncate text-2xl font-semibold">{card.customerName}</span>
+        <span className="truncate text-3xl font-semibold">{card.customerName}</span>
         {card.ticketSize > 1 && (
           <span className="ml-auto shrink-0 rounded-md border border-crema-300 px-2 text-lg font-semibold text-crema-300">
             {card.indexInTicket} of {card.ticketSize}
@@ -76,6 +77,11 @@ export function DrinkCard({ card, nowMs, targetSeconds, keyNumber, jugLabel, foc
           <p className="text-xl font-semibold">
             ⚠ ALLERGY: {[...card.allergens, card.allergyNote].filter(Boolean).join(' · ')}
           </p>
+          {allergyClash(card.contains, card.allergens).length > 0 && (
+            <p data-testid="contains-clash" className="mt-1 rounded bg-alert-ink px-2 text-xl font-semibold text-roast-950">
+              THIS DRINK CONTAINS {allergyClash(card.contains, card.allergens).join(', ').toUpperCase()} — check with the counter
+            </p>
+          )}
           {unread ? (
             <Button tone="dark" size="lg" className="mt-2 w-full border-alert-ink text-alert-ink" disabled={busy} onClick={onAcknowledge}>
               I have read the allergy

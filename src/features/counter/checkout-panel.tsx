@@ -9,7 +9,7 @@ import { Button } from '../../components/ui/button';
 import { FieldError } from '../../components/ui/field-error';
 import { Segmented } from '../../components/ui/segmented';
 import { AllergyPicker } from './allergy-picker';
-import { tenderedCents, type Checkout } from './checkout';
+import { clashesOf, tenderedCents, type Checkout } from './checkout';
 import { DiscountEditor } from './discount-editor';
 import { TEST_CARDS } from './test-cards';
 
@@ -156,13 +156,33 @@ export function CheckoutPanel({ menu, form, checkout, onCheckout, totalCents, ca
 }
 
 /** Always in view at the bottom of the order: what went wrong, and the one big action. */
-export function SendBar({ menu, form, checkout, totalCents, sending, error }: Omit<Props, 'onCheckout' | 'canDiscount'>) {
+export function SendBar({ menu, form, checkout, onCheckout, totalCents, sending, error }: Omit<Props, 'canDiscount'>) {
   const tendered = tenderedCents(checkout, totalCents);
   const items = form.watch('items');
+  const clashes = clashesOf(menu, items, form.watch('allergens') ?? []);
   const ready =
-    checkout.method === 'card' ? checkout.paymentMethod !== null : tendered !== null && tendered >= totalCents;
+    (checkout.method === 'card' ? checkout.paymentMethod !== null : tendered !== null && tendered >= totalCents) &&
+    (clashes.length === 0 || checkout.clashConfirmed);
   return (
     <div className="flex flex-col gap-2 border-t border-steam-200 bg-white pt-3">
+      {clashes.length > 0 && (
+        <div role="alert" data-testid="allergy-clash" className="rounded-lg border-2 border-ink-900 bg-alert-ink px-3 py-2 text-ink-900">
+          {clashes.map((c) => (
+            <p key={c.itemName} className="text-lg font-semibold">
+              ⚠ {c.itemName} contains {c.allergens.join(', ')} — on the customer’s allergy list.
+            </p>
+          ))}
+          <label className="mt-1 flex items-center gap-2 text-base">
+            <input
+              type="checkbox"
+              className="size-5"
+              checked={checkout.clashConfirmed}
+              onChange={(e) => onCheckout({ ...checkout, clashConfirmed: e.target.checked })}
+            />
+            Change the drink — or tick if the customer confirmed they want it
+          </label>
+        </div>
+      )}
       {error && (
         <p role="alert" className="rounded-lg bg-alert-ink px-3 py-2 text-lg font-semibold text-ink-900">
           {error}

@@ -2,6 +2,7 @@
 import { discountCents, orderTotals, parseAmountToCents, type OrderTotals } from '../../domain/money';
 import { resolveLine } from '../../domain/order-lines';
 import type { DiscountInput, OrderLineInput } from '../../domain/schemas';
+import { allergyClash } from '../../domain/allergens';
 import type { MenuView } from '../../domain/types';
 
 export interface Checkout {
@@ -11,9 +12,21 @@ export interface Checkout {
   paymentMethod: string | null;
   email: string;
   discount: DiscountInput | null;
+  /** The cashier checked with the customer that a drink containing their allergen is wanted. */
+  clashConfirmed: boolean;
 }
 
-export const emptyCheckout: Checkout = { method: 'cash', tendered: '', paymentMethod: null, email: '', discount: null };
+export const emptyCheckout: Checkout = { method: 'cash', tendered: '', paymentMethod: null, email: '', discount: null, clashConfirmed: false };
+
+/** "Almond milk… in Flat white contains tree nuts": each line that contains an allergen the customer avoids. */
+export function clashesOf(menu: MenuView, items: OrderLineInput[], avoid: string[]): { itemName: string; allergens: string[] }[] {
+  return items.flatMap((l) => {
+    const r = resolveLine(menu, l);
+    if (!r.ok) return [];
+    const allergens = allergyClash(r.line.contains, avoid);
+    return allergens.length ? [{ itemName: r.line.milk ? `${r.line.itemName} with ${r.line.milk.name.toLowerCase()} milk` : r.line.itemName, allergens }] : [];
+  });
+}
 
 /** The same pure pricing the server uses, for the running total on screen. */
 export function previewTotals(menu: MenuView, items: OrderLineInput[], discount: DiscountInput | null): OrderTotals {

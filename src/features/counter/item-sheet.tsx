@@ -28,11 +28,15 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
   );
   const priced = resolveLine(menu, line);
 
-  // Esc closes the sheet; Enter adds the drink (unless typing a note).
+  // Esc closes the sheet; Enter adds the drink — even right after tapping a choice, which would
+  // otherwise press that choice again (only the note field keeps Enter for itself).
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => {
       if (e.key === 'Escape') onClose();
-      else if (e.key === 'Enter' && !(e.target as HTMLElement | null)?.closest('input, button') && priced.ok) onAdd(line);
+      else if (e.key === 'Enter' && !(e.target as HTMLElement | null)?.closest('input, textarea')) {
+        e.preventDefault();
+        if (priced.ok) onAdd(line);
+      }
     };
     window.addEventListener('keydown', onKey);
     return () => window.removeEventListener('keydown', onKey);
@@ -51,7 +55,8 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
   return (
     <div role="dialog" aria-modal="true" aria-label={item.name} className="fixed inset-0 z-20 flex flex-col justify-end bg-ink-900/40">
       <button type="button" aria-label="Close" className="flex-1 cursor-default" onClick={onClose} />
-      <div className="max-h-[85vh] overflow-y-auto rounded-t-2xl bg-steam-50 p-6 shadow-2xl">
+      <div className="flex max-h-[92vh] flex-col rounded-t-2xl bg-steam-50 shadow-2xl">
+        <div className="overflow-y-auto px-6 pt-5 pb-3">
         <div className="flex items-baseline gap-4">
           <h2 className="text-3xl font-semibold">{item.name}</h2>
           <span className="text-2xl text-ink-600">{priced.ok ? money(priced.line.priceCents) : ''}</span>
@@ -145,8 +150,12 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
               onChange={(e) => setLine({ ...line, note: e.target.value || undefined })}
             />
           </label>
-          {!priced.ok && <p role="alert" className="font-semibold text-copper-700">{priced.problem.message}</p>}
-          <Button size="xl" disabled={!priced.ok} onClick={() => onAdd(line)}>
+        </div>
+        </div>
+        {/* pinned, so a 768 px tablet never scrolls to add a drink */}
+        <div className="border-t border-steam-200 px-6 py-3">
+          {!priced.ok && <p role="alert" className="mb-2 font-semibold text-copper-700">{priced.problem.message}</p>}
+          <Button size="xl" className="w-full" disabled={!priced.ok} onClick={() => onAdd(line)}>
             {initial ? 'Update line' : 'Add to order'} {priced.ok ? `· ${money(priced.line.priceCents)}` : ''}
           </Button>
         </div>
