@@ -39,6 +39,17 @@ export default defineConfig({
           hookTimeout: 30_000,
         },
       },
+      {
+        extends: true,
+        test: {
+          // kills and restarts the built server as a child process (`npm run test:faults`)
+          name: 'faults',
+          environment: 'node',
+          include: ['tests/faults/**/*.test.ts'],
+          execArgv: ['--import', 'tsx'],
+          testTimeout: 180_000,
+        },
+      },
     ],
   },
 });

@@ -76,3 +76,31 @@ test('signing out from a screen returns to sign-in and closes the screen to that
   await page.goto('/bar');
   await expect(page).toHaveURL(/\/signin\?next=%2Fbar$/);
 });
+
+test('pages carry a Content-Security-Policy with no inline script, and a hostile name renders as text', async ({ playwright, baseURL, browser }) => {
+  const api = await playwright.request.newContext({ baseURL });
+  await api.post('/api/session', { data: { username: 'cashier', password: DEMO_PASSWORD } });
+  const menu = await (await api.get('/api/menu')).json();
+  const espresso = menu.items.find((i: { name: string }) => i.name === 'Espresso').id;
+  const hostile = '<img src=x onerror="window.pwned=1">';
+  const res = await api.post('/api/orders', {
+    data: { clientOrderId: crypto.randomUUID(), customerName: hostile, items: [{ menuItemId: espresso }], payment: { method: 'cash', tenderedCents: 1000 } },
+  });
+  expect(res.status()).toBe(201);
+  await api.post('/api/session', { data: { username: 'barista', password: DEMO_PASSWORD } });
+  const page = await api.get('/bar');
+  const csp = page.headers()['content-security-policy'];
+  expect(csp).toContain("script-src 'self'");
+  expect(csp).not.toContain('unsafe-inline\'; script');
+  const html = await page.text();
+  expect(html).not.toContain(hostile); // neither in the markup nor in the JSON state
+  expect(html).toContain('&lt;img src=x onerror=');
+  // every script tag is either the bundle (src) or non-executable JSON
+  for (const tag of html.match(/<script[^>]*>/g) ?? []) expect(tag).toMatch(/src=|type="application\/json"/);
+  await api.dispose();
+
+  const bar = await pageAs(browser, 'barista', '/bar');
+  await expect(bar.getByTestId('drink-card').filter({ hasText: '<img src=x' }).first()).toBeVisible();
+  expect(await bar.evaluate(() => (window as unknown as { pwned?: number }).pwned)).toBeUndefined();
+  expect(errorsOf(bar)).toEqual([]);
+});

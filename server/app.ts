@@ -4,7 +4,9 @@ import express, { type RequestHandler } from 'express';
 import type { Knex } from 'knex';
 import { createPassport, createSessionMiddleware } from './auth/session';
 import type { Config } from './config';
+import { migrationConfig } from './db/knex';
 import { HttpError, errorHandler } from './errors';
+import { sameOriginOnly, securityHeaders } from './security';
 import { createInProcessHub, type Hub } from './realtime/hub';
 import { mountRoutes, type ApiRoute } from './routes/define';
 import { mailRoutes } from './routes/mail';
@@ -52,6 +54,20 @@ export function createApp(opts: AppOptions): App {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  app.use(securityHeaders(opts.config.env === 'production'));
+
+  // alive, and ready: the database answers and its migrations are current
+  app.get('/healthz', (_req, res) => res.json({ ok: true }));
+  app.get('/readyz', async (_req, res) => {
+    try {
+      await opts.db.raw('select 1');
+      const [, pending] = (await opts.db.migrate.list(migrationConfig)) as [unknown[], unknown[]];
+      if (pending.length > 0) return res.status(503).json({ ok: false, reason: `${pending.length} migrations pending` });
+      res.json({ ok: true });
+    } catch {
+      res.status(503).json({ ok: false, reason: 'database unavailable' });
+    }
+  });
 
   const sessionMiddleware = createSessionMiddleware(opts.db, opts.config.sessionSecret, {
     cleanupIntervalMs: opts.sessionCleanupIntervalMs,
@@ -64,6 +80,7 @@ export function createApp(opts: AppOptions): App {
   const json = express.json({ limit: '32kb' });
   const raw = express.raw({ type: 'application/json', limit: '256kb' });
   app.use('/api', (req, res, next) => (req.path === WEBHOOK_PATH ? raw : json)(req, res, next));
+  app.use('/api', sameOriginOnly(['/api' + WEBHOOK_PATH, WEBHOOK_PATH]));
   app.use('/api', sessionMiddleware, passport.initialize(), passport.session());
   app.use('/api', mountRoutes(routes));
   app.use('/api', (req, _res, next) => next(new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}`)));

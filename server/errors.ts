@@ -12,6 +12,7 @@ export type ErrorCode =
   | 'unavailable'
   | 'payload_too_large'
   | 'payment_declined'
+  | 'rate_limited'
   | 'payment_unavailable'
   | 'internal';
 
@@ -58,6 +59,13 @@ export function errorHandler(err: unknown, _req: Request, res: Response, _next: 
   }
   if (e?.type === 'entity.too.large') {
     res.status(413).json({ error: { code: 'payload_too_large', message: 'The body is too large' } });
+    return;
+  }
+  // Other request errors from body-parser or the router (an unsupported charset or encoding: 415;
+  // a :param that is not valid percent-encoding: 400) are the client's, not ours.
+  if (typeof e?.status === 'number' && e.status >= 400 && e.status < 500) {
+    const message = e.status === 415 ? 'The body must be UTF-8 JSON' : 'The request could not be read';
+    res.status(e.status).json({ error: { code: 'validation_failed', message } });
     return;
   }
   console.error(err);

@@ -15,6 +15,9 @@ import { boardSnapshot } from '../services/tickets';
 export const MAX_REPLAY = 500;
 export const HEARTBEAT_MS = 30_000;
 const MAX_MESSAGE_BYTES = 4096;
+/** Per-socket token bucket: a screen pings every few seconds; a flood is cut off. */
+export const RATE_PER_SECOND = 20;
+export const RATE_BURST = 40;
 
 interface Peer {
   socket: WebSocket;
@@ -26,6 +29,11 @@ interface Peer {
   pending: AnyLiveEvent[];
   lastSent: number;
   alive: boolean;
+  /** Token bucket for incoming messages. */
+  tokens: number;
+  refilledAt: number;
+  /** Messages dropped since the bucket ran dry; the first gets a `rate_limited` error. */
+  dropped: number;
 }
 
 export interface SocketServer {
@@ -116,8 +124,34 @@ export function attachSocketServer(
     }
   }
 
+  /** Takes a token for one message; false once the screen sends faster than the bucket refills. */
+  function takeToken(peer: Peer): boolean {
+    const now = deps.clock().getTime();
+    const elapsed = Math.max(0, now - peer.refilledAt);
+    peer.tokens = Math.min(RATE_BURST, peer.tokens + (elapsed * RATE_PER_SECOND) / 1000);
+    peer.refilledAt = Math.max(peer.refilledAt, now);
+    if (peer.tokens >= 1) {
+      peer.tokens -= 1;
+      peer.dropped = 0;
+      return true;
+    }
+    return false;
+  }
+
   function onConnection(socket: WebSocket, user: SessionUser, sessionId: string) {
-    const peer: Peer = { socket, user, sessionId, live: false, resuming: false, pending: [], lastSent: 0, alive: true };
+    const peer: Peer = {
+      socket,
+      user,
+      sessionId,
+      live: false,
+      resuming: false,
+      pending: [],
+      lastSent: 0,
+      alive: true,
+      tokens: RATE_BURST,
+      refilledAt: deps.clock().getTime(),
+      dropped: 0,
+    };
     peers.add(peer);
     const unsubscribe = deps.hub.subscribe(user.locationId, (event) => {
       if (peer.resuming) peer.pending.push(event);
@@ -129,6 +163,13 @@ export function attachSocketServer(
       peers.delete(peer);
     });
     socket.on('message', (data) => {
+      if (!takeToken(peer)) {
+        peer.dropped += 1;
+        if (peer.dropped === 1) send(peer, { type: 'error', code: 'rate_limited', message: 'Too many messages; slow down' });
+        // still flooding after the warning: 1008 (policy violation); the screen reconnects and resumes
+        if (peer.dropped >= RATE_BURST) socket.close(1008, 'rate limited');
+        return;
+      }
       let parsed: unknown;
       try {
         parsed = JSON.parse(data.toString());

@@ -9,6 +9,8 @@ export interface ApiRoute {
   path: string;
   /** null: open to everyone, signed in or not. */
   capability: Capability | null;
+  /** Run before the guard, e.g. a rate limit. */
+  before?: RequestHandler[];
   handler: RequestHandler;
 }
 
@@ -16,7 +18,7 @@ export function mountRoutes(routes: ApiRoute[]): Router {
   const router = Router();
   for (const r of routes) {
     const guards = r.capability ? [requireCapability(r.capability)] : [];
-    router[r.method](r.path, ...guards, r.handler);
+    router[r.method](r.path, ...(r.before ?? []), ...guards, r.handler);
   }
   return router;
 }

@@ -3,6 +3,7 @@ import type { createPassport } from '../auth/session';
 import { signInBody } from '../../src/domain/schemas';
 import type { SessionUser } from '../../src/domain/types';
 import { HttpError, parse } from '../errors';
+import { signInThrottle } from '../security';
 import type { Deps } from '../services/deps';
 import type { ApiRoute } from './define';
 
@@ -20,7 +21,7 @@ export function sessionRoutes(passport: ReturnType<typeof createPassport>, deps:
   };
 
   return [
-    { method: 'post', path: '/session', capability: null, handler: signIn },
+    { method: 'post', path: '/session', capability: null, before: signInThrottle(), handler: signIn },
     {
       method: 'get',
       path: '/session',
