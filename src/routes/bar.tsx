@@ -20,6 +20,7 @@ import { useApi } from '../lib/api-context';
 import { ApiError } from '../lib/http';
 import { useNow } from '../lib/use-now';
 import { requireScreen, type RouteDeps } from './deps';
+import { SCREENS } from '../domain/screens';
 
 const ordinal = (n: number) => `${n}${n === 1 ? 'st' : n === 2 ? 'nd' : n === 3 ? 'rd' : 'th'}`;
 
@@ -138,7 +139,7 @@ export const barRoute = (deps: RouteDeps) => ({
   // With scripts off (a wall screen that can't run them), the page still refreshes itself.
   handle: { title: 'Bar', head: '<noscript><meta http-equiv="refresh" content="10"></noscript>' },
   loader: async ({ request }: LoaderFunctionArgs) => {
-    await requireScreen(deps, request, 'makeDrinks');
+    await requireScreen(deps, request, SCREENS.bar.need);
     await deps.queryClient.ensureQueryData(barBoardQuery(deps.api));
     return null;
   },

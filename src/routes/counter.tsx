@@ -30,6 +30,7 @@ import { useApi } from '../lib/api-context';
 import { ApiError, http } from '../lib/http';
 import { uuid } from '../lib/uuid';
 import { requireScreen, type RouteDeps } from './deps';
+import { SCREENS } from '../domain/screens';
 
 type Sheet = { item: MenuItemView; index: number | null } | null;
 
@@ -224,7 +225,7 @@ export const counterRoute = (deps: RouteDeps) => ({
   Component: Counter,
   handle: { title: 'Counter' },
   loader: async ({ request }: LoaderFunctionArgs) => {
-    await requireScreen(deps, request, 'takeOrders');
+    await requireScreen(deps, request, SCREENS.counter.need);
     await Promise.all([
       deps.queryClient.ensureQueryData(menuQuery(deps.api)),
       deps.queryClient.ensureQueryData(barBoardQuery(deps.api)),

@@ -5,6 +5,7 @@ import { Button } from '../components/ui/button';
 import { orderQuery } from '../features/orders/queries';
 import { useApi } from '../lib/api-context';
 import { orNotFound, orderIdFrom, requireScreen, type RouteDeps } from './deps';
+import { SCREENS } from '../domain/screens';
 
 function Labels() {
   const api = useApi();
@@ -53,7 +54,7 @@ export const labelsRoute = (deps: RouteDeps) => ({
   Component: Labels,
   handle: { title: 'Cup labels' },
   loader: async ({ request, params }: LoaderFunctionArgs) => {
-    await requireScreen(deps, request, 'takeOrders');
+    await requireScreen(deps, request, SCREENS.labels.need);
     await orNotFound(deps.queryClient.ensureQueryData(orderQuery(deps.api, orderIdFrom(params))));
     return null;
   },

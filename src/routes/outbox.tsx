@@ -8,6 +8,7 @@ import { outboxQuery } from '../features/outbox/queries';
 import { useApi } from '../lib/api-context';
 import { cn } from '../lib/cn';
 import { requireScreen, type RouteDeps } from './deps';
+import { SCREENS } from '../domain/screens';
 
 type Format = (iso: string) => string;
 
@@ -122,7 +123,7 @@ export const outboxRoute = (deps: RouteDeps) => ({
   Component: Outbox,
   handle: { title: 'Outbox' },
   loader: async ({ request }: LoaderFunctionArgs) => {
-    await requireScreen(deps, request, 'viewOutbox');
+    await requireScreen(deps, request, SCREENS.outbox.need);
     await deps.queryClient.ensureQueryData(outboxQuery(deps.api));
     return null;
   },

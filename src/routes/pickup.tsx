@@ -10,6 +10,7 @@ import { useApi } from '../lib/api-context';
 import { cn } from '../lib/cn';
 import { useNow } from '../lib/use-now';
 import { requireScreen, type RouteDeps } from './deps';
+import { SCREENS } from '../domain/screens';
 
 /** A name that turned ready this recently gets the slow underline. */
 const FRESH_MS = 20_000;
@@ -70,7 +71,7 @@ export const pickupRoute = (deps: RouteDeps) => ({
   Component: Pickup,
   handle: { title: 'Pickup' },
   loader: async ({ request }: LoaderFunctionArgs) => {
-    await requireScreen(deps, request, 'viewPickup');
+    await requireScreen(deps, request, SCREENS.pickup.need);
     await deps.queryClient.ensureQueryData(pickupBoardQuery(deps.api));
     return null;
   },

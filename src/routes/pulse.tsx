@@ -14,6 +14,7 @@ import { useApi } from '../lib/api-context';
 import { cn } from '../lib/cn';
 import { useHydrated } from '../lib/use-hydrated';
 import { requireScreen, type RouteDeps } from './deps';
+import { SCREENS } from '../domain/screens';
 
 const PulseChart = lazy(() => import('../features/pulse/pulse-chart'));
 
@@ -161,7 +162,7 @@ export const pulseRoute = (deps: RouteDeps) => ({
   Component: Pulse,
   handle: { title: 'Pulse' },
   loader: async ({ request }: LoaderFunctionArgs) => {
-    await requireScreen(deps, request, 'viewPulse');
+    await requireScreen(deps, request, SCREENS.pulse.need);
     await Promise.all([
       deps.queryClient.ensureQueryData(pulseQuery(deps.api)),
       deps.queryClient.ensureQueryData(barBoardQuery(deps.api)),

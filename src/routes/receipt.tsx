@@ -7,6 +7,7 @@ import { menuQuery } from '../features/menu/queries';
 import { orderQuery } from '../features/orders/queries';
 import { useApi } from '../lib/api-context';
 import { orNotFound, orderIdFrom, requireScreen, type RouteDeps } from './deps';
+import { SCREENS } from '../domain/screens';
 
 function Receipt() {
   const api = useApi();
@@ -81,7 +82,7 @@ export const receiptRoute = (deps: RouteDeps) => ({
   Component: Receipt,
   handle: { title: 'Receipt' },
   loader: async ({ request, params }: LoaderFunctionArgs) => {
-    await requireScreen(deps, request, 'takeOrders');
+    await requireScreen(deps, request, SCREENS.receipt.need);
     const id = orderIdFrom(params);
     await Promise.all([orNotFound(deps.queryClient.ensureQueryData(orderQuery(deps.api, id))), deps.queryClient.ensureQueryData(menuQuery(deps.api))]);
     return null;

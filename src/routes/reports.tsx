@@ -15,6 +15,7 @@ import { TicketTable } from '../features/reports/ticket-table';
 import { useApi } from '../lib/api-context';
 import { queryString } from '../lib/reports-api';
 import { requireScreen, type RouteDeps } from './deps';
+import { SCREENS } from '../domain/screens';
 
 type Period = Exclude<PeriodChoice, { kind: 'today' }>;
 const periodOf = (choice: PeriodChoice, today: string): Period => (choice.kind === 'today' ? { kind: 'range', from: today, to: today } : choice);
@@ -95,7 +96,7 @@ export const reportsRoute = (deps: RouteDeps) => ({
   Component: Reports,
   handle: { title: 'Reports' },
   loader: async ({ request }: LoaderFunctionArgs) => {
-    await requireScreen(deps, request, 'viewReports');
+    await requireScreen(deps, request, SCREENS.reports.need);
     const search = new URL(request.url).searchParams;
     const shifts = await deps.queryClient.ensureQueryData(reportShiftsQuery(deps.api));
     const report = await loadReport(deps, periodOf(periodFrom(search), shifts.today));

@@ -1,20 +1,14 @@
 // Who is signed in, the other screens their role opens, and sign out.
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { Link, useLocation, useNavigate } from 'react-router';
-import { can, type Capability } from '../../domain/roles';
+import { can } from '../../domain/roles';
+import { SCREENS } from '../../domain/screens';
 import { sessionQuery } from '../../features/session/queries';
 import { useApi } from '../../lib/api-context';
 import { cn } from '../../lib/cn';
 import { http } from '../../lib/http';
 
-const SCREENS: { path: string; label: string; need: Capability }[] = [
-  { path: '/counter', label: 'Counter', need: 'takeOrders' },
-  { path: '/bar', label: 'Bar', need: 'makeDrinks' },
-  { path: '/pickup', label: 'Pickup', need: 'viewPickup' },
-  { path: '/pulse', label: 'Pulse', need: 'viewPulse' },
-  { path: '/reports', label: 'Reports', need: 'viewReports' },
-  { path: '/outbox', label: 'Outbox', need: 'viewOutbox' },
-];
+const MENU = [SCREENS.counter, SCREENS.bar, SCREENS.pickup, SCREENS.pulse, SCREENS.reports, SCREENS.outbox];
 
 export function StaffMenu({ dark = false }: { dark?: boolean }) {
   const api = useApi();
@@ -31,7 +25,7 @@ export function StaffMenu({ dark = false }: { dark?: boolean }) {
   };
   return (
     <nav aria-label="Screens" className={cn('flex items-center gap-3 text-base', dark ? 'text-crema-300' : 'text-ink-600')}>
-      {SCREENS.filter((s) => s.path !== here && can(user.role, s.need)).map((s) => (
+      {MENU.filter((s) => s.path !== here && can(user.role, s.need)).map((s) => (
         <Link key={s.path} to={s.path} reloadDocument className="underline underline-offset-4">
           {s.label}
         </Link>
