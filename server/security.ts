@@ -63,7 +63,8 @@ export function signInThrottle(): RequestHandler[] {
     rateLimit({
       ...common,
       limit: FAILED_SIGN_INS_PER_HOUR,
-      keyGenerator: (req) => `name:${String(req.body?.username ?? '').trim().toLowerCase()}`,
+      // the body is not validated yet: String() of an object like { toString: 1 } throws (a 500)
+      keyGenerator: (req) => `name:${(typeof req.body?.username === 'string' ? req.body.username : '').trim().toLowerCase()}`,
       handler: tooMany('for this name'),
     }),
   ];

@@ -157,6 +157,9 @@ export function attachSocketServer(
       if (peer.resuming) peer.pending.push(event);
       else if (peer.live) sendEvent(peer, event);
     });
+    // ws closes the socket itself on a protocol error (an over-size message: 1009) and then emits
+    // 'error'; unheard, that error would be thrown and take the whole server down.
+    socket.on('error', () => {});
     socket.on('pong', () => (peer.alive = true));
     socket.on('close', () => {
       unsubscribe();
