@@ -36,7 +36,7 @@ function Pickup() {
 
   return (
     <div className="on-dark flex h-screen flex-col bg-roast-950 text-crema-100">
-      <div className="grid flex-1 grid-cols-2 divide-x divide-crema-300/30">
+      <div className="grid min-h-0 flex-1 grid-cols-2 divide-x divide-crema-300/30">
         <section aria-labelledby="making" className="overflow-hidden p-10">
           <h1 id="making" className="font-display text-6xl font-semibold uppercase tracking-wide text-crema-300">
             Being made
