@@ -6,7 +6,9 @@ import { createPassport, createSessionMiddleware } from './auth/session';
 import type { Config } from './config';
 import { migrationConfig } from './db/knex';
 import { HttpError, errorHandler } from './errors';
+import { requestLogger } from './logging';
 import { sameOriginOnly, securityHeaders } from './security';
+import type { Logger } from 'pino';
 import { createInProcessHub, type Hub } from './realtime/hub';
 import { mountRoutes, type ApiRoute } from './routes/define';
 import { mailRoutes } from './routes/mail';
@@ -32,6 +34,8 @@ export interface AppOptions {
   mailer?: Mailer;
   /** Card payments; without it orders take cash only. */
   payments?: PaymentGateway;
+  /** Request logs; left out, nothing is logged per request. */
+  logger?: Logger;
 }
 
 export interface App {
@@ -54,6 +58,7 @@ export function createApp(opts: AppOptions): App {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  if (opts.logger) app.use(requestLogger(opts.logger));
   app.use(securityHeaders(opts.config.env === 'production'));
 
   // alive, and ready: the database answers and its migrations are current

@@ -10,6 +10,8 @@ import { attachSocketServer, type SocketServer } from './realtime/socket-server'
 import type { ApiRoute } from './routes/define';
 import type { Clock } from './services/deps';
 import { startMail } from './services/mail';
+import { createLogger } from './logging';
+import type { Logger } from 'pino';
 import { startPayments } from './payments/start';
 import { WEBHOOK_PATH } from './routes/orders';
 import { developmentPages, productionPages } from './ssr/pages';
@@ -31,6 +33,8 @@ export interface StartOptions {
   /** 'production' serves dist/; 'development' runs Vite in middleware mode. */
   pages?: 'production' | 'development' | 'none';
   log?: (line: string) => void;
+  /** Request logs; by default JSON lines on stdout, none in tests. */
+  logger?: Logger;
 }
 
 export async function prepareDatabase(config: Pick<Config, 'databaseFile' | 'seedDemo'>, log = console.log) {
@@ -58,6 +62,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
     pages,
     mailer: mail.mailer,
     payments: payments.gateway,
+    logger: opts.logger ?? createLogger(config.env === 'test' ? 'silent' : (process.env.LOG_LEVEL ?? 'info')),
   });
   server.on('request', app);
   const sockets = attachSocketServer(server, deps, sessionMiddleware);
