@@ -16,6 +16,7 @@ const envSchema = z.object({
   DATABASE_FILE: z.string().min(1).default('data/jugline.sqlite'),
   SESSION_SECRET: z.string().min(32, 'use at least 32 characters').optional(),
   SEED_DEMO: bool.default(true),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'], { error: 'use info, warn, error or silent' }).default('info'),
   // unset: mail goes to the local SMTP fake and shows on the Outbox screen
   // both unset: card payments go to the local payment fake
   STRIPE_SECRET_KEY: z.string().regex(/^sk_(test|live)_\w+$/, 'use the secret key, sk_test_… or sk_live_…').optional(),
@@ -30,6 +31,8 @@ export interface Config {
   databaseFile: string;
   sessionSecret: string;
   seedDemo: boolean;
+  /** Request log level; tests run silent. */
+  logLevel?: string;
   /** A real SMTP server for outgoing mail; without it the local fake catches every mail. */
   smtpUrl?: string;
   /** The payment provider's keys; without them the local payment fake takes cards. */
@@ -55,6 +58,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     databaseFile,
     sessionSecret: e.SESSION_SECRET ?? storedSessionSecret(databaseFile),
     seedDemo: e.SEED_DEMO,
+    logLevel: e.LOG_LEVEL,
     smtpUrl: e.SMTP_URL,
     stripeSecretKey: e.STRIPE_SECRET_KEY,
     stripeWebhookSecret: e.STRIPE_WEBHOOK_SECRET,

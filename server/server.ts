@@ -62,7 +62,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
     pages,
     mailer: mail.mailer,
     payments: payments.gateway,
-    logger: opts.logger ?? createLogger(config.env === 'test' ? 'silent' : (process.env.LOG_LEVEL ?? 'info')),
+    logger: opts.logger ?? createLogger(config.env === 'test' ? 'silent' : (config.logLevel ?? 'info')),
   });
   server.on('request', app);
   const sockets = attachSocketServer(server, deps, sessionMiddleware);
