@@ -14,7 +14,7 @@ import type { HourRow, OverTargetTicket, ReportView } from '../../../src/domain/
 import { median, summarizeWaits } from '../../../src/domain/stats';
 import { businessDate } from '../orders';
 import { localHourSql } from './local-hours';
-import { PAID, type ReportLocation } from './scope';
+import { moneyView, PAID, type ReportLocation } from './scope';
 import { HAS_WAIT, WAIT_SECONDS, n } from './sql';
 
 const OVER_TARGET_LIMIT = 20;
@@ -280,16 +280,7 @@ export function mergeDays(parts: DayPartial[], dates: string[], targetSeconds: n
   }
   over.sort((a, b) => b.waitSeconds - a.waitSeconds || a.orderId - b.orderId);
   return {
-    orders: t.orders,
-    grossCents: t.gross,
-    taxCents: t.tax,
-    discountCents: t.discount,
-    refundsCents: t.refunds,
-    netCents: t.gross - t.refunds,
-    paymentMix: {
-      cash: { orders: t.cashOrders, cents: t.cashCents },
-      card: { orders: t.orders - t.cashOrders, cents: t.gross - t.cashCents },
-    },
+    ...moneyView(t),
     drinks: t.drinks,
     waits: summarizeWaits(all, targetSeconds),
     overTarget: over.slice(0, OVER_TARGET_LIMIT),

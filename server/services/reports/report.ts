@@ -7,7 +7,7 @@ import type { HourRow, OverTargetTicket, ReportView } from '../../../src/domain/
 import { median, summarizeWaits } from '../../../src/domain/stats';
 import { datesBetween, mergeDays, rangeDays } from './days';
 import { localHourSql } from './local-hours';
-import { PAID, rangeScope, shiftScope, type Scope } from './scope';
+import { moneyView, PAID, rangeScope, shiftScope, type MoneyTotals, type Scope } from './scope';
 import { HAS_WAIT, WAIT_SECONDS, n } from './sql';
 
 const OVER_TARGET_LIMIT = 20;
@@ -54,7 +54,7 @@ async function moneyByHour(db: Knex, s: Scope, hours: Hours) {
      FROM orders o WHERE ${s.where} AND ${PAID} GROUP BY 1`,
     [...hour.bindings, ...s.bindings],
   );
-  const t = { orders: 0, gross: 0, tax: 0, discount: 0, refunds: 0, cashOrders: 0, cashCents: 0 };
+  const t: MoneyTotals = { orders: 0, gross: 0, tax: 0, discount: 0, refunds: 0, cashOrders: 0, cashCents: 0 };
   for (const r of rows) {
     Object.assign(hourRow(hours, n(r.hour)), { orders: n(r.orders), cents: n(r.gross) });
     t.orders += n(r.orders);
@@ -65,18 +65,7 @@ async function moneyByHour(db: Knex, s: Scope, hours: Hours) {
     t.cashOrders += n(r.cash_orders);
     t.cashCents += n(r.cash_cents);
   }
-  return {
-    orders: t.orders,
-    grossCents: t.gross,
-    taxCents: t.tax,
-    discountCents: t.discount,
-    refundsCents: t.refunds,
-    netCents: t.gross - t.refunds,
-    paymentMix: {
-      cash: { orders: t.cashOrders, cents: t.cashCents },
-      card: { orders: t.orders - t.cashOrders, cents: t.gross - t.cashCents },
-    },
-  };
+  return moneyView(t);
 }
 
 /** Lines by item, milk, station and hour: what was sold (paid orders) and what the bar made (drinks done). */

@@ -75,3 +75,30 @@ export async function rangeScope(db: Knex, locationId: number, from: string, to:
     bindings: [locationId, from, to],
   };
 }
+
+/** Running money totals of paid orders, as both the live report and the day rollups add them up. */
+export interface MoneyTotals {
+  orders: number;
+  gross: number;
+  tax: number;
+  discount: number;
+  refunds: number;
+  cashOrders: number;
+  cashCents: number;
+}
+
+/** The report's money figures from those totals: net is gross less refunds; card is the rest of gross. */
+export function moneyView(t: MoneyTotals) {
+  return {
+    orders: t.orders,
+    grossCents: t.gross,
+    taxCents: t.tax,
+    discountCents: t.discount,
+    refundsCents: t.refunds,
+    netCents: t.gross - t.refunds,
+    paymentMix: {
+      cash: { orders: t.cashOrders, cents: t.cashCents },
+      card: { orders: t.orders - t.cashOrders, cents: t.gross - t.cashCents },
+    },
+  };
+}
