@@ -2,7 +2,7 @@
 import { randomUUID } from 'node:crypto';
 import type request from 'supertest';
 import type { OrderView, TicketView } from '../../src/domain/types';
-import { demoMenu, type TestServer } from '../support/test-server';
+import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
 
 export type Agent = ReturnType<typeof request.agent>;
 
@@ -55,4 +55,16 @@ export async function loggedEvents(server: TestServer, locationId: number) {
 export async function demoLocationId(server: TestServer): Promise<number> {
   const row = await server.db('users').where({ username: 'barista' }).first('location_id');
   return row.location_id as number;
+}
+
+/** A fresh server with a cashier and a barista signed in, the demo menu's lines and the café's id. */
+export async function barScene() {
+  const server = await startTestServer();
+  return {
+    server,
+    cashier: await server.signIn('cashier'),
+    barista: await server.signIn('barista'),
+    lines: await demoLines(server),
+    locationId: await demoLocationId(server),
+  };
 }

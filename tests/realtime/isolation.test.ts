@@ -3,8 +3,8 @@
 import request from 'supertest';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { hashPassword } from '../../server/auth/passwords';
-import { startTestServer, type TestServer } from '../support/test-server';
-import { barLines, bumpDrink, demoLines, demoLocationId, fireOrder, loggedEvents, startDrink, type Agent } from './bar-actions';
+import type { TestServer } from '../support/test-server';
+import { barLines, bumpDrink, demoLines, fireOrder, loggedEvents, startDrink, type Agent, barScene } from './bar-actions';
 import { closeAllSockets, connect, connectAndResume } from './ws-client';
 
 const NORTH_LOGIN = 'north-lead';
@@ -80,11 +80,7 @@ async function northSignIn(): Promise<{ agent: Agent; cookie: string }> {
 }
 
 beforeAll(async () => {
-  server = await startTestServer();
-  cashier = await server.signIn('cashier');
-  barista = await server.signIn('barista');
-  lines = await demoLines(server);
-  demoLocation = await demoLocationId(server);
+  ({ server, cashier, barista, lines, locationId: demoLocation } = await barScene());
   ({ locationId: northLocationId, itemId: northItemId } = await insertNorthCafe(server.db));
   ({ agent: north, cookie: northCookie } = await northSignIn());
   // some demo history before the north screens connect

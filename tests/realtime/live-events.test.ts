@@ -2,8 +2,8 @@
 // message validation, and several screens seeing the same event.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { LiveEvent } from '../../src/domain/types';
-import { startTestServer, type TestServer } from '../support/test-server';
-import { barLines, bumpDrink, demoLines, demoLocationId, fireOrder, loggedEvents, startDrink, type Agent } from './bar-actions';
+import type { TestServer } from '../support/test-server';
+import { barLines, bumpDrink, demoLines, fireOrder, loggedEvents, startDrink, type Agent, barScene } from './bar-actions';
 import { closeAllSockets, connect, connectAndResume } from './ws-client';
 
 let server: TestServer;
@@ -13,11 +13,7 @@ let lines: Awaited<ReturnType<typeof demoLines>>;
 let locationId: number;
 
 beforeAll(async () => {
-  server = await startTestServer();
-  cashier = await server.signIn('cashier');
-  barista = await server.signIn('barista');
-  lines = await demoLines(server);
-  locationId = await demoLocationId(server);
+  ({ server, cashier, barista, lines, locationId } = await barScene());
 });
 afterEach(() => closeAllSockets());
 afterAll(() => server.close());

@@ -1,18 +1,18 @@
 // Resume from 0 on a fresh database: the whole log, in order, no duplicates.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { TicketView } from '../../src/domain/types';
-import { startTestServer, type TestServer } from '../support/test-server';
+import type { TestServer } from '../support/test-server';
 import {
   barLines,
   bumpDrink,
   bumpTicket,
   demoLines,
-  demoLocationId,
   fireOrder,
   loggedEvents,
   recallTicket,
   startDrink,
   type Agent,
+  barScene,
 } from './bar-actions';
 import { closeAllSockets, connect, connectAndResume } from './ws-client';
 
@@ -23,11 +23,7 @@ let lines: Awaited<ReturnType<typeof demoLines>>;
 let locationId: number;
 
 beforeAll(async () => {
-  server = await startTestServer();
-  cashier = await server.signIn('cashier');
-  barista = await server.signIn('barista');
-  lines = await demoLines(server);
-  locationId = await demoLocationId(server);
+  ({ server, cashier, barista, lines, locationId } = await barScene());
 });
 afterEach(() => closeAllSockets());
 afterAll(() => server.close());

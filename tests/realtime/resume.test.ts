@@ -2,18 +2,18 @@
 // missed, in order, and then carries on live — nothing lost, nothing twice.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { AnyLiveEvent } from '../../src/domain/types';
-import { startTestServer, type TestServer } from '../support/test-server';
+import type { TestServer } from '../support/test-server';
 import {
   barLines,
   bumpDrink,
   bumpTicket,
   demoLines,
-  demoLocationId,
   fireOrder,
   loggedEvents,
   recallTicket,
   startDrink,
   type Agent,
+  barScene,
 } from './bar-actions';
 import { closeAllSockets, connect, connectAndResume } from './ws-client';
 
@@ -24,11 +24,7 @@ let lines: Awaited<ReturnType<typeof demoLines>>;
 let locationId: number;
 
 beforeAll(async () => {
-  server = await startTestServer();
-  cashier = await server.signIn('cashier');
-  barista = await server.signIn('barista');
-  lines = await demoLines(server);
-  locationId = await demoLocationId(server);
+  ({ server, cashier, barista, lines, locationId } = await barScene());
 });
 afterEach(() => closeAllSockets());
 afterAll(() => server.close());

@@ -2,8 +2,8 @@
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { MAX_REPLAY } from '../../server/realtime/socket-server';
 import type { BoardSnapshot, ServerMessage } from '../../src/domain/types';
-import { startTestServer, type TestServer } from '../support/test-server';
-import { barLines, bumpDrink, bumpTicket, demoLines, demoLocationId, fireOrder, loggedEvents, startDrink, type Agent } from './bar-actions';
+import type { TestServer } from '../support/test-server';
+import { barLines, bumpDrink, bumpTicket, demoLines, fireOrder, loggedEvents, startDrink, type Agent, barScene } from './bar-actions';
 import { closeAllSockets, connectAndResume } from './ws-client';
 
 let server: TestServer;
@@ -16,11 +16,7 @@ let barOrders: number;
 const ORDERS = MAX_REPLAY + 6;
 
 beforeAll(async () => {
-  server = await startTestServer();
-  cashier = await server.signIn('cashier');
-  barista = await server.signIn('barista');
-  lines = await demoLines(server);
-  locationId = await demoLocationId(server);
+  ({ server, cashier, barista, lines, locationId } = await barScene());
 
   // Real events through the API: a few hundred small orders, some of them moved along the bar.
   const orders = [];
