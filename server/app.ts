@@ -11,7 +11,11 @@ import { sameOriginOnly, securityHeaders } from './security';
 import type { Logger } from 'pino';
 import { createInProcessHub, type Hub } from './realtime/hub';
 import { mountRoutes, type ApiRoute } from './routes/define';
+import { beanRoutes } from './routes/beans';
 import { mailRoutes } from './routes/mail';
+import { menuAdminRoutes } from './routes/menu-admin';
+import { settingsRoutes } from './routes/settings';
+import { teamRoutes } from './routes/team';
 import { orderRoutes, WEBHOOK_PATH } from './routes/orders';
 import { reportRoutes } from './routes/reports';
 import { shiftRoutes } from './routes/shifts';
@@ -79,6 +83,7 @@ export function createApp(opts: AppOptions): App {
   });
   const passport = createPassport(opts.db);
   const routes = [...sessionRoutes(passport, deps), ...orderRoutes(deps), ...ticketRoutes(deps), ...shiftRoutes(deps), ...reportRoutes(deps)];
+  routes.push(...menuAdminRoutes(deps), ...teamRoutes(deps), ...settingsRoutes(deps), ...beanRoutes(deps));
   if (opts.mailer) routes.push(...mailRoutes(deps, opts.mailer));
 
   // The payment webhook is verified against its exact bytes, so it alone keeps a raw body.

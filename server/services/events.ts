@@ -50,6 +50,12 @@ export async function appendMenuEvent(
   return { locationId, event: { seq, type: 'menu.availability', at, item } };
 }
 
+/** The menu changed in the back office; every screen reloads it. */
+export async function appendMenuChangedEvent(trx: Knex.Transaction, locationId: number, at: string, actorId: number | null): Promise<PendingEvent> {
+  const seq = await insertEvent(trx, locationId, 'menu.changed', {}, at, actorId);
+  return { locationId, event: { seq, type: 'menu.changed', at } };
+}
+
 /** Run a command in one transaction; publish its events only once it has committed. */
 export async function runCommand<T>(
   deps: Deps,

@@ -11,8 +11,10 @@ import type { Deps } from '../services/deps';
 import { serverApi } from './server-api';
 
 export const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
-export const CLIENT_DIR = path.join(ROOT, 'dist/client');
-export const SERVER_ENTRY = path.join(ROOT, 'dist/server/entry-server.js');
+// JUGLINE_DIST: another build folder (e.g. two builds side by side on one machine)
+const DIST = path.resolve(ROOT, process.env.JUGLINE_DIST ?? 'dist');
+export const CLIENT_DIR = path.join(DIST, 'client');
+export const SERVER_ENTRY = path.join(DIST, 'server/entry-server.js');
 
 type Render = (request: Request_, api: Api) => Promise<RenderResult>;
 type Request_ = globalThis.Request;

@@ -5,7 +5,11 @@ import type { SessionUser } from '../../src/domain/types';
 import { HttpError } from '../errors';
 import type { Deps } from '../services/deps';
 import { outboxView } from '../services/mail';
+import { beansServerApi } from './beans-api';
+import { menuAdminServerApi } from './menu-admin-api';
 import { reportsServerApi } from './reports-api';
+import { settingsServerApi } from './settings-api';
+import { teamServerApi } from './team-api';
 import { loadMenu } from '../services/menu';
 import { findOrderInLocation, listOrders, loadOrder } from '../services/orders';
 import { pulse } from '../services/pulse';
@@ -27,6 +31,10 @@ export function serverApi(deps: Deps, user: SessionUser | undefined): Api {
     pickup: async () => pickupView(await boardSnapshot(deps, locationId())),
     outbox: () => outboxView(deps.db, locationId()),
     reports: reportsServerApi(deps, locationId),
+    menuAdmin: menuAdminServerApi(deps, locationId),
+    team: teamServerApi(deps, locationId),
+    settings: settingsServerApi(deps, locationId),
+    beans: beansServerApi(deps, locationId),
     pulse: () => pulse(deps, locationId()),
     orders: async (q) => ({ orders: await listOrders(deps, signedIn(), q, 100) }),
     order: async (id) => {

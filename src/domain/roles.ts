@@ -18,6 +18,12 @@ export const CAPABILITIES = {
   viewPulse: ['lead', 'owner'],
   viewReports: ['lead', 'owner'],
   runShifts: ['lead', 'owner'],
+  // back office
+  editMenu: ['owner'],
+  manageTeam: ['owner'],
+  editSettings: ['owner'],
+  manageBeans: ['owner'],
+  logDialIn: ['barista', 'lead', 'owner'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Capability = keyof typeof CAPABILITIES;

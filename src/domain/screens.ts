@@ -11,6 +11,11 @@ export const SCREENS = {
   outbox: { path: '/outbox', label: 'Outbox', need: 'viewOutbox' },
   receipt: { path: '/receipts/:id', label: 'Receipt', need: 'takeOrders' },
   labels: { path: '/labels/:id', label: 'Cup labels', need: 'takeOrders' },
+  adminMenu: { path: '/admin/menu', label: 'Menu', need: 'editMenu' },
+  adminTeam: { path: '/admin/team', label: 'Team', need: 'manageTeam' },
+  adminBeans: { path: '/admin/beans', label: 'Beans', need: 'manageBeans' },
+  adminSettings: { path: '/admin/settings', label: 'Settings', need: 'editSettings' },
+  dialIn: { path: '/dial-in', label: 'Dial-in', need: 'logDialIn' },
 } as const satisfies Record<string, { path: string; label: string; need: Capability }>;
 
 export type ScreenId = keyof typeof SCREENS;

@@ -208,7 +208,7 @@ export const TICKET_EVENT_TYPES = [
   'drink.allergy_acknowledged',
 ] as const;
 export type TicketEventType = (typeof TICKET_EVENT_TYPES)[number];
-export type EventType = TicketEventType | 'menu.availability' | 'shift.changed';
+export type EventType = TicketEventType | 'menu.availability' | 'menu.changed' | 'shift.changed';
 
 /** One row of the realtime log about a ticket; `seq` is its id and strictly increases. */
 export interface LiveEvent {
@@ -248,9 +248,17 @@ export interface ShiftEvent {
   shift: ShiftView;
 }
 
-export type AnyLiveEvent = LiveEvent | MenuEvent | ShiftEvent;
+/** The back office changed the menu (items, sizes, prices, milks…): screens reload it. */
+export interface MenuChangedEvent {
+  seq: number;
+  type: 'menu.changed';
+  at: string;
+}
 
-export const isTicketEvent = (e: AnyLiveEvent): e is LiveEvent => e.type !== 'menu.availability' && e.type !== 'shift.changed';
+export type AnyLiveEvent = LiveEvent | MenuEvent | MenuChangedEvent | ShiftEvent;
+
+export const isTicketEvent = (e: AnyLiveEvent): e is LiveEvent =>
+  e.type !== 'menu.availability' && e.type !== 'menu.changed' && e.type !== 'shift.changed';
 
 export interface BoardSnapshot {
   seq: number;

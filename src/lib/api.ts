@@ -5,7 +5,11 @@ import type { PulseView } from '../domain/pulse';
 import type { Role } from '../domain/roles';
 import type { BoardSnapshot, MenuView, OrderView } from '../domain/types';
 import { http } from './http';
+import { httpBeansApi, type BeansApi } from './beans-api';
+import { httpMenuAdminApi, type MenuAdminApi } from './menu-admin-api';
 import { httpReportsApi, type ReportsApi } from './reports-api';
+import { httpSettingsApi, type SettingsApi } from './settings-api';
+import { httpTeamApi, type TeamApi } from './team-api';
 
 export interface PublicUser {
   id: number;
@@ -27,6 +31,11 @@ export interface Api {
   outbox(): Promise<OutboxView>;
   /** Reports for the lead and the owner (src/lib/reports-api.ts). */
   reports: ReportsApi;
+  /** Back office (src/lib/*-api.ts). */
+  menuAdmin: MenuAdminApi;
+  team: TeamApi;
+  settings: SettingsApi;
+  beans: BeansApi;
 }
 
 export const httpApi: Api = {
@@ -36,6 +45,10 @@ export const httpApi: Api = {
   pickup: () => http('GET', '/pickup'),
   outbox: () => http('GET', '/outbox'),
   reports: httpReportsApi,
+  menuAdmin: httpMenuAdminApi,
+  team: httpTeamApi,
+  settings: httpSettingsApi,
+  beans: httpBeansApi,
   orders: (q) => http('GET', `/orders${q ? `?q=${encodeURIComponent(q)}` : ''}`),
   order: (id) => http('GET', `/orders/${id}`),
   pulse: () => http('GET', '/pulse'),

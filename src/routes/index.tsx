@@ -5,7 +5,13 @@ import { HOME_SCREEN } from '../domain/roles';
 import { sessionQuery } from '../features/session/queries';
 import { RouteError } from './route-error';
 import { Root } from './root';
+import { adminBeansRoute } from './admin-beans';
+import { adminMenuRoute } from './admin-menu';
+import { adminSettingsRoute } from './admin-settings';
+import { adminTeamRoute } from './admin-team';
 import { barRoute } from './bar';
+import { dialInRoute } from './dial-in';
+import { welcomeRoute } from './welcome';
 import { counterRoute } from './counter';
 import { outboxRoute } from './outbox';
 import { labelsRoute } from './labels';
@@ -45,6 +51,12 @@ export function createRoutes(deps: RouteDeps): RouteObject[] {
         { id: 'labels', path: 'labels/:id', ...labelsRoute(deps) },
         { id: 'outbox', path: 'outbox', ...outboxRoute(deps) },
         { id: 'reports', path: 'reports', ...reportsRoute(deps) },
+        { id: 'dial-in', path: 'dial-in', ...dialInRoute(deps) },
+        { id: 'admin-menu', path: 'admin/menu', ...adminMenuRoute(deps) },
+        { id: 'admin-team', path: 'admin/team', ...adminTeamRoute(deps) },
+        { id: 'admin-beans', path: 'admin/beans', ...adminBeansRoute(deps) },
+        { id: 'admin-settings', path: 'admin/settings', ...adminSettingsRoute(deps) },
+        { id: 'welcome', path: 'welcome/:token', ...welcomeRoute(deps) },
         {
           id: 'not-found',
           path: '*',

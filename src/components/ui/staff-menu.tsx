@@ -8,7 +8,19 @@ import { useApi } from '../../lib/api-context';
 import { cn } from '../../lib/cn';
 import { http } from '../../lib/http';
 
-const MENU = [SCREENS.counter, SCREENS.bar, SCREENS.pickup, SCREENS.pulse, SCREENS.reports, SCREENS.outbox];
+const MENU = [
+  SCREENS.counter,
+  SCREENS.bar,
+  SCREENS.pickup,
+  SCREENS.pulse,
+  SCREENS.reports,
+  SCREENS.dialIn,
+  SCREENS.adminMenu,
+  SCREENS.adminTeam,
+  SCREENS.adminBeans,
+  SCREENS.adminSettings,
+  SCREENS.outbox,
+];
 
 export function StaffMenu({ dark = false }: { dark?: boolean }) {
   const api = useApi();

@@ -31,6 +31,11 @@ export function applyLiveEvent(qc: QueryClient, event: AnyLiveEvent) {
     eachBoard(qc, (b, spec) => applyEvent(b, { ...event, ticket: spec.view(event.ticket) } as LiveEvent, spec.keep));
     return;
   }
+  if (event.type === 'menu.changed') {
+    qc.invalidateQueries({ queryKey: menuKeys.all });
+    eachBoard(qc, (b) => (event.seq > b.seq ? { ...b, seq: event.seq } : b));
+    return;
+  }
   if (event.type === 'shift.changed') {
     qc.invalidateQueries({ queryKey: ['pulse'] });
     eachBoard(qc, (b) => (event.seq > b.seq ? { ...b, seq: event.seq } : b));

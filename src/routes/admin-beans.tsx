@@ -1,0 +1,21 @@
+// Beans (back office). Being built: see the back-office issue.
+import type { LoaderFunctionArgs } from 'react-router';
+import { SCREENS } from '../domain/screens';
+import { requireScreen, type RouteDeps } from './deps';
+
+function AdminBeans() {
+  return (
+    <main className="min-h-screen bg-steam-50 p-8 text-ink-900">
+      <h1 className="text-3xl font-semibold">Beans</h1>
+    </main>
+  );
+}
+
+export const adminBeansRoute = (deps: RouteDeps) => ({
+  Component: AdminBeans,
+  handle: { title: 'Beans' },
+  loader: async ({ request }: LoaderFunctionArgs) => {
+    await requireScreen(deps, request, SCREENS.adminBeans.need);
+    return null;
+  },
+});

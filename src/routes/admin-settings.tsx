@@ -1,0 +1,21 @@
+// Settings (back office). Being built: see the back-office issue.
+import type { LoaderFunctionArgs } from 'react-router';
+import { SCREENS } from '../domain/screens';
+import { requireScreen, type RouteDeps } from './deps';
+
+function AdminSettings() {
+  return (
+    <main className="min-h-screen bg-steam-50 p-8 text-ink-900">
+      <h1 className="text-3xl font-semibold">Settings</h1>
+    </main>
+  );
+}
+
+export const adminSettingsRoute = (deps: RouteDeps) => ({
+  Component: AdminSettings,
+  handle: { title: 'Settings' },
+  loader: async ({ request }: LoaderFunctionArgs) => {
+    await requireScreen(deps, request, SCREENS.adminSettings.need);
+    return null;
+  },
+});
