@@ -40,6 +40,10 @@ test('a shift on Pulse: open, live numbers, close with a count, report mailed', 
   const closeForm = pulse.getByRole('form', { name: 'Close the shift' });
   await closeForm.getByLabel('Cash counted ($)').fill(expected);
   await closeForm.getByRole('button', { name: 'Close shift' }).click();
+  // nothing is closed until the lead confirms the count and its difference
+  const confirm = pulse.getByRole('group', { name: 'Confirm closing the shift' });
+  await expect(confirm).toContainText('difference $0.00');
+  await confirm.getByRole('button', { name: 'Yes, close the shift' }).click();
   await expect(pulse.getByRole('status').filter({ hasText: 'Last shift closed' })).toContainText('difference $0.00');
 
   await pulse.goto('/outbox');

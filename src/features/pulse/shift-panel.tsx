@@ -1,6 +1,7 @@
 // The lead's shift controls: open with a float, move baristas on and off bar, close with a count.
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { formatCents, parseAmountToCents } from '../../domain/money';
@@ -48,6 +49,7 @@ export function ShiftPanel({
   const money = (c: number) => formatCents(c, currency);
   const error = [open.error, baristas.error, close.error].find(Boolean);
   const closed = close.data?.shift;
+  const [confirming, setConfirming] = useState<{ countedCashCents: number; note?: string } | null>(null);
 
   if (!shift) {
     return (
@@ -107,24 +109,40 @@ export function ShiftPanel({
       <p className="text-lg">
         Float {money(shift.openingFloatCents)} · cash expected in the drawer now <strong data-testid="expected-cash">{money(expectedCashCents ?? 0)}</strong>
       </p>
-      <form
-        aria-label="Close the shift"
-        className="ml-auto flex items-end gap-3"
-        onSubmit={closeF.handleSubmit((v) => close.mutate({ countedCashCents: parseAmountToCents(v.counted)!, note: v.note || undefined }))}
-      >
-        <label>
-          Cash counted ($)
-          <input className={input} {...closeF.register('counted')} />
-          <FieldError message={closeF.formState.errors.counted?.message} />
-        </label>
-        <label>
-          Note
-          <input className="mt-1 w-48 rounded-lg border border-steam-200 bg-white px-3 py-2 text-lg" {...closeF.register('note')} />
-        </label>
-        <Button type="submit" size="lg" disabled={close.isPending}>
-          Close shift
-        </Button>
-      </form>
+      {confirming ? (
+        // Closing mails the report and ends the shift for everyone: the lead sees the difference first.
+        <div role="group" aria-label="Confirm closing the shift" className="ml-auto flex flex-wrap items-center gap-3 rounded-xl border-2 border-ink-900 px-4 py-3">
+          <p className="text-lg">
+            Close with {money(confirming.countedCashCents)} counted — expected {money(expectedCashCents ?? 0)}, difference{' '}
+            <strong>{money(confirming.countedCashCents - (expectedCashCents ?? 0))}</strong>?
+          </p>
+          <Button size="lg" disabled={close.isPending} onClick={() => close.mutate(confirming, { onSettled: () => setConfirming(null) })}>
+            Yes, close the shift
+          </Button>
+          <Button tone="quiet" size="lg" onClick={() => setConfirming(null)}>
+            Back
+          </Button>
+        </div>
+      ) : (
+        <form
+          aria-label="Close the shift"
+          className="ml-auto flex items-end gap-3"
+          onSubmit={closeF.handleSubmit((v) => setConfirming({ countedCashCents: parseAmountToCents(v.counted)!, note: v.note || undefined }))}
+        >
+          <label>
+            Cash counted ($)
+            <input className={input} {...closeF.register('counted')} />
+            <FieldError message={closeF.formState.errors.counted?.message} />
+          </label>
+          <label>
+            Note
+            <input className="mt-1 w-48 rounded-lg border border-steam-200 bg-white px-3 py-2 text-lg" {...closeF.register('note')} />
+          </label>
+          <Button type="submit" size="lg" disabled={close.isPending}>
+            Close shift…
+          </Button>
+        </form>
+      )}
       {error && <p role="alert" className="w-full font-semibold text-copper-700">{error instanceof ApiError ? error.message : 'That did not work'}</p>}
     </section>
   );
