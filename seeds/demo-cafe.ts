@@ -2,6 +2,8 @@
 // Loaded only into an empty database when SEED_DEMO is on.
 import type { Knex } from 'knex';
 import { hashPassword, verifyPassword } from '../server/auth/passwords';
+import { adviseShot, doseRange, DEFAULT_SHOT_TARGETS } from '../src/domain/dial-in';
+import { addDays, localDate } from '../src/domain/freshness';
 
 export const DEMO_PASSWORD = 'jugline-demo';
 
@@ -12,6 +14,15 @@ export const DEMO_STAFF = [
   { username: 'barista', name: 'Jonah Reyes', role: 'barista' },
   { username: 'barista2', name: 'Ines Calder', role: 'barista' },
 ] as const;
+
+/** Demo PINs for "Switch person" on a shared terminal (none of them a run or a repeat). */
+export const DEMO_PINS: Record<(typeof DEMO_STAFF)[number]['username'], string> = {
+  owner: '8264',
+  lead: '5139',
+  cashier: '4072',
+  barista: '6318',
+  barista2: '7450',
+};
 
 type SizeSeed = [name: string, volumeMl: number, priceCents: number, milkMl: number];
 const SML = (prices: [number, number, number], milk: [number, number, number]): SizeSeed[] => [
@@ -73,6 +84,13 @@ const MILKS = [
   { name: 'Coconut', code: 'CO', upcharge: 80, allergens: [] },
 ];
 
+/** The café's cups by what they hold (invented stock; the menu editor can change them). */
+function cupFor(volumeMl: number, cold: boolean): string | null {
+  const cups: Record<number, string> = { 53: 'Demitasse', 160: 'Tulip cup', 240: '8 oz cup', 350: '12 oz cup', 470: '16 oz cup' };
+  const cup = cups[volumeMl];
+  return cup && cold ? cup.replace('cup', 'cold cup') : (cup ?? null);
+}
+
 const GROUPS = [
   { name: 'Coffee', selection: 'multi' },
   { name: 'Syrup', selection: 'multi' },
@@ -117,6 +135,7 @@ export async function demoPasswordStillSet(db: Knex): Promise<boolean> {
 export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: number): Promise<number> {
   const createdAt = now.toISOString();
   const hashes = await Promise.all(DEMO_STAFF.map(() => hashPassword(DEMO_PASSWORD, passwordCost)));
+  const pinHashes = await Promise.all(DEMO_STAFF.map((s) => hashPassword(DEMO_PINS[s.username], passwordCost)));
   return db.transaction(async (trx) => {
     const [{ id: locationId }] = await trx('locations')
       .insert({
@@ -130,6 +149,9 @@ export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: nu
         wait_target_seconds: 240,
         pickup_timeout_seconds: 600,
         allergen_list: 'US',
+        // a US café: cup sizes in ounces, temperatures in °F (stored sizes stay in ml)
+        volume_unit: 'us_floz',
+        temperature_unit: 'F',
         created_at: createdAt,
       })
       .returning('id');
@@ -142,6 +164,7 @@ export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: nu
         role: s.role,
         email: 'email' in s ? s.email : null,
         password_hash: hashes[i],
+        pin_hash: pinHashes[i],
         created_at: createdAt,
       })),
     );
@@ -214,6 +237,7 @@ export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: nu
             yield_dg: (item.shots ?? 0) * 190,
             is_default: si === (defaultIndex >= 0 ? defaultIndex : 0),
             sort: si,
+            cup: cupFor(volumeMl, item.texture === 'cold'),
           });
         }
       }
@@ -228,6 +252,68 @@ export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: nu
         sort: i,
       })),
     );
+    await seedBeans(trx, locationId, now);
     return locationId;
   });
+}
+
+// Bean lots of our own invention (names, roasters), dated back from the seed time: a house blend in
+// its best days on the espresso grinder, a single origin still resting on the shelf, and a decaf
+// that is fading. Two test shots from this morning dial in the house blend.
+const BEAN_LOTS = [
+  { name: 'Breakwater House Blend', roaster: 'Kestrel & Vane Roasters', origin: 'Brazil and Colombia; cocoa, toffee', roastedDaysAgo: 12, receivedDaysAgo: 10, grams: 5000, hopper: 'espresso' },
+  { name: 'Guji Hillside', roaster: 'Marlow Street Roastworks', origin: 'Ethiopia, washed; jasmine, peach', roastedDaysAgo: 3, receivedDaysAgo: 1, grams: 1000, hopper: 'shelf' },
+  { name: 'Night Harbour Decaf', roaster: 'Kestrel & Vane Roasters', origin: 'Colombia, sugarcane decaf; brown sugar', roastedDaysAgo: 34, receivedDaysAgo: 31, grams: 1000, hopper: 'decaf' },
+] as const;
+
+const DIAL_IN_SHOTS = [
+  { minutesAgo: 95, grind: '2.6', doseDg: 190, yieldDg: 440, timeDs: 210, note: 'thin and sour' },
+  { minutesAgo: 88, grind: '2.4', doseDg: 190, yieldDg: 385, timeDs: 270, note: 'sweet, chocolate' },
+];
+
+async function seedBeans(trx: Knex.Transaction, locationId: number, now: Date) {
+  const { time_zone: timeZone } = await trx('locations').where({ id: locationId }).first('time_zone');
+  const today = localDate(now, timeZone);
+  const at = now.toISOString();
+  const lotIds: number[] = [];
+  for (const lot of BEAN_LOTS) {
+    const [{ id }] = await trx('bean_lots')
+      .insert({
+        location_id: locationId,
+        name: lot.name,
+        roaster: lot.roaster,
+        origin: lot.origin,
+        roast_date: addDays(today, -lot.roastedDaysAgo),
+        received_date: addDays(today, -lot.receivedDaysAgo),
+        received_g: lot.grams,
+        hopper: lot.hopper,
+        created_at: at,
+        updated_at: at,
+      })
+      .returning('id');
+    lotIds.push(id);
+  }
+  const { id: barista } = await trx('users').where({ username: 'barista' }).first('id');
+  // the seed's house recipe is 19 g for a double, so the dose range is 18–20 g
+  const window = { ...doseRange(190), ...DEFAULT_SHOT_TARGETS };
+  for (const s of DIAL_IN_SHOTS) {
+    const pulledAt = new Date(now.getTime() - s.minutesAgo * 60_000).toISOString();
+    const advice = adviseShot(s, window);
+    const [{ id }] = await trx('dial_in_shots')
+      .insert({
+        location_id: locationId,
+        lot_id: lotIds[0],
+        grind: s.grind,
+        dose_dg: s.doseDg,
+        yield_dg: s.yieldDg,
+        time_ds: s.timeDs,
+        advice: advice.code,
+        good: advice.good,
+        taste_note: s.note,
+        pulled_by: barista,
+        pulled_at: pulledAt,
+      })
+      .returning('id');
+    await trx('bean_usage').insert({ lot_id: lotIds[0], source: 'dial_in', shot_id: id, dose_dg: s.doseDg, used_at: pulledAt });
+  }
 }

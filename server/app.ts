@@ -1,5 +1,6 @@
 // createApp(deps): the Express app without listen(), so tests drive it in-process.
 import { EventEmitter } from 'node:events';
+import path from 'node:path';
 import express, { type RequestHandler } from 'express';
 import type { Knex } from 'knex';
 import { createPassport, createSessionMiddleware } from './auth/session';
@@ -14,6 +15,7 @@ import { mountRoutes, type ApiRoute } from './routes/define';
 import { beanRoutes } from './routes/beans';
 import { mailRoutes } from './routes/mail';
 import { menuAdminRoutes } from './routes/menu-admin';
+import { menuImportRoutes } from './routes/menu-import';
 import { settingsRoutes } from './routes/settings';
 import { teamRoutes } from './routes/team';
 import { orderRoutes, WEBHOOK_PATH } from './routes/orders';
@@ -22,24 +24,29 @@ import { shiftRoutes } from './routes/shifts';
 import { sessionRoutes } from './routes/session';
 import { ticketRoutes } from './routes/tickets';
 import type { Clock, Deps } from './services/deps';
+import { PHOTO_FOLDER } from './services/item-photos';
 import type { Mailer } from './services/mail';
 import type { PaymentGateway } from './payments/gateway';
 import type { PageRenderer } from './ssr/pages';
 
 export interface AppOptions {
   db: Knex;
-  config: Pick<Config, 'sessionSecret' | 'env'>;
+  config: Pick<Config, 'sessionSecret' | 'env'> & Partial<Pick<Config, 'sessionIdleMinutes'>>;
   clock?: Clock;
   hub?: Hub;
   /** Server-side rendering of the screens; left out by API-only tests. */
   pages?: PageRenderer;
   sessionCleanupIntervalMs?: number;
+  /** The clock session timeouts are measured on; real time unless a test moves it. */
+  sessionClock?: Clock;
   /** Outgoing mail (receipts); without it the mail routes are not mounted. */
   mailer?: Mailer;
   /** Card payments; without it orders take cash only. */
   payments?: PaymentGateway;
   /** Request logs; left out, nothing is logged per request. */
   logger?: Logger;
+  /** Uploaded item photos (config.ts mediaDirOf); left out: data/media. */
+  mediaDir?: string;
 }
 
 export interface App {
@@ -51,6 +58,7 @@ export interface App {
 }
 
 export function createApp(opts: AppOptions): App {
+  const mediaDir = opts.mediaDir ?? path.resolve('data/media');
   const deps: Deps = {
     db: opts.db,
     clock: opts.clock ?? (() => new Date()),
@@ -80,10 +88,13 @@ export function createApp(opts: AppOptions): App {
 
   const sessionMiddleware = createSessionMiddleware(opts.db, opts.config.sessionSecret, {
     cleanupIntervalMs: opts.sessionCleanupIntervalMs,
+    idleMinutes: opts.config.sessionIdleMinutes,
+    clock: opts.sessionClock,
+    onExpired: (sid) => deps.sessions.emit('signed-out', sid),
   });
-  const passport = createPassport(opts.db);
+  const passport = createPassport(opts.db, opts.sessionClock);
   const routes = [...sessionRoutes(passport, deps), ...orderRoutes(deps), ...ticketRoutes(deps), ...shiftRoutes(deps), ...reportRoutes(deps)];
-  routes.push(...menuAdminRoutes(deps), ...teamRoutes(deps), ...settingsRoutes(deps), ...beanRoutes(deps));
+  routes.push(...menuAdminRoutes(deps), ...menuImportRoutes(deps, mediaDir), ...teamRoutes(deps), ...settingsRoutes(deps), ...beanRoutes(deps));
   if (opts.mailer) routes.push(...mailRoutes(deps, opts.mailer));
 
   // The payment webhook is verified against its exact bytes, so it alone keeps a raw body.
@@ -94,6 +105,10 @@ export function createApp(opts: AppOptions): App {
   app.use('/api', sessionMiddleware, passport.initialize(), passport.session());
   app.use('/api', mountRoutes(routes));
   app.use('/api', (req, _res, next) => next(new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}`)));
+
+  // Item photos: random names never reused, so a browser may keep them; nothing else is served here.
+  app.use(`/media/${PHOTO_FOLDER}`, express.static(path.join(mediaDir, PHOTO_FOLDER), { index: false, immutable: true, maxAge: '365d' }));
+  app.use('/media', (_req, res) => res.status(404).type('text/plain').send('Not found'));
 
   if (opts.pages) {
     app.use(opts.pages.assets);

@@ -1,10 +1,11 @@
 // Start Jugline on one HTTP server: the Express app, the screens and the live socket.
+import { mkdirSync } from 'node:fs';
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import type { Knex } from 'knex';
 import { DEMO_PASSWORD, DEMO_STAFF, isEmpty, seedDemoCafe } from '../seeds/demo-cafe';
 import { createApp } from './app';
-import type { Config } from './config';
+import { mediaDirOf, type Config } from './config';
 import { createDb, migrate } from './db/knex';
 import { attachSocketServer, type SocketServer } from './realtime/socket-server';
 import type { ApiRoute } from './routes/define';
@@ -30,6 +31,8 @@ export interface RunningServer {
 
 export interface StartOptions {
   clock?: Clock;
+  /** The clock session timeouts are measured on (real time unless a test moves it). */
+  sessionClock?: Clock;
   /** 'production' serves dist/; 'development' runs Vite in middleware mode. */
   pages?: 'production' | 'development' | 'none';
   log?: (line: string) => void;
@@ -53,16 +56,20 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
   const server = createServer();
   const mode = opts.pages ?? (config.env === 'production' ? 'production' : 'development');
   const pages = mode === 'none' ? undefined : mode === 'production' ? productionPages() : await developmentPages(server);
+  const mediaDir = mediaDirOf(config);
+  mkdirSync(mediaDir, { recursive: true });
   const mail = await startMail({ smtpUrl: config.smtpUrl, db, clock: opts.clock, log });
   const payments = await startPayments({ secretKey: config.stripeSecretKey, webhookSecret: config.stripeWebhookSecret, log });
   const { app, deps, sessionMiddleware, routes } = createApp({
     db,
     config,
     clock: opts.clock,
+    sessionClock: opts.sessionClock,
     pages,
     mailer: mail.mailer,
     payments: payments.gateway,
     logger: opts.logger ?? createLogger(config.env === 'test' ? 'silent' : (config.logLevel ?? 'info')),
+    mediaDir,
   });
   server.on('request', app);
   const sockets = attachSocketServer(server, deps, sessionMiddleware);

@@ -7,6 +7,8 @@ import { SMTPServer } from 'smtp-server';
 
 /** Header a sender may set so the fake knows which café a mail belongs to (see services/mail.ts). */
 export const LOCATION_HEADER = 'x-jugline-location';
+/** Set on mail with a sign-in link; the Outbox shows such mail to the owner only. */
+export const OWNER_ONLY_HEADER = 'x-jugline-owner-only';
 
 export interface ReceivedMail {
   messageId: string;
@@ -17,6 +19,7 @@ export interface ReceivedMail {
   html: string | null;
   /** The café the mail was sent for, from LOCATION_HEADER; null when the sender gave none. */
   locationId: number | null;
+  ownerOnly: boolean;
   receivedAt: string;
 }
 
@@ -69,6 +72,7 @@ export async function startSmtpFake(opts: {
             text: parsed.text ?? '',
             html: parsed.html === false ? null : (parsed.html ?? null),
             locationId: Number.isInteger(location) && location > 0 ? location : null,
+            ownerOnly: parsed.headers.get(OWNER_ONLY_HEADER) === 'yes',
             receivedAt: clock().toISOString(),
           });
           callback(null, 'Stored');

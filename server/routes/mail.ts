@@ -36,7 +36,7 @@ export function mailRoutes(deps: Deps, mailer: Mailer): ApiRoute[] {
       method: 'get',
       path: '/outbox',
       capability: 'viewOutbox',
-      handler: async (req, res) => res.json(await outboxView(deps.db, userOf(req).locationId, OUTBOX_LIMIT)),
+      handler: async (req, res) => res.json(await outboxView(deps.db, userOf(req).locationId, userOf(req).role, OUTBOX_LIMIT)),
     },
   ];
 }

@@ -4,7 +4,8 @@ import type { Knex } from 'knex';
 import nodemailer from 'nodemailer';
 import type { OutboxMail, OutboxView } from '../../src/domain/outbox';
 import { json } from '../db/rows';
-import { LOCATION_HEADER, startSmtpFake, type ReceivedMail } from '../fakes/smtp-fake';
+import { LOCATION_HEADER, OWNER_ONLY_HEADER, startSmtpFake, type ReceivedMail } from '../fakes/smtp-fake';
+import type { Role } from '../../src/domain/roles';
 
 export type MailTransport = { host: string; port: number } | { url: string };
 
@@ -17,6 +18,8 @@ export interface OutgoingMail {
   fromName?: string;
   /** The café the mail is for, so the Outbox lists it only to that café's people. */
   locationId?: number;
+  /** Carries a sign-in link: the Outbox lists it to the owner only. */
+  ownerOnly?: boolean;
 }
 
 export interface Mailer {
@@ -41,7 +44,10 @@ export function createMailer(transport: MailTransport, from: { name: string; add
         subject: mail.subject,
         text: mail.text,
         html: mail.html,
-        headers: mail.locationId ? { [LOCATION_HEADER]: String(mail.locationId) } : undefined,
+        headers: {
+          ...(mail.locationId ? { [LOCATION_HEADER]: String(mail.locationId) } : {}),
+          ...(mail.ownerOnly ? { [OWNER_ONLY_HEADER]: 'yes' } : {}),
+        },
       });
       return { messageId: info.messageId };
     },
@@ -58,14 +64,16 @@ export async function storeReceivedMail(db: Knex, mail: ReceivedMail): Promise<v
     text_body: mail.text,
     html_body: mail.html,
     location_id: mail.locationId,
+    owner_only: mail.ownerOnly,
     received_at: mail.receivedAt,
   });
 }
 
-/** The café's caught mail, newest first. */
-export async function listOutbox(db: Knex, locationId: number, limit = 100): Promise<OutboxMail[]> {
+/** The café's caught mail, newest first; sign-in links only for the owner. */
+export async function listOutbox(db: Knex, locationId: number, role: Role, limit = 100): Promise<OutboxMail[]> {
   const rows = await db('outbox')
     .where({ location_id: locationId })
+    .whereIn('owner_only', role === 'owner' ? [0, 1] : [0])
     .orderBy([
       { column: 'received_at', order: 'desc' },
       { column: 'id', order: 'desc' },
@@ -85,9 +93,9 @@ export async function listOutbox(db: Knex, locationId: number, limit = 100): Pro
 
 /** The Outbox screen's data: the mail and the café's zone and locale, so the server's HTML and the
  * browser write the same times. */
-export async function outboxView(db: Knex, locationId: number, limit = 100): Promise<OutboxView> {
+export async function outboxView(db: Knex, locationId: number, role: Role, limit = 100): Promise<OutboxView> {
   const l = await db('locations').where({ id: locationId }).first('time_zone', 'locale');
-  return { mails: await listOutbox(db, locationId, limit), timeZone: l?.time_zone ?? 'UTC', locale: l?.locale ?? 'en-US' };
+  return { mails: await listOutbox(db, locationId, role, limit), timeZone: l?.time_zone ?? 'UTC', locale: l?.locale ?? 'en-US' };
 }
 
 export interface MailSetup {

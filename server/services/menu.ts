@@ -3,6 +3,7 @@ import type { Knex } from 'knex';
 import type { LocationView, MenuView, Texture } from '../../src/domain/types';
 import { bool, json } from '../db/rows';
 import { notFound } from '../errors';
+import { photoUrlOf } from './item-photos';
 
 export async function loadLocation(db: Knex | Knex.Transaction, locationId: number): Promise<LocationView> {
   const l = await db('locations').where({ id: locationId }).first();
@@ -21,6 +22,8 @@ export async function loadLocation(db: Knex | Knex.Transaction, locationId: numb
     baristasOnBar: l.baristas_on_bar,
     receiptFooter: l.receipt_footer ?? null,
     jugWasteMl: l.jug_waste_ml,
+    volumeUnit: l.volume_unit,
+    temperatureUnit: l.temperature_unit,
   };
 }
 
@@ -42,17 +45,21 @@ export async function loadMenu(db: Knex | Knex.Transaction, locationId: number):
     .orderBy(['sort', 'id']);
   const sizes = await db('item_sizes')
     .whereIn('item_id', items.map((i) => i.id))
+    .whereNull('retired_at') // retired in the menu editor: past orders keep them, the Counter doesn't
     .orderBy(['sort', 'id']);
   const milks = await db('milk_options')
     .where({ location_id: locationId })
     .whereNull('retired_at')
     .orderBy(['sort', 'id']);
-  const groups = await db('modifier_groups').where({ location_id: locationId }).orderBy(['sort', 'id']);
+  const groups = await db('modifier_groups').where({ location_id: locationId }).whereNull('retired_at').orderBy(['sort', 'id']);
   const modifiers = await db('modifiers')
     .where({ location_id: locationId })
+    .whereIn('group_id', groups.map((g) => g.id))
     .whereNull('retired_at')
     .orderBy(['sort', 'id']);
-  const links = await db('item_modifier_groups').whereIn('item_id', items.map((i) => i.id));
+  const links = await db('item_modifier_groups')
+    .whereIn('item_id', items.map((i) => i.id))
+    .whereIn('group_id', groups.map((g) => g.id));
   const groupName = new Map(groups.map((g) => [g.id, g.name as string]));
 
   return {
@@ -82,8 +89,10 @@ export async function loadMenu(db: Knex | Knex.Transaction, locationId: number):
           doseDg: s.dose_dg,
           yieldDg: s.yield_dg,
           isDefault: bool(s.is_default),
+          cup: s.cup ?? null,
         })),
       modifierGroupIds: links.filter((l) => l.item_id === i.id).map((l) => l.group_id),
+      photoUrl: photoUrlOf(i.photo),
     })),
     milks: milks.map((m) => ({
       id: m.id,

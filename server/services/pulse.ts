@@ -4,6 +4,7 @@ import { staffingAdvice, type ErlangResult } from '../../src/domain/erlang';
 import type { PulseView } from '../../src/domain/pulse';
 import { median, PERCENTILE_METHOD, summarizeWaits } from '../../src/domain/stats';
 import type { Deps } from './deps';
+import { pulseBeanAlerts } from './beans-alerts';
 import { loadLocation } from './menu';
 import { businessDate } from './orders';
 import { expectedCash, openShiftOf } from './shifts';
@@ -155,5 +156,6 @@ export async function pulse(deps: Deps, locationId: number): Promise<PulseView> 
       sentence: advice.sentence,
     },
     alert,
+    beanAlerts: await pulseBeanAlerts(deps.db, locationId, nowDate, location.timeZone),
   };
 }

@@ -25,6 +25,8 @@ function toDrink(r: Record<string, any>): DrinkView {
     doneAt: r.done_at,
     allergyAckAt: r.allergy_ack_at ?? null,
     allergyAckBy: r.ack_by_name ?? null,
+    startedBy: r.started_by_name ?? null,
+    doneBy: r.done_by_name ?? null,
   };
 }
 
@@ -32,10 +34,15 @@ export async function loadTickets(db: Db, orders: Record<string, any>[]): Promis
   if (orders.length === 0) return [];
   const drinks = await db('order_items')
     .leftJoin('users', 'users.id', 'order_items.allergy_ack_by')
+    .leftJoin('users as starter', 'starter.id', 'order_items.started_by')
+    .leftJoin('users as bumper', 'bumper.id', 'order_items.done_by')
     .whereIn('order_items.order_id', orders.map((o) => o.id))
     .andWhere('order_items.station', 'bar')
     .orderBy(['order_items.order_id', 'order_items.line_no'])
-    .select('order_items.*', 'users.name as ack_by_name');
+    .select('order_items.*', 'users.name as ack_by_name', 'starter.name as started_by_name', 'bumper.name as done_by_name');
+  const takers = new Map<number, string>();
+  const takerIds = [...new Set(orders.map((o) => o.taken_by).filter((id): id is number => id != null))];
+  if (takerIds.length) for (const u of await db('users').whereIn('id', takerIds).select('id', 'name')) takers.set(u.id, u.name);
   const byOrder = new Map<number, DrinkView[]>();
   for (const d of drinks) byOrder.set(d.order_id, [...(byOrder.get(d.order_id) ?? []), toDrink(d)]);
   return orders.map((o) => ({
@@ -50,6 +57,7 @@ export async function loadTickets(db: Db, orders: Record<string, any>[]): Promis
     allergens: json<string[]>(o.allergens, []),
     allergyNote: o.allergy_note ?? null,
     rushedAt: o.rushed_at ?? null,
+    takenBy: (o.taken_by != null && takers.get(o.taken_by)) || null,
     drinks: byOrder.get(o.id) ?? [],
   }));
 }

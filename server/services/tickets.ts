@@ -9,6 +9,7 @@ import { appendEvent, latestSeq, runCommand } from './events';
 import { loadLocation, loadPitchers } from './menu';
 import { WAIT_OF_ORDER } from './reports/sql';
 import { loadBoardTickets, loadTicket } from './ticket-views';
+import { recordCoffeeUse, returnCoffeeUse } from './beans-usage';
 
 
 export async function boardSnapshot(deps: Deps, locationId: number): Promise<BoardSnapshot> {
@@ -118,6 +119,7 @@ export function bumpDrinks(deps: Deps, user: SessionUser, drinkIds: number[]) {
       .whereNot({ status: 'done' })
       .update({ status: 'done', done_at: at, done_by: user.id, bump_seq: bumpSeq });
     if (changed !== drinkIds.length) throw conflict('A drink was already bumped');
+    await recordCoffeeUse(trx, user.locationId, drinkIds, at);
     for (const orderId of new Set(rows.map((r) => r.order_id))) await settleTicket(trx, orderId, at);
     const { tickets, events } = await ticketEvents(trx, user, rows.map((r) => r.order_id), 'drink.bumped', at);
     return { result: tickets, events };
@@ -141,6 +143,7 @@ export function bumpTicket(deps: Deps, user: SessionUser, orderId: number) {
       .where({ order_id: orderId, station: 'bar' })
       .whereNot({ status: 'done' })
       .update({ status: 'done', done_at: at, done_by: user.id, bump_seq: bumpSeq });
+    await recordCoffeeUse(trx, user.locationId, left.map((d) => d.id), at);
     await settleTicket(trx, orderId, at);
     const ticket = await loadTicket(trx, orderId);
     return { result: ticket, events: [await appendEvent(trx, user.locationId, 'ticket.bumped', ticket, at, user.id)] };
@@ -163,6 +166,7 @@ export function recallTicket(deps: Deps, user: SessionUser, orderId: number) {
       throw conflict(`A bump can be recalled for ${RECALL_WINDOW_SECONDS / 60} minutes`);
     }
     const at = now.toISOString();
+    await returnCoffeeUse(trx, orderId, last.bump_seq);
     // A recalled drink goes back to "making": the barista had started it.
     await trx('order_items')
       .where({ order_id: orderId, bump_seq: last.bump_seq })

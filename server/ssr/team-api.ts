@@ -1,10 +1,23 @@
 // The owner's team screen: staff accounts, roles, invitations, PINs. — during server rendering, straight to the services.
 import type { TeamApi } from '../../src/lib/team-api';
+import { tokenParam } from '../../src/domain/team-schemas';
+import type { SessionUser } from '../../src/domain/types';
+import { parse } from '../errors';
 import type { Deps } from '../services/deps';
+import { welcomeView } from '../services/invitations';
+import { switchPeople } from '../services/pins';
+import { listTeam } from '../services/team';
 
-/** `locationId` throws 401 when nobody is signed in. */
-export function teamServerApi(deps: Deps, locationId: () => number): TeamApi {
-  void deps;
-  void locationId;
-  return {};
+/** `locationId` throws 401 when nobody is signed in; `user` is the signed-in person, if any. */
+export function teamServerApi(deps: Deps, locationId: () => number, user?: () => SessionUser): TeamApi {
+  const me = (): SessionUser => {
+    locationId();
+    if (!user) throw new Error('teamServerApi needs the signed-in user');
+    return user();
+  };
+  return {
+    list: () => listTeam(deps, me()),
+    welcome: (token) => welcomeView(deps, parse(tokenParam, { token }, 'params').token),
+    switchPeople: async () => ({ people: await switchPeople(deps.db, me()) }),
+  };
 }

@@ -8,6 +8,8 @@ export interface DrinkCard extends DrinkView {
   customerName: string;
   firedAt: string;
   rushedAt: string | null;
+  /** Who took the order at the counter. */
+  takenBy?: string | null;
   /** The ticket's allergy, if any; the drink can't be bumped until it is acknowledged. */
   allergens: string[];
   allergyNote: string | null;
@@ -54,6 +56,7 @@ export function groupIntoLanes(tickets: TicketView[]): Lane[] {
         customerName: ticket.customerName,
         firedAt: ticket.firedAt,
         rushedAt: ticket.rushedAt,
+        takenBy: ticket.takenBy ?? null,
         allergens: ticket.allergens,
         allergyNote: ticket.allergyNote,
         indexInTicket: i + 1,

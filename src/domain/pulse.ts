@@ -1,4 +1,5 @@
 // What the Pulse board shows: live ticket times against the target, and whether to move people.
+import type { BeanAlert } from './bean-stock';
 import type { WaitSummary } from './stats';
 import type { ShiftView } from './types';
 
@@ -50,4 +51,6 @@ export interface PulseView {
     sentence: string;
   };
   alert: string | null;
+  /** Coffee in the grinders running low or out, and lots past their best (src/domain/bean-stock.ts). */
+  beanAlerts: BeanAlert[];
 }

@@ -1,5 +1,6 @@
 // Shapes the API answers with and the screens render. Shared by client and server.
 import type { Role } from './roles';
+import type { TemperatureUnit, VolumeUnit } from './units';
 
 export type Station = 'bar' | 'counter';
 /** Milk texture a drink is steamed for, thinnest first. Our own names. */
@@ -32,6 +33,10 @@ export interface LocationView {
   baristasOnBar: number;
   receiptFooter: string | null;
   jugWasteMl: number;
+  /** Display units (src/domain/units.ts); sizes stay in ml. The server always sets them; read them
+   * with `?? 'ml'` / `?? 'C'` where a hand-made fixture leaves them out. */
+  volumeUnit?: VolumeUnit;
+  temperatureUnit?: TemperatureUnit;
 }
 
 export interface MilkView {
@@ -55,6 +60,8 @@ export interface SizeView {
   yieldDg: number;
   /** The size a tap on the tile picks. */
   isDefault: boolean;
+  /** The cup the cashier grabs for it ("12 oz hot cup"), set in the menu editor. */
+  cup?: string | null;
 }
 
 export interface ModifierView {
@@ -89,6 +96,8 @@ export interface MenuItemView {
   sizes: SizeView[];
   /** The extras offered on this item, by group. */
   modifierGroupIds: number[];
+  /** The item's photo (a WebP of at most 800 px, served by the app); null or absent: none. */
+  photoUrl?: string | null;
 }
 
 export interface MenuView {
@@ -128,6 +137,9 @@ export interface DrinkView {
   /** When a barista confirmed reading the ticket's allergy, and who. */
   allergyAckAt: string | null;
   allergyAckBy: string | null;
+  /** Who started making it and who bumped it (names; null until then). */
+  startedBy?: string | null;
+  doneBy?: string | null;
 }
 
 export interface TicketView {
@@ -144,6 +156,8 @@ export interface TicketView {
   allergyNote: string | null;
   /** Set when a lead moved the ticket to the front of the bar. */
   rushedAt: string | null;
+  /** Who took the order at the counter (a name). */
+  takenBy?: string | null;
   /** Bar drinks only; counter items are handed over at the counter. */
   drinks: DrinkView[];
 }

@@ -43,7 +43,8 @@ export const httpApi: Api = {
   menu: () => http('GET', '/menu'),
   tickets: () => http('GET', '/tickets?status=board'),
   pickup: () => http('GET', '/pickup'),
-  outbox: () => http('GET', '/outbox'),
+  // the Outbox refreshes itself every few seconds: that alone mustn't keep a session awake
+  outbox: () => http('GET', '/outbox', undefined, { passive: true }),
   reports: httpReportsApi,
   menuAdmin: httpMenuAdminApi,
   team: httpTeamApi,

@@ -1,9 +1,35 @@
-// The back-office menu editor: categories, items, sizes and recipes, milks, modifiers, import.
+// The back-office menu editor: categories, items, sizes and recipes, milks, modifiers.
 // Over HTTP in the browser; server/ssr/menu-admin-api.ts is the server-rendering side.
+// Commands run only in the browser, so they are plain HTTP calls beside the interface.
+import type { CategoryBody, ItemBody, MilkBody, ModifierBody, ModifierGroupBody } from '../domain/menu-admin-schemas';
+import type { AdminMenuView, MenuAdminResult } from '../domain/menu-admin-view';
+import type { Direction } from '../domain/menu-order';
 import { http } from './http';
 
-// eslint-disable-next-line @typescript-eslint/no-empty-object-type
-export interface MenuAdminApi {}
+export interface MenuAdminApi {
+  /** The whole menu as the owner edits it, retired things included. */
+  editable(): Promise<AdminMenuView>;
+}
 
-void http;
-export const httpMenuAdminApi: MenuAdminApi = {};
+export const httpMenuAdminApi: MenuAdminApi = {
+  editable: () => http('GET', '/menu-admin'),
+};
+
+export interface MenuAdminBodies {
+  categories: CategoryBody;
+  items: ItemBody;
+  milks: MilkBody;
+  'modifier-groups': ModifierGroupBody;
+  modifiers: ModifierBody;
+}
+export type MenuKind = keyof MenuAdminBodies;
+
+export const menuAdminCommands = {
+  create: <K extends MenuKind>(kind: K, body: MenuAdminBodies[K]) => http<MenuAdminResult>('POST', `/menu-admin/${kind}`, body),
+  update: <K extends MenuKind>(kind: K, id: number, body: MenuAdminBodies[K]) => http<MenuAdminResult>('PUT', `/menu-admin/${kind}/${id}`, body),
+  /** Retire (true) or restore (false); nothing on the menu is ever deleted. */
+  setRetired: (kind: MenuKind | 'sizes', id: number, retired: boolean) => http<MenuAdminResult>('POST', `/menu-admin/${kind}/${id}/retired`, { retired }),
+  move: (kind: MenuKind, id: number, direction: Direction) => http<MenuAdminResult>('POST', `/menu-admin/${kind}/${id}/move`, { direction }),
+  /** 86 and back on: the Counter's own route, open to leads too. */
+  setAvailable: (itemId: number, available: boolean) => http('POST', `/menu/items/${itemId}/availability`, { available }),
+};

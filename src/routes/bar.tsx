@@ -20,7 +20,10 @@ import { useApi } from '../lib/api-context';
 import { ApiError } from '../lib/http';
 import { useNow } from '../lib/use-now';
 import { requireScreen, type RouteDeps } from './deps';
+import { EspressoStrip } from '../features/dial-in/espresso-strip';
+import { dialInQuery } from '../features/dial-in/queries';
 import { SCREENS } from '../domain/screens';
+import { SteamCaution } from '../features/settings/steam-caution';
 
 const ordinal = (n: number) => `${n}${n === 1 ? 'st' : n === 2 ? 'nd' : n === 3 ? 'rd' : 'th'}`;
 
@@ -71,6 +74,8 @@ function Bar() {
         <LinkStateBadge state={link} className="ml-auto text-xl" />
         <StaffMenu dark />
       </header>
+
+      <EspressoStrip seq={board.seq} />
 
       <main className="flex flex-1 gap-4 overflow-x-auto px-5 pb-3" aria-label="Milk lanes">
         {plan.lanes.length === 0 && <p className="m-auto font-display text-5xl text-crema-300">No drinks waiting</p>}
@@ -126,8 +131,7 @@ function Bar() {
           <kbd className="font-semibold text-crema-100">A</kbd> allergy read · <kbd className="font-semibold text-crema-100">R</kbd> recall last
         </span>
         <span className="ml-auto">
-          Caution: steam (about 130 °C at the wand) and milk above about 70 °C scald and burn — purge and wipe the wand; follow your
-          local food code.
+          <SteamCaution />
         </span>
       </footer>
     </div>
@@ -140,7 +144,8 @@ export const barRoute = (deps: RouteDeps) => ({
   handle: { title: 'Bar', head: '<noscript><meta http-equiv="refresh" content="10"></noscript>' },
   loader: async ({ request }: LoaderFunctionArgs) => {
     await requireScreen(deps, request, SCREENS.bar.need);
-    await deps.queryClient.ensureQueryData(barBoardQuery(deps.api));
+    // side by side; the grinder strip is extra: prefetch never throws, so it can't keep the Bar from loading
+    await Promise.all([deps.queryClient.ensureQueryData(barBoardQuery(deps.api)), deps.queryClient.prefetchQuery(dialInQuery(deps.api))]);
     return null;
   },
 });

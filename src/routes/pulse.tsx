@@ -100,6 +100,20 @@ function Pulse() {
           ⚠ {p.alert}
         </p>
       )}
+      {(p.beanAlerts ?? []).length > 0 && (
+        <section aria-label="Coffee" className="mt-3 flex flex-wrap gap-2">
+          {p.beanAlerts.map((a) => (
+            <p
+              key={`${a.lotId}-${a.kind}`}
+              data-testid="bean-alert"
+              className={cn('rounded-xl border-2 border-ink-900 px-4 py-2 text-lg', a.kind === 'fading' ? 'bg-white' : 'bg-alert-ink')}
+            >
+              <span aria-hidden>{a.kind === 'fading' ? '↘' : a.kind === 'low' ? '▼' : '✕'} </span>
+              <strong>{a.kind === 'fading' ? 'Fading' : a.kind === 'low' ? 'Low stock' : 'Empty'}:</strong> {a.message}
+            </p>
+          ))}
+        </section>
+      )}
       <div className="mt-4">
         <ShiftPanel shift={p.shift} expectedCashCents={p.expectedCashCents} currency={menu.location.currency} timeZone={menu.location.timeZone} />
       </div>

@@ -4,6 +4,7 @@ import { Link, useLocation, useNavigate } from 'react-router';
 import { can } from '../../domain/roles';
 import { SCREENS } from '../../domain/screens';
 import { sessionQuery } from '../../features/session/queries';
+import { SwitchPersonButton } from '../../features/team/switch-person-button';
 import { useApi } from '../../lib/api-context';
 import { cn } from '../../lib/cn';
 import { http } from '../../lib/http';
@@ -43,6 +44,7 @@ export function StaffMenu({ dark = false }: { dark?: boolean }) {
         </Link>
       ))}
       <span className={dark ? 'text-crema-100' : 'text-ink-900'}>{user.name}</span>
+      <SwitchPersonButton className="min-h-11 rounded-lg border border-current px-3 font-semibold" />
       <button type="button" onClick={signOut} className="min-h-11 rounded-lg border border-current px-3 font-semibold">
         Sign out
       </button>

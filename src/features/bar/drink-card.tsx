@@ -22,6 +22,19 @@ interface Props {
   onRush(): void;
 }
 
+const firstName = (name: string) => name.trim().split(/\s+/)[0] ?? name;
+
+/** Who took the order and who is making the drink, so a question goes to the right person. */
+function WhoLine({ takenBy, startedBy }: { takenBy?: string | null; startedBy?: string | null }) {
+  const parts = [takenBy && `Taken by ${firstName(takenBy)}`, startedBy && `Making: ${firstName(startedBy)}`].filter(Boolean);
+  if (parts.length === 0) return null;
+  return (
+    <p data-testid="who" className="mt-1 text-base text-crema-300">
+      {parts.join(' · ')}
+    </p>
+  );
+}
+
 export function DrinkCard({ card, nowMs, targetSeconds, keyNumber, jugLabel, focused, busy, canRush, onStart, onBump, onAcknowledge, onRush }: Props) {
   const allergy = hasAllergy(card);
   const unread = needsAllergyAck(card);
@@ -72,6 +85,7 @@ export function DrinkCard({ card, nowMs, targetSeconds, keyNumber, jugLabel, foc
           .join(' · ')}
       </p>
       {card.note && <p className="mt-1 text-xl font-semibold text-alert-ink">Note: {card.note}</p>}
+      <WhoLine takenBy={card.takenBy} startedBy={card.status === 'making' ? card.startedBy : null} />
       {allergy && (
         <div data-testid="allergy" className="mt-2 rounded-lg border-2 border-alert-ink p-2 text-alert-ink">
           <p className="text-xl font-semibold">

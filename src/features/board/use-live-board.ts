@@ -3,6 +3,8 @@ import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 import { applyEvent, pickupTicket, upsertTicket, type BoardFilter } from '../../domain/tickets';
 import { isTicketEvent, type AnyLiveEvent, type BoardSnapshot, type LiveEvent, type MenuView, type TicketView } from '../../domain/types';
+import type { Api } from '../../lib/api';
+import { useApi } from '../../lib/api-context';
 import { connectLive, liveUrl, type LinkState } from '../../lib/live-socket';
 import { syncServerClock } from '../../lib/server-clock';
 import { menuKeys } from '../menu/queries';
@@ -26,13 +28,27 @@ function eachBoard(qc: QueryClient, fn: (b: BoardSnapshot, spec: (typeof boards)
   }
 }
 
-export function applyLiveEvent(qc: QueryClient, event: AnyLiveEvent) {
+/**
+ * The café's settings (pitchers, wait target, jug waste, pickup timeout) ride on the board
+ * snapshot. After a settings change only the location is taken from a fresh snapshot: the
+ * tickets stay as the socket keeps them, so no event that lands meanwhile is lost.
+ */
+async function refreshBoardLocation(qc: QueryClient, api: Api) {
+  for (const spec of boards) {
+    if (!qc.getQueryData(spec.key)) continue;
+    const fresh = await (spec.key === boardKeys.pickup ? api.pickup() : api.tickets()).catch(() => null);
+    if (fresh) qc.setQueryData<BoardSnapshot>(spec.key, (b) => b && { ...b, location: fresh.location });
+  }
+}
+
+export function applyLiveEvent(qc: QueryClient, event: AnyLiveEvent, api?: Api) {
   if (isTicketEvent(event)) {
     eachBoard(qc, (b, spec) => applyEvent(b, { ...event, ticket: spec.view(event.ticket) } as LiveEvent, spec.keep));
     return;
   }
   if (event.type === 'menu.changed') {
     qc.invalidateQueries({ queryKey: menuKeys.all });
+    if (api) void refreshBoardLocation(qc, api);
     eachBoard(qc, (b) => (event.seq > b.seq ? { ...b, seq: event.seq } : b));
     return;
   }
@@ -56,6 +72,7 @@ export function applyTicket(qc: QueryClient, ticket: TicketView) {
 
 export function useLiveBoard(): LinkState {
   const qc = useQueryClient();
+  const api = useApi();
   const [state, setState] = useState<LinkState>('connecting');
   useEffect(() => {
     const lastSeq = () =>
@@ -65,7 +82,7 @@ export function useLiveBoard(): LinkState {
       onState: setState,
       onEvent: (event) => {
         syncServerClock(event.at);
-        applyLiveEvent(qc, event);
+        applyLiveEvent(qc, event, api);
       },
       onSnapshot: (snapshot) => {
         syncServerClock(snapshot.now);
@@ -76,6 +93,6 @@ export function useLiveBoard(): LinkState {
         }));
       },
     });
-  }, [qc]);
+  }, [qc, api]);
   return state;
 }

@@ -4,6 +4,7 @@ import { formatCents } from '../../domain/money';
 import { resolveLine } from '../../domain/order-lines';
 import type { OrderLineInput } from '../../domain/schemas';
 import type { MenuItemView, MenuView } from '../../domain/types';
+import { cupSizeLabel } from '../../domain/units';
 import { Button } from '../../components/ui/button';
 import { Segmented } from '../../components/ui/segmented';
 import { cn } from '../../lib/cn';
@@ -70,7 +71,7 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
               label="Size"
               value={line.sizeId}
               onChange={(sizeId) => setLine({ ...line, sizeId, shots: undefined })}
-              options={item.sizes.map((s) => ({ value: s.id, label: s.name, hint: `${s.volumeMl} ml · ${money(s.priceCents)}` }))}
+              options={item.sizes.map((s) => ({ value: s.id, label: s.name, hint: `${cupSizeLabel(s.volumeMl, menu.location.volumeUnit ?? 'ml')} · ${money(s.priceCents)}` }))}
             />
           )}
           {item.takesMilk && (

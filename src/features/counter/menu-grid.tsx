@@ -64,8 +64,12 @@ export function MenuGrid({ menu, onPick }: { menu: MenuView; onPick(item: MenuIt
                 </kbd>
               )}
             </span>
-            <span className="text-base text-ink-600">
-              {item.available ? `${item.sizes.length > 1 ? 'from ' : ''}${formatCents(fromPrice(item), menu.location.currency)}` : "86'd — unavailable"}
+            <span className="flex w-full items-end justify-between gap-2">
+              <span className="text-base text-ink-600">
+                {item.available ? `${item.sizes.length > 1 ? 'from ' : ''}${formatCents(fromPrice(item), menu.location.currency)}` : "86'd — unavailable"}
+              </span>
+              {/* the item's photo (back office, Menu → Item photos); decorative: the name says what it is */}
+              {item.photoUrl && <img src={item.photoUrl} alt="" loading="lazy" className="h-12 w-12 shrink-0 rounded-md object-cover" />}
             </span>
           </button>
         ))}

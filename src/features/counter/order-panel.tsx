@@ -3,6 +3,7 @@ import { formatCents, type OrderTotals } from '../../domain/money';
 import { resolveLine } from '../../domain/order-lines';
 import type { OrderLineInput } from '../../domain/schemas';
 import type { MenuView } from '../../domain/types';
+import { cupSizeLabel } from '../../domain/units';
 import { Button } from '../../components/ui/button';
 import { FieldError } from '../../components/ui/field-error';
 
@@ -18,6 +19,8 @@ interface Props {
 export function OrderPanel({ menu, items, totals, error, onEditLine, onRemoveLine }: Props) {
   const money = (c: number) => formatCents(c, menu.location.currency);
   const priced = items.map((l) => resolveLine(menu, l));
+  // the cup size in the café's unit where the item comes in several ("Latte · Large · 16 oz")
+  const sizeCount = (itemId: number) => menu.items.find((m) => m.id === itemId)?.sizes.length ?? 0;
   return (
     <section aria-label="Order">
       <h2 className="text-2xl font-semibold">Order</h2>
@@ -30,6 +33,7 @@ export function OrderPanel({ menu, items, totals, error, onEditLine, onRemoveLin
                 <span className="block text-lg font-semibold">
                   {p.line.itemName}
                   {p.line.size && p.line.size.name !== 'Regular' ? ` · ${p.line.size.name}` : ''}
+                  {p.line.size && sizeCount(p.line.menuItemId) > 1 ? ` · ${cupSizeLabel(p.line.size.volumeMl, menu.location.volumeUnit ?? 'ml')}` : ''}
                 </span>
                 <span className="block text-base text-ink-600">
                   {[p.line.milk?.name, p.line.shots ? `${p.line.shots} shots` : null, ...p.line.modifiers.map((m) => m.name), p.line.note]

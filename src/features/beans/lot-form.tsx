@@ -1,0 +1,136 @@
+// Add or edit a bean lot. The same zod schema as the route; the server's own field errors (a date
+// after today) land on their fields too.
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useForm, type FieldPath } from 'react-hook-form';
+import { HOPPER_LABEL, HOPPERS, type BeanLotView, type Hopper } from '../../domain/bean-stock';
+import { beanLotBody, type BeanLotBody } from '../../domain/beans-schemas';
+import { DEFAULT_FRESHNESS } from '../../domain/freshness';
+import { Button } from '../../components/ui/button';
+import { FieldError } from '../../components/ui/field-error';
+import { useHydrated } from '../../lib/use-hydrated';
+import { Segmented } from '../../components/ui/segmented';
+import { beanCommands } from '../../lib/beans-api';
+import { ApiError } from '../../lib/http';
+import { cn } from '../../lib/cn';
+import { beanKeys } from './queries';
+
+const input = 'mt-1 block min-h-12 w-full rounded-lg border border-steam-200 bg-white px-3 text-lg';
+const label = 'block text-sm font-semibold tracking-widest text-ink-600 uppercase';
+
+function defaults(lot: BeanLotView | null, today: string): BeanLotBody {
+  if (!lot) {
+    return { name: '', roaster: '', origin: '', notes: '', roastDate: today, receivedDate: today, receivedG: 1000, hopper: 'shelf', ...DEFAULT_FRESHNESS };
+  }
+  const { name, roaster, roastDate, receivedDate, receivedG, hopper, restDays, bestUntilDays } = lot;
+  return { name, roaster, origin: lot.origin ?? '', notes: lot.notes ?? '', roastDate, receivedDate, receivedG, hopper, restDays, bestUntilDays };
+}
+
+const FIELDS = ['name', 'roaster', 'origin', 'notes', 'roastDate', 'receivedDate', 'receivedG', 'hopper', 'restDays', 'bestUntilDays'] as const;
+
+export function LotForm({ lot, lots, today, onDone }: { lot: BeanLotView | null; lots: BeanLotView[]; today: string; onDone(): void }) {
+  const qc = useQueryClient();
+  const hydrated = useHydrated();
+  const form = useForm<BeanLotBody>({ resolver: zodResolver(beanLotBody), defaultValues: defaults(lot, today) });
+  const { register, formState, setError, watch, setValue, handleSubmit } = form;
+  const save = useMutation({
+    mutationFn: (body: BeanLotBody) => (lot ? beanCommands.updateLot(lot.id, body) : beanCommands.createLot(body)),
+    onSuccess: async () => {
+      await qc.invalidateQueries({ queryKey: beanKeys.all });
+      onDone();
+    },
+    onError: (err) => {
+      if (!(err instanceof ApiError)) return;
+      for (const d of err.details ?? []) if ((FIELDS as readonly string[]).includes(d.path)) setError(d.path as FieldPath<BeanLotBody>, { message: d.message });
+    },
+  });
+  const hopper = watch('hopper');
+  const displaced = hopper !== 'shelf' ? lots.find((l) => l.hopper === hopper && !l.retiredAt && l.id !== lot?.id) : undefined;
+  const err = (f: (typeof FIELDS)[number]) => formState.errors[f]?.message;
+  const number = { valueAsNumber: true } as const;
+  const title = lot ? `Edit ${lot.name}` : 'Add a lot';
+
+  return (
+    <form aria-label={title} onSubmit={handleSubmit((v) => save.mutate(v))} className="grid grid-cols-4 gap-4 rounded-2xl border border-steam-200 bg-white p-5" noValidate>
+      <h2 className="col-span-4 text-2xl font-semibold">{title}</h2>
+      <label className="col-span-2">
+        <span className={label}>Name</span>
+        <input className={input} {...register('name')} aria-invalid={!!err('name')} />
+        <FieldError message={err('name')} />
+      </label>
+      <label className="col-span-2">
+        <span className={label}>Roaster</span>
+        <input className={input} {...register('roaster')} aria-invalid={!!err('roaster')} />
+        <FieldError message={err('roaster')} />
+      </label>
+      <label className="col-span-2">
+        <span className={label}>Origin and tasting notes</span>
+        <input className={input} {...register('origin')} placeholder="e.g. Colombia, washed; cocoa" />
+        <FieldError message={err('origin')} />
+      </label>
+      <label className="col-span-2">
+        <span className={label}>Notes</span>
+        <input className={input} {...register('notes')} placeholder="e.g. order more on Mondays" />
+        <FieldError message={err('notes')} />
+      </label>
+      <label>
+        <span className={label}>Roast date</span>
+        <input type="date" className={input} max={today} {...register('roastDate')} aria-invalid={!!err('roastDate')} />
+        <FieldError message={err('roastDate')} />
+      </label>
+      <label>
+        <span className={label}>Received</span>
+        <input type="date" className={input} max={today} {...register('receivedDate')} aria-invalid={!!err('receivedDate')} />
+        <FieldError message={err('receivedDate')} />
+      </label>
+      <label>
+        <span className={label}>Weight received (g)</span>
+        <input inputMode="numeric" className={input} {...register('receivedG', number)} aria-invalid={!!err('receivedG')} />
+        <FieldError message={err('receivedG')} />
+      </label>
+      <div className="flex gap-3">
+        <label className="flex-1">
+          <span className={label}>Rest days</span>
+          <input inputMode="numeric" className={input} {...register('restDays', number)} aria-invalid={!!err('restDays')} />
+          <FieldError message={err('restDays')} />
+        </label>
+        <label className="flex-1">
+          <span className={label}>Best until day</span>
+          <input inputMode="numeric" className={input} {...register('bestUntilDays', number)} aria-invalid={!!err('bestUntilDays')} />
+          <FieldError message={err('bestUntilDays')} />
+        </label>
+      </div>
+      <div className="col-span-4">
+        <Segmented<Hopper>
+          label="Grinder"
+          options={HOPPERS.map((h) => ({ value: h, label: HOPPER_LABEL[h] }))}
+          value={hopper}
+          onChange={(h) => setValue('hopper', h, { shouldDirty: true })}
+        />
+        {displaced && (
+          <p role="status" className="mt-2 text-base">
+            <span aria-hidden>⇄ </span>
+            {displaced.name} is in the {HOPPER_LABEL[hopper].toLowerCase()} grinder now; saving moves it to the shelf.
+          </p>
+        )}
+        <p className="mt-2 text-sm text-ink-600">
+          Bumped drinks take their recipe dose from the lot in the espresso grinder (from the decaf grinder when the drink has a decaf extra).
+          Freshness is common practice: resting under {DEFAULT_FRESHNESS.restDays} days, best to day {DEFAULT_FRESHNESS.bestUntilDays}; set each lot's own.
+        </p>
+      </div>
+      <div className={cn('col-span-4 flex items-center gap-3')}>
+        <Button type="submit" size="lg" disabled={save.isPending || !hydrated}>
+          {lot ? 'Save lot' : 'Add lot'}
+        </Button>
+        <Button tone="quiet" size="lg" onClick={onDone}>
+          Cancel
+        </Button>
+        {save.error && (
+          <p role="alert" className="font-semibold text-copper-700">
+            {save.error instanceof ApiError ? save.error.message : 'That did not work'}
+          </p>
+        )}
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,22 @@
+// The menu editor's commands. Each answers with the menu as it now is, shown at once; the
+// menu.changed event brings every open Counter and Bar along.
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { AdminMenuView, MenuAdminResult } from '../../domain/menu-admin-view';
+import { menuAdminCommands } from '../../lib/menu-admin-api';
+import { menuKeys } from '../menu/queries';
+import { menuAdminKeys } from './queries';
+
+export function useMenuCommand() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (run: (c: typeof menuAdminCommands) => Promise<MenuAdminResult | unknown>) => run(menuAdminCommands),
+    onSuccess: (result) => {
+      const menu = (result as MenuAdminResult | undefined)?.menu;
+      if (menu) qc.setQueryData<AdminMenuView>(menuAdminKeys.editable, menu);
+      else qc.invalidateQueries({ queryKey: menuAdminKeys.editable });
+      qc.invalidateQueries({ queryKey: menuKeys.all, exact: true });
+    },
+  });
+}
+
+export type MenuCommand = ReturnType<typeof useMenuCommand>;

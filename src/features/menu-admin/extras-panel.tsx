@@ -1,0 +1,268 @@
+// Groups of extras (pick one or any, required or not, on which items) and the extras in them.
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { Controller, useForm } from 'react-hook-form';
+import {
+  modifierForm,
+  modifierGroupForm,
+  type ModifierFormValues,
+  type ModifierGroupBody,
+  type ModifierGroupFormValues,
+} from '../../domain/menu-admin-schemas';
+import type { AdminMenuView, AdminModifier, AdminModifierGroup } from '../../domain/menu-admin-view';
+import { centsToAmountText } from '../../domain/menu-units';
+import { Button } from '../../components/ui/button';
+import { FieldError } from '../../components/ui/field-error';
+import { Segmented } from '../../components/ui/segmented';
+import type { MenuCommand } from './commands';
+import { ConfirmRetire, Sheet } from './dialog';
+import { AllergenPicker, CheckGroup, Field } from './fields';
+import { currencySign, moneyOf } from './format';
+import { MoveButtons } from './move-buttons';
+import { showServerErrors } from './server-errors';
+import { StatusBadge } from './status';
+
+type Notify = (message: string, tone?: 'ok' | 'problem') => void;
+type Work = Parameters<MenuCommand['mutateAsync']>[0];
+
+function SaveFooter({ problem, label, busy, onSave }: { problem: string | null; label: string; busy: boolean; onSave(): void }) {
+  return (
+    <div className="flex items-center justify-end gap-3">
+      {problem && (
+        <p role="alert" className="text-base font-semibold text-copper-700">
+          ⚠ {problem}
+        </p>
+      )}
+      <Button size="lg" disabled={busy} onClick={onSave}>
+        {label}
+      </Button>
+    </div>
+  );
+}
+
+function GroupForm({ menu, group, command, notify, onClose }: { menu: AdminMenuView; group: AdminModifierGroup | null; command: MenuCommand; notify: Notify; onClose(): void }) {
+  const form = useForm<ModifierGroupFormValues, unknown, ModifierGroupBody>({
+    resolver: zodResolver(modifierGroupForm),
+    defaultValues: group ? { name: group.name, selection: group.selection, required: group.required, itemIds: group.itemIds } : { name: '', selection: 'multi', required: false, itemIds: [] },
+  });
+  const [problem, setProblem] = useState<string | null>(null);
+  const errors = form.formState.errors;
+  const live = menu.items.filter((i) => !i.retired);
+  const save = form.handleSubmit(async (body) => {
+    try {
+      await command.mutateAsync((c) => (group ? c.update('modifier-groups', group.id, body) : c.create('modifier-groups', body)));
+      notify(`${group ? 'Saved' : 'Added'} the group ${body.name}.`);
+      onClose();
+    } catch (err) {
+      setProblem(showServerErrors(err, form.setError, ['name', 'selection', 'required', 'itemIds']));
+    }
+  });
+  return (
+    <Sheet title={group ? `Edit ${group.name}` : 'New group of extras'} onClose={onClose} footer={<SaveFooter problem={problem} label={group ? 'Save group' : 'Add group'} busy={command.isPending} onSave={save} />}>
+      <form onSubmit={save} noValidate className="flex flex-col gap-5" aria-label="Group of extras">
+        <Field label="Name" placeholder="Syrup" error={errors.name?.message} {...form.register('name')} id="group-name" />
+        <Controller
+          control={form.control}
+          name="selection"
+          render={({ field }) => (
+            <Segmented
+              label="Choices"
+              value={field.value}
+              onChange={field.onChange}
+              options={[
+                { value: 'single', label: 'Pick one', hint: 'e.g. a temperature' },
+                { value: 'multi', label: 'Pick any', hint: 'e.g. syrups' },
+              ]}
+            />
+          )}
+        />
+        <label className="flex min-h-11 items-center gap-3 text-lg font-semibold">
+          <input type="checkbox" className="size-6 accent-copper-700" {...form.register('required')} />
+          Required: the cashier must choose one before adding the drink
+        </label>
+        <Controller
+          control={form.control}
+          name="itemIds"
+          render={({ field }) => (
+            <CheckGroup
+              legend="Offered on"
+              choices={live.map((i) => ({ value: i.id, label: i.name }))}
+              value={field.value}
+              onChange={(next) => field.onChange([...next, ...field.value.filter((id) => !live.some((i) => i.id === id))])}
+              error={errors.itemIds?.message}
+            />
+          )}
+        />
+        <FieldError message={errors.root?.message} />
+      </form>
+    </Sheet>
+  );
+}
+
+function ModifierForm({
+  menu,
+  groupId,
+  modifier,
+  command,
+  notify,
+  onClose,
+}: {
+  menu: AdminMenuView;
+  groupId: number;
+  modifier: AdminModifier | null;
+  command: MenuCommand;
+  notify: Notify;
+  onClose(): void;
+}) {
+  const form = useForm<ModifierFormValues, unknown, { name: string; priceCents: number; allergens: string[] }>({
+    resolver: zodResolver(modifierForm),
+    defaultValues: modifier ? { name: modifier.name, price: centsToAmountText(modifier.priceCents), allergens: modifier.allergens } : { name: '', price: '0.00', allergens: [] },
+  });
+  const [problem, setProblem] = useState<string | null>(null);
+  const errors = form.formState.errors;
+  const save = form.handleSubmit(async (f) => {
+    const body = { ...f, groupId };
+    try {
+      await command.mutateAsync((c) => (modifier ? c.update('modifiers', modifier.id, body) : c.create('modifiers', body)));
+      notify(`${modifier ? 'Saved' : 'Added'} ${body.name}.`);
+      onClose();
+    } catch (err) {
+      setProblem(showServerErrors(err, form.setError, ['name', 'price', 'allergens']));
+    }
+  });
+  return (
+    <Sheet title={modifier ? `Edit ${modifier.name}` : 'New extra'} onClose={onClose} footer={<SaveFooter problem={problem} label={modifier ? 'Save extra' : 'Add extra'} busy={command.isPending} onSave={save} />}>
+      <form onSubmit={save} noValidate className="flex flex-col gap-5" aria-label="Extra">
+        <Field label="Name" placeholder="Vanilla syrup" error={errors.name?.message} {...form.register('name')} id="extra-name" />
+        <Field label="Price" prefix={currencySign(menu)} className="max-w-xs" inputMode="decimal" hint="0.00 for a free choice" error={errors.price?.message} {...form.register('price')} id="extra-price" />
+        <Controller
+          control={form.control}
+          name="allergens"
+          render={({ field }) => (
+            <AllergenPicker list={menu.location.allergenList} allergens={menu.location.allergens} value={field.value} onChange={field.onChange} error={errors.allergens?.message} />
+          )}
+        />
+      </form>
+    </Sheet>
+  );
+}
+
+type Editing = { kind: 'group'; group: AdminModifierGroup | null } | { kind: 'modifier'; groupId: number; modifier: AdminModifier | null } | null;
+type Retiring = { kind: 'modifier-groups' | 'modifiers'; id: number; name: string } | null;
+
+export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; command: MenuCommand; notify: Notify }) {
+  const [editing, setEditing] = useState<Editing>(null);
+  const [retiring, setRetiring] = useState<Retiring>(null);
+  const money = moneyOf(menu);
+  const liveGroups = menu.modifierGroups.filter((g) => !g.retired);
+  const run = async (work: Work, done: string) => {
+    try {
+      await command.mutateAsync(work);
+      notify(done);
+    } catch (err) {
+      notify(err instanceof Error ? err.message : String(err), 'problem');
+    }
+  };
+  const itemNames = (ids: number[]) => menu.items.filter((i) => ids.includes(i.id) && !i.retired).map((i) => i.name);
+
+  return (
+    <section aria-labelledby="extras-heading" className="flex flex-col gap-4">
+      <div className="flex items-center gap-4">
+        <h2 id="extras-heading" className="text-2xl font-semibold">
+          Extras
+        </h2>
+        <p className="text-base text-ink-600">Groups of extras show on an item's sheet at the Counter, in this order.</p>
+        <Button className="ml-auto" onClick={() => setEditing({ kind: 'group', group: null })}>
+          + New group
+        </Button>
+      </div>
+      {menu.modifierGroups.map((g) => {
+        const at = liveGroups.findIndex((x) => x.id === g.id);
+        const mods = menu.modifiers.filter((m) => m.groupId === g.id);
+        const liveMods = mods.filter((m) => !m.retired);
+        const on = itemNames(g.itemIds);
+        return (
+          <article key={g.id} data-testid="extra-group" aria-label={`Group ${g.name}`} className={`rounded-xl border border-steam-200 p-5 ${g.retired ? 'bg-steam-100' : 'bg-white'}`}>
+            <header className="flex flex-wrap items-center gap-3">
+              {!g.retired && <MoveButtons name={g.name} first={at === 0} last={at === liveGroups.length - 1} busy={command.isPending} onMove={(d) => run((c) => c.move('modifier-groups', g.id, d), `Moved ${g.name}.`)} />}
+              <h3 className="text-xl font-semibold">{g.name}</h3>
+              <span className="text-lg">
+                {g.selection === 'single' ? 'Pick one' : 'Pick any'} · {g.required ? 'Required' : 'Optional'}
+              </span>
+              <StatusBadge status={g.retired ? 'retired' : 'in-use'} />
+              <span className="ml-auto inline-flex gap-2">
+                {g.retired ? (
+                  <Button tone="quiet" disabled={command.isPending} onClick={() => run((c) => c.setRetired('modifier-groups', g.id, false), `Restored ${g.name}.`)}>
+                    Restore group
+                  </Button>
+                ) : (
+                  <Button tone="quiet" onClick={() => setRetiring({ kind: 'modifier-groups', id: g.id, name: g.name })}>
+                    Retire group…
+                  </Button>
+                )}
+                <Button tone="quiet" onClick={() => setEditing({ kind: 'group', group: g })} aria-label={`Edit group ${g.name}`}>
+                  Edit group
+                </Button>
+              </span>
+            </header>
+            <p className="mt-1 text-base text-ink-600">{on.length ? `On ${on.join(', ')}` : 'Not offered on any item yet'}</p>
+            <ul className="mt-3 flex flex-col">
+              {mods.map((m) => {
+                const mAt = liveMods.findIndex((x) => x.id === m.id);
+                return (
+                  <li key={m.id} className={`flex flex-wrap items-center gap-3 border-t border-steam-200 py-2 ${m.retired ? 'text-ink-600' : ''}`}>
+                    {!m.retired ? (
+                      <MoveButtons name={m.name} first={mAt === 0} last={mAt === liveMods.length - 1} busy={command.isPending} onMove={(d) => run((c) => c.move('modifiers', m.id, d), `Moved ${m.name}.`)} />
+                    ) : (
+                      <span className="w-[5.75rem]" />
+                    )}
+                    <span className="min-w-48 text-lg font-semibold">{m.name}</span>
+                    <span className="w-24 text-lg tabular-nums">{m.priceCents ? `+${money(m.priceCents)}` : 'free'}</span>
+                    <span className="text-base">{m.allergens.length ? `⚠ ${m.allergens.join(', ')}` : ''}</span>
+                    {m.retired && <StatusBadge status="retired" />}
+                    <span className="ml-auto inline-flex gap-2">
+                      {m.retired ? (
+                        <Button tone="quiet" disabled={command.isPending} onClick={() => run((c) => c.setRetired('modifiers', m.id, false), `Restored ${m.name}.`)} aria-label={`Restore ${m.name}`}>
+                          Restore
+                        </Button>
+                      ) : (
+                        <Button tone="quiet" onClick={() => setRetiring({ kind: 'modifiers', id: m.id, name: m.name })} aria-label={`Retire ${m.name}`}>
+                          Retire…
+                        </Button>
+                      )}
+                      <Button tone="quiet" onClick={() => setEditing({ kind: 'modifier', groupId: g.id, modifier: m })} aria-label={`Edit ${m.name}`}>
+                        Edit
+                      </Button>
+                    </span>
+                  </li>
+                );
+              })}
+            </ul>
+            {!g.retired && (
+              <Button tone="quiet" className="mt-2" onClick={() => setEditing({ kind: 'modifier', groupId: g.id, modifier: null })}>
+                + Add an extra to {g.name}
+              </Button>
+            )}
+          </article>
+        );
+      })}
+      {editing?.kind === 'group' && <GroupForm menu={menu} group={editing.group} command={command} notify={notify} onClose={() => setEditing(null)} />}
+      {editing?.kind === 'modifier' && (
+        <ModifierForm menu={menu} groupId={editing.groupId} modifier={editing.modifier} command={command} notify={notify} onClose={() => setEditing(null)} />
+      )}
+      {retiring && (
+        <ConfirmRetire
+          what={retiring.name}
+          consequence={retiring.kind === 'modifiers' ? 'The Counter stops offering this extra.' : 'The group and its extras leave every item’s sheet at the Counter.'}
+          busy={command.isPending}
+          onCancel={() => setRetiring(null)}
+          onConfirm={async () => {
+            const r = retiring;
+            setRetiring(null);
+            await run((c) => c.setRetired(r.kind, r.id, true), `Retired ${r.name}.`);
+          }}
+        />
+      )}
+    </section>
+  );
+}

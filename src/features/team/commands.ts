@@ -1,0 +1,36 @@
+// The owner's team commands. Each answers with what changed; the list is refetched after.
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { LinkPurpose, NewPersonBody, PersonPatchBody, TeamMember } from '../../domain/team-schemas';
+import { http } from '../../lib/http';
+import { teamKeys } from './queries';
+
+export type TeamCommand =
+  | { kind: 'add'; body: NewPersonBody }
+  | { kind: 'patch'; id: number; body: PersonPatchBody }
+  | { kind: 'link'; id: number; purpose: LinkPurpose }
+  | { kind: 'pin'; id: number; pin: string | null };
+
+export type TeamResult =
+  | { kind: 'add'; member: TeamMember; mailed: boolean }
+  | { kind: 'patch'; member: TeamMember }
+  | { kind: 'link'; purpose: LinkPurpose; to: string }
+  | { kind: 'pin'; id: number; cleared: boolean };
+
+async function run(c: TeamCommand): Promise<TeamResult> {
+  switch (c.kind) {
+    case 'add':
+      return { kind: 'add', ...(await http<{ member: TeamMember; mailed: boolean }>('POST', '/team', c.body)) };
+    case 'patch':
+      return { kind: 'patch', ...(await http<{ member: TeamMember }>('PATCH', `/team/${c.id}`, c.body)) };
+    case 'link':
+      return { kind: 'link', ...(await http<{ purpose: LinkPurpose; to: string }>('POST', `/team/${c.id}/link`, { purpose: c.purpose })) };
+    case 'pin':
+      await http('PUT', `/team/${c.id}/pin`, { pin: c.pin });
+      return { kind: 'pin', id: c.id, cleared: c.pin === null };
+  }
+}
+
+export function useTeamCommand() {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: run, onSettled: () => qc.invalidateQueries({ queryKey: teamKeys.list() }) });
+}

@@ -1,0 +1,305 @@
+// The location's settings through the real API: who may change them, what a bad value is
+// answered with (and that nothing changed), switching allergen lists, the pitcher rules, and the
+// menu.changed event that makes open screens reload.
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import type { SettingsPage } from '../../src/domain/settings-schemas';
+import type { BoardSnapshot, MenuView, ServerMessage } from '../../src/domain/types';
+import { startTestServer, type TestServer } from '../support/test-server';
+import { closeAllSockets, connectAndResume } from '../realtime/ws-client';
+import type { Agent } from './helpers';
+
+let server: TestServer;
+let owner: Agent;
+
+beforeAll(async () => {
+  server = await startTestServer();
+  owner = await server.signIn('owner');
+});
+afterEach(() => closeAllSockets());
+afterAll(() => server.close());
+
+/** Everything a settings command may write: a refusal must leave all of it as it was. */
+async function stored() {
+  return {
+    location: await server.db('locations').orderBy('id'),
+    pitchers: await server.db('pitchers').orderBy('id'),
+    milks: await server.db('milk_options').orderBy('id').select('id', 'allergens'),
+    modifiers: await server.db('modifiers').orderBy('id').select('id', 'allergens'),
+    items: await server.db('menu_items').orderBy('id').select('id', 'allergens'),
+    events: Number((await server.db('events').count({ n: '*' }).first())?.n),
+  };
+}
+
+const page = async (): Promise<SettingsPage> => (await owner.get('/api/settings').expect(200)).body;
+const fieldsOf = (body: { error: { details?: { path: string }[] } }) => (body.error.details ?? []).map((d) => d.path);
+const tagsOf = async (table: string, name: string) => JSON.parse((await server.db(table).where({ name }).first()).allergens) as string[];
+
+describe('GET /api/settings', () => {
+  it('shows the owner the demo café as seeded, with its pitchers and the cup sizes on the menu', async () => {
+    const p = await page();
+    expect(p.settings).toEqual({
+      name: 'Harbour & Hearth Coffee',
+      timeZone: 'America/New_York',
+      currency: 'USD',
+      locale: 'en-US',
+      taxMode: 'exclusive',
+      taxRatePercent: '8.25', // stored as 8250 thousandths of a percent
+      extraShotCents: 100,
+      waitTargetSeconds: 240,
+      pickupTimeoutSeconds: 600,
+      volumeUnit: 'us_floz',
+      temperatureUnit: 'F',
+      jugWasteMl: 15,
+      allergenList: 'US',
+      receiptFooter: null,
+    });
+    expect(p.pitchers.map((x) => [x.capacityMl, x.fillLineMl])).toEqual([
+      [350, 190],
+      [600, 330],
+      [950, 520],
+    ]);
+    expect(p.cupSizes.map((c) => c.volumeMl)).toEqual(expect.arrayContaining([240, 350, 470]));
+    expect(p.cupSizes.find((c) => c.volumeMl === 350)?.names).toContain('Regular');
+  });
+});
+
+describe('who may change settings', () => {
+  for (const login of ['cashier', 'barista', 'lead'] as const) {
+    it(`a ${login} gets 403 on every settings route and nothing changes`, async () => {
+      const agent = await server.signIn(login);
+      const pitcherId = (await page()).pitchers[0].id;
+      const before = await stored();
+      const answers = [
+        await agent.get('/api/settings'),
+        await agent.put('/api/settings').send({ name: 'Taken over' }),
+        await agent.post('/api/settings/pitchers').send({ capacityMl: 500, fillLineMl: 300 }),
+        await agent.put(`/api/settings/pitchers/${pitcherId}`).send({ capacityMl: 500, fillLineMl: 300 }),
+        await agent.delete(`/api/settings/pitchers/${pitcherId}`),
+      ];
+      for (const res of answers) {
+        expect(res.status).toBe(403);
+        expect(res.body.error.code).toBe('forbidden');
+      }
+      expect(await stored()).toEqual(before);
+    });
+  }
+});
+
+describe('PUT /api/settings refuses bad values with the field named, and changes nothing', () => {
+  const bad: [string, Record<string, unknown>, string][] = [
+    // IANA time zone database names; an offset is not a zone (no daylight saving time)
+    ['an unknown time zone', { timeZone: 'Mars/Olympus_Mons' }, 'timeZone'],
+    ['a UTC offset instead of a zone', { timeZone: '+05:00' }, 'timeZone'],
+    // ISO 4217: three capital letters of a real currency, here with 2 decimal places (cents)
+    ['a lower-case currency', { currency: 'usd' }, 'currency'],
+    ['a made-up currency', { currency: 'XQZ' }, 'currency'],
+    ['a currency without cents (ISO 4217: JPY has 0 decimals)', { currency: 'JPY' }, 'currency'],
+    // BCP 47 (Intl.getCanonicalLocales): "en_US" is not a language tag
+    ['an underscore locale', { locale: 'en_US' }, 'locale'],
+    ['a locale nobody can format for', { locale: 'zz-QQ' }, 'locale'],
+    ['a tax rate with 4 decimals', { taxRatePercent: '8.2555' }, 'taxRatePercent'],
+    ['a tax rate over 100 %', { taxRatePercent: '100.5' }, 'taxRatePercent'],
+    ['a negative tax rate', { taxRatePercent: -1 }, 'taxRatePercent'],
+    ['an unknown tax mode', { taxMode: 'sometimes' }, 'taxMode'],
+    ['a wait target under a minute', { waitTargetSeconds: 59 }, 'waitTargetSeconds'],
+    ['a wait target over 30 minutes', { waitTargetSeconds: 1801 }, 'waitTargetSeconds'],
+    ['a pickup timeout of 0', { pickupTimeoutSeconds: 0 }, 'pickupTimeoutSeconds'],
+    ['an unknown volume unit', { volumeUnit: 'cups' }, 'volumeUnit'],
+    ['the nutrition-label ounce', { volumeUnit: 'floz_30ml' }, 'volumeUnit'],
+    ['a temperature unit of Kelvin', { temperatureUnit: 'K' }, 'temperatureUnit'],
+    ['a receipt footer of 201 characters', { receiptFooter: 'x'.repeat(201) }, 'receiptFooter'],
+    ['an empty café name', { name: '   ' }, 'name'],
+    ['negative jug waste', { jugWasteMl: -5 }, 'jugWasteMl'],
+    ['an extra shot price in dollars', { extraShotCents: 1.5 }, 'extraShotCents'],
+  ];
+  for (const [what, body, field] of bad) {
+    it(what, async () => {
+      const before = await stored();
+      const res = await owner.put('/api/settings').send({ name: 'Should not be saved', ...body });
+      expect(res.status).toBe(400);
+      expect(res.body.error.code).toBe('validation_failed');
+      expect(fieldsOf(res.body)).toEqual([field]);
+      expect(await stored()).toEqual(before);
+    });
+  }
+
+  it('an empty body, or only a key it does not know, is 400', async () => {
+    const before = await stored();
+    expect((await owner.put('/api/settings').send({})).status).toBe(400);
+    const unknown = await owner.put('/api/settings').send({ name: 'X', volume_unit: 'ml' });
+    expect(unknown.status).toBe(400);
+    expect(await stored()).toEqual(before);
+  });
+});
+
+describe('PUT /api/settings saves good values', () => {
+  it('stores canonical names, the tax rate in thousandths of a percent, and the Counter menu shows them', async () => {
+    const res = await owner.put('/api/settings').send({
+      timeZone: 'europe/dublin', // IANA canonical spelling: Europe/Dublin
+      locale: 'en-ie', // BCP 47 canonical casing: en-IE
+      currency: 'EUR',
+      taxRatePercent: '8.875', // 8.875 % = 8875 (DEVELOPERS.md convention)
+      taxMode: 'inclusive',
+      receiptFooter: '  Thank you — see you tomorrow  ',
+    });
+    expect(res.status).toBe(200);
+    expect(res.body.settings).toMatchObject({
+      timeZone: 'Europe/Dublin',
+      locale: 'en-IE',
+      currency: 'EUR',
+      taxRatePercent: '8.875',
+      taxMode: 'inclusive',
+      receiptFooter: 'Thank you — see you tomorrow',
+    });
+    const row = await server.db('locations').first();
+    expect(row.tax_rate_milli_pct).toBe(8875);
+
+    const menu: MenuView = (await owner.get('/api/menu').expect(200)).body;
+    expect(menu.location).toMatchObject({ currency: 'EUR', taxMode: 'inclusive', taxRateMilliPct: 8875, volumeUnit: 'us_floz', temperatureUnit: 'F' });
+
+    // back as it was, and an empty footer clears it
+    await owner
+      .put('/api/settings')
+      .send({ timeZone: 'America/New_York', locale: 'en-US', currency: 'USD', taxRatePercent: 8.25, taxMode: 'exclusive', receiptFooter: '' })
+      .expect(200);
+    expect(await server.db('locations').first()).toMatchObject({ tax_rate_milli_pct: 8250, receipt_footer: null, currency: 'USD' });
+  });
+
+  it('switches units both ways without touching a stored size', async () => {
+    const sizes = await server.db('item_sizes').orderBy('id').select('id', 'volume_ml', 'milk_ml');
+    await owner.put('/api/settings').send({ volumeUnit: 'ml', temperatureUnit: 'C' }).expect(200);
+    expect((await owner.get('/api/menu')).body.location).toMatchObject({ volumeUnit: 'ml', temperatureUnit: 'C' });
+    await owner.put('/api/settings').send({ volumeUnit: 'us_floz', temperatureUnit: 'F' }).expect(200);
+    expect(await server.db('item_sizes').orderBy('id').select('id', 'volume_ml', 'milk_ml')).toEqual(sizes);
+  });
+});
+
+describe('switching the allergen list', () => {
+  it('US → EU is refused (409) while menu tags are off the EU list, listing them with the published equivalents', async () => {
+    const before = await stored();
+    const res = await owner.put('/api/settings').send({ allergenList: 'EU' });
+    expect(res.status).toBe(409);
+    const details = res.body.error.details;
+    expect(details.to).toBe('EU');
+    expect(details.unlisted).toEqual(
+      expect.arrayContaining([
+        { kind: 'milk', id: expect.any(Number), name: 'Almond', tags: ['tree nuts'] },
+        { kind: 'item', id: expect.any(Number), name: 'Almond croissant', tags: ['tree nuts', 'wheat'] },
+      ]),
+    );
+    // milk and eggs are on both lists (FALCPA; Regulation (EU) 1169/2011 Annex II): not listed
+    expect(details.unlisted.flatMap((u: { tags: string[] }) => u.tags)).not.toContain('milk');
+    // Annex II item 8 names almonds among "nuts"; item 1 names wheat among cereals containing gluten
+    expect(details.suggestions).toEqual({ 'tree nuts': 'nuts', wheat: 'cereals containing gluten' });
+    expect(await stored()).toEqual(before);
+  });
+
+  it('a retag onto a tag that is not on the new list is 400 and changes nothing', async () => {
+    const before = await stored();
+    const res = await owner.put('/api/settings').send({ allergenList: 'EU', allergenRetag: { 'tree nuts': 'tree nuts', wheat: 'cereals containing gluten' } });
+    expect(res.status).toBe(400);
+    expect(fieldsOf(res.body)).toEqual(['allergenRetag.tree nuts']);
+    expect(await stored()).toEqual(before);
+  });
+
+  it('with the owner’s choices it switches and retags the menu in one go; back to US needs a choice for gluten', async () => {
+    const res = await owner
+      .put('/api/settings')
+      .send({ allergenList: 'EU', allergenRetag: { 'tree nuts': 'nuts', wheat: 'cereals containing gluten' } });
+    expect(res.status).toBe(200);
+    expect(res.body.settings.allergenList).toBe('EU');
+    expect(await tagsOf('milk_options', 'Almond')).toEqual(['nuts']);
+    expect(await tagsOf('milk_options', 'Whole')).toEqual(['milk']);
+    expect(await tagsOf('menu_items', 'Almond croissant')).toEqual(['nuts', 'cereals containing gluten', 'milk', 'eggs']);
+
+    // EU → US: "nuts" are all FDA tree nuts; "cereals containing gluten" may be oats, barley or rye,
+    // which are not US major allergens, so no suggestion
+    const back = await owner.put('/api/settings').send({ allergenList: 'US' });
+    expect(back.status).toBe(409);
+    expect(back.body.error.details.suggestions).toEqual({ nuts: 'tree nuts', 'cereals containing gluten': null });
+
+    await owner
+      .put('/api/settings')
+      .send({ allergenList: 'US', allergenRetag: { nuts: 'tree nuts', 'cereals containing gluten': 'wheat' } })
+      .expect(200);
+    expect(await tagsOf('menu_items', 'Almond croissant')).toEqual(['tree nuts', 'wheat', 'milk', 'eggs']);
+    expect(await tagsOf('milk_options', 'Almond')).toEqual(['tree nuts']);
+  });
+});
+
+describe('pitchers', () => {
+  it('adds, edits and removes a pitcher; bad sizes are 400 with the field named', async () => {
+    const added = await owner.post('/api/settings/pitchers').send({ capacityMl: 1500, fillLineMl: 800 });
+    expect(added.status).toBe(201);
+    const big = (added.body as SettingsPage).pitchers.find((p) => p.capacityMl === 1500)!;
+    expect(big.fillLineMl).toBe(800);
+
+    const before = await stored();
+    const refusals: [Record<string, unknown>, string][] = [
+      [{ capacityMl: 149, fillLineMl: 100 }, 'capacityMl'],
+      [{ capacityMl: 2001, fillLineMl: 1000 }, 'capacityMl'],
+      [{ capacityMl: 600, fillLineMl: 0 }, 'fillLineMl'],
+      [{ capacityMl: 600, fillLineMl: 601 }, 'fillLineMl'],
+      [{ capacityMl: 600 }, 'fillLineMl'],
+    ];
+    for (const [body, field] of refusals) {
+      for (const res of [await owner.post('/api/settings/pitchers').send(body), await owner.put(`/api/settings/pitchers/${big.id}`).send(body)]) {
+        expect(res.status, JSON.stringify(body)).toBe(400);
+        expect(fieldsOf(res.body)).toEqual([field]);
+      }
+    }
+    expect(await stored()).toEqual(before);
+
+    const edited = await owner.put(`/api/settings/pitchers/${big.id}`).send({ capacityMl: 1000, fillLineMl: 600 });
+    expect(edited.status).toBe(200);
+    expect(await server.db('pitchers').where({ id: big.id }).first()).toMatchObject({ capacity_ml: 1000, fill_line_ml: 600 });
+
+    const removed = await owner.delete(`/api/settings/pitchers/${big.id}`);
+    expect(removed.status).toBe(200);
+    expect((removed.body as SettingsPage).pitchers.some((p) => p.id === big.id)).toBe(false);
+  });
+
+  it('a pitcher that is not there, or is another café’s, is 404', async () => {
+    const [{ id: otherCafe }] = await server
+      .db('locations')
+      .insert({ name: 'Another café', created_at: '2026-03-01T00:00:00.000Z' })
+      .returning('id');
+    const [{ id: theirs }] = await server.db('pitchers').insert({ location_id: otherCafe, capacity_ml: 600, fill_line_ml: 330 }).returning('id');
+    const before = await stored();
+    expect((await owner.put(`/api/settings/pitchers/${theirs}`).send({ capacityMl: 350, fillLineMl: 190 })).status).toBe(404);
+    expect((await owner.delete(`/api/settings/pitchers/${theirs}`)).status).toBe(404);
+    expect((await owner.delete('/api/settings/pitchers/999999')).status).toBe(404);
+    expect(await stored()).toEqual(before);
+  });
+
+  it('the last pitcher stays: removing it is 409 and it is still there', async () => {
+    const mine = (await page()).pitchers;
+    for (const p of mine.slice(1)) await owner.delete(`/api/settings/pitchers/${p.id}`).expect(200);
+    const before = await stored();
+    const res = await owner.delete(`/api/settings/pitchers/${mine[0].id}`);
+    expect(res.status).toBe(409);
+    expect(res.body.error.code).toBe('conflict');
+    expect(await stored()).toEqual(before);
+    expect((await page()).pitchers.map((p) => p.id)).toEqual([mine[0].id]);
+  });
+});
+
+describe('a settings change reaches open screens', () => {
+  it('emits menu.changed on a barista’s live socket, and the board snapshot then carries the new pitchers and target', async () => {
+    const { client, hello } = await connectAndResume(server.url, await server.cookieFor('barista'));
+    const saved = await owner.post('/api/settings/pitchers').send({ capacityMl: 750, fillLineMl: 420 }).expect(201);
+    const event = await client.next((m) => m.type === 'event' && m.event.type === 'menu.changed', 'a menu.changed event');
+    expect((event as Extract<ServerMessage, { type: 'event' }>).event.seq).toBeGreaterThan(hello.seq);
+
+    await owner.put('/api/settings').send({ waitTargetSeconds: 300, jugWasteMl: 20 }).expect(200);
+    await client.next((m) => m.type === 'event' && m.event.type === 'menu.changed', 'a second menu.changed event');
+
+    const barista = await server.signIn('barista');
+    const board: BoardSnapshot = (await barista.get('/api/tickets?status=board').expect(200)).body;
+    expect(board.location.waitTargetSeconds).toBe(300);
+    expect(board.location.jugWasteMl).toBe(20);
+    expect(board.location.pitchers).toEqual(
+      (saved.body as SettingsPage).pitchers.map(({ capacityMl, fillLineMl }) => ({ capacityMl, fillLineMl })).sort((a, b) => a.fillLineMl - b.fillLineMl),
+    );
+  });
+});
