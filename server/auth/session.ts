@@ -1,11 +1,16 @@
-// Sessions in the same SQLite file (connect-session-knex), and passport-local sign-in.
+// Sessions in the same SQLite file (connect-session-knex), passport-local sign-in, and the two
+// session timeouts (OWASP Session Management Cheat Sheet: idle 15–30 min for a low-risk app,
+// absolute 4–8 h for a working day), both measured on the server.
 import { randomBytes } from 'node:crypto';
+import type { IncomingMessage } from 'node:http';
 import { ConnectSessionKnexStore } from 'connect-session-knex';
+import type { RequestHandler } from 'express';
 import session from 'express-session';
 import type { Knex } from 'knex';
 import { Passport } from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import type { SessionUser } from '../../src/domain/types';
+import { PASSIVE_REQUEST_HEADER } from '../../src/lib/http';
 import { bool } from '../db/rows';
 import { hashPassword, verifyPassword } from './passwords';
 
@@ -17,18 +22,89 @@ declare global {
   }
 }
 
+declare module 'express-session' {
+  interface SessionData extends SessionTimes {}
+}
+
 export const SESSION_COOKIE = 'jugline.sid';
 /** Absolute session length: one working day (OWASP Session Management: 4–8 h). */
 export const SESSION_MAX_AGE_MS = 8 * 60 * 60 * 1000;
+/** Idle timeout unless SESSION_IDLE_MINUTES says otherwise (OWASP: 15–30 min for a low-risk app). */
+export const DEFAULT_IDLE_MINUTES = 30;
+/** A wall screen's heartbeat writes its activity at most this often. */
+export const ACTIVITY_WRITE_EVERY_MS = 60_000;
 
-export function createSessionMiddleware(db: Knex, secret: string, opts: { cleanupIntervalMs?: number } = {}) {
+/** What a session row keeps about its own age (ms since the epoch, on the session clock). */
+export interface SessionTimes {
+  signedInAt?: number;
+  lastActiveAt?: number;
+}
+
+/**
+ * The timeouts and the clock they are measured on. The clock is the wall clock apart from the
+ * café clock (Deps.clock) that tests move to age tickets and change days; in production both
+ * are the real time.
+ */
+export interface SessionPolicy {
+  idleMs: number;
+  absoluteMs: number;
+  now(): number;
+}
+
+export type Expiry = 'idle' | 'absolute' | null;
+
+/** Session rows are written at most this often per session by requests that change nothing else. */
+const WRITE_GAP_MS = 60_000;
+
+/** Why a signed-in session is over at `now`, or null while it is good. Missing times count as fresh. */
+export function expiryOf(times: SessionTimes, now: number, policy: Pick<SessionPolicy, 'idleMs' | 'absoluteMs'>): Expiry {
+  if (times.signedInAt !== undefined && now - times.signedInAt >= policy.absoluteMs) return 'absolute';
+  if (times.lastActiveAt !== undefined && now - times.lastActiveAt >= policy.idleMs) return 'idle';
+  return null;
+}
+
+export interface SessionOptions {
+  cleanupIntervalMs?: number;
+  /** Idle timeout in minutes; DEFAULT_IDLE_MINUTES when left out. */
+  idleMinutes?: number;
+  /** The session clock; real time when left out. */
+  clock?: () => Date;
+  /** Told the id of a session that has just timed out, so its live screens can be closed. */
+  onExpired?: (sid: string) => void;
+}
+
+/** The session middleware, carrying its policy for the live socket's own checks. */
+export type SessionMiddleware = RequestHandler & { policy: SessionPolicy };
+
+export function sessionPolicy(opts: Pick<SessionOptions, 'idleMinutes' | 'clock'> = {}): SessionPolicy {
+  const clock = opts.clock ?? (() => new Date());
+  return { idleMs: (opts.idleMinutes ?? DEFAULT_IDLE_MINUTES) * 60_000, absoluteMs: SESSION_MAX_AGE_MS, now: () => clock().getTime() };
+}
+
+/** The policy a session middleware was made with (the defaults for any other middleware). */
+export const policyOf = (middleware: RequestHandler): SessionPolicy =>
+  (middleware as Partial<SessionMiddleware>).policy ?? sessionPolicy();
+
+export function createSessionMiddleware(db: Knex, secret: string, opts: SessionOptions = {}): SessionMiddleware {
   const store = new ConnectSessionKnexStore({
     knex: db,
     tableName: 'sessions',
     createTable: false,
     cleanupInterval: opts.cleanupIntervalMs ?? 15 * 60 * 1000,
   });
-  return session({
+  // express-session touches the stored row on every request; each write waits for a disk sync
+  // (synchronous=FULL) and holds the one writer. The row's `expired` only serves the cleanup (the
+  // timeouts are kept in the session itself), so once a minute per session is enough.
+  const touch = store.touch.bind(store);
+  const touchedAt = new Map<string, number>();
+  store.touch = async (sid: string, sess: session.SessionData, callback?: () => void) => {
+    const now = Date.now();
+    if (now - (touchedAt.get(sid) ?? 0) < WRITE_GAP_MS) return callback?.();
+    if (touchedAt.size > 10_000) touchedAt.clear();
+    touchedAt.set(sid, now);
+    return touch(sid, sess, callback);
+  };
+  const base = session({
     name: SESSION_COOKIE,
     secret,
     store,
@@ -36,6 +112,69 @@ export function createSessionMiddleware(db: Knex, secret: string, opts: { cleanu
     saveUninitialized: false,
     cookie: { httpOnly: true, sameSite: 'lax', secure: 'auto', maxAge: SESSION_MAX_AGE_MS },
   });
+  const policy = sessionPolicy(opts);
+
+  const middleware: RequestHandler = (req, res, next) =>
+    base(req, res, (err?: unknown) => {
+      if (err) return next(err);
+      enforceTimeouts(db, req, policy, opts.onExpired).then(() => next(), next);
+    });
+  return Object.assign(middleware, { policy });
+}
+
+/**
+ * A timed-out session is ended here, before passport reads it, so the request goes on signed
+ * out (a guarded route answers 401, a screen redirects to sign-in). Any other request by a
+ * signed-in person counts as activity; opening the live socket and a screen's own passive check
+ * (PASSIVE_REQUEST_HEADER) do not: a screen reconnecting is not a person at the counter.
+ */
+type SessionRequest = IncomingMessage & {
+  session?: session.Session & Partial<session.SessionData> & { passport?: { user?: unknown } };
+  sessionID?: string;
+};
+
+async function enforceTimeouts(db: Knex, req: SessionRequest, policy: SessionPolicy, onExpired?: (sid: string) => void) {
+  const s = req.session;
+  if (!s?.passport?.user || !req.sessionID) return;
+  const now = policy.now();
+  if (expiryOf(s, now, policy)) {
+    const sid = req.sessionID;
+    await new Promise<void>((resolve, reject) => s.regenerate((err) => (err ? reject(err) : resolve())));
+    onExpired?.(sid);
+    return;
+  }
+  const person = req.headers.upgrade === undefined && req.headers[PASSIVE_REQUEST_HEADER] === undefined;
+  if (s.signedInAt === undefined) return recordActivity(db, req.sessionID, now);
+  // marked active under a minute ago: the idle clock can run a minute early, never late
+  if (person && now - (s.lastActiveAt ?? 0) >= WRITE_GAP_MS) await recordActivity(db, req.sessionID, now);
+}
+
+/**
+ * Writes the activity into the stored row itself rather than through express-session: an UPDATE
+ * can't bring back a row that a sign-out deleted meanwhile, where a save of the whole session could.
+ * `minGapMs`: leave the row alone if it was marked active less than this long ago.
+ */
+export async function recordActivity(db: Knex, sid: string, now: number, minGapMs = 0): Promise<void> {
+  await db('sessions')
+    .where({ sid })
+    .andWhereRaw("coalesce(json_extract(sess, '$.lastActiveAt'), 0) <= ?", [now - minGapMs])
+    .update({
+      sess: db.raw("json_set(sess, '$.lastActiveAt', ?, '$.signedInAt', coalesce(json_extract(sess, '$.signedInAt'), ?))", [now, now]),
+    });
+}
+
+/** A stored session as the live socket sees it: gone, timed out, or good. */
+export async function storedSessionExpiry(db: Knex, sid: string, policy: SessionPolicy): Promise<Expiry | 'gone'> {
+  const row = await db('sessions').where({ sid }).first('sess');
+  if (!row) return 'gone';
+  const sess = (typeof row.sess === 'string' ? JSON.parse(row.sess) : row.sess) as SessionTimes & { passport?: { user?: unknown } };
+  if (!sess.passport?.user) return 'gone';
+  return expiryOf(sess, policy.now(), policy);
+}
+
+/** Ends a stored session (a timed-out one the live socket found). */
+export async function endSession(db: Knex, sid: string): Promise<void> {
+  await db('sessions').where({ sid }).delete();
 }
 
 const toSessionUser = (u: Record<string, any>): SessionUser => ({
@@ -50,7 +189,7 @@ export async function findActiveUser(db: Knex, id: number): Promise<SessionUser 
   return u && bool(u.active) ? toSessionUser(u) : null;
 }
 
-export function createPassport(db: Knex) {
+export function createPassport(db: Knex, clock: () => Date = () => new Date()) {
   const passport = new Passport();
   passport.use(
     new LocalStrategy(async (username, password, done) => {
@@ -65,7 +204,12 @@ export function createPassport(db: Knex) {
       }
     }),
   );
-  passport.serializeUser((user, done) => done(null, (user as SessionUser).id));
+  // Called once the sign-in has given the session its new id: the session's clocks start here.
+  passport.serializeUser((req: IncomingMessage & { session?: Partial<session.SessionData> }, user: Express.User, done: (err: unknown, id?: number) => void) => {
+    const now = clock().getTime();
+    if (req.session) Object.assign(req.session, { signedInAt: now, lastActiveAt: now } satisfies SessionTimes);
+    done(null, (user as SessionUser).id);
+  });
   passport.deserializeUser(async (id: number, done) => {
     try {
       done(null, (await findActiveUser(db, id)) ?? false);

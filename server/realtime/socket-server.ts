@@ -4,9 +4,11 @@ import type { IncomingMessage, Server } from 'node:http';
 import type { Duplex } from 'node:stream';
 import type { RequestHandler } from 'express';
 import { WebSocket, WebSocketServer } from 'ws';
+import { can } from '../../src/domain/roles';
 import { clientMessage } from '../../src/domain/schemas';
+import { SCREENS, type ScreenId } from '../../src/domain/screens';
 import type { AnyLiveEvent, ServerMessage, SessionUser } from '../../src/domain/types';
-import { findActiveUser } from '../auth/session';
+import { ACTIVITY_WRITE_EVERY_MS, endSession, findActiveUser, policyOf, recordActivity, storedSessionExpiry } from '../auth/session';
 import type { Deps } from '../services/deps';
 import { eventsSince, latestSeq } from '../services/events';
 import { boardSnapshot } from '../services/tickets';
@@ -18,6 +20,16 @@ const MAX_MESSAGE_BYTES = 4096;
 /** Per-socket token bucket: a screen pings every few seconds; a flood is cut off. */
 export const RATE_PER_SECOND = 20;
 export const RATE_BURST = 40;
+/**
+ * Screens a role opens as a wall display. Their heartbeat keeps the session alive, so a Pickup
+ * board or a Bar nobody touches for hours stays signed in (until the absolute limit); any other
+ * screen's socket does not, so a Counter left alone signs out after the idle timeout.
+ */
+export const WALL_SCREENS: readonly ScreenId[] = ['bar', 'pickup'];
+/** The close code for a session that has ended (signed out or timed out): the screen goes to sign-in. */
+export const SESSION_ENDED = 4401;
+/** Close code for a session another person took over on the same terminal. */
+export const SWITCHED = 4409;
 
 interface Peer {
   socket: WebSocket;
@@ -34,21 +46,36 @@ interface Peer {
   refilledAt: number;
   /** Messages dropped since the bucket ran dry; the first gets a `rate_limited` error. */
   dropped: number;
+  /** A wall screen (see WALL_SCREENS) whose role may open it: its pings count as activity. */
+  wall: boolean;
+  /** The last check found no session row (see checkSession). */
+  gone: boolean;
 }
 
 export interface SocketServer {
   close(code?: number, reason?: string): Promise<void>;
   peers(): number;
+  /** Closes the sockets whose session has timed out or gone (the heartbeat runs it too). */
+  sweep(): Promise<void>;
 }
 
 function send(peer: Peer, message: ServerMessage) {
   if (peer.socket.readyState === WebSocket.OPEN) peer.socket.send(JSON.stringify(message));
 }
 
+/**
+ * One event goes to every screen of its café: it is serialised once, not once per socket (with
+ * 1,000 screens that was most of the server's time per order; see BENCHMARKS.md).
+ */
+const serialised = new WeakMap<AnyLiveEvent, string>();
+
 function sendEvent(peer: Peer, event: AnyLiveEvent) {
   if (event.seq <= peer.lastSent) return;
   peer.lastSent = event.seq;
-  send(peer, { type: 'event', event });
+  if (peer.socket.readyState !== WebSocket.OPEN) return;
+  let text = serialised.get(event);
+  if (text === undefined) serialised.set(event, (text = JSON.stringify({ type: 'event', event } satisfies ServerMessage)));
+  peer.socket.send(text);
 }
 
 export function attachSocketServer(
@@ -57,6 +84,7 @@ export function attachSocketServer(
   sessionMiddleware: RequestHandler,
 ): SocketServer {
   const wss = new WebSocketServer({ noServer: true, maxPayload: MAX_MESSAGE_BYTES });
+  const policy = policyOf(sessionMiddleware);
   const peers = new Set<Peer>();
 
   /** A browser says where the page came from; only our own pages may open the live socket. */
@@ -151,6 +179,8 @@ export function attachSocketServer(
       tokens: RATE_BURST,
       refilledAt: deps.clock().getTime(),
       dropped: 0,
+      wall: false,
+      gone: false,
     };
     peers.add(peer);
     const unsubscribe = deps.hub.subscribe(user.locationId, (event) => {
@@ -184,7 +214,17 @@ export function attachSocketServer(
         return send(peer, { type: 'error', code: 'validation_failed', message: result.error.issues[0]?.message ?? 'Bad message' });
       }
       const message = result.data;
-      if (message.type === 'ping') return send(peer, { type: 'pong' });
+      if (message.type === 'ping') {
+        // a wall screen's pong waits for its activity to be written; any other screen's goes at once
+        const wall = peer.wall;
+        if (!wall) send(peer, { type: 'pong' });
+        void checkSession(peer, wall).then((ok) => {
+          if (ok && wall) send(peer, { type: 'pong' });
+        });
+        return;
+      }
+      peer.wall = isWallScreen(message.screen, user);
+      if (peer.wall) void checkSession(peer);
       resume(peer, message.since).catch(() => send(peer, { type: 'error', code: 'internal', message: 'Could not resume' }));
     });
     latestSeq(deps.db, user.locationId).then(
@@ -193,14 +233,64 @@ export function attachSocketServer(
     );
   }
 
-  // Signing out ends that session's live sockets too (4401: the screen goes to sign-in).
-  const onSignedOut = (sid: string) => {
-    for (const peer of peers) if (peer.sessionId === sid) peer.socket.close(4401, 'signed out');
-  };
-  deps.sessions.on('signed-out', onSignedOut);
+  function closeSession(sid: string, reason: string) {
+    for (const peer of peers) if (peer.sessionId === sid) peer.socket.close(SESSION_ENDED, reason);
+  }
 
-  // Sockets that miss a heartbeat are dropped; their screen reconnects and resumes.
+  function isWallScreen(screen: ScreenId | undefined, user: SessionUser): boolean {
+    return screen !== undefined && WALL_SCREENS.includes(screen) && can(user.role, SCREENS[screen].need);
+  }
+
+  /**
+   * False (and the session's sockets closed) once the session has timed out or is gone; a wall
+   * screen's check also marks the session active. A database hiccup keeps the socket open: the
+   * next heartbeat looks again.
+   */
+  async function checkSession(peer: Peer, markActive = peer.wall): Promise<boolean> {
+    try {
+      const expiry = await storedSessionExpiry(deps.db, peer.sessionId, policy);
+      // Whoever deletes a session row says so ('signed-out', 'switched'), a moment after the delete:
+      // a row missing once may be a person switching right now, so only a second miss closes.
+      if (expiry === 'gone') {
+        const again = peer.gone;
+        peer.gone = true;
+        if (again) closeSession(peer.sessionId, 'signed out');
+        return !again;
+      }
+      peer.gone = false;
+      if (expiry) {
+        await endSession(deps.db, peer.sessionId);
+        closeSession(peer.sessionId, 'session expired');
+        return false;
+      }
+      if (markActive) await recordActivity(deps.db, peer.sessionId, policy.now(), ACTIVITY_WRITE_EVERY_MS);
+      return true;
+    } catch {
+      return true;
+    }
+  }
+
+  async function sweep() {
+    const bySession = new Map<string, Peer>();
+    for (const peer of peers) if (!bySession.has(peer.sessionId)) bySession.set(peer.sessionId, peer);
+    await Promise.all([...bySession.values()].map((peer) => checkSession(peer, false)));
+  }
+
+  // Signing out ends that session's live sockets too (4401: the screen goes to sign-in).
+  const onSignedOut = (sid: string) => closeSession(sid, 'signed out');
+  deps.sessions.on('signed-out', onSignedOut);
+  // Another person took over this terminal (PIN switch, or a welcome link opened here): the old
+  // session's sockets close with a code the screen treats as a dropped line, so it reconnects on
+  // the new session instead of going to sign-in.
+  const onSwitched = (sid: string) => {
+    for (const peer of peers) if (peer.sessionId === sid) peer.socket.close(SWITCHED, 'switched person');
+  };
+  deps.sessions.on('switched', onSwitched);
+
+  // Sockets that miss a heartbeat are dropped; their screen reconnects and resumes. Sockets of a
+  // session that has timed out are closed.
   const heartbeat = setInterval(() => {
+    sweep().catch(() => {});
     for (const peer of peers) {
       if (!peer.alive) {
         peer.socket.terminate();
@@ -214,10 +304,12 @@ export function attachSocketServer(
 
   return {
     peers: () => peers.size,
+    sweep,
     close(code = 1001, reason = 'server going away') {
       clearInterval(heartbeat);
       server.off('upgrade', onUpgrade);
       deps.sessions.off('signed-out', onSignedOut);
+      deps.sessions.off('switched', onSwitched);
       for (const peer of peers) peer.socket.close(code, reason);
       return new Promise((resolve) => wss.close(() => resolve()));
     },

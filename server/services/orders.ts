@@ -18,8 +18,16 @@ import { loadTicket } from './ticket-views';
 type Db = Knex | Knex.Transaction;
 
 /** The café's own calendar date; order numbers start again at 1 each day. */
+// Making an Intl.DateTimeFormat costs ~30× a format() with it, and reports call this per row.
+const dateFormats = new Map<string, Intl.DateTimeFormat>();
+
 export function businessDate(at: Date, timeZone: string): string {
-  return new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(at);
+  let format = dateFormats.get(timeZone);
+  if (!format) {
+    format = new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' });
+    dateFormats.set(timeZone, format);
+  }
+  return format.format(at);
 }
 
 export function toOrderView(o: Record<string, any>, items: Record<string, any>[], payment?: Record<string, any>, takenBy?: string): OrderView {
@@ -232,7 +240,8 @@ export async function listOrders(deps: Deps, user: SessionUser, q: string | unde
   if (q) {
     const n = Number(q.replace(/^#/, ''));
     query.andWhere((w) => {
-      w.whereLike('customer_name', `%${q.replace(/[%_]/g, '')}%`);
+      // ESCAPE: a `%`, `_` or `\` typed into the search is that character, never a wildcard
+      w.whereRaw("customer_name LIKE ? ESCAPE '\\'", [`%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`]);
       if (Number.isInteger(n) && n > 0) w.orWhere('number', n);
     });
   }

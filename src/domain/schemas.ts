@@ -2,6 +2,11 @@
 // and the server routes.
 import { z } from 'zod';
 import { TICKET_SORTS } from './reports';
+import { SCREENS, type ScreenId } from './screens';
+
+/** Names, notes and reasons are one line of text: a line break or control character could forge
+ * lines on a printed receipt or label ("Total $0.00"), so it is refused, not stripped. */
+const plainLine = z.string().trim().regex(/^[^\p{Cc}\p{Zl}\p{Zp}]*$/u, 'Use one line of plain text (no line breaks or control characters)');
 
 export const signInBody = z.object({
   username: z.string().trim().min(1, 'Enter your sign-in name').max(64),
@@ -17,7 +22,7 @@ export const orderLineInput = z.object({
   milkId: z.number().int().positive().optional(),
   shots: z.number().int().min(0).max(8).optional(),
   modifierIds: z.array(z.number().int().positive()).max(12).optional(),
-  note: z.string().trim().max(140).optional(),
+  note: plainLine.max(140).optional(),
 });
 export type OrderLineInput = z.infer<typeof orderLineInput>;
 
@@ -36,16 +41,16 @@ export const discountInput = z.object({
   kind: z.enum(['percent', 'amount']),
   /** whole percent (1–100) or cents */
   value: z.number().int().positive().max(100_000),
-  reason: z.string().trim().min(3, 'Say why the discount is given').max(120),
+  reason: plainLine.min(3, 'Say why the discount is given').max(120),
 });
 export type DiscountInput = z.infer<typeof discountInput>;
 
 export const createOrderBody = z.object({
   clientOrderId: z.uuid(),
-  customerName: z.string().trim().min(1, 'Enter the customer name').max(40),
+  customerName: plainLine.min(1, 'Enter the customer name').max(40),
   service: z.enum(['takeaway', 'dine_in']).default('takeaway'),
   allergens: z.array(z.string().min(1).max(40)).max(14).default([]),
-  allergyNote: z.string().trim().max(200).optional(),
+  allergyNote: plainLine.max(200).optional(),
   customerEmail: z.email('Not an e-mail address').max(254).optional(),
   discount: discountInput.optional(),
   items: z.array(orderLineInput).min(1, 'Add at least one item').max(40),
@@ -65,10 +70,10 @@ export const ordersQuery = z.object({
 export const refundBody = z.object({
   /** Leave out to refund everything still refundable. */
   amountCents: z.number().int().positive().optional(),
-  reason: z.string().trim().min(3, 'Say why').max(200),
+  reason: plainLine.min(3, 'Say why').max(200),
 });
 
-export const voidBody = z.object({ reason: z.string().trim().min(3, 'Say why').max(200) });
+export const voidBody = z.object({ reason: plainLine.min(3, 'Say why').max(200) });
 
 /** A batch of drinks to start or bump in one command. */
 export const drinkBatchBody = z.object({
@@ -83,7 +88,12 @@ export const availabilityBody = z.object({ available: z.boolean() });
 
 /** Messages a screen may send over the live socket. */
 export const clientMessage = z.discriminatedUnion('type', [
-  z.object({ type: z.literal('resume'), since: z.number().int().min(0) }),
+  z.object({
+    type: z.literal('resume'),
+    since: z.number().int().min(0),
+    /** The screen the socket serves; wall screens (Bar, Pickup) keep their session alive. */
+    screen: z.enum(Object.keys(SCREENS) as [ScreenId, ...ScreenId[]]).optional(),
+  }),
   z.object({ type: z.literal('ping') }),
 ]);
 export type ClientMessage = z.infer<typeof clientMessage>;
@@ -116,7 +126,7 @@ export const baristasBody = z.object({ baristasOnBar: z.number().int().min(1).ma
 
 export const closeShiftBody = z.object({
   countedCashCents: z.number().int().min(0).max(10_000_000),
-  note: z.string().trim().max(200).optional(),
+  note: plainLine.max(200).optional(),
 });
 
 /** A café-local calendar date, YYYY-MM-DD, that exists on the calendar. */

@@ -15,13 +15,27 @@ export class ApiError extends Error {
   }
 }
 
-export async function http<T>(method: string, path: string, body?: unknown): Promise<T> {
+/** To sign-in, coming back here after; not from sign-in itself or a welcome link (both signed out). */
+export function goToSignIn() {
+  if (typeof window !== 'undefined' && !window.location.pathname.startsWith('/signin') && !window.location.pathname.startsWith('/welcome')) {
+    window.location.assign(`/signin?next=${encodeURIComponent(window.location.pathname + window.location.search)}`);
+  }
+}
+
+/** A screen's own background refresh: not a person at work, so it doesn't keep an idle session alive. */
+export const PASSIVE_REQUEST_HEADER = 'x-jugline-passive';
+
+export async function http<T>(method: string, path: string, body?: unknown, opts: { passive?: boolean } = {}): Promise<T> {
   let res: Response;
   try {
     res = await fetch(`/api${path}`, {
       method,
       credentials: 'same-origin',
-      headers: body === undefined ? { accept: 'application/json' } : { 'content-type': 'application/json', accept: 'application/json' },
+      headers: {
+        accept: 'application/json',
+        ...(body === undefined ? {} : { 'content-type': 'application/json' }),
+        ...(opts.passive ? { [PASSIVE_REQUEST_HEADER]: '1' } : {}),
+      },
       body: body === undefined ? undefined : JSON.stringify(body),
     });
   } catch {
@@ -30,6 +44,9 @@ export async function http<T>(method: string, path: string, body?: unknown): Pro
   if (res.status === 204) return undefined as T;
   const data = await res.json().catch(() => null);
   if (!res.ok) {
+    // The session ended (idle or 8 h limit): to sign-in and back. /session answers 401 to a wrong
+    // password or PIN, which the form shows itself.
+    if (res.status === 401 && !path.startsWith('/session')) goToSignIn();
     const e = data?.error ?? {};
     throw new ApiError(res.status, e.code ?? 'internal', e.message ?? `Request failed (${res.status})`, e.details);
   }

@@ -1,6 +1,9 @@
 // The screen's end of the live socket: connects, says where it is (resume from the last seq),
-// hands events on, answers heartbeats, and reconnects with backoff when the line drops.
+// hands events on, answers heartbeats, and reconnects with backoff when the line drops. A session
+// that has ended (signed out, or timed out) sends the screen to sign-in.
+import { SCREENS, type ScreenId } from '../domain/screens';
 import type { AnyLiveEvent, BoardSnapshot, ServerMessage } from '../domain/types';
+import { goToSignIn, PASSIVE_REQUEST_HEADER } from './http';
 
 export type LinkState = 'connecting' | 'live' | 'offline';
 
@@ -9,13 +12,34 @@ export interface LiveSocketHandlers {
   onEvent(event: AnyLiveEvent): void;
   onSnapshot(snapshot: BoardSnapshot): void;
   onState(state: LinkState): void;
+  /** The screen this socket serves; by default the one at the page's path. */
+  screen?: ScreenId;
 }
 
 const PING_EVERY_MS = 15_000;
 const PONG_WITHIN_MS = 10_000;
 const MAX_BACKOFF_MS = 10_000;
-/** The server's close code when the socket's session signs out. */
+/** The server's close code when the socket's session signs out or times out. */
 const SIGNED_OUT = 4401;
+
+/** The screen at a path, if it is one of SCREENS (the server decides which keep a session alive). */
+export function screenAt(pathname: string): ScreenId | undefined {
+  return (Object.keys(SCREENS) as ScreenId[]).find((id) => SCREENS[id].path === pathname);
+}
+
+// kept here too for the code that reads them from the socket module
+export { goToSignIn, PASSIVE_REQUEST_HEADER };
+
+/** false when the server answers that nobody is signed in here; undefined when it can't be asked. */
+async function stillSignedIn(): Promise<boolean | undefined> {
+  try {
+    const res = await fetch('/api/session', { credentials: 'same-origin', headers: { accept: 'application/json', [PASSIVE_REQUEST_HEADER]: '1' } });
+    if (!res.ok) return undefined;
+    return ((await res.json()) as { user: unknown }).user != null;
+  } catch {
+    return undefined;
+  }
+}
 
 const connectedListeners = new Set<() => void>();
 /** Told each time a live socket (re)connects: the server is back, so anything waiting can go. */
@@ -41,9 +65,11 @@ export function connectLive(url: string, h: LiveSocketHandlers): () => void {
     h.onState('connecting');
     const ws = new WebSocket(url);
     socket = ws;
+    let opened = false;
     ws.onopen = () => {
+      opened = true;
       attempts = 0;
-      ws.send(JSON.stringify({ type: 'resume', since: h.lastSeq() }));
+      ws.send(JSON.stringify({ type: 'resume', since: h.lastSeq(), screen: h.screen ?? screenAt(window.location.pathname) }));
       pingTimer = setInterval(() => {
         ws.send(JSON.stringify({ type: 'ping' }));
         pongTimer = setTimeout(() => ws.close(), PONG_WITHIN_MS);
@@ -62,13 +88,17 @@ export function connectLive(url: string, h: LiveSocketHandlers): () => void {
       clearTimers();
       if (stopped) return;
       if (event.code === SIGNED_OUT) {
-        // this session was signed out (here or on another tab): back to sign-in, no retry
-        if (!window.location.pathname.startsWith('/signin')) {
-          window.location.assign(`/signin?next=${encodeURIComponent(window.location.pathname)}`);
-        }
+        // this session was signed out or timed out (here or on another tab): back to sign-in, no retry
+        goToSignIn();
         return;
       }
       h.onState('offline');
+      // refused before it opened: if that is because the session has ended, retrying can't help
+      if (!opened) {
+        void stillSignedIn().then((signedIn) => {
+          if (signedIn === false && !stopped) goToSignIn();
+        });
+      }
       // 0.5 s, 1 s, 2 s … up to 10 s, with jitter so a room of screens doesn't reconnect at once
       const delay = Math.min(MAX_BACKOFF_MS, 500 * 2 ** attempts++) * (0.75 + Math.random() / 2);
       retryTimer = setTimeout(open, delay);

@@ -17,9 +17,12 @@ const FRESH_MS = 20_000;
 
 function NameRow({ t, fresh }: { t: TicketView; fresh?: boolean }) {
   return (
-    <li data-testid="pickup-name" className="flex items-baseline gap-5">
-      <span className={cn('font-display text-8xl leading-tight font-semibold', fresh && 'ready-fresh')}>{t.customerName}</span>
-      <span className="font-display text-5xl text-crema-300">#{t.number}</span>
+    // min-w-0 + truncate: a long name is cut with "…" and never pushes the number out of sight
+    <li data-testid="pickup-name" className="flex min-w-0 items-baseline gap-5">
+      <span title={t.customerName} className={cn('min-w-0 truncate font-display text-8xl leading-tight font-semibold', fresh && 'ready-fresh')}>
+        {t.customerName}
+      </span>
+      <span className="shrink-0 font-display text-5xl text-crema-300">#{t.number}</span>
     </li>
   );
 }

@@ -14,7 +14,8 @@ import type { RouteDeps } from './deps';
 
 /** Only paths on this site, so a crafted ?next= can't send someone elsewhere. */
 export function safeNext(next: string | null): string | null {
-  return next && next.startsWith('/') && !next.startsWith('//') ? next : null;
+  // '//host' and '/\\host' both leave the site in browsers
+  return next && next.startsWith('/') && !next.startsWith('//') && !next.includes('\\') ? next : null;
 }
 
 function SignIn() {

@@ -49,6 +49,20 @@ describe('POST /api/orders: the shape of the body', () => {
     expect(paths(res.body)).toEqual(['customerName']);
   });
 
+  // A line break inside a name or note could print a forged line ("Total $0.00") on a plain-text
+  // receipt or a cup label, so names and notes are one line (U+2028 is a line separator too).
+  it.each(['Ana\nTotal: $0.00', 'Ana\r\nX', 'Ana\u2028X', 'Ana\u0007'])('refuses a customerName with a line break or control character (%j)', async (name) => {
+    const res = await cashier.post('/api/orders').send(orderBody(name, [latte()]));
+    expect(res.status).toBe(400);
+    expect(paths(res.body)).toEqual(['customerName']);
+  });
+
+  it('refuses a drink note with a line break, naming the line', async () => {
+    const res = await cashier.post('/api/orders').send(orderBody('Ana', [{ ...latte(), note: 'extra hot\nTotal $0.00' }]));
+    expect(res.status).toBe(400);
+    expect(paths(res.body)).toEqual(['items.0.note']);
+  });
+
   it('refuses a clientOrderId that is not a uuid', async () => {
     const res = await cashier.post('/api/orders').send({ ...orderBody('Tamsin Vale', [latte()]), clientOrderId: 'order-1' });
     expect(res.status).toBe(400);

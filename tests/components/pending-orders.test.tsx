@@ -110,8 +110,9 @@ describe('usePendingOrders', () => {
     expect(later.bodies.every((b) => JSON.stringify(b) === JSON.stringify(order))).toBe(true);
   });
 
-  it('queues on a gateway answer (502/503/504) too', async () => {
-    for (const status of [502, 503, 504]) {
+  // 401: the session timed out while the order was on its way; it goes once someone signs in again
+  it('queues on a gateway answer (502/503/504) and on a signed-out answer (401) too', async () => {
+    for (const status of [401, 502, 503, 504]) {
       const server = scriptedServer(new ApiError(status, 'internal', 'gateway'));
       const { result, unmount } = renderHook(() => usePendingOrders(server.send, { resend: server.send, retryDelayMs: never }), { wrapper });
       const order = body(`Gate ${status}`);

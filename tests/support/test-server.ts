@@ -27,7 +27,7 @@ export function manualClock(startIso = '2026-03-02T14:00:00.000Z') {
   return { clock, advance: (ms: number) => (now += ms), set: (iso: string) => (now = Date.parse(iso)) };
 }
 
-export async function startTestServer(opts: { clock?: Clock } = {}): Promise<TestServer> {
+export async function startTestServer(opts: { clock?: Clock; sessionClock?: Clock } = {}): Promise<TestServer> {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-test-'));
   const config: Config = {
     env: 'test',
@@ -37,7 +37,7 @@ export async function startTestServer(opts: { clock?: Clock } = {}): Promise<Tes
     sessionSecret: randomBytes(32).toString('hex'),
     seedDemo: true,
   };
-  const running = await startServer(config, { pages: 'none', clock: opts.clock, log: () => {} });
+  const running = await startServer(config, { pages: 'none', clock: opts.clock, sessionClock: opts.sessionClock, log: () => {} });
 
   async function signIn(login: DemoLogin) {
     const agent = request.agent(running.url);

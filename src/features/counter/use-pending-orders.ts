@@ -39,14 +39,15 @@ export interface PendingOrders {
   discard(clientOrderId: string): Promise<void>;
 }
 
-/** No answer from the server at all, or a gateway saying it has none: worth trying again. */
+/** No answer from the server at all, a gateway saying it has none, or a session that timed out
+ * (401: sent again once someone has signed in on this terminal): worth trying again. */
 export function isUnreachable(err: unknown): boolean {
-  return err instanceof ApiError && (err.status === 0 || err.status === 502 || err.status === 503 || err.status === 504);
+  return err instanceof ApiError && [0, 401, 502, 503, 504].includes(err.status);
 }
 
 /** The server looked at the order and said no; sending the same body again won't change that. */
 function isRefusal(err: unknown): err is ApiError {
-  return err instanceof ApiError && err.status >= 400 && err.status < 500 && err.status !== 408 && err.status !== 429;
+  return err instanceof ApiError && err.status >= 400 && err.status < 500 && ![401, 408, 429].includes(err.status);
 }
 
 const postOrder: SendOrderFn = (body) => http<{ order: OrderView }>('POST', '/orders', body);
