@@ -5,7 +5,9 @@ import tailwindcss from '@tailwindcss/vite';
 
 export default defineConfig({
   plugins: [react(), tailwindcss()],
-  build: { sourcemap: true },
+  // manifest: the chunk table the server reads to preload a screen's chunks, and the benchmark
+  // reads to weigh each screen (bench/weights.ts)
+  build: { sourcemap: true, manifest: true },
   test: {
     // Fail on unhandled errors; a console.error in a test is turned into a failure in setup.
     projects: [

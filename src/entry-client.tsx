@@ -1,4 +1,5 @@
-// The browser: take over the server's HTML with the same routes and the same data.
+// The browser: take over the server's HTML with the same routes and the same data. The matched
+// screen's chunk is loaded first (the server preloads it), so the first render is the server's.
 import '@fontsource/barlow/500.css';
 import '@fontsource/barlow/600.css';
 import '@fontsource/barlow-condensed/600.css';
@@ -10,13 +11,15 @@ import { createBrowserRouter } from 'react-router';
 import { RouterProvider } from 'react-router/dom';
 import { httpApi } from './lib/api';
 import { ApiContext } from './lib/api-context';
-import { createRoutes } from './routes';
+import { createRoutes, resolveLazyMatches } from './routes';
 
 const state = JSON.parse(document.getElementById('app-state')?.textContent ?? '{}');
 const queryClient = new QueryClient({ defaultOptions: { queries: { staleTime: 30_000 } } });
 if (state.query) hydrate(queryClient, state.query);
 
-const router = createBrowserRouter(createRoutes({ queryClient, api: httpApi }), { hydrationData: state.router });
+const routes = createRoutes({ queryClient, api: httpApi });
+await resolveLazyMatches(routes, window.location);
+const router = createBrowserRouter(routes, { hydrationData: state.router });
 
 hydrateRoot(
   document.getElementById('root')!,

@@ -7,15 +7,24 @@ import { createStaticHandler, createStaticRouter, StaticRouterProvider } from 'r
 import type { Api } from './lib/api';
 import { ApiContext } from './lib/api-context';
 import { escapeHtml, jsonForScript } from './lib/html';
-import { createRoutes } from './routes';
+import { createRoutes, SCREEN_FILES } from './routes';
 import { headOf, titleOf } from './routes/root';
 
 export type RenderResult =
   | { kind: 'redirect'; status: number; location: string }
-  | { kind: 'page'; status: number; head: string; html: string; state: string };
+  | {
+      kind: 'page';
+      status: number;
+      head: string;
+      html: string;
+      state: string;
+      /** Source files of the matched lazy screens (the build manifest's keys), for preload links. */
+      modules: string[];
+    };
 
 export async function render(request: Request, api: Api): Promise<RenderResult> {
   // Never module-level on the server: one request's data must not reach another's page.
+  // (The static handler loads the matched lazy screens itself before their loaders run.)
   const queryClient = new QueryClient({ defaultOptions: { queries: { retry: false, staleTime: 30_000 } } });
   const handler = createStaticHandler(createRoutes({ queryClient, api }));
   const context = await handler.query(request);
@@ -38,5 +47,6 @@ export async function render(request: Request, api: Api): Promise<RenderResult> 
   };
   const handles = context.matches.map((m) => ({ handle: m.route.handle }));
   const head = `<title>${escapeHtml(titleOf(handles))}</title>${headOf(handles)}`;
-  return { kind: 'page', status: context.statusCode, head, html, state: jsonForScript(state) };
+  const modules = context.matches.flatMap((m) => (SCREEN_FILES[m.route.id] ? [SCREEN_FILES[m.route.id]] : []));
+  return { kind: 'page', status: context.statusCode, head, html, state: jsonForScript(state), modules };
 }

@@ -1,0 +1,18 @@
+// The Jugline server as production runs it (the built screens, NODE_ENV=production, request logs
+// at info), in a process of its own that the bench forks, with the probe on its IPC channel.
+// Env: BENCH_PORT, BENCH_DATABASE_FILE, JUGLINE_DIST (read by server/ssr/pages.ts).
+import { loadConfig } from '../server/config';
+import { startServer } from '../server/server';
+import { serveProbe } from './probe';
+
+const config = loadConfig({
+  NODE_ENV: 'production',
+  PORT: process.env.BENCH_PORT ?? '4326',
+  HOST: '127.0.0.1',
+  DATABASE_FILE: process.env.BENCH_DATABASE_FILE,
+  SEED_DEMO: 'true',
+  LOG_LEVEL: process.env.BENCH_LOG_LEVEL ?? 'info',
+});
+const running = await startServer(config, { pages: 'production', log: () => {} });
+serveProbe(() => running.close());
+process.send?.({ ready: running.url });

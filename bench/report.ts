@@ -1,0 +1,148 @@
+// The results as one Markdown document: printed by the bench and written into BENCHMARKS.md.
+import type { RunResult } from './load';
+import type { Timed } from './pages';
+import type { SideResult } from './run';
+import type { Summary } from './stats';
+import type { ScreenWeight } from './weights';
+
+export interface BenchResults {
+  machine: { cores: number; cpu: string; memoryGiB: number; node: string; platform: string; date: string; load: number[]; nice: number };
+  args: { sockets: number; counters: number; rate: number; seconds: number; big: number; days: number };
+  built: boolean;
+  jugline: SideResult;
+  floor: SideResult;
+  history: { orders: number; days: number; firstDate: string; lastDate: string };
+  bar: (Timed & { drinks: number })[];
+  endpoints: Timed[];
+  weights: ScreenWeight[];
+  seconds: number;
+}
+
+const ms = (x: number) => (Number.isFinite(x) ? (x < 10 ? x.toFixed(2) : x.toFixed(1)) : '—');
+const kb = (bytes: number) => (bytes / 1024).toFixed(1);
+const mb = (bytes: number) => (bytes / 2 ** 20).toFixed(1);
+const ratio = (a: number, b: number) => (b > 0 && Number.isFinite(a) ? `${(a / b).toFixed(1)}×` : '—');
+const mark = (ok: boolean) => (ok ? '✅ met' : '❌ missed');
+
+function row(cells: (string | number)[]) {
+  return `| ${cells.join(' | ')} |`;
+}
+
+function table(head: string[], rows: (string | number)[][]) {
+  return [row(head), row(head.map(() => '---')), ...rows.map(row)].join('\n');
+}
+
+function percentileRows(label: string, j: Summary, f: Summary, target = ''): (string | number)[][] {
+  return (['p50', 'p95', 'p99', 'max'] as const).map((p) => [`${label} — ${p} (ms)`, ms(j[p]), ms(f[p]), ratio(j[p], f[p]), p === 'p99' ? target : '']);
+}
+
+function perSocket(m: { before: { heapUsed: number; external: number; rss: number }; after: { heapUsed: number; external: number; rss: number }; sockets: number }) {
+  const heap = (m.after.heapUsed + m.after.external - m.before.heapUsed - m.before.external) / m.sockets;
+  const rss = (m.after.rss - m.before.rss) / m.sockets;
+  return { heap, rss };
+}
+
+function runRows(j: RunResult, f: RunResult, memJ: SideResult['memory'], memF: SideResult['memory'], allTarget: string): (string | number)[][] {
+  const pj = perSocket(memJ);
+  const pf = perSocket(memF);
+  return [
+    ...percentileRows('POST /api/orders answered', j.ack, f.ack),
+    ...percentileRows('event at a socket (every order × socket)', j.oneSocket, f.oneSocket),
+    ...percentileRows(`event at all ${j.sockets} sockets (per order)`, j.allSockets, f.allSockets, allTarget),
+    ['orders whose event missed a socket / failed POSTs', `${j.incomplete} / ${j.failures}`, `${f.incomplete} / ${f.failures}`, '', '0'],
+    ['sustained throughput (orders/s answered)', j.throughput.toFixed(1), f.throughput.toFixed(1), ratio(f.throughput, j.throughput) + ' (floor ÷ Jugline)', ''],
+    ['server CPU time per order (ms, user + system)', ms(j.cpuPerOrder), ms(f.cpuPerOrder), ratio(j.cpuPerOrder, f.cpuPerOrder), ''],
+    ['event-loop delay — p50 / p99 / max (ms)', `${ms(j.loop.p50)} / ${ms(j.loop.p99)} / ${ms(j.loop.max)}`, `${ms(f.loop.p50)} / ${ms(f.loop.p99)} / ${ms(f.loop.max)}`, ratio(j.loop.p99, f.loop.p99) + ' (p99)', ''],
+    ["the load generator's own event-loop delay — p99 (ms)", ms(j.clientLoopP99), ms(f.clientLoopP99), '', ''],
+    [`server memory with ${j.sockets} sockets — RSS / heap+external (MB)`, `${mb(memJ.after.rss)} / ${mb(memJ.after.heapUsed + memJ.after.external)}`, `${mb(memF.after.rss)} / ${mb(memF.after.heapUsed + memF.after.external)}`, ratio(memJ.after.rss, memF.after.rss) + ' (RSS)', ''],
+    [`memory per socket (${memJ.sockets} added) — heap+external / RSS (KB)`, `${kb(pj.heap)} / ${kb(pj.rss)}`, `${kb(pf.heap)} / ${kb(pf.rss)}`, ratio(pj.heap, pf.heap) + ' (heap)', ''],
+  ];
+}
+
+export function report(r: BenchResults): string {
+  const { jugline: j, floor: f, args: a, machine: m } = r;
+  const out: string[] = [];
+  out.push(
+    `Machine: ${m.cores} cores (${m.cpu}), ${m.memoryGiB.toFixed(0)} GiB, ${m.platform}; Node ${m.node}. Run ${m.date}, ${r.seconds.toFixed(0)} s in all` +
+      `${r.built ? ' (including the build)' : ''}:`,
+    '',
+    '```',
+    `npm run bench -- --sockets ${a.sockets} --counters ${a.counters} --rate ${a.rate} --seconds ${a.seconds} --big ${a.big} --days ${a.days}`,
+    '```',
+    '',
+    `Load average (1 min) at the start and the end: ${m.load.map((l) => l.toFixed(1)).join(' / ')}` +
+      (Math.max(...m.load) > m.cores / 2 ? ` — **other work was running on this ${m.cores}-core machine; the times are inflated by it**` : ' (an idle machine)') +
+      (m.nice !== 0 ? `; the bench ran at nice ${m.nice} (ahead of that work for the CPU, not for the disk).` : '.'),
+    '',
+  );
+
+  const allP99 = j.main.allSockets.p99;
+  const floorP99 = f.main.allSockets.p99;
+  out.push(
+    `### Order → screens: ${a.sockets} sockets, ${a.counters} counters, ${a.rate} orders/s for ${a.seconds} s`,
+    '',
+    table(
+      ['figure', 'Jugline', 'floor', 'Jugline ÷ floor', 'target'],
+      [
+        ...runRows(j.main, f.main, j.memory, f.memory, `< 50 ms and ≤ 3× floor: ${mark(allP99 < 50 && allP99 <= 3 * floorP99)}`),
+        [
+          `max throughput, closed loop (${a.counters} counters, 5 s) — orders/s; share delivered to every socket`,
+          `${j.saturation.throughput.toFixed(0)}; ${(j.saturation.delivered * 100).toFixed(0)} %`,
+          `${f.saturation.throughput.toFixed(0)}; ${(f.saturation.delivered * 100).toFixed(0)} %`,
+          ratio(f.saturation.throughput, j.saturation.throughput) + ' (floor ÷ Jugline)',
+          '',
+        ],
+        ['server CPU time per order in the closed loop (ms)', ms(j.saturation.cpuPerOrder), ms(f.saturation.cpuPerOrder), ratio(j.saturation.cpuPerOrder, f.saturation.cpuPerOrder), ''],
+        [
+          'event-loop delay in the closed loop — p99 / max (ms)',
+          `${ms(j.saturation.loop.p99)} / ${ms(j.saturation.loop.max)}`,
+          `${ms(f.saturation.loop.p99)} / ${ms(f.saturation.loop.max)}`,
+          '',
+          '',
+        ],
+      ],
+    ),
+    '',
+  );
+
+  if (j.big && f.big) {
+    const bigP99 = j.big.run.allSockets.p99;
+    out.push(
+      `### Order → screens: ${a.big} sockets, ${a.rate} orders/s for ${j.big.run.orders / a.rate} s`,
+      '',
+      table(['figure', 'Jugline', 'floor', 'Jugline ÷ floor', 'target'], runRows(j.big.run, f.big.run, j.big.memory, f.big.memory, `< 250 ms: ${mark(bigP99 < 250)}`)),
+      '',
+    );
+  }
+
+  const bar100 = r.bar.find((b) => b.drinks === 100);
+  out.push(
+    '### Server rendering of /bar (GET on loopback, signed in as a barista, 60 requests after 8 unmeasured)',
+    '',
+    table(
+      ['open drinks', 'median (ms)', 'p95 (ms)', 'max (ms)', 'HTML (KB)', 'target'],
+      r.bar.map((b) => [b.drinks, ms(b.p50), ms(b.p95), ms(b.max), kb(b.bytes), b === bar100 ? `median < 20 ms: ${mark(b.p50 < 20)}` : '']),
+    ),
+    '',
+  );
+
+  out.push(
+    `### Pulse and reports over ${r.history.days} days of history (${r.history.orders.toLocaleString('en-US')} orders, ${r.history.firstDate} … ${r.history.lastDate}; 40 requests after 5 unmeasured)`,
+    '',
+    table(
+      ['endpoint', 'median (ms)', 'p95 (ms)', 'max (ms)', 'answer (KB)', 'target p95 < 100 ms'],
+      r.endpoints.map((e) => [e.what, ms(e.p50), ms(e.p95), ms(e.max), kb(e.bytes), mark(e.p95 < 100)]),
+    ),
+    '',
+  );
+
+  out.push(
+    '### Client weight per screen (gzip, from the build manifest: entry + the screen\'s chunks and their imports)',
+    '',
+    table(
+      ['screen', 'JS (KB gzip)', 'CSS (KB gzip)', 'files', 'loaded later by the screen (KB gzip)', 'target'],
+      r.weights.map((w) => [w.screen, kb(w.jsGzip), kb(w.cssGzip), w.files, w.laterJsGzip ? kb(w.laterJsGzip) : '—', w.screen === 'bar' ? `JS < 150 KB: ${mark(w.jsGzip / 1024 < 150)}` : '']),
+    ),
+  );
+  return out.join('\n');
+}

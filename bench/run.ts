@@ -1,0 +1,294 @@
+// npm run bench [-- --sockets 100 --counters 10 --rate 20 --seconds 20 --big 1000 --dist dist
+//                  --days 365 --port 4326 --out BENCHMARKS.md --no-write --profile <dir>]
+// One run, on fresh databases in a temp folder, against the production build (built first when the
+// folder has none):
+//   1. order → screens: Jugline, then the floor (the same libraries bare), under the same load;
+//   2. a bigger socket count on both (--big; 0 leaves it out);
+//   3. /bar server-rendered with 20, 100 and 300 open drinks, Pulse and the reports over a year;
+//   4. client weight per screen from the build manifest.
+// Prints one table and writes it into BENCHMARKS.md between its markers.
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { parseArgs } from 'node:util';
+import Database from 'better-sqlite3';
+import { generateHistory } from '../scripts/history/generate';
+import { prepareDatabase } from '../server/server';
+import { ROOT, startChild, type ServerChild } from './child';
+import type { OrderTemplate } from './floor-server';
+import { closedLoop, closeHarness, connectMeasured, harness, openLoop, signIn, type Harness, type MemoryReading, type OrderBody, type RunResult } from './load';
+import { historyEndpoints, renderBar, type Timed } from './pages';
+import { report, type BenchResults } from './report';
+import { screenWeights } from './weights';
+
+const USAGE = 'Usage: npm run bench -- [--sockets 100] [--counters 10] [--rate 20] [--seconds 20] [--big 1000] [--dist dist] [--days 365] [--port 4326] [--out BENCHMARKS.md] [--no-write] [--profile <dir>]';
+
+function parsed() {
+  try {
+    return parseArgs({
+      options: {
+        sockets: { type: 'string', default: '100' },
+        counters: { type: 'string', default: '10' },
+        rate: { type: 'string', default: '20' },
+        seconds: { type: 'string', default: '20' },
+        big: { type: 'string', default: '1000' },
+        dist: { type: 'string', default: process.env.JUGLINE_DIST ?? 'dist' },
+        days: { type: 'string', default: '365' },
+        port: { type: 'string', default: '4326' },
+        out: { type: 'string', default: 'BENCHMARKS.md' },
+        'no-write': { type: 'boolean', default: false },
+        profile: { type: 'string' },
+        help: { type: 'boolean', short: 'h', default: false },
+      },
+      strict: true,
+    });
+  } catch (err) {
+    console.error(`${(err as Error).message}\n${USAGE}`);
+    process.exit(2);
+  }
+}
+
+function options() {
+  const { values } = parsed();
+  if (values.help) {
+    console.log(USAGE);
+    process.exit(0);
+  }
+  const int = (name: keyof typeof values, min: number, max: number) => {
+    const n = Number(values[name]);
+    if (!Number.isInteger(n) || n < min || n > max) {
+      console.error(`--${name} takes a whole number from ${min} to ${max}, not "${values[name]}"\n${USAGE}`);
+      process.exit(2);
+    }
+    return n;
+  };
+  const o = {
+    sockets: int('sockets', 1, 1000),
+    counters: int('counters', 1, 50),
+    rate: int('rate', 1, 200),
+    seconds: int('seconds', 3, 600),
+    big: int('big', 0, 1000),
+    days: int('days', 0, 3660), // 0: no history (a quick run)
+    port: int('port', 1024, 65530),
+    dist: path.resolve(ROOT, values.dist!),
+    out: path.resolve(ROOT, values.out!),
+    write: !values['no-write'],
+  };
+  if (values.profile) process.env.BENCH_PROFILE_DIR = path.resolve(values.profile);
+  if (o.big !== 0 && o.big <= o.sockets) o.big = 0; // nothing bigger to try
+  return o;
+}
+
+async function ensureBuild(dist: string) {
+  const built = ['client/index.html', 'client/.vite/manifest.json', 'server/entry-server.js'].every((f) => existsSync(path.join(dist, f)));
+  if (built) return false;
+  console.log(`No complete build in ${dist} — building it…`);
+  const { build } = await import('vite');
+  await build({ root: ROOT, logLevel: 'warn', build: { outDir: path.join(dist, 'client'), emptyOutDir: true } });
+  await build({ root: ROOT, logLevel: 'warn', build: { ssr: 'src/entry-server.tsx', outDir: path.join(dist, 'server'), emptyOutDir: true } });
+  return true;
+}
+
+interface MenuItem {
+  id: number;
+  name: string;
+  station: string;
+  takesMilk: boolean;
+  sizes: { id: number }[];
+}
+
+/** Four orders of one to three bar drinks (and a pastry), from the café's own menu. */
+function orderBodies(menu: { items: MenuItem[]; milks: { id: number; name: string }[] }): OrderBody[] {
+  const bar = menu.items.filter((i) => i.station === 'bar');
+  const milky = bar.filter((i) => i.takesMilk);
+  const counter = menu.items.find((i) => i.station === 'counter');
+  const oat = menu.milks.find((m) => m.name === 'Oat') ?? menu.milks[0];
+  const line = (i: MenuItem, size = 0, milk?: number) => ({
+    menuItemId: i.id,
+    ...(i.sizes.length ? { sizeId: i.sizes[Math.min(size, i.sizes.length - 1)].id } : {}),
+    ...(milk && i.takesMilk ? { milkId: milk } : {}),
+  });
+  const pick = (list: MenuItem[], k: number) => list[k % list.length];
+  const lists = [
+    [line(pick(milky, 0))],
+    [line(pick(milky, 1), 1, oat?.id), line(pick(bar, 0))],
+    [line(pick(milky, 2), 2), ...(counter ? [line(counter)] : [])],
+    [line(pick(milky, 0)), line(pick(milky, 1), 0), line(pick(bar, 1))],
+  ];
+  const station = new Map(menu.items.map((i) => [i.id, i.station]));
+  return lists.map((items) => ({ items, barDrinks: items.filter((l) => station.get(l.menuItemId) === 'bar').length }));
+}
+
+/** What Jugline stored for one order of each body: the floor inserts the same rows. */
+function readTemplates(file: string, h: Harness, bodies: OrderBody[]): OrderTemplate[] {
+  const db = new Database(file, { readonly: true });
+  try {
+    const noId = ({ id: _id, ...row }: Record<string, unknown>) => row;
+    return bodies.map((body, variant) => {
+      const answer = h.answers.get(variant);
+      if (!answer) throw new Error(`no answered order of body ${variant} to copy for the floor`);
+      const order = db.prepare('select * from orders where client_order_id = ?').get(answer.clientOrderId) as Record<string, unknown>;
+      const items = db.prepare('select * from order_items where order_id = ? order by line_no').all(order.id) as Record<string, unknown>[];
+      const payments = db.prepare('select * from payments where order_id = ?').all(order.id) as Record<string, unknown>[];
+      const event = db
+        .prepare("select type, payload from events where type = 'order.fired' and json_extract(payload, '$.ticket.id') = ?")
+        .get(order.id) as { type: string; payload: string };
+      return {
+        key: JSON.stringify(body.items),
+        order: noId(order),
+        items: items.map(noId),
+        payments: payments.map(noId),
+        event: { type: event.type, payload: JSON.parse(event.payload) },
+        response: JSON.parse(answer.text),
+      };
+    });
+  } finally {
+    db.close();
+  }
+}
+
+export interface SideResult {
+  main: RunResult;
+  memory: MemoryReading;
+  saturation: Awaited<ReturnType<typeof closedLoop>>;
+  big?: { run: RunResult; memory: MemoryReading };
+}
+
+type O = ReturnType<typeof options>;
+
+/** The same sequence on either server: sockets, warm-up, the measured run, the big run, saturation. */
+async function orderToScreens(server: ServerChild, o: O, bodies: OrderBody[], cookies: { counters: (string | undefined)[]; socket: (i: number) => string | undefined }, tag: string) {
+  const h = harness(server, cookies.counters);
+  const run = { counters: o.counters, rate: o.rate, seconds: o.seconds, bodies, tag };
+  const memory = await connectMeasured(h, o.sockets, cookies.socket);
+  await openLoop(h, { ...run, seconds: 2 }, false); // warm-up: JIT, caches, the first page of the log
+  const main = await openLoop(h, run, true);
+  console.log(`  ${o.sockets} sockets: order → all sockets p99 ${main.allSockets.p99.toFixed(1)} ms, ack p99 ${main.ack.p99.toFixed(1)} ms`);
+  let big: SideResult['big'];
+  if (o.big) {
+    const more = await connectMeasured(h, o.big - o.sockets, (i) => cookies.socket(i));
+    await openLoop(h, { ...run, seconds: 1 }, false);
+    const bigRun = await openLoop(h, { ...run, seconds: Math.max(5, Math.round(o.seconds / 2)) }, true);
+    big = { run: bigRun, memory: { ...more, sockets: o.big - o.sockets } };
+    console.log(`  ${o.big} sockets: order → all sockets p99 ${bigRun.allSockets.p99.toFixed(1)} ms`);
+    await h.screens.closeFrom(o.sockets);
+  }
+  const saturation = await closedLoop(h, run, 5);
+  console.log(`  closed loop, ${o.counters} counters: ${saturation.throughput.toFixed(0)} orders/s`);
+  await closeHarness(h);
+  return { h, result: { main, memory, saturation, big } satisfies SideResult };
+}
+
+async function main() {
+  const o = options();
+  const started = performance.now();
+  const loadAtStart = os.loadavg()[0];
+  const tmp = mkdtempSync(path.join(os.tmpdir(), 'jugline-bench-'));
+  const children: ServerChild[] = [];
+  const cleanup = async () => {
+    await Promise.all(children.map((c) => c.stop()));
+    rmSync(tmp, { recursive: true, force: true });
+  };
+  try {
+    const built = await ensureBuild(o.dist);
+    const weights = screenWeights(path.join(o.dist, 'client'));
+
+    // 1. Jugline
+    console.log(`Jugline: ${o.sockets} sockets, ${o.counters} counters at ${o.rate} orders/s for ${o.seconds} s…`);
+    const jFile = path.join(tmp, 'jugline.sqlite');
+    const jugline = await startChild('jugline-server.ts', { BENCH_PORT: String(o.port), BENCH_DATABASE_FILE: jFile, JUGLINE_DIST: o.dist });
+    children.push(jugline);
+    const counterCookies: string[] = [];
+    for (let i = 0; i < o.counters; i++) counterCookies.push(await signIn(jugline.url, 'cashier'));
+    // one session per screen, as on real tablets (up to 100: a bcrypt sign-in costs ~0.1 s)
+    const screenCookies: string[] = [];
+    const sessions = Math.min(100, Math.max(o.sockets, o.big));
+    for (let i = 0; i < sessions; i++) screenCookies.push(await signIn(jugline.url, i % 4 === 3 ? 'cashier' : i % 2 ? 'barista2' : 'barista'));
+    const menu = await (await fetch(`${jugline.url}/api/menu`, { headers: { cookie: counterCookies[0] } })).json();
+    const bodies = orderBodies(menu);
+    const j = await orderToScreens(jugline, o, bodies, { counters: counterCookies, socket: (i) => screenCookies[i % sessions] }, 'Jug');
+    const templates = readTemplates(jFile, j.h, bodies);
+    await jugline.stop();
+    children.pop();
+
+    // 2. the floor, on a database migrated and seeded the same way
+    console.log('Floor: the same load on node:http + better-sqlite3 + ws…');
+    const fFile = path.join(tmp, 'floor.sqlite');
+    await (await prepareDatabase({ databaseFile: fFile, seedDemo: true }, () => {})).destroy();
+    const tFile = path.join(tmp, 'templates.json');
+    writeFileSync(tFile, JSON.stringify(templates));
+    const floorServer = await startChild('floor-server.ts', { BENCH_PORT: String(o.port + 1), BENCH_DATABASE_FILE: fFile, BENCH_TEMPLATES: tFile });
+    children.push(floorServer);
+    const f = await orderToScreens(floorServer, o, bodies, { counters: Array(o.counters).fill(undefined), socket: () => undefined }, 'Flo');
+    await floorServer.stop();
+    children.pop();
+
+    // 3. a year of history; /bar, Pulse and the reports
+    console.log(`History: ${o.days} days…`);
+    const hFile = path.join(tmp, 'history.sqlite');
+    const history = o.days
+      ? await generateHistory({ file: hFile, days: o.days })
+      : { orders: 0, days: 0, seconds: 0, firstDate: new Date().toISOString().slice(0, 10), lastDate: new Date().toISOString().slice(0, 10) };
+    console.log(`  ${history.orders} orders in ${history.seconds.toFixed(1)} s`);
+    const hist = await startChild('jugline-server.ts', { BENCH_PORT: String(o.port + 2), BENCH_DATABASE_FILE: hFile, JUGLINE_DIST: o.dist });
+    children.push(hist);
+    const [cashier, barista, lead, owner] = await Promise.all(['cashier', 'barista', 'lead', 'owner'].map((u) => signIn(hist.url, u)));
+    console.log('Rendering /bar…');
+    const bar = await renderBar(hist.url, cashier, barista, bodies, [20, 100, 300]);
+    console.log('Pulse and reports…');
+    const endpoints: Timed[] = await historyEndpoints(hist.url, lead, owner, history.firstDate!, history.lastDate!);
+    await hist.stop();
+    children.pop();
+
+    const results: BenchResults = {
+      machine: {
+        cores: os.cpus().length,
+        cpu: os.cpus()[0]?.model?.trim() ?? 'unknown',
+        memoryGiB: os.totalmem() / 2 ** 30,
+        node: process.version,
+        platform: `${os.type()} ${os.release()}`,
+        date: new Date().toISOString().slice(0, 10),
+        load: [loadAtStart, os.loadavg()[0]],
+        nice: os.getPriority(),
+      },
+      args: { sockets: o.sockets, counters: o.counters, rate: o.rate, seconds: o.seconds, big: o.big, days: o.days },
+      built,
+      jugline: j.result,
+      floor: f.result,
+      history: { orders: history.orders, days: history.days, firstDate: history.firstDate!, lastDate: history.lastDate! },
+      bar,
+      endpoints,
+      weights,
+      seconds: (performance.now() - started) / 1000,
+    };
+    const table = report(results);
+    console.log('\n' + table);
+    if (o.write) {
+      writeInto(o.out, table);
+      console.log(`Written to ${path.relative(ROOT, o.out)}`);
+    }
+  } finally {
+    await cleanup();
+  }
+}
+
+const START = '<!-- bench:start (npm run bench writes between these markers) -->';
+const END = '<!-- bench:end -->';
+
+/** Replace what is between the markers; everything else in the file (notes by hand) stays. */
+function writeInto(file: string, table: string) {
+  const block = `${START}\n${table}\n${END}`;
+  const old = existsSync(file) ? readFileSync(file, 'utf8') : '';
+  const a = old.indexOf(START);
+  const b = old.indexOf(END);
+  const text = a >= 0 && b > a ? old.slice(0, a) + block + old.slice(b + END.length) : `# Benchmarks\n\n${block}\n${old ? '\n' + old : ''}`;
+  writeFileSync(file, text);
+}
+
+main().then(
+  () => process.exit(0),
+  (err) => {
+    console.error(err);
+    process.exit(1);
+  },
+);
