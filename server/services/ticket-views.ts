@@ -71,9 +71,13 @@ export async function loadTicket(db: Db, orderId: number): Promise<TicketView> {
 /** Open tickets, plus ready ones still inside the Pickup board's timeout. */
 export async function loadBoardTickets(db: Db, locationId: number, nowMs: number, pickupTimeoutSeconds: number) {
   const readySince = new Date(nowMs - pickupTimeoutSeconds * 1000).toISOString();
-  const orders = await db('orders')
-    .where({ location_id: locationId })
-    .andWhere((q) => q.where({ status: 'open' }).orWhere((r) => r.where({ status: 'ready' }).andWhere('ready_at', '>', readySince)))
-    .orderBy([{ column: 'fired_at' }, { column: 'id' }]);
-  return loadTickets(db, orders);
+  // Two reads on the (location_id, status) index: with the OR in one query SQLite scans every
+  // order the café ever had (≈20 ms over a year of history, on every board and /bar render).
+  const [open, ready] = await Promise.all([
+    db('orders').where({ location_id: locationId, status: 'open' }),
+    db('orders').where({ location_id: locationId, status: 'ready' }).andWhere('ready_at', '>', readySince),
+  ]);
+  const byFired = (a: Record<string, any>, b: Record<string, any>) =>
+    (a.fired_at ?? '') < (b.fired_at ?? '') ? -1 : (a.fired_at ?? '') > (b.fired_at ?? '') ? 1 : a.id - b.id;
+  return loadTickets(db, [...open, ...ready].sort(byFired));
 }
