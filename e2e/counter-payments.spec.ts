@@ -144,3 +144,20 @@ test('a drink that contains the customer’s allergen is caught at the Counter a
   await expect(card.getByTestId('contains-clash')).toContainText('THIS DRINK CONTAINS TREE NUTS');
   for (const page of [counter, bar]) expect(errorsOf(page)).toEqual([]);
 });
+
+test('signing out with an unsent order asks first; staying keeps the order', async ({ browser }) => {
+  const counter = await pageAs(browser, 'cashier', '/counter', { width: 1280, height: 900 });
+  await expect(counter.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
+  await counter.getByRole('button', { name: /^Latte/ }).click();
+  await counter.getByRole('button', { name: /Add to order/ }).click();
+  const asked: string[] = [];
+  counter.once('dialog', (d) => {
+    asked.push(d.message());
+    void d.dismiss(); // "Cancel": stay
+  });
+  await counter.getByRole('button', { name: 'Sign out' }).click();
+  await expect.poll(() => asked).toEqual(['The order being built (1 item) has not been sent and will be lost. Leave anyway?']);
+  await expect(counter).toHaveURL(/\/counter$/);
+  await expect(counter.getByRole('button', { name: /^Send/ })).toBeEnabled();
+  expect(errorsOf(counter)).toEqual([]);
+});

@@ -28,6 +28,7 @@ import { menuQuery } from '../features/menu/queries';
 import { sessionQuery } from '../features/session/queries';
 import { useApi } from '../lib/api-context';
 import { ApiError, http } from '../lib/http';
+import { useLeaveGuard } from '../lib/leave-guard';
 import { uuid } from '../lib/uuid';
 import { requireScreen, type RouteDeps } from './deps';
 import { SCREENS } from '../domain/screens';
@@ -54,6 +55,7 @@ function Counter() {
   const outbox = usePendingOrders(send.mutateAsync);
 
   const items = form.watch('items');
+  useLeaveGuard(items.length > 0 ? `The order being built (${items.length} ${items.length === 1 ? 'item' : 'items'}) has not been sent and will be lost.` : null);
   const totals = previewTotals(menu, items, checkout.discount);
   const queued = board.tickets.filter((t) => t.status === 'open').flatMap((t) => t.drinks.filter((d) => d.status !== 'done'));
 

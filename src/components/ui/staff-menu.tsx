@@ -8,6 +8,7 @@ import { SwitchPersonButton } from '../../features/team/switch-person-button';
 import { useApi } from '../../lib/api-context';
 import { cn } from '../../lib/cn';
 import { http } from '../../lib/http';
+import { confirmLeave } from '../../lib/leave-guard';
 
 const MENU = [
   SCREENS.counter,
@@ -32,6 +33,7 @@ export function StaffMenu({ dark = false }: { dark?: boolean }) {
   const user = data?.user;
   if (!user) return null;
   const signOut = async () => {
+    if (!confirmLeave()) return;
     await http('DELETE', '/session').catch(() => undefined);
     qc.clear();
     navigate('/signin', { replace: true });
@@ -39,7 +41,7 @@ export function StaffMenu({ dark = false }: { dark?: boolean }) {
   return (
     <nav aria-label="Screens" className={cn('flex items-center gap-3 text-base', dark ? 'text-crema-300' : 'text-ink-600')}>
       {MENU.filter((s) => s.path !== here && can(user.role, s.need)).map((s) => (
-        <Link key={s.path} to={s.path} reloadDocument className="underline underline-offset-4">
+        <Link key={s.path} to={s.path} reloadDocument onClick={(e) => confirmLeave() || e.preventDefault()} className="underline underline-offset-4">
           {s.label}
         </Link>
       ))}

@@ -1,6 +1,7 @@
 // The staff menu's "Switch person" control. The dialog (PIN pad, the own-PIN form with its form
 // and schema libraries) loads on the first tap, so it weighs nothing on the Bar and the Counter.
 import { lazy, Suspense, useState } from 'react';
+import { confirmLeave } from '../../lib/leave-guard';
 
 const SwitchDialog = lazy(() => import('./switch-person').then((m) => ({ default: m.SwitchDialog })));
 
@@ -8,7 +9,7 @@ export function SwitchPersonButton({ className }: { className?: string }) {
   const [open, setOpen] = useState(false);
   return (
     <>
-      <button type="button" onClick={() => setOpen(true)} className={className}>
+      <button type="button" onClick={() => confirmLeave() && setOpen(true)} className={className}>
         Switch person
       </button>
       {open && (
