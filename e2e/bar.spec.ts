@@ -87,6 +87,9 @@ test('two bar screens: jug plan, keyboard bump, allergy read, Pickup, rush', asy
   // rushed: first in its shot group of the Oat lane, ahead of older tickets
   const oat = bar1.getByTestId('lane').filter({ has: bar1.getByRole('heading', { name: 'Oat' }) });
   await expect(oat.getByTestId('shot-group').filter({ has: cardsOf(bar1, 'Jude Park') }).getByTestId('drink-card').first()).toContainText('Jude Park');
+  // a lane longer than the screen says how many cards are out of sight, in words
+  const whole = bar1.getByTestId('lane').filter({ has: bar1.getByRole('heading', { name: 'Whole' }) });
+  await expect(whole.getByTestId('more-below')).toHaveText(/^↓ [1-9]\d* more below$/);
   await bar1.screenshot({ path: 'docs/screenshots/bar-rush.png' });
 
   await api.dispose();

@@ -1,6 +1,8 @@
+import { useRef } from 'react';
 import { describeBatch } from '../../domain/jug-plan';
 import type { PlannedLane } from '../../domain/lanes';
 import { Button } from '../../components/ui/button';
+import { useHiddenBelow } from './use-hidden-below';
 
 export const grams = (dg: number) => `${(dg / 10).toFixed(dg % 10 === 0 ? 0 : 1)} g`;
 
@@ -18,6 +20,8 @@ interface Props {
 export function LaneColumn({ lane, narrow, busy, onStartBatch, onBumpBatch, children }: Props) {
   const [first, ...rest] = lane.jugPlan;
   const name = lane.milk?.name ?? 'No milk';
+  const scroller = useRef<HTMLDivElement>(null);
+  const hidden = useHiddenBelow(scroller, lane.groups.flatMap((g) => g.drinks.map((d) => d.id)).join(','));
   return (
     <section
       data-testid="lane"
@@ -59,7 +63,7 @@ export function LaneColumn({ lane, narrow, busy, onStartBatch, onBumpBatch, chil
           </div>
         )}
       </header>
-      <div className="mt-2 flex flex-col gap-3 overflow-y-auto">
+      <div ref={scroller} className="mt-2 flex flex-col gap-3 overflow-y-auto">
         {lane.groups.map((group) => (
           <div key={group.shots} data-testid="shot-group" data-shots={group.shots}>
             <h3 className="mb-2 text-lg font-semibold tracking-widest text-crema-300 uppercase">
@@ -69,6 +73,11 @@ export function LaneColumn({ lane, narrow, busy, onStartBatch, onBumpBatch, chil
           </div>
         ))}
       </div>
+      {hidden > 0 && (
+        <p data-testid="more-below" className="mt-2 rounded-lg border-2 border-crema-300 py-1 text-center text-xl font-semibold">
+          ↓ {hidden} more below
+        </p>
+      )}
     </section>
   );
 }
