@@ -75,9 +75,12 @@ export function resolveLine(menu: MenuView, input: OrderLineInput): LineResult {
   }
 
   const base = size?.priceCents ?? item.priceCents ?? 0;
+  // A milk costs extra only as a swap: the drink's own milk is in its price (a drink made with oat
+  // by default is sold at its menu price). Common practice for alternative-milk charges.
+  const milkCharge = milk && milk.id !== item.defaultMilkId ? milk.upchargeCents : 0;
   const priceCents =
     base +
-    (milk?.upchargeCents ?? 0) +
+    milkCharge +
     extraShots * menu.location.extraShotCents +
     modifiers.reduce((sum, m) => sum + m.priceCents, 0);
 

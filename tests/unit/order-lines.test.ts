@@ -173,6 +173,16 @@ describe('resolveLine: milk', () => {
     expect(line.priceCents).toBe(475);
   });
 
+  it('charges nothing extra for the milk a drink is made with by default', () => {
+    // Common practice: an alternative-milk charge is for a swap. A drink whose own milk is Pea is
+    // sold at its menu price (410); swapping it to Hemp costs the Hemp charge (410 + 45 = 455).
+    const menu = testMenu();
+    menu.items = menu.items.map((i) => (i.id === LATTE ? { ...i, defaultMilkId: PEA } : i));
+    expect(ok(resolveLine(menu, { menuItemId: LATTE })).priceCents).toBe(410);
+    expect(ok(resolveLine(menu, { menuItemId: LATTE, milkId: PEA })).priceCents).toBe(410);
+    expect(ok(resolveLine(menu, { menuItemId: LATTE, milkId: HEMP })).priceCents).toBe(455);
+  });
+
   it('asks for a milk when the item has no default and none is given', () => {
     const p = problem(resolveLine(testMenu(), { menuItemId: GIBRALTAR }));
     expect(p).toMatchObject({ field: 'milkId', kind: 'invalid' });

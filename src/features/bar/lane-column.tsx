@@ -27,7 +27,10 @@ export function LaneColumn({ lane, narrow, busy, onStartBatch, onBumpBatch, chil
       data-testid="lane"
       data-lane={name}
       aria-label={`${name} lane`}
-      className={`flex ${narrow ? 'w-[22.5rem]' : 'w-[27rem]'} shrink-0 flex-col rounded-2xl bg-roast-850 p-3`}
+      // Lanes share the screen's width by how many drinks they hold, so a busy lane lays its cards
+      // side by side instead of hiding them below the fold while the screen stands half empty.
+      style={{ flexGrow: lane.drinkCount }}
+      className={`flex ${narrow ? 'min-w-[22.5rem]' : 'min-w-[27rem]'} shrink-0 basis-0 flex-col rounded-2xl bg-roast-850 p-3`}
     >
       <header className="border-b border-crema-300/30 pb-2">
         <div className="flex items-center gap-3">
@@ -69,7 +72,7 @@ export function LaneColumn({ lane, narrow, busy, onStartBatch, onBumpBatch, chil
             <h3 className="mb-2 text-lg font-semibold tracking-widest text-crema-300 uppercase">
               {group.shots === 0 ? 'No shots' : `${group.shots} shot${group.shots > 1 ? 's' : ''}`}
             </h3>
-            <div className="flex flex-col gap-3">{children(group)}</div>
+            <div className="grid grid-cols-[repeat(auto-fill,minmax(21rem,1fr))] gap-3">{children(group)}</div>
           </div>
         ))}
       </div>

@@ -82,7 +82,9 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
               options={menu.milks.map((m) => ({
                 value: m.id,
                 label: m.name,
-                hint: [m.upchargeCents ? `+${money(m.upchargeCents)}` : '', m.allergens.join(', ')].filter(Boolean).join(' · ') || undefined,
+                hint:
+                  [m.upchargeCents && m.id !== item.defaultMilkId ? `+${money(m.upchargeCents)}` : '', m.allergens.join(', ')].filter(Boolean).join(' · ') ||
+                  undefined,
               }))}
             />
           )}
