@@ -128,13 +128,15 @@ test('a drink that contains the customer’s allergen is caught at the Counter a
   const counter = await pageAs(browser, 'cashier', '/counter', { width: 1024, height: 768 });
   const bar = await pageAs(browser, 'barista', '/bar');
   await counter.getByRole('button', { name: /^Flat white/ }).click();
+  await expect(counter.getByTestId('sheet-contains')).toHaveText('Contains: milk'); // whole milk by default
   await counter.getByRole('radio', { name: /Almond/ }).click();
+  await expect(counter.getByTestId('sheet-contains')).toHaveText('Contains: tree nuts');
   await counter.getByRole('button', { name: /Add to order/ }).click();
   await counter.getByLabel('Name for the cup').fill('Rhea Tamm');
   await counter.getByRole('button', { name: /Allergy/ }).click();
   await counter.getByRole('button', { name: 'tree nuts' }).click();
   const clash = counter.getByTestId('allergy-clash');
-  await expect(clash).toContainText('Flat white with almond milk contains tree nuts');
+  await expect(clash).toContainText('Flat white contains tree nuts (from the almond milk)');
   await expect(counter.getByRole('button', { name: /^Send/ })).toBeDisabled();
   await counter.screenshot({ path: 'docs/screenshots/counter-allergy-clash.png' });
   await clash.getByRole('checkbox').check();

@@ -47,7 +47,7 @@ export const pinSchema = z
 export const passwordSchema = z
   .string()
   .min(PASSWORD_MIN_CHARS, `At least ${PASSWORD_MIN_CHARS} characters`)
-  .refine((p) => utf8Bytes(p) <= PASSWORD_MAX_BYTES, `At most ${PASSWORD_MAX_BYTES} bytes (about ${PASSWORD_MAX_BYTES} letters)`)
+  .refine((p) => utf8Bytes(p) <= PASSWORD_MAX_BYTES, `Too long: at most about ${PASSWORD_MAX_BYTES} characters (accented letters count double)`)
   .refine((p) => new Set(p).size > 1, 'Not one character repeated');
 
 export const roleSchema = z.enum(ROLES);

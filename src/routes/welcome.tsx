@@ -72,7 +72,7 @@ function Welcome() {
           {...form.register('password')}
         />
         <p id="password-rules" className="mt-1 text-base text-ink-600">
-          At least {PASSWORD_MIN_CHARS} characters, at most {PASSWORD_MAX_BYTES} bytes. A few words you'll remember make a good one.
+          At least {PASSWORD_MIN_CHARS} characters and at most about {PASSWORD_MAX_BYTES} (accented letters count double). A few words you'll remember make a good one.
         </p>
         <FieldError message={errors.password?.message} />
         <label className="mt-4 block text-base font-semibold" htmlFor="confirm">

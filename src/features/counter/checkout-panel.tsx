@@ -169,7 +169,8 @@ export function SendBar({ menu, form, checkout, onCheckout, totalCents, sending,
         <div role="alert" data-testid="allergy-clash" className="rounded-lg border-2 border-ink-900 bg-alert-ink px-3 py-2 text-ink-900">
           {clashes.map((c) => (
             <p key={c.itemName} className="text-lg font-semibold">
-              ⚠ {c.itemName} contains {c.allergens.join(', ')} — on the customer’s allergy list.
+              ⚠ {c.itemName} contains {c.allergens.join(', ')}
+              {c.from.length > 0 && ` (from ${c.from.join(', ')})`} — on the customer’s allergy list.
             </p>
           ))}
           <label className="mt-1 flex items-center gap-2 text-base">

@@ -18,13 +18,22 @@ export interface Checkout {
 
 export const emptyCheckout: Checkout = { method: 'cash', tendered: '', paymentMethod: null, email: '', discount: null, clashConfirmed: false };
 
-/** "Almond milk… in Flat white contains tree nuts": each line that contains an allergen the customer avoids. */
-export function clashesOf(menu: MenuView, items: OrderLineInput[], avoid: string[]): { itemName: string; allergens: string[] }[] {
+/** "Flat white contains tree nuts (from the almond milk)": each line that contains an allergen the
+ * customer avoids, and where in the drink it comes from, so the cashier knows what to swap. */
+export function clashesOf(menu: MenuView, items: OrderLineInput[], avoid: string[]): { itemName: string; allergens: string[]; from: string[] }[] {
   return items.flatMap((l) => {
     const r = resolveLine(menu, l);
     if (!r.ok) return [];
     const allergens = allergyClash(r.line.contains, avoid);
-    return allergens.length ? [{ itemName: r.line.milk ? `${r.line.itemName} with ${r.line.milk.name.toLowerCase()} milk` : r.line.itemName, allergens }] : [];
+    if (!allergens.length) return [];
+    const item = menu.items.find((i) => i.id === l.menuItemId);
+    const hits = (tags: readonly string[]) => tags.some((t) => allergens.includes(t));
+    const from = [
+      ...(item && hits(item.allergens) ? ['the drink itself'] : []),
+      ...(r.line.milk && hits(r.line.milk.allergens) ? [`the ${r.line.milk.name.toLowerCase()} milk`] : []),
+      ...r.line.modifiers.filter((m) => hits(menu.modifiers.find((x) => x.id === m.id)?.allergens ?? [])).map((m) => m.name.toLowerCase()),
+    ];
+    return [{ itemName: r.line.itemName, allergens, from }];
   });
 }
 

@@ -65,6 +65,12 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
             Cancel
           </Button>
         </div>
+        {priced.ok && priced.line.contains.length > 0 && (
+          // everything this drink holds as made now: the item itself, its milk and its extras
+          <p data-testid="sheet-contains" className="mt-1 text-lg">
+            <span className="font-semibold">Contains:</span> {priced.line.contains.join(', ')}
+          </p>
+        )}
         <div className="mt-4 flex flex-col gap-4">
           {item.sizes.length > 1 && (
             <Segmented
