@@ -137,8 +137,8 @@ export const restoreItem = (deps: Deps, user: SessionUser, id: number) =>
     const category = await ownedCategory(trx, locationId, item.category_id);
     if (category.retired_at) throw conflict(`Its category ${category.name} is retired: restore the category first`);
     await assertNameFree(trx, locationId, item.name, id);
-    const sort = await nextSort(trx('menu_items').where({ category_id: item.category_id }).whereNull('retired_at'));
-    await trx('menu_items').where({ id }).update({ retired_at: null, sort });
+    // back in its old place: cashiers know the tiles (and their 1–9 keys) by position
+    await trx('menu_items').where({ id }).update({ retired_at: null });
     await assertMenuOrderable(trx, locationId);
     return id;
   });

@@ -282,6 +282,19 @@ describe('items and recipes', () => {
     expect((await counterMenu()).items.find((i) => i.id === id)?.name).toBe('Quayside Mocha');
   });
 
+  it('a restored item comes back in its old place among the tiles', async () => {
+    const flatWhite = ids.item('Flat white');
+    const order = async () => {
+      const { items } = await counterMenu();
+      const categoryId = items.find((x) => x.id === flatWhite)?.categoryId;
+      return items.filter((i) => i.categoryId === categoryId).map((i) => i.id);
+    };
+    const before = await order();
+    await owner.post(`/api/menu-admin/items/${flatWhite}/retired`).send({ retired: true }).expect(200);
+    await owner.post(`/api/menu-admin/items/${flatWhite}/retired`).send({ retired: false }).expect(200);
+    expect(await order()).toEqual(before);
+  });
+
   it('a size left out of the item is retired, not deleted; the last size and the default size stay', async () => {
     const { id, menu } = await create('items', latteBody('Pier Cortado'));
     const [small, large] = menu.items.find((i) => i.id === id)!.sizes;
