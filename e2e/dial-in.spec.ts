@@ -91,6 +91,11 @@ test('the owner adds a lot through the form and it lists with its freshness as a
   await form.getByLabel('Roast date').fill(threeDaysAgo);
   await form.getByLabel('Received', { exact: true }).fill(today);
   await form.getByLabel('Weight received (g)').fill('1000');
+  // on the shelf it may rest quietly; into a grinder, the form cautions (and still lets it go)
+  await expect(form.getByTestId('grinder-caution')).toHaveCount(0);
+  await form.getByRole('radio', { name: 'Espresso' }).click();
+  await expect(form.getByTestId('grinder-caution')).toContainText('still resting until day 5');
+  await form.getByRole('radio', { name: 'Shelf' }).click();
   await form.getByRole('button', { name: 'Add lot' }).click();
   await expect(form).toBeHidden();
   const row = owner.getByTestId('lot-row').filter({ hasText: 'Quay Lantern Espresso' });

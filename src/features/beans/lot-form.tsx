@@ -5,7 +5,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useForm, type FieldPath } from 'react-hook-form';
 import { HOPPER_LABEL, HOPPERS, type BeanLotView, type Hopper } from '../../domain/bean-stock';
 import { beanLotBody, type BeanLotBody } from '../../domain/beans-schemas';
-import { DEFAULT_FRESHNESS } from '../../domain/freshness';
+import { daysBetween, DEFAULT_FRESHNESS, freshnessState } from '../../domain/freshness';
 import { Button } from '../../components/ui/button';
 import { FieldError } from '../../components/ui/field-error';
 import { useHydrated } from '../../lib/use-hydrated';
@@ -46,6 +46,9 @@ export function LotForm({ lot, lots, today, onDone }: { lot: BeanLotView | null;
   });
   const hopper = watch('hopper');
   const displaced = hopper !== 'shelf' ? lots.find((l) => l.hopper === hopper && !l.retiredAt && l.id !== lot?.id) : undefined;
+  const [roastDate, restDays, bestUntilDays] = watch(['roastDate', 'restDays', 'bestUntilDays']);
+  const age = /^\d{4}-\d{2}-\d{2}$/.test(roastDate ?? '') ? daysBetween(roastDate, today) : null;
+  const state = age !== null && age >= 0 && Number.isFinite(restDays) && Number.isFinite(bestUntilDays) ? freshnessState(age, { restDays, bestUntilDays }) : null;
   const err = (f: (typeof FIELDS)[number]) => formState.errors[f]?.message;
   const number = { valueAsNumber: true } as const;
   const title = lot ? `Edit ${lot.name}` : 'Add a lot';
@@ -111,6 +114,15 @@ export function LotForm({ lot, lots, today, onDone }: { lot: BeanLotView | null;
           <p role="status" className="mt-2 text-base">
             <span aria-hidden>⇄ </span>
             {displaced.name} is in the {HOPPER_LABEL[hopper].toLowerCase()} grinder now; saving moves it to the shelf.
+          </p>
+        )}
+        {hopper !== 'shelf' && (state === 'resting' || state === 'fading') && (
+          // a caution, not a rule: the owner may have good reasons (a rush, the last bag)
+          <p role="note" data-testid="grinder-caution" className="mt-2 rounded-lg border-2 border-ink-900 px-3 py-2 text-base">
+            <span aria-hidden>⚠ </span>
+            {state === 'resting'
+              ? `Roasted ${age} day${age === 1 ? '' : 's'} ago: still resting until day ${restDays}. Fresh beans are still degassing and shots tend to run uneven; dial in before service.`
+              : `Roasted ${age} days ago: past its best (day ${bestUntilDays}). Expect flatter shots; dial in again.`}
           </p>
         )}
         <p className="mt-2 text-sm text-ink-600">
