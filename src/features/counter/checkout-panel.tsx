@@ -166,9 +166,10 @@ export function SendBar({ menu, form, checkout, onCheckout, totalCents, sending,
   return (
     <div className="flex flex-col gap-2 border-t border-steam-200 bg-white pt-3">
       {clashes.length > 0 && (
-        <div role="alert" data-testid="allergy-clash" className="rounded-lg border-2 border-ink-900 bg-alert-ink px-3 py-2 text-ink-900">
+        // compact: on a 768 px tablet it shares the column with the name, payment and Send
+        <div role="alert" data-testid="allergy-clash" className="rounded-lg border-2 border-ink-900 bg-alert-ink px-3 py-1.5 text-ink-900">
           {clashes.map((c) => (
-            <p key={c.itemName} className="text-lg font-semibold">
+            <p key={c.itemName} className="text-base leading-snug font-semibold">
               ⚠ {c.itemName} contains {c.allergens.join(', ')}
               {c.from.length > 0 && ` (from ${c.from.join(', ')})`} — on the customer’s allergy list.
             </p>
