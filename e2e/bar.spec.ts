@@ -62,6 +62,11 @@ test('two bar screens: jug plan, keyboard bump, allergy read, Pickup, rush', asy
   const bram = cardsOf(bar2, 'Bram Okafor');
   await expect(bram.getByTestId('allergy')).toContainText('ALLERGY: peanuts · carries an auto-injector');
   await expect(bram.getByRole('button', { name: 'Bump ✓' })).toBeDisabled();
+  // its bump key doesn't read the allergy for anyone: it only puts the focus ring on the card
+  const bramKey = (await bram.locator('kbd').textContent())!.trim();
+  await bar2.keyboard.press(bramKey);
+  await expect(bram).toHaveAttribute('data-focused', 'true');
+  await expect(bram.getByRole('button', { name: 'I have read the allergy' })).toBeVisible();
   await bram.getByRole('button', { name: 'I have read the allergy' }).click();
   await expect(cardsOf(bar1, 'Bram Okafor').getByTestId('allergy')).toContainText('Read by Theo Brand');
   await bram.getByRole('button', { name: 'Bump ✓' }).click();

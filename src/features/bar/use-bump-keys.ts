@@ -1,5 +1,6 @@
 // The bar's keyboard, as a bump bar: 1–9 bump the Nth card, arrows move a focus ring, Enter bumps
-// the focused card, S starts it, A acknowledges its allergy, R recalls the last bump.
+// the focused card, S starts it, A acknowledges its allergy, R recalls the last bump. On a card
+// whose allergy is unread a bump key only focuses it.
 import { useEffect } from 'react';
 import { needsAllergyAck, type DrinkCard } from '../../domain/lanes';
 import type { BarCommand } from './commands';
@@ -20,7 +21,10 @@ export function useBumpKeys({ cards, focusId, setFocusId, run, recallLast }: Opt
       const focused = at >= 0 ? cards[at] : undefined;
       const bump = (card: DrinkCard | undefined) => {
         if (!card) return;
-        run(needsAllergyAck(card) ? { kind: 'acknowledge-allergy', id: card.id } : { kind: 'bump-drink', id: card.id });
+        // An unread allergy is never read by a bump key: the key only moves the focus ring there,
+        // and the barista confirms with A (or the card's button) as a separate, deliberate act.
+        if (needsAllergyAck(card)) return setFocusId(card.id);
+        run({ kind: 'bump-drink', id: card.id });
       };
       const n = Number(e.key);
       if (n >= 1 && n <= 9) return bump(cards[n - 1]);
