@@ -17,9 +17,18 @@ export class ApiError extends Error {
 
 /** To sign-in, coming back here after; not from sign-in itself or a welcome link (both signed out). */
 export function goToSignIn() {
-  if (typeof window !== 'undefined' && !window.location.pathname.startsWith('/signin') && !window.location.pathname.startsWith('/welcome')) {
-    window.location.assign(`/signin?next=${encodeURIComponent(window.location.pathname + window.location.search)}`);
+  if (typeof window === 'undefined' || leaving) return;
+  if (!window.location.pathname.startsWith('/signin') && !window.location.pathname.startsWith('/welcome')) {
+    leavePage(`/signin?next=${encodeURIComponent(window.location.pathname + window.location.search)}`);
   }
+}
+
+let leaving = false;
+/** Load another page. A request still in flight from the old session (after a PIN switch) may
+ * answer 401 meanwhile; it must not turn this navigation into one to sign-in. */
+export function leavePage(url: string) {
+  leaving = true;
+  window.location.assign(url);
 }
 
 /** A screen's own background refresh: not a person at work, so it doesn't keep an idle session alive. */

@@ -6,7 +6,7 @@ import type { SwitchPerson } from '../../domain/team-schemas';
 import { Button } from '../../components/ui/button';
 import type { PublicUser } from '../../lib/api';
 import { useApi } from '../../lib/api-context';
-import { ApiError, http } from '../../lib/http';
+import { ApiError, http, leavePage } from '../../lib/http';
 import { MyPinForm } from './my-pin-form';
 import { PinPad } from './pin-pad';
 import { switchPeopleQuery } from './queries';
@@ -42,7 +42,7 @@ export function SwitchDialog({ onClose }: { onClose(): void }) {
     try {
       const { user } = await http<{ user: PublicUser }>('POST', '/session/switch', { userId: who.id, pin });
       // a fresh page: the new session's data, and the live socket reconnects as the new person
-      window.location.assign(screenAfterSwitch(window.location.pathname + window.location.search, user.role));
+      leavePage(screenAfterSwitch(window.location.pathname + window.location.search, user.role));
     } catch (err) {
       setPin('');
       setError(err instanceof ApiError ? err.message : 'Could not switch');
