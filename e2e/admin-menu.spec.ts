@@ -60,7 +60,12 @@ test('the owner adds a seasonal drink with its recipe; the open Counter sells it
   await sheet.screenshot({ path: `${SHOTS}/editor-item-form-top.png` });
   await fillSize(sheet, 0, { 'Size name': '12 oz', 'Cup volume': '355', Cup: '12 oz hot cup', Price: '5.60', Shots: '2', Dose: '4', 'Target yield': '36', Milk: '240' });
   await sheet.getByRole('button', { name: '+ Add a size' }).click();
-  await fillSize(sheet, 1, { 'Size name': '16 oz', 'Cup volume': '473', Cup: '16 oz hot cup', Price: '6.20', Shots: '2', Dose: '18', 'Target yield': '36', Milk: '320' });
+  // the new size starts with the espresso of the size before it; cup, price and milk are its own
+  const second = sheet.getByTestId('size-row').nth(1);
+  await expect(second.getByLabel('Shots', { exact: true })).toHaveValue('2');
+  await expect(second.getByLabel('Target yield', { exact: true })).toHaveValue('36');
+  await expect(second.getByLabel('Price', { exact: true })).toHaveValue('');
+  await fillSize(sheet, 1, { 'Size name': '16 oz', 'Cup volume': '473', Cup: '16 oz hot cup', Price: '6.20', Dose: '18', Milk: '320' });
   // 4 g is no dose for two shots: refused beside the field, nothing saved
   await sheet.getByRole('button', { name: 'Add item' }).click();
   await expect(sheet.getByTestId('size-row').first().getByRole('alert')).toHaveText('Dose 5–30 g for a size with shots');

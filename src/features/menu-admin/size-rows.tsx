@@ -14,6 +14,13 @@ import { sizeValues } from './item-values';
 
 type Form = UseFormReturn<ItemFormValues, unknown, ItemBody>;
 
+/** A new size starts with the espresso of the one before (sizes mostly differ in cup, milk and
+ * price, not in the shots), so the owner doesn't type the dose and yield again. */
+function nextSize(previous: ItemFormValues['sizes'][number] | undefined) {
+  const blank = sizeValues(null, previous === undefined);
+  return previous ? { ...blank, shots: previous.shots, doseG: previous.doseG, yieldG: previous.yieldG } : blank;
+}
+
 function RatioHint({ form, index }: { form: Form; index: number }) {
   const [dose, out] = useWatch({ control: form.control, name: [`sizes.${index}.doseG`, `sizes.${index}.yieldG`] });
   const ratio = brewRatio(parseGramsToDg(dose ?? '') ?? 0, parseGramsToDg(out ?? '') ?? 0);
@@ -82,7 +89,7 @@ export function SizeRows({ form, takesMilk, retired, sign }: { form: Form; takes
         );
       })}
       <div className="flex flex-wrap items-center gap-3">
-        <Button tone="quiet" disabled={rows.fields.length >= 8} onClick={() => rows.append(sizeValues(null, rows.fields.length === 0))}>
+        <Button tone="quiet" disabled={rows.fields.length >= 8} onClick={() => rows.append(nextSize(values[values.length - 1]))}>
           + Add a size
         </Button>
         {retired
