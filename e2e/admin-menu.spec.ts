@@ -1,11 +1,14 @@
 // The owner's menu editor, end to end: a seasonal drink added with its recipe shows on an open
 // Counter without a reload, a cashier sells it with oat milk, and the Bar pours the right jug.
 // On a server of its own, so the new category and drink never reach the other specs' Counter.
+import path from 'node:path';
+import os from 'node:os';
 import type { Browser, Page } from '@playwright/test';
 import { errorsOf, expect, signIn, test, watchForErrors, type Login } from './fixtures';
 import { OwnServer } from './own-server';
 
-const SHOTS = '/tmp/jl-menu/shots';
+// extra screenshots to look at (not in the README): under the system's temp folder
+const SHOTS = path.join(os.tmpdir(), 'jugline-shots', 'admin-menu');
 let own: OwnServer;
 
 test.beforeAll(async () => {

@@ -1,10 +1,13 @@
 // The owner's settings screen: units both ways, the wait target, a pitcher and the allergen list —
 // with a Bar and a Counter open beside it that follow each change without a reload.
+import path from 'node:path';
+import os from 'node:os';
 import { mkdirSync } from 'node:fs';
 import { request as apiRequest, type Page } from '@playwright/test';
 import { DEMO_PASSWORD, errorsOf, expect, pageAs, test } from './fixtures';
 
-const SHOTS = '/tmp/jl-settings/shots';
+// extra screenshots to look at (not in the README): under the system's temp folder
+const SHOTS = path.join(os.tmpdir(), 'jugline-shots', 'admin-settings');
 
 const live = (page: Page) => expect(page.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
 const section = (page: Page, name: string) => page.getByRole('form', { name, exact: true });

@@ -5,6 +5,7 @@ import type { AdminMenuView } from '../../src/domain/menu-admin-view';
 import type { Station, Texture } from '../../src/domain/types';
 import { bool, json } from '../db/rows';
 import { notFound } from '../errors';
+import { sizeView } from './menu';
 
 type Db = Knex | Knex.Transaction;
 
@@ -51,19 +52,7 @@ export async function loadAdminMenu(db: Db, locationId: number): Promise<AdminMe
       modifierGroupIds: links.filter((l) => l.item_id === i.id).map((l) => l.group_id),
       sizes: sizes
         .filter((s) => s.item_id === i.id)
-        .map((s) => ({
-          id: s.id,
-          name: s.name,
-          volumeMl: s.volume_ml,
-          cup: s.cup ?? null,
-          priceCents: s.price_cents,
-          shots: s.shots,
-          doseDg: s.dose_dg,
-          yieldDg: s.yield_dg,
-          milkMl: s.milk_ml,
-          isDefault: bool(s.is_default),
-          retired: s.retired_at !== null,
-        })),
+        .map((s) => ({ ...sizeView(s), retired: s.retired_at !== null })),
     })),
     milks: milks.map((m) => ({
       id: m.id,

@@ -32,6 +32,20 @@ export async function loadPitchers(db: Knex | Knex.Transaction, locationId: numb
   return rows.map((p) => ({ capacityMl: p.capacity_ml as number, fillLineMl: p.fill_line_ml as number }));
 }
 
+/** An item_sizes row as the screens see it (the Counter's menu and the back-office editor). */
+export const sizeView = (s: Record<string, any>) => ({
+  id: s.id as number,
+  name: s.name as string,
+  volumeMl: s.volume_ml as number,
+  priceCents: s.price_cents as number,
+  shots: s.shots as number,
+  milkMl: s.milk_ml as number,
+  doseDg: s.dose_dg as number,
+  yieldDg: s.yield_dg as number,
+  isDefault: bool(s.is_default),
+  cup: (s.cup as string | null) ?? null,
+});
+
 export async function loadMenu(db: Knex | Knex.Transaction, locationId: number): Promise<MenuView> {
   const location = await loadLocation(db, locationId);
   const categories = await db('menu_categories')
@@ -79,18 +93,7 @@ export async function loadMenu(db: Knex | Knex.Transaction, locationId: number):
       allergens: json<string[]>(i.allergens, []),
       sizes: sizes
         .filter((s) => s.item_id === i.id)
-        .map((s) => ({
-          id: s.id,
-          name: s.name,
-          volumeMl: s.volume_ml,
-          priceCents: s.price_cents,
-          shots: s.shots,
-          milkMl: s.milk_ml,
-          doseDg: s.dose_dg,
-          yieldDg: s.yield_dg,
-          isDefault: bool(s.is_default),
-          cup: s.cup ?? null,
-        })),
+        .map(sizeView),
       modifierGroupIds: links.filter((l) => l.item_id === i.id).map((l) => l.group_id),
       photoUrl: photoUrlOf(i.photo),
     })),
