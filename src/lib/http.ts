@@ -24,6 +24,8 @@ export function goToSignIn() {
 }
 
 let leaving = false;
+/** A page change has begun: live sockets should not reconnect, screens should not refetch. */
+export const isLeaving = () => leaving;
 /** Load another page. A request still in flight from the old session (after a PIN switch) may
  * answer 401 meanwhile; it must not turn this navigation into one to sign-in. */
 export function leavePage(url: string) {

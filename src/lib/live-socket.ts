@@ -3,7 +3,7 @@
 // that has ended (signed out, or timed out) sends the screen to sign-in.
 import { SCREENS, type ScreenId } from '../domain/screens';
 import type { AnyLiveEvent, BoardSnapshot, ServerMessage } from '../domain/types';
-import { goToSignIn, PASSIVE_REQUEST_HEADER } from './http';
+import { goToSignIn, isLeaving, PASSIVE_REQUEST_HEADER } from './http';
 
 export type LinkState = 'connecting' | 'live' | 'offline';
 
@@ -21,6 +21,11 @@ const PONG_WITHIN_MS = 10_000;
 const MAX_BACKOFF_MS = 10_000;
 /** The server's close code when the socket's session signs out or times out. */
 const SIGNED_OUT = 4401;
+/** The server's close code when this terminal switched person (server/realtime/socket-server.ts). */
+const SWITCHED = 4409;
+/** After a switch the page is about to load again as the new person; a socket reconnecting now
+ * would reload this screen's data with a role that may not see it. */
+const AFTER_SWITCH_MS = 5_000;
 
 /** The screen at a path, if it is one of SCREENS (the server decides which keep a session alive). */
 export function screenAt(pathname: string): ScreenId | undefined {
@@ -86,7 +91,7 @@ export function connectLive(url: string, h: LiveSocketHandlers): () => void {
     };
     ws.onclose = (event) => {
       clearTimers();
-      if (stopped) return;
+      if (stopped || isLeaving()) return;
       if (event.code === SIGNED_OUT) {
         // this session was signed out or timed out (here or on another tab): back to sign-in, no retry
         goToSignIn();
@@ -100,8 +105,8 @@ export function connectLive(url: string, h: LiveSocketHandlers): () => void {
         });
       }
       // 0.5 s, 1 s, 2 s … up to 10 s, with jitter so a room of screens doesn't reconnect at once
-      const delay = Math.min(MAX_BACKOFF_MS, 500 * 2 ** attempts++) * (0.75 + Math.random() / 2);
-      retryTimer = setTimeout(open, delay);
+      const delay = event.code === SWITCHED ? AFTER_SWITCH_MS : Math.min(MAX_BACKOFF_MS, 500 * 2 ** attempts++) * (0.75 + Math.random() / 2);
+      retryTimer = setTimeout(() => isLeaving() || open(), delay);
     };
   }
 
