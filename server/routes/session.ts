@@ -12,11 +12,18 @@ const publicUser = (u: SessionUser) => ({ id: u.id, name: u.name, role: u.role }
 export function sessionRoutes(passport: ReturnType<typeof createPassport>, deps: Deps): ApiRoute[] {
   const signIn = (req: Request, res: Response, next: NextFunction) => {
     req.body = parse(signInBody, req.body);
+    const previous = req.sessionID; // the session the cookie named, if any, and its live sockets
     passport.authenticate('local', { session: true }, (err: unknown, user: SessionUser | false) => {
       if (err) return next(err);
       if (!user) return next(new HttpError(401, 'unauthenticated', 'That name and password do not match'));
       // passport ≥ 0.6 regenerates the session id here, so a planted id is never promoted.
-      req.logIn(user, (loginErr) => (loginErr ? next(loginErr) : res.json({ user: publicUser(user) })));
+      req.logIn(user, (loginErr) => {
+        if (loginErr) return next(loginErr);
+        // the replaced session is over: its screens close now (4401), not at a heartbeat a minute
+        // on, still showing names and allergy notes meanwhile
+        if (previous !== req.sessionID) deps.sessions.emit('signed-out', previous);
+        res.json({ user: publicUser(user) });
+      });
     })(req, res, next);
   };
 

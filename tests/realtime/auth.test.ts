@@ -3,9 +3,11 @@
 import request from 'supertest';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { SESSION_COOKIE } from '../../server/auth/session';
+import { SESSION_ENDED } from '../../server/realtime/socket-server';
 import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
-import { startTestServer, type TestServer } from '../support/test-server';
-import { closeAllSockets, connect, tryUpgrade } from './ws-client';
+import { orderBody } from '../api/helpers';
+import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
+import { closeAllSockets, connect, connectAndResume, tryUpgrade } from './ws-client';
 
 let server: TestServer;
 beforeAll(async () => {
@@ -76,6 +78,37 @@ describe('signing out and origins', () => {
     other.send({ type: 'ping' });
     expect((await other.next((m) => m.type === 'pong')).type).toBe('pong');
     other.socket.close();
+  });
+
+  it('signing in again on a cookie that had a session closes the old session’s sockets at once (4401), before any event', async () => {
+    const cookieOf = (res: request.Response) => ([] as string[]).concat(res.headers['set-cookie']).map((c) => c.split(';')[0]).join('; ');
+    const signIn = (username: string, cookie?: string) => {
+      const req = request(server.url).post('/api/session');
+      return (cookie ? req.set('Cookie', cookie) : req).send({ username, password: DEMO_PASSWORD });
+    };
+    const cookie = cookieOf(await signIn('barista'));
+    const { client: old } = await connectAndResume(server.url, cookie);
+    // whatever the old socket gets first: its close, or the event of the order placed below
+    const first = new Promise<string>((resolve) => {
+      old.socket.once('close', (code) => resolve(`closed ${code}`));
+      old.socket.on('message', (data) => {
+        if (JSON.parse(data.toString()).type === 'event') resolve('an event');
+      });
+    });
+
+    // someone else signs in on the same terminal: the cookie still names the barista's session
+    const again = await signIn('cashier', cookie);
+    expect(again.status).toBe(200);
+    const newCookie = cookieOf(again);
+    expect(newCookie).not.toBe(cookie);
+    const ids = await demoMenu(server);
+    const placed = await request(server.url).post('/api/orders').set('Cookie', newCookie).send(orderBody('Ada Quill', [{ menuItemId: ids.item('Long black') }]));
+    expect(placed.status).toBe(201);
+
+    expect(await first).toBe(`closed ${SESSION_ENDED}`);
+    expect(old.events()).toEqual([]); // not the order, nor anything else, with its name
+    expect(await tryUpgrade(server.url, { Cookie: cookie })).toEqual({ opened: false, status: 401 });
+    expect(await tryUpgrade(server.url, { Cookie: newCookie })).toEqual({ opened: true });
   });
 
   it('refuses an upgrade from another site’s page (Origin check)', async () => {
