@@ -3,7 +3,8 @@ import { mkdtempSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { loadConfig } from '../server/config';
-import { startServer } from '../server/server';
+import { guardProcess } from '../server/process-guard';
+import { appLogger, startServer } from '../server/server';
 
 // E2E_DATABASE_FILE: a test that stops and restarts the server keeps its data (and sessions).
 const databaseFile = process.env.E2E_DATABASE_FILE ?? path.join(mkdtempSync(path.join(os.tmpdir(), 'jugline-e2e-')), 'jugline.sqlite');
@@ -14,7 +15,9 @@ const config = loadConfig({
   DATABASE_FILE: databaseFile,
   SEED_DEMO: 'true',
 });
-const running = await startServer(config, { pages: 'production' });
+const logger = appLogger(config);
+guardProcess(logger);
+const running = await startServer(config, { pages: 'production', logger });
 console.log(`e2e server at ${running.url} on ${config.databaseFile}`);
 const stop = () => running.close().then(() => process.exit(0));
 process.once('SIGTERM', stop);

@@ -91,6 +91,7 @@ export function createApp(opts: AppOptions): App {
     idleMinutes: opts.config.sessionIdleMinutes,
     clock: opts.sessionClock,
     onExpired: (sid) => deps.sessions.emit('signed-out', sid),
+    logger: opts.logger,
   });
   const passport = createPassport(opts.db, opts.sessionClock);
   const routes = [...sessionRoutes(passport, deps), ...orderRoutes(deps), ...ticketRoutes(deps), ...shiftRoutes(deps), ...reportRoutes(deps)];

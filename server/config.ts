@@ -48,6 +48,8 @@ export interface Config {
   stripeWebhookSecret?: string;
   /** Uploaded item photos; unset (as in tests that build a Config by hand): see mediaDirOf. */
   mediaDir?: string;
+  /** SQLite's busy timeout; unset: 5 s (db/knex.ts). Only tests shorten it, to wait less per refusal. */
+  dbBusyTimeoutMs?: number;
 }
 
 export class ConfigError extends Error {}

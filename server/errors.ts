@@ -27,6 +27,19 @@ export class HttpError extends Error {
   }
 }
 
+/**
+ * SQLite's answer when another connection holds the lock past the busy timeout: SQLITE_BUSY or
+ * SQLITE_LOCKED, or one of their extended codes (SQLITE_BUSY_SNAPSHOT, SQLITE_LOCKED_SHAREDCACHE…).
+ * Knex passes better-sqlite3's error on with its `code`.
+ */
+export function isDatabaseBusy(err: unknown): boolean {
+  const code = (err as { code?: unknown } | null | undefined)?.code;
+  return typeof code === 'string' && /^SQLITE_(BUSY|LOCKED)(_|$)/.test(code);
+}
+
+/** What a busy database answers with: the other program's transaction is likely over by then. */
+export const BUSY_RETRY_AFTER_SECONDS = 5;
+
 export const notFound = (what: string) => new HttpError(404, 'not_found', `${what} not found`);
 export const conflict = (message: string, details?: unknown) => new HttpError(409, 'conflict', message, details);
 
@@ -45,8 +58,16 @@ export function parse<T extends z.ZodType>(schema: T, value: unknown, where?: st
   return result.data;
 }
 
-export function errorHandler(err: unknown, _req: Request, res: Response, _next: NextFunction): void {
+export function errorHandler(err: unknown, req: Request, res: Response, _next: NextFunction): void {
   if (res.headersSent) return;
+  if (isDatabaseBusy(err)) {
+    // Nothing of a refused request is kept: without its session, express-session neither saves
+    // nor touches it as the response ends (its `unset: 'keep'`), so no write waits on the lock.
+    (req as { session?: unknown }).session = undefined;
+    res.set('Retry-After', String(BUSY_RETRY_AFTER_SECONDS));
+    res.status(503).json({ error: { code: 'unavailable', message: 'The database is busy; try again in a moment' } });
+    return;
+  }
   if (err instanceof HttpError) {
     res.status(err.status).json({ error: { code: err.code, message: err.message, details: err.details } });
     return;

@@ -1,7 +1,8 @@
 // `npm run dev` and `npm start` land here.
 import { ConfigError, loadConfig } from './config';
 import { demoPasswordStillSet } from '../seeds/demo-cafe';
-import { printSignIns, startServer } from './server';
+import { guardProcess } from './process-guard';
+import { appLogger, printSignIns, startServer } from './server';
 
 async function main() {
   let config;
@@ -14,7 +15,9 @@ async function main() {
     }
     throw err;
   }
-  const running = await startServer(config);
+  const logger = appLogger(config);
+  guardProcess(logger);
+  const running = await startServer(config, { logger });
   if (await demoPasswordStillSet(running.db)) printSignIns(running.url);
   else console.log(`Jugline is serving at ${running.url}`);
 

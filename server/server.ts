@@ -40,8 +40,11 @@ export interface StartOptions {
   logger?: Logger;
 }
 
-export async function prepareDatabase(config: Pick<Config, 'databaseFile' | 'seedDemo'>, log = console.log) {
-  const db = createDb(config.databaseFile);
+/** The app's logger: JSON lines on stdout at LOG_LEVEL, silent in tests. */
+export const appLogger = (config: Pick<Config, 'env' | 'logLevel'>): Logger => createLogger(config.env === 'test' ? 'silent' : (config.logLevel ?? 'info'));
+
+export async function prepareDatabase(config: Pick<Config, 'databaseFile' | 'seedDemo' | 'dbBusyTimeoutMs'>, log = console.log) {
+  const db = createDb(config.databaseFile, { busyTimeoutMs: config.dbBusyTimeoutMs });
   await migrate(db);
   if (config.seedDemo && (await isEmpty(db))) {
     await seedDemoCafe(db);
@@ -68,7 +71,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
     pages,
     mailer: mail.mailer,
     payments: payments.gateway,
-    logger: opts.logger ?? createLogger(config.env === 'test' ? 'silent' : (config.logLevel ?? 'info')),
+    logger: opts.logger ?? appLogger(config),
     mediaDir,
   });
   server.on('request', app);

@@ -3,16 +3,17 @@
 // absolute 4–8 h for a working day), both measured on the server.
 import { randomBytes } from 'node:crypto';
 import type { IncomingMessage } from 'node:http';
-import { ConnectSessionKnexStore } from 'connect-session-knex';
 import type { RequestHandler } from 'express';
 import session from 'express-session';
 import type { Knex } from 'knex';
 import { Passport } from 'passport';
+import type { Logger } from 'pino';
 import { Strategy as LocalStrategy } from 'passport-local';
 import type { SessionUser } from '../../src/domain/types';
 import { PASSIVE_REQUEST_HEADER } from '../../src/lib/http';
 import { bool } from '../db/rows';
 import { hashPassword, verifyPassword } from './passwords';
+import { createSessionStore } from './session-store';
 
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
@@ -31,8 +32,14 @@ export const SESSION_COOKIE = 'jugline.sid';
 export const SESSION_MAX_AGE_MS = 8 * 60 * 60 * 1000;
 /** Idle timeout unless SESSION_IDLE_MINUTES says otherwise (OWASP: 15–30 min for a low-risk app). */
 export const DEFAULT_IDLE_MINUTES = 30;
-/** A wall screen's heartbeat writes its activity at most this often. */
-export const ACTIVITY_WRITE_EVERY_MS = 60_000;
+/**
+ * Activity is written at most once a minute per session (each write waits for a disk sync and
+ * holds the one writer), and never less often than a tenth of the idle limit: the idle clock may
+ * run that much early, never late. A flat minute would sign out a person active every 30 s at
+ * SESSION_IDLE_MINUTES=1.
+ */
+const MAX_ACTIVITY_GAP_MS = 60_000;
+const activityGapMs = (idleMs: number) => Math.min(MAX_ACTIVITY_GAP_MS, Math.floor(idleMs / 10));
 
 /** What a session row keeps about its own age (ms since the epoch, on the session clock). */
 export interface SessionTimes {
@@ -48,13 +55,12 @@ export interface SessionTimes {
 export interface SessionPolicy {
   idleMs: number;
   absoluteMs: number;
+  /** Activity younger than this is not written again (activityGapMs). */
+  activityGapMs: number;
   now(): number;
 }
 
 export type Expiry = 'idle' | 'absolute' | null;
-
-/** Session rows are written at most this often per session by requests that change nothing else. */
-const WRITE_GAP_MS = 60_000;
 
 /** Why a signed-in session is over at `now`, or null while it is good. Missing times count as fresh. */
 export function expiryOf(times: SessionTimes, now: number, policy: Pick<SessionPolicy, 'idleMs' | 'absoluteMs'>): Expiry {
@@ -71,6 +77,8 @@ export interface SessionOptions {
   clock?: () => Date;
   /** Told the id of a session that has just timed out, so its live screens can be closed. */
   onExpired?: (sid: string) => void;
+  /** Where the session store's own failures are logged (a touch or a cleanup that found the database busy). */
+  logger?: Logger;
 }
 
 /** The session middleware, carrying its policy for the live socket's own checks. */
@@ -78,7 +86,8 @@ export type SessionMiddleware = RequestHandler & { policy: SessionPolicy };
 
 export function sessionPolicy(opts: Pick<SessionOptions, 'idleMinutes' | 'clock'> = {}): SessionPolicy {
   const clock = opts.clock ?? (() => new Date());
-  return { idleMs: (opts.idleMinutes ?? DEFAULT_IDLE_MINUTES) * 60_000, absoluteMs: SESSION_MAX_AGE_MS, now: () => clock().getTime() };
+  const idleMs = (opts.idleMinutes ?? DEFAULT_IDLE_MINUTES) * 60_000;
+  return { idleMs, absoluteMs: SESSION_MAX_AGE_MS, activityGapMs: activityGapMs(idleMs), now: () => clock().getTime() };
 }
 
 /** The policy a session middleware was made with (the defaults for any other middleware). */
@@ -86,24 +95,7 @@ export const policyOf = (middleware: RequestHandler): SessionPolicy =>
   (middleware as Partial<SessionMiddleware>).policy ?? sessionPolicy();
 
 export function createSessionMiddleware(db: Knex, secret: string, opts: SessionOptions = {}): SessionMiddleware {
-  const store = new ConnectSessionKnexStore({
-    knex: db,
-    tableName: 'sessions',
-    createTable: false,
-    cleanupInterval: opts.cleanupIntervalMs ?? 15 * 60 * 1000,
-  });
-  // express-session touches the stored row on every request; each write waits for a disk sync
-  // (synchronous=FULL) and holds the one writer. The row's `expired` only serves the cleanup (the
-  // timeouts are kept in the session itself), so once a minute per session is enough.
-  const touch = store.touch.bind(store);
-  const touchedAt = new Map<string, number>();
-  store.touch = async (sid: string, sess: session.SessionData, callback?: () => void) => {
-    const now = Date.now();
-    if (now - (touchedAt.get(sid) ?? 0) < WRITE_GAP_MS) return callback?.();
-    if (touchedAt.size > 10_000) touchedAt.clear();
-    touchedAt.set(sid, now);
-    return touch(sid, sess, callback);
-  };
+  const store = createSessionStore(db, { cleanupIntervalMs: opts.cleanupIntervalMs, logger: opts.logger });
   const base = session({
     name: SESSION_COOKIE,
     secret,
@@ -145,8 +137,7 @@ async function enforceTimeouts(db: Knex, req: SessionRequest, policy: SessionPol
   }
   const person = req.headers.upgrade === undefined && req.headers[PASSIVE_REQUEST_HEADER] === undefined;
   if (s.signedInAt === undefined) return recordActivity(db, req.sessionID, now);
-  // marked active under a minute ago: the idle clock can run a minute early, never late
-  if (person && now - (s.lastActiveAt ?? 0) >= WRITE_GAP_MS) await recordActivity(db, req.sessionID, now);
+  if (person && now - (s.lastActiveAt ?? 0) >= policy.activityGapMs) await recordActivity(db, req.sessionID, now);
 }
 
 /**

@@ -11,7 +11,11 @@ export const migrationConfig: Knex.MigratorConfig = {
   loadExtensions: ['.ts'],
 };
 
-export function createDb(filename: string): Knex {
+/** How long a statement waits for another process's write lock before SQLite answers SQLITE_BUSY. */
+export const DEFAULT_BUSY_TIMEOUT_MS = 5000;
+
+export function createDb(filename: string, opts: { busyTimeoutMs?: number } = {}): Knex {
+  const busyTimeoutMs = Math.trunc(opts.busyTimeoutMs ?? DEFAULT_BUSY_TIMEOUT_MS);
   return knexFactory({
     client: 'better-sqlite3',
     connection: { filename },
@@ -25,7 +29,8 @@ export function createDb(filename: string): Knex {
           conn.pragma('journal_mode = WAL');
           conn.pragma('synchronous = FULL'); // an acknowledged payment survives a power cut
           conn.pragma('foreign_keys = ON');
-          conn.pragma('busy_timeout = 5000');
+          // better-sqlite3 is synchronous: the whole process waits this long (then a 503, errors.ts)
+          conn.pragma(`busy_timeout = ${busyTimeoutMs}`);
           done(null, conn);
         } catch (err) {
           done(err as Error, conn);

@@ -8,7 +8,8 @@ import { can } from '../../src/domain/roles';
 import { clientMessage } from '../../src/domain/schemas';
 import { SCREENS, type ScreenId } from '../../src/domain/screens';
 import type { AnyLiveEvent, ServerMessage, SessionUser } from '../../src/domain/types';
-import { ACTIVITY_WRITE_EVERY_MS, endSession, findActiveUser, policyOf, recordActivity, storedSessionExpiry } from '../auth/session';
+import { endSession, findActiveUser, policyOf, recordActivity, storedSessionExpiry } from '../auth/session';
+import { BUSY_RETRY_AFTER_SECONDS, isDatabaseBusy } from '../errors';
 import type { Deps } from '../services/deps';
 import { eventsSince, latestSeq } from '../services/events';
 import { boardSnapshot } from '../services/tickets';
@@ -106,8 +107,8 @@ export function attachSocketServer(
     return typeof id === 'number' ? findActiveUser(deps.db, id) : null;
   }
 
-  function refuse(socket: Duplex, status: number, text: string) {
-    socket.end(`HTTP/1.1 ${status} ${text}\r\nConnection: close\r\nContent-Length: 0\r\n\r\n`);
+  function refuse(socket: Duplex, status: number, text: string, headers = '') {
+    socket.end(`HTTP/1.1 ${status} ${text}\r\n${headers}Connection: close\r\nContent-Length: 0\r\n\r\n`);
   }
 
   const onUpgrade = (req: IncomingMessage, socket: Duplex, head: Buffer) => {
@@ -125,7 +126,10 @@ export function attachSocketServer(
         const sessionId = (req as unknown as { sessionID: string }).sessionID;
         wss.handleUpgrade(req, socket, head, (ws) => onConnection(ws, user, sessionId));
       },
-      () => refuse(socket, 500, 'Internal Server Error'),
+      (err) =>
+        isDatabaseBusy(err)
+          ? refuse(socket, 503, 'Service Unavailable', `Retry-After: ${BUSY_RETRY_AFTER_SECONDS}\r\n`)
+          : refuse(socket, 500, 'Internal Server Error'),
     );
   };
   server.on('upgrade', onUpgrade);
@@ -263,7 +267,7 @@ export function attachSocketServer(
         closeSession(peer.sessionId, 'session expired');
         return false;
       }
-      if (markActive) await recordActivity(deps.db, peer.sessionId, policy.now(), ACTIVITY_WRITE_EVERY_MS);
+      if (markActive) await recordActivity(deps.db, peer.sessionId, policy.now(), policy.activityGapMs);
       return true;
     } catch {
       return true;

@@ -306,22 +306,60 @@ describe('SESSION_IDLE_MINUTES', () => {
     expect(() => loadConfig({ DATABASE_FILE: file, SESSION_IDLE_MINUTES: value })).toThrow(/SESSION_IDLE_MINUTES/);
   });
 
-  it('sets the idle timeout the server enforces', async () => {
-    const config = loadConfig({ DATABASE_FILE: file, SESSION_IDLE_MINUTES: '15', SESSION_SECRET: randomBytes(32).toString('hex'), NODE_ENV: 'test', PORT: '0' });
-    expect(config.sessionIdleMinutes).toBe(15);
+  /** A server of its own with SESSION_IDLE_MINUTES set, on a manual clock for both clocks. */
+  async function withIdleMinutes(value: string, run: (s: { url: string; clock: ReturnType<typeof manualClock>; signIn(login: DemoLogin): Promise<string> }) => Promise<void>) {
+    const config = loadConfig({ DATABASE_FILE: file, SESSION_IDLE_MINUTES: value, SESSION_SECRET: randomBytes(32).toString('hex'), NODE_ENV: 'test', PORT: '0' });
+    expect(config.sessionIdleMinutes).toBe(Number(value));
     const clock = manualClock();
-    const running = await startServer(config, { pages: 'none', sessionClock: clock.clock, log: () => {} });
+    const running = await startServer(config, { pages: 'none', clock: clock.clock, sessionClock: clock.clock, log: () => {} });
+    const signIn = async (login: DemoLogin) => {
+      const res = await request(running.url).post('/api/session').send({ username: login, password: DEMO_PASSWORD });
+      return setCookies(res).map((c) => c.split(';')[0]).join('; ');
+    };
     try {
-      const signIn = () => request(running.url).post('/api/session').send({ username: 'cashier', password: DEMO_PASSWORD });
-      const cookieOf = (res: request.Response) => setCookies(res).map((c) => c.split(';')[0]).join('; ');
-      const a = cookieOf(await signIn());
-      const b = cookieOf(await signIn());
-      clock.advance(15 * MIN - SECOND);
-      expect((await request(running.url).get('/api/menu').set('Cookie', a)).status).toBe(200);
-      clock.advance(SECOND);
-      expect((await request(running.url).get('/api/menu').set('Cookie', b)).status).toBe(401);
+      await run({ url: running.url, clock, signIn });
     } finally {
       await running.close();
     }
+  }
+
+  it('sets the idle timeout the server enforces', async () => {
+    await withIdleMinutes('15', async ({ url, clock, signIn }) => {
+      const a = await signIn('cashier');
+      const b = await signIn('cashier');
+      clock.advance(15 * MIN - SECOND);
+      expect((await request(url).get('/api/menu').set('Cookie', a)).status).toBe(200);
+      clock.advance(SECOND);
+      expect((await request(url).get('/api/menu').set('Cookie', b)).status).toBe(401);
+    });
+  });
+
+  // The shortest setting allowed: activity is written at most once per a tenth of the idle limit,
+  // never once a minute flat, or a person active every 30 s would be out after 60 s.
+  it('at 1 minute keeps a person active every 30 s signed in for 5 minutes, and signs out after 61 idle seconds', async () => {
+    await withIdleMinutes('1', async ({ url, clock, signIn }) => {
+      const cookie = await signIn('cashier');
+      for (let s = 30; s <= 300; s += 30) {
+        clock.advance(30 * SECOND);
+        expect((await request(url).get('/api/menu').set('Cookie', cookie)).status, `after ${s} s`).toBe(200);
+      }
+      clock.advance(61 * SECOND);
+      expect((await request(url).get('/api/menu').set('Cookie', cookie)).status).toBe(401);
+    });
+  });
+
+  it('at 1 minute keeps a Bar screen signed in on a heartbeat every 30 s', async () => {
+    await withIdleMinutes('1', async ({ url, clock, signIn }) => {
+      const cookie = await signIn('barista');
+      const bar = await connect(url, cookie);
+      const hello = (await bar.next((m) => m.type === 'hello', 'hello')) as { seq: number };
+      bar.send({ type: 'resume', since: hello.seq, screen: 'bar' });
+      for (let s = 30; s <= 300; s += 30) {
+        clock.advance(30 * SECOND);
+        await ping(bar);
+      }
+      expect(bar.socket.readyState).toBe(WebSocket.OPEN);
+      expect((await request(url).get('/api/session').set('Cookie', cookie).set(PASSIVE_REQUEST_HEADER, '1')).body.user).toMatchObject({ role: 'barista' });
+    });
   });
 });

@@ -9,28 +9,22 @@
 //   - the location's realtime log (events.id) is contiguous from 1 to max — no lost or reused seq;
 //   - each bar socket, after a final resume, holds exactly the database's open tickets.
 // Loopback only; each run takes a few seconds (two server starts dominate).
-import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
-import { existsSync, mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
+import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import Database from 'better-sqlite3';
 import WebSocket from 'ws';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
 import type { ServerMessage, TicketView } from '../../src/domain/types';
+import { BuiltServer, ensureBuilt, freePort, signIn, sleep } from './built-server';
 
-const ROOT = path.resolve(import.meta.dirname, '../..');
 const COUNTERS = 3;
 const ORDERS_PER_COUNTER = 150;
 const TOTAL = COUNTERS * ORDERS_PER_COUNTER;
 const RETRY_MS = 40;
 /** Safety nets so a broken run fails instead of hanging; never timing assertions. */
 const RUN_DEADLINE_MS = 50_000;
-const START_DEADLINE_MS = 30_000;
-
-const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
 /** mulberry32: a small seeded random, so a failing kill point can be run again. */
 function seeded(seed: number) {
@@ -42,79 +36,6 @@ function seeded(seed: number) {
     t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
     return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
   };
-}
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const s = createServer();
-    s.once('error', reject);
-    s.listen(0, '127.0.0.1', () => {
-      const { port } = s.address() as { port: number };
-      s.close(() => resolve(port));
-    });
-  });
-}
-
-/** The production server in its own process group, the way e2e/own-server.ts runs it. */
-class CrashableServer {
-  private child: ChildProcess | null = null;
-  log = '';
-  constructor(
-    readonly databaseFile: string,
-    readonly port: number,
-  ) {}
-
-  get url() {
-    return `http://127.0.0.1:${this.port}`;
-  }
-
-  private answers = () =>
-    fetch(`${this.url}/api/session`).then(
-      (r) => r.status,
-      () => 0,
-    );
-
-  async start() {
-    const child = spawn(path.join(ROOT, 'node_modules/.bin/tsx'), ['e2e/serve.ts'], {
-      cwd: ROOT,
-      detached: true, // its own process group: tsx and the node it runs die together
-      env: { ...process.env, E2E_PORT: String(this.port), E2E_DATABASE_FILE: this.databaseFile },
-      stdio: ['ignore', 'pipe', 'pipe'],
-    });
-    child.stdout?.on('data', (d) => (this.log += d));
-    child.stderr?.on('data', (d) => (this.log += d));
-    this.child = child;
-    const until = Date.now() + START_DEADLINE_MS;
-    while ((await this.answers()) !== 200) {
-      if (child.exitCode !== null) throw new Error(`server exited with ${child.exitCode}:\n${this.log}`);
-      if (Date.now() > until) throw new Error(`server did not start:\n${this.log}`);
-      await sleep(50);
-    }
-  }
-
-  /** SIGKILL the process group this test started — no graceful close, no flush. */
-  async kill() {
-    const child = this.child;
-    if (!child?.pid || child.exitCode !== null || child.signalCode !== null) return;
-    this.child = null;
-    const exited = new Promise((resolve) => child.once('exit', resolve));
-    process.kill(-child.pid, 'SIGKILL');
-    await exited;
-    while ((await this.answers()) !== 0) await sleep(20); // the port is closed once the group is gone
-  }
-}
-
-async function signIn(url: string, username: string): Promise<string> {
-  const res = await fetch(`${url}/api/session`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({ username, password: DEMO_PASSWORD }),
-  });
-  if (res.status !== 200) throw new Error(`sign-in as ${username} failed: ${res.status}`);
-  return res.headers
-    .getSetCookie()
-    .map((c) => c.split(';')[0])
-    .join('; ');
 }
 
 interface Ack {
@@ -286,7 +207,7 @@ const dirs: string[] = [];
 async function crashRun(seed: number): Promise<RunResult> {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-faults-'));
   dirs.push(dir);
-  const server = new CrashableServer(path.join(dir, 'jugline.sqlite'), await freePort());
+  const server = new BuiltServer(path.join(dir, 'jugline.sqlite'), await freePort());
   const killAfter = Math.floor(TOTAL * (0.2 + 0.6 * seeded(seed)()));
   const acks: Ack[] = [];
   const problems: string[] = [];
@@ -407,11 +328,7 @@ function check(run: RunResult) {
 }
 
 describe('a server killed with SIGKILL mid-rush', () => {
-  beforeAll(() => {
-    if (existsSync(path.join(ROOT, 'dist/client')) && existsSync(path.join(ROOT, 'dist/server'))) return;
-    const build = spawnSync('npm', ['run', 'build'], { cwd: ROOT, encoding: 'utf8' });
-    if (build.status !== 0) throw new Error(`dist/ is missing and \`npm run build\` failed:\n${build.stdout}\n${build.stderr}`);
-  }, 120_000);
+  beforeAll(ensureBuilt, 120_000);
 
   afterAll(() => {
     for (const dir of dirs) rmSync(dir, { recursive: true, force: true });

@@ -27,7 +27,7 @@ export function manualClock(startIso = '2026-03-02T14:00:00.000Z') {
   return { clock, advance: (ms: number) => (now += ms), set: (iso: string) => (now = Date.parse(iso)) };
 }
 
-export async function startTestServer(opts: { clock?: Clock; sessionClock?: Clock } = {}): Promise<TestServer> {
+export async function startTestServer(opts: { clock?: Clock; sessionClock?: Clock; dbBusyTimeoutMs?: number } = {}): Promise<TestServer> {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-test-'));
   const config: Config = {
     env: 'test',
@@ -36,6 +36,7 @@ export async function startTestServer(opts: { clock?: Clock; sessionClock?: Cloc
     databaseFile: path.join(dir, 'jugline.sqlite'),
     sessionSecret: randomBytes(32).toString('hex'),
     seedDemo: true,
+    dbBusyTimeoutMs: opts.dbBusyTimeoutMs,
   };
   const running = await startServer(config, { pages: 'none', clock: opts.clock, sessionClock: opts.sessionClock, log: () => {} });
 
