@@ -10,8 +10,9 @@ import { SCREENS, type ScreenId } from '../../src/domain/screens';
 import type { AnyLiveEvent, ServerMessage, SessionUser } from '../../src/domain/types';
 import { ACTIVITY_WRITE_EVERY_MS, endSession, findActiveUser, policyOf, recordActivity, storedSessionExpiry } from '../auth/session';
 import type { Deps } from '../services/deps';
-import { eventsSince, latestSeq } from '../services/events';
-import { boardSnapshot } from '../services/tickets';
+import { latestSeq } from '../services/events';
+import { eventFrame, type Audience } from './frames';
+import { createResumeSource } from './resume-source';
 
 /** A screen further behind than this gets a fresh snapshot instead of a replay. */
 export const MAX_REPLAY = 500;
@@ -20,6 +21,25 @@ const MAX_MESSAGE_BYTES = 4096;
 /** Per-socket token bucket: a screen pings every few seconds; a flood is cut off. */
 export const RATE_PER_SECOND = 20;
 export const RATE_BURST = 40;
+/**
+ * Resumes have a bucket of their own: a screen resumes once per connection, yet each resume may
+ * cost a read of the log or a board snapshot. A socket may hold RESUME_BURST and gets one more
+ * every RESUME_REFILL_MS, with one resume at a time; a resume beyond that is refused with
+ * `rate_limited`, and RESUME_STRIKES refusals in a row close the socket (1008).
+ */
+export const RESUME_BURST = 3;
+export const RESUME_REFILL_MS = 10_000;
+export const RESUME_STRIKES = 5;
+/**
+ * Live sockets one sign-in (session) may hold: a browser's tabs share one. A new socket beyond
+ * this closes the oldest rather than being refused: a wall screen that lost its network
+ * reconnects while its old socket still looks open here (until the heartbeat drops it, up to a
+ * minute), and it must get back in at once. The closed socket's screen waits before it tries
+ * again (src/lib/live-socket.ts), so tabs beyond the limit don't take turns evicting each other.
+ */
+export const MAX_SOCKETS_PER_SESSION = 8;
+/** Close code for the oldest socket of a sign-in that opened one too many. */
+export const TOO_MANY_SOCKETS = 4429;
 /**
  * Screens a role opens as a wall display. Their heartbeat keeps the session alive, so a Pickup
  * board or a Bar nobody touches for hours stays signed in (until the absolute limit); any other
@@ -38,6 +58,12 @@ interface Peer {
   /** Events are sent only once the screen has said where it is (`resume`). */
   live: boolean;
   resuming: boolean;
+  /** The shape it is sent: `pickup` once it said it is the Pickup screen, and from then on. */
+  audience: Audience;
+  /** Token bucket for resumes (see RESUME_BURST), and the resumes refused in a row. */
+  resumeTokens: number;
+  resumeRefilledAt: number;
+  resumeStrikes: number;
   pending: AnyLiveEvent[];
   lastSent: number;
   alive: boolean;
@@ -59,23 +85,19 @@ export interface SocketServer {
   sweep(): Promise<void>;
 }
 
-function send(peer: Peer, message: ServerMessage) {
-  if (peer.socket.readyState === WebSocket.OPEN) peer.socket.send(JSON.stringify(message));
+function sendText(peer: Peer, text: string) {
+  if (peer.socket.readyState === WebSocket.OPEN) peer.socket.send(text);
 }
 
-/**
- * One event goes to every screen of its café: it is serialised once, not once per socket (with
- * 1,000 screens that was most of the server's time per order; see BENCHMARKS.md).
- */
-const serialised = new WeakMap<AnyLiveEvent, string>();
+function send(peer: Peer, message: ServerMessage) {
+  sendText(peer, JSON.stringify(message));
+}
 
+/** Each event is serialised once per audience for all the café's screens (frames.ts). */
 function sendEvent(peer: Peer, event: AnyLiveEvent) {
   if (event.seq <= peer.lastSent) return;
   peer.lastSent = event.seq;
-  if (peer.socket.readyState !== WebSocket.OPEN) return;
-  let text = serialised.get(event);
-  if (text === undefined) serialised.set(event, (text = JSON.stringify({ type: 'event', event } satisfies ServerMessage)));
-  peer.socket.send(text);
+  sendText(peer, eventFrame(event, peer.audience));
 }
 
 export function attachSocketServer(
@@ -86,6 +108,7 @@ export function attachSocketServer(
   const wss = new WebSocketServer({ noServer: true, maxPayload: MAX_MESSAGE_BYTES });
   const policy = policyOf(sessionMiddleware);
   const peers = new Set<Peer>();
+  const resumes = createResumeSource(deps, MAX_REPLAY);
 
   /** A browser says where the page came from; only our own pages may open the live socket. */
   function sameOrigin(req: IncomingMessage): boolean {
@@ -134,14 +157,14 @@ export function attachSocketServer(
     peer.resuming = true;
     peer.pending = [];
     try {
-      const missed = await eventsSince(deps.db, peer.user.locationId, since, MAX_REPLAY);
-      if (missed.length > MAX_REPLAY) {
-        const snapshot = await boardSnapshot(deps, peer.user.locationId);
-        peer.lastSent = snapshot.seq;
-        send(peer, { type: 'snapshot', snapshot });
+      // shared with every screen of the café resuming at this seq (resume-source.ts)
+      const answer = await resumes.answer(peer.user.locationId, since);
+      if (answer.kind === 'snapshot') {
+        peer.lastSent = answer.snapshot.seq;
+        sendText(peer, answer.frame(peer.audience));
       } else {
         peer.lastSent = since;
-        for (const e of missed) sendEvent(peer, e);
+        for (const e of answer.events) sendEvent(peer, e);
       }
       // events published while we read the log: sendEvent drops what the replay already sent
       for (const e of peer.pending) sendEvent(peer, e);
@@ -166,13 +189,49 @@ export function attachSocketServer(
     return false;
   }
 
+  /**
+   * A resume is taken when the socket has a resume token and none in flight; otherwise it is
+   * refused with `rate_limited`, and the RESUME_STRIKES-th refusal in a row closes the socket.
+   */
+  function takeResume(peer: Peer): boolean {
+    const now = deps.clock().getTime();
+    const refills = Math.floor(Math.max(0, now - peer.resumeRefilledAt) / RESUME_REFILL_MS);
+    if (refills > 0) {
+      peer.resumeTokens = Math.min(RESUME_BURST, peer.resumeTokens + refills);
+      peer.resumeRefilledAt = peer.resumeTokens === RESUME_BURST ? now : peer.resumeRefilledAt + refills * RESUME_REFILL_MS;
+    }
+    if (!peer.resuming && peer.resumeTokens >= 1) {
+      peer.resumeTokens -= 1;
+      peer.resumeStrikes = 0;
+      return true;
+    }
+    peer.resumeStrikes += 1;
+    send(peer, { type: 'error', code: 'rate_limited', message: 'Resuming too often; wait a moment' });
+    if (peer.resumeStrikes >= RESUME_STRIKES) peer.socket.close(1008, 'resuming too often');
+    return false;
+  }
+
+  /** Makes room for one more socket of this session by closing its oldest (MAX_SOCKETS_PER_SESSION). */
+  function makeRoom(sessionId: string) {
+    const mine = [...peers].filter((p) => p.sessionId === sessionId); // a Set keeps insertion order: oldest first
+    for (const old of mine.slice(0, Math.max(0, mine.length - MAX_SOCKETS_PER_SESSION + 1))) {
+      peers.delete(old); // at once, so a burst of connections counts right
+      old.socket.close(TOO_MANY_SOCKETS, 'too many screens on this sign-in');
+    }
+  }
+
   function onConnection(socket: WebSocket, user: SessionUser, sessionId: string) {
+    makeRoom(sessionId);
     const peer: Peer = {
       socket,
       user,
       sessionId,
       live: false,
       resuming: false,
+      audience: 'staff',
+      resumeTokens: RESUME_BURST,
+      resumeRefilledAt: deps.clock().getTime(),
+      resumeStrikes: 0,
       pending: [],
       lastSent: 0,
       alive: true,
@@ -184,6 +243,7 @@ export function attachSocketServer(
     };
     peers.add(peer);
     const unsubscribe = deps.hub.subscribe(user.locationId, (event) => {
+      if (!peers.has(peer)) return; // closed to make room, still saying goodbye
       if (peer.resuming) peer.pending.push(event);
       else if (peer.live) sendEvent(peer, event);
     });
@@ -223,8 +283,11 @@ export function attachSocketServer(
         });
         return;
       }
+      // The Pickup screen faces customers whatever the role: its shape only ever narrows.
+      if (message.screen === 'pickup') peer.audience = 'pickup';
       peer.wall = isWallScreen(message.screen, user);
       if (peer.wall) void checkSession(peer);
+      if (!takeResume(peer)) return;
       resume(peer, message.since).catch(() => send(peer, { type: 'error', code: 'internal', message: 'Could not resume' }));
     });
     latestSeq(deps.db, user.locationId).then(
@@ -291,6 +354,7 @@ export function attachSocketServer(
   // session that has timed out are closed.
   const heartbeat = setInterval(() => {
     sweep().catch(() => {});
+    resumes.prune();
     for (const peer of peers) {
       if (!peer.alive) {
         peer.socket.terminate();
