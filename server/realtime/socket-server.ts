@@ -13,6 +13,7 @@ import type { Deps } from '../services/deps';
 import { latestSeq } from '../services/events';
 import { eventFrame, type Audience } from './frames';
 import { createResumeSource } from './resume-source';
+import { fullBucket, hasToken, isFull, takeToken, type BucketSize, type TokenBucket } from './token-bucket';
 
 /** A screen further behind than this gets a fresh snapshot instead of a replay. */
 export const MAX_REPLAY = 500;
@@ -21,15 +22,26 @@ const MAX_MESSAGE_BYTES = 4096;
 /** Per-socket token bucket: a screen pings every few seconds; a flood is cut off. */
 export const RATE_PER_SECOND = 20;
 export const RATE_BURST = 40;
+const MESSAGES: BucketSize = { burst: RATE_BURST, perSecond: RATE_PER_SECOND };
 /**
- * Resumes have a bucket of their own: a screen resumes once per connection, yet each resume may
- * cost a read of the log or a board snapshot. A socket may hold RESUME_BURST and gets one more
- * every RESUME_REFILL_MS, with one resume at a time; a resume beyond that is refused with
- * `rate_limited`, and RESUME_STRIKES refusals in a row close the socket (1008).
+ * Resumes have buckets of their own: a screen resumes once per connection, yet each resume may
+ * cost a read of the log or a board snapshot. A socket resumes one at a time, RESUME_BURST at
+ * most and then one every RESUME_REFILL_MS; a resume beyond that is refused with `rate_limited`,
+ * and RESUME_STRIKES refusals in a row close the socket (1008).
  */
 export const RESUME_BURST = 3;
 export const RESUME_REFILL_MS = 10_000;
 export const RESUME_STRIKES = 5;
+const SOCKET_RESUMES: BucketSize = { burst: RESUME_BURST, perSecond: 1000 / RESUME_REFILL_MS };
+/**
+ * A sign-in's sockets share a bucket too, so a screen that reconnects over and over gets no fresh
+ * tokens from each new socket: SESSION_RESUME_BURST (every tab of a browser reconnecting after a
+ * restart, twice over), then one a second. While it is empty a new socket of that sign-in is
+ * refused at the upgrade (429), and a resume on an open one closes it with 1013 (try again
+ * later): either way the screen retries after its backoff and resumes then.
+ */
+export const SESSION_RESUME_BURST = 16;
+const SESSION_RESUMES: BucketSize = { burst: SESSION_RESUME_BURST, perSecond: 1 };
 /**
  * Live sockets one sign-in (session) may hold: a browser's tabs share one. A new socket beyond
  * this closes the oldest rather than being refused: a wall screen that lost its network
@@ -61,15 +73,13 @@ interface Peer {
   /** The shape it is sent: `pickup` once it said it is the Pickup screen, and from then on. */
   audience: Audience;
   /** Token bucket for resumes (see RESUME_BURST), and the resumes refused in a row. */
-  resumeTokens: number;
-  resumeRefilledAt: number;
+  resumes: TokenBucket;
   resumeStrikes: number;
   pending: AnyLiveEvent[];
   lastSent: number;
   alive: boolean;
   /** Token bucket for incoming messages. */
-  tokens: number;
-  refilledAt: number;
+  messages: TokenBucket;
   /** Messages dropped since the bucket ran dry; the first gets a `rate_limited` error. */
   dropped: number;
   /** A wall screen (see WALL_SCREENS) whose role may open it: its pings count as activity. */
@@ -109,6 +119,9 @@ export function attachSocketServer(
   const policy = policyOf(sessionMiddleware);
   const peers = new Set<Peer>();
   const resumes = createResumeSource(deps, MAX_REPLAY);
+  /** Each sign-in's resume bucket (SESSION_RESUME_BURST), forgotten once full again. */
+  const sessionResumes = new Map<string, TokenBucket>();
+  const now = () => deps.clock().getTime();
 
   /** A browser says where the page came from; only our own pages may open the live socket. */
   function sameOrigin(req: IncomingMessage): boolean {
@@ -146,6 +159,8 @@ export function attachSocketServer(
         if (!user) return refuse(socket, 401, 'Unauthorized');
         socket.off('error', onEarlyError);
         const sessionId = (req as unknown as { sessionID: string }).sessionID;
+        const shared = sessionResumes.get(sessionId);
+        if (shared && !hasToken(shared, SESSION_RESUMES, now())) return refuse(socket, 429, 'Too Many Requests');
         wss.handleUpgrade(req, socket, head, (ws) => onConnection(ws, user, sessionId));
       },
       () => refuse(socket, 500, 'Internal Server Error'),
@@ -175,35 +190,18 @@ export function attachSocketServer(
     }
   }
 
-  /** Takes a token for one message; false once the screen sends faster than the bucket refills. */
-  function takeToken(peer: Peer): boolean {
-    const now = deps.clock().getTime();
-    const elapsed = Math.max(0, now - peer.refilledAt);
-    peer.tokens = Math.min(RATE_BURST, peer.tokens + (elapsed * RATE_PER_SECOND) / 1000);
-    peer.refilledAt = Math.max(peer.refilledAt, now);
-    if (peer.tokens >= 1) {
-      peer.tokens -= 1;
-      peer.dropped = 0;
-      return true;
-    }
-    return false;
-  }
-
   /**
-   * A resume is taken when the socket has a resume token and none in flight; otherwise it is
-   * refused with `rate_limited`, and the RESUME_STRIKES-th refusal in a row closes the socket.
+   * A resume goes ahead when none is in flight on the socket and both its bucket and its
+   * sign-in's have a token; see RESUME_BURST and SESSION_RESUME_BURST for what a refusal does.
    */
   function takeResume(peer: Peer): boolean {
-    const now = deps.clock().getTime();
-    const refills = Math.floor(Math.max(0, now - peer.resumeRefilledAt) / RESUME_REFILL_MS);
-    if (refills > 0) {
-      peer.resumeTokens = Math.min(RESUME_BURST, peer.resumeTokens + refills);
-      peer.resumeRefilledAt = peer.resumeTokens === RESUME_BURST ? now : peer.resumeRefilledAt + refills * RESUME_REFILL_MS;
-    }
-    if (!peer.resuming && peer.resumeTokens >= 1) {
-      peer.resumeTokens -= 1;
+    if (!peer.resuming && takeToken(peer.resumes, SOCKET_RESUMES, now())) {
       peer.resumeStrikes = 0;
-      return true;
+      let shared = sessionResumes.get(peer.sessionId);
+      if (!shared) sessionResumes.set(peer.sessionId, (shared = fullBucket(SESSION_RESUMES, now())));
+      if (takeToken(shared, SESSION_RESUMES, now())) return true;
+      peer.socket.close(1013, 'resuming too often on this sign-in; try again later');
+      return false;
     }
     peer.resumeStrikes += 1;
     send(peer, { type: 'error', code: 'rate_limited', message: 'Resuming too often; wait a moment' });
@@ -229,14 +227,12 @@ export function attachSocketServer(
       live: false,
       resuming: false,
       audience: 'staff',
-      resumeTokens: RESUME_BURST,
-      resumeRefilledAt: deps.clock().getTime(),
+      resumes: fullBucket(SOCKET_RESUMES, now()),
       resumeStrikes: 0,
       pending: [],
       lastSent: 0,
       alive: true,
-      tokens: RATE_BURST,
-      refilledAt: deps.clock().getTime(),
+      messages: fullBucket(MESSAGES, now()),
       dropped: 0,
       wall: false,
       gone: false,
@@ -256,7 +252,8 @@ export function attachSocketServer(
       peers.delete(peer);
     });
     socket.on('message', (data) => {
-      if (!takeToken(peer)) {
+      if (takeToken(peer.messages, MESSAGES, now())) peer.dropped = 0;
+      else {
         peer.dropped += 1;
         if (peer.dropped === 1) send(peer, { type: 'error', code: 'rate_limited', message: 'Too many messages; slow down' });
         // still flooding after the warning: 1008 (policy violation); the screen reconnects and resumes
@@ -355,6 +352,7 @@ export function attachSocketServer(
   const heartbeat = setInterval(() => {
     sweep().catch(() => {});
     resumes.prune();
+    for (const [sid, bucket] of sessionResumes) if (isFull(bucket, SESSION_RESUMES, now())) sessionResumes.delete(sid);
     for (const peer of peers) {
       if (!peer.alive) {
         peer.socket.terminate();

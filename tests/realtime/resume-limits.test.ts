@@ -2,7 +2,8 @@
 // board. However many screens ask at once and however often one screen asks, that work stays
 // bounded: screens at one café and one sequence number share one snapshot and one read of the
 // log; a socket that keeps asking is told `rate_limited` and closed; one sign-in holds a limited
-// number of sockets. The work is counted in the queries the server sends its database (only a
+// number of sockets and a limited number of resumes among them (a new socket brings no fresh
+// ones). The work is counted in the queries the server sends its database (only a
 // board snapshot reads `pitchers`; only a replay reads events' payloads), and in messages and
 // closes — never in time. The server runs on a manual clock, so no limit refills during a test.
 import type { Knex } from 'knex';
@@ -14,12 +15,13 @@ import {
   MAX_SOCKETS_PER_SESSION,
   RESUME_BURST,
   RESUME_STRIKES,
+  SESSION_RESUME_BURST,
   TOO_MANY_SOCKETS,
 } from '../../server/realtime/socket-server';
 import type { ServerMessage } from '../../src/domain/types';
 import { demoMenu, manualClock, startTestServer, type DemoLogin, type TestServer } from '../support/test-server';
 import { availabilityEvents, demoLines, demoLocationId, fireOrder, loggedEvents, type Agent } from './bar-actions';
-import { closeAllSockets, connect, type LiveClient } from './ws-client';
+import { closeAllSockets, connect, tryUpgrade, type LiveClient } from './ws-client';
 
 const time = manualClock();
 let server: TestServer;
@@ -149,6 +151,33 @@ describe('the limits', () => {
     await bystander.next((m) => m.type === 'pong', 'pong');
   });
 
+  it(`a sign-in's sockets share ${SESSION_RESUME_BURST} resumes: then a resume closes its socket (1013) and a new socket is refused (429)`, async () => {
+    const cookie = await server.cookieFor('owner');
+    const clients = [];
+    for (let i = 0; i < MAX_SOCKETS_PER_SESSION; i++) clients.push(await screen(cookie));
+    const outcomes: (string | number)[] = [];
+    // one resume at a time, each answered before the next: no socket asks too often on its own
+    for (let round = 0; round < 3; round++) {
+      for (const client of clients) {
+        if (client.socket.readyState !== WebSocket.OPEN) continue;
+        const closed = closeCode(client);
+        client.send({ type: 'resume', since: 0 });
+        const answered = await client.next((m) => m.type === 'snapshot', 'a snapshot').then(
+          () => 'snapshot',
+          () => null, // closed instead
+        );
+        outcomes.push(answered ?? (await closed));
+      }
+    }
+    expect(outcomes).toEqual([...Array(SESSION_RESUME_BURST).fill('snapshot'), ...Array(3 * MAX_SOCKETS_PER_SESSION - SESSION_RESUME_BURST).fill(1013)]);
+    // a screen reconnecting now is turned away before its socket opens
+    expect(await tryUpgrade(server.url, { Cookie: cookie })).toEqual({ opened: false, status: 429 });
+    // another sign-in is not affected
+    const other = await screen(await server.cookieFor('owner'));
+    other.send({ type: 'resume', since: 0 });
+    await other.next((m) => m.type === 'snapshot', 'a snapshot');
+  });
+
   it('a storm of resumes from one sign-in: another screen is answered, the storm is cut off, and the work stays bounded', async () => {
     const storm = await screens(['barista2'], MAX_SOCKETS_PER_SESSION + 4);
     const closes = storm.map(closeCode);
@@ -167,8 +196,9 @@ describe('the limits', () => {
 
     const codes = await Promise.all(closes);
     // every storming socket is closed: the oldest to make room, the rest for asking too often
+    // (1008), or once the sign-in's own resumes ran out (1013)
     expect(codes.filter((c) => c === TOO_MANY_SOCKETS || c === -1)).toHaveLength(4);
-    expect(codes.filter((c) => c === 1008)).toHaveLength(MAX_SOCKETS_PER_SESSION);
+    expect(codes.filter((c) => c === 1008 || c === 1013)).toHaveLength(MAX_SOCKETS_PER_SESSION);
     // 360 resumes were sent; each open socket was answered at most its burst
     const answered = storm.reduce((n, c) => n + snapshotsOf(c).length + c.events().length / 49, 0);
     expect(answered).toBeLessThanOrEqual((MAX_SOCKETS_PER_SESSION + 4) * RESUME_BURST);
