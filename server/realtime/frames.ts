@@ -19,12 +19,22 @@ export function eventFrame(event: AnyLiveEvent, audience: Audience): string {
       : JSON.stringify({ type: 'event', event } satisfies ServerMessage));
 }
 
-/** A snapshot's frame for each audience, each made once, when first asked for. */
-export function snapshotFrames(snapshot: BoardSnapshot): (audience: Audience) => string {
+const NOW = '"now":"';
+
+/**
+ * A snapshot's frame for each audience, each serialised once, when first asked for. A shared
+ * snapshot may be a few seconds old when it is sent again, and screens set their clock by its
+ * `now`: each send writes the time of sending there (an ISO time always has 24 characters).
+ */
+export function snapshotFrames(snapshot: BoardSnapshot): (audience: Audience, nowIso: string) => string {
   const frames: Partial<Record<Audience, string>> = {};
-  return (audience) =>
-    (frames[audience] ??=
+  return (audience, nowIso) => {
+    const frame = (frames[audience] ??=
       audience === 'pickup'
         ? JSON.stringify({ type: 'snapshot', snapshot: pickupView(snapshot) } satisfies PickupServerMessage)
         : JSON.stringify({ type: 'snapshot', snapshot } satisfies ServerMessage));
+    // the first "now" is the snapshot's own: it follows `seq`, before any ticket
+    const at = frame.indexOf(NOW) + NOW.length;
+    return frame.slice(0, at) + nowIso + frame.slice(at + nowIso.length);
+  };
 }

@@ -18,7 +18,7 @@ const KEPT_REPLAYS = 16;
 
 export type ResumeAnswer =
   | { kind: 'replay'; events: AnyLiveEvent[] }
-  | { kind: 'snapshot'; snapshot: BoardSnapshot; frame: (audience: Audience) => string };
+  | { kind: 'snapshot'; snapshot: BoardSnapshot; frame: (audience: Audience, nowIso: string) => string };
 
 type SharedSnapshot = Extract<ResumeAnswer, { kind: 'snapshot' }>;
 

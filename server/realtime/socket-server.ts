@@ -176,7 +176,7 @@ export function attachSocketServer(
       const answer = await resumes.answer(peer.user.locationId, since);
       if (answer.kind === 'snapshot') {
         peer.lastSent = answer.snapshot.seq;
-        sendText(peer, answer.frame(peer.audience));
+        sendText(peer, answer.frame(peer.audience, deps.clock().toISOString()));
       } else {
         peer.lastSent = since;
         for (const e of answer.events) sendEvent(peer, e);
@@ -282,9 +282,9 @@ export function attachSocketServer(
       }
       // The Pickup screen faces customers whatever the role: its shape only ever narrows.
       if (message.screen === 'pickup') peer.audience = 'pickup';
+      if (!takeResume(peer)) return;
       peer.wall = isWallScreen(message.screen, user);
       if (peer.wall) void checkSession(peer);
-      if (!takeResume(peer)) return;
       resume(peer, message.since).catch(() => send(peer, { type: 'error', code: 'internal', message: 'Could not resume' }));
     });
     latestSeq(deps.db, user.locationId).then(

@@ -18,6 +18,7 @@ import {
   SESSION_RESUME_BURST,
   TOO_MANY_SOCKETS,
 } from '../../server/realtime/socket-server';
+import { REUSE_MS } from '../../server/realtime/resume-source';
 import type { ServerMessage } from '../../src/domain/types';
 import { demoMenu, manualClock, startTestServer, type DemoLogin, type TestServer } from '../support/test-server';
 import { availabilityEvents, demoLines, demoLocationId, fireOrder, loggedEvents, type Agent } from './bar-actions';
@@ -97,6 +98,16 @@ describe('resumes share their work', () => {
     const { snapshot } = first as Extract<ServerMessage, { type: 'snapshot' }>;
     expect(snapshot.seq).toBe((await loggedEvents(server, locationId)).at(-1)!.seq);
     expect(snapshot.tickets.map((t) => t.customerName)).toEqual(['Ada', 'Bo', 'Cy']);
+
+    // a moment later, nothing new logged: the same snapshot again, stamped with the time it is sent
+    // (screens set their clock by it)
+    time.advance(REUSE_MS / 2);
+    const later = await screen(await server.cookieFor('lead'));
+    later.send({ type: 'resume', since: 0 });
+    const again = (await later.next((m) => m.type === 'snapshot', 'a snapshot')) as Extract<ServerMessage, { type: 'snapshot' }>;
+    expect(built()).toBe(1);
+    expect(again.snapshot).toEqual({ ...snapshot, now: time.clock().toISOString() });
+    expect(again.snapshot.now).not.toBe(snapshot.now);
   });
 
   it('twelve screens missing the same twenty events read them from the log once', async () => {
