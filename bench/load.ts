@@ -100,9 +100,11 @@ class Screens {
           resolve();
           return;
         }
-        const at = text.indexOf('"customerName":"');
+        // a Pickup socket's tickets carry the first name (the bench's names are one word)
+        const key = text.includes('"customerName":"') ? '"customerName":"' : '"firstName":"';
+        const at = text.indexOf(key);
         if (at < 0) return;
-        const name = text.slice(at + 16, text.indexOf('"', at + 16));
+        const name = text.slice(at + key.length, text.indexOf('"', at + key.length));
         const p = this.pending.get(name);
         if (!p) return;
         p.arrivals++;

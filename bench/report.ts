@@ -3,6 +3,7 @@ import type { RunResult } from './load';
 import type { Timed } from './pages';
 import type { SideResult } from './run';
 import type { Summary } from './stats';
+import type { StormResult } from './storm';
 import type { ScreenWeight } from './weights';
 
 export interface BenchResults {
@@ -14,6 +15,7 @@ export interface BenchResults {
   history: { orders: number; days: number; firstDate: string; lastDate: string };
   bar: (Timed & { drinks: number })[];
   endpoints: Timed[];
+  storm: StormResult;
   weights: ScreenWeight[];
   seconds: number;
 }
@@ -57,6 +59,28 @@ function runRows(j: RunResult, f: RunResult, memJ: SideResult['memory'], memF: S
     [`server memory with ${j.sockets} sockets — RSS / heap+external (MB)`, `${mb(memJ.after.rss)} / ${mb(memJ.after.heapUsed + memJ.after.external)}`, `${mb(memF.after.rss)} / ${mb(memF.after.heapUsed + memF.after.external)}`, ratio(memJ.after.rss, memF.after.rss) + ' (RSS)', ''],
     [`memory per socket (${memJ.sockets} added) — heap+external / RSS (KB)`, `${kb(pj.heap)} / ${kb(pj.rss)}`, `${kb(pf.heap)} / ${kb(pf.rss)}`, ratio(pj.heap, pf.heap) + ' (heap)', ''],
   ];
+}
+
+/** The resume storm: /healthz and a polite screen's resume, before and while one sign-in storms. */
+export function stormTable(s: StormResult): string {
+  const closes = Object.entries(s.closes).map(([code, n]) => `${n}× ${code}`).join(', ') || 'none';
+  return [
+    `### One sign-in storming the live socket with resumes from 0: ${s.sockets} sockets at 20 resumes/s each for ${s.seconds} s, on a board of 300 open drinks`,
+    '',
+    table(
+      ['figure', 'median (ms)', 'p95 (ms)', 'max (ms)', 'requests'],
+      [
+        ['GET /healthz, before the storm', ms(s.rest.p50), ms(s.rest.p95), ms(s.rest.max), s.rest.n],
+        ['GET /healthz, during the storm', ms(s.during.p50), ms(s.during.p95), ms(s.during.max), s.during.n],
+        ["another sign-in's screen: resume from 0 → its snapshot, during the storm", ms(s.bystander.p50), ms(s.bystander.p95), ms(s.bystander.max), s.bystander.n],
+        ["the server's event-loop delay during the storm (p50 / p99 / max, ms)", ms(s.serverLoop.p50), ms(s.serverLoop.p99), ms(s.serverLoop.max), ''],
+        ["the load generator's own event-loop delay during the storm (p99, ms)", '', ms(s.clientLoopP99), '', ''],
+      ],
+    ),
+    '',
+    `The storm sent ${s.sent.toLocaleString('en-US')} resumes; ${s.answered.toLocaleString('en-US')} were answered with a snapshot and ` +
+      `${s.refused.toLocaleString('en-US')} refused (\`rate_limited\`); the server closed storm sockets ${closes} and the storm reconnected ${s.reconnects} times.`,
+  ].join('\n');
 }
 
 export function report(r: BenchResults): string {
@@ -135,6 +159,8 @@ export function report(r: BenchResults): string {
     ),
     '',
   );
+
+  out.push(stormTable(r.storm), '');
 
   out.push(
     '### Client weight per screen (gzip, from the build manifest: entry + the screen\'s chunks and their imports)',

@@ -1,11 +1,13 @@
 // npm run bench [-- --sockets 100 --counters 10 --rate 20 --seconds 20 --big 1000 --dist dist
-//                  --days 365 --port 4326 --out BENCHMARKS.md --no-write --profile <dir>]
+//                  --days 365 --port 4326 --out BENCHMARKS.md --no-write --profile <dir> --storm-only]
 // One run, on fresh databases in a temp folder, against the production build (built first when the
 // folder has none):
 //   1. order → screens: Jugline, then the floor (the same libraries bare), under the same load;
 //   2. a bigger socket count on both (--big; 0 leaves it out);
 //   3. /bar server-rendered with 20, 100 and 300 open drinks, Pulse and the reports over a year;
-//   4. client weight per screen from the build manifest.
+//   4. one sign-in storming the live socket with resumes while /healthz is timed (bench/storm.ts);
+//   5. client weight per screen from the build manifest.
+// --storm-only runs step 4 alone on a fresh server (about 30 s) and writes nothing.
 // Prints one table and writes it into BENCHMARKS.md between its markers.
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
@@ -13,15 +15,17 @@ import path from 'node:path';
 import { parseArgs } from 'node:util';
 import Database from 'better-sqlite3';
 import { generateHistory } from '../scripts/history/generate';
+import { MAX_REPLAY, MAX_SOCKETS_PER_SESSION } from '../server/realtime/socket-server';
 import { prepareDatabase } from '../server/server';
 import { ROOT, startChild, type ServerChild } from './child';
 import type { OrderTemplate } from './floor-server';
 import { closedLoop, closeHarness, connectMeasured, harness, openLoop, signIn, type Harness, type MemoryReading, type OrderBody, type RunResult } from './load';
-import { historyEndpoints, renderBar, type Timed } from './pages';
-import { report, type BenchResults } from './report';
+import { fillOpenDrinks, historyEndpoints, renderBar, type Timed } from './pages';
+import { report, stormTable, type BenchResults } from './report';
+import { resumeStorm, type StormResult } from './storm';
 import { screenWeights } from './weights';
 
-const USAGE = 'Usage: npm run bench -- [--sockets 100] [--counters 10] [--rate 20] [--seconds 20] [--big 1000] [--dist dist] [--days 365] [--port 4326] [--out BENCHMARKS.md] [--no-write] [--profile <dir>]';
+const USAGE = 'Usage: npm run bench -- [--sockets 100] [--counters 10] [--rate 20] [--seconds 20] [--big 1000] [--dist dist] [--days 365] [--port 4326] [--out BENCHMARKS.md] [--no-write] [--profile <dir>] [--storm-only]';
 
 function parsed() {
   try {
@@ -38,6 +42,7 @@ function parsed() {
         out: { type: 'string', default: 'BENCHMARKS.md' },
         'no-write': { type: 'boolean', default: false },
         profile: { type: 'string' },
+        'storm-only': { type: 'boolean', default: false },
         help: { type: 'boolean', short: 'h', default: false },
       },
       strict: true,
@@ -72,7 +77,8 @@ function options() {
     port: int('port', 1024, 65530),
     dist: path.resolve(ROOT, values.dist!),
     out: path.resolve(ROOT, values.out!),
-    write: !values['no-write'],
+    write: !values['no-write'] && !values['storm-only'],
+    stormOnly: values['storm-only']!,
   };
   if (values.profile) process.env.BENCH_PROFILE_DIR = path.resolve(values.profile);
   if (o.big !== 0 && o.big <= o.sockets) o.big = 0; // nothing bigger to try
@@ -156,6 +162,40 @@ export interface SideResult {
 
 type O = ReturnType<typeof options>;
 
+/**
+ * The resume storm (bench/storm.ts) on a board of 300 open drinks, with a log longer than a
+ * replay (a lead 86es an item and puts it back), so each resume from 0 asks for a snapshot.
+ */
+async function stormPhase(server: ServerChild, bodies: OrderBody[]): Promise<StormResult> {
+  const url = server.url;
+  const [cashier, lead, storming, bystander] = await Promise.all(['cashier', 'lead', 'barista2', 'barista'].map((u) => signIn(url, u)));
+  await fillOpenDrinks(url, cashier, bodies, 300);
+  const menu = (await (await fetch(`${url}/api/menu`, { headers: { cookie: lead } })).json()) as { items: MenuItem[] };
+  const item = menu.items.find((i) => i.station === 'counter') ?? menu.items[0];
+  for (let i = 0; i <= MAX_REPLAY; i++) {
+    const res = await fetch(`${url}/api/menu/items/${item.id}/availability`, {
+      method: 'POST',
+      headers: { cookie: lead, 'content-type': 'application/json' },
+      body: JSON.stringify({ available: i % 2 === 0 }),
+    });
+    if (res.status !== 200) throw new Error(`86 toggle answered ${res.status}`);
+  }
+  const result = await resumeStorm(server, storming, bystander);
+  console.log(`  /healthz median ${result.rest.p50.toFixed(1)} ms at rest, ${result.during.p50.toFixed(1)} ms during the storm (max ${result.during.max.toFixed(1)})`);
+  return result;
+}
+
+/** --storm-only: the storm alone, on a fresh server. */
+async function stormOnly(o: O, tmp: string, children: ServerChild[]) {
+  const server = await startChild('jugline-server.ts', { BENCH_PORT: String(o.port), BENCH_DATABASE_FILE: path.join(tmp, 'storm.sqlite'), JUGLINE_DIST: o.dist });
+  children.push(server);
+  const cookie = await signIn(server.url, 'cashier');
+  const bodies = orderBodies(await (await fetch(`${server.url}/api/menu`, { headers: { cookie } })).json());
+  console.log('Resume storm…');
+  const storm = await stormPhase(server, bodies);
+  console.log(`\nLoad average (1 min) now: ${os.loadavg()[0].toFixed(1)} on ${os.cpus().length} cores\n\n${stormTable(storm)}`);
+}
+
 /** The same sequence on either server: sockets, warm-up, the measured run, the big run, saturation. */
 async function orderToScreens(server: ServerChild, o: O, bodies: OrderBody[], cookies: { counters: (string | undefined)[]; socket: (i: number) => string | undefined }, tag: string) {
   const h = harness(server, cookies.counters);
@@ -191,6 +231,7 @@ async function main() {
   };
   try {
     const built = await ensureBuild(o.dist);
+    if (o.stormOnly) return await stormOnly(o, tmp, children);
     const weights = screenWeights(path.join(o.dist, 'client'));
 
     // 1. Jugline
@@ -200,9 +241,11 @@ async function main() {
     children.push(jugline);
     const counterCookies: string[] = [];
     for (let i = 0; i < o.counters; i++) counterCookies.push(await signIn(jugline.url, 'cashier'));
-    // one session per screen, as on real tablets (up to 100: a bcrypt sign-in costs ~0.1 s)
+    // one session per screen, as on real tablets (up to 100: a bcrypt sign-in costs ~0.1 s), and
+    // enough that none holds more sockets than one sign-in may (MAX_SOCKETS_PER_SESSION)
     const screenCookies: string[] = [];
-    const sessions = Math.min(100, Math.max(o.sockets, o.big));
+    const screens = Math.max(o.sockets, o.big);
+    const sessions = Math.max(Math.min(100, screens), Math.ceil(screens / MAX_SOCKETS_PER_SESSION));
     for (let i = 0; i < sessions; i++) screenCookies.push(await signIn(jugline.url, i % 4 === 3 ? 'cashier' : i % 2 ? 'barista2' : 'barista'));
     const menu = await (await fetch(`${jugline.url}/api/menu`, { headers: { cookie: counterCookies[0] } })).json();
     const bodies = orderBodies(menu);
@@ -237,6 +280,8 @@ async function main() {
     const bar = await renderBar(hist.url, cashier, barista, bodies, [20, 100, 300]);
     console.log('Pulse and reports…');
     const endpoints: Timed[] = await historyEndpoints(hist.url, lead, owner, history.firstDate!, history.lastDate!);
+    console.log('Resume storm…');
+    const storm = await stormPhase(hist, bodies);
     await hist.stop();
     children.pop();
 
@@ -258,6 +303,7 @@ async function main() {
       history: { orders: history.orders, days: history.days, firstDate: history.firstDate!, lastDate: history.lastDate! },
       bar,
       endpoints,
+      storm,
       weights,
       seconds: (performance.now() - started) / 1000,
     };

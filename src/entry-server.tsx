@@ -1,6 +1,6 @@
 // Server rendering: run the matched routes' loaders into a fresh QueryClient for this request,
 // render the screen to HTML, and hand the data to the browser as non-executable JSON.
-import { dehydrate, QueryClient, QueryClientProvider } from '@tanstack/react-query';
+import { defaultShouldDehydrateQuery, dehydrate, QueryClient, QueryClientProvider, type Query } from '@tanstack/react-query';
 import { StrictMode } from 'react';
 import { renderToString } from 'react-dom/server';
 import { createStaticHandler, createStaticRouter, StaticRouterProvider } from 'react-router';
@@ -8,7 +8,7 @@ import type { Api } from './lib/api';
 import { ApiContext } from './lib/api-context';
 import { escapeHtml, jsonForScript } from './lib/html';
 import { createRoutes, SCREEN_FILES } from './routes';
-import { headOf, titleOf } from './routes/root';
+import { embedOf, headOf, titleOf } from './routes/root';
 
 export type RenderResult =
   | { kind: 'redirect'; status: number; location: string }
@@ -41,11 +41,14 @@ export async function render(request: Request, api: Api): Promise<RenderResult> 
       </ApiContext.Provider>
     </StrictMode>,
   );
+  const handles = context.matches.map((m) => ({ handle: m.route.handle }));
+  // A customer-facing screen embeds only its own queries (not, say, who is signed in).
+  const embed = embedOf(handles);
+  const embedded = (q: Query) => defaultShouldDehydrateQuery(q) && (!embed || embed.some((key) => key.every((part, i) => q.queryKey[i] === part)));
   const state = {
-    query: dehydrate(queryClient),
+    query: dehydrate(queryClient, { shouldDehydrateQuery: embedded }),
     router: { loaderData: context.loaderData, actionData: context.actionData, errors: context.errors },
   };
-  const handles = context.matches.map((m) => ({ handle: m.route.handle }));
   const head = `<title>${escapeHtml(titleOf(handles))}</title>${headOf(handles)}`;
   const modules = context.matches.flatMap((m) => (SCREEN_FILES[m.route.id] ? [SCREEN_FILES[m.route.id]] : []));
   return { kind: 'page', status: context.statusCode, head, html, state: jsonForScript(state), modules };

@@ -11,8 +11,10 @@ import type { AnyLiveEvent, ServerMessage, SessionUser } from '../../src/domain/
 import { endSession, findActiveUser, policyOf, recordActivity, storedSessionExpiry } from '../auth/session';
 import { BUSY_RETRY_AFTER_SECONDS, isDatabaseBusy } from '../errors';
 import type { Deps } from '../services/deps';
-import { eventsSince, latestSeq } from '../services/events';
-import { boardSnapshot } from '../services/tickets';
+import { latestSeq } from '../services/events';
+import { eventFrame, type Audience } from './frames';
+import { createResumeSource } from './resume-source';
+import { fullBucket, hasToken, isFull, takeToken, type BucketSize, type TokenBucket } from './token-bucket';
 
 /** A screen further behind than this gets a fresh snapshot instead of a replay. */
 export const MAX_REPLAY = 500;
@@ -21,6 +23,36 @@ const MAX_MESSAGE_BYTES = 4096;
 /** Per-socket token bucket: a screen pings every few seconds; a flood is cut off. */
 export const RATE_PER_SECOND = 20;
 export const RATE_BURST = 40;
+const MESSAGES: BucketSize = { burst: RATE_BURST, perSecond: RATE_PER_SECOND };
+/**
+ * Resumes have buckets of their own: a screen resumes once per connection, yet each resume may
+ * cost a read of the log or a board snapshot. A socket resumes one at a time, RESUME_BURST at
+ * most and then one every RESUME_REFILL_MS; a resume beyond that is refused with `rate_limited`,
+ * and RESUME_STRIKES refusals in a row close the socket (1008).
+ */
+export const RESUME_BURST = 3;
+export const RESUME_REFILL_MS = 10_000;
+export const RESUME_STRIKES = 5;
+const SOCKET_RESUMES: BucketSize = { burst: RESUME_BURST, perSecond: 1000 / RESUME_REFILL_MS };
+/**
+ * A sign-in's sockets share a bucket too, so a screen that reconnects over and over gets no fresh
+ * tokens from each new socket: SESSION_RESUME_BURST (every tab of a browser reconnecting after a
+ * restart, twice over), then one a second. While it is empty a new socket of that sign-in is
+ * refused at the upgrade (429), and a resume on an open one closes it with 1013 (try again
+ * later): either way the screen retries after its backoff and resumes then.
+ */
+export const SESSION_RESUME_BURST = 16;
+const SESSION_RESUMES: BucketSize = { burst: SESSION_RESUME_BURST, perSecond: 1 };
+/**
+ * Live sockets one sign-in (session) may hold: a browser's tabs share one. A new socket beyond
+ * this closes the oldest rather than being refused: a wall screen that lost its network
+ * reconnects while its old socket still looks open here (until the heartbeat drops it, up to a
+ * minute), and it must get back in at once. The closed socket's screen waits before it tries
+ * again (src/lib/live-socket.ts), so tabs beyond the limit don't take turns evicting each other.
+ */
+export const MAX_SOCKETS_PER_SESSION = 8;
+/** Close code for the oldest socket of a sign-in that opened one too many. */
+export const TOO_MANY_SOCKETS = 4429;
 /**
  * Screens a role opens as a wall display. Their heartbeat keeps the session alive, so a Pickup
  * board or a Bar nobody touches for hours stays signed in (until the absolute limit); any other
@@ -39,12 +71,16 @@ interface Peer {
   /** Events are sent only once the screen has said where it is (`resume`). */
   live: boolean;
   resuming: boolean;
+  /** The shape it is sent: `pickup` once it said it is the Pickup screen, and from then on. */
+  audience: Audience;
+  /** Token bucket for resumes (see RESUME_BURST), and the resumes refused in a row. */
+  resumes: TokenBucket;
+  resumeStrikes: number;
   pending: AnyLiveEvent[];
   lastSent: number;
   alive: boolean;
   /** Token bucket for incoming messages. */
-  tokens: number;
-  refilledAt: number;
+  messages: TokenBucket;
   /** Messages dropped since the bucket ran dry; the first gets a `rate_limited` error. */
   dropped: number;
   /** A wall screen (see WALL_SCREENS) whose role may open it: its pings count as activity. */
@@ -60,23 +96,19 @@ export interface SocketServer {
   sweep(): Promise<void>;
 }
 
-function send(peer: Peer, message: ServerMessage) {
-  if (peer.socket.readyState === WebSocket.OPEN) peer.socket.send(JSON.stringify(message));
+function sendText(peer: Peer, text: string) {
+  if (peer.socket.readyState === WebSocket.OPEN) peer.socket.send(text);
 }
 
-/**
- * One event goes to every screen of its café: it is serialised once, not once per socket (with
- * 1,000 screens that was most of the server's time per order; see BENCHMARKS.md).
- */
-const serialised = new WeakMap<AnyLiveEvent, string>();
+function send(peer: Peer, message: ServerMessage) {
+  sendText(peer, JSON.stringify(message));
+}
 
+/** Each event is serialised once per audience for all the café's screens (frames.ts). */
 function sendEvent(peer: Peer, event: AnyLiveEvent) {
   if (event.seq <= peer.lastSent) return;
   peer.lastSent = event.seq;
-  if (peer.socket.readyState !== WebSocket.OPEN) return;
-  let text = serialised.get(event);
-  if (text === undefined) serialised.set(event, (text = JSON.stringify({ type: 'event', event } satisfies ServerMessage)));
-  peer.socket.send(text);
+  sendText(peer, eventFrame(event, peer.audience));
 }
 
 export function attachSocketServer(
@@ -87,6 +119,10 @@ export function attachSocketServer(
   const wss = new WebSocketServer({ noServer: true, maxPayload: MAX_MESSAGE_BYTES });
   const policy = policyOf(sessionMiddleware);
   const peers = new Set<Peer>();
+  const resumes = createResumeSource(deps, MAX_REPLAY);
+  /** Each sign-in's resume bucket (SESSION_RESUME_BURST), forgotten once full again. */
+  const sessionResumes = new Map<string, TokenBucket>();
+  const now = () => deps.clock().getTime();
 
   /** A browser says where the page came from; only our own pages may open the live socket. */
   function sameOrigin(req: IncomingMessage): boolean {
@@ -124,6 +160,8 @@ export function attachSocketServer(
         if (!user) return refuse(socket, 401, 'Unauthorized');
         socket.off('error', onEarlyError);
         const sessionId = (req as unknown as { sessionID: string }).sessionID;
+        const shared = sessionResumes.get(sessionId);
+        if (shared && !hasToken(shared, SESSION_RESUMES, now())) return refuse(socket, 429, 'Too Many Requests');
         wss.handleUpgrade(req, socket, head, (ws) => onConnection(ws, user, sessionId));
       },
       (err) =>
@@ -138,14 +176,14 @@ export function attachSocketServer(
     peer.resuming = true;
     peer.pending = [];
     try {
-      const missed = await eventsSince(deps.db, peer.user.locationId, since, MAX_REPLAY);
-      if (missed.length > MAX_REPLAY) {
-        const snapshot = await boardSnapshot(deps, peer.user.locationId);
-        peer.lastSent = snapshot.seq;
-        send(peer, { type: 'snapshot', snapshot });
+      // shared with every screen of the café resuming at this seq (resume-source.ts)
+      const answer = await resumes.answer(peer.user.locationId, since);
+      if (answer.kind === 'snapshot') {
+        peer.lastSent = answer.snapshot.seq;
+        sendText(peer, answer.frame(peer.audience, deps.clock().toISOString()));
       } else {
         peer.lastSent = since;
-        for (const e of missed) sendEvent(peer, e);
+        for (const e of answer.events) sendEvent(peer, e);
       }
       // events published while we read the log: sendEvent drops what the replay already sent
       for (const e of peer.pending) sendEvent(peer, e);
@@ -156,38 +194,56 @@ export function attachSocketServer(
     }
   }
 
-  /** Takes a token for one message; false once the screen sends faster than the bucket refills. */
-  function takeToken(peer: Peer): boolean {
-    const now = deps.clock().getTime();
-    const elapsed = Math.max(0, now - peer.refilledAt);
-    peer.tokens = Math.min(RATE_BURST, peer.tokens + (elapsed * RATE_PER_SECOND) / 1000);
-    peer.refilledAt = Math.max(peer.refilledAt, now);
-    if (peer.tokens >= 1) {
-      peer.tokens -= 1;
-      peer.dropped = 0;
-      return true;
+  /**
+   * A resume goes ahead when none is in flight on the socket and both its bucket and its
+   * sign-in's have a token; see RESUME_BURST and SESSION_RESUME_BURST for what a refusal does.
+   */
+  function takeResume(peer: Peer): boolean {
+    if (!peer.resuming && takeToken(peer.resumes, SOCKET_RESUMES, now())) {
+      peer.resumeStrikes = 0;
+      let shared = sessionResumes.get(peer.sessionId);
+      if (!shared) sessionResumes.set(peer.sessionId, (shared = fullBucket(SESSION_RESUMES, now())));
+      if (takeToken(shared, SESSION_RESUMES, now())) return true;
+      peer.socket.close(1013, 'resuming too often on this sign-in; try again later');
+      return false;
     }
+    peer.resumeStrikes += 1;
+    send(peer, { type: 'error', code: 'rate_limited', message: 'Resuming too often; wait a moment' });
+    if (peer.resumeStrikes >= RESUME_STRIKES) peer.socket.close(1008, 'resuming too often');
     return false;
   }
 
+  /** Makes room for one more socket of this session by closing its oldest (MAX_SOCKETS_PER_SESSION). */
+  function makeRoom(sessionId: string) {
+    const mine = [...peers].filter((p) => p.sessionId === sessionId); // a Set keeps insertion order: oldest first
+    for (const old of mine.slice(0, Math.max(0, mine.length - MAX_SOCKETS_PER_SESSION + 1))) {
+      peers.delete(old); // at once, so a burst of connections counts right
+      old.socket.close(TOO_MANY_SOCKETS, 'too many screens on this sign-in');
+    }
+  }
+
   function onConnection(socket: WebSocket, user: SessionUser, sessionId: string) {
+    makeRoom(sessionId);
     const peer: Peer = {
       socket,
       user,
       sessionId,
       live: false,
       resuming: false,
+      audience: 'staff',
+      resumes: fullBucket(SOCKET_RESUMES, now()),
+      resumeStrikes: 0,
       pending: [],
       lastSent: 0,
       alive: true,
-      tokens: RATE_BURST,
-      refilledAt: deps.clock().getTime(),
+      messages: fullBucket(MESSAGES, now()),
       dropped: 0,
       wall: false,
       gone: false,
     };
     peers.add(peer);
     const unsubscribe = deps.hub.subscribe(user.locationId, (event) => {
+      if (!peers.has(peer)) return; // closed to make room, still saying goodbye
       if (peer.resuming) peer.pending.push(event);
       else if (peer.live) sendEvent(peer, event);
     });
@@ -200,7 +256,8 @@ export function attachSocketServer(
       peers.delete(peer);
     });
     socket.on('message', (data) => {
-      if (!takeToken(peer)) {
+      if (takeToken(peer.messages, MESSAGES, now())) peer.dropped = 0;
+      else {
         peer.dropped += 1;
         if (peer.dropped === 1) send(peer, { type: 'error', code: 'rate_limited', message: 'Too many messages; slow down' });
         // still flooding after the warning: 1008 (policy violation); the screen reconnects and resumes
@@ -227,6 +284,9 @@ export function attachSocketServer(
         });
         return;
       }
+      // The Pickup screen faces customers whatever the role: its shape only ever narrows.
+      if (message.screen === 'pickup') peer.audience = 'pickup';
+      if (!takeResume(peer)) return;
       peer.wall = isWallScreen(message.screen, user);
       if (peer.wall) void checkSession(peer);
       resume(peer, message.since).catch(() => send(peer, { type: 'error', code: 'internal', message: 'Could not resume' }));
@@ -295,6 +355,8 @@ export function attachSocketServer(
   // session that has timed out are closed.
   const heartbeat = setInterval(() => {
     sweep().catch(() => {});
+    resumes.prune();
+    for (const [sid, bucket] of sessionResumes) if (isFull(bucket, SESSION_RESUMES, now())) sessionResumes.delete(sid);
     for (const peer of peers) {
       if (!peer.alive) {
         peer.socket.terminate();

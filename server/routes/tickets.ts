@@ -1,5 +1,6 @@
 import { drinkBatchBody, idParam, ticketsQuery } from '../../src/domain/schemas';
-import { openTickets, pickupView } from '../../src/domain/tickets';
+import { pickupView } from '../../src/domain/pickup';
+import { openTickets } from '../../src/domain/tickets';
 import { userOf } from '../auth/guards';
 import { parse } from '../errors';
 import type { Deps } from '../services/deps';

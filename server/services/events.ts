@@ -86,3 +86,12 @@ export async function eventsSince(db: Knex, locationId: number, since: number, l
     ...(typeof r.payload === 'string' ? JSON.parse(r.payload) : r.payload),
   }));
 }
+
+/**
+ * Whether more than `n` events follow `since`: one probe along the (location_id, id) index, so a
+ * screen too far behind for a replay costs no read of the payloads it would never be sent.
+ */
+export async function moreEventsThan(db: Knex, locationId: number, since: number, n: number): Promise<boolean> {
+  const row = await db('events').where({ location_id: locationId }).andWhere('id', '>', since).orderBy('id').offset(n).first('id');
+  return row !== undefined;
+}

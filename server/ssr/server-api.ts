@@ -1,6 +1,6 @@
 // The screens' Api during server rendering: straight to the services, as the signed-in user.
 import type { Api } from '../../src/lib/api';
-import { pickupView } from '../../src/domain/tickets';
+import { pickupView } from '../../src/domain/pickup';
 import type { SessionUser } from '../../src/domain/types';
 import { HttpError } from '../errors';
 import type { Deps } from '../services/deps';

@@ -1,6 +1,7 @@
 // What screens read, as one interface: over HTTP in the browser, straight from the services
 // during server rendering (so a page render makes no network round trip).
 import type { OutboxView } from '../domain/outbox';
+import type { PickupBoard } from '../domain/pickup';
 import type { PulseView } from '../domain/pulse';
 import type { Role } from '../domain/roles';
 import type { BoardSnapshot, MenuView, OrderView } from '../domain/types';
@@ -21,7 +22,8 @@ export interface Api {
   session(): Promise<{ user: PublicUser | null }>;
   menu(): Promise<MenuView>;
   tickets(): Promise<BoardSnapshot>;
-  pickup(): Promise<BoardSnapshot>;
+  /** The Pickup screen's board: first names, numbers, status and ready times only. */
+  pickup(): Promise<PickupBoard>;
   /** Today's orders, newest first; `q` matches a name or number. */
   orders(q?: string): Promise<{ orders: OrderView[] }>;
   order(id: number): Promise<{ order: OrderView }>;

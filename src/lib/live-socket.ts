@@ -2,15 +2,20 @@
 // hands events on, answers heartbeats, and reconnects with backoff when the line drops. A session
 // that has ended (signed out, or timed out) sends the screen to sign-in.
 import { SCREENS, type ScreenId } from '../domain/screens';
+import type { PickupServerMessage } from '../domain/pickup';
 import type { AnyLiveEvent, BoardSnapshot, ServerMessage } from '../domain/types';
 import { goToSignIn, isLeaving, PASSIVE_REQUEST_HEADER } from './http';
 
 export type LinkState = 'connecting' | 'live' | 'offline';
 
-export interface LiveSocketHandlers {
+/**
+ * The screen's handlers. The events and snapshots are the full ones, or the Pickup screen's
+ * (src/domain/pickup.ts) on a socket whose `screen` is `pickup`: the server shapes them by screen.
+ */
+export interface LiveSocketHandlers<E = AnyLiveEvent, S = BoardSnapshot> {
   lastSeq(): number;
-  onEvent(event: AnyLiveEvent): void;
-  onSnapshot(snapshot: BoardSnapshot): void;
+  onEvent(event: E): void;
+  onSnapshot(snapshot: S): void;
   onState(state: LinkState): void;
   /** The screen this socket serves; by default the one at the page's path. */
   screen?: ScreenId;
@@ -23,6 +28,10 @@ const MAX_BACKOFF_MS = 10_000;
 const SIGNED_OUT = 4401;
 /** The server's close code when this terminal switched person (server/realtime/socket-server.ts). */
 const SWITCHED = 4409;
+/** The server's close code for the oldest socket of a sign-in with too many (MAX_SOCKETS_PER_SESSION). */
+const TOO_MANY_SOCKETS = 4429;
+/** After that close: long enough that tabs beyond the limit don't take turns closing each other. */
+const AFTER_TOO_MANY_MS = 30_000;
 /** After a switch the page is about to load again as the new person; a socket reconnecting now
  * would reload this screen's data with a role that may not see it. */
 const AFTER_SWITCH_MS = 5_000;
@@ -53,7 +62,7 @@ export function onLiveConnected(listener: () => void): () => void {
   return () => void connectedListeners.delete(listener);
 }
 
-export function connectLive(url: string, h: LiveSocketHandlers): () => void {
+export function connectLive<E = AnyLiveEvent, S = BoardSnapshot>(url: string, h: LiveSocketHandlers<E, S>): () => void {
   let socket: WebSocket | null = null;
   let attempts = 0;
   let stopped = false;
@@ -81,13 +90,13 @@ export function connectLive(url: string, h: LiveSocketHandlers): () => void {
       }, PING_EVERY_MS);
     };
     ws.onmessage = (msg) => {
-      const m = JSON.parse(String(msg.data)) as ServerMessage;
+      const m = JSON.parse(String(msg.data)) as ServerMessage | PickupServerMessage;
       if (m.type === 'hello') {
         h.onState('live');
         for (const listener of connectedListeners) listener();
       } else if (m.type === 'pong') clearTimeout(pongTimer);
-      else if (m.type === 'event') h.onEvent(m.event);
-      else if (m.type === 'snapshot') h.onSnapshot(m.snapshot);
+      else if (m.type === 'event') h.onEvent(m.event as E);
+      else if (m.type === 'snapshot') h.onSnapshot(m.snapshot as S);
     };
     ws.onclose = (event) => {
       clearTimers();
@@ -105,7 +114,8 @@ export function connectLive(url: string, h: LiveSocketHandlers): () => void {
         });
       }
       // 0.5 s, 1 s, 2 s … up to 10 s, with jitter so a room of screens doesn't reconnect at once
-      const delay = event.code === SWITCHED ? AFTER_SWITCH_MS : Math.min(MAX_BACKOFF_MS, 500 * 2 ** attempts++) * (0.75 + Math.random() / 2);
+      const backoff = () => Math.min(MAX_BACKOFF_MS, 500 * 2 ** attempts++) * (0.75 + Math.random() / 2);
+      const delay = event.code === SWITCHED ? AFTER_SWITCH_MS : event.code === TOO_MANY_SOCKETS ? AFTER_TOO_MANY_MS : backoff();
       retryTimer = setTimeout(() => isLeaving() || open(), delay);
     };
   }

@@ -1,26 +1,29 @@
-// The Pickup board for customers: first names and numbers only, "Being made" and "Ready".
+// The Pickup board for customers: first names and numbers only, "Being made" and "Ready". It is
+// sent nothing more (src/domain/pickup.ts): its API, its live socket and its page's embedded data
+// carry first name, number, status and ready time, whoever is signed in on it.
 import { useSuspenseQuery } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router';
+import type { PickupTicket } from '../domain/pickup';
 import { pickupBoard } from '../domain/tickets';
-import type { TicketView } from '../domain/types';
 import { LinkStateBadge } from '../components/ui/link-state';
-import { pickupBoardQuery } from '../features/board/queries';
+import { boardKeys, pickupBoardQuery } from '../features/board/queries';
 import { useLiveBoard } from '../features/board/use-live-board';
 import { useApi } from '../lib/api-context';
 import { cn } from '../lib/cn';
 import { useNow } from '../lib/use-now';
 import { requireScreen, type RouteDeps } from './deps';
+import type { RouteHandle } from './root';
 import { SCREENS } from '../domain/screens';
 
 /** A name that turned ready this recently gets the slow underline. */
 const FRESH_MS = 20_000;
 
-function NameRow({ t, fresh }: { t: TicketView; fresh?: boolean }) {
+function NameRow({ t, fresh }: { t: PickupTicket; fresh?: boolean }) {
   return (
     // min-w-0 + truncate: a long name is cut with "…" and never pushes the number out of sight
     <li data-testid="pickup-name" className="flex min-w-0 items-baseline gap-5">
-      <span title={t.customerName} className={cn('min-w-0 truncate font-display text-8xl leading-tight font-semibold', fresh && 'ready-fresh')}>
-        {t.customerName}
+      <span title={t.firstName} className={cn('min-w-0 truncate font-display text-8xl leading-tight font-semibold', fresh && 'ready-fresh')}>
+        {t.firstName}
       </span>
       <span className="shrink-0 font-display text-5xl text-crema-300">#{t.number}</span>
     </li>
@@ -29,7 +32,7 @@ function NameRow({ t, fresh }: { t: TicketView; fresh?: boolean }) {
 
 function Pickup() {
   const { data: board } = useSuspenseQuery(pickupBoardQuery(useApi()));
-  const link = useLiveBoard();
+  const link = useLiveBoard('pickup');
   const now = useNow(Date.parse(board.now));
   const shown = board.tickets.filter((t) => pickupBoard(board.location.pickupTimeoutSeconds)(t, now));
   const making = shown.filter((t) => t.status === 'open');
@@ -72,7 +75,8 @@ function Pickup() {
 
 export const pickupRoute = (deps: RouteDeps) => ({
   Component: Pickup,
-  handle: { title: 'Pickup' },
+  // the page embeds the board only: not the session, which names the person signed in
+  handle: { title: 'Pickup', embed: [boardKeys.pickup] } satisfies RouteHandle,
   loader: async ({ request }: LoaderFunctionArgs) => {
     await requireScreen(deps, request, SCREENS.pickup.need);
     await deps.queryClient.ensureQueryData(pickupBoardQuery(deps.api));

@@ -5,6 +5,20 @@ export interface RouteHandle {
   title?: string;
   /** Extra markup for the page head, rendered on the server (e.g. a no-script refresh). */
   head?: string;
+  /**
+   * The queries whose data the server-rendered page embeds for hydration (by key prefix); unset,
+   * every query the loaders filled. A customer-facing screen lists only its own.
+   */
+  embed?: readonly (readonly string[])[];
+}
+
+/** The queries the matched screens let the page embed; null: all of them. */
+export function embedOf(matches: { handle?: unknown }[]): (readonly string[])[] | null {
+  const lists = matches.flatMap((m) => {
+    const embed = (m.handle as RouteHandle | undefined)?.embed;
+    return embed ? [embed] : [];
+  });
+  return lists.length ? lists.flat() : null;
 }
 
 export function headOf(matches: { handle?: unknown }[]): string {

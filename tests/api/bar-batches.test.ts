@@ -5,6 +5,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { PlannedLane } from '../../src/domain/lanes';
+import type { PickupTicket } from '../../src/domain/pickup';
 import type { TicketView } from '../../src/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
@@ -586,7 +587,7 @@ describe('POST /api/tickets/:id/collect', () => {
     tick();
     await expectCommand(barista, `/api/tickets/${order}/bump`, 'ticket.bumped', baristaId);
     const pickup = await cashier.get('/api/pickup');
-    expect(pickup.body.tickets.map((t: TicketView) => t.id)).toContain(order);
+    expect(pickup.body.tickets.map((t: PickupTicket) => t.id)).toContain(order);
 
     tick();
     const collected = await expectCommand(cashier, `/api/tickets/${order}/collect`, 'ticket.collected', cashierId);
@@ -596,7 +597,7 @@ describe('POST /api/tickets/:id/collect', () => {
 
     const after = await cashier.get('/api/pickup');
     expect(after.status).toBe(200);
-    expect(after.body.tickets.map((t: TicketView) => t.id)).not.toContain(order);
+    expect(after.body.tickets.map((t: PickupTicket) => t.id)).not.toContain(order);
     expect((await barista.get('/api/tickets?status=board')).body.tickets.map((t: TicketView) => t.id)).not.toContain(order);
 
     tick();

@@ -68,3 +68,14 @@ export async function barScene() {
     locationId: await demoLocationId(server),
   };
 }
+
+/**
+ * `n` events through the API, cheaply: a lead 86es an item and puts it back, over and over
+ * (each is one `menu.availability` event). For logs longer than a replay.
+ */
+export async function availabilityEvents(lead: Agent, itemId: number, n: number) {
+  for (let i = 0; i < n; i++) {
+    const res = await lead.post(`/api/menu/items/${itemId}/availability`).send({ available: i % 2 === 1 });
+    if (res.status !== 200) throw new Error(`86 toggle failed: ${res.status} ${JSON.stringify(res.body)}`);
+  }
+}

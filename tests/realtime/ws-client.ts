@@ -12,6 +12,8 @@ export interface LiveClient {
   socket: WebSocket;
   /** Every message the server sent, in arrival order. */
   messages: ServerMessage[];
+  /** The same messages as the raw text frames that carried them. */
+  frames: string[];
   /** The events received so far, in arrival order. */
   events(): LiveEvent[];
   /**
@@ -37,10 +39,12 @@ export function connect(httpUrl: string, cookie: string): Promise<LiveClient> {
   const socket = new WebSocket(wsUrl(httpUrl), { headers: { Cookie: cookie } });
   open.add(socket);
   const messages: ServerMessage[] = [];
+  const frames: string[] = [];
   let taken = -1; // index of the last message handed out by next()
   const waiters = new Set<() => void>();
 
   socket.on('message', (data) => {
+    frames.push(data.toString());
     messages.push(JSON.parse(data.toString()) as ServerMessage);
     for (const wake of [...waiters]) wake();
   });
@@ -52,6 +56,7 @@ export function connect(httpUrl: string, cookie: string): Promise<LiveClient> {
   const client: LiveClient = {
     socket,
     messages,
+    frames,
     events: () => messages.flatMap((m) => (m.type === 'event' ? [m.event as LiveEvent] : [])),
     next(predicate = () => true, what = 'a matching message') {
       return new Promise<ServerMessage>((resolve, reject) => {

@@ -27,7 +27,8 @@ export function manualClock(startIso = '2026-03-02T14:00:00.000Z') {
   return { clock, advance: (ms: number) => (now += ms), set: (iso: string) => (now = Date.parse(iso)) };
 }
 
-export async function startTestServer(opts: { clock?: Clock; sessionClock?: Clock; dbBusyTimeoutMs?: number } = {}): Promise<TestServer> {
+/** `pages: 'development'` renders the screens through Vite in middleware mode (slower to start). */
+export async function startTestServer(opts: { clock?: Clock; sessionClock?: Clock; pages?: 'none' | 'development'; dbBusyTimeoutMs?: number } = {}): Promise<TestServer> {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-test-'));
   const config: Config = {
     env: 'test',
@@ -38,7 +39,7 @@ export async function startTestServer(opts: { clock?: Clock; sessionClock?: Cloc
     seedDemo: true,
     dbBusyTimeoutMs: opts.dbBusyTimeoutMs,
   };
-  const running = await startServer(config, { pages: 'none', clock: opts.clock, sessionClock: opts.sessionClock, log: () => {} });
+  const running = await startServer(config, { pages: opts.pages ?? 'none', clock: opts.clock, sessionClock: opts.sessionClock, log: () => {} });
 
   async function signIn(login: DemoLogin) {
     const agent = request.agent(running.url);

@@ -1,13 +1,6 @@
 import { describe, it, expect } from 'vitest';
-import {
-  applyEvent,
-  firstName,
-  openTickets,
-  pickupBoard,
-  pickupTicket,
-  pickupView,
-  ticketAgeSeconds,
-} from '../../src/domain/tickets';
+import { applyPickupEvent, pickupEvent, pickupTicket, pickupView } from '../../src/domain/pickup';
+import { applyEvent, firstName, openTickets, pickupBoard, ticketAgeSeconds } from '../../src/domain/tickets';
 import type { BoardSnapshot, DrinkView, LiveEvent, TicketStatus, TicketView } from '../../src/domain/types';
 
 const aDrink: DrinkView = {
@@ -139,21 +132,56 @@ describe('firstName and the public pickup view', () => {
     expect(firstName('   ')).toBe('');
   });
 
-  it('strips drinks and the surname from a pickup ticket', () => {
-    const t = ticket(1, '2025-04-02T09:50:00.000Z', 'ready', '2025-04-02T10:04:00.000Z');
-    const p = pickupTicket(t);
-    expect(p.customerName).toBe('Wren');
-    expect(p.drinks).toEqual([]);
-    expect(p.number).toBe(41);
-    expect(p.status).toBe('ready');
+  // The Pickup screen faces customers: first name, number, status and ready time (and the row id
+  // that keys it), nothing else — common practice for a public order-status board.
+  it('keeps only the first name, number, status and ready time of a ticket', () => {
+    const t = {
+      ...ticket(1, '2025-04-02T09:50:00.000Z', 'ready', '2025-04-02T10:04:00.000Z'),
+      allergens: ['sesame'],
+      allergyNote: 'Severe',
+      takenBy: 'Priya Onslow',
+    };
+    expect(pickupTicket(t)).toEqual({ id: 1, number: 41, firstName: 'Wren', status: 'ready', readyAt: '2025-04-02T10:04:00.000Z' });
     // The original is left alone.
     expect(t.customerName).toBe('Wren Abernathy');
     expect(t.drinks).toHaveLength(1);
   });
 
-  it('strips every ticket on a pickup view', () => {
-    const v = pickupView(board(4, [ticket(1, '2025-04-02T09:50:00.000Z'), ticket(2, '2025-04-02T09:51:00.000Z')]));
-    expect(v.seq).toBe(4);
-    expect(v.tickets.every((t) => t.customerName === 'Wren' && t.drinks.length === 0)).toBe(true);
+  it('shapes a whole board: its place in the log, the café name and pickup timeout, the tickets in order of taking', () => {
+    const v = pickupView(board(4, [ticket(2, '2025-04-02T09:50:00.000Z'), ticket(1, '2025-04-02T09:51:00.000Z')]));
+    expect(v).toEqual({
+      seq: 4,
+      now: '2025-04-02T10:00:00.000Z',
+      location: { name: 'Test Café', pickupTimeoutSeconds: 600 },
+      tickets: [
+        { id: 1, number: 41, firstName: 'Wren', status: 'open', readyAt: null },
+        { id: 2, number: 42, firstName: 'Wren', status: 'open', readyAt: null },
+      ],
+    });
+  });
+
+  it('shapes events: a ticket event carries the Pickup ticket, any other only its place in the log', () => {
+    expect(pickupEvent(event(7, ticket(3, '2025-04-02T09:50:00.000Z')))).toEqual({
+      seq: 7,
+      type: 'order.fired',
+      at: '2025-04-02T10:05:00.000Z',
+      ticket: { id: 3, number: 43, firstName: 'Wren', status: 'open', readyAt: null },
+    });
+    const shift = {
+      seq: 8,
+      type: 'shift.changed' as const,
+      at: '2025-04-02T10:06:00.000Z',
+      shift: { id: 1, openedAt: '', openedBy: 'Theo Brand', openingFloatCents: 150_00, baristasOnBar: 1, waitTargetSeconds: 240, closedAt: null, closedBy: null, expectedCashCents: null, countedCashCents: null, closeNote: null },
+    };
+    expect(pickupEvent(shift)).toEqual({ seq: 8, type: 'shift.changed', at: '2025-04-02T10:06:00.000Z' });
+  });
+
+  it('applies Pickup events in order of taking, and not twice', () => {
+    const b = pickupView(board(10, [ticket(1, '2025-04-02T09:50:00.000Z'), ticket(3, '2025-04-02T09:40:00.000Z')]));
+    const e = pickupEvent(event(11, ticket(2, '2025-04-02T09:30:00.000Z'))) as Parameters<typeof applyPickupEvent>[1];
+    const next = applyPickupEvent(b, e, pickupBoard(600));
+    expect(next.tickets.map((t) => t.id)).toEqual([1, 2, 3]);
+    expect(next.seq).toBe(11);
+    expect(applyPickupEvent(next, e, pickupBoard(600))).toBe(next);
   });
 });
