@@ -7,6 +7,7 @@ import path from 'node:path';
 import request from 'supertest';
 import type { Config } from '../../server/config';
 import { startServer, type RunningServer } from '../../server/server';
+import type { SignInPacing } from '../../server/routes/session';
 import type { Clock } from '../../server/services/deps';
 import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
 
@@ -27,7 +28,7 @@ export function manualClock(startIso = '2026-03-02T14:00:00.000Z') {
   return { clock, advance: (ms: number) => (now += ms), set: (iso: string) => (now = Date.parse(iso)) };
 }
 
-export async function startTestServer(opts: { clock?: Clock; sessionClock?: Clock } = {}): Promise<TestServer> {
+export async function startTestServer(opts: { clock?: Clock; sessionClock?: Clock; signInPacing?: SignInPacing } = {}): Promise<TestServer> {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-test-'));
   const config: Config = {
     env: 'test',
@@ -37,7 +38,7 @@ export async function startTestServer(opts: { clock?: Clock; sessionClock?: Cloc
     sessionSecret: randomBytes(32).toString('hex'),
     seedDemo: true,
   };
-  const running = await startServer(config, { pages: 'none', clock: opts.clock, sessionClock: opts.sessionClock, log: () => {} });
+  const running = await startServer(config, { pages: 'none', clock: opts.clock, sessionClock: opts.sessionClock, signInPacing: opts.signInPacing, log: () => {} });
 
   async function signIn(login: DemoLogin) {
     const agent = request.agent(running.url);
