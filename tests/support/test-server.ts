@@ -28,7 +28,9 @@ export function manualClock(startIso = '2026-03-02T14:00:00.000Z') {
   return { clock, advance: (ms: number) => (now += ms), set: (iso: string) => (now = Date.parse(iso)) };
 }
 
-export async function startTestServer(opts: { clock?: Clock; sessionClock?: Clock; signInPacing?: SignInPacing } = {}): Promise<TestServer> {
+export async function startTestServer(
+  opts: { clock?: Clock; sessionClock?: Clock; signInPacing?: SignInPacing; /** a real SMTP server instead of the local fake */ smtpUrl?: string } = {},
+): Promise<TestServer> {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-test-'));
   const config: Config = {
     env: 'test',
@@ -37,6 +39,7 @@ export async function startTestServer(opts: { clock?: Clock; sessionClock?: Cloc
     databaseFile: path.join(dir, 'jugline.sqlite'),
     sessionSecret: randomBytes(32).toString('hex'),
     seedDemo: true,
+    smtpUrl: opts.smtpUrl,
   };
   const running = await startServer(config, { pages: 'none', clock: opts.clock, sessionClock: opts.sessionClock, signInPacing: opts.signInPacing, log: () => {} });
 
