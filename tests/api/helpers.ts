@@ -1,6 +1,7 @@
 // Small helpers shared by the API tests. No state lives here: every test file starts its own
 // server and passes it in.
 import { randomUUID } from 'node:crypto';
+import { SESSION_COOKIE } from '../../server/auth/session';
 import type { TestServer } from '../support/test-server';
 
 export type Agent = Awaited<ReturnType<TestServer['signIn']>>;
@@ -45,3 +46,10 @@ export function sidOf(setCookie: string): string {
 /** The Set-Cookie headers of a response, always as an array. */
 export const setCookies = (res: { headers: Record<string, unknown> }): string[] =>
   ([] as string[]).concat((res.headers['set-cookie'] as string[] | string | undefined) ?? []);
+
+/** The session cookie's Set-Cookie line (a sign-in also sets the known-terminal cookie). */
+export const sessionCookieOf = (res: { headers: Record<string, unknown> }): string => {
+  const cookie = setCookies(res).find((c) => c.startsWith(`${SESSION_COOKIE}=`));
+  if (!cookie) throw new Error('no session cookie was set');
+  return cookie;
+};

@@ -8,6 +8,7 @@ import {
   FAILURE_WINDOW_MS,
   FREE_FAILURES,
   MAX_SIGN_IN_PAUSE_MS,
+  WAITING_SIGN_INS_IN_ALL,
   WAITING_SIGN_INS_PER_NAME,
   signInPauseMs,
 } from '../../src/domain/sign-in-pacing';
@@ -101,6 +102,26 @@ describe('SignInThrottle on a virtual clock', () => {
     expect(slept.length).toBe(before);
     await attempt(null, 'signed-in');
     expect(slept.slice(before)).toEqual([MAX_SIGN_IN_PAUSE_MS]);
+  });
+  it(`holds at most ${WAITING_SIGN_INS_IN_ALL} attempts waiting over all names; past that 503 with a time to come back`, () => {
+    const throttle = new SignInThrottle(
+      () => 0,
+      () => new Promise(() => {}),
+    );
+    let address = 0;
+    const admit = (name: string) => throttle.admit({ name, address: `2001:db8:${(address++).toString(16)}::`, terminal: null });
+    const waitFor = (name: string) => {
+      for (let i = 0; i < FREE_FAILURES; i++) {
+        const a = admit(name);
+        if (!a.ok) throw new Error(a.message);
+        a.settle('failed'); // the free ones: checked at once
+      }
+      return admit(name); // has to wait its turn now
+    };
+    for (let n = 0; n < WAITING_SIGN_INS_IN_ALL; n++) expect(waitFor(`name-${n}`).ok, `name-${n}`).toBe(true);
+    const refused = waitFor('one-too-many');
+    expect(refused).toMatchObject({ ok: false, status: 503 });
+    if (!refused.ok) expect(refused.retryAfterMs).toBeGreaterThanOrEqual(1000);
   });
 });
 
