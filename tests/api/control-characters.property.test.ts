@@ -15,7 +15,7 @@ import { settingsBody } from '../../src/domain/settings-schemas';
 import { newPersonBody, personPatchBody } from '../../src/domain/team-schemas';
 import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
 import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
-import { orderBody, type Agent } from './helpers';
+import { lotBody, orderBody, type Agent } from './helpers';
 
 const RUNS = 30;
 vi.setConfig({ testTimeout: 300_000 });
@@ -41,7 +41,7 @@ beforeAll(async () => {
   ids.modifier = (await server.db('modifiers').first('id')).id;
   ids.item = menu.item('Latte');
   ids.person = (await server.db('users').where({ username: 'barista' }).first('id')).id;
-  const lot = await owner.post('/api/beans/lots').send(lotBody());
+  const lot = await owner.post('/api/beans/lots').send(lotWithNotes());
   expect(lot.status).toBe(201);
   ids.lot = lot.body.lot.id;
 });
@@ -53,18 +53,7 @@ async function rowCounts() {
   return out;
 }
 
-const lotBody = () => ({
-  name: 'Quay Lot',
-  roaster: 'Invented Roasting',
-  origin: 'Somewhere high',
-  notes: 'stone fruit',
-  roastDate: '2026-02-20',
-  receivedDate: '2026-02-23',
-  receivedG: 2000,
-  hopper: 'espresso',
-  restDays: 5,
-  bestUntilDays: 30,
-});
+const lotWithNotes = () => lotBody({ notes: 'stone fruit' });
 const size = () => ({ name: '12 oz', volumeMl: 355, cup: '12 oz cup', priceCents: 520, shots: 2, doseDg: 180, yieldDg: 360, milkMl: 240, isDefault: true });
 const itemBodyOf = () => ({
   categoryId: ids.category,
@@ -141,8 +130,8 @@ const CASES: Case[] = [
     fields: ['name', 'username', 'email'],
   },
   { method: 'patch', url: () => `/api/team/${ids.person}`, body: () => ({ name: 'Jonah Reyes', email: 'jonah@example.com' }), schema: personPatchBody, fields: ['name', 'email'] },
-  { method: 'post', url: () => '/api/beans/lots', body: lotBody, schema: beanLotBody, fields: ['name', 'roaster', 'origin', 'notes'] },
-  { method: 'put', url: () => `/api/beans/lots/${ids.lot}`, body: lotBody, schema: beanLotBody, fields: ['name', 'roaster', 'origin', 'notes'] },
+  { method: 'post', url: () => '/api/beans/lots', body: lotWithNotes, schema: beanLotBody, fields: ['name', 'roaster', 'origin', 'notes'] },
+  { method: 'put', url: () => `/api/beans/lots/${ids.lot}`, body: lotWithNotes, schema: beanLotBody, fields: ['name', 'roaster', 'origin', 'notes'] },
   {
     method: 'post',
     url: () => '/api/dial-in/shots',

@@ -25,6 +25,20 @@ export function orderBody(customerName: string, items: LineInput[], tenderedCent
   };
 }
 
+/** A bean lot as the owner enters it (POST /api/beans/lots). */
+export const lotBody = (over: Record<string, unknown> = {}) => ({
+  name: 'Test Espresso Lot',
+  roaster: 'Invented Roasting',
+  origin: 'Somewhere; cherry',
+  roastDate: '2026-02-20',
+  receivedDate: '2026-02-23',
+  receivedG: 2000,
+  hopper: 'espresso',
+  restDays: 5,
+  bestUntilDays: 30,
+  ...over,
+});
+
 /** Row counts of the tables an order or a bar command writes to. */
 export async function writeCounts(server: TestServer) {
   const count = async (table: string) => Number((await server.db(table).count({ n: '*' }).first())?.n);
