@@ -40,6 +40,7 @@ export function sessionRoutes(
     await admission.turn();
     // the client gave up while waiting its turn: no password is checked, nothing counts
     if (req.socket.destroyed) return admission.settle('not-checked');
+    const previous = req.sessionID; // the session the cookie named, if any, and its live sockets
     let outcome: Outcome = 'not-checked';
     try {
       await new Promise<void>((resolve, reject) => {
@@ -53,6 +54,9 @@ export function sessionRoutes(
           // passport ≥ 0.6 regenerates the session id here, so a planted id is never promoted.
           req.logIn(user, (loginErr) => {
             if (loginErr) return reject(loginErr);
+            // the replaced session is over: its screens close now (4401), not at a heartbeat a minute
+            // on, still showing names and allergy notes meanwhile
+            if (previous !== req.sessionID) deps.sessions.emit('signed-out', previous);
             terminals.remember(req, res, name);
             res.json({ user: publicUser(user) });
             resolve();
