@@ -37,12 +37,12 @@ export function sessionRoutes(
       res.set('Retry-After', String(Math.ceil(admission.retryAfterMs / 1000)));
       throw new HttpError(admission.status, admission.status === 503 ? 'unavailable' : 'rate_limited', admission.message);
     }
-    await admission.turn();
-    // the client gave up while waiting its turn: no password is checked, nothing counts
-    if (req.socket.destroyed) return admission.settle('not-checked');
     const previous = req.sessionID; // the session the cookie named, if any, and its live sockets
     let outcome: Outcome = 'not-checked';
     try {
+      await admission.turn();
+      // the client gave up while waiting its turn: no password is checked, nothing counts
+      if (req.socket.destroyed) return;
       await new Promise<void>((resolve, reject) => {
         passport.authenticate('local', { session: true }, (err: unknown, user: SessionUser | false) => {
           if (err) return reject(err);
