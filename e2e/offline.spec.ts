@@ -1,5 +1,6 @@
 // The server goes away as the cashier presses Send: the Counter keeps the order in the browser,
-// says it is not sent yet, and sends it by itself, once, when the server is back.
+// says it is not sent yet, and sends it by itself, once, when the server is back — and the
+// receipt address travels with it, so the customer is mailed the receipt then.
 // This test runs its own server (not Playwright's webServer) so it can kill it and start it again
 // on the same database file, the way a crashed or restarted café server comes back.
 import { request as apiRequest, type BrowserContext } from '@playwright/test';
@@ -41,6 +42,7 @@ test.describe('Counter with the server gone', () => {
     await page.getByRole('button', { name: /Add to order/ }).click();
     await expect(page.getByTestId('order-line')).toHaveCount(1);
     await page.getByLabel('Name for the cup').fill('Wren Ashby');
+    await page.getByLabel('E-mail receipt (optional)').fill('wren.ashby@example.test');
 
     await own.kill();
     await page.getByRole('button', { name: /^Send/ }).click();
@@ -83,6 +85,17 @@ test.describe('Counter with the server gone', () => {
     const { tickets } = (await res.json()) as { tickets: { customerName: string }[] };
     expect(tickets.filter((t) => t.customerName === 'Wren Ashby')).toHaveLength(1);
     await api.dispose();
+
+    // the receipt reached the mail server (the local fake's Outbox), once; only a lead reads it
+    const lead = await apiRequest.newContext({ baseURL: own.baseURL });
+    expect((await lead.post('/api/session', { data: { username: 'lead', password: DEMO_PASSWORD } })).ok()).toBe(true);
+    const receiptsToWren = async () => {
+      const outbox = (await (await lead.get('/api/outbox')).json()) as { mails: { to: string[]; subject: string }[] };
+      return outbox.mails.filter((m) => m.to.includes('wren.ashby@example.test'));
+    };
+    await expect.poll(async () => (await receiptsToWren()).length, { timeout: 15_000 }).toBe(1);
+    expect((await receiptsToWren())[0].subject).toMatch(/^Your receipt from .+ — order #\d+$/);
+    await lead.dispose();
 
     expect(errors).toEqual([]);
   });

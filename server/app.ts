@@ -21,7 +21,7 @@ import { teamRoutes } from './routes/team';
 import { orderRoutes, WEBHOOK_PATH } from './routes/orders';
 import { reportRoutes } from './routes/reports';
 import { shiftRoutes } from './routes/shifts';
-import { sessionRoutes } from './routes/session';
+import { sessionRoutes, type SignInPacing } from './routes/session';
 import { ticketRoutes } from './routes/tickets';
 import type { Clock, Deps } from './services/deps';
 import { PHOTO_FOLDER } from './services/item-photos';
@@ -47,6 +47,8 @@ export interface AppOptions {
   logger?: Logger;
   /** Uploaded item photos (config.ts mediaDirOf); left out: data/media. */
   mediaDir?: string;
+  /** The clock and pause of sign-in pacing; real time unless a test passes virtual ones. */
+  signInPacing?: SignInPacing;
 }
 
 export interface App {
@@ -94,7 +96,7 @@ export function createApp(opts: AppOptions): App {
     logger: opts.logger,
   });
   const passport = createPassport(opts.db, opts.sessionClock);
-  const routes = [...sessionRoutes(passport, deps), ...orderRoutes(deps), ...ticketRoutes(deps), ...shiftRoutes(deps), ...reportRoutes(deps)];
+  const routes = [...sessionRoutes(passport, deps, { secret: opts.config.sessionSecret, pacing: opts.signInPacing }), ...orderRoutes(deps), ...ticketRoutes(deps), ...shiftRoutes(deps), ...reportRoutes(deps)];
   routes.push(...menuAdminRoutes(deps), ...menuImportRoutes(deps, mediaDir), ...teamRoutes(deps), ...settingsRoutes(deps), ...beanRoutes(deps));
   if (opts.mailer) routes.push(...mailRoutes(deps, opts.mailer));
 

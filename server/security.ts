@@ -1,7 +1,7 @@
 // Web security for the app: headers (helmet, with a Content-Security-Policy that allows no inline
-// script), a strict same-origin check on state-changing API calls (CSRF), and sign-in throttling.
+// script) and a strict same-origin check on state-changing API calls (CSRF). Sign-in pacing lives
+// in server/auth/sign-in-throttle.ts.
 import type { RequestHandler } from 'express';
-import { rateLimit } from 'express-rate-limit';
 import helmet from 'helmet';
 import { HttpError } from './errors';
 
@@ -49,23 +49,4 @@ export function sameOriginOnly(exempt: string[]): RequestHandler {
     } else if (site) ok = site === 'same-origin' || site === 'none';
     next(ok ? undefined : new HttpError(403, 'forbidden', 'A request from another site was refused'));
   };
-}
-
-/** OWASP ASVS 4.0.3 V2.2.1: no more than 100 failed sign-ins an hour per account (and per address). */
-export const FAILED_SIGN_INS_PER_HOUR = 100;
-
-export function signInThrottle(): RequestHandler[] {
-  const tooMany = (what: string): RequestHandler => (_req, _res, next) =>
-    next(new HttpError(429, 'rate_limited', `Too many failed sign-ins ${what}. Wait an hour, or ask the owner to reset the password.`));
-  const common = { windowMs: 60 * 60 * 1000, skipSuccessfulRequests: true, standardHeaders: 'draft-8' as const, legacyHeaders: false };
-  return [
-    rateLimit({ ...common, limit: FAILED_SIGN_INS_PER_HOUR * 3, handler: tooMany('from this address') }),
-    rateLimit({
-      ...common,
-      limit: FAILED_SIGN_INS_PER_HOUR,
-      // the body is not validated yet: String() of an object like { toString: 1 } throws (a 500)
-      keyGenerator: (req) => `name:${(typeof req.body?.username === 'string' ? req.body.username : '').trim().toLowerCase()}`,
-      handler: tooMany('for this name'),
-    }),
-  ];
 }

@@ -15,6 +15,7 @@ import { createLogger } from './logging';
 import type { Logger } from 'pino';
 import { startPayments } from './payments/start';
 import { WEBHOOK_PATH } from './routes/orders';
+import type { SignInPacing } from './routes/session';
 import { developmentPages, productionPages } from './ssr/pages';
 
 export interface RunningServer {
@@ -38,6 +39,8 @@ export interface StartOptions {
   log?: (line: string) => void;
   /** Request logs; by default JSON lines on stdout, none in tests. */
   logger?: Logger;
+  /** Sign-in pacing on a virtual clock and pause (tests); real time when left out. */
+  signInPacing?: SignInPacing;
 }
 
 /** The app's logger: JSON lines on stdout at LOG_LEVEL, silent in tests. */
@@ -73,6 +76,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
     payments: payments.gateway,
     logger: opts.logger ?? appLogger(config),
     mediaDir,
+    signInPacing: opts.signInPacing,
   });
   server.on('request', app);
   const sockets = attachSocketServer(server, deps, sessionMiddleware);

@@ -6,6 +6,7 @@ import type { Deps } from '../services/deps';
 import { setItemAvailability } from '../services/menu-availability';
 import { loadMenu } from '../services/menu';
 import { createOrder, findOrderInLocation, listOrders, loadOrder } from '../services/orders';
+import { mailReceiptWithOrder } from '../services/receipts';
 import { refundOrder, voidOrder } from '../services/refunds';
 import type { ApiRoute } from './define';
 
@@ -36,7 +37,10 @@ export function orderRoutes(deps: Deps): ApiRoute[] {
       capability: 'takeOrders',
       handler: async (req, res) => {
         const body = parse(createOrderBody, req.body);
-        const { order, created } = await createOrder(deps, userOf(req), body);
+        const user = userOf(req);
+        const { order, created } = await createOrder(deps, user, body);
+        // after the commit, however the order came (at once, queued offline, a retry): once per order
+        await mailReceiptWithOrder(deps, user.locationId, order);
         res.status(created ? 201 : 200).json({ order });
       },
     },

@@ -1,5 +1,6 @@
 // The customer's receipt as an e-mail (plain text and HTML), and sending it for an order.
 import type { Knex } from 'knex';
+import type { Deps } from './deps';
 import { formatCents } from '../../src/domain/money';
 import type { OrderLineView, OrderView } from '../../src/domain/types';
 import { escapeHtml } from '../../src/lib/html';
@@ -126,4 +127,40 @@ export async function sendOrderReceipt(
   const location: ReceiptLocation = { name: l.name, currency: l.currency, locale: l.locale, timeZone: l.time_zone };
   const mail = receiptEmail(order, location, l.receipt_footer ?? undefined);
   return mailer.send({ to: email, ...mail, fromName: location.name, locationId });
+}
+
+/**
+ * The receipt that is part of an order carrying the customer's e-mail: once the order is paid,
+ * claim its mail with a conditional update (a replayed or raced send of the same client order id
+ * finds it claimed and mails nothing), then hand it to the mail server without holding up the
+ * order's answer. A failure is recorded on the order and logged, never thrown: the order stands.
+ */
+export async function mailReceiptWithOrder(deps: Deps, locationId: number, order: OrderView): Promise<void> {
+  const { mailer } = deps;
+  const email = order.customerEmail;
+  if (!mailer || !email || order.paymentStatus !== 'paid') return;
+  // the customer's address stays out of the log, even inside a mail server's message
+  const reason = (err: unknown) => String((err as Error)?.message ?? err).split(email).join('<customer>').slice(0, 200);
+  let claimed: number;
+  try {
+    claimed = await deps.db('orders')
+      .where({ id: order.id, location_id: locationId })
+      .whereNull('receipt_mail_state')
+      .update({ receipt_mail_state: 'sending', receipt_mail_at: deps.clock().toISOString() });
+  } catch (err) {
+    console.warn(`The receipt of order ${order.id} was not mailed: ${reason(err)}`);
+    return;
+  }
+  if (claimed !== 1) return;
+  const record = (fields: Record<string, string | null>) =>
+    deps.db('orders').where({ id: order.id, receipt_mail_state: 'sending' }).update({ ...fields, receipt_mail_at: deps.clock().toISOString() });
+  void sendOrderReceipt(deps.db, mailer, locationId, order.id, email)
+    .then(
+      () => record({ receipt_mail_state: 'sent', receipt_mail_error: null }),
+      (err) => {
+        console.warn(`The receipt of order ${order.id} was not mailed: ${reason(err)}`);
+        return record({ receipt_mail_state: 'failed', receipt_mail_error: reason(err) });
+      },
+    )
+    .catch((err) => console.warn(`What happened to the receipt mail of order ${order.id} was not saved: ${reason(err)}`));
 }

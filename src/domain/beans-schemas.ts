@@ -2,9 +2,10 @@
 import { z } from 'zod';
 import { HOPPERS } from './bean-stock';
 import { calendarDate } from './schemas';
+import { plainText } from './text';
 
-const text = (max: number, empty: string) => z.string(empty).trim().min(1, empty).max(max, `At most ${max} characters`);
-const optionalText = (max: number) => z.string().trim().max(max, `At most ${max} characters`).optional();
+const text = (max: number, empty: string) => plainText(empty).min(1, empty).max(max, `At most ${max} characters`);
+const optionalText = (max: number) => plainText().max(max, `At most ${max} characters`).optional();
 const whole = (min: number, max: number, what: string) =>
   z.number(`Enter ${what}`).int(`Enter ${what} as a whole number`).min(min, `At least ${min}`).max(max, `At most ${max}`);
 

@@ -4,6 +4,7 @@
 import { z } from 'zod';
 import { parseAmountToCents } from './money';
 import { parseGramsToDg, parseWhole } from './menu-units';
+import { plainText } from './text';
 import { TEXTURES } from './types';
 
 /** Ranges the menu accepts. Names follow the columns' lengths. */
@@ -29,14 +30,14 @@ const MESSAGES = {
 };
 
 const unique = <T>(xs: readonly T[]) => new Set(xs).size === xs.length;
-const name = (max: number) => z.string().trim().min(1, 'Enter a name').max(max, `At most ${max} characters`);
+const name = (max: number) => plainText().min(1, 'Enter a name').max(max, `At most ${max} characters`);
 const int = (min: number, max: number, message: string) => z.number({ error: message }).int(message).min(min, message).max(max, message);
 const cents = int(MENU_LIMITS.priceCents.min, MENU_LIMITS.priceCents.max, MESSAGES.price);
 const id = z.number().int().positive();
 const ids = (max: number, what: string) =>
   z.array(id).max(max).refine(unique, `${what} is listed twice`);
 /** Tags from the location's published list; the service checks which list. */
-export const allergenTags = z.array(z.string().trim().min(1).max(40)).max(14).refine(unique, 'An allergen is listed twice');
+export const allergenTags = z.array(plainText().min(1).max(40)).max(14).refine(unique, 'An allergen is listed twice');
 
 // ---------------------------------------------------------------- bodies
 
@@ -46,9 +47,7 @@ export type MoveBody = z.infer<typeof moveBody>;
 export const categoryBody = z.strictObject({ name: name(MENU_LIMITS.names.category) });
 export type CategoryBody = z.infer<typeof categoryBody>;
 
-export const milkCode = z
-  .string()
-  .trim()
+export const milkCode = plainText()
   .regex(/^[A-Za-z]{2}$/, 'Two letters, like OA')
   .transform((c) => c.toUpperCase());
 
@@ -81,9 +80,7 @@ export const sizeInput = z.strictObject({
   id: id.optional(),
   name: name(MENU_LIMITS.names.size),
   volumeMl: int(MENU_LIMITS.volumeMl.min, MENU_LIMITS.volumeMl.max, MESSAGES.volume),
-  cup: z
-    .string()
-    .trim()
+  cup: plainText()
     .max(MENU_LIMITS.names.cup, `At most ${MENU_LIMITS.names.cup} characters`)
     .nullable()
     .default(null)
@@ -177,7 +174,7 @@ export const sizeForm = z.object({
   sizeId: z.number().optional(),
   name: name(MENU_LIMITS.names.size),
   volumeMl: whole(MENU_LIMITS.volumeMl.min, MENU_LIMITS.volumeMl.max, MESSAGES.volume),
-  cup: z.string().trim().max(MENU_LIMITS.names.cup, `At most ${MENU_LIMITS.names.cup} characters`),
+  cup: plainText().max(MENU_LIMITS.names.cup, `At most ${MENU_LIMITS.names.cup} characters`),
   price: amount,
   shots: whole(MENU_LIMITS.shots.min, MENU_LIMITS.shots.max, MESSAGES.shots),
   doseG: grams(MENU_LIMITS.doseDg.max, MESSAGES.dose),

@@ -8,6 +8,7 @@
 import Papa from 'papaparse';
 import { z } from 'zod';
 import { toCsv } from './csv';
+import { PLAIN_TEXT_MESSAGE, isPlainText } from './text';
 import { TEXTURES, type MenuView, type Station, type Texture } from './types';
 
 export const MENU_CSV_COLUMNS = [
@@ -117,11 +118,10 @@ const column = <T>(read: Reader<T>) =>
     return value;
   });
 
-const CONTROL = /[\u0000-\u001f\u007f]/;
 const name = (max: number, optional = false): Reader<string | null> => (t) => {
   if (t === '') return optional ? null : new Problem('Needed');
   if (t.length > max) return new Problem(`At most ${max} characters`);
-  return CONTROL.test(t) ? new Problem('No line breaks or tabs') : t;
+  return isPlainText(t) ? t : new Problem(PLAIN_TEXT_MESSAGE);
 };
 const whole = (max: number, example: string, blank: number | null | Problem): Reader<number | null> => (t) => {
   if (t === '') return blank;

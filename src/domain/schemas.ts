@@ -3,13 +3,10 @@
 import { z } from 'zod';
 import { TICKET_SORTS } from './reports';
 import { SCREENS, type ScreenId } from './screens';
-
-/** Names, notes and reasons are one line of text: a line break or control character could forge
- * lines on a printed receipt or label ("Total $0.00"), so it is refused, not stripped. */
-const plainLine = z.string().trim().regex(/^[^\p{Cc}\p{Zl}\p{Zp}]*$/u, 'Use one line of plain text (no line breaks or control characters)');
+import { plainText } from './text';
 
 export const signInBody = z.object({
-  username: z.string().trim().min(1, 'Enter your sign-in name').max(64),
+  username: plainText().min(1, 'Enter your sign-in name').max(64),
   password: z.string().min(1, 'Enter your password').max(72, 'Passwords are at most 72 characters'),
 });
 export type SignInBody = z.infer<typeof signInBody>;
@@ -22,7 +19,7 @@ export const orderLineInput = z.object({
   milkId: z.number().int().positive().optional(),
   shots: z.number().int().min(0).max(8).optional(),
   modifierIds: z.array(z.number().int().positive()).max(12).optional(),
-  note: plainLine.max(140).optional(),
+  note: plainText().max(140).optional(),
 });
 export type OrderLineInput = z.infer<typeof orderLineInput>;
 
@@ -41,16 +38,16 @@ export const discountInput = z.object({
   kind: z.enum(['percent', 'amount']),
   /** whole percent (1–100) or cents */
   value: z.number().int().positive().max(100_000),
-  reason: plainLine.min(3, 'Say why the discount is given').max(120),
+  reason: plainText().min(3, 'Say why the discount is given').max(120),
 });
 export type DiscountInput = z.infer<typeof discountInput>;
 
 export const createOrderBody = z.object({
   clientOrderId: z.uuid(),
-  customerName: plainLine.min(1, 'Enter the customer name').max(40),
+  customerName: plainText().min(1, 'Enter the customer name').max(40),
   service: z.enum(['takeaway', 'dine_in']).default('takeaway'),
-  allergens: z.array(z.string().min(1).max(40)).max(14).default([]),
-  allergyNote: plainLine.max(200).optional(),
+  allergens: z.array(plainText().min(1).max(40)).max(14).default([]),
+  allergyNote: plainText().max(200).optional(),
   customerEmail: z.email('Not an e-mail address').max(254).optional(),
   discount: discountInput.optional(),
   items: z.array(orderLineInput).min(1, 'Add at least one item').max(40),
@@ -63,17 +60,17 @@ export const ticketsQuery = z.object({
 });
 
 export const ordersQuery = z.object({
-  q: z.string().trim().max(40).optional(),
+  q: plainText().max(40).optional(),
   limit: z.coerce.number().int().min(1).max(200).default(100),
 });
 
 export const refundBody = z.object({
   /** Leave out to refund everything still refundable. */
   amountCents: z.number().int().positive().optional(),
-  reason: plainLine.min(3, 'Say why').max(200),
+  reason: plainText().min(3, 'Say why').max(200),
 });
 
-export const voidBody = z.object({ reason: plainLine.min(3, 'Say why').max(200) });
+export const voidBody = z.object({ reason: plainText().min(3, 'Say why').max(200) });
 
 /** A batch of drinks to start or bump in one command. */
 export const drinkBatchBody = z.object({
@@ -126,7 +123,7 @@ export const baristasBody = z.object({ baristasOnBar: z.number().int().min(1).ma
 
 export const closeShiftBody = z.object({
   countedCashCents: z.number().int().min(0).max(10_000_000),
-  note: plainLine.max(200).optional(),
+  note: plainText().max(200).optional(),
 });
 
 /** A café-local calendar date, YYYY-MM-DD, that exists on the calendar. */
@@ -148,9 +145,7 @@ const ticketFilterFields = {
   from: calendarDate.optional(),
   to: calendarDate.optional(),
   /** part of a name, or a ticket number; empty means no search */
-  q: z
-    .string()
-    .trim()
+  q: plainText()
     .max(40)
     .optional()
     .transform((q) => q || undefined),

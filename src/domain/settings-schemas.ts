@@ -3,6 +3,7 @@
 // GET /api/settings answers with.
 import { z } from 'zod';
 import { EU_ALLERGENS, US_ALLERGENS, type AllergenList } from './allergens';
+import { plainText } from './text';
 import { TEMPERATURE_UNITS, VOLUME_UNITS, type TemperatureUnit, type VolumeUnit } from './units';
 
 export const WAIT_TARGET_SECONDS = { min: 60, max: 1800 } as const;
@@ -65,22 +66,16 @@ const custom = (ctx: z.RefinementCtx, message: string) => {
   return z.NEVER;
 };
 
-export const cafeNameField = z.string().trim().min(1, 'Enter the café name').max(80, 'At most 80 characters');
-export const timeZoneField = z
-  .string()
-  .trim()
+export const cafeNameField = plainText().min(1, 'Enter the café name').max(80, 'At most 80 characters');
+export const timeZoneField = plainText()
   .min(1, 'Enter a time zone such as America/New_York')
   .max(64)
   .transform((v, ctx) => canonicalTimeZone(v) ?? custom(ctx, 'Not a time zone name; use one like America/New_York or Europe/Dublin'));
-export const localeField = z
-  .string()
-  .trim()
+export const localeField = plainText()
   .min(1, 'Enter a locale such as en-US')
   .max(35)
   .transform((v, ctx) => canonicalLocale(v) ?? custom(ctx, 'Not a locale this system can format for; use one like en-US or de-DE'));
-export const currencyField = z
-  .string()
-  .trim()
+export const currencyField = plainText()
   .transform((v, ctx) => {
     const problem = currencyProblem(v);
     return problem ? custom(ctx, problem) : v;
@@ -89,9 +84,7 @@ export const currencyField = z
 export const taxRatePercentField = z
   .union([z.string().max(10), z.number().finite()])
   .transform((v, ctx) => percentToMilli(String(v)) ?? custom(ctx, 'A percent from 0 to 100 with up to 3 decimals, like 8.25 or 8.875'));
-export const receiptFooterField = z
-  .string()
-  .trim()
+export const receiptFooterField = plainText()
   .max(RECEIPT_FOOTER_MAX, `At most ${RECEIPT_FOOTER_MAX} characters`)
   .nullable()
   .transform((v) => v || null);
@@ -127,7 +120,7 @@ export type SettingKey = keyof typeof SETTINGS_FIELDS;
 export const settingsBody = z
   .strictObject({
     ...SETTINGS_FIELDS,
-    allergenRetag: z.record(z.string().min(1).max(40), z.string().min(1).max(40).nullable()),
+    allergenRetag: z.record(plainText().min(1).max(40), plainText().min(1).max(40).nullable()),
   })
   .partial()
   .refine((b) => Object.keys(SETTINGS_FIELDS).some((k) => b[k as SettingKey] !== undefined), 'Change at least one setting');

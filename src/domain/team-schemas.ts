@@ -2,6 +2,7 @@
 // and used by the forms and the server routes; and the pure checks behind them.
 import { z } from 'zod';
 import { ROLES, type Role } from './roles';
+import { plainText } from './text';
 
 export const PASSWORD_MIN_CHARS = 10;
 /** bcrypt reads only the first 72 bytes (OWASP Password Storage Cheat Sheet). */
@@ -51,14 +52,12 @@ export const passwordSchema = z
   .refine((p) => new Set(p).size > 1, 'Not one character repeated');
 
 export const roleSchema = z.enum(ROLES);
-const personName = z.string().trim().min(1, 'Enter a name').max(80);
+const personName = plainText().min(1, 'Enter a name').max(80);
 const email = z.email('Not an e-mail address').max(254);
 
 export const newPersonBody = z.object({
   name: personName,
-  username: z
-    .string()
-    .trim()
+  username: plainText()
     .toLowerCase()
     .min(2, 'At least 2 characters')
     .max(64)

@@ -27,7 +27,7 @@ import { useSendOrder } from '../features/counter/use-send-order';
 import { menuQuery } from '../features/menu/queries';
 import { sessionQuery } from '../features/session/queries';
 import { useApi } from '../lib/api-context';
-import { ApiError, http } from '../lib/http';
+import { ApiError } from '../lib/http';
 import { useLeaveGuard } from '../lib/leave-guard';
 import { uuid } from '../lib/uuid';
 import { requireScreen, type RouteDeps } from './deps';
@@ -102,15 +102,15 @@ function Counter() {
         // A card is charged while the customer stands there: never queued for later.
         const { order } = await send.mutateAsync({ ...base, payment: { method: 'card', paymentMethod: checkout.paymentMethod! } });
         finish(order);
-        if (base.customerEmail) mailReceipt(order.id, base.customerEmail);
         return;
       }
       const cash = tenderedCents(checkout, totals.totalCents) ?? 0;
       const result = await outbox.sendOrQueue({ ...base, payment: { method: 'cash', tenderedCents: cash } }, { totalCents: totals.totalCents });
       // kept in this browser and resent by itself: the banner shows it, not an error
       if (result.queued) send.reset();
+      // the receipt address travels in the order: the server mails it once the order is in, even
+      // when this queue sends it later
       finish(result.queued ? null : result.order);
-      if (!result.queued && base.customerEmail) mailReceipt(result.order.id, base.customerEmail);
     } catch {
       /* shown from send.error; the same id is kept for the retry */
     }
@@ -214,11 +214,6 @@ function Counter() {
       {ordersOpen && <OrdersDrawer canRefund={can(session.user?.role, 'refundOrders')} currency={menu.location.currency} onClose={() => setOrdersOpen(false)} />}
     </div>
   );
-}
-
-/** Mail the receipt; a failure here is not the cashier's emergency, so it stays quiet. */
-function mailReceipt(orderId: number, email: string) {
-  http('POST', `/orders/${orderId}/receipt`, { email }).catch(() => undefined);
 }
 
 const BLANK_DRAFT: OrderDraft = { customerName: '', service: 'takeaway', allergens: [], allergyNote: undefined, items: [] };

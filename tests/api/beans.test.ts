@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BeanLotView } from '../../src/domain/bean-stock';
 import type { BeansView } from '../../src/lib/beans-api';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
-import { orderBody, type Agent, type LineInput } from './helpers';
+import { lotBody, orderBody, type Agent, type LineInput } from './helpers';
 
 // 09:00 EST on Monday 2 March 2026 at the demo café (America/New_York)
 const time = manualClock('2026-03-02T14:00:00.000Z');
@@ -19,19 +19,6 @@ beforeAll(async () => {
   ids = await demoMenu(server);
 });
 afterAll(() => server.close());
-
-const lotBody = (over: Record<string, unknown> = {}) => ({
-  name: 'Test Espresso Lot',
-  roaster: 'Invented Roasting',
-  origin: 'Somewhere; cherry',
-  roastDate: '2026-02-20',
-  receivedDate: '2026-02-23',
-  receivedG: 2000,
-  hopper: 'espresso',
-  restDays: 5,
-  bestUntilDays: 30,
-  ...over,
-});
 
 /** Rows of every table a bean command writes to. */
 async function beanCounts() {

@@ -1,6 +1,7 @@
 // Small helpers shared by the API tests. No state lives here: every test file starts its own
 // server and passes it in.
 import { randomUUID } from 'node:crypto';
+import { SESSION_COOKIE } from '../../server/auth/session';
 import type { TestServer } from '../support/test-server';
 
 export type Agent = Awaited<ReturnType<TestServer['signIn']>>;
@@ -24,6 +25,20 @@ export function orderBody(customerName: string, items: LineInput[], tenderedCent
   };
 }
 
+/** A bean lot as the owner enters it (POST /api/beans/lots). */
+export const lotBody = (over: Record<string, unknown> = {}) => ({
+  name: 'Test Espresso Lot',
+  roaster: 'Invented Roasting',
+  origin: 'Somewhere; cherry',
+  roastDate: '2026-02-20',
+  receivedDate: '2026-02-23',
+  receivedG: 2000,
+  hopper: 'espresso',
+  restDays: 5,
+  bestUntilDays: 30,
+  ...over,
+});
+
 /** Row counts of the tables an order or a bar command writes to. */
 export async function writeCounts(server: TestServer) {
   const count = async (table: string) => Number((await server.db(table).count({ n: '*' }).first())?.n);
@@ -45,3 +60,10 @@ export function sidOf(setCookie: string): string {
 /** The Set-Cookie headers of a response, always as an array. */
 export const setCookies = (res: { headers: Record<string, unknown> }): string[] =>
   ([] as string[]).concat((res.headers['set-cookie'] as string[] | string | undefined) ?? []);
+
+/** The session cookie's Set-Cookie line (a sign-in also sets the known-terminal cookie). */
+export const sessionCookieOf = (res: { headers: Record<string, unknown> }): string => {
+  const cookie = setCookies(res).find((c) => c.startsWith(`${SESSION_COOKIE}=`));
+  if (!cookie) throw new Error('no session cookie was set');
+  return cookie;
+};

@@ -9,6 +9,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { createLogger } from '../../server/logging';
 import { startServer } from '../../server/server';
 import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
+import { sessionCookieOf } from './helpers';
 
 const lines: string[] = [];
 const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-logs-'));
@@ -29,7 +30,7 @@ describe('request logs', () => {
     const agent = request.agent(running.url);
     await agent.post('/api/session').send({ username: 'cashier', password: 'not-the-one-9f3' }).expect(401);
     const signedIn = await agent.post('/api/session').send({ username: 'cashier', password: DEMO_PASSWORD }).expect(200);
-    const sid = decodeURIComponent(String(([] as string[]).concat(signedIn.headers['set-cookie'])[0]).split(';')[0].split('=')[1]);
+    const sid = decodeURIComponent(sessionCookieOf(signedIn).split(';')[0].split('=')[1]);
     const menu = (await agent.get('/api/menu')).body;
     const latte = menu.items.find((i: { name: string }) => i.name === 'Latte').id;
     await agent

@@ -17,7 +17,7 @@ import { PIN_LOCK_MINUTES, PIN_TRIES } from '../../src/domain/team-schemas';
 import { DEMO_PASSWORD, DEMO_PINS } from '../../seeds/demo-cafe';
 import { closeAllSockets, connect } from '../realtime/ws-client';
 import { manualClock, startTestServer, type TestServer } from '../support/test-server';
-import { setCookies, sidOf, type Agent } from './helpers';
+import { sessionCookieOf, setCookies, sidOf, type Agent } from './helpers';
 
 afterEach(() => closeAllSockets());
 
@@ -118,7 +118,7 @@ describe('switching person', () => {
     expect(res.status).toBe(200);
     expect(res.body.user).toEqual({ id: barista, name: 'Jonah Reyes', role: 'barista' });
     const newCookie = setCookies(res).map((c) => c.split(';')[0]).join('; ');
-    expect(sidOf(setCookies(res)[0])).not.toBe(sidOf(setCookies(login)[0]));
+    expect(sidOf(sessionCookieOf(res))).not.toBe(sidOf(sessionCookieOf(login)));
 
     // 4409: the screen reconnects on the new session instead of going to sign-in
     expect(await closed).toBe(4409);

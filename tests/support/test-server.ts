@@ -7,6 +7,7 @@ import path from 'node:path';
 import request from 'supertest';
 import type { Config } from '../../server/config';
 import { startServer, type RunningServer } from '../../server/server';
+import type { SignInPacing } from '../../server/routes/session';
 import type { Clock } from '../../server/services/deps';
 import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
 
@@ -28,7 +29,17 @@ export function manualClock(startIso = '2026-03-02T14:00:00.000Z') {
 }
 
 /** `pages: 'development'` renders the screens through Vite in middleware mode (slower to start). */
-export async function startTestServer(opts: { clock?: Clock; sessionClock?: Clock; pages?: 'none' | 'development'; dbBusyTimeoutMs?: number } = {}): Promise<TestServer> {
+export async function startTestServer(
+  opts: {
+    clock?: Clock;
+    sessionClock?: Clock;
+    pages?: 'none' | 'development';
+    dbBusyTimeoutMs?: number;
+    signInPacing?: SignInPacing;
+    /** a real SMTP server instead of the local fake */
+    smtpUrl?: string;
+  } = {},
+): Promise<TestServer> {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-test-'));
   const config: Config = {
     env: 'test',
@@ -38,8 +49,15 @@ export async function startTestServer(opts: { clock?: Clock; sessionClock?: Cloc
     sessionSecret: randomBytes(32).toString('hex'),
     seedDemo: true,
     dbBusyTimeoutMs: opts.dbBusyTimeoutMs,
+    smtpUrl: opts.smtpUrl,
   };
-  const running = await startServer(config, { pages: opts.pages ?? 'none', clock: opts.clock, sessionClock: opts.sessionClock, log: () => {} });
+  const running = await startServer(config, {
+    pages: opts.pages ?? 'none',
+    clock: opts.clock,
+    sessionClock: opts.sessionClock,
+    signInPacing: opts.signInPacing,
+    log: () => {},
+  });
 
   async function signIn(login: DemoLogin) {
     const agent = request.agent(running.url);

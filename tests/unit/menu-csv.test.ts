@@ -4,6 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { US_ALLERGENS } from '../../src/domain/allergens';
 import { cleanCell, importSummary, MENU_CSV_COLUMNS, parseMenuCsv, readMenuCsv, writeMenuCsv, type MenuCsvContext } from '../../src/domain/menu-csv';
 import type { MenuItemView, MenuView } from '../../src/domain/types';
+import { PLAIN_TEXT_MESSAGE } from '../../src/domain/text';
 import { contrastRatio } from '../../src/lib/contrast';
 
 // The location's published list: US major food allergens (FALCPA 2004 + FASTER Act 2021,
@@ -70,7 +71,7 @@ describe('reading a menu file', () => {
   it('refuses a line break inside a name, and counts a quoted multi-line cell as one row', () => {
     const { errors } = parseMenuCsv(csv('Espresso,"Lat\r\nte",bar,Regular,350,5.40,2,19,38,270,yes,WH,silky,milk,yes', 'Espresso,Mocha,bar,Regular,350,x,2,19,38,250,yes,WH,silky,milk,yes'), ctx);
     expect(errors).toEqual([
-      { row: 2, column: 'item', message: 'No line breaks or tabs' },
+      { row: 2, column: 'item', message: PLAIN_TEXT_MESSAGE },
       { row: 3, column: 'price', message: expect.stringContaining('like 4.80') },
     ]);
   });
