@@ -194,7 +194,7 @@ function chargeLines(provider: ProviderCharge[] | null, attempts: AttemptLine[])
       ...(provider ? chargeVerdict(undefined, a) : { match: 'unchecked' as const, note: 'unchecked' as const }),
     });
   }
-  return lines.sort((x, y) => x.at.localeCompare(y.at));
+  return lines.sort((x, y) => x.at.localeCompare(y.at) || (x.paymentId ?? Infinity) - (y.paymentId ?? Infinity));
 }
 
 function refundLines(provider: ProviderRefundLine[] | null, refunds: RefundLine[]): CardCheckRefund[] {
@@ -225,7 +225,7 @@ function refundLines(provider: ProviderRefundLine[] | null, refunds: RefundLine[
     const note: CheckNote = !provider ? 'unchecked' : r.providerId ? 'refund_not_found' : 'refund_pending';
     lines.push({ providerId: r.providerId, at: r.createdAt, amountCents: r.amountCents, ...fromJugline(r), match: provider ? 'mismatch' : 'unchecked', note });
   }
-  return lines.sort((x, y) => x.at.localeCompare(y.at));
+  return lines.sort((x, y) => x.at.localeCompare(y.at) || (x.refundId ?? Infinity) - (y.refundId ?? Infinity));
 }
 
 const sum = <T>(xs: T[], f: (x: T) => number) => xs.reduce((n, x) => n + f(x), 0);

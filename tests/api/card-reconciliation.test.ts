@@ -319,3 +319,97 @@ describe('the answer and the webhook settling one attempt at once', () => {
     }
   });
 });
+
+describe("GET /api/reports/cards: the day's card check", () => {
+  const DAY = '2026-03-05';
+  const check = (date = DAY) => lead.get('/api/reports/cards').query({ date });
+  beforeAll(() => time.set(`${DAY}T15:00:00.000Z`)); // 10:00 in New York, the demo café's zone
+
+  it('a day in step: every charge recorded or given back, every refund on both sides, the totals agree', async () => {
+    const paid = await cashier.post('/api/orders').send(cardBody('Winslow Hart'));
+    expect(paid.status).toBe(201);
+    const declinedFirst = cardBody('Philippa Dunn', DECLINED);
+    expect((await cashier.post('/api/orders').send(declinedFirst)).status).toBe(402);
+    const second = await cashier.post('/api/orders').send(withCard(declinedFirst, VISA));
+    expect(second.status).toBe(200);
+    expect((await cashier.post('/api/orders').send(orderBody('Cash Only', items(), 50_00))).status).toBe(201);
+    const partial = await lead.post(`/api/orders/${paid.body.order.id}/refund`).send({ reason: 'Wrong milk', amountCents: 300 });
+    expect(partial.status).toBe(200);
+    const { orderId: voidedId } = await lostAnswer('Evander Crisp');
+    expect((await lead.post(`/api/orders/${voidedId}/void`).send({ reason: 'Customer left' })).status).toBe(200);
+    await releaseWebhooks();
+
+    const res = await check();
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const view = res.body;
+    const total = (await orderRow(paid.body.order.id)).total_cents as number; // every order here is a latte and a croissant
+    expect(view).toMatchObject({ date: DAY, currency: 'USD', timeZone: 'America/New_York', providerNote: null, mismatches: 0, differenceCents: 0 });
+    // three charges taken (two recorded, one given back), a decline that took nothing
+    expect(view.provider).toEqual({ chargedCents: 3 * total, refundedCents: 300 + total, netCents: 2 * total - 300, charges: 3, refunds: 2 });
+    expect(view.jugline).toEqual({ ...view.provider, recordedCents: 2 * total, givenBackCents: total });
+    expect(view.charges.map((c: { match: string; orderId: number }) => [c.orderId, c.match])).toEqual([
+      [paid.body.order.id, 'recorded'],
+      [second.body.order.id, 'no_money'],
+      [second.body.order.id, 'recorded'],
+      [voidedId, 'given_back'],
+    ]);
+    expect(view.refunds).toEqual([
+      expect.objectContaining({ orderId: paid.body.order.id, amountCents: 300, automatic: false, by: 'Theo Brand', reason: 'Wrong milk', match: 'matched' }),
+      expect.objectContaining({ orderId: voidedId, amountCents: total, automatic: true, by: null, reason: expect.stringMatching(/void/i), match: 'matched' }),
+    ]);
+  });
+
+  it('a charge whose answer and webhook never came shows as a mismatch; settling records it, once', async () => {
+    const { orderId } = await lostAnswer('Rosalind Vane');
+    const before = (await check()).body;
+    const line = before.charges.find((c: { orderId: number }) => c.orderId === orderId);
+    expect(line).toMatchObject({ providerStatus: 'succeeded', juglineStatus: 'unknown', match: 'mismatch', note: 'not_recorded' });
+    expect(before.mismatches).toBe(1);
+    const total = (await orderRow(orderId)).total_cents;
+    expect(before.differenceCents).toBe(total);
+
+    // A cashier may not settle; the lead may.
+    expect((await cashier.post('/api/reports/cards/settle').send({ date: DAY })).status).toBe(403);
+    const settled = await lead.post('/api/reports/cards/settle').send({ date: DAY });
+    expect(settled.status, JSON.stringify(settled.body)).toBe(200);
+    expect(settled.body).toMatchObject({ mismatches: 0, differenceCents: 0 });
+    expect(settled.body.charges.find((c: { orderId: number }) => c.orderId === orderId)).toMatchObject({ match: 'recorded', juglineStatus: 'succeeded' });
+    expect(await orderRow(orderId)).toMatchObject({ status: 'open', payment_status: 'paid' });
+
+    await releaseWebhooks(); // the held webhook arrives after all: nothing more happens
+    expect(await eventTypes(orderId)).toEqual(['order.taken', 'order.fired']);
+    expect((await check()).body).toMatchObject({ mismatches: 0, differenceCents: 0 });
+  });
+
+  it("the card service down: its side is missing and said so, Jugline's side is there; settling answers 502", async () => {
+    fake.faults.setOffline(true);
+    const res = await check();
+    const settle = await lead.post('/api/reports/cards/settle').send({ date: DAY });
+    fake.faults.setOffline(false);
+    expect(res.status).toBe(200);
+    expect(res.body).toMatchObject({ provider: null, differenceCents: null, mismatches: 0, providerNote: expect.stringMatching(/did not answer/) });
+    expect(res.body.jugline.charges).toBeGreaterThan(0);
+    expect(res.body.charges.every((c: { match: string }) => c.match === 'unchecked')).toBe(true);
+    expect(settle.status).toBe(502);
+    expect(settle.body.error.code).toBe('payment_unavailable');
+  });
+
+  it('another day is checked on its own; today when no date is given', async () => {
+    const other = await check('2026-03-04');
+    expect(other.status).toBe(200);
+    expect(other.body).toMatchObject({ date: '2026-03-04', mismatches: 0, charges: [], refunds: [], differenceCents: 0 });
+    const today = await lead.get('/api/reports/cards');
+    expect(today.status).toBe(200);
+    expect(today.body.date).toBe(DAY);
+  });
+
+  it('refuses a date that is not a calendar date, and a settle without one, with 400 naming the field', async () => {
+    const bad = await lead.get('/api/reports/cards').query({ date: '2026-02-30' });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error).toMatchObject({ code: 'validation_failed', details: [{ path: 'query.date', message: expect.any(String) }] });
+    const none = await lead.post('/api/reports/cards/settle').send({});
+    expect(none.status).toBe(400);
+    expect(none.body.error.details).toEqual([expect.objectContaining({ path: 'date' })]);
+    expect((await cashier.get('/api/reports/cards')).status).toBe(403);
+  });
+});
