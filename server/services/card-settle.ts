@@ -164,6 +164,15 @@ async function settleAttempt(deps: Deps, p: { id: number; provider_id: string | 
   await applyChargeState(deps, p.id, await gatewayOf(deps).lookupCharge(p.provider_id));
 }
 
+/** An attempt still "processing" long after any call could take was cut off (a restart mid-call): its outcome is unknown. */
+export async function releaseStaleAttempts(deps: Deps, orderId: number) {
+  const cutoff = new Date(deps.clock().getTime() - STALE_PROCESSING_MS).toISOString();
+  await deps.db('payments')
+    .where({ order_id: orderId, method: 'card', status: 'processing' })
+    .andWhere('updated_at', '<', cutoff)
+    .update({ status: 'unknown', updated_at: nowIso(deps) });
+}
+
 /**
  * Before anything else is done about an order's money: ask the card service what became of each
  * of its attempts whose outcome Jugline never heard (or whose automatic refund isn't confirmed),
@@ -171,12 +180,7 @@ async function settleAttempt(deps: Deps, p: { id: number; provider_id: string | 
  */
 export async function settleOpenAttempts(deps: Deps, orderId: number): Promise<boolean> {
   if (!deps.payments) return true;
-  const cutoff = new Date(deps.clock().getTime() - STALE_PROCESSING_MS).toISOString();
-  // An attempt still "processing" long after any call could take was cut off (a restart mid-call).
-  await deps.db('payments')
-    .where({ order_id: orderId, method: 'card', status: 'processing' })
-    .andWhere('updated_at', '<', cutoff)
-    .update({ status: 'unknown', updated_at: nowIso(deps) });
+  await releaseStaleAttempts(deps, orderId);
   const open = await deps.db('payments')
     .where({ order_id: orderId, method: 'card' })
     .whereIn('status', ['unknown', 'refunding'])

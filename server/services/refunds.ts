@@ -4,7 +4,7 @@ import type { SessionUser } from '../../src/domain/types';
 import { HttpError, conflict, notFound } from '../errors';
 import { GatewayRefused, GatewayUnavailable } from '../payments/gateway';
 import type { Deps } from './deps';
-import { settleOpenAttempts } from './card-settle';
+import { releaseStaleAttempts, settleOpenAttempts } from './card-settle';
 import { appendEvent, runCommand } from './events';
 import { findOrderInLocation, loadOrder } from './orders';
 import { loadTicket } from './ticket-views';
@@ -83,6 +83,7 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
 }
 
 export async function voidOrder(deps: Deps, user: SessionUser, orderId: number, reason: string) {
+  if (await findOrderInLocation(deps.db, user, orderId)) await releaseStaleAttempts(deps, orderId);
   const result = await runCommand(deps, async (trx) => {
     const order = await trx('orders').where({ id: orderId, location_id: user.locationId }).first();
     if (!order) throw notFound('Order');

@@ -320,6 +320,65 @@ describe('the answer and the webhook settling one attempt at once', () => {
   });
 });
 
+describe('an attempt cut off mid-call (the server restarted while the card service was asked)', () => {
+  /** A declined order, then a card attempt left "processing" as a crash would leave it. */
+  async function stuckAttempt(customerName: string, charged: boolean) {
+    const body = cardBody(customerName, DECLINED);
+    const res = await cashier.post('/api/orders').send(body);
+    expect(res.status).toBe(402);
+    const orderId: number = res.body.error.details.orderId;
+    const order = await orderRow(orderId);
+    const at = time.clock().toISOString();
+    const [{ id }] = await server.db('payments')
+      .insert({ order_id: orderId, method: 'card', status: 'processing', amount_cents: order.total_cents, created_at: at, updated_at: at })
+      .returning('id');
+    if (charged) {
+      // the card was run before the crash: the card service holds the charge
+      const pi = await sdk.paymentIntents.create({
+        amount: order.total_cents, currency: 'usd', payment_method: VISA, confirm: true,
+        metadata: { orderId: String(orderId), paymentId: String(id), locationId: String(order.location_id) },
+      });
+      await server.db('payments').where({ id }).update({ provider_id: pi.id });
+    }
+    return { body, orderId, paymentId: id as number };
+  }
+
+  it('blocks a new card while it may still be running, and is asked about once it is too old to be', async () => {
+    const { body, orderId, paymentId } = await stuckAttempt('Araminta Voss', false);
+    const early = await cashier.post('/api/orders').send(withCard(body, VISA));
+    expect(early.status).toBe(409);
+    time.advance(3 * 60_000); // longer than the SDK's three tries can take
+    const later = await cashier.post('/api/orders').send(withCard(body, VISA));
+    expect(later.status, JSON.stringify(later.body)).toBe(200);
+    expect(later.body.order).toMatchObject({ paymentStatus: 'paid' });
+    // it never learned a charge id, so it never ran the card: closed as not charged
+    expect(await server.db('payments').where({ id: paymentId }).first()).toMatchObject({ status: 'failed' });
+    await fake.webhooksSettled();
+    await expectEveryChargeAccountedFor(orderId);
+  });
+
+  it('whose card was charged (and its webhook lost): cash later finds the charge and takes no cash; a void gives it back', async () => {
+    fake.faults.holdWebhooks(true);
+    const paidCase = await stuckAttempt('Florian Gage', true);
+    const voidCase = await stuckAttempt('Imogen Tarrant', true);
+    time.advance(3 * 60_000);
+
+    const cash = await cashier.post('/api/orders').send(withCash(paidCase.body, 20_00));
+    expect(cash.status, JSON.stringify(cash.body)).toBe(200);
+    expect(cash.body.order).toMatchObject({ paymentStatus: 'paid', payment: { method: 'card' } });
+    expect(await server.db('payments').where({ id: paidCase.paymentId }).first()).toMatchObject({ status: 'succeeded' });
+
+    const voided = await lead.post(`/api/orders/${voidCase.orderId}/void`).send({ reason: 'Customer left' });
+    expect(voided.status, JSON.stringify(voided.body)).toBe(200);
+    expect(await refundRows(voidCase.orderId)).toEqual([expect.objectContaining({ payment_id: voidCase.paymentId, cause: 'order_voided' })]);
+
+    await releaseWebhooks(); // the lost webhooks turn up after all: nothing more happens
+    await expectEveryChargeAccountedFor(paidCase.orderId);
+    await expectEveryChargeAccountedFor(voidCase.orderId);
+    expect(await eventTypes(voidCase.orderId)).toEqual(['order.taken', 'order.voided']);
+  });
+});
+
 describe("GET /api/reports/cards: the day's card check", () => {
   const DAY = '2026-03-05';
   const check = (date = DAY) => lead.get('/api/reports/cards').query({ date });
