@@ -27,29 +27,21 @@ const PAYMENT_COLUMNS = 'id, order_id, method, status, amount_cents, tendered_ce
 const OLD_STATUSES = ['processing', 'succeeded', 'declined', 'failed', 'canceled'];
 const NEW_STATUSES = [...OLD_STATUSES, 'unknown', 'refunding', 'refunded'];
 
-const REFUNDS_NEW = `CREATE TABLE \`refunds_next\` (
+/** The refunds table with automatic refunds (`withCause`: created_by may be null) or as it was. */
+const REFUNDS = (withCause: boolean) => `CREATE TABLE \`refunds_next\` (
   \`id\` integer not null primary key autoincrement,
   \`order_id\` integer not null,
   \`payment_id\` integer not null,
   \`amount_cents\` integer not null,
   \`reason\` varchar(200) not null,
   \`provider_id\` varchar(64),
-  \`created_by\` integer,
+  ${withCause
+    ? `\`created_by\` integer,
   \`cause\` varchar(16) check (\`cause\` in ('order_voided','paid_otherwise','duplicate')),
   \`created_at\` varchar(255) not null,
-  check ((\`cause\` is null) <> (\`created_by\` is null)),
-  foreign key(\`order_id\`) references \`orders\`(\`id\`),
-  foreign key(\`payment_id\`) references \`payments\`(\`id\`),
-  foreign key(\`created_by\`) references \`users\`(\`id\`))`;
-const REFUNDS_OLD = `CREATE TABLE \`refunds_next\` (
-  \`id\` integer not null primary key autoincrement,
-  \`order_id\` integer not null,
-  \`payment_id\` integer not null,
-  \`amount_cents\` integer not null,
-  \`reason\` varchar(200) not null,
-  \`provider_id\` varchar(64),
-  \`created_by\` integer not null,
-  \`created_at\` varchar(255) not null,
+  check ((\`cause\` is null) <> (\`created_by\` is null)),`
+    : `\`created_by\` integer not null,
+  \`created_at\` varchar(255) not null,`}
   foreign key(\`order_id\`) references \`orders\`(\`id\`),
   foreign key(\`payment_id\`) references \`payments\`(\`id\`),
   foreign key(\`created_by\`) references \`users\`(\`id\`))`;
@@ -88,7 +80,7 @@ export async function up(knex: Knex): Promise<void> {
       // the card check reads a day's attempts by when they were made
       'CREATE INDEX `payments_created_at_index` on `payments` (`created_at`)',
     ]);
-    await swap(trx, 'refunds', REFUNDS_NEW, `${REFUND_COLUMNS.replace('created_by, created_at', 'created_by, NULL, created_at')}`, [
+    await swap(trx, 'refunds', REFUNDS(true), `${REFUND_COLUMNS.replace('created_by, created_at', 'created_by, NULL, created_at')}`, [
       'CREATE INDEX `refunds_order_id_index` on `refunds` (`order_id`)',
       'CREATE INDEX `refunds_created_at_index` on `refunds` (`created_at`)',
       // two paths that learn of one stray charge at once can't both give it back
@@ -101,7 +93,7 @@ export async function down(knex: Knex): Promise<void> {
   await rebuild(knex, async (trx) => {
     // The older tables have no place for automatic refunds or the new attempt states.
     await trx('refunds').whereNotNull('cause').delete();
-    await swap(trx, 'refunds', REFUNDS_OLD, REFUND_COLUMNS, ['CREATE INDEX `refunds_order_id_index` on `refunds` (`order_id`)']);
+    await swap(trx, 'refunds', REFUNDS(false), REFUND_COLUMNS, ['CREATE INDEX `refunds_order_id_index` on `refunds` (`order_id`)']);
     await trx('payments').whereIn('status', ['unknown', 'refunding', 'refunded']).update({ status: 'failed' });
     await swap(trx, 'payments', PAYMENTS(OLD_STATUSES), PAYMENT_COLUMNS, PAYMENT_INDEXES);
   });

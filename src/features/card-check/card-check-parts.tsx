@@ -7,6 +7,7 @@ import {
   type CardCheckCharge,
   type CardCheckRefund,
   type CardCheckView,
+  type CheckNote,
   type Match,
   type ProviderChargeStatus,
 } from '../../domain/card-check';
@@ -113,7 +114,7 @@ export function Totals({ view, money }: { view: CardCheckView; money: Money }) {
   );
 }
 
-function MatchCell({ match, note }: { match: Match; note: keyof typeof CHECK_NOTES }) {
+function MatchCell({ match, note }: { match: Match; note: CheckNote }) {
   const { mark, word } = MATCH_WORD[match];
   return (
     <td className={tdClass}>
@@ -129,34 +130,60 @@ function MatchCell({ match, note }: { match: Match; note: keyof typeof CHECK_NOT
 const rowClass = (match: Match) => cn(match === 'mismatch' && 'border-l-8 border-alert-deep bg-alert-ink/20');
 const orderLabel = (n: number | null) => (n === null ? '—' : `#${n}`);
 
-export function ChargeTable({ lines, money, time }: { lines: CardCheckCharge[]; money: Money; time: (iso: string) => string }) {
+interface Line {
+  at: string;
+  orderNumber: number | null;
+  amountCents: number;
+  match: Match;
+  note: CheckNote;
+  providerId: string | null;
+}
+
+/** Time, order and amount, the columns of this kind of line, then how it stands. */
+function LinesPanel<T extends Line>(props: {
+  title: string;
+  empty: string;
+  kind: 'charge' | 'refund';
+  lines: T[];
+  columns: [string, (line: T) => ReactNode][];
+  keyOf: (line: T) => string;
+  money: Money;
+  time: (iso: string) => string;
+}) {
+  const { lines, columns, money, time } = props;
   return (
-    <Panel title="Charges">
+    <Panel title={props.title}>
       {lines.length === 0 ? (
-        <p className="text-base text-ink-600">No card charges on this day.</p>
+        <p className="text-base text-ink-600">{props.empty}</p>
       ) : (
-        <table className="w-full text-base" data-testid="charge-lines">
+        <table className="w-full text-base" data-testid={`${props.kind}-lines`}>
           <thead>
             <tr>
               <th className={thClass}>Time</th>
               <th className={thClass}>Order</th>
               <th className={cn(thClass, 'text-right')}>Amount</th>
-              <th className={thClass}>Card service</th>
-              <th className={thClass}>Jugline</th>
+              {columns.map(([header]) => (
+                <th key={header} className={thClass}>
+                  {header}
+                </th>
+              ))}
               <th className={thClass}>How it stands</th>
             </tr>
           </thead>
           <tbody>
-            {lines.map((c) => (
-              <tr key={`${c.providerId}-${c.paymentId}`} className={rowClass(c.match)} data-testid="charge-line" data-match={c.match}>
+            {lines.map((line) => (
+              <tr key={props.keyOf(line)} className={rowClass(line.match)} data-testid={`${props.kind}-line`} data-match={line.match}>
                 <td className={cn(tdClass, 'whitespace-nowrap')} suppressHydrationWarning>
-                  {time(c.at)}
+                  {time(line.at)}
                 </td>
-                <td className={tdClass}>{orderLabel(c.orderNumber)}</td>
-                <td className={cn(tdClass, numClass)}>{money(c.amountCents)}</td>
-                <td className={tdClass}>{c.providerStatus ? PROVIDER_WORD[c.providerStatus] : '—'}</td>
-                <td className={tdClass}>{c.juglineStatus ? JUGLINE_WORD[c.juglineStatus] : 'No record'}</td>
-                <MatchCell match={c.match} note={c.note} />
+                <td className={tdClass}>{orderLabel(line.orderNumber)}</td>
+                <td className={cn(tdClass, numClass)}>{money(line.amountCents)}</td>
+                {columns.map(([header, cell]) => (
+                  <td key={header} className={tdClass}>
+                    {cell(line)}
+                  </td>
+                ))}
+                <MatchCell match={line.match} note={line.note} />
               </tr>
             ))}
           </tbody>
@@ -166,40 +193,39 @@ export function ChargeTable({ lines, money, time }: { lines: CardCheckCharge[]; 
   );
 }
 
+export function ChargeTable({ lines, money, time }: { lines: CardCheckCharge[]; money: Money; time: (iso: string) => string }) {
+  return (
+    <LinesPanel
+      title="Charges"
+      empty="No card charges on this day."
+      kind="charge"
+      lines={lines}
+      keyOf={(c) => `${c.providerId}-${c.paymentId}`}
+      columns={[
+        ['Card service', (c) => (c.providerStatus ? PROVIDER_WORD[c.providerStatus] : '—')],
+        ['Jugline', (c) => (c.juglineStatus ? JUGLINE_WORD[c.juglineStatus] : 'No record')],
+      ]}
+      money={money}
+      time={time}
+    />
+  );
+}
+
 export function RefundTable({ lines, money, time }: { lines: CardCheckRefund[]; money: Money; time: (iso: string) => string }) {
   return (
-    <Panel title="Refunds">
-      {lines.length === 0 ? (
-        <p className="text-base text-ink-600">No card refunds on this day.</p>
-      ) : (
-        <table className="w-full text-base" data-testid="refund-lines">
-          <thead>
-            <tr>
-              <th className={thClass}>Time</th>
-              <th className={thClass}>Order</th>
-              <th className={cn(thClass, 'text-right')}>Amount</th>
-              <th className={thClass}>Reason</th>
-              <th className={thClass}>By</th>
-              <th className={thClass}>How it stands</th>
-            </tr>
-          </thead>
-          <tbody>
-            {lines.map((r) => (
-              <tr key={`${r.providerId}-${r.refundId}`} className={rowClass(r.match)} data-testid="refund-line" data-match={r.match}>
-                <td className={cn(tdClass, 'whitespace-nowrap')} suppressHydrationWarning>
-                  {time(r.at)}
-                </td>
-                <td className={tdClass}>{orderLabel(r.orderNumber)}</td>
-                <td className={cn(tdClass, numClass)}>{money(r.amountCents)}</td>
-                <td className={tdClass}>{r.reason ?? '—'}</td>
-                <td className={tdClass}>{r.automatic ? 'Automatic' : (r.by ?? '—')}</td>
-                <MatchCell match={r.match} note={r.note} />
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      )}
-    </Panel>
+    <LinesPanel
+      title="Refunds"
+      empty="No card refunds on this day."
+      kind="refund"
+      lines={lines}
+      keyOf={(r) => `${r.providerId}-${r.refundId}`}
+      columns={[
+        ['Reason', (r) => r.reason ?? '—'],
+        ['By', (r) => (r.automatic ? 'Automatic' : (r.by ?? '—'))],
+      ]}
+      money={money}
+      time={time}
+    />
   );
 }
 
