@@ -142,9 +142,11 @@ export async function applyChargeState(deps: Deps, paymentId: number, state: Cha
       try {
         await gatewayOf(deps).cancel(state.providerId);
       } catch (err) {
-        // it was run after all, between our look and the cancel: look again
-        if (err instanceof GatewayRefused) return applyChargeState(deps, paymentId, await gatewayOf(deps).lookupCharge(state.providerId));
-        throw err;
+        if (!(err instanceof GatewayRefused)) throw err;
+        // it was run after all, between our look and the cancel: look again (once)
+        const now = await gatewayOf(deps).lookupCharge(state.providerId);
+        if (now?.status === 'open') throw err;
+        return applyChargeState(deps, paymentId, now);
       }
       await markAttempt(deps, paymentId, ['unknown'], { status: 'failed', message: 'Never run; canceled at the card service' });
       return;
@@ -210,7 +212,13 @@ export async function handlePaymentWebhook(deps: Deps, event: { type: string; da
   if (typeof pi?.id !== 'string' || !Number.isInteger(paymentId) || paymentId <= 0) return;
   const payment = await deps.db('payments').where({ id: paymentId, method: 'card' }).first('id', 'provider_id');
   if (!payment || (payment.provider_id && payment.provider_id !== pi.id)) return;
-  const state = await gatewayOf(deps).lookupCharge(pi.id);
+  let state: ChargeState | null;
+  try {
+    state = await gatewayOf(deps).lookupCharge(pi.id);
+  } catch (err) {
+    if (err instanceof GatewayRefused) return; // the card service won't say: asking again won't help
+    throw err;
+  }
   if (!state || state.metadata.paymentId !== String(paymentId)) return; // not one of ours
   await applyChargeState(deps, paymentId, state);
 }
