@@ -13,6 +13,7 @@ import type { Clock } from './services/deps';
 import { startMail } from './services/mail';
 import { createLogger } from './logging';
 import type { Logger } from 'pino';
+import type { PaymentFake } from './fakes/payment-fake';
 import { startPayments } from './payments/start';
 import { WEBHOOK_PATH } from './routes/orders';
 import type { SignInPacing } from './routes/session';
@@ -25,8 +26,9 @@ export interface RunningServer {
   /** Every API route the app mounts (the role matrix is generated from it). */
   routes: ApiRoute[];
   sockets: SocketServer;
-  /** Card payments: the secret the webhook route checks signatures against. */
-  payments: { webhookSecret: string };
+  /** Card payments: the secret the webhook route checks signatures against, and the local fake
+   * (null with the real provider). */
+  payments: { webhookSecret: string; fake: PaymentFake | null };
   close(): Promise<void>;
 }
 
@@ -65,7 +67,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
   const mediaDir = mediaDirOf(config);
   mkdirSync(mediaDir, { recursive: true });
   const mail = await startMail({ smtpUrl: config.smtpUrl, db, clock: opts.clock, log });
-  const payments = await startPayments({ secretKey: config.stripeSecretKey, webhookSecret: config.stripeWebhookSecret, log });
+  const payments = await startPayments({ secretKey: config.stripeSecretKey, webhookSecret: config.stripeWebhookSecret, log, clock: opts.clock });
   const { app, deps, sessionMiddleware, routes } = createApp({
     db,
     config,
@@ -101,7 +103,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
       await payments.close();
       await db.destroy();
     })());
-  return { url, server, db, routes, sockets, payments: { webhookSecret: payments.webhookSecret }, close };
+  return { url, server, db, routes, sockets, payments: { webhookSecret: payments.webhookSecret, fake: payments.fake }, close };
 }
 
 export function printSignIns(url: string, log = console.log) {

@@ -4,11 +4,14 @@
 // It speaks the provider's v1 wire format: form-encoded bodies with bracket notation, Bearer auth,
 // Idempotency-Key replay, JSON answers, errors as { error: { type, code, ... } } with the status the
 // SDK maps to its error classes (401 auth, 402 card, 400/404 invalid request), and signed webhooks.
-// Only what Jugline uses: PaymentIntents (create, confirm, cancel, retrieve) and Refunds.
+// Only what Jugline uses: PaymentIntents (create, confirm, cancel, retrieve, list, search) and
+// Refunds (create, retrieve, list). `faults` lets a test lose answers, take the fake offline or
+// hold its webhooks, to check what the app does when the network fails it.
 import crypto from 'node:crypto';
 import http from 'node:http';
 import https from 'node:https';
 import type { AddressInfo } from 'node:net';
+import { listPage, searchPage } from './payment-fake-lists';
 import {
   ApiError, allowOnly, cardParam, findTestCard, int, invalid, metadata, missing, paymentMethodObject, parseForm, str,
   unexpectedState, type Form, type Obj, type TestCard,
@@ -21,15 +24,33 @@ export interface FakeEvent {
   pending_webhooks: number; request: { id: string; idempotency_key: string | null };
   data: { object: Record<string, unknown> };
 }
+/** Switches a test flips to make the network fail the app; all off at start. */
+export interface PaymentFaults {
+  /**
+   * Charge the card as asked, then hang up without answering: the next `times` answers to
+   * requests that ran a card (and to their replays under the same Idempotency-Key) are lost.
+   * Without `times`, until switched off with 0.
+   */
+  loseChargeAnswers(times?: number): void;
+  /** Hang up on every request without doing anything, as during an outage. */
+  setOffline(on: boolean): void;
+  /** Keep webhooks queued instead of sending them; switching it off sends them in order. */
+  holdWebhooks(on: boolean): void;
+  /** All switches off (held webhooks are sent). */
+  clear(): void;
+}
 export interface PaymentFake {
   url: string; host: string; port: number;
   secretKey: string; webhookSecret: string;
   setWebhookUrl(url: string | null): void;
   events(): FakeEvent[];
+  faults: PaymentFaults;
+  /** Resolves once every webhook queued so far has been delivered or given up on. */
+  webhooksSettled(): Promise<void>;
   close(): Promise<void>;
 }
 
-interface Ctx { requestId: string; idempotencyKey: string | null; apiVersion: string }
+interface Ctx { requestId: string; idempotencyKey: string | null; apiVersion: string; ranCard: boolean }
 interface Result { status: number; body: unknown; store: boolean }
 
 // The version stripe@23.1.0 pins (node_modules/stripe/esm/apiVersion.js); used when a request sends none.
@@ -38,10 +59,15 @@ const RETRY_DELAYS_MS = [50, 150, 400]; // webhook retries after the first attem
 const MAX_BODY = 1_000_000;
 
 const newId = (prefix: string) => `${prefix}_${crypto.randomBytes(12).toString('hex')}`;
-const now = () => Math.floor(Date.now() / 1000);
 const clone = <T>(v: T): T => JSON.parse(JSON.stringify(v)) as T;
 
-export async function startPaymentFake(opts: { webhookUrl?: string; port?: number } = {}): Promise<PaymentFake> {
+/**
+ * `clock` dates the objects (`created`), so a test's clock and the provider's agree on what
+ * happened on which day; webhook signatures always carry the real time, as the SDK checks it.
+ */
+export async function startPaymentFake(opts: { webhookUrl?: string; port?: number; clock?: () => Date } = {}): Promise<PaymentFake> {
+  const clock = opts.clock ?? (() => new Date());
+  const now = () => Math.floor(clock().getTime() / 1000);
   const secretKey = `sk_test_fake_${crypto.randomBytes(12).toString('hex')}`;
   const webhookSecret = `whsec_${crypto.randomBytes(24).toString('hex')}`;
   const intents = new Map<string, Obj>();
@@ -55,6 +81,11 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
   let closed = false;
   let wake: (() => void) | null = null; // cuts a backoff sleep short on close()
   let inflight: http.ClientRequest | null = null;
+  let heldWebhooks = false;
+  let offline = false;
+  let answersToLose = 0;
+  const lostKeys = new Set<string>(); // idempotency keys whose answers are being lost
+  let settledWaiters: (() => void)[] = [];
 
   function emit(type: string, object: Obj, ctx: Ctx) {
     const event: FakeEvent = {
@@ -67,9 +98,14 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
   }
 
   function pump() {
-    if (delivering || closed) return;
+    if (delivering || closed || heldWebhooks) return;
     const next = queue.shift();
-    if (!next) return;
+    if (!next) {
+      const waiters = settledWaiters;
+      settledWaiters = [];
+      waiters.forEach((resolve) => resolve());
+      return;
+    }
     delivering = true;
     void deliver(next.event, next.url).finally(() => { delivering = false; pump(); });
   }
@@ -91,7 +127,7 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
 
   function postOnce(url: string, payload: string): Promise<boolean> {
     return new Promise((resolve) => {
-      const t = now();
+      const t = Math.floor(Date.now() / 1000);
       const v1 = crypto.createHmac('sha256', webhookSecret).update(`${t}.${payload}`, 'utf8').digest('hex');
       const target = new URL(url);
       const req = (target.protocol === 'https:' ? https : http).request(target, {
@@ -118,6 +154,7 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
 
   /** Charges the card on the PaymentIntent: success, or a decline answered with 402. */
   function runCard(pi: Obj, c: TestCard, ctx: Ctx) {
+    ctx.ranCard = true;
     const charge: Obj = {
       id: newId('ch'), object: 'charge', amount: pi.amount, amount_captured: c.decline ? 0 : pi.amount, amount_refunded: 0,
       currency: pi.currency, payment_intent: pi.id, payment_method: c.paymentMethod, paid: !c.decline, captured: !c.decline,
@@ -216,10 +253,18 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
   function route(method: string, path: string, p: Form, ctx: Ctx): Obj {
     let m: RegExpExecArray | null;
     if (method === 'POST' && path === '/v1/payment_intents') return createIntent(p, ctx);
+    if (method === 'GET' && path === '/v1/payment_intents') return listPage(path, intents.values(), p, []);
+    if (method === 'GET' && path === '/v1/payment_intents/search') return searchPage(path, intents.values(), p);
     if ((m = /^\/v1\/payment_intents\/([^/]+)$/.exec(path)) && method === 'GET') return intent(m[1]);
     if ((m = /^\/v1\/payment_intents\/([^/]+)\/confirm$/.exec(path)) && method === 'POST') return confirmIntent(intent(m[1]), p, ctx);
     if ((m = /^\/v1\/payment_intents\/([^/]+)\/cancel$/.exec(path)) && method === 'POST') return cancelIntent(intent(m[1]), p, ctx);
     if (method === 'POST' && path === '/v1/refunds') return createRefund(p, ctx);
+    if (method === 'GET' && path === '/v1/refunds') {
+      const piId = str(p, 'payment_intent');
+      const chargeId = str(p, 'charge');
+      return listPage(path, refunds.values(), p, ['payment_intent', 'charge'],
+        (r) => (piId === undefined || r.payment_intent === piId) && (chargeId === undefined || r.charge === chargeId));
+    }
     if ((m = /^\/v1\/refunds\/([^/]+)$/.exec(path)) && method === 'GET') {
       const refund = refunds.get(m[1]);
       if (!refund) throw missing('refund', m[1]);
@@ -228,7 +273,20 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
     throw new ApiError(404, { type: 'invalid_request_error', message: `Unrecognized request URL (${method}: ${path}).` }, false);
   }
 
+  /** A lost answer: the request was handled, but the caller hears only a closed connection. */
+  function loseAnswer(key: string | null, ranCard: boolean, res: http.ServerResponse): boolean {
+    if (answersToLose <= 0 || !key || !(ranCard || lostKeys.has(key))) return false;
+    answersToLose--;
+    lostKeys.add(key);
+    res.socket?.destroy();
+    return true;
+  }
+
   async function onRequest(req: http.IncomingMessage, res: http.ServerResponse) {
+    if (offline) {
+      req.socket.destroy();
+      return;
+    }
     const requestId = newId('req');
     const apiVersion = String(req.headers['stripe-version'] ?? DEFAULT_API_VERSION);
     const idempotencyKey = req.method === 'POST' ? (req.headers['idempotency-key'] as string | undefined) ?? null : null;
@@ -266,9 +324,12 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
         if (prior && (prior.method !== method || prior.path !== url.pathname || prior.fingerprint !== fingerprint)) {
           return send(fail(invalid(`Keys for idempotent requests can only be used with the same parameters they were first used with. Try using a key other than '${idempotencyKey}' if you meant to execute a different request.`, { type: 'idempotency_error' })));
         }
-        if (prior) return send(prior.result, { 'Idempotent-Replayed': 'true' });
+        if (prior) {
+          if (loseAnswer(idempotencyKey, false, res)) return;
+          return send(prior.result, { 'Idempotent-Replayed': 'true' });
+        }
       }
-      const ctx: Ctx = { requestId, idempotencyKey, apiVersion };
+      const ctx: Ctx = { requestId, idempotencyKey, apiVersion, ranCard: false };
       let result: Result;
       try {
         result = { status: 200, body: route(method, url.pathname, params, ctx), store: true };
@@ -281,6 +342,7 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
         idempotency.set(idempotencyKey, { method, path: url.pathname, fingerprint, result });
         if (idempotency.size > 10_000) idempotency.delete(idempotency.keys().next().value as string);
       }
+      if (loseAnswer(idempotencyKey, ctx.ranCard, res)) return;
       send(result);
     } catch (e) {
       if (e instanceof ApiError) return send(fail(e));
@@ -302,10 +364,35 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
       webhookUrl = url;
     },
     events: () => produced.slice(),
+    faults: {
+      loseChargeAnswers(times = Number.POSITIVE_INFINITY) {
+        answersToLose = times;
+        if (times <= 0) lostKeys.clear();
+      },
+      setOffline(on) {
+        offline = on;
+      },
+      holdWebhooks(on) {
+        heldWebhooks = on;
+        if (!on) setImmediate(pump);
+      },
+      clear() {
+        fake.faults.loseChargeAnswers(0);
+        fake.faults.setOffline(false);
+        fake.faults.holdWebhooks(false);
+      },
+    },
+    webhooksSettled: () =>
+      new Promise<void>((resolve) => {
+        if (closed || (!delivering && queue.length === 0)) return resolve();
+        settledWaiters.push(resolve);
+      }),
     async close() {
       if (closed) return;
       closed = true;
       queue.length = 0;
+      settledWaiters.forEach((resolve) => resolve());
+      settledWaiters = [];
       wake?.();
       inflight?.destroy();
       await new Promise<void>((resolve) => { server.close(() => resolve()); server.closeAllConnections(); });

@@ -17,19 +17,91 @@ export class GatewayUnavailable extends Error {}
 /** The provider looked at the request and said no (e.g. nothing left to refund). */
 export class GatewayRefused extends Error {}
 
+/** What the provider says about one charge (one PaymentIntent). */
+export interface ChargeState {
+  providerId: string;
+  /**
+   * succeeded: money taken. declined: the card said no. open: never confirmed, so no money moved.
+   * canceled: closed without money. pending: the provider is still working on it.
+   */
+  status: 'succeeded' | 'declined' | 'open' | 'canceled' | 'pending';
+  amountCents: number;
+  /** what was taken (0 unless succeeded) */
+  receivedCents: number;
+  currency: string;
+  metadata: Record<string, string>;
+  createdAt: string;
+  declineCode: string | null;
+}
+
+/** A refund the provider made. */
+export interface ProviderRefund {
+  providerId: string;
+  /** the charge (PaymentIntent) it gives money back from */
+  chargeId: string | null;
+  amountCents: number;
+  status: string;
+  createdAt: string;
+}
+
 export interface PaymentGateway {
-  /** Create and confirm a payment; resolves once it has succeeded, throws CardDeclined otherwise. */
-  chargeCard(input: {
+  /**
+   * Create the charge without taking money yet, so its id can be stored before the card is run:
+   * if the answer to the next step is lost, Jugline can still ask what became of it.
+   */
+  createCharge(input: {
     amountCents: number;
     currency: string;
     paymentMethod: string;
     idempotencyKey: string;
     metadata: Record<string, string>;
   }): Promise<{ providerId: string }>;
+  /** Run the card; resolves once the charge has succeeded, throws CardDeclined otherwise. */
+  confirmCharge(input: { providerId: string; idempotencyKey: string }): Promise<ChargeState>;
+  /** The charge as the provider has it now; null when it has none by that id. */
+  lookupCharge(providerId: string): Promise<ChargeState | null>;
   cancel(providerId: string): Promise<void>;
-  refund(input: { providerId: string; amountCents: number; idempotencyKey: string; reason: string }): Promise<{ providerId: string }>;
+  refund(input: {
+    providerId: string;
+    amountCents: number;
+    idempotencyKey: string;
+    /** kept with the refund at the provider */
+    reason: string;
+    /** the provider's own reason code, when one fits */
+    providerReason?: 'duplicate' | 'requested_by_customer';
+    metadata?: Record<string, string>;
+  }): Promise<{ providerId: string }>;
+  /** Every charge the provider created in [fromMs, toMs), whatever became of it. */
+  listCharges(fromMs: number, toMs: number): Promise<ChargeState[]>;
+  /** Every refund the provider made in [fromMs, toMs). */
+  listRefunds(fromMs: number, toMs: number): Promise<ProviderRefund[]>;
   /** Verify the provider's signature on a webhook; throws on a bad or stale signature. */
   parseWebhook(rawBody: Buffer, signature: string): Stripe.Event;
+}
+
+const iso = (unixSeconds: number) => new Date(unixSeconds * 1000).toISOString();
+
+function chargeState(pi: Stripe.PaymentIntent): ChargeState {
+  const status: ChargeState['status'] =
+    pi.status === 'succeeded'
+      ? 'succeeded'
+      : pi.status === 'canceled'
+        ? 'canceled'
+        : pi.status === 'requires_payment_method' && pi.last_payment_error
+          ? 'declined'
+          : pi.status === 'requires_payment_method' || pi.status === 'requires_confirmation'
+            ? 'open'
+            : 'pending';
+  return {
+    providerId: pi.id,
+    status,
+    amountCents: pi.amount,
+    receivedCents: pi.amount_received ?? 0,
+    currency: pi.currency,
+    metadata: (pi.metadata ?? {}) as Record<string, string>,
+    createdAt: iso(pi.created),
+    declineCode: pi.last_payment_error?.decline_code ?? pi.last_payment_error?.code ?? null,
+  };
 }
 
 export interface GatewayConfig {
@@ -60,22 +132,34 @@ export function createStripeGateway(config: GatewayConfig): PaymentGateway {
     throw err;
   };
 
+  const range = (fromMs: number, toMs: number) => ({ gte: Math.ceil(fromMs / 1000), lt: Math.ceil(toMs / 1000) });
+
   return {
-    async chargeCard({ amountCents, currency, paymentMethod, idempotencyKey, metadata }) {
+    async createCharge({ amountCents, currency, paymentMethod, idempotencyKey, metadata }) {
       try {
         const pi = await stripe.paymentIntents.create(
-          {
-            amount: amountCents,
-            currency: currency.toLowerCase(),
-            payment_method: paymentMethod,
-            confirm: true,
-            metadata,
-          },
+          { amount: amountCents, currency: currency.toLowerCase(), payment_method: paymentMethod, metadata },
           { idempotencyKey },
         );
-        if (pi.status !== 'succeeded') throw new CardDeclined('The card was not charged', 'not_succeeded', null, pi.id);
         return { providerId: pi.id };
       } catch (err) {
+        return wrap(err);
+      }
+    },
+    async confirmCharge({ providerId, idempotencyKey }) {
+      try {
+        const pi = await stripe.paymentIntents.confirm(providerId, {}, { idempotencyKey });
+        if (pi.status !== 'succeeded') throw new CardDeclined('The card was not charged', 'not_succeeded', null, pi.id);
+        return chargeState(pi);
+      } catch (err) {
+        return wrap(err);
+      }
+    },
+    async lookupCharge(providerId) {
+      try {
+        return chargeState(await stripe.paymentIntents.retrieve(providerId));
+      } catch (err) {
+        if (err instanceof Stripe.errors.StripeInvalidRequestError && err.statusCode === 404) return null;
         return wrap(err);
       }
     },
@@ -86,13 +170,39 @@ export function createStripeGateway(config: GatewayConfig): PaymentGateway {
         wrap(err);
       }
     },
-    async refund({ providerId, amountCents, idempotencyKey, reason }) {
+    async refund({ providerId, amountCents, idempotencyKey, reason, providerReason, metadata }) {
       try {
         const refund = await stripe.refunds.create(
-          { payment_intent: providerId, amount: amountCents, metadata: { reason } },
+          { payment_intent: providerId, amount: amountCents, reason: providerReason, metadata: { ...metadata, reason } },
           { idempotencyKey },
         );
         return { providerId: refund.id };
+      } catch (err) {
+        return wrap(err);
+      }
+    },
+    async listCharges(fromMs, toMs) {
+      try {
+        const out: ChargeState[] = [];
+        for await (const pi of stripe.paymentIntents.list({ created: range(fromMs, toMs), limit: 100 })) out.push(chargeState(pi));
+        return out;
+      } catch (err) {
+        return wrap(err);
+      }
+    },
+    async listRefunds(fromMs, toMs) {
+      try {
+        const out: ProviderRefund[] = [];
+        for await (const r of stripe.refunds.list({ created: range(fromMs, toMs), limit: 100 })) {
+          out.push({
+            providerId: r.id,
+            chargeId: typeof r.payment_intent === 'string' ? r.payment_intent : (r.payment_intent?.id ?? null),
+            amountCents: r.amount,
+            status: r.status ?? 'succeeded',
+            createdAt: iso(r.created),
+          });
+        }
+        return out;
       } catch (err) {
         return wrap(err);
       }

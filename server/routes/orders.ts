@@ -1,7 +1,8 @@
 import { availabilityBody, createOrderBody, idParam, ordersQuery, refundBody, voidBody } from '../../src/domain/schemas';
 import { userOf } from '../auth/guards';
 import { HttpError, notFound, parse } from '../errors';
-import { handlePaymentWebhook } from '../services/card-payments';
+import { GatewayUnavailable } from '../payments/gateway';
+import { handlePaymentWebhook } from '../services/card-settle';
 import type { Deps } from '../services/deps';
 import { setItemAvailability } from '../services/menu-availability';
 import { loadMenu } from '../services/menu';
@@ -96,7 +97,14 @@ export function orderRoutes(deps: Deps): ApiRoute[] {
         } catch {
           throw new HttpError(400, 'validation_failed', 'The webhook signature does not match');
         }
-        await handlePaymentWebhook(deps, event);
+        try {
+          await handlePaymentWebhook(deps, event);
+        } catch (err) {
+          if (!(err instanceof GatewayUnavailable)) throw err;
+          // Jugline couldn't ask the card service about it: the card service sends it again later.
+          res.set('Retry-After', '60');
+          throw new HttpError(503, 'unavailable', 'The card service did not answer; send this event again later');
+        }
         res.json({ received: true });
       },
     },

@@ -1,9 +1,11 @@
 // Reports for the lead and the owner: a shift's or a date range's numbers, the ticket history,
-// and their CSV downloads.
+// their CSV downloads, and the day's card check (with "settle", which may give money back).
 import type { Response } from 'express';
+import { cardCheckQuery, cardSettleBody } from '../../src/domain/card-check-schemas';
 import { idParam, reportRangeQuery, ticketCsvQuery, ticketHistoryQuery } from '../../src/domain/schemas';
 import { userOf } from '../auth/guards';
 import { parse } from '../errors';
+import { cardCheck, settleCardDay } from '../services/card-check';
 import type { Deps } from '../services/deps';
 import { rangeReport, reportCsv, reportShifts, shiftReport, ticketHistory, ticketRows, ticketsCsv } from '../services/reports';
 import { loadReportLocation } from '../services/reports/scope';
@@ -81,6 +83,24 @@ export function reportRoutes(deps: Deps): ApiRoute[] {
       handler: async (req, res) => {
         const query = parse(ticketHistoryQuery, req.query, 'query');
         res.json(await ticketHistory(deps.db, userOf(req).locationId, query));
+      },
+    },
+    {
+      method: 'get',
+      path: '/reports/cards',
+      capability: 'viewReports',
+      handler: async (req, res) => {
+        const { date } = parse(cardCheckQuery, req.query, 'query');
+        res.json(await cardCheck(deps, userOf(req).locationId, date));
+      },
+    },
+    {
+      method: 'post',
+      path: '/reports/cards/settle',
+      capability: 'refundOrders',
+      handler: async (req, res) => {
+        const { date } = parse(cardSettleBody, req.body);
+        res.json(await settleCardDay(deps, userOf(req).locationId, date));
       },
     },
   ];

@@ -1,18 +1,18 @@
-// Card payments. An attempt is recorded as "processing" before the provider is asked, and a
-// unique index allows one live attempt per order, so retries and races can never charge twice.
-// The order is fired to the bar only when the payment has succeeded — answered by the API call
-// or, if the answer was lost, by the provider's webhook.
-import type { Knex } from 'knex';
+// Card payments. An attempt is recorded as "processing" before the card service is asked, and a
+// unique index allows one live attempt per order. The charge is created first and its id stored,
+// then the card is run, each call under a key fixed for the attempt, so the SDK's own retries
+// replay rather than charge again. When the answer to running the card is lost, the attempt is
+// "unknown" until the card service says what happened (its webhook, or Jugline asking before the
+// order's money is touched again: the next card, cash or a void). The order is fired to the bar
+// only once its payment has succeeded.
 import type { OrderView, SessionUser } from '../../src/domain/types';
 import { isUniqueViolation } from '../db/rows';
 import { HttpError, conflict, notFound } from '../errors';
-import { CardDeclined } from '../payments/gateway';
+import { CardDeclined, GatewayRefused, type ChargeState } from '../payments/gateway';
+import { applyChargeState, markAttempt, settleOpenAttempts } from './card-settle';
 import type { Deps } from './deps';
-import { appendEvent, runCommand } from './events';
 import { loadLocation } from './menu';
-import { fireOrder } from './fire-order';
 import { loadOrder } from './orders';
-import { loadTicket } from './ticket-views';
 
 async function startAttempt(deps: Deps, user: SessionUser, orderId: number) {
   return deps.db.transaction(async (trx) => {
@@ -25,92 +25,65 @@ async function startAttempt(deps: Deps, user: SessionUser, orderId: number) {
         .insert({ order_id: orderId, method: 'card', status: 'processing', amount_cents: order.total_cents, created_at: at, updated_at: at })
         .returning('id');
       const location = await loadLocation(trx, user.locationId);
-      const declines = await trx('payments').where({ order_id: orderId, status: 'declined' }).count<{ n: number }>({ n: '*' }).first();
-      return {
-        paymentId: id as number,
-        amountCents: order.total_cents as number,
-        currency: location.currency,
-        declines: Number(declines?.n ?? 0),
-      };
+      return { paymentId: id as number, amountCents: order.total_cents as number, currency: location.currency };
     } catch (err) {
-      if (isUniqueViolation(err)) throw conflict('A card payment for this order is already in progress');
+      if (isUniqueViolation(err)) throw conflict('A card payment for this order is in progress');
       throw err;
     }
   });
 }
 
-async function markAttempt(deps: Deps, paymentId: number, fields: Record<string, unknown>) {
-  await deps.db('payments')
-    .where({ id: paymentId, status: 'processing' })
-    .update({ ...fields, updated_at: deps.clock().toISOString() });
-}
+const unavailable = (orderId: number, message: string) => new HttpError(502, 'payment_unavailable', message, { orderId });
+const messageOf = (err: unknown) => String((err as Error)?.message ?? err).slice(0, 200);
 
 export async function payByCard(deps: Deps, user: SessionUser, orderId: number, paymentMethod: string): Promise<OrderView> {
-  if (!deps.payments) throw new HttpError(503, 'unavailable', 'Card payments are not set up here; take cash');
+  const gateway = deps.payments;
+  if (!gateway) throw new HttpError(503, 'unavailable', 'Card payments are not set up here; take cash');
+  // Never run a card while an earlier one's outcome is unknown: it may have been charged.
+  if (!(await settleOpenAttempts(deps, orderId))) {
+    throw unavailable(orderId, "The card service isn't answering, so whether the last card was charged isn't known yet. Try again in a moment, or take cash.");
+  }
   const attempt = await startAttempt(deps, user, orderId);
   if (!attempt) return loadOrder(deps.db, orderId);
+  const key = `jugline-payment-${attempt.paymentId}`;
+
   let providerId: string;
   try {
-    ({ providerId } = await deps.payments.chargeCard({
+    ({ providerId } = await gateway.createCharge({
       amountCents: attempt.amountCents,
       currency: attempt.currency,
       paymentMethod,
-      // Same order, same card, no decline in between: the same key. If an earlier try's answer was
-      // lost, the provider replays its outcome instead of charging the card a second time.
-      idempotencyKey: `jugline-order-${orderId}-${attempt.declines}-${paymentMethod}`,
-      metadata: { orderId: String(orderId), paymentId: String(attempt.paymentId) },
+      idempotencyKey: key,
+      metadata: { orderId: String(orderId), paymentId: String(attempt.paymentId), locationId: String(user.locationId) },
     }));
   } catch (err) {
+    // The card was not run: nothing can have been charged.
+    await markAttempt(deps, attempt.paymentId, ['processing'], { status: 'failed', message: messageOf(err) });
+    if (err instanceof GatewayRefused) throw new HttpError(409, 'conflict', `The card service refused the payment: ${err.message}`, { orderId });
+    throw unavailable(orderId, 'The card service did not answer, and the card was not charged. Try the card again, or take cash.');
+  }
+  await markAttempt(deps, attempt.paymentId, ['processing'], { provider_id: providerId });
+
+  let state: ChargeState;
+  try {
+    state = await gateway.confirmCharge({ providerId, idempotencyKey: `${key}-confirm` });
+  } catch (err) {
     if (err instanceof CardDeclined) {
-      await markAttempt(deps, attempt.paymentId, {
+      await markAttempt(deps, attempt.paymentId, ['processing'], {
         status: 'declined',
-        provider_id: err.providerId,
         decline_code: err.declineCode ?? err.code,
         message: err.message.slice(0, 200),
       });
-      throw new HttpError(402, 'payment_declined', `Card declined: ${err.message}`, {
-        orderId,
-        code: err.code,
-        declineCode: err.declineCode,
-      });
+      throw new HttpError(402, 'payment_declined', `Card declined: ${err.message}`, { orderId, code: err.code, declineCode: err.declineCode });
     }
-    await markAttempt(deps, attempt.paymentId, { status: 'failed', message: String((err as Error).message).slice(0, 200) });
-    throw new HttpError(502, 'payment_unavailable', 'The card service did not answer. Try the card again, or take cash.', { orderId });
+    // The answer was lost: the card may or may not have been charged.
+    await markAttempt(deps, attempt.paymentId, ['processing'], { status: 'unknown', message: messageOf(err) });
+    // The card service answers other calls: ask it now.
+    if (err instanceof GatewayRefused) await settleOpenAttempts(deps, orderId);
+    const order = await loadOrder(deps.db, orderId);
+    if (order.paymentStatus !== 'unpaid') return order; // its webhook came meanwhile
+    throw unavailable(orderId, 'The card service did not answer. Jugline asks it what happened before the card is tried again: send again, or take cash.');
   }
-  return settleCardPayment(deps, attempt.paymentId, providerId);
-}
-
-/**
- * Record a succeeded card payment and fire its order. Safe to call twice (the API answer and the
- * webhook both do): only the first changes anything or publishes an event.
- */
-export async function settleCardPayment(deps: Deps, paymentId: number, providerId: string): Promise<OrderView> {
-  return runCommand(deps, async (trx: Knex.Transaction) => {
-    const payment = await trx('payments').where({ id: paymentId }).first();
-    if (!payment) throw notFound('Payment');
-    const order = await trx('orders').where({ id: payment.order_id }).first();
-    if (payment.status === 'succeeded' || order.status !== 'pending') {
-      return { result: await loadOrder(trx, order.id), events: [] };
-    }
-    const at = deps.clock().toISOString();
-    await trx('payments').where({ id: paymentId }).update({ status: 'succeeded', provider_id: providerId, updated_at: at });
-    await fireOrder(trx, order.id, at);
-    const ticket = await loadTicket(trx, order.id);
-    const event = await appendEvent(trx, order.location_id, 'order.fired', ticket, at, null);
-    return { result: await loadOrder(trx, order.id), events: [event] };
-  });
-}
-
-/** The provider's word on a payment whose API answer we may have missed. */
-export async function handlePaymentWebhook(deps: Deps, event: { type: string; data: { object: any } }) {
-  const pi = event.data.object;
-  const paymentId = Number(pi?.metadata?.paymentId);
-  if (!Number.isInteger(paymentId) || paymentId <= 0) return;
-  if (event.type === 'payment_intent.succeeded') {
-    const payment = await deps.db('payments').where({ id: paymentId }).first('status');
-    // money was taken: settle even an attempt we had marked failed after a lost answer
-    if (payment && payment.status !== 'declined') await settleCardPayment(deps, paymentId, pi.id);
-  } else if (event.type === 'payment_intent.payment_failed') {
-    await markAttempt(deps, paymentId, { status: 'declined', provider_id: pi.id, decline_code: pi.last_payment_error?.decline_code ?? null });
-  }
+  await applyChargeState(deps, attempt.paymentId, state);
+  return loadOrder(deps.db, orderId);
 }

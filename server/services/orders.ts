@@ -7,6 +7,7 @@ import type { OrderView, SessionUser } from '../../src/domain/types';
 import { isUniqueViolation, json } from '../db/rows';
 import { HttpError, conflict } from '../errors';
 import { payByCard } from './card-payments';
+import { settleOpenAttempts } from './card-settle';
 import { fireOrder } from './fire-order';
 import { orderItemRow } from './order-item-row';
 import type { Deps } from './deps';
@@ -203,6 +204,9 @@ export async function createOrder(
 
 /** A card was declined and the customer pays cash instead: settle the waiting order and fire it. */
 async function payPendingByCash(deps: Deps, user: SessionUser, orderId: number, tendered: number): Promise<OrderView> {
+  // A card whose answer was lost may have been charged: if so, the order is paid and no cash is
+  // taken. If the card service can't say, cash goes ahead and a charge found later is given back.
+  await settleOpenAttempts(deps, orderId);
   return runCommand(deps, async (trx) => {
     const order = await trx('orders').where({ id: orderId, location_id: user.locationId }).first();
     if (order.status !== 'pending' || order.payment_status !== 'unpaid') return { result: await loadOrder(trx, orderId), events: [] };

@@ -4,6 +4,7 @@ import type { SessionUser } from '../../src/domain/types';
 import { HttpError, conflict, notFound } from '../errors';
 import { GatewayRefused, GatewayUnavailable } from '../payments/gateway';
 import type { Deps } from './deps';
+import { releaseStaleAttempts, settleOpenAttempts } from './card-settle';
 import { appendEvent, runCommand } from './events';
 import { findOrderInLocation, loadOrder } from './orders';
 import { loadTicket } from './ticket-views';
@@ -82,6 +83,7 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
 }
 
 export async function voidOrder(deps: Deps, user: SessionUser, orderId: number, reason: string) {
+  if (await findOrderInLocation(deps.db, user, orderId)) await releaseStaleAttempts(deps, orderId);
   const result = await runCommand(deps, async (trx) => {
     const order = await trx('orders').where({ id: orderId, location_id: user.locationId }).first();
     if (!order) throw notFound('Order');
@@ -103,5 +105,8 @@ export async function voidOrder(deps: Deps, user: SessionUser, orderId: number, 
   });
   // Tidy the provider's side too; a failure here changes nothing for the café.
   for (const providerId of result.toCancel) await deps.payments?.cancel(providerId).catch(() => undefined);
+  // A card whose answer was lost may have been charged: the order is void now, so such a charge
+  // is given back. If the card service can't say yet, its webhook or the card check does it later.
+  await settleOpenAttempts(deps, orderId);
   return result.order;
 }

@@ -1,7 +1,9 @@
 // The Reports part of the screens' Api during server rendering: straight to the services.
+import { cardCheckQuery } from '../../src/domain/card-check-schemas';
 import { parse } from '../errors';
 import { reportRangeQuery, ticketHistoryQuery } from '../../src/domain/schemas';
 import type { ReportsApi } from '../../src/lib/reports-api';
+import { cardCheck } from '../services/card-check';
 import type { Deps } from '../services/deps';
 import { rangeReport, reportShifts, shiftReport, ticketHistory } from '../services/reports';
 
@@ -15,5 +17,6 @@ export function reportsServerApi(deps: Deps, locationId: () => number): ReportsA
       return rangeReport(deps.db, locationId(), q.from, q.to, deps.clock());
     },
     tickets: (params) => ticketHistory(deps.db, locationId(), parse(ticketHistoryQuery, params, 'query')),
+    cardCheck: (date) => cardCheck(deps, locationId(), parse(cardCheckQuery, { date }, 'query').date),
   };
 }

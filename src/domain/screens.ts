@@ -8,6 +8,7 @@ export const SCREENS = {
   pickup: { path: '/pickup', label: 'Pickup', need: 'viewPickup' },
   pulse: { path: '/pulse', label: 'Pulse', need: 'viewPulse' },
   reports: { path: '/reports', label: 'Reports', need: 'viewReports' },
+  cardCheck: { path: '/reports/cards', label: 'Card check', need: 'viewReports' },
   outbox: { path: '/outbox', label: 'Outbox', need: 'viewOutbox' },
   receipt: { path: '/receipts/:id', label: 'Receipt', need: 'takeOrders' },
   labels: { path: '/labels/:id', label: 'Cup labels', need: 'takeOrders' },

@@ -1,5 +1,6 @@
 // The Reports part of the Api: over HTTP in the browser (server/ssr/reports-api.ts has the
 // server-rendering side). Query strings use the same names the routes validate.
+import type { CardCheckView } from '../domain/card-check';
 import type { ReportShiftsView, ReportView, TicketHistoryPage, TicketSort } from '../domain/reports';
 import type { TicketStatus } from '../domain/types';
 import { http } from './http';
@@ -22,6 +23,8 @@ export interface ReportsApi {
   /** Café-local dates, both included. */
   range(from: string, to: string): Promise<ReportView>;
   tickets(params: TicketHistoryParams): Promise<TicketHistoryPage>;
+  /** The card check of a café-local date (today when left out). */
+  cardCheck(date?: string): Promise<CardCheckView>;
 }
 
 /** "?a=1&b=x" from the defined values, in the given order. */
@@ -37,4 +40,5 @@ export const httpReportsApi: ReportsApi = {
   shift: (id) => http('GET', `/reports/shift/${id}`),
   range: (from, to) => http('GET', `/reports/range${queryString({ from, to })}`),
   tickets: (params) => http('GET', `/reports/tickets${queryString(params)}`),
+  cardCheck: (date) => http('GET', `/reports/cards${queryString({ date })}`),
 };

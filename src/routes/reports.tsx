@@ -62,6 +62,9 @@ function Reports() {
         <a href={reportCsvHref(period)} download className={buttonStyles({ tone: 'quiet' })} data-testid="report-csv">
           Download report CSV
         </a>
+        <Link to={SCREENS.cardCheck.path} className={buttonStyles({ tone: 'quiet' })}>
+          Card check
+        </Link>
         <Link to="/" className="ml-auto text-lg font-semibold underline">
           Back to my screen
         </Link>

@@ -319,27 +319,38 @@ describe('POST /api/webhooks/payments', () => {
   });
 
   it('settles a payment whose API answer was lost: a signed payment_intent.succeeded pays and fires the order, once', async () => {
-    const { order } = await declinedOrder('Ravenna Oakes');
-    const paymentId = await lostAttempt(order.id, order.totalCents);
-    const payload = succeededEvent('pi_lost_answer_0001', order.id, paymentId, order.totalCents);
-    const signature = Stripe.webhooks.generateTestHeaderString({ payload, secret: server.payments.webhookSecret });
+    // The card is charged, but every answer the SDK waits for is lost, and the provider's
+    // webhook is held back until the test sends it itself.
+    const fake = server.payments.fake!;
+    fake.faults.holdWebhooks(true);
+    fake.faults.loseChargeAnswers();
+    const sent = await cashier.post('/api/orders').send(cardBody('Ravenna Oakes', latteAndCroissant(), VISA));
+    fake.faults.loseChargeAnswers(0);
+    expect(sent.status).toBe(502);
+    const orderId: number = sent.body.error.details.orderId;
+    const [attempt] = await paymentRows(orderId);
+    expect(attempt).toMatchObject({ status: 'unknown', provider_id: expect.stringMatching(/^pi_/) });
+    const event = fake.events().find((e) => e.type === 'payment_intent.succeeded' && e.data.object.id === attempt.provider_id);
+    const payload = JSON.stringify(event);
 
     // No session: the signature is what says who is calling.
-    const res = await webhook(payload, signature);
+    const res = await webhook(payload, Stripe.webhooks.generateTestHeaderString({ payload, secret: server.payments.webhookSecret }));
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     expect(res.body).toEqual({ received: true });
 
-    const paid = (await cashier.get(`/api/orders/${order.id}`)).body.order;
-    expect(paid).toMatchObject({ status: 'open', paymentStatus: 'paid', firedAt: nowIso(), payment: { method: 'card', providerId: 'pi_lost_answer_0001' } });
-    expect(await server.db('payments').where({ id: paymentId }).first()).toMatchObject({ status: 'succeeded', provider_id: 'pi_lost_answer_0001' });
-    expect(await openTicket(order.id)).toBeDefined();
-    expect(await eventTypes(order.id)).toEqual(['order.taken', 'order.fired']);
+    const paid = (await cashier.get(`/api/orders/${orderId}`)).body.order;
+    expect(paid).toMatchObject({ status: 'open', paymentStatus: 'paid', firedAt: nowIso(), payment: { method: 'card', providerId: attempt.provider_id } });
+    expect(await server.db('payments').where({ id: attempt.id }).first()).toMatchObject({ status: 'succeeded', provider_id: attempt.provider_id });
+    expect(await openTicket(orderId)).toBeDefined();
+    expect(await eventTypes(orderId)).toEqual(['order.taken', 'order.fired']);
 
-    // The provider delivers at least once: the same event again changes nothing.
+    // The provider delivers at least once: the same event again (and the held one) changes nothing.
     const again = await webhook(payload, Stripe.webhooks.generateTestHeaderString({ payload, secret: server.payments.webhookSecret }));
     expect(again.status).toBe(200);
-    expect(await eventTypes(order.id)).toEqual(['order.taken', 'order.fired']);
-    expect((await paymentRows(order.id)).map((p) => p.status)).toEqual(['declined', 'succeeded']);
+    fake.faults.holdWebhooks(false);
+    await fake.webhooksSettled();
+    expect(await eventTypes(orderId)).toEqual(['order.taken', 'order.fired']);
+    expect((await paymentRows(orderId)).map((p) => p.status)).toEqual(['succeeded']);
   });
 
   it('a succeeded event for an attempt that was declined changes nothing', async () => {

@@ -263,3 +263,120 @@ describe('webhooks', () => {
     expect(verified(deliveries[0]).type).toBe('payment_intent.canceled');
   });
 });
+
+describe('lists and search', () => {
+  // A fake of its own on a clock the test moves, so `created` and the ranges are known.
+  let dated: PaymentFake;
+  let sdk: Stripe;
+  let at = Date.parse('2026-04-01T09:00:00Z');
+  const unix = (iso: string) => Date.parse(iso) / 1000;
+  beforeAll(async () => {
+    dated = await startPaymentFake({ clock: () => new Date(at) });
+    sdk = new Stripe(dated.secretKey, { host: dated.host, port: dated.port, protocol: 'http' });
+  });
+  afterAll(() => dated?.close());
+
+  async function charge(iso: string, amount: number, metadata: Record<string, string>) {
+    at = Date.parse(iso);
+    return sdk.paymentIntents.create({ amount, currency: 'usd', payment_method: 'pm_card_visa', confirm: true, metadata });
+  }
+
+  it('lists PaymentIntents newest first, in a created range, page by page', async () => {
+    const early = await charge('2026-04-01T09:00:00Z', 100, { day: 'a' });
+    const ids = [];
+    for (let i = 0; i < 5; i++) ids.push((await charge(`2026-04-02T10:0${i}:00Z`, 200 + i, { day: 'b' })).id);
+    const late = await charge('2026-04-03T08:00:00Z', 300, { day: 'c' });
+    expect(early.created).toBe(unix('2026-04-01T09:00:00Z'));
+
+    const range = { gte: unix('2026-04-02T00:00:00Z'), lt: unix('2026-04-03T00:00:00Z') };
+    const first = await sdk.paymentIntents.list({ created: range, limit: 2 });
+    expect(first).toMatchObject({ object: 'list', has_more: true });
+    expect(first.data.map((p) => p.id)).toEqual([ids[4], ids[3]]);
+    // the SDK follows starting_after through the pages
+    const all = await sdk.paymentIntents.list({ created: range, limit: 2 }).autoPagingToArray({ limit: 100 });
+    expect(all.map((p) => p.id)).toEqual([...ids].reverse());
+    expect((await sdk.paymentIntents.list({ created: { gt: range.lt } })).data.map((p) => p.id)).toEqual([late.id]);
+    await expect(sdk.paymentIntents.list({ limit: 101 })).rejects.toMatchObject({ type: 'StripeInvalidRequestError', param: 'limit' });
+  });
+
+  it("searches PaymentIntents by metadata['key']:'value' and status, joined by AND", async () => {
+    const a = await charge('2026-04-04T09:00:00Z', 410, { orderId: '77', paymentId: '1' });
+    const b = await charge('2026-04-04T09:01:00Z', 410, { orderId: '77', paymentId: '2' });
+    await charge('2026-04-04T09:02:00Z', 410, { orderId: '78', paymentId: '3' });
+    const open = await sdk.paymentIntents.create({ amount: 410, currency: 'usd', metadata: { orderId: '77', paymentId: '4' } });
+
+    const found = await sdk.paymentIntents.search({ query: "metadata['orderId']:'77'" });
+    expect(found).toMatchObject({ object: 'search_result', has_more: false, next_page: null });
+    expect(found.data.map((p) => p.id)).toEqual([open.id, b.id, a.id]);
+    const paid = await sdk.paymentIntents.search({ query: "metadata['orderId']:'77' AND status:'succeeded'", limit: 1 });
+    expect(paid.data.map((p) => p.id)).toEqual([b.id]);
+    expect(paid.has_more).toBe(true);
+    const pages = await sdk.paymentIntents.search({ query: "metadata['orderId']:'77' AND status:'succeeded'", limit: 1 }).autoPagingToArray({ limit: 10 });
+    expect(pages.map((p) => p.id)).toEqual([b.id, a.id]);
+    await expect(sdk.paymentIntents.search({ query: 'amount>3' })).rejects.toMatchObject({ type: 'StripeInvalidRequestError', param: 'query' });
+  });
+
+  it('lists refunds by PaymentIntent and created range', async () => {
+    const pi = await charge('2026-04-05T09:00:00Z', 900, {});
+    const other = await charge('2026-04-05T09:00:00Z', 900, {});
+    at = Date.parse('2026-04-05T12:00:00Z');
+    const r1 = await sdk.refunds.create({ payment_intent: pi.id, amount: 100 });
+    await sdk.refunds.create({ payment_intent: other.id, amount: 100 });
+    at = Date.parse('2026-04-06T12:00:00Z');
+    const r2 = await sdk.refunds.create({ payment_intent: pi.id, amount: 200 });
+
+    expect((await sdk.refunds.list({ payment_intent: pi.id })).data.map((r) => r.id)).toEqual([r2.id, r1.id]);
+    const day5 = await sdk.refunds.list({ created: { gte: unix('2026-04-05T00:00:00Z'), lt: unix('2026-04-06T00:00:00Z') } });
+    expect(day5.data.map((r) => r.amount)).toEqual([100, 100]);
+    expect(day5.data[1]).toMatchObject({ id: r1.id, object: 'refund', payment_intent: pi.id, created: unix('2026-04-05T12:00:00Z') });
+  });
+});
+
+describe('faults', () => {
+  afterAll(() => fake.faults.clear());
+
+  it('a lost answer charges once: the SDK tries again with the same Idempotency-Key and hears the replay', async () => {
+    fake.faults.loseChargeAnswers(1);
+    const before = fake.events().length;
+    const pi = await stripe.paymentIntents.create(
+      { amount: 515, currency: 'usd', payment_method: 'pm_card_visa', confirm: true, metadata: { lost: 'once' } },
+      { idempotencyKey: `lost-once-${Date.now()}` },
+    );
+    expect(pi.status).toBe('succeeded');
+    expect(fake.events().slice(before).map((e) => e.type)).toEqual(['payment_intent.succeeded']);
+  });
+
+  it('answers lost on every try: the SDK gives up with a connection error, though the card was charged', async () => {
+    fake.faults.loseChargeAnswers();
+    const withRetries = new Stripe(fake.secretKey, { host: fake.host, port: fake.port, protocol: 'http', maxNetworkRetries: 2 });
+    const err = await withRetries.paymentIntents
+      .create({ amount: 516, currency: 'usd', payment_method: 'pm_card_visa', confirm: true, metadata: { lost: 'always' } }, { idempotencyKey: `lost-${Date.now()}` })
+      .then(() => null, (e: unknown) => e);
+    expect(err).toBeInstanceOf(Stripe.errors.StripeConnectionError);
+    fake.faults.loseChargeAnswers(0);
+    const found = await stripe.paymentIntents.search({ query: "metadata['lost']:'always'" });
+    expect(found.data.map((p) => [p.status, p.amount])).toEqual([['succeeded', 516]]);
+  });
+
+  it('offline: every request is hung up on and nothing is done', async () => {
+    fake.faults.setOffline(true);
+    const err = await stripe.paymentIntents
+      .create({ amount: 517, currency: 'usd', payment_method: 'pm_card_visa', confirm: true, metadata: { offline: 'yes' } })
+      .then(() => null, (e: unknown) => e);
+    expect(err).toBeInstanceOf(Stripe.errors.StripeConnectionError);
+    fake.faults.setOffline(false);
+    expect((await stripe.paymentIntents.search({ query: "metadata['offline']:'yes'" })).data).toEqual([]);
+  });
+
+  it('held webhooks are sent, in order, once let go', async () => {
+    fake.setWebhookUrl(receiverUrl);
+    fake.faults.holdWebhooks(true);
+    const pi = await stripe.paymentIntents.create({ amount: 518, currency: 'usd', payment_method: 'pm_card_visa', confirm: true });
+    await stripe.refunds.create({ payment_intent: pi.id });
+    await new Promise((resolve) => setImmediate(resolve));
+    expect(deliveries).toEqual([]);
+    fake.faults.holdWebhooks(false);
+    await fake.webhooksSettled();
+    expect(deliveries.map((d) => verified(d).type)).toEqual(['payment_intent.succeeded', 'charge.refunded', 'refund.created']);
+  });
+});

@@ -1,6 +1,8 @@
 // The café-local hour of a stored UTC timestamp, computed inside SQLite. SQLite knows no time
 // zones, so the zone's UTC offsets over the period (one per stretch between daylight-saving
 // changes) are worked out here with Intl and handed to strftime as '+N minutes' modifiers.
+import { addDays } from '../../../src/domain/freshness';
+
 const formatters = new Map<string, Intl.DateTimeFormat>();
 
 function partsFormatter(timeZone: string): Intl.DateTimeFormat {
@@ -26,6 +28,16 @@ export function offsetMinutes(ms: number, timeZone: string): number {
   const p = Object.fromEntries(partsFormatter(timeZone).formatToParts(new Date(ms)).map((x) => [x.type, x.value]));
   const wall = Date.UTC(+p.year, +p.month - 1, +p.day, +p.hour, +p.minute, +p.second);
   return Math.round((wall - Math.floor(ms / 1000) * 1000) / 60_000);
+}
+
+/** The instants [start, end) of a café-local date: its midnight to the next, across any clock change. */
+export function dayBounds(date: string, timeZone: string): [number, number] {
+  const midnight = (d: string) => {
+    const wall = Date.parse(`${d}T00:00:00Z`);
+    const guess = wall - offsetMinutes(wall, timeZone) * 60_000;
+    return wall - offsetMinutes(guess, timeZone) * 60_000;
+  };
+  return [midnight(date), midnight(addDays(date, 1))];
 }
 
 export interface OffsetStretch {

@@ -16,6 +16,7 @@ const MENU = [
   SCREENS.pickup,
   SCREENS.pulse,
   SCREENS.reports,
+  SCREENS.cardCheck,
   SCREENS.dialIn,
   SCREENS.adminMenu,
   SCREENS.adminTeam,
