@@ -28,6 +28,9 @@ export function offsetMinutes(ms: number, timeZone: string): number {
   return Math.round((wall - Math.floor(ms / 1000) * 1000) / 60_000);
 }
 
+/** The café-local hour (0–23) of an instant. */
+export const localHour = (ms: number, timeZone: string) => new Date(ms + offsetMinutes(ms, timeZone) * 60_000).getUTCHours();
+
 export interface OffsetStretch {
   /** first instant (ms) of the stretch */
   startMs: number;
