@@ -1,6 +1,7 @@
 // The Pickup board for customers: first names and numbers only, "Being made" and "Ready".
 import { useSuspenseQuery } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router';
+import { PICKUP_CAUTION } from '../domain/cautions';
 import { pickupBoard } from '../domain/tickets';
 import type { TicketView } from '../domain/types';
 import { LinkStateBadge } from '../components/ui/link-state';
@@ -63,7 +64,7 @@ function Pickup() {
       </div>
       <footer className="flex items-center gap-6 px-10 py-3 text-xl text-crema-300">
         <span>{board.location.name}</span>
-        <span>Careful — drinks are hot.</span>
+        <span>{PICKUP_CAUTION}</span>
         <LinkStateBadge state={link} className="ml-auto" />
       </footer>
     </div>
