@@ -1,6 +1,7 @@
 // Recipe units in the menu editor: grams typed as text ↔ tenths of a gram stored, and the brew ratio.
 import { describe, expect, it } from 'vitest';
-import { brewRatio, centsToAmountText, dgToGramsText, parseGramsToDg, parseWhole } from '../../src/domain/menu-units';
+import { brewRatioX10, formatRatio, ratioLabel } from '../../src/domain/format';
+import { centsToAmountText, dgToGramsText, parseGramsToDg, parseWhole } from '../../src/domain/menu-units';
 
 describe('grams ↔ tenths of a gram', () => {
   it('reads what an owner types', () => {
@@ -22,18 +23,24 @@ describe('grams ↔ tenths of a gram', () => {
   });
 });
 
-describe('brewRatio', () => {
+describe('brew ratio in the menu editor', () => {
+  it('is the one formatter the dial-in log uses: the same dose and yield read the same', () => {
+    // hand-worked: 38.7 ÷ 18 = 2.15 → 1:2.2 on both screens (it read 1:2.1 in the editor, 1:2.2 in the log)
+    expect(ratioLabel(180, 387)).toBe(formatRatio(brewRatioX10(180, 387)));
+    expect(ratioLabel(180, 387)).toBe('1:2.2');
+  });
   it('is yield ÷ dose', () => {
-    // common practice: a double of about 18 g in, 36 g out is a 1:2 brew ratio (check-values.md)
-    expect(brewRatio(180, 360)).toBe('1:2.0');
-    // the demo house recipe, 19 g → 38 g
-    expect(brewRatio(190, 380)).toBe('1:2.0');
-    // 18 g → 27 g, a "ristretto-style" 1:1.5 (common practice)
-    expect(brewRatio(180, 270)).toBe('1:1.5');
+    // docs/check-values.md, "Espresso and beans" (common practice): 18 g in, 36 g out is about 1:2
+    expect(ratioLabel(180, 360)).toBe('1:2.0');
+    // the demo house recipe, 19 g → 38 g (hand-worked: 2.0)
+    expect(ratioLabel(190, 380)).toBe('1:2.0');
+    // 18 g → 27 g, a "ristretto-style" 1:1.5 (common practice, from memory)
+    expect(ratioLabel(180, 270)).toBe('1:1.5');
   });
   it('has no ratio without a dose or a yield', () => {
-    expect(brewRatio(0, 360)).toBeNull();
-    expect(brewRatio(180, 0)).toBeNull();
+    // hand-worked: a ratio needs both
+    expect(ratioLabel(0, 360)).toBeNull();
+    expect(ratioLabel(180, 0)).toBeNull();
   });
 });
 
