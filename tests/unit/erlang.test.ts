@@ -185,7 +185,7 @@ describe('erlangC: numerics and invariants', () => {
   });
 
   it('rejects impossible inputs', () => {
-    // common practice: no negative counts, no empty window, a make time above 0, whole baristas
+    // our own input rules: no negative counts, no empty window, a make time above 0, whole baristas
     expect(() => erlangC(perMinute(-1, 60, 1))).toThrow(RangeError);
     expect(() => erlangC({ arrivals: 1, windowSeconds: 0, meanMakeSeconds: 60, servers: 1 })).toThrow(RangeError);
     expect(() => erlangC(perMinute(1, 0, 1))).toThrow(RangeError);

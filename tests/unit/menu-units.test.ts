@@ -5,7 +5,7 @@ import { centsToAmountText, dgToGramsText, parseGramsToDg, parseWhole } from '..
 
 describe('grams ↔ tenths of a gram', () => {
   it('reads what an owner types', () => {
-    // 1 g = 10 dg by the SI prefix deci- (BIPM SI Brochure, 9th ed., Table 7), from memory
+    // 1 g = 10 dg by the SI prefix deci- (BIPM SI Brochure, 9th ed.; docs/check-values.md, "Units", from memory)
     expect(parseGramsToDg('18')).toBe(180);
     expect(parseGramsToDg('18.5')).toBe(185);
     expect(parseGramsToDg('18,5')).toBe(185); // a decimal comma, as European owners write it
@@ -13,9 +13,11 @@ describe('grams ↔ tenths of a gram', () => {
     expect(parseGramsToDg('')).toBe(0);
   });
   it('refuses what is not grams to a tenth', () => {
+    // our own input rule: grams to a tenth, as a kitchen scale shows them
     for (const bad of ['18.55', '-18', 'eighteen', '1e2', '18..5', '.5']) expect(parseGramsToDg(bad), bad).toBeNull();
   });
   it('writes them back the way they were typed', () => {
+    // hand-worked: 180 dg = 18 g (docs/check-values.md, "Units": 1 g = 10 dg)
     expect(dgToGramsText(180)).toBe('18');
     expect(dgToGramsText(185)).toBe('18.5');
     expect(dgToGramsText(0)).toBe('0');
@@ -46,6 +48,7 @@ describe('brew ratio in the menu editor', () => {
 
 describe('fields', () => {
   it('whole numbers', () => {
+    // our own input rule: digits only, hand-checked
     expect(parseWhole('240')).toBe(240);
     expect(parseWhole(' 2 ')).toBe(2);
     expect(parseWhole('')).toBe(0);
