@@ -39,6 +39,16 @@ function bar(startIso: string) {
     },
     drinkIds: (o: OrderView) => o.lines.filter((l) => l.station === 'bar').map((l) => l.id),
     start: (ids: number[]) => ok(ctx.barista, '/api/drinks/start', { drinkIds: ids }),
+    /** A one-drink ticket fired at `minute`, started a minute later and bumped two minutes after that. */
+    async madeAt(name: string, minute: number): Promise<OrderView> {
+      this.setMinute(minute);
+      const order = await this.place(name, 1);
+      this.setMinute(minute + 1);
+      await this.start(this.drinkIds(order));
+      this.setMinute(minute + 3);
+      await this.bump(this.drinkIds(order));
+      return order;
+    },
     bump: (ids: number[]) => ok(ctx.barista, '/api/drinks/bump', { drinkIds: ids }),
     async pulse(): Promise<PulseView> {
       const res = await ctx.lead.get('/api/pulse');
@@ -130,20 +140,10 @@ describe('a shift across midnight', () => {
 
   it('Pulse counts the whole shift, whatever the calendar day, and keeps yesterday’s open tickets', async () => {
     shift = (await h.openShift(1)).shift;
-    h.setMinute(30); // 22:30
-    const late = await h.place('Before midnight', 1);
-    h.setMinute(31);
-    await h.start(h.drinkIds(late));
-    h.setMinute(33);
-    await h.bump(h.drinkIds(late));
+    await h.madeAt('Before midnight', 30); // 22:30, ready at 22:33
     h.setMinute(110); // 23:50
     const stillOpen = await h.place('Still open', 1);
-    h.setMinute(150); // 00:30
-    const early = await h.place('After midnight', 1);
-    h.setMinute(151);
-    await h.start(h.drinkIds(early));
-    h.setMinute(153);
-    await h.bump(h.drinkIds(early));
+    await h.madeAt('After midnight', 150); // 00:30, ready at 00:33
 
     h.setMinute(165); // 00:45
     const p = await h.pulse();
