@@ -49,7 +49,8 @@ test('owner changes units, wait target, a pitcher and the allergen list; an open
   await units.getByRole('radio', { name: /Millilitres/ }).click();
   await units.getByRole('radio', { name: /Celsius/ }).click();
   await expect(units.getByTestId('cup-size-preview')).not.toContainText('oz');
-  await expect(units.getByTestId('steam-note')).toContainText('about 70 °C (158 °F)');
+  // the note gives the published burn times in both units (docs/check-values.md, "Temperatures and burns")
+  await expect(units.getByTestId('steam-note')).toContainText('about 3 seconds at 60 °C (140 °F)');
   await owner.screenshot({ path: `${SHOTS}/admin-settings.png`, fullPage: true });
   await units.getByRole('button', { name: 'Save' }).click();
   await expect(units.getByRole('status')).toContainText('Saved');
@@ -71,7 +72,7 @@ test('owner changes units, wait target, a pitcher and the allergen list; an open
 
   // Bar: a wait target of 5 min 30 s; a bad one is refused beside its field
   const barForm = section(owner, 'Bar');
-  await expect(bar.getByText('Target 4 min')).toBeVisible();
+  await expect(bar.getByText('Target 4:00')).toBeVisible();
   await barForm.getByLabel('Minutes').fill('45');
   await barForm.getByRole('button', { name: 'Save' }).click();
   await expect(barForm.getByText('Between 1 and 30 minutes')).toBeVisible();
@@ -79,7 +80,7 @@ test('owner changes units, wait target, a pitcher and the allergen list; an open
   await barForm.getByLabel('Seconds').fill('30');
   await barForm.getByRole('button', { name: 'Save' }).click();
   await expect(barForm.getByRole('status')).toContainText('Saved');
-  await expect(bar.getByText('Target 6 min')).toBeVisible(); // 330 s, rounded to the minute on the Bar
+  await expect(bar.getByText('Target 5:30')).toBeVisible(); // 330 s, as it is
 
   // Pitchers: the 600 ml one becomes 700 ml with a fill line of 400 ml → the jug plan takes it at once
   const pitchers = owner.getByRole('region', { name: 'Pitchers' });

@@ -1,9 +1,14 @@
 // Pulse: a lead opens a shift, orders flow and the numbers move live, the shift closes with a
 // cash count, and the shift report reaches the owner's mail (the Outbox).
+import os from 'node:os';
+import path from 'node:path';
 import { request as apiRequest } from '@playwright/test';
 import { DEMO_PASSWORD, errorsOf, expect, pageAs, test } from './fixtures';
 
+const SHOTS = path.join(os.tmpdir(), 'jugline-shots', 'pulse');
+
 test('a shift on Pulse: open, live numbers, close with a count, report mailed', async ({ browser, baseURL }) => {
+  test.setTimeout(90_000); // four sign-ins on a shared machine: the default 30 s is close
   const pulse = await pageAs(browser, 'lead', '/pulse', { width: 1440, height: 1200 });
   await expect(pulse.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
   await pulse.evaluate(() => ((window as unknown as { marker: number }).marker = 5));
@@ -34,7 +39,16 @@ test('a shift on Pulse: open, live numbers, close with a count, report mailed', 
   await expect(done).toContainText('2'); // moved live
   expect(await pulse.evaluate(() => (window as unknown as { marker?: number }).marker)).toBe(5);
   await expect(pulse.getByTestId('staffing')).not.toBeEmpty();
+  // the target as it is, and what the estimate was made from in café words; the method in a help note
+  await expect(pulse.getByRole('banner').getByText('Target 4:00')).toBeVisible();
+  await expect(pulse.getByTestId('staffing-inputs')).toContainText('From 3 drinks fired in the last 30 min');
+  await expect(pulse.getByTestId('staffing-inputs')).toContainText('with 2 on bar');
+  await expect(pulse.getByTestId('staffing-inputs')).not.toContainText('Erlang');
   await pulse.screenshot({ path: 'docs/screenshots/pulse.png', fullPage: true });
+  await pulse.getByText('How this is worked out').click();
+  await expect(pulse.getByRole('region', { name: 'Staffing' })).toContainText('Erlang C');
+  await pulse.getByRole('region', { name: 'Staffing' }).screenshot({ path: `${SHOTS}/staffing.png` });
+
 
   const expected = (await pulse.getByTestId('expected-cash').textContent())!.replace(/[$,]/g, '');
   const closeForm = pulse.getByRole('form', { name: 'Close the shift' });
@@ -52,4 +66,25 @@ test('a shift on Pulse: open, live numbers, close with a count, report mailed', 
   await cashier.dispose();
   await barista.dispose();
   expect(errorsOf(pulse)).toEqual([]);
+});
+
+test('the Bar: the target and ticket ages as they are, the caution from burn times', async ({ browser, baseURL }) => {
+  const bar = await pageAs(browser, 'barista', '/bar', { width: 1440, height: 900 });
+  await expect(bar.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
+  const cashier = await apiRequest.newContext({ baseURL });
+  await cashier.post('/api/session', { data: { username: 'cashier', password: DEMO_PASSWORD } });
+  const menu = await (await cashier.get('/api/menu')).json();
+  const latte = menu.items.find((i: { name: string }) => i.name === 'Latte').id;
+  const res = await cashier.post('/api/orders', {
+    data: { clientOrderId: crypto.randomUUID(), customerName: 'Quin Adair', items: [{ menuItemId: latte }], payment: { method: 'cash', tenderedCents: 1000 } },
+  });
+  expect(res.status()).toBe(201);
+
+  await expect(bar.getByText('Target 4:00')).toBeVisible();
+  await expect(bar.getByTestId('drink-card').filter({ hasText: 'Quin Adair' }).getByTestId('age')).toHaveText(/^\d+:\d\d$/);
+  await expect(bar.getByTestId('steam-caution')).toContainText('burn skin in seconds');
+  await expect(bar.getByTestId('steam-caution')).not.toContainText('above about');
+  await bar.screenshot({ path: `${SHOTS}/bar.png` });
+  await cashier.dispose();
+  expect(errorsOf(bar)).toEqual([]);
 });

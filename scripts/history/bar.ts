@@ -49,7 +49,8 @@ export function openBar(baristasOnBar: number, baristaCount: number, random: Ran
         drinksAhead: outstanding.length,
         drinksInOrder: drinks,
         baristas: baristasOnBar,
-        recentMakeSeconds: recent,
+        // each drink here is made on its own, so the pace is the plain mean of the recent make times
+        pace: { drinks: recent.length, totalMs: recent.reduce((sum, s) => sum + s * 1000, 0) },
       });
       if (drinks === 0) return { quotedWaitSeconds, drinks: [], readyAt: at, collectedAt: at };
 

@@ -11,6 +11,7 @@ import {
   type UsePoint,
 } from '../../src/domain/bean-stock';
 import { DEFAULT_SHOT_TARGETS, type DialInShotView } from '../../src/domain/dial-in';
+import { brewRatioX10 } from '../../src/domain/format';
 import { freshnessOf } from '../../src/domain/freshness';
 import { bool } from '../db/rows';
 import { openShiftOf } from './shifts';
@@ -45,7 +46,7 @@ export function toShotView(r: Record<string, any>): DialInShotView {
     doseDg: r.dose_dg,
     yieldDg: r.yield_dg,
     timeDs: r.time_ds,
-    ratioX10: Math.round((r.yield_dg * 10) / r.dose_dg),
+    ratioX10: brewRatioX10(r.dose_dg, r.yield_dg),
     advice: r.advice,
     good: bool(r.good),
     tasteNote: r.taste_note ?? null,

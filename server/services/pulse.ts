@@ -1,7 +1,14 @@
-// The Pulse board's numbers, from today's tickets (a day is a few hundred: they are read once and
-// summarised in plain functions).
+// The Pulse board's numbers. The unit is the open shift, whatever the calendar day (a shift opened
+// at 22:00 keeps its tickets past midnight); with no shift open, today. The rolling windows look
+// back from now across midnight too. A day's tickets are a few hundred: they are read once and
+// summarised in plain functions.
+import type { Knex } from 'knex';
 import { staffingAdvice, type ErlangResult } from '../../src/domain/erlang';
+import { fraction } from '../../src/domain/fraction';
+import { durationWords } from '../../src/domain/format';
+import { barPace, perDrinkMakeSeconds } from '../../src/domain/make-times';
 import type { PulseView } from '../../src/domain/pulse';
+import { DEFAULT_MAKE_SECONDS } from '../../src/domain/quote';
 import { median, PERCENTILE_METHOD, summarizeWaits } from '../../src/domain/stats';
 import type { Deps } from './deps';
 import { pulseBeanAlerts } from './beans-alerts';
@@ -11,16 +18,55 @@ import { expectedCash, openShiftOf } from './shifts';
 
 const MIN = 60_000;
 const BUCKET_MS = 15 * MIN;
-/** With nothing measured yet, assume a barista finishes a drink a minute (common practice, rough). */
-const DEFAULT_SERVICE_PER_MINUTE = 1;
+/** Arrivals for the staffing estimate: the last 30 minutes. */
+const ARRIVALS_WINDOW_MIN = 30;
+/** Make times for the staffing estimate: drinks bumped in the last hour. */
+const PACE_WINDOW_MIN = 60;
+/** Orders created this long ago may still count: a café-local day is at most 25 hours long. */
+const LOOKBACK_MS = 26 * 60 * MIN;
 
 const secondsBetween = (a: string, b: string) => (Date.parse(b) - Date.parse(a)) / 1000;
+
+interface OrderRow {
+  id: number;
+  number: number;
+  customer_name: string;
+  status: string;
+  fired_at: string;
+  ready_at: string | null;
+  quoted_wait_seconds: number | null;
+  shift_id: number | null;
+  business_date: string;
+}
+
+interface DrinkRow {
+  order_id: number;
+  status: string;
+  started_at: string | null;
+  done_at: string | null;
+  bump_seq: number | null;
+  fired_at: string;
+  bumper: string | null;
+  starter: string | null;
+  category: string;
+}
 
 const erlangView = (r: ErlangResult) => ({
   stable: r.stable,
   probabilityOfWaiting: r.probabilityOfWaiting,
   meanWaitSeconds: Number.isFinite(r.meanWaitSeconds) ? r.meanWaitSeconds : null,
 });
+
+/**
+ * The orders Pulse may need: the open shift's, every ticket still open, and the last day's (today's
+ * and the rolling windows'). Each branch rides on an index of its own.
+ */
+function pulseOrders(q: Knex.QueryBuilder, locationId: number, sinceIso: string, shiftId: number | null) {
+  return q.where('orders.location_id', locationId).where((w) => {
+    w.where('orders.created_at', '>=', sinceIso).orWhere('orders.status', 'open');
+    if (shiftId !== null) w.orWhere('orders.shift_id', shiftId);
+  });
+}
 
 export async function pulse(deps: Deps, locationId: number): Promise<PulseView> {
   const nowDate = deps.clock();
@@ -29,19 +75,18 @@ export async function pulse(deps: Deps, locationId: number): Promise<PulseView> 
   const shift = await openShiftOf(deps.db, locationId);
   const target = location.waitTargetSeconds;
   const day = businessDate(nowDate, location.timeZone);
+  const sinceIso = new Date(now - LOOKBACK_MS).toISOString();
 
-  const orders = await deps.db('orders')
-    .where({ location_id: locationId, business_date: day })
+  const orders: OrderRow[] = await pulseOrders(deps.db('orders'), locationId, sinceIso, shift?.id ?? null)
     .whereNotNull('fired_at')
     .whereNot({ status: 'void' })
-    .select('id', 'number', 'customer_name', 'status', 'fired_at', 'ready_at', 'quoted_wait_seconds');
-  const drinks = await deps.db('order_items')
-    .join('orders', 'orders.id', 'order_items.order_id')
+    .select('id', 'number', 'customer_name', 'status', 'fired_at', 'ready_at', 'quoted_wait_seconds', 'shift_id', 'business_date');
+  const drinkRows: DrinkRow[] = await pulseOrders(deps.db('order_items').join('orders', 'orders.id', 'order_items.order_id'), locationId, sinceIso, shift?.id ?? null)
     .join('menu_items', 'menu_items.id', 'order_items.menu_item_id')
     .join('menu_categories', 'menu_categories.id', 'menu_items.category_id')
     .leftJoin('users', 'users.id', 'order_items.done_by')
     .leftJoin('users as starter', 'starter.id', 'order_items.started_by')
-    .where({ 'orders.location_id': locationId, 'orders.business_date': day, 'order_items.station': 'bar' })
+    .where('order_items.station', 'bar')
     .whereNotNull('orders.fired_at')
     // as for the tickets above: an order refunded in full before it was made left the bar
     .whereNot('orders.status', 'void')
@@ -50,38 +95,45 @@ export async function pulse(deps: Deps, locationId: number): Promise<PulseView> 
       'order_items.status',
       'order_items.started_at',
       'order_items.done_at',
+      'order_items.bump_seq',
       'orders.fired_at',
       'users.name as bumper',
       'starter.name as starter',
       'menu_categories.name as category',
     );
   // who made a drink: whoever started it, else whoever bumped it
-  for (const d of drinks) d.maker = d.starter ?? d.bumper ?? null;
+  const drinks = drinkRows.map((d) => ({ ...d, maker: d.starter ?? d.bumper ?? null }));
+
+  // The shift's tickets (or today's, with no shift open): the "This shift" window, quote vs actual
+  // and the make times per barista and category.
+  const inUnit = (o: { shift_id: number | null; business_date: string }) => (shift ? o.shift_id === shift.id : o.business_date === day);
+  const unitOrders = new Set(orders.filter(inUnit).map((o) => o.id));
   const barOrders = new Set(drinks.map((d) => d.order_id));
   const tickets = orders.filter((o) => barOrders.has(o.id));
-  const done = tickets.filter((o) => o.ready_at);
-  const since = shift ? Date.parse(shift.openedAt) : Math.min(now, ...tickets.map((t) => Date.parse(t.fired_at)));
+  const done = tickets.filter((o): o is OrderRow & { ready_at: string } => o.ready_at !== null);
+  const unitDone = done.filter((o) => unitOrders.has(o.id));
+  const unitDrinks = drinks.filter((d) => unitOrders.has(d.order_id));
+  const since = shift ? Date.parse(shift.openedAt) : Math.min(now, ...tickets.filter((o) => unitOrders.has(o.id)).map((t) => Date.parse(t.fired_at)));
 
-  const waitsSince = (fromMs: number) =>
-    done.filter((o) => Date.parse(o.ready_at) >= fromMs).map((o) => secondsBetween(o.fired_at, o.ready_at));
-  const drinksSince = (fromMs: number) => drinks.filter((d) => Date.parse(d.fired_at) >= fromMs).length;
+  const waitOf = (o: (typeof done)[number]) => secondsBetween(o.fired_at, o.ready_at);
   const windows = [15, 30, 60, null].map((minutes) => {
     const from = minutes === null ? since : now - minutes * MIN;
+    const ready = minutes === null ? unitDone : done.filter((o) => Date.parse(o.ready_at) >= from);
+    const fired = minutes === null ? unitDrinks.length : drinks.filter((d) => Date.parse(d.fired_at) >= from).length;
     // a rate over less than 15 minutes would read three drinks as "45 per 15 min"
     const spanMin = Math.max(15, (now - from) / MIN);
     return {
       label: minutes === null ? (shift ? 'This shift' : 'Today') : `Last ${minutes} min`,
       minutes,
-      waits: summarizeWaits(waitsSince(from), target),
-      drinksPer15: Math.round((drinksSince(from) / spanMin) * 15 * 10) / 10,
+      waits: summarizeWaits(ready.map(waitOf), target),
+      drinksPer15: Math.round((fired / spanMin) * 15 * 10) / 10,
     };
   });
 
   const buckets = [];
   for (let start = Math.floor(since / BUCKET_MS) * BUCKET_MS; start <= now; start += BUCKET_MS) {
     const inBucket = (iso: string) => Date.parse(iso) >= start && Date.parse(iso) < start + BUCKET_MS;
-    const waits = done.filter((o) => inBucket(o.fired_at)).map((o) => secondsBetween(o.fired_at, o.ready_at));
-    const s = summarizeWaits(waits, target);
+    const s = summarizeWaits(done.filter((o) => inBucket(o.fired_at)).map(waitOf), target);
     buckets.push({
       start: new Date(start).toISOString(),
       arrivals: tickets.filter((o) => inBucket(o.fired_at)).length,
@@ -91,30 +143,36 @@ export async function pulse(deps: Deps, locationId: number): Promise<PulseView> 
     });
   }
 
-  const quoted = done.filter((o) => o.quoted_wait_seconds !== null);
-  const actual = quoted.map((o) => secondsBetween(o.fired_at, o.ready_at));
+  const quoted = unitDone.filter((o): o is (typeof unitDone)[number] & { quoted_wait_seconds: number } => o.quoted_wait_seconds !== null);
+  const actual = quoted.map(waitOf);
   const avg = (xs: number[]) => (xs.length ? xs.reduce((a, b) => a + b, 0) / xs.length : null);
 
-  const made = drinks.filter((d) => d.status === 'done' && d.started_at && d.done_at);
-  const makeSeconds = (ds: typeof made) => ds.map((d) => secondsBetween(d.started_at, d.done_at)).filter((s) => s > 0);
+  // Make times: a jug's time shared among its drinks (src/domain/make-times.ts).
+  const timed = drinks
+    .filter((d) => d.status === 'done' && d.started_at && d.done_at)
+    .map((d) => ({ ...d, startedMs: Date.parse(d.started_at!), doneMs: Date.parse(d.done_at!), bumpSeq: d.bump_seq ?? null }));
+  const shares = perDrinkMakeSeconds(timed);
+  const made = timed.map((d, i) => ({ ...d, makeSeconds: shares[i] }));
+  const unitMade = made.filter((d) => unitOrders.has(d.order_id));
   const groupBy = (key: 'maker' | 'category') =>
-    [...new Set(made.map((d) => d[key] ?? '—'))].map((name) => {
-      const mine = made.filter((d) => (d[key] ?? '—') === name);
-      const times = makeSeconds(mine);
+    [...new Set(unitMade.map((d) => d[key] ?? '—'))].map((name) => {
+      const mine = unitMade.filter((d) => (d[key] ?? '—') === name);
+      const times = mine.map((d) => d.makeSeconds).filter((s): s is number => s !== null);
       return { name, drinks: mine.length, medianMakeSeconds: times.length ? median(times) : null };
     });
 
-  // Staffing: arrivals over the last 30 minutes; service rate from the last hour's make times.
-  const arrivalsPerMinute = drinksSince(now - 30 * MIN) / 30;
-  const recentMake = makeSeconds(made.filter((d) => Date.parse(d.done_at) >= now - 60 * MIN));
-  const servicePerMinutePerBarista = recentMake.length ? 60 / median(recentMake) : DEFAULT_SERVICE_PER_MINUTE;
+  // Staffing: the drinks fired in the last 30 minutes against the MEAN make time of the drinks
+  // bumped in the last hour (their batches are whole: a batch shares one bump time).
+  const arrivals = drinks.filter((d) => Date.parse(d.fired_at) >= now - ARRIVALS_WINDOW_MIN * MIN).length;
+  const pace = barPace(made.filter((d) => d.doneMs >= now - PACE_WINDOW_MIN * MIN));
+  const meanMake = pace.drinks > 0 ? fraction(pace.totalMs, 1000 * pace.drinks) : fraction(DEFAULT_MAKE_SECONDS);
   const baristas = shift?.baristasOnBar ?? location.baristasOnBar;
-  const advice = staffingAdvice({ arrivalsPerMinute, servicePerMinutePerServer: servicePerMinutePerBarista, baristas, targetSeconds: target });
+  const advice = staffingAdvice({ arrivals, windowSeconds: ARRIVALS_WINDOW_MIN * 60, meanMakeSeconds: meanMake, baristas, targetSeconds: target });
 
   const rolling = windows[1].waits;
   const alert =
     rolling.p90Seconds !== null && rolling.p90Seconds > target
-      ? `Waits are slipping: 90 % of tickets in the last 30 min took up to ${(rolling.p90Seconds / 60).toFixed(1)} min, over the ${Math.round(target / 60)} min target.`
+      ? `Waits are slipping: 90 % of tickets in the last 30 min took up to ${durationWords(rolling.p90Seconds)}, over the ${durationWords(target)} target.`
       : null;
 
   return {
@@ -150,7 +208,7 @@ export async function pulse(deps: Deps, locationId: number): Promise<PulseView> 
     perBarista: groupBy('maker').map(({ name, ...rest }) => ({ name, ...rest })),
     perCategory: groupBy('category').map(({ name, ...rest }) => ({ category: name, ...rest })),
     staffing: {
-      inputs: { arrivalsPerMinute, servicePerMinutePerBarista, baristas },
+      inputs: { arrivals, windowMinutes: ARRIVALS_WINDOW_MIN, drinksTimed: pace.drinks, meanMakeSeconds: pace.drinks > 0 ? pace.totalMs / 1000 / pace.drinks : DEFAULT_MAKE_SECONDS, baristas },
       now: erlangView(advice.now),
       withOneMore: erlangView(advice.withOneMore),
       sentence: advice.sentence,

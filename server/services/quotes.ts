@@ -1,31 +1,41 @@
 // The quoted wait for a new order, from the bar's queue and its recent pace.
 import type { Knex } from 'knex';
+import { barPace, type TimedDrink } from '../../src/domain/make-times';
 import { quoteWaitSeconds } from '../../src/domain/quote';
 
-/** How many recent drinks set the pace. */
+/** How many recent drinks set the pace (their batches are taken whole, so it may be a few more). */
 const RECENT_DRINKS = 30;
 
-export async function quoteForNewOrder(
-  db: Knex | Knex.Transaction,
-  locationId: number,
-  drinksInOrder: number,
-  baristas: number,
-): Promise<number> {
+type Db = Knex | Knex.Transaction;
+
+/** The location's bar drinks bumped most recently, with every other drink of their batches. */
+export async function recentlyMade(db: Db, locationId: number, limit = RECENT_DRINKS): Promise<TimedDrink[]> {
+  const recent = db('order_items')
+    .join('orders', 'orders.id', 'order_items.order_id')
+    .where({ 'orders.location_id': locationId, 'order_items.status': 'done', 'order_items.station': 'bar' })
+    .whereNotNull('order_items.started_at')
+    .orderBy('order_items.done_at', 'desc')
+    .limit(limit);
+  const rows = await db('order_items')
+    .join('orders', 'orders.id', 'order_items.order_id')
+    .where({ 'orders.location_id': locationId, 'order_items.status': 'done' })
+    .whereNotNull('order_items.started_at')
+    .where((q) =>
+      q
+        .whereIn('order_items.id', recent.clone().select('order_items.id'))
+        .orWhereIn('order_items.bump_seq', recent.clone().whereNotNull('order_items.bump_seq').select('order_items.bump_seq')),
+    )
+    .select('order_items.started_at', 'order_items.done_at', 'order_items.bump_seq');
+  return rows.map((r) => ({ startedMs: Date.parse(r.started_at), doneMs: Date.parse(r.done_at), bumpSeq: r.bump_seq ?? null }));
+}
+
+export async function quoteForNewOrder(db: Db, locationId: number, drinksInOrder: number, baristas: number): Promise<number> {
   const ahead = await db('order_items')
     .join('orders', 'orders.id', 'order_items.order_id')
     .where({ 'orders.location_id': locationId, 'orders.status': 'open', 'order_items.station': 'bar' })
     .whereNot('order_items.status', 'done')
     .count<{ n: number }>({ n: '*' })
     .first();
-  const recent = await db('order_items')
-    .join('orders', 'orders.id', 'order_items.order_id')
-    .where({ 'orders.location_id': locationId, 'order_items.status': 'done' })
-    .whereNotNull('order_items.started_at')
-    .orderBy('order_items.done_at', 'desc')
-    .limit(RECENT_DRINKS)
-    .select('order_items.started_at', 'order_items.done_at');
-  const recentMakeSeconds = recent
-    .map((r) => (Date.parse(r.done_at) - Date.parse(r.started_at)) / 1000)
-    .filter((s) => s > 0);
-  return quoteWaitSeconds({ drinksAhead: Number(ahead?.n ?? 0), drinksInOrder, baristas, recentMakeSeconds });
+  const pace = barPace(await recentlyMade(db, locationId));
+  return quoteWaitSeconds({ drinksAhead: Number(ahead?.n ?? 0), drinksInOrder, baristas, pace });
 }

@@ -1,5 +1,6 @@
 // Dial-in: a test shot's brew ratio and what to change next. Doses and yields are in tenths of a
 // gram and times in tenths of a second, so every comparison is on whole numbers.
+import { brewRatioX10, formatRatio } from './format';
 
 /** The location's target for a shot; the dose range comes from the house recipe. */
 export interface ShotWindow {
@@ -38,12 +39,8 @@ export interface ShotInput {
   timeDs: number;
 }
 
-/** Yield ÷ dose, in tenths, rounded as it is shown: the rule judges the number the barista sees. */
-export function brewRatioX10(doseDg: number, yieldDg: number): number {
-  return Math.round((yieldDg * 10) / doseDg);
-}
-
-export const formatRatio = (ratioX10: number) => `1:${(ratioX10 / 10).toFixed(1)}`;
+// The advice judges the ratio as it is shown (brewRatioX10: yield ÷ dose in tenths, the one
+// formatter every screen uses).
 export const formatGrams = (dg: number) => `${(dg / 10).toFixed(1)} g`;
 export const formatSeconds = (ds: number) => `${ds % 10 === 0 ? ds / 10 : (ds / 10).toFixed(1)} s`;
 
@@ -67,7 +64,7 @@ export interface ShotAdvice {
   detail: string;
 }
 
-const ratioLabel = (w: ShotWindow) => `${formatRatio(w.ratioMinX10)}–${(w.ratioMaxX10 / 10).toFixed(1)}`;
+const ratioLabel = (w: ShotWindow) => `${formatRatio(w.ratioMinX10)}–${formatRatio(w.ratioMaxX10).slice('1:'.length)}`;
 const timeLabel = (w: ShotWindow) => `${w.timeMinS}–${w.timeMaxS} s`;
 
 /**

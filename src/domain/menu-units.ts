@@ -15,12 +15,6 @@ export function dgToGramsText(dg: number): string {
   return dg % 10 === 0 ? String(dg / 10) : (dg / 10).toFixed(1);
 }
 
-/** Brew ratio yield ÷ dose as "1:2.0"; null without a dose. */
-export function brewRatio(doseDg: number, yieldDg: number): string | null {
-  if (doseDg <= 0 || yieldDg <= 0) return null;
-  return `1:${(yieldDg / doseDg).toFixed(1)}`;
-}
-
 /** A whole number typed in a field ("240", " 2 ") or null; "" → 0. */
 export function parseWhole(text: string): number | null {
   const t = text.trim();

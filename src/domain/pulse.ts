@@ -45,7 +45,12 @@ export interface PulseView {
   perBarista: { name: string; drinks: number; medianMakeSeconds: number | null }[];
   perCategory: { category: string; drinks: number; medianMakeSeconds: number | null }[];
   staffing: {
-    inputs: { arrivalsPerMinute: number; servicePerMinutePerBarista: number; baristas: number };
+    /**
+     * What the estimate was made from, for the screen to say in café words: `arrivals` bar drinks
+     * fired in the last `windowMinutes`, the average make time of the last `drinksTimed` drinks
+     * (a jug's time shared among its drinks; 60 s assumed when none was timed), baristas on bar.
+     */
+    inputs: { arrivals: number; windowMinutes: number; drinksTimed: number; meanMakeSeconds: number; baristas: number };
     now: { stable: boolean; probabilityOfWaiting: number; meanWaitSeconds: number | null };
     withOneMore: { stable: boolean; probabilityOfWaiting: number; meanWaitSeconds: number | null };
     sentence: string;

@@ -123,12 +123,6 @@ export function formatCoffee(dg: number, locale = 'en-US'): string {
   return `${new Intl.NumberFormat(locale, { minimumFractionDigits: 2, maximumFractionDigits: 2 }).format(grams / 1000)} kg`;
 }
 
-/** 272.5 → "4:33" (minutes:seconds, rounded to the second); null → "—". */
-export function formatWait(seconds: number | null | undefined): string {
-  if (seconds === null || seconds === undefined || !Number.isFinite(seconds)) return '—';
-  const s = Math.round(seconds);
-  return `${Math.floor(s / 60)}:${String(s % 60).padStart(2, '0')}`;
-}
 
 /** 0.125 → "12.5 %"; null → "—". */
 export function formatShare(share: number | null, locale = 'en-US'): string {
@@ -138,6 +132,15 @@ export function formatShare(share: number | null, locale = 'en-US'): string {
 
 /** 163042 → "163,042". */
 export const formatCount = (n: number, locale = 'en-US') => new Intl.NumberFormat(locale).format(n);
+
+/**
+ * Hour rows in the order they were worked, from the hour the period starts: a shift opened at
+ * 22:00 reads 22, 23, 0, 1 — not 0, 1, 22, 23. A calendar range starts at 0.
+ */
+export function inHourOrder<T extends { hour: number }>(rows: T[], firstHour = 0): T[] {
+  const place = (h: number) => (h - firstHour + 24) % 24;
+  return [...rows].sort((a, b) => place(a.hour) - place(b.hour));
+}
 
 /** 7 → "07:00". */
 export const hourLabel = (hour: number) => `${String(hour).padStart(2, '0')}:00`;

@@ -2,7 +2,7 @@
 
 /**
  * The percentile definition the product uses, for the UI and docs to show beside any
- * median or 90th percentile (check-values.md, "Percentiles": say which definition is used).
+ * median or 90th percentile (docs/check-values.md, "Percentiles": say which definition is used).
  */
 export const PERCENTILE_METHOD = 'Hyndman & Fan type 7 (linear interpolation, as R and d3 use by default)';
 

@@ -43,8 +43,8 @@ export function temperatureLabel(celsius: number, unit: TemperatureUnit): string
 }
 
 /**
- * Common practice at the steam wand (no published standard): steamed milk is served at about
- * 55–65 °C; above about 70 °C it scalds (tastes cooked) and burns more easily; the steam itself
- * is about 130 °C. Cautions quote these and defer to the local food code.
+ * Common practice at the steam wand (no published standard; docs/check-values.md, "Milk and
+ * pitchers"): steamed milk is served at about 55–65 °C and the steam itself is about 130 °C. How
+ * fast that burns comes from published data (./cautions.ts), not from here.
  */
-export const STEAM = { servedFromC: 55, servedToC: 65, scaldsAboveC: 70, wandSteamC: 130 } as const;
+export const STEAM = { servedFromC: 55, servedToC: 65, wandSteamC: 130 } as const;

@@ -3,6 +3,7 @@
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { useMemo, useState } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
+import { durationWords, ordinal } from '../domain/format';
 import { planBar } from '../domain/lanes';
 import { can } from '../domain/roles';
 import { RECALL_WINDOW_SECONDS } from '../domain/timing';
@@ -25,7 +26,6 @@ import { dialInQuery } from '../features/dial-in/queries';
 import { SCREENS } from '../domain/screens';
 import { SteamCaution } from '../features/settings/steam-caution';
 
-const ordinal = (n: number) => `${n}${n === 1 ? 'st' : n === 2 ? 'nd' : n === 3 ? 'rd' : 'th'}`;
 
 function Bar() {
   const api = useApi();
@@ -65,7 +65,7 @@ function Bar() {
           <strong className="font-display text-4xl">{plan.shotPlan.shots}</strong> shots to pull ·{' '}
           <span data-testid="coffee-needed">{grams(plan.shotPlan.doseDg)} coffee</span>
         </p>
-        <p className="text-xl text-crema-300">Target {Math.round(target / 60)} min</p>
+        <p className="text-xl text-crema-300">Target {durationWords(target)}</p>
         {error && (
           <p role="alert" className="rounded-md bg-alert-ink px-3 py-1 text-lg font-semibold text-roast-950">
             {error}

@@ -4,6 +4,7 @@
 import { useSuspenseQuery } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router';
 import type { PickupTicket } from '../domain/pickup';
+import { PICKUP_CAUTION } from '../domain/cautions';
 import { pickupBoard } from '../domain/tickets';
 import { LinkStateBadge } from '../components/ui/link-state';
 import { boardKeys, pickupBoardQuery } from '../features/board/queries';
@@ -66,7 +67,7 @@ function Pickup() {
       </div>
       <footer className="flex items-center gap-6 px-10 py-3 text-xl text-crema-300">
         <span>{board.location.name}</span>
-        <span>Careful — drinks are hot.</span>
+        <span>{PICKUP_CAUTION}</span>
         <LinkStateBadge state={link} className="ml-auto" />
       </footer>
     </div>

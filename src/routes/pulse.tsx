@@ -2,7 +2,8 @@
 import { useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { lazy, Suspense, useEffect, useState } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
-import type { WaitSummary } from '../domain/pulse';
+import { durationWords, formatDuration } from '../domain/format';
+import type { PulseView, WaitSummary } from '../domain/pulse';
 import { LinkStateBadge } from '../components/ui/link-state';
 import { StaffMenu } from '../components/ui/staff-menu';
 import { barBoardQuery } from '../features/board/queries';
@@ -19,11 +20,7 @@ import { SCREENS } from '../domain/screens';
 const PulseChart = lazy(() => import('../features/pulse/pulse-chart'));
 
 /** m:ss, as the Reports write waits too. */
-const min = (s: number | null) => {
-  if (s === null) return '—';
-  const r = Math.round(s);
-  return `${Math.floor(r / 60)}:${String(r % 60).padStart(2, '0')}`;
-};
+const min = formatDuration;
 const pct = (x: number | null) => (x === null ? '—' : `${Math.round(x * 100)} %`);
 
 function Numbers({ w, target }: { w: WaitSummary; target: number }) {
@@ -67,6 +64,31 @@ function Table({ caption, head, rows }: { caption: string; head: string[]; rows:
   );
 }
 
+/** The staffing sentence, what it was worked out from in café words, and the method in a help note. */
+function Staffing({ staffing: { sentence, inputs } }: { staffing: PulseView['staffing'] }) {
+  const drinks = (n: number) => (n === 1 ? '1 drink' : `${n} drinks`);
+  const pace = inputs.drinksTimed
+    ? `the average make time of the ${drinks(inputs.drinksTimed)} bumped in the last hour (${durationWords(inputs.meanMakeSeconds)} a drink, a jug's time shared among its drinks)`
+    : `${durationWords(inputs.meanMakeSeconds)} a drink (no drink timed in the last hour yet)`;
+  return (
+    <section aria-label="Staffing" className="mt-4 rounded-2xl border-2 border-ink-900 bg-white p-4">
+      <p data-testid="staffing" className="text-2xl font-semibold">{sentence}</p>
+      <p data-testid="staffing-inputs" className="mt-1 text-base text-ink-600">
+        From {drinks(inputs.arrivals)} fired in the last {inputs.windowMinutes} min and {pace}, with {inputs.baristas} on bar. A guide, not a
+        promise.
+      </p>
+      <details className="mt-1 text-base text-ink-600">
+        <summary className="cursor-pointer font-semibold">How this is worked out</summary>
+        <p className="mt-1">
+          The bar is treated as a queue with several servers (the M/M/c model, Erlang C): drinks arrive at random at the recent rate and take
+          the average make time give or take. The waits are before a barista starts a drink. The bar keeps up only while the drinks coming
+          in need fewer baristas than are on bar; that is decided on the exact counts, not rounded.
+        </p>
+      </details>
+    </section>
+  );
+}
+
 /** Pulse refreshes its numbers whenever the live board moves (debounced). */
 function useRefreshOnEvents(seq: number) {
   const qc = useQueryClient();
@@ -91,7 +113,7 @@ function Pulse() {
       <header className="flex items-center gap-5">
         <h1 className="text-3xl font-semibold">Pulse</h1>
         <span className="text-lg text-ink-600">{menu.location.name}</span>
-        <span className="text-lg">Target {Math.round(p.targetSeconds / 60)} min</span>
+        <span className="text-lg">Target {durationWords(p.targetSeconds)}</span>
         <LinkStateBadge state={link} className="ml-auto" />
         <StaffMenu />
       </header>
@@ -137,14 +159,7 @@ function Pulse() {
         <Numbers w={w.waits} target={p.targetSeconds} />
         <p className="mt-1 text-sm text-ink-600">Wait = fired to ready. Percentiles: {p.percentileMethod}.</p>
       </div>
-      <section aria-label="Staffing" className="mt-4 rounded-2xl border-2 border-ink-900 bg-white p-4">
-        <p data-testid="staffing" className="text-2xl font-semibold">{p.staffing.sentence}</p>
-        <p className="mt-1 text-base text-ink-600">
-          From {p.staffing.inputs.arrivalsPerMinute.toFixed(2)} drinks/min arriving (last 30 min) and{' '}
-          {p.staffing.inputs.servicePerMinutePerBarista.toFixed(2)} drinks/min per barista (last hour), {p.staffing.inputs.baristas} on
-          bar — an M/M/c (Erlang C) estimate, a guide rather than a promise.
-        </p>
-      </section>
+      <Staffing staffing={p.staffing} />
       <section aria-label="Waits and arrivals per 15 minutes" className="mt-4 rounded-2xl border border-steam-200 bg-white p-4">
         {hydrated ? (
           <Suspense fallback={<p className="h-[280px]">Loading the chart…</p>}>
@@ -161,7 +176,7 @@ function Pulse() {
           rows={p.open.map((t) => [`#${t.number}`, t.customerName, min(t.ageSeconds), `${t.drinksLeft} of ${t.drinks}`, t.makers.join(', ') || '—'])}
         />
         <Table
-          caption="Quote vs actual (today)"
+          caption={`Quote vs actual (${p.windows[3].label.toLowerCase()})`}
           head={['Tickets', 'Quoted (mean)', 'Actual (mean)', 'Longer than quoted']}
           rows={[[p.quoteVsActual.count, min(p.quoteVsActual.meanQuotedSeconds), min(p.quoteVsActual.meanActualSeconds), pct(p.quoteVsActual.shareLongerThanQuoted)]]}
         />

@@ -501,8 +501,9 @@ describe('the Pulse numbers', () => {
     // The last 30 min (ready since 0:01:15) hold all five: p90 480 is over the target
     expect(pulse.windows[1].waits.count).toBe(5);
     expect(pulse.alert).toEqual(expect.any(String));
-    expect(pulse.alert).toContain('8.0 min');
-    expect(pulse.alert).toContain('4 min target');
+    // durations as they are: p90 480 s is 8:00; the 240 s target is 4:00
+    expect(pulse.alert).toContain('took up to 8:00');
+    expect(pulse.alert).toContain('over the 4:00 target');
 
     // Only Philippa's ticket is still open, 75 s old by the clock
     expect(pulse.open).toEqual([
@@ -551,17 +552,16 @@ describe('the Pulse numbers', () => {
       { name: 'Jonah Reyes', drinks: 4, medianMakeSeconds: 60 },
     ]);
 
-    // Staffing: 6 bar drinks fired since 0:01:15 (not Ysolde's latte at 0:01) → 0.2 a minute;
-    // make times in the last hour [60, 60, 180] → median 60 s → 1 drink a minute per barista.
-    expect(pulse.staffing.inputs.arrivalsPerMinute).toBeCloseTo(6 / 30, 12);
-    expect(pulse.staffing.inputs.servicePerMinutePerBarista).toBeCloseTo(1, 12);
-    expect(pulse.staffing.inputs.baristas).toBe(1);
-    // M/M/1 by hand: ρ = 0.2; P(wait) = ρ; Wq = ρ / (μ − λ) = 0.2 / 0.8 min = 15 s
+    // Staffing: 6 bar drinks fired since 0:01:15 (not Ysolde's latte at 0:01); make times in the
+    // last hour [60, 60, 180] → the MEAN, 100 s (Erlang C takes the mean, docs/check-values.md).
+    expect(pulse.staffing.inputs).toEqual({ arrivals: 6, windowMinutes: 30, drinksTimed: 3, meanMakeSeconds: 100, baristas: 1 });
+    // M/M/1 by hand (docs/check-values.md formulas, c = 1): A = ρ = 6/1800 s × 100 s = 1/3;
+    // P(wait) = ρ; Wq = ρ·h/(1 − ρ) = (1/3)·100/(2/3) = 50 s
     expect(pulse.staffing.now.stable).toBe(true);
-    expect(pulse.staffing.now.probabilityOfWaiting).toBeCloseTo(0.2, 9);
-    expect(pulse.staffing.now.meanWaitSeconds).toBeCloseTo(15, 9);
-    // M/M/2, ρ = 0.1 per barista: P(wait) = 2ρ² / (1 + ρ) = 0.02 / 1.1
-    expect(pulse.staffing.withOneMore.probabilityOfWaiting).toBeCloseTo(0.02 / 1.1, 9);
+    expect(pulse.staffing.now.probabilityOfWaiting).toBeCloseTo(1 / 3, 9);
+    expect(pulse.staffing.now.meanWaitSeconds).toBeCloseTo(50, 9);
+    // M/M/2, ρ = 1/6 per barista: P(wait) = 2ρ² / (1 + ρ) = (1/18) / (7/6) = 1/21
+    expect(pulse.staffing.withOneMore.probabilityOfWaiting).toBeCloseTo(1 / 21, 9);
     expect(pulse.staffing.sentence).toMatch(/^With 1 on bar a drink waits/);
   });
 
@@ -602,13 +602,15 @@ describe('the Pulse numbers', () => {
     expect(pulse.open.map((o) => o.id)).not.toContain(mistaken.id);
     // 0:00, 0:15, … 3:00: the 3:00 slot holds the ten rush tickets and their 40 drinks, not the refunded two
     expect(pulse.buckets.at(-1)).toMatchObject({ start: at(180), arrivals: 10, drinks: 40 });
-    expect(pulse.staffing.inputs).toEqual({ arrivalsPerMinute: 40 / 30, servicePerMinutePerBarista: 1, baristas: 1 });
+    expect(pulse.staffing.inputs).toEqual({ arrivals: 40, windowMinutes: 30, drinksTimed: 1, meanMakeSeconds: 60, baristas: 1 });
     // offered load 4/3 ≥ 1 barista: the queue grows
     expect(pulse.staffing.now).toEqual({ stable: false, probabilityOfWaiting: 1, meanWaitSeconds: null });
     // with two it keeps up, and the wait is a real number
     expect(pulse.staffing.withOneMore.stable).toBe(true);
     expect(pulse.staffing.withOneMore.meanWaitSeconds).toEqual(expect.any(Number));
     expect(pulse.staffing.withOneMore.meanWaitSeconds!).toBeGreaterThan(0);
-    expect(pulse.staffing.sentence).toMatch(/can't keep up with 1\.3 drinks a minute — add a barista/);
+    expect(pulse.staffing.sentence).toMatch(
+      /^The bar can't keep up: 40 drinks came in over the last 30 min, and 1 barista at 1:00 a drink makes at most 30 in that time, so the queue keeps growing\. Add a barista: with 2/,
+    );
   });
 });

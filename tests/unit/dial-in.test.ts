@@ -6,14 +6,13 @@
 import { describe, expect, it } from 'vitest';
 import {
   adviseShot,
-  brewRatioX10,
   COMMON_DOUBLE_DOSE,
   DEFAULT_SHOT_TARGETS,
   doseRange,
-  formatRatio,
   type AdviceCode,
   type ShotWindow,
 } from '../../src/domain/dial-in';
+import { brewRatioX10, formatRatio } from '../../src/domain/format';
 
 // The demo house recipe, 19 g for a double → 18–20 g; 25–30 s; 1:1.8–1:2.2.
 const HOUSE: ShotWindow = { ...doseRange(190), ...DEFAULT_SHOT_TARGETS };

@@ -4,7 +4,8 @@
 // daylight time. In 2026: 8 March 07:00 UTC (EST, UTC−5 → EDT, UTC−4) and 1 November 06:00 UTC.
 // India (from memory): UTC+05:30 all year, no daylight saving time.
 import { describe, expect, it } from 'vitest';
-import { offsetMinutes, offsetStretches } from '../../server/services/reports/local-hours';
+import { inHourOrder } from '../../src/domain/reports';
+import { localHour, offsetMinutes, offsetStretches } from '../../server/services/reports/local-hours';
 
 const ms = (iso: string) => Date.parse(iso);
 
@@ -36,5 +37,18 @@ describe('offsetStretches', () => {
     expect(offsetStretches(ms('2026-01-01T00:00:00Z'), ms('2026-12-31T00:00:00Z'), 'Asia/Kolkata')).toEqual([
       { startMs: ms('2026-01-01T00:00:00Z'), offsetMinutes: 330 },
     ]);
+  });
+});
+
+describe('localHour and shift order', () => {
+  it('a shift opened at 22:00 in New York lists its hours 22, 23, 0, 1', () => {
+    // the offsets above: 03:00 UTC on 3 March 2026 is 22:00 EST (UTC−5) on 2 March
+    expect(localHour(ms('2026-03-03T03:00:00Z'), 'America/New_York')).toBe(22);
+    // from memory (India, UTC+05:30): 20:00 UTC is 01:30 the next day → hour 1
+    expect(localHour(ms('2026-07-15T20:00:00Z'), 'Asia/Kolkata')).toBe(1);
+    // hand-worked: hours in the order a 22:00 shift worked them; a calendar range from 0
+    const rows = [0, 1, 22, 23].map((hour) => ({ hour }));
+    expect(inHourOrder(rows, 22).map((r) => r.hour)).toEqual([22, 23, 0, 1]);
+    expect(inHourOrder(rows).map((r) => r.hour)).toEqual([0, 1, 22, 23]);
   });
 });

@@ -1,7 +1,8 @@
 // The shift report as an e-mail for the owner: plain text and HTML, from a ReportView. Pure: the
 // caller sends it (e.g. with the Mailer when a shift closes).
 import { formatCents } from '../../../src/domain/money';
-import { formatCoffee, formatLitres, formatShare, formatWait, type ReportView } from '../../../src/domain/reports';
+import { formatDuration } from '../../../src/domain/format';
+import { formatCoffee, formatLitres, formatShare, type ReportView } from '../../../src/domain/reports';
 import { PERCENTILE_METHOD } from '../../../src/domain/stats';
 import { escapeHtml } from '../../../src/lib/html';
 
@@ -51,10 +52,10 @@ export function shiftReportEmail(report: ReportView, location: ReportMailLocatio
   ];
   const bar: Row[] = [
     ['Tickets timed', String(waits.count)],
-    ['Median wait', formatWait(waits.medianSeconds)],
-    ['90th percentile wait', formatWait(waits.p90Seconds)],
-    ['Longest wait', formatWait(waits.maxSeconds)],
-    [`Over the ${formatWait(report.targetSeconds)} target`, formatShare(waits.overTargetShare, locale)],
+    ['Median wait', formatDuration(waits.medianSeconds)],
+    ['90th percentile wait', formatDuration(waits.p90Seconds)],
+    ['Longest wait', formatDuration(waits.maxSeconds)],
+    [`Over the ${formatDuration(report.targetSeconds)} target`, formatShare(waits.overTargetShare, locale)],
     ['Shots pulled', String(report.shotsPulled)],
     ['Coffee used', formatCoffee(report.coffeeUsedDg, locale)],
     ...report.milkUsedMl.map((m): Row => [`Milk: ${m.milk}`, formatLitres(m.ml, locale)]),

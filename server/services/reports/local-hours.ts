@@ -40,6 +40,9 @@ export function dayBounds(date: string, timeZone: string): [number, number] {
   return [midnight(date), midnight(addDays(date, 1))];
 }
 
+/** The café-local hour (0–23) of an instant. */
+export const localHour = (ms: number, timeZone: string) => new Date(ms + offsetMinutes(ms, timeZone) * 60_000).getUTCHours();
+
 export interface OffsetStretch {
   /** first instant (ms) of the stretch */
   startMs: number;

@@ -3,10 +3,10 @@
 // hour (drinks, milk, shots, items), the ticket waits (two numeric columns: hour and seconds, for
 // the percentiles) and the 20 longest.
 import type { Knex } from 'knex';
-import type { HourRow, OverTargetTicket, ReportView } from '../../../src/domain/reports';
+import { inHourOrder, type HourRow, type OverTargetTicket, type ReportView } from '../../../src/domain/reports';
 import { median, summarizeWaits } from '../../../src/domain/stats';
 import { datesBetween, mergeDays, rangeDays } from './days';
-import { localHourSql } from './local-hours';
+import { localHour, localHourSql } from './local-hours';
 import { moneyView, PAID, rangeScope, shiftScope, type MoneyTotals, type Scope } from './scope';
 import { HAS_WAIT, WAIT_SECONDS, n } from './sql';
 
@@ -159,6 +159,10 @@ async function buildReport(db: Knex, s: Scope): Promise<ReportView> {
     shotsPulled: lines.shotsPulled,
     coffeeUsedDg: lines.coffeeUsedDg,
     topItems: lines.topItems,
-    hourly: [...hours.values()].filter((h) => h.orders > 0).sort((a, b) => a.hour - b.hour),
+    // a shift's hours in the order they were worked, whatever the calendar day (22, 23, 0, 1…)
+    hourly: inHourOrder(
+      [...hours.values()].filter((h) => h.orders > 0),
+      s.period.shift ? localHour(Date.parse(s.period.shift.openedAt), s.location.timeZone) : 0,
+    ),
   };
 }

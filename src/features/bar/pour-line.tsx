@@ -1,12 +1,11 @@
 // The pour line: a thin bar along the card that fills toward the wait target and turns to a
-// diagonal hatch past it. The minutes are always written out beside it.
+// diagonal hatch past it. The age is always written out beside it, as it is (m:ss).
+import { formatDuration } from '../../domain/format';
 import { cn } from '../../lib/cn';
 
 export function ageLabel(ageSeconds: number, targetSeconds: number): string {
-  const minutes = Math.floor(ageSeconds / 60);
-  if (ageSeconds <= targetSeconds) return `${minutes} min`;
-  const late = Math.max(1, Math.floor((ageSeconds - targetSeconds) / 60));
-  return `+${late} min late`;
+  if (ageSeconds <= targetSeconds) return formatDuration(Math.floor(ageSeconds));
+  return `+${formatDuration(Math.floor(ageSeconds - targetSeconds))} late`;
 }
 
 export function PourLine({ ageSeconds, targetSeconds }: { ageSeconds: number; targetSeconds: number }) {

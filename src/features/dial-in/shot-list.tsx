@@ -1,5 +1,6 @@
 // The lot's recent test shots, newest first, with the advice each one got.
-import { ADVICE_HEADLINE, formatGrams, formatRatio, formatSeconds, type DialInShotView } from '../../domain/dial-in';
+import { ADVICE_HEADLINE, formatGrams, formatSeconds, type DialInShotView } from '../../domain/dial-in';
+import { formatRatio } from '../../domain/format';
 import { cn } from '../../lib/cn';
 import { timeOfDay } from './shot-view';
 

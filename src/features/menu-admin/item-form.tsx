@@ -6,7 +6,7 @@ import { Controller, useForm, useWatch } from 'react-hook-form';
 import { itemForm, type ItemBody, type ItemFormValues } from '../../domain/menu-admin-schemas';
 import type { AdminItem, AdminMenuView } from '../../domain/menu-admin-view';
 import { TEXTURES } from '../../domain/types';
-import { STEAM, temperatureLabel } from '../../domain/units';
+import { hotMilkNote } from '../../domain/cautions';
 import { Button } from '../../components/ui/button';
 import { FieldError } from '../../components/ui/field-error';
 import { Segmented } from '../../components/ui/segmented';
@@ -165,9 +165,7 @@ export function ItemForm({ menu, item, categoryId, command, notify, onClose }: P
                 />
                 <p className="mt-1 text-sm text-ink-600">The Bar steams a shared jug for its foamiest drink and pours the thinnest first.</p>
                 <p className="mt-2 text-base">
-                  <strong>⚠ Hot milk.</strong> Steamed milk is usually served at about {temperatureLabel(STEAM.servedFromC, unit)}–
-                  {temperatureLabel(STEAM.servedToC, unit)}; above about {temperatureLabel(STEAM.scaldsAboveC, unit)} it scalds and burns. Common
-                  practice, not a rule: follow your local food code.
+                  <strong>⚠ Hot milk.</strong> {hotMilkNote(unit)}
                 </p>
                 <FieldError message={errors.texture?.message} />
               </div>

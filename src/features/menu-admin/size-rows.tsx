@@ -4,7 +4,8 @@ import { useState } from 'react';
 import { useFieldArray, useWatch, type UseFormReturn } from 'react-hook-form';
 import type { ItemBody, ItemFormValues } from '../../domain/menu-admin-schemas';
 import type { AdminSize } from '../../domain/menu-admin-view';
-import { brewRatio, parseGramsToDg, parseWhole } from '../../domain/menu-units';
+import { ratioLabel } from '../../domain/format';
+import { parseGramsToDg, parseWhole } from '../../domain/menu-units';
 import { exactUsFlOz } from '../../domain/units';
 import { Button } from '../../components/ui/button';
 import { FieldError } from '../../components/ui/field-error';
@@ -23,7 +24,7 @@ function nextSize(previous: ItemFormValues['sizes'][number] | undefined) {
 
 function RatioHint({ form, index }: { form: Form; index: number }) {
   const [dose, out] = useWatch({ control: form.control, name: [`sizes.${index}.doseG`, `sizes.${index}.yieldG`] });
-  const ratio = brewRatio(parseGramsToDg(dose ?? '') ?? 0, parseGramsToDg(out ?? '') ?? 0);
+  const ratio = ratioLabel(parseGramsToDg(dose ?? '') ?? 0, parseGramsToDg(out ?? '') ?? 0);
   return <>{ratio ? `Brew ratio ${ratio}` : 'Espresso out'}</>;
 }
 

@@ -1,6 +1,7 @@
 // Waits and arrivals per 15 minutes across the shift. Loaded only on the Pulse screen, after
 // hydration, so the chart library weighs nothing on the Bar or the Counter.
 import { Bar, CartesianGrid, ComposedChart, Legend, Line, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
+import { formatDuration } from '../../domain/format';
 import type { PulseBucket } from '../../domain/pulse';
 
 export default function PulseChart({ buckets, targetSeconds, timeZone }: { buckets: PulseBucket[]; targetSeconds: number; timeZone: string }) {
@@ -8,9 +9,10 @@ export default function PulseChart({ buckets, targetSeconds, timeZone }: { bucke
   const data = buckets.map((b) => ({
     time: fmt.format(new Date(b.start)),
     arrivals: b.arrivals,
-    median: b.medianWaitSeconds === null ? null : Math.round((b.medianWaitSeconds / 60) * 10) / 10,
-    p90: b.p90WaitSeconds === null ? null : Math.round((b.p90WaitSeconds / 60) * 10) / 10,
-    target: Math.round((targetSeconds / 60) * 10) / 10,
+    // minutes for the axis, unrounded so the tooltip can say the wait as it is
+    median: b.medianWaitSeconds === null ? null : b.medianWaitSeconds / 60,
+    p90: b.p90WaitSeconds === null ? null : b.p90WaitSeconds / 60,
+    target: targetSeconds / 60,
   }));
   return (
     <ResponsiveContainer width="100%" height={280}>
@@ -19,7 +21,8 @@ export default function PulseChart({ buckets, targetSeconds, timeZone }: { bucke
         <XAxis dataKey="time" />
         <YAxis yAxisId="min" label={{ value: 'wait (min)', angle: -90, position: 'insideLeft' }} />
         <YAxis yAxisId="n" orientation="right" allowDecimals={false} label={{ value: 'tickets', angle: 90, position: 'insideRight' }} />
-        <Tooltip />
+        {/* waits as they are (1:30), not as decimal minutes */}
+        <Tooltip formatter={(value, name) => (name === 'tickets fired' || typeof value !== 'number' ? value : formatDuration(value * 60))} />
         <Legend />
         <Bar yAxisId="n" dataKey="arrivals" name="tickets fired" fill="#e6cfa8" />
         <Line yAxisId="min" dataKey="median" name="median wait" stroke="#1d1a17" strokeWidth={2} dot={{ r: 3 }} connectNulls />

@@ -1,6 +1,7 @@
 // The day by the hour, and the tickets that waited past the target.
 import { formatCents } from '../../domain/money';
-import { formatCount, formatWait, hourLabel, type ReportView } from '../../domain/reports';
+import { formatDuration } from '../../domain/format';
+import { formatCount, hourLabel, type ReportView } from '../../domain/reports';
 import { cn } from '../../lib/cn';
 import { Panel, ShareBar, numClass, tdClass, thClass } from './report-breakdowns';
 
@@ -32,7 +33,7 @@ export function HourlyTable({ report }: { report: ReportView }) {
                 </td>
                 <td className={cn(tdClass, numClass)}>{formatCount(h.drinks, report.locale)}</td>
                 <td className={cn(tdClass, numClass)}>{money(h.cents)}</td>
-                <td className={cn(tdClass, numClass)}>{formatWait(h.medianWaitSeconds)}</td>
+                <td className={cn(tdClass, numClass)}>{formatDuration(h.medianWaitSeconds)}</td>
               </tr>
             ))}
           </tbody>
@@ -44,7 +45,7 @@ export function HourlyTable({ report }: { report: ReportView }) {
 
 export function OverTargetList({ report, multiDay }: { report: ReportView; multiDay: boolean }) {
   return (
-    <Panel title={`Over the ${formatWait(report.targetSeconds)} target`}>
+    <Panel title={`Over the ${formatDuration(report.targetSeconds)} target`}>
       {report.overTarget.length === 0 ? (
         <p className="text-base text-ink-600">No ticket waited past the target.</p>
       ) : (
@@ -68,7 +69,7 @@ export function OverTargetList({ report, multiDay }: { report: ReportView; multi
                 </td>
                 <td className={cn(tdClass, 'max-w-40 truncate')}>{t.customerName}</td>
                 <td className={cn(tdClass, numClass)}>
-                  {formatWait(t.waitSeconds)} <span className="text-sm text-ink-600">(+{formatWait(t.waitSeconds - report.targetSeconds)})</span>
+                  {formatDuration(t.waitSeconds)} <span className="text-sm text-ink-600">(+{formatDuration(t.waitSeconds - report.targetSeconds)})</span>
                 </td>
               </tr>
             ))}

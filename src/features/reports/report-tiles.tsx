@@ -1,7 +1,8 @@
 // The report's headline numbers as tiles, and which percentile definition the waits use.
 import type { ReactNode } from 'react';
 import { formatCents } from '../../domain/money';
-import { formatCount, formatShare, formatWait, type ReportView } from '../../domain/reports';
+import { formatDuration } from '../../domain/format';
+import { formatCount, formatShare, type ReportView } from '../../domain/reports';
 import { PERCENTILE_METHOD } from '../../domain/stats';
 
 export function Tile({ label, value, hint, testId }: { label: string; value: ReactNode; hint?: ReactNode; testId?: string }) {
@@ -17,7 +18,7 @@ export function Tile({ label, value, hint, testId }: { label: string; value: Rea
 export function ReportTiles({ report }: { report: ReportView }) {
   const money = (cents: number) => formatCents(cents, report.currency, report.locale);
   const { waits } = report;
-  const target = formatWait(report.targetSeconds);
+  const target = formatDuration(report.targetSeconds);
   const group = 'grid grid-cols-3 gap-3 lg:grid-cols-6';
   const heading = 'mb-1 text-sm font-semibold tracking-widest text-ink-600 uppercase';
   return (
@@ -41,8 +42,8 @@ export function ReportTiles({ report }: { report: ReportView }) {
         </h2>
         <div className={group}>
           <dl className="col-span-3 grid grid-cols-3 gap-3">
-            <Tile label="Median wait" value={formatWait(waits.medianSeconds)} hint={`of ${formatCount(waits.count, report.locale)} ${waits.count === 1 ? 'ticket' : 'tickets'} timed`} testId="tile-median" />
-            <Tile label="p90 wait" value={formatWait(waits.p90Seconds)} hint="9 in 10 waited less" testId="tile-p90" />
+            <Tile label="Median wait" value={formatDuration(waits.medianSeconds)} hint={`of ${formatCount(waits.count, report.locale)} ${waits.count === 1 ? 'ticket' : 'tickets'} timed`} testId="tile-median" />
+            <Tile label="p90 wait" value={formatDuration(waits.p90Seconds)} hint="9 in 10 waited less" testId="tile-p90" />
             <Tile label="Over target" value={formatShare(waits.overTargetShare, report.locale)} hint={`waited longer than ${target}`} />
           </dl>
           <p className="col-span-3 self-center text-base text-ink-600" data-testid="percentile-method">

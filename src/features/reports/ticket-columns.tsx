@@ -1,7 +1,8 @@
 // The ticket history's columns. The sortable ones carry the server's sort names as their ids.
 import { createColumnHelper, type RowData } from '@tanstack/react-table';
 import { formatCents } from '../../domain/money';
-import { formatWait, type TicketHistoryRow } from '../../domain/reports';
+import { formatDuration } from '../../domain/format';
+import { type TicketHistoryRow } from '../../domain/reports';
 
 declare module '@tanstack/react-table' {
   // numeric columns are right-aligned
@@ -75,7 +76,7 @@ export function ticketColumns(c: ColumnContext) {
         const over = w > c.targetSeconds;
         return (
           <span className={over ? 'font-semibold' : undefined}>
-            {formatWait(w)}
+            {formatDuration(w)}
             {over && <span className="ml-1 text-sm">▲ over</span>}
           </span>
         );

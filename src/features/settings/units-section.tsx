@@ -4,11 +4,11 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
 import { z } from 'zod';
+import { hotMilkNote } from '../../domain/cautions';
 import { SETTINGS_FIELDS, type SettingsPage } from '../../domain/settings-schemas';
 import {
   cupSizeLabel,
   exactUsFlOz,
-  STEAM,
   TEMPERATURE_UNIT_LABEL,
   TEMPERATURE_UNITS,
   VOLUME_UNIT_LABEL,
@@ -18,7 +18,6 @@ import { Segmented } from '../../components/ui/segmented';
 import { settingsCommands } from '../../lib/settings-api';
 import { SettingsSection, type SaveStatus } from './section';
 import { showServerErrors } from './server-errors';
-import { temp, tempRange } from './steam-caution';
 import { useSettingsCommand } from './use-settings-command';
 
 const unitsForm = z.object({ volumeUnit: SETTINGS_FIELDS.volumeUnit, temperatureUnit: SETTINGS_FIELDS.temperatureUnit });
@@ -95,9 +94,7 @@ export function UnitsSection({ page }: { page: SettingsPage }) {
         )}
       />
       <p role="note" className="rounded-lg border-2 border-ink-900 px-3 py-2 text-base" data-testid="steam-note">
-        <strong>⚠ Hot milk and steam.</strong> Steamed milk is usually served at about {tempRange(STEAM.servedFromC, STEAM.servedToC, temperature)}; above about {temp(STEAM.scaldsAboveC, temperature, true)} it scalds and burns more easily, and
-        steam at the wand is about {temp(STEAM.wandSteamC, temperature, true)}. These are common practice, not a rule: follow your local food
-        code. The Bar's caution line uses this unit.
+        <strong>⚠ Hot milk and steam.</strong> {hotMilkNote(temperature, true)} The Bar's caution line uses this unit.
       </p>
     </SettingsSection>
   );
