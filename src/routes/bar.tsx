@@ -38,7 +38,7 @@ function Bar() {
   const canRush = can(session.user?.role, 'rushTickets');
 
   const open = useMemo(() => board.tickets.filter((t) => t.status === 'open'), [board.tickets]);
-  const plan = useMemo(() => planBar(open, board.location.pitchers, board.location.jugWasteMl), [open, board.location]);
+  const plan = useMemo(() => planBar(open, board.location.jugRules), [open, board.location]);
   const cards = plan.lanes.flatMap((l) => l.groups.flatMap((g) => g.drinks));
   const jugLabel = new Map<number, string>();
   for (const lane of plan.lanes)
