@@ -85,10 +85,8 @@ function Bar() {
             lane={lane}
             narrow={plan.lanes.length > 4}
             busy={command.isPending}
-            onStartBatch={(drinkIds) =>
-              command.mutate({ kind: 'start-batch', drinkIds: drinkIds.filter((id) => cards.find((c) => c.id === id)?.status === 'queued') })
-            }
-            onBumpBatch={(drinkIds) => command.mutate({ kind: 'bump-batch', drinkIds })}
+            onStartJug={(drinkIds) => command.mutate({ kind: 'start-jug', drinkIds })}
+            onBumpJug={(jugId, drinkIds) => command.mutate({ kind: 'bump-jug', jugId, drinkIds })}
           >
             {(group) =>
               group.drinks.map((card) => (
