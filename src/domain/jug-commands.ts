@@ -5,7 +5,7 @@
 // jug is stored with its pour), whatever arrives afterwards. "Bump jug" names the jug and the
 // drinks it showed: it bumps exactly those, and is refused when the jug's drinks still on the bar
 // are not those (one was bumped on its own, or recalled into it, since the screen drew it).
-import { makeJug, needsJug, type JugBatch, type JugDrink, type JugRules } from './jug-plan';
+import { makeJug, needsJug, type Jug, type JugDrink, type JugRules } from './jug-plan';
 import type { DrinkStatus } from './types';
 
 export interface JugCandidate extends JugDrink {
@@ -13,7 +13,7 @@ export interface JugCandidate extends JugDrink {
   status: DrinkStatus;
 }
 
-export type JugStart = { jug: JugBatch; refused?: undefined } | { refused: string; drinkId?: number };
+export type JugStart = { jug: Jug; refused?: undefined } | { refused: string; drinkId?: number };
 
 /** `drinks` in lane order (oldest first): the jug they make, or why they can't make one. */
 export function jugToStart(drinks: JugCandidate[], rules: JugRules): JugStart {

@@ -45,7 +45,7 @@ export interface JugDrink {
   texture: Texture | null;
 }
 
-export interface JugBatch {
+export interface Jug {
   /** The stored jug once a barista has started it; null while it is only planned. */
   jugId: number | null;
   pitcher: Pitcher;
@@ -84,7 +84,7 @@ const pitcherFor = (milkMl: number, steamFor: SteamedTexture, rules: JugRules) =
  * share one: too many, or no pitcher holds them. A lone drink always gets a jug (the largest
  * pitcher, marked as not fitting, when none holds it), so long as the café has a pitcher.
  */
-export function makeJug(drinks: JugDrink[], rules: JugRules): JugBatch | null {
+export function makeJug(drinks: JugDrink[], rules: JugRules): Jug | null {
   if (drinks.length === 0 || rules.pitchers.length === 0 || drinks.length > rules.maxDrinks) return null;
   const milkMl = drinks.reduce((sum, d) => sum + d.milkMl, 0);
   const steamFor = drinks.map((d) => d.texture as SteamedTexture).reduce(foamier);
@@ -105,7 +105,7 @@ export function pourOrder<T extends JugDrink>(drinks: T[]): T[] {
 }
 
 /** `drinks` must be in the lane's order (oldest first) and not in a started jug. */
-export function planJugs(drinks: JugDrink[], rules: JugRules): JugBatch[] {
+export function planJugs(drinks: JugDrink[], rules: JugRules): Jug[] {
   const steamed = drinks.filter(needsJug);
   if (steamed.length === 0 || rules.pitchers.length === 0) return [];
   const jugs: JugDrink[][] = [];
@@ -123,7 +123,7 @@ export function planJugs(drinks: JugDrink[], rules: JugRules): JugBatch[] {
 }
 
 /** "600 ml pitcher · pour 340 ml (15 ml waste) · 3 drinks · steam silky" */
-export function describeBatch(b: JugBatch): string {
+export function describeJug(b: Jug): string {
   const n = b.drinkIds.length;
   const waste = b.wasteMl > 0 ? ` (${b.wasteMl} ml waste)` : '';
   const over = b.fits ? '' : ' · too much for one pitcher: steam it in two goes';

@@ -1,5 +1,5 @@
 // Milk lanes: the bar's open drinks grouped by milk, then by shot count, oldest ticket first.
-import { planJugs, pourOrder, type JugBatch, type JugRules } from './jug-plan';
+import { planJugs, pourOrder, type Jug, type JugRules } from './jug-plan';
 import type { DrinkView, MilkRef, TicketView } from './types';
 
 /** A drink as the bar shows it: with its ticket's number, name and age, and its place in it. */
@@ -98,7 +98,7 @@ export interface ShotPlan {
 }
 
 export interface PlannedLane extends Lane {
-  jugPlan: JugBatch[];
+  jugPlan: Jug[];
   shotPlan: ShotPlan;
 }
 
@@ -115,12 +115,12 @@ export function shotPlan(cards: DrinkCard[]): ShotPlan {
  * outside any jug (started on its own before it needed one, or bumped straight from the queue and
  * then recalled) has had its milk: it is in no jug.
  */
-export function laneJugs(cards: DrinkCard[], rules: JugRules): JugBatch[] {
+export function laneJugs(cards: DrinkCard[], rules: JugRules): Jug[] {
   const started = new Map<number, DrinkCard[]>();
   for (const c of cards) if (c.jug && c.status !== 'done') started.set(c.jug.id, [...(started.get(c.jug.id) ?? []), c]);
   const fixed = [...started.entries()]
     .sort(([a], [b]) => a - b)
-    .map(([jugId, drinks]): JugBatch => {
+    .map(([jugId, drinks]): Jug => {
       const { id: _id, ...pour } = drinks[0].jug!;
       return { jugId, ...pour, drinkIds: pourOrder(drinks).map((d) => d.id) };
     });

@@ -1,5 +1,5 @@
 // Shapes the API answers with and the screens render. Shared by client and server.
-import type { JugBatch, JugRules } from './jug-plan';
+import type { Jug, JugRules } from './jug-plan';
 import type { Role } from './roles';
 import type { TemperatureUnit, VolumeUnit } from './units';
 
@@ -146,7 +146,7 @@ export interface DrinkView {
 }
 
 /** A started jug as each of its drinks carries it: fixed from the moment it was started. */
-export type JugRef = Omit<JugBatch, 'jugId' | 'drinkIds'> & { id: number };
+export type JugRef = Omit<Jug, 'jugId' | 'drinkIds'> & { id: number };
 
 export interface TicketView {
   id: number;

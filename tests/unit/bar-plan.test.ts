@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import type { JugBatch, JugRules, Pitcher } from '../../src/domain/jug-plan';
+import type { Jug, JugRules, Pitcher } from '../../src/domain/jug-plan';
 import { groupIntoLanes, hasAllergy, needsAllergyAck, planBar } from '../../src/domain/lanes';
 import type { DrinkStatus, DrinkView, JugRef, MilkRef, Texture, TicketView } from '../../src/domain/types';
 
@@ -23,7 +23,7 @@ const rulesWith = (wasteMl: number): JugRules => ({
   expansionPct: { flat: 15, silky: 25, foamy: 75 },
 });
 const RULES = rulesWith(WASTE);
-const planned = (pitcher: Pitcher, coldMl: number, wasteMl: number, steamFor: JugBatch['steamFor'], drinkIds: number[]): JugBatch => ({
+const planned = (pitcher: Pitcher, coldMl: number, wasteMl: number, steamFor: Jug['steamFor'], drinkIds: number[]): Jug => ({
   jugId: null,
   pitcher,
   coldMl,
@@ -216,7 +216,7 @@ describe('planBar', () => {
 
 describe('planBar with started jugs', () => {
   /** A jug as the server stores it when a barista starts it (its pour is fixed from then on). */
-  const started = (id: number, b: JugBatch): JugRef => ({ id, pitcher: b.pitcher, coldMl: b.coldMl, wasteMl: b.wasteMl, steamFor: b.steamFor, fits: b.fits });
+  const started = (id: number, b: Jug): JugRef => ({ id, pitcher: b.pitcher, coldMl: b.coldMl, wasteMl: b.wasteMl, steamFor: b.steamFor, fits: b.fits });
 
   it('keeps a started jug as it was started when a newer drink arrives: the newcomer goes to the next jug', () => {
     // The reported sequence. Jug 1 was started with the flat white alone: 150 + 20 = 170 ml in the

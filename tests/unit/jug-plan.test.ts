@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
-import { describeBatch, makeJug, needsJug, planJugs, type JugBatch, type JugDrink, type JugRules, type Pitcher } from '../../src/domain/jug-plan';
+import { describeJug, makeJug, needsJug, planJugs, type Jug, type JugDrink, type JugRules, type Pitcher } from '../../src/domain/jug-plan';
 import type { Texture } from '../../src/domain/types';
 import { MAX_TEST_DRINK_ML, pitcherHolds, rulesArb } from '../support/jug-rules-arbitrary';
 
@@ -32,7 +32,7 @@ function d(milkMl: number, texture: Texture | null = 'flat'): JugDrink {
   return { id: nextId++, milkMl, texture };
 }
 /** A planned (not started) jug. */
-const jug = (pitcher: Pitcher, coldMl: number, wasteMl: number, steamFor: JugBatch['steamFor'], drinkIds: number[], fits = true): JugBatch => ({
+const jug = (pitcher: Pitcher, coldMl: number, wasteMl: number, steamFor: Jug['steamFor'], drinkIds: number[], fits = true): Jug => ({
   jugId: null,
   pitcher,
   coldMl,
@@ -83,7 +83,7 @@ describe('planJugs (hand-worked)', () => {
     const macchiato = d(30, 'foamy');
     const [batch] = planJugs([macchiato], RULES);
     expect(batch).toEqual(jug(SMALL, 100, 70, 'foamy', [macchiato.id]));
-    expect(describeBatch(batch)).toBe('300 ml pitcher · pour 100 ml (70 ml waste) · 1 drink · steam foamy');
+    expect(describeJug(batch)).toBe('300 ml pitcher · pour 100 ml (70 ml waste) · 1 drink · steam foamy');
   });
 
   it('steams three drinks that fit together as one jug in the smallest pitcher that holds the sum', () => {
@@ -220,7 +220,7 @@ describe('planJugs (hand-worked)', () => {
     const huge = d(600);
     const [alone] = planJugs([huge], RULES);
     expect(alone).toEqual(jug(LARGE, 620, 20, 'flat', [huge.id], false));
-    expect(describeBatch(alone)).toBe('1000 ml pitcher · pour 620 ml (20 ml waste) · 1 drink · steam flat · too much for one pitcher: steam it in two goes');
+    expect(describeJug(alone)).toBe('1000 ml pitcher · pour 620 ml (20 ml waste) · 1 drink · steam flat · too much for one pitcher: steam it in two goes');
 
     // Between two small drinks it is still alone:
     // Jug 1: 100 + 20 = 120 ≤ 160, ≥ 100 → 300 ml. Adding 600 → 720 > 560, close.
@@ -266,17 +266,17 @@ describe('makeJug', () => {
   });
 });
 
-describe('describeBatch', () => {
+describe('describeJug', () => {
   it('names the pitcher, the cold milk and its waste, the drink count and the texture', () => {
     // Wording only: the numbers are copied, not computed.
-    expect(describeBatch(jug(LARGE, 620, 20, 'flat', [1]))).toBe('1000 ml pitcher · pour 620 ml (20 ml waste) · 1 drink · steam flat');
-    expect(describeBatch(jug(MEDIUM, 260, 0, 'foamy', [1, 2, 3]))).toBe('500 ml pitcher · pour 260 ml · 3 drinks · steam foamy');
+    expect(describeJug(jug(LARGE, 620, 20, 'flat', [1]))).toBe('1000 ml pitcher · pour 620 ml (20 ml waste) · 1 drink · steam flat');
+    expect(describeJug(jug(MEDIUM, 260, 0, 'foamy', [1, 2, 3]))).toBe('500 ml pitcher · pour 260 ml · 3 drinks · steam foamy');
   });
 
   it('describes what planJugs plans', () => {
     // 60 + 80 + 20 = 160 ≤ 160 → 300 ml pitcher; silky is foamier than flat (hand-worked as above).
     const [batch] = planJugs([d(60, 'flat'), d(80, 'silky')], RULES);
-    expect(describeBatch(batch)).toBe('300 ml pitcher · pour 160 ml (20 ml waste) · 2 drinks · steam silky');
+    expect(describeJug(batch)).toBe('300 ml pitcher · pour 160 ml (20 ml waste) · 2 drinks · steam silky');
   });
 });
 
@@ -295,7 +295,7 @@ describe('planJugs (properties)', () => {
     .array(drinkArb, { maxLength: 25 })
     .map((ds): JugDrink[] => ds.map((x, i) => ({ id: 1000 + i, milkMl: x.milkMl, texture: x.texture })));
 
-  const run = (prop: (lane: JugDrink[], r: JugRules, plan: JugBatch[]) => void) =>
+  const run = (prop: (lane: JugDrink[], r: JugRules, plan: Jug[]) => void) =>
     fc.assert(
       fc.property(laneArb, rulesArb, (lane, r) => {
         prop(lane, r, planJugs(lane, r));

@@ -11,7 +11,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { jugBumpProblem, jugToStart } from '../../src/domain/jug-commands';
-import { needsJug, type JugBatch, type JugRules } from '../../src/domain/jug-plan';
+import { needsJug, type Jug, type JugRules } from '../../src/domain/jug-plan';
 import { planBar } from '../../src/domain/lanes';
 import type { DrinkView, JugRef, MilkRef, Texture, TicketView } from '../../src/domain/types';
 import { MAX_TEST_DRINK_ML, pitcherHolds, rulesArb } from '../support/jug-rules-arbitrary';
@@ -91,7 +91,7 @@ class Bar {
   }
 
   /** The server's "start jug": these drinks, as the screen showed them, become one stored jug. */
-  startJug(drinkIds: number[]): JugBatch {
+  startJug(drinkIds: number[]): Jug {
     const drinks = drinkIds.map(this.drink);
     const result = jugToStart(drinks.map((d) => ({ ...d, milkId: d.milk?.id ?? null })), this.rules);
     if (result.refused !== undefined) throw new Error(`start refused: ${result.refused}`);
@@ -207,7 +207,7 @@ function checkPlan(bar: Bar) {
   const open = bar.drinks().filter((d) => d.status !== 'done');
   for (const lane of bar.plan().lanes) {
     const laneDrinks = open.filter((d) => (d.milk ? `milk:${d.milk.id}` : 'none') === lane.key);
-    const where = new Map<number, JugBatch[]>();
+    const where = new Map<number, Jug[]>();
     for (const j of lane.jugPlan) for (const id of j.drinkIds) where.set(id, [...(where.get(id) ?? []), j]);
 
     for (const d of laneDrinks) {

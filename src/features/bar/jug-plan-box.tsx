@@ -1,7 +1,7 @@
 // A lane's jugs under its name: each started jug with "Bump jug N" (it bumps exactly the drinks
 // shown, as started), then the next jug to steam with "Start jug N", then how many more follow.
 // Started or not is said in words, not only by look.
-import { describeBatch, type JugBatch } from '../../domain/jug-plan';
+import { describeJug, type Jug } from '../../domain/jug-plan';
 import { needsAllergyAck, type PlannedLane } from '../../domain/lanes';
 import { Button } from '../../components/ui/button';
 
@@ -39,7 +39,7 @@ export function JugPlanBox({ lane, busy, onStartJug, onBumpJug }: Props) {
       )}
       {later[0] && (
         <p className="text-lg text-crema-300">
-          Jug {n + 1}: {describeBatch(later[0])}
+          Jug {n + 1}: {describeJug(later[0])}
           {later.length > 1 ? ` · then ${later.length - 1} more jug${later.length > 2 ? 's' : ''}` : ''}
         </p>
       )}
@@ -47,12 +47,12 @@ export function JugPlanBox({ lane, busy, onStartJug, onBumpJug }: Props) {
   );
 }
 
-function JugRow({ label, jug, state, children }: { label: string; jug: JugBatch; state: 'started' | 'planned'; children: React.ReactNode }) {
+function JugRow({ label, jug, state, children }: { label: string; jug: Jug; state: 'started' | 'planned'; children: React.ReactNode }) {
   return (
     <div data-testid="jug" data-jug-state={state} className="flex items-center gap-3">
       <p className="flex-1 text-xl font-semibold">
         <span className={state === 'started' ? 'rounded-md bg-crema-100 px-2 text-roast-950' : 'text-crema-300'}>{label}:</span>{' '}
-        {describeBatch(jug)}
+        {describeJug(jug)}
       </p>
       <div className="w-40 shrink-0 [&>button]:w-full">{children}</div>
     </div>
