@@ -219,6 +219,7 @@ describe('planBar with started jugs', () => {
   const started = (id: number, b: Jug): JugRef => ({ id, pitcher: b.pitcher, coldMl: b.coldMl, wasteMl: b.wasteMl, steamFor: b.steamFor, fits: b.fits });
 
   it('keeps a started jug as it was started when a newer drink arrives: the newcomer goes to the next jug', () => {
+    // Common practice: milk already in the pitcher is not topped up for a drink that arrives later.
     // The reported sequence. Jug 1 was started with the flat white alone: 150 + 20 = 170 ml in the
     // 500 ml pitcher (hand-worked above). Then a cappuccino arrives (180 ml foamy).
     const jug1 = started(41, planned(MEDIUM, 170, 20, 'flat', []));
@@ -235,7 +236,8 @@ describe('planBar with started jugs', () => {
 
   it("lists a started jug's drinks still on the bar, thinnest first, and keeps its pour though some were bumped", () => {
     // Jug 7 was started with a foamy, a flat and a silky drink; the flat one was bumped on its own.
-    // Pour order (common practice): silky before foamy.
+    // Pour order (common practice): silky before foamy. The pour stays as started: the milk is
+    // already in the pitcher (common practice).
     const jug7 = started(7, planned(LARGE, 400, 20, 'foamy', []));
     const foamy = drink(1, { texture: 'foamy', milkMl: 120, status: 'making', jug: jug7 });
     const flat = { ...drink(1, { texture: 'flat', milkMl: 130, jug: jug7 }), status: 'done' as const };
@@ -245,6 +247,7 @@ describe('planBar with started jugs', () => {
   });
 
   it('puts started jugs first, in the order they were started, then plans the queued drinks oldest first', () => {
+    // Jugline's own order (no outside value): what is on the steam wand comes first.
     const jugA = started(3, planned(SMALL, 140, 20, 'flat', []));
     const jugB = started(9, planned(SMALL, 140, 20, 'flat', []));
     // Ticket 1 (oldest) is queued; tickets 2 and 3 are in started jugs 9 and 3.
@@ -268,6 +271,8 @@ describe('planBar with started jugs', () => {
   });
 
   it('a rush reorders only the jugs not started yet', () => {
+    // Common practice: a rush goes to the front of what is still to be made, not into a jug
+    // already steaming.
     const jug1 = started(5, planned(MEDIUM, 170, 20, 'flat', []));
     const making = drink(1, { milkMl: 150, status: 'making', jug: jug1 });
     const older = drink(2, { milkMl: 200 });

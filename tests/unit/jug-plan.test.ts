@@ -212,6 +212,7 @@ describe('planJugs (hand-worked)', () => {
   });
 
   it('plans nothing when the location has no pitchers', () => {
+    // Jugline's own rule (no outside value): no pitcher, no plan (Settings keeps at least one).
     expect(planJugs([d(150), d(100)], rules({ pitchers: [] }))).toEqual([]);
   });
 
@@ -236,7 +237,8 @@ describe('planJugs (hand-worked)', () => {
   });
 
   it('takes the smaller capacity when two pitchers share a fill line', () => {
-    // 150 + 20 = 170 ≤ 280 for both, over both minimums; the 400 ml is the smaller pitcher.
+    // 150 + 20 = 170 ≤ 280 for both, over both minimums; the 400 ml is the smaller pitcher
+    // (Jugline's own tie-break, no outside value: the smaller pitcher is quicker to swirl and wash).
     const p400: Pitcher = { capacityMl: 400, fillLineMl: 280, minFillMl: 140 };
     const p500: Pitcher = { capacityMl: 500, fillLineMl: 280, minFillMl: 170 };
     expect(planJugs([d(150)], rules({ pitchers: [p500, p400] }))[0].pitcher).toEqual(p400);
@@ -252,7 +254,8 @@ describe('planJugs (hand-worked)', () => {
 
 describe('makeJug', () => {
   it('makes the jug a barista starts, or says no when the drinks cannot share one', () => {
-    // Same rules as planJugs. Two flat 60s: 140 ≤ 160 → 300 ml pitcher.
+    // Hand-worked from the same rules as planJugs (fill line: common practice; minimum and drinks
+    // per jug: from memory). Two flat 60s: 60 + 60 + 20 = 140 ≤ 160, ≥ 100 → 300 ml pitcher.
     const a = d(60);
     const b = d(60);
     expect(makeJug([a, b], RULES)).toEqual(jug(SMALL, 140, 20, 'flat', [a.id, b.id]));
@@ -268,7 +271,7 @@ describe('makeJug', () => {
 
 describe('describeJug', () => {
   it('names the pitcher, the cold milk and its waste, the drink count and the texture', () => {
-    // Wording only: the numbers are copied, not computed.
+    // Jugline's own wording (no outside value); the numbers are copied, not computed.
     expect(describeJug(jug(LARGE, 620, 20, 'flat', [1]))).toBe('1000 ml pitcher · pour 620 ml (20 ml waste) · 1 drink · steam flat');
     expect(describeJug(jug(MEDIUM, 260, 0, 'foamy', [1, 2, 3]))).toBe('500 ml pitcher · pour 260 ml · 3 drinks · steam foamy');
   });
