@@ -131,13 +131,4 @@ export const SMALL_PITCHER = { capacityMl: 350, fillLineMl: 190, minFillMl: 120 
 export const MID_PITCHER = { capacityMl: 600, fillLineMl: 330, minFillMl: 200 };
 export const BIG_PITCHER = { capacityMl: 950, fillLineMl: 520, minFillMl: 320 };
 
-/** A jug the Bar plans (not started yet), as GET /api/bar/lanes answers it. */
-export const plannedJug = (pitcher: typeof SMALL_PITCHER, coldMl: number, wasteMl: number, steamFor: string, drinkIds: number[]) => ({
-  jugId: null,
-  pitcher,
-  coldMl,
-  wasteMl,
-  steamFor,
-  fits: true,
-  drinkIds,
-});
+export { plannedJug } from '../support/jugs';

@@ -10,7 +10,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BoardSnapshot } from '../../src/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
-import { BIG_PITCHER, barTools, laneOf, MID_PITCHER, SMALL_PITCHER } from './bar-helpers';
+import { BIG_PITCHER, barTools, laneOf, MID_PITCHER, plannedJug, SMALL_PITCHER } from './bar-helpers';
 import type { Agent } from './helpers';
 
 const time = manualClock('2026-03-02T15:00:00.000Z');
@@ -73,7 +73,7 @@ describe('the reported sequence', () => {
     const [flatWhite] = await tickets(whole('Flat white'));
     const fwTicket = await ticketOf(flatWhite);
     // Flat white: 120 ml + 15 waste = 135 ≤ 190, ≥ 120, 135 × 1.15 = 155.25 ≤ 350 → 350 ml pitcher.
-    const shown = { jugId: null, pitcher: SMALL_PITCHER, coldMl: 135, wasteMl: 15, steamFor: 'flat', fits: true, drinkIds: [flatWhite] };
+    const shown = plannedJug(SMALL_PITCHER, 135, 15, 'flat', [flatWhite]);
     expect(await jugPlanOf()).toEqual([shown]);
 
     const { jugId, tickets: started } = await startJug(barista, [flatWhite], [fwTicket]);
@@ -96,7 +96,7 @@ describe('the reported sequence', () => {
     const [cappuccino] = await tickets(whole('Cappuccino'));
     expect(await jugPlanOf()).toEqual([
       { ...shown, jugId },
-      { jugId: null, pitcher: MID_PITCHER, coldMl: 225, wasteMl: 15, steamFor: 'foamy', fits: true, drinkIds: [cappuccino] },
+      plannedJug(MID_PITCHER, 225, 15, 'foamy', [cappuccino]),
     ]);
 
     await bumpJug(barista, jugId, [flatWhite], [fwTicket]);
@@ -284,7 +284,7 @@ describe('a recall', () => {
     tick();
     const recalled = await expectCommand(barista, `/api/tickets/${ta}/recall`, 'ticket.recalled', baristaId);
     expect(recalled.drinks[0]).toMatchObject({ status: 'making', jug: { id: jugId } });
-    expect(await jugPlanOf()).toEqual([{ jugId, pitcher: MID_PITCHER, coldMl: 255, wasteMl: 15, steamFor: 'flat', fits: true, drinkIds: [a] }]);
+    expect(await jugPlanOf()).toEqual([{ ...plannedJug(MID_PITCHER, 255, 15, 'flat', [a]), jugId }]);
     await expectRefused(barista, `/api/jugs/${jugId}/bump`, { drinkIds: [a, b] }, 409, 'conflict', [a, b]);
     await bumpJug(barista, jugId, [a], [ta]);
   });
@@ -312,7 +312,7 @@ describe('a recall', () => {
     const back = await expectCommand(barista, `/api/tickets/${await ticketOf(e)}/recall`, 'ticket.recalled', baristaId);
     expect(back.drinks[0]).toMatchObject({ status: 'making', jug: null });
     // Only the queued large latte is planned: 360 + 15 = 375 > 330; ≤ 520, ≥ 320 → 950 ml.
-    expect(await jugPlanOf()).toEqual([{ jugId: null, pitcher: BIG_PITCHER, coldMl: 375, wasteMl: 15, steamFor: 'silky', fits: true, drinkIds: [f] }]);
+    expect(await jugPlanOf()).toEqual([plannedJug(BIG_PITCHER, 375, 15, 'silky', [f])]);
   });
 });
 

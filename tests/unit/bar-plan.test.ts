@@ -2,6 +2,7 @@ import { describe, it, expect } from 'vitest';
 import type { Jug, JugRules, Pitcher } from '../../src/domain/jug-plan';
 import { groupIntoLanes, hasAllergy, needsAllergyAck, planBar } from '../../src/domain/lanes';
 import type { DrinkStatus, DrinkView, JugRef, MilkRef, Texture, TicketView } from '../../src/domain/types';
+import { plannedJug } from '../support/jugs';
 
 const OAT: MilkRef = { id: 7, name: 'Oat', code: 'OT' };
 const WHOLE: MilkRef = { id: 3, name: 'Whole', code: 'WM' };
@@ -23,15 +24,7 @@ const rulesWith = (wasteMl: number): JugRules => ({
   expansionPct: { flat: 15, silky: 25, foamy: 75 },
 });
 const RULES = rulesWith(WASTE);
-const planned = (pitcher: Pitcher, coldMl: number, wasteMl: number, steamFor: Jug['steamFor'], drinkIds: number[]): Jug => ({
-  jugId: null,
-  pitcher,
-  coldMl,
-  wasteMl,
-  steamFor,
-  fits: true,
-  drinkIds,
-});
+const planned = plannedJug;
 
 // Doses in tenths of a gram. Double: 19 g = 190 dg, inside the common-practice 18–22 g for a
 // double shot (docs/check-values.md, no published source). Single: 7 g = 70 dg, the Istituto

@@ -2,7 +2,7 @@ import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { describeJug, makeJug, needsJug, planJugs, type Jug, type JugDrink, type JugRules, type Pitcher } from '../../src/domain/jug-plan';
 import type { Texture } from '../../src/domain/types';
-import { MAX_TEST_DRINK_ML, pitcherHolds, rulesArb } from '../support/jug-rules-arbitrary';
+import { MAX_TEST_DRINK_ML, pitcherHolds, plannedJug, rulesArb } from '../support/jugs';
 
 // Invented pitchers for these tests (not the demo café's). Each has:
 // - a fill line below the capacity: common practice is to fill a milk pitcher with cold milk to
@@ -31,16 +31,7 @@ let nextId = 1;
 function d(milkMl: number, texture: Texture | null = 'flat'): JugDrink {
   return { id: nextId++, milkMl, texture };
 }
-/** A planned (not started) jug. */
-const jug = (pitcher: Pitcher, coldMl: number, wasteMl: number, steamFor: Jug['steamFor'], drinkIds: number[], fits = true): Jug => ({
-  jugId: null,
-  pitcher,
-  coldMl,
-  wasteMl,
-  steamFor,
-  fits,
-  drinkIds,
-});
+const jug = plannedJug;
 
 describe('needsJug', () => {
   it('is true only for a steamed texture with some milk', () => {

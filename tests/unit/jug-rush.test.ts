@@ -14,7 +14,7 @@ import { jugBumpProblem, jugToStart } from '../../src/domain/jug-commands';
 import { needsJug, type Jug, type JugRules } from '../../src/domain/jug-plan';
 import { planBar } from '../../src/domain/lanes';
 import type { DrinkView, JugRef, MilkRef, Texture, TicketView } from '../../src/domain/types';
-import { MAX_TEST_DRINK_ML, pitcherHolds, rulesArb } from '../support/jug-rules-arbitrary';
+import { MAX_TEST_DRINK_ML, pitcherHolds, rulesArb } from '../support/jugs';
 
 const MILKS: MilkRef[] = [
   { id: 1, name: 'Whole', code: 'WH' },

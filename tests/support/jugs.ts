@@ -1,10 +1,11 @@
-// Random jug rules for the property tests: 1–4 pitchers (fill line ≤ capacity, minimum ≤ fill
+// Jug fixtures for the tests: a planned jug as the plan answers it, and random jug rules for the
+// property tests: 1–4 pitchers (fill line ≤ capacity, minimum ≤ fill
 // line), a waste allowance, a drinks-per-jug limit and a growth per texture. One big pitcher
 // always holds any one test drink (≤ 300 ml of milk + ≤ 20 ml waste = 320 ml) grown by up to
 // 100 %: its fill line is ≥ 320 ml and its capacity at least twice its fill line. It sits at a
 // random place in the list: the plan must not depend on the order.
 import fc from 'fast-check';
-import type { JugRules, Pitcher } from '../../src/domain/jug-plan';
+import type { Jug, JugRules, Pitcher } from '../../src/domain/jug-plan';
 
 export const MAX_TEST_DRINK_ML = 300;
 
@@ -35,3 +36,14 @@ export function pitcherHolds(p: Pitcher, milkMl: number, texture: 'flat' | 'silk
   const cold = Math.max(milkMl + r.wasteMl, p.minFillMl);
   return cold <= p.fillLineMl && cold * (100 + r.expansionPct[texture]) <= p.capacityMl * 100;
 }
+
+/** A jug the plan answers before anyone starts it. */
+export const plannedJug = (pitcher: Pitcher, coldMl: number, wasteMl: number, steamFor: Jug['steamFor'], drinkIds: number[], fits = true): Jug => ({
+  jugId: null,
+  pitcher,
+  coldMl,
+  wasteMl,
+  steamFor,
+  fits,
+  drinkIds,
+});
