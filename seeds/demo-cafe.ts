@@ -4,6 +4,7 @@ import type { Knex } from 'knex';
 import { hashPassword, verifyPassword } from '../server/auth/passwords';
 import { adviseShot, doseRange, DEFAULT_SHOT_TARGETS } from '../src/domain/dial-in';
 import { addDays, localDate } from '../src/domain/freshness';
+import { defaultMinFillMl } from '../src/domain/settings-schemas';
 
 export const DEMO_PASSWORD = 'jugline-demo';
 
@@ -174,7 +175,7 @@ export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: nu
         [350, 190],
         [600, 330],
         [950, 520],
-      ].map(([capacity_ml, fill_line_ml]) => ({ location_id: locationId, capacity_ml, fill_line_ml })),
+      ].map(([capacity_ml, fill_line_ml]) => ({ location_id: locationId, capacity_ml, fill_line_ml, min_fill_ml: defaultMinFillMl(capacity_ml, fill_line_ml) })),
     );
 
     const milkIds: number[] = [];

@@ -6,6 +6,7 @@ import { parse } from '../errors';
 import type { Deps } from '../services/deps';
 import { planBar } from '../../src/domain/lanes';
 import { acknowledgeAllergy, collectTicket, rushTicket } from '../services/ticket-care';
+import { bumpJug, startJug } from '../services/jugs';
 import { boardSnapshot, bumpDrink, bumpDrinks, bumpTicket, recallTicket, startDrink, startDrinks } from '../services/tickets';
 import type { ApiRoute } from './define';
 
@@ -41,7 +42,7 @@ export function ticketRoutes(deps: Deps): ApiRoute[] {
       handler: async (req, res) => {
         const board = await boardSnapshot(deps, userOf(req).locationId);
         const open = board.tickets.filter((t) => openTickets(t, 0));
-        res.json({ seq: board.seq, now: board.now, ...planBar(open, board.location.pitchers, board.location.jugWasteMl) });
+        res.json({ seq: board.seq, now: board.now, ...planBar(open, board.location.jugRules) });
       },
     },
     {
@@ -55,6 +56,21 @@ export function ticketRoutes(deps: Deps): ApiRoute[] {
       path: '/drinks/bump',
       capability: 'makeDrinks',
       handler: async (req, res) => res.json({ tickets: await bumpDrinks(deps, userOf(req), parse(drinkBatchBody, req.body).drinkIds) }),
+    },
+    {
+      method: 'post',
+      path: '/jugs',
+      capability: 'makeDrinks',
+      handler: async (req, res) => res.status(201).json(await startJug(deps, userOf(req), parse(drinkBatchBody, req.body).drinkIds)),
+    },
+    {
+      method: 'post',
+      path: '/jugs/:id/bump',
+      capability: 'makeDrinks',
+      handler: async (req, res) => {
+        const { id } = parse(idParam, req.params, 'params');
+        res.json({ tickets: await bumpJug(deps, userOf(req), id, parse(drinkBatchBody, req.body).drinkIds) });
+      },
     },
     { method: 'post', path: '/drinks/:id/start', capability: 'makeDrinks', handler: command(startDrink) },
     { method: 'post', path: '/drinks/:id/acknowledge-allergy', capability: 'makeDrinks', handler: command(acknowledgeAllergy) },

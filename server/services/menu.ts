@@ -1,5 +1,6 @@
 // The menu as the Counter and the pricing see it.
 import type { Knex } from 'knex';
+import type { JugRules, Pitcher } from '../../src/domain/jug-plan';
 import type { LocationView, MenuView, Texture } from '../../src/domain/types';
 import { bool, json } from '../db/rows';
 import { notFound } from '../errors';
@@ -27,9 +28,21 @@ export async function loadLocation(db: Knex | Knex.Transaction, locationId: numb
   };
 }
 
-export async function loadPitchers(db: Knex | Knex.Transaction, locationId: number) {
-  const rows = await db('pitchers').where({ location_id: locationId }).orderBy('fill_line_ml');
-  return rows.map((p) => ({ capacityMl: p.capacity_ml as number, fillLineMl: p.fill_line_ml as number }));
+export async function loadPitchers(db: Knex | Knex.Transaction, locationId: number): Promise<Pitcher[]> {
+  const rows = await db('pitchers').where({ location_id: locationId }).orderBy(['fill_line_ml', 'capacity_ml']);
+  return rows.map((p) => ({ capacityMl: p.capacity_ml, fillLineMl: p.fill_line_ml, minFillMl: p.min_fill_ml }));
+}
+
+/** The café's rules for jugs, as the Bar plans with them and a started jug is checked against. */
+export async function loadJugRules(db: Knex | Knex.Transaction, locationId: number): Promise<JugRules> {
+  const l = await db('locations').where({ id: locationId }).first();
+  if (!l) throw notFound('Location');
+  return {
+    pitchers: await loadPitchers(db, locationId),
+    wasteMl: l.jug_waste_ml,
+    maxDrinks: l.jug_max_drinks,
+    expansionPct: { flat: l.expansion_flat_pct, silky: l.expansion_silky_pct, foamy: l.expansion_foamy_pct },
+  };
 }
 
 /** An item_sizes row as the screens see it (the Counter's menu and the back-office editor). */

@@ -4,6 +4,7 @@ import type { Knex } from 'knex';
 import type { AllergenList } from '../../src/domain/allergens';
 import {
   ALLERGEN_EQUIVALENTS,
+  defaultMinFillMl,
   listOf,
   milliToPercent,
   retagged,
@@ -37,6 +38,10 @@ const COLUMNS = {
   volumeUnit: 'volume_unit',
   temperatureUnit: 'temperature_unit',
   jugWasteMl: 'jug_waste_ml',
+  jugMaxDrinks: 'jug_max_drinks',
+  expansionFlatPct: 'expansion_flat_pct',
+  expansionSilkyPct: 'expansion_silky_pct',
+  expansionFoamyPct: 'expansion_foamy_pct',
   allergenList: 'allergen_list',
   receiptFooter: 'receipt_footer',
 } as const satisfies Record<keyof SettingsView, string>;
@@ -57,12 +62,21 @@ async function loadSettingsView(db: Db, locationId: number): Promise<SettingsVie
     volumeUnit: l.volume_unit,
     temperatureUnit: l.temperature_unit,
     jugWasteMl: l.jug_waste_ml,
+    jugMaxDrinks: l.jug_max_drinks,
+    expansionFlatPct: l.expansion_flat_pct,
+    expansionSilkyPct: l.expansion_silky_pct,
+    expansionFoamyPct: l.expansion_foamy_pct,
     allergenList: l.allergen_list,
     receiptFooter: l.receipt_footer ?? null,
   };
 }
 
-const pitcherView = (p: Record<string, number>): PitcherView => ({ id: p.id, capacityMl: p.capacity_ml, fillLineMl: p.fill_line_ml });
+const pitcherView = (p: Record<string, number>): PitcherView => ({ id: p.id, capacityMl: p.capacity_ml, fillLineMl: p.fill_line_ml, minFillMl: p.min_fill_ml });
+const pitcherRow = (p: PitcherBody) => ({
+  capacity_ml: p.capacityMl,
+  fill_line_ml: p.fillLineMl,
+  min_fill_ml: p.minFillMl ?? defaultMinFillMl(p.capacityMl, p.fillLineMl),
+});
 
 export async function loadSettings(db: Db, locationId: number): Promise<SettingsPage> {
   const settings = await loadSettingsView(db, locationId);
@@ -159,13 +173,13 @@ function pitcherCommand(deps: Deps, user: SessionUser, work: (trx: Knex.Transact
 
 export const addPitcher = (deps: Deps, user: SessionUser, p: PitcherBody) =>
   pitcherCommand(deps, user, async (trx) => {
-    await trx('pitchers').insert({ location_id: user.locationId, capacity_ml: p.capacityMl, fill_line_ml: p.fillLineMl });
+    await trx('pitchers').insert({ location_id: user.locationId, ...pitcherRow(p) });
   });
 
 export const updatePitcher = (deps: Deps, user: SessionUser, id: number, p: PitcherBody) =>
   pitcherCommand(deps, user, async (trx) => {
     await pitcherOf(trx, user, id);
-    await trx('pitchers').where({ id }).update({ capacity_ml: p.capacityMl, fill_line_ml: p.fillLineMl });
+    await trx('pitchers').where({ id }).update(pitcherRow(p));
   });
 
 /** The jug plan needs a pitcher to plan with, so the last one stays. */

@@ -1,7 +1,7 @@
 // Reading tickets (orders with their bar drinks) into the shape the screens use.
 import type { Knex } from 'knex';
-import type { DrinkView, TicketView } from '../../src/domain/types';
-import { json } from '../db/rows';
+import type { DrinkView, JugRef, TicketView } from '../../src/domain/types';
+import { bool, json } from '../db/rows';
 
 type Db = Knex | Knex.Transaction;
 
@@ -27,6 +27,20 @@ function toDrink(r: Record<string, any>): DrinkView {
     allergyAckBy: r.ack_by_name ?? null,
     startedBy: r.started_by_name ?? null,
     doneBy: r.done_by_name ?? null,
+    jug: jugOf(r),
+  };
+}
+
+/** The started jug a drink row was joined with (jug_* columns), or null. */
+function jugOf(r: Record<string, any>): JugRef | null {
+  if (r.jug_id == null) return null;
+  return {
+    id: r.jug_id,
+    pitcher: { capacityMl: r.jug_capacity_ml, fillLineMl: r.jug_fill_line_ml, minFillMl: r.jug_min_fill_ml },
+    coldMl: r.jug_cold_ml,
+    wasteMl: r.jug_waste_ml,
+    steamFor: r.jug_steam_for,
+    fits: bool(r.jug_fits),
   };
 }
 
@@ -36,10 +50,25 @@ export async function loadTickets(db: Db, orders: Record<string, any>[]): Promis
     .leftJoin('users', 'users.id', 'order_items.allergy_ack_by')
     .leftJoin('users as starter', 'starter.id', 'order_items.started_by')
     .leftJoin('users as bumper', 'bumper.id', 'order_items.done_by')
+    .leftJoin('jug_drinks', 'jug_drinks.order_item_id', 'order_items.id')
+    .leftJoin('jugs', 'jugs.id', 'jug_drinks.jug_id')
     .whereIn('order_items.order_id', orders.map((o) => o.id))
     .andWhere('order_items.station', 'bar')
     .orderBy(['order_items.order_id', 'order_items.line_no'])
-    .select('order_items.*', 'users.name as ack_by_name', 'starter.name as started_by_name', 'bumper.name as done_by_name');
+    .select(
+      'order_items.*',
+      'users.name as ack_by_name',
+      'starter.name as started_by_name',
+      'bumper.name as done_by_name',
+      'jugs.id as jug_id',
+      'jugs.capacity_ml as jug_capacity_ml',
+      'jugs.fill_line_ml as jug_fill_line_ml',
+      'jugs.min_fill_ml as jug_min_fill_ml',
+      'jugs.cold_ml as jug_cold_ml',
+      'jugs.waste_ml as jug_waste_ml',
+      'jugs.steam_for as jug_steam_for',
+      'jugs.fits as jug_fits',
+    );
   const takers = new Map<number, string>();
   const takerIds = [...new Set(orders.map((o) => o.taken_by).filter((id): id is number => id != null))];
   if (takerIds.length) for (const u of await db('users').whereIn('id', takerIds).select('id', 'name')) takers.set(u.id, u.name);

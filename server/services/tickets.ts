@@ -1,15 +1,16 @@
 // Bar commands: start, bump and recall. Each is one transaction plus its event.
 import type { Knex } from 'knex';
-import type { BoardSnapshot, SessionUser, TicketEventType } from '../../src/domain/types';
-import { json } from '../db/rows';
+import type { BoardSnapshot, SessionUser } from '../../src/domain/types';
+import { needsJug } from '../../src/domain/jug-plan';
 import { RECALL_WINDOW_SECONDS } from '../../src/domain/timing';
 import { conflict, notFound } from '../errors';
+import { assertAllergyRead, bumpRows, nextBumpSeq, openDrinks, settleTicket, startRows, ticketEvents } from './bar-rows';
+import { recordCoffeeUse, returnCoffeeUse } from './beans-usage';
 import type { Deps } from './deps';
 import { appendEvent, latestSeq, runCommand } from './events';
-import { loadLocation, loadPitchers } from './menu';
-import { WAIT_OF_ORDER } from './reports/sql';
+import { openJug } from './jugs';
+import { loadJugRules, loadLocation } from './menu';
 import { loadBoardTickets, loadTicket } from './ticket-views';
-import { recordCoffeeUse, returnCoffeeUse } from './beans-usage';
 
 
 export async function boardSnapshot(deps: Deps, locationId: number): Promise<BoardSnapshot> {
@@ -25,34 +26,11 @@ export async function boardSnapshot(deps: Deps, locationId: number): Promise<Boa
         name: location.name,
         waitTargetSeconds: location.waitTargetSeconds,
         pickupTimeoutSeconds: location.pickupTimeoutSeconds,
-        pitchers: await loadPitchers(trx, locationId),
-        jugWasteMl: location.jugWasteMl,
+        jugRules: await loadJugRules(trx, locationId),
       },
       tickets,
     };
   });
-}
-
-/** The bar drinks a command names, each checked: in this café, on an open ticket. */
-async function openDrinks(trx: Knex.Transaction, user: SessionUser, drinkIds: number[]) {
-  const rows = await trx('order_items')
-    .join('orders', 'orders.id', 'order_items.order_id')
-    .whereIn('order_items.id', drinkIds)
-    .andWhere('orders.location_id', user.locationId)
-    .andWhere('order_items.station', 'bar')
-    .select('order_items.*', 'orders.status as order_status', 'orders.allergens as order_allergens', 'orders.allergy_note');
-  for (const id of drinkIds) if (!rows.some((r) => r.id === id)) throw notFound(`Drink ${id}`);
-  for (const r of rows) if (r.order_status !== 'open') throw conflict(`Drink ${r.id} is not on an open ticket`);
-  return rows;
-}
-
-const hasAllergy = (r: Record<string, any>) =>
-  json<string[]>(r.order_allergens, []).length > 0 || !!r.allergy_note;
-
-/** An allergy drink is bumped only once a barista has confirmed reading its allergy. */
-function assertAllergyRead(rows: Record<string, any>[]) {
-  const unread = rows.find((r) => hasAllergy(r) && !r.allergy_ack_at);
-  if (unread) throw conflict('Read the allergy on this ticket and acknowledge it before bumping', { drinkId: unread.id });
 }
 
 async function orderInLocation(trx: Knex.Transaction, orderId: number, user: SessionUser) {
@@ -61,44 +39,20 @@ async function orderInLocation(trx: Knex.Transaction, orderId: number, user: Ses
   return order;
 }
 
-async function nextBumpSeq(trx: Knex.Transaction): Promise<number> {
-  const row = await trx('order_items').max<{ n: number | null }>({ n: 'bump_seq' }).first();
-  return (row?.n ?? 0) + 1;
-}
-
-/** Once every bar drink is done the ticket is ready for pickup. */
-async function settleTicket(trx: Knex.Transaction, orderId: number, at: string) {
-  const left = await trx('order_items')
-    .where({ order_id: orderId, station: 'bar' })
-    .whereNot({ status: 'done' })
-    .count<{ n: number }>({ n: '*' })
-    .first();
-  if (Number(left?.n) === 0) {
-    const changed = await trx('orders').where({ id: orderId, status: 'open' }).update({ status: 'ready', ready_at: at });
-    if (changed) await trx.raw(`UPDATE orders AS o SET wait_seconds = ${WAIT_OF_ORDER} WHERE o.id = ?`, [orderId]);
-  }
-}
-
-/** One event per ticket the command touched, each carrying the ticket's new state. */
-async function ticketEvents(trx: Knex.Transaction, user: SessionUser, orderIds: number[], type: TicketEventType, at: string) {
-  const events = [];
-  const tickets = [];
-  for (const id of [...new Set(orderIds)]) {
-    const ticket = await loadTicket(trx, id);
-    tickets.push(ticket);
-    events.push(await appendEvent(trx, user.locationId, type, ticket, at, user.id));
-  }
-  return { tickets, events };
-}
-
-/** Start one drink or a batch (queued → making). */
+/**
+ * Start drinks each on its own (queued → making). A drink that needs steamed milk becomes a
+ * started jug of its own, so the Bar never plans it with others; to steam drinks together, start
+ * them as one jug (jugs.ts).
+ */
 export function startDrinks(deps: Deps, user: SessionUser, drinkIds: number[]) {
   return runCommand(deps, async (trx) => {
     const rows = await openDrinks(trx, user, drinkIds);
     const busy = rows.find((r) => r.status !== 'queued');
     if (busy) throw conflict(`Drink ${busy.id} is already ${busy.status === 'done' ? 'done' : 'being made'}`);
     const at = deps.clock().toISOString();
-    await trx('order_items').whereIn('id', drinkIds).andWhere({ status: 'queued' }).update({ status: 'making', started_at: at, started_by: user.id });
+    const steamed = rows.filter((r) => needsJug({ id: r.id, milkMl: r.milk_ml, texture: r.texture }));
+    for (const row of steamed) await openJug(trx, user, [row], at);
+    await startRows(trx, user, rows.filter((r) => !steamed.includes(r)).map((r) => r.id), at);
     const { tickets, events } = await ticketEvents(trx, user, rows.map((r) => r.order_id), 'drink.started', at);
     return { result: tickets, events };
   });
@@ -108,20 +62,7 @@ export function startDrinks(deps: Deps, user: SessionUser, drinkIds: number[]) {
 export function bumpDrinks(deps: Deps, user: SessionUser, drinkIds: number[]) {
   return runCommand(deps, async (trx) => {
     const rows = await openDrinks(trx, user, drinkIds);
-    const done = rows.find((r) => r.status === 'done');
-    if (done) throw conflict(`Drink ${done.id} was already bumped`);
-    assertAllergyRead(rows);
-    const at = deps.clock().toISOString();
-    const bumpSeq = await nextBumpSeq(trx);
-    await trx('order_items').whereIn('id', drinkIds).whereNull('started_at').update({ started_at: at });
-    const changed = await trx('order_items')
-      .whereIn('id', drinkIds)
-      .whereNot({ status: 'done' })
-      .update({ status: 'done', done_at: at, done_by: user.id, bump_seq: bumpSeq });
-    if (changed !== drinkIds.length) throw conflict('A drink was already bumped');
-    await recordCoffeeUse(trx, user.locationId, drinkIds, at);
-    for (const orderId of new Set(rows.map((r) => r.order_id))) await settleTicket(trx, orderId, at);
-    const { tickets, events } = await ticketEvents(trx, user, rows.map((r) => r.order_id), 'drink.bumped', at);
+    const { tickets, events } = await bumpRows(trx, user, rows, deps.clock().toISOString());
     return { result: tickets, events };
   });
 }
@@ -150,7 +91,13 @@ export function bumpTicket(deps: Deps, user: SessionUser, orderId: number) {
   });
 }
 
-/** Undo the ticket's last bump (one drink, or all the drinks one ticket bump finished). */
+/**
+ * Undo the ticket's last bump (one drink, or all the drinks one ticket bump finished). A recalled
+ * drink comes back as being made: it was made, so it takes no new milk. It stays in the jug it
+ * was started in (jug_drinks is never rewritten): back among that jug's drinks if they are still
+ * on the bar, or as that jug again, alone, if the jug was bumped; "Bump jug" then bumps it. A
+ * drink bumped straight from the queue comes back in no jug.
+ */
 export function recallTicket(deps: Deps, user: SessionUser, orderId: number) {
   return runCommand(deps, async (trx) => {
     const order = await orderInLocation(trx, orderId, user);
@@ -167,7 +114,6 @@ export function recallTicket(deps: Deps, user: SessionUser, orderId: number) {
     }
     const at = now.toISOString();
     await returnCoffeeUse(trx, orderId, last.bump_seq);
-    // A recalled drink goes back to "making": the barista had started it.
     await trx('order_items')
       .where({ order_id: orderId, bump_seq: last.bump_seq })
       .update({ status: 'making', done_at: null, done_by: null, bump_seq: null });

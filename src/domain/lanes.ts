@@ -1,5 +1,5 @@
 // Milk lanes: the bar's open drinks grouped by milk, then by shot count, oldest ticket first.
-import { planJugs, type JugBatch, type Pitcher } from './jug-plan';
+import { planJugs, pourOrder, type Jug, type JugRules } from './jug-plan';
 import type { DrinkView, MilkRef, TicketView } from './types';
 
 /** A drink as the bar shows it: with its ticket's number, name and age, and its place in it. */
@@ -32,8 +32,16 @@ export interface Lane {
   oldestFiredAt: string;
 }
 
+/** What lane order reads of a drink and its ticket. */
+interface Aged {
+  rushedAt: string | null;
+  firedAt: string;
+  ticketId: number;
+  id: number;
+}
+
 /** Rushed tickets first (in the order they were rushed), then oldest first. */
-const byAge = (a: DrinkCard, b: DrinkCard) =>
+export const byAge = (a: Aged, b: Aged) =>
   (a.rushedAt ? 0 : 1) - (b.rushedAt ? 0 : 1) ||
   (a.rushedAt ?? '').localeCompare(b.rushedAt ?? '') ||
   a.firedAt.localeCompare(b.firedAt) ||
@@ -90,7 +98,7 @@ export interface ShotPlan {
 }
 
 export interface PlannedLane extends Lane {
-  jugPlan: JugBatch[];
+  jugPlan: Jug[];
   shotPlan: ShotPlan;
 }
 
@@ -99,11 +107,31 @@ export function shotPlan(cards: DrinkCard[]): ShotPlan {
   return { shots: waiting.reduce((n, c) => n + c.shots, 0), doseDg: waiting.reduce((n, c) => n + c.doseDg, 0) };
 }
 
+/**
+ * A lane's jugs: first the jugs baristas have started, in the order they were started, each with
+ * the drinks still on the bar that it was started with and the pour it was started with; then the
+ * queued drinks planned oldest first. A started jug never gains a drink and never loses one to a
+ * re-plan: only a bump takes a drink out of it (a recall puts it back). A drink being made
+ * outside any jug (started on its own before it needed one, or bumped straight from the queue and
+ * then recalled) has had its milk: it is in no jug.
+ */
+export function laneJugs(cards: DrinkCard[], rules: JugRules): Jug[] {
+  const started = new Map<number, DrinkCard[]>();
+  for (const c of cards) if (c.jug && c.status !== 'done') started.set(c.jug.id, [...(started.get(c.jug.id) ?? []), c]);
+  const fixed = [...started.entries()]
+    .sort(([a], [b]) => a - b)
+    .map(([jugId, drinks]): Jug => {
+      const { id: _id, ...pour } = drinks[0].jug!;
+      return { jugId, ...pour, drinkIds: pourOrder(drinks).map((d) => d.id) };
+    });
+  return [...fixed, ...planJugs(cards.filter((c) => c.status === 'queued' && !c.jug), rules)];
+}
+
 /** Lanes with their jug plan and shot plan: what the Bar shows and GET /api/bar/lanes answers. */
-export function planBar(tickets: TicketView[], pitchers: Pitcher[], wasteMl: number): { lanes: PlannedLane[]; shotPlan: ShotPlan } {
+export function planBar(tickets: TicketView[], rules: JugRules): { lanes: PlannedLane[]; shotPlan: ShotPlan } {
   const lanes = groupIntoLanes(tickets).map((lane) => {
     const cards = lane.groups.flatMap((g) => g.drinks).sort(byAge);
-    return { ...lane, jugPlan: planJugs(cards, pitchers, wasteMl), shotPlan: shotPlan(cards) };
+    return { ...lane, jugPlan: laneJugs(cards, rules), shotPlan: shotPlan(cards) };
   });
   const all = lanes.map((l) => l.shotPlan);
   return {

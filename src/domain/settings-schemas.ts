@@ -10,6 +10,14 @@ export const WAIT_TARGET_SECONDS = { min: 60, max: 1800 } as const;
 export const PICKUP_TIMEOUT_SECONDS = { min: 60, max: 3600 } as const;
 export const PITCHER_CAPACITY_ML = { min: 150, max: 2000 } as const;
 export const JUG_WASTE_MAX_ML = 100;
+export const JUG_MAX_DRINKS = { min: 1, max: 12 } as const;
+export const EXPANSION_MAX_PCT = 200;
+
+/**
+ * A new pitcher's minimum fill, the least cold milk that covers the steam tip: about a third of
+ * the pitcher (common practice, from memory), rounded up to 10 ml, never above its fill line.
+ */
+export const defaultMinFillMl = (capacityMl: number, fillLineMl: number) => Math.min(fillLineMl, Math.ceil(capacityMl / 30) * 10);
 export const EXTRA_SHOT_MAX_CENTS = 20_00;
 export const RECEIPT_FOOTER_MAX = 200;
 
@@ -107,6 +115,10 @@ export const SETTINGS_FIELDS = {
   volumeUnit: z.enum(VOLUME_UNITS),
   temperatureUnit: z.enum(TEMPERATURE_UNITS),
   jugWasteMl: int(0, JUG_WASTE_MAX_ML, 'Milk lost per jug in ml'),
+  jugMaxDrinks: int(JUG_MAX_DRINKS.min, JUG_MAX_DRINKS.max, 'Drinks per jug'),
+  expansionFlatPct: int(0, EXPANSION_MAX_PCT, 'Flat milk growth in %'),
+  expansionSilkyPct: int(0, EXPANSION_MAX_PCT, 'Silky milk growth in %'),
+  expansionFoamyPct: int(0, EXPANSION_MAX_PCT, 'Foamy milk growth in %'),
   allergenList: z.enum(['US', 'EU']),
   receiptFooter: receiptFooterField,
 };
@@ -126,12 +138,15 @@ export const settingsBody = z
   .refine((b) => Object.keys(SETTINGS_FIELDS).some((k) => b[k as SettingKey] !== undefined), 'Change at least one setting');
 export type SettingsBody = z.infer<typeof settingsBody>;
 
+/** A pitcher; without `minFillMl` the pitcher gets the usual minimum (defaultMinFillMl). */
 export const pitcherBody = z
   .strictObject({
     capacityMl: int(PITCHER_CAPACITY_ML.min, PITCHER_CAPACITY_ML.max, 'Capacity in ml'),
     fillLineMl: z.number({ error: 'Fill line in ml: enter a number' }).int('Fill line in ml: a whole number').positive('Fill line: above 0 ml'),
+    minFillMl: z.number({ error: 'Minimum fill in ml: enter a number' }).int('Minimum fill in ml: a whole number').positive('Minimum fill: above 0 ml').optional(),
   })
-  .refine((p) => p.fillLineMl <= p.capacityMl, { path: ['fillLineMl'], message: 'The fill line cannot be above the capacity' });
+  .refine((p) => p.fillLineMl <= p.capacityMl, { path: ['fillLineMl'], message: 'The fill line cannot be above the capacity' })
+  .refine((p) => p.minFillMl === undefined || p.minFillMl <= p.fillLineMl, { path: ['minFillMl'], message: 'The minimum cannot be above the fill line' });
 export type PitcherBody = z.infer<typeof pitcherBody>;
 
 // ---------------------------------------------------------------- switching allergen lists
@@ -191,6 +206,10 @@ export interface SettingsView {
   volumeUnit: VolumeUnit;
   temperatureUnit: TemperatureUnit;
   jugWasteMl: number;
+  jugMaxDrinks: number;
+  expansionFlatPct: number;
+  expansionSilkyPct: number;
+  expansionFoamyPct: number;
   allergenList: AllergenList;
   receiptFooter: string | null;
 }
@@ -199,6 +218,7 @@ export interface PitcherView {
   id: number;
   capacityMl: number;
   fillLineMl: number;
+  minFillMl: number;
 }
 
 export interface SettingsPage {

@@ -1,4 +1,5 @@
 // Shapes the API answers with and the screens render. Shared by client and server.
+import type { Jug, JugRules } from './jug-plan';
 import type { Role } from './roles';
 import type { TemperatureUnit, VolumeUnit } from './units';
 
@@ -140,7 +141,12 @@ export interface DrinkView {
   /** Who started making it and who bumped it (names; null until then). */
   startedBy?: string | null;
   doneBy?: string | null;
+  /** The jug it was started in, with that jug's pour as started; null if none. */
+  jug?: JugRef | null;
 }
+
+/** A started jug as each of its drinks carries it: fixed from the moment it was started. */
+export type JugRef = Omit<Jug, 'jugId' | 'drinkIds'> & { id: number };
 
 export interface TicketView {
   id: number;
@@ -281,8 +287,8 @@ export interface BoardSnapshot {
     name: string;
     waitTargetSeconds: number;
     pickupTimeoutSeconds: number;
-    pitchers: { capacityMl: number; fillLineMl: number }[];
-    jugWasteMl: number;
+    /** Pitchers, waste, drinks per jug and milk growth: what the Bar plans jugs with. */
+    jugRules: JugRules;
   };
   tickets: TicketView[];
 }

@@ -38,7 +38,7 @@ function Bar() {
   const canRush = can(session.user?.role, 'rushTickets');
 
   const open = useMemo(() => board.tickets.filter((t) => t.status === 'open'), [board.tickets]);
-  const plan = useMemo(() => planBar(open, board.location.pitchers, board.location.jugWasteMl), [open, board.location]);
+  const plan = useMemo(() => planBar(open, board.location.jugRules), [open, board.location]);
   const cards = plan.lanes.flatMap((l) => l.groups.flatMap((g) => g.drinks));
   const jugLabel = new Map<number, string>();
   for (const lane of plan.lanes)
@@ -85,10 +85,8 @@ function Bar() {
             lane={lane}
             narrow={plan.lanes.length > 4}
             busy={command.isPending}
-            onStartBatch={(drinkIds) =>
-              command.mutate({ kind: 'start-batch', drinkIds: drinkIds.filter((id) => cards.find((c) => c.id === id)?.status === 'queued') })
-            }
-            onBumpBatch={(drinkIds) => command.mutate({ kind: 'bump-batch', drinkIds })}
+            onStartJug={(drinkIds) => command.mutate({ kind: 'start-jug', drinkIds })}
+            onBumpJug={(jugId, drinkIds) => command.mutate({ kind: 'bump-jug', jugId, drinkIds })}
           >
             {(group) =>
               group.drinks.map((card) => (

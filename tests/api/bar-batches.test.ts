@@ -4,11 +4,11 @@
 // transaction; a refused one changes no row and appends no event.
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { PlannedLane } from '../../src/domain/lanes';
 import type { PickupTicket } from '../../src/domain/pickup';
 import type { TicketView } from '../../src/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
-import { orderBody, type Agent, type LineInput } from './helpers';
+import { BIG_PITCHER, barTools, groupIds, laneOf, MID_PITCHER, plannedJug, SMALL_PITCHER } from './bar-helpers';
+import { orderBody, type Agent } from './helpers';
 
 const time = manualClock('2026-03-02T14:00:00.000Z');
 const nowIso = () => time.clock().toISOString();
@@ -40,108 +40,12 @@ beforeAll(async () => {
 });
 afterAll(() => server.close());
 
-type OrderExtras = { allergens?: string[]; allergyNote?: string };
-
-/** A cash order placed by the cashier; answers its id. */
-async function place(customerName: string, items: LineInput[], extras: OrderExtras = {}): Promise<number> {
-  const res = await cashier.post('/api/orders').send({ ...orderBody(customerName, items), ...extras });
-  if (res.status !== 201) throw new Error(`order failed: ${res.status} ${JSON.stringify(res.body)}`);
-  return res.body.order.id;
-}
-/** The ids of an order's bar drinks, in line order. */
-const drinkIdsOf = async (orderId: number): Promise<number[]> =>
-  (await server.db('order_items').where({ order_id: orderId, station: 'bar' }).orderBy('line_no')).map((r) => r.id);
-const drinkRow = (drinkId: number) => server.db('order_items').where({ id: drinkId }).first();
-const orderRow = (orderId: number) => server.db('orders').where({ id: orderId }).first();
-const maxEventId = async () => Number((await server.db('events').max({ m: 'id' }).first())?.m ?? 0);
-const eventsAfter = (since: number) => server.db('events').where('id', '>', since).orderBy('id');
-
-/** The rows a command could change: the drinks and the orders they are on. */
-async function rowsOf(drinkIds: number[]) {
-  const drinks = await server.db('order_items').whereIn('id', drinkIds).orderBy('id');
-  const orders = await server.db('orders').whereIn('id', [...new Set(drinks.map((d) => d.order_id))]).orderBy('id');
-  return { drinks, orders };
-}
-
-/** POST with a JSON body; answers the response and the events the command appended. */
-async function send(agent: Agent, path: string, body?: object) {
-  const since = await maxEventId();
-  const res = body === undefined ? await agent.post(path) : await agent.post(path).send(body);
-  return { res, events: await eventsAfter(since) };
-}
-
-/** A refused command: its status and code, no event, and every watched row as it was. */
-async function expectRefused(agent: Agent, path: string, body: object | undefined, status: number, code: string, watch: number[] = []) {
-  const before = await rowsOf(watch);
-  const { res, events } = await send(agent, path, body);
-  expect(res.status, JSON.stringify(res.body)).toBe(status);
-  expect(res.body.error).toMatchObject({ code, message: expect.any(String) });
-  expect(events).toEqual([]);
-  expect(await rowsOf(watch)).toEqual(before);
-  return res.body.error as { code: string; message: string; details?: any };
-}
-
-/** A successful one-ticket command: 200 { ticket } and exactly one event of `type` carrying it. */
-async function expectCommand(agent: Agent, path: string, type: string, actorId: number): Promise<TicketView> {
-  const { res, events } = await send(agent, path);
-  expect(res.status, JSON.stringify(res.body)).toBe(200);
-  expect(events.map((e) => e.type)).toEqual([type]);
-  expect(events[0]).toMatchObject({ actor_id: actorId, created_at: nowIso() });
-  expect(JSON.parse(events[0].payload).ticket).toEqual(res.body.ticket);
-  return res.body.ticket;
-}
-
-/**
- * A successful batch command: 200 { tickets } naming each affected ticket once, and exactly one
- * event of `type` per ticket, each carrying that ticket as answered.
- */
-async function expectBatch(agent: Agent, path: string, drinkIds: number[], type: string, actorId: number, ticketIds: number[]) {
-  const { res, events } = await send(agent, path, { drinkIds });
-  expect(res.status, JSON.stringify(res.body)).toBe(200);
-  expect(Object.keys(res.body)).toEqual(['tickets']);
-  const tickets = res.body.tickets as TicketView[];
-  expect(tickets.map((t) => t.id).sort((a, b) => a - b)).toEqual([...ticketIds].sort((a, b) => a - b));
-  expect(events.map((e) => e.type)).toEqual(ticketIds.map(() => type));
-  for (const e of events) expect(e).toMatchObject({ actor_id: actorId, created_at: nowIso() });
-  const carried = events.map((e) => JSON.parse(e.payload).ticket as TicketView);
-  expect(carried.sort((a, b) => a.id - b.id)).toEqual([...tickets].sort((a, b) => a.id - b.id));
-  return new Map(tickets.map((t) => [t.id, t]));
-}
-
-async function openTickets(agent: Agent = barista): Promise<TicketView[]> {
-  const res = await agent.get('/api/tickets?status=open');
-  expect(res.status).toBe(200);
-  return res.body.tickets;
-}
-
-/** Finish every ticket still at the bar (reading its allergy first), so a lane test starts empty. */
-async function clearBar() {
-  for (const t of await openTickets()) {
-    const allergy = t.allergens.length > 0 || !!t.allergyNote;
-    for (const d of t.drinks) {
-      if (allergy && d.status !== 'done' && !d.allergyAckAt) {
-        expect((await barista.post(`/api/drinks/${d.id}/acknowledge-allergy`)).status).toBe(200);
-      }
-    }
-    const res = await barista.post(`/api/tickets/${t.id}/bump`);
-    expect(res.status, JSON.stringify(res.body)).toBe(200);
-  }
-  expect(await openTickets()).toEqual([]);
-}
-
-async function barLanes(agent: Agent = barista) {
-  const res = await agent.get('/api/bar/lanes');
-  expect(res.status, JSON.stringify(res.body)).toBe(200);
-  return res.body as { seq: number; now: string; lanes: PlannedLane[]; shotPlan: { shots: number; doseDg: number } };
-}
-const laneOf = (lanes: PlannedLane[], milkName: string) => lanes.find((l) => l.milk?.name === milkName)!;
-const groupIds = (lane: PlannedLane) => lane.groups.map((g) => ({ shots: g.shots, drinks: g.drinks.map((d) => d.id) }));
-
-// The demo café's pitchers: 350 ml (fill line 190), 600 ml (fill 330), 950 ml (fill 520); the jug
-// waste allowance is the migration's default, 15 ml.
-const SMALL_PITCHER = { capacityMl: 350, fillLineMl: 190 };
-const MID_PITCHER = { capacityMl: 600, fillLineMl: 330 };
-const BIG_PITCHER = { capacityMl: 950, fillLineMl: 520 };
+const { place, drinkIdsOf, drinkRow, orderRow, maxEventId, eventsAfter, expectRefused, expectCommand, expectBatch, openTickets, clearBar, barLanes } = barTools({
+  server: () => server,
+  cashier: () => cashier,
+  barista: () => barista,
+  nowIso,
+});
 
 describe('GET /api/bar/lanes', () => {
   it('groups the open drinks by milk and shots, with a jug plan per lane and the shots still to pull', async () => {
@@ -175,20 +79,19 @@ describe('GET /api/bar/lanes', () => {
 
     // Whole: the iced latte waits in its lane like any drink, oldest ticket first…
     expect(groupIds(whole)).toEqual([{ shots: 2, drinks: [smallLatte, cappuccino, iced] }]);
-    // …but takes cold milk from the fridge, so it is in no jug. The steamed ones:
-    // 180 + 210 + 15 waste = 405 ml ≤ 520 (the largest fill line): one batch. The smallest pitcher
-    // that holds 405 ml: 190 no, 330 no, 520 yes → the 950 ml pitcher. Steamed for the foamiest
-    // (the cappuccino), poured thinnest first: the silky latte, then the cappuccino.
-    expect(whole.jugPlan).toEqual([{ pitcher: BIG_PITCHER, coldMl: 405, steamFor: 'foamy', drinkIds: [smallLatte, cappuccino] }]);
+    // …but takes cold milk from the fridge, so it is in no jug (common practice). The steamed ones:
+    // 180 + 210 + 15 waste = 405 ml ≤ 520 (the largest fill line): one jug. The smallest pitcher
+    // that holds 405 ml: 190 no, 330 no, 520 yes (≥ its minimum 320; foamy growth 405 × 1.75 =
+    // 708.75 ≤ 950) → the 950 ml pitcher. Steamed for the foamiest (the cappuccino), poured
+    // thinnest first: the silky latte, then the cappuccino (common practice).
+    expect(whole.jugPlan).toEqual([plannedJug(BIG_PITCHER, 405, 15, 'foamy', [smallLatte, cappuccino])]);
     expect(whole.jugPlan.flatMap((b) => b.drinkIds)).not.toContain(iced);
 
-    // Oat: 270 + 270 + 15 = 555 ml > 520, so the second latte starts a second batch. Each batch is
-    // 270 + 15 = 285 ml: 190 is too small, 330 holds it → the 600 ml pitcher, twice.
+    // Oat: 270 + 270 + 15 = 555 ml > 520, so the second latte starts a second jug. Each jug is
+    // 270 + 15 = 285 ml: 190 is too small, 330 holds it (≥ 200; 285 × 1.25 = 356.25 ≤ 600) → the
+    // 600 ml pitcher, twice.
     expect(groupIds(oat)).toEqual([{ shots: 2, drinks: [oat1, oat2] }]);
-    expect(oat.jugPlan).toEqual([
-      { pitcher: MID_PITCHER, coldMl: 285, steamFor: 'silky', drinkIds: [oat1] },
-      { pitcher: MID_PITCHER, coldMl: 285, steamFor: 'silky', drinkIds: [oat2] },
-    ]);
+    expect(oat.jugPlan).toEqual([plannedJug(MID_PITCHER, 285, 15, 'silky', [oat1]), plannedJug(MID_PITCHER, 285, 15, 'silky', [oat2])]);
 
     // Batch brew: no milk, no shots, no jug.
     expect(groupIds(none)).toEqual([{ shots: 0, drinks: [brew] }]);
@@ -201,22 +104,26 @@ describe('GET /api/bar/lanes', () => {
     expect(none.shotPlan).toEqual({ shots: 0, doseDg: 0 });
     expect(body.shotPlan).toEqual({ shots: 10, doseDg: 950 });
 
-    // Starting a drink takes its shots out of the shot plan (they are being pulled), but its jug
-    // stays in the plan until it is bumped.
+    // Starting a drink takes its shots out of the shot plan (they are being pulled); a milk drink
+    // started on its own is a started jug of its own, in the plan until it is bumped.
     tick();
     await expectCommand(barista, `/api/drinks/${oat1}/start`, 'drink.started', baristaId);
     const started = await barLanes();
     expect(laneOf(started.lanes, 'Oat').shotPlan).toEqual({ shots: 2, doseDg: 190 });
     expect(started.shotPlan).toEqual({ shots: 8, doseDg: 760 });
-    expect(laneOf(started.lanes, 'Oat').jugPlan.map((b) => b.drinkIds)).toEqual([[oat1], [oat2]]);
+    const startedJug = (await server.db('jug_drinks').where({ order_item_id: oat1 }).first()).jug_id;
+    expect(laneOf(started.lanes, 'Oat').jugPlan.map((b) => [b.jugId, b.drinkIds])).toEqual([
+      [startedJug, [oat1]],
+      [null, [oat2]],
+    ]);
     expect(groupIds(laneOf(started.lanes, 'Oat'))).toEqual([{ shots: 2, drinks: [oat1, oat2] }]);
 
-    // A bumped drink leaves its lane: the Oat lane is now one latte, one batch of 285 ml.
+    // A bumped drink leaves its lane: the Oat lane is now one latte, one jug of 285 ml.
     tick();
     await expectCommand(barista, `/api/drinks/${oat1}/bump`, 'drink.bumped', baristaId);
     const bumped = await barLanes();
     expect(groupIds(laneOf(bumped.lanes, 'Oat'))).toEqual([{ shots: 2, drinks: [oat2] }]);
-    expect(laneOf(bumped.lanes, 'Oat').jugPlan).toEqual([{ pitcher: MID_PITCHER, coldMl: 285, steamFor: 'silky', drinkIds: [oat2] }]);
+    expect(laneOf(bumped.lanes, 'Oat').jugPlan).toEqual([plannedJug(MID_PITCHER, 285, 15, 'silky', [oat2])]);
     expect(bumped.shotPlan).toEqual({ shots: 8, doseDg: 760 });
   });
 
@@ -225,8 +132,8 @@ describe('GET /api/bar/lanes', () => {
     const order = await place('Kit Marchbank', [{ menuItemId: ids.item('Flat white'), milkId: ids.milk('Soy') }]);
     const [flatWhite] = await drinkIdsOf(order);
     const soy = laneOf((await barLanes()).lanes, 'Soy');
-    // 120 ml + 15 waste = 135 ≤ 190 → the 350 ml pitcher.
-    expect(soy.jugPlan).toEqual([{ pitcher: SMALL_PITCHER, coldMl: 135, steamFor: 'flat', drinkIds: [flatWhite] }]);
+    // 120 ml + 15 waste = 135 ≤ 190, ≥ 120, 135 × 1.15 = 155.25 ≤ 350 → the 350 ml pitcher.
+    expect(soy.jugPlan).toEqual([plannedJug(SMALL_PITCHER, 135, 15, 'flat', [flatWhite])]);
   });
 
   it('the cashier can read it; signed out is 401', async () => {
@@ -249,7 +156,7 @@ describe('POST /api/drinks/start and /api/drinks/bump (batches)', () => {
 
     tick();
     const startedAt = nowIso();
-    const started = await expectBatch(barista, '/api/drinks/start', [aLatte, bLatte, aCappuccino], 'drink.started', baristaId, [a, b]);
+    const { tickets: started } = await expectBatch(barista, '/api/drinks/start', [aLatte, bLatte, aCappuccino], 'drink.started', baristaId, [a, b]);
     expect(started.get(a)!.drinks.map((d) => [d.id, d.status, d.startedAt])).toEqual([
       [aLatte, 'making', startedAt],
       [aCappuccino, 'making', startedAt],
@@ -264,7 +171,7 @@ describe('POST /api/drinks/start and /api/drinks/bump (batches)', () => {
     // Bump the two lattes (a jug of two) in one command: ticket A still has drinks, B is ready.
     tick();
     const doneAt = nowIso();
-    const bumped = await expectBatch(barista, '/api/drinks/bump', [aLatte, bLatte], 'drink.bumped', baristaId, [a, b]);
+    const { tickets: bumped } = await expectBatch(barista, '/api/drinks/bump', [aLatte, bLatte], 'drink.bumped', baristaId, [a, b]);
     expect(bumped.get(a)).toMatchObject({ status: 'open', readyAt: null });
     expect(bumped.get(a)!.drinks.map((d) => [d.id, d.status])).toEqual([
       [aLatte, 'done'],
@@ -279,7 +186,7 @@ describe('POST /api/drinks/start and /api/drinks/bump (batches)', () => {
 
     // Bumping the rest of A in one batch finishes it; a drink never started gets its start time.
     tick();
-    const finished = await expectBatch(barista2, '/api/drinks/bump', [aCappuccino, aEspresso], 'drink.bumped', barista2Id, [a]);
+    const { tickets: finished } = await expectBatch(barista2, '/api/drinks/bump', [aCappuccino, aEspresso], 'drink.bumped', barista2Id, [a]);
     expect(finished.get(a)).toMatchObject({ status: 'ready', readyAt: nowIso() });
     expect(await orderRow(a)).toMatchObject({ status: 'ready', ready_at: nowIso() });
     expect(await drinkRow(aEspresso)).toMatchObject({ status: 'done', started_at: nowIso(), done_at: nowIso(), done_by: barista2Id });
@@ -514,7 +421,7 @@ describe('allergies', () => {
     expect(acked.drinks[0]).toMatchObject({ allergyAckAt: nowIso(), allergyAckBy: 'Jonah Reyes' });
 
     tick();
-    const bumped = await expectBatch(barista, '/api/drinks/bump', [espresso, flatWhite], 'drink.bumped', baristaId, [order, other]);
+    const { tickets: bumped } = await expectBatch(barista, '/api/drinks/bump', [espresso, flatWhite], 'drink.bumped', baristaId, [order, other]);
     expect(bumped.get(order)).toMatchObject({ status: 'ready' });
     expect(bumped.get(other)).toMatchObject({ status: 'ready' });
   });
@@ -551,11 +458,11 @@ describe('POST /api/tickets/:id/rush', () => {
     const [oldLatte] = await drinkIdsOf(older);
     const [newLatte, newEspresso] = await drinkIdsOf(newer);
 
-    // Two small oat lattes: 180 + 180 + 15 = 375 ml ≤ 520 → one batch, in the 950 ml pitcher
-    // (330 is too small), poured oldest first as both are silky.
+    // Two small oat lattes: 180 + 180 + 15 = 375 ml ≤ 520 → one jug, in the 950 ml pitcher
+    // (330 is too small; 375 ≥ 320, 375 × 1.25 ≤ 950), poured oldest first as both are silky.
     const before = laneOf((await barLanes()).lanes, 'Oat');
     expect(groupIds(before)).toEqual([{ shots: 2, drinks: [oldLatte, newLatte] }]);
-    expect(before.jugPlan).toEqual([{ pitcher: BIG_PITCHER, coldMl: 375, steamFor: 'silky', drinkIds: [oldLatte, newLatte] }]);
+    expect(before.jugPlan).toEqual([plannedJug(BIG_PITCHER, 375, 15, 'silky', [oldLatte, newLatte])]);
 
     tick();
     await expectCommand(lead, `/api/tickets/${newer}/rush`, 'ticket.rushed', leadId);
@@ -563,7 +470,7 @@ describe('POST /api/tickets/:id/rush', () => {
     const oat = laneOf(after.lanes, 'Oat');
     expect(groupIds(oat)).toEqual([{ shots: 2, drinks: [newLatte, oldLatte] }]);
     expect(oat.groups[0].drinks[0]).toMatchObject({ id: newLatte, rushedAt: nowIso() });
-    expect(oat.jugPlan).toEqual([{ pitcher: BIG_PITCHER, coldMl: 375, steamFor: 'silky', drinkIds: [newLatte, oldLatte] }]);
+    expect(oat.jugPlan).toEqual([plannedJug(BIG_PITCHER, 375, 15, 'silky', [newLatte, oldLatte])]);
     // The rush holds in every lane the ticket has drinks in.
     expect(groupIds(after.lanes.find((l) => l.key === 'none')!)).toEqual([{ shots: 2, drinks: [newEspresso] }]);
 

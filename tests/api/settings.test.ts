@@ -50,13 +50,19 @@ describe('GET /api/settings', () => {
       volumeUnit: 'us_floz',
       temperatureUnit: 'F',
       jugWasteMl: 15,
+      // the migration's defaults: common practice, from memory (see migrations/20261202170500_jug_plan.ts)
+      jugMaxDrinks: 4,
+      expansionFlatPct: 15,
+      expansionSilkyPct: 25,
+      expansionFoamyPct: 75,
       allergenList: 'US',
       receiptFooter: null,
     });
-    expect(p.pitchers.map((x) => [x.capacityMl, x.fillLineMl])).toEqual([
-      [350, 190],
-      [600, 330],
-      [950, 520],
+    // minimum fill: a third of the capacity rounded up to 10 ml (common practice, from memory)
+    expect(p.pitchers.map((x) => [x.capacityMl, x.fillLineMl, x.minFillMl])).toEqual([
+      [350, 190, 120],
+      [600, 330, 200],
+      [950, 520, 320],
     ]);
     expect(p.cupSizes.map((c) => c.volumeMl)).toEqual(expect.arrayContaining([240, 350, 470]));
     expect(p.cupSizes.find((c) => c.volumeMl === 350)?.names).toContain('Regular');
@@ -110,6 +116,11 @@ describe('PUT /api/settings refuses bad values with the field named, and changes
     ['a receipt footer of 201 characters', { receiptFooter: 'x'.repeat(201) }, 'receiptFooter'],
     ['an empty café name', { name: '   ' }, 'name'],
     ['negative jug waste', { jugWasteMl: -5 }, 'jugWasteMl'],
+    ['no drinks in a jug', { jugMaxDrinks: 0 }, 'jugMaxDrinks'],
+    ['13 drinks in a jug', { jugMaxDrinks: 13 }, 'jugMaxDrinks'],
+    ['milk that shrinks when steamed', { expansionFlatPct: -1 }, 'expansionFlatPct'],
+    ['silky milk growing by half a percent', { expansionSilkyPct: 20.5 }, 'expansionSilkyPct'],
+    ['foamy milk tripling', { expansionFoamyPct: 201 }, 'expansionFoamyPct'],
     ['an extra shot price in dollars', { extraShotCents: 1.5 }, 'extraShotCents'],
   ];
   for (const [what, body, field] of bad) {
@@ -233,6 +244,8 @@ describe('pitchers', () => {
     expect(added.status).toBe(201);
     const big = (added.body as SettingsPage).pitchers.find((p) => p.capacityMl === 1500)!;
     expect(big.fillLineMl).toBe(800);
+    // No minimum given: a third of 1500, rounded up to 10 ml (common practice, from memory).
+    expect(big.minFillMl).toBe(500);
 
     const before = await stored();
     const refusals: [Record<string, unknown>, string][] = [
@@ -241,6 +254,8 @@ describe('pitchers', () => {
       [{ capacityMl: 600, fillLineMl: 0 }, 'fillLineMl'],
       [{ capacityMl: 600, fillLineMl: 601 }, 'fillLineMl'],
       [{ capacityMl: 600 }, 'fillLineMl'],
+      [{ capacityMl: 600, fillLineMl: 330, minFillMl: 331 }, 'minFillMl'],
+      [{ capacityMl: 600, fillLineMl: 330, minFillMl: 0 }, 'minFillMl'],
     ];
     for (const [body, field] of refusals) {
       for (const res of [await owner.post('/api/settings/pitchers').send(body), await owner.put(`/api/settings/pitchers/${big.id}`).send(body)]) {
@@ -250,9 +265,12 @@ describe('pitchers', () => {
     }
     expect(await stored()).toEqual(before);
 
-    const edited = await owner.put(`/api/settings/pitchers/${big.id}`).send({ capacityMl: 1000, fillLineMl: 600 });
+    const edited = await owner.put(`/api/settings/pitchers/${big.id}`).send({ capacityMl: 1000, fillLineMl: 600, minFillMl: 250 });
     expect(edited.status).toBe(200);
-    expect(await server.db('pitchers').where({ id: big.id }).first()).toMatchObject({ capacity_ml: 1000, fill_line_ml: 600 });
+    expect(await server.db('pitchers').where({ id: big.id }).first()).toMatchObject({ capacity_ml: 1000, fill_line_ml: 600, min_fill_ml: 250 });
+    // A fill line below the usual minimum takes the fill line as its minimum: min(300, 340) = 300.
+    await owner.put(`/api/settings/pitchers/${big.id}`).send({ capacityMl: 1000, fillLineMl: 300 }).expect(200);
+    expect(await server.db('pitchers').where({ id: big.id }).first()).toMatchObject({ fill_line_ml: 300, min_fill_ml: 300 });
 
     const removed = await owner.delete(`/api/settings/pitchers/${big.id}`);
     expect(removed.status).toBe(200);
@@ -297,9 +315,9 @@ describe('a settings change reaches open screens', () => {
     const barista = await server.signIn('barista');
     const board: BoardSnapshot = (await barista.get('/api/tickets?status=board').expect(200)).body;
     expect(board.location.waitTargetSeconds).toBe(300);
-    expect(board.location.jugWasteMl).toBe(20);
-    expect(board.location.pitchers).toEqual(
-      (saved.body as SettingsPage).pitchers.map(({ capacityMl, fillLineMl }) => ({ capacityMl, fillLineMl })).sort((a, b) => a.fillLineMl - b.fillLineMl),
+    expect(board.location.jugRules.wasteMl).toBe(20);
+    expect(board.location.jugRules.pitchers).toEqual(
+      (saved.body as SettingsPage).pitchers.map(({ id: _id, ...pitcher }) => pitcher).sort((a, b) => a.fillLineMl - b.fillLineMl || a.capacityMl - b.capacityMl),
     );
   });
 });

@@ -2,6 +2,11 @@ import { describe, it, expect } from 'vitest';
 import { groupIntoLanes } from '../../src/domain/lanes';
 import type { DrinkStatus, DrinkView, MilkRef, TicketView } from '../../src/domain/types';
 
+// Sources: how a bar groups and orders its drinks is common practice (no published source):
+// drinks sharing a milk are steamed together, first fired is first made, a lead can move a ticket
+// to the front. Checks of Jugline's own shapes (lane keys, card fields) say so: no outside value.
+// Ticket times are invented.
+
 const OAT: MilkRef = { id: 7, name: 'Oat', code: 'OT' };
 const WHOLE: MilkRef = { id: 3, name: 'Whole', code: 'WM' };
 
@@ -65,12 +70,14 @@ describe('groupIntoLanes', () => {
   });
 
   it("keys the no-milk lane 'none'", () => {
+    // Jugline's own key (no outside value); drinks without milk share a lane (common practice).
     const lanes = groupIntoLanes([ticket(1, '2025-03-01T08:00:00.000Z', [drink(1, null, 2)])]);
     expect(lanes.map((l) => l.key)).toEqual(['none']);
     expect(lanes[0].milk).toBeNull();
   });
 
   it('leaves out drinks that are done', () => {
+    // Common practice: a bumped drink has left the bar.
     const lanes = groupIntoLanes([
       ticket(1, '2025-03-01T08:00:00.000Z', [drink(1, OAT, 2, 'done'), drink(1, WHOLE, 2, 'making')]),
       ticket(2, '2025-03-01T08:02:00.000Z', [drink(2, OAT, 1, 'done')]),
@@ -87,11 +94,12 @@ describe('groupIntoLanes', () => {
       ticket(4, '2025-03-01T08:03:00.000Z', [drink(4, WHOLE, 2)]),
       ticket(6, '2025-03-01T08:06:00.000Z', [drink(6, WHOLE, 2)]),
     ]);
-    expect(lanes[0].groups[0].drinks.map((d) => d.ticketId)).toEqual([4, 6, 5]);
+    expect(lanes[0].groups[0].drinks.map((d) => d.ticketId)).toEqual([4, 6, 5]); // first fired, first made
     expect(lanes[0].oldestFiredAt).toBe('2025-03-01T08:03:00.000Z');
   });
 
   it('puts the widest lane first and breaks ties by the oldest ticket', () => {
+    // Jugline's own layout rule (no outside value): the busiest milk gets the most room.
     const lanes = groupIntoLanes([
       // Whole: one drink, oldest ticket of all.
       ticket(1, '2025-03-01T08:00:00.000Z', [drink(1, WHOLE, 2)]),
@@ -105,6 +113,7 @@ describe('groupIntoLanes', () => {
   });
 
   it("gives each card its place among the ticket's drinks and the ticket's size", () => {
+    // Jugline's own card fields (no outside value): "2 of 3" on a card, copied from its ticket.
     const t = ticket(9, '2025-03-01T08:00:00.000Z', [drink(9, WHOLE, 2), drink(9, null, 2), drink(9, WHOLE, 1)]);
     const lanes = groupIntoLanes([t]);
     const cards = lanes.flatMap((l) => l.groups.flatMap((g) => g.drinks));
@@ -133,6 +142,8 @@ describe('groupIntoLanes', () => {
   });
 
   it("carries the ticket's allergy onto each card", () => {
+    // Jugline's own card fields (no outside value); peanuts are a US major allergen (FALCPA,
+    // docs/check-values.md).
     const t = { ...ticket(1, '2025-03-01T08:00:00.000Z', [drink(1, OAT, 2)]), allergens: ['peanuts'], allergyNote: 'EpiPen on file' };
     const [card] = groupIntoLanes([t])[0].groups[0].drinks;
     expect(card.allergens).toEqual(['peanuts']);
@@ -140,6 +151,8 @@ describe('groupIntoLanes', () => {
   });
 
   it("keeps a lane's oldest ticket time when a newer ticket in it is rushed", () => {
+    // A rush moves a ticket to the front (common practice) but does not make the lane younger
+    // (Jugline's own tie-break, no outside value).
     const lanes = groupIntoLanes([
       // Oat: a ticket from 08:00 and a newer one (08:09) rushed to the front at 08:10.
       ticket(1, '2025-03-01T08:00:00.000Z', [drink(1, OAT, 2)]),
@@ -156,6 +169,7 @@ describe('groupIntoLanes', () => {
   });
 
   it('returns no lanes for no open drinks', () => {
+    // Jugline's own shape (no outside value).
     expect(groupIntoLanes([])).toEqual([]);
     expect(groupIntoLanes([ticket(1, '2025-03-01T08:00:00.000Z', [])])).toEqual([]);
   });

@@ -42,7 +42,7 @@ function ticket(id: number, firedAt: string, status: TicketStatus = 'open', read
 }
 
 function board(seq: number, tickets: TicketView[]): BoardSnapshot {
-  return { seq, now: '2025-04-02T10:00:00.000Z', location: { name: 'Test Café', waitTargetSeconds: 240, pickupTimeoutSeconds: 600, pitchers: [], jugWasteMl: 0 }, tickets };
+  return { seq, now: '2025-04-02T10:00:00.000Z', location: { name: 'Test Café', waitTargetSeconds: 240, pickupTimeoutSeconds: 600, jugRules: { pitchers: [], wasteMl: 0, maxDrinks: 4, expansionPct: { flat: 15, silky: 25, foamy: 75 } } }, tickets };
 }
 
 function event(seq: number, t: TicketView, at = '2025-04-02T10:05:00.000Z'): LiveEvent {

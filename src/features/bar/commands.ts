@@ -6,7 +6,12 @@ import { http } from '../../lib/http';
 import { applyTicket } from '../board/use-live-board';
 
 type OneKind = 'start-drink' | 'bump-drink' | 'acknowledge-allergy' | 'bump-ticket' | 'recall-ticket' | 'rush-ticket';
-export type BarCommand = { kind: OneKind; id: number } | { kind: 'start-batch' | 'bump-batch'; drinkIds: number[] };
+export type BarCommand =
+  | { kind: OneKind; id: number }
+  /** The drinks the screen shows in the jug: they become that jug for good. */
+  | { kind: 'start-jug'; drinkIds: number[] }
+  /** A started jug and the drinks the screen shows in it: refused (409) if they changed meanwhile. */
+  | { kind: 'bump-jug'; jugId: number; drinkIds: number[] };
 
 const PATHS: Record<OneKind, (id: number) => string> = {
   'start-drink': (id) => `/drinks/${id}/start`,
@@ -18,10 +23,8 @@ const PATHS: Record<OneKind, (id: number) => string> = {
 };
 
 async function run(c: BarCommand): Promise<TicketView[]> {
-  if ('drinkIds' in c) {
-    const path = c.kind === 'start-batch' ? '/drinks/start' : '/drinks/bump';
-    return (await http<{ tickets: TicketView[] }>('POST', path, { drinkIds: c.drinkIds })).tickets;
-  }
+  if (c.kind === 'start-jug') return (await http<{ jugId: number; tickets: TicketView[] }>('POST', '/jugs', { drinkIds: c.drinkIds })).tickets;
+  if (c.kind === 'bump-jug') return (await http<{ tickets: TicketView[] }>('POST', `/jugs/${c.jugId}/bump`, { drinkIds: c.drinkIds })).tickets;
   return [(await http<{ ticket: TicketView }>('POST', PATHS[c.kind](c.id))).ticket];
 }
 

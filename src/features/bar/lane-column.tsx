@@ -1,7 +1,6 @@
 import { useRef } from 'react';
-import { describeBatch } from '../../domain/jug-plan';
 import type { PlannedLane } from '../../domain/lanes';
-import { Button } from '../../components/ui/button';
+import { JugPlanBox } from './jug-plan-box';
 import { useHiddenBelow } from './use-hidden-below';
 
 export const grams = (dg: number) => `${(dg / 10).toFixed(dg % 10 === 0 ? 0 : 1)} g`;
@@ -11,14 +10,13 @@ interface Props {
   /** Narrower lanes when there are many, so five milks fit a 1920 px screen. */
   narrow?: boolean;
   busy: boolean;
-  onStartBatch(drinkIds: number[]): void;
-  onBumpBatch(drinkIds: number[]): void;
+  onStartJug(drinkIds: number[]): void;
+  onBumpJug(jugId: number, drinkIds: number[]): void;
   children: (group: PlannedLane['groups'][number]) => React.ReactNode;
 }
 
 /** A milk lane: its name and badge, its jug plan and shot plan, then its drinks by shot count. */
-export function LaneColumn({ lane, narrow, busy, onStartBatch, onBumpBatch, children }: Props) {
-  const [first, ...rest] = lane.jugPlan;
+export function LaneColumn({ lane, narrow, busy, onStartJug, onBumpJug, children }: Props) {
   const name = lane.milk?.name ?? 'No milk';
   const scroller = useRef<HTMLDivElement>(null);
   const hidden = useHiddenBelow(scroller, lane.groups.flatMap((g) => g.drinks.map((d) => d.id)).join(','));
@@ -44,27 +42,7 @@ export function LaneColumn({ lane, narrow, busy, onStartBatch, onBumpBatch, chil
             {lane.shotPlan.shots} shot{lane.shotPlan.shots === 1 ? '' : 's'} · {grams(lane.shotPlan.doseDg)}
           </span>
         </div>
-        {first && (
-          <div data-testid="jug-plan" className="mt-2 rounded-lg bg-roast-750 p-2">
-            <p className="text-xl font-semibold">
-              <span className="text-crema-300">Jug 1:</span> {describeBatch(first)}
-            </p>
-            <div className="mt-2 flex gap-2">
-              <Button tone="dark" className="flex-1" disabled={busy} onClick={() => onStartBatch(first.drinkIds)}>
-                Start jug 1
-              </Button>
-              <Button tone="bump" className="flex-1" disabled={busy} onClick={() => onBumpBatch(first.drinkIds)}>
-                Bump jug 1
-              </Button>
-            </div>
-            {rest[0] && (
-              <p className="mt-1 text-lg text-crema-300">
-                Jug 2: {describeBatch(rest[0])}
-                {rest.length > 1 ? ` · then ${rest.length - 1} more jug${rest.length > 2 ? 's' : ''}` : ''}
-              </p>
-            )}
-          </div>
-        )}
+        <JugPlanBox lane={lane} busy={busy} onStartJug={onStartJug} onBumpJug={onBumpJug} />
       </header>
       <div ref={scroller} className="mt-2 flex flex-col gap-3 overflow-y-auto">
         {lane.groups.map((group) => (

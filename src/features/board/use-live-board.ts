@@ -31,7 +31,7 @@ const updateBar = (qc: QueryClient, fn: (b: BoardSnapshot) => BoardSnapshot) => 
 const updatePickup = (qc: QueryClient, fn: (b: PickupBoard) => PickupBoard) => update(qc, boardKeys.pickup, fn);
 
 /**
- * The café's settings (pitchers, wait target, jug waste, pickup timeout) ride on the board
+ * The café's settings (the jug rules, wait target, pickup timeout) ride on the board
  * snapshot. After a settings change only the location is taken from a fresh snapshot: the
  * tickets stay as the socket keeps them, so no event that lands meanwhile is lost.
  */

@@ -1,0 +1,110 @@
+// The reported sequence at the Bar: jug 1 (a flat white) is started, then a cappuccino arrives.
+// Jug 1 still holds only the flat white, the cappuccino is jug 2, and "Bump jug 1" bumps only the
+// flat white. Then the owner's Settings warn about a fill line at the brim. On a server of its
+// own, so no earlier spec's tickets share the lane.
+import { mkdirSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { request as apiRequest, type Browser, type Page } from '@playwright/test';
+import { DEMO_PASSWORD, errorsOf, expect, signIn, test, watchForErrors, type Login } from './fixtures';
+import { OwnServer } from './own-server';
+
+// screenshots to look at (not in the README): under the system's temp folder
+const SHOTS = path.join(os.tmpdir(), 'jugline-shots', 'jug-plan');
+
+let own: OwnServer;
+test.beforeAll(async () => {
+  own = await OwnServer.create('jug-plan');
+  await own.start();
+});
+test.afterAll(() => own?.dispose());
+
+async function pageOn(browser: Browser, login: Login, at: string, viewport = { width: 1920, height: 1080 }) {
+  const context = await browser.newContext({ baseURL: own.baseURL, viewport });
+  const page = await context.newPage();
+  watchForErrors(page);
+  await signIn(page, login, at);
+  await page.waitForURL(`**${at}`);
+  return page;
+}
+
+async function orderWhole(item: string, customerName: string) {
+  const api = await apiRequest.newContext({ baseURL: own.baseURL });
+  await api.post('/api/session', { data: { username: 'cashier', password: DEMO_PASSWORD } });
+  const menu = await (await api.get('/api/menu')).json();
+  const menuItemId = menu.items.find((i: { name: string }) => i.name === item).id;
+  const milkId = menu.milks.find((m: { name: string }) => m.name === 'Whole').id;
+  const res = await api.post('/api/orders', {
+    data: { clientOrderId: crypto.randomUUID(), customerName, items: [{ menuItemId, milkId }], payment: { method: 'cash', tenderedCents: 10_000 } },
+  });
+  expect(res.status()).toBe(201);
+  await api.dispose();
+}
+
+const laneOf = (page: Page, milk: string) => page.getByTestId('lane').filter({ has: page.getByRole('heading', { name: milk }) });
+const cardOf = (page: Page, name: string) => page.getByTestId('drink-card').filter({ hasText: name });
+
+test('a started jug keeps its drinks when a newer one arrives; "Bump jug 1" bumps only them', async ({ browser }) => {
+  test.setTimeout(120_000);
+  mkdirSync(SHOTS, { recursive: true });
+  const bar = await pageOn(browser, 'barista', '/bar');
+  const other = await pageOn(browser, 'barista2', '/bar');
+  for (const p of [bar, other]) await expect(p.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
+
+  // A flat white: 120 ml + 15 ml waste = 135 ml → the 350 ml pitcher (fill line 190, minimum 120).
+  await orderWhole('Flat white', 'Nell Avery');
+  const whole = laneOf(bar, 'Whole');
+  const jugs = whole.getByTestId('jug');
+  await expect(jugs).toHaveCount(1);
+  await expect(jugs.first()).toContainText('Jug 1: 350 ml pitcher · pour 135 ml (15 ml waste) · 1 drink · steam flat');
+  await whole.getByRole('button', { name: 'Start jug 1' }).click();
+  await expect(jugs.first()).toHaveAttribute('data-jug-state', 'started');
+  await expect(jugs.first()).toContainText('Jug 1 · started: 350 ml pitcher · pour 135 ml');
+  await expect(cardOf(bar, 'Nell Avery')).toContainText('Making');
+
+  // A cappuccino arrives: 210 + 15 = 225 ml, foamy → the 600 ml pitcher. It is jug 2.
+  await orderWhole('Cappuccino', 'Otis Crane');
+  await expect(cardOf(bar, 'Otis Crane')).toBeVisible();
+  await expect(jugs).toHaveCount(2);
+  await expect(jugs.nth(0)).toContainText('Jug 1 · started: 350 ml pitcher · pour 135 ml (15 ml waste) · 1 drink · steam flat');
+  await expect(jugs.nth(1)).toHaveAttribute('data-jug-state', 'planned');
+  await expect(jugs.nth(1)).toContainText('Jug 2: 600 ml pitcher · pour 225 ml (15 ml waste) · 1 drink · steam foamy');
+  await expect(cardOf(bar, 'Nell Avery')).toContainText('Jug 1 · pour 1st');
+  await expect(cardOf(bar, 'Otis Crane')).toContainText('Jug 2 · pour 1st');
+  // the other screen shows the same, from the live events alone
+  await expect(laneOf(other, 'Whole').getByTestId('jug').nth(1)).toContainText('Jug 2: 600 ml pitcher');
+  await bar.screenshot({ path: path.join(SHOTS, 'started-jug-and-newcomer.png') });
+
+  await whole.getByRole('button', { name: 'Bump jug 1' }).click();
+  await expect(cardOf(bar, 'Nell Avery')).toHaveCount(0);
+  await expect(cardOf(other, 'Nell Avery')).toHaveCount(0);
+  await expect(cardOf(bar, 'Otis Crane')).toContainText('Start');
+  await expect(jugs).toHaveCount(1);
+  await expect(jugs.first()).toHaveAttribute('data-jug-state', 'planned');
+  await expect(jugs.first()).toContainText('Jug 1: 600 ml pitcher · pour 225 ml');
+  await bar.screenshot({ path: path.join(SHOTS, 'after-bump-jug-1.png') });
+
+  for (const page of [bar, other]) expect(errorsOf(page)).toEqual([]);
+});
+
+test('Settings: the jug rules, and a warning for a fill line at the brim', async ({ browser }) => {
+  mkdirSync(SHOTS, { recursive: true });
+  const owner = await pageOn(browser, 'owner', '/admin/settings', { width: 1440, height: 1400 });
+  await expect(owner.getByRole('button', { name: 'Save' }).first()).toBeEnabled(); // hydrated
+  const barSection = owner.getByRole('form', { name: 'Bar', exact: true });
+  await expect(barSection.getByLabel('Most drinks in one jug')).toHaveValue('4');
+  await expect(barSection.getByLabel('Foamy (%)')).toHaveValue('75');
+
+  const small = owner.getByRole('form', { name: 'Pitcher of 350 ml' });
+  await expect(small.getByLabel('Minimum fill (ml)')).toHaveValue('120');
+  await expect(small.getByTestId('fill-line-note')).toHaveCount(0);
+  // Typed, not saved: the warning follows the form.
+  await small.getByLabel('Fill line (ml)').fill('350');
+  const warning = small.getByRole('alert');
+  await expect(warning).toContainText('The fill line is the brim');
+  // 350 × 100 / 175 = 200 ml for a foamy jug
+  await expect(warning).toContainText('at most 200 ml for a foamy jug');
+  await small.scrollIntoViewIfNeeded();
+  await owner.screenshot({ path: path.join(SHOTS, 'settings-fill-line-warning.png'), fullPage: true });
+  expect(errorsOf(owner)).toEqual([]);
+});
