@@ -69,23 +69,21 @@ export async function loadSettings(db: Db, locationId: number): Promise<Settings
 
 // ---------------------------------------------------------------- allergen lists
 
+/** Rows on sale whose parent (a category, a group of extras) is in use too, in menu order. */
+const onSale = (db: Db, locationId: number, table: string, parent: string, key: string) =>
+  db(table)
+    .join(parent, `${parent}.id`, `${table}.${key}`)
+    .where(`${parent}.location_id`, locationId)
+    .whereNull(`${table}.retired_at`)
+    .whereNull(`${parent}.retired_at`)
+    .orderBy([`${parent}.sort`, `${parent}.id`, `${table}.sort`, `${table}.id`])
+    .select(`${table}.*`);
+
 /** The café's milks, items and extras on sale, in menu order, with what each contains. */
 async function menuEntries(db: Db, locationId: number): Promise<MenuEntry[]> {
   const milks = await db('milk_options').where({ location_id: locationId }).whereNull('retired_at').orderBy(['sort', 'id']);
-  const items = await db('menu_items')
-    .join('menu_categories', 'menu_categories.id', 'menu_items.category_id')
-    .where('menu_categories.location_id', locationId)
-    .whereNull('menu_items.retired_at')
-    .whereNull('menu_categories.retired_at')
-    .orderBy(['menu_categories.sort', 'menu_categories.id', 'menu_items.sort', 'menu_items.id'])
-    .select('menu_items.*');
-  const modifiers = await db('modifiers')
-    .join('modifier_groups', 'modifier_groups.id', 'modifiers.group_id')
-    .where('modifiers.location_id', locationId)
-    .whereNull('modifiers.retired_at')
-    .whereNull('modifier_groups.retired_at')
-    .orderBy(['modifier_groups.sort', 'modifier_groups.id', 'modifiers.sort', 'modifiers.id'])
-    .select('modifiers.*');
+  const items = await onSale(db, locationId, 'menu_items', 'menu_categories', 'category_id');
+  const modifiers = await onSale(db, locationId, 'modifiers', 'modifier_groups', 'group_id');
   const entry = (kind: MenuEntry['kind']) => (r: { id: number; name: string; ingredients: string }): MenuEntry => ({
     kind,
     id: r.id,
