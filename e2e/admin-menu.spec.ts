@@ -4,7 +4,7 @@
 import path from 'node:path';
 import os from 'node:os';
 import type { Browser, Page } from '@playwright/test';
-import { errorsOf, expect, signIn, test, watchForErrors, type Login } from './fixtures';
+import { errorsOf, expect, pageAs, test, type Login } from './fixtures';
 import { OwnServer } from './own-server';
 
 // extra screenshots to look at (not in the README): under the system's temp folder
@@ -17,14 +17,7 @@ test.beforeAll(async () => {
 });
 test.afterAll(() => own?.dispose());
 
-async function pageOn(browser: Browser, login: Login, path: string, viewport: { width: number; height: number }) {
-  const context = await browser.newContext({ baseURL: own.baseURL, viewport });
-  const page = await context.newPage();
-  watchForErrors(page);
-  await signIn(page, login, path);
-  await page.waitForURL(`**${path}`);
-  return page;
-}
+const pageOn = (browser: Browser, login: Login, path: string, viewport: { width: number; height: number }) => pageAs(browser, login, path, viewport, own.baseURL);
 
 const live = (page: Page) => expect(page.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
 

@@ -13,8 +13,9 @@ export async function signIn(page: Page, login: Login, next?: string) {
   await page.getByRole('button', { name: 'Sign in' }).click();
 }
 
-export async function pageAs(browser: Browser, login: Login, path: string, viewport = { width: 1920, height: 1080 }) {
-  const context = await browser.newContext({ viewport });
+/** A signed-in page in a context of its own; `baseURL` for a spec's own server (e2e/own-server.ts). */
+export async function pageAs(browser: Browser, login: Login, path: string, viewport = { width: 1920, height: 1080 }, baseURL?: string) {
+  const context = await browser.newContext({ viewport, ...(baseURL ? { baseURL } : {}) });
   const page = await context.newPage();
   watchForErrors(page);
   await signIn(page, login, path);

@@ -6,9 +6,9 @@ import { errorsOf, expect, pageAs, test } from './fixtures';
 /** where the spec's own screenshots go (Playwright makes the folder) */
 const SHOTS = process.env.SHOTS_DIR ?? 'test-results/menu-import';
 
-const HEADER = 'category,item,station,size,volume_ml,price,shots,dose_g,yield_g,milk_ml,takes_milk,default_milk,texture,allergens,default_size';
-const SCONE = (price: string) => `Baked,Quayside scone,counter,,,${price},0,,,,no,,,wheat; milk; eggs,no`;
-const CORTADO = 'Espresso,Cortado,bar,Regular,120,4.20,2,18.5,37,60,yes,OA,flat,,yes';
+const HEADER = 'category,item,station,size,volume_ml,price,shots,dose_g,yield_g,milk_ml,takes_milk,default_milk,texture,ingredients,allergens,default_size';
+const SCONE = (price: string) => `Baked,Quayside scone,counter,,,${price},0,,,,no,,,wheat; cow's milk; egg,milk; eggs; wheat,no`;
+const CORTADO = 'Espresso,Cortado,bar,Regular,120,4.20,2,18.5,37,60,yes,OA,flat,,,yes';
 const file = (name: string, ...rows: string[]) => ({ name, mimeType: 'text/csv', buffer: Buffer.from([HEADER, ...rows].join('\r\n') + '\r\n') });
 
 test('the owner imports a menu file after fixing its bad row, and the new item is on the Counter', async ({ browser }) => {

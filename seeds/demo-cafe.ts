@@ -5,6 +5,7 @@ import { hashPassword, verifyPassword } from '../server/auth/passwords';
 import { adviseShot, doseRange, DEFAULT_SHOT_TARGETS } from '../src/domain/dial-in';
 import { addDays, localDate } from '../src/domain/freshness';
 import { defaultMinFillMl } from '../src/domain/settings-schemas';
+import { inOrder, type Ingredient } from '../src/domain/ingredients';
 
 export const DEMO_PASSWORD = 'jugline-demo';
 
@@ -40,7 +41,8 @@ interface ItemSeed {
   texture?: 'flat' | 'silky' | 'foamy' | 'cold';
   priceCents?: number;
   sizes?: SizeSeed[];
-  allergens?: string[];
+  /** What it contains (src/domain/ingredients.ts); the allergens follow for the café's list. */
+  ingredients?: Ingredient[];
 }
 
 const MENU: { category: string; items: ItemSeed[] }[] = [
@@ -66,23 +68,24 @@ const MENU: { category: string; items: ItemSeed[] }[] = [
   {
     category: 'Food',
     items: [
-      { name: 'Butter croissant', station: 'counter', priceCents: 425, allergens: ['wheat', 'milk', 'eggs'] },
-      { name: 'Almond croissant', station: 'counter', priceCents: 495, allergens: ['tree nuts', 'wheat', 'milk', 'eggs'] },
-      { name: 'Banana bread', station: 'counter', priceCents: 395, allergens: ['wheat', 'eggs', 'milk'] },
+      { name: 'Butter croissant', station: 'counter', priceCents: 425, ingredients: ['wheat', "cow's milk", 'egg'] },
+      { name: 'Almond croissant', station: 'counter', priceCents: 495, ingredients: ['almond', 'wheat', "cow's milk", 'egg'] },
+      { name: 'Banana bread', station: 'counter', priceCents: 395, ingredients: ['wheat', 'egg', "cow's milk"] },
       { name: 'Bottled water', station: 'counter', priceCents: 250 },
     ],
   },
 ];
 
-// Allergen tags from the US list of nine (FALCPA + FASTER Act); coconut is not a tree nut
-// under FDA guidance of January 2025, and oat is not a US major allergen.
-const MILKS = [
-  { name: 'Whole', code: 'WH', upcharge: 0, allergens: ['milk'] },
-  { name: 'Skim', code: 'SK', upcharge: 0, allergens: ['milk'] },
-  { name: 'Oat', code: 'OA', upcharge: 70, allergens: [] },
-  { name: 'Soy', code: 'SO', upcharge: 70, allergens: ['soybeans'] },
-  { name: 'Almond', code: 'AL', upcharge: 80, allergens: ['tree nuts'] },
-  { name: 'Coconut', code: 'CO', upcharge: 80, allergens: [] },
+// What each milk is made of. The allergens follow for the café's list: on the US list oat and
+// coconut milk contain none (oats are not a US major allergen; coconut is not a tree nut under
+// FDA guidance of January 2025); on the EU list oat milk contains a cereal containing gluten.
+const MILKS: { name: string; code: string; upcharge: number; ingredients: Ingredient[] }[] = [
+  { name: 'Whole', code: 'WH', upcharge: 0, ingredients: ["cow's milk"] },
+  { name: 'Skim', code: 'SK', upcharge: 0, ingredients: ["cow's milk"] },
+  { name: 'Oat', code: 'OA', upcharge: 70, ingredients: ['oats'] },
+  { name: 'Soy', code: 'SO', upcharge: 70, ingredients: ['soy'] },
+  { name: 'Almond', code: 'AL', upcharge: 80, ingredients: ['almond'] },
+  { name: 'Coconut', code: 'CO', upcharge: 80, ingredients: ['coconut'] },
 ];
 
 /** The café's cups by what they hold (invented stock; the menu editor can change them). */
@@ -100,7 +103,7 @@ const GROUPS = [
 ] as const;
 type GroupName = (typeof GROUPS)[number]['name'];
 
-// Hazelnut syrup carries no tree-nut flag: the owner sets it if their syrup contains nut.
+// Hazelnut syrup records no hazelnut: the owner adds it if their syrup contains nut.
 const MODIFIERS: { group: GroupName; name: string; price: number }[] = [
   { group: 'Coffee', name: 'Decaf', price: 50 },
   { group: 'Syrup', name: 'Vanilla syrup', price: 60 },
@@ -186,7 +189,7 @@ export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: nu
           name: m.name,
           code: m.code,
           upcharge_cents: m.upcharge,
-          allergens: JSON.stringify(m.allergens),
+          ingredients: JSON.stringify(inOrder(m.ingredients)),
           sort: i,
         })
         .returning('id');
@@ -216,7 +219,7 @@ export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: nu
             takes_milk: item.milk ?? false,
             default_milk_id: item.milk ? milkIds[0] : null,
             texture: item.texture ?? null,
-            allergens: JSON.stringify(item.allergens ?? []),
+            ingredients: JSON.stringify(inOrder(item.ingredients ?? [])),
             sort: ii,
           })
           .returning('id');

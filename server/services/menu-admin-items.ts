@@ -8,7 +8,6 @@ import { conflict, notFound } from '../errors';
 import type { Deps } from './deps';
 import {
   assertMenuOrderable,
-  checkAllergens,
   liveItems,
   menuCommand,
   moveRow,
@@ -46,7 +45,7 @@ function itemRow(body: ItemBody) {
     takes_milk: body.takesMilk,
     default_milk_id: body.defaultMilkId,
     texture: body.texture,
-    allergens: JSON.stringify(body.allergens),
+    ingredients: JSON.stringify(body.ingredients),
   };
 }
 
@@ -64,7 +63,6 @@ async function checkReferences(trx: Trx, locationId: number, body: ItemBody, ite
     const group = await ownedRow(trx, 'modifier_groups', locationId, groupId, 'Group of extras');
     if (group.retired_at && !linked.includes(groupId)) throw conflict(`The group ${group.name} is retired`);
   }
-  await checkAllergens(trx, locationId, body.allergens);
   // a retired item may share a name with one on sale; restoring it is what would clash
   if (!item?.retired) await assertNameFree(trx, locationId, body.name, item?.id ?? null);
 }

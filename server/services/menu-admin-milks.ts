@@ -5,7 +5,7 @@ import type { SessionUser } from '../../src/domain/types';
 import { isUniqueViolation } from '../db/rows';
 import { conflict } from '../errors';
 import type { Deps } from './deps';
-import { assertMenuOrderable, checkAllergens, menuCommand, moveRow, nextSort, ownedRow, type Trx } from './menu-admin-shared';
+import { assertMenuOrderable, menuCommand, moveRow, nextSort, ownedRow, type Trx } from './menu-admin-shared';
 
 async function assertCodeFree(trx: Trx, locationId: number, code: string, milkId: number | null) {
   const clash = await trx('milk_options')
@@ -19,7 +19,7 @@ const row = (body: MilkBody) => ({
   name: body.name,
   code: body.code,
   upcharge_cents: body.upchargeCents,
-  allergens: JSON.stringify(body.allergens),
+  ingredients: JSON.stringify(body.ingredients),
 });
 
 /** The unique index is the last word if two owners save at once. */
@@ -34,7 +34,6 @@ async function guarded<T>(code: string, work: () => Promise<T>): Promise<T> {
 
 export const createMilk = (deps: Deps, user: SessionUser, body: MilkBody) =>
   menuCommand(deps, user, async ({ trx, locationId }) => {
-    await checkAllergens(trx, locationId, body.allergens);
     await assertCodeFree(trx, locationId, body.code, null);
     const sort = await nextSort(trx('milk_options').where({ location_id: locationId }));
     const [{ id }] = await guarded(body.code, () => trx('milk_options').insert({ ...row(body), location_id: locationId, sort }).returning('id'));
@@ -44,7 +43,6 @@ export const createMilk = (deps: Deps, user: SessionUser, body: MilkBody) =>
 export const updateMilk = (deps: Deps, user: SessionUser, id: number, body: MilkBody) =>
   menuCommand(deps, user, async ({ trx, locationId }) => {
     await ownedRow(trx, 'milk_options', locationId, id, 'Milk');
-    await checkAllergens(trx, locationId, body.allergens);
     await assertCodeFree(trx, locationId, body.code, id);
     await guarded(body.code, () => trx('milk_options').where({ id }).update(row(body)));
     return id;

@@ -4,7 +4,7 @@ import type { ModifierBody, ModifierGroupBody, MoveBody } from '../../src/domain
 import type { SessionUser } from '../../src/domain/types';
 import { conflict } from '../errors';
 import type { Deps } from './deps';
-import { assertMenuOrderable, checkAllergens, menuCommand, moveRow, nextSort, ownedItem, ownedRow, type Trx } from './menu-admin-shared';
+import { assertMenuOrderable, menuCommand, moveRow, nextSort, ownedItem, ownedRow, type Trx } from './menu-admin-shared';
 
 async function setItems(trx: Trx, locationId: number, groupId: number, itemIds: number[]) {
   for (const itemId of itemIds) await ownedItem(trx, locationId, itemId);
@@ -65,12 +65,11 @@ async function liveGroup(trx: Trx, locationId: number, groupId: number) {
   if (group.retired_at) throw conflict(`The group ${group.name} is retired`);
 }
 
-const modifierRow = (b: ModifierBody) => ({ group_id: b.groupId, name: b.name, price_cents: b.priceCents, allergens: JSON.stringify(b.allergens) });
+const modifierRow = (b: ModifierBody) => ({ group_id: b.groupId, name: b.name, price_cents: b.priceCents, ingredients: JSON.stringify(b.ingredients) });
 
 export const createModifier = (deps: Deps, user: SessionUser, body: ModifierBody) =>
   menuCommand(deps, user, async ({ trx, locationId }) => {
     await liveGroup(trx, locationId, body.groupId);
-    await checkAllergens(trx, locationId, body.allergens);
     const sort = await nextSort(trx('modifiers').where({ group_id: body.groupId }));
     const [{ id }] = await trx('modifiers').insert({ ...modifierRow(body), location_id: locationId, sort }).returning('id');
     return id;
@@ -80,7 +79,6 @@ export const updateModifier = (deps: Deps, user: SessionUser, id: number, body: 
   menuCommand(deps, user, async ({ trx, locationId }) => {
     const modifier = await ownedRow(trx, 'modifiers', locationId, id, 'Extra');
     await liveGroup(trx, locationId, body.groupId);
-    await checkAllergens(trx, locationId, body.allergens);
     const sort = body.groupId === modifier.group_id ? modifier.sort : await nextSort(trx('modifiers').where({ group_id: body.groupId }));
     await trx('modifiers').where({ id }).update({ ...modifierRow(body), sort });
     await assertMenuOrderable(trx, locationId);

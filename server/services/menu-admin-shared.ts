@@ -1,13 +1,11 @@
 // What every menu command shares: one transaction with its menu.changed event, rows looked up
-// only inside the signed-in café (another café's id is simply not found), allergen tags from the
-// café's published list, moving a row among its siblings, and the menu-wide rules a change must
-// leave standing.
+// only inside the signed-in café (another café's id is simply not found), moving a row among its
+// siblings, and the menu-wide rules a change must leave standing.
 import type { Knex } from 'knex';
-import { allergensOf, type AllergenList } from '../../src/domain/allergens';
 import type { MenuAdminResult } from '../../src/domain/menu-admin-view';
 import { moveAmong, type Direction } from '../../src/domain/menu-order';
 import type { SessionUser } from '../../src/domain/types';
-import { conflict, HttpError, notFound } from '../errors';
+import { conflict, notFound } from '../errors';
 import type { Deps } from './deps';
 import { appendMenuChangedEvent, runCommand } from './events';
 import { loadAdminMenu } from './menu-admin';
@@ -59,16 +57,6 @@ export async function ownedRow(trx: Trx, table: 'milk_options' | 'modifier_group
   const row = await trx(table).where({ id, location_id: locationId }).first();
   if (!row) throw notFound(what);
   return row;
-}
-
-/** 400 with the field named when a tag isn't on the café's list (US-9 or EU-14). */
-export async function checkAllergens(trx: Trx, locationId: number, tags: readonly string[], field = 'allergens') {
-  const location = await trx('locations').where({ id: locationId }).first('allergen_list');
-  const list = allergensOf(location.allergen_list as AllergenList);
-  const details = tags.flatMap((t, i) =>
-    list.includes(t) ? [] : [{ path: `${field}.${i}`, message: `${t} is not on the ${location.allergen_list} allergen list` }],
-  );
-  if (details.length) throw new HttpError(400, 'validation_failed', 'Some fields need fixing', details);
 }
 
 /**

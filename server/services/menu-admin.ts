@@ -1,6 +1,7 @@
 // The back-office menu editor's read side: the whole menu, retired things included.
 import type { Knex } from 'knex';
 import { allergensOf, type AllergenList } from '../../src/domain/allergens';
+import { allergensFrom } from '../../src/domain/ingredients';
 import type { AdminMenuView } from '../../src/domain/menu-admin-view';
 import type { Station, Texture } from '../../src/domain/types';
 import { bool, json } from '../db/rows';
@@ -26,6 +27,10 @@ export async function loadAdminMenu(db: Db, locationId: number): Promise<AdminMe
   const modifiers = await db('modifiers').where({ location_id: locationId }).orderBy(['sort', 'id']);
   const links: { item_id: number; group_id: number }[] = await db('item_modifier_groups').whereIn('group_id', groups.map((g) => g.id));
   const list = location.allergen_list as AllergenList;
+  const contents = (row: { ingredients: string }) => {
+    const ingredients = json<string[]>(row.ingredients, []);
+    return { ingredients, allergens: allergensFrom(ingredients, list) };
+  };
 
   return {
     location: {
@@ -46,7 +51,7 @@ export async function loadAdminMenu(db: Db, locationId: number): Promise<AdminMe
       takesMilk: bool(i.takes_milk),
       defaultMilkId: i.default_milk_id,
       texture: (i.texture as Texture | null) ?? null,
-      allergens: json<string[]>(i.allergens, []),
+      ...contents(i),
       available: bool(i.available),
       retired: i.retired_at !== null,
       modifierGroupIds: links.filter((l) => l.item_id === i.id).map((l) => l.group_id),
@@ -59,7 +64,7 @@ export async function loadAdminMenu(db: Db, locationId: number): Promise<AdminMe
       name: m.name,
       code: m.code,
       upchargeCents: m.upcharge_cents,
-      allergens: json<string[]>(m.allergens, []),
+      ...contents(m),
       retired: m.retired_at !== null,
     })),
     modifierGroups: groups.map((g) => ({
@@ -75,7 +80,7 @@ export async function loadAdminMenu(db: Db, locationId: number): Promise<AdminMe
       groupId: m.group_id,
       name: m.name,
       priceCents: m.price_cents,
-      allergens: json<string[]>(m.allergens, []),
+      ...contents(m),
       retired: m.retired_at !== null,
     })),
   };

@@ -7,7 +7,7 @@
 // the file leaves out stay as they are. An item's default size is the row marked default_size
 // yes; with none marked the item keeps its current default (a new item takes its first row).
 import type { Knex } from 'knex';
-import { allergensOf, type AllergenList } from '../../src/domain/allergens';
+import type { AllergenList } from '../../src/domain/allergens';
 import {
   groupMenuRows,
   parseMenuCsv,
@@ -45,7 +45,7 @@ async function csvContext(db: Db, locationId: number) {
   const location = await db('locations').where({ id: locationId }).first('allergen_list');
   const list = (location?.allergen_list ?? 'US') as AllergenList;
   const milks = await db('milk_options').where({ location_id: locationId }).whereNull('retired_at').orderBy(['sort', 'id']).select('id', 'code');
-  const ctx: MenuCsvContext = { allergens: allergensOf(list), allergenListName: list, milkCodes: milks.map((m) => m.code as string) };
+  const ctx: MenuCsvContext = { allergenList: list, milkCodes: milks.map((m) => m.code as string) };
   return { ctx, milkId: new Map<string, number>(milks.map((m) => [m.code as string, m.id as number])) };
 }
 
@@ -117,12 +117,13 @@ async function planImport(db: Db, locationId: number, items: ImportItem[], milkI
       takes_milk: item.takesMilk,
       default_milk_id: item.defaultMilk === null ? null : milkId.get(item.defaultMilk)!,
       texture: item.texture,
-      allergens: JSON.stringify(item.allergens),
+      ingredients: JSON.stringify(item.ingredients),
     };
     if (!sized) Object.assign(fields, { price_cents: item.rows[0].data.priceCents, shots: item.rows[0].data.shots });
     else if (!existing) Object.assign(fields, { price_cents: null, shots: (defaultRow ?? item.rows[0]).data.shots });
     else if (existingSizes.length === 0) fields.price_cents = null; // an item without sizes gets its first ones
-    if (existing) fields.allergens = JSON.stringify(item.allergens) === JSON.stringify(json<string[]>(existing.allergens, [])) ? existing.allergens : fields.allergens;
+    // the same list stored with other spacing is not a change
+    if (existing && fields.ingredients === JSON.stringify(json<string[]>(existing.ingredients, []))) fields.ingredients = existing.ingredients;
     if (!existing) {
       const sort = nextItemSort.get(category) ?? maxSort(menuItems.filter((i) => i.category_id === category.id)) + 1;
       nextItemSort.set(category, sort + 1);

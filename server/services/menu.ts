@@ -1,6 +1,7 @@
 // The menu as the Counter and the pricing see it.
 import type { Knex } from 'knex';
 import type { JugRules, Pitcher } from '../../src/domain/jug-plan';
+import { allergensFrom } from '../../src/domain/ingredients';
 import type { LocationView, MenuView, Texture } from '../../src/domain/types';
 import { bool, json } from '../db/rows';
 import { notFound } from '../errors';
@@ -88,6 +89,7 @@ export async function loadMenu(db: Knex | Knex.Transaction, locationId: number):
     .whereIn('item_id', items.map((i) => i.id))
     .whereIn('group_id', groups.map((g) => g.id));
   const groupName = new Map(groups.map((g) => [g.id, g.name as string]));
+  const allergens = (row: { ingredients: string }) => allergensFrom(json<string[]>(row.ingredients, []), location.allergenList);
 
   return {
     location,
@@ -103,7 +105,8 @@ export async function loadMenu(db: Knex | Knex.Transaction, locationId: number):
       defaultMilkId: i.default_milk_id,
       texture: (i.texture as Texture | null) ?? null,
       available: bool(i.available),
-      allergens: json<string[]>(i.allergens, []),
+      ingredients: json<string[]>(i.ingredients, []),
+      allergens: allergens(i),
       sizes: sizes
         .filter((s) => s.item_id === i.id)
         .map(sizeView),
@@ -115,7 +118,7 @@ export async function loadMenu(db: Knex | Knex.Transaction, locationId: number):
       name: m.name,
       code: m.code,
       upchargeCents: m.upcharge_cents,
-      allergens: json<string[]>(m.allergens, []),
+      allergens: allergens(m),
     })),
     modifierGroups: groups.map((g) => ({ id: g.id, name: g.name, selection: g.selection, required: bool(g.required) })),
     modifiers: modifiers.map((m) => ({
@@ -124,7 +127,7 @@ export async function loadMenu(db: Knex | Knex.Transaction, locationId: number):
       groupName: groupName.get(m.group_id) ?? '',
       name: m.name,
       priceCents: m.price_cents,
-      allergens: json<string[]>(m.allergens, []),
+      allergens: allergens(m),
     })),
   };
 }

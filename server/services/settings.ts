@@ -1,24 +1,12 @@
 // The location's settings and pitchers. Each change is one transaction plus a menu.changed
 // event, so every open Counter, Bar and Pickup reloads what it shows from them.
 import type { Knex } from 'knex';
+import { allergenSwitch, type MenuEntry } from '../../src/domain/allergen-switch';
 import type { AllergenList } from '../../src/domain/allergens';
-import {
-  ALLERGEN_EQUIVALENTS,
-  defaultMinFillMl,
-  listOf,
-  milliToPercent,
-  retagged,
-  type AllergenSwitchConflict,
-  type PitcherBody,
-  type PitcherView,
-  type SettingsBody,
-  type SettingsPage,
-  type SettingsView,
-  type UnlistedTags,
-} from '../../src/domain/settings-schemas';
+import { defaultMinFillMl, milliToPercent, type PitcherBody, type PitcherView, type SettingsBody, type SettingsPage, type SettingsView } from '../../src/domain/settings-schemas';
 import type { SessionUser } from '../../src/domain/types';
 import { json } from '../db/rows';
-import { conflict, HttpError, notFound } from '../errors';
+import { conflict, notFound } from '../errors';
 import type { Deps } from './deps';
 import { appendMenuChangedEvent, runCommand } from './events';
 import { loadMenu } from './menu';
@@ -88,62 +76,40 @@ export async function loadSettings(db: Db, locationId: number): Promise<Settings
     settings,
     pitchers: pitchers.map(pitcherView),
     cupSizes: [...cups].sort(([a], [b]) => a - b).map(([volumeMl, names]) => ({ volumeMl, names: [...names] })),
+    allergenSwitch: allergenSwitch(await menuEntries(db, locationId), settings.allergenList, OTHER_LIST[settings.allergenList]),
   };
 }
 
 // ---------------------------------------------------------------- allergen lists
 
-const TAGGED = [
-  { kind: 'milk', table: 'milk_options' },
-  { kind: 'modifier', table: 'modifiers' },
-  { kind: 'item', table: 'menu_items' },
-] as const;
+/** Rows on sale whose parent (a category, a group of extras) is in use too, in menu order. */
+const onSale = (db: Db, locationId: number, table: string, parent: string, key: string) =>
+  db(table)
+    .join(parent, `${parent}.id`, `${table}.${key}`)
+    .where(`${parent}.location_id`, locationId)
+    .whereNull(`${table}.retired_at`)
+    .whereNull(`${parent}.retired_at`)
+    .orderBy([`${parent}.sort`, `${parent}.id`, `${table}.sort`, `${table}.id`])
+    .select(`${table}.*`);
 
-/** Every milk, extra and item of the café (retired ones too, so none comes back stale). */
-async function taggedRows(trx: Knex.Transaction, locationId: number) {
-  const out: { kind: UnlistedTags['kind']; table: string; id: number; name: string; tags: string[] }[] = [];
-  for (const { kind, table } of TAGGED) {
-    const q = trx(table).select(`${table}.id`, `${table}.name`, `${table}.allergens`);
-    if (table === 'menu_items') q.join('menu_categories', 'menu_categories.id', 'menu_items.category_id').where('menu_categories.location_id', locationId);
-    else q.where(`${table}.location_id`, locationId);
-    for (const r of await q.orderBy(`${table}.id`)) out.push({ kind, table, id: r.id, name: r.name, tags: json<string[]>(r.allergens, []) });
-  }
-  return out;
+/** The café's milks, items and extras on sale, in menu order, with what each contains. */
+async function menuEntries(db: Db, locationId: number): Promise<MenuEntry[]> {
+  const milks = await db('milk_options').where({ location_id: locationId }).whereNull('retired_at').orderBy(['sort', 'id']);
+  const items = await onSale(db, locationId, 'menu_items', 'menu_categories', 'category_id');
+  const modifiers = await onSale(db, locationId, 'modifiers', 'modifier_groups', 'group_id');
+  const entry = (kind: MenuEntry['kind']) => (r: { id: number; name: string; ingredients: string }): MenuEntry => ({
+    kind,
+    id: r.id,
+    name: r.name,
+    ingredients: json<string[]>(r.ingredients, []),
+  });
+  return [...milks.map(entry('milk')), ...items.map(entry('item')), ...modifiers.map(entry('modifier'))];
 }
 
-/**
- * Switching lists rewrites the menu's tags by the owner's choices, in the same transaction. A
- * tag the new list lacks and the owner has not decided on refuses the whole change (409).
- */
-async function switchAllergenList(trx: Knex.Transaction, locationId: number, to: AllergenList, choice: Record<string, string | null>) {
-  const list = listOf(to);
-  for (const [tag, target] of Object.entries(choice)) {
-    if (target !== null && !list.includes(target))
-      throw new HttpError(400, 'validation_failed', 'Some fields need fixing', [
-        { path: `allergenRetag.${tag}`, message: `"${target}" is not on the ${to} list` },
-      ]);
-  }
-  const rows = await taggedRows(trx, locationId);
-  const unlisted = rows.filter((r) => r.tags.some((t) => !list.includes(t)));
-  const undecided = [...new Set(unlisted.flatMap((r) => r.tags.filter((t) => !list.includes(t) && !(t in choice))))];
-  if (undecided.length > 0) {
-    const details: AllergenSwitchConflict = {
-      to,
-      unlisted: unlisted.map(({ kind, id, name, tags }) => ({ kind, id, name, tags: tags.filter((t) => !list.includes(t)) })),
-      suggestions: Object.fromEntries(
-        [...new Set(unlisted.flatMap((r) => r.tags.filter((t) => !list.includes(t))))].map((t) => [t, ALLERGEN_EQUIVALENTS[to][t] ?? null]),
-      ),
-    };
-    throw conflict(`Tags on the menu are not on the ${to} list: choose what each becomes, then switch`, details);
-  }
-  for (const r of unlisted) await trx(r.table).where({ id: r.id }).update({ allergens: JSON.stringify(retagged(r.tags, to, choice)) });
-}
+const OTHER_LIST: Record<AllergenList, AllergenList> = { US: 'EU', EU: 'US' };
 
 export function updateSettings(deps: Deps, user: SessionUser, body: SettingsBody): Promise<SettingsPage> {
   return runCommand(deps, async (trx) => {
-    const before = await loadSettingsView(trx, user.locationId);
-    if (body.allergenList && body.allergenList !== before.allergenList)
-      await switchAllergenList(trx, user.locationId, body.allergenList, body.allergenRetag ?? {});
     const changes: Record<string, unknown> = {};
     for (const [key, column] of Object.entries(COLUMNS)) {
       const value = body[key as keyof typeof COLUMNS];

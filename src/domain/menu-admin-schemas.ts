@@ -2,6 +2,7 @@
 // grams and prices as text), written once. The forms' rules are the bodies' rules, so the screen
 // and the server refuse the same things with the same words.
 import { z } from 'zod';
+import { inOrder, INGREDIENT_NAMES } from './ingredients';
 import { parseAmountToCents } from './money';
 import { parseGramsToDg, parseWhole } from './menu-units';
 import { plainText } from './text';
@@ -36,8 +37,15 @@ const cents = int(MENU_LIMITS.priceCents.min, MENU_LIMITS.priceCents.max, MESSAG
 const id = z.number().int().positive();
 const ids = (max: number, what: string) =>
   z.array(id).max(max).refine(unique, `${what} is listed twice`);
-/** Tags from the location's published list; the service checks which list. */
-export const allergenTags = z.array(plainText().min(1).max(40)).max(14).refine(unique, 'An allergen is listed twice');
+/**
+ * What it contains, from Jugline's ingredients (src/domain/ingredients.ts), stored in their order.
+ * The allergens are never sent: they are worked out from these for the café's list.
+ */
+export const ingredientList = z
+  .array(z.enum(INGREDIENT_NAMES, { error: 'Not an ingredient Jugline knows: choose one from the list' }))
+  .max(INGREDIENT_NAMES.length)
+  .refine(unique, 'An ingredient is listed twice')
+  .transform(inOrder);
 
 // ---------------------------------------------------------------- bodies
 
@@ -55,7 +63,7 @@ export const milkBody = z.strictObject({
   name: name(MENU_LIMITS.names.milk),
   code: milkCode,
   upchargeCents: cents,
-  allergens: allergenTags.default([]),
+  ingredients: ingredientList.default([]),
 });
 export type MilkBody = z.infer<typeof milkBody>;
 
@@ -71,7 +79,7 @@ export const modifierBody = z.strictObject({
   groupId: id,
   name: name(MENU_LIMITS.names.modifier),
   priceCents: cents,
-  allergens: allergenTags.default([]),
+  ingredients: ingredientList.default([]),
 });
 export type ModifierBody = z.infer<typeof modifierBody>;
 
@@ -103,7 +111,7 @@ const itemShape = {
   takesMilk: z.boolean(),
   defaultMilkId: id.nullable().default(null),
   texture: z.enum(TEXTURES).nullable().default(null),
-  allergens: allergenTags.default([]),
+  ingredients: ingredientList.default([]),
   modifierGroupIds: ids(20, 'A group of extras').default([]),
   sizes: z.array(sizeInput).max(MENU_LIMITS.sizes, `At most ${MENU_LIMITS.sizes} sizes`).default([]),
 };
@@ -197,7 +205,7 @@ export const itemForm = z
     takesMilk: z.boolean(),
     defaultMilkId: text,
     texture: z.union([z.literal(''), z.enum(TEXTURES)]),
-    allergens: z.array(z.string()),
+    ingredients: z.array(z.string()),
     modifierGroupIds: z.array(z.number()),
     sizes: z.array(sizeForm).max(MENU_LIMITS.sizes, `At most ${MENU_LIMITS.sizes} sizes`),
   })
@@ -216,7 +224,7 @@ export const itemForm = z
     takesMilk: f.takesMilk,
     defaultMilkId: f.takesMilk && f.defaultMilkId ? Number(f.defaultMilkId) : null,
     texture: f.takesMilk && f.texture ? f.texture : null,
-    allergens: f.allergens,
+    ingredients: inOrder(f.ingredients),
     modifierGroupIds: f.modifierGroupIds,
     sizes: f.sizes.map((s) => ({
       ...(s.sizeId ? { id: s.sizeId } : {}),
@@ -235,13 +243,13 @@ export const itemForm = z
 export type ItemFormValues = z.input<typeof itemForm>;
 
 export const milkForm = z
-  .object({ name: name(MENU_LIMITS.names.milk), code: milkCode, upcharge: amount, allergens: z.array(z.string()) })
-  .transform((f): MilkBody => ({ name: f.name, code: f.code, upchargeCents: f.upcharge, allergens: f.allergens }));
+  .object({ name: name(MENU_LIMITS.names.milk), code: milkCode, upcharge: amount, ingredients: z.array(z.string()) })
+  .transform((f): MilkBody => ({ name: f.name, code: f.code, upchargeCents: f.upcharge, ingredients: inOrder(f.ingredients) }));
 export type MilkFormValues = z.input<typeof milkForm>;
 
 export const modifierForm = z
-  .object({ name: name(MENU_LIMITS.names.modifier), price: amount, allergens: z.array(z.string()) })
-  .transform((f) => ({ name: f.name, priceCents: f.price, allergens: f.allergens }));
+  .object({ name: name(MENU_LIMITS.names.modifier), price: amount, ingredients: z.array(z.string()) })
+  .transform((f) => ({ name: f.name, priceCents: f.price, ingredients: inOrder(f.ingredients) }));
 export type ModifierFormValues = z.input<typeof modifierForm>;
 
 export const modifierGroupForm = modifierGroupBody.extend({ itemIds: z.array(z.number()) });

@@ -27,6 +27,9 @@ export interface AdminItem {
   takesMilk: boolean;
   defaultMilkId: number | null;
   texture: Texture | null;
+  /** What it contains (src/domain/ingredients.ts). */
+  ingredients: string[];
+  /** Worked out from the ingredients for the café's list. */
   allergens: string[];
   /** false while 86'd. */
   available: boolean;
@@ -47,6 +50,9 @@ export interface AdminMilk {
   name: string;
   code: string;
   upchargeCents: number;
+  /** What it contains (src/domain/ingredients.ts). */
+  ingredients: string[];
+  /** Worked out from the ingredients for the café's list. */
   allergens: string[];
   retired: boolean;
 }
@@ -65,6 +71,9 @@ export interface AdminModifier {
   groupId: number;
   name: string;
   priceCents: number;
+  /** What it contains (src/domain/ingredients.ts). */
+  ingredients: string[];
+  /** Worked out from the ingredients for the café's list. */
   allergens: string[];
   retired: boolean;
 }
@@ -77,7 +86,7 @@ export interface AdminMenuView {
     allergenList: AllergenList;
     /** What the café's people read temperatures in (the steam caution). */
     temperatureUnit: TemperatureUnit;
-    /** The published list the location chose; every allergen tag comes from it. */
+    /** The published list the location chose; every allergen shown is worked out for it. */
     allergens: readonly string[];
   };
   categories: AdminCategory[];

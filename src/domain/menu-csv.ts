@@ -7,8 +7,10 @@
 // back as "=Tonic", and is guarded again on the next export).
 import Papa from 'papaparse';
 import { z } from 'zod';
+import { allergensOf, type AllergenList } from './allergens';
 import { toCsv } from './csv';
 import { PLAIN_TEXT_MESSAGE, isPlainText } from './text';
+import { allergensFrom, ingredientNamed, INGREDIENT_NAMES, inOrder, type Ingredient } from './ingredients';
 import { TEXTURES, type MenuView, type Station, type Texture } from './types';
 
 export const MENU_CSV_COLUMNS = [
@@ -25,6 +27,7 @@ export const MENU_CSV_COLUMNS = [
   'takes_milk',
   'default_milk',
   'texture',
+  'ingredients',
   'allergens',
   'default_size',
 ] as const;
@@ -46,7 +49,8 @@ export const MENU_CSV_HELP: Record<MenuCsvColumn, string> = {
   takes_milk: 'yes or no',
   default_milk: 'milk code, e.g. WH',
   texture: 'flat, silky, foamy or cold',
-  allergens: 'from the café’s list, separated by ;',
+  ingredients: 'what it contains, separated by ;, e.g. wheat; cow\'s milk; egg',
+  allergens: 'worked out from the ingredients for the café’s list; may be left out or empty',
   default_size: 'yes on the size a tap picks',
 };
 
@@ -54,10 +58,12 @@ export const MENU_CSV_HELP: Record<MenuCsvColumn, string> = {
 export const MENU_CSV_MAX_BYTES = 256 * 1024;
 export const MENU_CSV_MAX_ROWS = 1000;
 
+/** Columns a file may leave out: the allergens follow from the ingredients. */
+const OPTIONAL_COLUMNS: readonly MenuCsvColumn[] = ['allergens'];
+
 export interface MenuCsvContext {
-  /** The location's published allergen list (src/domain/allergens.ts) and its name. */
-  allergens: readonly string[];
-  allergenListName: string;
+  /** The location's published allergen list (src/domain/allergens.ts). */
+  allergenList: AllergenList;
   /** Codes of the milks on the menu (the lane badges). */
   milkCodes: readonly string[];
 }
@@ -77,7 +83,7 @@ export interface MenuCsvRow {
   takesMilk: boolean;
   defaultMilk: string | null;
   texture: Texture | null;
-  allergens: string[];
+  ingredients: Ingredient[];
   defaultSize: boolean;
 }
 
@@ -159,6 +165,8 @@ const texture: Reader<Texture | null> = (t) => {
   return (TEXTURES as readonly string[]).includes(v) ? (v as Texture) : new Problem('Use flat, silky, foamy or cold (or leave it empty)');
 };
 
+const sameSet = (a: readonly string[], b: readonly string[]) => a.every((x) => b.includes(x)) && b.every((x) => a.includes(x));
+
 /** The zod schema of one row; the milk codes and allergens it accepts are the location's. */
 export function menuCsvRowSchema(ctx: MenuCsvContext) {
   const milk: Reader<string | null> = (t) => {
@@ -166,12 +174,23 @@ export function menuCsvRowSchema(ctx: MenuCsvContext) {
     const code = t.toUpperCase();
     return ctx.milkCodes.includes(code) ? code : new Problem(`No milk with code "${t}"; the menu's milks are ${ctx.milkCodes.join(', ') || 'none yet'}`);
   };
+  const words = (t: string) => t.split(';').map((w) => w.trim()).filter(Boolean);
+  const ingredients: Reader<Ingredient[]> = (t) => {
+    const out: Ingredient[] = [];
+    for (const word of words(t)) {
+      const known = ingredientNamed(word);
+      if (!known) return new Problem(`"${word}" is not an ingredient Jugline knows: ${INGREDIENT_NAMES.join(', ')}`);
+      out.push(known);
+    }
+    return inOrder(out);
+  };
+  const list = allergensOf(ctx.allergenList);
   const allergens: Reader<string[]> = (t) => {
     const out: string[] = [];
-    for (const word of t.split(';').map((w) => w.trim()).filter(Boolean)) {
-      const known = ctx.allergens.find((a) => a.toLowerCase() === word.toLowerCase());
-      if (!known) return new Problem(`"${word}" is not on the café's allergen list (${ctx.allergenListName}): ${ctx.allergens.join(', ')}`);
-      if (!out.includes(known)) out.push(known);
+    for (const word of words(t)) {
+      const known = list.find((a) => a.toLowerCase() === word.toLowerCase());
+      if (!known) return new Problem(`"${word}" is not on the café's allergen list (${ctx.allergenList}): ${list.join(', ')}`);
+      out.push(known);
     }
     return out;
   };
@@ -190,6 +209,7 @@ export function menuCsvRowSchema(ctx: MenuCsvContext) {
       takes_milk: column(yesNo),
       default_milk: column(milk),
       texture: column(texture),
+      ingredients: column(ingredients),
       allergens: column(allergens),
       default_size: column(yesNo),
     })
@@ -201,6 +221,12 @@ export function menuCsvRowSchema(ctx: MenuCsvContext) {
         const recipe = (['dose_g', 'yield_g', 'milk_ml'] as const).filter((c) => r[c] !== 0);
         for (const c of recipe) at(c, 'An item without sizes keeps no recipe; give the row a size');
       } else if (r.volume_ml === null || r.volume_ml === 0) at('volume_ml', 'Needed for a size, like 350');
+      // the export writes the allergens for reading; a file that says otherwise is asked to change the ingredients
+      const derived = allergensFrom(r.ingredients, ctx.allergenList);
+      if (r.allergens.length > 0 && !sameSet(r.allergens, derived)) {
+        const says = derived.join('; ') || 'none';
+        at('allergens', `The allergens follow from the ingredients, which contain ${says} on the ${ctx.allergenList} list: change the ingredients, or leave this cell empty`);
+      }
       if (!r.takes_milk) {
         if (r.default_milk !== null) at('default_milk', 'Only for an item that takes milk (takes_milk yes)');
         if (r.milk_ml !== 0) at('milk_ml', 'Only for an item that takes milk (takes_milk yes)');
@@ -221,7 +247,7 @@ export function menuCsvRowSchema(ctx: MenuCsvContext) {
         takesMilk: r.takes_milk,
         defaultMilk: r.default_milk,
         texture: r.texture,
-        allergens: r.allergens,
+        ingredients: r.ingredients,
         defaultSize: r.default_size,
       }),
     );
@@ -246,7 +272,12 @@ function readHeader(header: string[], errors: RowError[]): Map<MenuCsvColumn, nu
     else if (at.has(n as MenuCsvColumn)) errors.push({ row: 1, column: n as MenuCsvColumn, message: 'This column appears twice' });
     else at.set(n as MenuCsvColumn, i);
   });
-  for (const c of MENU_CSV_COLUMNS) if (!at.has(c)) errors.push({ row: 1, column: c, message: 'Column missing from the first row' });
+  for (const c of MENU_CSV_COLUMNS) {
+    if (at.has(c) || OPTIONAL_COLUMNS.includes(c)) continue;
+    // a file from before ingredients: say what the new column is for
+    const message = c === 'ingredients' ? 'Column missing from the first row: list what each item contains (e.g. wheat; egg); the allergens follow from it' : 'Column missing from the first row';
+    errors.push({ row: 1, column: c, message });
+  }
   return at;
 }
 
@@ -269,7 +300,7 @@ export function readMenuCsv(parsed: Papa.ParseResult<string[]>, ctx: MenuCsvCont
   body.forEach((cellsIn, i) => {
     const row = i + 2;
     if (cellsIn.every((c) => c.trim() === '')) return; // blank lines between rows are fine
-    const cells = Object.fromEntries(MENU_CSV_COLUMNS.map((c) => [c, cleanCell(cellsIn[at.get(c)!] ?? '')])) as MenuCsvCells;
+    const cells = Object.fromEntries(MENU_CSV_COLUMNS.map((c) => [c, at.has(c) ? cleanCell(cellsIn[at.get(c)!] ?? '') : ''])) as MenuCsvCells;
     // more cells than columns shifts every cell after the extra one: say that alone, not fifteen other things
     if (cellsIn.length > header.length && cellsIn.slice(header.length).some((c) => c.trim() !== '')) {
       const message = `This row has ${cellsIn.length} cells but there are ${header.length} columns; is there a comma inside a value? Put that value in quotes`;
@@ -289,7 +320,7 @@ export function readMenuCsv(parsed: Papa.ParseResult<string[]>, ctx: MenuCsvCont
   return { rows, errors: errors.sort((a, b) => a.row - b.row) };
 }
 
-/** The text of an uploaded file → rows and problems. Commas only: allergens use ";" inside a cell. */
+/** The text of an uploaded file → rows and problems. Commas only: ingredients and allergens use ";" inside a cell. */
 export function parseMenuCsv(text: string, ctx: MenuCsvContext): MenuCsvRead {
   return readMenuCsv(Papa.parse<string[]>(text, { delimiter: ',', skipEmptyLines: false }), ctx);
 }
@@ -303,7 +334,7 @@ export interface ImportItem {
   takesMilk: boolean;
   defaultMilk: string | null;
   texture: Texture | null;
-  allergens: string[];
+  ingredients: Ingredient[];
   /** Rows in file order; one row with size null for an item without sizes. */
   rows: { row: number; data: MenuCsvRow }[];
 }
@@ -323,7 +354,7 @@ export function groupMenuRows(rows: ReadRow[]): ImportItem[] {
       takesMilk: data.takesMilk,
       defaultMilk: data.defaultMilk,
       texture: data.texture,
-      allergens: data.allergens,
+      ingredients: data.ingredients,
       rows: [],
     };
     item.rows.push({ row, data });
@@ -337,7 +368,7 @@ const ITEM_FIELDS = [
   ['takes_milk', 'takes_milk', (r: MenuCsvRow) => (r.takesMilk ? 'yes' : 'no')],
   ['default_milk', 'default milk', (r: MenuCsvRow) => r.defaultMilk ?? 'none'],
   ['texture', 'texture', (r: MenuCsvRow) => r.texture ?? 'none'],
-  ['allergens', 'allergen list', (r: MenuCsvRow) => [...r.allergens].sort().join('; ') || 'none'],
+  ['ingredients', 'list of ingredients', (r: MenuCsvRow) => r.ingredients.join('; ') || 'none'],
 ] as const;
 
 /** An item's rows must agree on the item's own fields; a (category, item, size) appears once. */
@@ -390,6 +421,7 @@ export function menuCsvCells(menu: MenuView): MenuCsvCells[] {
         takes_milk: item.takesMilk ? 'yes' : 'no',
         default_milk: (item.defaultMilkId !== null && milkCode.get(item.defaultMilkId)) || '',
         texture: item.texture ?? '',
+        ingredients: item.ingredients.join('; '),
         allergens: item.allergens.join('; '),
       };
       if (item.sizes.length === 0) {

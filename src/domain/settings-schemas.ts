@@ -2,7 +2,8 @@
 // the checks of time zone, currency and locale against the runtime's Intl data, and the view
 // GET /api/settings answers with.
 import { z } from 'zod';
-import { EU_ALLERGENS, US_ALLERGENS, type AllergenList } from './allergens';
+import type { AllergenSwitchPreview } from './allergen-switch';
+import type { AllergenList } from './allergens';
 import { plainText } from './text';
 import { TEMPERATURE_UNITS, VOLUME_UNITS, type TemperatureUnit, type VolumeUnit } from './units';
 
@@ -126,14 +127,10 @@ export type SettingKey = keyof typeof SETTINGS_FIELDS;
 
 /**
  * PUT /api/settings: any of the settings (a form section sends its own), at least one. Switching
- * the allergen list needs `allergenRetag` for every tag the menu carries that the new list lacks:
- * tag → a tag of the new list, or null to drop it. The owner decides; the server never guesses.
+ * the allergen list rewrites nothing: the menu's allergens are worked out from its ingredients.
  */
 export const settingsBody = z
-  .strictObject({
-    ...SETTINGS_FIELDS,
-    allergenRetag: z.record(plainText().min(1).max(40), plainText().min(1).max(40).nullable()),
-  })
+  .strictObject(SETTINGS_FIELDS)
   .partial()
   .refine((b) => Object.keys(SETTINGS_FIELDS).some((k) => b[k as SettingKey] !== undefined), 'Change at least one setting');
 export type SettingsBody = z.infer<typeof settingsBody>;
@@ -148,47 +145,6 @@ export const pitcherBody = z
   .refine((p) => p.fillLineMl <= p.capacityMl, { path: ['fillLineMl'], message: 'The fill line cannot be above the capacity' })
   .refine((p) => p.minFillMl === undefined || p.minFillMl <= p.fillLineMl, { path: ['minFillMl'], message: 'The minimum cannot be above the fill line' });
 export type PitcherBody = z.infer<typeof pitcherBody>;
-
-// ---------------------------------------------------------------- switching allergen lists
-
-/**
- * Where the two published lists name the same allergen differently. US → EU: crustacean
- * shellfish are Annex II "crustaceans"; wheat is a "cereal containing gluten"; the EU's eight
- * "nuts" are all on the FDA's tree-nut list, so "tree nuts" → "nuts" (it over-flags a nut the EU
- * list doesn't name, such as pine nut, which errs safe). EU → US: "nuts" → "tree nuts",
- * "crustaceans" → "crustacean shellfish"; "cereals containing gluten" has no US equal (oats,
- * barley and rye are not US major allergens) and celery, mustard, sulphites, lupin and molluscs
- * are not on the US list: no suggestion, the owner decides.
- */
-export const ALLERGEN_EQUIVALENTS: Record<AllergenList, Record<string, string>> = {
-  EU: { 'crustacean shellfish': 'crustaceans', 'tree nuts': 'nuts', wheat: 'cereals containing gluten' },
-  US: { crustaceans: 'crustacean shellfish', nuts: 'tree nuts' },
-};
-
-export const listOf = (list: AllergenList): readonly string[] => (list === 'EU' ? EU_ALLERGENS : US_ALLERGENS);
-
-/** A milk, extra or menu item whose tags the new list does not have. */
-export interface UnlistedTags {
-  kind: 'milk' | 'modifier' | 'item';
-  id: number;
-  name: string;
-  tags: string[];
-}
-
-/** The 409's details when a switch needs the owner's choices. */
-export interface AllergenSwitchConflict {
-  to: AllergenList;
-  unlisted: UnlistedTags[];
-  /** For each tag: the new list's equivalent, or null where there is none. */
-  suggestions: Record<string, string | null>;
-}
-
-/** The tags after a switch: each mapped by the owner's choice, dropped on null, deduplicated. */
-export function retagged(tags: readonly string[], to: AllergenList, choice: Record<string, string | null>): string[] {
-  const list = listOf(to);
-  const out = tags.flatMap((t) => (list.includes(t) ? [t] : choice[t] ? [choice[t]!] : []));
-  return [...new Set(out)];
-}
 
 // ---------------------------------------------------------------- the view
 
@@ -226,4 +182,6 @@ export interface SettingsPage {
   pitchers: PitcherView[];
   /** The cup sizes on the menu now, for the units preview. */
   cupSizes: { volumeMl: number; names: string[] }[];
+  /** What switching to the other allergen list would change on the menu, for the owner to read first. */
+  allergenSwitch: AllergenSwitchPreview;
 }

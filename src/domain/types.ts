@@ -46,6 +46,7 @@ export interface MilkView {
   /** Two-letter badge shown on lane headers, chosen in the menu. */
   code: string;
   upchargeCents: number;
+  /** Worked out from its ingredients for the café's list. */
   allergens: string[];
 }
 
@@ -71,6 +72,7 @@ export interface ModifierView {
   groupName: string;
   name: string;
   priceCents: number;
+  /** Worked out from its ingredients for the café's list. */
   allergens: string[];
 }
 
@@ -93,6 +95,9 @@ export interface MenuItemView {
   defaultMilkId: number | null;
   texture: Texture | null;
   available: boolean;
+  /** What it contains (src/domain/ingredients.ts), as the owner recorded it. */
+  ingredients: string[];
+  /** Worked out from the ingredients for the café's list; its milk and extras add their own. */
   allergens: string[];
   sizes: SizeView[];
   /** The extras offered on this item, by group. */

@@ -36,7 +36,7 @@ function AdminSettings() {
           <CafeSection settings={settings} />
           <MoneySection settings={settings} />
           <UnitsSection page={page} />
-          <AllergensSection settings={settings} />
+          <AllergensSection page={page} />
         </div>
         <div className="flex flex-col gap-5">
           <BarSection settings={settings} />

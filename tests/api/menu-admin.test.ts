@@ -65,7 +65,7 @@ const latteBody = (name: string, over: Record<string, unknown> = {}) => ({
   takesMilk: true,
   defaultMilkId: ids.milk('Whole'),
   texture: 'silky',
-  allergens: [],
+  ingredients: [],
   modifierGroupIds: [syrupGroup],
   sizes: [size(), size({ name: '16 oz', volumeMl: 473, cup: '16 oz cup', priceCents: 620, milkMl: 320, isDefault: false })],
   ...over,
@@ -148,7 +148,7 @@ describe('who may edit the menu', () => {
       ['post', '/menu-admin/modifier-groups/:id/retired', `/api/menu-admin/modifier-groups/${group}/retired`, { retired: true }],
       ['post', '/menu-admin/modifier-groups/:id/retired', `/api/menu-admin/modifier-groups/${group}/retired`, { retired: false }],
       ['post', '/menu-admin/modifiers', '/api/menu-admin/modifiers', { groupId: group, name: 'Guard extra 2', priceCents: 25 }],
-      ['put', '/menu-admin/modifiers/:id', `/api/menu-admin/modifiers/${modifier}`, { groupId: group, name: 'Guard extra', priceCents: 30, allergens: ['milk'] }],
+      ['put', '/menu-admin/modifiers/:id', `/api/menu-admin/modifiers/${modifier}`, { groupId: group, name: 'Guard extra', priceCents: 30, ingredients: ["cow's milk"] }],
       ['post', '/menu-admin/modifiers/:id/move', `/api/menu-admin/modifiers/${modifier}/move`, { direction: 'down' }],
       ['post', '/menu-admin/modifiers/:id/retired', `/api/menu-admin/modifiers/${modifier}/retired`, { retired: true }],
       ['post', '/menu-admin/modifiers/:id/retired', `/api/menu-admin/modifiers/${modifier}/retired`, { retired: false }],
@@ -222,8 +222,9 @@ describe('items and recipes', () => {
     await expectInvalid(post(latteBody('Sizeless Latte', { sizes: [] })), 'sizes');
     await expectInvalid(post({ ...latteBody('Extra Key'), colour: 'red' }), '');
     await expectInvalid(post({ categoryId: espressoCategory, name: 'Priceless scone', station: 'counter', takesMilk: false }), 'priceCents');
-    // the US list has no "gluten": tags must come from the café's published list
-    await expectInvalid(post(latteBody('Gluten Latte', { allergens: ['gluten'] })), 'allergens.0');
+    // ingredients come from Jugline's own list; an allergen of a published list is no ingredient
+    await expectInvalid(post(latteBody('Gluten Latte', { ingredients: ['gluten'] })), 'ingredients.0');
+    await expectInvalid(post(latteBody('Tagged Latte', { allergens: ['milk'] })), '');
   });
 
   it('an item without milk or shots: milk and dose must be nothing', async () => {
@@ -233,8 +234,9 @@ describe('items and recipes', () => {
     const { id } = await create('items', tea);
     const made = (await counterMenu()).items.find((i) => i.id === id)!;
     expect(made).toMatchObject({ takesMilk: false, texture: null, defaultMilkId: null, shots: 0 });
-    const scone = await create('items', { categoryId: espressoCategory, name: 'Hearth Scone', station: 'counter', takesMilk: false, priceCents: 375, allergens: ['wheat', 'milk'] });
-    expect((await counterMenu()).items.find((i) => i.id === scone.id)).toMatchObject({ priceCents: 375, sizes: [], allergens: ['wheat', 'milk'] });
+    const scone = await create('items', { categoryId: espressoCategory, name: 'Hearth Scone', station: 'counter', takesMilk: false, priceCents: 375, ingredients: ['wheat', "cow's milk"] });
+    // stored in the editor's order; FALCPA + FASTER Act list order for the allergens
+    expect((await counterMenu()).items.find((i) => i.id === scone.id)).toMatchObject({ priceCents: 375, sizes: [], ingredients: ["cow's milk", 'wheat'], allergens: ['milk', 'wheat'] });
   });
 
   it('a second item of the same name on sale is a 409', async () => {
@@ -357,7 +359,7 @@ describe('categories', () => {
 
 describe('milks', () => {
   it('a new milk gets its lane code in capitals; a code in use (even by a retired milk) is a 409', async () => {
-    const { id, menu } = await create('milks', { name: 'Hemp', code: 'he', upchargeCents: 80, allergens: [] });
+    const { id, menu } = await create('milks', { name: 'Hemp', code: 'he', upchargeCents: 80, ingredients: [] });
     expect(menu.milks.find((m) => m.id === id)).toMatchObject({ code: 'HE', upchargeCents: 80, retired: false });
     expect((await counterMenu()).milks.find((m) => m.id === id)).toMatchObject({ name: 'Hemp', code: 'HE' });
     await expectRefused(409, () => owner.post('/api/menu-admin/milks').send({ name: 'Oat again', code: 'OA', upchargeCents: 0 }));
@@ -368,7 +370,28 @@ describe('milks', () => {
     await owner.post(`/api/menu-admin/milks/${id}/retired`).send({ retired: false }).expect(200);
     await expectInvalid(() => owner.post('/api/menu-admin/milks').send({ name: 'Pea', code: 'P1', upchargeCents: 0 }), 'code');
     await expectInvalid(() => owner.post('/api/menu-admin/milks').send({ name: 'Pea', code: 'PE', upchargeCents: -1 }), 'upchargeCents');
-    await expectInvalid(() => owner.post('/api/menu-admin/milks').send({ name: 'Pea', code: 'PE', upchargeCents: 0, allergens: ['nuts'] }), 'allergens.0');
+    await expectInvalid(() => owner.post('/api/menu-admin/milks').send({ name: 'Pea', code: 'PE', upchargeCents: 0, ingredients: ['nuts'] }), 'ingredients.0');
+  });
+
+  it('the owner records what a milk is made of; the editor and the Counter show the allergens for the café\'s list', async () => {
+    const { id, menu } = await create('milks', { name: 'Hazelnut', code: 'HZ', upchargeCents: 90, ingredients: ['hazelnut', 'rice'] });
+    // FALCPA tree nuts (the FDA's twelve include hazelnut, Edition 5); rice is on neither list
+    expect(menu.milks.find((m) => m.id === id)).toMatchObject({ ingredients: ['rice', 'hazelnut'], allergens: ['tree nuts'] });
+    expect((await counterMenu()).milks.find((m) => m.id === id)!.allergens).toEqual(['tree nuts']);
+    await owner.put(`/api/menu-admin/milks/${id}`).send({ name: 'Hazelnut', code: 'HZ', upchargeCents: 90, ingredients: ['oats', 'hazelnut'] }).expect(200);
+    const edited = (await editable()).milks.find((m) => m.id === id)!;
+    // oats are not a US major allergen (FALCPA names wheat only)
+    expect(edited).toMatchObject({ ingredients: ['oats', 'hazelnut'], allergens: ['tree nuts'] });
+    await owner.post(`/api/menu-admin/milks/${id}/retired`).send({ retired: true }).expect(200);
+  });
+
+  it('an extra carries what it adds: an order with it contains that allergen', async () => {
+    const { id } = await create('modifiers', { groupId: syrupGroup, name: 'Almond syrup', priceCents: 60, ingredients: ['almond'] });
+    expect((await counterMenu()).modifiers.find((m) => m.id === id)!.allergens).toEqual(['tree nuts']); // §201(qq)
+    const order = await cashier.post('/api/orders').send(orderBody('Ida Marsh', [{ menuItemId: ids.item('Latte'), milkId: ids.milk('Oat'), modifierIds: [id] }])).expect(201);
+    const drink = await server.db('order_items').where({ order_id: order.body.order.id }).first('contains');
+    expect(JSON.parse(drink.contains)).toEqual(['tree nuts']); // oat milk adds none on the US list
+    await owner.post(`/api/menu-admin/modifiers/${id}/retired`).send({ retired: true }).expect(200);
   });
 
   it('the milk drinks come with cannot be retired until they come with another', async () => {
@@ -382,7 +405,7 @@ describe('groups of extras', () => {
     const latte = ids.item('Latte');
     await expectRefused(409, () => owner.post('/api/menu-admin/modifier-groups').send({ name: 'Spice', selection: 'single', required: true, itemIds: [latte] }));
     const { id: group } = await create('modifier-groups', { name: 'Spice', selection: 'single', required: false, itemIds: [latte] });
-    const { id: cinnamon } = await create('modifiers', { groupId: group, name: 'Cinnamon', priceCents: 40, allergens: [] });
+    const { id: cinnamon } = await create('modifiers', { groupId: group, name: 'Cinnamon', priceCents: 40, ingredients: [] });
     await owner.put(`/api/menu-admin/modifier-groups/${group}`).send({ name: 'Spice', selection: 'single', required: true, itemIds: [latte] }).expect(200);
     let menu = await counterMenu();
     expect(menu.items.find((i) => i.id === latte)!.modifierGroupIds).toContain(group);

@@ -44,7 +44,7 @@ describe('who may import and export', () => {
   it.each(['cashier', 'barista', 'lead'] as const)('%s gets 403 on every import route and nothing changes', async (login) => {
     const agent = await server.signIn(login);
     const before = await menuSnapshot();
-    const file = csv('Food,Scone,counter,,,3.50,0,,,,no,,,wheat,no');
+    const file = csv('Food,Scone,counter,,,3.50,0,,,,no,,,wheat,,no');
     for (const res of [await agent.get('/api/menu/export.csv'), await send(agent, '/menu/import/preview', file), await send(agent, '/menu/import', file)]) {
       expect(res.status).toBe(403);
       expect(res.body.error.code).toBe('forbidden');
@@ -68,8 +68,9 @@ describe('export', () => {
     const lines = text.split('\r\n');
     expect(lines[0]).toBe(MENU_CSV_COLUMNS.map((c) => `"${c}"`).join(','));
     // the demo seed's latte: 19 g in, 38 g out, 270 mL of whole milk in a Regular at 5.40
-    expect(lines).toContain('"Espresso","Latte","bar","Regular","350","5.40","2","19","38","270","yes","WH","silky","","yes"');
-    expect(lines).toContain('"Food","Almond croissant","counter","","","4.95","0","","","","no","","","tree nuts; wheat; milk; eggs","no"');
+    expect(lines).toContain('"Espresso","Latte","bar","Regular","350","5.40","2","19","38","270","yes","WH","silky","","","yes"');
+    // its ingredients as recorded, and the allergens they give on the US list (FALCPA + FASTER Act order)
+    expect(lines).toContain(`"Food","Almond croissant","counter","","","4.95","0","","","","no","","","cow's milk; egg; wheat; almond","milk; eggs; tree nuts; wheat","no"`);
     const sizes = Number((await server.db('item_sizes').whereNull('retired_at').count({ n: '*' }).first())?.n);
     const unsized = Number((await server.db('menu_items').whereNull('price_cents').count({ n: '*' }).first())?.n);
     const items = Number((await server.db('menu_items').count({ n: '*' }).first())?.n);
@@ -90,13 +91,30 @@ describe('export', () => {
     expect(await menuSnapshot()).toEqual(before);
     expect(await exported()).toBe(text);
   });
+
+  it('under the EU list writes the EU allergens, and that file too imports back unchanged', async () => {
+    await owner.put('/api/settings').send({ allergenList: 'EU' }).expect(200);
+    try {
+      const text = await exported();
+      // Regulation (EU) No 1169/2011 Annex II: wheat is a cereal containing gluten, almonds are nuts
+      expect(text.split('\r\n')).toContain(
+        `"Food","Almond croissant","counter","","","4.95","0","","","","no","","","cow's milk; egg; wheat; almond","cereals containing gluten; eggs; milk; nuts","no"`,
+      );
+      const res = await send(owner, '/menu/import', text);
+      expect(res.status).toBe(200);
+      expect(res.body.updated).toBe(0);
+      expect(await exported()).toBe(text);
+    } finally {
+      await owner.put('/api/settings').send({ allergenList: 'US' }).expect(200);
+    }
+  });
 });
 
 describe('import', () => {
-  const scone = 'Baked,Cheese scone,counter,,,3.75,0,,,,no,,,wheat; milk,no';
-  const cortado = 'Espresso,Cortado,bar,Regular,120,4.20,2,18.5,37,60,yes,OA,flat,,yes';
-  const latteUp = 'Espresso,Latte,bar,Regular,350,5.60,2,19,38,270,yes,WH,silky,,yes';
-  const bad = 'Espresso,Mocha,bar,Regular,350,5.8O,2,19,38,250,yes,WH,silky,,yes';
+  const scone = "Baked,Cheese scone,counter,,,3.75,0,,,,no,,,wheat; cow's milk,milk; wheat,no";
+  const cortado = 'Espresso,Cortado,bar,Regular,120,4.20,2,18.5,37,60,yes,OA,flat,,,yes';
+  const latteUp = 'Espresso,Latte,bar,Regular,350,5.60,2,19,38,270,yes,WH,silky,,,yes';
+  const bad = 'Espresso,Mocha,bar,Regular,350,5.8O,2,19,38,250,yes,WH,silky,,,yes';
 
   it('a preview shows each row\'s action and errors and saves nothing', async () => {
     const before = await menuSnapshot();
@@ -137,7 +155,7 @@ describe('import', () => {
       category_id: baked.id,
       station: 'counter',
       price_cents: 375,
-      allergens: '["wheat","milk"]',
+      ingredients: '["cow\'s milk","wheat"]',
       available: 1,
     });
     const cortadoRow = await server.db('menu_items').where({ name: 'Cortado' }).first();
@@ -165,7 +183,7 @@ describe('import', () => {
 
   it('matches names without regard to case, keeps the menu\'s spelling, and moves the default size', async () => {
     const before = await menuSnapshot();
-    const res = await send(owner, '/menu/import', csv('espresso,LATTE,bar,large,470,5.90,2,19,38,360,yes,WH,silky,,yes'));
+    const res = await send(owner, '/menu/import', csv('espresso,LATTE,bar,large,470,5.90,2,19,38,360,yes,WH,silky,,,yes'));
     expect(res.status).toBe(200);
     expect(res.body).toEqual({ rows: 1, added: 0, updated: 1, unchanged: 0 });
     const latte = await server.db('menu_items').where({ name: 'Latte' }).first();
@@ -183,7 +201,7 @@ describe('import', () => {
     const res = await send(
       owner,
       '/menu/import',
-      csv('Espresso,Latte,bar,,,5.00,2,,,,yes,WH,silky,,no', 'Espresso,Flat white,bar,Regular,160,4.60,2,19,38,120,yes,WH,flat,,yes', 'Espresso,Flat white,bar,Large,240,5.20,2,19,38,180,yes,OA,flat,,no'),
+      csv('Espresso,Latte,bar,,,5.00,2,,,,yes,WH,silky,,,no', 'Espresso,Flat white,bar,Regular,160,4.60,2,19,38,120,yes,WH,flat,,,yes', 'Espresso,Flat white,bar,Large,240,5.20,2,19,38,180,yes,OA,flat,,,no'),
     );
     expect(res.status).toBe(400);
     expect(res.body.error.details).toEqual([
@@ -193,12 +211,23 @@ describe('import', () => {
     expect(await menuSnapshot()).toEqual(before);
   });
 
-  it('refuses allergens that are not on the café\'s list and milk codes not on the menu', async () => {
+  it('refuses allergens off the café\'s list or not following from the ingredients, unknown ingredients and milk codes not on the menu', async () => {
     const before = await menuSnapshot();
-    const res = await send(owner, '/menu/import', csv('Food,Macaroon,counter,,,2.50,0,,,,no,,,coconut,no', 'Espresso,Breve,bar,Regular,240,5.00,2,19,38,200,yes,HH,silky,milk,yes'));
+    const res = await send(
+      owner,
+      '/menu/import',
+      csv(
+        // coconut is not a US major allergen (FDA Q&A Edition 5, January 2025)
+        'Food,Macaroon,counter,,,2.50,0,,,,no,,,coconut,coconut,no',
+        "Espresso,Breve,bar,Regular,240,5.00,2,19,38,200,yes,HH,silky,cow's milk,milk,yes",
+        'Food,Flapjack,counter,,,2.80,0,,,,no,,,oat,,no',
+        // oats are not among FALCPA's nine: a file claiming wheat is asked to fix the ingredients
+        'Food,Oat bar,counter,,,2.80,0,,,,no,,,oats,wheat,no',
+      ),
+    );
     expect(res.status).toBe(400);
-    expect(res.body.error.message).toBe('2 rows need fixing; nothing was imported');
-    expect(res.body.error.details.map((d: { path: string }) => d.path)).toEqual(['row.2.allergens', 'row.3.default_milk']);
+    expect(res.body.error.message).toBe('4 rows need fixing; nothing was imported');
+    expect(res.body.error.details.map((d: { path: string }) => d.path)).toEqual(['row.2.allergens', 'row.3.default_milk', 'row.4.ingredients', 'row.5.allergens']);
     expect(await menuSnapshot()).toEqual(before);
   });
 });
@@ -206,8 +235,8 @@ describe('import', () => {
 describe('files that are not a menu CSV', () => {
   it.each([
     ['a .txt file', () => send(owner, '/menu/import', csv(), 'menu.txt', 'text/plain'), 415],
-    ['a file over 256 KB', () => send(owner, '/menu/import', csv('Food,Scone,counter,,,3.50,0,,,,no,,,,no') + ' '.repeat(MENU_CSV_MAX_BYTES)), 413],
-    ['Latin-1 text', () => send(owner, '/menu/import', Buffer.from(csv('Food,Café crème,counter,,,3.50,0,,,,no,,,,no'), 'latin1')), 400],
+    ['a file over 256 KB', () => send(owner, '/menu/import', csv('Food,Scone,counter,,,3.50,0,,,,no,,,,,no') + ' '.repeat(MENU_CSV_MAX_BYTES)), 413],
+    ['Latin-1 text', () => send(owner, '/menu/import', Buffer.from(csv('Food,Café crème,counter,,,3.50,0,,,,no,,,,,no'), 'latin1')), 400],
     ['a binary file named .csv', () => send(owner, '/menu/import', Buffer.from([0x50, 0x4b, 0x03, 0x04, 0, 0, 0, 0])), 415],
     ['no file at all (JSON)', () => owner.post('/api/menu/import').send({ file: 'category,item' }), 400],
     ['the file in another field', () => owner.post('/api/menu/import').attach('upload', Buffer.from(csv()), 'menu.csv'), 400],

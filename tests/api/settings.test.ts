@@ -23,16 +23,15 @@ async function stored() {
   return {
     location: await server.db('locations').orderBy('id'),
     pitchers: await server.db('pitchers').orderBy('id'),
-    milks: await server.db('milk_options').orderBy('id').select('id', 'allergens'),
-    modifiers: await server.db('modifiers').orderBy('id').select('id', 'allergens'),
-    items: await server.db('menu_items').orderBy('id').select('id', 'allergens'),
+    milks: await server.db('milk_options').orderBy('id').select('id', 'ingredients'),
+    modifiers: await server.db('modifiers').orderBy('id').select('id', 'ingredients'),
+    items: await server.db('menu_items').orderBy('id').select('id', 'ingredients'),
     events: Number((await server.db('events').count({ n: '*' }).first())?.n),
   };
 }
 
 const page = async (): Promise<SettingsPage> => (await owner.get('/api/settings').expect(200)).body;
 const fieldsOf = (body: { error: { details?: { path: string }[] } }) => (body.error.details ?? []).map((d) => d.path);
-const tagsOf = async (table: string, name: string) => JSON.parse((await server.db(table).where({ name }).first()).allergens) as string[];
 
 describe('GET /api/settings', () => {
   it('shows the owner the demo café as seeded, with its pitchers and the cup sizes on the menu', async () => {
@@ -186,55 +185,59 @@ describe('PUT /api/settings saves good values', () => {
 });
 
 describe('switching the allergen list', () => {
-  it('US → EU is refused (409) while menu tags are off the EU list, listing them with the published equivalents', async () => {
+  // Finding: switching to the EU list left oat milk untagged. Regulation (EU) No 1169/2011 Annex II
+  // item 1 names oats among the cereals containing gluten (docs/check-values.md, "Allergens"); the
+  // allergens follow from what the milk is made of, so the switch needs no retagging step.
+  it('US → EU: oat milk contains cereals containing gluten at once; back to US it contains none', async () => {
+    const milk = async (name: string) => ((await owner.get('/api/menu').expect(200)).body as MenuView).milks.find((m) => m.name === name)!;
+    const toEu = await owner.put('/api/settings').send({ allergenList: 'EU' });
+    expect(toEu.status).toBe(200);
+    expect((await milk('Oat')).allergens).toEqual(['cereals containing gluten']); // Annex II item 1
+    const toUs = await owner.put('/api/settings').send({ allergenList: 'US' });
+    expect(toUs.status).toBe(200);
+    expect((await milk('Oat')).allergens).toEqual([]); // oats are not among FALCPA's nine
+  });
+
+  it('Settings shows what the other list changes before the owner switches: per entry, both lists, from the ingredients', async () => {
+    const preview = (await page()).allergenSwitch;
+    expect(preview).toMatchObject({ from: 'US', to: 'EU', toCheck: [] });
+    const row = (name: string) => preview.changed.find((c) => c.name === name);
+    // Annex II item 1 (oats); item 8 (almonds) against FALCPA's "tree nuts"; wheat is a cereal containing gluten
+    expect(row('Oat')).toEqual({ kind: 'milk', id: expect.any(Number), name: 'Oat', ingredients: ['oats'], before: [], after: ['cereals containing gluten'] });
+    expect(row('Almond')).toMatchObject({ kind: 'milk', before: ['tree nuts'], after: ['nuts'] });
+    expect(row('Almond croissant')).toMatchObject({ before: ['milk', 'eggs', 'tree nuts', 'wheat'], after: ['cereals containing gluten', 'eggs', 'milk', 'nuts'] });
+    // milk is milk and coconut is in neither list (FDA Q&A Edition 5, January 2025): unchanged
+    expect(row('Whole')).toBeUndefined();
+    expect(row('Coconut')).toBeUndefined();
+    expect(preview.unchanged).toBeGreaterThan(0);
+  });
+
+  it('a switch rewrites nothing stored but the list; the Counter menu reads the allergens under the new list', async () => {
     const before = await stored();
     const res = await owner.put('/api/settings').send({ allergenList: 'EU' });
-    expect(res.status).toBe(409);
-    const details = res.body.error.details;
-    expect(details.to).toBe('EU');
-    expect(details.unlisted).toEqual(
-      expect.arrayContaining([
-        { kind: 'milk', id: expect.any(Number), name: 'Almond', tags: ['tree nuts'] },
-        { kind: 'item', id: expect.any(Number), name: 'Almond croissant', tags: ['tree nuts', 'wheat'] },
-      ]),
-    );
-    // milk and eggs are on both lists (FALCPA; Regulation (EU) 1169/2011 Annex II): not listed
-    expect(details.unlisted.flatMap((u: { tags: string[] }) => u.tags)).not.toContain('milk');
-    // Annex II item 8 names almonds among "nuts"; item 1 names wheat among cereals containing gluten
-    expect(details.suggestions).toEqual({ 'tree nuts': 'nuts', wheat: 'cereals containing gluten' });
-    expect(await stored()).toEqual(before);
-  });
-
-  it('a retag onto a tag that is not on the new list is 400 and changes nothing', async () => {
-    const before = await stored();
-    const res = await owner.put('/api/settings').send({ allergenList: 'EU', allergenRetag: { 'tree nuts': 'tree nuts', wheat: 'cereals containing gluten' } });
-    expect(res.status).toBe(400);
-    expect(fieldsOf(res.body)).toEqual(['allergenRetag.tree nuts']);
-    expect(await stored()).toEqual(before);
-  });
-
-  it('with the owner’s choices it switches and retags the menu in one go; back to US needs a choice for gluten', async () => {
-    const res = await owner
-      .put('/api/settings')
-      .send({ allergenList: 'EU', allergenRetag: { 'tree nuts': 'nuts', wheat: 'cereals containing gluten' } });
     expect(res.status).toBe(200);
-    expect(res.body.settings.allergenList).toBe('EU');
-    expect(await tagsOf('milk_options', 'Almond')).toEqual(['nuts']);
-    expect(await tagsOf('milk_options', 'Whole')).toEqual(['milk']);
-    expect(await tagsOf('menu_items', 'Almond croissant')).toEqual(['nuts', 'cereals containing gluten', 'milk', 'eggs']);
+    expect((res.body as SettingsPage).allergenSwitch).toMatchObject({ from: 'EU', to: 'US' });
+    const after = await stored();
+    expect({ ...after, location: undefined, events: undefined }).toEqual({ ...before, location: undefined, events: undefined });
+    expect(after.events).toBe(before.events + 1); // menu.changed: open Counters and Bars reload
 
-    // EU → US: "nuts" are all FDA tree nuts; "cereals containing gluten" may be oats, barley or rye,
-    // which are not US major allergens, so no suggestion
-    const back = await owner.put('/api/settings').send({ allergenList: 'US' });
-    expect(back.status).toBe(409);
-    expect(back.body.error.details.suggestions).toEqual({ nuts: 'tree nuts', 'cereals containing gluten': null });
+    const menu: MenuView = (await owner.get('/api/menu').expect(200)).body;
+    const milk = (name: string) => menu.milks.find((m) => m.name === name)!.allergens;
+    expect(milk('Almond')).toEqual(['nuts']); // Annex II item 8
+    expect(milk('Coconut')).toEqual([]); // not in Annex II
+    expect(menu.items.find((i) => i.name === 'Butter croissant')).toMatchObject({ ingredients: ["cow's milk", 'egg', 'wheat'], allergens: ['cereals containing gluten', 'eggs', 'milk'] });
 
-    await owner
-      .put('/api/settings')
-      .send({ allergenList: 'US', allergenRetag: { nuts: 'tree nuts', 'cereals containing gluten': 'wheat' } })
-      .expect(200);
-    expect(await tagsOf('menu_items', 'Almond croissant')).toEqual(['tree nuts', 'wheat', 'milk', 'eggs']);
-    expect(await tagsOf('milk_options', 'Almond')).toEqual(['tree nuts']);
+    await owner.put('/api/settings').send({ allergenList: 'US' }).expect(200);
+    const us: MenuView = (await owner.get('/api/menu').expect(200)).body;
+    expect(us.milks.find((m) => m.name === 'Almond')!.allergens).toEqual(['tree nuts']); // §201(qq)
+    expect(us.milks.find((m) => m.name === 'Coconut')!.allergens).toEqual([]); // FDA Edition 5: not a tree nut
+  });
+
+  it('the old retag field is gone: a body carrying it is 400 and changes nothing', async () => {
+    const before = await stored();
+    const res = await owner.put('/api/settings').send({ allergenList: 'EU', allergenRetag: { 'tree nuts': 'nuts' } });
+    expect(res.status).toBe(400);
+    expect(await stored()).toEqual(before);
   });
 });
 

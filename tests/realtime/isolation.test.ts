@@ -59,7 +59,7 @@ async function insertNorthCafe(db: TestServer['db']) {
       takes_milk: false,
       default_milk_id: null,
       texture: null,
-      allergens: JSON.stringify([]),
+      ingredients: JSON.stringify([]),
       sort: 0,
     })
     .returning('id');

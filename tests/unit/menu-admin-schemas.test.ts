@@ -10,7 +10,7 @@ describe('itemBody', () => {
   it('accepts a milk drink with its recipe and fills the defaults', () => {
     const r = itemBody.safeParse(latte());
     expect(r.success).toBe(true);
-    expect(r.data).toMatchObject({ allergens: [], modifierGroupIds: [], priceCents: null, sizes: [{ cup: null }] });
+    expect(r.data).toMatchObject({ ingredients: [], modifierGroupIds: [], priceCents: null, sizes: [{ cup: null }] });
   });
   it('keeps the ranges of the brief: price 0–100000 ¢, shots 0–4, dose 5–30 g, yield 0–120 g, milk 0–600 ml', () => {
     // the bounds themselves are allowed
@@ -38,6 +38,17 @@ describe('itemBody', () => {
   });
 });
 
+describe('ingredients in a body', () => {
+  it('takes only ingredients Jugline knows, once each, and stores them in the editor\'s order', () => {
+    expect(milkBody.parse({ name: 'Oat', code: 'OA', upchargeCents: 70, ingredients: ['oats'] }).ingredients).toEqual(['oats']);
+    // the allergens are worked out, never sent: a list tag is no ingredient
+    expect(paths(milkBody.safeParse({ name: 'Oat', code: 'OA', upchargeCents: 70, ingredients: ['cereals containing gluten'] }))).toEqual(['ingredients.0']);
+    expect(paths(milkBody.safeParse({ name: 'Oat', code: 'OA', upchargeCents: 70, allergens: ['milk'] }))).toEqual(['']);
+    expect(paths(itemBody.safeParse(latte({ ingredients: ['egg', 'egg'] })))).toEqual(['ingredients']);
+    expect(itemBody.parse(latte({ ingredients: ['egg', 'wheat', "cow's milk"] })).ingredients).toEqual(["cow's milk", 'egg', 'wheat']);
+  });
+});
+
 describe('milkBody', () => {
   it('takes a two-letter lane code in capitals', () => {
     expect(milkBody.parse({ name: 'Oat', code: ' oa ', upchargeCents: 70 }).code).toBe('OA');
@@ -55,7 +66,7 @@ const form = (over: Partial<ItemFormValues> = {}): ItemFormValues => ({
   takesMilk: true,
   defaultMilkId: '3',
   texture: 'silky',
-  allergens: [],
+  ingredients: [],
   modifierGroupIds: [2],
   sizes: [formSize(), formSize({ name: '16 oz', volumeMl: '473', cup: '16 oz cup', price: '6.20', milkMl: '320', isDefault: false })],
   ...over,

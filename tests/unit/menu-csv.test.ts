@@ -1,24 +1,23 @@
 import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
-import { US_ALLERGENS } from '../../src/domain/allergens';
 import { cleanCell, importSummary, MENU_CSV_COLUMNS, parseMenuCsv, readMenuCsv, writeMenuCsv, type MenuCsvContext } from '../../src/domain/menu-csv';
 import type { MenuItemView, MenuView } from '../../src/domain/types';
 import { PLAIN_TEXT_MESSAGE } from '../../src/domain/text';
 import { contrastRatio } from '../../src/lib/contrast';
 
 // The location's published list: US major food allergens (FALCPA 2004 + FASTER Act 2021,
-// check-values.md "Allergens").
-const ctx: MenuCsvContext = { allergens: US_ALLERGENS, allergenListName: 'US', milkCodes: ['WH', 'SK', 'OA'] };
+// docs/check-values.md "Allergens").
+const ctx: MenuCsvContext = { allergenList: 'US', milkCodes: ['WH', 'SK', 'OA'] };
 const HEADER = MENU_CSV_COLUMNS.join(',');
-const LATTE_REGULAR = 'Espresso,Latte,bar,Regular,350,5.40,2,19,38,270,yes,WH,silky,milk,yes';
-const LATTE_LARGE = 'Espresso,Latte,bar,Large,470,5.90,2,19,38,360,yes,WH,silky,milk,no';
-const CROISSANT = 'Food,Butter croissant,counter,,,4.25,0,,,,no,,,wheat; milk; eggs,no';
+const LATTE_REGULAR = "Espresso,Latte,bar,Regular,350,5.40,2,19,38,270,yes,WH,silky,cow's milk,milk,yes";
+const LATTE_LARGE = "Espresso,Latte,bar,Large,470,5.90,2,19,38,360,yes,WH,silky,cow's milk,milk,no";
+const CROISSANT = "Food,Butter croissant,counter,,,4.25,0,,,,no,,,wheat; cow's milk; egg,wheat; milk; eggs,no";
 const csv = (...lines: string[]) => [HEADER, ...lines].join('\r\n') + '\r\n';
 
 describe('reading a menu file', () => {
-  it('reads sized and unsized rows into cents, tenths of a gram and the list spelling of allergens', () => {
-    const { rows, errors } = parseMenuCsv(csv(LATTE_REGULAR, 'espresso,latte,BAR,Small,240,4.8,2,18.5,37,180,YES,wh,silky,Milk,no', CROISSANT), ctx);
+  it('reads sized and unsized rows into cents, tenths of a gram and the ingredients in their own spelling and order', () => {
+    const { rows, errors } = parseMenuCsv(csv(LATTE_REGULAR, 'espresso,latte,BAR,Small,240,4.8,2,18.5,37,180,YES,wh,silky,Cow’s Milk,Milk,no', CROISSANT), ctx);
     expect(errors).toEqual([]);
     expect(rows.map((r) => r.row)).toEqual([2, 3, 4]); // the header is row 1, as a spreadsheet numbers it
     expect(rows[0].data).toEqual({
@@ -35,16 +34,16 @@ describe('reading a menu file', () => {
       takesMilk: true,
       defaultMilk: 'WH',
       texture: 'silky',
-      allergens: ['milk'],
+      ingredients: ["cow's milk"],
       defaultSize: true,
     });
     // "4.8" is 480 cents, 18.5 g is 185 tenths (integer cents, DEVELOPERS.md; worked by hand)
-    expect(rows[1].data).toMatchObject({ priceCents: 480, doseDg: 185, yieldDg: 370, defaultMilk: 'WH', allergens: ['milk'], station: 'bar' });
-    expect(rows[2].data).toMatchObject({ size: null, volumeMl: null, priceCents: 425, doseDg: 0, milkMl: 0, allergens: ['wheat', 'milk', 'eggs'] });
+    expect(rows[1].data).toMatchObject({ priceCents: 480, doseDg: 185, yieldDg: 370, defaultMilk: 'WH', ingredients: ["cow's milk"], station: 'bar' });
+    expect(rows[2].data).toMatchObject({ size: null, volumeMl: null, priceCents: 425, doseDg: 0, milkMl: 0, ingredients: ["cow's milk", 'egg', 'wheat'] });
   });
 
   it('takes a quoted field with commas and doubled quotes as one cell (RFC 4180 §2.5–2.7)', () => {
-    const line = 'Espresso,"Latte, oat ""house""",bar,Regular,350,5.40,2,19,38,270,yes,OA,silky,,yes';
+    const line = 'Espresso,"Latte, oat ""house""",bar,Regular,350,5.40,2,19,38,270,yes,OA,silky,oats,,yes';
     const { rows, errors } = parseMenuCsv(csv(line), ctx);
     expect(errors).toEqual([]);
     expect(rows[0].data?.item).toBe('Latte, oat "house"');
@@ -69,7 +68,7 @@ describe('reading a menu file', () => {
   });
 
   it('refuses a line break inside a name, and counts a quoted multi-line cell as one row', () => {
-    const { errors } = parseMenuCsv(csv('Espresso,"Lat\r\nte",bar,Regular,350,5.40,2,19,38,270,yes,WH,silky,milk,yes', 'Espresso,Mocha,bar,Regular,350,x,2,19,38,250,yes,WH,silky,milk,yes'), ctx);
+    const { errors } = parseMenuCsv(csv('Espresso,"Lat\r\nte",bar,Regular,350,5.40,2,19,38,270,yes,WH,silky,,,yes', 'Espresso,Mocha,bar,Regular,350,x,2,19,38,250,yes,WH,silky,,,yes'), ctx);
     expect(errors).toEqual([
       { row: 2, column: 'item', message: PLAIN_TEXT_MESSAGE },
       { row: 3, column: 'price', message: expect.stringContaining('like 4.80') },
@@ -79,11 +78,11 @@ describe('reading a menu file', () => {
   it('gives each bad cell its row, column and a message saying what to write', () => {
     const { rows, errors } = parseMenuCsv(
       csv(
-        'Espresso,Latte,bar,Regular,350,4.80,2,19,38,270,yes,WH,silky,milk,yes',
-        'Espresso,Mocha,grill,Regular,350,$5.20,2,19,38,250,maybe,ZZ,steamy,coconut,yes',
-        'Food,Scone,counter,,,3.50,0,,,,no,OA,,,no',
-        'Food,Tart,counter,,200,2.00,0,,,,no,,,,yes',
-        'Food,Bun,counter,,,,0,,,,no,,,,no',
+        'Espresso,Latte,bar,Regular,350,4.80,2,19,38,270,yes,WH,silky,,,yes',
+        'Espresso,Mocha,grill,Regular,350,$5.20,2,19,38,250,maybe,ZZ,steamy,oat,coconut,yes',
+        'Food,Scone,counter,,,3.50,0,,,,no,OA,,,,no',
+        'Food,Tart,counter,,200,2.00,0,,,,no,,,,,yes',
+        'Food,Bun,counter,,,,0,,,,no,,,,,no',
       ),
       ctx,
     );
@@ -95,7 +94,9 @@ describe('reading a menu file', () => {
         { row: 3, column: 'takes_milk', message: 'Use yes or no' },
         { row: 3, column: 'default_milk', message: expect.stringContaining('WH, SK, OA') },
         { row: 3, column: 'texture', message: expect.stringContaining('flat, silky, foamy or cold') },
-        // coconut is not on the US list (FDA Q&A Edition 5, January 2025; check-values.md)
+        // "oat" is no ingredient Jugline knows ("oats" is)
+        { row: 3, column: 'ingredients', message: expect.stringContaining('"oat" is not an ingredient Jugline knows') },
+        // coconut is not on the US list (FDA Q&A Edition 5, January 2025; docs/check-values.md)
         { row: 3, column: 'allergens', message: expect.stringContaining('"coconut" is not on the café\'s allergen list (US)') },
         { row: 4, column: 'default_milk', message: expect.stringContaining('takes_milk yes') },
         { row: 6, column: 'price', message: 'Needed, like 4.80' },
@@ -113,13 +114,13 @@ describe('reading a menu file', () => {
     ['0.05', 5],
     ['9999.99', 999_999],
   ])('reads the price %s as %i cents (worked by hand)', (text, cents) => {
-    const { rows, errors } = parseMenuCsv(csv(`Food,Tart,counter,,,${text},0,,,,no,,,,no`), ctx);
+    const { rows, errors } = parseMenuCsv(csv(`Food,Tart,counter,,,${text},0,,,,no,,,,,no`), ctx);
     expect(errors).toEqual([]);
     expect(rows[0].data?.priceCents).toBe(cents);
   });
 
   it.each(['4,80', '4.805', '-1', '1e3', '€4', ' . '])('refuses the price %j', (text) => {
-    const { errors } = parseMenuCsv(csv(`Food,Tart,counter,,,"${text}",0,,,,no,,,,no`), ctx);
+    const { errors } = parseMenuCsv(csv(`Food,Tart,counter,,,"${text}",0,,,,no,,,,,no`), ctx);
     expect(errors).toEqual([{ row: 2, column: 'price', message: expect.any(String) }]);
   });
 
@@ -136,7 +137,7 @@ describe('reading a menu file', () => {
   });
 
   it('a row with more cells than columns (an unquoted comma) gets one message about quoting, not one per shifted cell', () => {
-    const { rows, errors } = parseMenuCsv(csv('Food,Scone,counter,,,3,75,0,,,,no,,,wheat,no'), ctx);
+    const { rows, errors } = parseMenuCsv(csv('Food,Scone,counter,,,3,75,0,,,,no,,,wheat,,no'), ctx);
     expect(rows[0].data).toBeNull();
     expect(errors).toEqual([{ row: 2, column: null, message: expect.stringContaining('Put that value in quotes') }]);
   });
@@ -158,9 +159,9 @@ describe('reading a menu file', () => {
     const { errors } = parseMenuCsv(
       csv(
         LATTE_REGULAR,
-        'Espresso,Latte,counter,Large,470,5.90,2,19,38,360,yes,WH,foamy,milk,yes',
-        'Espresso,LATTE,bar,regular,350,5.40,2,19,38,270,yes,WH,silky,milk,no',
-        'Espresso,Latte,bar,,,5.00,2,,,,yes,WH,silky,milk,no',
+        "Espresso,Latte,counter,Large,470,5.90,2,19,38,360,yes,WH,foamy,cow's milk,milk,yes",
+        "Espresso,LATTE,bar,regular,350,5.40,2,19,38,270,yes,WH,silky,cow's milk; egg,,no",
+        "Espresso,Latte,bar,,,5.00,2,,,,yes,WH,silky,cow's milk,milk,no",
       ),
       ctx,
     );
@@ -169,6 +170,7 @@ describe('reading a menu file', () => {
         { row: 3, column: 'station', message: expect.stringContaining('Differs from row 2 (bar)') },
         { row: 3, column: 'texture', message: expect.stringContaining('Differs from row 2 (silky)') },
         { row: 3, column: 'default_size', message: "Row 2 is already Latte's default size" },
+        { row: 4, column: 'ingredients', message: expect.stringContaining("Differs from row 2 (cow's milk)") },
         { row: 4, column: 'size', message: 'Same category, item and size as row 2' },
         { row: 5, column: 'size', message: expect.stringContaining('a size, or none') },
       ]),
@@ -176,10 +178,40 @@ describe('reading a menu file', () => {
   });
 });
 
+describe('ingredients, and the allergens that follow from them', () => {
+  const EU: MenuCsvContext = { ...ctx, allergenList: 'EU' };
+  const OAT_LATTE = 'Espresso,Oat latte,bar,Regular,350,5.90,2,19,38,270,yes,OA,silky,oats,%s,yes';
+
+  it('leaves the allergens column to the export: a file may leave it out, or leave a cell empty', () => {
+    const header = MENU_CSV_COLUMNS.filter((c) => c !== 'allergens');
+    const line = "Food,Butter croissant,counter,,,4.25,0,,,,no,,,wheat; cow's milk; egg,no";
+    const { rows, errors } = parseMenuCsv(`${header.join(',')}\r\n${line}\r\n`, ctx);
+    expect(errors).toEqual([]);
+    expect(rows[0].data?.ingredients).toEqual(["cow's milk", 'egg', 'wheat']);
+    expect(parseMenuCsv(csv(OAT_LATTE.replace('%s', '')), EU).errors).toEqual([]);
+  });
+
+  it('checks a filled allergens cell against the ingredients, under the café\'s list', () => {
+    // Regulation (EU) No 1169/2011 Annex II item 1: oats are a cereal containing gluten
+    expect(parseMenuCsv(csv(OAT_LATTE.replace('%s', 'cereals containing gluten')), EU).errors).toEqual([]);
+    // FALCPA's nine do not include oats: nothing to write on the US list
+    expect(parseMenuCsv(csv(OAT_LATTE.replace('%s', 'wheat')), ctx).errors).toEqual([
+      { row: 2, column: 'allergens', message: 'The allergens follow from the ingredients, which contain none on the US list: change the ingredients, or leave this cell empty' },
+    ]);
+  });
+
+  it('asks a file from before ingredients for the new column', () => {
+    const old = MENU_CSV_COLUMNS.filter((c) => c !== 'ingredients');
+    expect(parseMenuCsv(`${old.join(',')}\r\n`, ctx).errors).toEqual([
+      { row: 1, column: 'ingredients', message: expect.stringContaining('list what each item contains') },
+    ]);
+  });
+});
+
 // ---------------------------------------------------------------- export
 
 function item(over: Partial<MenuItemView> & Pick<MenuItemView, 'id' | 'name' | 'categoryId'>): MenuItemView {
-  return { station: 'bar', priceCents: null, shots: 0, takesMilk: false, defaultMilkId: null, texture: null, available: true, allergens: [], sizes: [], modifierGroupIds: [], ...over };
+  return { station: 'bar', priceCents: null, shots: 0, takesMilk: false, defaultMilkId: null, texture: null, available: true, ingredients: [], allergens: [], sizes: [], modifierGroupIds: [], ...over };
 }
 
 function menu(items: MenuItemView[]): MenuView {
@@ -212,8 +244,8 @@ const size = (id: number, name: string, volumeMl: number, priceCents: number, is
 });
 
 const DEMO = menu([
-  item({ id: 1, categoryId: 1, name: 'Latte', takesMilk: true, defaultMilkId: 11, texture: 'silky', allergens: ['milk'], shots: 2, sizes: [size(1, 'Regular', 350, 540, true), size(2, 'Large', 470, 590, false)] }),
-  item({ id: 2, categoryId: 2, name: 'Butter croissant', station: 'counter', priceCents: 425, allergens: ['wheat', 'milk', 'eggs'] }),
+  item({ id: 1, categoryId: 1, name: 'Latte', takesMilk: true, defaultMilkId: 11, texture: 'silky', ingredients: ["cow's milk"], allergens: ['milk'], shots: 2, sizes: [size(1, 'Regular', 350, 540, true), size(2, 'Large', 470, 590, false)] }),
+  item({ id: 2, categoryId: 2, name: 'Butter croissant', station: 'counter', priceCents: 425, ingredients: ["cow's milk", 'egg', 'wheat'], allergens: ['milk', 'eggs', 'wheat'] }),
 ]);
 
 describe('writing the menu', () => {
@@ -221,8 +253,8 @@ describe('writing the menu', () => {
     const text = writeMenuCsv(DEMO);
     const lines = text.split('\r\n');
     expect(lines[0]).toBe(MENU_CSV_COLUMNS.map((c) => `"${c}"`).join(','));
-    expect(lines[1]).toBe('"Espresso","Latte","bar","Regular","350","5.40","2","18.5","37","270","yes","OA","silky","milk","yes"');
-    expect(lines[3]).toBe('"Food","Butter croissant","counter","","","4.25","0","","","","no","","","wheat; milk; eggs","no"');
+    expect(lines[1]).toBe(`"Espresso","Latte","bar","Regular","350","5.40","2","18.5","37","270","yes","OA","silky","cow's milk","milk","yes"`);
+    expect(lines[3]).toBe(`"Food","Butter croissant","counter","","","4.25","0","","","","no","","","cow's milk; egg; wheat","milk; eggs; wheat","no"`);
     expect(lines).toHaveLength(4);
   });
 
@@ -232,7 +264,7 @@ describe('writing the menu', () => {
     expect(rows.map((r) => r.data)).toEqual([
       expect.objectContaining({ item: 'Latte', size: 'Regular', priceCents: 540, doseDg: 185, yieldDg: 370, defaultMilk: 'OA', defaultSize: true }),
       expect.objectContaining({ item: 'Latte', size: 'Large', priceCents: 590, defaultSize: false }),
-      expect.objectContaining({ item: 'Butter croissant', size: null, priceCents: 425, allergens: ['wheat', 'milk', 'eggs'] }),
+      expect.objectContaining({ item: 'Butter croissant', size: null, priceCents: 425, ingredients: ["cow's milk", 'egg', 'wheat'] }),
     ]);
   });
 

@@ -27,6 +27,7 @@ function item(over: Partial<MenuItemView> & Pick<MenuItemView, 'id' | 'name'>): 
     defaultMilkId: null,
     texture: null,
     available: true,
+    ingredients: [],
     allergens: [],
     sizes: [],
     modifierGroupIds: [SYRUPS, TOPPINGS],

@@ -9,6 +9,7 @@ import {
   type ModifierGroupBody,
   type ModifierGroupFormValues,
 } from '../../domain/menu-admin-schemas';
+import type { Ingredient } from '../../domain/ingredients';
 import type { AdminMenuView, AdminModifier, AdminModifierGroup } from '../../domain/menu-admin-view';
 import { centsToAmountText } from '../../domain/menu-units';
 import { Button } from '../../components/ui/button';
@@ -16,7 +17,7 @@ import { FieldError } from '../../components/ui/field-error';
 import { Segmented } from '../../components/ui/segmented';
 import type { MenuCommand } from './commands';
 import { ConfirmRetire, Sheet } from './dialog';
-import { AllergenPicker, CheckGroup, Field } from './fields';
+import { CheckGroup, Field, IngredientPicker } from './fields';
 import { currencySign, moneyOf } from './format';
 import { MoveButtons } from './move-buttons';
 import { showServerErrors } from './server-errors';
@@ -114,9 +115,9 @@ function ModifierForm({
   notify: Notify;
   onClose(): void;
 }) {
-  const form = useForm<ModifierFormValues, unknown, { name: string; priceCents: number; allergens: string[] }>({
+  const form = useForm<ModifierFormValues, unknown, { name: string; priceCents: number; ingredients: Ingredient[] }>({
     resolver: zodResolver(modifierForm),
-    defaultValues: modifier ? { name: modifier.name, price: centsToAmountText(modifier.priceCents), allergens: modifier.allergens } : { name: '', price: '0.00', allergens: [] },
+    defaultValues: modifier ? { name: modifier.name, price: centsToAmountText(modifier.priceCents), ingredients: modifier.ingredients } : { name: '', price: '0.00', ingredients: [] },
   });
   const [problem, setProblem] = useState<string | null>(null);
   const errors = form.formState.errors;
@@ -127,7 +128,7 @@ function ModifierForm({
       notify(`${modifier ? 'Saved' : 'Added'} ${body.name}.`);
       onClose();
     } catch (err) {
-      setProblem(showServerErrors(err, form.setError, ['name', 'price', 'allergens']));
+      setProblem(showServerErrors(err, form.setError, ['name', 'price', 'ingredients']));
     }
   });
   return (
@@ -137,9 +138,9 @@ function ModifierForm({
         <Field label="Price" prefix={currencySign(menu)} className="max-w-xs" inputMode="decimal" hint="0.00 for a free choice" error={errors.price?.message} {...form.register('price')} id="extra-price" />
         <Controller
           control={form.control}
-          name="allergens"
+          name="ingredients"
           render={({ field }) => (
-            <AllergenPicker list={menu.location.allergenList} allergens={menu.location.allergens} value={field.value} onChange={field.onChange} error={errors.allergens?.message} />
+            <IngredientPicker list={menu.location.allergenList} value={field.value} onChange={field.onChange} hint="What the extra adds: almond for an almond syrup that contains nut." error={errors.ingredients?.message} />
           )}
         />
       </form>

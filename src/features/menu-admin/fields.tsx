@@ -1,6 +1,8 @@
-// Form pieces for the editor: a labelled field with its error, allergen tags from the café's
-// published list, and a set of checkboxes. Big type, ≥ 44 px targets.
+// Form pieces for the editor: a labelled field with its error, a set of checkboxes, and the
+// ingredients with the allergens they give on the café's list. Big type, ≥ 44 px targets.
 import type { ComponentProps, ReactNode } from 'react';
+import type { AllergenList } from '../../domain/allergens';
+import { ALLERGEN_CAUTION, allergensFrom, INGREDIENT_GROUPS, ingredientsIn, inOrder, unspecifiedOf } from '../../domain/ingredients';
 import { FieldError } from '../../components/ui/field-error';
 import { cn } from '../../lib/cn';
 
@@ -82,31 +84,55 @@ export function CheckGroup<T extends string | number>({
   );
 }
 
-/** The café's published list, named, so tags never come from a home-made list. */
-export function AllergenPicker({
+const SOURCES = { EU: 'Regulation (EU) No 1169/2011, Annex II', US: 'US major food allergens (FALCPA, FASTER Act)' } as const;
+
+/**
+ * What it contains, by group, and the allergens that follow on the café's list as the owner ticks.
+ * A stand-in for an old tag ("tree nuts (unspecified)") shows only while it is ticked, asking for
+ * the real ingredient.
+ */
+export function IngredientPicker({
   list,
-  allergens,
   value,
   onChange,
   hint,
   error,
 }: {
-  list: 'US' | 'EU';
-  allergens: readonly string[];
+  list: AllergenList;
   value: readonly string[];
   onChange(next: string[]): void;
   hint?: string;
   error?: string;
 }) {
-  const source = list === 'EU' ? 'EU Regulation 1169/2011, Annex II' : 'US major food allergens (FALCPA, FASTER Act)';
+  const allergens = allergensFrom(value, list);
+  const vague = unspecifiedOf(value);
   return (
-    <CheckGroup
-      legend="Allergens"
-      hint={`${hint ? `${hint} ` : ''}From the café's list: ${source}. Check your supplier's labels and your local food code.`}
-      choices={allergens.map((a) => ({ value: a, label: a }))}
-      value={value}
-      onChange={onChange}
-      error={error}
-    />
+    <fieldset className="flex flex-col gap-3" data-testid="ingredient-picker">
+      <legend className="mb-1 text-sm font-semibold tracking-wide text-ink-600 uppercase">Ingredients</legend>
+      <p className="text-sm text-ink-600">{`${hint ? `${hint} ` : ''}Tick what it contains; the allergens follow for the café's list.`}</p>
+      {INGREDIENT_GROUPS.map((group) => (
+        <CheckGroup
+          key={group}
+          legend={group}
+          choices={ingredientsIn(group)
+            .filter((i) => !unspecifiedOf([i]).length || value.includes(i))
+            .map((i) => ({ value: i as string, label: i }))}
+          value={value}
+          onChange={(next) => onChange(inOrder(next))}
+        />
+      ))}
+      {vague.length > 0 && (
+        <p role="note" className="text-base font-semibold">
+          ⚠ {vague.join(', ')}: carried over from an old allergen tag. Tick the real ingredient and untick this.
+        </p>
+      )}
+      <p className="rounded-lg border-2 border-ink-900 px-3 py-2 text-base" data-testid="derived-allergens">
+        <strong>Allergens on the {list} list:</strong> {allergens.length ? allergens.join(', ') : 'none'}
+        <span className="block text-sm text-ink-600">
+          {SOURCES[list]}. {ALLERGEN_CAUTION}
+        </span>
+      </p>
+      <FieldError message={error} />
+    </fieldset>
   );
 }

@@ -1,5 +1,5 @@
 // The item form: name, category, station; milk and texture; sizes with their recipes; the item's
-// own allergens; which groups of extras it offers. Saved whole; retiring asks first.
+// ingredients (its allergens follow); which groups of extras it offers. Saved whole; retiring asks first.
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm, useWatch } from 'react-hook-form';
@@ -12,7 +12,7 @@ import { FieldError } from '../../components/ui/field-error';
 import { Segmented } from '../../components/ui/segmented';
 import type { MenuCommand } from './commands';
 import { ConfirmRetire, Sheet } from './dialog';
-import { AllergenPicker, CheckGroup, Field, inputClass } from './fields';
+import { CheckGroup, Field, IngredientPicker, inputClass } from './fields';
 import { currencySign, TEXTURE_HINT } from './format';
 import { itemValues } from './item-values';
 import { showServerErrors } from './server-errors';
@@ -27,7 +27,7 @@ interface Props {
   onClose(): void;
 }
 
-const FIELDS = ['categoryId', 'name', 'station', 'price', 'takesMilk', 'defaultMilkId', 'texture', 'allergens', 'modifierGroupIds', 'sizes'];
+const FIELDS = ['categoryId', 'name', 'station', 'price', 'takesMilk', 'defaultMilkId', 'texture', 'ingredients', 'modifierGroupIds', 'sizes'];
 const label = 'mb-1 block text-sm font-semibold tracking-wide text-ink-600 uppercase';
 
 export function ItemForm({ menu, item, categoryId, command, notify, onClose }: Props) {
@@ -180,15 +180,14 @@ export function ItemForm({ menu, item, categoryId, command, notify, onClose }: P
 
         <Controller
           control={form.control}
-          name="allergens"
+          name="ingredients"
           render={({ field }) => (
-            <AllergenPicker
+            <IngredientPicker
               list={menu.location.allergenList}
-              allergens={menu.location.allergens}
               value={field.value}
               onChange={field.onChange}
               hint="What the item itself contains; its milk and extras add their own."
-              error={errors.allergens?.message}
+              error={errors.ingredients?.message}
             />
           )}
         />

@@ -29,7 +29,7 @@ export function itemValues(item: AdminItem | null, categoryId: number): ItemForm
       takesMilk: false,
       defaultMilkId: '',
       texture: '',
-      allergens: [],
+      ingredients: [],
       modifierGroupIds: [],
       sizes: [sizeValues(null, true)],
     };
@@ -42,7 +42,7 @@ export function itemValues(item: AdminItem | null, categoryId: number): ItemForm
     takesMilk: item.takesMilk,
     defaultMilkId: item.defaultMilkId === null ? '' : String(item.defaultMilkId),
     texture: item.texture ?? '',
-    allergens: item.allergens,
+    ingredients: item.ingredients,
     modifierGroupIds: item.modifierGroupIds,
     sizes: item.sizes.filter((s) => !s.retired).map((s) => sizeValues(s, s.isDefault)),
   };

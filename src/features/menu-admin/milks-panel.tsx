@@ -1,4 +1,5 @@
-// Milks: each is a lane on the Bar, headed by its two-letter code. Name, code, upcharge, allergens.
+// Milks: each is a lane on the Bar, headed by its two-letter code. Name, code, upcharge, and what
+// it is made of (the allergens follow for the café's list).
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
@@ -8,7 +9,7 @@ import { centsToAmountText } from '../../domain/menu-units';
 import { Button } from '../../components/ui/button';
 import type { MenuCommand } from './commands';
 import { ConfirmRetire, Sheet } from './dialog';
-import { AllergenPicker, Field } from './fields';
+import { Field, IngredientPicker } from './fields';
 import { currencySign, moneyOf } from './format';
 import { MoveButtons } from './move-buttons';
 import { showServerErrors } from './server-errors';
@@ -20,8 +21,8 @@ function MilkForm({ menu, milk, command, notify, onClose }: { menu: AdminMenuVie
   const form = useForm<MilkFormValues, unknown, MilkBody>({
     resolver: zodResolver(milkForm),
     defaultValues: milk
-      ? { name: milk.name, code: milk.code, upcharge: centsToAmountText(milk.upchargeCents), allergens: milk.allergens }
-      : { name: '', code: '', upcharge: '0.00', allergens: [] },
+      ? { name: milk.name, code: milk.code, upcharge: centsToAmountText(milk.upchargeCents), ingredients: milk.ingredients }
+      : { name: '', code: '', upcharge: '0.00', ingredients: [] },
   });
   const [problem, setProblem] = useState<string | null>(null);
   const errors = form.formState.errors;
@@ -31,7 +32,7 @@ function MilkForm({ menu, milk, command, notify, onClose }: { menu: AdminMenuVie
       notify(`${milk ? 'Saved' : 'Added'} ${body.name} (${body.code}).`);
       onClose();
     } catch (err) {
-      setProblem(showServerErrors(err, form.setError, ['name', 'code', 'upcharge', 'allergens']));
+      setProblem(showServerErrors(err, form.setError, ['name', 'code', 'upcharge', 'ingredients']));
     }
   });
   return (
@@ -65,9 +66,15 @@ function MilkForm({ menu, milk, command, notify, onClose }: { menu: AdminMenuVie
         <Field label="Upcharge" prefix={currencySign(menu)} className="max-w-xs" inputMode="decimal" hint="Added to the drink's price; 0.00 for none" error={errors.upcharge?.message} {...form.register('upcharge')} id="milk-upcharge" />
         <Controller
           control={form.control}
-          name="allergens"
+          name="ingredients"
           render={({ field }) => (
-            <AllergenPicker list={menu.location.allergenList} allergens={menu.location.allergens} value={field.value} onChange={field.onChange} error={errors.allergens?.message} />
+            <IngredientPicker
+              list={menu.location.allergenList}
+              value={field.value}
+              onChange={field.onChange}
+              hint="What the milk is made of: oats for an oat milk, cow's milk for whole."
+              error={errors.ingredients?.message}
+            />
           )}
         />
       </form>
@@ -108,7 +115,8 @@ export function MilksPanel({ menu, command, notify }: { menu: AdminMenuView; com
             <th className={th}>Milk</th>
             <th className={th}>Code</th>
             <th className={th}>Upcharge</th>
-            <th className={th}>Allergens</th>
+            <th className={th}>Made of</th>
+            <th className={th}>Allergens ({menu.location.allergenList} list)</th>
             <th className={th}>Status</th>
             <th className={th}>
               <span className="sr-only">Actions</span>
@@ -128,6 +136,7 @@ export function MilksPanel({ menu, command, notify }: { menu: AdminMenuView; com
                   <span className="inline-grid size-11 place-items-center rounded-lg border-2 border-ink-900 font-display text-xl font-semibold">{m.code}</span>
                 </td>
                 <td className={`${td} tabular-nums`}>{m.upchargeCents ? `+${money(m.upchargeCents)}` : 'none'}</td>
+                <td className={td}>{m.ingredients.length ? m.ingredients.join(', ') : <strong>⚠ not recorded: say what it is made of</strong>}</td>
                 <td className={td}>{m.allergens.length ? m.allergens.join(', ') : <span className="text-ink-600">none on the list</span>}</td>
                 <td className={td}>
                   <StatusBadge status={m.retired ? 'retired' : 'in-use'} />

@@ -1,16 +1,18 @@
-// Allergens: which published list the Counter offers and the menu is tagged with. Switching asks
-// the owner what each tag the new list lacks becomes (the server refuses with 409 until then).
+// Allergens: which published list the Counter offers and the menu's allergens are read under. The
+// menu records ingredients, so a switch rewrites nothing; choosing the other list shows, per milk,
+// item and extra, what it contains under the current list and under the new one, and the owner
+// confirms with the section's save.
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
 import { z } from 'zod';
-import type { AllergenList } from '../../domain/allergens';
-import { listOf, SETTINGS_FIELDS, type AllergenSwitchConflict, type SettingsView } from '../../domain/settings-schemas';
-import { Button } from '../../components/ui/button';
+import type { AllergenSwitchPreview, MenuEntryKind } from '../../domain/allergen-switch';
+import { allergensOf, type AllergenList } from '../../domain/allergens';
+import { ALLERGEN_CAUTION } from '../../domain/ingredients';
+import { SETTINGS_FIELDS, type SettingsPage } from '../../domain/settings-schemas';
 import { Segmented } from '../../components/ui/segmented';
-import { ApiError } from '../../lib/http';
 import { settingsCommands } from '../../lib/settings-api';
-import { SaveStatusText, SettingsSection, type SaveStatus } from './section';
+import { SettingsSection, type SaveStatus } from './section';
 import { showServerErrors } from './server-errors';
 import { useSettingsCommand } from './use-settings-command';
 
@@ -21,99 +23,85 @@ const SOURCES: Record<AllergenList, string> = {
   US: 'US major food allergens: FALCPA 2004 and the FASTER Act 2021 (sesame)',
   EU: 'Regulation (EU) No 1169/2011, Annex II',
 };
-const KIND: Record<AllergenSwitchConflict['unlisted'][number]['kind'], string> = { milk: 'milk', modifier: 'extra', item: 'menu item' };
-const REMOVE = '__remove__';
+const KIND: Record<MenuEntryKind, string> = { milk: 'milk', modifier: 'extra', item: 'item' };
+const listed = (allergens: string[]) => (allergens.length ? allergens.join(', ') : 'none');
 
-function isSwitchConflict(e: unknown): e is ApiError & { details: AllergenSwitchConflict } {
-  return e instanceof ApiError && e.status === 409 && !!e.details && 'unlisted' in (e.details as object);
-}
-
-/** The tags the new list lacks, each with the owner's choice (prefilled from the published equivalents). */
-function RetagPanel({ conflict, busy, onSwitch, onCancel }: { conflict: AllergenSwitchConflict; busy: boolean; onSwitch(choice: Record<string, string | null>): void; onCancel(): void }) {
-  const [choice, setChoice] = useState<Record<string, string>>(() =>
-    Object.fromEntries(Object.entries(conflict.suggestions).map(([tag, to]) => [tag, to ?? ''])),
-  );
-  const tags = Object.keys(conflict.suggestions);
-  const ready = tags.every((t) => choice[t]);
+/** What the switch changes, entry by entry, before the owner confirms it. */
+function SwitchPreview({ preview }: { preview: AllergenSwitchPreview }) {
+  const { from, to, changed, unchanged, toCheck } = preview;
+  const th = 'border-b-2 border-steam-200 px-2 py-1 text-left text-sm font-semibold tracking-wide text-ink-600 uppercase';
+  const td = 'border-b border-steam-200 px-2 py-2 align-top';
   return (
-    <div role="group" aria-label="Tags to change" className="rounded-xl border-2 border-ink-900 p-4" data-testid="retag-panel">
+    <div role="group" aria-label={`What the ${to} list changes`} className="flex flex-col gap-3 rounded-xl border-2 border-ink-900 p-4" data-testid="allergen-switch">
       <p className="text-lg font-semibold">
-        {conflict.unlisted.length} menu {conflict.unlisted.length === 1 ? 'entry has' : 'entries have'} tags the {conflict.to} list does not name:
+        {changed.length === 0
+          ? `Every milk, item and extra reads the same on the ${to} list.`
+          : `${changed.length} of ${changed.length + unchanged} on the menu read differently on the ${to} list:`}
       </p>
-      <ul className="mt-1 list-disc pl-6 text-base">
-        {conflict.unlisted.map((u) => (
-          <li key={`${u.kind}:${u.id}`}>
-            <strong>{u.name}</strong> ({KIND[u.kind]}): {u.tags.join(', ')}
-          </li>
-        ))}
-      </ul>
-      <p className="mt-3 text-base">Choose what each tag becomes on the {conflict.to} list:</p>
-      <div className="mt-2 flex flex-col gap-2">
-        {tags.map((tag) => (
-          <label key={tag} className="flex flex-wrap items-center gap-3">
-            <span className="w-56 font-semibold">“{tag}” becomes</span>
-            <select
-              className="min-h-11 rounded-lg border border-steam-200 bg-white px-3 text-lg"
-              value={choice[tag]}
-              onChange={(e) => setChoice({ ...choice, [tag]: e.target.value })}
-            >
-              <option value="">Choose…</option>
-              {listOf(conflict.to).map((a) => (
-                <option key={a} value={a}>
-                  {a}
-                </option>
-              ))}
-              <option value={REMOVE}>no tag (not on the {conflict.to} list)</option>
-            </select>
-            {conflict.suggestions[tag] === null && <span className="text-sm text-ink-600">no equivalent on the {conflict.to} list — you decide</span>}
-          </label>
-        ))}
-      </div>
-      <div className="mt-3 flex flex-wrap gap-3">
-        <Button
-          disabled={!ready || busy}
-          onClick={() => onSwitch(Object.fromEntries(tags.map((t) => [t, choice[t] === REMOVE ? null : choice[t]])))}
-        >
-          Switch to the {conflict.to} list and retag
-        </Button>
-        <Button tone="quiet" onClick={onCancel}>
-          Keep the current list
-        </Button>
-      </div>
+      {changed.length > 0 && (
+        <table className="w-full border-collapse text-base">
+          <thead>
+            <tr>
+              <th className={th}>On the menu</th>
+              <th className={th}>Made with</th>
+              <th className={th}>{from} list now</th>
+              <th className={th}>{to} list</th>
+            </tr>
+          </thead>
+          <tbody>
+            {changed.map((c) => (
+              <tr key={`${c.kind}:${c.id}`} data-testid="switch-row">
+                <td className={td}>
+                  <strong>{c.name}</strong> <span className="text-ink-600">({KIND[c.kind]})</span>
+                </td>
+                <td className={td}>{c.ingredients.join(', ')}</td>
+                <td className={td}>{listed(c.before)}</td>
+                <td className={`${td} font-semibold`}>{listed(c.after)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      )}
+      {changed.length > 0 && unchanged > 0 && <p className="text-base text-ink-600">The other {unchanged} read the same on both lists.</p>}
+      {toCheck.length > 0 && (
+        <div role="note" className="text-base">
+          <p className="font-semibold">⚠ Check these in Menu: their ingredients don't say enough to be sure.</p>
+          <ul className="list-disc pl-6">
+            {toCheck.map((c) => (
+              <li key={`${c.kind}:${c.id}`}>
+                <strong>{c.name}</strong> ({KIND[c.kind]}): {c.reason}
+              </li>
+            ))}
+          </ul>
+        </div>
+      )}
+      <p className="text-sm text-ink-600">Nothing on the menu is rewritten: the allergens are read from the ingredients under the list in use.</p>
     </div>
   );
 }
 
-export function AllergensSection({ settings }: { settings: SettingsView }) {
+export function AllergensSection({ page }: { page: SettingsPage }) {
+  const { settings, allergenSwitch } = page;
   const form = useForm<AllergenForm>({ resolver: zodResolver(allergenForm), defaultValues: { allergenList: settings.allergenList } });
   const [status, setStatus] = useState<SaveStatus>(null);
-  const [conflict, setConflict] = useState<AllergenSwitchConflict | null>(null);
   const save = useSettingsCommand(settingsCommands.update, (p) => {
     form.reset({ allergenList: p.settings.allergenList });
-    setConflict(null);
-    setStatus({ ok: true, text: `Saved — the Counter offers the ${p.settings.allergenList} list` });
+    setStatus({ ok: true, text: `Saved — the Counter and the menu use the ${p.settings.allergenList} list` });
   });
   const chosen = form.watch('allergenList');
-  const send = (body: { allergenList: AllergenList; allergenRetag?: Record<string, string | null> }) => {
-    setStatus(null);
-    save.mutate(body, {
-      onError: (e) => {
-        if (isSwitchConflict(e)) {
-          setConflict(e.details);
-          setStatus({ ok: false, text: 'Not switched yet: choose what the tags below become' });
-        } else setStatus({ ok: false, text: showServerErrors(e, form.setError, { allergenList: 'allergenList' }) });
-      },
-    });
-  };
+  const switching = chosen !== settings.allergenList && allergenSwitch.to === chosen;
   return (
     <SettingsSection
       id="settings-allergens"
       title="Allergens"
-      intro="The published list the Counter's allergy picker offers and the menu's tags use. Follow the law where the café trades."
+      intro="The published list the Counter's allergy picker offers and the menu's allergens are read under. Follow the law where the café trades."
       status={status}
       saving={save.isPending}
-      saveHidden={!!conflict}
-      onSubmit={form.handleSubmit((v) => send({ allergenList: v.allergenList }))}
+      saveLabel={switching ? `Switch to the ${chosen} list` : 'Save'}
+      onSubmit={form.handleSubmit((v) => {
+        setStatus(null);
+        save.mutate({ allergenList: v.allergenList }, { onError: (e) => setStatus({ ok: false, text: showServerErrors(e, form.setError, { allergenList: 'allergenList' }) }) });
+      })}
     >
       <Controller
         control={form.control}
@@ -122,10 +110,7 @@ export function AllergensSection({ settings }: { settings: SettingsView }) {
           <Segmented
             label="Allergen list"
             value={field.value}
-            onChange={(v) => {
-              setConflict(null);
-              field.onChange(v);
-            }}
+            onChange={field.onChange}
             options={[
               { value: 'US', label: 'US list', hint: '9 allergens' },
               { value: 'EU', label: 'EU list', hint: '14 allergens' },
@@ -134,26 +119,12 @@ export function AllergensSection({ settings }: { settings: SettingsView }) {
         )}
       />
       <p className="text-base">
-        <span className="font-semibold">{SOURCES[chosen]}:</span> {listOf(chosen).join(', ')}.
+        <span className="font-semibold">{SOURCES[chosen]}:</span> {allergensOf(chosen).join(', ')}.
       </p>
-      {chosen !== settings.allergenList && (
-        <p role="note" className="rounded-lg border-2 border-ink-900 px-3 py-2 text-base">
-          <strong>⚠ Check the menu after switching.</strong> Switching only renames tags; it adds none. The {chosen} list names allergens the{' '}
-          {settings.allergenList} list does not
-          {chosen === 'EU' ? ' — oat milk is a cereal containing gluten; also celery, mustard, sulphites, lupin and molluscs' : ''}. Tag them in
-          Menu, and follow your local food code.
-        </p>
-      )}
-      {conflict && (
-        <>
-          <SaveStatusText status={status} />
-          <RetagPanel conflict={conflict} busy={save.isPending} onSwitch={(choice) => send({ allergenList: conflict.to, allergenRetag: choice })} onCancel={() => {
-            setConflict(null);
-            setStatus(null);
-            form.reset({ allergenList: settings.allergenList });
-          }} />
-        </>
-      )}
+      {switching && <SwitchPreview preview={allergenSwitch} />}
+      <p role="note" className="text-sm text-ink-600">
+        ⚠ {ALLERGEN_CAUTION}
+      </p>
     </SettingsSection>
   );
 }

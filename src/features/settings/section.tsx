@@ -12,13 +12,11 @@ interface Props {
   status: SaveStatus;
   saving: boolean;
   saveLabel?: string;
-  /** While the section asks something else first (the allergen retag), its own save steps aside. */
-  saveHidden?: boolean;
   onSubmit: FormEventHandler<HTMLFormElement>;
   children: ReactNode;
 }
 
-export function SettingsSection({ id, title, intro, status, saving, saveLabel = 'Save', saveHidden = false, onSubmit, children }: Props) {
+export function SettingsSection({ id, title, intro, status, saving, saveLabel = 'Save', onSubmit, children }: Props) {
   return (
     <form aria-labelledby={id} noValidate onSubmit={onSubmit} className="flex flex-col gap-4 rounded-2xl border border-steam-200 bg-white p-5">
       <div>
@@ -28,14 +26,12 @@ export function SettingsSection({ id, title, intro, status, saving, saveLabel = 
         {intro && <p className="mt-1 text-base text-ink-600">{intro}</p>}
       </div>
       {children}
-      {!saveHidden && (
-        <div className="flex flex-wrap items-center gap-4 border-t border-steam-200 pt-4">
-          <Button type="submit" size="lg" disabled={saving}>
-            {saving ? 'Saving…' : saveLabel}
-          </Button>
-          <SaveStatusText status={status} />
-        </div>
-      )}
+      <div className="flex flex-wrap items-center gap-4 border-t border-steam-200 pt-4">
+        <Button type="submit" size="lg" disabled={saving}>
+          {saving ? 'Saving…' : saveLabel}
+        </Button>
+        <SaveStatusText status={status} />
+      </div>
     </form>
   );
 }
