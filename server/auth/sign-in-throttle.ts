@@ -73,7 +73,9 @@ interface NameLine {
   checking: number;
 }
 
-const minutes = (ms: number) => Math.max(1, Math.ceil(ms / 60_000));
+const count = (n: number, unit: string) => `${n} ${unit}${n === 1 ? '' : 's'}`;
+const minutes = (ms: number) => count(Math.max(1, Math.ceil(ms / 60_000)), 'minute');
+const seconds = (ms: number) => count(Math.max(1, Math.ceil(ms / 1000)), 'second');
 
 export class SignInThrottle {
   private readonly pairs = new FailureLog(PAIR_FAILURES_PER_HOUR);
@@ -94,23 +96,23 @@ export class SignInThrottle {
     if (this.pairs.count(pair, now) >= PAIR_FAILURES_PER_HOUR) {
       const ms = this.pairs.msUntilOneExpires(pair, now);
       const where = a.terminal ? 'on this terminal' : 'from this address';
-      return this.refuse(429, ms, `Too many failed sign-ins for this name ${where}. Try again in about ${minutes(ms)} minutes, or sign in on a terminal this person has used before.`);
+      return this.refuse(429, ms, `Too many failed sign-ins for this name ${where}. Try again in about ${minutes(ms)}, or sign in on a terminal this person has used before.`);
     }
     // A terminal this name has signed in on is judged by its own count only (OWASP device cookies).
     if (a.terminal) return this.admitted(0, pair, null);
 
     if (this.addresses.count(a.address, now) >= ADDRESS_FAILURES_PER_HOUR) {
       const ms = this.addresses.msUntilOneExpires(a.address, now);
-      return this.refuse(429, ms, `Too many failed sign-ins from this address. Try again in about ${minutes(ms)} minutes.`);
+      return this.refuse(429, ms, `Too many failed sign-ins from this address. Try again in about ${minutes(ms)}.`);
     }
     const line = this.lines.get(a.name) ?? { nextAt: now, waiting: 0, checking: 0 };
     const slot = Math.max(now, line.nextAt);
     const wait = slot - now;
     if (wait > 0 && line.waiting >= WAITING_SIGN_INS_PER_NAME) {
-      return this.refuse(429, wait, `Sign-ins for this name are being slowed after many wrong passwords. Try again in ${Math.ceil(wait / 1000)} seconds; a terminal this person has signed in on before is not slowed.`);
+      return this.refuse(429, wait, `Sign-ins for this name are being slowed after many wrong passwords. Try again in ${seconds(wait)}; a terminal this person has signed in on before is not slowed.`);
     }
     if (wait > 0 && this.waitingInAll >= WAITING_SIGN_INS_IN_ALL) {
-      return this.refuse(503, wait, `Too many sign-ins are waiting. Try again in ${Math.ceil(wait / 1000)} seconds.`);
+      return this.refuse(503, wait, `Too many sign-ins are waiting. Try again in ${seconds(wait)}.`);
     }
     // Each attempt in line is counted as a failure to come, so attempts fired together are spaced
     // as if they had failed one after another.
