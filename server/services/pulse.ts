@@ -58,12 +58,14 @@ const erlangView = (r: ErlangResult) => ({
 });
 
 /**
- * The orders Pulse may need: the open shift's, every ticket still open, and the last day's (today's
- * and the rolling windows'). Each branch rides on an index of its own.
+ * The orders Pulse may need: the last day's (today's and the rolling windows'), every ticket still
+ * open, and the open shift's (a shift is one location's). Each branch names its own columns so
+ * SQLite reads each through an index of its own (a MULTI-INDEX OR), not the location's whole history.
  */
 function pulseOrders(q: Knex.QueryBuilder, locationId: number, sinceIso: string, shiftId: number | null) {
-  return q.where('orders.location_id', locationId).where((w) => {
-    w.where('orders.created_at', '>=', sinceIso).orWhere('orders.status', 'open');
+  return q.where((w) => {
+    w.where((x) => x.where('orders.location_id', locationId).where('orders.created_at', '>=', sinceIso));
+    w.orWhere((x) => x.where({ 'orders.location_id': locationId, 'orders.status': 'open' }));
     if (shiftId !== null) w.orWhere('orders.shift_id', shiftId);
   });
 }

@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { PulseView } from '../../src/domain/pulse';
 import type { ReportView } from '../../src/domain/reports';
 import type { OrderView, ShiftView } from '../../src/domain/types';
+import { recentlyMade } from '../../server/services/quotes';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
 
@@ -130,6 +131,9 @@ describe('a jug bumped as one batch', () => {
     // the batch's time shared: each latte took the bar 30 s
     expect(p.perBarista).toEqual([{ name: 'Jonah Reyes', drinks: 3, medianMakeSeconds: 30 }]);
     expect(p.staffing.inputs).toMatchObject({ drinksTimed: 3, meanMakeSeconds: 30 });
+    // the pace never cuts a batch: asked for the last drink, it gets the whole jug (hand-worked)
+    const locationId = (await h.ctx.server.db('locations').first('id')).id;
+    expect(await recentlyMade(h.ctx.server.db, locationId, 1)).toHaveLength(3);
   });
 });
 
