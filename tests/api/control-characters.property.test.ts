@@ -62,7 +62,7 @@ const itemBodyOf = () => ({
   takesMilk: true,
   defaultMilkId: menu.milk('Whole'),
   texture: 'silky',
-  allergens: ['milk'],
+  ingredients: ["cow's milk"],
   modifierGroupIds: [],
   sizes: [size()],
 });
@@ -97,8 +97,8 @@ const CASES: Case[] = [
   { method: 'post', url: () => '/api/shifts/current/close', body: () => ({ countedCashCents: 100_00, note: 'till counted twice' }), schema: closeShiftBody, fields: ['note'] },
   { method: 'post', url: () => '/api/menu-admin/categories', body: () => ({ name: 'Brunch' }), schema: categoryBody, fields: ['name'] },
   { method: 'put', url: () => `/api/menu-admin/categories/${ids.category}`, body: () => ({ name: 'Brunch' }), schema: categoryBody, fields: ['name'] },
-  { method: 'post', url: () => '/api/menu-admin/milks', body: () => ({ name: 'Hazel', code: 'HZ', upchargeCents: 60, allergens: ['tree nuts'] }), schema: milkBody, fields: ['name', 'code', 'allergens.0'] },
-  { method: 'put', url: () => `/api/menu-admin/milks/${ids.milk}`, body: () => ({ name: 'Oat', code: 'OA', upchargeCents: 60, allergens: [] }), schema: milkBody, fields: ['name', 'code'] },
+  { method: 'post', url: () => '/api/menu-admin/milks', body: () => ({ name: 'Hazel', code: 'HZ', upchargeCents: 60, ingredients: ['hazelnut'] }), schema: milkBody, fields: ['name', 'code'] },
+  { method: 'put', url: () => `/api/menu-admin/milks/${ids.milk}`, body: () => ({ name: 'Oat', code: 'OA', upchargeCents: 60, ingredients: [] }), schema: milkBody, fields: ['name', 'code'] },
   {
     method: 'post',
     url: () => '/api/menu-admin/modifier-groups',
@@ -109,11 +109,11 @@ const CASES: Case[] = [
   {
     method: 'post',
     url: () => '/api/menu-admin/modifiers',
-    body: () => ({ groupId: ids.group, name: 'Maple', priceCents: 50, allergens: ['milk'] }),
+    body: () => ({ groupId: ids.group, name: 'Maple', priceCents: 50, ingredients: ["cow's milk"] }),
     schema: modifierBody,
-    fields: ['name', 'allergens.0'],
+    fields: ['name'],
   },
-  { method: 'post', url: () => '/api/menu-admin/items', body: itemBodyOf, schema: itemBody, fields: ['name', 'allergens.0', 'sizes.0.name', 'sizes.0.cup'] },
+  { method: 'post', url: () => '/api/menu-admin/items', body: itemBodyOf, schema: itemBody, fields: ['name', 'sizes.0.name', 'sizes.0.cup'] },
   { method: 'put', url: () => `/api/menu-admin/items/${ids.item}`, body: itemBodyOf, schema: itemBody, fields: ['name', 'sizes.0.name', 'sizes.0.cup'] },
   {
     method: 'put',
