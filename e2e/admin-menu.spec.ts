@@ -99,11 +99,12 @@ test('the owner adds a seasonal drink with its recipe; the open Counter sells it
   // whose fill line holds it. Demo café: waste 15 ml; pitchers 350/190, 600/330, 950/520 ml.
   // By hand: 240 ml + 15 ml = 255 ml; 255 > 190, 255 ≤ 330 → the 600 ml pitcher, pour 255 ml.
   const menu = await (await owner.request.get(`${own.baseURL}/api/menu`)).json();
-  expect(menu.location.jugWasteMl).toBe(15);
+  expect(menu.location.jugRules.wasteMl).toBe(15);
   const oat = bar.getByTestId('lane').filter({ has: bar.getByRole('heading', { name: 'Oat' }) });
   await expect(oat.getByTestId('drink-card')).toHaveCount(1);
   await expect(oat.getByTestId('drink-card')).toContainText('Ember Spice Latte');
-  await expect(oat.getByTestId('jug-plan')).toContainText('600 ml pitcher · pour 255 ml · 1 drink · steam silky');
+  await expect(oat.getByTestId('jug-plan')).toContainText('600 ml pitcher · pour 255 ml');
+  await expect(oat.getByTestId('jug-plan')).toContainText('1 drink · steam silky');
   // the recipe's dose reaches the shot plan: 2 shots, 18 g
   await expect(oat.getByTestId('shot-plan')).toContainText('2 shots · 18 g');
   await bar.screenshot({ path: `${SHOTS}/bar-ember.png` });
