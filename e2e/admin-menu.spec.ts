@@ -99,7 +99,7 @@ test('the owner adds a seasonal drink with its recipe; the open Counter sells it
   // whose fill line holds it. Demo café: waste 15 ml; pitchers 350/190, 600/330, 950/520 ml.
   // By hand: 240 ml + 15 ml = 255 ml; 255 > 190, 255 ≤ 330 → the 600 ml pitcher, pour 255 ml.
   const menu = await (await owner.request.get(`${own.baseURL}/api/menu`)).json();
-  expect(menu.location.jugRules.wasteMl).toBe(15);
+  expect(menu.location.jugWasteMl).toBe(15);
   const oat = bar.getByTestId('lane').filter({ has: bar.getByRole('heading', { name: 'Oat' }) });
   await expect(oat.getByTestId('drink-card')).toHaveCount(1);
   await expect(oat.getByTestId('drink-card')).toContainText('Ember Spice Latte');

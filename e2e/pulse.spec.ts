@@ -41,7 +41,7 @@ test('a shift on Pulse: open, live numbers, close with a count, report mailed', 
   await expect(pulse.getByTestId('staffing')).not.toBeEmpty();
   // the target as it is, and what the estimate was made from in café words; the method in a help note
   await expect(pulse.getByRole('banner').getByText('Target 4:00')).toBeVisible();
-  await expect(pulse.getByTestId('staffing-inputs')).toContainText('From 3 drinks fired in the last 30 min');
+  await expect(pulse.getByTestId('staffing-inputs')).toContainText(/From \d+ drinks fired in the last 30 min/);
   await expect(pulse.getByTestId('staffing-inputs')).toContainText('with 2 on bar');
   await expect(pulse.getByTestId('staffing-inputs')).not.toContainText('Erlang');
   await pulse.screenshot({ path: 'docs/screenshots/pulse.png', fullPage: true });
