@@ -197,8 +197,9 @@ describe('menu CSV import', () => {
   const upload = (text: string) => owner.post('/api/menu/import').attach('file', Buffer.from(text, 'utf8'), { filename: 'menu.csv', contentType: 'text/csv' });
 
   it('refuses a forbidden character in a name cell with the row and column, and imports nothing', async () => {
-    // a lone surrogate can't be written as UTF-8 at all (the file would carry U+FFFD instead)
-    const inFile = forbidden.filter((ch) => !/[\uD800-\uDFFF]/.test(ch));
+    // a lone surrogate can't be written as UTF-8 at all (the file would carry U+FFFD instead);
+    // a NUL byte marks the whole upload as binary (415), checked in its own test below
+    const inFile = forbidden.filter((ch) => !/[\uD800-\uDFFF\u0000]/.test(ch));
     await fc.assert(
       fc.asyncProperty(fc.constantFrom('category', 'item', 'size'), inFile, async (column, ch) => {
         const cells: Record<string, string> = { category: 'Brunch', item: 'Quay Latte', size: 'Regular' };
@@ -214,5 +215,14 @@ describe('menu CSV import', () => {
       }),
       { numRuns: RUNS },
     );
+  });
+
+  it('refuses a NUL byte in any cell as a file that is not text, and imports nothing', async () => {
+    const before = await rowCounts();
+    const row = `"Brunch","Qu\u0000ay Latte",bar,"Regular",355,4.80,2,18,36,240,yes,WH,silky,milk,yes`;
+    const res = await upload(`${HEADER}\r\n${row}\r\n`);
+    expect(res.status).toBe(415);
+    expect(res.body.error.message).toMatch(/not a CSV text file/);
+    expect(await rowCounts()).toEqual(before);
   });
 });
