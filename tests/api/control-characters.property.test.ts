@@ -195,6 +195,9 @@ describe('a forbidden character in any free-text field', () => {
 describe('menu CSV import', () => {
   const HEADER = MENU_CSV_COLUMNS.join(',');
   const upload = (text: string) => owner.post('/api/menu/import').attach('file', Buffer.from(text, 'utf8'), { filename: 'menu.csv', contentType: 'text/csv' });
+  // one latte row, its names quoted so a line break or a comma stays inside its cell
+  const fileWith = (cells: { category: string; item: string; size: string }) =>
+    `${HEADER}\r\n"${cells.category}","${cells.item}",bar,"${cells.size}",355,4.80,2,18,36,240,yes,WH,silky,milk,yes\r\n`;
 
   it('refuses a forbidden character in a name cell with the row and column, and imports nothing', async () => {
     // a lone surrogate can't be written as UTF-8 at all (the file would carry U+FFFD instead);
@@ -202,12 +205,10 @@ describe('menu CSV import', () => {
     const inFile = forbidden.filter((ch) => !/[\uD800-\uDFFF\u0000]/.test(ch));
     await fc.assert(
       fc.asyncProperty(fc.constantFrom('category', 'item', 'size'), inFile, async (column, ch) => {
-        const cells: Record<string, string> = { category: 'Brunch', item: 'Quay Latte', size: 'Regular' };
+        const cells = { category: 'Brunch', item: 'Quay Latte', size: 'Regular' };
         cells[column] = `Qu${ch}ay`;
-        // quoted, so a line break or a comma stays inside its cell
-        const row = `"${cells.category}","${cells.item}",bar,"${cells.size}",355,4.80,2,18,36,240,yes,WH,silky,milk,yes`;
         const before = await rowCounts();
-        const res = await upload(`${HEADER}\r\n${row}\r\n`);
+        const res = await upload(fileWith(cells));
         const what = `${column} with U+${ch.charCodeAt(0).toString(16).padStart(4, '0')} → ${res.status} ${JSON.stringify(res.body).slice(0, 300)}`;
         expect(res.status, what).toBe(400);
         expect(res.body.error.details, what).toContainEqual(expect.objectContaining({ row: 2, column }));
@@ -217,10 +218,9 @@ describe('menu CSV import', () => {
     );
   });
 
-  it('refuses a NUL byte in any cell as a file that is not text, and imports nothing', async () => {
+  it('refuses a NUL byte in a name cell as a file that is not text, and imports nothing', async () => {
     const before = await rowCounts();
-    const row = `"Brunch","Qu\u0000ay Latte",bar,"Regular",355,4.80,2,18,36,240,yes,WH,silky,milk,yes`;
-    const res = await upload(`${HEADER}\r\n${row}\r\n`);
+    const res = await upload(fileWith({ category: 'Brunch', item: 'Qu\u0000ay Latte', size: 'Regular' }));
     expect(res.status).toBe(415);
     expect(res.body.error.message).toMatch(/not a CSV text file/);
     expect(await rowCounts()).toEqual(before);
