@@ -33,6 +33,14 @@ export function leavePage(url: string) {
   window.location.assign(url);
 }
 
+/** End the session and load sign-in. Leaving is marked first: until the page changes, a screen's
+ * own request may answer 401, and that must not send the person to sign-in with ?next= back here. */
+export async function signOut() {
+  leaving = true;
+  await http('DELETE', '/session').catch(() => undefined);
+  window.location.assign('/signin');
+}
+
 /** A screen's own background refresh: not a person at work, so it doesn't keep an idle session alive. */
 export const PASSIVE_REQUEST_HEADER = 'x-jugline-passive';
 

@@ -1,13 +1,13 @@
 // Who is signed in, the other screens their role opens, and sign out.
-import { useQuery, useQueryClient } from '@tanstack/react-query';
-import { Link, useLocation, useNavigate } from 'react-router';
+import { useQuery } from '@tanstack/react-query';
+import { Link, useLocation } from 'react-router';
 import { can } from '../../domain/roles';
 import { SCREENS } from '../../domain/screens';
 import { sessionQuery } from '../../features/session/queries';
 import { SwitchPersonButton } from '../../features/team/switch-person-button';
 import { useApi } from '../../lib/api-context';
 import { cn } from '../../lib/cn';
-import { http } from '../../lib/http';
+import { signOut } from '../../lib/http';
 import { confirmLeave } from '../../lib/leave-guard';
 
 const MENU = [
@@ -28,16 +28,11 @@ const MENU = [
 export function StaffMenu({ dark = false }: { dark?: boolean }) {
   const api = useApi();
   const { data } = useQuery(sessionQuery(api));
-  const qc = useQueryClient();
-  const navigate = useNavigate();
   const here = useLocation().pathname;
   const user = data?.user;
   if (!user) return null;
-  const signOut = async () => {
-    if (!confirmLeave()) return;
-    await http('DELETE', '/session').catch(() => undefined);
-    qc.clear();
-    navigate('/signin', { replace: true });
+  const onSignOut = () => {
+    if (confirmLeave()) void signOut();
   };
   return (
     <nav aria-label="Screens" className={cn('flex items-center gap-3 text-base', dark ? 'text-crema-300' : 'text-ink-600')}>
@@ -48,7 +43,7 @@ export function StaffMenu({ dark = false }: { dark?: boolean }) {
       ))}
       <span className={dark ? 'text-crema-100' : 'text-ink-900'}>{user.name}</span>
       <SwitchPersonButton className="min-h-11 rounded-lg border border-current px-3 font-semibold" />
-      <button type="button" onClick={signOut} className="min-h-11 rounded-lg border border-current px-3 font-semibold">
+      <button type="button" onClick={onSignOut} className="min-h-11 rounded-lg border border-current px-3 font-semibold">
         Sign out
       </button>
     </nav>
