@@ -35,7 +35,7 @@ test('owner changes units, wait target, a pitcher and the allergen list; an open
   });
   expect(placed.status()).toBe(201);
   const oatLane = bar.getByTestId('lane').filter({ has: bar.getByRole('heading', { name: 'Oat' }) });
-  await expect(oatLane.getByTestId('jug-plan')).toContainText('600 ml pitcher · pour 285 ml');
+  await expect(oatLane.getByTestId('jug-plan')).toContainText('600 ml pitcher · fill to 285 ml');
 
   // The demo café reads ounces and °F: the Counter's sizes and the Bar's caution say so
   await expect(bar.getByTestId('steam-caution')).toContainText('266 °F');
@@ -93,7 +93,7 @@ test('owner changes units, wait target, a pitcher and the allergen list; an open
   await six.getByRole('button', { name: 'Save pitcher' }).click();
   await expect(pitchers.getByRole('status')).toContainText('Pitcher saved');
   await expect(pitchers.getByRole('form', { name: 'Pitcher of 700 ml' })).toBeVisible();
-  await expect(oatLane.getByTestId('jug-plan')).toContainText('700 ml pitcher · pour 285 ml');
+  await expect(oatLane.getByTestId('jug-plan')).toContainText('700 ml pitcher · fill to 285 ml');
 
   // Money: a lower-case currency is taken as its code; 8.875 % is stored as 8875 and shown as typed
   const money = section(owner, 'Money and tax');

@@ -56,19 +56,19 @@ test('a started jug keeps its drinks when a newer one arrives; "Bump jug 1" bump
   const whole = laneOf(bar, 'Whole');
   const jugs = whole.getByTestId('jug');
   await expect(jugs).toHaveCount(1);
-  await expect(jugs.first()).toContainText('Jug 1: 350 ml pitcher · pour 135 ml (15 ml waste) · 1 drink · steam flat');
+  await expect(jugs.first()).toContainText('Jug 1: 350 ml pitcher · fill to 135 ml (15 ml waste) · 1 drink · short stretch (wet)');
   await whole.getByRole('button', { name: 'Start jug 1' }).click();
   await expect(jugs.first()).toHaveAttribute('data-jug-state', 'started');
-  await expect(jugs.first()).toContainText('Jug 1 · started: 350 ml pitcher · pour 135 ml');
+  await expect(jugs.first()).toContainText('Jug 1 · started: 350 ml pitcher · fill to 135 ml');
   await expect(cardOf(bar, 'Nell Avery')).toContainText('Making');
 
   // A cappuccino arrives: 210 + 15 = 225 ml, foamy → the 600 ml pitcher. It is jug 2.
   await orderWhole('Cappuccino', 'Otis Crane');
   await expect(cardOf(bar, 'Otis Crane')).toBeVisible();
   await expect(jugs).toHaveCount(2);
-  await expect(jugs.nth(0)).toContainText('Jug 1 · started: 350 ml pitcher · pour 135 ml (15 ml waste) · 1 drink · steam flat');
+  await expect(jugs.nth(0)).toContainText('Jug 1 · started: 350 ml pitcher · fill to 135 ml (15 ml waste) · 1 drink · short stretch (wet)');
   await expect(jugs.nth(1)).toHaveAttribute('data-jug-state', 'planned');
-  await expect(jugs.nth(1)).toContainText('Jug 2: 600 ml pitcher · pour 225 ml (15 ml waste) · 1 drink · steam foamy');
+  await expect(jugs.nth(1)).toContainText('Jug 2: 600 ml pitcher · fill to 225 ml (15 ml waste) · 1 drink · long stretch (dry)');
   await expect(cardOf(bar, 'Nell Avery')).toContainText('Jug 1 · pour 1st');
   await expect(cardOf(bar, 'Otis Crane')).toContainText('Jug 2 · pour 1st');
   // the other screen shows the same, from the live events alone
@@ -81,7 +81,7 @@ test('a started jug keeps its drinks when a newer one arrives; "Bump jug 1" bump
   await expect(cardOf(bar, 'Otis Crane')).toContainText('Start');
   await expect(jugs).toHaveCount(1);
   await expect(jugs.first()).toHaveAttribute('data-jug-state', 'planned');
-  await expect(jugs.first()).toContainText('Jug 1: 600 ml pitcher · pour 225 ml');
+  await expect(jugs.first()).toContainText('Jug 1: 600 ml pitcher · fill to 225 ml');
   await bar.screenshot({ path: path.join(SHOTS, 'after-bump-jug-1.png') });
 
   for (const page of [bar, other]) expect(errorsOf(page)).toEqual([]);
