@@ -7,7 +7,7 @@
 import { mkdirSync } from 'node:fs';
 import type { Browser, Page } from '@playwright/test';
 import { apiAs, order, type Line } from './bar-orders';
-import { errorsOf, expect, signIn, test, watchForErrors, type Login } from './fixtures';
+import { errorsOf, expect, pageAs, signIn, test, watchForErrors, type Login } from './fixtures';
 import { OwnServer } from './own-server';
 
 const SHOTS = 'test-results/shots';
@@ -18,12 +18,8 @@ test.beforeAll(async () => {
 });
 test.afterAll(() => own?.dispose());
 
-async function pageOn(browser: Browser, login: Login, at: string, viewport = { width: 1920, height: 1080 }) {
-  const context = await browser.newContext({ baseURL: own.baseURL, viewport });
-  const page = await context.newPage();
-  watchForErrors(page);
-  await signIn(page, login, at);
-  await page.waitForURL(`**${at}`);
+async function pageOn(browser: Browser, login: Login, at: string) {
+  const page = await pageAs(browser, login, at, { width: 1920, height: 1080 }, own.baseURL);
   await expect(page.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
   return page;
 }
@@ -206,7 +202,9 @@ test('a rush with seven milks: every lane in sight, oldest first, keys that stay
     expect(b.right).toBeLessThanOrEqual(390);
   }
   for (let i = 1; i < boxes.length; i++) expect(boxes[i].top).toBeGreaterThan(boxes[i - 1].top);
-  await bar.screenshot({ path: `${SHOTS}/bar-rush-390.png`, fullPage: true });
+  await bar.screenshot({ path: `${SHOTS}/bar-rush-390.png` });
+  await bar.evaluate(() => document.querySelector('[data-lane="Soy"]')!.scrollIntoView());
+  await bar.screenshot({ path: `${SHOTS}/bar-rush-390-allergy.png` });
 
   // 8. The cup labels say it too, in words and a shape.
   const labels = await (await browser.newContext({ baseURL: own.baseURL, viewport: { width: 1024, height: 768 } })).newPage();

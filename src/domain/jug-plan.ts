@@ -18,7 +18,7 @@
 //   silky, then foamy), since the foam rises to the top as the jug empties;
 // - iced drinks take cold milk straight from the fridge: no jug.
 import type { Texture } from './types';
-import { cupSizeLabel, type VolumeUnit } from './units';
+import { cupSizeLabel, mlToUsFlOz, type VolumeUnit } from './units';
 
 export type SteamedTexture = Exclude<Texture, 'cold'>;
 
@@ -139,8 +139,10 @@ export const STRETCH: Record<SteamedTexture, string> = {
  */
 export function describeJug(b: Jug, unit: VolumeUnit = 'ml'): string {
   const v = (ml: number) => cupSizeLabel(ml, unit);
+  // pitchers are sold by the whole ounce (12, 20, 32 oz); the fill is read to the half ounce
+  const pitcher = unit === 'ml' ? v(b.pitcher.capacityMl) : `${Math.round(mlToUsFlOz(b.pitcher.capacityMl))} oz`;
   const n = b.drinkIds.length;
   const waste = b.wasteMl > 0 ? ` (${v(b.wasteMl)} waste)` : '';
   const over = b.fits ? '' : ' · too much for one pitcher: steam it in two goes';
-  return `${v(b.pitcher.capacityMl)} pitcher · fill to ${v(b.coldMl)}${waste} · ${n} drink${n === 1 ? '' : 's'} · ${STRETCH[b.steamFor]}${over}`;
+  return `${pitcher} pitcher · fill to ${v(b.coldMl)}${waste} · ${n} drink${n === 1 ? '' : 's'} · ${STRETCH[b.steamFor]}${over}`;
 }
