@@ -27,8 +27,8 @@ function measure(main: HTMLElement): Sight {
     const key = lane.dataset.laneKey!;
     const r = lane.getBoundingClientRect();
     const off = r.left < left || r.right > right;
-    if (r.right <= left + r.width / 2) sight.offLeft.push(key);
-    else if (off) sight.offRight.push(key);
+    // a lane cut by the left edge is signposted on the left, one cut by the right edge on the right
+    if (off) (r.left < left ? sight.offLeft : sight.offRight).push(key);
     const box = lane.querySelector<HTMLElement>('[data-testid="lane-cards"]')!.getBoundingClientRect();
     let below = 0;
     for (const card of lane.querySelectorAll<HTMLElement>('[data-testid="drink-card"]')) {
