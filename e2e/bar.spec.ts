@@ -24,7 +24,7 @@ test('two bar screens: jug plan, keyboard bump, allergy read, Pickup, rush', asy
   await expect(counter.getByRole('status').filter({ hasText: 'Ada Whitlow' })).toBeVisible();
   const oat1 = bar1.getByTestId('lane').filter({ has: bar1.getByRole('heading', { name: 'Oat' }) });
   await expect(oat1.getByTestId('drink-card').filter({ hasText: 'Ada Whitlow' })).toHaveCount(1);
-  await expect(oat1.getByTestId('jug-plan')).toContainText('pour');
+  await expect(oat1.getByTestId('jug-plan')).toContainText('fill to');
   await expect(cardsOf(bar2, 'Ada Whitlow')).toHaveCount(1);
 
   // Keyboard on screen 1: the card's number key bumps it; it leaves both screens
