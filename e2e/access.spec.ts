@@ -53,7 +53,7 @@ test('the server-rendered Bar lists every open drink before any script runs', as
   for (const name of ['Mocha', 'Long black', 'Chai latte', 'Kit Morrow', 'Dana Pell']) expect(html).toContain(name);
   // lanes, jug plans and ages are in the HTML too, and a no-script refresh keeps it current
   for (const lane of ['Soy', 'Almond', 'No milk']) expect(html).toContain(`data-lane="${lane}"`);
-  expect(html).toMatch(/Jug 1(<!-- -->)?:<\/span> <!-- -->\d+ ml pitcher · pour \d+ ml/);
+  expect(html).toMatch(/Jug 1(<!-- -->)?:<\/span> <!-- -->\d+ oz pitcher · fill to \d+(\.5)? oz/);
   expect(html).toMatch(/data-testid="age"[^>]*>\d+:\d\d</);
   expect(html).toContain('<noscript><meta http-equiv="refresh" content="10"></noscript>');
   await api.dispose();

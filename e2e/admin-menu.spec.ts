@@ -103,8 +103,9 @@ test('the owner adds a seasonal drink with its recipe; the open Counter sells it
   const oat = bar.getByTestId('lane').filter({ has: bar.getByRole('heading', { name: 'Oat' }) });
   await expect(oat.getByTestId('drink-card')).toHaveCount(1);
   await expect(oat.getByTestId('drink-card')).toContainText('Ember Spice Latte');
-  await expect(oat.getByTestId('jug-plan')).toContainText('600 ml pitcher · pour 255 ml');
-  await expect(oat.getByTestId('jug-plan')).toContainText('1 drink · steam silky');
+  // in the café's US fl oz: 600 ml ≈ 20.3 → 20 oz; 255 ml ≈ 8.6 → 8.5 oz
+  await expect(oat.getByTestId('jug-plan')).toContainText('20 oz pitcher · fill to 8.5 oz');
+  await expect(oat.getByTestId('jug-plan')).toContainText('1 drink · medium stretch (silky)');
   // the recipe's dose reaches the shot plan: 2 shots, 18 g
   await expect(oat.getByTestId('shot-plan')).toContainText('2 shots · 18 g');
   await bar.screenshot({ path: `${SHOTS}/bar-ember.png` });

@@ -35,7 +35,8 @@ test('owner changes units, wait target, a pitcher and the allergen list; an open
   });
   expect(placed.status()).toBe(201);
   const oatLane = bar.getByTestId('lane').filter({ has: bar.getByRole('heading', { name: 'Oat' }) });
-  await expect(oatLane.getByTestId('jug-plan')).toContainText('600 ml pitcher · pour 285 ml');
+  // in the café's US fl oz: 600 ml ≈ 20.3 → a 20 oz pitcher (whole ounces); 285 ml ≈ 9.6 → 9.5 oz (half ounces)
+  await expect(oatLane.getByTestId('jug-plan')).toContainText('20 oz pitcher · fill to 9.5 oz');
 
   // The demo café reads ounces and °F: the Counter's sizes and the Bar's caution say so
   await expect(bar.getByTestId('steam-caution')).toContainText('266 °F');
@@ -56,6 +57,7 @@ test('owner changes units, wait target, a pitcher and the allergen list; an open
   await expect(units.getByRole('status')).toContainText('Saved');
   await expect(bar.getByTestId('steam-caution')).toContainText('130 °C');
   await expect(bar.getByTestId('steam-caution')).not.toContainText('°F');
+  await expect(oatLane.getByTestId('jug-plan')).toContainText('600 ml pitcher · fill to 285 ml');
   await counter.getByRole('button', { name: /^Latte/ }).click();
   await expect(counter.getByRole('radio', { name: /Regular/ })).toContainText('350 ml');
   await counter.getByRole('button', { name: 'Cancel' }).click();
@@ -93,7 +95,8 @@ test('owner changes units, wait target, a pitcher and the allergen list; an open
   await six.getByRole('button', { name: 'Save pitcher' }).click();
   await expect(pitchers.getByRole('status')).toContainText('Pitcher saved');
   await expect(pitchers.getByRole('form', { name: 'Pitcher of 700 ml' })).toBeVisible();
-  await expect(oatLane.getByTestId('jug-plan')).toContainText('700 ml pitcher · pour 285 ml');
+  // 700 ml ≈ 23.7 → a 24 oz pitcher
+  await expect(oatLane.getByTestId('jug-plan')).toContainText('24 oz pitcher · fill to 9.5 oz');
 
   // Money: a lower-case currency is taken as its code; 8.875 % is stored as 8875 and shown as typed
   const money = section(owner, 'Money and tax');

@@ -52,27 +52,30 @@ test('a started jug keeps its drinks when a newer one arrives; "Bump jug 1" bump
   for (const p of [bar, other]) await expect(p.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
 
   // A flat white: 120 ml + 15 ml waste = 135 ml → the 350 ml pitcher (fill line 190, minimum 120).
+  // The demo café reads US fl oz (1 oz = 29.5735 ml): 350 ml ≈ 11.8 → a 12 oz pitcher (whole
+  // ounces), 135 ml ≈ 4.6 → 4.5 oz and 15 ml ≈ 0.5 oz (half ounces, src/domain/units.ts).
   await orderWhole('Flat white', 'Nell Avery');
   const whole = laneOf(bar, 'Whole');
   const jugs = whole.getByTestId('jug');
   await expect(jugs).toHaveCount(1);
-  await expect(jugs.first()).toContainText('Jug 1: 350 ml pitcher · pour 135 ml (15 ml waste) · 1 drink · steam flat');
+  await expect(jugs.first()).toContainText('Jug 1: 12 oz pitcher · fill to 4.5 oz (0.5 oz waste) · 1 drink · short stretch (wet)');
   await whole.getByRole('button', { name: 'Start jug 1' }).click();
   await expect(jugs.first()).toHaveAttribute('data-jug-state', 'started');
-  await expect(jugs.first()).toContainText('Jug 1 · started: 350 ml pitcher · pour 135 ml');
+  await expect(jugs.first()).toContainText('Jug 1 · started: 12 oz pitcher · fill to 4.5 oz');
   await expect(cardOf(bar, 'Nell Avery')).toContainText('Making');
 
-  // A cappuccino arrives: 210 + 15 = 225 ml, foamy → the 600 ml pitcher. It is jug 2.
+  // A cappuccino arrives: 210 + 15 = 225 ml, foamy → the 600 ml pitcher (≈ 20.3 → 20 oz; 225 ml ≈
+  // 7.6 → 7.5 oz). It is jug 2.
   await orderWhole('Cappuccino', 'Otis Crane');
   await expect(cardOf(bar, 'Otis Crane')).toBeVisible();
   await expect(jugs).toHaveCount(2);
-  await expect(jugs.nth(0)).toContainText('Jug 1 · started: 350 ml pitcher · pour 135 ml (15 ml waste) · 1 drink · steam flat');
+  await expect(jugs.nth(0)).toContainText('Jug 1 · started: 12 oz pitcher · fill to 4.5 oz (0.5 oz waste) · 1 drink · short stretch (wet)');
   await expect(jugs.nth(1)).toHaveAttribute('data-jug-state', 'planned');
-  await expect(jugs.nth(1)).toContainText('Jug 2: 600 ml pitcher · pour 225 ml (15 ml waste) · 1 drink · steam foamy');
+  await expect(jugs.nth(1)).toContainText('Jug 2: 20 oz pitcher · fill to 7.5 oz (0.5 oz waste) · 1 drink · long stretch (dry)');
   await expect(cardOf(bar, 'Nell Avery')).toContainText('Jug 1 · pour 1st');
   await expect(cardOf(bar, 'Otis Crane')).toContainText('Jug 2 · pour 1st');
   // the other screen shows the same, from the live events alone
-  await expect(laneOf(other, 'Whole').getByTestId('jug').nth(1)).toContainText('Jug 2: 600 ml pitcher');
+  await expect(laneOf(other, 'Whole').getByTestId('jug').nth(1)).toContainText('Jug 2: 20 oz pitcher');
   await bar.screenshot({ path: path.join(SHOTS, 'started-jug-and-newcomer.png') });
 
   await whole.getByRole('button', { name: 'Bump jug 1' }).click();
@@ -81,7 +84,7 @@ test('a started jug keeps its drinks when a newer one arrives; "Bump jug 1" bump
   await expect(cardOf(bar, 'Otis Crane')).toContainText('Start');
   await expect(jugs).toHaveCount(1);
   await expect(jugs.first()).toHaveAttribute('data-jug-state', 'planned');
-  await expect(jugs.first()).toContainText('Jug 1: 600 ml pitcher · pour 225 ml');
+  await expect(jugs.first()).toContainText('Jug 1: 20 oz pitcher · fill to 7.5 oz');
   await bar.screenshot({ path: path.join(SHOTS, 'after-bump-jug-1.png') });
 
   for (const page of [bar, other]) expect(errorsOf(page)).toEqual([]);

@@ -28,11 +28,29 @@ export async function openDrinks(trx: Knex.Transaction, user: SessionUser, drink
       'orders.fired_at',
       'orders.created_at as order_created_at',
       'orders.rushed_at',
-    );
+      'orders.number as order_number',
+      'orders.customer_name',
+      'bumper.name as done_by_name',
+    )
+    .leftJoin('users as bumper', 'bumper.id', 'order_items.done_by');
   for (const id of drinkIds) if (!rows.some((r) => r.id === id)) throw notFound(`Drink ${id}`);
-  for (const r of rows) if (r.order_status !== 'open') throw conflict(`Drink ${r.id} is not on an open ticket`);
+  for (const r of rows) if (r.order_status !== 'open') throw conflict(notOnBar(r));
   return rows;
 }
+
+// Refusals in the bar's words: which ticket (number and first name, as on the card), and what
+// happened to it — usually another screen bumped it a moment earlier.
+const firstOf = (name: string | null | undefined) => (name ?? '').trim().split(/\s+/)[0] || 'someone else';
+export const ticketWords = (r: DrinkRow) => `#${r.order_number} ${firstOf(r.customer_name)}`;
+
+function notOnBar(r: DrinkRow): string {
+  if (r.order_status === 'ready' || r.order_status === 'collected')
+    return `${ticketWords(r)} was already bumped${r.done_by_name ? ` by ${firstOf(r.done_by_name)}` : ''}: it is done`;
+  if (r.order_status === 'void') return `${ticketWords(r)} was voided: it is not on the bar`;
+  return `${ticketWords(r)} is waiting for its payment: it is not on the bar yet`;
+}
+
+export const alreadyBumped = (r: DrinkRow) => `The ${r.item_name} for ${ticketWords(r)} was already bumped by ${firstOf(r.done_by_name)}`;
 
 /** The rows in the bar's lane order: rushed first, then oldest ticket, then line. */
 export const inLaneOrder = (rows: DrinkRow[]) =>
@@ -87,7 +105,7 @@ export async function ticketEvents(trx: Knex.Transaction, user: SessionUser, ord
  */
 export async function bumpRows(trx: Knex.Transaction, user: SessionUser, rows: DrinkRow[], at: string) {
   const done = rows.find((r) => r.status === 'done');
-  if (done) throw conflict(`Drink ${done.id} was already bumped`);
+  if (done) throw conflict(alreadyBumped(done));
   assertAllergyRead(rows);
   const drinkIds = rows.map((r) => r.id);
   const bumpSeq = await nextBumpSeq(trx);

@@ -8,7 +8,7 @@ import type { SessionUser } from '../../src/domain/types';
 import type { DialInView, LoggedShot } from '../../src/lib/beans-api';
 import { conflict, notFound } from '../errors';
 import type { Deps } from './deps';
-import { runCommand } from './events';
+import { appendBeansChangedEvent, runCommand } from './events';
 import { loadLocation } from './menu';
 import { loadBeanSettings, loadLotViews, locationLocale, shotsQuery, toShotView } from './beans-views';
 
@@ -97,7 +97,7 @@ export function logShot(deps: Deps, user: SessionUser, body: DialInShotBody) {
     const { timeZone } = await loadLocation(trx, user.locationId);
     const [view] = await loadLotViews(trx, { locationId: user.locationId, timeZone, now, includeRetired: false, lotId: lot.id });
     const saved = await shotsQuery(trx).where({ 'dial_in_shots.id': id }).first();
-    // no live event: nothing on another screen changes at once; the Bar's strip refetches itself
-    return { result: { shot: toShotView(saved), advice, lot: view }, events: [] };
+    // every open Bar reloads its "on the grinder" line: a good shot is the settings to pull with
+    return { result: { shot: toShotView(saved), advice, lot: view }, events: [await appendBeansChangedEvent(trx, user.locationId, at, user.id)] };
   });
 }

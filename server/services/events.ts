@@ -56,6 +56,12 @@ export async function appendMenuChangedEvent(trx: Knex.Transaction, locationId: 
   return { locationId, event: { seq, type: 'menu.changed', at } };
 }
 
+/** A dial-in shot was logged; the Bar's grinder line reloads (the menu does not). */
+export async function appendBeansChangedEvent(trx: Knex.Transaction, locationId: number, at: string, actorId: number | null): Promise<PendingEvent> {
+  const seq = await insertEvent(trx, locationId, 'beans.changed', {}, at, actorId);
+  return { locationId, event: { seq, type: 'beans.changed', at } };
+}
+
 /** Run a command in one transaction; publish its events only once it has committed. */
 export async function runCommand<T>(
   deps: Deps,

@@ -12,7 +12,7 @@ function toDrink(r: Record<string, any>): DrinkView {
     itemName: r.item_name,
     sizeName: r.size_name,
     volumeMl: r.volume_ml,
-    milk: r.milk_id ? { id: r.milk_id, name: r.milk_name, code: r.milk_code } : null,
+    milk: r.milk_id ? { id: r.milk_id, name: r.milk_name, code: r.milk_code, sort: r.milk_sort ?? 0 } : null,
     shots: r.shots,
     milkMl: r.milk_ml,
     texture: r.texture,
@@ -52,6 +52,7 @@ export async function loadTickets(db: Db, orders: Record<string, any>[]): Promis
     .leftJoin('users as bumper', 'bumper.id', 'order_items.done_by')
     .leftJoin('jug_drinks', 'jug_drinks.order_item_id', 'order_items.id')
     .leftJoin('jugs', 'jugs.id', 'jug_drinks.jug_id')
+    .leftJoin('milk_options', 'milk_options.id', 'order_items.milk_id')
     .whereIn('order_items.order_id', orders.map((o) => o.id))
     .andWhere('order_items.station', 'bar')
     .orderBy(['order_items.order_id', 'order_items.line_no'])
@@ -68,6 +69,7 @@ export async function loadTickets(db: Db, orders: Record<string, any>[]): Promis
       'jugs.waste_ml as jug_waste_ml',
       'jugs.steam_for as jug_steam_for',
       'jugs.fits as jug_fits',
+      'milk_options.sort as milk_sort',
     );
   const takers = new Map<number, string>();
   const takerIds = [...new Set(orders.map((o) => o.taken_by).filter((id): id is number => id != null))];

@@ -4,7 +4,7 @@ import type { BoardSnapshot, SessionUser } from '../../src/domain/types';
 import { needsJug } from '../../src/domain/jug-plan';
 import { RECALL_WINDOW_SECONDS } from '../../src/domain/timing';
 import { conflict, notFound } from '../errors';
-import { assertAllergyRead, bumpRows, nextBumpSeq, openDrinks, settleTicket, startRows, ticketEvents } from './bar-rows';
+import { alreadyBumped, assertAllergyRead, bumpRows, nextBumpSeq, openDrinks, settleTicket, startRows, ticketEvents, ticketWords } from './bar-rows';
 import { recordCoffeeUse, returnCoffeeUse } from './beans-usage';
 import type { Deps } from './deps';
 import { appendEvent, latestSeq, runCommand } from './events';
@@ -26,6 +26,7 @@ export async function boardSnapshot(deps: Deps, locationId: number): Promise<Boa
         name: location.name,
         waitTargetSeconds: location.waitTargetSeconds,
         pickupTimeoutSeconds: location.pickupTimeoutSeconds,
+        volumeUnit: location.volumeUnit ?? 'ml',
         jugRules: await loadJugRules(trx, locationId),
       },
       tickets,
@@ -48,7 +49,7 @@ export function startDrinks(deps: Deps, user: SessionUser, drinkIds: number[]) {
   return runCommand(deps, async (trx) => {
     const rows = await openDrinks(trx, user, drinkIds);
     const busy = rows.find((r) => r.status !== 'queued');
-    if (busy) throw conflict(`Drink ${busy.id} is already ${busy.status === 'done' ? 'done' : 'being made'}`);
+    if (busy) throw conflict(busy.status === 'done' ? alreadyBumped(busy) : `The ${busy.item_name} for ${ticketWords(busy)} is already being made`);
     const at = deps.clock().toISOString();
     const steamed = rows.filter((r) => needsJug({ id: r.id, milkMl: r.milk_ml, texture: r.texture }));
     for (const row of steamed) await openJug(trx, user, [row], at);

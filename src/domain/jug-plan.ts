@@ -18,6 +18,7 @@
 //   silky, then foamy), since the foam rises to the top as the jug empties;
 // - iced drinks take cold milk straight from the fridge: no jug.
 import type { Texture } from './types';
+import { cupSizeLabel, mlToUsFlOz, type VolumeUnit } from './units';
 
 export type SteamedTexture = Exclude<Texture, 'cold'>;
 
@@ -122,10 +123,26 @@ export function planJugs(drinks: JugDrink[], rules: JugRules): Jug[] {
   return jugs.map((j) => makeJug(j, rules)!);
 }
 
-/** "600 ml pitcher · pour 340 ml (15 ml waste) · 3 drinks · steam silky" */
-export function describeJug(b: Jug): string {
+/**
+ * The texture in the words baristas use at the wand: how long the milk is stretched (air let in)
+ * and what foam that makes — wet and thin for a flat white, dry and thick for a cappuccino.
+ */
+export const STRETCH: Record<SteamedTexture, string> = {
+  flat: 'short stretch (wet)',
+  silky: 'medium stretch (silky)',
+  foamy: 'long stretch (dry)',
+};
+
+/**
+ * "600 ml pitcher · fill to 340 ml (15 ml waste) · 3 drinks · medium stretch (silky)", in the
+ * café's unit. "Fill" is the pitcher's cold milk; "pour" is kept for the cups.
+ */
+export function describeJug(b: Jug, unit: VolumeUnit = 'ml'): string {
+  const v = (ml: number) => cupSizeLabel(ml, unit);
+  // pitchers are sold by the whole ounce (12, 20, 32 oz); the fill is read to the half ounce
+  const pitcher = unit === 'ml' ? v(b.pitcher.capacityMl) : `${Math.round(mlToUsFlOz(b.pitcher.capacityMl))} oz`;
   const n = b.drinkIds.length;
-  const waste = b.wasteMl > 0 ? ` (${b.wasteMl} ml waste)` : '';
+  const waste = b.wasteMl > 0 ? ` (${v(b.wasteMl)} waste)` : '';
   const over = b.fits ? '' : ' · too much for one pitcher: steam it in two goes';
-  return `${b.pitcher.capacityMl} ml pitcher · pour ${b.coldMl} ml${waste} · ${n} drink${n === 1 ? '' : 's'} · steam ${b.steamFor}${over}`;
+  return `${pitcher} pitcher · fill to ${v(b.coldMl)}${waste} · ${n} drink${n === 1 ? '' : 's'} · ${STRETCH[b.steamFor]}${over}`;
 }

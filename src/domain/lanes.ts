@@ -1,6 +1,8 @@
-// Milk lanes: the bar's open drinks grouped by milk, then by shot count, oldest ticket first.
+// Milk lanes: the bar's open drinks grouped by milk, each lane oldest ticket first (rushed first).
+// The shot count is a mark on the card, never a section that reorders the lane. Lanes keep the
+// menu's milk order, so a lane stays where the baristas last saw it however many drinks it holds.
 import { planJugs, pourOrder, type Jug, type JugRules } from './jug-plan';
-import type { DrinkView, MilkRef, TicketView } from './types';
+import type { DrinkView, MilkRef, Service, TicketView } from './types';
 
 /** A drink as the bar shows it: with its ticket's number, name and age, and its place in it. */
 export interface DrinkCard extends DrinkView {
@@ -10,6 +12,8 @@ export interface DrinkCard extends DrinkView {
   rushedAt: string | null;
   /** Who took the order at the counter. */
   takenBy?: string | null;
+  /** Here (a mug) or to go (a paper cup). */
+  service: Service;
   /** The ticket's allergy, if any; the drink can't be bumped until it is acknowledged. */
   allergens: string[];
   allergyNote: string | null;
@@ -18,16 +22,12 @@ export interface DrinkCard extends DrinkView {
   ticketSize: number;
 }
 
-export interface ShotGroup {
-  shots: number;
-  drinks: DrinkCard[];
-}
-
 export interface Lane {
   /** `milk:<id>` or `none`. */
   key: string;
   milk: MilkRef | null;
-  groups: ShotGroup[];
+  /** Rushed first, then oldest ticket first. */
+  drinks: DrinkCard[];
   drinkCount: number;
   oldestFiredAt: string;
 }
@@ -65,6 +65,7 @@ export function groupIntoLanes(tickets: TicketView[]): Lane[] {
         firedAt: ticket.firedAt,
         rushedAt: ticket.rushedAt,
         takenBy: ticket.takenBy ?? null,
+        service: ticket.service,
         allergens: ticket.allergens,
         allergyNote: ticket.allergyNote,
         indexInTicket: i + 1,
@@ -77,19 +78,14 @@ export function groupIntoLanes(tickets: TicketView[]): Lane[] {
   const result: Lane[] = [];
   for (const [key, { milk, cards }] of lanes) {
     cards.sort(byAge);
-    const byShots = new Map<number, DrinkCard[]>();
-    for (const card of cards) byShots.set(card.shots, [...(byShots.get(card.shots) ?? []), card]);
-    const groups = [...byShots.entries()]
-      .sort(([a], [b]) => a - b)
-      .map(([shots, drinks]) => ({ shots, drinks }));
-    result.push({ key, milk, groups, drinkCount: cards.length, oldestFiredAt: cards.reduce((m, c) => (c.firedAt < m ? c.firedAt : m), cards[0].firedAt) });
+    result.push({ key, milk, drinks: cards, drinkCount: cards.length, oldestFiredAt: cards.reduce((m, c) => (c.firedAt < m ? c.firedAt : m), cards[0].firedAt) });
   }
-  // Widest lane first, so the milk with the most drinks waiting gets the most room;
-  // on a tie the lane holding the oldest ticket goes first.
-  return result.sort(
-    (a, b) => b.drinkCount - a.drinkCount || a.oldestFiredAt.localeCompare(b.oldestFiredAt) || a.key.localeCompare(b.key),
-  );
+  return result.sort(byMenuOrder);
 }
+
+/** The menu's milk order (its place, then its id), the no-milk lane last. */
+const byMenuOrder = (a: Lane, b: Lane) =>
+  (a.milk ? 0 : 1) - (b.milk ? 0 : 1) || (a.milk?.sort ?? 0) - (b.milk?.sort ?? 0) || (a.milk?.id ?? 0) - (b.milk?.id ?? 0);
 
 export interface ShotPlan {
   /** Shots still to pull (drinks not started yet) and the coffee they take, in 0.1 g. */
@@ -130,8 +126,7 @@ export function laneJugs(cards: DrinkCard[], rules: JugRules): Jug[] {
 /** Lanes with their jug plan and shot plan: what the Bar shows and GET /api/bar/lanes answers. */
 export function planBar(tickets: TicketView[], rules: JugRules): { lanes: PlannedLane[]; shotPlan: ShotPlan } {
   const lanes = groupIntoLanes(tickets).map((lane) => {
-    const cards = lane.groups.flatMap((g) => g.drinks).sort(byAge);
-    return { ...lane, jugPlan: laneJugs(cards, rules), shotPlan: shotPlan(cards) };
+    return { ...lane, jugPlan: laneJugs(lane.drinks, rules), shotPlan: shotPlan(lane.drinks) };
   });
   const all = lanes.map((l) => l.shotPlan);
   return {

@@ -119,6 +119,8 @@ export interface MilkRef {
   id: number;
   name: string;
   code: string;
+  /** The milk's place in the menu: the Bar keeps its lanes in this order. */
+  sort?: number;
 }
 
 export interface DrinkView {
@@ -233,7 +235,7 @@ export const TICKET_EVENT_TYPES = [
   'drink.allergy_acknowledged',
 ] as const;
 export type TicketEventType = (typeof TICKET_EVENT_TYPES)[number];
-export type EventType = TicketEventType | 'menu.availability' | 'menu.changed' | 'shift.changed';
+export type EventType = TicketEventType | 'menu.availability' | 'menu.changed' | 'shift.changed' | 'beans.changed';
 
 /** One row of the realtime log about a ticket; `seq` is its id and strictly increases. */
 export interface LiveEvent {
@@ -280,10 +282,17 @@ export interface MenuChangedEvent {
   at: string;
 }
 
-export type AnyLiveEvent = LiveEvent | MenuEvent | MenuChangedEvent | ShiftEvent;
+/** A dial-in shot was logged: the Bar's "on the grinder" line reloads. */
+export interface BeansChangedEvent {
+  seq: number;
+  type: 'beans.changed';
+  at: string;
+}
+
+export type AnyLiveEvent = LiveEvent | MenuEvent | MenuChangedEvent | ShiftEvent | BeansChangedEvent;
 
 export const isTicketEvent = (e: AnyLiveEvent): e is LiveEvent =>
-  e.type !== 'menu.availability' && e.type !== 'menu.changed' && e.type !== 'shift.changed';
+  e.type !== 'menu.availability' && e.type !== 'menu.changed' && e.type !== 'shift.changed' && e.type !== 'beans.changed';
 
 export interface BoardSnapshot {
   seq: number;
@@ -292,6 +301,8 @@ export interface BoardSnapshot {
     name: string;
     waitTargetSeconds: number;
     pickupTimeoutSeconds: number;
+    /** What the Bar says volumes in (cups, pitchers, fills); absent in an older snapshot: ml. */
+    volumeUnit?: VolumeUnit;
     /** Pitchers, waste, drinks per jug and milk growth: what the Bar plans jugs with. */
     jugRules: JugRules;
   };

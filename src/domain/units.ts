@@ -22,7 +22,7 @@ export const celsiusToFahrenheit = (c: number) => 1.8 * c + 32;
 export const fahrenheitToCelsius = (f: number) => (f - 32) / 1.8;
 
 /**
- * A cup size as the café's people read it. In ounces it is rounded to the nearest half ounce
+ * A cup size — or any volume the Bar shows: a pitcher, its fill — as the café's people read it. In ounces it is rounded to the nearest half ounce
  * (halves rounding up): cups are sold by nominal whole and half ounces, so a 350 ml cup
  * (11.83 oz) reads "12 oz" like the sleeve it comes in, and a 160 ml cup (5.41 oz) "5.5 oz";
  * a finer step would print "11.8 oz", which nobody orders by. Millilitres are whole.

@@ -1,10 +1,13 @@
-// The Bar: open drinks in milk lanes, by shot count, oldest (or rushed) first, each lane headed by
-// its jug plan and shot plan. Bump by tap or by keyboard, as on a bump bar.
+// The Bar: open drinks in milk lanes (in the menu's milk order), each lane oldest (or rushed)
+// first, headed by its jug plan and shot plan. Bump by tap or by keyboard, as on a bump bar: keys
+// sit only on cards in sight. Lanes off the screen's side are named in a signpost, never hidden.
 import { useSuspenseQuery } from '@tanstack/react-query';
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
 import { durationWords, ordinal } from '../domain/format';
-import { planBar } from '../domain/lanes';
+import { planBar, type PlannedLane } from '../domain/lanes';
+import { assignBumpKeys } from '../domain/bump-keys';
+import { ticketAgeSeconds } from '../domain/tickets';
 import { can } from '../domain/roles';
 import { RECALL_WINDOW_SECONDS } from '../domain/timing';
 import { Button } from '../components/ui/button';
@@ -14,7 +17,9 @@ import { barBoardQuery } from '../features/board/queries';
 import { useLiveBoard } from '../features/board/use-live-board';
 import { useBarCommand } from '../features/bar/commands';
 import { DrinkCard } from '../features/bar/drink-card';
-import { grams, LaneColumn } from '../features/bar/lane-column';
+import { grams, LaneColumn, laneName } from '../features/bar/lane-column';
+import { ageLabel } from '../features/bar/pour-line';
+import { useScreenSight } from '../features/bar/use-screen-sight';
 import { useBumpKeys } from '../features/bar/use-bump-keys';
 import { sessionQuery } from '../features/session/queries';
 import { useApi } from '../lib/api-context';
@@ -39,7 +44,8 @@ function Bar() {
 
   const open = useMemo(() => board.tickets.filter((t) => t.status === 'open'), [board.tickets]);
   const plan = useMemo(() => planBar(open, board.location.jugRules), [open, board.location]);
-  const cards = plan.lanes.flatMap((l) => l.groups.flatMap((g) => g.drinks));
+  const unit = board.location.volumeUnit ?? 'ml';
+  const cards = plan.lanes.flatMap((l) => l.drinks);
   const jugLabel = new Map<number, string>();
   for (const lane of plan.lanes)
     lane.jugPlan.forEach((b, j) => b.drinkIds.forEach((id, k) => jugLabel.set(id, `Jug ${j + 1} · pour ${ordinal(k + 1)}`)));
@@ -52,13 +58,18 @@ function Bar() {
     .slice(0, 6)
     .map(({ t }) => t);
 
+  const lanesRef = useRef<HTMLElement>(null);
+  const sight = useScreenSight(lanesRef, plan.lanes.map((l) => `${l.key}:${l.drinks.map((d) => d.id).join('.')}`).join('|'));
+  const [keys, setKeys] = useState<ReadonlyMap<number, number>>(() => new Map());
+  useEffect(() => setKeys((prev) => assignBumpKeys(prev, sight.visible)), [sight.visible]);
+
   const [focusId, setFocusId] = useState<number | null>(null);
-  useBumpKeys({ cards, focusId, setFocusId, run: command.mutate, recallLast: recallable[0]?.id ?? null });
+  useBumpKeys({ cards, keys, focusId, setFocusId, run: command.mutate, recallLast: recallable[0]?.id ?? null });
 
   const error = command.error instanceof ApiError ? command.error.message : null;
   return (
-    <div className="on-dark flex h-screen flex-col bg-roast-950 text-crema-100">
-      <header className="flex items-center gap-6 px-5 py-3">
+    <div className="on-dark flex min-h-screen flex-col bg-roast-950 text-crema-100 md:h-screen">
+      <header className="flex flex-wrap items-center gap-x-6 gap-y-2 px-3 py-3 md:px-5">
         <h1 className="font-display text-4xl font-semibold tracking-wide">Bar</h1>
         <p className="text-2xl">
           <strong className="font-display text-4xl">{cards.length}</strong> drinks ·{' '}
@@ -77,42 +88,44 @@ function Bar() {
 
       <EspressoStrip seq={board.seq} />
 
-      <main className="flex flex-1 gap-4 overflow-x-auto px-5 pb-3" aria-label="Milk lanes">
+      <LanesOffScreen side="left" lanes={plan.lanes.filter((l) => sight.offLeft.includes(l.key))} nowMs={now} targetSeconds={target} />
+      <LanesOffScreen side="right" lanes={plan.lanes.filter((l) => sight.offRight.includes(l.key))} nowMs={now} targetSeconds={target} />
+      <main ref={lanesRef} className="flex min-h-0 flex-1 flex-col gap-3 px-3 pt-2 pb-3 md:flex-row md:gap-2 md:overflow-x-auto" aria-label="Milk lanes">
         {plan.lanes.length === 0 && <p className="m-auto font-display text-5xl text-crema-300">No drinks waiting</p>}
         {plan.lanes.map((lane) => (
           <LaneColumn
             key={lane.key}
             lane={lane}
-            narrow={plan.lanes.length > 4}
+            unit={unit}
+            hiddenBelow={sight.hiddenBelow[lane.key] ?? 0}
             busy={command.isPending}
             onStartJug={(drinkIds) => command.mutate({ kind: 'start-jug', drinkIds })}
             onBumpJug={(jugId, drinkIds) => command.mutate({ kind: 'bump-jug', jugId, drinkIds })}
           >
-            {(group) =>
-              group.drinks.map((card) => (
-                <DrinkCard
-                  key={card.id}
-                  card={card}
-                  nowMs={now}
-                  targetSeconds={target}
-                  keyNumber={cards.indexOf(card) < 9 ? cards.indexOf(card) + 1 : null}
-                  jugLabel={jugLabel.get(card.id) ?? null}
-                  focused={focusId === card.id}
-                  busy={command.isPending}
-                  canRush={canRush}
-                  onStart={() => command.mutate({ kind: 'start-drink', id: card.id })}
-                  onBump={() => command.mutate({ kind: 'bump-drink', id: card.id })}
-                  onAcknowledge={() => command.mutate({ kind: 'acknowledge-allergy', id: card.id })}
-                  onRush={() => command.mutate({ kind: 'rush-ticket', id: card.ticketId })}
-                />
-              ))
-            }
+            {lane.drinks.map((card) => (
+              <DrinkCard
+                key={card.id}
+                card={card}
+                unit={unit}
+                nowMs={now}
+                targetSeconds={target}
+                keyNumber={keys.get(card.id) ?? null}
+                jugLabel={jugLabel.get(card.id) ?? null}
+                focused={focusId === card.id}
+                busy={command.isPending}
+                canRush={canRush}
+                onStart={() => command.mutate({ kind: 'start-drink', id: card.id })}
+                onBump={() => command.mutate({ kind: 'bump-drink', id: card.id })}
+                onAcknowledge={() => command.mutate({ kind: 'acknowledge-allergy', id: card.id })}
+                onRush={() => command.mutate({ kind: 'rush-ticket', id: card.ticketId })}
+              />
+            ))}
           </LaneColumn>
         ))}
       </main>
 
       {recallable.length > 0 && (
-        <section aria-label="Just bumped" className="flex items-center gap-3 border-t border-crema-300/30 px-5 py-2">
+        <section aria-label="Just bumped" className="flex flex-wrap items-center gap-3 border-t border-crema-300/30 px-5 py-2">
           <h2 className="text-lg font-semibold tracking-widest text-crema-300 uppercase">Just bumped</h2>
           {recallable.map((t) => (
             <Button key={t.id} tone="dark" disabled={command.isPending} onClick={() => command.mutate({ kind: 'recall-ticket', id: t.id })}>
@@ -122,17 +135,41 @@ function Bar() {
         </section>
       )}
 
-      <footer className="flex items-center gap-6 bg-roast-850 px-5 py-2 text-lg text-crema-300">
+      <footer className="flex flex-wrap items-center gap-x-6 gap-y-1 bg-roast-850 px-3 py-2 text-lg text-crema-300 md:px-5">
         <span>
           Keys: <kbd className="font-semibold text-crema-100">1–9</kbd> bump card · <kbd className="font-semibold text-crema-100">← ↑ → ↓</kbd>{' '}
           move · <kbd className="font-semibold text-crema-100">Enter</kbd> bump · <kbd className="font-semibold text-crema-100">S</kbd> start ·{' '}
           <kbd className="font-semibold text-crema-100">A</kbd> allergy read · <kbd className="font-semibold text-crema-100">R</kbd> recall last
         </span>
-        <span className="ml-auto">
+        <span className="md:ml-auto">
           <SteamCaution />
         </span>
       </footer>
     </div>
+  );
+}
+
+/**
+ * The lanes standing off one side of the screen (on a screen too narrow for every lane), named
+ * with their drinks and the oldest age among them; a tap brings the first of them into view.
+ */
+function LanesOffScreen({ side, lanes, nowMs, targetSeconds }: { side: 'left' | 'right'; lanes: PlannedLane[]; nowMs: number; targetSeconds: number }) {
+  if (lanes.length === 0) return null;
+  const drinks = lanes.reduce((n, l) => n + l.drinkCount, 0);
+  const oldest = lanes.reduce((m, l) => (l.oldestFiredAt < m ? l.oldestFiredAt : m), lanes[0].oldestFiredAt);
+  const arrow = side === 'right' ? '→' : '←';
+  const show = () =>
+    document.querySelector(`[data-lane-key="${lanes[0].key}"]`)?.scrollIntoView({ inline: side === 'right' ? 'end' : 'start', block: 'nearest' });
+  return (
+    <button
+      type="button"
+      data-testid={side === 'right' ? 'lanes-hidden' : 'lanes-hidden-left'}
+      onClick={show}
+      className={`mx-3 mt-2 rounded-lg border-2 border-dashed border-crema-100 bg-roast-850 px-3 py-1 text-2xl font-semibold md:mx-5 ${side === 'right' ? 'self-end text-right' : 'self-start text-left'}`}
+    >
+      {arrow} {lanes.length} more lane{lanes.length === 1 ? '' : 's'} off screen: {lanes.map(laneName).join(', ')} · {drinks} drink{drinks === 1 ? '' : 's'} · oldest{' '}
+      {ageLabel(ticketAgeSeconds(oldest, nowMs), targetSeconds)} {arrow}
+    </button>
   );
 }
 

@@ -1,7 +1,9 @@
-// Printable cup labels, one per bar drink: who, which drink, how it's made, and any allergy.
+// Printable cup labels, one per bar drink: who, here (mug) or to go (cup), which drink, how it's
+// made, and any allergy.
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router';
 import { Button } from '../components/ui/button';
+import { ServiceMark } from '../components/ui/service-mark';
 import { orderQuery } from '../features/orders/queries';
 import { useApi } from '../lib/api-context';
 import { orNotFound, orderIdFrom, requireScreen, type RouteDeps } from './deps';
@@ -32,6 +34,7 @@ function Labels() {
               </span>
             </p>
             <p className="truncate text-lg font-semibold">{o.customerName}</p>
+            <ServiceMark service={o.service} className="text-base font-semibold" />
             <p className="font-semibold">
               {d.itemName}
               {d.sizeName ? ` · ${d.sizeName}` : ''}

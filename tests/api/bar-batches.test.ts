@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { PickupTicket } from '../../src/domain/pickup';
 import type { TicketView } from '../../src/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
-import { BIG_PITCHER, barTools, groupIds, laneOf, MID_PITCHER, plannedJug, SMALL_PITCHER } from './bar-helpers';
+import { BIG_PITCHER, barTools, laneIds, laneOf, MID_PITCHER, plannedJug, SMALL_PITCHER } from './bar-helpers';
 import { orderBody, type Agent } from './helpers';
 
 const time = manualClock('2026-03-02T14:00:00.000Z');
@@ -48,7 +48,7 @@ const { place, drinkIdsOf, drinkRow, orderRow, maxEventId, eventsAfter, expectRe
 });
 
 describe('GET /api/bar/lanes', () => {
-  it('groups the open drinks by milk and shots, with a jug plan per lane and the shots still to pull', async () => {
+  it('groups the open drinks by milk, oldest first, with a jug plan per lane and the shots still to pull', async () => {
     await clearBar();
     const oatOrder = await place('Hester Varley', [
       { menuItemId: ids.item('Latte'), milkId: ids.milk('Oat') }, // Regular: 270 ml milk
@@ -70,15 +70,15 @@ describe('GET /api/bar/lanes', () => {
     expect(body.seq).toBe(await maxEventId());
     expect(body.now).toBe(nowIso());
 
-    // Widest lane first: Whole (3 drinks), Oat (2), then no milk (1).
+    // The menu's milk order (Whole is listed first, Oat third), then no milk.
     expect(body.lanes.map((l) => l.key)).toEqual([`milk:${ids.milk('Whole')}`, `milk:${ids.milk('Oat')}`, 'none']);
     const [whole, oat, none] = body.lanes;
-    expect(whole.milk).toEqual({ id: ids.milk('Whole'), name: 'Whole', code: 'WH' });
-    expect(oat.milk).toEqual({ id: ids.milk('Oat'), name: 'Oat', code: 'OA' });
+    expect(whole.milk).toEqual({ id: ids.milk('Whole'), name: 'Whole', code: 'WH', sort: 0 });
+    expect(oat.milk).toEqual({ id: ids.milk('Oat'), name: 'Oat', code: 'OA', sort: 2 });
     expect(none.milk).toBeNull();
 
     // Whole: the iced latte waits in its lane like any drink, oldest ticket first…
-    expect(groupIds(whole)).toEqual([{ shots: 2, drinks: [smallLatte, cappuccino, iced] }]);
+    expect(laneIds(whole)).toEqual([smallLatte, cappuccino, iced]);
     // …but takes cold milk from the fridge, so it is in no jug (common practice). The steamed ones:
     // 180 + 210 + 15 waste = 405 ml ≤ 520 (the largest fill line): one jug. The smallest pitcher
     // that holds 405 ml: 190 no, 330 no, 520 yes (≥ its minimum 320; foamy growth 405 × 1.75 =
@@ -90,11 +90,11 @@ describe('GET /api/bar/lanes', () => {
     // Oat: 270 + 270 + 15 = 555 ml > 520, so the second latte starts a second jug. Each jug is
     // 270 + 15 = 285 ml: 190 is too small, 330 holds it (≥ 200; 285 × 1.25 = 356.25 ≤ 600) → the
     // 600 ml pitcher, twice.
-    expect(groupIds(oat)).toEqual([{ shots: 2, drinks: [oat1, oat2] }]);
+    expect(laneIds(oat)).toEqual([oat1, oat2]);
     expect(oat.jugPlan).toEqual([plannedJug(MID_PITCHER, 285, 15, 'silky', [oat1]), plannedJug(MID_PITCHER, 285, 15, 'silky', [oat2])]);
 
     // Batch brew: no milk, no shots, no jug.
-    expect(groupIds(none)).toEqual([{ shots: 0, drinks: [brew] }]);
+    expect(laneIds(none)).toEqual([brew]);
     expect(none.jugPlan).toEqual([]);
 
     // Shots to pull: every drink here is queued. Whole lane 3 drinks × 2 shots = 6 shots,
@@ -116,13 +116,13 @@ describe('GET /api/bar/lanes', () => {
       [startedJug, [oat1]],
       [null, [oat2]],
     ]);
-    expect(groupIds(laneOf(started.lanes, 'Oat'))).toEqual([{ shots: 2, drinks: [oat1, oat2] }]);
+    expect(laneIds(laneOf(started.lanes, 'Oat'))).toEqual([oat1, oat2]);
 
     // A bumped drink leaves its lane: the Oat lane is now one latte, one jug of 285 ml.
     tick();
     await expectCommand(barista, `/api/drinks/${oat1}/bump`, 'drink.bumped', baristaId);
     const bumped = await barLanes();
-    expect(groupIds(laneOf(bumped.lanes, 'Oat'))).toEqual([{ shots: 2, drinks: [oat2] }]);
+    expect(laneIds(laneOf(bumped.lanes, 'Oat'))).toEqual([oat2]);
     expect(laneOf(bumped.lanes, 'Oat').jugPlan).toEqual([plannedJug(MID_PITCHER, 285, 15, 'silky', [oat2])]);
     expect(bumped.shotPlan).toEqual({ shots: 8, doseDg: 760 });
   });
@@ -461,18 +461,18 @@ describe('POST /api/tickets/:id/rush', () => {
     // Two small oat lattes: 180 + 180 + 15 = 375 ml ≤ 520 → one jug, in the 950 ml pitcher
     // (330 is too small; 375 ≥ 320, 375 × 1.25 ≤ 950), poured oldest first as both are silky.
     const before = laneOf((await barLanes()).lanes, 'Oat');
-    expect(groupIds(before)).toEqual([{ shots: 2, drinks: [oldLatte, newLatte] }]);
+    expect(laneIds(before)).toEqual([oldLatte, newLatte]);
     expect(before.jugPlan).toEqual([plannedJug(BIG_PITCHER, 375, 15, 'silky', [oldLatte, newLatte])]);
 
     tick();
     await expectCommand(lead, `/api/tickets/${newer}/rush`, 'ticket.rushed', leadId);
     const after = await barLanes();
     const oat = laneOf(after.lanes, 'Oat');
-    expect(groupIds(oat)).toEqual([{ shots: 2, drinks: [newLatte, oldLatte] }]);
-    expect(oat.groups[0].drinks[0]).toMatchObject({ id: newLatte, rushedAt: nowIso() });
+    expect(laneIds(oat)).toEqual([newLatte, oldLatte]);
+    expect(oat.drinks[0]).toMatchObject({ id: newLatte, rushedAt: nowIso() });
     expect(oat.jugPlan).toEqual([plannedJug(BIG_PITCHER, 375, 15, 'silky', [newLatte, oldLatte])]);
     // The rush holds in every lane the ticket has drinks in.
-    expect(groupIds(after.lanes.find((l) => l.key === 'none')!)).toEqual([{ shots: 2, drinks: [newEspresso] }]);
+    expect(laneIds(after.lanes.find((l) => l.key === 'none')!)).toEqual([newEspresso]);
 
     // A rushed ticket that is made is off the bar; rushing a ready ticket is refused.
     tick();
@@ -517,6 +517,29 @@ describe('POST /api/tickets/:id/collect', () => {
 });
 
 describe('drinks not on an open ticket', () => {
+  it('a double bump lost to another screen says, in café words, that the drink was already bumped and by whom', async () => {
+    // Two baristas press bump on the same card at once. The ticket's only drink: the winner's bump
+    // makes it ready, so the loser's drink is no longer on an open ticket.
+    const orderId = await place('Wren Halloway', [{ menuItemId: ids.item('Latte') }]);
+    const [latte] = await drinkIdsOf(orderId);
+    const number = (await orderRow(orderId)).number;
+    tick();
+    const both = await Promise.all([barista.post(`/api/drinks/${latte}/bump`), barista2.post(`/api/drinks/${latte}/bump`)]);
+    expect(both.map((r) => r.status).sort()).toEqual([200, 409]);
+    const lost = both.find((r) => r.status === 409)!;
+    const winner = both[0].status === 200 ? 'Jonah' : 'Ines'; // barista is Jonah Reyes, barista2 Ines Calder
+    expect(lost.body.error.message).toBe(`#${number} Wren was already bumped by ${winner}: it is done`);
+    expect(lost.body.error.message).not.toMatch(/Drink \d+|open ticket/);
+    // A ticket still at the bar: a drink bumped by someone else says so too.
+    const two = await place('Yara Quill', [{ menuItemId: ids.item('Latte') }, { menuItemId: ids.item('Espresso') }]);
+    const [twoLatte] = await drinkIdsOf(two);
+    const twoNumber = (await orderRow(two)).number;
+    tick();
+    expect((await barista.post(`/api/drinks/${twoLatte}/bump`)).status).toBe(200);
+    const again = await expectRefused(barista2, `/api/drinks/${twoLatte}/bump`, undefined, 409, 'conflict', [twoLatte]);
+    expect(again.message).toBe(`The Latte for #${twoNumber} Yara was already bumped by Jonah`);
+  });
+
   it("a voided order's drinks can't be started or bumped, nor its ticket bumped, rushed or handed over (409)", async () => {
     const declined = await cashier.post('/api/orders').send({
       ...orderBody('Dorian Vale', [{ menuItemId: ids.item('Latte') }, { menuItemId: ids.item('Espresso') }]),
@@ -539,7 +562,7 @@ describe('drinks not on an open ticket', () => {
     tick();
     const watch = [latte, espresso];
     const bump = await expectRefused(barista, `/api/drinks/${latte}/bump`, undefined, 409, 'conflict', watch);
-    expect(bump.message).toMatch(/not on an open ticket/);
+    expect(bump.message).toMatch(/^#\d+ Dorian was voided: it is not on the bar$/);
     await expectRefused(barista, `/api/drinks/${latte}/start`, undefined, 409, 'conflict', watch);
     await expectRefused(barista, '/api/drinks/bump', { drinkIds: [latte, espresso] }, 409, 'conflict', watch);
     await expectRefused(barista, '/api/drinks/start', { drinkIds: [espresso] }, 409, 'conflict', watch);
@@ -551,7 +574,7 @@ describe('drinks not on an open ticket', () => {
     expect(await orderRow(orderId)).toMatchObject({ status: 'void', ready_at: null });
 
     // Nor is it in the bar's plan.
-    const planned = (await barLanes()).lanes.flatMap((l) => l.groups.flatMap((g) => g.drinks.map((d) => d.id)));
+    const planned = (await barLanes()).lanes.flatMap((l) => l.drinks.map((d) => d.id));
     expect(planned).not.toContain(latte);
     expect(planned).not.toContain(espresso);
   });

@@ -121,7 +121,8 @@ export function barTools(get: { server: () => TestServer; cashier: () => Agent; 
 }
 
 export const laneOf = (lanes: PlannedLane[], milkName: string) => lanes.find((l) => l.milk?.name === milkName)!;
-export const groupIds = (lane: PlannedLane) => lane.groups.map((g) => ({ shots: g.shots, drinks: g.drinks.map((d) => d.id) }));
+/** A lane's drinks in lane order (rushed first, then oldest ticket first), by id. */
+export const laneIds = (lane: PlannedLane) => lane.drinks.map((d) => d.id);
 
 // The demo café's pitchers: 350 ml (fill line 190), 600 ml (fill 330), 950 ml (fill 520), each
 // with a minimum fill of a third of its capacity rounded up to 10 ml (120, 200, 320); the jug

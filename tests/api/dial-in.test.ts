@@ -85,8 +85,9 @@ describe('logging shots', () => {
       pulledAt: time.clock().toISOString(),
     });
     expect(res.body.lot).toMatchObject({ id: lot.id, usedDg: 180, remainingDg: 10_000 - 180, lastGood: null });
-    // one shot, one usage row, and no live event (nothing on another screen changes at once)
-    expect(await counts()).toEqual({ shots: before.shots + 1, usage: before.usage + 1, events: before.events });
+    // one shot, one usage row, and one live event: every open Bar reloads its grinder line
+    expect(await counts()).toEqual({ shots: before.shots + 1, usage: before.usage + 1, events: before.events + 1 });
+    expect(await server.db('events').orderBy('id', 'desc').first()).toMatchObject({ type: 'beans.changed', created_at: time.clock().toISOString() });
     const usage = await server.db('bean_usage').where({ shot_id: res.body.shot.id });
     expect(usage).toEqual([expect.objectContaining({ lot_id: lot.id, source: 'dial_in', dose_dg: 180, order_item_id: null })]);
   });

@@ -110,10 +110,10 @@ describe('planBar', () => {
       RULES,
     );
 
-    // Oat and none tie at two drinks and at the oldest ticket (08:00); 'milk:7' < 'none'
+    // The menu's milk order (here no places given: by id, Whole 3 before Oat 7), no milk last
     // (Jugline's own lane order, no outside value).
-    expect(lanes.map((l) => l.key)).toEqual(['milk:7', 'none', 'milk:3']);
-    const [oat, none, whole] = lanes;
+    expect(lanes.map((l) => l.key)).toEqual(['milk:3', 'milk:7', 'none']);
+    const [whole, oat, none] = lanes;
 
     // Oat: 150 + 180 + 20 waste = 350 ml; 350 > 280, ≤ 560, ≥ 340 (minimum) and 350 × 1.75 =
     // 612.5 ≤ 1000 → 1000 ml pitcher, one jug (hand-worked from the rules above). Steam for foamy
@@ -160,7 +160,7 @@ describe('planBar', () => {
     expect(shotPlan).toEqual({ shots: 0, doseDg: 0 });
   });
 
-  it('puts a rushed ticket first in its group and at the head of the jug plan, though newer', () => {
+  it('puts a rushed ticket first in its lane and at the head of the jug plan, though newer', () => {
     // Common practice: a lead can move a ticket to the front of the bar.
     const old1 = drink(1, { milkMl: 200 });
     const old2 = drink(2, { milkMl: 200 });
@@ -175,16 +175,15 @@ describe('planBar', () => {
     );
     expect(lanes).toHaveLength(1);
     // Lane order: rushed (08:10, rushed 08:12), then 08:00, then 08:05.
-    expect(lanes[0].groups[0].drinks.map((c) => c.ticketId)).toEqual([3, 1, 2]);
+    expect(lanes[0].drinks.map((c) => c.ticketId)).toEqual([3, 1, 2]);
     // Jug 1: 200 + 200 + 20 = 420 ≤ 560; adding the third → 620 > 560, close. 420 > 280 → 1000 ml
     //   (≥ 340, 420 × 1.15 = 483 ≤ 1000). All flat, so they pour in lane order: the rushed drink first.
     // Jug 2: 200 + 20 = 220 ≤ 280, ≥ 170 → 500 ml. (Hand-worked from the rules above.)
     expect(lanes[0].jugPlan).toEqual([planned(LARGE, 420, 20, 'flat', [rushed.id, old1.id]), planned(MEDIUM, 220, 20, 'flat', [old2.id])]);
   });
 
-  it('plans jugs over the whole lane in lane order, across shot groups', () => {
-    // The lane's groups list singles before doubles, but the jug plan runs over the whole lane
-    // in lane order: the rushed double leads, though its group comes after the singles'.
+  it('plans jugs over the whole lane in lane order, whatever the shot counts', () => {
+    // The lane lists the rushed double first, before the older single, and so does the jug plan.
     const oldSingle = drink(1, { shots: 1, milkMl: 100 });
     const rushedDouble = drink(2, { shots: 2, milkMl: 100 });
     const { lanes } = planBar(
@@ -192,17 +191,18 @@ describe('planBar', () => {
       // No waste: 100 + 100 = 200 ≤ 280 (> 160), ≥ 170 → 500 ml; both flat, pour in lane order.
       rulesWith(0),
     );
-    expect(lanes[0].groups.map((g) => g.drinks.map((c) => c.id))).toEqual([[oldSingle.id], [rushedDouble.id]]);
+    expect(lanes[0].drinks.map((c) => c.id)).toEqual([rushedDouble.id, oldSingle.id]);
     expect(lanes[0].jugPlan).toEqual([planned(MEDIUM, 200, 0, 'flat', [rushedDouble.id, oldSingle.id])]);
   });
 
-  it('without a rush, leads the jug plan with the oldest ticket even when its group comes later', () => {
-    // Oldest is a double (08:00), newer is a single (08:04): groups list the single first.
+  it('without a rush, leads the lane and the jug plan with the oldest ticket, a double before a newer single', () => {
+    // Oldest is a double (08:00), newer is a single (08:04).
     // Jug: 150 + 150 + 20 = 320 > 280, ≤ 560 → 1000 ml, filled to its minimum 340 (waste
     // 340 − 300 = 40); pour oldest first. (Hand-worked from the rules above.)
     const oldDouble = drink(1, { shots: 2 });
     const newSingle = drink(2, { shots: 1 });
     const { lanes } = planBar([ticket(2, at('08:04'), [newSingle]), ticket(1, at('08:00'), [oldDouble])], RULES);
+    expect(lanes[0].drinks.map((c) => c.id)).toEqual([oldDouble.id, newSingle.id]);
     expect(lanes[0].jugPlan).toEqual([planned(LARGE, 340, 40, 'flat', [oldDouble.id, newSingle.id])]);
   });
 });
@@ -284,7 +284,7 @@ describe('planBar with started jugs', () => {
 
 describe('needsAllergyAck', () => {
   const cardsOf = (tickets: TicketView[]) =>
-    new Map(groupIntoLanes(tickets).flatMap((l) => l.groups.flatMap((g) => g.drinks)).map((c) => [c.id, c]));
+    new Map(groupIntoLanes(tickets).flatMap((l) => l.drinks).map((c) => [c.id, c]));
 
   it("is true for a drink of a ticket with allergens or an allergy note until it's acknowledged", () => {
     // Jugline's own rule (no outside value): an allergy is read before the drink is bumped. The

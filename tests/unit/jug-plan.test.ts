@@ -74,7 +74,7 @@ describe('planJugs (hand-worked)', () => {
     const macchiato = d(30, 'foamy');
     const [batch] = planJugs([macchiato], RULES);
     expect(batch).toEqual(jug(SMALL, 100, 70, 'foamy', [macchiato.id]));
-    expect(describeJug(batch)).toBe('300 ml pitcher · pour 100 ml (70 ml waste) · 1 drink · steam foamy');
+    expect(describeJug(batch)).toBe('300 ml pitcher · fill to 100 ml (70 ml waste) · 1 drink · long stretch (dry)');
   });
 
   it('steams three drinks that fit together as one jug in the smallest pitcher that holds the sum', () => {
@@ -212,7 +212,7 @@ describe('planJugs (hand-worked)', () => {
     const huge = d(600);
     const [alone] = planJugs([huge], RULES);
     expect(alone).toEqual(jug(LARGE, 620, 20, 'flat', [huge.id], false));
-    expect(describeJug(alone)).toBe('1000 ml pitcher · pour 620 ml (20 ml waste) · 1 drink · steam flat · too much for one pitcher: steam it in two goes');
+    expect(describeJug(alone)).toBe('1000 ml pitcher · fill to 620 ml (20 ml waste) · 1 drink · short stretch (wet) · too much for one pitcher: steam it in two goes');
 
     // Between two small drinks it is still alone:
     // Jug 1: 100 + 20 = 120 ≤ 160, ≥ 100 → 300 ml. Adding 600 → 720 > 560, close.
@@ -261,16 +261,24 @@ describe('makeJug', () => {
 });
 
 describe('describeJug', () => {
-  it('names the pitcher, the cold milk and its waste, the drink count and the texture', () => {
-    // Jugline's own wording (no outside value); the numbers are copied, not computed.
-    expect(describeJug(jug(LARGE, 620, 20, 'flat', [1]))).toBe('1000 ml pitcher · pour 620 ml (20 ml waste) · 1 drink · steam flat');
-    expect(describeJug(jug(MEDIUM, 260, 0, 'foamy', [1, 2, 3]))).toBe('500 ml pitcher · pour 260 ml · 3 drinks · steam foamy');
+  it('names the pitcher, the cold milk to fill and its waste, the drink count and the stretch', () => {
+    // Jugline's own wording (no outside value); the numbers are copied, not computed. "Fill" is
+    // for the pitcher, "pour" only for cups; short/medium/long stretch and wet/silky/dry foam are
+    // the words baristas use for the texture (common practice).
+    expect(describeJug(jug(LARGE, 620, 20, 'flat', [1]))).toBe('1000 ml pitcher · fill to 620 ml (20 ml waste) · 1 drink · short stretch (wet)');
+    expect(describeJug(jug(MEDIUM, 260, 0, 'foamy', [1, 2, 3]))).toBe('500 ml pitcher · fill to 260 ml · 3 drinks · long stretch (dry)');
+  });
+
+  it("says the volumes in the café's unit: US fl oz to the half ounce", () => {
+    // 1 US fl oz = 1/128 US gallon = 29.5735295625 ml (the US customary definition, as in units.test.ts): 1000 ml = 33.8 oz → 34 oz;
+    // 620 ml = 20.96 oz → 21 oz; 20 ml = 0.68 oz → 0.5 oz (nearest half, src/domain/units.ts).
+    expect(describeJug(jug(LARGE, 620, 20, 'silky', [1]), 'us_floz')).toBe('34 oz pitcher · fill to 21 oz (0.5 oz waste) · 1 drink · medium stretch (silky)');
   });
 
   it('describes what planJugs plans', () => {
     // 60 + 80 + 20 = 160 ≤ 160 → 300 ml pitcher; silky is foamier than flat (hand-worked as above).
     const [batch] = planJugs([d(60, 'flat'), d(80, 'silky')], RULES);
-    expect(describeJug(batch)).toBe('300 ml pitcher · pour 160 ml (20 ml waste) · 2 drinks · steam silky');
+    expect(describeJug(batch)).toBe('300 ml pitcher · fill to 160 ml (20 ml waste) · 2 drinks · medium stretch (silky)');
   });
 });
 

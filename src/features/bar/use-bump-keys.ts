@@ -1,4 +1,5 @@
-// The bar's keyboard, as a bump bar: 1–9 bump the Nth card, arrows move a focus ring, Enter bumps
+// The bar's keyboard, as a bump bar: 1–9 bump the card showing that key (keys sit only on cards
+// in sight and stay with a card while it shows: src/domain/bump-keys.ts), arrows move a focus ring, Enter bumps
 // the focused card, S starts it, A acknowledges its allergy, R recalls the last bump. On a card
 // whose allergy is unread a bump key only focuses it.
 import { useEffect } from 'react';
@@ -6,14 +7,17 @@ import { needsAllergyAck, type DrinkCard } from '../../domain/lanes';
 import type { BarCommand } from './commands';
 
 interface Options {
+  /** Every card in screen order (the arrows walk them). */
   cards: DrinkCard[];
+  /** Card id → its bump key. */
+  keys: ReadonlyMap<number, number>;
   focusId: number | null;
   setFocusId(id: number | null): void;
   run(c: BarCommand): void;
   recallLast: number | null;
 }
 
-export function useBumpKeys({ cards, focusId, setFocusId, run, recallLast }: Options) {
+export function useBumpKeys({ cards, keys, focusId, setFocusId, run, recallLast }: Options) {
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => {
       if (e.altKey || e.ctrlKey || e.metaKey || (e.target as HTMLElement | null)?.closest('input, textarea, select')) return;
@@ -27,7 +31,7 @@ export function useBumpKeys({ cards, focusId, setFocusId, run, recallLast }: Opt
         run({ kind: 'bump-drink', id: card.id });
       };
       const n = Number(e.key);
-      if (n >= 1 && n <= 9) return bump(cards[n - 1]);
+      if (n >= 1 && n <= 9) return bump(cards.find((c) => keys.get(c.id) === n));
       switch (e.key) {
         case 'ArrowDown':
         case 'ArrowRight':
@@ -55,5 +59,5 @@ export function useBumpKeys({ cards, focusId, setFocusId, run, recallLast }: Opt
     };
     window.addEventListener('keydown', onKey);
     return () => window.removeEventListener('keydown', onKey);
-  }, [cards, focusId, setFocusId, run, recallLast]);
+  }, [cards, keys, focusId, setFocusId, run, recallLast]);
 }

@@ -11,6 +11,7 @@ import type { Api } from '../../lib/api';
 import { useApi } from '../../lib/api-context';
 import { connectLive, liveUrl, type LinkState } from '../../lib/live-socket';
 import { syncServerClock } from '../../lib/server-clock';
+import { dialInKeys } from '../dial-in/queries';
 import { menuKeys } from '../menu/queries';
 import { boardKeys } from './queries';
 
@@ -53,6 +54,8 @@ export function applyLiveEvent(qc: QueryClient, event: AnyLiveEvent, api?: Api) 
   if (event.type === 'menu.changed') {
     qc.invalidateQueries({ queryKey: menuKeys.all });
     if (api) void refreshLocation(qc, boardKeys.bar, api.tickets);
+  } else if (event.type === 'beans.changed') {
+    qc.invalidateQueries({ queryKey: dialInKeys.all });
   } else if (event.type === 'shift.changed') {
     qc.invalidateQueries({ queryKey: ['pulse'] });
   } else if (event.type === 'menu.availability') {

@@ -9,7 +9,7 @@ import { useApi } from '../../lib/api-context';
 import { dialInKeys, dialInQuery } from './queries';
 import { shotNumbers } from './shot-view';
 
-/** Refetch when the bar's live log moves (a bump uses coffee, a lot changes grinder), and every minute for dial-in shots. */
+/** Refetch when the bar's live log moves (a bump uses coffee, a lot changes grinder, a dial-in shot is logged: beans.changed), and every minute besides. */
 export function EspressoStrip({ seq }: { seq: number }) {
   const api = useApi();
   const qc = useQueryClient();
