@@ -18,6 +18,17 @@ test.describe('Counter with the server gone', () => {
     context = await browser.newContext({ baseURL: own.baseURL, viewport: { width: 1280, height: 800 } });
   });
 
+  /** A page whose errors are collected, apart from the ones a server that is down makes. */
+  async function watchedPage() {
+    const page = await context.newPage();
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(e.message));
+    page.on('console', (m) => {
+      if (m.type() === 'error' && !expectedWhileDown.some((re) => re.test(m.text()))) errors.push(m.text());
+    });
+    return { page, errors };
+  }
+
   test.afterAll(async () => {
     await context?.close();
     await own?.dispose();
@@ -25,12 +36,7 @@ test.describe('Counter with the server gone', () => {
 
   test('an order sent while the server is down waits in the browser and goes once when it is back', async () => {
     test.setTimeout(120_000);
-    const page = await context.newPage();
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(e.message));
-    page.on('console', (m) => {
-      if (m.type() === 'error' && !expectedWhileDown.some((re) => re.test(m.text()))) errors.push(m.text());
-    });
+    const { page, errors } = await watchedPage();
 
     await signIn(page, 'cashier', '/counter');
     await page.waitForURL('**/counter');
@@ -102,12 +108,7 @@ test.describe('Counter with the server gone', () => {
 
   test('a card order taken while the server is down is held, never charged by itself, and the cashier settles it', async () => {
     test.setTimeout(120_000);
-    const page = await context.newPage();
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(e.message));
-    page.on('console', (m) => {
-      if (m.type() === 'error' && !expectedWhileDown.some((re) => re.test(m.text()))) errors.push(m.text());
-    });
+    const { page, errors } = await watchedPage();
     await signIn(page, 'cashier', '/counter');
     await page.waitForURL('**/counter');
     await expect(page.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();

@@ -126,7 +126,8 @@ function Counter() {
   // the server's reasons in its own sentences ("A name for the cup is at most 40 characters")
   const error =
     send.error instanceof ApiError
-      ? [send.error.message, ...(send.error.details ?? []).map((d) => d.message)].join(' — ')
+      ? // details are field messages on a 400, and other facts (an order id) on other refusals
+        [send.error.message, ...(Array.isArray(send.error.details) ? send.error.details.map((d) => d.message) : [])].join(' — ')
       : send.error
         ? 'Could not send the order'
         : null;
@@ -207,7 +208,7 @@ function Counter() {
           </Button>
           {/* a phone scrolls the order and payment as one (Send stays pinned); wider, the lines
               scroll on their own and the payment choices stay in view under them */}
-          <div ref={orderScroll} className="min-h-0 flex-1 overflow-y-auto md:flex md:flex-col md:overflow-hidden">
+          <div ref={orderScroll} className="min-h-0 flex-1 overflow-y-auto md:flex md:flex-col">
             <div className="pr-1 md:min-h-0 md:flex-1 md:overflow-y-auto">
               <OrderPanel
                 menu={menu}

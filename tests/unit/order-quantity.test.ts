@@ -5,23 +5,10 @@ import { describe, expect, it } from 'vitest';
 import { addLine, countLabel, cupsOf, expandByQuantity, groupOrderLines, orderCountLabel, MAX_CUPS, MAX_QUANTITY } from '../../src/domain/order-quantity';
 import { createOrderBody } from '../../src/domain/schemas';
 import type { MenuItemView, MenuView, OrderLineView } from '../../src/domain/types';
+import { menuItem } from '../support/menu-items';
 
 // An invented café; none of these numbers come from the demo café.
-const item = (over: Partial<MenuItemView> & Pick<MenuItemView, 'id' | 'name'>): MenuItemView => ({
-  categoryId: 1,
-  station: 'bar',
-  priceCents: null,
-  shots: 0,
-  takesMilk: false,
-  defaultMilkId: null,
-  texture: null,
-  available: true,
-  ingredients: [],
-  allergens: [],
-  sizes: [],
-  modifierGroupIds: [7],
-  ...over,
-});
+const item = (over: Partial<MenuItemView> & Pick<MenuItemView, 'id' | 'name'>) => menuItem(over, [7]);
 const menu = {
   location: { currency: 'USD', taxMode: 'exclusive', taxRateMilliPct: 0, extraShotCents: 80 },
   categories: [{ id: 1, name: 'Drinks' }],

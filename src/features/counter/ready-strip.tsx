@@ -10,10 +10,10 @@ import { applyTicket } from '../board/use-live-board';
 
 /** Chips that fit one row beside the heading and the "more" button, by window width. */
 const CHIPS_BY_WIDTH: [minWidth: number, chips: number][] = [
-  [1536, 5],
-  [1280, 4],
-  [1024, 3],
-  [768, 2],
+  [1536, 7],
+  [1280, 5],
+  [1024, 4],
+  [768, 3],
   [0, 1],
 ];
 
@@ -45,10 +45,19 @@ export function ReadyStrip({ tickets }: { tickets: TicketView[] }) {
   const ready = newestReadyFirst(tickets);
   if (ready.length === 0) return null;
   const shown = ready.length > fit + 1 ? ready.slice(0, fit) : ready; // "+1 more" would take a chip's place
+  // two lines: what tapping does, then whose order — the number and name never cut off first
   const chip = (t: TicketView) => (
-    <Button key={t.id} tone="quiet" className="max-w-[9rem] shrink-0 whitespace-nowrap md:max-w-[13rem]" disabled={collect.isPending} onClick={() => collect.mutate(t.id)}>
-      <span className="truncate">
-        Hand over #{t.number} {t.customerName}
+    <Button
+      key={t.id}
+      tone="quiet"
+      className="max-w-[10rem] shrink-0 flex-col items-start gap-0 px-3 py-0.5 leading-tight md:max-w-[13rem]"
+      aria-label={`Hand over #${t.number} ${t.customerName}`}
+      disabled={collect.isPending}
+      onClick={() => collect.mutate(t.id)}
+    >
+      <span className="text-xs font-semibold tracking-wide text-ink-600 uppercase">Hand over</span>
+      <span className="max-w-full truncate whitespace-nowrap">
+        #{t.number} {t.customerName}
       </span>
     </Button>
   );
@@ -66,7 +75,7 @@ export function ReadyStrip({ tickets }: { tickets: TicketView[] }) {
           aria-label={`+${ready.length - shown.length} more ready`}
           onClick={() => setAllOpen(true)}
         >
-          +{ready.length - shown.length} more<span className="hidden md:inline"> ready</span>
+          +{ready.length - shown.length} more<span className="hidden md:inline">ready</span>
         </Button>
       )}
       {allOpen && <AllReady ready={ready} chip={chip} onClose={() => setAllOpen(false)} />}
