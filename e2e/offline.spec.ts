@@ -18,6 +18,17 @@ test.describe('Counter with the server gone', () => {
     context = await browser.newContext({ baseURL: own.baseURL, viewport: { width: 1280, height: 800 } });
   });
 
+  /** A page whose errors are collected, apart from the ones a server that is down makes. */
+  async function watchedPage() {
+    const page = await context.newPage();
+    const errors: string[] = [];
+    page.on('pageerror', (e) => errors.push(e.message));
+    page.on('console', (m) => {
+      if (m.type() === 'error' && !expectedWhileDown.some((re) => re.test(m.text()))) errors.push(m.text());
+    });
+    return { page, errors };
+  }
+
   test.afterAll(async () => {
     await context?.close();
     await own?.dispose();
@@ -25,12 +36,7 @@ test.describe('Counter with the server gone', () => {
 
   test('an order sent while the server is down waits in the browser and goes once when it is back', async () => {
     test.setTimeout(120_000);
-    const page = await context.newPage();
-    const errors: string[] = [];
-    page.on('pageerror', (e) => errors.push(e.message));
-    page.on('console', (m) => {
-      if (m.type() === 'error' && !expectedWhileDown.some((re) => re.test(m.text()))) errors.push(m.text());
-    });
+    const { page, errors } = await watchedPage();
 
     await signIn(page, 'cashier', '/counter');
     await page.waitForURL('**/counter');
@@ -97,6 +103,50 @@ test.describe('Counter with the server gone', () => {
     expect((await receiptsToWren())[0].subject).toMatch(/^Your receipt from .+ — order #\d+$/);
     await lead.dispose();
 
+    expect(errors).toEqual([]);
+  });
+
+  test('a card order taken while the server is down is held, never charged by itself, and the cashier settles it', async () => {
+    test.setTimeout(120_000);
+    const { page, errors } = await watchedPage();
+    await signIn(page, 'cashier', '/counter');
+    await page.waitForURL('**/counter');
+    await expect(page.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
+
+    await page.getByRole('tabpanel').getByRole('button', { name: /^Long black/ }).click();
+    await page.getByRole('button', { name: /Add to order/ }).click();
+    await page.getByLabel('Name for the cup').fill('Cass Moor');
+    await page.getByRole('radio', { name: 'Card' }).click();
+    await page.getByRole('radio', { name: /4242/ }).click();
+
+    await own.kill();
+    await page.getByRole('button', { name: /^Charge card/ }).click();
+    const banner = page.getByTestId('pending-orders');
+    await expect(banner).toContainText('1 card order held — not charged; ask the customer');
+    await expect(banner.getByTestId('pending-order')).toContainText('Card not charged');
+    await expect(banner.getByRole('button', { name: 'Send now' })).toHaveCount(0);
+
+    await own.start();
+    await expect(page.getByRole('status').filter({ hasText: 'Live' })).toBeVisible({ timeout: 30_000 });
+    // back online, and still only asked: nothing was sent, nothing charged
+    await page.evaluate(() => window.dispatchEvent(new Event('online')));
+    await expect(banner.getByRole('button', { name: 'Cass Moor paid cash' })).toBeVisible();
+    const api = await apiRequest.newContext({ baseURL: own.baseURL });
+    expect((await api.post('/api/session', { data: { username: 'cashier', password: DEMO_PASSWORD } })).ok()).toBe(true);
+    const ordersFor = async () =>
+      ((await (await api.get('/api/orders?q=Cass')).json()) as { orders: { customerName: string; payment: { method: string }; paymentStatus: string }[] }).orders.filter(
+        (o) => o.customerName === 'Cass Moor',
+      );
+    expect(await ordersFor()).toEqual([]);
+    await page.screenshot({ path: 'test-results/shots/counter-card-held.png' });
+
+    // the customer paid cash meanwhile: the order goes once, as cash
+    await banner.getByRole('button', { name: 'Cass Moor paid cash' }).click();
+    await expect(banner).toHaveCount(0);
+    await expect(page.getByRole('status').filter({ hasText: /Sent #\d+ for Cass Moor/ })).toBeVisible();
+    const orders = await ordersFor();
+    expect(orders.map((o) => [o.payment.method, o.paymentStatus])).toEqual([['cash', 'paid']]);
+    await api.dispose();
     expect(errors).toEqual([]);
   });
 });

@@ -49,7 +49,7 @@ const MENU: { category: string; items: ItemSeed[] }[] = [
   {
     category: 'Espresso',
     items: [
-      { name: 'Espresso', station: 'bar', shots: 2, sizes: [['Single cup', 53, 320, 0]] },
+      { name: 'Espresso', station: 'bar', shots: 2, sizes: [['Double', 53, 320, 0]] },
       { name: 'Long black', station: 'bar', shots: 2, sizes: [['Regular', 240, 400, 0]] },
       { name: 'Flat white', station: 'bar', shots: 2, milk: true, texture: 'flat', sizes: [['Regular', 160, 460, 120]] },
       { name: 'Latte', station: 'bar', shots: 2, milk: true, texture: 'silky', sizes: SML([480, 540, 590], [180, 270, 360]) },

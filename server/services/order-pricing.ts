@@ -2,6 +2,7 @@
 import { allergensOf } from '../../src/domain/allergens';
 import { discountCents, orderTotals, type OrderTotals } from '../../src/domain/money';
 import { resolveLine, type ResolvedLine } from '../../src/domain/order-lines';
+import { expandByQuantity } from '../../src/domain/order-quantity';
 import { can } from '../../src/domain/roles';
 import type { CreateOrderBody } from '../../src/domain/schemas';
 import type { MenuView, SessionUser } from '../../src/domain/types';
@@ -20,13 +21,15 @@ const invalid = (path: string, message: string) =>
 
 export async function priceOrder(deps: Deps, user: SessionUser, body: CreateOrderBody): Promise<PricedOrder> {
   const menu = await loadMenu(deps.db, user.locationId);
-  const lines = body.items.map((input, i) => {
+  const resolved = body.items.map((input, i) => {
     const r = resolveLine(menu, input);
     if (r.ok) return r.line;
     const details = [{ path: `items.${i}.${r.problem.field}`, message: r.problem.message }];
     if (r.problem.kind === 'unavailable') throw new HttpError(409, 'unavailable', r.problem.message, details);
     throw new HttpError(400, 'validation_failed', 'Some fields need fixing', details);
   });
+  // "3 × Long black" is three cups: one drink each for the Bar, one stored line each.
+  const lines = expandByQuantity(body.items, (_, i) => resolved[i]);
 
   const known = allergensOf(menu.location.allergenList);
   body.allergens.forEach((a, i) => {

@@ -2,6 +2,7 @@
 import type { Knex } from 'knex';
 import type { Deps } from './deps';
 import { formatCents } from '../../src/domain/money';
+import { groupOrderLines } from '../../src/domain/order-quantity';
 import type { OrderLineView, OrderView } from '../../src/domain/types';
 import { escapeHtml } from '../../src/lib/html';
 import { notFound } from '../errors';
@@ -62,9 +63,9 @@ export function receiptEmail(order: OrderView, location: ReceiptLocation, footer
     `Thank you, ${name}!`,
     when,
     '',
-    ...order.lines.flatMap((l) => {
+    ...groupOrderLines(order.lines).flatMap(({ line: l, quantity, totalCents }) => {
       const details = lineDetails(l);
-      return [`${l.itemName} — ${money(l.priceCents)}`, ...(details ? [`  ${details}`] : []), ...(l.note ? [`  Note: ${l.note}`] : [])];
+      return [`${quantity > 1 ? `${quantity} × ` : ''}${l.itemName} — ${money(totalCents)}`, ...(details ? [`  ${details}`] : []), ...(l.note ? [`  Note: ${l.note}`] : [])];
     }),
     '',
     ...totals.map(([label, value]) => `${label}: ${value}`),
@@ -76,14 +77,14 @@ export function receiptEmail(order: OrderView, location: ReceiptLocation, footer
 
   const e = escapeHtml;
   const cell = 'padding:6px 0;border-bottom:1px solid #e4ddd2;vertical-align:top';
-  const rows = order.lines
-    .map((l) => {
+  const rows = groupOrderLines(order.lines)
+    .map(({ line: l, quantity, totalCents }) => {
       const details = lineDetails(l);
       return (
-        `<tr><td style="${cell}"><strong>${e(l.itemName)}</strong>` +
+        `<tr><td style="${cell}"><strong>${quantity > 1 ? `${quantity} × ` : ''}${e(l.itemName)}</strong>` +
         (details ? `<br><span style="color:#5a5047">${e(details)}</span>` : '') +
         (l.note ? `<br><span style="color:#5a5047">Note: ${e(l.note)}</span>` : '') +
-        `</td><td style="${cell};text-align:right;white-space:nowrap">${e(money(l.priceCents))}</td></tr>`
+        `</td><td style="${cell};text-align:right;white-space:nowrap">${e(money(totalCents))}</td></tr>`
       );
     })
     .join('');

@@ -1,6 +1,7 @@
 // Request bodies, query strings and socket messages, written once and used by both the forms
 // and the server routes.
 import { z } from 'zod';
+import { cupsOf, MAX_CUPS, MAX_QUANTITY } from './order-quantity';
 import { TICKET_SORTS } from './reports';
 import { SCREENS, type ScreenId } from './screens';
 import { plainText } from './text';
@@ -18,8 +19,15 @@ export const orderLineInput = z.object({
   sizeId: z.number().int().positive().optional(),
   milkId: z.number().int().positive().optional(),
   shots: z.number().int().min(0).max(8).optional(),
-  modifierIds: z.array(z.number().int().positive()).max(12).optional(),
-  note: plainText().max(140).optional(),
+  modifierIds: z.array(z.number().int().positive()).max(12, 'A drink takes at most 12 extras').optional(),
+  note: plainText().max(140, 'A note for the bar is at most 140 characters').optional(),
+  /** Cups of this same drink; the server makes one drink of each (see order-quantity.ts). */
+  quantity: z
+    .number('Say how many')
+    .int('Say how many as a whole number')
+    .min(1, 'A line holds at least 1')
+    .max(MAX_QUANTITY, `A line holds at most ${MAX_QUANTITY}`)
+    .optional(),
 });
 export type OrderLineInput = z.infer<typeof orderLineInput>;
 
@@ -44,13 +52,18 @@ export type DiscountInput = z.infer<typeof discountInput>;
 
 export const createOrderBody = z.object({
   clientOrderId: z.uuid(),
-  customerName: plainText().min(1, 'Enter the customer name').max(40),
+  // Each limit said in words naming the field: the cashier reads these (not the validator's own).
+  customerName: plainText().min(1, 'Enter the customer name').max(40, 'A name for the cup is at most 40 characters'),
   service: z.enum(['takeaway', 'dine_in']).default('takeaway'),
-  allergens: z.array(plainText().min(1).max(40)).max(14).default([]),
-  allergyNote: plainText().max(200).optional(),
-  customerEmail: z.email('Not an e-mail address').max(254).optional(),
+  allergens: z.array(plainText().min(1, 'Name the allergen').max(40, 'An allergen is at most 40 characters')).max(14, 'At most 14 allergens').default([]),
+  allergyNote: plainText().max(200, 'An allergy note is at most 200 characters').optional(),
+  customerEmail: z.email('Not an e-mail address').max(254, 'An e-mail address is at most 254 characters').optional(),
   discount: discountInput.optional(),
-  items: z.array(orderLineInput).min(1, 'Add at least one item').max(40),
+  items: z
+    .array(orderLineInput)
+    .min(1, 'Add at least one item')
+    .max(40, 'An order holds at most 40 lines')
+    .refine((items) => cupsOf(items) <= MAX_CUPS, `An order holds at most ${MAX_CUPS} drinks and items`),
   payment: z.discriminatedUnion('method', [cashPayment, cardPayment]),
 });
 export type CreateOrderBody = z.infer<typeof createOrderBody>;

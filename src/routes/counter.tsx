@@ -5,6 +5,7 @@ import { useCallback, useRef, useState } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
 import type { LoaderFunctionArgs } from 'react-router';
 import { formatCents } from '../domain/money';
+import { addLine, countLabel, cupsOf, orderCountLabel } from '../domain/order-quantity';
 import { quoteLabel } from '../domain/quote';
 import { can } from '../domain/roles';
 import { orderDraft, type OrderDraft, type OrderDraftInput, type OrderLineInput } from '../domain/schemas';
@@ -15,7 +16,7 @@ import { StaffMenu } from '../components/ui/staff-menu';
 import { barBoardQuery } from '../features/board/queries';
 import { useLiveBoard } from '../features/board/use-live-board';
 import { emptyCheckout, previewTotals, tenderedCents, type Checkout } from '../features/counter/checkout';
-import { CheckoutPanel, SendBar } from '../features/counter/checkout-panel';
+import { CheckoutPanel, PaymentPanel, SendBar } from '../features/counter/checkout-panel';
 import { ItemSheet } from '../features/counter/item-sheet';
 import { OrdersDrawer } from '../features/counter/orders-drawer';
 import { ReadyStrip } from '../features/counter/ready-strip';
@@ -29,6 +30,7 @@ import { sessionQuery } from '../features/session/queries';
 import { useApi } from '../lib/api-context';
 import { ApiError } from '../lib/http';
 import { useLeaveGuard } from '../lib/leave-guard';
+import { cn } from '../lib/cn';
 import { uuid } from '../lib/uuid';
 import { requireScreen, type RouteDeps } from './deps';
 import { SCREENS } from '../domain/screens';
@@ -48,6 +50,9 @@ function Counter() {
   const [sent, setSent] = useState<OrderView | null>(null);
   const [ordersOpen, setOrdersOpen] = useState(false);
   const [orderCount, setOrderCount] = useState(0);
+  // On a phone the menu and the order take turns on the screen; wider, they stand side by side.
+  const [phoneView, setPhoneView] = useState<'menu' | 'order'>('menu');
+  const orderScroll = useRef<HTMLDivElement>(null);
   // One id per order being built: a retry after a lost answer (or a declined card) can't take
   // the order twice.
   const clientOrderId = useRef<string | null>(null);
@@ -55,28 +60,28 @@ function Counter() {
   const outbox = usePendingOrders(send.mutateAsync);
 
   const items = form.watch('items');
-  useLeaveGuard(items.length > 0 ? `The order being built (${items.length} ${items.length === 1 ? 'item' : 'items'}) has not been sent and will be lost.` : null);
+  useLeaveGuard(items.length > 0 ? `The order being built (${countLabel(cupsOf(items), 'item')}) has not been sent and will be lost.` : null);
   const totals = previewTotals(menu, items, checkout.discount);
   const queued = board.tickets.filter((t) => t.status === 'open').flatMap((t) => t.drinks.filter((d) => d.status !== 'done'));
 
   const pick = useCallback(
     (item: MenuItemView) => {
       setSent(null);
-      if (item.station === 'counter') lines.append({ menuItemId: item.id });
+      // the same item again is one more on its line ("3 × Long black"), not another line
+      if (item.station === 'counter') lines.replace(addLine(menu, form.getValues('items'), { menuItemId: item.id }));
       else setSheet({ item, index: null });
     },
-    [lines],
+    [lines, form, menu],
   );
   const saveLine = useCallback(
     (line: OrderLineInput) => {
-      setSheet((current) => {
-        if (current?.index !== null && current?.index !== undefined) lines.update(current.index, line);
-        else lines.append(line);
-        return null;
-      });
+      const index = sheet?.index ?? null;
+      if (index !== null) lines.update(index, { ...line, quantity: form.getValues(`items.${index}`).quantity });
+      else lines.replace(addLine(menu, form.getValues('items'), line));
+      setSheet(null);
       form.clearErrors('items');
     },
-    [lines, form],
+    [lines, form, menu, sheet],
   );
   const closeSheet = useCallback(() => setSheet(null), []);
 
@@ -86,6 +91,9 @@ function Counter() {
     clientOrderId.current = null;
     form.reset(BLANK_DRAFT);
     setCheckout(emptyCheckout);
+    // the next customer's order starts at the top, with the menu in front on a phone
+    for (const box of [orderScroll.current, orderScroll.current?.firstElementChild]) box?.scrollTo({ top: 0 });
+    setPhoneView('menu');
   };
 
   const onSubmit = form.handleSubmit(async (draft) => {
@@ -98,15 +106,14 @@ function Counter() {
       discount: checkout.discount ?? undefined,
     };
     try {
-      if (checkout.method === 'card') {
-        // A card is charged while the customer stands there: never queued for later.
-        const { order } = await send.mutateAsync({ ...base, payment: { method: 'card', paymentMethod: checkout.paymentMethod! } });
-        finish(order);
-        return;
-      }
-      const cash = tenderedCents(checkout, totals.totalCents) ?? 0;
-      const result = await outbox.sendOrQueue({ ...base, payment: { method: 'cash', tenderedCents: cash } }, { totalCents: totals.totalCents });
-      // kept in this browser and resent by itself: the banner shows it, not an error
+      const payment =
+        checkout.method === 'card'
+          ? ({ method: 'card', paymentMethod: checkout.paymentMethod! } as const)
+          : ({ method: 'cash', tenderedCents: tenderedCents(checkout, totals.totalCents) ?? 0 } as const);
+      // Cash that can't reach the server is kept and resent by itself. A card is charged only
+      // with the customer there: one that can't reach the server is held, and the banner asks
+      // the cashier (charge it now, they paid cash, or cancel) — never charged on its own.
+      const result = await outbox.sendOrQueue({ ...base, payment }, { totalCents: totals.totalCents });
       if (result.queued) send.reset();
       // the receipt address travels in the order: the server mails it once the order is in, even
       // when this queue sends it later
@@ -116,30 +123,49 @@ function Counter() {
     }
   });
 
-  const error = send.error instanceof ApiError ? send.error.message : send.error ? 'Could not send the order' : null;
+  // the server's reasons in its own sentences ("A name for the cup is at most 40 characters")
+  const error =
+    send.error instanceof ApiError
+      ? // details are field messages on a 400, and other facts (an order id) on other refusals
+        [send.error.message, ...(Array.isArray(send.error.details) ? send.error.details.map((d) => d.message) : [])].join(' — ')
+      : send.error
+        ? 'Could not send the order'
+        : null;
   const money = (c: number | null) => formatCents(c ?? 0, menu.location.currency);
   return (
-    <div className="flex h-screen flex-col bg-steam-50 text-ink-900">
-      <header className="flex items-center gap-6 border-b border-steam-200 px-5 py-3">
+    <div className="flex h-dvh flex-col overflow-x-hidden bg-steam-50 text-ink-900">
+      {/* one line from a 1024 tablet up; narrower it wraps between whole controls, never inside one */}
+      <header className="relative flex flex-wrap items-center gap-x-5 gap-y-2 border-b border-steam-200 px-3 py-2 whitespace-nowrap md:px-5 md:py-3 lg:flex-nowrap">
         <h1 className="text-2xl font-semibold">Counter</h1>
-        <span className="hidden text-lg text-ink-600 xl:inline">{menu.location.name}</span>
+        <span className="hidden text-lg text-ink-600 2xl:inline">{menu.location.name}</span>
         <span data-testid="queue-glance" className="text-lg">
-          In the queue: <strong>{queued.length}</strong> drink{queued.length === 1 ? '' : 's'}
+          <span className="hidden lg:inline">In the queue: </span>
+          <strong>{queued.length}</strong> {countLabel(queued.length, 'drink').replace(/^\d+ /, '')}
+          <span className="lg:hidden"> queued</span>
         </span>
-        <Button tone="quiet" onClick={() => setOrdersOpen(true)}>
+        <Button tone="quiet" className="max-md:order-last" onClick={() => setOrdersOpen(true)}>
           Today’s orders
         </Button>
-        <span className="hidden text-sm text-ink-600 xl:inline">Keys: 1–9 tile · Enter add · Esc close</span>
-        <LinkStateBadge state={link} className="ml-auto text-base" />
-        <StaffMenu />
+        <span className="hidden text-sm text-ink-600 2xl:inline">Keys: 1–9 tile · Enter add · Esc close</span>
+        <LinkStateBadge state={link} className="ml-auto text-base whitespace-normal" />
+        <div className="hidden lg:block">
+          <StaffMenu />
+        </div>
+        {/* narrower than a 1024 tablet: the other screens, the person and sign out fold away behind one button */}
+        <details className="max-md:order-last lg:hidden">
+          <summary className="flex min-h-11 cursor-pointer items-center rounded-lg border border-steam-200 bg-steam-100 px-4 font-semibold">Staff ☰</summary>
+          <div className="absolute right-2 left-2 z-30 mt-2 rounded-xl border border-steam-200 bg-white p-3 shadow-xl">
+            <StaffMenu />
+          </div>
+        </details>
       </header>
-      <PendingOrdersBanner queue={outbox} currency={menu.location.currency} />
+      <PendingOrdersBanner queue={outbox} currency={menu.location.currency} onSent={setSent} />
       <ReadyStrip tickets={board.tickets} />
       {sent && (
         // over the menu, not above it: the tiles must not jump under the cashier's finger
         <div
           role="status"
-          className="fixed bottom-4 left-4 z-10 flex max-w-[calc(100%-30rem)] flex-wrap items-center gap-x-5 gap-y-1 rounded-xl bg-ink-900 px-5 py-3 text-xl text-steam-50 shadow-xl"
+          className="fixed right-2 bottom-2 left-2 z-10 flex flex-wrap items-center gap-x-5 gap-y-1 rounded-xl bg-ink-900 px-5 py-3 text-xl text-steam-50 shadow-xl md:right-auto md:bottom-4 md:left-4 md:max-w-[calc(100%-30rem)]"
         >
           <span>
             Sent <strong>#{sent.number}</strong> for <strong>{sent.customerName}</strong> · {money(sent.totalCents)}{' '}
@@ -165,30 +191,48 @@ function Counter() {
           </Button>
         </div>
       )}
-      <form onSubmit={onSubmit} noValidate className="grid min-h-0 flex-1 grid-cols-[1fr_26rem] gap-4 p-4">
-        <MenuGrid menu={menu} onPick={pick} />
-        <aside className="flex min-h-0 flex-col rounded-2xl border border-steam-200 bg-white p-4">
-          <div className="min-h-0 flex-1 overflow-y-auto pr-1">
-          <OrderPanel
-            menu={menu}
-            items={items}
-            totals={totals}
-            error={form.formState.errors.items?.message ?? form.formState.errors.items?.root?.message}
-            onEditLine={(index) => {
-              const item = menu.items.find((i) => i.id === form.getValues(`items.${index}`).menuItemId);
-              if (item && item.station === 'bar') setSheet({ item, index });
-            }}
-            onRemoveLine={(index) => lines.remove(index)}
-          />
-          <CheckoutPanel
-            key={orderCount}
-            menu={menu}
-            form={form}
-            checkout={checkout}
-            onCheckout={setCheckout}
-            totalCents={totals.totalCents}
-            canDiscount={can(session.user?.role, 'giveDiscounts')}
-          />
+      <form onSubmit={onSubmit} noValidate className="grid min-h-0 flex-1 grid-cols-1 gap-3 p-2 md:grid-cols-[1fr_22rem] md:gap-4 md:p-4 lg:grid-cols-[1fr_26rem]">
+        <div className={cn('min-h-0 min-w-0 flex-col', phoneView === 'menu' ? 'flex' : 'hidden', 'md:flex')}>
+          <MenuGrid menu={menu} onPick={pick} />
+          {/* a phone: the order is one tap away, with its count and total on the button */}
+          <Button size="lg" className="mt-2 w-full shrink-0 md:hidden" onClick={() => setPhoneView('order')}>
+            Order · {orderCountLabel(menu, items)} · {money(totals.totalCents)} ›
+          </Button>
+        </div>
+        <aside
+          aria-label="Order and payment"
+          className={cn('min-h-0 min-w-0 flex-col rounded-2xl border border-steam-200 bg-white p-3 md:p-4', phoneView === 'order' ? 'flex' : 'hidden', 'md:flex')}
+        >
+          <Button tone="quiet" className="mb-2 self-start md:hidden" onClick={() => setPhoneView('menu')}>
+            ‹ Menu
+          </Button>
+          {/* a phone scrolls the order and payment as one (Send stays pinned); wider, the lines
+              scroll on their own and the payment choices stay in view under them */}
+          <div ref={orderScroll} className="min-h-0 flex-1 overflow-y-auto md:flex md:flex-col">
+            <div className="pr-1 md:min-h-0 md:flex-1 md:overflow-y-auto">
+              <OrderPanel
+                menu={menu}
+                items={items}
+                totals={totals}
+                error={form.formState.errors.items?.message ?? form.formState.errors.items?.root?.message}
+                onEditLine={(index) => {
+                  const item = menu.items.find((i) => i.id === form.getValues(`items.${index}`).menuItemId);
+                  if (item && item.station === 'bar') setSheet({ item, index });
+                }}
+                onQuantity={(index, quantity) => (quantity < 1 ? lines.remove(index) : lines.update(index, { ...form.getValues(`items.${index}`), quantity }))}
+                onRemoveLine={(index) => lines.remove(index)}
+              />
+              <CheckoutPanel
+                key={orderCount}
+                menu={menu}
+                form={form}
+                checkout={checkout}
+                onCheckout={setCheckout}
+                totalCents={totals.totalCents}
+                canDiscount={can(session.user?.role, 'giveDiscounts')}
+              />
+            </div>
+            <PaymentPanel key={`pay-${orderCount}`} menu={menu} form={form} checkout={checkout} onCheckout={setCheckout} totalCents={totals.totalCents} />
           </div>
           <SendBar
             menu={menu}

@@ -2,6 +2,7 @@
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router';
 import { formatCents } from '../domain/money';
+import { groupOrderLines } from '../domain/order-quantity';
 import { Button } from '../components/ui/button';
 import { menuQuery } from '../features/menu/queries';
 import { orderQuery } from '../features/orders/queries';
@@ -32,14 +33,15 @@ function Receipt() {
       </p>
       <table className="mt-3 w-full text-sm">
         <tbody>
-          {o.lines.map((l) => (
+          {groupOrderLines(o.lines).map(({ line: l, quantity, totalCents }) => (
             <tr key={l.id} className="align-top">
               <td className="py-1">
+                {quantity > 1 ? `${quantity} × ` : ''}
                 {l.itemName}
                 {l.sizeName ? ` (${l.sizeName})` : ''}
                 <div className="text-xs text-ink-600">{[l.milkName, ...l.modifiers].filter(Boolean).join(', ')}</div>
               </td>
-              <td className="py-1 text-right">{money(l.priceCents)}</td>
+              <td className="py-1 text-right">{money(totalCents)}</td>
             </tr>
           ))}
         </tbody>

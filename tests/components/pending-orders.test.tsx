@@ -204,3 +204,87 @@ describe('PendingOrdersBanner', () => {
     expect(later.bodies).toHaveLength(1);
   });
 });
+
+// A card is charged only with the customer there: a card order that can't reach the server is
+// held, never resent by itself, and the cashier decides when the Counter is back.
+const cardBody = (customerName: string): CreateOrderBody =>
+  createOrderBody.parse({
+    clientOrderId: uuid(),
+    customerName,
+    items: [{ menuItemId: 1 }],
+    payment: { method: 'card', paymentMethod: 'pm_card_visa' },
+  });
+
+function CardCounter({ send, resend }: { send: SendOrderFn; resend: SendOrderFn }) {
+  const queue = usePendingOrders(send, { resend, retryDelayMs: () => 1 });
+  return (
+    <>
+      <button type="button" onClick={() => void queue.sendOrQueue(cardBody('Cass Moor'), { totalCents: 460 }).catch(() => {})}>
+        Take Cass by card
+      </button>
+      <PendingOrdersBanner queue={queue} currency="USD" />
+    </>
+  );
+}
+
+describe('a card order while the server is away', () => {
+  it('is held, not resent on a timer, on "online" or on "Send now", and is never charged without the cashier', async () => {
+    const user = userEvent.setup();
+    const first = scriptedServer(offline());
+    const later = scriptedServer();
+    render(<CardCounter send={first.send} resend={later.send} />, { wrapper });
+    await user.click(screen.getByRole('button', { name: 'Take Cass by card' }));
+    await screen.findByRole('heading', { name: /1 card order held — not charged/ });
+    expect(screen.getByTestId('pending-order')).toHaveTextContent('Cass Moor$4.60Card not charged');
+    expect(screen.queryByRole('button', { name: 'Send now' })).toBeNull();
+    expect((await inIndexedDb()).map((o) => o.state)).toEqual(['held']);
+
+    act(() => void window.dispatchEvent(new Event('online')));
+    await new Promise((r) => setTimeout(r, 50)); // a timer round would have run by now (1 ms)
+    expect(later.bodies).toEqual([]);
+  });
+
+  it('"They paid cash" sends the same order once as cash for its total, never the card', async () => {
+    const user = userEvent.setup();
+    const first = scriptedServer(offline());
+    const later = scriptedServer('ok');
+    render(<CardCounter send={first.send} resend={later.send} />, { wrapper });
+    await user.click(screen.getByRole('button', { name: 'Take Cass by card' }));
+    await user.click(await screen.findByRole('button', { name: 'Cass Moor paid cash' }));
+    await waitFor(() => expect(screen.queryByTestId('pending-orders')).toBeNull());
+    expect(later.bodies.map((b) => [b.clientOrderId, b.payment])).toEqual([[first.bodies[0].clientOrderId, { method: 'cash', tenderedCents: 460 }]]);
+  });
+
+  it('"Charge card now" runs the card once, with the customer there', async () => {
+    const user = userEvent.setup();
+    const first = scriptedServer(offline());
+    const later = scriptedServer('ok');
+    render(<CardCounter send={first.send} resend={later.send} />, { wrapper });
+    await user.click(screen.getByRole('button', { name: 'Take Cass by card' }));
+    await user.click(await screen.findByRole('button', { name: 'Charge Cass Moor’s card now' }));
+    await waitFor(() => expect(screen.queryByTestId('pending-orders')).toBeNull());
+    expect(later.bodies).toEqual([first.bodies[0]]);
+  });
+
+  it('"Cancel" drops it without sending anything', async () => {
+    const user = userEvent.setup();
+    const first = scriptedServer(offline());
+    const later = scriptedServer();
+    render(<CardCounter send={first.send} resend={later.send} />, { wrapper });
+    await user.click(screen.getByRole('button', { name: 'Take Cass by card' }));
+    await user.click(await screen.findByRole('button', { name: 'Cancel Cass Moor’s order' }));
+    await waitFor(() => expect(screen.queryByTestId('pending-orders')).toBeNull());
+    expect(later.bodies).toEqual([]);
+    expect(await inIndexedDb()).toEqual([]);
+  });
+
+  it('a card order an older page stored as waiting is held on mount, not charged', async () => {
+    const left = cardBody('From an older page');
+    await putPending(pendingOf(left, '2026-12-01T09:00:00.000Z'));
+    const server = scriptedServer();
+    const { result } = renderHook(() => usePendingOrders(server.send, { resend: server.send, retryDelayMs: () => 1 }), { wrapper });
+    await waitFor(() => expect(result.current.pending.map((o) => o.state)).toEqual(['held']));
+    await new Promise((r) => setTimeout(r, 50));
+    expect(server.bodies).toEqual([]);
+  });
+});

@@ -1,6 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { resolveLine, type LineResult, type ResolvedLine } from '../../src/domain/order-lines';
 import type { MenuItemView, MenuView } from '../../src/domain/types';
+import { menuItem } from '../support/menu-items';
 
 // An invented "Test Café"; none of these numbers come from the demo café.
 const EXTRA_SHOT = 95;
@@ -17,23 +18,7 @@ const TOPPINGS = 42;
 const MAPLE = 31; // +55
 const CINNAMON = 32; // +15
 
-function item(over: Partial<MenuItemView> & Pick<MenuItemView, 'id' | 'name'>): MenuItemView {
-  return {
-    categoryId: 1,
-    station: 'bar',
-    priceCents: null,
-    shots: 0,
-    takesMilk: false,
-    defaultMilkId: null,
-    texture: null,
-    available: true,
-    ingredients: [],
-    allergens: [],
-    sizes: [],
-    modifierGroupIds: [SYRUPS, TOPPINGS],
-    ...over,
-  };
-}
+const item = (over: Partial<MenuItemView> & Pick<MenuItemView, 'id' | 'name'>) => menuItem({ modifierGroupIds: [SYRUPS, TOPPINGS], ...over });
 
 function testMenu(): MenuView {
   return {

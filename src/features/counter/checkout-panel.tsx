@@ -9,7 +9,7 @@ import { Button } from '../../components/ui/button';
 import { FieldError } from '../../components/ui/field-error';
 import { Segmented } from '../../components/ui/segmented';
 import { AllergyPicker } from './allergy-picker';
-import { clashesOf, tenderedCents, type Checkout } from './checkout';
+import { blockedLines, clashesOf, tenderedCents, type Checkout } from './checkout';
 import { DiscountEditor } from './discount-editor';
 import { TEST_CARDS } from './test-cards';
 
@@ -24,7 +24,32 @@ interface Props {
   error: string | null;
 }
 
-export function CheckoutPanel({ menu, form, checkout, onCheckout, totalCents, canDiscount }: Omit<Props, 'sending' | 'error'>) {
+/** In the order's scrolling part, under the lines: a receipt address and a lead's discount. */
+export function CheckoutPanel({ menu: _menu, checkout, onCheckout, canDiscount }: Omit<Props, 'sending' | 'error'>) {
+  const set = (patch: Partial<Checkout>) => onCheckout({ ...checkout, ...patch });
+  return (
+    <div className="mt-3 flex flex-col gap-3 border-t border-steam-200 pt-3">
+      <label>
+        <span className="block text-sm font-semibold tracking-widest text-ink-600 uppercase">E-mail receipt (optional)</span>
+        <input
+          type="email"
+          inputMode="email"
+          autoComplete="off"
+          className="mt-1 w-full rounded-lg border border-steam-200 px-3 py-2 text-lg"
+          value={checkout.email}
+          onChange={(e) => set({ email: e.target.value })}
+        />
+      </label>
+      {canDiscount && <DiscountEditor value={checkout.discount} onChange={(discount) => set({ discount })} />}
+    </div>
+  );
+}
+
+/**
+ * Pinned under the order's lines, so on a 1024×768 tablet the name, here or to go, and every
+ * payment choice are in view without scrolling, however long the order.
+ */
+export function PaymentPanel({ menu, form, checkout, onCheckout, totalCents }: Omit<Props, 'sending' | 'error' | 'canDiscount'>) {
   const money = (c: number) => formatCents(c, menu.location.currency);
   const [allergyOpen, setAllergyOpen] = useState(false);
   const allergens = form.watch('allergens') ?? [];
@@ -35,21 +60,21 @@ export function CheckoutPanel({ menu, form, checkout, onCheckout, totalCents, ca
   const set = (patch: Partial<Checkout>) => onCheckout({ ...checkout, ...patch });
 
   return (
-    <div className="flex flex-col gap-3 border-t border-steam-200 pt-3">
+    <div className="flex shrink-0 flex-col gap-2 border-t border-steam-200 pt-2">
       <div className="flex items-end gap-2">
-        <label className="flex-1">
+        <label className="min-w-0 flex-1">
           <span className="block text-base font-semibold">Name for the cup</span>
           <input
             id="customerName"
             autoComplete="off"
-            className="mt-1 w-full rounded-lg border border-steam-200 px-3 py-3 text-xl"
+            className="mt-1 w-full rounded-lg border border-steam-200 px-3 py-2 text-xl"
             aria-invalid={!!errors.customerName}
             {...form.register('customerName')}
           />
         </label>
         <Button
           tone={allergens.length || note ? 'primary' : 'quiet'}
-          size="lg"
+          className="min-h-12 text-lg"
           aria-expanded={allergyOpen}
           onClick={() => setAllergyOpen(!allergyOpen)}
         >
@@ -66,7 +91,7 @@ export function CheckoutPanel({ menu, form, checkout, onCheckout, totalCents, ca
           onNote={(n) => form.setValue('allergyNote', n || undefined)}
         />
       )}
-      <div className="flex flex-wrap gap-x-6 gap-y-3">
+      <div className="flex flex-wrap gap-x-3 gap-y-2">
         <Segmented
           label="Service"
           value={form.watch('service')}
@@ -97,17 +122,17 @@ export function CheckoutPanel({ menu, form, checkout, onCheckout, totalCents, ca
               inputMode="decimal"
               autoComplete="off"
               placeholder={money(totalCents)}
-              className="w-28 rounded-lg border border-steam-200 px-3 py-3 text-xl"
+              className="w-28 rounded-lg border border-steam-200 px-3 py-2 text-xl"
               value={checkout.tendered}
               onChange={(e) => set({ tendered: e.target.value })}
             />
             {cashQuickAmounts(totalCents).map((a) => (
-              <Button key={a} tone="quiet" size="lg" className="px-3" onClick={() => set({ tendered: (a / 100).toFixed(2) })}>
+              <Button key={a} tone="quiet" className="min-h-12 px-3 text-lg" onClick={() => set({ tendered: (a / 100).toFixed(2) })}>
                 {money(a)}
               </Button>
             ))}
           </div>
-          <p className="mt-2 text-xl" aria-live="polite">
+          <p className="mt-1 text-xl" aria-live="polite">
             {change === null ? (
               <span className="font-semibold text-copper-700">Enter an amount like 20 or 20.50</span>
             ) : change < 0 ? (
@@ -120,7 +145,7 @@ export function CheckoutPanel({ menu, form, checkout, onCheckout, totalCents, ca
           </p>
         </div>
       ) : (
-        <fieldset className="rounded-lg border border-steam-200 bg-white p-3">
+        <fieldset className="rounded-lg border border-steam-200 bg-white px-2 pb-2">
           <legend className="px-1 text-sm font-semibold tracking-widest text-ink-600 uppercase">Card reader (test cards)</legend>
           <div role="radiogroup" aria-label="Card presented" className="grid grid-cols-2 gap-2">
             {TEST_CARDS.map((c) => (
@@ -130,27 +155,18 @@ export function CheckoutPanel({ menu, form, checkout, onCheckout, totalCents, ca
                 role="radio"
                 aria-checked={checkout.paymentMethod === c.paymentMethod}
                 onClick={() => set({ paymentMethod: c.paymentMethod })}
-                className={`min-h-14 rounded-lg border-2 px-2 text-left ${checkout.paymentMethod === c.paymentMethod ? 'border-ink-900 bg-ink-900 text-steam-50' : 'border-steam-200'}`}
+                className={`min-h-12 rounded-lg border-2 px-2 text-left leading-tight ${checkout.paymentMethod === c.paymentMethod ? 'border-ink-900 bg-ink-900 text-steam-50' : 'border-steam-200'}`}
               >
-                <span className="block font-semibold">{c.label}</span>
+                <span className="block font-semibold">
+                  {checkout.paymentMethod === c.paymentMethod && <span aria-hidden>✓ </span>}
+                  {c.label}
+                </span>
                 <span className="block text-sm">{c.outcome}</span>
               </button>
             ))}
           </div>
         </fieldset>
       )}
-      <label>
-        <span className="block text-sm font-semibold tracking-widest text-ink-600 uppercase">E-mail receipt (optional)</span>
-        <input
-          type="email"
-          inputMode="email"
-          autoComplete="off"
-          className="mt-1 w-full rounded-lg border border-steam-200 px-3 py-2 text-lg"
-          value={checkout.email}
-          onChange={(e) => set({ email: e.target.value })}
-        />
-      </label>
-      {canDiscount && <DiscountEditor value={checkout.discount} onChange={(discount) => set({ discount })} />}
     </div>
   );
 }
@@ -160,11 +176,14 @@ export function SendBar({ menu, form, checkout, onCheckout, totalCents, sending,
   const tendered = tenderedCents(checkout, totalCents);
   const items = form.watch('items');
   const clashes = clashesOf(menu, items, form.watch('allergens') ?? []);
+  // a line that can't be made (86'd since it was added, or gone from the menu) blocks the order
+  const blocked = blockedLines(menu, items);
   const ready =
+    blocked.length === 0 &&
     (checkout.method === 'card' ? checkout.paymentMethod !== null : tendered !== null && tendered >= totalCents) &&
     (clashes.length === 0 || checkout.clashConfirmed);
   return (
-    <div className="flex flex-col gap-2 border-t border-steam-200 bg-white pt-3">
+    <div className="flex shrink-0 flex-col gap-2 bg-white pt-2">
       {clashes.length > 0 && (
         // compact: on a 768 px tablet it shares the column with the name, payment and Send
         <div role="alert" data-testid="allergy-clash" className="rounded-lg border-2 border-ink-900 bg-alert-ink px-3 py-1.5 text-ink-900">
@@ -181,7 +200,7 @@ export function SendBar({ menu, form, checkout, onCheckout, totalCents, sending,
               checked={checkout.clashConfirmed}
               onChange={(e) => onCheckout({ ...checkout, clashConfirmed: e.target.checked })}
             />
-            Change the drink — or tick if the customer confirmed they want it
+            Swap or remove it — or tick if the customer confirmed they want it
           </label>
         </div>
       )}
@@ -190,8 +209,16 @@ export function SendBar({ menu, form, checkout, onCheckout, totalCents, sending,
           {error}
         </p>
       )}
+      {blocked.length > 0 && (
+        <p data-testid="send-blocked" className="text-lg font-semibold text-ink-900">
+          <span aria-hidden>⊘ </span>
+          {blocked.join(', ')} {blocked.length === 1 ? 'is' : 'are'} 86'd — remove {blocked.length === 1 ? 'it' : 'them'} to send
+        </p>
+      )}
       <Button type="submit" size="xl" className="w-full" disabled={items.length === 0 || sending || !ready}>
-        {sending ? 'Sending…' : `${checkout.method === 'card' ? 'Charge card' : 'Send'} · ${formatCents(totalCents, menu.location.currency)}`}
+        {sending
+          ? 'Sending…'
+          : `${checkout.method === 'card' ? 'Charge card' : 'Send'}${blocked.length ? '' : ` · ${formatCents(totalCents, menu.location.currency)}`}`}
       </Button>
     </div>
   );

@@ -1,6 +1,7 @@
 // What the Counter knows about paying for the order being built, apart from its lines.
 import { discountCents, orderTotals, parseAmountToCents, type OrderTotals } from '../../domain/money';
 import { resolveLine } from '../../domain/order-lines';
+import { expandByQuantity } from '../../domain/order-quantity';
 import type { DiscountInput, OrderLineInput } from '../../domain/schemas';
 import { allergyClash } from '../../domain/allergens';
 import type { MenuView } from '../../domain/types';
@@ -29,7 +30,8 @@ export function clashesOf(menu: MenuView, items: OrderLineInput[], avoid: string
     const item = menu.items.find((i) => i.id === l.menuItemId);
     const hits = (tags: readonly string[]) => tags.some((t) => allergens.includes(t));
     const from = [
-      ...(item && hits(item.allergens) ? ['the drink itself'] : []),
+      // a croissant is an item, not a drink
+      ...(item && hits(item.allergens) ? [item.station === 'bar' ? 'the drink itself' : 'the item itself'] : []),
       ...(r.line.milk && hits(r.line.milk.allergens) ? [`the ${r.line.milk.name.toLowerCase()} milk`] : []),
       ...r.line.modifiers.filter((m) => hits(menu.modifiers.find((x) => x.id === m.id)?.allergens ?? [])).map((m) => m.name.toLowerCase()),
     ];
@@ -39,12 +41,22 @@ export function clashesOf(menu: MenuView, items: OrderLineInput[], avoid: string
 
 /** The same pure pricing the server uses, for the running total on screen. */
 export function previewTotals(menu: MenuView, items: OrderLineInput[], discount: DiscountInput | null): OrderTotals {
-  const cents = items.map((l) => {
+  // one price per cup, as the server expands "3 × Long black"
+  const cents = expandByQuantity(items, (l) => {
     const r = resolveLine(menu, l);
     return r.ok ? r.line.priceCents : 0;
   });
   const subtotal = cents.reduce((a, b) => a + b, 0);
   return orderTotals(cents, menu.location, discountCents(subtotal, discount ?? undefined));
+}
+
+/** The names of lines that can't be made now (86'd or gone from the menu), once each. */
+export function blockedLines(menu: MenuView, items: OrderLineInput[]): string[] {
+  const names = items.flatMap((l) => {
+    const r = resolveLine(menu, l);
+    return r.ok ? [] : [menu.items.find((i) => i.id === l.menuItemId)?.name ?? 'An item no longer on the menu'];
+  });
+  return [...new Set(names)];
 }
 
 /** Tendered cents, the total when blank, null when it isn't an amount. */

@@ -1,5 +1,5 @@
 // The item sheet: size, milk, shots and extras for one drink, as big touch choices.
-import { useEffect, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { formatCents } from '../../domain/money';
 import { resolveLine } from '../../domain/order-lines';
 import type { OrderLineInput } from '../../domain/schemas';
@@ -17,17 +17,44 @@ interface Props {
   onClose(): void;
 }
 
+const FOCUSABLE = 'button, input, textarea, select, a[href], [tabindex]:not([tabindex="-1"])';
+
 export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
   const defaultSize = item.sizes.find((s) => s.isDefault) ?? item.sizes[0];
+  const groups = menu.modifierGroups
+    .filter((g) => item.modifierGroupIds.includes(g.id))
+    .map((group) => ({ group, options: menu.modifiers.filter((m) => m.groupId === group.id) }));
   const [line, setLine] = useState<OrderLineInput>(
     initial ?? {
       menuItemId: item.id,
       sizeId: defaultSize?.id,
       milkId: item.takesMilk ? (item.defaultMilkId ?? undefined) : undefined,
-      modifierIds: [],
+      // a required choice with one option is no choice: it is made already
+      modifierIds: groups.filter(({ group, options }) => group.required && options.length === 1).map(({ options }) => options[0].id),
     },
   );
   const priced = resolveLine(menu, line);
+  const panel = useRef<HTMLDivElement>(null);
+
+  // A dialog: its first choice takes focus (however it was opened: a tap, a number key, Enter on
+  // a tile), Tab stays inside it, and focus goes back where it was when it closes.
+  useEffect(() => {
+    const back = document.activeElement as HTMLElement | null;
+    const first = panel.current?.querySelector<HTMLElement>('[data-first-choice] button, [data-first-choice] input') ?? panel.current?.querySelector<HTMLElement>(FOCUSABLE);
+    first?.focus();
+    return () => {
+      if (back && back !== document.body && back.isConnected) back.focus();
+    };
+  }, []);
+  const trapTab = (e: React.KeyboardEvent) => {
+    if (e.key !== 'Tab' || !panel.current) return;
+    const all = [...panel.current.querySelectorAll<HTMLElement>(FOCUSABLE)].filter((el) => !el.hasAttribute('disabled'));
+    if (all.length === 0) return;
+    const at = all.indexOf(document.activeElement as HTMLElement);
+    const next = e.shiftKey ? (at <= 0 ? all.length - 1 : at - 1) : at === all.length - 1 || at < 0 ? 0 : at + 1;
+    e.preventDefault();
+    all[next].focus();
+  };
 
   // Esc closes the sheet; Enter adds the drink — even right after tapping a choice, which would
   // otherwise press that choice again (only the note field keeps Enter for itself).
@@ -54,9 +81,9 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
   };
 
   return (
-    <div role="dialog" aria-modal="true" aria-label={item.name} className="fixed inset-0 z-20 flex flex-col justify-end bg-ink-900/40">
-      <button type="button" aria-label="Close" className="flex-1 cursor-default" onClick={onClose} />
-      <div className="flex max-h-[92vh] flex-col rounded-t-2xl bg-steam-50 shadow-2xl">
+    <div role="dialog" aria-modal="true" aria-label={item.name} className="fixed inset-0 z-20 flex flex-col justify-end bg-ink-900/40" onKeyDown={trapTab}>
+      <button type="button" tabIndex={-1} aria-label="Close" className="flex-1 cursor-default" onClick={onClose} />
+      <div ref={panel} className="flex max-h-[92dvh] flex-col rounded-t-2xl bg-steam-50 shadow-2xl">
         <div className="overflow-y-auto px-6 pt-5 pb-3">
         <div className="flex items-baseline gap-4">
           <h2 className="text-3xl font-semibold">{item.name}</h2>
@@ -71,7 +98,7 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
             <span className="font-semibold">Contains:</span> {priced.line.contains.join(', ')}
           </p>
         )}
-        <div className="mt-4 flex flex-col gap-4">
+        <div data-first-choice className="mt-4 flex flex-col gap-4">
           {item.sizes.length > 1 && (
             <Segmented
               label="Size"
@@ -115,19 +142,16 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
               </div>
             </fieldset>
           )}
-          {menu.modifierGroups
-            .filter((g) => item.modifierGroupIds.includes(g.id))
-            .map((group) => (
+          {groups.map(({ group, options }) => (
               <fieldset key={group.id}>
                 <legend className="mb-1 text-sm font-semibold tracking-widest text-ink-600 uppercase">
                   {group.name}
-                  {group.selection === 'single' ? ' · pick one' : ''}
-                  {group.required ? ' · required' : ''}
+                  {/* "pick one" only where there is more than one to pick from */}
+                  {group.selection === 'single' && options.length > 1 ? ' · pick one' : ''}
+                  {group.required && options.length > 1 ? ' · required' : ''}
                 </legend>
                 <div className="flex flex-wrap gap-2">
-                  {menu.modifiers
-                    .filter((m) => m.groupId === group.id)
-                    .map((m) => {
+                  {options.map((m) => {
                       const on = line.modifierIds?.includes(m.id) ?? false;
                       return (
                         <button

@@ -1,17 +1,29 @@
 // The strip under the Counter's header while orders wait for the server: how many, whose, how
-// much, and a "Send now". Told in words and a shape (the warning sign), never by colour alone.
+// much, and a "Send now". A held card order asks the cashier: charge the card now (the customer
+// is there), they paid cash, or cancel. Told in words and a shape (the warning sign), never by
+// colour alone.
+import { useState } from 'react';
 import { formatCents } from '../../domain/money';
+import { countLabel } from '../../domain/order-quantity';
 import { Button } from '../../components/ui/button';
+import type { OrderView } from '../../domain/types';
+import type { PendingOrder } from './pending-orders';
 import type { PendingOrders } from './use-pending-orders';
 
-const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? '' : 's'}`;
-
-export function PendingOrdersBanner({ queue, currency }: { queue: PendingOrders; currency: string }) {
-  const { pending, resending, retryNow, discard } = queue;
-  if (pending.length === 0) return null;
+/** `onSent`: a held card order the cashier settled is on the server (the Counter says "Sent"). */
+export function PendingOrdersBanner({ queue, currency, onSent }: { queue: PendingOrders; currency: string; onSent?(order: OrderView): void }) {
+  const { pending, resending, retryNow } = queue;
+  const [notice, setNotice] = useState<string | null>(null);
+  if (pending.length === 0 && !notice) return null;
   const waiting = pending.filter((o) => o.state === 'waiting');
   const refused = pending.filter((o) => o.state === 'refused');
+  const held = pending.filter((o) => o.state === 'held');
   const money = (c: number | null) => (c === null ? null : formatCents(c, currency));
+  const parts = [
+    held.length > 0 && `${countLabel(held.length, 'card order')} held — not charged; ask the customer`,
+    waiting.length > 0 && `${countLabel(waiting.length, 'order')} not sent yet — will send when the server is back`,
+    refused.length > 0 && `${countLabel(refused.length, 'order')} refused by the server — check and discard`,
+  ].filter(Boolean);
 
   return (
     <section aria-labelledby="pending-orders-title" data-testid="pending-orders" className="border-b-4 border-alert-deep bg-alert-ink px-5 py-3 text-ink-900">
@@ -20,9 +32,7 @@ export function PendingOrdersBanner({ queue, currency }: { queue: PendingOrders;
           <span aria-hidden className="mr-2">
             ⚠
           </span>
-          {waiting.length > 0 && `${plural(waiting.length, 'order')} not sent yet — will send when the server is back`}
-          {waiting.length > 0 && refused.length > 0 && ' · '}
-          {refused.length > 0 && `${plural(refused.length, 'order')} refused by the server — check and discard`}
+          {parts.join(' · ') || notice}
         </h2>
         {waiting.length > 0 && (
           <Button tone="quiet" className="ml-auto" disabled={resending} onClick={() => retryNow()}>
@@ -30,27 +40,76 @@ export function PendingOrdersBanner({ queue, currency }: { queue: PendingOrders;
           </Button>
         )}
       </div>
+      {notice && parts.length > 0 && <p className="mt-1 text-lg font-semibold">{notice}</p>}
+      {notice && (
+        <Button tone="quiet" className="mt-1" onClick={() => setNotice(null)}>
+          OK
+        </Button>
+      )}
       <ul className="mt-2 flex flex-col gap-1 text-lg" aria-label="Orders not sent yet">
         {pending.map((o) => (
           <li key={o.clientOrderId} data-testid="pending-order" className="flex flex-wrap items-center gap-3">
             <strong>{o.body.customerName}</strong>
             {money(o.totalCents) && <span>{money(o.totalCents)}</span>}
-            {o.state === 'waiting' ? (
-              <span className="rounded border border-ink-900 px-2 text-base">Not sent yet</span>
-            ) : (
-              <>
-                <span className="rounded border-2 border-ink-900 px-2 text-base font-semibold">Refused: {o.lastError?.message ?? 'the server said no'}</span>
-                <Button tone="quiet" onClick={() => retryNow(o.clientOrderId)} aria-label={`Try again ${o.body.customerName}`}>
-                  Try again
-                </Button>
-                <Button tone="quiet" onClick={() => void discard(o.clientOrderId)} aria-label={`Discard ${o.body.customerName}`}>
-                  Discard
-                </Button>
-              </>
-            )}
+            {o.state === 'waiting' && <span className="rounded border border-ink-900 px-2 text-base">Not sent yet</span>}
+            {o.state === 'refused' && <Refused order={o} queue={queue} />}
+            {o.state === 'held' && <Held order={o} queue={queue} money={money} onNotice={setNotice} onSent={onSent} />}
           </li>
         ))}
       </ul>
     </section>
+  );
+}
+
+function Refused({ order: o, queue }: { order: PendingOrder; queue: PendingOrders }) {
+  return (
+    <>
+      <span className="rounded border-2 border-ink-900 px-2 text-base font-semibold">Refused: {o.lastError?.message ?? 'the server said no'}</span>
+      <Button tone="quiet" onClick={() => queue.retryNow(o.clientOrderId)} aria-label={`Try again ${o.body.customerName}`}>
+        Try again
+      </Button>
+      <Button tone="quiet" onClick={() => void queue.discard(o.clientOrderId)} aria-label={`Discard ${o.body.customerName}`}>
+        Discard
+      </Button>
+    </>
+  );
+}
+
+/** A card order taken while the server was away: nothing happens until the cashier chooses. */
+interface HeldProps {
+  order: PendingOrder;
+  queue: PendingOrders;
+  money(c: number | null): string | null;
+  onNotice(n: string): void;
+  onSent?(order: OrderView): void;
+}
+
+function Held({ order: o, queue, money, onNotice, onSent }: HeldProps) {
+  const [busy, setBusy] = useState(false);
+  const name = o.body.customerName;
+  const settle = async (choice: 'card' | 'cash') => {
+    setBusy(true);
+    const order = await queue.settleHeld(o.clientOrderId, choice).finally(() => setBusy(false));
+    // the card went through on an earlier try after all: the customer must not pay twice
+    if (order && choice === 'cash' && order.payment?.method === 'card' && order.paymentStatus === 'paid') {
+      onNotice(`${name}’s card was charged ${money(order.totalCents)} before the connection dropped: give the cash back.`);
+    }
+    if (order) onSent?.(order);
+  };
+  return (
+    <>
+      <span className="rounded border-2 border-ink-900 px-2 text-base font-semibold">
+        Card not charged{o.lastError && o.attempts > 0 ? ` — ${o.lastError.message}` : ''}
+      </span>
+      <Button tone="quiet" disabled={busy} onClick={() => void settle('card')} aria-label={`Charge ${name}’s card now`}>
+        Charge card now (customer here)
+      </Button>
+      <Button tone="quiet" disabled={busy} onClick={() => void settle('cash')} aria-label={`${name} paid cash`}>
+        They paid cash
+      </Button>
+      <Button tone="quiet" disabled={busy} onClick={() => void queue.discard(o.clientOrderId)} aria-label={`Cancel ${name}’s order`}>
+        Cancel
+      </Button>
+    </>
   );
 }

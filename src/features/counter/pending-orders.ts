@@ -17,8 +17,12 @@ export interface PendingOrder {
   queuedAt: string;
   /** Resends tried so far. */
   attempts: number;
-  /** waiting: resent automatically; refused: the server said no (4xx) and the cashier decides. */
-  state: 'waiting' | 'refused';
+  /**
+   * waiting: a cash order, resent automatically; refused: the server said no (4xx) and the cashier
+   * decides; held: a card order, never sent by itself — the cashier charges it with the customer
+   * there, records that they paid cash, or cancels it.
+   */
+  state: 'waiting' | 'refused' | 'held';
   /** The last failure: a lost connection, or the server's own message for a refusal. */
   lastError: { status: number; code: string; message: string } | null;
 }
@@ -61,7 +65,9 @@ export async function listPending(): Promise<PendingOrder[]> {
   }
   const byId = new Map(stored.map((o) => [o.clientOrderId, o]));
   for (const o of memory.values()) byId.set(o.clientOrderId, o);
-  return [...byId.values()].sort((a, b) => a.queuedAt.localeCompare(b.queuedAt) || a.clientOrderId.localeCompare(b.clientOrderId));
+  // a card order stored as waiting (by an older page) is held all the same: never charged unasked
+  return [...byId.values()]
+    .map((o) => (o.state === 'waiting' && o.body.payment.method === 'card' ? { ...o, state: 'held' as const } : o)).sort((a, b) => a.queuedAt.localeCompare(b.queuedAt) || a.clientOrderId.localeCompare(b.clientOrderId));
 }
 
 export async function removePending(clientOrderId: string): Promise<void> {

@@ -3,6 +3,8 @@
 // timer with backoff, when the browser says it is back online, when the live socket reconnects,
 // and when the cashier taps "Send now". An order the server refuses (4xx) is never queued; one
 // that was queued and is refused later stays, with the server's message, until discarded.
+// A card order is never sent by itself: a card is charged with the customer standing there, and
+// meanwhile they may have paid cash. It is held until the cashier chooses (settleHeld).
 import { useQueryClient } from '@tanstack/react-query';
 import { useCallback, useEffect, useRef, useState } from 'react';
 import type { CreateOrderBody } from '../../domain/schemas';
@@ -35,8 +37,14 @@ export interface PendingOrders {
   sendOrQueue(body: CreateOrderBody, summary?: { totalCents?: number }): Promise<SendOutcome>;
   /** Resend now; with an id, also give a refused order another try. */
   retryNow(clientOrderId?: string): void;
-  /** Drop an order for good (the cashier's decision, after a refusal). */
+  /** Drop an order for good (the cashier's decision, after a refusal, or cancelling a held card order). */
   discard(clientOrderId: string): Promise<void>;
+  /**
+   * The cashier's choice for a held card order: run the card now (the customer is there) or send
+   * it as paid in cash for the total shown. Resolves with the order once the server has it; a
+   * cash choice the server can't be reached for waits like any cash order.
+   */
+  settleHeld(clientOrderId: string, choice: 'card' | 'cash'): Promise<OrderView | null>;
 }
 
 /** No answer from the server at all, a gateway saying it has none, or a session that timed out
@@ -84,7 +92,7 @@ export function usePendingOrders(send: SendOrderFn = postOrder, options: Pending
     const l = loop.current;
     clearTimeout(l.timer);
     l.timer = undefined;
-    if (!l.alive || !list.some((o) => o.state === 'waiting')) return;
+    if (!l.alive || !list.some((o) => o.state === 'waiting')) return; // held card orders wait for the cashier
     l.timer = setTimeout(() => void flushRef.current(), fns.current.delay(Math.max(1, l.failures)));
   }, []);
 
@@ -103,7 +111,7 @@ export function usePendingOrders(send: SendOrderFn = postOrder, options: Pending
       do {
         l.again = false;
         let blocked = false;
-        for (const order of (await listPending()).filter((o) => o.state === 'waiting')) {
+        for (const order of (await listPending()).filter((o) => o.state === 'waiting' && o.body.payment.method === 'cash')) {
           try {
             await fns.current.resend(order.body);
             await removePending(order.clientOrderId).catch(() => {
@@ -162,13 +170,15 @@ export function usePendingOrders(send: SendOrderFn = postOrder, options: Pending
         return { queued: false, order };
       } catch (err) {
         if (!isUnreachable(err)) throw err;
+        // our server answered that the card service didn't: the cashier sees that at once
+        if (body.payment.method === 'card' && err instanceof ApiError && err.code === 'payment_unavailable') throw err;
         const kept: PendingOrder = {
           clientOrderId: body.clientOrderId,
           body,
           totalCents: summary.totalCents ?? null,
           queuedAt: new Date().toISOString(),
           attempts: 0,
-          state: 'waiting',
+          state: body.payment.method === 'card' ? 'held' : 'waiting',
           lastError: errorOf(err),
         };
         await putPending(kept);
@@ -201,5 +211,28 @@ export function usePendingOrders(send: SendOrderFn = postOrder, options: Pending
     [refresh],
   );
 
-  return { pending, resending, sendOrQueue, retryNow, discard };
+  const settleHeld = useCallback(
+    async (clientOrderId: string, choice: 'card' | 'cash'): Promise<OrderView | null> => {
+      const order = (await listPending()).find((o) => o.clientOrderId === clientOrderId);
+      if (!order || order.state !== 'held') return null;
+      const body: CreateOrderBody =
+        choice === 'card' ? order.body : { ...order.body, payment: { method: 'cash', tenderedCents: order.totalCents ?? 0 } };
+      try {
+        const { order: taken } = await fns.current.resend(body);
+        await removePending(clientOrderId);
+        return taken;
+      } catch (err) {
+        // cash was taken: it may go on its own now; a card stays held for the cashier
+        const state = choice === 'cash' && isUnreachable(err) ? 'waiting' : 'held';
+        await putPending({ ...order, body: state === 'waiting' ? body : order.body, state, attempts: order.attempts + 1, lastError: errorOf(err) });
+        if (state === 'waiting') schedule(await refresh());
+        return null;
+      } finally {
+        await refresh();
+      }
+    },
+    [refresh, schedule],
+  );
+
+  return { pending, resending, sendOrQueue, retryNow, discard, settleHeld };
 }
