@@ -3,6 +3,9 @@
 import type { Knex } from 'knex';
 import { busyPace, FORGOTTEN_AFTER_MS, type BarDrink, type BarPace } from '../../src/domain/make-times';
 import { quoteWaitSeconds } from '../../src/domain/quote';
+import type { CounterWaitNow } from '../../src/domain/wait-now';
+import type { Deps } from './deps';
+import { loadLocation } from './menu';
 
 /** How far back the pace looks. */
 export const PACE_WINDOW_MS = 30 * 60_000;
@@ -47,4 +50,11 @@ export async function barNow(db: Db, locationId: number, now: Date, baristas: nu
 export async function quoteForNewOrder(db: Db, locationId: number, now: Date, drinksInOrder: number, baristas: number): Promise<number> {
   const { drinksAhead, pace } = await barNow(db, locationId, now, baristas);
   return quoteWaitSeconds({ drinksAhead, drinksInOrder, baristas, pace });
+}
+
+/** The wait the Counter can tell a customer before they pay: the quote their drinks would get now. */
+export async function waitNowForCounter(deps: Deps, locationId: number, drinks: number): Promise<CounterWaitNow> {
+  const { baristasOnBar: baristas } = await loadLocation(deps.db, locationId);
+  const { drinksAhead, pace } = await barNow(deps.db, locationId, deps.clock(), baristas);
+  return { drinksOnBar: drinksAhead, baristas, seconds: quoteWaitSeconds({ drinksAhead, drinksInOrder: Math.max(1, drinks), baristas, pace }) };
 }

@@ -1,8 +1,15 @@
 // What a drink ordered now waits, in the words the Counter and Pulse both use, and the staffing
 // sentence that never contradicts it: a model of the bar in steady state (Erlang C) can say
 // "40 s" while 20 drinks are queued; the drinks on the bar now decide the wait now.
+import { z } from 'zod';
 import type { StaffingAdvice } from './erlang';
 import { quoteLabel } from './quote';
+
+/** GET /api/wait-now: how many bar drinks the customer is about to order (1 when none is picked yet). */
+export const waitNowQuery = z.object({ drinks: z.coerce.number().int().min(0).max(40).default(1) });
+
+/** What the Counter shows before payment: the quote for these drinks now. */
+export type CounterWaitNow = Omit<WaitNow, 'withOneMoreSeconds'>;
 
 /** "about 6 min": a wait said in whole minutes, rounded up, as the Counter tells a customer. */
 export const aboutMinutes = (seconds: number) => quoteLabel(seconds).replace(/^About/, 'about').replace('Ready now', 'no wait');

@@ -24,6 +24,7 @@ import { OrderPanel } from '../features/counter/order-panel';
 import { PendingOrdersBanner } from '../features/counter/pending-orders-banner';
 import { usePendingOrders } from '../features/counter/use-pending-orders';
 import { useSendOrder } from '../features/counter/use-send-order';
+import { WaitNow } from '../features/counter/wait-now';
 import { menuQuery } from '../features/menu/queries';
 import { sessionQuery } from '../features/session/queries';
 import { useApi } from '../lib/api-context';
@@ -126,6 +127,7 @@ function Counter() {
         <span data-testid="queue-glance" className="text-lg">
           In the queue: <strong>{queued.length}</strong> drink{queued.length === 1 ? '' : 's'}
         </span>
+        <WaitNow items={items} />
         <Button tone="quiet" onClick={() => setOrdersOpen(true)}>
           Today’s orders
         </Button>

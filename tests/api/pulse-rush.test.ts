@@ -58,6 +58,19 @@ async function pulse(): Promise<PulseView> {
   return res.body;
 }
 
+describe('the wait now, for the Counter before payment', () => {
+  it('refuses a count that is not a whole number of drinks (400 with the field), and needs a sign-in', async () => {
+    for (const q of ['drinks=-1', 'drinks=two', 'drinks=41', 'drinks=1.5']) {
+      const res = await cashier.get(`/api/wait-now?${q}`);
+      expect(res.status, q).toBe(400);
+      expect(res.body.error.details[0].path).toBe('query.drinks');
+    }
+    const none = await cashier.get('/api/wait-now');
+    expect(none.status).toBe(200);
+    expect((await baristas[0].get('/api/wait-now?drinks=1')).status).toBe(403);
+  });
+});
+
 describe('a rush of jugs started moments before their bumps', () => {
   it('no barista’s median make time reads 0:03', async () => {
     const p = await pulse();
@@ -68,6 +81,10 @@ describe('a rush of jugs started moments before their bumps', () => {
   });
 
   it('the next quote with 20 drinks on the bar is minutes, and agrees with Pulse’s wait now', async () => {
+    // before paying: the Counter reads the wait for the drinks being ordered (GET /api/wait-now)
+    const before = await cashier.get('/api/wait-now?drinks=1');
+    expect(before.status, JSON.stringify(before.body)).toBe(200);
+    expect(before.body.waitNow).toEqual({ drinksOnBar: 20, baristas: 2, seconds: 452 });
     const next = await place('Asking');
     // hand-worked: 44 − 24 = 20 drinks on the bar. Busy barista-time 0:00 → 8:00: 2 × 480 − 11 (one
     // latte alone for the first 11 s) = 949 s over 24 drinks, steadied by 5 × 60 s: 1249 ÷ 29 = 43.07 s;
