@@ -1,8 +1,8 @@
 // The Pickup wall in a rush: every name is shown whole or counted in "+n more", none is cut in
 // half, an empty half gives its room to the other, and the board works from a 1920×1080 wall down
 // to a 390 px phone (numbers not clipped, nothing scrolls sideways).
-import { request as apiRequest, type APIRequestContext, type Page } from '@playwright/test';
-import { DEMO_PASSWORD, errorsOf, expect, pageAs, test } from './fixtures';
+import type { APIRequestContext, Page } from '@playwright/test';
+import { apiAs, errorsOf, expect, pageAs, test } from './fixtures';
 
 const SHOTS = 'test-results/shots';
 const NAMES = ['Ada', 'Bram', 'Cleo', 'Dov', 'Maximiliana', 'Fern', 'Gus', 'Hana', 'Ivo', 'Juno', 'Kit', 'Lior', 'Mae', 'Nico', 'Oona', 'Pim'];
@@ -13,12 +13,6 @@ const VIEWPORTS = [
   { width: 768, height: 1024 },
   { width: 390, height: 844 },
 ];
-
-async function signedIn(baseURL: string, username: string) {
-  const ctx = await apiRequest.newContext({ baseURL });
-  await ctx.post('/api/session', { data: { username, password: DEMO_PASSWORD } });
-  return ctx;
-}
 
 async function placeOrders(cashier: APIRequestContext, names: string[]): Promise<number[]> {
   const menu = await (await cashier.get('/api/menu')).json();
@@ -89,8 +83,8 @@ async function checkBoard(page: Page, label: string) {
 
 test('the Pickup wall in a rush shows or counts every name, at every width', async ({ browser, baseURL }) => {
   test.setTimeout(120_000);
-  const cashier = await signedIn(baseURL!, 'cashier');
-  const barista = await signedIn(baseURL!, 'barista');
+  const cashier = await apiAs(baseURL!, 'cashier');
+  const barista = await apiAs(baseURL!, 'barista');
   const page = await pageAs(browser, 'lead', '/pickup', VIEWPORTS[0]);
   await expect(page.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
 

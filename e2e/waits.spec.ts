@@ -1,16 +1,13 @@
 // The wait as the staff read it: the Counter can say "wait now ~N min" before the customer pays, and
 // Pulse says the same figure; Pulse speaks café words (the statistics in help notes), draws each chart
 // on one axis with a legend in words, and works from 1366 px down to a 390 px phone.
-import { request as apiRequest, type Page } from '@playwright/test';
-import { DEMO_PASSWORD, errorsOf, expect, pageAs, test } from './fixtures';
+import type { Page } from '@playwright/test';
+import { apiAs, errorsOf, expect, pageAs, test } from './fixtures';
 
 const SHOTS = 'test-results/shots';
 
 async function rush(baseURL: string) {
-  const cashier = await apiRequest.newContext({ baseURL });
-  await cashier.post('/api/session', { data: { username: 'cashier', password: DEMO_PASSWORD } });
-  const barista = await apiRequest.newContext({ baseURL });
-  await barista.post('/api/session', { data: { username: 'barista', password: DEMO_PASSWORD } });
+  const [cashier, barista] = [await apiAs(baseURL, 'cashier'), await apiAs(baseURL, 'barista')];
   const menu = await (await cashier.get('/api/menu')).json();
   const latte = menu.items.find((i: { name: string }) => i.name === 'Latte').id;
   const ids: number[] = [];
