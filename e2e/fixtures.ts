@@ -1,5 +1,5 @@
 // Playwright fixtures: a signed-in page per role, and a check that no page logs an error.
-import { test as base, expect, type Browser, type Page } from '@playwright/test';
+import { request, test as base, expect, type Browser, type Page } from '@playwright/test';
 
 export const DEMO_PASSWORD = 'jugline-demo';
 export type Login = 'owner' | 'lead' | 'cashier' | 'barista' | 'barista2';
@@ -21,6 +21,13 @@ export async function pageAs(browser: Browser, login: Login, path: string, viewp
   await signIn(page, login, path);
   await page.waitForURL(`**${path}`);
   return page;
+}
+
+/** A signed-in API client for setting the scene (orders, bumps) without a browser. */
+export async function apiAs(baseURL: string, login: Login) {
+  const ctx = await request.newContext({ baseURL });
+  await ctx.post('/api/session', { data: { username: login, password: DEMO_PASSWORD } });
+  return ctx;
 }
 
 const pageErrors = new WeakMap<Page, string[]>();

@@ -45,7 +45,7 @@ test('a shift on Pulse: open, live numbers, close with a count, report mailed', 
   await expect(pulse.getByTestId('staffing-inputs')).toContainText('with 2 on bar');
   await expect(pulse.getByTestId('staffing-inputs')).not.toContainText('Erlang');
   await pulse.screenshot({ path: 'docs/screenshots/pulse.png', fullPage: true });
-  await pulse.getByText('How this is worked out').click();
+  await pulse.getByRole('region', { name: 'Staffing' }).getByText('How we work this out').click();
   await expect(pulse.getByRole('region', { name: 'Staffing' })).toContainText('Erlang C');
   await pulse.getByRole('region', { name: 'Staffing' }).screenshot({ path: `${SHOTS}/staffing.png` });
 

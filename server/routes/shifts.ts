@@ -3,6 +3,8 @@ import { userOf } from '../auth/guards';
 import { parse } from '../errors';
 import type { Deps } from '../services/deps';
 import { pulse } from '../services/pulse';
+import { waitNowForCounter } from '../services/quotes';
+import { waitNowQuery } from '../../src/domain/wait-now';
 import { mailShiftReport } from '../services/shift-report-mail';
 import { closeShift, openShift, setBaristas } from '../services/shifts';
 import type { ApiRoute } from './define';
@@ -14,6 +16,15 @@ export function shiftRoutes(deps: Deps): ApiRoute[] {
       path: '/pulse',
       capability: 'viewPulse',
       handler: async (req, res) => res.json(await pulse(deps, userOf(req).locationId)),
+    },
+    {
+      method: 'get',
+      path: '/wait-now',
+      capability: 'takeOrders',
+      handler: async (req, res) => {
+        const { drinks } = parse(waitNowQuery, req.query, 'query');
+        res.json({ waitNow: await waitNowForCounter(deps, userOf(req).locationId, drinks) });
+      },
     },
     {
       method: 'post',

@@ -108,7 +108,7 @@ async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody,
       .max<{ n: number | null }>({ n: 'number' })
       .first();
     const barDrinks = lines.filter((l) => l.station === 'bar').length;
-    const quote = await quoteForNewOrder(trx, user.locationId, barDrinks, menu.location.baristasOnBar);
+    const quote = await quoteForNewOrder(trx, user.locationId, now, barDrinks, menu.location.baristasOnBar);
     const shift = await trx('shifts').where({ location_id: user.locationId }).whereNull('closed_at').first('id');
     // An order of counter items only is handed over at the till once paid.
     const firedStatus = barDrinks > 0 ? 'open' : 'collected';

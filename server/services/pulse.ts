@@ -6,22 +6,22 @@ import type { Knex } from 'knex';
 import { staffingAdvice, type ErlangResult } from '../../src/domain/erlang';
 import { fraction } from '../../src/domain/fraction';
 import { durationWords } from '../../src/domain/format';
-import { barPace, perDrinkMakeSeconds } from '../../src/domain/make-times';
+import { bumpShares } from '../../src/domain/make-times';
 import type { PulseView } from '../../src/domain/pulse';
-import { DEFAULT_MAKE_SECONDS } from '../../src/domain/quote';
+import { DEFAULT_MAKE_SECONDS, DEFAULT_WEIGHT_DRINKS, quoteWaitSeconds } from '../../src/domain/quote';
 import { median, PERCENTILE_METHOD, summarizeWaits } from '../../src/domain/stats';
+import { staffingSentence } from '../../src/domain/wait-now';
 import type { Deps } from './deps';
 import { pulseBeanAlerts } from './beans-alerts';
 import { loadLocation } from './menu';
 import { businessDate } from './orders';
+import { barNow, PACE_WINDOW_MS } from './quotes';
 import { expectedCash, openShiftOf } from './shifts';
 
 const MIN = 60_000;
 const BUCKET_MS = 15 * MIN;
 /** Arrivals for the staffing estimate: the last 30 minutes. */
 const ARRIVALS_WINDOW_MIN = 30;
-/** Make times for the staffing estimate: drinks bumped in the last hour. */
-const PACE_WINDOW_MIN = 60;
 /** Orders created this long ago may still count: a café-local day is at most 25 hours long. */
 const LOOKBACK_MS = 26 * 60 * MIN;
 
@@ -149,32 +149,37 @@ export async function pulse(deps: Deps, locationId: number): Promise<PulseView> 
   const actual = quoted.map(waitOf);
   const avg = (xs: number[]) => (xs.length ? xs.reduce((a, b) => a + b, 0) / xs.length : null);
 
-  // Make times: a jug's time shared among its drinks (src/domain/make-times.ts).
-  const timed = drinks
-    .filter((d) => d.status === 'done' && d.started_at && d.done_at)
-    .map((d) => ({ ...d, startedMs: Date.parse(d.started_at!), doneMs: Date.parse(d.done_at!), bumpSeq: d.bump_seq ?? null }));
-  const shares = perDrinkMakeSeconds(timed);
-  const made = timed.map((d, i) => ({ ...d, makeSeconds: shares[i] }));
-  const unitMade = made.filter((d) => unitOrders.has(d.order_id));
-  const groupBy = (key: 'maker' | 'category') =>
+  // Make times per barista and category: each batch's time from its barista's previous bump (or
+  // its firing) to its bump, shared among its drinks (bumpShares in src/domain/make-times.ts).
+  const made = drinks
+    .filter((d) => d.status === 'done' && d.done_at)
+    .map((d) => ({ ...d, firedMs: Date.parse(d.fired_at), doneMs: Date.parse(d.done_at!), bumpSeq: d.bump_seq ?? null }));
+  const shares = bumpShares(made);
+  const unitMade = made.map((d, i) => ({ ...d, makeSeconds: shares[i] })).filter((d) => unitOrders.has(d.order_id));
+  const groupBy = (key: 'bumper' | 'category') =>
     [...new Set(unitMade.map((d) => d[key] ?? '—'))].map((name) => {
       const mine = unitMade.filter((d) => (d[key] ?? '—') === name);
       const times = mine.map((d) => d.makeSeconds).filter((s): s is number => s !== null);
       return { name, drinks: mine.length, medianMakeSeconds: times.length ? median(times) : null };
     });
 
-  // Staffing: the drinks fired in the last 30 minutes against the MEAN make time of the drinks
-  // bumped in the last hour (their batches are whole: a batch shares one bump time).
+  // Staffing: the drinks fired in the last 30 minutes against the bar's pace over the same window
+  // (the quote's: barista-time busy over drinks bumped, steadied by the default make time).
   const arrivals = drinks.filter((d) => Date.parse(d.fired_at) >= now - ARRIVALS_WINDOW_MIN * MIN).length;
-  const pace = barPace(made.filter((d) => d.doneMs >= now - PACE_WINDOW_MIN * MIN));
-  const meanMake = pace.drinks > 0 ? fraction(pace.totalMs, 1000 * pace.drinks) : fraction(DEFAULT_MAKE_SECONDS);
   const baristas = shift?.baristasOnBar ?? location.baristasOnBar;
+  const bar = await barNow(deps.db, locationId, nowDate, baristas);
+  const { pace } = bar;
+  const meanMake = fraction(pace.totalMs + DEFAULT_WEIGHT_DRINKS * DEFAULT_MAKE_SECONDS * 1000, 1000 * (pace.drinks + DEFAULT_WEIGHT_DRINKS));
+  const meanMakeSeconds = (pace.totalMs / 1000 + DEFAULT_WEIGHT_DRINKS * DEFAULT_MAKE_SECONDS) / (pace.drinks + DEFAULT_WEIGHT_DRINKS);
   const advice = staffingAdvice({ arrivals, windowSeconds: ARRIVALS_WINDOW_MIN * 60, meanMakeSeconds: meanMake, baristas, targetSeconds: target });
+  const quoteNow = (c: number) => quoteWaitSeconds({ drinksAhead: bar.drinksAhead, drinksInOrder: 1, baristas: c, pace });
+  const waitNow = { drinksOnBar: bar.drinksAhead, baristas, seconds: quoteNow(baristas), withOneMoreSeconds: quoteNow(baristas + 1) };
+  const modelSeconds = advice.now.stable ? advice.now.meanWaitSeconds + meanMakeSeconds : null;
 
   const rolling = windows[1].waits;
   const alert =
     rolling.p90Seconds !== null && rolling.p90Seconds > target
-      ? `Waits are slipping: 90 % of tickets in the last 30 min took up to ${durationWords(rolling.p90Seconds)}, over the ${durationWords(target)} target.`
+      ? `Waits are slipping: 1 ticket in 10 over the last 30 min waited longer than ${durationWords(rolling.p90Seconds)}, and the target is ${durationWords(target)}.`
       : null;
 
   return {
@@ -207,13 +212,14 @@ export async function pulse(deps: Deps, locationId: number): Promise<PulseView> 
       meanActualSeconds: avg(actual),
       shareLongerThanQuoted: quoted.length ? actual.filter((a, i) => a > quoted[i].quoted_wait_seconds).length / quoted.length : null,
     },
-    perBarista: groupBy('maker').map(({ name, ...rest }) => ({ name, ...rest })),
+    perBarista: groupBy('bumper').map(({ name, ...rest }) => ({ name, ...rest })),
     perCategory: groupBy('category').map(({ name, ...rest }) => ({ category: name, ...rest })),
     staffing: {
-      inputs: { arrivals, windowMinutes: ARRIVALS_WINDOW_MIN, drinksTimed: pace.drinks, meanMakeSeconds: pace.drinks > 0 ? pace.totalMs / 1000 / pace.drinks : DEFAULT_MAKE_SECONDS, baristas },
+      inputs: { arrivals, windowMinutes: ARRIVALS_WINDOW_MIN, paceMinutes: PACE_WINDOW_MS / MIN, drinksTimed: pace.drinks, meanMakeSeconds, baristas },
       now: erlangView(advice.now),
       withOneMore: erlangView(advice.withOneMore),
-      sentence: advice.sentence,
+      waitNow,
+      sentence: staffingSentence(advice, waitNow, modelSeconds, meanMakeSeconds),
     },
     alert,
     beanAlerts: await pulseBeanAlerts(deps.db, locationId, nowDate, location.timeZone),

@@ -13,6 +13,7 @@ import { teamServerApi } from './team-api';
 import { loadMenu } from '../services/menu';
 import { findOrderInLocation, listOrders, loadOrder } from '../services/orders';
 import { pulse } from '../services/pulse';
+import { waitNowForCounter } from '../services/quotes';
 import { boardSnapshot } from '../services/tickets';
 
 export function serverApi(deps: Deps, user: SessionUser | undefined): Api {
@@ -36,6 +37,7 @@ export function serverApi(deps: Deps, user: SessionUser | undefined): Api {
     settings: settingsServerApi(deps, locationId),
     beans: beansServerApi(deps, locationId),
     pulse: () => pulse(deps, locationId()),
+    waitNow: async (drinks) => ({ waitNow: await waitNowForCounter(deps, locationId(), drinks) }),
     orders: async (q) => ({ orders: await listOrders(deps, signedIn(), q, 100) }),
     order: async (id) => {
       if (!(await findOrderInLocation(deps.db, signedIn(), id))) throw new HttpError(404, 'not_found', 'Order not found');

@@ -2,6 +2,7 @@
 import type { BeanAlert } from './bean-stock';
 import type { WaitSummary } from './stats';
 import type { ShiftView } from './types';
+import type { WaitNow } from './wait-now';
 
 export type { WaitSummary };
 
@@ -47,12 +48,15 @@ export interface PulseView {
   staffing: {
     /**
      * What the estimate was made from, for the screen to say in café words: `arrivals` bar drinks
-     * fired in the last `windowMinutes`, the average make time of the last `drinksTimed` drinks
-     * (a jug's time shared among its drinks; 60 s assumed when none was timed), baristas on bar.
+     * fired in the last `windowMinutes`; the bar's make time per drink per barista over the last
+     * `paceMinutes` (the time the baristas were busy over the `drinksTimed` drinks they bumped,
+     * steadied by 60 s a drink: 60 s when none was bumped); baristas on bar.
      */
-    inputs: { arrivals: number; windowMinutes: number; drinksTimed: number; meanMakeSeconds: number; baristas: number };
+    inputs: { arrivals: number; windowMinutes: number; paceMinutes: number; drinksTimed: number; meanMakeSeconds: number; baristas: number };
     now: { stable: boolean; probabilityOfWaiting: number; meanWaitSeconds: number | null };
     withOneMore: { stable: boolean; probabilityOfWaiting: number; meanWaitSeconds: number | null };
+    /** A drink ordered now: the Counter's quote for one drink, and with one more barista. */
+    waitNow: WaitNow;
     sentence: string;
   };
   alert: string | null;

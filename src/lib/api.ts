@@ -3,6 +3,7 @@
 import type { OutboxView } from '../domain/outbox';
 import type { PickupBoard } from '../domain/pickup';
 import type { PulseView } from '../domain/pulse';
+import type { CounterWaitNow } from '../domain/wait-now';
 import type { Role } from '../domain/roles';
 import type { BoardSnapshot, MenuView, OrderView } from '../domain/types';
 import { http } from './http';
@@ -29,6 +30,8 @@ export interface Api {
   order(id: number): Promise<{ order: OrderView }>;
   /** The shift lead's live numbers. */
   pulse(): Promise<PulseView>;
+  /** The wait a customer would be quoted now for `drinks` bar drinks (the Counter, before payment). */
+  waitNow(drinks: number): Promise<{ waitNow: CounterWaitNow }>;
   /** Mail the local SMTP fake caught for this café, newest first. */
   outbox(): Promise<OutboxView>;
   /** Reports for the lead and the owner (src/lib/reports-api.ts). */
@@ -55,4 +58,6 @@ export const httpApi: Api = {
   orders: (q) => http('GET', `/orders${q ? `?q=${encodeURIComponent(q)}` : ''}`),
   order: (id) => http('GET', `/orders/${id}`),
   pulse: () => http('GET', '/pulse'),
+  // a glance the Counter refreshes as the bar moves: not activity that keeps a session awake
+  waitNow: (drinks) => http('GET', `/wait-now?drinks=${drinks}`, undefined, { passive: true }),
 };

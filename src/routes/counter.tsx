@@ -25,6 +25,7 @@ import { OrderPanel } from '../features/counter/order-panel';
 import { PendingOrdersBanner } from '../features/counter/pending-orders-banner';
 import { usePendingOrders } from '../features/counter/use-pending-orders';
 import { useSendOrder } from '../features/counter/use-send-order';
+import { WaitNow } from '../features/counter/wait-now';
 import { menuQuery } from '../features/menu/queries';
 import { sessionQuery } from '../features/session/queries';
 import { useApi } from '../lib/api-context';
@@ -143,6 +144,7 @@ function Counter() {
           <strong>{queued.length}</strong> {countLabel(queued.length, 'drink').replace(/^\d+ /, '')}
           <span className="lg:hidden"> queued</span>
         </span>
+        <WaitNow items={items} />
         <Button tone="quiet" className="max-md:order-last" onClick={() => setOrdersOpen(true)}>
           Today’s orders
         </Button>

@@ -5,7 +5,6 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { PulseView } from '../../src/domain/pulse';
 import type { ReportView } from '../../src/domain/reports';
 import type { OrderView, ShiftView } from '../../src/domain/types';
-import { recentlyMade } from '../../server/services/quotes';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
 
@@ -67,14 +66,12 @@ describe('staffing at the edges', () => {
     h.setMinute(10);
     const orders: OrderView[] = [];
     for (let i = 0; i < 12; i++) orders.push(await h.place(`Rush ${i}`, 6));
-    // two drinks made alone: 60 s and 90 s → mean 75 s
+    // two drinks bumped, at 10:30 and 11:15: 3 baristas busy 75 s = 225 barista-s over 2 drinks,
+    // steadied by 5 × 60 s → (225 + 300) ÷ 7 = 75 s a drink
     const [a, b] = h.drinkIds(orders[0]);
-    h.setMinute(11);
-    await h.start([a]);
-    h.setMinute(12);
+    h.setMinute(10.5);
     await h.bump([a]);
-    await h.start([b]);
-    h.setMinute(13.5);
+    h.setMinute(11.25);
     await h.bump([b]);
 
     h.setMinute(20);
@@ -86,35 +83,36 @@ describe('staffing at the edges', () => {
     expect(p.staffing.inputs).toMatchObject({ arrivals: 72, windowMinutes: 30, drinksTimed: 2, meanMakeSeconds: 75, baristas: 3 });
   });
 
-  it('make times 30, 40, 50, 60 and 300 s: the mean (96 s) says 1 barista can’t keep up; the median (50 s) would not', async () => {
-    // three hours on: the rush is out of every window
+  it('bumps 30, 40, 50, 60 and 300 s apart: the mean says 1 barista can’t keep up; the median would not', async () => {
+    // the rush made at 1:40, then three hours on: it is out of every window
+    h.setMinute(100);
+    for (const id of (await h.ctx.server.db('orders').where('customer_name', 'like', 'Rush %').pluck('id')) as number[]) await h.ctx.lead.post(`/api/tickets/${id}/bump`);
     h.setMinute(200);
     const set = await h.ctx.lead.post('/api/shifts/current/baristas').send({ baristasOnBar: 1 });
     expect(set.status).toBe(200);
     const orders: OrderView[] = [];
     for (let i = 0; i < 5; i++) orders.push(await h.place(`Steady ${i}`, 6));
     const ids = orders.flatMap(h.drinkIds);
-    let minute = 201;
+    let minute = 200;
     for (const [i, seconds] of [30, 40, 50, 60, 300].entries()) {
-      h.setMinute(minute);
-      await h.start([ids[i]]);
       minute += seconds / 60;
       h.setMinute(minute);
       await h.bump([ids[i]]);
     }
     const p = await h.pulse();
-    // hand-worked: 30 drinks fired in the last 30 min; mean (30+40+50+60+300)/5 = 96 s →
-    // A = 30/1800 × 96 = 1.6 ≥ 1 barista. With the median 50 s, A would be 0.83 and "stable".
+    // hand-worked: 30 drinks fired in the last 30 min; the barista busy 480 s over 5 drinks (mean
+    // 96 s), steadied by 5 × 60 s → (480 + 300) ÷ 10 = 78 s → A = 30/1800 × 78 = 1.3 ≥ 1 barista.
+    // With the median gap, 50 s: (250 + 300) ÷ 10 = 55 s, A = 0.92 and "stable".
     expect(p.staffing.now.stable).toBe(false);
     expect(p.staffing.sentence).toMatch(/^The bar can't keep up/);
-    expect(p.staffing.inputs).toMatchObject({ arrivals: 30, drinksTimed: 5, meanMakeSeconds: 96, baristas: 1 });
+    expect(p.staffing.inputs).toMatchObject({ arrivals: 30, drinksTimed: 5, meanMakeSeconds: 78, baristas: 1 });
   });
 });
 
 describe('a jug bumped as one batch', () => {
   const h = bar('2026-03-02T14:00:00.000Z');
 
-  it('3 lattes made in 90 s are 30 s a drink: the next quote is 210 s, not 630 s', async () => {
+  it('3 lattes fired at 0:00 and bumped as one jug at 2:30 are 50 s a drink each, not 150 s', async () => {
     await h.openShift(1);
     const jug = await h.place('Jug', 3, 'Latte');
     h.setMinute(1);
@@ -124,16 +122,15 @@ describe('a jug bumped as one batch', () => {
 
     await h.place('Ahead', 6);
     const next = await h.place('Next', 1);
-    // hand-worked: 6 ahead + 1 = 7 drinks × (90 s ÷ 3) ÷ 1 barista = 210 s
-    expect(next.quotedWaitSeconds).toBe(210);
+    // hand-worked: the barista busy 150 s over 3 drinks, steadied by 5 × 60 s: (150 + 300) ÷ 8 =
+    // 56.25 s; 6 ahead + 1 = 7 drinks × 56.25 s ÷ 1 barista = 394 s (each latte charged the whole
+    // 150 s would be (450 + 300) ÷ 8 × 7 = 656 s)
+    expect(next.quotedWaitSeconds).toBe(394);
 
     const p = await h.pulse();
-    // the batch's time shared: each latte took the bar 30 s
-    expect(p.perBarista).toEqual([{ name: 'Jonah Reyes', drinks: 3, medianMakeSeconds: 30 }]);
-    expect(p.staffing.inputs).toMatchObject({ drinksTimed: 3, meanMakeSeconds: 30 });
-    // the pace never cuts a batch: asked for the last drink, it gets the whole jug (hand-worked)
-    const locationId = (await h.ctx.server.db('locations').first('id')).id;
-    expect(await recentlyMade(h.ctx.server.db, locationId, 1)).toHaveLength(3);
+    // the batch's time shared: each latte took the bar 50 s
+    expect(p.perBarista).toEqual([{ name: 'Jonah Reyes', drinks: 3, medianMakeSeconds: 50 }]);
+    expect(p.staffing.inputs).toMatchObject({ drinksTimed: 3, meanMakeSeconds: 56.25 });
   });
 });
 

@@ -501,9 +501,9 @@ describe('the Pulse numbers', () => {
     // The last 30 min (ready since 0:01:15) hold all five: p90 480 is over the target
     expect(pulse.windows[1].waits.count).toBe(5);
     expect(pulse.alert).toEqual(expect.any(String));
-    // durations as they are: p90 480 s is 8:00; the 240 s target is 4:00
-    expect(pulse.alert).toContain('took up to 8:00');
-    expect(pulse.alert).toContain('over the 4:00 target');
+    // durations as they are, in café words: p90 480 s is 8:00; the 240 s target is 4:00
+    expect(pulse.alert).toContain('1 ticket in 10 over the last 30 min waited longer than 8:00');
+    expect(pulse.alert).toContain('the target is 4:00');
 
     // Only Philippa's ticket is still open, 75 s old by the clock
     expect(pulse.open).toEqual([
@@ -544,24 +544,31 @@ describe('the Pulse numbers', () => {
     expect(pulse.quoteVsActual.meanActualSeconds).toBeCloseTo(252, 9);
     expect(pulse.quoteVsActual.shareLongerThanQuoted).toBeCloseTo(actual.filter((a, i) => a > quoted[i]).length / 5, 9);
 
-    // Who made what: the starter if there was one, else the bumper. Make times (done − started)
-    // over 0 s: Jonah's cappuccino 60 s; Ines's flat white 60 s and mocha 180 s.
+    // Who made what: whoever bumped it, with each batch's time from that barista's previous bump (or
+    // its firing, if later) to its bump. Jonah: A 1 → 2 = 60 s; the flat white 3 → 5 = 120 s; the
+    // espresso, bumped at the same moment, gets no time of its own (null); C 6 → 9 = 180 s; E 21 → 31
+    // = 600 s → [60, 120, 180, 600], type 7 median 120 + 0.5 · 60 = 150. Ines: D 20 → 25 = 300 s.
     const byName = [...pulse.perBarista].sort((x, y) => x.name.localeCompare(y.name));
     expect(byName).toEqual([
-      { name: 'Ines Calder', drinks: 2, medianMakeSeconds: 120 },
-      { name: 'Jonah Reyes', drinks: 4, medianMakeSeconds: 60 },
+      { name: 'Ines Calder', drinks: 1, medianMakeSeconds: 300 },
+      { name: 'Jonah Reyes', drinks: 5, medianMakeSeconds: 150 },
     ]);
 
-    // Staffing: 6 bar drinks fired since 0:01:15 (not Ysolde's latte at 0:01); make times in the
-    // last hour [60, 60, 180] → the MEAN, 100 s (Erlang C takes the mean, docs/check-values.md).
-    expect(pulse.staffing.inputs).toEqual({ arrivals: 6, windowMinutes: 30, drinksTimed: 3, meanMakeSeconds: 100, baristas: 1 });
-    // M/M/1 by hand (docs/check-values.md formulas, c = 1): A = ρ = 6/1800 s × 100 s = 1/3;
-    // P(wait) = ρ; Wq = ρ·h/(1 − ρ) = (1/3)·100/(2/3) = 50 s
+    // Staffing: 6 bar drinks fired since 0:01:15 (not Ysolde's latte at 0:01). The pace (Little's
+    // law on the barista, docs/check-values.md): busy 0:01:15 → 0:02, 0:03 → 0:05, 0:06 → 0:09 and
+    // 0:20 → 0:31 = 45 + 120 + 180 + 660 = 1005 s over the 6 drinks bumped, steadied by 5 × 60 s:
+    // 1305/11 = 118.64 s a drink.
+    expect(pulse.staffing.inputs).toMatchObject({ arrivals: 6, windowMinutes: 30, paceMinutes: 30, drinksTimed: 6, baristas: 1 });
+    expect(pulse.staffing.inputs.meanMakeSeconds).toBeCloseTo(1305 / 11, 9);
+    // M/M/1 by hand (docs/check-values.md formulas, c = 1): A = ρ = 6/1800 × 1305/11 = 87/220;
+    // P(wait) = ρ; Wq = ρ·h/(1 − ρ) = 87 · 1305 / (11 · 133) = 77.61 s
     expect(pulse.staffing.now.stable).toBe(true);
-    expect(pulse.staffing.now.probabilityOfWaiting).toBeCloseTo(1 / 3, 9);
-    expect(pulse.staffing.now.meanWaitSeconds).toBeCloseTo(50, 9);
-    // M/M/2, ρ = 1/6 per barista: P(wait) = 2ρ² / (1 + ρ) = (1/18) / (7/6) = 1/21
-    expect(pulse.staffing.withOneMore.probabilityOfWaiting).toBeCloseTo(1 / 21, 9);
+    expect(pulse.staffing.now.probabilityOfWaiting).toBeCloseTo(87 / 220, 9);
+    expect(pulse.staffing.now.meanWaitSeconds).toBeCloseTo((87 * 1305) / (11 * 133), 9);
+    // M/M/2: P(wait) = A² / (2 + A) = (87/220)² / (527/220) = 7569/115940
+    expect(pulse.staffing.withOneMore.probabilityOfWaiting).toBeCloseTo(7569 / 115940, 9);
+    // a drink now: Philippa's chai ahead, 2 drinks × 118.64 s = 237 s; with 2 on bar 1 drink's time, 119 s
+    expect(pulse.staffing.waitNow).toEqual({ drinksOnBar: 1, baristas: 1, seconds: 237, withOneMoreSeconds: 119 });
     expect(pulse.staffing.sentence).toMatch(/^With 1 on bar a drink waits/);
   });
 
@@ -591,18 +598,19 @@ describe('the Pulse numbers', () => {
     expect(refund.status, JSON.stringify(refund.body)).toBe(200);
     expect(refund.body.order).toMatchObject({ status: 'void', paymentStatus: 'refunded' });
 
-    // one drink made in 60 s sets the pace
-    const first = drinkIds(rush[0])[0];
-    setMinute(189);
-    await command(ctx.agents.barista, `/api/drinks/${first}/start`);
-    setMinute(190);
-    await command(ctx.agents.barista, `/api/drinks/${first}/bump`);
+    // one drink bumped a minute from 3:01 to 3:10 sets the pace: the barista busy all along
+    const first = rush.flatMap(drinkIds).slice(0, 10);
+    for (const [k, id] of first.entries()) {
+      setMinute(181 + k);
+      await command(ctx.agents.barista, `/api/drinks/${id}/bump`);
+    }
 
     const pulse = await h.pulse();
     expect(pulse.open.map((o) => o.id)).not.toContain(mistaken.id);
     // 0:00, 0:15, … 3:00: the 3:00 slot holds the ten rush tickets and their 40 drinks, not the refunded two
     expect(pulse.buckets.at(-1)).toMatchObject({ start: at(180), arrivals: 10, drinks: 40 });
-    expect(pulse.staffing.inputs).toEqual({ arrivals: 40, windowMinutes: 30, drinksTimed: 1, meanMakeSeconds: 60, baristas: 1 });
+    // hand-worked: busy 3:00 → 3:10 = 600 s over 10 drinks, steadied by 5 × 60 s → 900/15 = 60 s
+    expect(pulse.staffing.inputs).toEqual({ arrivals: 40, windowMinutes: 30, paceMinutes: 30, drinksTimed: 10, meanMakeSeconds: 60, baristas: 1 });
     // offered load 4/3 ≥ 1 barista: the queue grows
     expect(pulse.staffing.now).toEqual({ stable: false, probabilityOfWaiting: 1, meanWaitSeconds: null });
     // with two it keeps up, and the wait is a real number

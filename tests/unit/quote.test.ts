@@ -1,8 +1,8 @@
 // The Counter's quoted wait: the drinks ahead plus this order's, at the bar's recent pace (the mean
 // make time per drink, a batch's time shared among its drinks), shared among the baristas on bar.
 import { describe, expect, it } from 'vitest';
-import { barPace, type TimedDrink } from '../../src/domain/make-times';
-import { DEFAULT_MAKE_SECONDS, quoteLabel, quoteWaitSeconds } from '../../src/domain/quote';
+import { barPace, busyPace, type TimedDrink } from '../../src/domain/make-times';
+import { DEFAULT_MAKE_SECONDS, DEFAULT_WEIGHT_DRINKS, quoteLabel, quoteWaitSeconds } from '../../src/domain/quote';
 
 /** A pace of `drinks` drinks in `seconds` of bar time in all. */
 const pace = (drinks: number, seconds: number) => ({ drinks, totalMs: seconds * 1000 });
@@ -16,8 +16,10 @@ describe('quoteWaitSeconds', () => {
   it('takes the mean make time, not the median', () => {
     // docs/check-values.md, "Queueing": the time to clear N drinks is N times the *mean* service
     // time (Little's law, L = λW). Hand-worked: times 30, 40, 50, 60, 300 s → mean 96 s (median 50 s);
-    // 1 ahead + 1 new at 96 s with 1 barista = 192 s.
-    expect(quoteWaitSeconds({ drinksAhead: 1, drinksInOrder: 1, baristas: 1, pace: pace(5, 480) })).toBe(192);
+    // steadied by 5 drinks of the 60 s default: (480 + 300) ÷ 10 = 78 s; 1 ahead + 1 new with 1 barista = 156 s
+    // (the median, 50 s, would give (250 + 300) ÷ 10 × 2 = 110 s)
+    expect(DEFAULT_WEIGHT_DRINKS).toBe(5);
+    expect(quoteWaitSeconds({ drinksAhead: 1, drinksInOrder: 1, baristas: 1, pace: pace(5, 480) })).toBe(156);
   });
 
   it('falls back to a drink a minute with no history', () => {
@@ -39,11 +41,13 @@ describe('quoteWaitSeconds', () => {
     expect(quoteWaitSeconds({ drinksAhead: 0, drinksInOrder: 1, baristas: 0, pace: pace(1, 60) })).toBe(60);
   });
 
-  it('a jug of three lattes made in 90 s is 30 s a drink (the quote was 630 s, the bar’s pace gives 210 s)', () => {
-    // hand-worked: 6 ahead + 1 new = 7 drinks; the batch's 90 s shared by 3 → 30 s a drink → 210 s
-    // with 1 barista (charging each drink the whole 90 s gave 7 × 90 = 630 s)
+  it('a jug of three lattes made in 90 s is 30 s a drink (charging each the whole 90 s read 3 times slower)', () => {
+    // hand-worked: the batch's 90 s shared by 3 → 90 s over 3 drinks; steadied by the default:
+    // (90 + 5 × 60) ÷ (3 + 5) = 48.75 s; 6 ahead + 1 new = 7 drinks → 341 s with 1 barista
+    // (charging each drink the whole 90 s: (270 + 300) ÷ 8 × 7 = 499 s)
     const batch: TimedDrink[] = [0, 1, 2].map(() => ({ startedMs: 0, doneMs: 90_000, bumpSeq: 1 }));
-    expect(quoteWaitSeconds({ drinksAhead: 6, drinksInOrder: 1, baristas: 1, pace: barPace(batch) })).toBe(210);
+    expect(barPace(batch)).toEqual({ drinks: 3, totalMs: 90_000 });
+    expect(quoteWaitSeconds({ drinksAhead: 6, drinksInOrder: 1, baristas: 1, pace: barPace(batch) })).toBe(341);
   });
 });
 
@@ -56,6 +60,7 @@ describe('quoteWaitSeconds', () => {
  */
 function simulateRush(o: { baristas: number; everyS: number; forS: number; jug: number; batchS: (n: number) => number }) {
   interface Drink extends TimedDrink {
+    firedMs: number;
     arrivedS: number;
     ahead: number;
     quoteS: number;
@@ -76,8 +81,9 @@ function simulateRush(o: { baristas: number; everyS: number; forS: number; jug: 
     making.splice(0, making.length, ...making.filter((m) => m.doneS > t));
     if (t < o.forS && t % o.everyS === 0) {
       const ahead = waiting.length + making.reduce((s, m) => s + m.drinks.length, 0);
-      const quoteS = quoteWaitSeconds({ drinksAhead: ahead, drinksInOrder: 1, baristas: o.baristas, pace: barPace(bumped) });
-      const d: Drink = { arrivedS: t, ahead, quoteS, startedMs: NaN, doneMs: NaN, bumpSeq: null };
+      const known = drinks.map((x) => ({ firedMs: x.firedMs, doneMs: Number.isNaN(x.doneMs) ? null : x.doneMs }));
+      const quoteS = quoteWaitSeconds({ drinksAhead: ahead, drinksInOrder: 1, baristas: o.baristas, pace: busyPace(known, o.baristas, t * 1000 - 1_800_000) });
+      const d: Drink = { firedMs: t * 1000, arrivedS: t, ahead, quoteS, startedMs: NaN, doneMs: NaN, bumpSeq: null };
       drinks.push(d);
       waiting.push(d);
     }
@@ -125,15 +131,16 @@ describe('the quote on a simulated rush with jugs (Little’s law)', () => {
     expect(wholeJug * throughput).toBeGreaterThan(2.5);
   });
 
-  it('quotes the waits the rush really had, on average (within 10 %)', () => {
+  it('quotes the waits the rush really had, on average: leaning long by at most a quarter', () => {
     // docs/check-values.md, "Queueing": by Little's law the mean wait is L/λ, and the quote is the
-    // drinks in the system ahead of and including this one over the bar's throughput. Quotes taken
-    // after the first 5 minutes, once the Counter has a pace to go on (before that it assumes a drink
-    // a minute, common practice).
+    // drinks in the system ahead of and including this one over the bar's throughput (busyPace).
+    // Quotes taken after the first 5 minutes, once the Counter has a pace to go on (before that it
+    // leans on a drink a minute, common practice). A drink being made counts whole: the quote leans long.
     const settled = run.drinks.filter((d) => d.arrivedS >= 300);
     const quoted = mean(settled.map((d) => d.quoteS));
     const actual = mean(settled.map(waitS));
-    expect(Math.abs(quoted / actual - 1)).toBeLessThan(0.1);
+    expect(quoted / actual - 1).toBeGreaterThanOrEqual(0);
+    expect(quoted / actual - 1).toBeLessThan(0.25);
   });
 });
 
