@@ -42,6 +42,18 @@ export function reportCsv(report: ReportView): string {
     add('Period', undefined, 'shift', p.shift.id);
     add('Period', undefined, 'opened at (UTC)', p.shift.openedAt);
     add('Period', undefined, 'closed at (UTC)', p.shift.closedAt);
+    const c = p.shift.cash;
+    const cents = (x: number | null) => (x === null ? null : amount(x));
+    add('Cash drawer', undefined, `float (${cur})`, amount(c.openingFloatCents));
+    add('Cash drawer', undefined, `expected (${cur})`, amount(c.expectedCashCents));
+    add('Cash drawer', undefined, `counted (${cur})`, cents(c.countedCashCents));
+    // a number, not text: a short drawer's "-1.25" must stay a sum a spreadsheet can add
+    add('Cash drawer', undefined, `difference (${cur})`, c.differenceCents === null ? null : c.differenceCents / 100);
+    add('Cash drawer', undefined, 'note', c.closeNote);
+    add('Cash drawer', undefined, 'opened by', c.openedBy);
+    add('Cash drawer', undefined, 'closed by', c.closedBy);
+    add('Cash drawer', undefined, 'tickets still open at close', c.openTicketsAtClose);
+    add('Cash drawer', undefined, 'oldest open ticket wait (s)', c.oldestOpenWaitSecondsAtClose);
   }
   add('Totals', undefined, 'orders', report.orders);
   add('Totals', undefined, 'drinks', report.drinks);
