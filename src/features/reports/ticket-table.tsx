@@ -11,6 +11,10 @@ import { queryString, type TicketHistoryParams } from '../../lib/reports-api';
 import { tdClass, thClass } from './report-breakdowns';
 import { ticketColumns, type ColumnContext } from './ticket-columns';
 import { withParams } from './params';
+import { TICKET_STATUS_WORDS } from '../../domain/ticket-words';
+
+/** the status filter's order: where a ticket is in the rush, then the ones set aside */
+const STATUS_ORDER = ['open', 'ready', 'collected', 'pending', 'void'] as const;
 
 const field = 'min-h-11 rounded-lg border border-steam-200 bg-white px-3 text-base text-ink-900';
 
@@ -83,11 +87,11 @@ export function TicketTable({ page, params, context }: { page: TicketHistoryPage
             <span className="block text-sm font-semibold tracking-widest text-ink-600 uppercase">Status</span>
             <select name="status" value={params.status ?? ''} onChange={(e) => go({ status: e.target.value || undefined })} className={field}>
               <option value="">Any status</option>
-              <option value="open">At the bar</option>
-              <option value="ready">Ready</option>
-              <option value="collected">Collected</option>
-              <option value="pending">Waiting for payment</option>
-              <option value="void">Void</option>
+              {STATUS_ORDER.map((status) => (
+                <option key={status} value={status}>
+                  {TICKET_STATUS_WORDS[status]}
+                </option>
+              ))}
             </select>
           </label>
           <noscript>
