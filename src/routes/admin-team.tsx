@@ -42,8 +42,8 @@ function AdminTeam() {
       >
         {notice && (notice.tone === 'problem' ? `⚠ ${notice.message}` : `✓ ${notice.message}`)}
       </p>
-      <div className="mt-4 grid grid-cols-[minmax(0,1fr)_24rem] items-start gap-5">
-        <section aria-label="Staff" className="overflow-x-auto rounded-xl border border-steam-200 bg-white p-4">
+      <div className="mt-4 grid grid-cols-1 items-start gap-5 xl:grid-cols-[minmax(0,1fr)_24rem]">
+        <section aria-label="Staff" tabIndex={0} className="relative overflow-x-auto rounded-xl border border-steam-200 bg-white p-4">
           <TeamTable view={view} busy={command.isPending} run={command.mutateAsync} notify={notify} />
         </section>
         <aside className="flex flex-col gap-4">

@@ -40,7 +40,7 @@ export function StaffMenu({ dark = false }: { dark?: boolean }) {
     navigate('/signin', { replace: true });
   };
   return (
-    <nav aria-label="Screens" className={cn('flex items-center gap-3 text-base', dark ? 'text-crema-300' : 'text-ink-600')}>
+    <nav aria-label="Screens" className={cn('flex flex-wrap items-center gap-x-3 gap-y-2 text-base', dark ? 'text-crema-300' : 'text-ink-600')}>
       {MENU.filter((s) => s.path !== here && can(user.role, s.need)).map((s) => (
         <Link key={s.path} to={s.path} reloadDocument onClick={(e) => confirmLeave() || e.preventDefault()} className="underline underline-offset-4">
           {s.label}

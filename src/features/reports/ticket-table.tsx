@@ -1,6 +1,7 @@
 // The ticket history: TanStack Table in manual mode, so the server sorts, filters and pages and
 // the table only draws. Its state lives in the URL (sort, dir, page, q, status); every change is a
 // navigation, and the route's loader fetches the page asked for.
+import { ScrollBox } from '../../components/ui/scroll-box';
 import { flexRender, getCoreRowModel, useReactTable, type SortingState, type Updater } from '@tanstack/react-table';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { Form, Link, useNavigate, useSearchParams } from 'react-router';
@@ -66,7 +67,7 @@ export function TicketTable({ page, params, context }: { page: TicketHistoryPage
           Tickets
         </h2>
         {/* A GET form, so searching works before the script has loaded; with it, typing is enough. */}
-        <Form method="get" className="flex items-end gap-2" preventScrollReset onSubmit={() => (typed.current = false)}>
+        <Form method="get" className="flex max-w-full flex-wrap items-end gap-2" preventScrollReset onSubmit={() => (typed.current = false)}>
           {['shift', 'from', 'to', 'sort', 'dir'].map((k) => search.get(k) !== null && <input key={k} type="hidden" name={k} value={search.get(k)!} />)}
           <label>
             <span className="block text-sm font-semibold tracking-widest text-ink-600 uppercase">Search</span>
@@ -80,7 +81,7 @@ export function TicketTable({ page, params, context }: { page: TicketHistoryPage
               }}
               placeholder="Name or #number"
               maxLength={40}
-              className={cn(field, 'w-56')}
+              className={cn(field, 'w-56 max-w-full')}
             />
           </label>
           <label>
@@ -105,56 +106,58 @@ export function TicketTable({ page, params, context }: { page: TicketHistoryPage
         </a>
       </div>
 
-      <table className="w-full text-base" data-testid="ticket-table">
-        <thead>
-          {table.getHeaderGroups().map((group) => (
-            <tr key={group.id}>
-              {group.headers.map((header) => {
-                const numeric = header.column.columnDef.meta?.numeric;
-                const sorted = header.column.getIsSorted();
-                return (
-                  <th
-                    key={header.id}
-                    scope="col"
-                    aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
-                    className={cn(thClass, numeric && 'text-right')}
-                  >
-                    {header.column.getCanSort() ? (
-                      <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 uppercase underline-offset-4 hover:underline">
-                        {flexRender(header.column.columnDef.header, header.getContext())}
-                        <span aria-hidden className="w-3 text-ink-900">
-                          {sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}
-                        </span>
-                        {sorted && <span className="sr-only">{sorted === 'asc' ? ', sorted ascending' : ', sorted descending'}</span>}
-                      </button>
-                    ) : (
-                      flexRender(header.column.columnDef.header, header.getContext())
-                    )}
-                  </th>
-                );
-              })}
-            </tr>
-          ))}
-        </thead>
-        <tbody>
-          {table.getRowModel().rows.map((row) => (
-            <tr key={row.id} data-testid="ticket-row">
-              {row.getVisibleCells().map((cell) => (
-                <td key={cell.id} className={cn(tdClass, cell.column.columnDef.meta?.numeric && 'text-right tabular-nums')}>
-                  {flexRender(cell.column.columnDef.cell, cell.getContext())}
+      <ScrollBox label="Tickets table">
+        <table className="w-full text-base" data-testid="ticket-table">
+          <thead>
+            {table.getHeaderGroups().map((group) => (
+              <tr key={group.id}>
+                {group.headers.map((header) => {
+                  const numeric = header.column.columnDef.meta?.numeric;
+                  const sorted = header.column.getIsSorted();
+                  return (
+                    <th
+                      key={header.id}
+                      scope="col"
+                      aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
+                      className={cn(thClass, numeric && 'text-right')}
+                    >
+                      {header.column.getCanSort() ? (
+                        <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 uppercase underline-offset-4 hover:underline">
+                          {flexRender(header.column.columnDef.header, header.getContext())}
+                          <span aria-hidden className="w-3 text-ink-900">
+                            {sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}
+                          </span>
+                          {sorted && <span className="sr-only">{sorted === 'asc' ? ', sorted ascending' : ', sorted descending'}</span>}
+                        </button>
+                      ) : (
+                        flexRender(header.column.columnDef.header, header.getContext())
+                      )}
+                    </th>
+                  );
+                })}
+              </tr>
+            ))}
+          </thead>
+          <tbody>
+            {table.getRowModel().rows.map((row) => (
+              <tr key={row.id} data-testid="ticket-row">
+                {row.getVisibleCells().map((cell) => (
+                  <td key={cell.id} className={cn(tdClass, cell.column.columnDef.meta?.numeric && 'text-right tabular-nums')}>
+                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                  </td>
+                ))}
+              </tr>
+            ))}
+            {page.rows.length === 0 && (
+              <tr>
+                <td colSpan={columns.length} className="px-2 py-6 text-center text-lg text-ink-600">
+                  No tickets match.
                 </td>
-              ))}
-            </tr>
-          ))}
-          {page.rows.length === 0 && (
-            <tr>
-              <td colSpan={columns.length} className="px-2 py-6 text-center text-lg text-ink-600">
-                No tickets match.
-              </td>
-            </tr>
-          )}
-        </tbody>
-      </table>
+              </tr>
+            )}
+          </tbody>
+        </table>
+      </ScrollBox>
 
       <nav aria-label="Ticket pages" className="mt-3 flex items-center gap-3 text-base">
         <span className="mr-auto text-ink-600" data-testid="ticket-count">
