@@ -11,6 +11,7 @@ import { teamQuery } from '../features/team/queries';
 import { TeamTable } from '../features/team/team-table';
 import { useApi } from '../lib/api-context';
 import { cn } from '../lib/cn';
+import { plural } from '../lib/plural';
 import { requireScreen, type RouteDeps } from './deps';
 
 function AdminTeam() {
@@ -25,7 +26,7 @@ function AdminTeam() {
       <header className="flex items-center gap-5">
         <h1 className="text-3xl font-semibold">Team</h1>
         <span className="text-lg text-ink-600">
-          {view.members.length} people · {active} active
+          {plural(view.members.length, 'person', 'people')} · {active} active
         </span>
         <div className="ml-auto">
           <StaffMenu />

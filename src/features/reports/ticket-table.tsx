@@ -12,6 +12,7 @@ import { queryString, type TicketHistoryParams } from '../../lib/reports-api';
 import { tdClass, thClass } from './report-breakdowns';
 import { ticketColumns, type ColumnContext } from './ticket-columns';
 import { withParams } from './params';
+import { plural } from '../../lib/plural';
 import { TICKET_STATUS_WORDS } from '../../domain/ticket-words';
 
 /** the status filter's order: where a ticket is in the rush, then the ones set aside */
@@ -161,7 +162,7 @@ export function TicketTable({ page, params, context }: { page: TicketHistoryPage
 
       <nav aria-label="Ticket pages" className="mt-3 flex items-center gap-3 text-base">
         <span className="mr-auto text-ink-600" data-testid="ticket-count">
-          {formatCount(first, context.locale)}–{formatCount(last, context.locale)} of {formatCount(page.total, context.locale)} tickets · page {formatCount(page.page, context.locale)} of {formatCount(pageCount, context.locale)}
+          {formatCount(first, context.locale)}–{formatCount(last, context.locale)} of {plural(page.total, 'ticket', 'tickets', formatCount(page.total, context.locale))} · page {formatCount(page.page, context.locale)} of {formatCount(pageCount, context.locale)}
         </span>
         <PageLink to={pageLink(page.page - 1)} enabled={table.getCanPreviousPage()} label="Previous" />
         <PageLink to={pageLink(page.page + 1)} enabled={table.getCanNextPage()} label="Next" />
