@@ -38,6 +38,10 @@ test("a lead reads today's report, sorts the tickets and downloads them as CSV",
   await expect(page.getByTestId('period-title')).toContainText('Today');
   expect(Number((await page.getByTestId('tile-orders').locator('dd').first().textContent())!.replace(/,/g, ''))).toBeGreaterThanOrEqual(3);
   await expect(page.getByTestId('tile-net')).toContainText('$');
+  // the waits in café words; the statistics' method only in the help note
+  await expect(page.getByTestId('waits-words')).toContainText(/Half of the tickets waited under \d+:\d\d; 9 in 10 under \d+:\d\d\./);
+  await expect(page.getByTestId('percentile-method')).not.toBeVisible();
+  await page.getByText('How the waits are worked out').click();
   await expect(page.getByTestId('percentile-method')).toContainText('Hyndman & Fan type 7');
   await expect(page.getByTestId('milk-used')).toContainText('Oat');
   await expect(page.getByTestId('milk-used')).toContainText(' L');

@@ -9,6 +9,7 @@ export type ErrorCode =
   | 'forbidden'
   | 'not_found'
   | 'conflict'
+  | 'open_tickets'
   | 'unavailable'
   | 'payload_too_large'
   | 'payment_declined'

@@ -73,7 +73,7 @@ export function reportRoutes(deps: Deps): ApiRoute[] {
         const { locationId } = userOf(req);
         const location = await loadReportLocation(deps.db, locationId);
         const rows = await ticketRows(deps.db, locationId, query, null);
-        sendCsv(res, `jugline-tickets-${span(query.from, query.to)}.csv`, ticketsCsv(rows, location.currency));
+        sendCsv(res, `jugline-tickets-${span(query.from, query.to)}.csv`, ticketsCsv(rows, location.currency, location.timeZone));
       },
     },
     {

@@ -2,7 +2,8 @@
 // the bar count as people move, and closes it with a cash count against what the till expects.
 import type { Knex } from 'knex';
 import type { SessionUser, ShiftView } from '../../src/domain/types';
-import { conflict, notFound } from '../errors';
+import { openTicketsAt, openTicketsWarning, type OpenTicketsAtClose } from '../../src/domain/shift-close';
+import { conflict, HttpError, notFound } from '../errors';
 import type { Deps } from './deps';
 import { appendShiftEvent, runCommand } from './events';
 
@@ -91,11 +92,25 @@ export function setBaristas(deps: Deps, user: SessionUser, baristasOnBar: number
   });
 }
 
-export function closeShift(deps: Deps, user: SessionUser, input: { countedCashCents: number; note?: string }) {
+/** The café's tickets still at the bar (any shift's): how many, and how long the oldest has waited. */
+export async function openTicketsNow(db: Db, locationId: number, now: Date): Promise<OpenTicketsAtClose> {
+  const rows: { at: string }[] = await db('orders')
+    .where({ location_id: locationId, status: 'open' })
+    .select(db.raw('COALESCE(fired_at, created_at) AS at'));
+  return openTicketsAt(rows.map((r) => r.at), now);
+}
+
+export function closeShift(deps: Deps, user: SessionUser, input: { countedCashCents: number; note?: string; confirmOpenTickets?: boolean }) {
   return runCommand(deps, async (trx) => {
     const open = await openShiftOf(trx, user.locationId);
     if (!open) throw conflict('No shift is open');
-    const at = deps.clock().toISOString();
+    const now = deps.clock();
+    const at = now.toISOString();
+    // closing ends the shift for everyone: with tickets still at the bar the lead must say so
+    const left = await openTicketsNow(trx, user.locationId, now);
+    if (left.openTickets > 0 && !input.confirmOpenTickets) {
+      throw new HttpError(409, 'open_tickets', `${openTicketsWarning(left)} Close anyway?`, left);
+    }
     await trx('shifts')
       .where({ id: open.id })
       .update({
@@ -104,6 +119,8 @@ export function closeShift(deps: Deps, user: SessionUser, input: { countedCashCe
         expected_cash_cents: await expectedCash(trx, open.id),
         counted_cash_cents: input.countedCashCents,
         close_note: input.note ?? null,
+        open_tickets_at_close: left.openTickets,
+        oldest_open_wait_seconds_at_close: left.oldestWaitSeconds,
       });
     const shift = await loadShift(trx, open.id);
     return { result: shift, events: [await appendShiftEvent(trx, user.locationId, shift, at, user.id)] };

@@ -45,6 +45,12 @@ export function formatCents(cents: number, currency = 'USD', locale = 'en-US'): 
   return new Intl.NumberFormat(locale, { style: 'currency', currency }).format(cents / 100);
 }
 
+/** The currency's sign for a field label: "$" for USD, "€" for EUR, "CHF" where there is no sign. */
+export function currencySymbol(currency = 'USD', locale = 'en-US'): string {
+  const parts = new Intl.NumberFormat(locale, { style: 'currency', currency }).formatToParts(0);
+  return parts.find((p) => p.type === 'currency')?.value ?? currency;
+}
+
 /** "20", "20.5", "$20.50" → 2050 cents; null when it isn't an amount. */
 export function parseAmountToCents(text: string): number | null {
   const m = /^\s*\$?\s*(\d{1,6})(?:[.,](\d{1,2}))?\s*$/.exec(text);

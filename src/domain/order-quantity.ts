@@ -2,6 +2,7 @@
 // carries the quantity to the server, which expands it into one drink per cup (the Bar makes and
 // bumps cups, not lines); the receipt groups identical cups back into "3 × Long black".
 import { resolveLine } from './order-lines';
+import { plural } from './plural';
 import type { OrderLineInput } from './schemas';
 import type { MenuView, OrderLineView } from './types';
 
@@ -55,11 +56,6 @@ export function groupOrderLines(lines: readonly OrderLineView[]): LineGroup[] {
   return [...groups.values()];
 }
 
-const rules = new Intl.PluralRules('en-US');
-/** "1 drink", "2 drinks": English plural rules (the Counter's words are English). */
-export function countLabel(n: number, one: string, other = `${one}s`): string {
-  return `${n} ${rules.select(n) === 'one' ? one : other}`;
-}
 
 /** "3 drinks", "1 drink, 2 items": bar drinks and other items counted apart, by cup. */
 export function orderCountLabel(menu: MenuView, items: readonly OrderLineInput[]): string {
@@ -70,6 +66,6 @@ export function orderCountLabel(menu: MenuView, items: readonly OrderLineInput[]
     if (station === 'bar') drinks += quantityOf(l);
     else others += quantityOf(l);
   }
-  const parts = [drinks > 0 ? countLabel(drinks, 'drink') : null, others > 0 ? countLabel(others, 'item') : null].filter(Boolean);
+  const parts = [drinks > 0 ? plural(drinks, 'drink') : null, others > 0 ? plural(others, 'item') : null].filter(Boolean);
   return parts.length ? parts.join(', ') : 'empty';
 }

@@ -14,7 +14,22 @@ export interface ReportPeriod {
   /** Café-local dates; for a shift, the dates it opened and closed (or today, while open). */
   from: string;
   to: string;
-  shift?: ReportShift & { waitTargetSeconds: number };
+  shift?: ReportShift & { waitTargetSeconds: number; cash: ShiftCash };
+}
+
+/** A shift's drawer and what it left at the bar, as the lead closed it (nulls while it is open). */
+export interface ShiftCash {
+  openedBy: string | null;
+  closedBy: string | null;
+  openingFloatCents: number;
+  /** at close; while open, what the drawer should hold now */
+  expectedCashCents: number;
+  countedCashCents: number | null;
+  /** counted − expected: below zero the drawer is short */
+  differenceCents: number | null;
+  closeNote: string | null;
+  openTicketsAtClose: number | null;
+  oldestOpenWaitSecondsAtClose: number | null;
 }
 
 export interface MoneyByMethod {

@@ -137,6 +137,8 @@ export const baristasBody = z.object({ baristasOnBar: z.number().int().min(1).ma
 export const closeShiftBody = z.object({
   countedCashCents: z.number().int().min(0).max(10_000_000),
   note: plainText().max(200).optional(),
+  /** the lead saw how many tickets are still open at the bar and closes anyway */
+  confirmOpenTickets: z.boolean().optional(),
 });
 
 /** A café-local calendar date, YYYY-MM-DD, that exists on the calendar. */

@@ -49,6 +49,7 @@ function AdminBeans() {
   const [editing, setEditing] = useState<BeanLotView | 'new' | null>(null);
   const [retiring, setRetiring] = useState<BeanLotView | null>(null);
   const [showRetired, setShowRetired] = useState(false);
+  const [notice, setNotice] = useState<string | null>(null);
   const onEdit = useCallback((l: BeanLotView) => {
     setRetiring(null);
     setEditing(l);
@@ -92,6 +93,9 @@ function AdminBeans() {
           </div>
           <LotsTable lots={v.lots} showRetired={showRetired} timeZone={v.timeZone} locale={v.locale} onEdit={onEdit} onRetire={onRetire} />
         </section>
+        <p role="status" className={notice ? 'rounded-xl border-2 border-ink-900 bg-white px-4 py-3 text-lg' : 'sr-only'}>
+          {notice && `✓ ${notice}`}
+        </p>
         {retiring && <RetireConfirm key={retiring.id} lot={retiring} onDone={() => setRetiring(null)} />}
         {editing && (
           <LotForm
@@ -99,7 +103,10 @@ function AdminBeans() {
             lot={editing === 'new' ? null : editing}
             lots={v.lots}
             today={v.today}
-            onDone={() => setEditing(null)}
+            onDone={(said) => {
+              setEditing(null);
+              setNotice(said ?? null);
+            }}
           />
         )}
         <BeanSettingsForm settings={v.settings} />

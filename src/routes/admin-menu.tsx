@@ -6,6 +6,7 @@ import type { LoaderFunctionArgs } from 'react-router';
 import type { AdminItem } from '../domain/menu-admin-view';
 import { SCREENS } from '../domain/screens';
 import { Button } from '../components/ui/button';
+import { ScrollBox } from '../components/ui/scroll-box';
 import { StaffMenu } from '../components/ui/staff-menu';
 import { CategoryBar } from '../features/menu-admin/category-bar';
 import { useMenuCommand } from '../features/menu-admin/commands';
@@ -115,9 +116,9 @@ function AdminMenu() {
                 Show retired ({retiredCount})
               </label>
             </div>
-            <div className="overflow-x-auto">
+            <ScrollBox label="Items table">
               <ItemsTable menu={menu} items={items} actions={actions} />
-            </div>
+            </ScrollBox>
           </section>
         )}
         {part === 'milks' && <MilksPanel menu={menu} command={command} notify={notify} />}

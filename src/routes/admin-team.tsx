@@ -11,6 +11,7 @@ import { teamQuery } from '../features/team/queries';
 import { TeamTable } from '../features/team/team-table';
 import { useApi } from '../lib/api-context';
 import { cn } from '../lib/cn';
+import { plural } from '../domain/plural';
 import { requireScreen, type RouteDeps } from './deps';
 
 function AdminTeam() {
@@ -25,7 +26,7 @@ function AdminTeam() {
       <header className="flex items-center gap-5">
         <h1 className="text-3xl font-semibold">Team</h1>
         <span className="text-lg text-ink-600">
-          {view.members.length} people · {active} active
+          {plural(view.members.length, 'person', 'people')} · {active} active
         </span>
         <div className="ml-auto">
           <StaffMenu />
@@ -42,8 +43,8 @@ function AdminTeam() {
       >
         {notice && (notice.tone === 'problem' ? `⚠ ${notice.message}` : `✓ ${notice.message}`)}
       </p>
-      <div className="mt-4 grid grid-cols-[minmax(0,1fr)_24rem] items-start gap-5">
-        <section aria-label="Staff" className="overflow-x-auto rounded-xl border border-steam-200 bg-white p-4">
+      <div className="mt-4 grid grid-cols-1 items-start gap-5 xl:grid-cols-[minmax(0,1fr)_24rem]">
+        <section aria-label="Staff" tabIndex={0} className="relative overflow-x-auto rounded-xl border border-steam-200 bg-white p-4">
           <TeamTable view={view} busy={command.isPending} run={command.mutateAsync} notify={notify} />
         </section>
         <aside className="flex flex-col gap-4">

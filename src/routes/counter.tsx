@@ -5,7 +5,8 @@ import { useCallback, useRef, useState } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
 import type { LoaderFunctionArgs } from 'react-router';
 import { formatCents } from '../domain/money';
-import { addLine, countLabel, cupsOf, orderCountLabel } from '../domain/order-quantity';
+import { addLine, cupsOf, orderCountLabel } from '../domain/order-quantity';
+import { plural } from '../domain/plural';
 import { quoteLabel } from '../domain/quote';
 import { can } from '../domain/roles';
 import { orderDraft, type OrderDraft, type OrderDraftInput, type OrderLineInput } from '../domain/schemas';
@@ -61,7 +62,7 @@ function Counter() {
   const outbox = usePendingOrders(send.mutateAsync);
 
   const items = form.watch('items');
-  useLeaveGuard(items.length > 0 ? `The order being built (${countLabel(cupsOf(items), 'item')}) has not been sent and will be lost.` : null);
+  useLeaveGuard(items.length > 0 ? `The order being built (${plural(cupsOf(items), 'item')}) has not been sent and will be lost.` : null);
   const totals = previewTotals(menu, items, checkout.discount);
   const queued = board.tickets.filter((t) => t.status === 'open').flatMap((t) => t.drinks.filter((d) => d.status !== 'done'));
 
@@ -141,7 +142,7 @@ function Counter() {
         <span className="hidden text-lg text-ink-600 2xl:inline">{menu.location.name}</span>
         <span data-testid="queue-glance" className="text-lg">
           <span className="hidden lg:inline">In the queue: </span>
-          <strong>{queued.length}</strong> {countLabel(queued.length, 'drink').replace(/^\d+ /, '')}
+          <strong>{queued.length}</strong> {plural(queued.length, 'drink').replace(/^\d+ /, '')}
           <span className="lg:hidden"> queued</span>
         </span>
         <WaitNow items={items} />

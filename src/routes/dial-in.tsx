@@ -3,7 +3,8 @@
 import { useMutation, useQuery, useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useSearchParams, type LoaderFunctionArgs } from 'react-router';
-import { formatGrams, type ShotAdvice } from '../domain/dial-in';
+import { type ShotAdvice } from '../domain/dial-in';
+import { formatRatio } from '../domain/format';
 import { SCREENS } from '../domain/screens';
 import { StaffMenu } from '../components/ui/staff-menu';
 import { AdvicePanel } from '../features/dial-in/advice-panel';
@@ -11,7 +12,8 @@ import { LotPicker } from '../features/dial-in/lot-picker';
 import { dialInKeys, dialInQuery, lotShotsQuery } from '../features/dial-in/queries';
 import { ShotForm, type ShotFields } from '../features/dial-in/shot-form';
 import { ShotList } from '../features/dial-in/shot-list';
-import { shotNumbers, timeOfDay } from '../features/dial-in/shot-view';
+import { goodShotWords, shotNumbers, timeOfDay } from '../features/dial-in/shot-view';
+import { keepUnits } from '../lib/keep-units';
 import { useApi } from '../lib/api-context';
 import { beanCommands, type DialInView } from '../lib/beans-api';
 import { ApiError } from '../lib/http';
@@ -53,8 +55,7 @@ function DialIn() {
       <header className="flex flex-wrap items-center gap-x-6 gap-y-2 border-b border-steam-200 px-5 py-3">
         <h1 className="text-3xl font-semibold">Dial-in</h1>
         <p className="text-lg" data-testid="window">
-          Target: {(w.doseMinDg / 10).toFixed(1)}–{formatGrams(w.doseMaxDg)} in · 1:{(w.ratioMinX10 / 10).toFixed(1)}–{(w.ratioMaxX10 / 10).toFixed(1)} ·{' '}
-          {w.timeMinS}–{w.timeMaxS} s
+          {keepUnits(goodShotWords(w, v.recipeDoseDg))}
         </p>
         <div className="ml-auto">
           <StaffMenu />
@@ -74,7 +75,7 @@ function DialIn() {
                 {log.error instanceof ApiError ? log.error.message : 'That did not work'}
               </p>
             )}
-            <div className="grid grid-cols-2 gap-4">
+            <div className="grid grid-cols-1 gap-4 md:grid-cols-2">
               <AdvicePanel advice={advice?.lotId === lot.id ? advice.advice : null} />
               <section aria-label="Last good settings" className="rounded-2xl border border-steam-200 bg-white p-5">
                 <h2 className="text-sm font-semibold tracking-widest text-ink-600 uppercase">Last good settings · {lot.name}</h2>
@@ -92,15 +93,20 @@ function DialIn() {
                 )}
               </section>
             </div>
-            <section className="rounded-2xl border border-steam-200 bg-white p-4">
+            <section className="min-w-0 rounded-2xl border border-steam-200 bg-white p-4">
               <ShotList shots={shots?.shots ?? []} timeZone={v.timeZone} locale={v.locale} />
             </section>
           </>
         )}
-        <p className="text-sm text-ink-600">
-          Common practice: about 1:2 (yield ÷ dose) in about 25–30 s; fast shots are under-extracted (grind finer), slow ones over-extracted
-          (grind coarser). Change one thing at a time. Each test shot&rsquo;s dose is taken from the lot&rsquo;s stock.
-        </p>
+        <details className="text-base text-ink-600">
+          <summary className="cursor-pointer underline underline-offset-4">Where the target comes from</summary>
+          <p className="mt-1">
+            The café&rsquo;s own target, set by the owner on the Beans screen: the dose range from the house double recipe, the yield as a
+            ratio of the dose (yield ÷ dose, {formatRatio(w.ratioMinX10)}–{formatRatio(w.ratioMaxX10)}) and the shot time. Common practice is
+            about 1:2 in about 25–30 s; a fast shot is under-extracted (grind finer), a slow one over-extracted (grind coarser). Change one
+            thing at a time. Each test shot&rsquo;s dose is taken from the lot&rsquo;s stock.
+          </p>
+        </details>
       </main>
     </div>
   );

@@ -72,7 +72,7 @@ function Reports() {
       <main className="flex flex-col gap-4 p-5">
         <PeriodPicker choice={choice} shifts={shifts} dates={report.period} locale={report.locale} />
         <ReportTiles report={report} />
-        <div className="grid grid-cols-3 items-start gap-4">
+        <div className="grid grid-cols-1 items-start gap-4 md:grid-cols-2 xl:grid-cols-3">
           <PaymentMix report={report} />
           <BarUse report={report} />
           <TopItems report={report} />

@@ -259,7 +259,7 @@ describe('e-mail', () => {
   });
 
   it('the shift-report e-mail to the owner: menu and café names as text', async () => {
-    const close = await agents.lead.post('/api/shifts/current/close').send({ countedCashCents: 100_00, note: P.note });
+    const close = await agents.lead.post('/api/shifts/current/close').send({ countedCashCents: 100_00, note: P.note, confirmOpenTickets: true });
     expect(close.status).toBe(200);
     expect(close.body.mailed).toBe(true);
     const mail = await server.db('outbox').where('to_addresses', 'like', '%mara@harbour-hearth.example%').orderBy('id', 'desc').first();

@@ -104,8 +104,13 @@ describe('CSV downloads', () => {
     expect(res.headers['content-disposition']).toBe('attachment; filename="jugline-tickets-all.csv"');
     const rows = csvRows(res.text);
     expect(rows[0]).toEqual([
-      'Date', 'Ticket', 'Customer', 'Status', 'Payment', 'Method', 'Total (USD)', 'Refunded (USD)', 'Drinks', 'Taken at (UTC)', 'Ready at (UTC)', 'Wait (s)',
+      'Date', 'Ticket', 'Customer', 'Status', 'Payment', 'Method', 'Total (USD)', 'Refunded (USD)', 'Drinks', 'Taken at (America/New_York)', 'Ready at (America/New_York)', 'Wait (s)',
     ]);
+    // the café's own clock with its offset (EST is UTC−5 in March before the 8th: 14:00Z is 09:00),
+    // and the same status and payment words as the Reports screen
+    expect(rows[1].slice(3, 6)).toEqual(['Ready', 'Paid', 'Cash']);
+    expect(rows[1].slice(9, 11)).toEqual(['2026-03-02T09:00:00-05:00', '2026-03-02T09:02:00-05:00']);
+    expect(res.text).not.toMatch(/"(open|ready|collected|pending|paid|unpaid|cash|card)"/);
     expect(rows.slice(1).map((r) => r[1])).toEqual(['1', '2', '3', '4', '5', '6', '7']);
     const formula = rows.find((r) => r[1] === '5')!;
     expect(formula[2]).toBe("'=cmd");

@@ -305,9 +305,15 @@ describe('shifts', () => {
       const expected = expectedCash;
       const counted = expected - 125; // a dollar and a quarter short
 
+      // tickets are still at the bar: the first try is refused with their count, nothing written
+      const refused = await h.send(ctx.agents.lead, '/api/shifts/current/close', { countedCashCents: counted });
+      expect(refused.res.status).toBe(409);
+      expect(refused.res.body.error.code).toBe('open_tickets');
+      expect(refused.events).toEqual([]);
       const { res, events } = await h.send(ctx.agents.lead, '/api/shifts/current/close', {
         countedCashCents: counted,
         note: '  A dollar twenty-five short; checked twice  ',
+        confirmOpenTickets: true,
       });
       expect(res.status, JSON.stringify(res.body)).toBe(200);
       // a mail problem is logged as a warning and answered mailed: false
@@ -332,7 +338,7 @@ describe('shifts', () => {
         counted_cash_cents: counted,
       });
 
-      const again = await h.send(ctx.agents.lead, '/api/shifts/current/close', { countedCashCents: counted });
+      const again = await h.send(ctx.agents.lead, '/api/shifts/current/close', { countedCashCents: counted, confirmOpenTickets: true });
       expect(again.res.status).toBe(409);
       expect(again.res.body.error.code).toBe('conflict');
       expect(again.events).toEqual([]);

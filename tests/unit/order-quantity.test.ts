@@ -2,7 +2,8 @@
 // into one drink per cup, and the receipt groups them back ("3 × Long black"). Also the words
 // the Counter uses for counts and for a field that is too long.
 import { describe, expect, it } from 'vitest';
-import { addLine, countLabel, cupsOf, expandByQuantity, groupOrderLines, orderCountLabel, MAX_CUPS, MAX_QUANTITY } from '../../src/domain/order-quantity';
+import { addLine, cupsOf, expandByQuantity, groupOrderLines, orderCountLabel, MAX_CUPS, MAX_QUANTITY } from '../../src/domain/order-quantity';
+import { plural } from '../../src/domain/plural';
 import { createOrderBody } from '../../src/domain/schemas';
 import type { MenuItemView, MenuView, OrderLineView } from '../../src/domain/types';
 import { menuItem } from '../support/menu-items';
@@ -91,10 +92,10 @@ describe('groupOrderLines', () => {
 
 describe('counts in words', () => {
   it('says "1 drink" and "2 drinks" (English plural rules through Intl.PluralRules)', () => {
-    expect(countLabel(0, 'drink')).toBe('0 drinks');
-    expect(countLabel(1, 'drink')).toBe('1 drink');
-    expect(countLabel(2, 'drink')).toBe('2 drinks');
-    expect(countLabel(1, 'order')).toBe('1 order');
+    expect(plural(0, 'drink')).toBe('0 drinks');
+    expect(plural(1, 'drink')).toBe('1 drink');
+    expect(plural(2, 'drink')).toBe('2 drinks');
+    expect(plural(1, 'order')).toBe('1 order');
   });
   it('counts drinks and other items apart, by cup', () => {
     expect(orderCountLabel(menu, [{ menuItemId: 1, quantity: 3 }])).toBe('3 drinks');

@@ -1,14 +1,16 @@
 // CSV exports of the ticket history and of a report, through toCsv (every text cell neutralised
 // against formula injection, OWASP "CSV Injection"). Money as decimal amounts in the café's
-// currency (12.5 for $12.50) so a spreadsheet can add them up; times as ISO-8601 UTC.
+// currency (12.5 for $12.50) so a spreadsheet can add them up. The ticket list's times are the
+// café's wall clock with its offset and its words are the screen's; the report's stay ISO-8601 UTC.
 import { toCsv } from '../../../src/domain/csv';
 import { hourLabel, type ReportView, type TicketHistoryRow } from '../../../src/domain/reports';
 import { PERCENTILE_METHOD } from '../../../src/domain/stats';
+import { localIsoWithOffset, PAYMENT_METHOD_WORDS, PAYMENT_STATUS_WORDS, TICKET_STATUS_WORDS } from '../../../src/domain/ticket-words';
 
 /** 790 → "7.90": two decimals, as a spreadsheet reads an amount */
 const amount = (cents: number) => (cents / 100).toFixed(2);
 
-export function ticketsCsv(rows: TicketHistoryRow[], currency = 'USD'): string {
+export function ticketsCsv(rows: TicketHistoryRow[], currency: string, timeZone: string): string {
   const columns = [
     { key: 'businessDate', header: 'Date' },
     { key: 'number', header: 'Ticket' },
@@ -19,13 +21,22 @@ export function ticketsCsv(rows: TicketHistoryRow[], currency = 'USD'): string {
     { key: 'total', header: `Total (${currency})` },
     { key: 'refunded', header: `Refunded (${currency})` },
     { key: 'drinks', header: 'Drinks' },
-    { key: 'createdAt', header: 'Taken at (UTC)' },
-    { key: 'readyAt', header: 'Ready at (UTC)' },
+    { key: 'createdAt', header: `Taken at (${timeZone})` },
+    { key: 'readyAt', header: `Ready at (${timeZone})` },
     { key: 'waitSeconds', header: 'Wait (s)' },
   ];
   return toCsv(
     columns,
-    rows.map((r) => ({ ...r, total: amount(r.totalCents), refunded: amount(r.refundedCents) })),
+    rows.map((r) => ({
+      ...r,
+      status: TICKET_STATUS_WORDS[r.status],
+      paymentStatus: PAYMENT_STATUS_WORDS[r.paymentStatus],
+      paymentMethod: PAYMENT_METHOD_WORDS[r.paymentMethod],
+      total: amount(r.totalCents),
+      refunded: amount(r.refundedCents),
+      createdAt: localIsoWithOffset(r.createdAt, timeZone),
+      readyAt: r.readyAt && localIsoWithOffset(r.readyAt, timeZone),
+    })),
   );
 }
 
@@ -42,6 +53,18 @@ export function reportCsv(report: ReportView): string {
     add('Period', undefined, 'shift', p.shift.id);
     add('Period', undefined, 'opened at (UTC)', p.shift.openedAt);
     add('Period', undefined, 'closed at (UTC)', p.shift.closedAt);
+    const c = p.shift.cash;
+    const cents = (x: number | null) => (x === null ? null : amount(x));
+    add('Cash drawer', undefined, `float (${cur})`, amount(c.openingFloatCents));
+    add('Cash drawer', undefined, `expected (${cur})`, amount(c.expectedCashCents));
+    add('Cash drawer', undefined, `counted (${cur})`, cents(c.countedCashCents));
+    // a number, not text: a short drawer's "-1.25" must stay a sum a spreadsheet can add
+    add('Cash drawer', undefined, `difference (${cur})`, c.differenceCents === null ? null : c.differenceCents / 100);
+    add('Cash drawer', undefined, 'note', c.closeNote);
+    add('Cash drawer', undefined, 'opened by', c.openedBy);
+    add('Cash drawer', undefined, 'closed by', c.closedBy);
+    add('Cash drawer', undefined, 'tickets still open at close', c.openTicketsAtClose);
+    add('Cash drawer', undefined, 'oldest open ticket wait (s)', c.oldestOpenWaitSecondsAtClose);
   }
   add('Totals', undefined, 'orders', report.orders);
   add('Totals', undefined, 'drinks', report.drinks);

@@ -3,6 +3,7 @@
 import { formatCents } from '../../../src/domain/money';
 import { formatDuration } from '../../../src/domain/format';
 import { formatCoffee, formatLitres, formatShare, type ReportView } from '../../../src/domain/reports';
+import { cashDifferenceWords, openTicketsWords } from '../../../src/domain/shift-close';
 import { PERCENTILE_METHOD } from '../../../src/domain/stats';
 import { escapeHtml } from '../../../src/lib/html';
 
@@ -60,9 +61,27 @@ export function shiftReportEmail(report: ReportView, location: ReportMailLocatio
     ['Coffee used', formatCoffee(report.coffeeUsedDg, locale)],
     ...report.milkUsedMl.map((m): Row => [`Milk: ${m.milk}`, formatLitres(m.ml, locale)]),
   ];
+  const cash = shift?.cash;
+  const currency = location.currency ?? report.currency;
+  const drawer: Row[] = cash
+    ? [
+        ['Opened by', cash.openedBy ?? '—'],
+        ['Float', money(cash.openingFloatCents)],
+        ['Expected in the drawer', money(cash.expectedCashCents)],
+        ['Counted', cash.countedCashCents === null ? 'not counted yet' : money(cash.countedCashCents)],
+        ['Difference', cash.countedCashCents === null ? '—' : cashDifferenceWords(cash.expectedCashCents, cash.countedCashCents, currency, locale)],
+        ['Note', cash.closeNote ?? '—'],
+        ['Closed by', cash.closedBy ?? 'still open'],
+        [
+          'Tickets still open at close',
+          cash.openTicketsAtClose === null ? '—' : openTicketsWords({ openTickets: cash.openTicketsAtClose, oldestWaitSeconds: cash.oldestOpenWaitSecondsAtClose }),
+        ],
+      ]
+    : [];
   const items: Row[] = report.topItems.map((i) => [`${i.item} × ${i.count}`, money(i.cents)]);
   const note = `Percentiles: ${PERCENTILE_METHOD}. Wait = fired to ready.`;
   const sections: [string, Row[]][] = [
+    ...(drawer.length ? [['Cash drawer', drawer] as [string, Row[]]] : []),
     ['Sales', sales],
     ['Bar', bar],
     ...(items.length ? [['Top items', items] as [string, Row[]]] : []),

@@ -4,6 +4,7 @@ import type { Knex } from 'knex';
 import type { ReportPeriod } from '../../../src/domain/reports';
 import { notFound } from '../../errors';
 import { businessDate } from '../orders';
+import { expectedCash } from '../shifts';
 
 export interface ReportLocation {
   id: number;
@@ -44,8 +45,14 @@ export async function loadReportLocation(db: Knex, locationId: number): Promise<
 }
 
 export async function shiftScope(db: Knex, locationId: number, shiftId: number, now: Date): Promise<Scope> {
-  const s = await db('shifts').where({ id: shiftId, location_id: locationId }).first();
+  const s = await db('shifts')
+    .leftJoin('users as o', 'o.id', 'shifts.opened_by')
+    .leftJoin('users as c', 'c.id', 'shifts.closed_by')
+    .where({ 'shifts.id': shiftId, 'shifts.location_id': locationId })
+    .first('shifts.*', 'o.name as opened_by_name', 'c.name as closed_by_name');
   if (!s) throw notFound('Shift');
+  const expected = s.closed_at && s.expected_cash_cents !== null ? s.expected_cash_cents : await expectedCash(db, s.id);
+  const counted: number | null = s.closed_at ? s.counted_cash_cents : null;
   const location = await loadReportLocation(db, locationId);
   const day = (iso: string) => businessDate(new Date(iso), location.timeZone);
   return {
@@ -53,7 +60,23 @@ export async function shiftScope(db: Knex, locationId: number, shiftId: number, 
       kind: 'shift',
       from: day(s.opened_at),
       to: s.closed_at ? day(s.closed_at) : businessDate(now, location.timeZone),
-      shift: { id: s.id, openedAt: s.opened_at, closedAt: s.closed_at ?? null, waitTargetSeconds: s.wait_target_seconds },
+      shift: {
+        id: s.id,
+        openedAt: s.opened_at,
+        closedAt: s.closed_at ?? null,
+        waitTargetSeconds: s.wait_target_seconds,
+        cash: {
+          openedBy: s.opened_by_name ?? null,
+          closedBy: s.closed_by_name ?? null,
+          openingFloatCents: s.opening_float_cents,
+          expectedCashCents: expected,
+          countedCashCents: counted,
+          differenceCents: counted === null ? null : counted - expected,
+          closeNote: s.close_note ?? null,
+          openTicketsAtClose: s.open_tickets_at_close ?? null,
+          oldestOpenWaitSecondsAtClose: s.oldest_open_wait_seconds_at_close ?? null,
+        },
+      },
     },
     location,
     targetSeconds: s.wait_target_seconds,

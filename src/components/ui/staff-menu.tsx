@@ -35,7 +35,7 @@ export function StaffMenu({ dark = false }: { dark?: boolean }) {
     if (confirmLeave()) void signOut();
   };
   return (
-    <nav aria-label="Screens" className={cn('flex max-w-full flex-wrap items-center gap-x-3 gap-y-1 text-base whitespace-nowrap', dark ? 'text-crema-300' : 'text-ink-600')}>
+    <nav aria-label="Screens" className={cn('flex max-w-full flex-wrap items-center gap-x-3 gap-y-2 text-base whitespace-nowrap', dark ? 'text-crema-300' : 'text-ink-600')}>
       {MENU.filter((s) => s.path !== here && can(user.role, s.need)).map((s) => (
         <Link key={s.path} to={s.path} reloadDocument onClick={(e) => confirmLeave() || e.preventDefault()} className="underline underline-offset-4">
           {s.label}

@@ -1,7 +1,9 @@
 // How the Beans screen writes weights, dates and the run-out estimate.
 import { runsOutPhrase, type RunsOut } from '../../domain/bean-stock';
+import { keepUnits } from '../../lib/keep-units';
 
-export const gramsText = (dg: number, locale = 'en-US') => `${new Intl.NumberFormat(locale, { maximumFractionDigits: 0 }).format(Math.round(dg / 10))} g`;
+/** "1,000 g" with a no-break space: a weight never wraps between number and unit. */
+export const gramsText = (dg: number, locale = 'en-US') => `${new Intl.NumberFormat(locale, { maximumFractionDigits: 0 }).format(Math.round(dg / 10))}\u00a0g`;
 
 /** A café-local calendar date as "Thu 5 Mar". */
 export function dateText(date: string, locale = 'en-US') {
@@ -16,5 +18,5 @@ export function runsOutText(r: RunsOut, timeZone: string, locale = 'en-US'): { m
     const day = new Intl.DateTimeFormat(locale, { weekday: 'short', day: 'numeric', month: 'short', timeZone }).format(new Date(r.at));
     return { main: `around ${day}`, hint: `${runsOutPhrase(r)}, at ${gramsText(r.perDayDg, locale)} a day (last ${r.days} ${r.days === 1 ? 'day' : 'days'})` };
   }
-  return { main: runsOutPhrase(r), hint: `at this shift's pace, ${gramsText(r.perHourDg, locale)} an hour` };
+  return { main: keepUnits(runsOutPhrase(r)), hint: `at this shift's pace, ${gramsText(r.perHourDg, locale)} an hour` };
 }

@@ -2,6 +2,7 @@
 // after today) land on their fields too.
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
 import { useForm, type FieldPath } from 'react-hook-form';
 import { HOPPER_LABEL, HOPPERS, type BeanLotView, type Hopper } from '../../domain/bean-stock';
 import { beanLotBody, type BeanLotBody } from '../../domain/beans-schemas';
@@ -28,22 +29,29 @@ function defaults(lot: BeanLotView | null, today: string): BeanLotBody {
 
 const FIELDS = ['name', 'roaster', 'origin', 'notes', 'roastDate', 'receivedDate', 'receivedG', 'hopper', 'restDays', 'bestUntilDays'] as const;
 
-export function LotForm({ lot, lots, today, onDone }: { lot: BeanLotView | null; lots: BeanLotView[]; today: string; onDone(): void }) {
+/** `notice`: what happened, said after a save (which lot went where, which moved to the shelf). */
+export function LotForm({ lot, lots, today, onDone }: { lot: BeanLotView | null; lots: BeanLotView[]; today: string; onDone(notice?: string): void }) {
   const qc = useQueryClient();
   const hydrated = useHydrated();
   const form = useForm<BeanLotBody>({ resolver: zodResolver(beanLotBody), defaultValues: defaults(lot, today) });
   const { register, formState, setError, watch, setValue, handleSubmit } = form;
   const save = useMutation({
     mutationFn: (body: BeanLotBody) => (lot ? beanCommands.updateLot(lot.id, body) : beanCommands.createLot(body)),
-    onSuccess: async () => {
+    onSuccess: async (_, body) => {
+      // named before the refetch: afterwards the grinder holds the lot just saved
+      const moved = displaced?.name;
       await qc.invalidateQueries({ queryKey: beanKeys.all });
-      onDone();
+      setMoving(null);
+      const where = body.hopper === 'shelf' ? 'on the shelf' : `to the ${HOPPER_LABEL[body.hopper].toLowerCase()} grinder`;
+      onDone(`${lot ? 'Saved' : 'Added'} ${body.name} ${where}.${moved ? ` ${moved} moved to the shelf.` : ''}`);
     },
     onError: (err) => {
       if (!(err instanceof ApiError)) return;
       for (const d of err.details ?? []) if ((FIELDS as readonly string[]).includes(d.path)) setError(d.path as FieldPath<BeanLotBody>, { message: d.message });
     },
   });
+  // the body waiting for the owner to agree that the grinder's lot goes to the shelf
+  const [moving, setMoving] = useState<BeanLotBody | null>(null);
   const hopper = watch('hopper');
   const displaced = hopper !== 'shelf' ? lots.find((l) => l.hopper === hopper && !l.retiredAt && l.id !== lot?.id) : undefined;
   const [roastDate, restDays, bestUntilDays] = watch(['roastDate', 'restDays', 'bestUntilDays']);
@@ -54,7 +62,7 @@ export function LotForm({ lot, lots, today, onDone }: { lot: BeanLotView | null;
   const title = lot ? `Edit ${lot.name}` : 'Add a lot';
 
   return (
-    <form aria-label={title} onSubmit={handleSubmit((v) => save.mutate(v))} className="grid grid-cols-4 gap-4 rounded-2xl border border-steam-200 bg-white p-5" noValidate>
+    <form aria-label={title} onSubmit={handleSubmit((v) => (displaced ? setMoving(v) : save.mutate(v)))} className="grid grid-cols-4 gap-4 rounded-2xl border border-steam-200 bg-white p-5" noValidate>
       <h2 className="col-span-4 text-2xl font-semibold">{title}</h2>
       <label className="col-span-2">
         <span className={label}>Name</span>
@@ -130,11 +138,25 @@ export function LotForm({ lot, lots, today, onDone }: { lot: BeanLotView | null;
           Freshness is common practice: resting under {DEFAULT_FRESHNESS.restDays} days, best to day {DEFAULT_FRESHNESS.bestUntilDays}; set each lot's own.
         </p>
       </div>
-      <div className={cn('col-span-4 flex items-center gap-3')}>
+      {moving && displaced && (
+        <div role="group" aria-label="Move a lot to the shelf" className="col-span-4 flex flex-wrap items-center gap-3 rounded-xl border-2 border-ink-900 px-4 py-3">
+          <p className="text-lg">
+            <span aria-hidden>⇄ </span>
+            {displaced.name} is in the {HOPPER_LABEL[hopper].toLowerCase()} grinder. Put {moving.name} in and move {displaced.name} to the shelf?
+          </p>
+          <Button size="lg" disabled={save.isPending} onClick={() => save.mutate(moving)}>
+            Yes, move {displaced.name} to the shelf
+          </Button>
+          <Button tone="quiet" size="lg" onClick={() => setMoving(null)}>
+            Back
+          </Button>
+        </div>
+      )}
+      <div className={cn('col-span-4 flex flex-wrap items-center gap-3', moving && 'hidden')}>
         <Button type="submit" size="lg" disabled={save.isPending || !hydrated}>
           {lot ? 'Save lot' : 'Add lot'}
         </Button>
-        <Button tone="quiet" size="lg" onClick={onDone}>
+        <Button tone="quiet" size="lg" onClick={() => onDone()}>
           Cancel
         </Button>
         {save.error && (

@@ -1,5 +1,6 @@
 // The owner's lots: days since roast, freshness, what is left, when it runs out, which grinder.
 // TanStack Table sorting in the browser: a café has a handful of lots, all sent at once.
+import { ScrollBox } from '../../components/ui/scroll-box';
 import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
 import { useMemo, useState } from 'react';
 import { HOPPER_LABEL, type BeanLotView } from '../../domain/bean-stock';
@@ -118,46 +119,48 @@ export function LotsTable({ lots, showRetired, ...context }: Context & { lots: B
     getRowId: (l) => String(l.id),
   });
   return (
-    <table className="w-full text-base" data-testid="lots-table">
-      <thead>
-        {table.getHeaderGroups().map((g) => (
-          <tr key={g.id}>
-            {g.headers.map((h) => {
-              const sorted = h.column.getIsSorted();
-              return (
-                <th key={h.id} scope="col" className={th} aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}>
-                  {h.column.getCanSort() ? (
-                    <button type="button" onClick={h.column.getToggleSortingHandler()} className="inline-flex min-h-11 items-center gap-1 uppercase hover:underline">
-                      {flexRender(h.column.columnDef.header, h.getContext())}
-                      <span aria-hidden>{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
-                    </button>
-                  ) : (
-                    flexRender(h.column.columnDef.header, h.getContext())
-                  )}
-                </th>
-              );
-            })}
-          </tr>
-        ))}
-      </thead>
-      <tbody>
-        {table.getRowModel().rows.length === 0 && (
-          <tr>
-            <td colSpan={cols.length} className={cn(td, 'text-ink-600')}>
-              No lots yet — add the first bag below.
-            </td>
-          </tr>
-        )}
-        {table.getRowModel().rows.map((r) => (
-          <tr key={r.id} data-testid="lot-row" className={cn(r.original.retiredAt && 'text-ink-600')}>
-            {r.getVisibleCells().map((cell) => (
-              <td key={cell.id} className={td}>
-                {flexRender(cell.column.columnDef.cell, cell.getContext())}
+    <ScrollBox label="Bean lots table">
+      <table className="w-full text-base" data-testid="lots-table">
+        <thead>
+          {table.getHeaderGroups().map((g) => (
+            <tr key={g.id}>
+              {g.headers.map((h) => {
+                const sorted = h.column.getIsSorted();
+                return (
+                  <th key={h.id} scope="col" className={th} aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}>
+                    {h.column.getCanSort() ? (
+                      <button type="button" onClick={h.column.getToggleSortingHandler()} className="inline-flex min-h-11 items-center gap-1 uppercase hover:underline">
+                        {flexRender(h.column.columnDef.header, h.getContext())}
+                        <span aria-hidden>{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
+                      </button>
+                    ) : (
+                      flexRender(h.column.columnDef.header, h.getContext())
+                    )}
+                  </th>
+                );
+              })}
+            </tr>
+          ))}
+        </thead>
+        <tbody>
+          {table.getRowModel().rows.length === 0 && (
+            <tr>
+              <td colSpan={cols.length} className={cn(td, 'text-ink-600')}>
+                No lots yet — add the first bag below.
               </td>
-            ))}
-          </tr>
-        ))}
-      </tbody>
-    </table>
+            </tr>
+          )}
+          {table.getRowModel().rows.map((r) => (
+            <tr key={r.id} data-testid="lot-row" className={cn(r.original.retiredAt && 'text-ink-600')}>
+              {r.getVisibleCells().map((cell) => (
+                <td key={cell.id} className={td}>
+                  {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                </td>
+              ))}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </ScrollBox>
   );
 }

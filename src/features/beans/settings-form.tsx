@@ -92,10 +92,14 @@ export function BeanSettingsForm({ settings }: { settings: BeanSettingsView }) {
       </Button>
       {save.isSuccess && !formState.isDirty && <p role="status">Saved.</p>}
       {save.error && <p role="alert" className="font-semibold text-copper-700">{save.error instanceof ApiError ? save.error.message : 'That did not work'}</p>}
-      <p className="w-full text-sm text-ink-600">
-        Common practice: about 1:2 in 25–30 s (the INEI's certified espresso allows 25 ± 5 s). The dose range comes from the house double
-        recipe, its dose ± 1 g, or 18–22 g without one. A grinder's lot is also low when it has under a day of use left at the last week's pace.
+      <p className="w-full text-base text-ink-600">
+        This is the café&rsquo;s own target for a good shot. The dose range comes from the house double recipe (its dose ± 1 g, or 18–22 g
+        without one). A grinder&rsquo;s lot is also low when it has under a day of use left at the last week&rsquo;s pace.
       </p>
+      <details className="w-full text-sm text-ink-600">
+        <summary className="cursor-pointer underline underline-offset-4">Where the usual numbers come from</summary>
+        <p className="mt-1">Common practice is about 1:2 (yield ÷ dose) in 25–30 s; the Italian espresso institute&rsquo;s certified espresso allows 25 ± 5 s.</p>
+      </details>
     </form>
   );
 }

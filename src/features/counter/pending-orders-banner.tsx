@@ -4,7 +4,7 @@
 // colour alone.
 import { useState } from 'react';
 import { formatCents } from '../../domain/money';
-import { countLabel } from '../../domain/order-quantity';
+import { plural } from '../../domain/plural';
 import { Button } from '../../components/ui/button';
 import type { OrderView } from '../../domain/types';
 import type { PendingOrder } from './pending-orders';
@@ -20,9 +20,9 @@ export function PendingOrdersBanner({ queue, currency, onSent }: { queue: Pendin
   const held = pending.filter((o) => o.state === 'held');
   const money = (c: number | null) => (c === null ? null : formatCents(c, currency));
   const parts = [
-    held.length > 0 && `${countLabel(held.length, 'card order')} held — not charged; ask the customer`,
-    waiting.length > 0 && `${countLabel(waiting.length, 'order')} not sent yet — will send when the server is back`,
-    refused.length > 0 && `${countLabel(refused.length, 'order')} refused by the server — check and discard`,
+    held.length > 0 && `${plural(held.length, 'card order')} held — not charged; ask the customer`,
+    waiting.length > 0 && `${plural(waiting.length, 'order')} not sent yet — will send when the server is back`,
+    refused.length > 0 && `${plural(refused.length, 'order')} refused by the server — check and discard`,
   ].filter(Boolean);
 
   return (

@@ -188,7 +188,8 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
               {!g.retired && <MoveButtons name={g.name} first={at === 0} last={at === liveGroups.length - 1} busy={command.isPending} onMove={(d) => run((c) => c.move('modifier-groups', g.id, d), `Moved ${g.name}.`)} />}
               <h3 className="text-xl font-semibold">{g.name}</h3>
               <span className="text-lg">
-                {g.selection === 'single' ? 'Pick one' : 'Pick any'} · {g.required ? 'Required' : 'Optional'}
+                {/* with one extra in the group there is nothing to pick between */}
+                {liveMods.length === 1 ? 'One extra' : g.selection === 'single' ? 'Pick one' : 'Pick any'} · {g.required ? 'Required' : 'Optional'}
               </span>
               <StatusBadge status={g.retired ? 'retired' : 'in-use'} />
               <span className="ml-auto inline-flex gap-2">

@@ -1,5 +1,6 @@
 // Milks: each is a lane on the Bar, headed by its two-letter code. Name, code, upcharge, and what
 // it is made of (the allergens follow for the café's list).
+import { ScrollBox } from '../../components/ui/scroll-box';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
@@ -108,60 +109,62 @@ export function MilksPanel({ menu, command, notify }: { menu: AdminMenuView; com
           + New milk
         </Button>
       </div>
-      <table className="w-full border-collapse text-lg">
-        <thead>
-          <tr>
-            <th className={th}>Order</th>
-            <th className={th}>Milk</th>
-            <th className={th}>Code</th>
-            <th className={th}>Upcharge</th>
-            <th className={th}>Made of</th>
-            <th className={th}>Allergens ({menu.location.allergenList} list)</th>
-            <th className={th}>Status</th>
-            <th className={th}>
-              <span className="sr-only">Actions</span>
-            </th>
-          </tr>
-        </thead>
-        <tbody>
-          {menu.milks.map((m) => {
-            const at = live.findIndex((x) => x.id === m.id);
-            return (
-              <tr key={m.id} data-testid="milk-row" className={m.retired ? 'bg-steam-100 text-ink-600' : undefined}>
-                <td className={td}>
-                  {!m.retired && <MoveButtons name={m.name} first={at === 0} last={at === live.length - 1} busy={command.isPending} onMove={(d) => run((c) => c.move('milks', m.id, d), `Moved ${m.name}.`)} />}
-                </td>
-                <td className={`${td} text-xl font-semibold`}>{m.name}</td>
-                <td className={td}>
-                  <span className="inline-grid size-11 place-items-center rounded-lg border-2 border-ink-900 font-display text-xl font-semibold">{m.code}</span>
-                </td>
-                <td className={`${td} tabular-nums`}>{m.upchargeCents ? `+${money(m.upchargeCents)}` : 'none'}</td>
-                <td className={td}>{m.ingredients.length ? m.ingredients.join(', ') : <strong>⚠ not recorded: say what it is made of</strong>}</td>
-                <td className={td}>{m.allergens.length ? m.allergens.join(', ') : <span className="text-ink-600">none on the list</span>}</td>
-                <td className={td}>
-                  <StatusBadge status={m.retired ? 'retired' : 'in-use'} />
-                </td>
-                <td className={`${td} text-right`}>
-                  <span className="inline-flex gap-2">
-                    {m.retired ? (
-                      <Button tone="quiet" disabled={command.isPending} onClick={() => run((c) => c.setRetired('milks', m.id, false), `Restored ${m.name}.`)} aria-label={`Restore ${m.name}`}>
-                        Restore
+      <ScrollBox label="Milks table">
+        <table className="w-full border-collapse text-lg">
+          <thead>
+            <tr>
+              <th className={th}>Order</th>
+              <th className={th}>Milk</th>
+              <th className={th}>Code</th>
+              <th className={th}>Upcharge</th>
+              <th className={th}>Made of</th>
+              <th className={th}>Allergens ({menu.location.allergenList} list)</th>
+              <th className={th}>Status</th>
+              <th className={th}>
+                <span className="sr-only">Actions</span>
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {menu.milks.map((m) => {
+              const at = live.findIndex((x) => x.id === m.id);
+              return (
+                <tr key={m.id} data-testid="milk-row" className={m.retired ? 'bg-steam-100 text-ink-600' : undefined}>
+                  <td className={td}>
+                    {!m.retired && <MoveButtons name={m.name} first={at === 0} last={at === live.length - 1} busy={command.isPending} onMove={(d) => run((c) => c.move('milks', m.id, d), `Moved ${m.name}.`)} />}
+                  </td>
+                  <td className={`${td} text-xl font-semibold`}>{m.name}</td>
+                  <td className={td}>
+                    <span className="inline-grid size-11 place-items-center rounded-lg border-2 border-ink-900 font-display text-xl font-semibold">{m.code}</span>
+                  </td>
+                  <td className={`${td} tabular-nums`}>{m.upchargeCents ? `+${money(m.upchargeCents)}` : 'none'}</td>
+                  <td className={td}>{m.ingredients.length ? m.ingredients.join(', ') : <strong>⚠ not recorded: say what it is made of</strong>}</td>
+                  <td className={td}>{m.allergens.length ? m.allergens.join(', ') : <span className="text-ink-600">none on the list</span>}</td>
+                  <td className={td}>
+                    <StatusBadge status={m.retired ? 'retired' : 'in-use'} />
+                  </td>
+                  <td className={`${td} text-right`}>
+                    <span className="inline-flex gap-2">
+                      {m.retired ? (
+                        <Button tone="quiet" disabled={command.isPending} onClick={() => run((c) => c.setRetired('milks', m.id, false), `Restored ${m.name}.`)} aria-label={`Restore ${m.name}`}>
+                          Restore
+                        </Button>
+                      ) : (
+                        <Button tone="quiet" onClick={() => setRetiring(m)} aria-label={`Retire ${m.name}`}>
+                          Retire…
+                        </Button>
+                      )}
+                      <Button tone="quiet" onClick={() => setEditing(m)} aria-label={`Edit ${m.name}`}>
+                        Edit
                       </Button>
-                    ) : (
-                      <Button tone="quiet" onClick={() => setRetiring(m)} aria-label={`Retire ${m.name}`}>
-                        Retire…
-                      </Button>
-                    )}
-                    <Button tone="quiet" onClick={() => setEditing(m)} aria-label={`Edit ${m.name}`}>
-                      Edit
-                    </Button>
-                  </span>
-                </td>
-              </tr>
-            );
-          })}
-        </tbody>
-      </table>
+                    </span>
+                  </td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      </ScrollBox>
       {editing && <MilkForm menu={menu} milk={editing === 'new' ? null : editing} command={command} notify={notify} onClose={() => setEditing(null)} />}
       {retiring && (
         <ConfirmRetire

@@ -1,5 +1,6 @@
 // The rows of an uploaded menu file as the import would take them: what each row would do, and
 // for a bad row the word "Problem", the cell marked, and what to fix written beside it.
+import { ScrollBox } from '../../components/ui/scroll-box';
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { useMemo } from 'react';
 import { MENU_CSV_COLUMNS, type MenuCsvColumn, type MenuImportPreview, type RowAction, type RowError } from '../../domain/menu-csv';
@@ -73,34 +74,36 @@ export function PreviewTable({ preview }: { preview: MenuImportPreview }) {
 
   return (
     <div className="max-h-[32rem] overflow-auto rounded-lg border border-steam-200 bg-white">
-      <table className="w-full text-base" data-testid="import-preview">
-        <caption className="sr-only">Rows of {preview.fileName} as the import would take them</caption>
-        <thead>
-          {table.getHeaderGroups().map((g) => (
-            <tr key={g.id}>
-              {g.headers.map((h) => (
-                <th key={h.id} scope="col" className={th}>
-                  {flexRender(h.column.columnDef.header, h.getContext())}
-                </th>
-              ))}
-            </tr>
-          ))}
-        </thead>
-        <tbody>
-          {table.getRowModel().rows.map((row) => {
-            const bad = row.original.problems.length > 0;
-            return (
-              <tr key={row.id} data-testid="import-row" data-row={row.original.row} data-problem={bad ? 'yes' : 'no'} className={cn(bad && 'bg-steam-100')}>
-                {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className={cn(td, cell.column.id === 'row' && 'text-right tabular-nums', bad && cell.column.id === 'row' && 'border-l-4 border-l-copper-700')}>
-                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                  </td>
+      <ScrollBox label="Import preview table">
+        <table className="w-full text-base" data-testid="import-preview">
+          <caption className="sr-only">Rows of {preview.fileName} as the import would take them</caption>
+          <thead>
+            {table.getHeaderGroups().map((g) => (
+              <tr key={g.id}>
+                {g.headers.map((h) => (
+                  <th key={h.id} scope="col" className={th}>
+                    {flexRender(h.column.columnDef.header, h.getContext())}
+                  </th>
                 ))}
               </tr>
-            );
-          })}
-        </tbody>
-      </table>
+            ))}
+          </thead>
+          <tbody>
+            {table.getRowModel().rows.map((row) => {
+              const bad = row.original.problems.length > 0;
+              return (
+                <tr key={row.id} data-testid="import-row" data-row={row.original.row} data-problem={bad ? 'yes' : 'no'} className={cn(bad && 'bg-steam-100')}>
+                  {row.getVisibleCells().map((cell) => (
+                    <td key={cell.id} className={cn(td, cell.column.id === 'row' && 'text-right tabular-nums', bad && cell.column.id === 'row' && 'border-l-4 border-l-copper-700')}>
+                      {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                    </td>
+                  ))}
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      </ScrollBox>
     </div>
   );
 }

@@ -4,7 +4,8 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { formatCents, parseAmountToCents } from '../../domain/money';
+import { currencySymbol, formatCents, parseAmountToCents } from '../../domain/money';
+import { cashDifferenceWords, openTicketsWarning, type OpenTicketsAtClose } from '../../domain/shift-close';
 import type { ShiftView } from '../../domain/types';
 import { Button } from '../../components/ui/button';
 import { FieldError } from '../../components/ui/field-error';
@@ -19,6 +20,14 @@ const openForm = z.object({
   targetMinutes: z.coerce.number().min(1).max(60),
 });
 const closeForm = z.object({ counted: amount, note: z.string().max(200).optional() });
+
+type CloseBody = { countedCashCents: number; note?: string; confirmOpenTickets?: boolean };
+
+/** The API's refusal of a close while tickets are still at the bar, with their count and age. */
+function openTicketsOf(error: unknown): OpenTicketsAtClose | null {
+  if (!(error instanceof ApiError) || error.code !== 'open_tickets') return null;
+  return error.details as unknown as OpenTicketsAtClose;
+}
 
 function useShiftCommand<T>(path: string) {
   const qc = useQueryClient();
@@ -43,13 +52,15 @@ export function ShiftPanel({
 }) {
   const open = useShiftCommand<{ openingFloatCents: number; baristasOnBar: number; waitTargetSeconds: number }>('/shifts');
   const baristas = useShiftCommand<{ baristasOnBar: number }>('/shifts/current/baristas');
-  const close = useShiftCommand<{ countedCashCents: number; note?: string }>('/shifts/current/close');
+  const close = useShiftCommand<CloseBody>('/shifts/current/close');
   const openF = useForm({ resolver: zodResolver(openForm), defaultValues: { float: '150.00', baristas: 2, targetMinutes: 4 } });
   const closeF = useForm({ resolver: zodResolver(closeForm), defaultValues: { counted: '', note: '' } });
   const money = (c: number) => formatCents(c, currency);
-  const error = [open.error, baristas.error, close.error].find(Boolean);
+  const leftOpen = openTicketsOf(close.error);
+  const error = [open.error, baristas.error, leftOpen ? null : close.error].find(Boolean);
   const closed = close.data?.shift;
-  const [confirming, setConfirming] = useState<{ countedCashCents: number; note?: string } | null>(null);
+  const [confirming, setConfirming] = useState<CloseBody | null>(null);
+  const sign = currencySymbol(currency);
 
   if (!shift) {
     return (
@@ -64,11 +75,11 @@ export function ShiftPanel({
         {closed && (
           <p role="status" className="w-full text-lg">
             Last shift closed: expected {money(closed.expectedCashCents ?? 0)}, counted {money(closed.countedCashCents ?? 0)}, difference{' '}
-            <strong>{money((closed.countedCashCents ?? 0) - (closed.expectedCashCents ?? 0))}</strong>. The report was mailed to the owner.
+            <strong>{cashDifferenceWords(closed.expectedCashCents ?? 0, closed.countedCashCents ?? 0, currency)}</strong>. The report was mailed to the owner.
           </p>
         )}
         <label>
-          Cash float ($)
+          Cash float ({sign})
           <input className={input} {...openF.register('float')} />
           <FieldError message={openF.formState.errors.float?.message} />
         </label>
@@ -109,14 +120,44 @@ export function ShiftPanel({
       <p className="text-lg">
         Float {money(shift.openingFloatCents)} · cash expected in the drawer now <strong data-testid="expected-cash">{money(expectedCashCents ?? 0)}</strong>
       </p>
-      {confirming ? (
+      {confirming && leftOpen ? (
+        // the bar still has tickets: closing now ends the shift under them, so the lead says so
+        <div role="group" aria-label="Tickets still open" className="ml-auto flex flex-wrap items-center gap-3 rounded-xl border-2 border-copper-700 px-4 py-3">
+          <p className="text-lg">
+            <strong>⚠ {openTicketsWarning(leftOpen)}</strong> Close the shift anyway? They stay on the Bar.
+          </p>
+          <Button size="lg" disabled={close.isPending} onClick={() => close.mutate({ ...confirming, confirmOpenTickets: true }, { onSuccess: () => setConfirming(null) })}>
+            Close with {leftOpen.openTickets === 1 ? 'the ticket' : 'tickets'} open
+          </Button>
+          <Button
+            tone="quiet"
+            size="lg"
+            onClick={() => {
+              close.reset();
+              setConfirming(null);
+            }}
+          >
+            Back
+          </Button>
+        </div>
+      ) : confirming ? (
         // Closing mails the report and ends the shift for everyone: the lead sees the difference first.
         <div role="group" aria-label="Confirm closing the shift" className="ml-auto flex flex-wrap items-center gap-3 rounded-xl border-2 border-ink-900 px-4 py-3">
           <p className="text-lg">
             Close with {money(confirming.countedCashCents)} counted — expected {money(expectedCashCents ?? 0)}, difference{' '}
-            <strong>{money(confirming.countedCashCents - (expectedCashCents ?? 0))}</strong>?
+            <strong>{cashDifferenceWords(expectedCashCents ?? 0, confirming.countedCashCents, currency)}</strong>?
           </p>
-          <Button size="lg" disabled={close.isPending} onClick={() => close.mutate(confirming, { onSettled: () => setConfirming(null) })}>
+          <Button
+            size="lg"
+            disabled={close.isPending}
+            onClick={() =>
+              close.mutate(confirming, {
+                onSuccess: () => setConfirming(null),
+                // refused for open tickets: stay, and ask about them
+                onError: (err) => !openTicketsOf(err) && setConfirming(null),
+              })
+            }
+          >
             Yes, close the shift
           </Button>
           <Button tone="quiet" size="lg" onClick={() => setConfirming(null)}>
@@ -126,17 +167,17 @@ export function ShiftPanel({
       ) : (
         <form
           aria-label="Close the shift"
-          className="ml-auto flex items-end gap-3"
+          className="ml-auto flex flex-wrap items-end gap-3"
           onSubmit={closeF.handleSubmit((v) => setConfirming({ countedCashCents: parseAmountToCents(v.counted)!, note: v.note || undefined }))}
         >
           <label>
-            Cash counted ($)
+            Cash counted ({sign})
             <input className={input} {...closeF.register('counted')} />
             <FieldError message={closeF.formState.errors.counted?.message} />
           </label>
           <label>
             Note
-            <input className="mt-1 w-48 rounded-lg border border-steam-200 bg-white px-3 py-2 text-lg" {...closeF.register('note')} />
+            <input className="mt-1 w-48 max-w-full rounded-lg border border-steam-200 bg-white px-3 py-2 text-lg" {...closeF.register('note')} />
           </label>
           <Button type="submit" size="lg" disabled={close.isPending}>
             Close shift…

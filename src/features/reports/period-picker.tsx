@@ -44,10 +44,10 @@ export function PeriodPicker({
         </Link>
       </div>
 
-      <Form method="get" action="/reports" className="flex items-end gap-2">
+      <Form method="get" action="/reports" className="flex max-w-full flex-wrap items-end gap-2">
         <label>
           <span className={cn(legend, 'block')}>Shift</span>
-          <select name="shift" defaultValue={selectedShift ?? ''} required className={cn(field, 'min-w-64')}>
+          <select name="shift" defaultValue={selectedShift ?? ''} required className={cn(field, 'w-64 max-w-full')}>
             <option value="" disabled>
               {shifts.shifts.length ? 'Choose a shift' : 'No shifts yet'}
             </option>
@@ -63,7 +63,7 @@ export function PeriodPicker({
         </button>
       </Form>
 
-      <Form method="get" action="/reports" className="flex items-end gap-2">
+      <Form method="get" action="/reports" className="flex max-w-full flex-wrap items-end gap-2">
         <label>
           <span className={cn(legend, 'block')}>From</span>
           <input type="date" name="from" required defaultValue={dates.from} className={field} />

@@ -1,4 +1,5 @@
 // The report in parts: how people paid, what the bar used, and what sold best.
+import { ScrollBox } from '../../components/ui/scroll-box';
 import type { ReactNode } from 'react';
 import { formatCents } from '../../domain/money';
 import { formatCoffee, formatCount, formatLitres, formatShare, type ReportView } from '../../domain/reports';
@@ -41,27 +42,29 @@ export function PaymentMix({ report }: { report: ReportView }) {
   ] as const;
   return (
     <Panel title="Payment mix">
-      <table className="w-full text-base">
-        <thead>
-          <tr>
-            <th className={thClass}>Method</th>
-            <th className={cn(thClass, 'text-right')}>Orders</th>
-            <th className={cn(thClass, 'text-right')}>Taken</th>
-          </tr>
-        </thead>
-        <tbody>
-          {rows.map(([label, m]) => (
-            <tr key={label}>
-              <td className={tdClass}>
-                {label}
-                <ShareBar share={report.grossCents ? m.cents / report.grossCents : 0} label={report.grossCents ? formatShare(m.cents / report.grossCents, report.locale) : '—'} />
-              </td>
-              <td className={cn(tdClass, numClass)}>{formatCount(m.orders, report.locale)}</td>
-              <td className={cn(tdClass, numClass)}>{money(m.cents)}</td>
+      <ScrollBox label="Payment mix table">
+        <table className="w-full text-base">
+          <thead>
+            <tr>
+              <th className={thClass}>Method</th>
+              <th className={cn(thClass, 'text-right')}>Orders</th>
+              <th className={cn(thClass, 'text-right')}>Taken</th>
             </tr>
-          ))}
-        </tbody>
-      </table>
+          </thead>
+          <tbody>
+            {rows.map(([label, m]) => (
+              <tr key={label}>
+                <td className={tdClass}>
+                  {label}
+                  <ShareBar share={report.grossCents ? m.cents / report.grossCents : 0} label={report.grossCents ? formatShare(m.cents / report.grossCents, report.locale) : '—'} />
+                </td>
+                <td className={cn(tdClass, numClass)}>{formatCount(m.orders, report.locale)}</td>
+                <td className={cn(tdClass, numClass)}>{money(m.cents)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </ScrollBox>
       <p className="mt-2 text-sm text-ink-600">Taken before refunds; the two add up to the gross {money(report.grossCents)}.</p>
     </Panel>
   );
@@ -87,18 +90,20 @@ export function BarUse({ report }: { report: ReportView }) {
       {report.milkUsedMl.length === 0 ? (
         <p className="text-base text-ink-600">No milk drinks made.</p>
       ) : (
-        <table className="w-full text-base" data-testid="milk-used">
-          <tbody>
-            {report.milkUsedMl.map((m) => (
-              <tr key={m.milk}>
-                <td className={cn(tdClass, 'w-24')}>{m.milk}</td>
-                <td className={tdClass}>
-                  <ShareBar share={totalMl ? m.ml / totalMl : 0} label={formatLitres(m.ml, report.locale)} />
-                </td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+        <ScrollBox label="Milk used table">
+          <table className="w-full text-base" data-testid="milk-used">
+            <tbody>
+              {report.milkUsedMl.map((m) => (
+                <tr key={m.milk}>
+                  <td className={cn(tdClass, 'w-24')}>{m.milk}</td>
+                  <td className={tdClass}>
+                    <ShareBar share={totalMl ? m.ml / totalMl : 0} label={formatLitres(m.ml, report.locale)} />
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </ScrollBox>
       )}
       <p className="mt-2 text-sm text-ink-600">Cold milk the recipes take, for the drinks bumped done; pitcher waste not included.</p>
     </Panel>
@@ -112,24 +117,26 @@ export function TopItems({ report }: { report: ReportView }) {
       {report.topItems.length === 0 ? (
         <p className="text-base text-ink-600">Nothing sold in this period.</p>
       ) : (
-        <table className="w-full text-base">
-          <thead>
-            <tr>
-              <th className={thClass}>Item</th>
-              <th className={cn(thClass, 'text-right')}>Sold</th>
-              <th className={cn(thClass, 'text-right')}>Sales</th>
-            </tr>
-          </thead>
-          <tbody>
-            {report.topItems.map((i) => (
-              <tr key={i.item}>
-                <td className={tdClass}>{i.item}</td>
-                <td className={cn(tdClass, numClass)}>{formatCount(i.count, report.locale)}</td>
-                <td className={cn(tdClass, numClass)}>{money(i.cents)}</td>
+        <ScrollBox label="Top items table">
+          <table className="w-full text-base">
+            <thead>
+              <tr>
+                <th className={thClass}>Item</th>
+                <th className={cn(thClass, 'text-right')}>Sold</th>
+                <th className={cn(thClass, 'text-right')}>Sales</th>
               </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody>
+              {report.topItems.map((i) => (
+                <tr key={i.item}>
+                  <td className={tdClass}>{i.item}</td>
+                  <td className={cn(tdClass, numClass)}>{formatCount(i.count, report.locale)}</td>
+                  <td className={cn(tdClass, numClass)}>{money(i.cents)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </ScrollBox>
       )}
       <p className="mt-2 text-sm text-ink-600">Menu prices, before order discounts.</p>
     </Panel>

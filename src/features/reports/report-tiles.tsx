@@ -1,4 +1,5 @@
-// The report's headline numbers as tiles, and which percentile definition the waits use.
+// The report's headline numbers as tiles, the waits said in café words, and (in a help note)
+// which percentile definition they use.
 import type { ReactNode } from 'react';
 import { formatCents } from '../../domain/money';
 import { formatDuration } from '../../domain/format';
@@ -19,7 +20,7 @@ export function ReportTiles({ report }: { report: ReportView }) {
   const money = (cents: number) => formatCents(cents, report.currency, report.locale);
   const { waits } = report;
   const target = formatDuration(report.targetSeconds);
-  const group = 'grid grid-cols-3 gap-3 lg:grid-cols-6';
+  const group = 'grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-6';
   const heading = 'mb-1 text-sm font-semibold tracking-widest text-ink-600 uppercase';
   return (
     <>
@@ -41,14 +42,25 @@ export function ReportTiles({ report }: { report: ReportView }) {
           Ticket waits
         </h2>
         <div className={group}>
-          <dl className="col-span-3 grid grid-cols-3 gap-3">
-            <Tile label="Median wait" value={formatDuration(waits.medianSeconds)} hint={`of ${formatCount(waits.count, report.locale)} ${waits.count === 1 ? 'ticket' : 'tickets'} timed`} testId="tile-median" />
-            <Tile label="p90 wait" value={formatDuration(waits.p90Seconds)} hint="9 in 10 waited less" testId="tile-p90" />
+          <dl className="col-span-2 grid grid-cols-2 gap-3 sm:col-span-3 sm:grid-cols-3">
+            <Tile label="Half waited under" value={formatDuration(waits.medianSeconds)} hint={`of ${formatCount(waits.count, report.locale)} ${waits.count === 1 ? 'ticket' : 'tickets'} timed`} testId="tile-median" />
+            <Tile label="9 in 10 waited under" value={formatDuration(waits.p90Seconds)} hint="the slow end of the rush" testId="tile-p90" />
             <Tile label="Over target" value={formatShare(waits.overTargetShare, report.locale)} hint={`waited longer than ${target}`} />
           </dl>
-          <p className="col-span-3 self-center text-base text-ink-600" data-testid="percentile-method">
-            Wait: from the ticket reaching the bar to ready, in minutes:seconds. Median and 90th percentile (p90) by {PERCENTILE_METHOD}.
-          </p>
+          <div className="col-span-2 self-center text-base text-ink-600 sm:col-span-3">
+            <p className="text-lg text-ink-900" data-testid="waits-words">
+              {waits.count === 0
+                ? 'No ticket was timed in this period.'
+                : `Half of the tickets waited under ${formatDuration(waits.medianSeconds)}; 9 in 10 under ${formatDuration(waits.p90Seconds)}.`}{' '}
+              A wait runs from the ticket reaching the bar to ready, in minutes:seconds.
+            </p>
+            <details className="mt-1">
+              <summary className="cursor-pointer underline underline-offset-4">How the waits are worked out</summary>
+              <p data-testid="percentile-method">
+                &ldquo;Half waited under&rdquo; is the median and &ldquo;9 in 10&rdquo; the 90th percentile, by {PERCENTILE_METHOD}.
+              </p>
+            </details>
+          </div>
         </div>
       </section>
     </>

@@ -3,6 +3,7 @@ import { createColumnHelper, type RowData } from '@tanstack/react-table';
 import { formatCents } from '../../domain/money';
 import { formatDuration } from '../../domain/format';
 import { type TicketHistoryRow } from '../../domain/reports';
+import { PAYMENT_METHOD_WORDS, PAYMENT_STATUS_WORDS, TICKET_STATUS_WORDS } from '../../domain/ticket-words';
 
 declare module '@tanstack/react-table' {
   // numeric columns are right-aligned
@@ -11,13 +12,6 @@ declare module '@tanstack/react-table' {
   }
 }
 
-const STATUS: Record<TicketHistoryRow['status'], string> = {
-  pending: 'Waiting for payment',
-  open: 'At the bar',
-  ready: 'Ready',
-  collected: 'Collected',
-  void: 'Void',
-};
 
 export interface ColumnContext {
   currency: string;
@@ -48,17 +42,17 @@ export function ticketColumns(c: ColumnContext) {
         </time>
       ),
     }),
-    col.accessor('status', { id: 'status', header: 'Status', enableSorting: false, cell: (i) => STATUS[i.getValue()] }),
+    col.accessor('status', { id: 'status', header: 'Status', enableSorting: false, cell: (i) => TICKET_STATUS_WORDS[i.getValue()] }),
     col.accessor('paymentMethod', {
       id: 'payment',
       header: 'Paid by',
       enableSorting: false,
       cell: (i) => {
         const r = i.row.original;
-        if (r.paymentStatus === 'unpaid') return <span className="text-ink-600">Not paid</span>;
+        if (r.paymentStatus === 'unpaid') return <span className="text-ink-600">{PAYMENT_STATUS_WORDS.unpaid}</span>;
         return (
           <>
-            {r.paymentMethod === 'cash' ? 'Cash' : 'Card'}
+            {PAYMENT_METHOD_WORDS[r.paymentMethod]}
             {r.refundedCents > 0 && <span className="block text-sm text-ink-600">refunded {money(r.refundedCents)}</span>}
           </>
         );

@@ -1,6 +1,7 @@
 // The ticket history: TanStack Table in manual mode, so the server sorts, filters and pages and
 // the table only draws. Its state lives in the URL (sort, dir, page, q, status); every change is a
 // navigation, and the route's loader fetches the page asked for.
+import { ScrollBox } from '../../components/ui/scroll-box';
 import { flexRender, getCoreRowModel, useReactTable, type SortingState, type Updater } from '@tanstack/react-table';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { Form, Link, useNavigate, useSearchParams } from 'react-router';
@@ -11,6 +12,11 @@ import { queryString, type TicketHistoryParams } from '../../lib/reports-api';
 import { tdClass, thClass } from './report-breakdowns';
 import { ticketColumns, type ColumnContext } from './ticket-columns';
 import { withParams } from './params';
+import { plural } from '../../domain/plural';
+import { TICKET_STATUS_WORDS } from '../../domain/ticket-words';
+
+/** the status filter's order: where a ticket is in the rush, then the ones set aside */
+const STATUS_ORDER = ['open', 'ready', 'collected', 'pending', 'void'] as const;
 
 const field = 'min-h-11 rounded-lg border border-steam-200 bg-white px-3 text-base text-ink-900';
 
@@ -62,7 +68,7 @@ export function TicketTable({ page, params, context }: { page: TicketHistoryPage
           Tickets
         </h2>
         {/* A GET form, so searching works before the script has loaded; with it, typing is enough. */}
-        <Form method="get" className="flex items-end gap-2" preventScrollReset onSubmit={() => (typed.current = false)}>
+        <Form method="get" className="flex max-w-full flex-wrap items-end gap-2" preventScrollReset onSubmit={() => (typed.current = false)}>
           {['shift', 'from', 'to', 'sort', 'dir'].map((k) => search.get(k) !== null && <input key={k} type="hidden" name={k} value={search.get(k)!} />)}
           <label>
             <span className="block text-sm font-semibold tracking-widest text-ink-600 uppercase">Search</span>
@@ -76,18 +82,18 @@ export function TicketTable({ page, params, context }: { page: TicketHistoryPage
               }}
               placeholder="Name or #number"
               maxLength={40}
-              className={cn(field, 'w-56')}
+              className={cn(field, 'w-56 max-w-full')}
             />
           </label>
           <label>
             <span className="block text-sm font-semibold tracking-widest text-ink-600 uppercase">Status</span>
             <select name="status" value={params.status ?? ''} onChange={(e) => go({ status: e.target.value || undefined })} className={field}>
               <option value="">Any status</option>
-              <option value="open">At the bar</option>
-              <option value="ready">Ready</option>
-              <option value="collected">Collected</option>
-              <option value="pending">Waiting for payment</option>
-              <option value="void">Void</option>
+              {STATUS_ORDER.map((status) => (
+                <option key={status} value={status}>
+                  {TICKET_STATUS_WORDS[status]}
+                </option>
+              ))}
             </select>
           </label>
           <noscript>
@@ -101,60 +107,62 @@ export function TicketTable({ page, params, context }: { page: TicketHistoryPage
         </a>
       </div>
 
-      <table className="w-full text-base" data-testid="ticket-table">
-        <thead>
-          {table.getHeaderGroups().map((group) => (
-            <tr key={group.id}>
-              {group.headers.map((header) => {
-                const numeric = header.column.columnDef.meta?.numeric;
-                const sorted = header.column.getIsSorted();
-                return (
-                  <th
-                    key={header.id}
-                    scope="col"
-                    aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
-                    className={cn(thClass, numeric && 'text-right')}
-                  >
-                    {header.column.getCanSort() ? (
-                      <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 uppercase underline-offset-4 hover:underline">
-                        {flexRender(header.column.columnDef.header, header.getContext())}
-                        <span aria-hidden className="w-3 text-ink-900">
-                          {sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}
-                        </span>
-                        {sorted && <span className="sr-only">{sorted === 'asc' ? ', sorted ascending' : ', sorted descending'}</span>}
-                      </button>
-                    ) : (
-                      flexRender(header.column.columnDef.header, header.getContext())
-                    )}
-                  </th>
-                );
-              })}
-            </tr>
-          ))}
-        </thead>
-        <tbody>
-          {table.getRowModel().rows.map((row) => (
-            <tr key={row.id} data-testid="ticket-row">
-              {row.getVisibleCells().map((cell) => (
-                <td key={cell.id} className={cn(tdClass, cell.column.columnDef.meta?.numeric && 'text-right tabular-nums')}>
-                  {flexRender(cell.column.columnDef.cell, cell.getContext())}
+      <ScrollBox label="Tickets table">
+        <table className="w-full text-base" data-testid="ticket-table">
+          <thead>
+            {table.getHeaderGroups().map((group) => (
+              <tr key={group.id}>
+                {group.headers.map((header) => {
+                  const numeric = header.column.columnDef.meta?.numeric;
+                  const sorted = header.column.getIsSorted();
+                  return (
+                    <th
+                      key={header.id}
+                      scope="col"
+                      aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
+                      className={cn(thClass, numeric && 'text-right')}
+                    >
+                      {header.column.getCanSort() ? (
+                        <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 uppercase underline-offset-4 hover:underline">
+                          {flexRender(header.column.columnDef.header, header.getContext())}
+                          <span aria-hidden className="w-3 text-ink-900">
+                            {sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}
+                          </span>
+                          {sorted && <span className="sr-only">{sorted === 'asc' ? ', sorted ascending' : ', sorted descending'}</span>}
+                        </button>
+                      ) : (
+                        flexRender(header.column.columnDef.header, header.getContext())
+                      )}
+                    </th>
+                  );
+                })}
+              </tr>
+            ))}
+          </thead>
+          <tbody>
+            {table.getRowModel().rows.map((row) => (
+              <tr key={row.id} data-testid="ticket-row">
+                {row.getVisibleCells().map((cell) => (
+                  <td key={cell.id} className={cn(tdClass, cell.column.columnDef.meta?.numeric && 'text-right tabular-nums')}>
+                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                  </td>
+                ))}
+              </tr>
+            ))}
+            {page.rows.length === 0 && (
+              <tr>
+                <td colSpan={columns.length} className="px-2 py-6 text-center text-lg text-ink-600">
+                  No tickets match.
                 </td>
-              ))}
-            </tr>
-          ))}
-          {page.rows.length === 0 && (
-            <tr>
-              <td colSpan={columns.length} className="px-2 py-6 text-center text-lg text-ink-600">
-                No tickets match.
-              </td>
-            </tr>
-          )}
-        </tbody>
-      </table>
+              </tr>
+            )}
+          </tbody>
+        </table>
+      </ScrollBox>
 
       <nav aria-label="Ticket pages" className="mt-3 flex items-center gap-3 text-base">
         <span className="mr-auto text-ink-600" data-testid="ticket-count">
-          {formatCount(first, context.locale)}–{formatCount(last, context.locale)} of {formatCount(page.total, context.locale)} tickets · page {formatCount(page.page, context.locale)} of {formatCount(pageCount, context.locale)}
+          {formatCount(first, context.locale)}–{formatCount(last, context.locale)} of {plural(page.total, 'ticket', 'tickets', formatCount(page.total, context.locale))} · page {formatCount(page.page, context.locale)} of {formatCount(pageCount, context.locale)}
         </span>
         <PageLink to={pageLink(page.page - 1)} enabled={table.getCanPreviousPage()} label="Previous" />
         <PageLink to={pageLink(page.page + 1)} enabled={table.getCanNextPage()} label="Next" />

@@ -2,6 +2,7 @@
 // menu records ingredients, so a switch rewrites nothing; choosing the other list shows, per milk,
 // item and extra, what it contains under the current list and under the new one, and the owner
 // confirms with the section's save.
+import { ScrollBox } from '../../components/ui/scroll-box';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
@@ -39,28 +40,30 @@ function SwitchPreview({ preview }: { preview: AllergenSwitchPreview }) {
           : `${changed.length} of ${changed.length + unchanged} on the menu read differently on the ${to} list:`}
       </p>
       {changed.length > 0 && (
-        <table className="w-full border-collapse text-base">
-          <thead>
-            <tr>
-              <th className={th}>On the menu</th>
-              <th className={th}>Made with</th>
-              <th className={th}>{from} list now</th>
-              <th className={th}>{to} list</th>
-            </tr>
-          </thead>
-          <tbody>
-            {changed.map((c) => (
-              <tr key={`${c.kind}:${c.id}`} data-testid="switch-row">
-                <td className={td}>
-                  <strong>{c.name}</strong> <span className="text-ink-600">({KIND[c.kind]})</span>
-                </td>
-                <td className={td}>{c.ingredients.join(', ')}</td>
-                <td className={td}>{listed(c.before)}</td>
-                <td className={`${td} font-semibold`}>{listed(c.after)}</td>
+        <ScrollBox label="Allergens table">
+          <table className="w-full border-collapse text-base">
+            <thead>
+              <tr>
+                <th className={th}>On the menu</th>
+                <th className={th}>Made with</th>
+                <th className={th}>{from} list now</th>
+                <th className={th}>{to} list</th>
               </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody>
+              {changed.map((c) => (
+                <tr key={`${c.kind}:${c.id}`} data-testid="switch-row">
+                  <td className={td}>
+                    <strong>{c.name}</strong> <span className="text-ink-600">({KIND[c.kind]})</span>
+                  </td>
+                  <td className={td}>{c.ingredients.join(', ')}</td>
+                  <td className={td}>{listed(c.before)}</td>
+                  <td className={`${td} font-semibold`}>{listed(c.after)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </ScrollBox>
       )}
       {changed.length > 0 && unchanged > 0 && <p className="text-base text-ink-600">The other {unchanged} read the same on both lists.</p>}
       {toCheck.length > 0 && (

@@ -1,5 +1,6 @@
 // Units: what cup sizes and temperatures read in. Display only — sizes, recipes and pitchers
 // stay in millilitres — so the preview shows every cup size on the menu in the chosen unit.
+import { ScrollBox } from '../../components/ui/scroll-box';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
@@ -53,27 +54,29 @@ export function UnitsSection({ page }: { page: SettingsPage }) {
       />
       <div>
         <h3 className="text-base font-semibold">Your cup sizes will read</h3>
-        <table className="mt-1 w-full text-left text-base" data-testid="cup-size-preview">
-          <thead className="text-sm text-ink-600">
-            <tr>
-              <th className="py-1 font-semibold">Size</th>
-              <th className="py-1 font-semibold">Stored</th>
-              <th className="py-1 font-semibold">Shown as</th>
-            </tr>
-          </thead>
-          <tbody className="divide-y divide-steam-200">
-            {cupSizes.map((c) => (
-              <tr key={c.volumeMl}>
-                <td className="py-1">{c.names.join(', ')}</td>
-                <td className="py-1">{c.volumeMl} ml</td>
-                <td className="py-1 font-semibold">
-                  {volume === 'us_floz' ? `${cupSizeLabel(c.volumeMl, 'us_floz')} = ${c.volumeMl} ml` : cupSizeLabel(c.volumeMl, 'ml')}
-                  {volume === 'us_floz' && <span className="ml-2 text-sm font-medium text-ink-600">({exactUsFlOz(c.volumeMl)})</span>}
-                </td>
+        <ScrollBox label="Cup sizes table">
+          <table className="mt-1 w-full text-left text-base" data-testid="cup-size-preview">
+            <thead className="text-sm text-ink-600">
+              <tr>
+                <th className="py-1 font-semibold">Size</th>
+                <th className="py-1 font-semibold">Stored</th>
+                <th className="py-1 font-semibold">Shown as</th>
               </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody className="divide-y divide-steam-200">
+              {cupSizes.map((c) => (
+                <tr key={c.volumeMl}>
+                  <td className="py-1">{c.names.join(', ')}</td>
+                  <td className="py-1">{c.volumeMl} ml</td>
+                  <td className="py-1 font-semibold">
+                    {volume === 'us_floz' ? `${cupSizeLabel(c.volumeMl, 'us_floz')} = ${c.volumeMl} ml` : cupSizeLabel(c.volumeMl, 'ml')}
+                    {volume === 'us_floz' && <span className="ml-2 text-sm font-medium text-ink-600">({exactUsFlOz(c.volumeMl)})</span>}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </ScrollBox>
         {volume === 'us_floz' && (
           <p className="mt-1 text-sm text-ink-600">
             US fluid ounces of 29.5735 ml, rounded to the nearest half ounce as cups are sold (12 oz is 354.9 ml) — not the 30 ml ounce of
