@@ -1,5 +1,5 @@
 // The item sheet: size, milk, shots and extras for one drink, as big touch choices.
-import { useEffect, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { formatCents } from '../../domain/money';
 import { resolveLine } from '../../domain/order-lines';
 import type { OrderLineInput } from '../../domain/schemas';
@@ -7,6 +7,7 @@ import type { MenuItemView, MenuView } from '../../domain/types';
 import { cupSizeLabel } from '../../domain/units';
 import { Button } from '../../components/ui/button';
 import { Segmented } from '../../components/ui/segmented';
+import { useModalFocus } from '../../components/ui/use-modal-focus';
 import { cn } from '../../lib/cn';
 
 interface Props {
@@ -28,6 +29,9 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
     },
   );
   const priced = resolveLine(menu, line);
+  const panel = useRef<HTMLDivElement>(null);
+  // the focus starts on the chosen size (or milk) and stays in the sheet; back on the tile after
+  useModalFocus(panel, (box) => box.querySelector<HTMLElement>('[role="radio"][aria-checked="true"]'));
 
   // Esc closes the sheet; Enter adds the drink — even right after tapping a choice, which would
   // otherwise press that choice again (only the note field keeps Enter for itself).
@@ -55,8 +59,9 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
 
   return (
     <div role="dialog" aria-modal="true" aria-label={item.name} className="fixed inset-0 z-20 flex flex-col justify-end bg-ink-900/40">
-      <button type="button" aria-label="Close" className="flex-1 cursor-default" onClick={onClose} />
-      <div className="flex max-h-[92vh] flex-col rounded-t-2xl bg-steam-50 shadow-2xl">
+      {/* the backdrop: a tap closes; the keyboard has Cancel and Esc */}
+      <button type="button" aria-label="Close" tabIndex={-1} className="flex-1 cursor-default" onClick={onClose} />
+      <div ref={panel} className="flex max-h-[92vh] flex-col rounded-t-2xl bg-steam-50 shadow-2xl">
         <div className="overflow-y-auto px-6 pt-5 pb-3">
         <div className="flex items-baseline gap-4">
           <h2 className="text-3xl font-semibold">{item.name}</h2>
