@@ -5,7 +5,7 @@
 import AxeBuilder from '@axe-core/playwright';
 import type { Page } from '@playwright/test';
 import { errorsOf, expect, test, type Login } from './fixtures';
-import { Contexts, inService, open, screenCases, type Service } from './screens';
+import { open, SCREEN_NAMES, screenSuite } from './screens';
 
 const WCAG_21_AA = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'];
 const MODAL = '[role="dialog"], [role="alertdialog"], dialog[open]';
@@ -20,25 +20,13 @@ async function seriousViolations(page: Page, within?: string): Promise<string[]>
     .map((v) => `${v.impact} ${v.id}: ${v.help} → ${v.nodes.map((n) => n.target.join(' ')).slice(0, 6).join(' | ')}`);
 }
 
-let service: Service;
-let contexts: Contexts;
+const suite = screenSuite();
 
-test.beforeAll(async ({ browser }, info) => {
-  const baseURL = info.project.use.baseURL!;
-  service = await inService(baseURL);
-  contexts = new Contexts(browser, baseURL);
-});
-test.afterAll(async () => {
-  await contexts?.close();
-  await service?.close();
-});
-
-// The list is known only once the café is in service; the names are fixed, so tests are declared
-// from a placeholder service and look their path up when they run.
-for (const { name } of screenCases({ allergyOrderId: 0, welcomeToken: '', close: async () => {} })) {
+for (const name of SCREEN_NAMES) {
   test(`axe: ${name}`, async () => {
-    const screen = screenCases(service).find((s) => s.name === name)!;
-    const page = await contexts.page(screen.as);
+    test.slow(); // a full WCAG audit of a whole screen is heavy on a 2-core machine
+    const screen = suite.screen(name);
+    const page = await suite.contexts.page(screen.as);
     await open(page, screen.path);
     expect(await seriousViolations(page)).toEqual([]);
     expect(errorsOf(page).filter((e) => !/404|Not Found/.test(e))).toEqual([]);
@@ -105,7 +93,8 @@ const DIALOGS: { name: string; as: Login; path: string; open(page: Page): Promis
 
 for (const dialog of DIALOGS) {
   test(`axe: ${dialog.name}`, async () => {
-    const page = await contexts.page(dialog.as);
+    test.slow(); // the screen's load and a WCAG audit of the dialog
+    const page = await suite.contexts.page(dialog.as);
     await open(page, dialog.path);
     await dialog.open(page);
     await expect(page.locator(MODAL).last()).toBeVisible();

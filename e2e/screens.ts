@@ -3,7 +3,7 @@
 // accessibility and widths specs. One signed-in browser context per role, reused across screens.
 import { request as apiRequest, type APIRequestContext, type Browser, type BrowserContext, type Page } from '@playwright/test';
 import { SCREENS } from '../src/domain/screens';
-import { DEMO_PASSWORD, expect, watchForErrors, type Login } from './fixtures';
+import { DEMO_PASSWORD, expect, test, watchForErrors, type Login } from './fixtures';
 
 export interface ScreenCase {
   /** Names the test and the screenshot file. */
@@ -152,4 +152,26 @@ export async function open(page: Page, path: string) {
   const res = await page.goto(path);
   expect(res?.status(), path).toBeLessThan(path === '/no-such-screen' ? 500 : 400);
   await expect(page.locator('html[data-hydrated]')).toHaveCount(1);
+}
+
+/** The screens' names, known before the café is in service (tests are declared before it runs). */
+export const SCREEN_NAMES = screenCases({ allergyOrderId: 0, welcomeToken: '', close: async () => {} }).map((s) => s.name);
+
+/**
+ * For a spec file: the café put in service once before its tests and one context per person;
+ * both closed after. Read `suite.service` and `suite.contexts` inside a test.
+ */
+export function screenSuite() {
+  const suite = {} as { service: Service; contexts: Contexts; screen(name: string): ScreenCase };
+  suite.screen = (name) => screenCases(suite.service).find((s) => s.name === name)!;
+  test.beforeAll(async ({ browser }, info) => {
+    const baseURL = info.project.use.baseURL!;
+    suite.service = await inService(baseURL);
+    suite.contexts = new Contexts(browser, baseURL);
+  });
+  test.afterAll(async () => {
+    await suite.contexts?.close();
+    await suite.service?.close();
+  });
+  return suite;
 }
