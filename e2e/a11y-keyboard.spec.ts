@@ -112,6 +112,7 @@ test('sign-in with the keyboard alone', async () => {
 });
 
 test('a Counter order with the keyboard alone, then its drink bumped on the Bar with the keyboard', async () => {
+  test.slow(); // a key press and a focus read per stop, a few hundred round trips to the browser
   const counter = await contexts.page('cashier');
   await open(counter, '/counter');
   const latte = counter.getByRole('button', { name: /^Latte from/ });
@@ -147,6 +148,7 @@ test('a Counter order with the keyboard alone, then its drink bumped on the Bar 
 });
 
 test('Counter dialogs keep the focus: item sheet, today’s orders, switch person', async () => {
+  test.slow(); // a key press and a focus read per stop, a few hundred round trips to the browser
   const page = await contexts.page('cashier');
   await open(page, '/counter');
   await checkDialog(page, page.getByRole('button', { name: /^Cappuccino/ }), page.getByRole('dialog', { name: 'Cappuccino' }));
@@ -156,6 +158,7 @@ test('Counter dialogs keep the focus: item sheet, today’s orders, switch perso
 });
 
 test('Menu admin dialogs keep the focus: item form, and the retire confirmation over it', async () => {
+  test.slow(); // a key press and a focus read per stop, a few hundred round trips to the browser
   const page = await contexts.page('owner');
   await open(page, '/admin/menu');
   const edit = page.getByRole('button', { name: 'Edit Latte' });
