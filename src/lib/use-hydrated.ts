@@ -6,3 +6,13 @@ export function useHydrated(): boolean {
   useEffect(() => setHydrated(true), []);
   return hydrated;
 }
+
+/**
+ * Marks `<html data-hydrated>` once React runs the screen (or its error page): the mark the e2e
+ * checks wait on before pressing keys, opening dialogs or measuring widths.
+ */
+export function useHydratedMark(): void {
+  useEffect(() => {
+    document.documentElement.dataset.hydrated = 'true';
+  }, []);
+}

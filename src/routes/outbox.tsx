@@ -35,7 +35,9 @@ function MailRow({ mail, selected, format }: { mail: OutboxMail; selected: boole
         )}
       >
         <span className="line-clamp-2 text-lg font-semibold">{mail.subject || '(no subject)'}</span>
-        <span className="block truncate text-base text-ink-600">To {mail.to.join(', ')}</span>
+        <span className="block truncate text-base text-ink-600" title={mail.to.join(', ')}>
+          To {mail.to.join(', ')}
+        </span>
         <span className="block text-sm text-ink-600">
           <When iso={mail.receivedAt} format={format} />
         </span>
@@ -63,7 +65,7 @@ function MailPanel({ mail, format }: { mail: OutboxMail; format: Format }) {
           </div>
         ))}
       </dl>
-      <pre data-testid="outbox-text" className="mt-5 border-t border-steam-200 pt-5 font-sans text-lg leading-relaxed whitespace-pre-wrap">
+      <pre data-testid="outbox-text" className="mt-5 border-t border-steam-200 pt-5 font-sans text-lg leading-relaxed whitespace-pre-wrap [overflow-wrap:anywhere]">
         {mail.text}
       </pre>
       {mail.html && (
@@ -87,7 +89,7 @@ function Outbox() {
 
   return (
     <div className="flex min-h-screen flex-col bg-steam-50 text-ink-900">
-      <header className="flex items-center gap-6 border-b border-steam-200 px-5 py-3">
+      <header className="flex flex-wrap items-center gap-x-6 gap-y-2 border-b border-steam-200 px-5 py-3">
         <h1 className="text-2xl font-semibold">Outbox</h1>
         <span className="text-lg text-ink-600">
           {data.mails.length} mail{data.mails.length === 1 ? '' : 's'}
@@ -99,9 +101,10 @@ function Outbox() {
       <p role="note" className="mx-5 mt-4 rounded-lg border border-steam-200 bg-steam-100 px-4 py-3 text-lg">
         Mail sent by Jugline in this demo is caught here; nothing leaves this machine.
       </p>
+      {/* side by side from a tablet up; on a phone the list (a short scroll of its own) over the mail */}
       {selected ? (
-        <div className="grid min-h-0 flex-1 grid-cols-[minmax(16rem,26rem)_1fr] gap-4 p-5">
-          <nav aria-label="Caught mail" className="min-h-0 overflow-auto">
+        <div className="grid min-h-0 flex-1 grid-cols-1 gap-4 p-5 md:grid-cols-[minmax(16rem,26rem)_1fr]">
+          <nav aria-label="Caught mail" className="max-h-[40vh] min-h-0 overflow-auto md:max-h-none">
             <ul className="flex flex-col gap-2">
               {data.mails.map((m) => (
                 <MailRow key={m.id} mail={m} selected={m.id === selected.id} format={format} />

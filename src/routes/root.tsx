@@ -1,5 +1,6 @@
 import { useEffect } from 'react';
 import { Outlet, useMatches } from 'react-router';
+import { useHydratedMark } from '../lib/use-hydrated';
 
 export interface RouteHandle {
   title?: string;
@@ -36,5 +37,6 @@ export function Root() {
   useEffect(() => {
     document.title = title;
   }, [title]);
+  useHydratedMark();
   return <Outlet />;
 }

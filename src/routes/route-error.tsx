@@ -1,7 +1,9 @@
 import { isRouteErrorResponse, Link, useRouteError } from 'react-router';
+import { useHydratedMark } from '../lib/use-hydrated';
 
 export function RouteError() {
   const error = useRouteError();
+  useHydratedMark();
   const status = isRouteErrorResponse(error) ? error.status : 500;
   const message =
     isRouteErrorResponse(error) && typeof error.data?.message === 'string'

@@ -38,7 +38,7 @@ function SignIn() {
   });
 
   return (
-    <main className="grid min-h-screen place-items-center bg-roast-950 p-6 on-dark">
+    <main className="grid min-h-screen place-items-center bg-roast-950 p-6">
       <form method="post" onSubmit={onSubmit} noValidate className="w-full max-w-sm rounded-2xl bg-steam-50 p-8 text-ink-900 shadow-xl">
         <p className="font-display text-4xl font-semibold tracking-wide">Jugline</p>
         <h1 className="mt-1 text-lg text-ink-600">Sign in to your station</h1>

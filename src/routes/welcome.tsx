@@ -21,7 +21,7 @@ const field = 'mt-1 w-full rounded-lg border border-steam-200 bg-white px-3 py-3
 
 function Card({ children }: { children: ReactNode }) {
   return (
-    <main className="grid min-h-screen place-items-center bg-roast-950 p-6 on-dark">
+    <main className="grid min-h-screen place-items-center bg-roast-950 p-6">
       <div className="w-full max-w-md rounded-2xl bg-steam-50 p-8 text-ink-900 shadow-xl">
         <p className="font-display text-4xl font-semibold tracking-wide">Jugline</p>
         {children}

@@ -37,13 +37,13 @@ export function StaffMenu({ dark = false }: { dark?: boolean }) {
   return (
     <nav aria-label="Screens" className={cn('flex max-w-full flex-wrap items-center gap-x-3 gap-y-2 text-base whitespace-nowrap', dark ? 'text-crema-300' : 'text-ink-600')}>
       {MENU.filter((s) => s.path !== here && can(user.role, s.need)).map((s) => (
-        <Link key={s.path} to={s.path} reloadDocument onClick={(e) => confirmLeave() || e.preventDefault()} className="underline underline-offset-4">
+        <Link key={s.path} to={s.path} reloadDocument onClick={(e) => confirmLeave() || e.preventDefault()} className="whitespace-nowrap underline underline-offset-4">
           {s.label}
         </Link>
       ))}
-      <span className={dark ? 'text-crema-100' : 'text-ink-900'}>{user.name}</span>
-      <SwitchPersonButton className="min-h-11 rounded-lg border border-current px-3 font-semibold" />
-      <button type="button" onClick={onSignOut} className="min-h-11 rounded-lg border border-current px-3 font-semibold">
+      <span className={cn('whitespace-nowrap', dark ? 'text-crema-100' : 'text-ink-900')}>{user.name}</span>
+      <SwitchPersonButton className="min-h-11 rounded-lg border border-current px-3 font-semibold whitespace-nowrap" />
+      <button type="button" onClick={onSignOut} className="min-h-11 rounded-lg border border-current px-3 font-semibold whitespace-nowrap">
         Sign out
       </button>
     </nav>

@@ -78,7 +78,8 @@ function Side({ title, children, testId }: { title: string; children: ReactNode;
   return (
     <section aria-label={title} data-testid={testId}>
       <h2 className="mb-1 text-sm font-semibold tracking-widest text-ink-600 uppercase">{title}</h2>
-      <dl className="grid grid-cols-3 gap-3">{children}</dl>
+      {/* tiles of 8.5rem or more: three abreast where they fit, else they wrap (a phone, a laptop with the sides abreast) */}
+      <dl className="grid grid-cols-[repeat(auto-fit,minmax(8.5rem,1fr))] gap-3">{children}</dl>
     </section>
   );
 }
@@ -87,7 +88,7 @@ export function Totals({ view, money }: { view: CardCheckView; money: Money }) {
   const { provider, jugline } = view;
   const count = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
   return (
-    <div className="grid grid-cols-1 gap-4 xl:grid-cols-[1fr_1fr_auto]">
+    <div className="grid grid-cols-1 gap-4 2xl:grid-cols-[1fr_1fr_auto]">
       <Side title="Card service" testId="provider-totals">
         {provider ? (
           <>
@@ -96,7 +97,7 @@ export function Totals({ view, money }: { view: CardCheckView; money: Money }) {
             <Tile label="Net" value={money(provider.netCents)} hint="charged less refunded" />
           </>
         ) : (
-          <div className="col-span-3 rounded-xl border border-steam-200 bg-white px-4 py-3">
+          <div className="col-span-full rounded-xl border border-steam-200 bg-white px-4 py-3">
             <dt className="text-sm font-semibold tracking-widest text-ink-600 uppercase">Not checked</dt>
             <dd className="text-lg">{view.providerNote}</dd>
           </div>

@@ -7,6 +7,7 @@ import type { MenuItemView, MenuView } from '../../domain/types';
 import { cupSizeLabel } from '../../domain/units';
 import { Button } from '../../components/ui/button';
 import { Segmented } from '../../components/ui/segmented';
+import { useModalFocus } from '../../components/ui/use-modal-focus';
 import { cn } from '../../lib/cn';
 
 interface Props {
@@ -16,8 +17,6 @@ interface Props {
   onAdd(line: OrderLineInput): void;
   onClose(): void;
 }
-
-const FOCUSABLE = 'button, input, textarea, select, a[href], [tabindex]:not([tabindex="-1"])';
 
 export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
   const defaultSize = item.sizes.find((s) => s.isDefault) ?? item.sizes[0];
@@ -35,26 +34,8 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
   );
   const priced = resolveLine(menu, line);
   const panel = useRef<HTMLDivElement>(null);
-
-  // A dialog: its first choice takes focus (however it was opened: a tap, a number key, Enter on
-  // a tile), Tab stays inside it, and focus goes back where it was when it closes.
-  useEffect(() => {
-    const back = document.activeElement as HTMLElement | null;
-    const first = panel.current?.querySelector<HTMLElement>('[data-first-choice] button, [data-first-choice] input') ?? panel.current?.querySelector<HTMLElement>(FOCUSABLE);
-    first?.focus();
-    return () => {
-      if (back && back !== document.body && back.isConnected) back.focus();
-    };
-  }, []);
-  const trapTab = (e: React.KeyboardEvent) => {
-    if (e.key !== 'Tab' || !panel.current) return;
-    const all = [...panel.current.querySelectorAll<HTMLElement>(FOCUSABLE)].filter((el) => !el.hasAttribute('disabled'));
-    if (all.length === 0) return;
-    const at = all.indexOf(document.activeElement as HTMLElement);
-    const next = e.shiftKey ? (at <= 0 ? all.length - 1 : at - 1) : at === all.length - 1 || at < 0 ? 0 : at + 1;
-    e.preventDefault();
-    all[next].focus();
-  };
+  // the focus starts on the chosen size (or milk) and stays in the sheet; back on the tile after
+  useModalFocus(panel, (box) => box.querySelector<HTMLElement>('[role="radio"][aria-checked="true"]'));
 
   // Esc closes the sheet; Enter adds the drink — even right after tapping a choice, which would
   // otherwise press that choice again (only the note field keeps Enter for itself).
@@ -81,8 +62,9 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
   };
 
   return (
-    <div role="dialog" aria-modal="true" aria-label={item.name} className="fixed inset-0 z-20 flex flex-col justify-end bg-ink-900/40" onKeyDown={trapTab}>
-      <button type="button" tabIndex={-1} aria-label="Close" className="flex-1 cursor-default" onClick={onClose} />
+    <div role="dialog" aria-modal="true" aria-label={item.name} className="fixed inset-0 z-20 flex flex-col justify-end bg-ink-900/40">
+      {/* the backdrop: a tap closes; the keyboard has Cancel and Esc */}
+      <button type="button" aria-label="Close" tabIndex={-1} className="flex-1 cursor-default" onClick={onClose} />
       <div ref={panel} className="flex max-h-[92dvh] flex-col rounded-t-2xl bg-steam-50 shadow-2xl">
         <div className="overflow-y-auto px-6 pt-5 pb-3">
         <div className="flex items-baseline gap-4">

@@ -1,10 +1,11 @@
 // Today's orders for the cashier: search, status, reprint; a lead can void an unpaid order or
 // refund a paid one, with a reason, and the bar sees it at once.
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { formatCents } from '../../domain/money';
 import type { OrderView } from '../../domain/types';
 import { Button } from '../../components/ui/button';
+import { useModalFocus } from '../../components/ui/use-modal-focus';
 import { useApi } from '../../lib/api-context';
 import { ApiError, http } from '../../lib/http';
 import { orderKeys, ordersQuery } from '../orders/queries';
@@ -33,10 +34,19 @@ export function OrdersDrawer({ canRefund, currency, onClose }: { canRefund: bool
     },
   });
   const money = (c: number) => formatCents(c, currency);
+  const panel = useRef<HTMLDivElement>(null);
+  useModalFocus(panel, (box) => box.querySelector<HTMLElement>('input'));
+  const latestClose = useRef(onClose);
+  latestClose.current = onClose;
+  useEffect(() => {
+    const onKey = (e: KeyboardEvent) => e.key === 'Escape' && latestClose.current();
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, []);
 
   return (
     <div role="dialog" aria-modal="true" aria-label="Today’s orders" className="fixed inset-0 z-30 flex justify-end bg-ink-900/40">
-      <div className="flex h-full w-[40rem] max-w-full flex-col bg-steam-50 p-5 shadow-2xl">
+      <div ref={panel} className="flex h-full w-[40rem] max-w-full flex-col bg-steam-50 p-5 shadow-2xl">
         <div className="flex items-center gap-3">
           <h2 className="text-2xl font-semibold">Today’s orders</h2>
           <Button tone="quiet" className="ml-auto" onClick={onClose}>

@@ -61,7 +61,9 @@ export function CategoryBar({ menu, selected, showRetired, command, onSelect, no
 
   return (
     <div className="flex flex-col gap-3">
-      <div role="tablist" aria-label="Menu categories" className="flex flex-wrap gap-2 border-b border-steam-200">
+      {/* a tablist holds only tabs (axe aria-required-children): the new-category button sits beside it */}
+      <div className="flex flex-wrap gap-2 border-b border-steam-200">
+        <div role="tablist" aria-label="Menu categories" className="flex flex-wrap gap-2">
         {shown.map((c) => (
           <button
             key={c.id}
@@ -79,6 +81,7 @@ export function CategoryBar({ menu, selected, showRetired, command, onSelect, no
             {c.retired && <span className="ml-1 text-base font-medium">(retired)</span>}
           </button>
         ))}
+        </div>
         <Button tone="quiet" className="mb-1 ml-2 self-center" onClick={() => setEditing('new')}>
           + New category
         </Button>

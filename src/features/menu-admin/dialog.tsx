@@ -1,7 +1,9 @@
 // A modal sheet for the editor's forms: from the right on a wide screen, full width on a tablet.
-// Esc or the backdrop closes it; the page behind stays put.
+// Esc or the backdrop closes it; the page behind stays put. The focus stays inside while it is
+// open and goes back to the opener when it closes (useModalFocus).
 import { useEffect, useId, useRef, type ReactNode } from 'react';
 import { Button } from '../../components/ui/button';
+import { useModalFocus } from '../../components/ui/use-modal-focus';
 import { cn } from '../../lib/cn';
 
 /**
@@ -36,10 +38,8 @@ export function Sheet({ title, onClose, children, footer, wide }: Props) {
   const titleId = useId();
   const panel = useRef<HTMLDivElement>(null);
   useEscape(onClose);
-  useEffect(() => {
-    // the first field takes the focus once, so typing can start at once
-    (panel.current?.querySelector<HTMLElement>('input, select, textarea') ?? panel.current?.querySelector<HTMLElement>('button'))?.focus();
-  }, []);
+  // the first field takes the focus once, so typing can start at once
+  useModalFocus(panel, (box) => box.querySelector<HTMLElement>('input, select, textarea'));
   return (
     <div className="fixed inset-0 z-30 flex justify-end bg-ink-900/40">
       <button type="button" aria-label="Close" tabIndex={-1} className="flex-1 cursor-default" onClick={onClose} />
@@ -82,9 +82,7 @@ export function ConfirmRetire({
   const titleId = useId();
   const box = useRef<HTMLDivElement>(null);
   useEscape(onCancel, true);
-  useEffect(() => {
-    box.current?.querySelector<HTMLElement>('[data-keep]')?.focus(); // the safe choice has the focus
-  }, []);
+  useModalFocus(box, (el) => el.querySelector<HTMLElement>('[data-keep]')); // the safe choice has the focus
   return (
     <div className="fixed inset-0 z-40 grid place-items-center bg-ink-900/50 p-4">
       <div ref={box} role="alertdialog" aria-modal="true" aria-labelledby={titleId} className="w-full max-w-xl rounded-2xl border-2 border-ink-900 bg-white p-6 shadow-2xl">

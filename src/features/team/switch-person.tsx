@@ -4,6 +4,7 @@ import { useQuery } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
 import type { SwitchPerson } from '../../domain/team-schemas';
 import { Button } from '../../components/ui/button';
+import { useModalFocus } from '../../components/ui/use-modal-focus';
 import type { PublicUser } from '../../lib/api';
 import { useApi } from '../../lib/api-context';
 import { ApiError, http, leavePage } from '../../lib/http';
@@ -28,6 +29,9 @@ export function SwitchDialog({ onClose }: { onClose(): void }) {
     if (dialog && !dialog.open) dialog.showModal();
     return () => dialog?.close();
   }, []);
+  // a modal <dialog> lets Tab out to the browser's own controls; this keeps it inside and hands
+  // the focus back to "Switch person" on close
+  useModalFocus(ref);
 
   const choose = (p: SwitchPerson | null) => {
     setWho(p);

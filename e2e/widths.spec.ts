@@ -1,0 +1,122 @@
+// Every screen at 390, 768, 1024, 1366 and 1920 px wide, on a café in service: nothing scrolls
+// sideways, no control sits past the right edge, no text spills out of its box. One test per
+// screen (the widths inside), so a failure names the screen and lists every width that fails.
+// Screenshots: test-results/shots/widths/<screen>-<width>.png.
+//
+// Owners: sign-in, welcome, Outbox, receipt, cup labels, card check, the staff menu and the
+// not-found page are fixed here. A failure on Bar, Counter, Pickup, Pulse, Menu, Dial-in, Beans,
+// Reports, Team or Settings belongs to that screen's engineer and is left failing on purpose
+// (listed in the branch's report), not skipped.
+import type { Page } from '@playwright/test';
+import { errorsOf, expect, test } from './fixtures';
+import { open, SCREEN_NAMES, screenSuite } from './screens';
+
+/** A phone, a tablet upright and on its side, a small laptop, a desktop. */
+const VIEWPORTS = [
+  { width: 390, height: 844 },
+  { width: 768, height: 1024 },
+  { width: 1024, height: 768 },
+  { width: 1366, height: 768 },
+  { width: 1920, height: 1080 },
+];
+
+/** What is wrong with the layout at the current width, one line per problem. */
+function layoutProblems(page: Page): Promise<string[]> {
+  return page.evaluate(() => {
+    const vw = window.innerWidth;
+    const out: string[] = [];
+    const doc = document.scrollingElement ?? document.documentElement;
+    if (doc.scrollWidth > vw) out.push(`the page scrolls sideways: ${doc.scrollWidth} px wide in ${vw}`);
+
+    const name = (el: Element) => {
+      const text = (el.getAttribute('aria-label') ?? (el as HTMLElement).innerText ?? el.getAttribute('placeholder') ?? '').replace(/\s+/g, ' ').trim();
+      const test = el.closest('[data-testid]')?.getAttribute('data-testid');
+      return `${el.tagName.toLowerCase()}${test ? ` in [${test}]` : ''} "${text.slice(0, 40)}"`;
+    };
+    const shown = (el: Element) => {
+      const r = el.getBoundingClientRect();
+      const css = getComputedStyle(el);
+      return r.width > 2 && r.height > 2 && css.visibility !== 'hidden' && !el.closest('[aria-hidden="true"], .sr-only, [inert]');
+    };
+    /** Inside a box that scrolls sideways on its own (a wide table): reachable there, if the box itself fits. */
+    const inScroller = (el: Element) => {
+      for (let p = el.parentElement; p && p !== document.body; p = p.parentElement) {
+        const o = getComputedStyle(p).overflowX;
+        if (o === 'auto' || o === 'scroll') {
+          const r = p.getBoundingClientRect();
+          return r.left >= -1 && r.right <= vw + 1;
+        }
+      }
+      return false;
+    };
+
+    // controls: wholly inside the viewport, left to right
+    for (const el of document.querySelectorAll('button, input:not([type="hidden"]), select, textarea, a[href], [role="button"], [role="tab"], [role="radio"]')) {
+      if (!shown(el) || inScroller(el)) continue;
+      const r = el.getBoundingClientRect();
+      if (r.left < -1 || r.right > vw + 1) out.push(`${name(el)} spans ${Math.round(r.left)}–${Math.round(r.right)} px, outside 0–${vw}`);
+    }
+
+    // text: no element holding text spills past its own box or off the right edge
+    const walker = document.createTreeWalker(document.body, NodeFilter.SHOW_TEXT);
+    const holders = new Set<HTMLElement>();
+    for (let n = walker.nextNode(); n; n = walker.nextNode()) {
+      if (n.textContent?.trim() && n.parentElement) holders.add(n.parentElement);
+    }
+    for (const el of holders) {
+      if (!shown(el) || el.closest('svg, script, style, noscript, option')) continue;
+      const css = getComputedStyle(el);
+      const r = el.getBoundingClientRect();
+      if (r.right > vw + 1 && !inScroller(el)) {
+        out.push(`${name(el)} runs to ${Math.round(r.right)} px, past the ${vw} px edge`);
+        continue;
+      }
+      // inline runs have no box of their own; a cut with an ellipsis counts unless a title holds the whole
+      if (css.display === 'inline' || el.clientWidth === 0 || (css.textOverflow === 'ellipsis' && el.title)) continue;
+      if (el.scrollWidth > el.clientWidth + 1 && !['auto', 'scroll'].includes(css.overflowX)) {
+        out.push(`${name(el)} text is ${el.scrollWidth} px wide in a ${el.clientWidth} px box${css.overflowX === 'visible' ? ' (spills over)' : ' (clipped)'}`);
+      }
+    }
+    return [...new Set(out)].slice(0, 12);
+  });
+}
+
+/**
+ * Screens another engineer lays out. A failure there is left failing ON PURPOSE for that owner to
+ * fix (never skipped); the test carries an "owner" annotation so the report says whose it is.
+ */
+const OTHER_OWNERS: Record<string, string> = {
+  bar: 'bar engineer',
+  counter: 'counter engineer',
+  pickup: 'waits engineer',
+  pulse: 'waits engineer',
+  menu: 'office engineer',
+  'dial-in': 'office engineer',
+  beans: 'office engineer',
+  reports: 'office engineer',
+  team: 'office engineer',
+  settings: 'office engineer',
+};
+
+const suite = screenSuite();
+
+for (const name of SCREEN_NAMES) {
+  test(`widths: ${name}`, async () => {
+    test.slow(); // five loads and five full-page screenshots in one test
+    if (OTHER_OWNERS[name]) test.info().annotations.push({ type: 'owner', description: `layout of ${name}: ${OTHER_OWNERS[name]}` });
+    const screen = suite.screen(name);
+    const page = await suite.contexts.page(screen.as);
+    const problems: string[] = [];
+    for (const viewport of VIEWPORTS) {
+      // loaded at each width: a screen may lay itself out from the width it starts at
+      await page.setViewportSize(viewport);
+      await open(page, screen.path);
+      await page.evaluate(() => document.fonts.ready.then(() => undefined));
+      await page.screenshot({ path: `test-results/shots/widths/${name}-${viewport.width}.png`, fullPage: true });
+      for (const p of await layoutProblems(page)) problems.push(`${viewport.width} px: ${p}`);
+    }
+    expect(problems, `${name} at some width`).toEqual([]);
+    expect(errorsOf(page).filter((e) => !/404|Not Found/.test(e))).toEqual([]);
+    await page.close();
+  });
+}
