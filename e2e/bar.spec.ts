@@ -2,6 +2,7 @@
 // bump, Pickup, a rush, and a screen that rides out a server restart.
 import { request as apiRequest, type APIRequestContext, type Page } from '@playwright/test';
 import { DEMO_PASSWORD, errorsOf, expect, pageAs, signIn, test } from './fixtures';
+import { shot } from './shots';
 import { expectedWhileDown, OwnServer } from './own-server';
 
 async function cashierApi(baseURL: string): Promise<APIRequestContext> {
@@ -95,7 +96,7 @@ test('two bar screens: jug plan, keyboard bump, allergy read, Pickup, rush', asy
   // a lane longer than the screen says how many cards are out of sight, in words
   const whole = bar1.getByTestId('lane').filter({ has: bar1.getByRole('heading', { name: 'Whole' }) });
   await expect(whole.getByTestId('more-below')).toHaveText(/^↓ [1-9]\d* more below$/);
-  await bar1.screenshot({ path: 'docs/screenshots/bar-rush.png' });
+  await bar1.screenshot(shot('bar-rush'));
 
   await api.dispose();
   for (const page of [bar1, bar2, pickup, counter]) expect(errorsOf(page)).toEqual([]);
