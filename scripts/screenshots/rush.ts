@@ -68,7 +68,7 @@ export async function playRush(opts: { clock: SceneClock; staff: Staff; startMs:
   for (let t = at(2); t < endMs; ) {
     arrivals.push(t);
     // quiet until 07:20, busy to 07:50, then the commuter wave that builds the queue on screen
-    const meanMs = t < at(50) ? 140_000 : t < at(80) ? 50_000 : 23_000;
+    const meanMs = t < at(50) ? 140_000 : t < at(80) ? 50_000 : 27_000;
     t += rnd.exponential(meanMs) + 5_000;
   }
 
@@ -81,7 +81,10 @@ export async function playRush(opts: { clock: SceneClock; staff: Staff; startMs:
   let third = false;
 
   const placeOrder = async (extra: Record<string, unknown> = {}, lines?: unknown[]) => {
-    const name = `${rnd.pick(FIRST)} ${rnd.pick(LAST)}`;
+    // no first name twice among the last twenty orders, so Pickup reads like a real morning
+    const recent = new Set(orders.slice(-20).map((o) => o.name.split(' ')[0]));
+    const first = rnd.pick(FIRST.filter((f) => !recent.has(f)));
+    const name = `${first} ${rnd.pick(LAST)}`;
     const count = rnd.weighted([[1, 70], [2, 24], [3, 6]] as const);
     const items =
       lines ??
@@ -97,7 +100,7 @@ export async function playRush(opts: { clock: SceneClock; staff: Staff; startMs:
         };
       });
     if (!lines && rnd.chance(0.3)) items.push({ menuItemId: item(rnd.weighted(FOOD)).id, sizeId: undefined, milkId: undefined, modifierIds: [] });
-    const payment = rnd.chance(0.65) ? { method: 'card', paymentMethod: 'pm_card_visa' } : { method: 'cash', tenderedCents: 2_000 };
+    const payment = rnd.chance(0.65) ? { method: 'card', paymentMethod: 'pm_card_visa' } : { method: 'cash', tenderedCents: 5_000 };
     const body = { clientOrderId: crypto.randomUUID(), customerName: name, service: rnd.chance(0.7) ? 'takeaway' : 'dine_in', items, payment, ...extra };
     const { order } = await json(staff.cashier.post('/api/orders', { data: body }));
     orders.push({ id: order.id, number: order.number, name: body.customerName });
@@ -114,7 +117,7 @@ export async function playRush(opts: { clock: SceneClock; staff: Staff; startMs:
     await json(staff.baristas[baristaIndex].api.post('/api/drinks/bump', { data: { drinkIds: job.drinks.map((d) => d.id) } }));
     for (const orderId of new Set(job.drinks.map((d) => d.orderId))) {
       if (!queue.some((d) => d.orderId === orderId) && ![...busyUntil.values()].some((j) => j.drinks.some((d) => d.orderId === orderId))) {
-        collections.push({ atMs: clock.nowMs() + rnd.between(25_000, 140_000), orderId });
+        collections.push({ atMs: clock.nowMs() + rnd.between(45_000, 260_000), orderId });
       }
     }
   };
