@@ -10,6 +10,8 @@ export default defineConfig({
   forbidOnly: !!process.env.CI,
   retries: 0,
   reporter: [['list']],
+  // fails the run if it changed the git tree (screenshots go to test-results/shots, see e2e/shots.ts)
+  globalSetup: './e2e/tree-check.ts',
   use: {
     baseURL: `http://127.0.0.1:${PORT}`,
     launchOptions: {

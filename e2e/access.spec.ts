@@ -1,11 +1,12 @@
 // Screens and sign-in: where a signed-out browser goes, what a wrong role sees, and the
 // server-rendered Bar HTML without any JavaScript.
 import { DEMO_PASSWORD, errorsOf, expect, pageAs, signIn, test } from './fixtures';
+import { shot } from './shots';
 
 test('a signed-out browser on a screen is sent to sign-in and back', async ({ page }) => {
   await page.goto('/bar');
   await expect(page).toHaveURL(/\/signin\?next=%2Fbar$/);
-  await page.screenshot({ path: 'docs/screenshots/signin.png' });
+  await page.screenshot(shot('signin'));
   await signIn(page, 'barista', '/bar');
   await expect(page).toHaveURL(/\/bar$/);
   await expect(page.getByRole('heading', { name: 'Bar', level: 1 })).toBeVisible();

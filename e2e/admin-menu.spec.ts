@@ -1,14 +1,11 @@
 // The owner's menu editor, end to end: a seasonal drink added with its recipe shows on an open
 // Counter without a reload, a cashier sells it with oat milk, and the Bar pours the right jug.
 // On a server of its own, so the new category and drink never reach the other specs' Counter.
-import path from 'node:path';
-import os from 'node:os';
 import type { Browser, Page } from '@playwright/test';
 import { errorsOf, expect, pageAs, test, type Login } from './fixtures';
+import { shot } from './shots';
 import { OwnServer } from './own-server';
 
-// extra screenshots to look at (not in the README): under the system's temp folder
-const SHOTS = path.join(os.tmpdir(), 'jugline-shots', 'admin-menu');
 let own: OwnServer;
 
 test.beforeAll(async () => {
@@ -38,7 +35,7 @@ test('the owner adds a seasonal drink with its recipe; the open Counter sells it
   const owner = await pageOn(browser, 'owner', '/admin/menu', { width: 1280, height: 800 });
   await expect(owner.getByRole('tab', { name: 'Espresso' })).toHaveAttribute('aria-selected', 'true');
   await expect(owner.getByTestId('menu-item-row').filter({ hasText: 'Latte' }).first()).toContainText('Small · $4.80');
-  await owner.screenshot({ path: `${SHOTS}/editor-items.png` });
+  await owner.screenshot(shot('admin-menu-editor-items'));
 
   // a category for the season
   await owner.getByRole('button', { name: '+ New category' }).click();
@@ -53,7 +50,7 @@ test('the owner adds a seasonal drink with its recipe; the open Counter sells it
   await sheet.getByLabel(/Takes milk/).check();
   await sheet.getByLabel('Comes with').selectOption({ label: 'Whole (WH)' });
   await sheet.getByRole('radio', { name: /silky/ }).click();
-  await sheet.screenshot({ path: `${SHOTS}/editor-item-form-top.png` });
+  await sheet.screenshot(shot('admin-menu-editor-item-form-top'));
   await fillSize(sheet, 0, { 'Size name': '12 oz', 'Cup volume': '355', Cup: '12 oz hot cup', Price: '5.60', Shots: '2', Dose: '4', 'Target yield': '36', Milk: '240' });
   await sheet.getByRole('button', { name: '+ Add a size' }).click();
   // the new size starts with the espresso of the size before it; cup, price and milk are its own
@@ -69,7 +66,7 @@ test('the owner adds a seasonal drink with its recipe; the open Counter sells it
   // 18 g in, 36 g out: a 1:2 ratio (common practice for espresso)
   await expect(sheet.getByTestId('size-row').first()).toContainText('Brew ratio 1:2.0');
   await expect(sheet.getByTestId('size-row').first()).toContainText('= 12.0 US fl oz'); // 355 ml ÷ 29.5735 (NIST HB 44)
-  await sheet.screenshot({ path: `${SHOTS}/editor-item-form.png` });
+  await sheet.screenshot(shot('admin-menu-editor-item-form'));
   await sheet.getByRole('button', { name: 'Add item' }).click();
   await expect(sheet).toBeHidden();
   const row = owner.getByTestId('menu-item-row').filter({ hasText: 'Ember Spice Latte' });
@@ -79,7 +76,7 @@ test('the owner adds a seasonal drink with its recipe; the open Counter sells it
   await expect(row).toContainText('240 ml');
   await expect(row).toContainText('320 ml');
   await expect(row.locator('[data-status]')).toHaveText(/On/);
-  await owner.screenshot({ path: `${SHOTS}/editor-seasonal.png` });
+  await owner.screenshot(shot('admin-menu-editor-seasonal'));
 
   // the open Counter has the new tab and drink, with no reload
   await counter.getByRole('tab', { name: 'Seasonal' }).click();
@@ -108,7 +105,7 @@ test('the owner adds a seasonal drink with its recipe; the open Counter sells it
   await expect(oat.getByTestId('jug-plan')).toContainText('1 drink · medium stretch (silky)');
   // the recipe's dose reaches the shot plan: 2 shots, 18 g
   await expect(oat.getByTestId('shot-plan')).toContainText('2 shots · 18 g');
-  await bar.screenshot({ path: `${SHOTS}/bar-ember.png` });
+  await bar.screenshot(shot('admin-menu-bar-ember'));
 
   // 86 from the editor, in words; the Counter greys the tile at once; then back on
   await row.getByRole('button', { name: '86 Ember Spice Latte' }).click();
@@ -124,7 +121,7 @@ test('the owner adds a seasonal drink with its recipe; the open Counter sells it
   await edit.getByRole('button', { name: 'Retire item…' }).click();
   const confirm = owner.getByRole('alertdialog', { name: 'Retire Ember Spice Latte?' });
   await expect(confirm).toContainText('Past orders keep it as it was sold');
-  await confirm.screenshot({ path: `${SHOTS}/editor-confirm-retire.png` });
+  await confirm.screenshot(shot('admin-menu-editor-confirm-retire'));
   await confirm.getByRole('button', { name: 'Keep it' }).click();
   await expect(confirm).toBeHidden();
   await edit.getByRole('button', { name: 'Cancel' }).click();
@@ -133,10 +130,10 @@ test('the owner adds a seasonal drink with its recipe; the open Counter sells it
   // milks and extras are editable too
   await owner.getByRole('tab', { name: 'Milks' }).click();
   await expect(owner.getByTestId('milk-row').filter({ hasText: 'Oat' })).toContainText('OA');
-  await owner.screenshot({ path: `${SHOTS}/editor-milks.png` });
+  await owner.screenshot(shot('admin-menu-editor-milks'));
   await owner.getByRole('tab', { name: 'Extras' }).click();
   await expect(owner.getByRole('article', { name: 'Group Syrup' })).toContainText('Vanilla syrup');
-  await owner.screenshot({ path: `${SHOTS}/editor-extras.png`, fullPage: true });
+  await owner.screenshot(shot('admin-menu-editor-extras', { fullPage: true }));
 
   for (const page of [counter, bar, owner]) expect(errorsOf(page)).toEqual([]);
 });
@@ -146,13 +143,13 @@ test('the editor fits a 1024×768 tablet', async ({ browser }) => {
   await expect(owner.getByTestId('menu-item-row').first()).toBeVisible();
   // nothing runs off the side: no sideways scrolling of the page
   expect(await owner.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(1024);
-  await owner.screenshot({ path: `${SHOTS}/editor-tablet.png` });
+  await owner.screenshot(shot('admin-menu-editor-tablet'));
   await owner.getByRole('button', { name: 'Edit Latte' }).click();
   const sheet = owner.getByRole('dialog', { name: 'Edit Latte' });
   await expect(sheet.getByTestId('size-row')).toHaveCount(3);
   expect(await owner.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(1024);
-  await owner.screenshot({ path: `${SHOTS}/editor-tablet-form.png` });
+  await owner.screenshot(shot('admin-menu-editor-tablet-form'));
   await sheet.getByTestId('size-row').nth(1).scrollIntoViewIfNeeded();
-  await owner.screenshot({ path: `${SHOTS}/editor-tablet-sizes.png` });
+  await owner.screenshot(shot('admin-menu-editor-tablet-sizes'));
   expect(errorsOf(owner)).toEqual([]);
 });

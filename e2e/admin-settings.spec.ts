@@ -1,19 +1,13 @@
 // The owner's settings screen: units both ways, the wait target, a pitcher and the allergen list —
 // with a Bar and a Counter open beside it that follow each change without a reload.
-import path from 'node:path';
-import os from 'node:os';
-import { mkdirSync } from 'node:fs';
 import { request as apiRequest, type Page } from '@playwright/test';
 import { DEMO_PASSWORD, errorsOf, expect, pageAs, test } from './fixtures';
-
-// extra screenshots to look at (not in the README): under the system's temp folder
-const SHOTS = path.join(os.tmpdir(), 'jugline-shots', 'admin-settings');
+import { shot } from './shots';
 
 const live = (page: Page) => expect(page.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
 const section = (page: Page, name: string) => page.getByRole('form', { name, exact: true });
 
 test('owner changes units, wait target, a pitcher and the allergen list; an open Bar follows without reload', async ({ browser, baseURL }) => {
-  mkdirSync(SHOTS, { recursive: true });
   const bar = await pageAs(browser, 'barista', '/bar');
   const counter = await pageAs(browser, 'cashier', '/counter', { width: 1280, height: 900 });
   const owner = await pageAs(browser, 'owner', '/admin/settings', { width: 1440, height: 1000 });
@@ -52,7 +46,7 @@ test('owner changes units, wait target, a pitcher and the allergen list; an open
   await expect(units.getByTestId('cup-size-preview')).not.toContainText('oz');
   // the note gives the published burn times in both units (docs/check-values.md, "Temperatures and burns")
   await expect(units.getByTestId('steam-note')).toContainText('about 3 seconds at 60 °C (140 °F)');
-  await owner.screenshot({ path: `${SHOTS}/admin-settings.png`, fullPage: true });
+  await owner.screenshot(shot('admin-settings', { fullPage: true }));
   await units.getByRole('button', { name: 'Save' }).click();
   await expect(units.getByRole('status')).toContainText('Saved');
   await expect(bar.getByTestId('steam-caution')).toContainText('130 °C');
@@ -121,7 +115,7 @@ test('owner changes units, wait target, a pitcher and the allergen list; an open
   const allergens = section(owner, 'Allergens');
   await allergens.getByRole('radio', { name: /EU list/ }).click();
   await expect(allergens.getByTestId('switch-row').filter({ hasText: 'Oat (milk)' })).toContainText('cereals containing gluten');
-  await owner.screenshot({ path: `${SHOTS}/admin-settings-allergen-switch.png`, fullPage: true });
+  await owner.screenshot(shot('admin-settings-allergen-switch', { fullPage: true }));
   await allergens.getByRole('button', { name: 'Switch to the EU list' }).click();
   await expect(allergens.getByRole('status')).toContainText('the EU list');
   await allergens.getByRole('radio', { name: /US list/ }).click();
@@ -130,8 +124,8 @@ test('owner changes units, wait target, a pitcher and the allergen list; an open
 
   // the Bar never reloaded
   expect(await bar.evaluate(() => (window as unknown as { settingsMark?: number }).settingsMark)).toBe(1);
-  await bar.screenshot({ path: `${SHOTS}/bar-after-settings.png` });
+  await bar.screenshot(shot('bar-after-settings'));
   await owner.setViewportSize({ width: 1024, height: 768 });
-  await owner.screenshot({ path: `${SHOTS}/admin-settings-1024.png`, fullPage: true });
+  await owner.screenshot(shot('admin-settings-1024', { fullPage: true }));
   for (const p of [bar, counter, owner]) expect(errorsOf(p)).toEqual([]);
 });

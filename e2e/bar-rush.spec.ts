@@ -4,13 +4,12 @@
 // oldest first, bump keys sit only on cards in sight and keep their number, each card says Here or
 // To go, its jug and its build in large type, an allergy changes the whole card. And the grinder
 // line follows a new good dial-in shot live. On a server of its own: it changes the menu and units.
-import { mkdirSync } from 'node:fs';
 import type { Browser, Page } from '@playwright/test';
 import { apiAs, order, type Line } from './bar-orders';
 import { errorsOf, expect, pageAs, signIn, test, watchForErrors, type Login } from './fixtures';
 import { OwnServer } from './own-server';
+import { shot } from './shots';
 
-const SHOTS = 'test-results/shots';
 let own: OwnServer;
 test.beforeAll(async () => {
   own = await OwnServer.create('bar-rush');
@@ -59,7 +58,6 @@ const lanesOffScreen = (page: Page) =>
 
 test('a rush with seven milks: every lane in sight, oldest first, keys that stay, Here / To go, fl oz', async ({ browser }) => {
   test.setTimeout(240_000);
-  mkdirSync(SHOTS, { recursive: true });
   const owner = await apiAs(own.baseURL, 'owner');
   const milk = await owner.post('/api/menu-admin/milks', { data: { name: 'Lactose-free', code: 'LF', upchargeCents: 0, ingredients: ["cow's milk"] } });
   expect(milk.status(), await milk.text()).toBe(201);
@@ -174,7 +172,7 @@ test('a rush with seven milks: every lane in sight, oldest first, keys that stay
   await expect(eli.getByTestId('allergy')).toContainText('PEANUTS');
   await expect(eli).toContainText(/check the recipe and ingredients/i);
   await expect(eli).toContainText(/local allergen rules/i);
-  await bar.screenshot({ path: `${SHOTS}/bar-rush-1920.png` });
+  await bar.screenshot(shot(`bar-rush-1920`));
 
   // 1. Narrower screens: a lane off screen is named in the signpost with its tickets and oldest age.
   for (const width of [1366, 1024]) {
@@ -189,7 +187,7 @@ test('a rush with seven milks: every lane in sight, oldest first, keys that stay
     expect(off.length).toBeGreaterThan(0);
     for (const name of off) await expect(sign).toContainText(name);
     expect((await keyedCards(bar)).every((k) => k.inSight)).toBe(true);
-    await bar.screenshot({ path: `${SHOTS}/bar-rush-${width}.png` });
+    await bar.screenshot(shot(`bar-rush-${width}`));
   }
 
   // 1. Phone width: nothing scrolls sideways; the lanes stack.
@@ -202,9 +200,9 @@ test('a rush with seven milks: every lane in sight, oldest first, keys that stay
     expect(b.right).toBeLessThanOrEqual(390);
   }
   for (let i = 1; i < boxes.length; i++) expect(boxes[i].top).toBeGreaterThan(boxes[i - 1].top);
-  await bar.screenshot({ path: `${SHOTS}/bar-rush-390.png` });
+  await bar.screenshot(shot(`bar-rush-390`));
   await bar.evaluate(() => document.querySelector('[data-lane="Soy"]')!.scrollIntoView());
-  await bar.screenshot({ path: `${SHOTS}/bar-rush-390-allergy.png` });
+  await bar.screenshot(shot(`bar-rush-390-allergy`));
 
   // 8. The cup labels say it too, in words and a shape.
   const labels = await (await browser.newContext({ baseURL: own.baseURL, viewport: { width: 1024, height: 768 } })).newPage();
@@ -216,7 +214,7 @@ test('a rush with seven milks: every lane in sight, oldest first, keys that stay
     await expect(labels.getByTestId('cup-label').first().getByTestId('service')).toHaveText(words);
     await expect(labels.getByTestId('cup-label').first().getByTestId('service').locator('svg')).toHaveCount(1);
   }
-  await labels.screenshot({ path: `${SHOTS}/cup-labels-here.png` });
+  await labels.screenshot(shot(`cup-labels-here`));
 
   for (const api of [owner, cashier, lead]) await api.dispose();
   for (const page of [bar, labels]) expect(errorsOf(page)).toEqual([]);
@@ -230,9 +228,9 @@ test('the grinder line on the Bar follows a new good dial-in shot, live', async 
   const barista = await apiAs(own.baseURL, 'barista2');
   const { espressoLotId } = await (await barista.get('/api/dial-in')).json();
   // 18 g → 36 g in 28 s: 1:2.0 inside 25–30 s, a good shot (the café's window)
-  const shot = await barista.post('/api/dial-in/shots', { data: { lotId: espressoLotId, grind: '2.2', doseG: 18, yieldG: 36, timeS: 28 } });
-  expect(shot.status(), await shot.text()).toBe(201);
-  expect((await shot.json()).advice.good).toBe(true);
+  const pulled = await barista.post('/api/dial-in/shots', { data: { lotId: espressoLotId, grind: '2.2', doseG: 18, yieldG: 36, timeS: 28 } });
+  expect(pulled.status(), await pulled.text()).toBe(201);
+  expect((await pulled.json()).advice.good).toBe(true);
   await expect(strip).toContainText('grind 2.2 · 18.0 g → 36.0 g · 28 s');
   await barista.dispose();
   expect(errorsOf(bar)).toEqual([]);

@@ -3,6 +3,7 @@
 import { request as apiRequest, type Page } from '@playwright/test';
 import { cashierApi, order } from './bar-orders';
 import { DEMO_PASSWORD, errorsOf, expect, pageAs, signIn, test } from './fixtures';
+import { shot } from './shots';
 import { expectedWhileDown, OwnServer } from './own-server';
 
 const cardsOf = (page: Page, name: string) => page.getByTestId('drink-card').filter({ hasText: name });
@@ -75,7 +76,7 @@ test('two bar screens: jug plan, keyboard bump, allergy read, Pickup, rush', asy
   // a lane longer than the screen says how many cards are out of sight, in words
   const whole = bar1.getByTestId('lane').filter({ has: bar1.getByRole('heading', { name: 'Whole' }) });
   await expect(whole.getByTestId('more-below')).toHaveText(/^↓ [1-9]\d* more below$/);
-  await bar1.screenshot({ path: 'docs/screenshots/bar-rush.png' });
+  await bar1.screenshot(shot('bar-rush'));
 
   await api.dispose();
   for (const page of [bar1, bar2, pickup, counter]) expect(errorsOf(page)).toEqual([]);

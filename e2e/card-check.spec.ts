@@ -9,8 +9,8 @@ import { request as apiRequest, type APIRequestContext } from '@playwright/test'
 import { loadConfig } from '../server/config';
 import { startServer, type RunningServer } from '../server/server';
 import { DEMO_PASSWORD, errorsOf, expect, signIn, test, watchForErrors } from './fixtures';
+import { shot } from './shots';
 
-const SHOTS = path.join(os.tmpdir(), 'jugline-shots', 'card-check');
 const VISA = 'pm_card_visa'; // the provider's documented test cards (check-values.md, "Payments")
 const DECLINED = 'pm_card_chargeDeclined';
 
@@ -91,21 +91,21 @@ test('a lead finds a charge Jugline never heard about, settles it, and the day i
   await expect(mismatch).toContainText('Mismatch');
   await expect(page.locator('[data-testid="refund-line"]').filter({ hasText: 'Automatic' })).toContainText(/voided/i);
   await expect(page.locator('[data-testid="refund-line"]').filter({ hasText: 'Theo Brand' })).toContainText('Spilled at the counter');
-  await page.screenshot({ path: path.join(SHOTS, 'card-check-mismatch.png'), fullPage: true });
+  await page.screenshot(shot('card-check-mismatch', { fullPage: true }));
 
   await page.getByRole('button', { name: 'Settle with the card service' }).click();
   await expect(verdict).toContainText('In step');
   await expect(page.locator('[data-testid="charge-line"][data-match="mismatch"]')).toHaveCount(0);
   await expect(page.getByTestId('difference')).toContainText('$0.00');
   await expect(page.getByRole('button', { name: 'Settle with the card service' })).toBeDisabled();
-  await page.screenshot({ path: path.join(SHOTS, 'card-check-settled.png'), fullPage: true });
+  await page.screenshot(shot('card-check-settled', { fullPage: true }));
 
   // A reload is rendered on the server with the same numbers; the held webhook changes nothing.
   fake.faults.holdWebhooks(false);
   await fake.webhooksSettled();
   await page.reload();
   await expect(verdict).toContainText('In step');
-  await page.screenshot({ path: 'docs/screenshots/card-check.png' });
+  await page.screenshot(shot('card-check'));
   expect(errorsOf(page)).toEqual([]);
   await context.close();
 });

@@ -2,6 +2,7 @@
 // counter, receipt mailed to the Outbox), a card that is declined (nothing on the bar), and cash
 // with change. Card numbers are the provider's documented test cards (see check-values.md).
 import { errorsOf, expect, pageAs, test } from './fixtures';
+import { shot } from './shots';
 
 test('card, decline and cash at the Counter', async ({ browser }) => {
   const counter = await pageAs(browser, 'cashier', '/counter', { width: 1280, height: 900 });
@@ -21,7 +22,7 @@ test('card, decline and cash at the Counter', async ({ browser }) => {
   await counter.getByLabel('E-mail receipt (optional)').fill('nadia@example.test');
   await counter.getByRole('radio', { name: 'Card' }).click();
   await counter.getByRole('radio', { name: /4242/ }).click();
-  await counter.screenshot({ path: 'docs/screenshots/counter-card.png' });
+  await counter.screenshot(shot('counter-card'));
   await counter.getByRole('button', { name: /^Charge card/ }).click();
   const sent = counter.getByRole('status').filter({ hasText: /Sent #\d+ for Nadia Ferris/ });
   await expect(sent).toContainText('card paid');
@@ -49,7 +50,7 @@ test('card, decline and cash at the Counter', async ({ browser }) => {
   await counter.getByRole('radio', { name: /0002/ }).click();
   await counter.getByRole('button', { name: /^Charge card/ }).click();
   await expect(counter.getByRole('alert')).toContainText('declined');
-  await counter.screenshot({ path: 'docs/screenshots/counter-declined.png' });
+  await counter.screenshot(shot('counter-declined'));
   await expect(bar.getByTestId('drink-card').filter({ hasText: 'Omar Quint' })).toHaveCount(0);
 
   // The customer pays cash instead: the same order, now fired
@@ -93,12 +94,12 @@ test('the receipt and cup labels print what was ordered, with the allergy', asyn
   await expect(labels.getByTestId('cup-label')).toHaveCount(2);
   await expect(labels.getByTestId('cup-label').first()).toContainText('ALLERGY: sesame · severe');
   await expect(labels.getByTestId('cup-label').first()).toContainText('Almond');
-  await labels.screenshot({ path: 'docs/screenshots/cup-labels.png' });
+  await labels.screenshot(shot('cup-labels'));
 
   const [receipt] = await Promise.all([counter.waitForEvent('popup'), sent.getByRole('link', { name: 'Receipt' }).click()]);
   await expect(receipt.getByRole('heading', { name: 'Harbour & Hearth Coffee' })).toBeVisible();
   await expect(receipt.getByText('Cappuccino (Regular)')).toBeVisible();
-  await receipt.screenshot({ path: 'docs/screenshots/receipt.png', fullPage: true });
+  await receipt.screenshot(shot('receipt', { fullPage: true }));
 
   const missing = await receipt.goto('/receipts/999999');
   expect(missing?.status()).toBe(404);
@@ -138,7 +139,7 @@ test('a drink that contains the customer’s allergen is caught at the Counter a
   const clash = counter.getByTestId('allergy-clash');
   await expect(clash).toContainText('Flat white contains tree nuts (from the almond milk)');
   await expect(counter.getByRole('button', { name: /^Send/ })).toBeDisabled();
-  await counter.screenshot({ path: 'docs/screenshots/counter-allergy-clash.png' });
+  await counter.screenshot(shot('counter-allergy-clash'));
   await clash.getByRole('checkbox').check();
   await counter.getByRole('button', { name: /^Send/ }).click();
   await expect(counter.getByRole('status').filter({ hasText: 'Rhea Tamm' })).toContainText('allergy flagged');

@@ -2,11 +2,9 @@
 // advice changes (fast → grind finer; in the window → keep these settings); the Bar's strip then
 // shows those good settings, and the owner's Beans screen counts the coffee the shots took.
 // Advice values are common practice (about 1:2 in 25–30 s); see tests/unit/dial-in.test.ts.
-import { mkdirSync } from 'node:fs';
 import type { Page } from '@playwright/test';
 import { errorsOf, expect, pageAs, test } from './fixtures';
-
-const SHOTS = process.env.BEANS_SHOTS_DIR ?? 'test-results/dial-in';
+import { shot } from './shots';
 
 async function logShot(page: Page, shot: { grind: string; dose: string; yieldG: string; time: string; taste?: string }) {
   const form = page.getByRole('form', { name: 'Log a test shot' });
@@ -19,7 +17,6 @@ async function logShot(page: Page, shot: { grind: string; dose: string; yieldG: 
 }
 
 test('a barista dials in: fast, then in the window; the Bar shows the good settings', async ({ browser }) => {
-  mkdirSync(SHOTS, { recursive: true });
   // the owner's count of the house blend before the shots
   const owner = await pageAs(browser, 'owner', '/admin/beans', { width: 1440, height: 1000 });
   const houseRow = owner.getByTestId('lot-row').filter({ hasText: 'Breakwater House Blend' });
@@ -47,7 +44,7 @@ test('a barista dials in: fast, then in the window; the Bar shows the good setti
   await expect(tablet.getByRole('region', { name: 'Last good settings' })).toContainText('Grind 2.7');
   await expect(tablet.getByTestId('shot-row')).toHaveCount(4); // the two seeded this morning, and ours
   await expect(tablet.getByTestId('shot-row').first()).toContainText('2.7');
-  await tablet.screenshot({ path: `${SHOTS}/dial-in.png`, fullPage: true });
+  await tablet.screenshot(shot('dial-in', { fullPage: true }));
 
   // the Bar, at 1920 × 1080, shows those settings in its strip, large enough to read from 2 m
   const bar = await pageAs(browser, 'barista', '/bar');
@@ -60,20 +57,20 @@ test('a barista dials in: fast, then in the window; the Bar shows the good setti
     Math.min(...[el, ...el.querySelectorAll('*')].filter((n) => n.textContent?.trim()).map((n) => parseFloat(getComputedStyle(n).fontSize))),
   );
   expect(smallest).toBeGreaterThanOrEqual(24);
-  await bar.screenshot({ path: `${SHOTS}/bar.png` });
-  await strip.screenshot({ path: `${SHOTS}/bar-strip.png` });
+  await bar.screenshot(shot('dial-in-bar'));
+  await strip.screenshot(shot('dial-in-bar-strip'));
 
   // the owner's screen: the two shots took 36 g from the house blend
   await owner.reload();
   await expect(houseRow.getByTestId('remaining')).toHaveText(`${(before - 36).toLocaleString('en-US')} g`);
   await expect(houseRow.getByTestId('freshness')).toHaveText(/Best/);
-  await owner.screenshot({ path: `${SHOTS}/admin-beans.png`, fullPage: true });
+  await owner.screenshot(shot('dial-in-admin-beans', { fullPage: true }));
 
   // Pulse warns about the decaf past its best, in words with a sign (the seed's decaf is 34 days old)
   await owner.goto('/pulse');
   const alert = owner.getByTestId('bean-alert').filter({ hasText: 'Night Harbour Decaf' });
   await expect(alert).toContainText('Fading: Night Harbour Decaf in the decaf grinder is past its best: 34 days since roast');
-  await owner.screenshot({ path: `${SHOTS}/pulse.png` });
+  await owner.screenshot(shot('dial-in-pulse'));
 
   for (const p of [owner, tablet, bar]) expect(errorsOf(p)).toEqual([]);
 });

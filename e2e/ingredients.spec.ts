@@ -3,15 +3,11 @@
 // cereal containing gluten, Regulation (EU) No 1169/2011 Annex II item 1), an open Counter follows
 // without a reload, the menu editor records ingredients and shows the allergens they give on the
 // café's list, and the switch back to the US list (FALCPA + FASTER Act) reads oat milk as none.
-import path from 'node:path';
-import os from 'node:os';
-import { mkdirSync } from 'node:fs';
 import type { Browser, Locator, Page } from '@playwright/test';
 import { errorsOf, expect, pageAs, test, type Login } from './fixtures';
+import { shot } from './shots';
 import { OwnServer } from './own-server';
 
-// extra screenshots to look at (not in the README): under the system's temp folder
-const SHOTS = path.join(os.tmpdir(), 'jugline-shots', 'ingredients');
 let own: OwnServer;
 
 test.beforeAll(async () => {
@@ -28,7 +24,6 @@ const switchRow = (preview: Locator, entry: string) => preview.getByTestId('swit
 
 test('the owner switches US → EU after reading what changes; the Counter and the menu editor follow; back to US', async ({ browser }) => {
   test.setTimeout(120_000);
-  mkdirSync(SHOTS, { recursive: true });
   const counter = await pageOn(browser, 'cashier', '/counter', { width: 1024, height: 768 });
   await live(counter);
   await counter.evaluate(() => ((window as unknown as { marker: number }).marker = 3));
@@ -46,7 +41,7 @@ test('the owner switches US → EU after reading what changes; the Counter and t
   await expect(toEu.getByTestId('switch-row').filter({ hasText: 'Coconut' })).toHaveCount(0);
   await expect(toEu.getByTestId('switch-row').filter({ hasText: 'Whole' })).toHaveCount(0);
   await allergens.scrollIntoViewIfNeeded();
-  await owner.screenshot({ path: `${SHOTS}/settings-switch-to-eu.png`, fullPage: true });
+  await owner.screenshot(shot('ingredients-settings-switch-to-eu', { fullPage: true }));
   await allergens.getByRole('button', { name: 'Switch to the EU list' }).click();
   await expect(allergens.getByRole('status')).toContainText('the EU list');
 
@@ -55,7 +50,7 @@ test('the owner switches US → EU after reading what changes; the Counter and t
   const sheet = counter.getByRole('dialog', { name: 'Latte' });
   await expect(sheet.getByRole('radio', { name: /Oat/ })).toContainText('cereals containing gluten');
   await expect(sheet.getByRole('radio', { name: /Coconut/ })).not.toContainText('nuts');
-  await counter.screenshot({ path: `${SHOTS}/counter-eu-milks.png` });
+  await counter.screenshot(shot('ingredients-counter-eu-milks'));
   await sheet.getByRole('button', { name: 'Cancel' }).click();
   expect(await counter.evaluate(() => (window as unknown as { marker?: number }).marker)).toBe(3);
 
@@ -75,11 +70,11 @@ test('the owner switches US → EU after reading what changes; the Counter and t
   await picker.getByRole('checkbox', { name: 'pistachio' }).check();
   await expect(picker.getByTestId('derived-allergens')).toContainText('Allergens on the EU list: nuts'); // Annex II item 8
   await expect(picker.getByTestId('derived-allergens')).toContainText('Cross-contact on a shared steam wand or jug is possible');
-  await milk.screenshot({ path: `${SHOTS}/editor-milk-ingredients.png` });
+  await milk.screenshot(shot('ingredients-editor-milk-ingredients'));
   await milk.getByRole('button', { name: 'Add milk' }).click();
   await expect(milk).toBeHidden();
   await expect(owner.getByTestId('milk-row').filter({ hasText: 'Pistachio' })).toContainText('nuts');
-  await owner.screenshot({ path: `${SHOTS}/editor-milks-eu.png`, fullPage: true });
+  await owner.screenshot(shot('ingredients-editor-milks-eu', { fullPage: true }));
 
   // an item: its own ingredients; the editor keeps them in its order
   await owner.getByRole('tab', { name: 'Items' }).click();
@@ -90,7 +85,7 @@ test('the owner switches US → EU after reading what changes; the Counter and t
   await expect(item.getByTestId('derived-allergens')).toContainText('Allergens on the EU list: cereals containing gluten, eggs, milk, nuts');
   await item.getByRole('checkbox', { name: 'sesame' }).check();
   await expect(item.getByTestId('derived-allergens')).toContainText('milk, nuts, sesame');
-  await item.getByTestId('ingredient-picker').screenshot({ path: `${SHOTS}/editor-item-ingredients.png` });
+  await item.getByTestId('ingredient-picker').screenshot(shot('ingredients-editor-item-ingredients'));
   await item.getByRole('button', { name: 'Save item' }).click();
   await expect(item).toBeHidden();
   await expect(owner.getByTestId('menu-item-row').filter({ hasText: 'Almond croissant' })).toContainText('sesame');
@@ -104,7 +99,7 @@ test('the owner switches US → EU after reading what changes; the Counter and t
   await expect(switchRow(toUs, 'Pistachio (milk)')).toHaveText(['Pistachio (milk)', 'pistachio', 'nuts', 'tree nuts']);
   await allergens.getByRole('button', { name: 'Switch to the US list' }).click();
   await expect(allergens.getByRole('status')).toContainText('the US list');
-  await owner.screenshot({ path: `${SHOTS}/settings-after-switch-back.png`, fullPage: true });
+  await owner.screenshot(shot('ingredients-settings-after-switch-back', { fullPage: true }));
 
   for (const page of [counter, owner]) expect(errorsOf(page)).toEqual([]);
 });

@@ -3,6 +3,7 @@
 // runs (window.pwned stays unset) and nothing is even tried (the CSP would log a refused inline
 // handler as a console error).
 import { DEMO_PASSWORD, errorsOf, expect, pageAs, test } from './fixtures';
+import { shot } from './shots';
 
 const NAME = '<img/src="x"/onerror="window.pwned=1">';
 const NOTE = '"><svg onload="window.pwned=2"> oat foam';
@@ -34,8 +35,8 @@ test('an order full of markup, pushed to open Bar and Pickup screens, shows as t
   await expect(card).toContainText(NOTE);
   await expect(card).toContainText(ALLERGY);
   await expect(pickup.getByTestId('pickup-name').filter({ hasText: NAME })).toBeVisible();
-  await bar.screenshot({ path: test.info().outputPath('bar-hostile.png') });
-  await pickup.screenshot({ path: test.info().outputPath('pickup-hostile.png') });
+  await bar.screenshot(shot('injection-bar-hostile'));
+  await pickup.screenshot(shot('injection-pickup-hostile'));
 
   for (const p of [bar, pickup]) {
     expect(await p.evaluate(() => (window as unknown as { pwned?: number }).pwned)).toBeUndefined();

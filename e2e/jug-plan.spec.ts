@@ -2,15 +2,11 @@
 // Jug 1 still holds only the flat white, the cappuccino is jug 2, and "Bump jug 1" bumps only the
 // flat white. Then the owner's Settings warn about a fill line at the brim. On a server of its
 // own, so no earlier spec's tickets share the lane.
-import { mkdirSync } from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
 import { request as apiRequest, type Browser, type Page } from '@playwright/test';
 import { DEMO_PASSWORD, errorsOf, expect, signIn, test, watchForErrors, type Login } from './fixtures';
+import { shot } from './shots';
 import { OwnServer } from './own-server';
 
-// screenshots to look at (not in the README): under the system's temp folder
-const SHOTS = path.join(os.tmpdir(), 'jugline-shots', 'jug-plan');
 
 let own: OwnServer;
 test.beforeAll(async () => {
@@ -46,7 +42,6 @@ const cardOf = (page: Page, name: string) => page.getByTestId('drink-card').filt
 
 test('a started jug keeps its drinks when a newer one arrives; "Bump jug 1" bumps only them', async ({ browser }) => {
   test.setTimeout(120_000);
-  mkdirSync(SHOTS, { recursive: true });
   const bar = await pageOn(browser, 'barista', '/bar');
   const other = await pageOn(browser, 'barista2', '/bar');
   for (const p of [bar, other]) await expect(p.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
@@ -76,7 +71,7 @@ test('a started jug keeps its drinks when a newer one arrives; "Bump jug 1" bump
   await expect(cardOf(bar, 'Otis Crane')).toContainText('Jug 2 · pour 1st');
   // the other screen shows the same, from the live events alone
   await expect(laneOf(other, 'Whole').getByTestId('jug').nth(1)).toContainText('Jug 2: 20 oz pitcher');
-  await bar.screenshot({ path: path.join(SHOTS, 'started-jug-and-newcomer.png') });
+  await bar.screenshot(shot('jug-plan-started-jug-and-newcomer'));
 
   await whole.getByRole('button', { name: 'Bump jug 1' }).click();
   await expect(cardOf(bar, 'Nell Avery')).toHaveCount(0);
@@ -85,13 +80,12 @@ test('a started jug keeps its drinks when a newer one arrives; "Bump jug 1" bump
   await expect(jugs).toHaveCount(1);
   await expect(jugs.first()).toHaveAttribute('data-jug-state', 'planned');
   await expect(jugs.first()).toContainText('Jug 1: 20 oz pitcher · fill to 7.5 oz');
-  await bar.screenshot({ path: path.join(SHOTS, 'after-bump-jug-1.png') });
+  await bar.screenshot(shot('jug-plan-after-bump-jug-1'));
 
   for (const page of [bar, other]) expect(errorsOf(page)).toEqual([]);
 });
 
 test('Settings: the jug rules, and a warning for a fill line at the brim', async ({ browser }) => {
-  mkdirSync(SHOTS, { recursive: true });
   const owner = await pageOn(browser, 'owner', '/admin/settings', { width: 1440, height: 1400 });
   await expect(owner.getByRole('button', { name: 'Save' }).first()).toBeEnabled(); // hydrated
   const barSection = owner.getByRole('form', { name: 'Bar', exact: true });
@@ -108,6 +102,6 @@ test('Settings: the jug rules, and a warning for a fill line at the brim', async
   // 350 × 100 / 175 = 200 ml for a foamy jug
   await expect(warning).toContainText('at most 200 ml for a foamy jug');
   await small.scrollIntoViewIfNeeded();
-  await owner.screenshot({ path: path.join(SHOTS, 'settings-fill-line-warning.png'), fullPage: true });
+  await owner.screenshot(shot('jug-plan-settings-fill-line-warning', { fullPage: true }));
   expect(errorsOf(owner)).toEqual([]);
 });

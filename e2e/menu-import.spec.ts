@@ -2,9 +2,8 @@
 // fixed file, imports it, adds a photo to the new item, and a cashier finds it on the Counter.
 import sharp from 'sharp';
 import { errorsOf, expect, pageAs, test } from './fixtures';
+import { shot } from './shots';
 
-/** where the spec's own screenshots go (Playwright makes the folder) */
-const SHOTS = process.env.SHOTS_DIR ?? 'test-results/menu-import';
 
 const HEADER = 'category,item,station,size,volume_ml,price,shots,dose_g,yield_g,milk_ml,takes_milk,default_milk,texture,ingredients,allergens,default_size';
 const SCONE = (price: string) => `Baked,Quayside scone,counter,,,${price},0,,,,no,,,wheat; cow's milk; egg,milk; eggs; wheat,no`;
@@ -26,14 +25,14 @@ test('the owner imports a menu file after fixing its bad row, and the new item i
   await expect(bad).toContainText('price: Use a price like 4.80');
   await expect(panel.locator('[data-testid="import-row"][data-row="2"]')).toContainText('Add');
   await expect(panel.getByRole('button', { name: /^Import/ })).toHaveCount(0);
-  await panel.screenshot({ path: 'docs/screenshots/menu-import.png' }); // the README's picture
-  await page.screenshot({ path: `${SHOTS}/menu-import-problem.png`, fullPage: true });
+  await panel.screenshot(shot('menu-import'));
+  await page.screenshot(shot('menu-import-problem', { fullPage: true }));
 
   // the fixed file: both rows to add, then imported
   await page.getByLabel('Menu CSV file').setInputFiles(file('new-items.csv', CORTADO, SCONE('3.75')));
   await expect(panel.getByTestId('import-ready')).toContainText('2 rows — 2 to add, 0 to update');
   await expect(panel.locator('[data-testid="import-row"][data-problem="yes"]')).toHaveCount(0);
-  await page.screenshot({ path: `${SHOTS}/menu-import-preview.png`, fullPage: true });
+  await page.screenshot(shot('menu-import-preview', { fullPage: true }));
   await panel.getByRole('button', { name: 'Import 2 rows' }).click();
   await expect(panel.getByTestId('import-result')).toContainText('2 rows: 2 added, 0 updated');
   // the editor above the panel shows the new drink without a reload
@@ -49,7 +48,7 @@ test('the owner imports a menu file after fixing its bad row, and the new item i
   await expect(photo).toHaveAttribute('src', /^\/media\/menu\/[0-9a-f]{32}\.webp$/);
   await expect(panel.getByRole('progressbar')).toHaveCount(0);
   await photo.scrollIntoViewIfNeeded();
-  await page.screenshot({ path: `${SHOTS}/menu-import-done.png`, fullPage: true });
+  await page.screenshot(shot('menu-import-done', { fullPage: true }));
   expect(errorsOf(page)).toEqual([]);
 
   // the Counter has the new category and items
@@ -61,6 +60,6 @@ test('the owner imports a menu file after fixing its bad row, and the new item i
   await counter.getByRole('tab', { name: 'Espresso' }).click();
   await expect(counter.getByRole('button', { name: /Cortado/ })).toContainText('$4.20');
   await counter.getByRole('tab', { name: 'Baked' }).click();
-  await counter.screenshot({ path: `${SHOTS}/counter-new-item.png` });
+  await counter.screenshot(shot('counter-new-item'));
   expect(errorsOf(counter)).toEqual([]);
 });

@@ -1,7 +1,7 @@
 // The foundation path end to end: Counter → Bar → Pickup, live, in Debian's Chromium.
 import { errorsOf, expect, pageAs, test } from './fixtures';
+import { shot } from './shots';
 
-const shots = (name: string) => `docs/screenshots/${name}.png`;
 
 test('an order of three drinks travels live from the Counter to the Bar to Pickup', async ({ browser }) => {
   const bar = await pageAs(browser, 'barista', '/bar');
@@ -16,7 +16,7 @@ test('an order of three drinks travels live from the Counter to the Bar to Picku
   // Counter: oat latte (tile → milk → add), whole cappuccino, whole flat white
   await counter.getByRole('button', { name: /^Latte/ }).click();
   await counter.getByRole('radio', { name: /Oat/ }).click();
-  await counter.getByRole('dialog').screenshot({ path: shots('counter-item-sheet') });
+  await counter.getByRole('dialog').screenshot(shot('counter-item-sheet'));
   await counter.getByRole('button', { name: /Add to order/ }).click();
   await counter.getByRole('button', { name: /^Cappuccino/ }).click();
   await counter.getByRole('button', { name: /Add to order/ }).click();
@@ -25,7 +25,7 @@ test('an order of three drinks travels live from the Counter to the Bar to Picku
   await expect(counter.getByTestId('order-line')).toHaveCount(3);
   await counter.getByLabel('Name for the cup').fill('Robin Vale');
   await counter.getByRole('button', { name: '$20.00' }).click();
-  await counter.screenshot({ path: shots('counter') });
+  await counter.screenshot(shot('counter'));
   const sentAt = Date.now();
   await counter.getByRole('button', { name: /^Send/ }).click();
   const sent = counter.getByRole('status').filter({ hasText: /Sent #\d+/ });
@@ -44,7 +44,7 @@ test('an order of three drinks travels live from the Counter to the Bar to Picku
   await expect(robinsWhole.filter({ hasText: 'Flat white' })).toHaveCount(1);
   expect(await bar.evaluate(() => (window as unknown as { marker?: number }).marker)).toBe(42);
   await expect(pickup.getByRole('region', { name: 'Being made' })).toContainText('Robin');
-  await bar.screenshot({ path: shots('bar') });
+  await bar.screenshot(shot('bar'));
 
   // Bar: bump all three
   const robins = bar.getByTestId('drink-card').filter({ hasText: 'Robin Vale' });
@@ -58,7 +58,7 @@ test('an order of three drinks travels live from the Counter to the Bar to Picku
   await expect(ready.getByTestId('pickup-name').filter({ hasText: 'Robin' })).toHaveCount(1);
   await expect(ready).not.toContainText('Vale');
   await expect(pickup.getByRole('region', { name: 'Being made' })).not.toContainText('Robin');
-  await pickup.screenshot({ path: shots('pickup') });
+  await pickup.screenshot(shot('pickup'));
 
   // Recall from the bar brings the ticket back
   await bar.getByRole('button', { name: `Recall #${number} Robin Vale` }).click();

@@ -1,6 +1,7 @@
 // The Outbox: a receipt mailed from the Counter's API arrives over the local SMTP fake and the
 // lead reads it on the screen, signed in through the real form.
 import { DEMO_PASSWORD, errorsOf, expect, pageAs, test } from './fixtures';
+import { shot } from './shots';
 
 test('a lead sees a mailed receipt in the Outbox, with the demo note', async ({ browser, playwright, baseURL }) => {
   const api = await playwright.request.newContext({ baseURL });
@@ -30,7 +31,7 @@ test('a lead sees a mailed receipt in the Outbox, with the demo note', async ({ 
   await expect(page.getByRole('heading', { level: 2 })).toContainText(subject);
   await expect(page.getByTestId('outbox-text')).toContainText('Thank you, Juniper!');
   await expect(page.getByTestId('outbox-text')).toContainText('Total: $');
-  await page.screenshot({ path: 'docs/screenshots/outbox.png' });
+  await page.screenshot(shot('outbox'));
   expect(errorsOf(page)).toEqual([]);
 });
 

@@ -3,8 +3,8 @@
 // to a 390 px phone (numbers not clipped, nothing scrolls sideways).
 import type { APIRequestContext, Page } from '@playwright/test';
 import { apiAs, errorsOf, expect, pageAs, test } from './fixtures';
+import { shot } from './shots';
 
-const SHOTS = 'test-results/shots';
 const NAMES = ['Ada', 'Bram', 'Cleo', 'Dov', 'Maximiliana', 'Fern', 'Gus', 'Hana', 'Ivo', 'Juno', 'Kit', 'Lior', 'Mae', 'Nico', 'Oona', 'Pim'];
 const VIEWPORTS = [
   { width: 1920, height: 1080 },
@@ -108,7 +108,7 @@ test('the Pickup wall in a rush shows or counts every name, at every width', asy
       expect(b.making.smallestShortName).toBeGreaterThanOrEqual(90);
       expect(b.making.smallestName).toBeGreaterThanOrEqual(40);
     }
-    await page.screenshot({ path: `${SHOTS}/pickup-${viewport.width}-16-making-6-ready.png`, fullPage: true });
+    await page.screenshot(shot(`pickup-${viewport.width}-16-making-6-ready`, { fullPage: true }));
   }
 
   // 40 being made: the wall counts what it can't show
@@ -117,7 +117,7 @@ test('the Pickup wall in a rush shows or counts every name, at every width', asy
     await page.setViewportSize(viewport);
     const b = await checkBoard(page, `${viewport.width}, 40 being made`);
     if (viewport.width === 1920) expect(b.making.more).toBeGreaterThan(0);
-    await page.screenshot({ path: `${SHOTS}/pickup-${viewport.width}-40-making.png`, fullPage: true });
+    await page.screenshot(shot(`pickup-${viewport.width}-40-making`, { fullPage: true }));
   }
   await cashier.dispose();
   await barista.dispose();

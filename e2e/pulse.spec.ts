@@ -1,11 +1,8 @@
 // Pulse: a lead opens a shift, orders flow and the numbers move live, the shift closes with a
 // cash count, and the shift report reaches the owner's mail (the Outbox).
-import os from 'node:os';
-import path from 'node:path';
 import { request as apiRequest } from '@playwright/test';
 import { DEMO_PASSWORD, errorsOf, expect, pageAs, test } from './fixtures';
-
-const SHOTS = path.join(os.tmpdir(), 'jugline-shots', 'pulse');
+import { shot } from './shots';
 
 test('a shift on Pulse: open, live numbers, close with a count, report mailed', async ({ browser, baseURL }) => {
   test.setTimeout(90_000); // four sign-ins on a shared machine: the default 30 s is close
@@ -44,10 +41,10 @@ test('a shift on Pulse: open, live numbers, close with a count, report mailed', 
   await expect(pulse.getByTestId('staffing-inputs')).toContainText(/From \d+ drinks fired in the last 30 min/);
   await expect(pulse.getByTestId('staffing-inputs')).toContainText('with 2 on bar');
   await expect(pulse.getByTestId('staffing-inputs')).not.toContainText('Erlang');
-  await pulse.screenshot({ path: 'docs/screenshots/pulse.png', fullPage: true });
+  await pulse.screenshot(shot('pulse', { fullPage: true }));
   await pulse.getByRole('region', { name: 'Staffing' }).getByText('How we work this out').click();
   await expect(pulse.getByRole('region', { name: 'Staffing' })).toContainText('Erlang C');
-  await pulse.getByRole('region', { name: 'Staffing' }).screenshot({ path: `${SHOTS}/staffing.png` });
+  await pulse.getByRole('region', { name: 'Staffing' }).screenshot(shot('pulse-staffing'));
 
 
   const expected = (await pulse.getByTestId('expected-cash').textContent())!.replace(/[$,]/g, '');
@@ -90,7 +87,7 @@ test('the Bar: the target and ticket ages as they are, the caution from burn tim
   await expect(bar.getByTestId('drink-card').filter({ hasText: 'Quin Adair' }).getByTestId('age')).toHaveText(/^\d+:\d\d$/);
   await expect(bar.getByTestId('steam-caution')).toContainText('burn skin in seconds');
   await expect(bar.getByTestId('steam-caution')).not.toContainText('above about');
-  await bar.screenshot({ path: `${SHOTS}/bar.png` });
+  await bar.screenshot(shot('pulse-bar'));
   await cashier.dispose();
   expect(errorsOf(bar)).toEqual([]);
 });

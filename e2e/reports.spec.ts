@@ -3,6 +3,7 @@
 import { readFile } from 'node:fs/promises';
 import { request as apiRequest, type APIRequestContext } from '@playwright/test';
 import { DEMO_PASSWORD, errorsOf, expect, pageAs, test } from './fixtures';
+import { shot } from './shots';
 
 async function apiAs(baseURL: string, username: string): Promise<APIRequestContext> {
   const api = await apiRequest.newContext({ baseURL });
@@ -74,7 +75,7 @@ test("a lead reads today's report, sorts the tickets and downloads them as CSV",
   await expect(page).not.toHaveURL(/q=/);
   await page.getByRole('searchbox', { name: 'Search' }).blur();
 
-  await page.screenshot({ path: 'docs/screenshots/reports.png', fullPage: true });
+  await page.screenshot(shot('reports', { fullPage: true }));
 
   // The CSV download: a header row first, and "=cmd" written as text
   const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('tickets-csv').click()]);

@@ -1,14 +1,8 @@
 // The Team screen end to end: the owner invites a barista, the barista opens the link from the
 // mail the Outbox caught, sets a password and lands on the Bar; the used link is refused; and a
 // shared terminal switches person by PIN.
-import { mkdirSync } from 'node:fs';
 import { errorsOf, expect, pageAs, test, watchForErrors } from './fixtures';
-
-// The README's screenshots go to docs/screenshots; TEAM_SHOTS_DIR (when set) gets them all, for a look.
-const SHOTS = process.env.TEAM_SHOTS_DIR ?? 'docs/screenshots';
-const EXTRA = process.env.TEAM_SHOTS_DIR;
-mkdirSync(SHOTS, { recursive: true });
-const extra = (name: string) => (EXTRA ? { path: `${EXTRA}/${name}` } : {});
+import { shot } from './shots';
 
 test('the owner invites a barista, who sets a password from the mailed link and signs in to the Bar', async ({ browser }) => {
   const owner = await pageAs(browser, 'owner', '/admin/team', { width: 1600, height: 1000 });
@@ -25,7 +19,7 @@ test('the owner invites a barista, who sets a password from the mailed link and 
   const row = owner.locator('[data-testid="team-row"][data-username="rosa"]');
   await expect(row).toContainText('Invited · no password yet');
   await expect(row).toContainText('Invitation sent');
-  await owner.screenshot({ path: `${SHOTS}/team.png`, fullPage: true });
+  await owner.screenshot(shot('team', { fullPage: true }));
 
   // the invitation, as the local SMTP fake caught it
   await owner.goto('/outbox');
@@ -43,7 +37,7 @@ test('the owner invites a barista, who sets a password from the mailed link and 
   await expect(barista.getByRole('heading', { name: 'Welcome to Harbour & Hearth Coffee, Rosa' })).toBeVisible();
   await expect(barista.getByText('sign-in name')).toContainText('rosa');
   await expect(barista.getByRole('button', { name: 'Set password and sign in' })).toBeEnabled();
-  await barista.screenshot({ path: `${SHOTS}/welcome.png` });
+  await barista.screenshot(shot('team-welcome'));
   await barista.getByLabel('Password', { exact: true }).fill('crema on the quay');
   await barista.getByLabel('The same password again').fill('crema on the quey');
   await barista.getByRole('button', { name: 'Set password and sign in' }).click();
@@ -66,7 +60,7 @@ test('the owner invites a barista, who sets a password from the mailed link and 
   const again = await barista.goto(link!);
   expect(again?.status()).toBe(404);
   await expect(barista.getByRole('heading', { name: "This link can't be used" })).toBeVisible();
-  await barista.screenshot(extra('welcome-used.png'));
+  await barista.screenshot(shot('team-welcome-used'));
 
   await owner.goto('/admin/team');
   await expect(owner.locator('[data-testid="team-row"][data-username="rosa"]')).toContainText('Active');
@@ -93,13 +87,13 @@ test('a shared terminal switches person by PIN, staying on the Bar or going to t
   await expect(card.getByTestId('who')).toHaveText('Taken by Priya');
   await card.getByRole('button', { name: 'Start' }).click();
   await expect(card.getByTestId('who')).toHaveText('Taken by Priya · Making: Jonah');
-  await card.screenshot(extra('bar-card-who.png'));
+  await card.screenshot(shot('team-bar-card-who'));
 
   await page.getByRole('button', { name: 'Switch person' }).click();
   const dialog = page.getByRole('dialog', { name: 'Switch person' });
   await expect(dialog.getByRole('button', { name: /Ines Calder/ })).toBeVisible();
   await expect(dialog.getByRole('button', { name: /Jonah Reyes/ })).toHaveCount(0); // already signed in
-  await page.screenshot(extra('switch-person.png'));
+  await page.screenshot(shot('team-switch-person'));
   await dialog.getByRole('button', { name: /Ines Calder/ }).click();
 
   const pad = page.getByRole('dialog', { name: 'PIN for Ines Calder' });
@@ -109,7 +103,7 @@ test('a shared terminal switches person by PIN, staying on the Bar or going to t
   await expect(pad.getByRole('alert')).toContainText('That PIN is not right. 4 more wrong PINs');
   // the right one on the pad's buttons (Ines's demo PIN is 7450)
   for (const d of '7450') await pad.getByRole('button', { name: d, exact: true }).click();
-  await page.screenshot(extra('switch-pin.png'));
+  await page.screenshot(shot('team-switch-pin'));
   await pad.getByRole('button', { name: 'Switch', exact: true }).click();
   // the same screen, reloaded as Ines (a barista may see the Bar)
   await expect(page.getByRole('navigation', { name: 'Screens' })).toContainText('Ines Calder');

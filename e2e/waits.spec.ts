@@ -3,8 +3,8 @@
 // on one axis with a legend in words, and works from 1366 px down to a 390 px phone.
 import type { Page } from '@playwright/test';
 import { apiAs, errorsOf, expect, pageAs, test } from './fixtures';
+import { shot } from './shots';
 
-const SHOTS = 'test-results/shots';
 
 async function rush(baseURL: string) {
   const [cashier, barista] = [await apiAs(baseURL, 'cashier'), await apiAs(baseURL, 'barista')];
@@ -84,7 +84,7 @@ for (const viewport of [
     expect(body).not.toMatch(/\b1 (drinks|tickets|baristas)\b/);
     await pulse.getByRole('region', { name: 'Staffing' }).getByText('How we work this out').click();
     await expect(pulse.getByRole('region', { name: 'Staffing' })).toContainText('Erlang C');
-    await pulse.screenshot({ path: `${SHOTS}/pulse-${viewport.width}.png`, fullPage: true });
+    await pulse.screenshot(shot(`pulse-${viewport.width}`, { fullPage: true }));
     expect(errorsOf(pulse)).toEqual([]);
   });
 }
