@@ -10,7 +10,7 @@ import { createDb } from './db/knex';
 import { migrateAndSeed, requireMigrated } from './db/migrate';
 import { attachSocketServer, type SocketServer } from './realtime/socket-server';
 import type { ApiRoute } from './routes/define';
-import type { Clock } from './services/deps';
+import type { Clock, Deps } from './services/deps';
 import { startMail } from './services/mail';
 import { createLogger } from './logging';
 import type { Logger } from 'pino';
@@ -24,6 +24,8 @@ export interface RunningServer {
   url: string;
   server: Server;
   db: Knex;
+  /** What the services receive (tests run commands through it directly). */
+  deps: Deps;
   /** Every API route the app mounts (the role matrix is generated from it). */
   routes: ApiRoute[];
   sockets: SocketServer;
@@ -110,7 +112,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
       await payments.close();
       await db.destroy();
     })());
-  return { url, server, db, routes, sockets, payments: { webhookSecret: payments.webhookSecret, fake: payments.fake }, close };
+  return { url, server, db, deps, routes, sockets, payments: { webhookSecret: payments.webhookSecret, fake: payments.fake }, close };
 }
 
 export function printSignIns(url: string, log = console.log) {

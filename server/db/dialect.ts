@@ -39,3 +39,12 @@ export function rawRows<T>(result: unknown): T[] {
   if (Array.isArray(result)) return result as T[];
   return ((result as { rows?: T[] } | null | undefined)?.rows ?? []) as T[];
 }
+
+/**
+ * A read of several statements that must see one moment (the board and its sequence number).
+ * SQLite's transaction already reads one snapshot; PostgreSQL's default, read committed, gives each
+ * statement its own, so there the transaction asks for repeatable read.
+ */
+export function snapshotRead(db: Knex): Knex.TransactionConfig | undefined {
+  return dialectOf(db) === 'postgres' ? { isolationLevel: 'repeatable read' } : undefined;
+}

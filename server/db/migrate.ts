@@ -2,6 +2,7 @@
 // may start at once. On PostgreSQL it runs under an advisory lock: the second waits for the first
 // and then finds nothing left to do. On SQLite the second meets Knex's migration lock or a busy
 // database and tries again until the first is done.
+import Database from 'better-sqlite3';
 import type { Knex } from 'knex';
 import { seedDemoCafeIfEmpty } from '../../seeds/demo-cafe';
 import { dialectOf, isDatabaseBusy } from './dialect';
@@ -40,7 +41,7 @@ export async function requireMigrated(db: Knex): Promise<void> {
 export class DatabaseBehindError extends Error {}
 
 async function underMigrationLock<T>(db: Knex, work: () => Promise<T>): Promise<T> {
-  if (dialectOf(db) !== 'postgres') return retryWhileLocked(work);
+  if (dialectOf(db) !== 'postgres') return underSqliteLock(db, () => retryWhileLocked(work));
   // a session-level lock on a connection of its own; the migrations use the pool's others
   const client = db.client as { acquireConnection(): Promise<PgConnection>; releaseConnection(c: PgConnection): Promise<void> };
   const conn = await client.acquireConnection();
@@ -77,5 +78,27 @@ async function retryWhileLocked<T>(work: () => Promise<T>): Promise<T> {
       if (!anotherIsMigrating(err) || attempt >= SQLITE_TRIES) throw err;
       await new Promise((r) => setTimeout(r, SQLITE_WAIT_MS));
     }
+  }
+}
+
+/**
+ * SQLite: the whole step under an exclusive transaction on a small lock file beside the database
+ * (`<file>.migrate-lock`), so a second process waits for the first; SQLite lets the lock go by
+ * itself if the process dies.
+ */
+async function underSqliteLock<T>(db: Knex, work: () => Promise<T>): Promise<T> {
+  const filename = (db.client as { config: { connection?: { filename?: string } } }).config.connection?.filename;
+  if (!filename || filename === ':memory:') return work();
+  const lock = new Database(`${filename}.migrate-lock`);
+  try {
+    // better-sqlite3 waits synchronously: ask without waiting and poll, so this process runs on
+    await retryWhileLocked(async () => lock.exec('BEGIN EXCLUSIVE'));
+    try {
+      return await work();
+    } finally {
+      lock.exec('COMMIT');
+    }
+  } finally {
+    lock.close();
   }
 }
