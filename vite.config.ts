@@ -44,6 +44,21 @@ export default defineConfig({
       {
         extends: true,
         test: {
+          // the same server tests on PostgreSQL (`npm run test:pg`): a throwaway cluster for the
+          // run, one database per test server cloned from a migrated and seeded template
+          name: 'server-pg',
+          environment: 'node',
+          include: ['tests/api/**/*.test.ts', 'tests/realtime/**/*.test.ts'],
+          setupFiles: ['tests/support/server-setup.ts'],
+          globalSetup: ['tests/support/pg-global-setup.ts'],
+          execArgv: ['--import', 'tsx'],
+          testTimeout: 20_000,
+          hookTimeout: 30_000,
+        },
+      },
+      {
+        extends: true,
+        test: {
           // kills and restarts the built server as a child process (`npm run test:faults`)
           name: 'faults',
           environment: 'node',

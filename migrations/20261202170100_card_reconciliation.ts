@@ -1,4 +1,5 @@
 import type { Knex } from 'knex';
+import { dialectOf } from '../server/db/dialect';
 
 // Card money reconciliation. A card attempt whose answer was lost is `unknown` until the provider
 // says what happened; a charge the order can't take (voided, paid another way, a duplicate) is
@@ -73,7 +74,39 @@ const PAYMENT_INDEXES = [
   "CREATE UNIQUE INDEX payments_one_live_per_order ON payments (order_id) WHERE status IN ('processing', 'succeeded')",
 ];
 
+// PostgreSQL (DATABASE_URL; SQLite sees exactly the rebuild above) changes the constraints in place,
+// in a transaction of its own (this migration runs without one).
+const pgStatuses = (statuses: string[]) => statuses.map((s) => `'${s}'`).join(', ');
+const PG_UP = [
+  'ALTER TABLE payments DROP CONSTRAINT payments_status_check',
+  `ALTER TABLE payments ADD CONSTRAINT payments_status_check CHECK (status IN (${pgStatuses(NEW_STATUSES)}))`,
+  'CREATE INDEX payments_created_at_index ON payments (created_at)',
+  'ALTER TABLE refunds ALTER COLUMN created_by DROP NOT NULL',
+  "ALTER TABLE refunds ADD COLUMN cause varchar(16) CHECK (cause IN ('order_voided', 'paid_otherwise', 'duplicate'))",
+  'ALTER TABLE refunds ADD CONSTRAINT refunds_cause_or_person CHECK ((cause IS NULL) <> (created_by IS NULL))',
+  'CREATE INDEX refunds_created_at_index ON refunds (created_at)',
+  'CREATE UNIQUE INDEX refunds_one_automatic_per_payment ON refunds (payment_id) WHERE cause IS NOT NULL',
+];
+const PG_DOWN = [
+  'DROP INDEX refunds_one_automatic_per_payment',
+  'DROP INDEX refunds_created_at_index',
+  "DELETE FROM refunds WHERE cause IS NOT NULL",
+  'ALTER TABLE refunds DROP CONSTRAINT refunds_cause_or_person',
+  'ALTER TABLE refunds DROP COLUMN cause',
+  'ALTER TABLE refunds ALTER COLUMN created_by SET NOT NULL',
+  'DROP INDEX payments_created_at_index',
+  "UPDATE payments SET status = 'failed' WHERE status IN ('unknown', 'refunding', 'refunded')",
+  'ALTER TABLE payments DROP CONSTRAINT payments_status_check',
+  `ALTER TABLE payments ADD CONSTRAINT payments_status_check CHECK (status IN (${pgStatuses(OLD_STATUSES)}))`,
+];
+async function pgSteps(knex: Knex, steps: string[]) {
+  await knex.transaction(async (trx) => {
+    for (const sql of steps) await trx.raw(sql);
+  });
+}
+
 export async function up(knex: Knex): Promise<void> {
+  if (dialectOf(knex) === 'postgres') return pgSteps(knex, PG_UP);
   await rebuild(knex, async (trx) => {
     await swap(trx, 'payments', PAYMENTS(NEW_STATUSES), PAYMENT_COLUMNS, [
       ...PAYMENT_INDEXES,
@@ -90,6 +123,7 @@ export async function up(knex: Knex): Promise<void> {
 }
 
 export async function down(knex: Knex): Promise<void> {
+  if (dialectOf(knex) === 'postgres') return pgSteps(knex, PG_DOWN);
   await rebuild(knex, async (trx) => {
     // The older tables have no place for automatic refunds or the new attempt states.
     await trx('refunds').whereNotNull('cause').delete();

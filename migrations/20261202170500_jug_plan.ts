@@ -1,4 +1,5 @@
 import type { Knex } from 'knex';
+import { dialectOf } from '../server/db/dialect';
 
 // Started jugs, and the café's rules for planning jugs.
 //
@@ -39,7 +40,9 @@ export async function up(knex: Knex): Promise<void> {
   await knex.raw('ALTER TABLE locations ADD COLUMN expansion_silky_pct integer NOT NULL DEFAULT 25 CHECK (expansion_silky_pct BETWEEN 0 AND 200)');
   await knex.raw('ALTER TABLE locations ADD COLUMN expansion_foamy_pct integer NOT NULL DEFAULT 75 CHECK (expansion_foamy_pct BETWEEN 0 AND 200)');
   await knex.raw('ALTER TABLE pitchers ADD COLUMN min_fill_ml integer NOT NULL DEFAULT 0 CHECK (min_fill_ml >= 0 AND min_fill_ml <= fill_line_ml)');
-  await knex('pitchers').update({ min_fill_ml: knex.raw('MIN(fill_line_ml, ((capacity_ml + 29) / 30) * 10)') });
+  // two-argument MIN is SQLite's; PostgreSQL (DATABASE_URL) spells it LEAST
+  const least = dialectOf(knex) === 'postgres' ? 'LEAST' : 'MIN';
+  await knex('pitchers').update({ min_fill_ml: knex.raw(`${least}(fill_line_ml, ((capacity_ml + 29) / 30) * 10)`) });
 }
 
 export async function down(knex: Knex): Promise<void> {

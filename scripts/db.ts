@@ -1,9 +1,10 @@
-// npm run db:migrate | db:seed — the database commands, with the same config as the server.
+// npm run db:migrate | db:seed | db:backup | db:restore — the database commands, with the same
+// config as the server (DATABASE_URL: PostgreSQL, else DATABASE_FILE).
 import path from 'node:path';
-import { loadConfig } from '../server/config';
 import { backupDatabase, checkBackup, restoreDatabase } from '../server/db/backup';
-import { createDb, migrate } from '../server/db/knex';
-import { isEmpty, seedDemoCafe } from '../seeds/demo-cafe';
+import { databaseTarget, loadConfig } from '../server/config';
+import { createDb } from '../server/db/knex';
+import { migrateAndSeed } from '../server/db/migrate';
 
 const command = process.argv[2];
 const config = loadConfig();
@@ -25,16 +26,14 @@ if (command === 'restore') {
   console.log(`Restored ${source} to ${config.databaseFile}; start the server again.`);
   process.exit(0);
 }
-const db = createDb(config.databaseFile);
+// migrate (and seed) as its own step, under the migration lock (server/db/migrate.ts)
+const where = config.databaseUrl ? 'the PostgreSQL database' : config.databaseFile;
+const db = createDb(databaseTarget(config));
 try {
-  await migrate(db);
-  console.log(`Migrated ${config.databaseFile}`);
-  if (command === 'seed') {
-    if (await isEmpty(db)) {
-      await seedDemoCafe(db);
-      console.log('Loaded the demo café.');
-    } else console.log('The database already has a café; the demo seed only goes into an empty one.');
-  }
+  const { migrated, seeded } = await migrateAndSeed(db, { seedDemo: command === 'seed' });
+  console.log(`Migrated ${where} (${migrated} new migration${migrated === 1 ? '' : 's'})`);
+  if (seeded) console.log('Loaded the demo café.');
+  else if (command === 'seed') console.log('The database already has a café; the demo seed only goes into an empty one.');
 } finally {
   await db.destroy();
 }

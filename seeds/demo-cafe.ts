@@ -125,7 +125,7 @@ const OFFERED: Record<string, GroupName[]> = {
   'Chai latte': ['Syrup', 'Temperature', 'Sweetness'],
 };
 
-export async function isEmpty(db: Knex): Promise<boolean> {
+export async function isEmpty(db: Knex | Knex.Transaction): Promise<boolean> {
   const row = await db('locations').count<{ n: number }>({ n: '*' }).first();
   return Number(row?.n ?? 0) === 0;
 }
@@ -137,10 +137,24 @@ export async function demoPasswordStillSet(db: Knex): Promise<boolean> {
 }
 
 export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: number): Promise<number> {
+  return (await seedDemo(db, now, passwordCost, false))!;
+}
+
+/**
+ * The demo café, only into an empty database: the emptiness is checked inside the seeding
+ * transaction, so of two processes seeding at once one finds the other's café (on SQLite the
+ * second may instead fail busy and try again: server/db/migrate.ts). Null when a café was there.
+ */
+export async function seedDemoCafeIfEmpty(db: Knex, now = new Date()): Promise<number | null> {
+  return seedDemo(db, now, undefined, true);
+}
+
+async function seedDemo(db: Knex, now: Date, passwordCost: number | undefined, onlyIfEmpty: boolean): Promise<number | null> {
   const createdAt = now.toISOString();
   const hashes = await Promise.all(DEMO_STAFF.map(() => hashPassword(DEMO_PASSWORD, passwordCost)));
   const pinHashes = await Promise.all(DEMO_STAFF.map((s) => hashPassword(DEMO_PINS[s.username], passwordCost)));
   return db.transaction(async (trx) => {
+    if (onlyIfEmpty && !(await isEmpty(trx))) return null;
     const [{ id: locationId }] = await trx('locations')
       .insert({
         name: 'Harbour & Hearth Coffee',

@@ -28,15 +28,9 @@ export class HttpError extends Error {
   }
 }
 
-/**
- * SQLite's answer when another connection holds the lock past the busy timeout: SQLITE_BUSY or
- * SQLITE_LOCKED, or one of their extended codes (SQLITE_BUSY_SNAPSHOT, SQLITE_LOCKED_SHAREDCACHE…).
- * Knex passes better-sqlite3's error on with its `code`.
- */
-export function isDatabaseBusy(err: unknown): boolean {
-  const code = (err as { code?: unknown } | null | undefined)?.code;
-  return typeof code === 'string' && /^SQLITE_(BUSY|LOCKED)(_|$)/.test(code);
-}
+// which database errors mean "busy, try again" is a dialect difference (db/dialect.ts)
+import { isDatabaseBusy } from './db/dialect';
+export { isDatabaseBusy };
 
 /** What a busy database answers with: the other program's transaction is likely over by then. */
 export const BUSY_RETRY_AFTER_SECONDS = 5;

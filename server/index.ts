@@ -1,6 +1,7 @@
 // `npm run dev` and `npm start` land here.
 import { ConfigError, loadConfig } from './config';
 import { demoPasswordStillSet } from '../seeds/demo-cafe';
+import { DatabaseBehindError } from './db/migrate';
 import { guardProcess } from './process-guard';
 import { appLogger, printSignIns, startServer } from './server';
 
@@ -17,7 +18,16 @@ async function main() {
   }
   const logger = appLogger(config);
   guardProcess(logger);
-  const running = await startServer(config, { logger });
+  let running;
+  try {
+    running = await startServer(config, { logger });
+  } catch (err) {
+    if (err instanceof DatabaseBehindError) {
+      console.error(err.message);
+      process.exit(78); // EX_CONFIG: the operator runs the migration step
+    }
+    throw err;
+  }
   if (await demoPasswordStillSet(running.db)) printSignIns(running.url);
   else console.log(`Jugline is serving at ${running.url}`);
 

@@ -3,13 +3,14 @@ import { mkdirSync } from 'node:fs';
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import type { Knex } from 'knex';
-import { DEMO_PASSWORD, DEMO_STAFF, isEmpty, seedDemoCafe } from '../seeds/demo-cafe';
+import { DEMO_PASSWORD, DEMO_STAFF } from '../seeds/demo-cafe';
 import { createApp } from './app';
-import { mediaDirOf, type Config } from './config';
-import { createDb, migrate } from './db/knex';
+import { databaseTarget, mediaDirOf, migratesOnStart, type Config } from './config';
+import { createDb } from './db/knex';
+import { migrateAndSeed, requireMigrated } from './db/migrate';
 import { attachSocketServer, type SocketServer } from './realtime/socket-server';
 import type { ApiRoute } from './routes/define';
-import type { Clock } from './services/deps';
+import type { Clock, Deps } from './services/deps';
 import { startMail } from './services/mail';
 import { createLogger } from './logging';
 import type { Logger } from 'pino';
@@ -23,6 +24,8 @@ export interface RunningServer {
   url: string;
   server: Server;
   db: Knex;
+  /** What the services receive (tests run commands through it directly). */
+  deps: Deps;
   /** Every API route the app mounts (the role matrix is generated from it). */
   routes: ApiRoute[];
   sockets: SocketServer;
@@ -48,12 +51,18 @@ export interface StartOptions {
 /** The app's logger: JSON lines on stdout at LOG_LEVEL, silent in tests. */
 export const appLogger = (config: Pick<Config, 'env' | 'logLevel'>): Logger => createLogger(config.env === 'test' ? 'silent' : (config.logLevel ?? 'info'));
 
-export async function prepareDatabase(config: Pick<Config, 'databaseFile' | 'seedDemo' | 'dbBusyTimeoutMs'>, log = console.log) {
-  const db = createDb(config.databaseFile, { busyTimeoutMs: config.dbBusyTimeoutMs });
-  await migrate(db);
-  if (config.seedDemo && (await isEmpty(db))) {
-    await seedDemoCafe(db);
-    log('Loaded the demo café, Harbour & Hearth Coffee.');
+/** Open the database; migrate and seed it when start-up is to (MIGRATE_ON_START), else check it is current. */
+export async function prepareDatabase(
+  config: Pick<Config, 'databaseFile' | 'databaseUrl' | 'migrateOnStart' | 'seedDemo' | 'dbBusyTimeoutMs'>,
+  log = console.log,
+) {
+  const db = createDb(databaseTarget(config), { busyTimeoutMs: config.dbBusyTimeoutMs });
+  try {
+    if (!migratesOnStart(config)) await requireMigrated(db);
+    else if ((await migrateAndSeed(db, { seedDemo: config.seedDemo })).seeded) log('Loaded the demo café, Harbour & Hearth Coffee.');
+  } catch (err) {
+    await db.destroy();
+    throw err;
   }
   return db;
 }
@@ -103,7 +112,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
       await payments.close();
       await db.destroy();
     })());
-  return { url, server, db, routes, sockets, payments: { webhookSecret: payments.webhookSecret, fake: payments.fake }, close };
+  return { url, server, db, deps, routes, sockets, payments: { webhookSecret: payments.webhookSecret, fake: payments.fake }, close };
 }
 
 export function printSignIns(url: string, log = console.log) {

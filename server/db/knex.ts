@@ -1,7 +1,9 @@
-// The one Knex instance over the SQLite file.
+// The one Knex instance: over the SQLite file (the default, one café), or over PostgreSQL when
+// the target is a postgres:// URL (DATABASE_URL, a group of cafés).
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import knexFactory, { type Knex } from 'knex';
+import { isPostgresUrl } from './dialect';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 
@@ -14,7 +16,27 @@ export const migrationConfig: Knex.MigratorConfig = {
 /** How long a statement waits for another process's write lock before SQLite answers SQLITE_BUSY. */
 export const DEFAULT_BUSY_TIMEOUT_MS = 5000;
 
-export function createDb(filename: string, opts: { busyTimeoutMs?: number } = {}): Knex {
+export interface DbOptions {
+  busyTimeoutMs?: number;
+  /** PostgreSQL connections per process; unset: 10 (pg's default). */
+  poolMax?: number;
+}
+
+/** `target` is a SQLite file path or a postgres:// URL. */
+export function createDb(target: string, opts: DbOptions = {}): Knex {
+  return isPostgresUrl(target) ? createPostgresDb(target, opts) : createSqliteDb(target, opts);
+}
+
+function createPostgresDb(connectionString: string, opts: DbOptions): Knex {
+  return knexFactory({
+    client: 'pg',
+    connection: { connectionString },
+    migrations: migrationConfig,
+    pool: { min: 0, max: opts.poolMax ?? 10 },
+  });
+}
+
+function createSqliteDb(filename: string, opts: DbOptions): Knex {
   const busyTimeoutMs = Math.trunc(opts.busyTimeoutMs ?? DEFAULT_BUSY_TIMEOUT_MS);
   return knexFactory({
     client: 'better-sqlite3',

@@ -1,6 +1,6 @@
-// Small helpers for reading SQLite rows.
+// Small helpers for reading rows the same way from SQLite and PostgreSQL.
 
-/** JSON columns come back as text from SQLite. */
+/** JSON columns come back as text from SQLite and already parsed from PostgreSQL. */
 export function json<T>(value: unknown, fallback: T): T {
   if (value === null || value === undefined) return fallback;
   if (typeof value !== 'string') return value as T;
@@ -13,8 +13,5 @@ export function json<T>(value: unknown, fallback: T): T {
 
 export const bool = (value: unknown) => value === true || value === 1;
 
-/** SQLite reports constraint failures by code; map the unique one so callers can answer 409. */
-export function isUniqueViolation(err: unknown): boolean {
-  const code = (err as { code?: string })?.code;
-  return code === 'SQLITE_CONSTRAINT_UNIQUE' || code === 'SQLITE_CONSTRAINT_PRIMARYKEY';
-}
+// the unique-violation test lives with the other dialect differences
+export { isUniqueViolation } from './dialect';

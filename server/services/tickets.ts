@@ -7,6 +7,7 @@ import { conflict, notFound } from '../errors';
 import { alreadyBumped, assertAllergyRead, bumpRows, nextBumpSeq, openDrinks, settleTicket, startRows, ticketEvents, ticketWords } from './bar-rows';
 import { recordCoffeeUse, returnCoffeeUse } from './beans-usage';
 import type { Deps } from './deps';
+import { snapshotRead } from '../db/dialect';
 import { appendEvent, latestSeq, runCommand } from './events';
 import { openJug } from './jugs';
 import { loadJugRules, loadLocation } from './menu';
@@ -14,7 +15,7 @@ import { loadBoardTickets, loadTicket } from './ticket-views';
 
 
 export async function boardSnapshot(deps: Deps, locationId: number): Promise<BoardSnapshot> {
-  // One read transaction, so the tickets and the sequence number describe the same moment.
+  // One read transaction on one snapshot, so the tickets and the sequence number describe the same moment.
   return deps.db.transaction(async (trx) => {
     const location = await loadLocation(trx, locationId);
     const nowMs = deps.clock().getTime();
@@ -31,7 +32,7 @@ export async function boardSnapshot(deps: Deps, locationId: number): Promise<Boa
       },
       tickets,
     };
-  });
+  }, snapshotRead(deps.db));
 }
 
 async function orderInLocation(trx: Knex.Transaction, orderId: number, user: SessionUser) {

@@ -91,7 +91,7 @@ describe('the demo lots', () => {
 describe('adding and editing a lot', () => {
   it('adds a lot: days since roast in café days, state, stock; filling the espresso grinder moves the old lot to the shelf', async () => {
     const old = (await view()).lots.find((l) => l.hopper === 'espresso')!;
-    const since = Number((await server.db('events').max({ m: 'id' }).first())?.m);
+    const since = Number((await server.db('events').max({ m: 'seq' }).first())?.m);
     const lot = await createLot();
     // 20 February → 2 March 2026: 8 days left in February + 2 = 10 days; 5 ≤ 10 ≤ 30 → best (common practice)
     expect(lot).toMatchObject({
@@ -111,7 +111,7 @@ describe('adding and editing a lot', () => {
     expect(lotIn(v, old.id).hopper).toBe('shelf');
     expect(v.lots.filter((l) => l.hopper === 'espresso' && !l.retiredAt).map((l) => l.id)).toEqual([lot.id]);
     // one menu.changed event, so open Bars reload what is on the grinder
-    const events = await server.db('events').where('id', '>', since);
+    const events = await server.db('events').where('seq', '>', since);
     expect(events.map((e) => e.type)).toEqual(['menu.changed']);
   });
 

@@ -478,7 +478,7 @@ describe('live', () => {
     const { id } = await create('items', latteBody('Lantern Latte'));
     const changed = await client.next((m) => m.type === 'event' && m.event.type === 'menu.changed', 'menu.changed');
     const seq = (changed as { event: { seq: number } }).event.seq;
-    const logged = await server.db('events').where({ id: seq }).first();
+    const logged = await server.db('events').where({ seq }).first();
     expect(logged).toMatchObject({ type: 'menu.changed' });
     expect((await counterMenu()).items.map((i) => i.id)).toContain(id);
 

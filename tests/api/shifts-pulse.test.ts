@@ -36,7 +36,7 @@ function harness(time: ReturnType<typeof manualClock>) {
   });
   afterAll(() => ctx.server.close());
 
-  const maxEventId = async () => Number((await ctx.server.db('events').max({ m: 'id' }).first())?.m ?? 0);
+  const maxEventId = async () => Number((await ctx.server.db('events').max({ m: 'seq' }).first())?.m ?? 0);
   return {
     ctx,
     maxEventId,
@@ -44,7 +44,7 @@ function harness(time: ReturnType<typeof manualClock>) {
     async send(agent: Agent, path: string, body: object) {
       const since = await maxEventId();
       const res = await agent.post(path).send(body);
-      const events = await ctx.server.db('events').where('id', '>', since).orderBy('id');
+      const events = await ctx.server.db('events').where('seq', '>', since).orderBy('seq');
       return { res, events };
     },
     /** A cash order (tendered well over the total) placed by the cashier. */

@@ -48,8 +48,8 @@ export async function demoLines(server: TestServer) {
 
 /** The events table for one location, as the socket would replay it. */
 export async function loggedEvents(server: TestServer, locationId: number) {
-  const rows = await server.db('events').where({ location_id: locationId }).orderBy('id').select('id', 'type');
-  return rows.map((r) => ({ seq: r.id as number, type: r.type as string }));
+  const rows = await server.db('events').where({ location_id: locationId }).orderBy('seq').select('seq', 'type');
+  return rows.map((r) => ({ seq: r.seq as number, type: r.type as string }));
 }
 
 export async function demoLocationId(server: TestServer): Promise<number> {

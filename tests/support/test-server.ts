@@ -1,5 +1,5 @@
-// A real Jugline server for one test file: its own freshly migrated SQLite file with the demo
-// café, a real HTTP server on loopback, and signed-in supertest agents per role.
+// A real Jugline server for one test file: its own freshly migrated database with the demo café
+// (a SQLite file, or a PostgreSQL database on the `server-pg` leg: test-database.ts), a real HTTP server on loopback, and signed-in supertest agents per role.
 import { randomBytes } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
@@ -10,6 +10,7 @@ import { startServer, type RunningServer } from '../../server/server';
 import type { SignInPacing } from '../../server/routes/session';
 import type { Clock } from '../../server/services/deps';
 import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
+import { createTestDatabase } from './test-database';
 
 export type DemoLogin = 'owner' | 'lead' | 'cashier' | 'barista' | 'barista2';
 
@@ -41,11 +42,13 @@ export async function startTestServer(
   } = {},
 ): Promise<TestServer> {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-test-'));
+  const database = await createTestDatabase();
   const config: Config = {
     env: 'test',
     port: 0,
     host: '127.0.0.1',
     databaseFile: path.join(dir, 'jugline.sqlite'),
+    databaseUrl: database.databaseUrl,
     sessionSecret: randomBytes(32).toString('hex'),
     seedDemo: true,
     dbBusyTimeoutMs: opts.dbBusyTimeoutMs,
@@ -79,6 +82,7 @@ export async function startTestServer(
     cookieFor,
     close: async () => {
       await running.close();
+      await database.drop();
       rmSync(dir, { recursive: true, force: true });
     },
   };

@@ -1,0 +1,129 @@
+// A throwaway PostgreSQL cluster from Debian's `postgresql` package for the PostgreSQL test leg:
+// initdb into a temporary folder, the server on a free loopback port with its socket in the same
+// folder, stopped and removed afterwards. No running service, no password (trust on loopback).
+// initdb and postgres refuse to run as root, so as root they run as the `postgres` user.
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { chownSync, existsSync, mkdtempSync, readdirSync, rmSync } from 'node:fs';
+import net from 'node:net';
+import os from 'node:os';
+import path from 'node:path';
+import pg from 'pg';
+
+export const MISSING_POSTGRES =
+  'The PostgreSQL test leg needs PostgreSQL 15 from Debian: apt-get install postgresql ' +
+  '(only the binaries in /usr/lib/postgresql/<version>/bin are used; no service has to run). ' +
+  'Or point PG_BIN at a folder holding initdb and postgres.';
+
+export interface PgCluster {
+  /** postgres://… of the `postgres` maintenance database (superuser, no password). */
+  adminUrl: string;
+  urlOf(database: string): string;
+  stop(): Promise<void>;
+}
+
+/** The folder holding initdb and postgres: PG_BIN, or the newest Debian version installed. */
+export function postgresBin(env: NodeJS.ProcessEnv = process.env): string {
+  if (env.PG_BIN) {
+    if (!existsSync(path.join(env.PG_BIN, 'initdb'))) throw new Error(`PG_BIN=${env.PG_BIN} holds no initdb. ${MISSING_POSTGRES}`);
+    return env.PG_BIN;
+  }
+  const root = '/usr/lib/postgresql';
+  const versions = existsSync(root)
+    ? readdirSync(root)
+        .filter((v) => existsSync(path.join(root, v, 'bin', 'initdb')))
+        .sort((a, b) => Number(b) - Number(a))
+    : [];
+  if (versions.length === 0) throw new Error(MISSING_POSTGRES);
+  return path.join(root, versions[0], 'bin');
+}
+
+/** As root, the uid and gid of the `postgres` user (initdb refuses root); otherwise ourselves. */
+function runAs(): { uid: number; gid: number } | undefined {
+  if (process.getuid?.() !== 0) return undefined;
+  const id = (flag: string) => Number(spawnSync('id', [flag, 'postgres'], { encoding: 'utf8' }).stdout.trim());
+  const uid = id('-u');
+  const gid = id('-g');
+  if (!Number.isInteger(uid) || uid <= 0) throw new Error(`Running as root and there is no \`postgres\` user. ${MISSING_POSTGRES}`);
+  return { uid, gid };
+}
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const server = net.createServer();
+    server.once('error', reject);
+    server.listen(0, '127.0.0.1', () => {
+      const { port } = server.address() as net.AddressInfo;
+      server.close(() => resolve(port));
+    });
+  });
+}
+
+async function waitUntilReady(url: string, child: ChildProcess, log: () => string): Promise<void> {
+  for (let attempt = 0; attempt < 300; attempt++) {
+    if (child.exitCode !== null) throw new Error(`postgres exited with ${child.exitCode}:\n${log()}`);
+    const client = new pg.Client({ connectionString: url });
+    try {
+      await client.connect();
+      await client.end();
+      return;
+    } catch {
+      await client.end().catch(() => {});
+      await new Promise((r) => setTimeout(r, 100));
+    }
+  }
+  throw new Error(`postgres did not accept connections:\n${log()}`);
+}
+
+export async function startCluster(): Promise<PgCluster> {
+  const bin = postgresBin();
+  const owner = runAs();
+  const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-pg-'));
+  if (owner) chownSync(dir, owner.uid, owner.gid);
+  const data = path.join(dir, 'data');
+  const init = spawnSync(
+    path.join(bin, 'initdb'),
+    ['-D', data, '-A', 'trust', '-U', 'postgres', '--no-sync', '-E', 'UTF8', '--locale=C'],
+    { encoding: 'utf8', cwd: dir, ...owner },
+  );
+  if (init.status !== 0) {
+    rmSync(dir, { recursive: true, force: true });
+    throw new Error(`initdb failed (${init.error?.message ?? init.status}):\n${init.stderr}\n${MISSING_POSTGRES}`);
+  }
+  const port = await freePort();
+  // durability off: a test cluster is thrown away; max_connections covers a pool per test server
+  const child = spawn(
+    path.join(bin, 'postgres'),
+    ['-D', data, '-p', String(port), '-k', dir, '-c', 'listen_addresses=127.0.0.1', '-c', 'fsync=off', '-c', 'synchronous_commit=off', '-c', 'full_page_writes=off', '-c', 'max_connections=400'],
+    { cwd: dir, stdio: ['ignore', 'pipe', 'pipe'], ...owner },
+  );
+  let output = '';
+  child.stdout?.on('data', (d) => (output += d));
+  child.stderr?.on('data', (d) => (output = (output + d).slice(-20_000)));
+  const urlOf = (database: string) => `postgres://postgres@127.0.0.1:${port}/${database}`;
+  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
+  const stop = async () => {
+    if (child.exitCode === null) {
+      child.kill('SIGINT'); // fast shutdown: roll back open transactions, close connections
+      await exited;
+    }
+    rmSync(dir, { recursive: true, force: true });
+  };
+  try {
+    await waitUntilReady(urlOf('postgres'), child, () => output);
+  } catch (err) {
+    await stop();
+    throw err;
+  }
+  return { adminUrl: urlOf('postgres'), urlOf, stop };
+}
+
+/** One statement on a short-lived connection (CREATE/DROP DATABASE can't run in a transaction). */
+export async function adminQuery(url: string, sql: string): Promise<void> {
+  const client = new pg.Client({ connectionString: url });
+  await client.connect();
+  try {
+    await client.query(sql);
+  } finally {
+    await client.end();
+  }
+}
