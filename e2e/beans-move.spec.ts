@@ -1,6 +1,7 @@
 // Filling a grinder moves the lot in it to the shelf: the owner is asked first, naming that lot,
 // and told after.
 import { errorsOf, expect, pageAs, test } from './fixtures';
+import { shot } from './shots';
 
 test('adding a lot to a full grinder asks first, naming the lot that moves, and says so after', async ({ browser }) => {
   const page = await pageAs(browser, 'owner', '/admin/beans', { width: 1366, height: 768 });
@@ -17,7 +18,7 @@ test('adding a lot to a full grinder asks first, naming the lot that moves, and 
   const confirm = page.getByRole('group', { name: 'Move a lot to the shelf' });
   await expect(confirm).toContainText(`${inEspresso} is in the espresso grinder. Put Tidewater Natural in and move ${inEspresso} to the shelf?`);
   await expect(lots).not.toContainText('Tidewater Natural');
-  await page.screenshot({ path: 'test-results/shots/beans-move-confirm.png', fullPage: true });
+  await page.screenshot(shot('beans-move-confirm', { fullPage: true }));
   await confirm.getByRole('button', { name: `Yes, move ${inEspresso} to the shelf` }).click();
 
   await expect(page.getByRole('status').filter({ hasText: 'Added Tidewater Natural' })).toHaveText(

@@ -4,8 +4,8 @@
 // Screenshots go to test-results/shots/ for a person to look at.
 import type { APIRequestContext, Locator, Page } from '@playwright/test';
 import { DEMO_PASSWORD, errorsOf, expect, pageAs, test, type Login } from './fixtures';
+import { shot } from './shots';
 
-const shot = (name: string) => `test-results/shots/${name}.png`;
 
 async function apiAs(playwright: { request: { newContext(o: { baseURL?: string }): Promise<APIRequestContext> } }, baseURL: string | undefined, login: Login) {
   const api = await playwright.request.newContext({ baseURL });
@@ -63,13 +63,13 @@ test('from a phone to a wide screen nothing scrolls sideways and the menu, order
       await expect(page.getByRole('radio', { name: 'Card' })).toBeInViewport({ ratio: 1 });
     }
     await expectNoSidewaysScroll(page);
-    await page.screenshot({ path: shot(`counter-${viewport.width}x${viewport.height}`) });
+    await page.screenshot(shot(`counter-${viewport.width}x${viewport.height}`));
     if (viewport.width < 768) {
       await page.getByLabel('Name for the cup').fill('Ivo Sand');
       await page.getByRole('button', { name: /^Send/ }).click();
       await expect(page.getByRole('status').filter({ hasText: /Sent #\d+ for Ivo Sand/ })).toBeInViewport();
       await expectNoSidewaysScroll(page);
-      await page.screenshot({ path: shot('counter-390-sent') });
+      await page.screenshot(shot('counter-390-sent'));
     }
     expect(errorsOf(page)).toEqual([]);
     await page.context().close();
@@ -109,7 +109,7 @@ test('the ready strip stays one row, newest first, with the rest behind "+n more
       }
       await expect(page.getByRole('button', { name: /^Send/ })).toBeInViewport({ ratio: 1 });
     }
-    await page.screenshot({ path: shot(`counter-ready-${viewport.width}x${viewport.height}`) });
+    await page.screenshot(shot(`counter-ready-${viewport.width}x${viewport.height}`));
     if (viewport.width === 1024) {
       await strip.getByRole('button', { name: /^\+\d+ more ready/ }).click();
       const all = page.getByRole('dialog', { name: 'Ready for pickup' });
@@ -170,7 +170,7 @@ test('on a 1024×768 tablet the test cards are in view without scrolling, and th
   await page.getByLabel('Name for the cup').fill('Tablet Test');
   await page.getByRole('radio', { name: 'Card' }).click();
   for (const card of [/4242/, /0002/, /9995/, /0069/]) await expect(page.getByRole('radio', { name: card })).toBeInViewport({ ratio: 1 });
-  await page.screenshot({ path: shot('counter-1024-card') });
+  await page.screenshot(shot('counter-1024-card'));
   const order = page.getByRole('complementary');
   await order.evaluate((root) => [root, ...root.querySelectorAll('*')].forEach((el) => (el.scrollTop = el.scrollHeight)));
   await page.getByRole('radio', { name: /4242/ }).click();

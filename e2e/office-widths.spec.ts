@@ -3,6 +3,7 @@
 // box, and then the box is labelled (a region with a name) so a screen reader says what scrolls.
 import { expect, test, type Page } from '@playwright/test';
 import { errorsOf, pageAs } from './fixtures';
+import { shot } from './shots';
 
 const SCREENS = [
   { path: '/admin/menu', heading: 'Menu' },
@@ -74,7 +75,7 @@ test('Menu, Dial-in, Beans, Reports, Team and Settings fit 390 to 1920 px wide',
       const problems = await overflowOf(page);
       if (problems.length) found[`${screen.path} @ ${width}`] = problems;
       if (SHOT_WIDTHS.has(width)) {
-        await page.screenshot({ path: `test-results/shots/office${screen.path.replace(/\//g, '-')}-${width}.png`, fullPage: true });
+        await page.screenshot(shot(`office${screen.path.replace(/\//g, '-')}-${width}`, { fullPage: true }));
       }
     }
   }

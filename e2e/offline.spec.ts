@@ -6,6 +6,7 @@
 import { request as apiRequest, type BrowserContext } from '@playwright/test';
 import { DEMO_PASSWORD, expect, signIn, test } from './fixtures';
 import { expectedWhileDown, OwnServer } from './own-server';
+import { shot } from './shots';
 
 let own: OwnServer;
 
@@ -138,7 +139,7 @@ test.describe('Counter with the server gone', () => {
         (o) => o.customerName === 'Cass Moor',
       );
     expect(await ordersFor()).toEqual([]);
-    await page.screenshot({ path: 'test-results/shots/counter-card-held.png' });
+    await page.screenshot(shot('counter-card-held'));
 
     // the customer paid cash meanwhile: the order goes once, as cash
     await banner.getByRole('button', { name: 'Cass Moor paid cash' }).click();

@@ -58,7 +58,7 @@ test('a shift on Pulse: open, live numbers, close with a count, report mailed', 
   // Pax Ruiz's ticket is still at the bar: the lead is told how many and how old, and asked again
   const stillOpen = pulse.getByRole('group', { name: 'Tickets still open' });
   await expect(stillOpen).toContainText(/1 ticket is still open at the bar; the ticket has waited \d+:\d\d\./);
-  await pulse.screenshot({ path: 'test-results/shots/shift-close-open-tickets.png', fullPage: true });
+  await pulse.screenshot(shot('shift-close-open-tickets', { fullPage: true }));
   await stillOpen.getByRole('button', { name: 'Close with the ticket open' }).click();
   await expect(pulse.getByRole('status').filter({ hasText: 'Last shift closed' })).toContainText('difference $0.00');
 

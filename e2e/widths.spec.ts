@@ -10,6 +10,7 @@
 import type { Page } from '@playwright/test';
 import { errorsOf, expect, test } from './fixtures';
 import { open, SCREEN_NAMES, screenSuite } from './screens';
+import { shot } from './shots';
 
 /** A phone, a tablet upright and on its side, a small laptop, a desktop. */
 const VIEWPORTS = [
@@ -112,7 +113,7 @@ for (const name of SCREEN_NAMES) {
       await page.setViewportSize(viewport);
       await open(page, screen.path);
       await page.evaluate(() => document.fonts.ready.then(() => undefined));
-      await page.screenshot({ path: `test-results/shots/widths/${name}-${viewport.width}.png`, fullPage: true });
+      await page.screenshot(shot(`widths/${name}-${viewport.width}`, { fullPage: true }));
       for (const p of await layoutProblems(page)) problems.push(`${viewport.width} px: ${p}`);
     }
     expect(problems, `${name} at some width`).toEqual([]);

@@ -84,9 +84,8 @@ export async function appendMenuChangedEvent(_trx: Knex.Transaction, locationId:
 }
 
 /** A dial-in shot was logged; the Bar's grinder line reloads (the menu does not). */
-export async function appendBeansChangedEvent(trx: Knex.Transaction, locationId: number, at: string, actorId: number | null): Promise<PendingEvent> {
-  const seq = await insertEvent(trx, locationId, 'beans.changed', {}, at, actorId);
-  return { locationId, event: { seq, type: 'beans.changed', at } };
+export async function appendBeansChangedEvent(_trx: Knex.Transaction, locationId: number, at: string, actorId: number | null): Promise<PendingEvent> {
+  return pending(locationId, { seq: 0, type: 'beans.changed', at }, actorId);
 }
 
 /** Run a command in one transaction; publish its events only once it has committed. */
