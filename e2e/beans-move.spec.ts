@@ -1,10 +1,14 @@
 // Filling a grinder moves the lot in it to the shelf: the owner is asked first, naming that lot,
 // and told after.
 import { errorsOf, expect, pageAs, test } from './fixtures';
+import { ownServerFor } from './own-server';
 import { shot } from './shots';
 
+// the seed's grinders as they were: other specs fill and empty them on the shared server
+const own = ownServerFor('beans-move');
+
 test('adding a lot to a full grinder asks first, naming the lot that moves, and says so after', async ({ browser }) => {
-  const page = await pageAs(browser, 'owner', '/admin/beans', { width: 1366, height: 768 });
+  const page = await pageAs(browser, 'owner', '/admin/beans', { width: 1366, height: 768 }, own.baseURL);
   const lots = page.getByTestId('lots-table');
   const inEspresso = (await lots.getByRole('row').filter({ hasText: 'Espresso' }).first().getByRole('button', { name: /^Edit / }).getAttribute('aria-label'))!.replace(/^Edit /, '');
   await page.getByRole('button', { name: 'Add a lot' }).click();

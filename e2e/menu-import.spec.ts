@@ -36,7 +36,7 @@ test('the owner imports a menu file after fixing its bad row, and the new item i
   await panel.getByRole('button', { name: 'Import 2 rows' }).click();
   await expect(panel.getByTestId('import-result')).toContainText('2 rows: 2 added, 0 updated');
   // the editor above the panel shows the new drink without a reload
-  await expect(page.getByRole('region', { name: 'Items' })).toContainText('Cortado');
+  await expect(page.getByRole('region', { name: 'Items', exact: true })).toContainText('Cortado');
 
   // a photo for the new item, with the upload's progress shown until it is stored
   await panel.getByText('Item photos').click();

@@ -1,12 +1,15 @@
 // The foundation path end to end: Counter → Bar → Pickup, live, in Debian's Chromium.
 import { errorsOf, expect, pageAs, test } from './fixtures';
+import { ownServerFor } from './own-server';
 import { shot } from './shots';
 
+// a board with only this order on it, so Pickup shows its name whatever other specs left open
+const own = ownServerFor('order-flow');
 
 test('an order of three drinks travels live from the Counter to the Bar to Pickup', async ({ browser }) => {
-  const bar = await pageAs(browser, 'barista', '/bar');
-  const pickup = await pageAs(browser, 'lead', '/pickup');
-  const counter = await pageAs(browser, 'cashier', '/counter', { width: 1280, height: 800 });
+  const bar = await pageAs(browser, 'barista', '/bar', undefined, own.baseURL);
+  const pickup = await pageAs(browser, 'lead', '/pickup', undefined, own.baseURL);
+  const counter = await pageAs(browser, 'cashier', '/counter', { width: 1280, height: 800 }, own.baseURL);
   await expect(bar.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
   await expect(pickup.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
   await expect(counter.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();

@@ -5,7 +5,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { createServer } from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
-import { expect } from '@playwright/test';
+import { expect, test } from '@playwright/test';
 
 function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -71,4 +71,24 @@ export class OwnServer {
     await this.kill();
     rmSync(this.dir, { recursive: true, force: true });
   }
+}
+
+/**
+ * A spec that needs a café of its own (a board with only its own tickets, a bean shelf as seeded):
+ * one server on a fresh database for the file, started before its tests and removed after.
+ * Call at the top of the spec; read `.baseURL` inside a test.
+ */
+export function ownServerFor(name: string): { readonly baseURL: string } {
+  let own: OwnServer | undefined;
+  test.beforeAll(async () => {
+    own = await OwnServer.create(name);
+    await own.start();
+  });
+  test.afterAll(() => own?.dispose());
+  return {
+    get baseURL() {
+      if (!own) throw new Error('ownServerFor: read baseURL inside a test');
+      return own.baseURL;
+    },
+  };
 }

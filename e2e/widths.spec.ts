@@ -2,11 +2,6 @@
 // sideways, no control sits past the right edge, no text spills out of its box. One test per
 // screen (the widths inside), so a failure names the screen and lists every width that fails.
 // Screenshots: test-results/shots/widths/<screen>-<width>.png.
-//
-// Owners: sign-in, welcome, Outbox, receipt, cup labels, card check, the staff menu and the
-// not-found page are fixed here. A failure on Bar, Counter, Pickup, Pulse, Menu, Dial-in, Beans,
-// Reports, Team or Settings belongs to that screen's engineer and is left failing on purpose
-// (listed in the branch's report), not skipped.
 import type { Page } from '@playwright/test';
 import { errorsOf, expect, test } from './fixtures';
 import { open, SCREEN_NAMES, screenSuite } from './screens';
@@ -32,21 +27,23 @@ function layoutProblems(page: Page): Promise<string[]> {
     const name = (el: Element) => {
       const text = (el.getAttribute('aria-label') ?? (el as HTMLElement).innerText ?? el.getAttribute('placeholder') ?? '').replace(/\s+/g, ' ').trim();
       const test = el.closest('[data-testid]')?.getAttribute('data-testid');
-      return `${el.tagName.toLowerCase()}${test ? ` in [${test}]` : ''} "${text.slice(0, 40)}"`;
+      return `${el.tagName.toLowerCase()}${test ? ` in [${test}]` : ''} "${text.slice(0, 40) || el.outerHTML.slice(0, 120)}"`;
     };
     const shown = (el: Element) => {
       const r = el.getBoundingClientRect();
       const css = getComputedStyle(el);
       return r.width > 2 && r.height > 2 && css.visibility !== 'hidden' && !el.closest('[aria-hidden="true"], .sr-only, [inert]');
     };
-    /** Inside a box that scrolls sideways on its own (a wide table): reachable there, if the box itself fits. */
+    /**
+     * Inside a box that scrolls sideways on its own (a wide table, the Bar's lanes): reachable there
+     * if that box, or a scrolling box around it, fits the screen.
+     */
     const inScroller = (el: Element) => {
       for (let p = el.parentElement; p && p !== document.body; p = p.parentElement) {
         const o = getComputedStyle(p).overflowX;
-        if (o === 'auto' || o === 'scroll') {
-          const r = p.getBoundingClientRect();
-          return r.left >= -1 && r.right <= vw + 1;
-        }
+        if (o !== 'auto' && o !== 'scroll') continue;
+        const r = p.getBoundingClientRect();
+        if (r.left >= -1 && r.right <= vw + 1) return true;
       }
       return false;
     };
@@ -82,29 +79,12 @@ function layoutProblems(page: Page): Promise<string[]> {
   });
 }
 
-/**
- * Screens another engineer lays out. A failure there is left failing ON PURPOSE for that owner to
- * fix (never skipped); the test carries an "owner" annotation so the report says whose it is.
- */
-const OTHER_OWNERS: Record<string, string> = {
-  bar: 'bar engineer',
-  counter: 'counter engineer',
-  pickup: 'waits engineer',
-  pulse: 'waits engineer',
-  menu: 'office engineer',
-  'dial-in': 'office engineer',
-  beans: 'office engineer',
-  reports: 'office engineer',
-  team: 'office engineer',
-  settings: 'office engineer',
-};
 
 const suite = screenSuite();
 
 for (const name of SCREEN_NAMES) {
   test(`widths: ${name}`, async () => {
     test.slow(); // five loads and five full-page screenshots in one test
-    if (OTHER_OWNERS[name]) test.info().annotations.push({ type: 'owner', description: `layout of ${name}: ${OTHER_OWNERS[name]}` });
     const screen = suite.screen(name);
     const page = await suite.contexts.page(screen.as);
     const problems: string[] = [];

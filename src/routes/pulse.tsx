@@ -16,6 +16,7 @@ import { cn } from '../lib/cn';
 import { useHydrated } from '../lib/use-hydrated';
 import { requireScreen, type RouteDeps } from './deps';
 import { SCREENS } from '../domain/screens';
+import { ScrollBox } from '../components/ui/scroll-box';
 
 const PulseChart = lazy(() => import('../features/pulse/pulse-chart'));
 
@@ -46,6 +47,8 @@ function Numbers({ w, target }: { w: WaitSummary; target: number }) {
 
 function Table({ caption, head, rows }: { caption: string; head: string[]; rows: (string | number)[][] }) {
   return (
+    // a phone scrolls a wide table inside its own box, never the page
+    <ScrollBox label={caption}>
     <table className="w-full text-left text-base sm:text-lg">
       <caption className="mb-1 text-left text-base font-semibold tracking-widest text-ink-600 uppercase">{caption}</caption>
       <thead>
@@ -62,6 +65,7 @@ function Table({ caption, head, rows }: { caption: string; head: string[]; rows:
         ))}
       </tbody>
     </table>
+    </ScrollBox>
   );
 }
 

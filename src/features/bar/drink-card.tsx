@@ -59,7 +59,8 @@ export function DrinkCard({ card, unit, nowMs, targetSeconds, keyNumber, jugLabe
       aria-label={`Ticket ${card.ticketNumber}, ${card.customerName}: ${card.itemName}${allergy ? ', allergy' : ''}`}
       data-focused={focused || undefined}
       className={cn(
-        'rounded-xl border-2 bg-roast-750 p-2 text-crema-100',
+        // a long name or note wraps inside the card (inherited), never cut: a cut name is a drink handed to the wrong person
+        'rounded-xl border-2 bg-roast-750 p-2 text-crema-100 [overflow-wrap:anywhere]',
         card.status === 'making' ? 'border-crema-100' : 'border-transparent',
         late && 'border-dashed border-copper-300',
         // an allergy changes the whole card: a thick solid frame and a banner in words
@@ -97,7 +98,7 @@ export function DrinkCard({ card, unit, nowMs, targetSeconds, keyNumber, jugLabe
           </kbd>
         )}
         <span className="font-display text-5xl leading-none font-semibold">#{card.ticketNumber}</span>
-        <span className="min-w-0 truncate text-3xl font-semibold">{card.customerName}</span>
+        <span className="min-w-0 text-3xl font-semibold">{card.customerName}</span>
         {card.ticketSize > 1 && (
           <span className="ml-auto shrink-0 rounded-md border-2 border-crema-100 px-2 text-xl font-semibold">
             {card.indexInTicket} of {card.ticketSize}

@@ -15,6 +15,7 @@ import { formatCents } from '../../domain/money';
 import { cn } from '../../lib/cn';
 import { Panel, numClass, tdClass, thClass } from '../reports/report-breakdowns';
 import { Tile } from '../reports/report-tiles';
+import { ScrollBox } from '../../components/ui/scroll-box';
 
 const PROVIDER_WORD: Record<ProviderChargeStatus | 'missing', string> = {
   succeeded: 'Taken',
@@ -157,6 +158,7 @@ function LinesPanel<T extends Line>(props: {
       {lines.length === 0 ? (
         <p className="text-base text-ink-600">{props.empty}</p>
       ) : (
+        <ScrollBox label={`${props.title} table`}>
         <table className="w-full text-base" data-testid={`${props.kind}-lines`}>
           <thead>
             <tr>
@@ -189,6 +191,7 @@ function LinesPanel<T extends Line>(props: {
             ))}
           </tbody>
         </table>
+        </ScrollBox>
       )}
     </Panel>
   );

@@ -30,7 +30,7 @@ export function MenuGrid({ menu, onPick }: { menu: MenuView; onPick(item: MenuIt
 
   return (
     <div className="flex min-h-0 flex-col">
-      <div role="tablist" aria-label="Menu categories" className="flex gap-2">
+      <div role="tablist" aria-label="Menu categories" className="flex shrink-0 gap-1 overflow-x-auto">
         {menu.categories.map((c) => (
           <button
             key={c.id}
@@ -39,7 +39,7 @@ export function MenuGrid({ menu, onPick }: { menu: MenuView; onPick(item: MenuIt
             aria-selected={c.id === categoryId}
             onClick={() => setCategoryId(c.id)}
             className={cn(
-              'min-h-14 rounded-t-lg border-b-4 px-5 text-lg font-semibold',
+              'min-h-14 shrink-0 rounded-t-lg border-b-4 px-4 text-lg font-semibold whitespace-nowrap',
               c.id === categoryId ? 'border-copper-700 bg-steam-100' : 'border-transparent text-ink-600',
             )}
           >
