@@ -13,7 +13,7 @@ test('a shift on Pulse: open, live numbers, close with a count, report mailed', 
   const openForm = pulse.getByRole('form', { name: 'Open a shift' });
   await openForm.getByLabel('Cash float ($)').fill('150.00');
   await openForm.getByRole('button', { name: 'Open shift' }).click();
-  await expect(pulse.getByRole('region', { name: 'Shift' })).toContainText('Shift open since');
+  await expect(pulse.getByRole('region', { name: 'Shift', exact: true })).toContainText('Shift open since');
   await pulse.getByRole('tab', { name: 'This shift' }).click();
   const done = pulse.getByTestId('pulse-number').filter({ hasText: 'Tickets done' });
   await expect(done).toContainText('0');

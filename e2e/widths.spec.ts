@@ -32,7 +32,9 @@ function layoutProblems(page: Page): Promise<string[]> {
     const shown = (el: Element) => {
       const r = el.getBoundingClientRect();
       const css = getComputedStyle(el);
-      return r.width > 2 && r.height > 2 && css.visibility !== 'hidden' && !el.closest('[aria-hidden="true"], .sr-only, [inert]');
+      // a closed <details> keeps its content laid out but out of sight (Chromium's content-visibility)
+      const folded = el.closest('details:not([open]) > :not(summary)');
+      return r.width > 2 && r.height > 2 && css.visibility !== 'hidden' && !folded && !el.closest('[aria-hidden="true"], .sr-only, [inert]');
     };
     /**
      * Inside a box that scrolls sideways on its own (a wide table, the Bar's lanes): reachable there
