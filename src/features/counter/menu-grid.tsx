@@ -30,7 +30,7 @@ export function MenuGrid({ menu, onPick }: { menu: MenuView; onPick(item: MenuIt
 
   return (
     <div className="flex min-h-0 flex-col">
-      <div role="tablist" aria-label="Menu categories" className="flex shrink-0 gap-1 overflow-x-auto">
+      <div role="tablist" aria-label="Menu categories" className="flex shrink-0 flex-wrap gap-1">
         {menu.categories.map((c) => (
           <button
             key={c.id}
