@@ -153,6 +153,6 @@ export const SCREENS: Screen[] = [
 
 async function pulseReady(page: Page) {
   await live(page);
-  await expect(page.getByRole('region', { name: 'Shift' })).toContainText('Shift open since');
+  await expect(page.getByRole('region', { name: 'Shift', exact: true })).toContainText('Shift open since');
   await expect(page.getByTestId('staffing')).not.toBeEmpty();
 }

@@ -209,10 +209,10 @@ function Counter() {
           <Button tone="quiet" className="mb-2 self-start md:hidden" onClick={() => setPhoneView('menu')}>
             ‹ Menu
           </Button>
-          {/* a phone scrolls the order and payment as one (Send stays pinned); wider, the lines
+          {/* a phone scrolls the order and payment as one (Send stays pinned); wider, the lines (at least a line and a half, with its − / +)
               scroll on their own and the payment choices stay in view under them */}
           <div ref={orderScroll} className="min-h-0 flex-1 overflow-y-auto md:flex md:flex-col">
-            <div className="pr-1 md:min-h-0 md:flex-1 md:overflow-y-auto">
+            <div className="pr-1 md:min-h-32 md:flex-1 md:overflow-y-auto">
               <OrderPanel
                 menu={menu}
                 items={items}
