@@ -24,6 +24,7 @@ declare global {
 }
 
 declare module 'express-session' {
+  // eslint-disable-next-line @typescript-eslint/no-empty-object-type -- merges our fields into the library's interface
   interface SessionData extends SessionTimes {}
 }
 

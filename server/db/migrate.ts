@@ -8,8 +8,9 @@ import { seedDemoCafeIfEmpty } from '../../seeds/demo-cafe';
 import { dialectOf, isDatabaseBusy } from './dialect';
 import { migrate, migrationConfig } from './knex';
 
-/** Any fixed number: the advisory lock Jugline's migrations and seed run under ("jugline" in ASCII). */
-const MIGRATION_LOCK = 0x6a75676c696e65;
+/** Any fixed number: the advisory lock Jugline's migrations and seed run under ("jugl" in ASCII; a
+ * longer one would pass 2^53 and not be the number written here). */
+const MIGRATION_LOCK = 0x6a75676c;
 
 export interface PreparedDatabase {
   migrated: number;

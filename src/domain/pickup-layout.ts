@@ -37,7 +37,10 @@ export function pickupLayout(making: number, ready: number, space: PickupSpace):
   for (let spare = total - 2; spare > 0; spare--) {
     const mShort = need(making, rows) - m;
     const rShort = need(ready, rows) - r;
-    if (mShort <= 0 && rShort <= 0) (making >= ready ? m++ : r++);
+    if (mShort <= 0 && rShort <= 0) {
+      if (making >= ready) m++;
+      else r++;
+    }
     else if (mShort >= rShort) m++;
     else r++;
   }

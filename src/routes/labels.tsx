@@ -4,7 +4,7 @@ import { useSuspenseQuery } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router';
 import { Button } from '../components/ui/button';
 import { ServiceMark } from '../components/ui/service-mark';
-import { orderQuery } from '../features/orders/queries';
+import { orderQuery } from '../queries/orders';
 import { useApi } from '../lib/api-context';
 import { orNotFound, orderIdFrom, requireScreen, type RouteDeps } from './deps';
 import { SCREENS } from '../domain/screens';

@@ -4,7 +4,7 @@ import { useSuspenseQuery } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
 import { Link, useSearchParams, type LoaderFunctionArgs } from 'react-router';
 import type { OutboxMail } from '../domain/outbox';
-import { outboxQuery } from '../features/outbox/queries';
+import { outboxQuery } from '../queries/outbox';
 import { useApi } from '../lib/api-context';
 import { cn } from '../lib/cn';
 import { requireScreen, type RouteDeps } from './deps';

@@ -6,7 +6,7 @@ import { HOME_SCREEN } from '../domain/roles';
 import { signInBody, type SignInBody } from '../domain/schemas';
 import { Button } from '../components/ui/button';
 import { FieldError } from '../components/ui/field-error';
-import { sessionKeys } from '../features/session/queries';
+import { sessionKeys } from '../queries/session';
 import type { PublicUser } from '../lib/api';
 import { ApiError, http } from '../lib/http';
 import { useHydrated } from '../lib/use-hydrated';

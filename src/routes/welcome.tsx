@@ -9,7 +9,7 @@ import { HOME_SCREEN } from '../domain/roles';
 import { PASSWORD_MAX_BYTES, PASSWORD_MIN_CHARS, setPasswordBody, type SetPasswordBody } from '../domain/team-schemas';
 import { Button } from '../components/ui/button';
 import { FieldError } from '../components/ui/field-error';
-import { welcomeQuery } from '../features/team/queries';
+import { welcomeQuery } from '../queries/team';
 import type { PublicUser } from '../lib/api';
 import { useApi } from '../lib/api-context';
 import { ApiError, http } from '../lib/http';

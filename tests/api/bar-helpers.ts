@@ -50,7 +50,7 @@ export function barTools(get: { server: () => TestServer; cashier: () => Agent; 
     expect(res.body.error).toMatchObject({ code, message: expect.any(String) });
     expect(events).toEqual([]);
     expect(await rowsOf(watch)).toEqual(before);
-    return res.body.error as { code: string; message: string; details?: any };
+    return res.body.error as { code: string; message: string; details?: Record<string, unknown> };
   }
 
   /** A successful one-ticket command: 200 { ticket } and exactly one event of `type` carrying it. */

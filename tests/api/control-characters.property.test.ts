@@ -202,7 +202,7 @@ describe('menu CSV import', () => {
   it('refuses a forbidden character in a name cell with the row and column, and imports nothing', async () => {
     // a lone surrogate can't be written as UTF-8 at all (the file would carry U+FFFD instead);
     // a NUL byte marks the whole upload as binary (415), checked in its own test below
-    const inFile = forbidden.filter((ch) => !/[\uD800-\uDFFF\u0000]/.test(ch));
+    const inFile = forbidden.filter((ch) => ch !== '\u0000' && !/[\uD800-\uDFFF]/.test(ch));
     await fc.assert(
       fc.asyncProperty(fc.constantFrom('category', 'item', 'size'), inFile, async (column, ch) => {
         const cells = { category: 'Brunch', item: 'Quay Latte', size: 'Regular' };

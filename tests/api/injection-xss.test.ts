@@ -18,6 +18,7 @@ import type { LiveEvent } from '../../src/domain/types';
 import { manualClock, type DemoLogin } from '../support/test-server';
 import { closeAllSockets, connectAndResume, type LiveClient } from '../realtime/ws-client';
 import { orderBody, type Agent } from './helpers';
+import Papa from 'papaparse';
 
 // jsdom (a WHATWG-conformant HTML parser; scripts are not run) ships no types; its document is a DOM Document
 const { JSDOM } = createRequire(import.meta.url)('jsdom') as { JSDOM: new (html: string) => { window: { document: Document } } };
@@ -83,25 +84,9 @@ function visibleText(html: string): string {
 }
 const flat = (s: string) => s.replace(/\s+/g, ' ');
 
-/** RFC 4180 §2: fields split by commas, records by CRLF; a quoted field may hold commas, CRLF and "" for a quote. */
+/** RFC 4180 §2 (a quoted field may hold commas, CRLF and "" for a quote), read by papaparse, a reader written apart from ours. */
 function readCsv(text: string): string[][] {
-  const rows: string[][] = [];
-  let row: string[] = [];
-  let field = '';
-  let quoted = false;
-  for (let i = 0; i < text.length; i++) {
-    const c = text[i];
-    if (quoted) {
-      if (c === '"' && text[i + 1] === '"') (field += '"'), i++;
-      else if (c === '"') quoted = false;
-      else field += c;
-    } else if (c === '"') quoted = true;
-    else if (c === ',') row.push(field), (field = '');
-    else if (c === '\r' && text[i + 1] === '\n') row.push(field), rows.push(row), (row = []), (field = ''), i++;
-    else field += c;
-  }
-  if (field || row.length) row.push(field), rows.push(row);
-  return rows;
+  return Papa.parse<string[]>(text.replace(/\r\n$/, ''), { newline: '\r\n' }).data;
 }
 
 const time = manualClock('2026-03-02T14:00:00.000Z'); // 09:00 in New York, the demo café's zone
@@ -111,7 +96,7 @@ const agents = {} as Record<DemoLogin, Agent>;
 let orderId: number;
 let secondOrderId: number;
 let csvOrderId: number;
-let fired: LiveEvent[] = [];
+const fired: LiveEvent[] = [];
 let bar: LiveClient;
 
 async function signIn(login: DemoLogin) {

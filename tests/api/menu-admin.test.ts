@@ -81,7 +81,7 @@ async function create(kind: string, body: object): Promise<{ id: number; menu: A
 }
 
 /** 400 validation_failed naming `path`, and nothing changed. */
-async function expectInvalid(send: () => Promise<{ status: number; body: any }>, path: string) {
+async function expectInvalid(send: () => Promise<{ status: number; body: { error: { code: string; message: string; details: { path: string; message: string }[] } } }>, path: string) {
   const before = await snapshot();
   const res = await send();
   expect(res.status, JSON.stringify(res.body)).toBe(400);
@@ -91,7 +91,7 @@ async function expectInvalid(send: () => Promise<{ status: number; body: any }>,
 }
 
 /** `status` with the API's error code for it, and nothing changed. */
-async function expectRefused(status: 404 | 409, send: () => Promise<{ status: number; body: any }>) {
+async function expectRefused(status: 404 | 409, send: () => Promise<{ status: number; body: { error: { code: string; message: string; details?: { path: string; message: string }[] } } }>) {
   const before = await snapshot();
   const res = await send();
   expect(res.status, JSON.stringify(res.body)).toBe(status);

@@ -63,7 +63,7 @@ async function openTicketIds(): Promise<number[]> {
 }
 
 /** Send a command and check it was refused: the status and code, and not one row written. */
-async function expectRefused(send: () => PromiseLike<{ status: number; body: any }>, status: number, code: string, orderId: number) {
+async function expectRefused(send: () => PromiseLike<{ status: number; body: { error: { code: string; message: string; details?: { path: string; message: string }[] } } }>, status: number, code: string, orderId: number) {
   const before = { order: await orderRow(orderId), refunds: await countRows('refunds'), payments: await countRows('payments'), seq: await maxEventId() };
   const res = await send();
   expect(res.status, JSON.stringify(res.body)).toBe(status);

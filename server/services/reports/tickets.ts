@@ -35,9 +35,13 @@ const SORT_SQL: Record<TicketSort, string> = {
 function whereOf(locationId: number, f: TicketFilter): { sql: string; bindings: (string | number)[] } {
   const parts = ['o.location_id = ?'];
   const bindings: (string | number)[] = [locationId];
-  if (f.from) parts.push('o.business_date >= ?'), bindings.push(f.from);
-  if (f.to) parts.push('o.business_date <= ?'), bindings.push(f.to);
-  if (f.status) parts.push('o.status = ?'), bindings.push(f.status);
+  const where = (sql: string, value: string | number) => {
+    parts.push(sql);
+    bindings.push(value);
+  };
+  if (f.from) where('o.business_date >= ?', f.from);
+  if (f.to) where('o.business_date <= ?', f.to);
+  if (f.status) where('o.status = ?', f.status);
   if (f.q) {
     const number = Number(f.q.replace(/^#/, ''));
     const like = `%${f.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;

@@ -5,7 +5,7 @@ import { cn } from '../../lib/cn';
 
 export function ScrollBox({ label, className, children }: { label: string; className?: string; children: ReactNode }) {
   return (
-    // eslint-disable-next-line jsx-a11y/no-noninteractive-tabindex -- a scrolling region must be reachable by keyboard
+    // tabIndex: a scrolling region must be reachable by keyboard (WCAG 2.1.1)
     <div role="region" aria-label={label} tabIndex={0} className={cn('relative max-w-full overflow-x-auto', className)}>
       {children}
     </div>

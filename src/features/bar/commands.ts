@@ -3,7 +3,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { TicketView } from '../../domain/types';
 import { http } from '../../lib/http';
-import { applyTicket } from '../board/use-live-board';
+import { applyTicket } from '../../live/use-live-board';
 
 type OneKind = 'start-drink' | 'bump-drink' | 'acknowledge-allergy' | 'bump-ticket' | 'recall-ticket' | 'rush-ticket';
 export type BarCommand =

@@ -14,7 +14,7 @@ import { Segmented } from '../../components/ui/segmented';
 import { beanCommands } from '../../lib/beans-api';
 import { ApiError } from '../../lib/http';
 import { cn } from '../../lib/cn';
-import { beanKeys } from './queries';
+import { beanKeys } from '../../queries/beans';
 
 const input = 'mt-1 block min-h-12 w-full rounded-lg border border-steam-200 bg-white px-3 text-lg';
 const label = 'block text-sm font-semibold tracking-widest text-ink-600 uppercase';

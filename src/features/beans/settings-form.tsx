@@ -11,7 +11,7 @@ import { FieldError } from '../../components/ui/field-error';
 import { useHydrated } from '../../lib/use-hydrated';
 import { beanCommands } from '../../lib/beans-api';
 import { ApiError } from '../../lib/http';
-import { beanKeys } from './queries';
+import { beanKeys } from '../../queries/beans';
 
 const decimal = (v: unknown) => (v === '' || v === undefined ? NaN : Number(String(v).replace(',', '.')));
 const ratio = z.number('Enter a ratio like 2.0').min(0.5).max(5);

@@ -13,8 +13,8 @@ import {
 } from '../../domain/card-check';
 import { formatCents } from '../../domain/money';
 import { cn } from '../../lib/cn';
-import { Panel, numClass, tdClass, thClass } from '../reports/report-breakdowns';
-import { Tile } from '../reports/report-tiles';
+import { Panel, numClass, tdClass, thClass } from '../../components/report/report-breakdowns';
+import { Tile } from '../../components/report/report-tiles';
 import { ScrollBox } from '../../components/ui/scroll-box';
 
 const PROVIDER_WORD: Record<ProviderChargeStatus | 'missing', string> = {

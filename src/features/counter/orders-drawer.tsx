@@ -8,7 +8,7 @@ import { Button } from '../../components/ui/button';
 import { useModalFocus } from '../../components/ui/use-modal-focus';
 import { useApi } from '../../lib/api-context';
 import { ApiError, http } from '../../lib/http';
-import { orderKeys, ordersQuery } from '../orders/queries';
+import { orderKeys, ordersQuery } from '../../queries/orders';
 
 const STATUS: Record<OrderView['status'], string> = {
   pending: 'waiting for payment',

@@ -6,7 +6,7 @@ import { useEffect, useRef, useState } from 'react';
 import type { TicketView } from '../../domain/types';
 import { Button } from '../../components/ui/button';
 import { http } from '../../lib/http';
-import { applyTicket } from '../board/use-live-board';
+import { applyTicket } from '../../live/use-live-board';
 
 /** Chips that fit one row beside the heading and the "more" button, by window width. */
 const CHIPS_BY_WIDTH: [minWidth: number, chips: number][] = [

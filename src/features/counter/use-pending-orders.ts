@@ -11,7 +11,7 @@ import type { CreateOrderBody } from '../../domain/schemas';
 import type { OrderView } from '../../domain/types';
 import { ApiError, http } from '../../lib/http';
 import { onLiveConnected } from '../../lib/live-socket';
-import { menuKeys } from '../menu/queries';
+import { menuKeys } from '../../queries/menu';
 import { listPending, putPending, removePending, type PendingOrder } from './pending-orders';
 
 export type SendOrderFn = (body: CreateOrderBody) => Promise<{ order: OrderView }>;

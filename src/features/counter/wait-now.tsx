@@ -5,8 +5,8 @@ import { keepPreviousData, useQuery, useSuspenseQuery } from '@tanstack/react-qu
 import { cupsOf } from '../../domain/order-quantity';
 import { aboutMinutes } from '../../domain/wait-now';
 import { useApi } from '../../lib/api-context';
-import { barBoardQuery } from '../board/queries';
-import { menuQuery } from '../menu/queries';
+import { barBoardQuery } from '../../queries/board';
+import { menuQuery } from '../../queries/menu';
 
 export const waitNowKeys = { all: ['wait-now'] as const, of: (drinks: number, seq: number) => ['wait-now', drinks, seq] as const };
 

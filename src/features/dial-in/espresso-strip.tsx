@@ -6,7 +6,7 @@ import { useEffect } from 'react';
 import { HOPPER_LABEL } from '../../domain/bean-stock';
 import { FRESHNESS_LABEL } from '../../domain/freshness';
 import { useApi } from '../../lib/api-context';
-import { dialInKeys, dialInQuery } from './queries';
+import { dialInKeys, dialInQuery } from '../../queries/dial-in';
 import { shotNumbers } from './shot-view';
 
 /** Refetch when the bar's live log moves (a bump uses coffee, a lot changes grinder, a dial-in shot is logged: beans.changed), and every minute besides. */

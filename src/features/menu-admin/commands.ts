@@ -3,8 +3,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { AdminMenuView, MenuAdminResult } from '../../domain/menu-admin-view';
 import { menuAdminCommands } from '../../lib/menu-admin-api';
-import { menuKeys } from '../menu/queries';
-import { menuAdminKeys } from './queries';
+import { menuKeys } from '../../queries/menu';
+import { menuAdminKeys } from '../../queries/menu-admin';
 
 export function useMenuCommand() {
   const qc = useQueryClient();

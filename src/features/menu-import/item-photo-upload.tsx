@@ -5,7 +5,7 @@ import { useEffect, useId, useState, type ChangeEvent } from 'react';
 import { buttonStyles } from '../../components/ui/button';
 import { FieldError } from '../../components/ui/field-error';
 import { cn } from '../../lib/cn';
-import { useRemovePhoto, useUploadPhoto } from './queries';
+import { useRemovePhoto, useUploadPhoto } from '../../queries/menu-import';
 
 /** server/services/item-photos.ts PHOTO_MAX_BYTES */
 const MAX_BYTES = 5 * 1024 * 1024;

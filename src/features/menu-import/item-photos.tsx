@@ -2,7 +2,7 @@
 // each item. The Counter shows them on its tiles.
 import { useQuery } from '@tanstack/react-query';
 import { useApi } from '../../lib/api-context';
-import { menuQuery } from '../menu/queries';
+import { menuQuery } from '../../queries/menu';
 import { ItemPhotoUpload } from './item-photo-upload';
 
 export function ItemPhotos() {

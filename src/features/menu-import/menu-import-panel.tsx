@@ -8,7 +8,7 @@ import { cn } from '../../lib/cn';
 import { FOCUS_RING } from './item-photo-upload';
 import { ItemPhotos } from './item-photos';
 import { PreviewTable } from './preview-table';
-import { MENU_EXPORT_HREF, useImportMenu, usePreviewImport, type ChosenFile } from './queries';
+import { MENU_EXPORT_HREF, useImportMenu, usePreviewImport, type ChosenFile } from '../../queries/menu-import';
 
 function PreviewSummary({ preview }: { preview: MenuImportPreview }) {
   const badRows = new Set(preview.errors.map((e) => e.row)).size;

@@ -10,7 +10,7 @@ import type { ShiftView } from '../../domain/types';
 import { Button } from '../../components/ui/button';
 import { FieldError } from '../../components/ui/field-error';
 import { ApiError, http } from '../../lib/http';
-import { pulseKeys } from './queries';
+import { pulseKeys } from '../../queries/pulse';
 
 // The forms take dollars and minutes as typed; the API takes cents and seconds.
 const amount = z.string().refine((v) => parseAmountToCents(v) !== null, 'Enter an amount like 150 or 150.00');

@@ -4,7 +4,7 @@ import { formatCents } from '../../domain/money';
 import { formatDuration } from '../../domain/format';
 import { formatCount, hourLabel, type ReportView } from '../../domain/reports';
 import { cn } from '../../lib/cn';
-import { Panel, ShareBar, numClass, tdClass, thClass } from './report-breakdowns';
+import { Panel, ShareBar, numClass, tdClass, thClass } from '../../components/report/report-breakdowns';
 
 export function HourlyTable({ report }: { report: ReportView }) {
   const money = (c: number) => formatCents(c, report.currency, report.locale);

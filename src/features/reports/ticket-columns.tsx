@@ -6,7 +6,8 @@ import { type TicketHistoryRow } from '../../domain/reports';
 import { PAYMENT_METHOD_WORDS, PAYMENT_STATUS_WORDS, TICKET_STATUS_WORDS } from '../../domain/ticket-words';
 
 declare module '@tanstack/react-table' {
-  // numeric columns are right-aligned
+  // numeric columns are right-aligned (the generics must match the library's declaration)
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars
   interface ColumnMeta<TData extends RowData, TValue> {
     numeric?: boolean;
   }

@@ -3,13 +3,13 @@
 // navigation, and the route's loader fetches the page asked for.
 import { ScrollBox } from '../../components/ui/scroll-box';
 import { flexRender, getCoreRowModel, useReactTable, type SortingState, type Updater } from '@tanstack/react-table';
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { useEffect, useEffectEvent, useMemo, useRef, useState } from 'react';
 import { Form, Link, useNavigate, useSearchParams } from 'react-router';
 import { formatCount, TICKET_SORTS, type TicketHistoryPage, type TicketSort } from '../../domain/reports';
 import { buttonStyles } from '../../components/ui/button';
 import { cn } from '../../lib/cn';
 import { queryString, type TicketHistoryParams } from '../../lib/reports-api';
-import { tdClass, thClass } from './report-breakdowns';
+import { tdClass, thClass } from '../../components/report/report-breakdowns';
 import { ticketColumns, type ColumnContext } from './ticket-columns';
 import { withParams } from './params';
 import { plural } from '../../domain/plural';
@@ -47,14 +47,16 @@ export function TicketTable({ page, params, context }: { page: TicketHistoryPage
     },
   });
 
-  // The search box waits for a pause in typing before it asks the server.
+  // The search box waits for a pause in typing before it asks the server; the pause restarts only
+  // when the text changes, not when the page re-renders with a new `go`.
+  const searchFor = useEffectEvent(go);
   const [q, setQ] = useState(params.q ?? '');
   const typed = useRef(false);
   useEffect(() => {
     if (!typed.current) return;
-    const timer = setTimeout(() => go({ q: q.trim() || undefined }), 350);
+    const timer = setTimeout(() => searchFor({ q: q.trim() || undefined }), 350);
     return () => clearTimeout(timer);
-  }, [q]);
+  }, [q]); // searchFor is an effect event: never a dependency
 
   const csvHref = `/api/reports/tickets.csv${queryString({ from: params.from, to: params.to, q: params.q, status: params.status, sort: params.sort, dir: params.dir })}`;
   const pageLink = (n: number) => `?${withParams(search, { page: n === 1 ? undefined : n })}`;

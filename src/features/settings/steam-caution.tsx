@@ -2,7 +2,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { barCaution } from '../../domain/cautions';
 import { useApi } from '../../lib/api-context';
-import { menuQuery } from '../menu/queries';
+import { menuQuery } from '../../queries/menu';
 
 /**
  * It reads the unit from the menu (the board snapshot carries none); until the menu has loaded —

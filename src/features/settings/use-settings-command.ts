@@ -2,8 +2,8 @@
 // page, which replaces the cached one; the menu.changed event tells every other screen.
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { SettingsPage } from '../../domain/settings-schemas';
-import { menuKeys } from '../menu/queries';
-import { settingsKeys } from './queries';
+import { menuKeys } from '../../queries/menu';
+import { settingsKeys } from '../../queries/settings';
 
 export function useSettingsCommand<T>(run: (input: T) => Promise<SettingsPage>, onSaved?: (page: SettingsPage) => void) {
   const qc = useQueryClient();

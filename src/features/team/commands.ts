@@ -2,7 +2,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { LinkPurpose, NewPersonBody, PersonPatchBody, TeamMember } from '../../domain/team-schemas';
 import { http } from '../../lib/http';
-import { teamKeys } from './queries';
+import { teamKeys } from '../../queries/team';
 
 export type TeamCommand =
   | { kind: 'add'; body: NewPersonBody }

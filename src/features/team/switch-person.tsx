@@ -10,7 +10,7 @@ import { useApi } from '../../lib/api-context';
 import { ApiError, http, leavePage } from '../../lib/http';
 import { MyPinForm } from './my-pin-form';
 import { PinPad } from './pin-pad';
-import { switchPeopleQuery } from './queries';
+import { switchPeopleQuery } from '../../queries/team';
 import { screenAfterSwitch } from './switch-target';
 
 export function SwitchDialog({ onClose }: { onClose(): void }) {

@@ -1,7 +1,7 @@
 // The board (open tickets, or the Pickup board's view) is loaded once and then kept current by
 // live events, so it never goes stale by time.
 import { queryOptions } from '@tanstack/react-query';
-import type { Api } from '../../lib/api';
+import type { Api } from '../lib/api';
 
 export const boardKeys = {
   all: ['board'] as const,

@@ -1,6 +1,6 @@
 // Query keys and options of the team area: the owner's list, a welcome link, the switch list.
 import { queryOptions } from '@tanstack/react-query';
-import type { Api } from '../../lib/api';
+import type { Api } from '../lib/api';
 
 export const teamKeys = {
   all: ['team'] as const,

@@ -1,5 +1,5 @@
 // The report in parts: how people paid, what the bar used, and what sold best.
-import { ScrollBox } from '../../components/ui/scroll-box';
+import { ScrollBox } from '../ui/scroll-box';
 import type { ReactNode } from 'react';
 import { formatCents } from '../../domain/money';
 import { formatCoffee, formatCount, formatLitres, formatShare, type ReportView } from '../../domain/reports';

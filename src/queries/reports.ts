@@ -1,8 +1,8 @@
 // Query keys and options for the Reports screen.
 import { queryOptions } from '@tanstack/react-query';
-import type { Api } from '../../lib/api';
-import type { TicketHistoryParams } from '../../lib/reports-api';
-import type { PeriodChoice } from './params';
+import type { Api } from '../lib/api';
+import type { TicketHistoryParams } from '../lib/reports-api';
+import type { PeriodChoice } from '../features/reports/params';
 
 export const reportKeys = {
   all: ['reports'] as const,

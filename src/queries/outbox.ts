@@ -1,7 +1,7 @@
 // The Outbox: mail the local SMTP fake caught. Mail arrives on its own schedule (after the SMTP
 // hand-off), so the list is polled gently while the screen is open.
 import { queryOptions } from '@tanstack/react-query';
-import type { Api } from '../../lib/api';
+import type { Api } from '../lib/api';
 
 export const outboxKeys = { all: ['outbox'] as const };
 
