@@ -3,7 +3,7 @@
 // quantity, payment in reach on a 1024×768 tablet, and the small things a cashier reads.
 // Screenshots go to test-results/shots/ for a person to look at.
 import type { APIRequestContext, Locator, Page } from '@playwright/test';
-import { DEMO_PASSWORD, errorsOf, expect, pageAs, test, type Login } from './fixtures';
+import { DEMO_PASSWORD, errorsOf, expect, pageAs, test, type Login, WIDTHS } from './fixtures';
 import { shot } from './shots';
 
 
@@ -31,17 +31,10 @@ async function expectNoSidewaysScroll(page: Page) {
 const scrolledDown = (within: Locator) =>
   within.evaluate((root) => Math.max(0, ...[root, ...root.querySelectorAll('*')].map((el) => el.scrollTop)));
 
-const VIEWPORTS = [
-  { width: 390, height: 844 },
-  { width: 768, height: 1024 },
-  { width: 1024, height: 768 },
-  { width: 1366, height: 768 },
-  { width: 1920, height: 1080 },
-];
 
 test('from a phone to a wide screen nothing scrolls sideways and the menu, order and payment are in reach', async ({ browser }) => {
   test.setTimeout(120_000);
-  for (const viewport of VIEWPORTS) {
+  for (const viewport of WIDTHS) {
     const page = await pageAs(browser, 'cashier', '/counter', viewport);
     await expect(page.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
     await expectNoSidewaysScroll(page);

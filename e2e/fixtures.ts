@@ -43,3 +43,12 @@ export const errorsOf = (page: Page) => pageErrors.get(page) ?? [];
 
 export const test = base;
 export { expect };
+
+/** The widths every screen is tried at: a phone, a tablet upright and on its side, a small laptop, a desktop. */
+export const WIDTHS = [
+  { width: 390, height: 844 },
+  { width: 768, height: 1024 },
+  { width: 1024, height: 768 },
+  { width: 1366, height: 768 },
+  { width: 1920, height: 1080 },
+] as const;

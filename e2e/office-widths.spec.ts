@@ -2,7 +2,7 @@
 // no input, button or text runs past the screen's edge. A wide table may scroll inside its own
 // box, and then the box is labelled (a region with a name) so a screen reader says what scrolls.
 import { expect, test, type Page } from '@playwright/test';
-import { errorsOf, pageAs } from './fixtures';
+import { errorsOf, pageAs, WIDTHS as ALL_WIDTHS } from './fixtures';
 import { shot } from './shots';
 
 const SCREENS = [
@@ -13,7 +13,7 @@ const SCREENS = [
   { path: '/admin/team', heading: 'Team' },
   { path: '/admin/settings', heading: 'Settings' },
 ];
-const WIDTHS = [390, 768, 1024, 1366, 1920];
+const WIDTHS = ALL_WIDTHS.map((v) => v.width);
 const SHOT_WIDTHS = new Set([390, 1024, 1366]);
 
 /** What sticks out past the viewport, outside a scroll box of its own, and any scroll box without a name. */

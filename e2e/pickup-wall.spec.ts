@@ -2,7 +2,7 @@
 // half, an empty half gives its room to the other, and the board works from a 1920×1080 wall down
 // to a 390 px phone (numbers not clipped, nothing scrolls sideways).
 import type { APIRequestContext, Page } from '@playwright/test';
-import { apiAs, errorsOf, expect, pageAs, test } from './fixtures';
+import { apiAs, errorsOf, expect, pageAs, test, WIDTHS } from './fixtures';
 import { ownServerFor } from './own-server';
 import { shot } from './shots';
 
@@ -10,13 +10,8 @@ import { shot } from './shots';
 const own = ownServerFor('pickup-wall');
 
 const NAMES = ['Ada', 'Bram', 'Cleo', 'Dov', 'Maximiliana', 'Fern', 'Gus', 'Hana', 'Ivo', 'Juno', 'Kit', 'Lior', 'Mae', 'Nico', 'Oona', 'Pim'];
-const VIEWPORTS = [
-  { width: 1920, height: 1080 },
-  { width: 1366, height: 768 },
-  { width: 1024, height: 768 },
-  { width: 768, height: 1024 },
-  { width: 390, height: 844 },
-];
+/** From the wall down to a phone. */
+const VIEWPORTS = [...WIDTHS].reverse();
 
 async function placeOrders(cashier: APIRequestContext, names: string[]): Promise<number[]> {
   const menu = await (await cashier.get('/api/menu')).json();

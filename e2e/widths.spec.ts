@@ -3,18 +3,10 @@
 // screen (the widths inside), so a failure names the screen and lists every width that fails.
 // Screenshots: test-results/shots/widths/<screen>-<width>.png.
 import type { Page } from '@playwright/test';
-import { errorsOf, expect, test } from './fixtures';
+import { errorsOf, expect, test, WIDTHS } from './fixtures';
 import { open, SCREEN_NAMES, screenSuite } from './screens';
 import { shot } from './shots';
 
-/** A phone, a tablet upright and on its side, a small laptop, a desktop. */
-const VIEWPORTS = [
-  { width: 390, height: 844 },
-  { width: 768, height: 1024 },
-  { width: 1024, height: 768 },
-  { width: 1366, height: 768 },
-  { width: 1920, height: 1080 },
-];
 
 /** What is wrong with the layout at the current width, one line per problem. */
 function layoutProblems(page: Page): Promise<string[]> {
@@ -90,7 +82,7 @@ for (const name of SCREEN_NAMES) {
     const screen = suite.screen(name);
     const page = await suite.contexts.page(screen.as);
     const problems: string[] = [];
-    for (const viewport of VIEWPORTS) {
+    for (const viewport of WIDTHS) {
       // loaded at each width: a screen may lay itself out from the width it starts at
       await page.setViewportSize(viewport);
       await open(page, screen.path);
