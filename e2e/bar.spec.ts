@@ -122,7 +122,9 @@ test.describe('a bar screen while the server restarts', () => {
     await barista.post('/api/session', { data: { username: 'barista2', password: DEMO_PASSWORD } });
     expect((await barista.post(`/api/tickets/${kept.id}/bump`)).status()).toBe(200);
 
-    await live(bar);
+    // the socket tries again after its backoff, which grows to 10 s (+25 % jitter) while the server
+    // is down (MAX_BACKOFF_MS in src/lib/live-socket.ts): wait out one whole backoff, not less
+    await expect(bar.getByRole('status').filter({ hasText: 'Live' })).toBeVisible({ timeout: 15_000 });
     await expect(cardsOf(bar, 'Maya Solis')).toHaveCount(1);
     await expect(cardsOf(bar, 'Lior Vance')).toHaveCount(0);
     expect(await bar.evaluate(() => (window as unknown as { marker?: number }).marker)).toBe(7);
