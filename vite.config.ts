@@ -26,6 +26,9 @@ export default defineConfig({
           environment: 'jsdom',
           include: ['tests/components/**/*.test.tsx'],
           setupFiles: ['tests/support/dom-setup.ts'],
+          // a component test may start a real server, whose migrations are .ts files
+          execArgv: ['--import', 'tsx'],
+          hookTimeout: 30_000,
         },
       },
       {

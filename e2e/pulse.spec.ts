@@ -2,11 +2,15 @@
 // cash count, and the shift report reaches the owner's mail (the Outbox).
 import { request as apiRequest } from '@playwright/test';
 import { DEMO_PASSWORD, errorsOf, expect, pageAs, test } from './fixtures';
+import { ownServerFor } from './own-server';
 import { shot } from './shots';
 
-test('a shift on Pulse: open, live numbers, close with a count, report mailed', async ({ browser, baseURL }) => {
+// the shift's counts and the open tickets at close are this file's alone
+const own = ownServerFor('pulse');
+
+test('a shift on Pulse: open, live numbers, close with a count, report mailed', async ({ browser }) => {
   test.setTimeout(90_000); // four sign-ins on a shared machine: the default 30 s is close
-  const pulse = await pageAs(browser, 'lead', '/pulse', { width: 1440, height: 1200 });
+  const pulse = await pageAs(browser, 'lead', '/pulse', { width: 1440, height: 1200 }, own.baseURL);
   await expect(pulse.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
   await pulse.evaluate(() => ((window as unknown as { marker: number }).marker = 5));
 
@@ -18,9 +22,9 @@ test('a shift on Pulse: open, live numbers, close with a count, report mailed', 
   const done = pulse.getByTestId('pulse-number').filter({ hasText: 'Tickets done' });
   await expect(done).toContainText('0');
 
-  const cashier = await apiRequest.newContext({ baseURL });
+  const cashier = await apiRequest.newContext({ baseURL: own.baseURL });
   await cashier.post('/api/session', { data: { username: 'cashier', password: DEMO_PASSWORD } });
-  const barista = await apiRequest.newContext({ baseURL });
+  const barista = await apiRequest.newContext({ baseURL: own.baseURL });
   await barista.post('/api/session', { data: { username: 'barista', password: DEMO_PASSWORD } });
   const menu = await (await cashier.get('/api/menu')).json();
   const latte = menu.items.find((i: { name: string }) => i.name === 'Latte').id;
@@ -71,10 +75,10 @@ test('a shift on Pulse: open, live numbers, close with a count, report mailed', 
   expect(errorsOf(pulse).filter((e) => !/status of 409/.test(e))).toEqual([]);
 });
 
-test('the Bar: the target and ticket ages as they are, the caution from burn times', async ({ browser, baseURL }) => {
-  const bar = await pageAs(browser, 'barista', '/bar', { width: 1440, height: 900 });
+test('the Bar: the target and ticket ages as they are, the caution from burn times', async ({ browser }) => {
+  const bar = await pageAs(browser, 'barista', '/bar', { width: 1440, height: 900 }, own.baseURL);
   await expect(bar.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
-  const cashier = await apiRequest.newContext({ baseURL });
+  const cashier = await apiRequest.newContext({ baseURL: own.baseURL });
   await cashier.post('/api/session', { data: { username: 'cashier', password: DEMO_PASSWORD } });
   const menu = await (await cashier.get('/api/menu')).json();
   const latte = menu.items.find((i: { name: string }) => i.name === 'Latte').id;
