@@ -11,6 +11,7 @@ import type { Logger } from 'pino';
 import { Strategy as LocalStrategy } from 'passport-local';
 import type { SessionUser } from '../../src/domain/types';
 import { PASSIVE_REQUEST_HEADER } from '../../src/lib/http';
+import { dialectOf, jsonNumberSql, jsonSetNumbersSql } from '../db/dialect';
 import { bool } from '../db/rows';
 import { hashPassword, verifyPassword } from './passwords';
 import { createSessionStore } from './session-store';
@@ -146,11 +147,19 @@ async function enforceTimeouts(db: Knex, req: SessionRequest, policy: SessionPol
  * `minGapMs`: leave the row alone if it was marked active less than this long ago.
  */
 export async function recordActivity(db: Knex, sid: string, now: number, minGapMs = 0): Promise<void> {
+  const d = dialectOf(db);
+  const stored = (key: string) => jsonNumberSql(d, 'sess', [key]);
   await db('sessions')
     .where({ sid })
-    .andWhereRaw("coalesce(json_extract(sess, '$.lastActiveAt'), 0) <= ?", [now - minGapMs])
+    .andWhereRaw(`coalesce(${stored('lastActiveAt')}, 0) <= ?`, [now - minGapMs])
     .update({
-      sess: db.raw("json_set(sess, '$.lastActiveAt', ?, '$.signedInAt', coalesce(json_extract(sess, '$.signedInAt'), ?))", [now, now]),
+      sess: db.raw(
+        jsonSetNumbersSql(d, 'sess', [
+          ['lastActiveAt', '?'],
+          ['signedInAt', `coalesce(${stored('signedInAt')}, ?)`],
+        ]),
+        [now, now],
+      ),
     });
 }
 

@@ -4,11 +4,12 @@
 import type { Knex } from 'knex';
 import { byAge } from '../../src/domain/lanes';
 import type { SessionUser, TicketEventType } from '../../src/domain/types';
+import { dialectOf } from '../db/dialect';
 import { json } from '../db/rows';
 import { conflict, notFound } from '../errors';
 import { recordCoffeeUse } from './beans-usage';
 import { appendEvent } from './events';
-import { WAIT_OF_ORDER } from './reports/sql';
+import { waitOfOrder } from './reports/sql';
 import { loadTicket } from './ticket-views';
 
 export type DrinkRow = Record<string, any>;
@@ -83,7 +84,7 @@ export async function settleTicket(trx: Knex.Transaction, orderId: number, at: s
     .first();
   if (Number(left?.n) === 0) {
     const changed = await trx('orders').where({ id: orderId, status: 'open' }).update({ status: 'ready', ready_at: at });
-    if (changed) await trx.raw(`UPDATE orders AS o SET wait_seconds = ${WAIT_OF_ORDER} WHERE o.id = ?`, [orderId]);
+    if (changed) await trx.raw(`UPDATE orders AS o SET wait_seconds = ${waitOfOrder(dialectOf(trx))} WHERE o.id = ?`, [orderId]);
   }
 }
 

@@ -4,6 +4,7 @@
 import type { Knex } from 'knex';
 import type { CreateOrderBody } from '../../src/domain/schemas';
 import type { OrderView, SessionUser } from '../../src/domain/types';
+import { containing, containsSql, dialectOf } from '../db/dialect';
 import { isUniqueViolation, json } from '../db/rows';
 import { HttpError, conflict } from '../errors';
 import { payByCard } from './card-payments';
@@ -244,8 +245,7 @@ export async function listOrders(deps: Deps, user: SessionUser, q: string | unde
   if (q) {
     const n = Number(q.replace(/^#/, ''));
     query.andWhere((w) => {
-      // ESCAPE: a `%`, `_` or `\` typed into the search is that character, never a wildcard
-      w.whereRaw("customer_name LIKE ? ESCAPE '\\'", [`%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`]);
+      w.whereRaw(containsSql(dialectOf(deps.db), 'customer_name'), [containing(q)]);
       if (Number.isInteger(n) && n > 0) w.orWhere('number', n);
     });
   }

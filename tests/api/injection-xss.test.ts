@@ -18,6 +18,7 @@ import type { LiveEvent } from '../../src/domain/types';
 import { manualClock, type DemoLogin } from '../support/test-server';
 import { closeAllSockets, connectAndResume, type LiveClient } from '../realtime/ws-client';
 import { orderBody, type Agent } from './helpers';
+import { jsonOf } from '../support/rows';
 
 // jsdom (a WHATWG-conformant HTML parser; scripts are not run) ships no types; its document is a DOM Document
 const { JSDOM } = createRequire(import.meta.url)('jsdom') as { JSDOM: new (html: string) => { window: { document: Document } } };
@@ -246,7 +247,7 @@ describe('e-mail', () => {
     const res = await agents.cashier.post(`/api/orders/${orderId}/receipt`).send({ email: 'guest@example.com' });
     expect(res.status).toBe(202);
     const mail = await server.db('outbox').where({ message_id: res.body.messageId }).first();
-    expect(JSON.parse(mail.to_addresses)).toEqual(['guest@example.com']);
+    expect(jsonOf(mail.to_addresses)).toEqual(['guest@example.com']);
     expect(mail.subject).not.toMatch(/[\r\n]/);
     expect(mail.subject).toContain(P.cafe);
     expect(markupFrom(mail.html_body, 'receipt mail')).toEqual([]);

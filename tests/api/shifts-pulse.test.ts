@@ -9,6 +9,7 @@ import type { PulseView } from '../../src/domain/pulse';
 import type { OrderView, ShiftView } from '../../src/domain/types';
 import { demoMenu, manualClock, startTestServer, type DemoLogin, type TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
+import { jsonOf } from '../support/rows';
 
 const MIN = 60_000;
 const T0 = '2026-03-02T14:00:00.000Z'; // 09:00 in New York, the demo café's zone
@@ -168,7 +169,7 @@ describe('shifts', () => {
       });
       expect(events).toHaveLength(1);
       expect(events[0]).toMatchObject({ type: 'shift.changed', actor_id: ctx.userId.lead, created_at: nowIso(), location_id: ctx.locationId });
-      expect(JSON.parse(events[0].payload)).toEqual({ shift });
+      expect(jsonOf(events[0].payload)).toEqual({ shift });
 
       expect(await ctx.server.db('shifts').where({ id: shift.id }).first()).toMatchObject({
         location_id: ctx.locationId,
@@ -230,7 +231,7 @@ describe('shifts', () => {
       shift = res.body.shift;
       expect(events.map((e) => e.type)).toEqual(['shift.changed']);
       expect(events[0]).toMatchObject({ actor_id: ctx.userId.lead, created_at: nowIso() });
-      expect(JSON.parse(events[0].payload)).toEqual({ shift });
+      expect(jsonOf(events[0].payload)).toEqual({ shift });
       expect(await ctx.server.db('shifts').where({ id: shift.id }).first()).toMatchObject({ baristas_on_bar: 3 });
       expect(await h.location()).toMatchObject({ baristas_on_bar: 3 });
 
@@ -330,7 +331,7 @@ describe('shifts', () => {
         mailed: true,
       });
       expect(events.map((e) => e.type)).toEqual(['shift.changed']);
-      expect(JSON.parse(events[0].payload)).toEqual({ shift: res.body.shift });
+      expect(jsonOf(events[0].payload)).toEqual({ shift: res.body.shift });
       expect(await ctx.server.db('shifts').where({ id: shift.id }).first()).toMatchObject({
         closed_at: nowIso(),
         closed_by: ctx.userId.lead,
