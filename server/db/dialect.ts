@@ -119,3 +119,13 @@ export async function tableNames(db: Knex): Promise<string[]> {
       : await db('sqlite_master').where({ type: 'table' }).whereNot('name', 'like', 'sqlite_%').pluck('name');
   return (rows as string[]).sort();
 }
+
+/**
+ * `query` (a SELECT inside a transaction) locks the rows it reads until the transaction ends, so
+ * a command's read-then-write on them can't interleave with another's. PostgreSQL: FOR NO KEY
+ * UPDATE (rows that merely reference them can still be inserted). SQLite needs nothing: its one
+ * connection already runs transactions one after another.
+ */
+export function lockingRead<Q extends Knex.QueryBuilder>(db: Knex | Knex.Transaction, query: Q): Q {
+  return (dialectOf(db) === 'postgres' ? query.forNoKeyUpdate() : query) as Q;
+}

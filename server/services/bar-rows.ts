@@ -8,7 +8,7 @@ import { dialectOf } from '../db/dialect';
 import { json } from '../db/rows';
 import { conflict, notFound } from '../errors';
 import { recordCoffeeUse } from './beans-usage';
-import { appendEvent } from './events';
+import { appendEvent, lockCafe } from './events';
 import { waitOfOrder } from './reports/sql';
 import { loadTicket } from './ticket-views';
 
@@ -70,7 +70,9 @@ export function assertAllergyRead(rows: DrinkRow[]) {
   if (unread) throw conflict('Read the allergy on this ticket and acknowledge it before bumping', { drinkId: unread.id });
 }
 
-export async function nextBumpSeq(trx: Knex.Transaction): Promise<number> {
+/** The next bump number; the café stays locked until the bump commits (lockCafe). */
+export async function nextBumpSeq(trx: Knex.Transaction, locationId: number): Promise<number> {
+  await lockCafe(trx, locationId);
   const row = await trx('order_items').max<{ n: number | null }>({ n: 'bump_seq' }).first();
   return (row?.n ?? 0) + 1;
 }
@@ -109,7 +111,7 @@ export async function bumpRows(trx: Knex.Transaction, user: SessionUser, rows: D
   if (done) throw conflict(alreadyBumped(done));
   assertAllergyRead(rows);
   const drinkIds = rows.map((r) => r.id);
-  const bumpSeq = await nextBumpSeq(trx);
+  const bumpSeq = await nextBumpSeq(trx, user.locationId);
   await trx('order_items').whereIn('id', drinkIds).whereNull('started_at').update({ started_at: at });
   const changed = await trx('order_items')
     .whereIn('id', drinkIds)

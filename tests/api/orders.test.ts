@@ -161,7 +161,7 @@ describe('idempotent replay', () => {
     expect(replay.status).toBe(200);
     expect(replay.body).toEqual(first.body);
     expect(await writeCounts(server)).toEqual(after);
-    expect(await server.db('orders').where({ client_order_id: clientOrderId }).count({ n: '*' }).first()).toEqual({ n: 1 });
+    expect(Number((await server.db('orders').where({ client_order_id: clientOrderId }).count({ n: '*' }).first())?.n)).toBe(1);
     expect(await firedEvents(first.body.order.id)).toBe(1);
   });
 

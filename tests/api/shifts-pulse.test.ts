@@ -116,7 +116,7 @@ describe('shifts', () => {
         }
       }
       expect(await h.maxEventId()).toBe(before);
-      expect(await ctx.server.db('shifts').count({ n: '*' }).first()).toEqual({ n: 0 });
+      expect(Number((await ctx.server.db('shifts').count({ n: '*' }).first())?.n)).toBe(0);
     });
 
     it('a lead and the owner get past the guard (an empty body then fails validation, 400)', async () => {
@@ -192,7 +192,7 @@ describe('shifts', () => {
       expect(res.status).toBe(409);
       expect(res.body.error.code).toBe('conflict');
       expect(events).toEqual([]);
-      expect(await ctx.server.db('shifts').count({ n: '*' }).first()).toEqual({ n: 1 });
+      expect(Number((await ctx.server.db('shifts').count({ n: '*' }).first())?.n)).toBe(1);
       expect(await h.location()).toMatchObject({ baristas_on_bar: 2 });
     });
 

@@ -1,0 +1,78 @@
+// Commands fired many at once, from several signed-in terminals, with the exact outcome checked.
+// On SQLite the one connection runs them one after another; on PostgreSQL (`npm run test:pg`)
+// they really interleave under its default isolation, read committed, so each read-then-write
+// must lock, write conditionally or lean on a unique constraint (409, never 500).
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
+import { orderBody, type Agent } from './helpers';
+
+const time = manualClock('2026-03-02T14:00:00.000Z');
+const AT_ONCE = 20;
+let server: TestServer;
+let ids: Awaited<ReturnType<typeof demoMenu>>;
+let cashiers: Agent[];
+let lead: Agent;
+
+beforeAll(async () => {
+  server = await startTestServer({ clock: time.clock });
+  ids = await demoMenu(server);
+  // several terminals, each its own session
+  cashiers = await Promise.all([server.signIn('cashier'), server.signIn('cashier'), server.signIn('lead'), server.signIn('owner')]);
+  lead = await server.signIn('lead');
+});
+afterAll(() => server.close());
+
+const terminal = (i: number) => cashiers[i % cashiers.length];
+const statuses = (res: { status: number }[]) => res.map((r) => r.status).sort((a, b) => a - b);
+
+describe('orders taken at once', () => {
+  it(`${AT_ONCE} at once: all 201, numbered one after another without a gap or a repeat`, async () => {
+    const before = await server.db('orders').select('number', 'business_date');
+    const res = await Promise.all(
+      Array.from({ length: AT_ONCE }, (_, i) => terminal(i).post('/api/orders').send(orderBody(`Guest ${i}`, [{ menuItemId: ids.item('Espresso') }]))),
+    );
+    expect(statuses(res), JSON.stringify(res.find((r) => r.status !== 201)?.body)).toEqual(Array(AT_ONCE).fill(201));
+    const day = res[0].body.order.businessDate as string;
+    const last = Math.max(0, ...before.filter((o) => o.business_date === day).map((o) => o.number));
+    const numbers = res.map((r) => r.body.order.number as number).sort((a, b) => a - b);
+    expect(numbers).toEqual(Array.from({ length: AT_ONCE }, (_, i) => last + 1 + i));
+  });
+});
+
+describe('drinks of one ticket bumped at once', () => {
+  it('each bump gets its own bump number, so a recall undoes only the last one', async () => {
+    const drinks = ['Latte', 'Cappuccino', 'Flat white', 'Espresso', 'Long black', 'Mocha'];
+    const placed = await terminal(0)
+      .post('/api/orders')
+      .send(orderBody('Ines Vale', drinks.map((d) => ({ menuItemId: ids.item(d) }))));
+    expect(placed.status).toBe(201);
+    const orderId = placed.body.order.id as number;
+    const drinkIds = (await server.db('order_items').where({ order_id: orderId, station: 'bar' }).pluck('id')) as number[];
+    expect(drinkIds).toHaveLength(drinks.length);
+    const baristas = await Promise.all(drinkIds.map(() => server.signIn('barista')));
+
+    const res = await Promise.all(drinkIds.map((id, i) => baristas[i].post(`/api/drinks/${id}/bump`)));
+    expect(statuses(res), JSON.stringify(res.find((r) => r.status !== 200)?.body)).toEqual(Array(drinks.length).fill(200));
+    const seqs = (await server.db('order_items').whereIn('id', drinkIds).pluck('bump_seq')).map(Number);
+    expect(new Set(seqs).size).toBe(drinks.length);
+
+    const recall = await baristas[0].post(`/api/tickets/${orderId}/recall`);
+    expect(recall.status, JSON.stringify(recall.body)).toBe(200);
+    const back = Number((await server.db('order_items').whereIn('id', drinkIds).whereNot({ status: 'done' }).count({ n: '*' }).first())?.n);
+    expect(back).toBe(1);
+  });
+});
+
+describe('shifts opened at once', () => {
+  it('one opens the shift; every other answers 409, never 500', async () => {
+    if (await server.db('shifts').whereNull('closed_at').first('id')) {
+      const closed = await lead.post('/api/shifts/current/close').send({ countedCashCents: 0, confirmOpenTickets: true });
+      expect(closed.status, JSON.stringify(closed.body)).toBe(200);
+    }
+    const leads = await Promise.all(Array.from({ length: 8 }, () => server.signIn('lead')));
+    const before = Number((await server.db('shifts').count({ n: '*' }).first())?.n);
+    const res = await Promise.all(leads.map((a) => a.post('/api/shifts').send({ openingFloatCents: 15000, baristasOnBar: 2, waitTargetSeconds: 240 })));
+    expect(statuses(res)).toEqual([201, ...Array(7).fill(409)]);
+    expect(Number((await server.db('shifts').count({ n: '*' }).first())?.n)).toBe(before + 1);
+  });
+});
