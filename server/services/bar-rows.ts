@@ -14,8 +14,13 @@ import { loadTicket } from './ticket-views';
 
 export type DrinkRow = Record<string, any>;
 
-/** The bar drinks a command names, each checked: in this café, on an open ticket. */
+/**
+ * The bar drinks a command names, each checked: in this café, on an open ticket. Read under the
+ * café's lock (lockCafe), so a command that lost a race to another screen reads the winner's
+ * bump and says who made it, instead of failing later on a row that changed under it.
+ */
 export async function openDrinks(trx: Knex.Transaction, user: SessionUser, drinkIds: number[]): Promise<DrinkRow[]> {
+  await lockCafe(trx, user.locationId);
   const rows = await trx('order_items')
     .join('orders', 'orders.id', 'order_items.order_id')
     .whereIn('order_items.id', drinkIds)
