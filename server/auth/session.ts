@@ -165,11 +165,12 @@ export async function recordActivity(db: Knex, sid: string, now: number, minGapM
 
 /** A stored session as the live socket sees it: gone, timed out, or good. */
 export async function storedSessionExpiry(db: Knex, sid: string, policy: SessionPolicy): Promise<Expiry | 'gone'> {
+  const now = policy.now(); // as of the message that asked, not of whenever the read comes back
   const row = await db('sessions').where({ sid }).first('sess');
   if (!row) return 'gone';
   const sess = (typeof row.sess === 'string' ? JSON.parse(row.sess) : row.sess) as SessionTimes & { passport?: { user?: unknown } };
   if (!sess.passport?.user) return 'gone';
-  return expiryOf(sess, policy.now(), policy);
+  return expiryOf(sess, now, policy);
 }
 
 /** Ends a stored session (a timed-out one the live socket found). */

@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { MENU_CSV_COLUMNS, MENU_CSV_MAX_BYTES } from '../../src/domain/menu-csv';
 import { startTestServer, type TestServer } from '../support/test-server';
 import type { Agent } from './helpers';
+import { boolOf, jsonOf } from '../support/rows';
 
 let server: TestServer;
 let owner: Agent;
@@ -151,12 +152,13 @@ describe('import', () => {
     expect(event.type).toBe('menu.changed');
     const baked = await server.db('menu_categories').where({ name: 'Baked' }).first();
     expect(baked.sort).toBeGreaterThan(Math.max(...before.categories.map((c) => c.sort)));
-    expect(await server.db('menu_items').where({ name: 'Cheese scone' }).first()).toMatchObject({
+    const sconeRow = await server.db('menu_items').where({ name: 'Cheese scone' }).first();
+    expect({ ...sconeRow, ingredients: jsonOf(sconeRow.ingredients), available: boolOf(sconeRow.available) }).toMatchObject({
       category_id: baked.id,
       station: 'counter',
       price_cents: 375,
-      ingredients: '["cow\'s milk","wheat"]',
-      available: 1,
+      ingredients: ["cow's milk", 'wheat'],
+      available: true,
     });
     const cortadoRow = await server.db('menu_items').where({ name: 'Cortado' }).first();
     const oat = await server.db('milk_options').where({ code: 'OA' }).first();
