@@ -129,3 +129,16 @@ export async function tableNames(db: Knex): Promise<string[]> {
 export function lockingRead<Q extends Knex.QueryBuilder>(db: Knex | Knex.Transaction, query: Q): Q {
   return (dialectOf(db) === 'postgres' ? query.forNoKeyUpdate() : query) as Q;
 }
+
+/**
+ * Holds the café's `dates` (YYYY-MM-DD) until the transaction ends, before a report works them out
+ * to store them: on PostgreSQL an exclusive advisory lock per day, the one a change to that day's
+ * orders takes shared in its trigger (migration 20261203000100), so neither can slip between the
+ * other's reading and writing. SQLite runs transactions one at a time and needs none.
+ */
+export async function lockReportDays(trx: Knex.Transaction, locationId: number, dates: string[]): Promise<void> {
+  if (dialectOf(trx) !== 'postgres' || dates.length === 0) return;
+  // the day as a number (20260302); taken in date order, unnest keeps the array's
+  const keys = dates.map((d) => Number(d.replaceAll('-', ''))).sort((a, b) => a - b);
+  await trx.raw('SELECT pg_advisory_xact_lock(?::integer, d) FROM unnest(?::integer[]) AS d', [locationId, `{${keys.join(',')}}`]);
+}

@@ -32,7 +32,7 @@ describe('orders taken at once', () => {
       Array.from({ length: AT_ONCE }, (_, i) => terminal(i).post('/api/orders').send(orderBody(`Guest ${i}`, [{ menuItemId: ids.item('Espresso') }]))),
     );
     expect(statuses(res), JSON.stringify(res.find((r) => r.status !== 201)?.body)).toEqual(Array(AT_ONCE).fill(201));
-    const day = res[0].body.order.businessDate as string;
+    const day = (await server.db('orders').where({ id: res[0].body.order.id }).first('business_date')).business_date as string;
     const last = Math.max(0, ...before.filter((o) => o.business_date === day).map((o) => o.number));
     const numbers = res.map((r) => r.body.order.number as number).sort((a, b) => a - b);
     expect(numbers).toEqual(Array.from({ length: AT_ONCE }, (_, i) => last + 1 + i));
@@ -74,5 +74,36 @@ describe('shifts opened at once', () => {
     const res = await Promise.all(leads.map((a) => a.post('/api/shifts').send({ openingFloatCents: 15000, baristasOnBar: 2, waitTargetSeconds: 240 })));
     expect(statuses(res)).toEqual([201, ...Array(7).fill(409)]);
     expect(Number((await server.db('shifts').count({ n: '*' }).first())?.n)).toBe(before + 1);
+  });
+});
+
+describe('refunds landing while the range report stores its past days', () => {
+  it('a stored day is never older than its orders: the report read after the rush equals one worked out afresh', async () => {
+    // last in the file: it moves the clock on to the next café day
+    const orders = [];
+    for (let i = 0; i < 12; i++) {
+      const res = await terminal(0).post('/api/orders').send(orderBody(`Past ${i}`, [{ menuItemId: ids.item('Latte') }]));
+      expect(res.status).toBe(201);
+      orders.push(res.body.order as { id: number });
+    }
+    const day = (await server.db('orders').where({ id: orders[0].id }).first('business_date')).business_date as string;
+    time.advance(24 * 3600_000);
+    const range = () => lead.get(`/api/reports/range?from=${day}&to=${day}`);
+    for (const order of orders) {
+      // one refund and a few range reports at the same moment: the reports fill the day's stored
+      // partial while the refund changes one of its orders
+      const [refund, ...reports] = await Promise.all([
+        lead.post(`/api/orders/${order.id}/refund`).send({ amountCents: 10, reason: 'Short pour' }),
+        range(),
+        range(),
+        range(),
+      ]);
+      expect(refund.status, JSON.stringify(refund.body)).toBe(200);
+      for (const r of reports) expect(r.status, JSON.stringify(r.body)).toBe(200);
+    }
+    const cached = await range();
+    await server.db('report_days').delete();
+    const fresh = await range();
+    expect(cached.body).toEqual(fresh.body);
   });
 });

@@ -10,7 +10,7 @@
 // its orders or order lines is inserted, changed or deleted, in the same transaction; it is
 // recomputed the next time a range needs it.
 import type { Knex } from 'knex';
-import { dialectOf, rawRows } from '../../db/dialect';
+import { dialectOf, lockReportDays, rawRows } from '../../db/dialect';
 import { json } from '../../db/rows';
 import type { HourRow, OverTargetTicket, ReportView } from '../../../src/domain/reports';
 import { median, summarizeWaits } from '../../../src/domain/stats';
@@ -200,6 +200,7 @@ export async function rangeDays(db: Knex, location: ReportLocation, from: string
         if (p && p.v === PAYLOAD_VERSION && p.tz === location.timeZone) parts.set(r.business_date, p);
       }
       const missing = past.filter((d) => !parts.has(d));
+      await lockReportDays(trx, location.id, missing); // no change to their orders slips in meanwhile
       const computedAt = now.toISOString();
       for (const [a, b] of runs(missing)) {
         const computed = await computeDays(trx, location, a, b);
