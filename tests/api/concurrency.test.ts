@@ -3,6 +3,9 @@
 // they really interleave under its default isolation, read committed, so each read-then-write
 // must lock, write conditionally or lean on a unique constraint (409, never 500).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Knex } from 'knex';
+import { dialectOf } from '../../server/db/dialect';
+import { createDb } from '../../server/db/knex';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent } from './helpers';
 
@@ -21,6 +24,12 @@ beforeAll(async () => {
   lead = await server.signIn('lead');
 });
 afterAll(() => server.close());
+
+/** A session of this database waits for a lock (PostgreSQL's own view of its sessions). */
+async function waitingForLock(db: Knex): Promise<boolean> {
+  const row = await db('pg_stat_activity').where({ wait_event_type: 'Lock' }).andWhereRaw('datname = current_database()').count({ n: '*' }).first();
+  return Number(row?.n) > 0;
+}
 
 const terminal = (i: number) => cashiers[i % cashiers.length];
 const statuses = (res: { status: number }[]) => res.map((r) => r.status).sort((a, b) => a - b);
@@ -105,5 +114,33 @@ describe('refunds landing while the range report stores its past days', () => {
     await server.db('report_days').delete();
     const fresh = await range();
     expect(cached.body).toEqual(fresh.body);
+  });
+  it('a day stored while a change to its orders is still uncommitted waits for that change', async () => {
+    // A second connection changes an order of the stored day and holds its transaction open (on
+    // PostgreSQL; SQLite's one writer can't have a change open beside the app's, so there the
+    // change simply comes first). The report asked meanwhile must not store the day without it.
+    const placed = await terminal(0).post('/api/orders').send(orderBody('Held Change', [{ menuItemId: ids.item('Latte') }]));
+    expect(placed.status).toBe(201);
+    time.advance(24 * 3600_000); // its day is past now: the report stores it
+    const order = (await server.db('orders').where({ id: placed.body.order.id }).first('id', 'business_date')) as { id: number; business_date: string };
+    const range = () => lead.get(`/api/reports/range?from=${order.business_date}&to=${order.business_date}`);
+    await server.db('report_days').delete();
+    const pg = dialectOf(server.db) === 'postgres';
+    const other = createDb(server.databaseTarget);
+    try {
+      const writer = pg ? await other.transaction() : null;
+      await (writer ?? server.db)('orders').where({ id: order.id }).increment('refunded_cents', 10);
+      let settled = false;
+      const report = range().then((r) => ((settled = true), r));
+      // until the report has either finished or is waiting for a lock the change holds
+      while (pg && !settled && !(await waitingForLock(other))) await new Promise((r) => setTimeout(r, 10));
+      await writer?.commit();
+      expect((await report).status).toBe(200);
+    } finally {
+      await other.destroy();
+    }
+    const cached = await range();
+    await server.db('report_days').delete();
+    expect(cached.body).toEqual((await range()).body);
   });
 });
