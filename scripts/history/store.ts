@@ -3,7 +3,7 @@
 // (the realtime log is for live screens, not for history).
 import { orderItemRow } from '../../server/services/order-item-row';
 import type { Database } from 'better-sqlite3';
-import { WAIT_OF_ORDER } from '../../server/services/reports/sql';
+import { waitOfOrder } from '../../server/services/reports/sql';
 import type { DayPlan } from './day';
 
 export interface Written {
@@ -50,9 +50,10 @@ export function dayWriter(conn: Database, locationId: number, lead: number): Day
     `INSERT INTO refunds (order_id, payment_id, amount_cents, reason, provider_id, created_by, created_at)
      VALUES (@order_id, @payment_id, @amount_cents, @reason, @provider_id, @created_by, @created_at)`,
   );
-  // the stored wait, worked out by the same SQL the bar's bump uses (server/services/tickets.ts)
+  // the stored wait, worked out by the same SQL the bar's bump uses (server/services/tickets.ts);
+  // this writer is better-sqlite3's, so SQLite's
   const waits = conn.prepare(
-    `UPDATE orders AS o SET wait_seconds = ${WAIT_OF_ORDER} WHERE o.location_id = ? AND o.business_date = ? AND o.ready_at IS NOT NULL`,
+    `UPDATE orders AS o SET wait_seconds = ${waitOfOrder('sqlite')} WHERE o.location_id = ? AND o.business_date = ? AND o.ready_at IS NOT NULL`,
   );
   // Bumps are numbered in the order they happened, after any the bar has made already (read once:
   // bump_seq has no index, and history is the only writer while it runs).

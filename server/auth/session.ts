@@ -11,6 +11,7 @@ import type { Logger } from 'pino';
 import { Strategy as LocalStrategy } from 'passport-local';
 import type { SessionUser } from '../../src/domain/types';
 import { PASSIVE_REQUEST_HEADER } from '../../src/lib/http';
+import { dialectOf, jsonNumberSql, jsonSetNumbersSql } from '../db/dialect';
 import { bool } from '../db/rows';
 import { hashPassword, verifyPassword } from './passwords';
 import { createSessionStore } from './session-store';
@@ -147,21 +148,30 @@ async function enforceTimeouts(db: Knex, req: SessionRequest, policy: SessionPol
  * `minGapMs`: leave the row alone if it was marked active less than this long ago.
  */
 export async function recordActivity(db: Knex, sid: string, now: number, minGapMs = 0): Promise<void> {
+  const d = dialectOf(db);
+  const stored = (key: string) => jsonNumberSql(d, 'sess', [key]);
   await db('sessions')
     .where({ sid })
-    .andWhereRaw("coalesce(json_extract(sess, '$.lastActiveAt'), 0) <= ?", [now - minGapMs])
+    .andWhereRaw(`coalesce(${stored('lastActiveAt')}, 0) <= ?`, [now - minGapMs])
     .update({
-      sess: db.raw("json_set(sess, '$.lastActiveAt', ?, '$.signedInAt', coalesce(json_extract(sess, '$.signedInAt'), ?))", [now, now]),
+      sess: db.raw(
+        jsonSetNumbersSql(d, 'sess', [
+          ['lastActiveAt', '?'],
+          ['signedInAt', `coalesce(${stored('signedInAt')}, ?)`],
+        ]),
+        [now, now],
+      ),
     });
 }
 
 /** A stored session as the live socket sees it: gone, timed out, or good. */
 export async function storedSessionExpiry(db: Knex, sid: string, policy: SessionPolicy): Promise<Expiry | 'gone'> {
+  const now = policy.now(); // as of the message that asked, not of whenever the read comes back
   const row = await db('sessions').where({ sid }).first('sess');
   if (!row) return 'gone';
   const sess = (typeof row.sess === 'string' ? JSON.parse(row.sess) : row.sess) as SessionTimes & { passport?: { user?: unknown } };
   if (!sess.passport?.user) return 'gone';
-  return expiryOf(sess, policy.now(), policy);
+  return expiryOf(sess, now, policy);
 }
 
 /** Ends a stored session (a timed-out one the live socket found). */

@@ -48,3 +48,97 @@ export function rawRows<T>(result: unknown): T[] {
 export function snapshotRead(db: Knex): Knex.TransactionConfig | undefined {
   return dialectOf(db) === 'postgres' ? { isolationLevel: 'repeatable read' } : undefined;
 }
+
+/**
+ * Seconds from `from` to `to` (timestamps stored as toISOString() text), rounded to the
+ * millisecond, as a float: SQLite works it out through julianday, PostgreSQL through timestamptz.
+ */
+export function secondsBetweenSql(d: Dialect, from: string, to: string): string {
+  return d === 'postgres'
+    ? `ROUND(EXTRACT(EPOCH FROM (${to}::timestamptz - ${from}::timestamptz))::numeric, 3)::float8`
+    : `ROUND((julianday(${to}) - julianday(${from})) * 86400, 3)`;
+}
+
+/**
+ * The hour (0–23, an integer) of `column` (toISOString() text) moved by `shiftSql`, SQL that gives
+ * a shift as SQLite's date modifiers write it ('+60 minutes', '-300 minutes'), which PostgreSQL
+ * reads as an interval.
+ */
+export function shiftedHourSql(d: Dialect, column: string, shiftSql: string): string {
+  return d === 'postgres'
+    ? `CAST(EXTRACT(HOUR FROM (${column}::timestamptz AT TIME ZONE 'UTC') + CAST(${shiftSql} AS interval)) AS INTEGER)`
+    : `CAST(strftime('%H', ${column}, ${shiftSql}) AS INTEGER)`;
+}
+
+/**
+ * `column` contains the text bound as its one `?` (a LIKE pattern with `\` escaping % and _),
+ * ignoring the case of ASCII letters only, as SQLite's LIKE does (sqlite.org/lang_expr.html#like);
+ * on PostgreSQL ILIKE under the "C" collation, which folds ASCII letters only whatever the
+ * database's locale.
+ */
+export function containsSql(d: Dialect, column: string): string {
+  // ESCAPE: a `%`, `_` or `\` typed into a search is that character, never a wildcard (containing())
+  return d === 'postgres' ? `${column} COLLATE "C" ILIKE ? ESCAPE '\\'` : `${column} LIKE ? ESCAPE '\\'`;
+}
+
+/** The pattern containsSql binds: `text` anywhere, its `%`, `_` and `\` escaped. */
+export const containing = (text: string) => `%${text.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+
+/**
+ * `expr` for ORDER BY ignoring the case of ASCII letters, otherwise by code point: SQLite's NOCASE
+ * collation, and on PostgreSQL its equivalent, lower() under the "C" collation (ASCII-only folding,
+ * byte order, which for UTF-8 is code point order).
+ */
+export function caseFoldedSql(d: Dialect, expr: string): string {
+  return d === 'postgres' ? `lower(${expr} COLLATE "C")` : `${expr} COLLATE NOCASE`;
+}
+
+const jsonPath = (path: string[]) => `'$.${path.join('.')}'`;
+
+/** The number at `path` inside the JSON text column `column` (null when missing), for SQL comparisons. */
+export function jsonNumberSql(d: Dialect, column: string, path: string[]): string {
+  return d === 'postgres' ? `(${column}::jsonb #>> '{${path.join(',')}}')::numeric` : `json_extract(${column}, ${jsonPath(path)})`;
+}
+
+/**
+ * `column` (JSON) with top-level `keys` set to numbers, each given as SQL (bindings allowed):
+ * SQLite's json_set, PostgreSQL's jsonb_set one key at a time, written back as json.
+ */
+export function jsonSetNumbersSql(d: Dialect, column: string, values: [key: string, sql: string][]): string {
+  if (d !== 'postgres') return `json_set(${column}, ${values.map(([k, sql]) => `${jsonPath([k])}, ${sql}`).join(', ')})`;
+  let out = `${column}::jsonb`;
+  for (const [k, sql] of values) out = `jsonb_set(${out}, '{${k}}', to_jsonb(CAST(${sql} AS numeric)))`;
+  return `${out}::json`;
+}
+
+/** The names of every table (Knex's migration bookkeeping included), sorted, for tests and tools. */
+export async function tableNames(db: Knex): Promise<string[]> {
+  const rows =
+    dialectOf(db) === 'postgres'
+      ? await db('information_schema.tables').where({ table_schema: db.raw('current_schema()'), table_type: 'BASE TABLE' }).pluck('table_name')
+      : await db('sqlite_master').where({ type: 'table' }).whereNot('name', 'like', 'sqlite_%').pluck('name');
+  return (rows as string[]).sort();
+}
+
+/**
+ * `query` (a SELECT inside a transaction) locks the rows it reads until the transaction ends, so
+ * a command's read-then-write on them can't interleave with another's. PostgreSQL: FOR NO KEY
+ * UPDATE (rows that merely reference them can still be inserted). SQLite needs nothing: its one
+ * connection already runs transactions one after another.
+ */
+export function lockingRead<Q extends Knex.QueryBuilder>(db: Knex | Knex.Transaction, query: Q): Q {
+  return (dialectOf(db) === 'postgres' ? query.forNoKeyUpdate() : query) as Q;
+}
+
+/**
+ * Holds the café's `dates` (YYYY-MM-DD) until the transaction ends, before a report works them out
+ * to store them: on PostgreSQL an exclusive advisory lock per day, the one a change to that day's
+ * orders takes shared in its trigger (migration 20261203000100), so neither can slip between the
+ * other's reading and writing. SQLite runs transactions one at a time and needs none.
+ */
+export async function lockReportDays(trx: Knex.Transaction, locationId: number, dates: string[]): Promise<void> {
+  if (dialectOf(trx) !== 'postgres' || dates.length === 0) return;
+  // the day as a number (20260302); taken in date order, unnest keeps the array's
+  const keys = dates.map((d) => Number(d.replaceAll('-', ''))).sort((a, b) => a - b);
+  await trx.raw('SELECT pg_advisory_xact_lock(?::integer, d) FROM unnest(?::integer[]) AS d', [locationId, `{${keys.join(',')}}`]);
+}

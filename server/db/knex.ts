@@ -13,7 +13,7 @@ export const migrationConfig: Knex.MigratorConfig = {
   loadExtensions: ['.ts'],
 };
 
-/** How long a statement waits for another process's write lock before SQLite answers SQLITE_BUSY. */
+/** How long a statement waits for another process's write lock before SQLite answers SQLITE_BUSY (PostgreSQL: lock_timeout). */
 export const DEFAULT_BUSY_TIMEOUT_MS = 5000;
 
 export interface DbOptions {
@@ -28,11 +28,20 @@ export function createDb(target: string, opts: DbOptions = {}): Knex {
 }
 
 function createPostgresDb(connectionString: string, opts: DbOptions): Knex {
+  const lockTimeoutMs = Math.trunc(opts.busyTimeoutMs ?? DEFAULT_BUSY_TIMEOUT_MS);
   return knexFactory({
     client: 'pg',
     connection: { connectionString },
     migrations: migrationConfig,
-    pool: { min: 0, max: opts.poolMax ?? 10 },
+    pool: {
+      min: 0,
+      max: opts.poolMax ?? 10,
+      // SQLite's busy timeout on PostgreSQL: a statement waits this long for a lock another
+      // connection holds, then fails with 55P03 (a 503, errors.ts) instead of waiting forever
+      afterCreate(conn: { query: (sql: string, cb: (err: Error | null) => void) => void }, done: (err: Error | null, conn: unknown) => void) {
+        conn.query(`SET lock_timeout = ${lockTimeoutMs}`, (err) => done(err, conn));
+      },
+    },
   });
 }
 

@@ -4,17 +4,23 @@
 import type { Knex } from 'knex';
 import { byAge } from '../../src/domain/lanes';
 import type { SessionUser, TicketEventType } from '../../src/domain/types';
+import { dialectOf } from '../db/dialect';
 import { json } from '../db/rows';
 import { conflict, notFound } from '../errors';
 import { recordCoffeeUse } from './beans-usage';
-import { appendEvent } from './events';
-import { WAIT_OF_ORDER } from './reports/sql';
+import { appendEvent, lockCafe } from './events';
+import { waitOfOrder } from './reports/sql';
 import { loadTicket } from './ticket-views';
 
 export type DrinkRow = Record<string, any>;
 
-/** The bar drinks a command names, each checked: in this café, on an open ticket. */
+/**
+ * The bar drinks a command names, each checked: in this café, on an open ticket. Read under the
+ * café's lock (lockCafe), so a command that lost a race to another screen reads the winner's
+ * bump and says who made it, instead of failing later on a row that changed under it.
+ */
 export async function openDrinks(trx: Knex.Transaction, user: SessionUser, drinkIds: number[]): Promise<DrinkRow[]> {
+  await lockCafe(trx, user.locationId);
   const rows = await trx('order_items')
     .join('orders', 'orders.id', 'order_items.order_id')
     .whereIn('order_items.id', drinkIds)
@@ -69,7 +75,9 @@ export function assertAllergyRead(rows: DrinkRow[]) {
   if (unread) throw conflict('Read the allergy on this ticket and acknowledge it before bumping', { drinkId: unread.id });
 }
 
-export async function nextBumpSeq(trx: Knex.Transaction): Promise<number> {
+/** The next bump number; the café stays locked until the bump commits (lockCafe). */
+export async function nextBumpSeq(trx: Knex.Transaction, locationId: number): Promise<number> {
+  await lockCafe(trx, locationId);
   const row = await trx('order_items').max<{ n: number | null }>({ n: 'bump_seq' }).first();
   return (row?.n ?? 0) + 1;
 }
@@ -83,7 +91,7 @@ export async function settleTicket(trx: Knex.Transaction, orderId: number, at: s
     .first();
   if (Number(left?.n) === 0) {
     const changed = await trx('orders').where({ id: orderId, status: 'open' }).update({ status: 'ready', ready_at: at });
-    if (changed) await trx.raw(`UPDATE orders AS o SET wait_seconds = ${WAIT_OF_ORDER} WHERE o.id = ?`, [orderId]);
+    if (changed) await trx.raw(`UPDATE orders AS o SET wait_seconds = ${waitOfOrder(dialectOf(trx))} WHERE o.id = ?`, [orderId]);
   }
 }
 
@@ -108,7 +116,7 @@ export async function bumpRows(trx: Knex.Transaction, user: SessionUser, rows: D
   if (done) throw conflict(alreadyBumped(done));
   assertAllergyRead(rows);
   const drinkIds = rows.map((r) => r.id);
-  const bumpSeq = await nextBumpSeq(trx);
+  const bumpSeq = await nextBumpSeq(trx, user.locationId);
   await trx('order_items').whereIn('id', drinkIds).whereNull('started_at').update({ started_at: at });
   const changed = await trx('order_items')
     .whereIn('id', drinkIds)

@@ -6,6 +6,7 @@
 // order's money is touched again: the next card, cash or a void). The order is fired to the bar
 // only once its payment has succeeded.
 import type { OrderView, SessionUser } from '../../src/domain/types';
+import { lockingRead } from '../db/dialect';
 import { isUniqueViolation } from '../db/rows';
 import { HttpError, conflict, notFound } from '../errors';
 import { CardDeclined, GatewayRefused, type ChargeState } from '../payments/gateway';
@@ -16,7 +17,7 @@ import { loadOrder } from './orders';
 
 async function startAttempt(deps: Deps, user: SessionUser, orderId: number) {
   return deps.db.transaction(async (trx) => {
-    const order = await trx('orders').where({ id: orderId, location_id: user.locationId }).first();
+    const order = await lockingRead(trx, trx('orders').where({ id: orderId, location_id: user.locationId })).first();
     if (!order) throw notFound('Order');
     if (order.payment_status !== 'unpaid' || order.status !== 'pending') return null; // already settled
     const at = deps.clock().toISOString();

@@ -8,6 +8,7 @@ import { AUTO_REFUND_REASON, autoRefundCause, type AutoRefundCause } from '../..
 import { isUniqueViolation } from '../db/rows';
 import { conflict } from '../errors';
 import { GatewayRefused, GatewayUnavailable, type ChargeState, type PaymentGateway } from '../payments/gateway';
+import { lockingRead } from '../db/dialect';
 import type { Deps } from './deps';
 import { appendEvent, runCommand } from './events';
 import { fireOrder } from './fire-order';
@@ -67,6 +68,10 @@ async function giveBack(deps: Deps, r: GiveBack) {
  */
 async function settleCharge(deps: Deps, paymentId: number, state: ChargeState) {
   const refund = await runCommand<GiveBack | null>(deps, async (trx) => {
+    // The order's row first (every command on an order's money holds it in that order), then the
+    // attempt read again: the API answer and the webhook settling it at once take turns here.
+    const orderId = (await trx('payments').where({ id: paymentId }).first('order_id'))?.order_id;
+    if (orderId !== undefined) await lockingRead(trx, trx('orders').where({ id: orderId })).first('id');
     const p = await trx('payments').where({ id: paymentId }).first();
     if (!p || p.method !== 'card' || p.status === 'succeeded' || p.status === 'refunded') return { result: null, events: [] };
     const pending = (row: { id: number; cause: AutoRefundCause }): GiveBack => ({

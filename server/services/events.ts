@@ -2,6 +2,7 @@
 // after commit, replayed to screens that resume.
 import type { Knex } from 'knex';
 import type { AnyLiveEvent, MenuEvent, ShiftView, TicketEventType, TicketView } from '../../src/domain/types';
+import { lockingRead } from '../db/dialect';
 import type { Deps } from './deps';
 
 export interface PendingEvent {
@@ -100,6 +101,15 @@ export async function runCommand<T>(
   });
   for (const { locationId, event } of events) deps.hub.publish(locationId, event);
   return result;
+}
+
+/**
+ * Holds the café's own row until the command commits, for a command that numbers something by
+ * reading the last number (order numbers, bump numbers): the next such command of the café waits
+ * here, so it reads the number this one wrote. Taken before any other row lock of the command.
+ */
+export async function lockCafe(trx: Knex.Transaction, locationId: number): Promise<void> {
+  await lockingRead(trx, trx('locations').where({ id: locationId })).first('id');
 }
 
 export async function latestSeq(db: Knex | Knex.Transaction, locationId: number): Promise<number> {

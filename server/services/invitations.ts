@@ -9,6 +9,7 @@ import type { Knex } from 'knex';
 import { LINK_HOURS, type LinkPurpose, type WelcomeView } from '../../src/domain/team-schemas';
 import type { SessionUser } from '../../src/domain/types';
 import { hashPassword } from '../auth/passwords';
+import { lockingRead } from '../db/dialect';
 import { bool } from '../db/rows';
 import { HttpError, conflict, notFound } from '../errors';
 import type { Deps } from './deps';
@@ -41,6 +42,8 @@ export async function createLink(
   o: { locationId: number; userId: number; purpose: LinkPurpose; createdBy: number; now: Date },
 ): Promise<{ id: number; token: string }> {
   const at = o.now.toISOString();
+  // the person's row held until commit: links sent at once void each other in turn, leaving one
+  await lockingRead(trx, trx('users').where({ id: o.userId })).first('id');
   await voidLinks(trx, o.userId, at);
   const token = newToken();
   const [{ id }] = await trx('invitations')
@@ -139,7 +142,9 @@ export async function acceptLink(deps: Deps, token: string, password: string): P
     const at = now.toISOString();
     const link = await openLink(trx, token, now); // again: another tab may have used it meanwhile
     if (!link) throw linkNotValid();
-    await trx('invitations').where({ id: link.id }).update({ used_at: at });
+    // conditional: the same link used from another tab at this moment is used once
+    const used = await trx('invitations').where({ id: link.id }).whereNull('used_at').whereNull('voided_at').update({ used_at: at });
+    if (used === 0) throw linkNotValid();
     await voidLinks(trx, link.user_id, at);
     await trx('users').where({ id: link.user_id }).update({ password_hash: hash, awaiting_password: false });
     const u = await trx('users').where({ id: link.user_id }).first();

@@ -4,6 +4,7 @@
 import type { Knex } from 'knex';
 import type { CreateOrderBody } from '../../src/domain/schemas';
 import type { OrderView, SessionUser } from '../../src/domain/types';
+import { containing, containsSql, dialectOf, lockingRead } from '../db/dialect';
 import { isUniqueViolation, json } from '../db/rows';
 import { HttpError, conflict } from '../errors';
 import { payByCard } from './card-payments';
@@ -11,7 +12,7 @@ import { settleOpenAttempts } from './card-settle';
 import { fireOrder } from './fire-order';
 import { orderItemRow } from './order-item-row';
 import type { Deps } from './deps';
-import { appendEvent, runCommand } from './events';
+import { appendEvent, lockCafe, runCommand } from './events';
 import { priceOrder, type PricedOrder } from './order-pricing';
 import { quoteForNewOrder } from './quotes';
 import { loadTicket } from './ticket-views';
@@ -103,6 +104,7 @@ async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody,
     const now = deps.clock();
     const at = now.toISOString();
     const day = businessDate(now, menu.location.timeZone);
+    await lockCafe(trx, user.locationId); // orders taken at once get numbers one after another
     const last = await trx('orders')
       .where({ location_id: user.locationId, business_date: day })
       .max<{ n: number | null }>({ n: 'number' })
@@ -208,7 +210,7 @@ async function payPendingByCash(deps: Deps, user: SessionUser, orderId: number, 
   // taken. If the card service can't say, cash goes ahead and a charge found later is given back.
   await settleOpenAttempts(deps, orderId);
   return runCommand(deps, async (trx) => {
-    const order = await trx('orders').where({ id: orderId, location_id: user.locationId }).first();
+    const order = await lockingRead(trx, trx('orders').where({ id: orderId, location_id: user.locationId })).first();
     if (order.status !== 'pending' || order.payment_status !== 'unpaid') return { result: await loadOrder(trx, orderId), events: [] };
     if (tendered < order.total_cents) {
       throw new HttpError(400, 'validation_failed', 'The cash tendered is less than the total', [
@@ -244,8 +246,7 @@ export async function listOrders(deps: Deps, user: SessionUser, q: string | unde
   if (q) {
     const n = Number(q.replace(/^#/, ''));
     query.andWhere((w) => {
-      // ESCAPE: a `%`, `_` or `\` typed into the search is that character, never a wildcard
-      w.whereRaw("customer_name LIKE ? ESCAPE '\\'", [`%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`]);
+      w.whereRaw(containsSql(dialectOf(deps.db), 'customer_name'), [containing(q)]);
       if (Number.isInteger(n) && n > 0) w.orWhere('number', n);
     });
   }

@@ -7,6 +7,7 @@ import { PIN_LOCK_MINUTES, PIN_TRIES, type SwitchBody, type SwitchPerson } from 
 import type { SessionUser } from '../../src/domain/types';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import { HttpError, conflict, notFound } from '../errors';
+import { lockingRead } from '../db/dialect';
 import type { Deps } from './deps';
 
 type Db = Knex | Knex.Transaction;
@@ -68,9 +69,10 @@ export async function checkPinSwitch(deps: Deps, user: SessionUser, body: Switch
   if (target.id === user.id) return { ok: false, wrongPin: false, error: conflict('You are already signed in here') };
   const loc = await deps.db('locations').where({ id: user.locationId }).first('time_zone', 'locale');
 
-  // Count the try first, inside one transaction (the single connection makes it strictly serial).
+  // Count the try first, inside one transaction that holds the person's row (tries at once wait
+  // for each other here, so each counts the one before).
   const reserved = await deps.db.transaction(async (trx) => {
-    const u = await trx('users').where({ id: target.id }).first('pin_failures', 'pin_failed_at', 'pin_locked_until');
+    const u = await lockingRead(trx, trx('users').where({ id: target.id })).first('pin_failures', 'pin_failed_at', 'pin_locked_until');
     if (u.pin_locked_until && Date.parse(u.pin_locked_until) > now.getTime()) return { locked: new Date(u.pin_locked_until) };
     const recent = u.pin_failed_at && now.getTime() - Date.parse(u.pin_failed_at) < FAILURE_MEMORY_MS && !u.pin_locked_until;
     const tries = (recent ? u.pin_failures : 0) + 1;

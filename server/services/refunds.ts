@@ -3,6 +3,7 @@
 import type { SessionUser } from '../../src/domain/types';
 import { HttpError, conflict, notFound } from '../errors';
 import { GatewayRefused, GatewayUnavailable } from '../payments/gateway';
+import { lockingRead } from '../db/dialect';
 import type { Deps } from './deps';
 import { releaseStaleAttempts, settleOpenAttempts } from './card-settle';
 import { appendEvent, runCommand } from './events';
@@ -46,8 +47,9 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
 
   return runCommand(deps, async (trx) => {
     const at = deps.clock().toISOString();
-    // re-read inside the transaction: another refund may have landed meanwhile
-    const fresh = await trx('orders').where({ id: orderId }).first();
+    // re-read inside the transaction, holding the order: another refund may have landed meanwhile,
+    // and one sent at the same moment waits here until this one has committed
+    const fresh = await lockingRead(trx, trx('orders').where({ id: orderId })).first();
     if (fresh.refunded_cents !== order.refunded_cents) {
       // Cash: nothing has been handed back yet, so refuse. Card: the provider has already given
       // this money back (it checks the charge's own balance), so it must be recorded, unless it
@@ -85,7 +87,7 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
 export async function voidOrder(deps: Deps, user: SessionUser, orderId: number, reason: string) {
   if (await findOrderInLocation(deps.db, user, orderId)) await releaseStaleAttempts(deps, orderId);
   const result = await runCommand(deps, async (trx) => {
-    const order = await trx('orders').where({ id: orderId, location_id: user.locationId }).first();
+    const order = await lockingRead(trx, trx('orders').where({ id: orderId, location_id: user.locationId })).first();
     if (!order) throw notFound('Order');
     if (order.status !== 'pending' || order.payment_status !== 'unpaid') {
       throw conflict('Only an order that was never paid can be voided; refund a paid one');

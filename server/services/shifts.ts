@@ -4,10 +4,12 @@ import type { Knex } from 'knex';
 import type { SessionUser, ShiftView } from '../../src/domain/types';
 import { openTicketsAt, openTicketsWarning, type OpenTicketsAtClose } from '../../src/domain/shift-close';
 import { conflict, HttpError, notFound } from '../errors';
+import { isUniqueViolation } from '../db/dialect';
 import type { Deps } from './deps';
 import { appendShiftEvent, runCommand } from './events';
 
 type Db = Knex | Knex.Transaction;
+type ShiftInput = { openingFloatCents: number; baristasOnBar: number; waitTargetSeconds: number };
 
 export async function loadShift(db: Db, shiftId: number): Promise<ShiftView> {
   const s = await db('shifts')
@@ -57,9 +59,20 @@ export async function expectedCash(db: Db, shiftId: number): Promise<number> {
   return shift.opening_float_cents + Number(taken?.n ?? 0) - Number(refunded?.n ?? 0);
 }
 
-export function openShift(deps: Deps, user: SessionUser, input: { openingFloatCents: number; baristasOnBar: number; waitTargetSeconds: number }) {
+export async function openShift(deps: Deps, user: SessionUser, input: ShiftInput) {
+  const alreadyOpen = () => conflict('A shift is already open; close it first');
+  try {
+    return await insertShift(deps, user, input, alreadyOpen);
+  } catch (err) {
+    // two leads opening at once: the one-open-shift index refuses the second
+    if (isUniqueViolation(err)) throw alreadyOpen();
+    throw err;
+  }
+}
+
+function insertShift(deps: Deps, user: SessionUser, input: ShiftInput, alreadyOpen: () => HttpError) {
   return runCommand(deps, async (trx) => {
-    if (await openShiftOf(trx, user.locationId)) throw conflict('A shift is already open; close it first');
+    if (await openShiftOf(trx, user.locationId)) throw alreadyOpen();
     const at = deps.clock().toISOString();
     const [{ id }] = await trx('shifts')
       .insert({
@@ -111,8 +124,9 @@ export function closeShift(deps: Deps, user: SessionUser, input: { countedCashCe
     if (left.openTickets > 0 && !input.confirmOpenTickets) {
       throw new HttpError(409, 'open_tickets', `${openTicketsWarning(left)} Close anyway?`, left);
     }
-    await trx('shifts')
+    const closed = await trx('shifts')
       .where({ id: open.id })
+      .whereNull('closed_at') // another close may have landed since the read
       .update({
         closed_at: at,
         closed_by: user.id,
@@ -122,6 +136,7 @@ export function closeShift(deps: Deps, user: SessionUser, input: { countedCashCe
         open_tickets_at_close: left.openTickets,
         oldest_open_wait_seconds_at_close: left.oldestWaitSeconds,
       });
+    if (closed === 0) throw conflict('No shift is open');
     const shift = await loadShift(trx, open.id);
     return { result: shift, events: [await appendShiftEvent(trx, user.locationId, shift, at, user.id)] };
   });

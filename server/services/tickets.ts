@@ -80,7 +80,7 @@ export function bumpTicket(deps: Deps, user: SessionUser, orderId: number) {
     if (left.length === 0) throw conflict('This ticket has no drinks left to bump');
     assertAllergyRead(await openDrinks(trx, user, left.map((d) => d.id)));
     const at = deps.clock().toISOString();
-    const bumpSeq = await nextBumpSeq(trx);
+    const bumpSeq = await nextBumpSeq(trx, user.locationId);
     await trx('order_items').where({ order_id: orderId, station: 'bar', status: 'queued' }).update({ started_at: at });
     await trx('order_items')
       .where({ order_id: orderId, station: 'bar' })

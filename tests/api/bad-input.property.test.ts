@@ -15,6 +15,7 @@ import type { ApiRoute } from '../../server/routes/define';
 import { WEBHOOK_PATH } from '../../server/routes/orders';
 import { startTestServer, type TestServer } from '../support/test-server';
 import type { Agent } from './helpers';
+import { tableNames } from '../../server/db/dialect';
 
 const RUNS = 25;
 // Each property walks every route (about 100 of them) with RUNS inputs: minutes, not seconds.
@@ -40,8 +41,7 @@ const takesBody = (r: ApiRoute) => r.method === 'post' || r.method === 'put' || 
 beforeAll(async () => {
   server = await startTestServer();
   owner = await server.signIn('owner');
-  const tables = await server.db.raw("select name from sqlite_master where type = 'table' and name not like 'sqlite_%' and name != 'sessions'");
-  TABLES = (tables as { name: string }[]).map((t) => t.name);
+  TABLES = (await tableNames(server.db)).filter((t) => t !== 'sessions');
   for (const table of ['orders', 'order_items', 'payments', 'refunds', 'events', 'shifts', 'menu_items']) {
     const max = Number((await server.db(table).max({ m: 'id' }).first())?.m ?? 0);
     if (max >= 1e7) throw new Error(`${table} has ids ≥ 1e7; the :id filter below assumes it does not`);

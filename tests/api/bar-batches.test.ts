@@ -9,6 +9,7 @@ import type { TicketView } from '../../src/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { BIG_PITCHER, barTools, laneIds, laneOf, MID_PITCHER, plannedJug, SMALL_PITCHER } from './bar-helpers';
 import { orderBody, type Agent } from './helpers';
+import { jsonOf } from '../support/rows';
 
 const time = manualClock('2026-03-02T14:00:00.000Z');
 const nowIso = () => time.clock().toISOString();
@@ -277,7 +278,7 @@ describe('POST /api/drinks/start and /api/drinks/bump (batches)', () => {
     const expectedTickets = firstWon ? [a] : [a, b];
     expect(events.map((e) => e.type)).toEqual(expectedTickets.map(() => 'drink.bumped'));
     expect(events.every((e) => e.actor_id === winnerId)).toBe(true);
-    expect(events.map((e) => JSON.parse(e.payload).ticket.id).sort()).toEqual([...expectedTickets].sort());
+    expect(events.map((e) => jsonOf(e.payload).ticket.id).sort()).toEqual([...expectedTickets].sort());
     expect((winner.body.tickets as TicketView[]).map((t) => t.id).sort()).toEqual([...expectedTickets].sort());
   });
 

@@ -5,6 +5,7 @@ import type { PickupTicket } from '../../src/domain/pickup';
 import type { TicketView } from '../../src/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
+import { jsonOf } from '../support/rows';
 
 const time = manualClock('2026-03-02T14:00:00.000Z');
 const nowIso = () => time.clock().toISOString();
@@ -54,7 +55,7 @@ async function expectCommand(agent: Agent, path: string, type: string, actorId =
   expect(res.status, JSON.stringify(res.body)).toBe(200);
   expect(events.map((e) => e.type)).toEqual([type]);
   expect(events[0]).toMatchObject({ actor_id: actorId, created_at: nowIso() });
-  expect(JSON.parse(events[0].payload).ticket).toEqual(res.body.ticket);
+  expect(jsonOf(events[0].payload).ticket).toEqual(res.body.ticket);
   return res.body.ticket;
 }
 

@@ -6,6 +6,7 @@ import type { PlannedLane } from '../../src/domain/lanes';
 import type { TicketView } from '../../src/domain/types';
 import type { TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
+import { jsonOf } from '../support/rows';
 
 export type OrderExtras = { allergens?: string[]; allergyNote?: string };
 
@@ -59,7 +60,7 @@ export function barTools(get: { server: () => TestServer; cashier: () => Agent; 
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     expect(events.map((e) => e.type)).toEqual([type]);
     expect(events[0]).toMatchObject({ actor_id: actorId, created_at: get.nowIso() });
-    expect(JSON.parse(events[0].payload).ticket).toEqual(res.body.ticket);
+    expect(jsonOf(events[0].payload).ticket).toEqual(res.body.ticket);
     return res.body.ticket;
   }
 
@@ -84,7 +85,7 @@ export function barTools(get: { server: () => TestServer; cashier: () => Agent; 
     expect(tickets.map((t) => t.id).sort((a, b) => a - b)).toEqual([...ticketIds].sort((a, b) => a - b));
     expect(events.map((e) => e.type)).toEqual(ticketIds.map(() => type));
     for (const e of events) expect(e).toMatchObject({ actor_id: actorId, created_at: get.nowIso() });
-    const carried = events.map((e) => JSON.parse(e.payload).ticket as TicketView);
+    const carried = events.map((e) => jsonOf(e.payload).ticket as TicketView);
     expect(carried.sort((a, b) => a.id - b.id)).toEqual([...tickets].sort((a, b) => a.id - b.id));
     return { tickets: new Map(tickets.map((t) => [t.id, t])), body: res.body };
   }

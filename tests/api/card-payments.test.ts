@@ -8,6 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { OrderView, TicketView } from '../../src/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
+import { jsonOf } from '../support/rows';
 
 // The provider's documented test cards, see ../shared/reference/check-values.md ("Payments"):
 // 4242 4242 4242 4242 succeeds, …0002 is declined (card_declined), …9995 insufficient funds,
@@ -49,7 +50,7 @@ const ordersWithClientId = async (clientOrderId: string) =>
 /** The types of the ticket events about one order, oldest first. */
 async function eventTypes(orderId: number): Promise<string[]> {
   const rows = await server.db('events').whereNot({ type: 'menu.availability' }).orderBy('id').select('type', 'payload');
-  return rows.filter((r) => JSON.parse(r.payload).ticket.id === orderId).map((r) => r.type);
+  return rows.filter((r) => jsonOf(r.payload).ticket.id === orderId).map((r) => r.type);
 }
 
 async function openTicket(orderId: number): Promise<TicketView | undefined> {

@@ -10,6 +10,7 @@ import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { PaymentFake } from '../../server/fakes/payment-fake';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
+import { jsonOf } from '../support/rows';
 
 // The provider's documented test cards, see /work/shared/reference/check-values.md ("Payments"):
 // 4242 4242 4242 4242 succeeds, 4000 0000 0000 0002 is declined. Their test PaymentMethod ids.
@@ -52,7 +53,7 @@ const refundRows = (orderId: number) => server.db('refunds').where({ order_id: o
 /** The types of the ticket events about one order, oldest first. */
 async function eventTypes(orderId: number): Promise<string[]> {
   const rows = await server.db('events').where('type', 'like', 'order.%').orderBy('id').select('type', 'payload');
-  return rows.filter((r) => JSON.parse(r.payload).ticket.id === orderId).map((r) => r.type);
+  return rows.filter((r) => jsonOf(r.payload).ticket.id === orderId).map((r) => r.type);
 }
 
 /**

@@ -16,6 +16,7 @@ import { newPersonBody, personPatchBody } from '../../src/domain/team-schemas';
 import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
 import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
 import { lotBody, orderBody, type Agent } from './helpers';
+import { tableNames } from '../../server/db/dialect';
 
 const RUNS = 30;
 vi.setConfig({ testTimeout: 300_000 });
@@ -30,8 +31,7 @@ beforeAll(async () => {
   server = await startTestServer();
   owner = await server.signIn('owner');
   menu = await demoMenu(server);
-  const tables = await server.db.raw("select name from sqlite_master where type = 'table' and name not like 'sqlite_%' and name != 'sessions'");
-  TABLES = (tables as { name: string }[]).map((t) => t.name);
+  TABLES = (await tableNames(server.db)).filter((t) => t !== 'sessions');
   const placed = await owner.post('/api/orders').send(orderBody('Ivo Marsh', [{ menuItemId: menu.item('Latte') }]));
   expect(placed.status).toBe(201);
   ids.order = placed.body.order.id;

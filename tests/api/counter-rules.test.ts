@@ -6,6 +6,7 @@ import { US_ALLERGENS } from '../../src/domain/allergens';
 import type { MenuView, OrderView, TicketView } from '../../src/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, writeCounts, type Agent, type LineInput } from './helpers';
+import { jsonOf } from '../support/rows';
 
 const time = manualClock('2026-03-02T14:00:00.000Z'); // 09:00 in New York, the demo café's zone
 let server: TestServer;
@@ -106,7 +107,7 @@ describe("86'ing an item", () => {
     let events = await eventsAfter(since);
     expect(events.map((e) => e.type)).toEqual(['menu.availability']);
     expect(events[0].actor_id).toBe(leadId);
-    expect(JSON.parse(events[0].payload)).toEqual({ item: { id: item, available: false } });
+    expect(jsonOf(events[0].payload)).toEqual({ item: { id: item, available: false } });
 
     expect((await menuItem(item)).available).toBe(false);
 
@@ -121,7 +122,7 @@ describe("86'ing an item", () => {
     expect(on.status).toBe(200);
     expect(on.body).toEqual({ item: { id: item, available: true } });
     events = await eventsAfter(since);
-    expect(events.map((e) => [e.type, JSON.parse(e.payload)])).toEqual([['menu.availability', { item: { id: item, available: true } }]]);
+    expect(events.map((e) => [e.type, jsonOf(e.payload)])).toEqual([['menu.availability', { item: { id: item, available: true } }]]);
     expect((await menuItem(item)).available).toBe(true);
 
     const again = await place(cashier, orderBody('Ottilie Sandys', [{ menuItemId: ids.item('Latte') }, { menuItemId: item }]));
@@ -239,7 +240,7 @@ describe('allergens', () => {
     const order: OrderView = res.body.order;
     expect(order).toMatchObject({ allergens: ['tree nuts', 'sesame'], allergyNote: 'Severe: clean the steam wand first' });
     const row = await server.db('orders').where({ id: order.id }).first();
-    expect(JSON.parse(row.allergens)).toEqual(['tree nuts', 'sesame']);
+    expect(jsonOf(row.allergens)).toEqual(['tree nuts', 'sesame']);
 
     const tickets = await cashier.get('/api/tickets');
     const ticket = tickets.body.tickets.find((t: TicketView) => t.id === order.id);

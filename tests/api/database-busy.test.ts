@@ -1,11 +1,11 @@
 // Another program holds the SQLite write lock (tests/support/db-lock.ts: a second process in
-// BEGIN EXCLUSIVE). Once the busy timeout runs out SQLite answers SQLITE_BUSY; every request that
+// BEGIN EXCLUSIVE; on PostgreSQL, one holding every table in EXCLUSIVE mode). Once the busy timeout
+// runs out SQLite answers SQLITE_BUSY (PostgreSQL: lock_timeout, 55P03); every request that
 // must write then answers 503 with Retry-After in the app's error shape, changes nothing, and
 // the same process serves again, with nothing lost, once the lock ends. A process that dies, or an
 // unhandled rejection, fails this file (Vitest reports unhandled errors); so does a console.error.
 // The busy timeout is cut to 100 ms here only so each refusal does not wait 5 s: the path is the
 // same (tests/faults/database-busy.test.ts runs the built server on the real 5 s).
-import path from 'node:path';
 import request from 'supertest';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD, DEMO_PINS } from '../../seeds/demo-cafe';
@@ -51,7 +51,7 @@ describe('a database locked by another process', () => {
 
     const rows = await writeCounts(server);
     const sessions = await sessionIds();
-    const lock = await holdWriteLock(path.join(server.dir, 'jugline.sqlite'));
+    const lock = await holdWriteLock(server.databaseTarget);
     try {
       expectBusy(await signInAs('barista'), 'sign-in');
       expectBusy(await idle.get('/api/menu'), 'the first request after two idle minutes');
@@ -82,7 +82,7 @@ describe('a database locked by another process', () => {
     const placed = await terminal.post('/api/orders').send(order);
     expect(placed.status).toBe(201);
     expect((await terminal.post('/api/orders').send(order)).status).toBe(200);
-    expect(await server.db('orders').where({ client_order_id: order.clientOrderId }).count({ n: '*' }).first()).toEqual({ n: 1 });
+    expect(Number((await server.db('orders').where({ client_order_id: order.clientOrderId }).count({ n: '*' }).first())?.n)).toBe(1);
     // the Bar's live socket, open all along, gets the order
     expect(await bar.nextEvent('order.fired')).toMatchObject({ type: 'order.fired' });
 

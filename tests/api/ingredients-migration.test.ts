@@ -8,6 +8,7 @@ import type { Knex } from 'knex';
 import { afterEach, describe, expect, it } from 'vitest';
 import { createDb, migrationConfig } from '../../server/db/knex';
 import { allergensFrom } from '../../src/domain/ingredients';
+import { jsonOf } from '../support/rows';
 
 const MIGRATION = '20261202170600_ingredients.ts';
 const open: { db: Knex; dir: string }[] = [];
@@ -42,7 +43,7 @@ async function cafe(db: Knex, list: 'US' | 'EU', tags: { milk: string[]; item: s
   return { milk, item, extra };
 }
 
-const column = async (db: Knex, table: string, id: number, name: string) => JSON.parse((await db(table).where({ id }).first(name))[name]) as string[];
+const column = async (db: Knex, table: string, id: number, name: string) => jsonOf((await db(table).where({ id }).first(name))[name]) as string[];
 
 // The tags are the published lists' names (FALCPA + FASTER Act; Regulation (EU) No 1169/2011 Annex II).
 const US_TAGS = { milk: ['milk'], item: ['tree nuts', 'wheat', 'milk', 'eggs'], extra: ['peanuts', 'soybeans', 'sesame', 'fish', 'crustacean shellfish'] };

@@ -8,6 +8,7 @@ import { z } from 'zod';
 import type { ApiRoute } from '../../server/routes/define';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent } from './helpers';
+import { tableNames } from '../../server/db/dialect';
 
 const DAY = '2026-03-02';
 const time = manualClock(`${DAY}T14:00:00.000Z`); // 09:00 in New York, the demo café's zone
@@ -95,9 +96,12 @@ const expectedIds = (q: string, onlyToday = false) =>
 
 /** Every table's rows, except the session store (each request rightly updates its own session). */
 async function snapshot() {
-  const tables = await server.db('sqlite_master').where({ type: 'table' }).whereNot('name', 'like', 'sqlite_%').pluck('name');
   const out: Record<string, unknown[]> = {};
-  for (const t of tables.sort()) if (t !== 'sessions') out[t] = await server.db(t).select('*').orderByRaw('rowid');
+  for (const t of await tableNames(server.db)) {
+    // every column but JSON ones as the sort key: a whole-row order that needs no row id
+    const columns = Object.entries(await server.db(t).columnInfo()).filter(([, c]) => c.type !== 'json');
+    if (t !== 'sessions') out[t] = await server.db(t).select('*').orderBy(columns.map(([name]) => name));
+  }
   return out;
 }
 

@@ -6,6 +6,7 @@ import type { MenuView } from '../../src/domain/types';
 import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
 import { closeAllSockets, connectAndResume } from '../realtime/ws-client';
 import { orderBody, type Agent } from './helpers';
+import { jsonOf } from '../support/rows';
 
 let server: TestServer;
 let owner: Agent;
@@ -390,7 +391,7 @@ describe('milks', () => {
     expect((await counterMenu()).modifiers.find((m) => m.id === id)!.allergens).toEqual(['tree nuts']); // §201(qq)
     const order = await cashier.post('/api/orders').send(orderBody('Ida Marsh', [{ menuItemId: ids.item('Latte'), milkId: ids.milk('Oat'), modifierIds: [id] }])).expect(201);
     const drink = await server.db('order_items').where({ order_id: order.body.order.id }).first('contains');
-    expect(JSON.parse(drink.contains)).toEqual(['tree nuts']); // oat milk adds none on the US list
+    expect(jsonOf(drink.contains)).toEqual(['tree nuts']); // oat milk adds none on the US list
     await owner.post(`/api/menu-admin/modifiers/${id}/retired`).send({ retired: true }).expect(200);
   });
 

@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { MENU_CSV_COLUMNS, MENU_CSV_MAX_BYTES } from '../../src/domain/menu-csv';
 import { startTestServer, type TestServer } from '../support/test-server';
 import type { Agent } from './helpers';
+import { boolOf, jsonOf } from '../support/rows';
 
 let server: TestServer;
 let owner: Agent;
@@ -151,22 +152,23 @@ describe('import', () => {
     expect(event.type).toBe('menu.changed');
     const baked = await server.db('menu_categories').where({ name: 'Baked' }).first();
     expect(baked.sort).toBeGreaterThan(Math.max(...before.categories.map((c) => c.sort)));
-    expect(await server.db('menu_items').where({ name: 'Cheese scone' }).first()).toMatchObject({
+    const sconeRow = await server.db('menu_items').where({ name: 'Cheese scone' }).first();
+    expect({ ...sconeRow, ingredients: jsonOf(sconeRow.ingredients), available: boolOf(sconeRow.available) }).toMatchObject({
       category_id: baked.id,
       station: 'counter',
       price_cents: 375,
-      ingredients: '["cow\'s milk","wheat"]',
-      available: 1,
+      ingredients: ["cow's milk", 'wheat'],
+      available: true,
     });
     const cortadoRow = await server.db('menu_items').where({ name: 'Cortado' }).first();
     const oat = await server.db('milk_options').where({ code: 'OA' }).first();
-    expect(cortadoRow).toMatchObject({ takes_milk: 1, default_milk_id: oat.id, texture: 'flat', price_cents: null, shots: 2 });
-    expect(await server.db('item_sizes').where({ item_id: cortadoRow.id })).toEqual([
+    expect({ ...cortadoRow, takes_milk: Number(cortadoRow.takes_milk) }).toMatchObject({ takes_milk: 1, default_milk_id: oat.id, texture: 'flat', price_cents: null, shots: 2 });
+    expect((await server.db('item_sizes').where({ item_id: cortadoRow.id })).map((r) => ({ ...r, is_default: Number(r.is_default) }))).toEqual([
       expect.objectContaining({ name: 'Regular', volume_ml: 120, price_cents: 420, shots: 2, dose_dg: 185, yield_dg: 370, milk_ml: 60, is_default: 1 }),
     ]);
     const latte = await server.db('menu_items').where({ name: 'Latte' }).first();
     const latteSizes = await server.db('item_sizes').where({ item_id: latte.id }).orderBy('id');
-    expect(latteSizes.map((s) => [s.name, s.price_cents, s.is_default])).toEqual([
+    expect(latteSizes.map((s) => [s.name, s.price_cents, Number(s.is_default)])).toEqual([
       ['Small', 480, 0],
       ['Regular', 560, 1],
       ['Large', 590, 0],
@@ -188,7 +190,7 @@ describe('import', () => {
     expect(res.body).toEqual({ rows: 1, added: 0, updated: 1, unchanged: 0 });
     const latte = await server.db('menu_items').where({ name: 'Latte' }).first();
     const sizes = await server.db('item_sizes').where({ item_id: latte.id }).orderBy('id');
-    expect(sizes.map((s) => [s.name, s.is_default])).toEqual([
+    expect(sizes.map((s) => [s.name, Number(s.is_default)])).toEqual([
       ['Small', 0],
       ['Regular', 0],
       ['Large', 1],

@@ -7,6 +7,7 @@ import { createServer } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent } from './helpers';
+import { jsonOf } from '../support/rows';
 
 let server: TestServer;
 let cashier: Agent;
@@ -23,7 +24,7 @@ const withEmail = (name: string, email: string) => ({ ...orderBody(name, [{ menu
 
 /** Mail in the outbox addressed to `email`. */
 const mailsTo = async (db: TestServer['db'], email: string) =>
-  (await db('outbox').select('to_addresses', 'subject', 'text_body')).filter((m) => (JSON.parse(m.to_addresses) as string[]).includes(email));
+  (await db('outbox').select('to_addresses', 'subject', 'text_body')).filter((m) => (jsonOf(m.to_addresses) as string[]).includes(email));
 
 /** Waits (a bounded number of short polls) until `check` holds; the time taken is not asserted on. */
 async function eventually(check: () => Promise<boolean>, what: string) {

@@ -4,6 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { OrderView, TicketView } from '../../src/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
+import { jsonOf } from '../support/rows';
 
 // The provider's documented test cards, see ../shared/reference/check-values.md ("Payments"):
 // 4242 4242 4242 4242 succeeds, 4000 0000 0000 0002 is declined.
@@ -117,7 +118,7 @@ describe('POST /api/orders/:id/refund', () => {
     const events = await eventsAfter(since);
     expect(events.map((e) => e.type)).toEqual(['order.refunded']);
     expect(events[0].actor_id).toBe(leadId);
-    expect(JSON.parse(events[0].payload).ticket).toMatchObject({ id: order.id, status: 'void' });
+    expect(jsonOf(events[0].payload).ticket).toMatchObject({ id: order.id, status: 'void' });
 
     await expectRefused(() => lead.post(`/api/orders/${order.id}/refund`).send({ reason: 'Again, by mistake' }), 409, 'conflict', order.id);
     expect(await refundRows(order.id)).toHaveLength(1);
@@ -239,7 +240,7 @@ describe('POST /api/orders/:id/void', () => {
     const events = await eventsAfter(since);
     expect(events.map((e) => e.type)).toEqual(['order.voided']);
     expect(events[0].actor_id).toBe(leadId);
-    expect(JSON.parse(events[0].payload).ticket).toMatchObject({ id: order.id, status: 'void' });
+    expect(jsonOf(events[0].payload).ticket).toMatchObject({ id: order.id, status: 'void' });
     expect(await openTicketIds()).not.toContain(order.id);
     // the declined attempt is closed at the provider as well
     expect((await server.db('payments').where({ order_id: order.id })).map((p) => p.status)).toEqual(['canceled']);

@@ -10,6 +10,7 @@ import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
 import { closeAllSockets, connect } from '../realtime/ws-client';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent } from './helpers';
+import { boolOf, jsonOf } from '../support/rows';
 
 const time = manualClock();
 let server: TestServer;
@@ -28,7 +29,8 @@ const signInAs = (username: string, password: string) => request(server.url).pos
 
 /** The newest caught mail to an address (the fake stores it before the SMTP hand-off finishes). */
 async function mailTo(address: string): Promise<{ subject: string; text: string; html: string }> {
-  const row = await server.db('outbox').where('to_addresses', 'like', `%${address}%`).orderBy('id', 'desc').first();
+  const rows = await server.db('outbox').orderBy('id', 'desc').select('*');
+  const row = rows.find((r) => jsonOf<string[]>(r.to_addresses).some((a) => a.includes(address)));
   if (!row) throw new Error(`no mail to ${address} in the outbox`);
   return { subject: row.subject, text: row.text_body, html: row.html_body };
 }
@@ -74,7 +76,7 @@ describe('who may use the team routes', () => {
     }
     expect({ users: await count('users'), invitations: await count('invitations'), outbox: await count('outbox') }).toEqual(before);
     const row = await server.db('users').where({ id: target }).first();
-    expect(row).toMatchObject({ role: 'barista', active: 1, pin_hash: hashBefore });
+    expect({ ...row, active: boolOf(row.active) }).toMatchObject({ role: 'barista', active: true, pin_hash: hashBefore });
   });
 });
 
@@ -156,6 +158,26 @@ describe('an invitation', () => {
     expect((await request(server.url).get(`/api/welcome/${second}`)).status).toBe(200);
   });
 
+  it('used from eight tabs at once: one sets the password, the rest answer 404, and it is used once', async () => {
+    const { member, token } = await invite('Cy Marlow', 'cy.m', 'cy.m@example.com', 'cashier');
+    const body = (i: number) => ({ password: `tab ${i} long password`, confirm: `tab ${i} long password` });
+    const res = await Promise.all(Array.from({ length: 8 }, (_, i) => request(server.url).post(`/api/welcome/${token}`).send(body(i))));
+    expect(res.map((r) => r.status).sort()).toEqual([200, 404, 404, 404, 404, 404, 404, 404]);
+    const used = await server.db('invitations').where({ user_id: member.id }).whereNotNull('used_at').count({ n: '*' }).first();
+    expect(Number(used?.n)).toBe(1);
+    // the password set is the winner's
+    const winner = res.findIndex((r) => r.status === 200);
+    expect((await signInAs('cy.m', body(winner).password)).status).toBe(200);
+  });
+
+  it('sent four times at once: exactly one link stays open', async () => {
+    const { member } = await invite('Dara Wynn', 'dara.w', 'dara.w@example.com', 'cashier');
+    const res = await Promise.all(Array.from({ length: 4 }, () => owner.post(`/api/team/${member.id}/link`).send({ purpose: 'invite' })));
+    expect(res.map((r) => r.status)).toEqual([202, 202, 202, 202]);
+    const open = await server.db('invitations').where({ user_id: member.id }).whereNull('used_at').whereNull('voided_at').count({ n: '*' }).first();
+    expect(Number(open?.n)).toBe(1);
+  });
+
   it('expires after 72 hours on the clock', async () => {
     const { token, member } = await invite('Cleo Marsh', 'cleo', 'cleo@example.com');
     time.advance(LINK_HOURS * 3600_000 - 60_000);
@@ -166,7 +188,7 @@ describe('an invitation', () => {
     const set = await request(server.url).post(`/api/welcome/${token}`).send({ password: 'too late for this', confirm: 'too late for this' });
     expect(set.status).toBe(404);
     expect(set.body.error.message).toMatch(/can't be used/);
-    expect((await server.db('users').where({ id: member.id }).first()).awaiting_password).toBe(1);
+    expect(boolOf((await server.db('users').where({ id: member.id }).first()).awaiting_password)).toBe(true);
     const listed = (await owner.get('/api/team')).body.members.find((m: { id: number }) => m.id === member.id);
     expect(listed.link).toMatchObject({ expired: true });
   });
@@ -231,7 +253,8 @@ describe('the last active owner', () => {
       expect(res.status, JSON.stringify(body)).toBe(409);
       expect(res.body.error.message).toMatch(/only active owner/);
     }
-    expect(await server.db('users').where({ id: ownerId }).first('role', 'active')).toEqual({ role: 'owner', active: 1 });
+    const stored = await server.db('users').where({ id: ownerId }).first('role', 'active');
+    expect({ role: stored.role, active: boolOf(stored.active) }).toEqual({ role: 'owner', active: true });
 
     // an inactive owner does not count as the second one
     const ben = await userId('ben');
@@ -261,8 +284,8 @@ describe('deactivating a person', () => {
     expect(await closed).toBe(4401);
     expect((await agent.get('/api/session')).body.user).toBeNull();
     expect((await request(server.url).get('/api/session').set('Cookie', cookie)).body.user).toBeNull();
-    const rows = await server.db('sessions').whereRaw("json_extract(sess, '$.passport.user') = ?", [id]).count({ n: '*' }).first();
-    expect(Number(rows?.n)).toBe(0);
+    const rows = await server.db('sessions').select('sess');
+    expect(rows.filter((r) => jsonOf(r.sess).passport?.user === id)).toEqual([]);
     expect((await signInAs('barista2', DEMO_PASSWORD)).status).toBe(401);
 
     expect((await owner.patch(`/api/team/${id}`).send({ active: true })).status).toBe(200);

@@ -57,10 +57,11 @@ function countQueries(db: Knex, pattern: RegExp): () => number {
   stops.push(() => db.off('query', listener));
   return () => n;
 }
+// Knex quotes names with backticks on SQLite and double quotes on PostgreSQL.
 /** One board snapshot reads the café's pitchers; nothing else the socket does reads them. */
-const snapshotsBuilt = () => countQueries(server.db, /from `pitchers`/);
+const snapshotsBuilt = () => countQueries(server.db, /from [`"]pitchers[`"]/);
 /** One replay reads the missed events with their payloads. */
-const replaysRead = () => countQueries(server.db, /`payload`.* from `events`/);
+const replaysRead = () => countQueries(server.db, /[`"]payload[`"].* from [`"]events[`"]/);
 
 async function screen(cookie: string): Promise<LiveClient> {
   const client = await connect(server.url, cookie);

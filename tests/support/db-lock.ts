@@ -3,6 +3,7 @@
 // better-sqlite3 connection that runs BEGIN EXCLUSIVE and holds it until told to let go.
 import { spawn } from 'node:child_process';
 import path from 'node:path';
+import { isPostgresUrl } from '../../server/db/dialect';
 
 const ROOT = path.resolve(import.meta.dirname, '../..');
 
@@ -20,14 +21,38 @@ process.stdin.once('data', () => {
 });
 `;
 
+// The same on PostgreSQL: every table of the database locked in EXCLUSIVE mode, which lets plain
+// reads through and makes every write wait (until the app's lock_timeout answers 55P03).
+const PG_HOLDER = `
+const { Client } = require('pg');
+const client = new Client({ connectionString: process.argv[1] });
+(async () => {
+  await client.connect();
+  await client.query('BEGIN');
+  const { rows } = await client.query("SELECT tablename FROM pg_tables WHERE schemaname = current_schema()");
+  for (const { tablename } of rows) await client.query('LOCK TABLE "' + tablename + '" IN EXCLUSIVE MODE');
+  process.stdout.write('locked\\n');
+  process.stdin.once('data', async () => {
+    await client.query('COMMIT');
+    await client.end();
+    process.stdout.write('released\\n');
+    process.exit(0);
+  });
+})().catch((err) => {
+  process.stderr.write(String(err));
+  process.exit(1);
+});
+`;
+
 export interface HeldLock {
   /** Commits the empty transaction and waits for the holding process to exit. */
   release(): Promise<void>;
 }
 
-/** Resolves once the second process holds the lock. */
-export function holdWriteLock(databaseFile: string): Promise<HeldLock> {
-  const child = spawn(process.execPath, ['-e', HOLDER, databaseFile], { cwd: ROOT, stdio: ['pipe', 'pipe', 'pipe'] });
+/** Resolves once the second process holds the lock; `target` is a SQLite file or a postgres:// URL. */
+export function holdWriteLock(target: string): Promise<HeldLock> {
+  const holder = isPostgresUrl(target) ? PG_HOLDER : HOLDER;
+  const child = spawn(process.execPath, ['-e', holder, target], { cwd: ROOT, stdio: ['pipe', 'pipe', 'pipe'] });
   let out = '';
   let err = '';
   child.stderr.on('data', (d) => (err += d));

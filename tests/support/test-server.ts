@@ -16,6 +16,8 @@ export type DemoLogin = 'owner' | 'lead' | 'cashier' | 'barista' | 'barista2';
 
 export interface TestServer extends RunningServer {
   dir: string;
+  /** Where its data is: the SQLite file, or the postgres:// URL on the PostgreSQL leg. */
+  databaseTarget: string;
   /** A supertest agent with its own cookie jar, signed in as the demo person. */
   signIn(login: DemoLogin): Promise<ReturnType<typeof request.agent>>;
   /** The session cookie header for that person (for WebSocket clients). */
@@ -78,6 +80,7 @@ export async function startTestServer(
   return {
     ...running,
     dir,
+    databaseTarget: database.databaseUrl ?? config.databaseFile,
     signIn,
     cookieFor,
     close: async () => {

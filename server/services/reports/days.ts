@@ -10,12 +10,14 @@
 // its orders or order lines is inserted, changed or deleted, in the same transaction; it is
 // recomputed the next time a range needs it.
 import type { Knex } from 'knex';
+import { dialectOf, lockReportDays, rawRows } from '../../db/dialect';
+import { json } from '../../db/rows';
 import type { HourRow, OverTargetTicket, ReportView } from '../../../src/domain/reports';
 import { median, summarizeWaits } from '../../../src/domain/stats';
 import { businessDate } from '../orders';
 import { localHourSql } from './local-hours';
 import { moneyView, PAID, type ReportLocation } from './scope';
-import { HAS_WAIT, WAIT_SECONDS, n } from './sql';
+import { HAS_WAIT, n, waitSeconds } from './sql';
 
 const OVER_TARGET_LIMIT = 20;
 const TOP_ITEMS = 10;
@@ -74,7 +76,7 @@ export async function computeDays(db: Knex, location: ReportLocation, from: stri
   const where = 'o.location_id = ? AND o.business_date BETWEEN ? AND ?';
   const bindings = [location.id, from, to];
   // a café-local date starts within 14 hours of the same date's UTC midnight
-  const hour = localHourSql('o.created_at', Date.parse(`${from}T00:00:00Z`) - DAY_MS, Date.parse(`${to}T00:00:00Z`) + 2 * DAY_MS, tz);
+  const hour = localHourSql(dialectOf(db), 'o.created_at', Date.parse(`${from}T00:00:00Z`) - DAY_MS, Date.parse(`${to}T00:00:00Z`) + 2 * DAY_MS, tz);
 
   const hourRows = new Map<string, Map<number, number[]>>();
   const hourOf = (date: string, h: number) => {
@@ -85,12 +87,14 @@ export async function computeDays(db: Knex, location: ReportLocation, from: stri
     return row;
   };
 
-  const money: Record<string, any>[] = await db.raw(
-    `SELECT o.business_date AS d, ${hour.sql} AS hour, COUNT(*) AS orders, SUM(o.total_cents) AS gross, SUM(o.tax_cents) AS tax,
-       SUM(o.discount_cents) AS discount, SUM(o.refunded_cents) AS refunds,
-       SUM(o.payment_method = 'cash') AS cash_orders, SUM(CASE WHEN o.payment_method = 'cash' THEN o.total_cents ELSE 0 END) AS cash_cents
-     FROM orders o WHERE ${where} AND ${PAID} GROUP BY 1, 2`,
-    [...hour.bindings, ...bindings],
+  const money: Record<string, any>[] = rawRows(
+    await db.raw(
+      `SELECT o.business_date AS d, ${hour.sql} AS hour, COUNT(*) AS orders, SUM(o.total_cents) AS gross, SUM(o.tax_cents) AS tax,
+         SUM(o.discount_cents) AS discount, SUM(o.refunded_cents) AS refunds,
+         SUM(CASE WHEN o.payment_method = 'cash' THEN 1 ELSE 0 END) AS cash_orders, SUM(CASE WHEN o.payment_method = 'cash' THEN o.total_cents ELSE 0 END) AS cash_cents
+       FROM orders o WHERE ${where} AND ${PAID} GROUP BY 1, 2`,
+      [...hour.bindings, ...bindings],
+    ),
   );
   for (const r of money) {
     const row = hourOf(r.d, n(r.hour));
@@ -104,16 +108,18 @@ export async function computeDays(db: Knex, location: ReportLocation, from: stri
   }
 
   const made = `i.station = 'bar' AND i.status = 'done'`;
-  const lines: Record<string, any>[] = await db.raw(
-    `SELECT o.business_date AS d, i.item_name AS item, i.milk_name AS milk, i.station AS station, ${hour.sql} AS hour,
-       SUM(${PAID}) AS sold, SUM(CASE WHEN ${PAID} THEN i.price_cents ELSE 0 END) AS cents,
-       SUM(CASE WHEN ${made} THEN i.milk_ml ELSE 0 END) AS milk_ml,
-       SUM(CASE WHEN ${made} THEN i.shots ELSE 0 END) AS shots,
-       SUM(CASE WHEN ${made} THEN i.dose_dg ELSE 0 END) AS dose_dg
-     FROM orders o JOIN order_items i ON i.order_id = o.id
-     WHERE ${where}
-     GROUP BY 1, 2, 3, 4, 5`,
-    [...hour.bindings, ...bindings],
+  const lines: Record<string, any>[] = rawRows(
+    await db.raw(
+      `SELECT o.business_date AS d, i.item_name AS item, i.milk_name AS milk, i.station AS station, ${hour.sql} AS hour,
+         SUM(CASE WHEN ${PAID} THEN 1 ELSE 0 END) AS sold, SUM(CASE WHEN ${PAID} THEN i.price_cents ELSE 0 END) AS cents,
+         SUM(CASE WHEN ${made} THEN i.milk_ml ELSE 0 END) AS milk_ml,
+         SUM(CASE WHEN ${made} THEN i.shots ELSE 0 END) AS shots,
+         SUM(CASE WHEN ${made} THEN i.dose_dg ELSE 0 END) AS dose_dg
+       FROM orders o JOIN order_items i ON i.order_id = o.id
+       WHERE ${where}
+       GROUP BY 1, 2, 3, 4, 5`,
+      [...hour.bindings, ...bindings],
+    ),
   );
   const milks = new Map<string, Map<string, number>>();
   const items = new Map<string, Map<string, [string, number, number]>>();
@@ -138,10 +144,12 @@ export async function computeDays(db: Knex, location: ReportLocation, from: stri
   }
 
   // date, then ticket number: the order one pass over the whole range reads them in
-  const waits: { d: string; h: number; w: number }[] = await db.raw(
-    `SELECT o.business_date AS d, ${hour.sql} AS h, ${WAIT_SECONDS} AS w FROM orders o WHERE ${where} AND ${HAS_WAIT}
-     ORDER BY o.business_date, o.number`,
-    [...hour.bindings, ...bindings],
+  const waits: { d: string; h: number; w: number }[] = rawRows(
+    await db.raw(
+      `SELECT o.business_date AS d, ${hour.sql} AS h, ${waitSeconds(dialectOf(db))} AS w FROM orders o WHERE ${where} AND ${HAS_WAIT}
+       ORDER BY o.business_date, o.number`,
+      [...hour.bindings, ...bindings],
+    ),
   );
   for (const r of waits) {
     const p = day(r.d);
@@ -151,13 +159,15 @@ export async function computeDays(db: Knex, location: ReportLocation, from: stri
     else p.waitHours.push(r.h, 1);
   }
 
-  const longest: Record<string, any>[] = await db.raw(
-    `SELECT d, id, number, customer_name, w FROM (
-       SELECT o.business_date AS d, o.id, o.number, o.customer_name, ${WAIT_SECONDS} AS w,
-         ROW_NUMBER() OVER (PARTITION BY o.business_date ORDER BY ${WAIT_SECONDS} DESC, o.id) AS rank
-       FROM orders o WHERE ${where} AND ${HAS_WAIT}
-     ) WHERE rank <= ${OVER_TARGET_LIMIT} ORDER BY d, rank`,
-    bindings,
+  const longest: Record<string, any>[] = rawRows(
+    await db.raw(
+      `SELECT d, id, number, customer_name, w FROM (
+         SELECT o.business_date AS d, o.id, o.number, o.customer_name, ${waitSeconds(dialectOf(db))} AS w,
+           ROW_NUMBER() OVER (PARTITION BY o.business_date ORDER BY ${waitSeconds(dialectOf(db))} DESC, o.id) AS rank
+         FROM orders o WHERE ${where} AND ${HAS_WAIT}
+       ) ranked WHERE rank <= ${OVER_TARGET_LIMIT} ORDER BY d, rank`,
+      bindings,
+    ),
   );
   for (const r of longest) day(r.d).longest.push([r.id, r.number, r.customer_name, Number(r.w)]);
 
@@ -181,15 +191,16 @@ export async function rangeDays(db: Knex, location: ReportLocation, from: string
     const past = dates.filter((d) => d < today);
     const parts = new Map<string, DayPartial>();
     if (past.length) {
-      const rows: { business_date: string; payload: string }[] = await trx('report_days')
+      const rows: { business_date: string; payload: unknown }[] = await trx('report_days')
         .where({ location_id: location.id })
         .whereBetween('business_date', [past[0], past[past.length - 1]])
         .select('business_date', 'payload');
       for (const r of rows) {
-        const p = JSON.parse(r.payload) as DayPartial;
-        if (p.v === PAYLOAD_VERSION && p.tz === location.timeZone) parts.set(r.business_date, p);
+        const p = json<DayPartial | null>(r.payload, null);
+        if (p && p.v === PAYLOAD_VERSION && p.tz === location.timeZone) parts.set(r.business_date, p);
       }
       const missing = past.filter((d) => !parts.has(d));
+      await lockReportDays(trx, location.id, missing); // no change to their orders slips in meanwhile
       const computedAt = now.toISOString();
       for (const [a, b] of runs(missing)) {
         const computed = await computeDays(trx, location, a, b);

@@ -1,7 +1,9 @@
-// The café-local hour of a stored UTC timestamp, computed inside SQLite. SQLite knows no time
+// The café-local hour of a stored UTC timestamp, computed inside the database. SQLite knows no time
 // zones, so the zone's UTC offsets over the period (one per stretch between daylight-saving
-// changes) are worked out here with Intl and handed to strftime as '+N minutes' modifiers.
+// changes) are worked out here with Intl and handed to strftime as '+N minutes' modifiers (on
+// PostgreSQL, the same text as an interval: one SQL for both, server/db/dialect.ts).
 import { addDays } from '../../../src/domain/freshness';
+import { type Dialect, shiftedHourSql } from '../../db/dialect';
 
 const formatters = new Map<string, Intl.DateTimeFormat>();
 
@@ -75,15 +77,15 @@ export function offsetStretches(fromMs: number, toMs: number, timeZone: string):
  * SQL for the café-local hour (0–23) of `column`, exact for timestamps between fromMs and toMs.
  * Every timestamp is stored as toISOString() writes it, so text comparison is time comparison.
  */
-export function localHourSql(column: string, fromMs: number, toMs: number, timeZone: string): { sql: string; bindings: string[] } {
+export function localHourSql(d: Dialect, column: string, fromMs: number, toMs: number, timeZone: string): { sql: string; bindings: string[] } {
   const stretches = offsetStretches(fromMs, toMs, timeZone);
   const modifier = (m: number) => `${m >= 0 ? '+' : ''}${m} minutes`;
   if (stretches.length === 1) {
-    return { sql: `CAST(strftime('%H', ${column}, ?) AS INTEGER)`, bindings: [modifier(stretches[0].offsetMinutes)] };
+    return { sql: shiftedHourSql(d, column, '?'), bindings: [modifier(stretches[0].offsetMinutes)] };
   }
   const whens = stretches.slice(1).map(() => `WHEN ${column} < ? THEN ?`).join(' ');
   const bindings: string[] = [];
   stretches.slice(1).forEach((s, i) => bindings.push(new Date(s.startMs).toISOString(), modifier(stretches[i].offsetMinutes)));
   bindings.push(modifier(stretches[stretches.length - 1].offsetMinutes));
-  return { sql: `CAST(strftime('%H', ${column}, CASE ${whens} ELSE ? END) AS INTEGER)`, bindings };
+  return { sql: shiftedHourSql(d, column, `CASE ${whens} ELSE ? END`), bindings };
 }

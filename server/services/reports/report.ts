@@ -3,12 +3,13 @@
 // hour (drinks, milk, shots, items), the ticket waits (two numeric columns: hour and seconds, for
 // the percentiles) and the 20 longest.
 import type { Knex } from 'knex';
+import { dialectOf, rawRows } from '../../db/dialect';
 import { inHourOrder, type HourRow, type OverTargetTicket, type ReportView } from '../../../src/domain/reports';
 import { median, summarizeWaits } from '../../../src/domain/stats';
 import { datesBetween, mergeDays, rangeDays } from './days';
 import { localHour, localHourSql } from './local-hours';
 import { moneyView, PAID, rangeScope, shiftScope, type MoneyTotals, type Scope } from './scope';
-import { HAS_WAIT, WAIT_SECONDS, n } from './sql';
+import { HAS_WAIT, n, waitSeconds } from './sql';
 
 const OVER_TARGET_LIMIT = 20;
 const TOP_ITEMS = 10;
@@ -36,7 +37,7 @@ export async function rangeReport(db: Knex, locationId: number, fromDate: string
   };
 }
 
-const hourSql = (s: Scope) => localHourSql('o.created_at', s.spanMs[0], s.spanMs[1], s.location.timeZone);
+const hourSql = (db: Knex, s: Scope) => localHourSql(dialectOf(db), 'o.created_at', s.spanMs[0], s.spanMs[1], s.location.timeZone);
 
 function hourRow(hours: Hours, hour: number): HourRow {
   let row = hours.get(hour);
@@ -46,13 +47,15 @@ function hourRow(hours: Hours, hour: number): HourRow {
 
 /** Paid orders by hour: counts and money, summed again here over at most 24 rows. */
 async function moneyByHour(db: Knex, s: Scope, hours: Hours) {
-  const hour = hourSql(s);
-  const rows: Record<string, any>[] = await db.raw(
-    `SELECT ${hour.sql} AS hour, COUNT(*) AS orders, SUM(o.total_cents) AS gross, SUM(o.tax_cents) AS tax,
-       SUM(o.discount_cents) AS discount, SUM(o.refunded_cents) AS refunds,
-       SUM(o.payment_method = 'cash') AS cash_orders, SUM(CASE WHEN o.payment_method = 'cash' THEN o.total_cents ELSE 0 END) AS cash_cents
-     FROM orders o WHERE ${s.where} AND ${PAID} GROUP BY 1`,
-    [...hour.bindings, ...s.bindings],
+  const hour = hourSql(db, s);
+  const rows: Record<string, any>[] = rawRows(
+    await db.raw(
+      `SELECT ${hour.sql} AS hour, COUNT(*) AS orders, SUM(o.total_cents) AS gross, SUM(o.tax_cents) AS tax,
+         SUM(o.discount_cents) AS discount, SUM(o.refunded_cents) AS refunds,
+         SUM(CASE WHEN o.payment_method = 'cash' THEN 1 ELSE 0 END) AS cash_orders, SUM(CASE WHEN o.payment_method = 'cash' THEN o.total_cents ELSE 0 END) AS cash_cents
+       FROM orders o WHERE ${s.where} AND ${PAID} GROUP BY 1`,
+      [...hour.bindings, ...s.bindings],
+    ),
   );
   const t: MoneyTotals = { orders: 0, gross: 0, tax: 0, discount: 0, refunds: 0, cashOrders: 0, cashCents: 0 };
   for (const r of rows) {
@@ -70,18 +73,20 @@ async function moneyByHour(db: Knex, s: Scope, hours: Hours) {
 
 /** Lines by item, milk, station and hour: what was sold (paid orders) and what the bar made (drinks done). */
 async function lineTotals(db: Knex, s: Scope, hours: Hours) {
-  const hour = hourSql(s);
+  const hour = hourSql(db, s);
   const made = `i.station = 'bar' AND i.status = 'done'`;
-  const rows: Record<string, any>[] = await db.raw(
-    `SELECT i.item_name AS item, i.milk_name AS milk, i.station AS station, ${hour.sql} AS hour,
-       SUM(${PAID}) AS sold, SUM(CASE WHEN ${PAID} THEN i.price_cents ELSE 0 END) AS cents,
-       SUM(CASE WHEN ${made} THEN i.milk_ml ELSE 0 END) AS milk_ml,
-       SUM(CASE WHEN ${made} THEN i.shots ELSE 0 END) AS shots,
-       SUM(CASE WHEN ${made} THEN i.dose_dg ELSE 0 END) AS dose_dg
-     FROM orders o JOIN order_items i ON i.order_id = o.id
-     WHERE ${s.where}
-     GROUP BY 1, 2, 3, 4`,
-    [...hour.bindings, ...s.bindings],
+  const rows: Record<string, any>[] = rawRows(
+    await db.raw(
+      `SELECT i.item_name AS item, i.milk_name AS milk, i.station AS station, ${hour.sql} AS hour,
+         SUM(CASE WHEN ${PAID} THEN 1 ELSE 0 END) AS sold, SUM(CASE WHEN ${PAID} THEN i.price_cents ELSE 0 END) AS cents,
+         SUM(CASE WHEN ${made} THEN i.milk_ml ELSE 0 END) AS milk_ml,
+         SUM(CASE WHEN ${made} THEN i.shots ELSE 0 END) AS shots,
+         SUM(CASE WHEN ${made} THEN i.dose_dg ELSE 0 END) AS dose_dg
+       FROM orders o JOIN order_items i ON i.order_id = o.id
+       WHERE ${s.where}
+       GROUP BY 1, 2, 3, 4`,
+      [...hour.bindings, ...s.bindings],
+    ),
   );
   const items = new Map<string, { item: string; count: number; cents: number }>();
   const milks = new Map<string, number>();
@@ -110,10 +115,12 @@ async function lineTotals(db: Knex, s: Scope, hours: Hours) {
 
 /** Every timed ticket's wait (and hour, for the hourly medians); only these rows come into JS. */
 async function waitTimes(db: Knex, s: Scope, hours: Hours): Promise<number[]> {
-  const hour = hourSql(s);
-  const rows: { h: number; w: number }[] = await db.raw(
-    `SELECT ${hour.sql} AS h, ${WAIT_SECONDS} AS w FROM orders o WHERE ${s.where} AND ${HAS_WAIT}`,
-    [...hour.bindings, ...s.bindings],
+  const hour = hourSql(db, s);
+  const rows: { h: number; w: number }[] = rawRows(
+    await db.raw(
+      `SELECT ${hour.sql} AS h, ${waitSeconds(dialectOf(db))} AS w FROM orders o WHERE ${s.where} AND ${HAS_WAIT}`,
+      [...hour.bindings, ...s.bindings],
+    ),
   );
   const all = new Array<number>(rows.length);
   const perHour = new Map<number, number[]>();
@@ -129,11 +136,13 @@ async function waitTimes(db: Knex, s: Scope, hours: Hours): Promise<number[]> {
 }
 
 async function overTarget(db: Knex, s: Scope): Promise<OverTargetTicket[]> {
-  const rows: Record<string, any>[] = await db.raw(
-    `SELECT o.id, o.business_date, o.number, o.customer_name, ${WAIT_SECONDS} AS w
-     FROM orders o WHERE ${s.where} AND ${HAS_WAIT} AND ${WAIT_SECONDS} > ?
-     ORDER BY w DESC, o.id LIMIT ${OVER_TARGET_LIMIT}`,
-    [...s.bindings, s.targetSeconds],
+  const rows: Record<string, any>[] = rawRows(
+    await db.raw(
+      `SELECT o.id, o.business_date, o.number, o.customer_name, ${waitSeconds(dialectOf(db))} AS w
+       FROM orders o WHERE ${s.where} AND ${HAS_WAIT} AND ${waitSeconds(dialectOf(db))} > ?
+       ORDER BY w DESC, o.id LIMIT ${OVER_TARGET_LIMIT}`,
+      [...s.bindings, s.targetSeconds],
+    ),
   );
   return rows.map((r) => ({ orderId: r.id, businessDate: r.business_date, number: r.number, customerName: r.customer_name, waitSeconds: Number(r.w) }));
 }

@@ -1,5 +1,6 @@
 // The ticket history: every order of a café, filtered, sorted and paged in SQL.
 import type { Knex } from 'knex';
+import { caseFoldedSql, containing, containsSql, type Dialect, dialectOf, rawRows } from '../../db/dialect';
 import type { TicketHistoryPage, TicketHistoryRow, TicketSort } from '../../../src/domain/reports';
 import type { TicketStatus } from '../../../src/domain/types';
 import { BAR_DRINKS } from './sql';
@@ -20,7 +21,7 @@ export interface TicketQuery extends TicketFilter {
   pageSize: number;
 }
 
-/** WAIT_OF_ORDER (./sql.ts), stored when the ticket became ready */
+/** waitOfOrder (./sql.ts), stored when the ticket became ready */
 const WAIT = 'o.wait_seconds';
 
 /** Sort columns by name, never from the request's text. Ties fall back to the order id. */
@@ -32,7 +33,7 @@ const SORT_SQL: Record<TicketSort, string> = {
   customer: 'o.customer_name',
 };
 
-function whereOf(locationId: number, f: TicketFilter): { sql: string; bindings: (string | number)[] } {
+function whereOf(d: Dialect, locationId: number, f: TicketFilter): { sql: string; bindings: (string | number)[] } {
   const parts = ['o.location_id = ?'];
   const bindings: (string | number)[] = [locationId];
   const where = (sql: string, value: string | number) => {
@@ -44,12 +45,12 @@ function whereOf(locationId: number, f: TicketFilter): { sql: string; bindings: 
   if (f.status) where('o.status = ?', f.status);
   if (f.q) {
     const number = Number(f.q.replace(/^#/, ''));
-    const like = `%${f.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    const like = containing(f.q);
     if (Number.isInteger(number) && number > 0) {
-      parts.push(`(o.customer_name LIKE ? ESCAPE '\\' OR o.number = ?)`);
+      parts.push(`(${containsSql(d, 'o.customer_name')} OR o.number = ?)`);
       bindings.push(like, number);
     } else {
-      parts.push(`o.customer_name LIKE ? ESCAPE '\\'`);
+      parts.push(containsSql(d, 'o.customer_name'));
       bindings.push(like);
     }
   }
@@ -79,28 +80,30 @@ function toRow(r: Record<string, any>): TicketHistoryRow {
  * key alone, so the per-ticket columns (wait, drink count) are worked out only for its rows.
  */
 export async function ticketRows(db: Knex, locationId: number, q: Omit<TicketQuery, 'page' | 'pageSize'>, limit: number | null, offset = 0) {
-  const where = whereOf(locationId, q);
+  const where = whereOf(dialectOf(db), locationId, q);
   const dir = q.dir === 'asc' ? 'ASC' : 'DESC';
-  const collate = q.sort === 'customer' ? ' COLLATE NOCASE' : '';
+  const key = (k: string) => (q.sort === 'customer' ? caseFoldedSql(dialectOf(db), k) : k);
   // Tickets without a wait sort after those with one, whichever the direction; ties by order id.
-  const orderBy = (k: string, id: string) => `${q.sort === 'wait' ? `${k} IS NULL, ` : ''}${k}${collate} ${dir}, ${id} ${dir}`;
-  const rows: Record<string, any>[] = await db.raw(
-    `WITH p AS (
-       SELECT o.id AS id, ${SORT_SQL[q.sort]} AS k FROM orders o WHERE ${where.sql}
-       ORDER BY ${orderBy('k', 'o.id')} ${limit === null ? '' : 'LIMIT ? OFFSET ?'}
-     )
-     SELECT o.id, o.business_date, o.number, o.customer_name, o.status, o.payment_status, o.payment_method,
-       o.total_cents, o.refunded_cents, o.created_at, o.ready_at, ${q.sort === 'wait' ? 'p.k' : WAIT} AS wait, ${BAR_DRINKS} AS drinks
-     FROM p JOIN orders o ON o.id = p.id
-     ORDER BY ${orderBy('p.k', 'p.id')}`,
-    limit === null ? where.bindings : [...where.bindings, limit, offset],
+  const orderBy = (k: string, id: string) => `${q.sort === 'wait' ? `${k} IS NULL, ` : ''}${key(k)} ${dir}, ${id} ${dir}`;
+  const rows: Record<string, any>[] = rawRows(
+    await db.raw(
+      `WITH p AS (
+         SELECT o.id AS id, ${SORT_SQL[q.sort]} AS k FROM orders o WHERE ${where.sql}
+         ORDER BY ${orderBy(SORT_SQL[q.sort], 'o.id')} ${limit === null ? '' : 'LIMIT ? OFFSET ?'}
+       )
+       SELECT o.id, o.business_date, o.number, o.customer_name, o.status, o.payment_status, o.payment_method,
+         o.total_cents, o.refunded_cents, o.created_at, o.ready_at, ${q.sort === 'wait' ? 'p.k' : WAIT} AS wait, ${BAR_DRINKS} AS drinks
+       FROM p JOIN orders o ON o.id = p.id
+       ORDER BY ${orderBy('p.k', 'p.id')}`,
+      limit === null ? where.bindings : [...where.bindings, limit, offset],
+    ),
   );
   return rows.map(toRow);
 }
 
 export async function ticketHistory(db: Knex, locationId: number, q: TicketQuery): Promise<TicketHistoryPage> {
-  const where = whereOf(locationId, q);
-  const [count] = await db.raw(`SELECT COUNT(*) AS total FROM orders o WHERE ${where.sql}`, where.bindings);
+  const where = whereOf(dialectOf(db), locationId, q);
+  const [count] = rawRows<{ total: unknown }>(await db.raw(`SELECT COUNT(*) AS total FROM orders o WHERE ${where.sql}`, where.bindings));
   const rows = await ticketRows(db, locationId, q, q.pageSize, (q.page - 1) * q.pageSize);
   return { rows, total: Number(count.total), page: q.page, pageSize: q.pageSize };
 }
