@@ -2,6 +2,7 @@
 // mail the Outbox caught, sets a password and lands on the Bar; the used link is refused; and a
 // shared terminal switches person by PIN.
 import { errorsOf, expect, pageAs, test, watchForErrors } from './fixtures';
+import { ownServerFor } from './own-server';
 import { shot } from './shots';
 
 test('the owner invites a barista, who sets a password from the mailed link and signs in to the Bar', async ({ browser }) => {
@@ -69,56 +70,61 @@ test('the owner invites a barista, who sets a password from the mailed link and 
   expect(errorsOf(barista).filter((e) => !/status of 404/.test(e))).toEqual([]);
 });
 
-test('a shared terminal switches person by PIN, staying on the Bar or going to the new home screen', async ({ browser, playwright, baseURL }) => {
-  // a drink on the bar, taken at the counter by the cashier
-  const api = await playwright.request.newContext({ baseURL });
-  await api.post('/api/session', { data: { username: 'cashier', password: 'jugline-demo' } });
-  const menu = await (await api.get('/api/menu')).json();
-  const latte = menu.items.find((i: { name: string }) => i.name === 'Latte').id;
-  const placed = await api.post('/api/orders', {
-    data: { clientOrderId: crypto.randomUUID(), customerName: 'Odette Lyle', items: [{ menuItemId: latte }], payment: { method: 'cash', tenderedCents: 2000 } },
+test.describe('a shared terminal', () => {
+  // the Bar shows only this test's ticket: its card is in sight and its Start button where it was
+  const own = ownServerFor('team-switch');
+
+  test('a shared terminal switches person by PIN, staying on the Bar or going to the new home screen', async ({ browser, playwright }) => {
+    // a drink on the bar, taken at the counter by the cashier
+    const api = await playwright.request.newContext({ baseURL: own.baseURL });
+    await api.post('/api/session', { data: { username: 'cashier', password: 'jugline-demo' } });
+    const menu = await (await api.get('/api/menu')).json();
+    const latte = menu.items.find((i: { name: string }) => i.name === 'Latte').id;
+    const placed = await api.post('/api/orders', {
+      data: { clientOrderId: crypto.randomUUID(), customerName: 'Odette Lyle', items: [{ menuItemId: latte }], payment: { method: 'cash', tenderedCents: 2000 } },
+    });
+    expect(placed.status()).toBe(201);
+    await api.dispose();
+
+    const page = await pageAs(browser, 'barista', '/bar', undefined, own.baseURL);
+    await expect(page.locator('[data-link-state="live"]')).toBeVisible();
+    const card = page.getByTestId('drink-card').filter({ hasText: 'Odette' });
+    await expect(card.getByTestId('who')).toHaveText('Taken by Priya');
+    await card.getByRole('button', { name: 'Start' }).click();
+    await expect(card.getByTestId('who')).toHaveText('Taken by Priya · Making: Jonah');
+    await card.screenshot(shot('team-bar-card-who'));
+
+    await page.getByRole('button', { name: 'Switch person' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Switch person' });
+    await expect(dialog.getByRole('button', { name: /Ines Calder/ })).toBeVisible();
+    await expect(dialog.getByRole('button', { name: /Jonah Reyes/ })).toHaveCount(0); // already signed in
+    await page.screenshot(shot('team-switch-person'));
+    await dialog.getByRole('button', { name: /Ines Calder/ }).click();
+
+    const pad = page.getByRole('dialog', { name: 'PIN for Ines Calder' });
+    // a wrong PIN typed on the keyboard is refused with the tries left
+    await page.keyboard.type('2469');
+    await page.keyboard.press('Enter');
+    await expect(pad.getByRole('alert')).toContainText('That PIN is not right. 4 more wrong PINs');
+    // the right one on the pad's buttons (Ines's demo PIN is 7450)
+    for (const d of '7450') await pad.getByRole('button', { name: d, exact: true }).click();
+    await page.screenshot(shot('team-switch-pin'));
+    await pad.getByRole('button', { name: 'Switch', exact: true }).click();
+    // the same screen, reloaded as Ines (a barista may see the Bar)
+    await expect(page.getByRole('navigation', { name: 'Screens' })).toContainText('Ines Calder');
+    expect(new URL(page.url()).pathname).toBe('/bar');
+    await expect(page.locator('[data-link-state="live"]')).toBeVisible();
+
+    // a cashier can't see the Bar: the terminal goes to the Counter
+    await page.getByRole('button', { name: 'Switch person' }).click();
+    await page.getByRole('dialog', { name: 'Switch person' }).getByRole('button', { name: /Priya Onslow/ }).click();
+    await page.keyboard.type('4072');
+    await page.keyboard.press('Enter');
+    await page.waitForURL('**/counter');
+    await expect(page.getByRole('navigation', { name: 'Screens' })).toContainText('Priya Onslow');
+    // the wrong PIN's 401 is the only error the browser may log
+    expect(errorsOf(page).filter((e) => !/status of 401/.test(e))).toEqual([]);
   });
-  expect(placed.status()).toBe(201);
-  await api.dispose();
-
-  const page = await pageAs(browser, 'barista', '/bar');
-  await expect(page.locator('[data-link-state="live"]')).toBeVisible();
-  const card = page.getByTestId('drink-card').filter({ hasText: 'Odette' });
-  await expect(card.getByTestId('who')).toHaveText('Taken by Priya');
-  await card.getByRole('button', { name: 'Start' }).click();
-  await expect(card.getByTestId('who')).toHaveText('Taken by Priya · Making: Jonah');
-  await card.screenshot(shot('team-bar-card-who'));
-
-  await page.getByRole('button', { name: 'Switch person' }).click();
-  const dialog = page.getByRole('dialog', { name: 'Switch person' });
-  await expect(dialog.getByRole('button', { name: /Ines Calder/ })).toBeVisible();
-  await expect(dialog.getByRole('button', { name: /Jonah Reyes/ })).toHaveCount(0); // already signed in
-  await page.screenshot(shot('team-switch-person'));
-  await dialog.getByRole('button', { name: /Ines Calder/ }).click();
-
-  const pad = page.getByRole('dialog', { name: 'PIN for Ines Calder' });
-  // a wrong PIN typed on the keyboard is refused with the tries left
-  await page.keyboard.type('2469');
-  await page.keyboard.press('Enter');
-  await expect(pad.getByRole('alert')).toContainText('That PIN is not right. 4 more wrong PINs');
-  // the right one on the pad's buttons (Ines's demo PIN is 7450)
-  for (const d of '7450') await pad.getByRole('button', { name: d, exact: true }).click();
-  await page.screenshot(shot('team-switch-pin'));
-  await pad.getByRole('button', { name: 'Switch', exact: true }).click();
-  // the same screen, reloaded as Ines (a barista may see the Bar)
-  await expect(page.getByRole('navigation', { name: 'Screens' })).toContainText('Ines Calder');
-  expect(new URL(page.url()).pathname).toBe('/bar');
-  await expect(page.locator('[data-link-state="live"]')).toBeVisible();
-
-  // a cashier can't see the Bar: the terminal goes to the Counter
-  await page.getByRole('button', { name: 'Switch person' }).click();
-  await page.getByRole('dialog', { name: 'Switch person' }).getByRole('button', { name: /Priya Onslow/ }).click();
-  await page.keyboard.type('4072');
-  await page.keyboard.press('Enter');
-  await page.waitForURL('**/counter');
-  await expect(page.getByRole('navigation', { name: 'Screens' })).toContainText('Priya Onslow');
-  // the wrong PIN's 401 is the only error the browser may log
-  expect(errorsOf(page).filter((e) => !/status of 401/.test(e))).toEqual([]);
 });
 
 test('a lead who opens the Team screen gets the 403 page', async ({ browser }) => {
