@@ -41,10 +41,21 @@ export async function signOut() {
   window.location.assign('/signin');
 }
 
+/**
+ * While a person switch is asked for, the screen reads nothing more: the server may already hold
+ * the new person's session, whose role can't read this screen (a 403 that means nothing). Released
+ * if the switch is refused.
+ */
+export function holdReads(on: boolean) {
+  leaving = on;
+}
+
 /** A screen's own background refresh: not a person at work, so it doesn't keep an idle session alive. */
 export const PASSIVE_REQUEST_HEADER = 'x-jugline-passive';
 
 export async function http<T>(method: string, path: string, body?: unknown, opts: { passive?: boolean } = {}): Promise<T> {
+  // the page is changing: a read now would only be answered for the session that replaces it
+  if (leaving && method === 'GET') throw new ApiError(0, 'leaving', 'The page is changing');
   let res: Response;
   try {
     res = await fetch(`/api${path}`, {

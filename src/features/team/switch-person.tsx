@@ -7,7 +7,7 @@ import { Button } from '../../components/ui/button';
 import { useModalFocus } from '../../components/ui/use-modal-focus';
 import type { PublicUser } from '../../lib/api';
 import { useApi } from '../../lib/api-context';
-import { ApiError, http, leavePage } from '../../lib/http';
+import { ApiError, holdReads, http, leavePage } from '../../lib/http';
 import { MyPinForm } from './my-pin-form';
 import { PinPad } from './pin-pad';
 import { switchPeopleQuery } from '../../queries/team';
@@ -43,11 +43,13 @@ export function SwitchDialog({ onClose }: { onClose(): void }) {
     if (!who || busy) return;
     if (pin.length < 4) return setError('Type all the digits of your PIN');
     setBusy(true);
+    holdReads(true);
     try {
       const { user } = await http<{ user: PublicUser }>('POST', '/session/switch', { userId: who.id, pin });
       // a fresh page: the new session's data, and the live socket reconnects as the new person
       leavePage(screenAfterSwitch(window.location.pathname + window.location.search, user.role));
     } catch (err) {
+      holdReads(false);
       setPin('');
       setError(err instanceof ApiError ? err.message : 'Could not switch');
       setBusy(false);
