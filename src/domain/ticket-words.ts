@@ -21,13 +21,13 @@ export const PAYMENT_METHOD_WORDS: Record<TicketHistoryRow['paymentMethod'], str
   card: 'Card',
 };
 
-/**
- * An instant as the café's wall clock with its offset, ISO-8601: 2026-03-02T14:00:00Z in New York
- * → "2026-03-02T09:00:00-05:00". A spreadsheet reads it, and the café reads its own hours.
- */
-export function localIsoWithOffset(iso: string, timeZone: string): string {
-  const parts = Object.fromEntries(
-    new Intl.DateTimeFormat('en-US', {
+// One formatter per zone: a ticket CSV formats two instants a row, and building an
+// Intl.DateTimeFormat costs far more than using one.
+const wallClocks = new Map<string, Intl.DateTimeFormat>();
+function wallClock(timeZone: string): Intl.DateTimeFormat {
+  let f = wallClocks.get(timeZone);
+  if (!f) {
+    f = new Intl.DateTimeFormat('en-US', {
       timeZone,
       hourCycle: 'h23',
       year: 'numeric',
@@ -37,7 +37,19 @@ export function localIsoWithOffset(iso: string, timeZone: string): string {
       minute: '2-digit',
       second: '2-digit',
       timeZoneName: 'longOffset',
-    })
+    });
+    wallClocks.set(timeZone, f);
+  }
+  return f;
+}
+
+/**
+ * An instant as the café's wall clock with its offset, ISO-8601: 2026-03-02T14:00:00Z in New York
+ * → "2026-03-02T09:00:00-05:00". A spreadsheet reads it, and the café reads its own hours.
+ */
+export function localIsoWithOffset(iso: string, timeZone: string): string {
+  const parts = Object.fromEntries(
+    wallClock(timeZone)
       .formatToParts(new Date(iso))
       .map((p) => [p.type, p.value]),
   );
