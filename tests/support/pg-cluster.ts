@@ -3,38 +3,18 @@
 // folder, stopped and removed afterwards. No running service, no password (trust on loopback).
 // initdb and postgres refuse to run as root, so as root they run as the `postgres` user.
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { chownSync, existsSync, mkdtempSync, readdirSync, rmSync } from 'node:fs';
+import { chownSync, mkdtempSync, rmSync } from 'node:fs';
 import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import pg from 'pg';
-
-export const MISSING_POSTGRES =
-  'The PostgreSQL test leg needs PostgreSQL 15 from Debian: apt-get install postgresql ' +
-  '(only the binaries in /usr/lib/postgresql/<version>/bin are used; no service has to run). ' +
-  'Or point PG_BIN at a folder holding initdb and postgres.';
+import { MISSING_POSTGRES, postgresBin } from '../../server/db/postgres-tools';
 
 export interface PgCluster {
   /** postgres://… of the `postgres` maintenance database (superuser, no password). */
   adminUrl: string;
   urlOf(database: string): string;
   stop(): Promise<void>;
-}
-
-/** The folder holding initdb and postgres: PG_BIN, or the newest Debian version installed. */
-export function postgresBin(env: NodeJS.ProcessEnv = process.env): string {
-  if (env.PG_BIN) {
-    if (!existsSync(path.join(env.PG_BIN, 'initdb'))) throw new Error(`PG_BIN=${env.PG_BIN} holds no initdb. ${MISSING_POSTGRES}`);
-    return env.PG_BIN;
-  }
-  const root = '/usr/lib/postgresql';
-  const versions = existsSync(root)
-    ? readdirSync(root)
-        .filter((v) => existsSync(path.join(root, v, 'bin', 'initdb')))
-        .sort((a, b) => Number(b) - Number(a))
-    : [];
-  if (versions.length === 0) throw new Error(MISSING_POSTGRES);
-  return path.join(root, versions[0], 'bin');
 }
 
 /** As root, the uid and gid of the `postgres` user (initdb refuses root); otherwise ourselves. */
