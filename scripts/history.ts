@@ -1,11 +1,12 @@
 // npm run db:history -- --days 365 [--file <path>] [--seed <n>] [--append]
 // An invented year of service for Pulse, reports and benchmarks, ending yesterday (café-local).
-// The database is DATABASE_FILE, as for the server, unless --file names another.
+// The database is the server's (DATABASE_URL, else DATABASE_FILE) unless --file names a SQLite file.
 import { mkdirSync } from 'node:fs';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { parseArgs } from 'node:util';
-import { loadConfig } from '../server/config';
+import { databaseTarget, loadConfig } from '../server/config';
+import { isPostgresUrl } from '../server/db/dialect';
 import { DEFAULT_SEED, generateHistory, HistoryRefused, type HistorySummary } from './history/generate';
 
 export { generateHistory, HistoryRefused };
@@ -24,7 +25,8 @@ function wholeNumber(name: string, text: string | undefined, fallback: number, m
 function report(s: HistorySummary): string {
   const span = s.firstDate ? `${s.firstDate} … ${s.lastDate}` : 'nothing to add';
   return [
-    `History written to ${s.file} (seed ${s.seed}): ${span}`,
+    // never print a postgres:// URL: it may hold a password
+    `History written to ${isPostgresUrl(s.file) ? 'the PostgreSQL database' : s.file} (seed ${s.seed}): ${span}`,
     `  days ${s.days}${s.skippedDays ? ` (${s.skippedDays} skipped: they had orders already)` : ''}`,
     `  orders ${s.orders}, items ${s.items}, payments ${s.payments}, refunds ${s.refunds}`,
     `  ${s.seconds.toFixed(1)} s`,
@@ -55,7 +57,7 @@ export async function main(argv: string[], env: NodeJS.ProcessEnv = process.env)
     if (values.file) {
       file = path.resolve(values.file);
       mkdirSync(path.dirname(file), { recursive: true });
-    } else file = loadConfig(env).databaseFile; // DATABASE_FILE, exactly as the server reads it
+    } else file = databaseTarget(loadConfig(env)); // exactly the database the server opens
     console.log(report(await generateHistory({ file, days, seed, append: values.append })));
     return 0;
   } catch (err) {

@@ -1,8 +1,9 @@
 // Fill a database with an invented year (or any number of days) of service ending yesterday,
-// café-local: migrate, load the demo café into an empty file, then plan and write day by day.
+// café-local: migrate, load the demo café into an empty database (a SQLite file or PostgreSQL),
+// then plan and write day by day.
 import { rangeDays } from '../../server/services/reports/days';
 import { loadReportLocation } from '../../server/services/reports/scope';
-import type { Database } from 'better-sqlite3';
+import { isPostgresUrl } from '../../server/db/dialect';
 import { createDb, migrate } from '../../server/db/knex';
 import { loadMenu } from '../../server/services/menu';
 import { isEmpty, seedDemoCafe } from '../../seeds/demo-cafe';
@@ -12,6 +13,7 @@ import { planDay, type Staff } from './day';
 import { dayWriter } from './store';
 
 export interface HistoryOptions {
+  /** The database: a SQLite file, or a postgres:// URL. */
   file: string;
   days: number;
   seed?: number;
@@ -72,7 +74,7 @@ export async function generateHistory(options: HistoryOptions): Promise<HistoryS
     const older = await db('orders').where('business_date', '<', today).count<{ n: number }>({ n: '*' }).first();
     if (Number(older?.n ?? 0) > 0 && !options.append) {
       throw new HistoryRefused(
-        `${options.file} already has ${older?.n} orders from before today (${today}). ` +
+        `${isPostgresUrl(options.file) ? 'The PostgreSQL database' : options.file} already has ${older?.n} orders from before today (${today}). ` +
           'Use a fresh file, or pass --append to fill only the days that have no orders yet.',
       );
     }
@@ -99,19 +101,14 @@ export async function generateHistory(options: HistoryOptions): Promise<HistoryS
       seconds: 0,
     };
     const ctx = { locationId, menu: indexMenu(allOnSale), staff, seed };
-    const conn = (await db.client.acquireConnection()) as Database;
-    try {
-      const writer = dayWriter(conn, locationId, staff.lead);
-      for (const date of todo) {
-        const written = writer.write(planDay(ctx, date));
-        summary.days++;
-        summary.orders += written.orders;
-        summary.items += written.items;
-        summary.payments += written.payments;
-        summary.refunds += written.refunds;
-      }
-    } finally {
-      await db.client.releaseConnection(conn);
+    const writer = await dayWriter(db, locationId, staff.lead);
+    for (const date of todo) {
+      const written = await writer.write(planDay(ctx, date));
+      summary.days++;
+      summary.orders += written.orders;
+      summary.items += written.items;
+      summary.payments += written.payments;
+      summary.refunds += written.refunds;
     }
     // Store the reports' per-day rollups now, so the first report over the year is as fast as the rest.
     if (todo.length > 0) await rangeDays(db, await loadReportLocation(db, locationId), todo[0], todo[todo.length - 1], now);
