@@ -104,14 +104,16 @@ async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody,
     const now = deps.clock();
     const at = now.toISOString();
     const day = businessDate(now, menu.location.timeZone);
+    // The quote and the open shift are read before the café's lock: neither needs it, and the quote
+    // reads every drink on the bar, which would keep the café's other counters waiting meanwhile.
+    const barDrinks = lines.filter((l) => l.station === 'bar').length;
+    const quote = await quoteForNewOrder(trx, user.locationId, now, barDrinks, menu.location.baristasOnBar);
+    const shift = await trx('shifts').where({ location_id: user.locationId }).whereNull('closed_at').first('id');
     await lockCafe(trx, user.locationId); // orders taken at once get numbers one after another
     const last = await trx('orders')
       .where({ location_id: user.locationId, business_date: day })
       .max<{ n: number | null }>({ n: 'number' })
       .first();
-    const barDrinks = lines.filter((l) => l.station === 'bar').length;
-    const quote = await quoteForNewOrder(trx, user.locationId, now, barDrinks, menu.location.baristasOnBar);
-    const shift = await trx('shifts').where({ location_id: user.locationId }).whereNull('closed_at').first('id');
     // An order of counter items only is handed over at the till once paid.
     const firedStatus = barDrinks > 0 ? 'open' : 'collected';
     const [{ id: orderId }] = await trx('orders')
