@@ -1,6 +1,7 @@
 // The Jugline server as production runs it (the built screens, NODE_ENV=production, request logs
 // at info), in a process of its own that the bench forks, with the probe on its IPC channel.
-// Env: BENCH_PORT, BENCH_DATABASE_FILE, JUGLINE_DIST (read by server/ssr/pages.ts).
+// Env: BENCH_PORT, BENCH_DATABASE_FILE or BENCH_DATABASE_URL (PostgreSQL: migrated and seeded at
+// start, as on SQLite), JUGLINE_DIST (read by server/ssr/pages.ts).
 import { loadConfig } from '../server/config';
 import { startServer } from '../server/server';
 import { serveProbe } from './probe';
@@ -10,6 +11,8 @@ const config = loadConfig({
   PORT: process.env.BENCH_PORT ?? '4326',
   HOST: '127.0.0.1',
   DATABASE_FILE: process.env.BENCH_DATABASE_FILE,
+  DATABASE_URL: process.env.BENCH_DATABASE_URL,
+  MIGRATE_ON_START: 'true',
   SEED_DEMO: 'true',
   LOG_LEVEL: process.env.BENCH_LOG_LEVEL ?? 'info',
 });

@@ -7,12 +7,14 @@ import type { StormResult } from './storm';
 import type { ScreenWeight } from './weights';
 
 export interface BenchResults {
+  /** The database Jugline ran on (the floor always runs on SQLite). */
+  db: 'sqlite' | 'postgres';
   machine: { cores: number; cpu: string; memoryGiB: number; node: string; platform: string; date: string; load: number[]; nice: number };
   args: { sockets: number; counters: number; rate: number; seconds: number; big: number; days: number };
   built: boolean;
   jugline: SideResult;
   floor: SideResult;
-  history: { orders: number; days: number; firstDate: string; lastDate: string };
+  history: { orders: number; days: number; seconds: number; firstDate: string; lastDate: string };
   bar: (Timed & { drinks: number })[];
   endpoints: Timed[];
   storm: StormResult;
@@ -79,7 +81,8 @@ export function stormTable(s: StormResult): string {
     ),
     '',
     `The storm sent ${s.sent.toLocaleString('en-US')} resumes; ${s.answered.toLocaleString('en-US')} were answered with a snapshot and ` +
-      `${s.refused.toLocaleString('en-US')} refused (\`rate_limited\`); the server closed storm sockets ${closes} and the storm reconnected ${s.reconnects} times.`,
+      `${s.refused.toLocaleString('en-US')} refused (\`rate_limited\`); the server closed storm sockets ${closes} and the storm reconnected ${s.reconnects} times. ` +
+      `The other sign-in's screen had ${s.bystanderRefused ?? 0} upgrades refused (429: it resumes faster than its own sign-in's bucket refills) and tried again a second later.`,
   ].join('\n');
 }
 
@@ -87,11 +90,13 @@ export function report(r: BenchResults): string {
   const { jugline: j, floor: f, args: a, machine: m } = r;
   const out: string[] = [];
   out.push(
+    `Jugline on **${r.db === 'postgres' ? 'PostgreSQL' : 'SQLite'}**${r.db === 'postgres' ? ' (a throwaway local cluster, on the same machine as everything else)' : ''}; the floor on SQLite.`,
+    '',
     `Machine: ${m.cores} cores (${m.cpu}), ${m.memoryGiB.toFixed(0)} GiB, ${m.platform}; Node ${m.node}. Run ${m.date}, ${r.seconds.toFixed(0)} s in all` +
       `${r.built ? ' (including the build)' : ''}:`,
     '',
     '```',
-    `npm run bench -- --sockets ${a.sockets} --counters ${a.counters} --rate ${a.rate} --seconds ${a.seconds} --big ${a.big} --days ${a.days}`,
+    `npm run bench -- --db ${r.db} --sockets ${a.sockets} --counters ${a.counters} --rate ${a.rate} --seconds ${a.seconds} --big ${a.big} --days ${a.days}`,
     '```',
     '',
     `Load average (1 min) at the start and the end: ${m.load.map((l) => l.toFixed(1)).join(' / ')}` +
@@ -171,4 +176,40 @@ export function report(r: BenchResults): string {
     ),
   );
   return out.join('\n');
+}
+
+/** The figures a café group weighs when it moves to PostgreSQL, from one run on each database. */
+export function sideBySide(sqlite: BenchResults, postgres: BenchResults): string {
+  const both = (label: string, pick: (r: BenchResults) => number | undefined, unit: (x: number) => string = ms): (string | number)[] => {
+    const a = pick(sqlite);
+    const b = pick(postgres);
+    return [label, a === undefined ? '—' : unit(a), b === undefined ? '—' : unit(b), a !== undefined && b !== undefined ? ratio(b, a) : '—'];
+  };
+  const bar = (drinks: number) => (r: BenchResults) => r.bar.find((b) => b.drinks === drinks)?.p50;
+  const endpoint = (what: string, p: 'p50' | 'p95') => (r: BenchResults) => r.endpoints.find((e) => e.what === what)?.[p];
+  const whole = (x: number) => x.toFixed(0);
+  const run = (r: BenchResults) => `${r.machine.date}, load ${r.machine.load.map((l) => l.toFixed(1)).join(' / ')}`;
+  return [
+    `SQLite run: ${run(sqlite)}. PostgreSQL run: ${run(postgres)}. Each column comes from its own run of \`npm run bench\` (blocks above);`,
+    'the last column is PostgreSQL ÷ SQLite (above 1×: slower or bigger on PostgreSQL).',
+    '',
+    table(
+      ['figure', 'SQLite', 'PostgreSQL', 'PostgreSQL ÷ SQLite'],
+      [
+        both(`POST /api/orders answered — p50 (ms), ${sqlite.args.sockets} sockets`, (r) => r.jugline.main.ack.p50),
+        both('POST /api/orders answered — p99 (ms)', (r) => r.jugline.main.ack.p99),
+        both('event at every socket — p99 (ms)', (r) => r.jugline.main.allSockets.p99),
+        both('server CPU time per order (ms)', (r) => r.jugline.main.cpuPerOrder),
+        both(`max throughput, closed loop (orders/s)`, (r) => r.jugline.saturation.throughput, whole),
+        both('server CPU time per order in the closed loop (ms)', (r) => r.jugline.saturation.cpuPerOrder),
+        both(`event at every socket, ${sqlite.args.big} sockets — p99 (ms)`, (r) => r.jugline.big?.run.allSockets.p99),
+        both('/bar rendered, 20 open drinks — median (ms)', bar(20)),
+        both('/bar rendered, 100 open drinks — median (ms)', bar(100)),
+        both('/bar rendered, 300 open drinks — median (ms)', bar(300)),
+        both(`history written, ${sqlite.history.days} days (s)`, (r) => r.history.seconds, (x) => x.toFixed(1)),
+        ...sqlite.endpoints.flatMap((e) => [both(`${e.what} — median (ms)`, endpoint(e.what, 'p50')), both(`${e.what} — p95 (ms)`, endpoint(e.what, 'p95'))]),
+        both('GET /healthz during the resume storm — median (ms)', (r) => r.storm.during.p50),
+      ],
+    ),
+  ].join('\n');
 }

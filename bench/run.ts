@@ -1,7 +1,8 @@
-// npm run bench [-- --sockets 100 --counters 10 --rate 20 --seconds 20 --big 1000 --dist dist
-//                  --days 365 --port 4326 --out BENCHMARKS.md --no-write --profile <dir> --storm-only]
-// One run, on fresh databases in a temp folder, against the production build (built first when the
-// folder has none):
+// npm run bench [-- --db sqlite|postgres --sockets 100 --counters 10 --rate 20 --seconds 20 --big 1000
+//                  --dist dist --days 365 --port 4326 --out BENCHMARKS.md --no-write --profile <dir> --storm-only]
+// One run, on fresh databases (SQLite files in a temp folder, or with --db postgres databases in a
+// throwaway PostgreSQL cluster), against the production build (built first when the folder has none).
+// The floor always runs on SQLite: it is the fixed yardstick both runs are read against.
 //   1. order → screens: Jugline, then the floor (the same libraries bare), under the same load;
 //   2. a bigger socket count on both (--big; 0 leaves it out);
 //   3. /bar server-rendered with 20, 100 and 300 open drinks, Pulse and the reports over a year;
@@ -13,24 +14,28 @@ import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'no
 import os from 'node:os';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
-import Database from 'better-sqlite3';
+import type { Knex } from 'knex';
 import { generateHistory } from '../scripts/history/generate';
 import { MAX_REPLAY, MAX_SOCKETS_PER_SESSION } from '../server/realtime/socket-server';
+import { rawRows } from '../server/db/dialect';
+import { createDb } from '../server/db/knex';
 import { prepareDatabase } from '../server/server';
 import { ROOT, startChild, type ServerChild } from './child';
+import { benchDatabases, type BenchDatabases, type BenchDb } from './databases';
 import type { OrderTemplate } from './floor-server';
 import { closedLoop, closeHarness, connectMeasured, harness, openLoop, signIn, type Harness, type MemoryReading, type OrderBody, type RunResult } from './load';
 import { fillOpenDrinks, historyEndpoints, renderBar, type Timed } from './pages';
-import { report, stormTable, type BenchResults } from './report';
+import { report, sideBySide, stormTable, type BenchResults } from './report';
 import { resumeStorm, type StormResult } from './storm';
 import { screenWeights } from './weights';
 
-const USAGE = 'Usage: npm run bench -- [--sockets 100] [--counters 10] [--rate 20] [--seconds 20] [--big 1000] [--dist dist] [--days 365] [--port 4326] [--out BENCHMARKS.md] [--no-write] [--profile <dir>] [--storm-only]';
+const USAGE = 'Usage: npm run bench -- [--db sqlite|postgres] [--sockets 100] [--counters 10] [--rate 20] [--seconds 20] [--big 1000] [--dist dist] [--days 365] [--port 4326] [--out BENCHMARKS.md] [--no-write] [--profile <dir>] [--storm-only]';
 
 function parsed() {
   try {
     return parseArgs({
       options: {
+        db: { type: 'string', default: 'sqlite' },
         sockets: { type: 'string', default: '100' },
         counters: { type: 'string', default: '10' },
         rate: { type: 'string', default: '20' },
@@ -67,7 +72,12 @@ function options() {
     }
     return n;
   };
+  if (values.db !== 'sqlite' && values.db !== 'postgres') {
+    console.error(`--db takes sqlite or postgres, not "${values.db}"\n${USAGE}`);
+    process.exit(2);
+  }
   const o = {
+    db: values.db as BenchDb,
     sockets: int('sockets', 1, 1000),
     counters: int('counters', 1, 50),
     rate: int('rate', 1, 200),
@@ -125,31 +135,40 @@ function orderBodies(menu: { items: MenuItem[]; milks: { id: number; name: strin
   return lists.map((items) => ({ items, barDrinks: items.filter((l) => station.get(l.menuItemId) === 'bar').length }));
 }
 
-/** What Jugline stored for one order of each body: the floor inserts the same rows. */
-function readTemplates(file: string, h: Harness, bodies: OrderBody[]): OrderTemplate[] {
-  const db = new Database(file, { readonly: true });
+/** A row as the floor's SQLite takes it: PostgreSQL answers booleans and json columns as values. */
+function sqliteRow({ id: _id, ...row }: Record<string, unknown>) {
+  return Object.fromEntries(
+    Object.entries(row).map(([k, v]) => [k, typeof v === 'boolean' ? Number(v) : v instanceof Date ? v.toISOString() : v !== null && typeof v === 'object' ? JSON.stringify(v) : v]),
+  );
+}
+
+/** What Jugline stored for one order of each body (on either database): the floor inserts the same rows. */
+async function readTemplates(target: string, h: Harness, bodies: OrderBody[]): Promise<OrderTemplate[]> {
+  const db: Knex = createDb(target);
   try {
-    const noId = ({ id: _id, ...row }: Record<string, unknown>) => row;
-    return bodies.map((body, variant) => {
-      const answer = h.answers.get(variant);
-      if (!answer) throw new Error(`no answered order of body ${variant} to copy for the floor`);
-      const order = db.prepare('select * from orders where client_order_id = ?').get(answer.clientOrderId) as Record<string, unknown>;
-      const items = db.prepare('select * from order_items where order_id = ? order by line_no').all(order.id) as Record<string, unknown>[];
-      const payments = db.prepare('select * from payments where order_id = ?').all(order.id) as Record<string, unknown>[];
-      const event = db
-        .prepare("select type, payload from events where type = 'order.fired' and json_extract(payload, '$.ticket.id') = ?")
-        .get(order.id) as { type: string; payload: string };
-      return {
-        key: JSON.stringify(body.items),
-        order: noId(order),
-        items: items.map(noId),
-        payments: payments.map(noId),
-        event: { type: event.type, payload: JSON.parse(event.payload) },
-        response: JSON.parse(answer.text),
-      };
-    });
+    const fired = rawRows<{ type: string; payload: unknown }>(await db.raw("select type, payload from events where type = 'order.fired'"));
+    const payloads = fired.map((e) => ({ type: e.type, payload: (typeof e.payload === 'string' ? JSON.parse(e.payload) : e.payload) as { ticket: { id: number } } }));
+    return await Promise.all(
+      bodies.map(async (body, variant) => {
+        const answer = h.answers.get(variant);
+        if (!answer) throw new Error(`no answered order of body ${variant} to copy for the floor`);
+        const order = await db('orders').where({ client_order_id: answer.clientOrderId }).first();
+        const items = await db('order_items').where({ order_id: order.id }).orderBy('line_no');
+        const payments = await db('payments').where({ order_id: order.id });
+        const event = payloads.find((e) => Number(e.payload.ticket.id) === Number(order.id));
+        if (!event) throw new Error(`no order.fired event for order ${order.id}`);
+        return {
+          key: JSON.stringify(body.items),
+          order: sqliteRow(order),
+          items: items.map(sqliteRow),
+          payments: payments.map(sqliteRow),
+          event,
+          response: JSON.parse(answer.text),
+        };
+      }),
+    );
   } finally {
-    db.close();
+    await db.destroy();
   }
 }
 
@@ -186,8 +205,8 @@ async function stormPhase(server: ServerChild, bodies: OrderBody[]): Promise<Sto
 }
 
 /** --storm-only: the storm alone, on a fresh server. */
-async function stormOnly(o: O, tmp: string, children: ServerChild[]) {
-  const server = await startChild('jugline-server.ts', { BENCH_PORT: String(o.port), BENCH_DATABASE_FILE: path.join(tmp, 'storm.sqlite'), JUGLINE_DIST: o.dist });
+async function stormOnly(o: O, dbs: BenchDatabases, children: ServerChild[]) {
+  const server = await startChild('jugline-server.ts', { BENCH_PORT: String(o.port), ...dbs.envOf(await dbs.create('storm')), JUGLINE_DIST: o.dist });
   children.push(server);
   const cookie = await signIn(server.url, 'cashier');
   const bodies = orderBodies(await (await fetch(`${server.url}/api/menu`, { headers: { cookie } })).json());
@@ -225,19 +244,22 @@ async function main() {
   const loadAtStart = os.loadavg()[0];
   const tmp = mkdtempSync(path.join(os.tmpdir(), 'jugline-bench-'));
   const children: ServerChild[] = [];
+  let dbs: BenchDatabases | undefined;
   const cleanup = async () => {
     await Promise.all(children.map((c) => c.stop()));
+    await dbs?.stop();
     rmSync(tmp, { recursive: true, force: true });
   };
   try {
     const built = await ensureBuild(o.dist);
-    if (o.stormOnly) return await stormOnly(o, tmp, children);
+    dbs = await benchDatabases(o.db, tmp);
+    if (o.stormOnly) return await stormOnly(o, dbs, children);
     const weights = screenWeights(path.join(o.dist, 'client'));
 
     // 1. Jugline
-    console.log(`Jugline: ${o.sockets} sockets, ${o.counters} counters at ${o.rate} orders/s for ${o.seconds} s…`);
-    const jFile = path.join(tmp, 'jugline.sqlite');
-    const jugline = await startChild('jugline-server.ts', { BENCH_PORT: String(o.port), BENCH_DATABASE_FILE: jFile, JUGLINE_DIST: o.dist });
+    console.log(`Jugline on ${o.db === 'postgres' ? 'PostgreSQL' : 'SQLite'}: ${o.sockets} sockets, ${o.counters} counters at ${o.rate} orders/s for ${o.seconds} s…`);
+    const jTarget = await dbs.create('jugline');
+    const jugline = await startChild('jugline-server.ts', { BENCH_PORT: String(o.port), ...dbs.envOf(jTarget), JUGLINE_DIST: o.dist });
     children.push(jugline);
     const counterCookies: string[] = [];
     for (let i = 0; i < o.counters; i++) counterCookies.push(await signIn(jugline.url, 'cashier'));
@@ -250,7 +272,7 @@ async function main() {
     const menu = await (await fetch(`${jugline.url}/api/menu`, { headers: { cookie: counterCookies[0] } })).json();
     const bodies = orderBodies(menu);
     const j = await orderToScreens(jugline, o, bodies, { counters: counterCookies, socket: (i) => screenCookies[i % sessions] }, 'Jug');
-    const templates = readTemplates(jFile, j.h, bodies);
+    const templates = await readTemplates(jTarget, j.h, bodies);
     await jugline.stop();
     children.pop();
 
@@ -268,12 +290,12 @@ async function main() {
 
     // 3. a year of history; /bar, Pulse and the reports
     console.log(`History: ${o.days} days…`);
-    const hFile = path.join(tmp, 'history.sqlite');
+    const hTarget = await dbs.create('history');
     const history = o.days
-      ? await generateHistory({ file: hFile, days: o.days })
+      ? await generateHistory({ file: hTarget, days: o.days })
       : { orders: 0, days: 0, seconds: 0, firstDate: new Date().toISOString().slice(0, 10), lastDate: new Date().toISOString().slice(0, 10) };
     console.log(`  ${history.orders} orders in ${history.seconds.toFixed(1)} s`);
-    const hist = await startChild('jugline-server.ts', { BENCH_PORT: String(o.port + 2), BENCH_DATABASE_FILE: hFile, JUGLINE_DIST: o.dist });
+    const hist = await startChild('jugline-server.ts', { BENCH_PORT: String(o.port + 2), ...dbs.envOf(hTarget), JUGLINE_DIST: o.dist });
     children.push(hist);
     const [cashier, barista, lead, owner] = await Promise.all(['cashier', 'barista', 'lead', 'owner'].map((u) => signIn(hist.url, u)));
     console.log('Rendering /bar…');
@@ -296,11 +318,12 @@ async function main() {
         load: [loadAtStart, os.loadavg()[0]],
         nice: os.getPriority(),
       },
+      db: o.db,
       args: { sockets: o.sockets, counters: o.counters, rate: o.rate, seconds: o.seconds, big: o.big, days: o.days },
       built,
       jugline: j.result,
       floor: f.result,
-      history: { orders: history.orders, days: history.days, firstDate: history.firstDate!, lastDate: history.lastDate! },
+      history: { orders: history.orders, days: history.days, seconds: history.seconds, firstDate: history.firstDate!, lastDate: history.lastDate! },
       bar,
       endpoints,
       storm,
@@ -310,7 +333,7 @@ async function main() {
     const table = report(results);
     console.log('\n' + table);
     if (o.write) {
-      writeInto(o.out, table);
+      writeInto(o.out, results, table);
       console.log(`Written to ${path.relative(ROOT, o.out)}`);
     }
   } finally {
@@ -318,16 +341,38 @@ async function main() {
   }
 }
 
-const START = '<!-- bench:start (npm run bench writes between these markers) -->';
-const END = '<!-- bench:end -->';
+// BENCHMARKS.md holds one block per database and a side-by-side block built from both; each
+// run's block ends with its results as JSON in a comment, so the other database's run can rebuild
+// the side-by-side table without running again.
+const markers = (name: string) => [`<!-- bench:${name}:start (npm run bench writes between these markers) -->`, `<!-- bench:${name}:end -->`] as const;
+const RESULTS = /<!-- bench:results (.*) -->/;
 
-/** Replace what is between the markers; everything else in the file (notes by hand) stays. */
-function writeInto(file: string, table: string) {
-  const block = `${START}\n${table}\n${END}`;
-  const old = existsSync(file) ? readFileSync(file, 'utf8') : '';
-  const a = old.indexOf(START);
-  const b = old.indexOf(END);
-  const text = a >= 0 && b > a ? old.slice(0, a) + block + old.slice(b + END.length) : `# Benchmarks\n\n${block}\n${old ? '\n' + old : ''}`;
+function between(text: string, name: string): string | undefined {
+  const [start, end] = markers(name);
+  const a = text.indexOf(start);
+  const b = text.indexOf(end);
+  return a >= 0 && b > a ? text.slice(a + start.length, b) : undefined;
+}
+
+function putBetween(text: string, name: string, body: string): string {
+  const [start, end] = markers(name);
+  const block = `${start}\n${body}\n${end}`;
+  const a = text.indexOf(start);
+  const b = text.indexOf(end);
+  return a >= 0 && b > a ? text.slice(0, a) + block + text.slice(b + end.length) : `${text.trimEnd()}\n\n${block}\n`;
+}
+
+/** Replace this database's block and the side-by-side block; everything else (notes by hand) stays. */
+function writeInto(file: string, results: BenchResults, table: string) {
+  let text = existsSync(file) ? readFileSync(file, 'utf8') : '# Benchmarks\n';
+  text = putBetween(text, results.db, `${table}\n\n<!-- bench:results ${JSON.stringify(results)} -->`);
+  const other = between(text, results.db === 'sqlite' ? 'postgres' : 'sqlite')?.match(RESULTS)?.[1];
+  if (other) {
+    const both = [results, JSON.parse(other) as BenchResults];
+    const sqlite = both.find((r) => r.db === 'sqlite')!;
+    const postgres = both.find((r) => r.db === 'postgres')!;
+    text = putBetween(text, 'side', sideBySide(sqlite, postgres));
+  }
   writeFileSync(file, text);
 }
 

@@ -26,6 +26,8 @@ export interface StormResult {
   during: Summary;
   /** Resumes of one well-behaved screen (another sign-in) during the storm: sent → answered (ms). */
   bystander: Summary;
+  /** Upgrades of the bystander's sign-in refused (429) once its resume bucket was empty. */
+  bystanderRefused: number;
   /** The server's event-loop delay during the storm, and this process's own (p99, ms): the storm's
    * clients run here too, so when the latter is high the times above include their lag. */
   serverLoop: ProbeReading['loop'];
@@ -65,14 +67,25 @@ function openSocket(url: string, cookie: string): WebSocket {
   return new WebSocket(`${url.replace(/^http/, 'ws')}/ws`, { headers: { Cookie: cookie } });
 }
 
-/** A screen of another sign-in resuming from 0 over and over, politely: one at a time, a pause between. */
-async function bystander(url: string, cookie: string, until: number): Promise<number[]> {
+/**
+ * A screen of another sign-in resuming from 0 over and over, politely: one at a time, a pause
+ * between. It resumes faster than its sign-in's bucket refills (SESSION_RESUMES in
+ * server/realtime/socket-server.ts), so once the burst is spent some upgrades are refused with
+ * 429; like a real screen it then waits a second and tries again, and the refusals are counted.
+ */
+async function bystander(url: string, cookie: string, until: number): Promise<{ times: number[]; refused: number }> {
   const times: number[] = [];
+  let refused = 0;
   while (performance.now() < until) {
     const socket = openSocket(url, cookie);
-    const took = await new Promise<number>((resolve, reject) => {
+    const took = await new Promise<number | null>((resolve, reject) => {
       let t0 = 0;
       socket.on('error', reject);
+      socket.on('unexpected-response', (_req, res) => {
+        res.resume();
+        if (res.statusCode === 429) resolve(null);
+        else reject(new Error(`the bystander's upgrade answered ${res.statusCode}`));
+      });
       socket.on('message', (data: Buffer) => {
         const type = typeOf(data);
         if (type === 'hello') {
@@ -81,11 +94,16 @@ async function bystander(url: string, cookie: string, until: number): Promise<nu
         } else if (type === 'snapshot' || type === 'event') resolve(performance.now() - t0);
       });
     });
+    if (took === null) {
+      refused++;
+      await sleep(1000);
+      continue;
+    }
     times.push(took);
     await new Promise<void>((r) => (socket.once('close', () => r()), socket.close()));
     await sleep(250);
   }
-  return times;
+  return { times, refused };
 }
 
 export async function resumeStorm(server: ServerChild, stormCookie: string, bystanderCookie: string, opts = { sockets: 20, seconds: 8, perSecond: 20 }): Promise<StormResult> {
@@ -145,7 +163,8 @@ export async function resumeStorm(server: ServerChild, stormCookie: string, byst
     ...r,
     rest: summarize(rest),
     during: summarize(during),
-    bystander: summarize(polite),
+    bystander: summarize(polite.times),
+    bystanderRefused: polite.refused,
     serverLoop,
     clientLoopP99: own.percentile(99) / 1e6,
   };

@@ -7,6 +7,7 @@ import { chownSync, mkdtempSync, rmSync } from 'node:fs';
 import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
+import { pathToFileURL } from 'node:url';
 import pg from 'pg';
 import { MISSING_POSTGRES, postgresBin } from '../../server/db/postgres-tools';
 
@@ -106,4 +107,14 @@ export async function adminQuery(url: string, sql: string): Promise<void> {
   } finally {
     await client.end();
   }
+}
+
+// `npm run db:postgres`: a throwaway cluster to try Jugline on, with a `jugline` database, until Ctrl-C.
+if (process.argv[1] && import.meta.url === pathToFileURL(path.resolve(process.argv[1])).href) {
+  const cluster = await startCluster();
+  await adminQuery(cluster.adminUrl, 'CREATE DATABASE jugline');
+  console.log(`PostgreSQL is up (a throwaway cluster; Ctrl-C stops and removes it). In another shell:\n\n  export DATABASE_URL=${cluster.urlOf('jugline')}\n  npm run db:seed && npm start\n`);
+  const stop = () => void cluster.stop().then(() => process.exit(0));
+  process.once('SIGINT', stop);
+  process.once('SIGTERM', stop);
 }
