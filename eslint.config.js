@@ -60,4 +60,14 @@ export default tseslint.config(
       'no-restricted-imports': ['error', { patterns: [{ regex: '/features/', message: 'Shared components do not depend on features.' }] }],
     },
   },
+  {
+    // a service refuses in the café's terms (server/domain-errors.ts); only the HTTP layer picks statuses
+    files: ['server/services/**/*.ts'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        { patterns: [{ group: ['**/errors'], importNames: ['HttpError'], message: 'Services throw DomainError (server/domain-errors.ts); the error handler picks the status.' }] },
+      ],
+    },
+  },
 );

@@ -1,7 +1,9 @@
-// One error type for the whole API; the error handler turns it into
-// { error: { code, message, details? } } with its status.
+// The API's errors: a service refuses with a DomainError (server/domain-errors.ts: a kind of
+// refusal, no status); the HTTP layer itself (guards, body limits, throttles) with an HttpError and
+// its status. The one error handler answers both as { error: { code, message, details? } }.
 import type { NextFunction, Request, Response } from 'express';
 import { z } from 'zod';
+import { DomainError, fieldsNeedFixing, type Refusal } from './domain-errors';
 
 export type ErrorCode =
   | 'validation_failed'
@@ -35,16 +37,31 @@ export { isDatabaseBusy };
 /** What a busy database answers with: the other program's transaction is likely over by then. */
 export const BUSY_RETRY_AFTER_SECONDS = 5;
 
-export const notFound = (what: string) => new HttpError(404, 'not_found', `${what} not found`);
-export const conflict = (message: string, details?: unknown) => new HttpError(409, 'conflict', message, details);
+// the HTTP layer refuses in the same words as the services
+export { conflict, notFound } from './domain-errors';
+
+/** The status each kind of refusal answers with: the one place a service's refusal meets HTTP. */
+const STATUS_OF: Record<Refusal, number> = {
+  invalid: 400,
+  unsupported: 415,
+  unauthenticated: 401,
+  forbidden: 403,
+  not_found: 404,
+  conflict: 409,
+  declined: 402,
+  too_many: 429,
+  upstream: 502,
+  not_set_up: 503,
+};
 
 /** Field-by-field details from a zod error: [{ path: 'items.0.sizeId', message }]. */
-export function validationError(error: z.ZodError, where?: string): HttpError {
-  const details = error.issues.map((i) => ({
-    path: [where, ...i.path].filter((p) => p !== undefined && p !== '').join('.'),
-    message: i.message,
-  }));
-  return new HttpError(400, 'validation_failed', 'Some fields need fixing', details);
+export function validationError(error: z.ZodError, where?: string): DomainError {
+  return fieldsNeedFixing(
+    error.issues.map((i) => ({
+      path: [where, ...i.path].filter((p) => p !== undefined && p !== '').join('.'),
+      message: i.message,
+    })),
+  );
 }
 
 export function parse<T extends z.ZodType>(schema: T, value: unknown, where?: string): z.infer<T> {
@@ -63,8 +80,9 @@ export function errorHandler(err: unknown, req: Request, res: Response, _next: N
     res.status(503).json({ error: { code: 'unavailable', message: 'The database is busy; try again in a moment' } });
     return;
   }
-  if (err instanceof HttpError) {
-    res.status(err.status).json({ error: { code: err.code, message: err.message, details: err.details } });
+  if (err instanceof HttpError || err instanceof DomainError) {
+    const status = err instanceof HttpError ? err.status : STATUS_OF[err.refusal];
+    res.status(status).json({ error: { code: err.code, message: err.message, details: err.details } });
     return;
   }
   // body-parser errors carry a status and a type

@@ -1,6 +1,7 @@
 // Mailing a receipt, and the Outbox of mail the local SMTP fake caught.
 import { idParam, receiptEmailBody } from '../../src/domain/schemas';
 import { userOf } from '../auth/guards';
+import { DomainError } from '../domain-errors';
 import { HttpError, parse } from '../errors';
 import type { Deps } from '../services/deps';
 import { outboxView, type Mailer } from '../services/mail';
@@ -23,7 +24,7 @@ export function mailRoutes(deps: Deps, mailer: Mailer): ApiRoute[] {
         try {
           sent = await sendOrderReceipt(deps.db, mailer, user.locationId, id, email);
         } catch (err) {
-          if (err instanceof HttpError) throw err;
+          if (err instanceof HttpError || err instanceof DomainError) throw err;
           // The mail server refused or was unreachable: the cashier can try again, nothing is lost.
           console.warn(`Receipt for order ${id} was not sent: ${(err as Error).message}`);
           throw new HttpError(502, 'internal', 'The mail server did not take the receipt; try again');

@@ -16,6 +16,7 @@ import {
 import type { SessionUser } from '../../src/domain/types';
 import { userOf } from '../auth/guards';
 import { HttpError, parse } from '../errors';
+import { DomainError } from '../domain-errors';
 import type { Deps } from '../services/deps';
 import { acceptLink, sendLink, welcomeView } from '../services/invitations';
 import { checkPinSwitch, setOwnPin, setPin, switchPeople } from '../services/pins';
@@ -116,7 +117,7 @@ export function teamRoutes(deps: Deps): ApiRoute[] {
         try {
           await setOwnPin(deps, userOf(req), body.password, body.pin);
         } catch (err) {
-          if (err instanceof HttpError && err.status === 401) res.locals.wrongSecret = true;
+          if (err instanceof DomainError && err.refusal === 'unauthenticated') res.locals.wrongSecret = true;
           throw err;
         }
         res.status(204).end();

@@ -6,7 +6,7 @@ import { byAge } from '../../src/domain/lanes';
 import type { SessionUser, TicketEventType } from '../../src/domain/types';
 import { dialectOf } from '../db/dialect';
 import { json } from '../db/rows';
-import { conflict, notFound } from '../errors';
+import { conflict, notFound } from '../domain-errors';
 import { recordCoffeeUse } from './beans-usage';
 import { appendEvent, lockCafe } from './events';
 import { waitOfOrder } from './reports/sql';

@@ -6,7 +6,7 @@ import type { BeanLotBody, BeanSettingsBody } from '../../src/domain/beans-schem
 import { localDate } from '../../src/domain/freshness';
 import type { SessionUser } from '../../src/domain/types';
 import type { BeansView } from '../../src/lib/beans-api';
-import { conflict, HttpError, notFound } from '../errors';
+import { conflict, fieldsNeedFixing, notFound } from '../domain-errors';
 import type { Deps } from './deps';
 import { appendMenuChangedEvent, runCommand } from './events';
 import { loadLocation } from './menu';
@@ -35,7 +35,7 @@ async function checkDates(trx: Knex.Transaction, locationId: number, now: Date, 
   const { timeZone } = await loadLocation(trx, locationId);
   const today = localDate(now, timeZone);
   const details = (['roastDate', 'receivedDate'] as const).filter((f) => body[f] > today).map((path) => ({ path, message: `After today (${today})` }));
-  if (details.length) throw new HttpError(400, 'validation_failed', 'Some fields need fixing', details);
+  if (details.length) throw fieldsNeedFixing(details);
   return timeZone;
 }
 

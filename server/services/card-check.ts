@@ -11,7 +11,7 @@ import {
   type ProviderRefundLine,
   type RefundLine,
 } from '../../src/domain/card-check';
-import { HttpError } from '../errors';
+import { notSetUp, upstreamFailed } from '../domain-errors';
 import { GatewayRefused, GatewayUnavailable, type ChargeState } from '../payments/gateway';
 import { applyChargeState, settleOpenAttempts } from './card-settle';
 import type { Deps } from './deps';
@@ -134,10 +134,10 @@ export async function cardCheck(deps: Deps, locationId: number, date?: string): 
  * recorded or given back, is asked about and applied. Answers the day's check afterwards.
  */
 export async function settleCardDay(deps: Deps, locationId: number, date: string): Promise<CardCheckView> {
-  if (!deps.payments) throw new HttpError(503, 'unavailable', 'Card payments are not set up here');
+  if (!deps.payments) throw notSetUp('Card payments are not set up here');
   const location = await loadReportLocation(deps.db, locationId);
   const bounds = dayBounds(date, location.timeZone);
-  const unavailable = () => new HttpError(502, 'payment_unavailable', 'The card service did not answer; some lines are still open. Try again in a moment.');
+  const unavailable = () => upstreamFailed('The card service did not answer; some lines are still open. Try again in a moment.');
   let side;
   try {
     side = await providerSide(deps, locationId, bounds);

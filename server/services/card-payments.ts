@@ -8,7 +8,7 @@
 import type { OrderView, SessionUser } from '../../src/domain/types';
 import { lockingRead } from '../db/dialect';
 import { isUniqueViolation } from '../db/rows';
-import { HttpError, conflict, notFound } from '../errors';
+import { conflict, declined, notFound, notSetUp, upstreamFailed } from '../domain-errors';
 import { CardDeclined, GatewayRefused, type ChargeState } from '../payments/gateway';
 import { applyChargeState, markAttempt, settleOpenAttempts } from './card-settle';
 import type { Deps } from './deps';
@@ -34,12 +34,12 @@ async function startAttempt(deps: Deps, user: SessionUser, orderId: number) {
   });
 }
 
-const unavailable = (orderId: number, message: string) => new HttpError(502, 'payment_unavailable', message, { orderId });
+const unavailable = (orderId: number, message: string) => upstreamFailed(message, { orderId });
 const messageOf = (err: unknown) => String((err as Error)?.message ?? err).slice(0, 200);
 
 export async function payByCard(deps: Deps, user: SessionUser, orderId: number, paymentMethod: string): Promise<OrderView> {
   const gateway = deps.payments;
-  if (!gateway) throw new HttpError(503, 'unavailable', 'Card payments are not set up here; take cash');
+  if (!gateway) throw notSetUp('Card payments are not set up here; take cash');
   // Never run a card while an earlier one's outcome is unknown: it may have been charged.
   if (!(await settleOpenAttempts(deps, orderId))) {
     throw unavailable(orderId, "The card service isn't answering, so whether the last card was charged isn't known yet. Try again in a moment, or take cash.");
@@ -60,7 +60,7 @@ export async function payByCard(deps: Deps, user: SessionUser, orderId: number, 
   } catch (err) {
     // The card was not run: nothing can have been charged.
     await markAttempt(deps, attempt.paymentId, ['processing'], { status: 'failed', message: messageOf(err) });
-    if (err instanceof GatewayRefused) throw new HttpError(409, 'conflict', `The card service refused the payment: ${err.message}`, { orderId });
+    if (err instanceof GatewayRefused) throw conflict(`The card service refused the payment: ${err.message}`, { orderId });
     throw unavailable(orderId, 'The card service did not answer, and the card was not charged. Try the card again, or take cash.');
   }
   await markAttempt(deps, attempt.paymentId, ['processing'], { provider_id: providerId });
@@ -75,7 +75,7 @@ export async function payByCard(deps: Deps, user: SessionUser, orderId: number, 
         decline_code: err.declineCode ?? err.code,
         message: err.message.slice(0, 200),
       });
-      throw new HttpError(402, 'payment_declined', `Card declined: ${err.message}`, { orderId, code: err.code, declineCode: err.declineCode });
+      throw declined(`Card declined: ${err.message}`, { orderId, code: err.code, declineCode: err.declineCode });
     }
     // The answer was lost: the card may or may not have been charged.
     await markAttempt(deps, attempt.paymentId, ['processing'], { status: 'unknown', message: messageOf(err) });

@@ -6,7 +6,7 @@
 // transaction that re-reads the attempt, so the first decides and the rest find it done.
 import { AUTO_REFUND_REASON, autoRefundCause, type AutoRefundCause } from '../../src/domain/card-check';
 import { isUniqueViolation } from '../db/rows';
-import { conflict } from '../errors';
+import { conflict } from '../domain-errors';
 import { GatewayRefused, GatewayUnavailable, type ChargeState, type PaymentGateway } from '../payments/gateway';
 import { lockingRead } from '../db/dialect';
 import type { Deps } from './deps';

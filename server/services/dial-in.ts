@@ -6,7 +6,7 @@ import { adviseShot, doseRange, type DialInShotView, type ShotWindow } from '../
 import { localDate } from '../../src/domain/freshness';
 import type { SessionUser } from '../../src/domain/types';
 import type { DialInView, LoggedShot } from '../../src/lib/beans-api';
-import { conflict, notFound } from '../errors';
+import { conflict, notFound } from '../domain-errors';
 import type { Deps } from './deps';
 import { appendBeansChangedEvent, runCommand } from './events';
 import { loadLocation } from './menu';

@@ -11,7 +11,7 @@ import type { SessionUser } from '../../src/domain/types';
 import { hashPassword } from '../auth/passwords';
 import { lockingRead } from '../db/dialect';
 import { bool } from '../db/rows';
-import { HttpError, conflict, notFound } from '../errors';
+import { conflict, gone, notFound, notSetUp, upstreamFailed } from '../domain-errors';
 import type { Deps } from './deps';
 import { runCommand } from './events';
 import { linkMail } from './team-mail';
@@ -23,13 +23,11 @@ export const hashToken = (token: string) => createHash('sha256').update(token, '
 
 /** One answer for an unknown, used, replaced or expired link, so the page gives nothing away. */
 export const linkNotValid = () =>
-  new HttpError(
-    404,
-    'not_found',
+  gone(
     "This link can't be used any more: links work once, for a limited time, and a newer link replaces an older one. Ask the owner to send you a new one.",
   );
 
-export const mailUnavailable = () => new HttpError(503, 'unavailable', 'No mail service is set up, so no link can be sent');
+export const mailUnavailable = () => notSetUp('No mail service is set up, so no link can be sent');
 
 /** Voids the person's open links. */
 export function voidLinks(trx: Db, userId: number, at: string) {
@@ -102,7 +100,7 @@ export async function sendLink(deps: Deps, owner: SessionUser, userId: number, p
     events: [],
   }));
   const sent = await mailLink(deps, owner, { ...link, purpose: kind }, person, origin);
-  if (!sent) throw new HttpError(502, 'unavailable', 'The mail server did not take the mail. Try again in a moment.');
+  if (!sent) throw upstreamFailed('The mail server did not take the mail. Try again in a moment.', undefined, 'unavailable');
   return { purpose: kind, to: person.email as string };
 }
 

@@ -9,7 +9,7 @@ import path from 'node:path';
 import type { Knex } from 'knex';
 import sharp from 'sharp';
 import type { SessionUser } from '../../src/domain/types';
-import { HttpError, notFound } from '../errors';
+import { notFound, unsupported } from '../domain-errors';
 import type { Deps } from './deps';
 import { appendMenuChangedEvent, runCommand } from './events';
 
@@ -25,7 +25,7 @@ const NAME = /^[0-9a-f]{32}\.webp$/;
 export const photoUrlOf = (photo: string | null | undefined): string | null => (photo && NAME.test(photo) ? `/media/${PHOTO_FOLDER}/${photo}` : null);
 
 const notAnImage = (what: string) =>
-  new HttpError(415, 'validation_failed', `${what} Choose a JPEG, PNG or WebP photo.`, [{ path: 'file', message: 'Not a JPEG, PNG or WebP image' }]);
+  unsupported(`${what} Choose a JPEG, PNG or WebP photo.`, [{ path: 'file', message: 'Not a JPEG, PNG or WebP image' }]);
 
 /** The upload as a WebP of at most 800 px a side, or 415 when its bytes are not a photo we take. */
 export async function toMenuPhoto(bytes: Buffer): Promise<Buffer> {

@@ -6,7 +6,7 @@
 import type { Knex } from 'knex';
 import { jugBumpProblem, jugToStart } from '../../src/domain/jug-commands';
 import type { SessionUser } from '../../src/domain/types';
-import { conflict, notFound } from '../errors';
+import { conflict, notFound } from '../domain-errors';
 import { bumpRows, inLaneOrder, openDrinks, startRows, ticketEvents, type DrinkRow } from './bar-rows';
 import type { Deps } from './deps';
 import { runCommand } from './events';

@@ -1,7 +1,7 @@
 // Menu categories: the Counter's tabs.
 import type { CategoryBody, MoveBody } from '../../src/domain/menu-admin-schemas';
 import type { SessionUser } from '../../src/domain/types';
-import { conflict } from '../errors';
+import { conflict } from '../domain-errors';
 import type { Deps } from './deps';
 import { menuCommand, moveRow, nextSort, ownedCategory } from './menu-admin-shared';
 

@@ -4,7 +4,7 @@
 import type { ItemBody, MoveBody, SizeInput } from '../../src/domain/menu-admin-schemas';
 import { planSizeChanges } from '../../src/domain/menu-sizes';
 import type { SessionUser } from '../../src/domain/types';
-import { conflict, notFound } from '../errors';
+import { conflict, notFound } from '../domain-errors';
 import type { Deps } from './deps';
 import {
   assertMenuOrderable,

@@ -3,7 +3,7 @@
 import type { MilkBody, MoveBody } from '../../src/domain/menu-admin-schemas';
 import type { SessionUser } from '../../src/domain/types';
 import { isUniqueViolation } from '../db/rows';
-import { conflict } from '../errors';
+import { conflict } from '../domain-errors';
 import type { Deps } from './deps';
 import { assertMenuOrderable, menuCommand, moveRow, nextSort, ownedRow, type Trx } from './menu-admin-shared';
 

@@ -2,7 +2,7 @@
 // in them. Orders copy an extra's name and price when taken, so edits never reach past orders.
 import type { ModifierBody, ModifierGroupBody, MoveBody } from '../../src/domain/menu-admin-schemas';
 import type { SessionUser } from '../../src/domain/types';
-import { conflict } from '../errors';
+import { conflict } from '../domain-errors';
 import type { Deps } from './deps';
 import { assertMenuOrderable, menuCommand, moveRow, nextSort, ownedItem, ownedRow, type Trx } from './menu-admin-shared';
 

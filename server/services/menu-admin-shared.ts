@@ -5,7 +5,7 @@ import type { Knex } from 'knex';
 import type { MenuAdminResult } from '../../src/domain/menu-admin-view';
 import { moveAmong, type Direction } from '../../src/domain/menu-order';
 import type { SessionUser } from '../../src/domain/types';
-import { conflict, notFound } from '../errors';
+import { conflict, notFound } from '../domain-errors';
 import type { Deps } from './deps';
 import { appendMenuChangedEvent, runCommand } from './events';
 import { loadAdminMenu } from './menu-admin';

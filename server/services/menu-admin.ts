@@ -5,7 +5,7 @@ import { allergensFrom } from '../../src/domain/ingredients';
 import type { AdminMenuView } from '../../src/domain/menu-admin-view';
 import type { Station, Texture } from '../../src/domain/types';
 import { bool, json } from '../db/rows';
-import { notFound } from '../errors';
+import { notFound } from '../domain-errors';
 import { sizeView } from './menu';
 
 type Db = Knex | Knex.Transaction;

@@ -1,6 +1,6 @@
 // 86 an item (and bring it back). The Counter greys it out at once through the live event.
 import type { SessionUser } from '../../src/domain/types';
-import { notFound } from '../errors';
+import { notFound } from '../domain-errors';
 import type { Deps } from './deps';
 import { appendMenuEvent, runCommand } from './events';
 

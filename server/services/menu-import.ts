@@ -21,7 +21,7 @@ import {
 } from '../../src/domain/menu-csv';
 import type { SessionUser } from '../../src/domain/types';
 import { bool, json } from '../db/rows';
-import { HttpError } from '../errors';
+import { invalid, unsupported } from '../domain-errors';
 import type { Deps } from './deps';
 import { appendMenuChangedEvent, runCommand } from './events';
 import { loadMenu } from './menu';
@@ -35,9 +35,9 @@ export function csvText(bytes: Buffer): string {
   try {
     text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
   } catch {
-    throw new HttpError(400, 'validation_failed', 'The file is not UTF-8 text. In your spreadsheet, save it as "CSV UTF-8".');
+    throw invalid('The file is not UTF-8 text. In your spreadsheet, save it as "CSV UTF-8".');
   }
-  if (text.includes('\u0000')) throw new HttpError(415, 'validation_failed', 'That file is not a CSV text file.');
+  if (text.includes('\u0000')) throw unsupported('That file is not a CSV text file.');
   return text;
 }
 
@@ -225,7 +225,7 @@ export function importMenu(deps: Deps, user: SessionUser, text: string): Promise
     const { read, plan, errors } = await readAndPlan(trx, user.locationId, text);
     if (errors.length > 0) {
       const n = new Set(errors.map((e) => e.row)).size;
-      throw new HttpError(400, 'validation_failed', `${n} ${n === 1 ? 'row needs' : 'rows need'} fixing; nothing was imported`, rowErrorDetails(errors));
+      throw invalid(`${n} ${n === 1 ? 'row needs' : 'rows need'} fixing; nothing was imported`, rowErrorDetails(errors));
     }
     const wrote = await writePlan(trx, user.locationId, plan);
     const events = wrote ? [await appendMenuChangedEvent(trx, user.locationId, deps.clock().toISOString(), user.id)] : [];

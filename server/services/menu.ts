@@ -4,7 +4,7 @@ import type { JugRules, Pitcher } from '../../src/domain/jug-plan';
 import { allergensFrom } from '../../src/domain/ingredients';
 import type { LocationView, MenuView, Texture } from '../../src/domain/types';
 import { bool, json } from '../db/rows';
-import { notFound } from '../errors';
+import { notFound } from '../domain-errors';
 import { photoUrlOf } from './item-photos';
 
 export async function loadLocation(db: Knex | Knex.Transaction, locationId: number): Promise<LocationView> {

@@ -6,7 +6,7 @@ import { expandByQuantity } from '../../src/domain/order-quantity';
 import { can } from '../../src/domain/roles';
 import type { CreateOrderBody } from '../../src/domain/schemas';
 import type { MenuView, SessionUser } from '../../src/domain/types';
-import { HttpError } from '../errors';
+import { conflict, fieldsNeedFixing, forbidden, invalid } from '../domain-errors';
 import type { Deps } from './deps';
 import { loadMenu } from './menu';
 
@@ -16,8 +16,7 @@ export interface PricedOrder {
   totals: OrderTotals;
 }
 
-const invalid = (path: string, message: string) =>
-  new HttpError(400, 'validation_failed', 'Some fields need fixing', [{ path, message }]);
+const fieldNeedsFixing = (path: string, message: string) => fieldsNeedFixing([{ path, message }]);
 
 export async function priceOrder(deps: Deps, user: SessionUser, body: CreateOrderBody): Promise<PricedOrder> {
   const menu = await loadMenu(deps.db, user.locationId);
@@ -25,19 +24,19 @@ export async function priceOrder(deps: Deps, user: SessionUser, body: CreateOrde
     const r = resolveLine(menu, input);
     if (r.ok) return r.line;
     const details = [{ path: `items.${i}.${r.problem.field}`, message: r.problem.message }];
-    if (r.problem.kind === 'unavailable') throw new HttpError(409, 'unavailable', r.problem.message, details);
-    throw new HttpError(400, 'validation_failed', 'Some fields need fixing', details);
+    if (r.problem.kind === 'unavailable') throw conflict(r.problem.message, details, 'unavailable');
+    throw fieldsNeedFixing(details);
   });
   // "3 × Long black" is three cups: one drink each for the Bar, one stored line each.
   const lines = expandByQuantity(body.items, (_, i) => resolved[i]);
 
   const known = allergensOf(menu.location.allergenList);
   body.allergens.forEach((a, i) => {
-    if (!known.includes(a)) throw invalid(`allergens.${i}`, `"${a}" is not on this café's allergen list`);
+    if (!known.includes(a)) throw fieldNeedsFixing(`allergens.${i}`, `"${a}" is not on this café's allergen list`);
   });
 
   if (body.discount && !can(user.role, 'giveDiscounts')) {
-    throw new HttpError(403, 'forbidden', 'Only a shift lead or the owner can give a discount');
+    throw forbidden('Only a shift lead or the owner can give a discount');
   }
   const lineCents = lines.map((l) => l.priceCents);
   const subtotal = lineCents.reduce((a, b) => a + b, 0);
@@ -45,10 +44,10 @@ export async function priceOrder(deps: Deps, user: SessionUser, body: CreateOrde
 
   // The provider's smallest card charge in US dollars is 50 cents (from memory of its docs).
   if (body.payment.method === 'card' && totals.totalCents < 50) {
-    throw invalid('payment.method', 'Card payments start at 50 cents; take this one as cash');
+    throw fieldNeedsFixing('payment.method', 'Card payments start at 50 cents; take this one as cash');
   }
   if (body.payment.method === 'cash' && body.payment.tenderedCents < totals.totalCents) {
-    throw new HttpError(400, 'validation_failed', 'The cash tendered is less than the total', [
+    throw invalid('The cash tendered is less than the total', [
       { path: 'payment.tenderedCents', message: `At least ${totals.totalCents} cents are due` },
     ]);
   }

@@ -6,7 +6,7 @@ import type { CreateOrderBody } from '../../src/domain/schemas';
 import type { OrderView, SessionUser } from '../../src/domain/types';
 import { containing, containsSql, dialectOf, lockingRead } from '../db/dialect';
 import { isUniqueViolation, json } from '../db/rows';
-import { HttpError, conflict } from '../errors';
+import { conflict, invalid } from '../domain-errors';
 import { payByCard } from './card-payments';
 import { settleOpenAttempts } from './card-settle';
 import { fireOrder } from './fire-order';
@@ -215,7 +215,7 @@ async function payPendingByCash(deps: Deps, user: SessionUser, orderId: number, 
     const order = await lockingRead(trx, trx('orders').where({ id: orderId, location_id: user.locationId })).first();
     if (order.status !== 'pending' || order.payment_status !== 'unpaid') return { result: await loadOrder(trx, orderId), events: [] };
     if (tendered < order.total_cents) {
-      throw new HttpError(400, 'validation_failed', 'The cash tendered is less than the total', [
+      throw invalid('The cash tendered is less than the total', [
         { path: 'payment.tenderedCents', message: `At least ${order.total_cents} cents are due` },
       ]);
     }

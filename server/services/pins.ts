@@ -6,7 +6,7 @@ import type { Knex } from 'knex';
 import { PIN_LOCK_MINUTES, PIN_TRIES, type SwitchBody, type SwitchPerson } from '../../src/domain/team-schemas';
 import type { SessionUser } from '../../src/domain/types';
 import { hashPassword, verifyPassword } from '../auth/passwords';
-import { HttpError, conflict, notFound } from '../errors';
+import { conflict, DomainError, notFound, tooMany, unauthenticated } from '../domain-errors';
 import { lockingRead } from '../db/dialect';
 import type { Deps } from './deps';
 
@@ -26,7 +26,7 @@ export async function setPin(deps: Deps, locationId: number, userId: number, pin
 export async function setOwnPin(deps: Deps, user: SessionUser, password: string, pin: string | null): Promise<void> {
   const row = await deps.db('users').where({ id: user.id }).first('password_hash');
   if (!row || !(await verifyPassword(password, row.password_hash))) {
-    throw new HttpError(401, 'unauthenticated', 'That is not your password', [{ path: 'password', message: 'Not your password' }]);
+    throw unauthenticated('That is not your password', [{ path: 'password', message: 'Not your password' }]);
   }
   await setPin(deps, user.locationId, user.id, pin);
 }
@@ -41,15 +41,13 @@ export async function switchPeople(db: Db, user: SessionUser): Promise<SwitchPer
     .select('id', 'name', 'role');
 }
 
-export type SwitchOutcome = { ok: true; user: SessionUser } | { ok: false; wrongPin: boolean; error: HttpError };
+export type SwitchOutcome = { ok: true; user: SessionUser } | { ok: false; wrongPin: boolean; error: DomainError };
 
 function lockedError(name: string, until: Date, now: Date, loc: { time_zone: string; locale: string }) {
   const minutes = Math.max(1, Math.ceil((until.getTime() - now.getTime()) / 60_000));
   const at = new Intl.DateTimeFormat(loc.locale, { timeStyle: 'short', timeZone: loc.time_zone }).format(until);
   const first = name.trim().split(/\s+/)[0];
-  return new HttpError(
-    429,
-    'rate_limited',
+  return tooMany(
     `Too many wrong PINs for ${first}. Their PIN works again at ${at} (in ${minutes} minute${minutes === 1 ? '' : 's'}); they can sign in with their password meanwhile.`,
     { retryAt: until.toISOString() },
   );
@@ -100,7 +98,7 @@ export async function checkPinSwitch(deps: Deps, user: SessionUser, body: Switch
   return {
     ok: false,
     wrongPin: true,
-    error: new HttpError(401, 'unauthenticated', `That PIN is not right. ${left} more wrong PIN${left === 1 ? '' : 's'} and it locks for ${PIN_LOCK_MINUTES} minutes.`, {
+    error: unauthenticated(`That PIN is not right. ${left} more wrong PIN${left === 1 ? '' : 's'} and it locks for ${PIN_LOCK_MINUTES} minutes.`, {
       triesLeft: left,
     }),
   };

@@ -5,7 +5,7 @@ import { formatCents } from '../../src/domain/money';
 import { groupOrderLines } from '../../src/domain/order-quantity';
 import type { OrderLineView, OrderView } from '../../src/domain/types';
 import { escapeHtml } from '../../src/lib/html';
-import { notFound } from '../errors';
+import { notFound } from '../domain-errors';
 import type { Mailer } from './mail';
 import { loadOrder } from './orders';
 

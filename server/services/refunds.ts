@@ -1,7 +1,7 @@
 // Giving money back and voiding orders that were never fired. Both reach the bar live: a fully
 // refunded order that was still being made leaves the bar.
 import type { SessionUser } from '../../src/domain/types';
-import { HttpError, conflict, notFound } from '../errors';
+import { conflict, invalid, notFound, notSetUp, upstreamFailed } from '../domain-errors';
 import { GatewayRefused, GatewayUnavailable } from '../payments/gateway';
 import { lockingRead } from '../db/dialect';
 import type { Deps } from './deps';
@@ -18,7 +18,7 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
   if (refundable <= 0) throw conflict('This order has been refunded in full already');
   const amount = input.amountCents ?? refundable;
   if (amount > refundable) {
-    throw new HttpError(400, 'validation_failed', 'That is more than is left to refund', [
+    throw invalid('That is more than is left to refund', [
       { path: 'amountCents', message: `At most ${refundable} cents can be refunded` },
     ]);
   }
@@ -27,7 +27,7 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
 
   let providerId: string | null = null;
   if (payment.method === 'card') {
-    if (!deps.payments) throw new HttpError(503, 'unavailable', 'Card payments are not set up here');
+    if (!deps.payments) throw notSetUp('Card payments are not set up here');
     // The key names what is being refunded, so a retried request can't refund twice.
     try {
       ({ providerId } = await deps.payments.refund({
@@ -39,7 +39,7 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
     } catch (err) {
       if (err instanceof GatewayRefused) throw conflict(`The card service refused the refund: ${err.message}`);
       if (err instanceof GatewayUnavailable) {
-        throw new HttpError(502, 'payment_unavailable', 'The card service did not answer; nothing was refunded. Try again.');
+        throw upstreamFailed('The card service did not answer; nothing was refunded. Try again.');
       }
       throw err;
     }

@@ -6,7 +6,7 @@ import type { AllergenList } from '../../src/domain/allergens';
 import { defaultMinFillMl, milliToPercent, type PitcherBody, type PitcherView, type SettingsBody, type SettingsPage, type SettingsView } from '../../src/domain/settings-schemas';
 import type { SessionUser } from '../../src/domain/types';
 import { json } from '../db/rows';
-import { conflict, notFound } from '../errors';
+import { conflict, notFound } from '../domain-errors';
 import type { Deps } from './deps';
 import { appendMenuChangedEvent, runCommand } from './events';
 import { loadMenu } from './menu';

@@ -3,7 +3,7 @@
 import type { Knex } from 'knex';
 import type { SessionUser, ShiftView } from '../../src/domain/types';
 import { openTicketsAt, openTicketsWarning, type OpenTicketsAtClose } from '../../src/domain/shift-close';
-import { conflict, HttpError, notFound } from '../errors';
+import { conflict, DomainError, notFound } from '../domain-errors';
 import { isUniqueViolation } from '../db/dialect';
 import type { Deps } from './deps';
 import { appendShiftEvent, runCommand } from './events';
@@ -70,7 +70,7 @@ export async function openShift(deps: Deps, user: SessionUser, input: ShiftInput
   }
 }
 
-function insertShift(deps: Deps, user: SessionUser, input: ShiftInput, alreadyOpen: () => HttpError) {
+function insertShift(deps: Deps, user: SessionUser, input: ShiftInput, alreadyOpen: () => DomainError) {
   return runCommand(deps, async (trx) => {
     if (await openShiftOf(trx, user.locationId)) throw alreadyOpen();
     const at = deps.clock().toISOString();
@@ -122,7 +122,7 @@ export function closeShift(deps: Deps, user: SessionUser, input: { countedCashCe
     // closing ends the shift for everyone: with tickets still at the bar the lead must say so
     const left = await openTicketsNow(trx, user.locationId, now);
     if (left.openTickets > 0 && !input.confirmOpenTickets) {
-      throw new HttpError(409, 'open_tickets', `${openTicketsWarning(left)} Close anyway?`, left);
+      throw conflict(`${openTicketsWarning(left)} Close anyway?`, left, 'open_tickets');
     }
     const closed = await trx('shifts')
       .where({ id: open.id })

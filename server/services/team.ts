@@ -6,7 +6,7 @@ import type { NewPersonBody, PersonPatchBody, TeamMember, TeamView } from '../..
 import type { SessionUser } from '../../src/domain/types';
 import { hashPassword } from '../auth/passwords';
 import { bool, isUniqueViolation } from '../db/rows';
-import { conflict, notFound } from '../errors';
+import { conflict, notFound } from '../domain-errors';
 import type { Deps } from './deps';
 import { runCommand } from './events';
 import { createLink, mailLink, mailUnavailable, voidLinks } from './invitations';

@@ -1,7 +1,7 @@
 // The rest of a ticket's life at the bar: the allergy read, a lead's rush, and the hand-over.
 import type { SessionUser } from '../../src/domain/types';
 import { json } from '../db/rows';
-import { conflict, notFound } from '../errors';
+import { conflict, notFound } from '../domain-errors';
 import type { Deps } from './deps';
 import { appendEvent, runCommand } from './events';
 import { loadTicket } from './ticket-views';

@@ -3,7 +3,7 @@ import type { Knex } from 'knex';
 import type { BoardSnapshot, SessionUser } from '../../src/domain/types';
 import { needsJug } from '../../src/domain/jug-plan';
 import { RECALL_WINDOW_SECONDS } from '../../src/domain/timing';
-import { conflict, notFound } from '../errors';
+import { conflict, notFound } from '../domain-errors';
 import { alreadyBumped, assertAllergyRead, bumpRows, nextBumpSeq, openDrinks, settleTicket, startRows, ticketEvents, ticketWords } from './bar-rows';
 import { recordCoffeeUse, returnCoffeeUse } from './beans-usage';
 import type { Deps } from './deps';

@@ -2,7 +2,7 @@
 // (orders.business_date), always within one café. Both filters ride on an index.
 import type { Knex } from 'knex';
 import type { ReportPeriod } from '../../../src/domain/reports';
-import { notFound } from '../../errors';
+import { notFound } from '../../domain-errors';
 import { businessDate } from '../orders';
 import { expectedCash } from '../shifts';
 
