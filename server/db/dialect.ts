@@ -2,13 +2,14 @@
 // embedded file, one café) and PostgreSQL (DATABASE_URL, a group of cafés). Services write the
 // same Knex code for both and ask this module where the SQL has to differ.
 import type { Knex } from 'knex';
+import type { Db } from './knex';
 
 export type Dialect = 'sqlite' | 'postgres';
 
 /** A DATABASE_URL names PostgreSQL; anything else is the path of a SQLite file. */
 export const isPostgresUrl = (target: string) => /^postgres(ql)?:\/\//i.test(target);
 
-export function dialectOf(db: Knex | Knex.Transaction): Dialect {
+export function dialectOf(db: Db): Dialect {
   const client = (db as unknown as { client: { config: { client: unknown } } }).client.config.client;
   return client === 'pg' ? 'postgres' : 'sqlite';
 }
@@ -126,7 +127,7 @@ export async function tableNames(db: Knex): Promise<string[]> {
  * UPDATE (rows that merely reference them can still be inserted). SQLite needs nothing: its one
  * connection already runs transactions one after another.
  */
-export function lockingRead<Q extends Knex.QueryBuilder>(db: Knex | Knex.Transaction, query: Q): Q {
+export function lockingRead<Q extends Knex.QueryBuilder>(db: Db, query: Q): Q {
   return (dialectOf(db) === 'postgres' ? query.forNoKeyUpdate() : query) as Q;
 }
 

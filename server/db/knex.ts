@@ -14,6 +14,9 @@ export const migrationConfig: Knex.MigratorConfig = {
 };
 
 /** How long a statement waits for another process's write lock before SQLite answers SQLITE_BUSY (PostgreSQL: lock_timeout). */
+/** What a read or write runs on: the database, or a command's transaction. */
+export type Db = Knex | Knex.Transaction;
+
 export const DEFAULT_BUSY_TIMEOUT_MS = 5000;
 
 export interface DbOptions {

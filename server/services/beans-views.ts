@@ -1,6 +1,5 @@
 // Bean lots as the screens see them: freshness from the café's calendar, stock from the usage
 // rows, the run-out estimate and the last good dial-in shot.
-import type { Knex } from 'knex';
 import {
   DEFAULT_LOW_STOCK_G,
   runsOut,
@@ -15,8 +14,7 @@ import { brewRatioX10 } from '../../src/domain/format';
 import { freshnessOf } from '../../src/domain/freshness';
 import { bool } from '../db/rows';
 import { openShiftOf } from './shifts';
-
-type Db = Knex | Knex.Transaction;
+import type { Db } from '../db/knex';
 
 /** The run-out pace looks back a week of café days; a little more covers a DST change. */
 const PACE_LOOKBACK_MS = 9 * 86_400_000;

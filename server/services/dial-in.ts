@@ -1,6 +1,5 @@
 // The dial-in log: test shots against the location's window, the advice for the next one, and
 // the coffee each shot takes from its lot.
-import type { Knex } from 'knex';
 import type { DialInShotBody } from '../../src/domain/beans-schemas';
 import { adviseShot, doseRange, type DialInShotView, type ShotWindow } from '../../src/domain/dial-in';
 import { localDate } from '../../src/domain/freshness';
@@ -11,8 +10,7 @@ import type { Deps } from './deps';
 import { appendBeansChangedEvent, runCommand } from './events';
 import { loadLocation } from './menu';
 import { loadBeanSettings, loadLotViews, locationLocale, shotsQuery, toShotView } from './beans-views';
-
-type Db = Knex | Knex.Transaction;
+import type { Db } from '../db/knex';
 
 /** The house double: the dose most of the menu's double-shot recipes use. */
 export async function houseDoubleDoseDg(db: Db, locationId: number): Promise<number | null> {

@@ -4,6 +4,7 @@ import type { Knex } from 'knex';
 import type { AnyLiveEvent, MenuEvent, ShiftView, TicketEventType, TicketView } from '../../src/domain/types';
 import { lockingRead } from '../db/dialect';
 import type { Deps } from './deps';
+import type { Db } from '../db/knex';
 
 export interface PendingEvent {
   locationId: number;
@@ -112,7 +113,7 @@ export async function lockCafe(trx: Knex.Transaction, locationId: number): Promi
   await lockingRead(trx, trx('locations').where({ id: locationId })).first('id');
 }
 
-export async function latestSeq(db: Knex | Knex.Transaction, locationId: number): Promise<number> {
+export async function latestSeq(db: Db, locationId: number): Promise<number> {
   const row = await db('events').where({ location_id: locationId }).max<{ seq: number | null }>({ seq: 'seq' }).first();
   return Number(row?.seq ?? 0);
 }

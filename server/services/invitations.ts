@@ -15,8 +15,7 @@ import { conflict, gone, notFound, notSetUp, upstreamFailed } from '../domain-er
 import type { Deps } from './deps';
 import { runCommand } from './events';
 import { linkMail } from './team-mail';
-
-type Db = Knex | Knex.Transaction;
+import type { Db } from '../db/knex';
 
 export const newToken = () => randomBytes(32).toString('base64url');
 export const hashToken = (token: string) => createHash('sha256').update(token, 'utf8').digest('hex');

@@ -6,12 +6,12 @@
 import { randomBytes } from 'node:crypto';
 import { mkdir, unlink, writeFile } from 'node:fs/promises';
 import path from 'node:path';
-import type { Knex } from 'knex';
 import sharp from 'sharp';
 import type { SessionUser } from '../../src/domain/types';
 import { notFound, unsupported } from '../domain-errors';
 import type { Deps } from './deps';
 import { appendMenuChangedEvent, runCommand } from './events';
+import type { Db } from '../db/knex';
 
 export const PHOTO_MAX_BYTES = 5 * 1024 * 1024;
 export const PHOTO_MAX_PX = 800;
@@ -48,7 +48,7 @@ export async function toMenuPhoto(bytes: Buffer): Promise<Buffer> {
   }
 }
 
-async function itemInLocation(db: Knex | Knex.Transaction, locationId: number, itemId: number) {
+async function itemInLocation(db: Db, locationId: number, itemId: number) {
   const item = await db('menu_items')
     .join('menu_categories', 'menu_categories.id', 'menu_items.category_id')
     .where({ 'menu_items.id': itemId, 'menu_categories.location_id': locationId })

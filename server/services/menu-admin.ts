@@ -1,5 +1,4 @@
 // The back-office menu editor's read side: the whole menu, retired things included.
-import type { Knex } from 'knex';
 import { allergensOf, type AllergenList } from '../../src/domain/allergens';
 import { allergensFrom } from '../../src/domain/ingredients';
 import type { AdminMenuView } from '../../src/domain/menu-admin-view';
@@ -7,8 +6,7 @@ import type { Station, Texture } from '../../src/domain/types';
 import { bool, json } from '../db/rows';
 import { notFound } from '../domain-errors';
 import { sizeView } from './menu';
-
-type Db = Knex | Knex.Transaction;
+import type { Db } from '../db/knex';
 
 export async function loadAdminMenu(db: Db, locationId: number): Promise<AdminMenuView> {
   const location = await db('locations').where({ id: locationId }).first();

@@ -25,8 +25,8 @@ import { invalid, unsupported } from '../domain-errors';
 import type { Deps } from './deps';
 import { appendMenuChangedEvent, runCommand } from './events';
 import { loadMenu } from './menu';
+import type { Db } from '../db/knex';
 
-type Db = Knex | Knex.Transaction;
 const lower = (s: string) => s.toLowerCase();
 
 /** An uploaded file's bytes as text; spreadsheets save other encodings too, so say which to pick. */

@@ -1,13 +1,13 @@
 // The menu as the Counter and the pricing see it.
-import type { Knex } from 'knex';
 import type { JugRules, Pitcher } from '../../src/domain/jug-plan';
 import { allergensFrom } from '../../src/domain/ingredients';
 import type { LocationView, MenuView, Texture } from '../../src/domain/types';
 import { bool, json } from '../db/rows';
 import { notFound } from '../domain-errors';
 import { photoUrlOf } from './item-photos';
+import type { Db } from '../db/knex';
 
-export async function loadLocation(db: Knex | Knex.Transaction, locationId: number): Promise<LocationView> {
+export async function loadLocation(db: Db, locationId: number): Promise<LocationView> {
   const l = await db('locations').where({ id: locationId }).first();
   if (!l) throw notFound('Location');
   return {
@@ -29,13 +29,13 @@ export async function loadLocation(db: Knex | Knex.Transaction, locationId: numb
   };
 }
 
-export async function loadPitchers(db: Knex | Knex.Transaction, locationId: number): Promise<Pitcher[]> {
+export async function loadPitchers(db: Db, locationId: number): Promise<Pitcher[]> {
   const rows = await db('pitchers').where({ location_id: locationId }).orderBy(['fill_line_ml', 'capacity_ml']);
   return rows.map((p) => ({ capacityMl: p.capacity_ml, fillLineMl: p.fill_line_ml, minFillMl: p.min_fill_ml }));
 }
 
 /** The café's rules for jugs, as the Bar plans with them and a started jug is checked against. */
-export async function loadJugRules(db: Knex | Knex.Transaction, locationId: number): Promise<JugRules> {
+export async function loadJugRules(db: Db, locationId: number): Promise<JugRules> {
   const l = await db('locations').where({ id: locationId }).first();
   if (!l) throw notFound('Location');
   return {
@@ -60,7 +60,7 @@ export const sizeView = (s: Record<string, any>) => ({
   cup: (s.cup as string | null) ?? null,
 });
 
-export async function loadMenu(db: Knex | Knex.Transaction, locationId: number): Promise<MenuView> {
+export async function loadMenu(db: Db, locationId: number): Promise<MenuView> {
   const location = await loadLocation(db, locationId);
   const categories = await db('menu_categories')
     .where({ location_id: locationId })

@@ -1,7 +1,6 @@
 // Taking an order: price it on the server, store it with its drinks, payment and event in one
 // transaction, and make a replay of the same client order id return the same order. Cash is
 // fired to the bar at once; a card order waits, unfired, until its payment has succeeded.
-import type { Knex } from 'knex';
 import type { CreateOrderBody } from '../../src/domain/schemas';
 import type { OrderView, SessionUser } from '../../src/domain/types';
 import { containing, containsSql, dialectOf, lockingRead } from '../db/dialect';
@@ -16,8 +15,7 @@ import { appendEvent, lockCafe, runCommand } from './events';
 import { priceOrder, type PricedOrder } from './order-pricing';
 import { quoteForNewOrder } from './quotes';
 import { loadTicket } from './ticket-views';
-
-type Db = Knex | Knex.Transaction;
+import type { Db } from '../db/knex';
 
 /** The café's own calendar date; order numbers start again at 1 each day. */
 // Making an Intl.DateTimeFormat costs ~30× a format() with it, and reports call this per row.

@@ -2,15 +2,13 @@
 // Four to six digits are few, so the guard is the count of tries: each try is counted before the
 // PIN is checked (parallel tries can't slip past the limit), and the PIN_TRIES-th wrong one
 // locks that person's PIN for PIN_LOCK_MINUTES. The PIN itself is never logged or stored in clear.
-import type { Knex } from 'knex';
 import { PIN_LOCK_MINUTES, PIN_TRIES, type SwitchBody, type SwitchPerson } from '../../src/domain/team-schemas';
 import type { SessionUser } from '../../src/domain/types';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import { conflict, DomainError, notFound, tooMany, unauthenticated } from '../domain-errors';
 import { lockingRead } from '../db/dialect';
 import type { Deps } from './deps';
-
-type Db = Knex | Knex.Transaction;
+import type { Db } from '../db/knex';
 
 /** Wrong tries older than this are forgotten, so a slip now and then never adds up to a lock. */
 const FAILURE_MEMORY_MS = 15 * 60_000;

@@ -1,16 +1,14 @@
 // The Counter's quoted wait, from the bar as it is: the drinks on it now and its pace over the
 // last 30 minutes (busyPace: the barista-time the bar was busy over the drinks it bumped).
-import type { Knex } from 'knex';
 import { busyPace, FORGOTTEN_AFTER_MS, type BarDrink, type BarPace } from '../../src/domain/make-times';
 import { quoteWaitSeconds } from '../../src/domain/quote';
 import type { CounterWaitNow } from '../../src/domain/wait-now';
 import type { Deps } from './deps';
 import { loadLocation } from './menu';
+import type { Db } from '../db/knex';
 
 /** How far back the pace looks. */
 export const PACE_WINDOW_MS = 30 * 60_000;
-
-type Db = Knex | Knex.Transaction;
 
 export interface BarNow {
   /** Bar drinks queued or being made. */

@@ -10,8 +10,7 @@ import { conflict, notFound } from '../domain-errors';
 import type { Deps } from './deps';
 import { appendMenuChangedEvent, runCommand } from './events';
 import { loadMenu } from './menu';
-
-type Db = Knex | Knex.Transaction;
+import type { Db } from '../db/knex';
 
 const COLUMNS = {
   name: 'name',

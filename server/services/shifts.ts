@@ -1,14 +1,13 @@
 // Shifts: the lead opens one with a cash float, the baristas on bar and the wait target, changes
 // the bar count as people move, and closes it with a cash count against what the till expects.
-import type { Knex } from 'knex';
 import type { SessionUser, ShiftView } from '../../src/domain/types';
 import { openTicketsAt, openTicketsWarning, type OpenTicketsAtClose } from '../../src/domain/shift-close';
 import { conflict, DomainError, notFound } from '../domain-errors';
 import { isUniqueViolation } from '../db/dialect';
 import type { Deps } from './deps';
 import { appendShiftEvent, runCommand } from './events';
+import type { Db } from '../db/knex';
 
-type Db = Knex | Knex.Transaction;
 type ShiftInput = { openingFloatCents: number; baristasOnBar: number; waitTargetSeconds: number };
 
 export async function loadShift(db: Db, shiftId: number): Promise<ShiftView> {

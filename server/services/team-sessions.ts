@@ -1,10 +1,8 @@
 // Signing a person out everywhere: their session rows go, and their live screens are told
 // (deps.sessions 'signed-out' closes the sockets opened with each session, see the socket server).
-import type { Knex } from 'knex';
 import { dialectOf, jsonNumberSql } from '../db/dialect';
 import type { Deps } from './deps';
-
-type Db = Knex | Knex.Transaction;
+import type { Db } from '../db/knex';
 
 /** The ids of the sessions signed in as this person (express-session rows, stored as JSON text). */
 export async function sessionIdsOf(db: Db, userId: number): Promise<string[]> {

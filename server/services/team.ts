@@ -11,8 +11,7 @@ import type { Deps } from './deps';
 import { runCommand } from './events';
 import { createLink, mailLink, mailUnavailable, voidLinks } from './invitations';
 import { signOutEverywhere } from './team-sessions';
-
-type Db = Knex | Knex.Transaction;
+import type { Db } from '../db/knex';
 
 function toMember(u: Record<string, any>, link: Record<string, any> | undefined, now: Date): TeamMember {
   return {

@@ -1,9 +1,7 @@
 // Reading tickets (orders with their bar drinks) into the shape the screens use.
-import type { Knex } from 'knex';
 import type { DrinkView, JugRef, TicketView } from '../../src/domain/types';
 import { bool, json } from '../db/rows';
-
-type Db = Knex | Knex.Transaction;
+import type { Db } from '../db/knex';
 
 function toDrink(r: Record<string, any>): DrinkView {
   return {
