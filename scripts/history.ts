@@ -1,6 +1,7 @@
-// npm run db:history -- --days 365 [--file <path>] [--seed <n>] [--append]
+// npm run db:history -- --days 365 [--file <path or postgres:// URL>] [--seed <n>] [--append]
 // An invented year of service for Pulse, reports and benchmarks, ending yesterday (café-local).
-// The database is the server's (DATABASE_URL, else DATABASE_FILE) unless --file names a SQLite file.
+// The database is the server's (DATABASE_URL, else DATABASE_FILE) unless --file names another
+// (a SQLite file, or a postgres:// URL).
 import { mkdirSync } from 'node:fs';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -11,7 +12,7 @@ import { DEFAULT_SEED, generateHistory, HistoryRefused, type HistorySummary } fr
 
 export { generateHistory, HistoryRefused };
 
-const USAGE = 'Usage: npm run db:history -- --days <n> [--file <path>] [--seed <n>] [--append]';
+const USAGE = 'Usage: npm run db:history -- --days <n> [--file <path or postgres:// URL>] [--seed <n>] [--append]';
 
 class UsageError extends Error {}
 
@@ -54,7 +55,8 @@ export async function main(argv: string[], env: NodeJS.ProcessEnv = process.env)
     const days = wholeNumber('days', values.days, 365, 1, 3660);
     const seed = wholeNumber('seed', values.seed, DEFAULT_SEED, 0, 2 ** 32 - 1);
     let file: string;
-    if (values.file) {
+    if (values.file && isPostgresUrl(values.file)) file = values.file;
+    else if (values.file) {
       file = path.resolve(values.file);
       mkdirSync(path.dirname(file), { recursive: true });
     } else file = databaseTarget(loadConfig(env)); // exactly the database the server opens

@@ -3,7 +3,8 @@
 import type { Knex } from 'knex';
 import { hashPassword, verifyPassword } from '../server/auth/passwords';
 import { adviseShot, doseRange, DEFAULT_SHOT_TARGETS } from '../src/domain/dial-in';
-import { addDays, localDate } from '../src/domain/freshness';
+import { addDays } from '../src/domain/freshness';
+import { businessDate } from '../src/domain/business-date';
 import { defaultMinFillMl } from '../src/domain/settings-schemas';
 import { inOrder, type Ingredient } from '../src/domain/ingredients';
 
@@ -291,7 +292,7 @@ const DIAL_IN_SHOTS = [
 
 async function seedBeans(trx: Knex.Transaction, locationId: number, now: Date) {
   const { time_zone: timeZone } = await trx('locations').where({ id: locationId }).first('time_zone');
-  const today = localDate(now, timeZone);
+  const today = businessDate(now, timeZone);
   const at = now.toISOString();
   const lotIds: number[] = [];
   for (const lot of BEAN_LOTS) {

@@ -3,7 +3,7 @@
 // grinder tells every open screen (menu.changed), so the Bar's strip follows.
 import type { Knex } from 'knex';
 import type { BeanLotBody, BeanSettingsBody } from '../../src/domain/beans-schemas';
-import { localDate } from '../../src/domain/freshness';
+import { businessDate } from '../../src/domain/business-date';
 import type { SessionUser } from '../../src/domain/types';
 import type { BeansView } from '../../src/lib/beans-api';
 import { conflict, fieldsNeedFixing, notFound } from '../domain-errors';
@@ -16,7 +16,7 @@ export async function beansView(deps: Deps, locationId: number): Promise<BeansVi
   const now = deps.clock();
   const location = await loadLocation(deps.db, locationId);
   return {
-    today: localDate(now, location.timeZone),
+    today: businessDate(now, location.timeZone),
     now: now.toISOString(),
     timeZone: location.timeZone,
     locale: await locationLocale(deps.db, locationId),
@@ -33,7 +33,7 @@ async function lotView(trx: Knex.Transaction, locationId: number, timeZone: stri
 /** Dates on a bag can't be in the café's future. */
 async function checkDates(trx: Knex.Transaction, locationId: number, now: Date, body: BeanLotBody) {
   const { timeZone } = await loadLocation(trx, locationId);
-  const today = localDate(now, timeZone);
+  const today = businessDate(now, timeZone);
   const details = (['roastDate', 'receivedDate'] as const).filter((f) => body[f] > today).map((path) => ({ path, message: `After today (${today})` }));
   if (details.length) throw fieldsNeedFixing(details);
   return timeZone;

@@ -15,7 +15,7 @@ import { notSetUp, upstreamFailed } from '../domain-errors';
 import { GatewayRefused, GatewayUnavailable, type ChargeState } from '../payments/gateway';
 import { applyChargeState, settleOpenAttempts } from './card-settle';
 import type { Deps } from './deps';
-import { businessDate } from './orders';
+import { businessDate } from '../../src/domain/business-date';
 import { dayBounds } from './reports/local-hours';
 import { loadReportLocation } from './reports/scope';
 

@@ -13,7 +13,7 @@ import { CardDeclined, GatewayRefused, type ChargeState } from '../payments/gate
 import { applyChargeState, markAttempt, settleOpenAttempts } from './card-settle';
 import type { Deps } from './deps';
 import { loadLocation } from './menu';
-import { loadOrder } from './orders';
+import { loadOrder } from './order-views';
 
 async function startAttempt(deps: Deps, user: SessionUser, orderId: number) {
   return deps.db.transaction(async (trx) => {

@@ -11,7 +11,7 @@ import { GatewayRefused, GatewayUnavailable, type ChargeState, type PaymentGatew
 import { lockingRead } from '../db/dialect';
 import type { Deps } from './deps';
 import { appendEvent, runCommand } from './events';
-import { fireOrder } from './fire-order';
+import { fireOrder } from './settle';
 import { loadTicket } from './ticket-views';
 
 /** Longer than the SDK's three tries with their timeouts: a "processing" attempt this old was cut off. */

@@ -2,7 +2,7 @@
 // the coffee each shot takes from its lot.
 import type { DialInShotBody } from '../../src/domain/beans-schemas';
 import { adviseShot, doseRange, type DialInShotView, type ShotWindow } from '../../src/domain/dial-in';
-import { localDate } from '../../src/domain/freshness';
+import { businessDate } from '../../src/domain/business-date';
 import type { SessionUser } from '../../src/domain/types';
 import type { DialInView, LoggedShot } from '../../src/lib/beans-api';
 import { conflict, notFound } from '../domain-errors';
@@ -41,7 +41,7 @@ export async function dialInView(deps: Deps, locationId: number): Promise<DialIn
   const { timeZone } = await loadLocation(deps.db, locationId);
   const lots = await loadLotViews(deps.db, { locationId, timeZone, now, includeRetired: false });
   return {
-    today: localDate(now, timeZone),
+    today: businessDate(now, timeZone),
     now: now.toISOString(),
     timeZone,
     locale: await locationLocale(deps.db, locationId),

@@ -6,9 +6,10 @@ import { expandByQuantity } from '../../src/domain/order-quantity';
 import { can } from '../../src/domain/roles';
 import type { CreateOrderBody } from '../../src/domain/schemas';
 import type { MenuView, SessionUser } from '../../src/domain/types';
-import { conflict, fieldsNeedFixing, forbidden, invalid } from '../domain-errors';
+import { conflict, fieldsNeedFixing, forbidden } from '../domain-errors';
 import type { Deps } from './deps';
 import { loadMenu } from './menu';
+import { requireEnoughCash } from './settle';
 
 export interface PricedOrder {
   menu: MenuView;
@@ -46,10 +47,6 @@ export async function priceOrder(deps: Deps, user: SessionUser, body: CreateOrde
   if (body.payment.method === 'card' && totals.totalCents < 50) {
     throw fieldNeedsFixing('payment.method', 'Card payments start at 50 cents; take this one as cash');
   }
-  if (body.payment.method === 'cash' && body.payment.tenderedCents < totals.totalCents) {
-    throw invalid('The cash tendered is less than the total', [
-      { path: 'payment.tenderedCents', message: `At least ${totals.totalCents} cents are due` },
-    ]);
-  }
+  if (body.payment.method === 'cash') requireEnoughCash(totals.totalCents, body.payment.tenderedCents);
   return { menu, lines, totals };
 }

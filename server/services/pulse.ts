@@ -14,7 +14,7 @@ import { staffingSentence } from '../../src/domain/wait-now';
 import type { Deps } from './deps';
 import { pulseBeanAlerts } from './beans-alerts';
 import { loadLocation } from './menu';
-import { businessDate } from './orders';
+import { businessDate } from '../../src/domain/business-date';
 import { barNow, PACE_WINDOW_MS } from './quotes';
 import { expectedCash, openShiftOf } from './shifts';
 

@@ -7,7 +7,7 @@ import type { OrderLineView, OrderView } from '../../src/domain/types';
 import { escapeHtml } from '../../src/lib/html';
 import { notFound } from '../domain-errors';
 import type { Mailer } from './mail';
-import { loadOrder } from './orders';
+import { loadOrder } from './order-views';
 
 export interface ReceiptLocation {
   name: string;

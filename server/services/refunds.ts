@@ -7,7 +7,7 @@ import { lockingRead } from '../db/dialect';
 import type { Deps } from './deps';
 import { releaseStaleAttempts, settleOpenAttempts } from './card-settle';
 import { appendEvent, runCommand } from './events';
-import { findOrderInLocation, loadOrder } from './orders';
+import { findOrderInLocation, loadOrder } from './order-views';
 import { loadTicket } from './ticket-views';
 
 export async function refundOrder(deps: Deps, user: SessionUser, orderId: number, input: { amountCents?: number; reason: string }) {

@@ -11,7 +11,7 @@ import { reportsServerApi } from './reports-api';
 import { settingsServerApi } from './settings-api';
 import { teamServerApi } from './team-api';
 import { loadMenu } from '../services/menu';
-import { findOrderInLocation, listOrders, loadOrder } from '../services/orders';
+import { findOrderInLocation, listOrders, loadOrder } from '../services/order-views';
 import { pulse } from '../services/pulse';
 import { waitNowForCounter } from '../services/quotes';
 import { boardSnapshot } from '../services/tickets';

@@ -1,7 +1,8 @@
 // A bean lot's stock: what is left, when it will run out at the pace it is used, and when to warn.
 // Weights in tenths of a gram, as recipe doses are.
 import type { DialInShotView } from './dial-in';
-import { addDays, daysBetween, localDate, type FreshnessState } from './freshness';
+import { addDays, daysBetween, type FreshnessState } from './freshness';
+import { businessDate } from './business-date';
 
 export const HOPPERS = ['espresso', 'decaf', 'shelf'] as const;
 export type Hopper = (typeof HOPPERS)[number];
@@ -45,8 +46,8 @@ export function runsOut({ remainingDg, uses, now, timeZone, shiftStart }: RunsOu
   const nowMs = now.getTime();
   const past = uses.filter((u) => Date.parse(u.at) <= nowMs);
   if (past.length === 0) return { basis: 'none' };
-  const today = localDate(now, timeZone);
-  const dayOf = (u: UsePoint) => localDate(new Date(u.at), timeZone);
+  const today = businessDate(now, timeZone);
+  const dayOf = (u: UsePoint) => businessDate(new Date(u.at), timeZone);
   const firstDay = past.map(dayOf).sort()[0];
 
   // full days before today, back to the lot's first day of use, at most a week

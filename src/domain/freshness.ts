@@ -2,6 +2,7 @@
 // is a date on the roaster's bag, not an instant, so "days since roast" is the number of midnights
 // the café has passed since then — 24-hour blocks would be off by one across a DST change or at
 // the wrong hour of the day.
+import { businessDate } from './business-date';
 
 /** The freshness window, in days since roast. Editable per lot. */
 export interface FreshnessWindow {
@@ -19,21 +20,6 @@ export type FreshnessState = (typeof FRESHNESS_STATES)[number];
 
 export const FRESHNESS_LABEL: Record<FreshnessState, string> = { resting: 'Resting', best: 'Best', fading: 'Fading' };
 
-/** The calendar date (YYYY-MM-DD) an instant falls on in a time zone. */
-// building a formatter costs far more than using one (a lot list asks for every lot's date)
-const formatters = new Map<string, Intl.DateTimeFormat>();
-const formatterFor = (timeZone: string) => {
-  let f = formatters.get(timeZone);
-  if (!f) formatters.set(timeZone, (f = new Intl.DateTimeFormat('en-US', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' })));
-  return f;
-};
-
-export function localDate(at: Date, timeZone: string): string {
-  const parts = formatterFor(timeZone).formatToParts(at);
-  const part = (type: string) => parts.find((p) => p.type === type)!.value;
-  return `${part('year')}-${part('month')}-${part('day')}`;
-}
-
 const dayNumber = (date: string) => {
   const [y, m, d] = date.split('-').map(Number);
   return Date.UTC(y, m - 1, d) / 86_400_000;
@@ -49,7 +35,7 @@ export function addDays(date: string, days: number): string {
 }
 
 export function daysSinceRoast(roastDate: string, now: Date, timeZone: string): number {
-  return daysBetween(roastDate, localDate(now, timeZone));
+  return daysBetween(roastDate, businessDate(now, timeZone));
 }
 
 /** Resting under `restDays`, best from `restDays` to `bestUntilDays` (both included), fading after. */

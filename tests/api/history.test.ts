@@ -8,7 +8,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Knex } from 'knex';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { dialectOf, isPostgresUrl, rawRows, secondsBetweenSql } from '../../server/db/dialect';
+import { dialectOf, rawRows, secondsBetweenSql } from '../../server/db/dialect';
 import { createDb } from '../../server/db/knex';
 import { createEmptyDatabase } from '../support/test-database';
 import { generateHistory, HistoryRefused } from '../../scripts/history';
@@ -238,13 +238,10 @@ describe('a second run', () => {
 
   it('refuses a database that already has history (exit code 2), unless told to append', async () => {
     const before = (await one<{ n: number }>('SELECT COUNT(*) AS n FROM orders')).n;
-    // the command as typed: --file for a SQLite file; DATABASE_URL names a PostgreSQL database
-    const { DATABASE_URL: _url, ...env } = process.env;
-    const onPostgres = isPostgresUrl(fileB);
-    const cli = spawnSync(process.execPath, ['--import', 'tsx', 'scripts/history.ts', '--days', '3', ...(onPostgres ? [] : ['--file', fileB])], {
+    // the command as typed; --file names a SQLite file or a postgres:// URL
+    const cli = spawnSync(process.execPath, ['--import', 'tsx', 'scripts/history.ts', '--days', '3', '--file', fileB], {
       cwd: fileURLToPath(new URL('../..', import.meta.url)),
       encoding: 'utf8',
-      env: onPostgres ? { ...env, DATABASE_URL: fileB } : env,
     });
     expect(cli.status).toBe(2);
     expect(cli.stderr).toMatch(/already has \d+ orders from before today.*--append/s);

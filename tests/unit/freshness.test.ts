@@ -13,25 +13,26 @@
 // The freshness window itself (resting under 5 days, best to 30, fading after) is common practice
 // (check-values.md: "beans at their best about 5–30 days after roasting").
 import { describe, expect, it } from 'vitest';
-import { addDays, daysBetween, daysSinceRoast, DEFAULT_FRESHNESS, freshnessOf, freshnessState, localDate } from '../../src/domain/freshness';
+import { addDays, daysBetween, daysSinceRoast, DEFAULT_FRESHNESS, freshnessOf, freshnessState } from '../../src/domain/freshness';
+import { businessDate } from '../../src/domain/business-date';
 
 const at = (iso: string) => new Date(iso);
 
-describe('localDate: the calendar date of an instant in a zone', () => {
+describe('businessDate: the calendar date of an instant in a zone', () => {
   it('Auckland is already on the next day when UTC is not (NZDT, UTC+13)', () => {
     // 2026-03-02T11:30Z + 13 h = 2026-03-03 00:30 local
-    expect(localDate(at('2026-03-02T11:30:00Z'), 'Pacific/Auckland')).toBe('2026-03-03');
+    expect(businessDate(at('2026-03-02T11:30:00Z'), 'Pacific/Auckland')).toBe('2026-03-03');
     // one minute before local midnight: 10:59Z + 13 h = 23:59 on the 2nd
-    expect(localDate(at('2026-03-02T10:59:00Z'), 'Pacific/Auckland')).toBe('2026-03-02');
-    expect(localDate(at('2026-03-02T11:30:00Z'), 'UTC')).toBe('2026-03-02');
+    expect(businessDate(at('2026-03-02T10:59:00Z'), 'Pacific/Auckland')).toBe('2026-03-02');
+    expect(businessDate(at('2026-03-02T11:30:00Z'), 'UTC')).toBe('2026-03-02');
   });
   it('London on BST is an hour ahead of UTC around midnight', () => {
     // after the 29 March 2026 change: 23:30Z is 00:30 BST on the 30th
-    expect(localDate(at('2026-03-29T23:30:00Z'), 'Europe/London')).toBe('2026-03-30');
+    expect(businessDate(at('2026-03-29T23:30:00Z'), 'Europe/London')).toBe('2026-03-30');
     // before the 25 October 2026 change (01:00Z): 2026-10-24T23:30Z is 00:30 BST on the 25th
-    expect(localDate(at('2026-10-24T23:30:00Z'), 'Europe/London')).toBe('2026-10-25');
+    expect(businessDate(at('2026-10-24T23:30:00Z'), 'Europe/London')).toBe('2026-10-25');
     // after it, on GMT: 23:30Z is 23:30 on the same day
-    expect(localDate(at('2026-10-25T23:30:00Z'), 'Europe/London')).toBe('2026-10-25');
+    expect(businessDate(at('2026-10-25T23:30:00Z'), 'Europe/London')).toBe('2026-10-25');
   });
 });
 

@@ -14,7 +14,7 @@ import { dialectOf, lockReportDays, rawRows } from '../../db/dialect';
 import { json } from '../../db/rows';
 import type { HourRow, OverTargetTicket, ReportView } from '../../../src/domain/reports';
 import { median, summarizeWaits } from '../../../src/domain/stats';
-import { businessDate } from '../orders';
+import { businessDate } from '../../../src/domain/business-date';
 import { localHourSql } from './local-hours';
 import { moneyView, PAID, type ReportLocation } from './scope';
 import { HAS_WAIT, n, waitSeconds } from './sql';

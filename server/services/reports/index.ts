@@ -2,7 +2,7 @@
 // their CSV exports and the shift report mail. The parts live in ./reports/.
 import type { Knex } from 'knex';
 import type { ReportShiftsView } from '../../../src/domain/reports';
-import { businessDate } from '../orders';
+import { businessDate } from '../../../src/domain/business-date';
 import { loadReportLocation } from './scope';
 
 export { reportCsv, ticketsCsv } from './csv';

@@ -3,7 +3,7 @@
 import type { Knex } from 'knex';
 import type { ReportPeriod } from '../../../src/domain/reports';
 import { notFound } from '../../domain-errors';
-import { businessDate } from '../orders';
+import { businessDate } from '../../../src/domain/business-date';
 import { expectedCash } from '../shifts';
 
 export interface ReportLocation {
