@@ -1,4 +1,4 @@
-// A paid order goes to the bar; an order of counter items only is handed over at the till.
+// A paid order goes to the bar; an order of counter items only is collected at the till.
 import type { Knex } from 'knex';
 
 export async function fireOrder(trx: Knex.Transaction, orderId: number, at: string, fields: Record<string, unknown> = {}) {

@@ -114,7 +114,7 @@ async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody,
       .where({ location_id: user.locationId, business_date: day })
       .max<{ n: number | null }>({ n: 'number' })
       .first();
-    // An order of counter items only is handed over at the till once paid.
+    // An order of counter items only is collected at the till once paid.
     const firedStatus = barDrinks > 0 ? 'open' : 'collected';
     const [{ id: orderId }] = await trx('orders')
       .insert({

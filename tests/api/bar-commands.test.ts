@@ -86,7 +86,7 @@ describe('GET /api/tickets', () => {
 
     const ticket = res.body.tickets.find((t: TicketView) => t.id === id);
     expect(ticket).toMatchObject({ customerName: 'Anouk Pemberton', status: 'open', readyAt: null });
-    // Bar drinks only: the croissant is handed over at the counter.
+    // Bar drinks only: the croissant is collected at the counter.
     expect(ticket.drinks.map((d: { itemName: string }) => d.itemName)).toEqual(['Latte', 'Cappuccino', 'Espresso']);
     expect(ticket.drinks[0]).toMatchObject({ milk: { id: ids.milk('Oat'), name: 'Oat', code: 'OA' }, shots: 2, status: 'queued', startedAt: null, doneAt: null });
     expect(ticket.drinks[1]).toMatchObject({ milk: { name: 'Whole', code: 'WH' }, sizeName: 'Regular', status: 'queued' });

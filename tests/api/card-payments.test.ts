@@ -90,7 +90,7 @@ describe('a card that is charged', () => {
       ['Butter croissant', 'counter'],
     ]);
 
-    // The bar sees the latte; the croissant is handed over at the counter.
+    // The bar sees the latte; the croissant is collected at the counter.
     const ticket = await openTicket(order.id);
     expect(ticket).toBeDefined();
     expect(ticket!.drinks.map((d) => d.itemName)).toEqual(['Latte']);

@@ -193,7 +193,7 @@ describe('POST /api/orders/:id/refund', () => {
   });
 
   it('an order that was already collected stays collected when refunded in full', async () => {
-    // Counter items only: handed over (collected) as soon as it is paid.
+    // Counter items only: collected as soon as it is paid.
     const order = await paidCashOrder('Philippa Crane', [{ menuItemId: ids.item('Butter croissant') }]);
     expect(order.status).toBe('collected');
     const res = await lead.post(`/api/orders/${order.id}/refund`).send({ reason: 'Dropped on the floor' });

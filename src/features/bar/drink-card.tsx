@@ -59,7 +59,7 @@ export function DrinkCard({ card, unit, nowMs, targetSeconds, keyNumber, jugLabe
       aria-label={`Ticket ${card.ticketNumber}, ${card.customerName}: ${card.itemName}${allergy ? ', allergy' : ''}`}
       data-focused={focused || undefined}
       className={cn(
-        // a long name or note wraps inside the card (inherited), never cut: a cut name is a drink handed to the wrong person
+        // a long name or note wraps inside the card (inherited), never cut: a cut name is a drink collected by the wrong person
         'rounded-xl border-2 bg-roast-750 p-2 text-crema-100 [overflow-wrap:anywhere]',
         card.status === 'making' ? 'border-crema-100' : 'border-transparent',
         late && 'border-dashed border-copper-300',
