@@ -1,5 +1,5 @@
 import { allergyClash } from '../../domain/allergens';
-import { needsAllergyAck, hasAllergy, type DrinkCard as Card } from '../../domain/lanes';
+import { needsAllergyAck, hasAllergy, type LaneDrink } from '../../domain/lanes';
 import { ticketAgeSeconds } from '../../domain/tickets';
 import { cn } from '../../lib/cn';
 import { Button } from '../../components/ui/button';
@@ -11,7 +11,7 @@ import { PourLine, ageLabel } from './pour-line';
 export const ALLERGY_CAUTION = 'Check the recipe and ingredients; clean wand, jug and cup; follow your local allergen rules.';
 
 interface Props {
-  card: Card;
+  card: LaneDrink;
   unit: VolumeUnit;
   nowMs: number;
   targetSeconds: number;
