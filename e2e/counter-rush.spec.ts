@@ -147,7 +147,7 @@ test('thirty-one of one drink are one line with a quantity; the Bar still gets o
   const number = Number(/Sent #(\d+)/.exec((await sent.textContent()) ?? '')![1]);
 
   const api = await apiAs(playwright, baseURL, 'cashier');
-  const { tickets } = (await (await api.get('/api/tickets?status=open')).json()) as { tickets: { number: number; customerName: string; drinks: unknown[] }[] };
+  const { tickets } = (await (await api.get('/api/tickets?view=open')).json()) as { tickets: { number: number; customerName: string; drinks: unknown[] }[] };
   expect(tickets.find((t) => t.customerName === 'Office Run' && t.number === number)!.drinks).toHaveLength(3);
   await api.dispose();
   expect(errorsOf(page)).toEqual([]);

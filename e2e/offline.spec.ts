@@ -87,7 +87,7 @@ test.describe('Counter with the server gone', () => {
     const api = await apiRequest.newContext({ baseURL: own.baseURL });
     const signedIn = await api.post('/api/session', { data: { username: 'cashier', password: DEMO_PASSWORD } });
     expect(signedIn.ok()).toBe(true);
-    const res = await api.get('/api/tickets?status=open');
+    const res = await api.get('/api/tickets?view=open');
     expect(res.ok()).toBe(true);
     const { tickets } = (await res.json()) as { tickets: { customerName: string }[] };
     expect(tickets.filter((t) => t.customerName === 'Wren Ashby')).toHaveLength(1);

@@ -24,9 +24,9 @@ export function ticketRoutes(deps: Deps): ApiRoute[] {
       path: '/tickets',
       capability: 'viewQueue',
       handler: async (req, res) => {
-        const { status } = parse(ticketsQuery, req.query, 'query');
+        const { view } = parse(ticketsQuery, req.query, 'query');
         const board = await boardSnapshot(deps, userOf(req).locationId);
-        res.json(status === 'open' ? { ...board, tickets: board.tickets.filter((t) => openTickets(t, 0)) } : board);
+        res.json(view === 'open' ? { ...board, tickets: board.tickets.filter((t) => openTickets(t, 0)) } : board);
       },
     },
     {

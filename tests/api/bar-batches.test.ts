@@ -506,7 +506,7 @@ describe('POST /api/tickets/:id/collect', () => {
     const after = await cashier.get('/api/pickup');
     expect(after.status).toBe(200);
     expect(after.body.tickets.map((t: PickupTicket) => t.id)).not.toContain(order);
-    expect((await barista.get('/api/tickets?status=board')).body.tickets.map((t: TicketView) => t.id)).not.toContain(order);
+    expect((await barista.get('/api/tickets?view=board')).body.tickets.map((t: TicketView) => t.id)).not.toContain(order);
 
     tick();
     await expectRefused(cashier, `/api/tickets/${order}/collect`, undefined, 409, 'conflict', [cappuccino]);

@@ -77,7 +77,7 @@ describe('GET /api/tickets', () => {
       { menuItemId: ids.item('Espresso'), shots: 3 },
       { menuItemId: ids.item('Butter croissant') },
     ]);
-    const res = await barista.get('/api/tickets?status=open');
+    const res = await barista.get('/api/tickets?view=open');
     expect(res.status).toBe(200);
     expect(Object.keys(res.body).sort()).toEqual(['location', 'now', 'seq', 'tickets']);
     expect(res.body.seq).toBe(await maxEventId());
@@ -159,8 +159,8 @@ describe('bumping a drink', () => {
     expect(ticket).toMatchObject({ status: 'ready', readyAt: nowIso() });
     expect(await orderRow(id)).toMatchObject({ status: 'ready', ready_at: nowIso() });
 
-    expect(ticketIds((await barista.get('/api/tickets?status=open')).body)).not.toContain(id);
-    expect(ticketIds((await barista.get('/api/tickets?status=board')).body)).toContain(id);
+    expect(ticketIds((await barista.get('/api/tickets?view=open')).body)).not.toContain(id);
+    expect(ticketIds((await barista.get('/api/tickets?view=board')).body)).toContain(id);
 
     const pickup = await cashier.get('/api/pickup');
     expect(pickup.status).toBe(200);
@@ -210,7 +210,7 @@ describe('bumping a ticket and recalling', () => {
       [c.id, 'done', cDoneAt],
     ]);
     expect(await orderRow(id)).toMatchObject({ status: 'open', ready_at: null });
-    expect(ticketIds((await barista.get('/api/tickets?status=open')).body)).toContain(id);
+    expect(ticketIds((await barista.get('/api/tickets?view=open')).body)).toContain(id);
 
     // The next recall undoes the bump before it: the single espresso.
     tick();

@@ -54,7 +54,7 @@ async function eventTypes(orderId: number): Promise<string[]> {
 }
 
 async function openTicket(orderId: number): Promise<TicketView | undefined> {
-  const res = await cashier.get('/api/tickets?status=open');
+  const res = await cashier.get('/api/tickets?view=open');
   expect(res.status).toBe(200);
   return res.body.tickets.find((t: TicketView) => t.id === orderId);
 }

@@ -58,7 +58,7 @@ const countRows = async (table: string) => Number((await server.db(table).count(
 const maxEventId = async () => Number((await server.db('events').max({ m: 'id' }).first())?.m ?? 0);
 const eventsAfter = (id: number) => server.db('events').where('id', '>', id).orderBy('id');
 async function openTicketIds(): Promise<number[]> {
-  const res = await lead.get('/api/tickets?status=open');
+  const res = await lead.get('/api/tickets?view=open');
   expect(res.status).toBe(200);
   return res.body.tickets.map((t: TicketView) => t.id);
 }
