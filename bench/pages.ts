@@ -34,7 +34,7 @@ export async function timeGet(what: string, url: string, cookie: string, n = 60,
 }
 
 async function openDrinks(url: string, cookie: string): Promise<number> {
-  const res = await fetch(`${url}/api/tickets?status=open`, { headers: { cookie } });
+  const res = await fetch(`${url}/api/tickets?view=open`, { headers: { cookie } });
   const { tickets } = (await res.json()) as { tickets: { drinks: { status: string }[] }[] };
   return tickets.reduce((n, t) => n + t.drinks.filter((d) => d.status !== 'done').length, 0);
 }

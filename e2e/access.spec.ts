@@ -46,7 +46,7 @@ test('the server-rendered Bar lists every open drink before any script runs', as
     expect(res.status()).toBe(201);
   }
   await api.post('/api/session', { data: { username: 'barista', password: DEMO_PASSWORD } });
-  const open = await (await api.get('/api/tickets?status=open')).json();
+  const open = await (await api.get('/api/tickets?view=open')).json();
   const html = await (await api.get('/bar')).text();
   const drinks = open.tickets.flatMap((t: { drinks: { id: number }[] }) => t.drinks);
   expect(drinks.length).toBeGreaterThanOrEqual(3);

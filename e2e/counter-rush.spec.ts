@@ -87,8 +87,8 @@ test('the ready strip stays one row, newest first, with the rest behind "+n more
   for (const viewport of [{ width: 1024, height: 768 }, { width: 390, height: 844 }, { width: 1366, height: 768 }]) {
     const page = await pageAs(browser, 'cashier', '/counter', viewport);
     const strip = page.getByRole('region', { name: 'Ready for pickup' });
-    const chips = strip.getByRole('button', { name: /^Hand over #\d+/ });
-    await expect(chips.first()).toHaveAccessibleName(/^Hand over #\d+ Rush 26/); // the newest first
+    const chips = strip.getByRole('button', { name: /^Mark collected #\d+/ });
+    await expect(chips.first()).toHaveAccessibleName(/^Mark collected #\d+ Rush 26/); // the newest first
     const one = (await chips.first().boundingBox())!;
     const box = (await strip.boundingBox())!;
     expect(box.height, 'one row').toBeLessThan(one.height * 2);
@@ -106,9 +106,9 @@ test('the ready strip stays one row, newest first, with the rest behind "+n more
     if (viewport.width === 1024) {
       await strip.getByRole('button', { name: /^\+\d+ more ready/ }).click();
       const all = page.getByRole('dialog', { name: 'Ready for pickup' });
-      await expect(all.getByRole('button', { name: /^Hand over #\d+ Rush \d+/ })).toHaveCount(26);
-      await all.getByRole('button', { name: /^Hand over #\d+ Rush 1$/ }).click();
-      await expect(all.getByRole('button', { name: /^Hand over #\d+ Rush \d+/ })).toHaveCount(25);
+      await expect(all.getByRole('button', { name: /^Mark collected #\d+ Rush \d+/ })).toHaveCount(26);
+      await all.getByRole('button', { name: /^Mark collected #\d+ Rush 1$/ }).click();
+      await expect(all.getByRole('button', { name: /^Mark collected #\d+ Rush \d+/ })).toHaveCount(25);
       await page.keyboard.press('Escape');
       await expect(all).toHaveCount(0);
     }
@@ -147,7 +147,7 @@ test('thirty-one of one drink are one line with a quantity; the Bar still gets o
   const number = Number(/Sent #(\d+)/.exec((await sent.textContent()) ?? '')![1]);
 
   const api = await apiAs(playwright, baseURL, 'cashier');
-  const { tickets } = (await (await api.get('/api/tickets?status=open')).json()) as { tickets: { number: number; customerName: string; drinks: unknown[] }[] };
+  const { tickets } = (await (await api.get('/api/tickets?view=open')).json()) as { tickets: { number: number; customerName: string; drinks: unknown[] }[] };
   expect(tickets.find((t) => t.customerName === 'Office Run' && t.number === number)!.drinks).toHaveLength(3);
   await api.dispose();
   expect(errorsOf(page)).toEqual([]);

@@ -54,16 +54,16 @@ test.describe('Counter with the server gone', () => {
     await own.kill();
     await page.getByRole('button', { name: /^Send/ }).click();
 
-    const banner = page.getByTestId('pending-orders');
+    const banner = page.getByTestId('offline-orders');
     await expect(banner).toContainText('1 order not sent yet — will send when the server is back');
-    await expect(banner.getByTestId('pending-order')).toHaveText([/Wren Ashby.*\$\d+\.\d\d.*Not sent yet/]);
+    await expect(banner.getByTestId('offline-order')).toHaveText([/Wren Ashby.*\$\d+\.\d\d.*Not sent yet/]);
     await expect(banner.getByRole('button', { name: 'Send now' })).toBeVisible();
     // taken like a sent order: the form is clear for the next customer, and no error or "Sent"
     await expect(page.getByTestId('order-line')).toHaveCount(0);
     await expect(page.getByLabel('Name for the cup')).toHaveValue('');
     await expect(page.getByRole('alert')).toHaveCount(0);
     await expect(page.getByRole('status').filter({ hasText: /Sent #/ })).toHaveCount(0);
-    // it is in IndexedDB, not only in the page
+    // it is in IndexedDB, not only in the page (the offline orders' store keeps its first name)
     const stored = await page.evaluate(
       () =>
         new Promise<string[]>((resolve, reject) => {
@@ -87,7 +87,7 @@ test.describe('Counter with the server gone', () => {
     const api = await apiRequest.newContext({ baseURL: own.baseURL });
     const signedIn = await api.post('/api/session', { data: { username: 'cashier', password: DEMO_PASSWORD } });
     expect(signedIn.ok()).toBe(true);
-    const res = await api.get('/api/tickets?status=open');
+    const res = await api.get('/api/tickets?view=open');
     expect(res.ok()).toBe(true);
     const { tickets } = (await res.json()) as { tickets: { customerName: string }[] };
     expect(tickets.filter((t) => t.customerName === 'Wren Ashby')).toHaveLength(1);
@@ -122,9 +122,9 @@ test.describe('Counter with the server gone', () => {
 
     await own.kill();
     await page.getByRole('button', { name: /^Charge card/ }).click();
-    const banner = page.getByTestId('pending-orders');
+    const banner = page.getByTestId('offline-orders');
     await expect(banner).toContainText('1 card order held — not charged; ask the customer');
-    await expect(banner.getByTestId('pending-order')).toContainText('Card not charged');
+    await expect(banner.getByTestId('offline-order')).toContainText('Card not charged');
     await expect(banner.getByRole('button', { name: 'Send now' })).toHaveCount(0);
 
     await own.start();

@@ -121,7 +121,7 @@ async function main() {
       },
     });
     const sceneData = await finishScene(rush.showcaseOrderId, { cashier, barista, owner });
-    const board = JSON.parse(await (await cashier.get('/api/tickets?status=board')).text());
+    const board = JSON.parse(await (await cashier.get('/api/tickets?view=board')).text());
     console.log(`  ${rush.orders.length} orders by ${new Date(scene.nowMs()).toISOString()}: ${describeBoard(board)}`);
 
     browserServer = await chromium.launchServer(playwrightConfig.use?.launchOptions);

@@ -24,9 +24,9 @@ export function ticketRoutes(deps: Deps): ApiRoute[] {
       path: '/tickets',
       capability: 'viewQueue',
       handler: async (req, res) => {
-        const { status } = parse(ticketsQuery, req.query, 'query');
+        const { view } = parse(ticketsQuery, req.query, 'query');
         const board = await boardSnapshot(deps, userOf(req).locationId);
-        res.json(status === 'open' ? { ...board, tickets: board.tickets.filter((t) => openTickets(t, 0)) } : board);
+        res.json(view === 'open' ? { ...board, tickets: board.tickets.filter((t) => openTickets(t, 0)) } : board);
       },
     },
     {
@@ -75,7 +75,7 @@ export function ticketRoutes(deps: Deps): ApiRoute[] {
     { method: 'post', path: '/drinks/:id/start', capability: 'makeDrinks', handler: command(startDrink) },
     { method: 'post', path: '/drinks/:id/acknowledge-allergy', capability: 'makeDrinks', handler: command(acknowledgeAllergy) },
     { method: 'post', path: '/tickets/:id/rush', capability: 'rushTickets', handler: command(rushTicket) },
-    { method: 'post', path: '/tickets/:id/collect', capability: 'handOver', handler: command(collectTicket) },
+    { method: 'post', path: '/tickets/:id/collect', capability: 'collectTickets', handler: command(collectTicket) },
     { method: 'post', path: '/drinks/:id/bump', capability: 'makeDrinks', handler: command(bumpDrink) },
     { method: 'post', path: '/tickets/:id/bump', capability: 'makeDrinks', handler: command(bumpTicket) },
     { method: 'post', path: '/tickets/:id/recall', capability: 'makeDrinks', handler: command(recallTicket) },

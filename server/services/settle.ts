@@ -1,6 +1,6 @@
 // How an order is settled, in one place: paid in cash at the till, by a card charge that succeeds
 // (now or when its late answer arrives), or in cash after a declined card. Settling fires it: an
-// order with bar drinks goes to the Bar (open); an order of counter items only is handed over at
+// order with bar drinks goes to the Bar (open); an order of counter items only is collected at
 // the till at once (collected, and ready at the same moment).
 import { invalid } from '../domain-errors';
 import type { Db } from '../db/knex';

@@ -1,4 +1,4 @@
-// The rest of a ticket's life at the bar: the allergy read, a lead's rush, and the hand-over.
+// The rest of a ticket's life at the bar: the allergy read, a lead's rush, and its collection at pickup.
 import type { SessionUser } from '../../src/domain/types';
 import { json } from '../db/rows';
 import { conflict, notFound } from '../domain-errors';

@@ -4,8 +4,11 @@
 import { planJugs, pourOrder, type Jug, type JugRules } from './jug-plan';
 import type { DrinkView, MilkRef, Service, TicketView } from './types';
 
-/** A drink as the bar shows it: with its ticket's number, name and age, and its place in it. */
-export interface DrinkCard extends DrinkView {
+/**
+ * A drink in a milk lane, with its ticket's number, name and age, and its place in it. The Bar
+ * shows each one as a DrinkCard (`src/features/bar/drink-card.tsx`).
+ */
+export interface LaneDrink extends DrinkView {
   ticketNumber: number;
   customerName: string;
   firedAt: string;
@@ -27,7 +30,7 @@ export interface Lane {
   key: string;
   milk: MilkRef | null;
   /** Rushed first, then oldest ticket first. */
-  drinks: DrinkCard[];
+  drinks: LaneDrink[];
   drinkCount: number;
   oldestFiredAt: string;
 }
@@ -49,10 +52,10 @@ export const byAge = (a: Aged, b: Aged) =>
   a.id - b.id;
 
 export const hasAllergy = (d: { allergens: string[]; allergyNote: string | null }) => d.allergens.length > 0 || !!d.allergyNote;
-export const needsAllergyAck = (d: DrinkCard) => hasAllergy(d) && d.allergyAckAt === null;
+export const needsAllergyAck = (d: LaneDrink) => hasAllergy(d) && d.allergyAckAt === null;
 
 export function groupIntoLanes(tickets: TicketView[]): Lane[] {
-  const lanes = new Map<string, { milk: MilkRef | null; cards: DrinkCard[] }>();
+  const lanes = new Map<string, { milk: MilkRef | null; cards: LaneDrink[] }>();
   for (const ticket of tickets) {
     ticket.drinks.forEach((drink, i) => {
       if (drink.status === 'done') return;
@@ -98,7 +101,7 @@ export interface PlannedLane extends Lane {
   shotPlan: ShotPlan;
 }
 
-export function shotPlan(cards: DrinkCard[]): ShotPlan {
+export function shotPlan(cards: LaneDrink[]): ShotPlan {
   const waiting = cards.filter((c) => c.status === 'queued');
   return { shots: waiting.reduce((n, c) => n + c.shots, 0), doseDg: waiting.reduce((n, c) => n + c.doseDg, 0) };
 }
@@ -111,8 +114,8 @@ export function shotPlan(cards: DrinkCard[]): ShotPlan {
  * outside any jug (started on its own before it needed one, or bumped straight from the queue and
  * then recalled) has had its milk: it is in no jug.
  */
-export function laneJugs(cards: DrinkCard[], rules: JugRules): Jug[] {
-  const started = new Map<number, DrinkCard[]>();
+export function laneJugs(cards: LaneDrink[], rules: JugRules): Jug[] {
+  const started = new Map<number, LaneDrink[]>();
   for (const c of cards) if (c.jug && c.status !== 'done') started.set(c.jug.id, [...(started.get(c.jug.id) ?? []), c]);
   const fixed = [...started.entries()]
     .sort(([a], [b]) => a - b)

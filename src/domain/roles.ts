@@ -14,7 +14,7 @@ export const CAPABILITIES = {
   refundOrders: ['lead', 'owner'],
   eightySix: ['lead', 'owner'],
   rushTickets: ['lead', 'owner'],
-  handOver: ['cashier', 'barista', 'lead', 'owner'],
+  collectTickets: ['cashier', 'barista', 'lead', 'owner'],
   viewPulse: ['lead', 'owner'],
   viewReports: ['lead', 'owner'],
   runShifts: ['lead', 'owner'],

@@ -68,8 +68,13 @@ export const createOrderBody = z.object({
 });
 export type CreateOrderBody = z.infer<typeof createOrderBody>;
 
-export const ticketsQuery = z.object({
-  status: z.enum(['open', 'board']).default('open'),
+/**
+ * GET /api/tickets. `view=open` (the default): the tickets still at the bar. `view=board`: the
+ * whole board, those plus the ready ones still inside the Pickup timeout. No other key is read, so
+ * a caller still sending the retired `status=` is told so (400) rather than answered the default.
+ */
+export const ticketsQuery = z.strictObject({
+  view: z.enum(['open', 'board']).default('open'),
 });
 
 export const ordersQuery = z.object({

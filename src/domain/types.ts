@@ -171,7 +171,7 @@ export interface TicketView {
   rushedAt: string | null;
   /** Who took the order at the counter (a name). */
   takenBy?: string | null;
-  /** Bar drinks only; counter items are handed over at the counter. */
+  /** Bar drinks only; counter items are collected at the counter. */
   drinks: DrinkView[];
 }
 

@@ -46,7 +46,7 @@ export interface Api {
 export const httpApi: Api = {
   session: () => http('GET', '/session'),
   menu: () => http('GET', '/menu'),
-  tickets: () => http('GET', '/tickets?status=board'),
+  tickets: () => http('GET', '/tickets?view=board'),
   pickup: () => http('GET', '/pickup'),
   // the Outbox refreshes itself every few seconds: that alone mustn't keep a session awake
   outbox: () => http('GET', '/outbox', undefined, { passive: true }),

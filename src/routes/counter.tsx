@@ -23,8 +23,8 @@ import { OrdersDrawer } from '../features/counter/orders-drawer';
 import { ReadyStrip } from '../features/counter/ready-strip';
 import { MenuGrid } from '../features/counter/menu-grid';
 import { OrderPanel } from '../features/counter/order-panel';
-import { PendingOrdersBanner } from '../features/counter/pending-orders-banner';
-import { usePendingOrders } from '../features/counter/use-pending-orders';
+import { OfflineOrdersBanner } from '../features/counter/offline-orders-banner';
+import { useOfflineOrders } from '../features/counter/use-offline-orders';
 import { useSendOrder } from '../features/counter/use-send-order';
 import { WaitNow } from '../features/counter/wait-now';
 import { menuQuery } from '../queries/menu';
@@ -59,7 +59,7 @@ function Counter() {
   // the order twice.
   const clientOrderId = useRef<string | null>(null);
   const send = useSendOrder();
-  const outbox = usePendingOrders(send.mutateAsync);
+  const offlineOrders = useOfflineOrders(send.mutateAsync);
 
   const items = form.watch('items');
   useLeaveGuard(items.length > 0 ? `The order being built (${plural(cupsOf(items), 'item')}) has not been sent and will be lost.` : null);
@@ -115,10 +115,10 @@ function Counter() {
       // Cash that can't reach the server is kept and resent by itself. A card is charged only
       // with the customer there: one that can't reach the server is held, and the banner asks
       // the cashier (charge it now, they paid cash, or cancel) — never charged on its own.
-      const result = await outbox.sendOrQueue({ ...base, payment }, { totalCents: totals.totalCents });
+      const result = await offlineOrders.sendOrQueue({ ...base, payment }, { totalCents: totals.totalCents });
       if (result.queued) send.reset();
       // the receipt address travels in the order: the server mails it once the order is in, even
-      // when this queue sends it later
+      // when it is sent later as an offline order
       finish(result.queued ? null : result.order);
     } catch {
       /* shown from send.error; the same id is kept for the retry */
@@ -162,7 +162,7 @@ function Counter() {
           </div>
         </details>
       </header>
-      <PendingOrdersBanner queue={outbox} currency={menu.location.currency} onSent={setSent} />
+      <OfflineOrdersBanner offlineOrders={offlineOrders} currency={menu.location.currency} onSent={setSent} />
       <ReadyStrip tickets={board.tickets} />
       {sent && (
         // over the menu, not above it: the tiles must not jump under the cashier's finger

@@ -33,7 +33,7 @@ function Labels() {
                 {i + 1} of {drinks.length}
               </span>
             </p>
-            {/* the whole name, wrapped: a cut name on a cup is a drink handed to the wrong person */}
+            {/* the whole name, wrapped: a cut name on a cup is a drink collected by the wrong person */}
             <p className="text-lg leading-tight font-semibold [overflow-wrap:anywhere]">{o.customerName}</p>
             <ServiceMark service={o.service} className="text-base font-semibold" />
             <p className="font-semibold">

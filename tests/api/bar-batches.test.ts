@@ -1,6 +1,6 @@
 // The bar's plan and its batch commands over HTTP: GET /api/bar/lanes (milk lanes, jug plan, shot
 // plan), starting and bumping several drinks in one command, the allergy read, a lead's rush, the
-// hand-over at pickup, and drinks that are not on an open ticket. Every command is one
+// collection at pickup, and drinks that are not on an open ticket. Every command is one
 // transaction; a refused one changes no row and appends no event.
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -413,7 +413,7 @@ describe('allergies', () => {
     const batch = await expectRefused(barista, '/api/drinks/bump', { drinkIds: [espresso, flatWhite] }, 409, 'conflict', watch);
     expect(batch.details).toEqual({ drinkId: flatWhite });
 
-    // Starting is allowed before the read: only the hand-off is held back.
+    // Starting is allowed before the read: only the bump is held back.
     await expectBatch(barista, '/api/drinks/start', [flatWhite], 'drink.started', baristaId, [order]);
 
     tick();
@@ -506,7 +506,7 @@ describe('POST /api/tickets/:id/collect', () => {
     const after = await cashier.get('/api/pickup');
     expect(after.status).toBe(200);
     expect(after.body.tickets.map((t: PickupTicket) => t.id)).not.toContain(order);
-    expect((await barista.get('/api/tickets?status=board')).body.tickets.map((t: TicketView) => t.id)).not.toContain(order);
+    expect((await barista.get('/api/tickets?view=board')).body.tickets.map((t: TicketView) => t.id)).not.toContain(order);
 
     tick();
     await expectRefused(cashier, `/api/tickets/${order}/collect`, undefined, 409, 'conflict', [cappuccino]);
@@ -541,7 +541,7 @@ describe('drinks not on an open ticket', () => {
     expect(again.message).toBe(`The Latte for #${twoNumber} Yara was already bumped by Jonah`);
   });
 
-  it("a voided order's drinks can't be started or bumped, nor its ticket bumped, rushed or handed over (409)", async () => {
+  it("a voided order's drinks can't be started or bumped, nor its ticket bumped, rushed or collected (409)", async () => {
     const declined = await cashier.post('/api/orders').send({
       ...orderBody('Dorian Vale', [{ menuItemId: ids.item('Latte') }, { menuItemId: ids.item('Espresso') }]),
       allergens: ['peanuts'],

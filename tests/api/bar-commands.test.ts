@@ -77,7 +77,7 @@ describe('GET /api/tickets', () => {
       { menuItemId: ids.item('Espresso'), shots: 3 },
       { menuItemId: ids.item('Butter croissant') },
     ]);
-    const res = await barista.get('/api/tickets?status=open');
+    const res = await barista.get('/api/tickets?view=open');
     expect(res.status).toBe(200);
     expect(Object.keys(res.body).sort()).toEqual(['location', 'now', 'seq', 'tickets']);
     expect(res.body.seq).toBe(await maxEventId());
@@ -86,7 +86,7 @@ describe('GET /api/tickets', () => {
 
     const ticket = res.body.tickets.find((t: TicketView) => t.id === id);
     expect(ticket).toMatchObject({ customerName: 'Anouk Pemberton', status: 'open', readyAt: null });
-    // Bar drinks only: the croissant is handed over at the counter.
+    // Bar drinks only: the croissant is collected at the counter.
     expect(ticket.drinks.map((d: { itemName: string }) => d.itemName)).toEqual(['Latte', 'Cappuccino', 'Espresso']);
     expect(ticket.drinks[0]).toMatchObject({ milk: { id: ids.milk('Oat'), name: 'Oat', code: 'OA' }, shots: 2, status: 'queued', startedAt: null, doneAt: null });
     expect(ticket.drinks[1]).toMatchObject({ milk: { name: 'Whole', code: 'WH' }, sizeName: 'Regular', status: 'queued' });
@@ -159,8 +159,8 @@ describe('bumping a drink', () => {
     expect(ticket).toMatchObject({ status: 'ready', readyAt: nowIso() });
     expect(await orderRow(id)).toMatchObject({ status: 'ready', ready_at: nowIso() });
 
-    expect(ticketIds((await barista.get('/api/tickets?status=open')).body)).not.toContain(id);
-    expect(ticketIds((await barista.get('/api/tickets?status=board')).body)).toContain(id);
+    expect(ticketIds((await barista.get('/api/tickets?view=open')).body)).not.toContain(id);
+    expect(ticketIds((await barista.get('/api/tickets?view=board')).body)).toContain(id);
 
     const pickup = await cashier.get('/api/pickup');
     expect(pickup.status).toBe(200);
@@ -210,7 +210,7 @@ describe('bumping a ticket and recalling', () => {
       [c.id, 'done', cDoneAt],
     ]);
     expect(await orderRow(id)).toMatchObject({ status: 'open', ready_at: null });
-    expect(ticketIds((await barista.get('/api/tickets?status=open')).body)).toContain(id);
+    expect(ticketIds((await barista.get('/api/tickets?view=open')).body)).toContain(id);
 
     // The next recall undoes the bump before it: the single espresso.
     tick();

@@ -91,7 +91,7 @@ export function barTools(get: { server: () => TestServer; cashier: () => Agent; 
   }
 
   async function openTickets(agent: Agent = get.barista()): Promise<TicketView[]> {
-    const res = await agent.get('/api/tickets?status=open');
+    const res = await agent.get('/api/tickets?view=open');
     expect(res.status).toBe(200);
     return res.body.tickets;
   }

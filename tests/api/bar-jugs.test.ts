@@ -321,7 +321,7 @@ describe('what the board carries', () => {
     await clearBar();
     const [g] = await tickets(whole('Flat white'));
     const { jugId } = await startJug(barista2, [g], [await ticketOf(g)], barista2Id);
-    const board = (await barista.get('/api/tickets?status=board').expect(200)).body as BoardSnapshot;
+    const board = (await barista.get('/api/tickets?view=board').expect(200)).body as BoardSnapshot;
     expect(board.tickets.flatMap((t) => t.drinks).find((x) => x.id === g)!.jug).toEqual({
       id: jugId,
       pitcher: SMALL_PITCHER,

@@ -54,7 +54,7 @@ async function eventTypes(orderId: number): Promise<string[]> {
 }
 
 async function openTicket(orderId: number): Promise<TicketView | undefined> {
-  const res = await cashier.get('/api/tickets?status=open');
+  const res = await cashier.get('/api/tickets?view=open');
   expect(res.status).toBe(200);
   return res.body.tickets.find((t: TicketView) => t.id === orderId);
 }
@@ -90,7 +90,7 @@ describe('a card that is charged', () => {
       ['Butter croissant', 'counter'],
     ]);
 
-    // The bar sees the latte; the croissant is handed over at the counter.
+    // The bar sees the latte; the croissant is collected at the counter.
     const ticket = await openTicket(order.id);
     expect(ticket).toBeDefined();
     expect(ticket!.drinks.map((d) => d.itemName)).toEqual(['Latte']);

@@ -61,7 +61,7 @@ describe('quotedWaitSeconds', () => {
     // 60 s a drink per barista when there is no history: the project's stated rough rule
     // (common practice), src/domain/quote.ts.
     expect(menu.location.baristasOnBar).toBe(1);
-    expect((await cashier.get('/api/tickets?status=open')).body.tickets).toEqual([]);
+    expect((await cashier.get('/api/tickets?view=open')).body.tickets).toEqual([]);
 
     const first = await place(cashier, orderBody('Ignatius Rook', [
       { menuItemId: ids.item('Latte') },

@@ -78,7 +78,7 @@ describe('a database locked by another process', () => {
     expect((await lead.get('/api/session')).body.user).toMatchObject({ role: 'lead' });
     expect((await signInAs('barista')).status).toBe(200);
 
-    // the Counter resends the same order (src/features/counter/use-pending-orders.ts): stored once
+    // the Counter resends the same order (src/features/counter/use-offline-orders.ts): stored once
     const placed = await terminal.post('/api/orders').send(order);
     expect(placed.status).toBe(201);
     expect((await terminal.post('/api/orders').send(order)).status).toBe(200);

@@ -41,7 +41,7 @@ describe('POST /api/orders with a quantity per line', () => {
     expect(order.lines.map((l: { itemName: string }) => l.itemName)).toEqual(['Long black', 'Long black', 'Long black', 'Butter croissant', 'Butter croissant']);
     expect(await writeCounts(server)).toEqual({ orders: before.orders + 1, order_items: before.order_items + 5, events: before.events + 1 });
 
-    const { tickets } = (await cashier.get('/api/tickets?status=open')).body;
+    const { tickets } = (await cashier.get('/api/tickets?view=open')).body;
     const ticket = tickets.find((t: { id: number }) => t.id === order.id);
     expect(ticket.drinks).toHaveLength(3); // one per cup for the Bar; the croissants stay at the counter
 

@@ -1,6 +1,6 @@
 // The receipt is part of the order: an order that carries the customer's e-mail is mailed its
-// receipt by the server once it is paid, whichever way it arrived (at once, or later from the
-// Counter's queue of unsent orders), exactly once however often the same client order id is sent.
+// receipt by the server once it is paid, whichever way it arrived (at once, or later as one of
+// the Counter's offline orders), exactly once however often the same client order id is sent.
 // The mail goes over real SMTP to the local fake, which stores it in the outbox table. A mail
 // server that is down never fails the order.
 import { createServer } from 'node:net';

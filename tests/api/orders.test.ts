@@ -236,12 +236,12 @@ describe('an order of counter items only', () => {
     const row = await server.db('orders').where({ id: res.body.order.id }).first();
     expect(row.collected_at).toBe(row.fired_at);
 
-    const open = await cashier.get('/api/tickets?status=open');
+    const open = await cashier.get('/api/tickets?view=open');
     expect(open.status).toBe(200);
     const openIds = open.body.tickets.map((t: { id: number }) => t.id);
     expect(openIds.length).toBeGreaterThan(0); // the bar orders above are there
     expect(openIds).not.toContain(res.body.order.id);
-    const board = await cashier.get('/api/tickets?status=board');
+    const board = await cashier.get('/api/tickets?view=board');
     expect(board.body.tickets.map((t: { id: number }) => t.id)).not.toContain(res.body.order.id);
   });
 });

@@ -58,7 +58,7 @@ const countRows = async (table: string) => Number((await server.db(table).count(
 const maxEventId = async () => Number((await server.db('events').max({ m: 'id' }).first())?.m ?? 0);
 const eventsAfter = (id: number) => server.db('events').where('id', '>', id).orderBy('id');
 async function openTicketIds(): Promise<number[]> {
-  const res = await lead.get('/api/tickets?status=open');
+  const res = await lead.get('/api/tickets?view=open');
   expect(res.status).toBe(200);
   return res.body.tickets.map((t: TicketView) => t.id);
 }
@@ -193,7 +193,7 @@ describe('POST /api/orders/:id/refund', () => {
   });
 
   it('an order that was already collected stays collected when refunded in full', async () => {
-    // Counter items only: handed over (collected) as soon as it is paid.
+    // Counter items only: collected as soon as it is paid.
     const order = await paidCashOrder('Philippa Crane', [{ menuItemId: ids.item('Butter croissant') }]);
     expect(order.status).toBe('collected');
     const res = await lead.post(`/api/orders/${order.id}/refund`).send({ reason: 'Dropped on the floor' });

@@ -316,7 +316,7 @@ describe('a settings change reaches open screens', () => {
     await client.next((m) => m.type === 'event' && m.event.type === 'menu.changed', 'a second menu.changed event');
 
     const barista = await server.signIn('barista');
-    const board: BoardSnapshot = (await barista.get('/api/tickets?status=board').expect(200)).body;
+    const board: BoardSnapshot = (await barista.get('/api/tickets?view=board').expect(200)).body;
     expect(board.location.waitTargetSeconds).toBe(300);
     expect(board.location.jugRules.wasteMl).toBe(20);
     expect(board.location.jugRules.pitchers).toEqual(

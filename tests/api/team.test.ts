@@ -321,7 +321,7 @@ describe('who did what on a ticket', () => {
       done_by: await userId('barista2'),
     });
     // the board the Bar reads carries the same names
-    const board = await jonah.get('/api/tickets?status=board');
+    const board = await jonah.get('/api/tickets?view=board');
     const onBoard = board.body.tickets.find((t: { id: number }) => t.id === ticket.id);
     expect(onBoard.takenBy).toBe('Mara Quill');
   });

@@ -144,10 +144,16 @@ describe('malformed requests', () => {
     expect(paths(res.body).sort()).toEqual(['password', 'username']);
   });
 
-  it('answers GET /api/tickets?status=bogus with 400 naming query.status', async () => {
-    const res = await barista.get('/api/tickets?status=bogus');
+  it('answers GET /api/tickets?view=bogus with 400 naming query.view', async () => {
+    const res = await barista.get('/api/tickets?view=bogus');
     expect(res.status).toBe(400);
-    expect(res.body).toEqual(validationFailed([{ path: 'query.status', message: expect.any(String) }]));
+    expect(res.body).toEqual(validationFailed([{ path: 'query.view', message: expect.any(String) }]));
+  });
+
+  it('answers the retired GET /api/tickets?status=board with 400, not with the default view', async () => {
+    const res = await barista.get('/api/tickets?status=board');
+    expect(res.status).toBe(400);
+    expect(res.body).toEqual(validationFailed([{ path: 'query', message: expect.stringContaining('status') }]));
   });
 
   it('answers POST /api/drinks/abc/bump with 400 naming params.id', async () => {

@@ -6,11 +6,11 @@ import { renderHook } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { useState } from 'react';
 import { describe, expect, it } from 'vitest';
-import type { DrinkCard } from '../../src/domain/lanes';
+import type { LaneDrink } from '../../src/domain/lanes';
 import type { BarCommand } from '../../src/features/bar/commands';
 import { useBumpKeys } from '../../src/features/bar/use-bump-keys';
 
-function card(id: number, o: Partial<DrinkCard> = {}): DrinkCard {
+function card(id: number, o: Partial<LaneDrink> = {}): LaneDrink {
   return {
     id,
     ticketId: id,
@@ -44,7 +44,7 @@ function card(id: number, o: Partial<DrinkCard> = {}): DrinkCard {
 }
 
 /** The hook on a screen with these cards and keys; returns what it ran and where the focus is. */
-function bar(cards: DrinkCard[], keys: [number, number][], recallLast: number | null = null) {
+function bar(cards: LaneDrink[], keys: [number, number][], recallLast: number | null = null) {
   const ran: BarCommand[] = [];
   const view = renderHook(() => {
     const [focusId, setFocusId] = useState<number | null>(null);

@@ -3,7 +3,7 @@
 // session, so what the form sends is what the server stores. Three lattes are one line with a
 // quantity and three drinks on the bar; a refused send keeps the order and its id, and the retry
 // stores it once.
-import 'fake-indexeddb/auto'; // the browser's storage for orders held while the server is out of reach
+import 'fake-indexeddb/auto'; // the browser's storage for offline orders
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { render, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';

@@ -151,7 +151,7 @@ describe('events per location', () => {
   });
 
   it("the north board (what a north snapshot is built from) has only north tickets and the north seq", async () => {
-    const res = await north.get('/api/tickets?status=board');
+    const res = await north.get('/api/tickets?view=board');
     expect(res.status).toBe(200);
     expect(res.body.location.name).toBe('North Quay Espresso');
     expect(res.body.seq).toBe((await loggedEvents(server, northLocationId)).at(-1)!.seq);

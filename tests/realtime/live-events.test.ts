@@ -45,7 +45,7 @@ describe('a signed-in barista screen', () => {
       firedAt: order.firedAt,
       readyAt: null,
     });
-    // bar drinks only, in line order, all queued; the croissant is handed over at the counter
+    // bar drinks only, in line order, all queued; the croissant is collected at the counter
     const bar = barLines(order);
     expect(fired.ticket.drinks.map((d) => [d.id, d.itemName, d.status])).toEqual(bar.map((l) => [l.id, l.itemName, 'queued']));
     expect(fired.ticket.drinks[0]).toMatchObject({ ticketId: order.id, sizeName: 'Regular', milk: { name: 'Oat', code: 'OA' } });

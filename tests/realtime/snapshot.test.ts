@@ -37,7 +37,7 @@ afterAll(() => server.close());
 const logged = async () => (await loggedEvents(server, locationId)).map((e) => e.seq);
 
 const board = async (): Promise<BoardSnapshot> => {
-  const res = await barista.get('/api/tickets?status=board');
+  const res = await barista.get('/api/tickets?view=board');
   expect(res.status).toBe(200);
   return res.body;
 };

@@ -1,5 +1,5 @@
 import { allergyClash } from '../../domain/allergens';
-import { needsAllergyAck, hasAllergy, type DrinkCard as Card } from '../../domain/lanes';
+import { needsAllergyAck, hasAllergy, type LaneDrink } from '../../domain/lanes';
 import { ticketAgeSeconds } from '../../domain/tickets';
 import { cn } from '../../lib/cn';
 import { Button } from '../../components/ui/button';
@@ -11,7 +11,7 @@ import { PourLine, ageLabel } from './pour-line';
 export const ALLERGY_CAUTION = 'Check the recipe and ingredients; clean wand, jug and cup; follow your local allergen rules.';
 
 interface Props {
-  card: Card;
+  card: LaneDrink;
   unit: VolumeUnit;
   nowMs: number;
   targetSeconds: number;
@@ -59,7 +59,7 @@ export function DrinkCard({ card, unit, nowMs, targetSeconds, keyNumber, jugLabe
       aria-label={`Ticket ${card.ticketNumber}, ${card.customerName}: ${card.itemName}${allergy ? ', allergy' : ''}`}
       data-focused={focused || undefined}
       className={cn(
-        // a long name or note wraps inside the card (inherited), never cut: a cut name is a drink handed to the wrong person
+        // a long name or note wraps inside the card (inherited), never cut: a cut name is a drink collected by the wrong person
         'rounded-xl border-2 bg-roast-750 p-2 text-crema-100 [overflow-wrap:anywhere]',
         card.status === 'making' ? 'border-crema-100' : 'border-transparent',
         late && 'border-dashed border-copper-300',

@@ -3,7 +3,7 @@
 // Each jug names the cups it pours, in pour order (ticket number and first name, as on the cards).
 // Started or not is said in words, not only by look. Volumes in the café's unit.
 import { describeJug, type Jug } from '../../domain/jug-plan';
-import { needsAllergyAck, type DrinkCard, type PlannedLane } from '../../domain/lanes';
+import { needsAllergyAck, type LaneDrink, type PlannedLane } from '../../domain/lanes';
 import { firstName } from '../../domain/tickets';
 import type { VolumeUnit } from '../../domain/units';
 import { Button } from '../../components/ui/button';
@@ -55,13 +55,13 @@ interface RowProps {
   label: string;
   jug: Jug;
   unit: VolumeUnit;
-  cups: Map<number, DrinkCard>;
+  cups: Map<number, LaneDrink>;
   state: 'started' | 'planned';
   children: React.ReactNode;
 }
 
 function JugRow({ label, jug, unit, cups, state, children }: RowProps) {
-  const pours = jug.drinkIds.map((id) => cups.get(id)).filter((d): d is DrinkCard => !!d);
+  const pours = jug.drinkIds.map((id) => cups.get(id)).filter((d): d is LaneDrink => !!d);
   return (
     <div data-testid="jug" data-jug-state={state} className="flex flex-col gap-2">
       <p className="text-xl font-semibold">

@@ -3,12 +3,12 @@
 // the focused card, S starts it, A acknowledges its allergy, R recalls the last bump. On a card
 // whose allergy is unread a bump key only focuses it.
 import { useEffect } from 'react';
-import { needsAllergyAck, type DrinkCard } from '../../domain/lanes';
+import { needsAllergyAck, type LaneDrink } from '../../domain/lanes';
 import type { BarCommand } from './commands';
 
 interface Options {
   /** Every card in screen order (the arrows walk them). */
-  cards: DrinkCard[];
+  cards: LaneDrink[];
   /** Card id → its bump key. */
   keys: ReadonlyMap<number, number>;
   focusId: number | null;
@@ -23,7 +23,7 @@ export function useBumpKeys({ cards, keys, focusId, setFocusId, run, recallLast 
       if (e.altKey || e.ctrlKey || e.metaKey || (e.target as HTMLElement | null)?.closest('input, textarea, select')) return;
       const at = cards.findIndex((c) => c.id === focusId);
       const focused = at >= 0 ? cards[at] : undefined;
-      const bump = (card: DrinkCard | undefined) => {
+      const bump = (card: LaneDrink | undefined) => {
         if (!card) return;
         // An unread allergy is never read by a bump key: the key only moves the focus ring there,
         // and the barista confirms with A (or the card's button) as a separate, deliberate act.

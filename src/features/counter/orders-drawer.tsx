@@ -14,7 +14,7 @@ const STATUS: Record<OrderView['status'], string> = {
   pending: 'waiting for payment',
   open: 'at the bar',
   ready: 'ready',
-  collected: 'handed over',
+  collected: 'collected',
   void: 'void',
 };
 

@@ -1,5 +1,5 @@
-// Drinks waiting on the hand-off shelf. Each chip is a button that says what tapping does: hand
-// the order over (it leaves the Pickup board). One row whatever the rush — the newest first, as
+// Drinks waiting on the pickup shelf. Each chip is a button that says what tapping does: mark
+// the order collected (it leaves the Pickup board). One row whatever the rush — the newest first, as
 // many as the width holds — and "+n more ready" opens the rest, so the order below never moves.
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
@@ -51,11 +51,11 @@ export function ReadyStrip({ tickets }: { tickets: TicketView[] }) {
       key={t.id}
       tone="quiet"
       className="max-w-[10rem] shrink-0 flex-col items-start gap-0 px-3 py-0.5 leading-tight md:max-w-[13rem]"
-      aria-label={`Hand over #${t.number} ${t.customerName}`}
+      aria-label={`Mark collected #${t.number} ${t.customerName}`}
       disabled={collect.isPending}
       onClick={() => collect.mutate(t.id)}
     >
-      <span className="text-xs font-semibold tracking-wide text-ink-600 uppercase">Hand over</span>
+      <span className="text-xs font-semibold tracking-wide text-ink-600 uppercase">Mark collected</span>
       <span className="max-w-full truncate whitespace-nowrap">
         #{t.number} {t.customerName}
       </span>
@@ -102,7 +102,7 @@ function AllReady({ ready, chip, onClose }: { ready: TicketView[]; chip(t: Ticke
     <div role="dialog" aria-modal="true" aria-label="Ready for pickup" className="fixed inset-0 z-20 flex items-start justify-center bg-ink-900/40 p-4">
       <div ref={panel} className="flex max-h-full w-full max-w-3xl flex-col rounded-2xl bg-steam-50 p-4 shadow-2xl">
         <div className="flex items-center gap-3">
-          <h2 className="text-2xl font-semibold">Ready — tap when handed over</h2>
+          <h2 className="text-2xl font-semibold">Ready — tap when collected</h2>
           <Button tone="quiet" className="ml-auto" onClick={onClose}>
             Close
           </Button>

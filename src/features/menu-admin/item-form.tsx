@@ -120,7 +120,7 @@ export function ItemForm({ menu, item, categoryId, command, notify, onClose }: P
                 onChange={field.onChange}
                 options={[
                   { value: 'bar', label: 'Bar', hint: 'goes to the Bar screen' },
-                  { value: 'counter', label: 'Counter', hint: 'handed over at the till' },
+                  { value: 'counter', label: 'Counter', hint: 'collected at the till' },
                 ]}
               />
             )}

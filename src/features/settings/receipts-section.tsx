@@ -1,5 +1,5 @@
 // Receipts and Pickup: the line at the foot of every receipt, and how long a ready name stays on
-// the Pickup board when nobody marks it handed over.
+// the Pickup board when nobody marks it collected.
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
@@ -59,7 +59,7 @@ export function ReceiptsSection({ settings }: { settings: SettingsView }) {
       </Field>
       <Field
         label="Pickup board: a ready name stays (minutes)"
-        help="Until the Counter marks the order handed over, or this long after it is ready."
+        help="Until the Counter marks the order collected, or this long after it is ready."
         error={errors.pickupMinutes?.message}
       >
         {(p) => <input {...p} {...form.register('pickupMinutes', { valueAsNumber: true })} inputMode="numeric" className={cn(p.className, 'w-28')} />}

@@ -1,4 +1,4 @@
-// The Counter's outbox: orders the server couldn't be reached for are kept in IndexedDB and
+// The Counter's offline orders: orders the server couldn't be reached for are kept in IndexedDB and
 // resent with the same clientOrderId; orders the server refuses are not kept.
 import 'fake-indexeddb/auto';
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
@@ -9,14 +9,15 @@ import type { ReactNode } from 'react';
 import { afterEach, describe, expect, it } from 'vitest';
 import { createOrderBody, type CreateOrderBody } from '../../src/domain/schemas';
 import type { OrderView } from '../../src/domain/types';
-import { PendingOrdersBanner } from '../../src/features/counter/pending-orders-banner';
-import { listPending, putPending, removePending, type PendingOrder } from '../../src/features/counter/pending-orders';
-import { usePendingOrders, type SendOrderFn } from '../../src/features/counter/use-pending-orders';
+import { OfflineOrdersBanner } from '../../src/features/counter/offline-orders-banner';
+import { listOfflineOrders, putOfflineOrder, removeOfflineOrder, type OfflineOrder } from '../../src/features/counter/offline-orders';
+import { useOfflineOrders, type SendOrderFn } from '../../src/features/counter/use-offline-orders';
 import { ApiError } from '../../src/lib/http';
 import { uuid } from '../../src/lib/uuid';
 
-// Read IndexedDB itself, not through the module, to be sure the order is really stored there.
-const inIndexedDb = () => values<PendingOrder>(createStore('jugline', 'pending-orders'));
+// Read IndexedDB itself, not through the module, to be sure the order is really stored there
+// (the store keeps its first name, pending-orders, for orders a browser already holds).
+const inIndexedDb = () => values<OfflineOrder>(createStore('jugline', 'pending-orders'));
 
 const body = (customerName: string): CreateOrderBody =>
   createOrderBody.parse({
@@ -26,7 +27,7 @@ const body = (customerName: string): CreateOrderBody =>
     payment: { method: 'cash', tenderedCents: 500 },
   });
 
-const pendingOf = (b: CreateOrderBody, queuedAt: string): PendingOrder => ({
+const offlineOrderOf = (b: CreateOrderBody, queuedAt: string): OfflineOrder => ({
   clientOrderId: b.clientOrderId,
   body: b,
   totalCents: 379,
@@ -56,33 +57,33 @@ function wrapper({ children }: { children: ReactNode }) {
 }
 
 afterEach(async () => {
-  for (const o of await listPending()) await removePending(o.clientOrderId);
+  for (const o of await listOfflineOrders()) await removeOfflineOrder(o.clientOrderId);
 });
 
-describe('pending orders store', () => {
+describe('offline orders store', () => {
   it('puts, lists the oldest first, and removes, in IndexedDB', async () => {
     const a = body('Ada');
     const b = body('Bo');
-    await putPending(pendingOf(b, '2026-12-01T09:00:02.000Z'));
-    await putPending(pendingOf(a, '2026-12-01T09:00:01.000Z'));
-    expect((await listPending()).map((o) => o.body.customerName)).toEqual(['Ada', 'Bo']);
+    await putOfflineOrder(offlineOrderOf(b, '2026-12-01T09:00:02.000Z'));
+    await putOfflineOrder(offlineOrderOf(a, '2026-12-01T09:00:01.000Z'));
+    expect((await listOfflineOrders()).map((o) => o.body.customerName)).toEqual(['Ada', 'Bo']);
     expect((await inIndexedDb()).map((o) => o.clientOrderId).sort()).toEqual([a.clientOrderId, b.clientOrderId].sort());
 
-    await putPending({ ...pendingOf(a, '2026-12-01T09:00:01.000Z'), attempts: 3 }); // same id: replaced
-    expect(await listPending()).toHaveLength(2);
-    expect((await listPending())[0].attempts).toBe(3);
+    await putOfflineOrder({ ...offlineOrderOf(a, '2026-12-01T09:00:01.000Z'), attempts: 3 }); // same id: replaced
+    expect(await listOfflineOrders()).toHaveLength(2);
+    expect((await listOfflineOrders())[0].attempts).toBe(3);
 
-    await removePending(a.clientOrderId);
-    expect((await listPending()).map((o) => o.body.customerName)).toEqual(['Bo']);
+    await removeOfflineOrder(a.clientOrderId);
+    expect((await listOfflineOrders()).map((o) => o.body.customerName)).toEqual(['Bo']);
     expect(await inIndexedDb()).toHaveLength(1);
   });
 });
 
-describe('usePendingOrders', () => {
+describe('useOfflineOrders', () => {
   it('queues an order it cannot send and resends it with the same clientOrderId until it lands', async () => {
     const first = scriptedServer(offline());
     const later = scriptedServer(new ApiError(503, 'internal', 'Service unavailable'), 'ok');
-    const { result } = renderHook(() => usePendingOrders(first.send, { resend: later.send, retryDelayMs: never }), { wrapper });
+    const { result } = renderHook(() => useOfflineOrders(first.send, { resend: later.send, retryDelayMs: never }), { wrapper });
     const order = body('Wren Ashby');
 
     let outcome: Awaited<ReturnType<typeof result.current.sendOrQueue>> | undefined;
@@ -90,19 +91,19 @@ describe('usePendingOrders', () => {
       outcome = await result.current.sendOrQueue(order, { totalCents: 379 });
     });
     expect(outcome?.queued).toBe(true);
-    expect(result.current.pending.map((o) => o.clientOrderId)).toEqual([order.clientOrderId]);
-    expect(result.current.pending[0].totalCents).toBe(379);
+    expect(result.current.orders.map((o) => o.clientOrderId)).toEqual([order.clientOrderId]);
+    expect(result.current.orders[0].totalCents).toBe(379);
     expect((await inIndexedDb()).map((o) => o.clientOrderId)).toEqual([order.clientOrderId]);
 
     // first resend: the server is still away, so the order stays
     act(() => result.current.retryNow());
-    await waitFor(() => expect(result.current.pending[0]?.attempts).toBe(1));
-    expect(result.current.pending[0].state).toBe('waiting');
+    await waitFor(() => expect(result.current.orders[0]?.attempts).toBe(1));
+    expect(result.current.orders[0].state).toBe('waiting');
     expect(later.bodies).toHaveLength(1);
 
     // second resend: it lands, and leaves the store
     act(() => result.current.retryNow());
-    await waitFor(() => expect(result.current.pending).toEqual([]));
+    await waitFor(() => expect(result.current.orders).toEqual([]));
     expect(await inIndexedDb()).toEqual([]);
 
     const ids = [...first.bodies, ...later.bodies].map((b) => b.clientOrderId);
@@ -114,12 +115,12 @@ describe('usePendingOrders', () => {
   it('queues on a gateway answer (502/503/504) and on a signed-out answer (401) too', async () => {
     for (const status of [401, 502, 503, 504]) {
       const server = scriptedServer(new ApiError(status, 'internal', 'gateway'));
-      const { result, unmount } = renderHook(() => usePendingOrders(server.send, { resend: server.send, retryDelayMs: never }), { wrapper });
+      const { result, unmount } = renderHook(() => useOfflineOrders(server.send, { resend: server.send, retryDelayMs: never }), { wrapper });
       const order = body(`Gate ${status}`);
       await act(async () => {
         expect((await result.current.sendOrQueue(order)).queued).toBe(true);
       });
-      expect((await listPending()).map((o) => o.clientOrderId)).toContain(order.clientOrderId);
+      expect((await listOfflineOrders()).map((o) => o.clientOrderId)).toContain(order.clientOrderId);
       unmount();
     }
   });
@@ -127,44 +128,44 @@ describe('usePendingOrders', () => {
   it('does not queue an order the server refuses: the error goes to the cashier', async () => {
     const refusal = new ApiError(409, 'unavailable', 'Oat milk is 86’d');
     const server = scriptedServer(refusal);
-    const { result } = renderHook(() => usePendingOrders(server.send, { resend: server.send, retryDelayMs: never }), { wrapper });
+    const { result } = renderHook(() => useOfflineOrders(server.send, { resend: server.send, retryDelayMs: never }), { wrapper });
     await act(async () => {
       await expect(result.current.sendOrQueue(body('Kit'))).rejects.toBe(refusal);
     });
-    expect(result.current.pending).toEqual([]);
+    expect(result.current.orders).toEqual([]);
     expect(await inIndexedDb()).toEqual([]);
   });
 
   it('resends what an earlier page left behind as soon as it mounts, and on the online event', async () => {
     const left = body('From before the reload');
-    await putPending(pendingOf(left, '2026-12-01T09:00:00.000Z'));
+    await putOfflineOrder(offlineOrderOf(left, '2026-12-01T09:00:00.000Z'));
     const server = scriptedServer(offline(), 'ok');
-    const { result } = renderHook(() => usePendingOrders(server.send, { resend: server.send, retryDelayMs: never }), { wrapper });
-    await waitFor(() => expect(result.current.pending[0]?.attempts).toBe(1)); // tried on mount, still away
+    const { result } = renderHook(() => useOfflineOrders(server.send, { resend: server.send, retryDelayMs: never }), { wrapper });
+    await waitFor(() => expect(result.current.orders[0]?.attempts).toBe(1)); // tried on mount, still away
     expect(server.bodies.map((b) => b.clientOrderId)).toEqual([left.clientOrderId]);
 
     act(() => void window.dispatchEvent(new Event('online')));
-    await waitFor(() => expect(result.current.pending).toEqual([]));
+    await waitFor(() => expect(result.current.orders).toEqual([]));
     expect(server.bodies.map((b) => b.clientOrderId)).toEqual([left.clientOrderId, left.clientOrderId]);
   });
 });
 
 function Counterish({ send, resend }: { send: SendOrderFn; resend: SendOrderFn }) {
-  const queue = usePendingOrders(send, { resend, retryDelayMs: never });
+  const offlineOrders = useOfflineOrders(send, { resend, retryDelayMs: never });
   return (
     <>
-      <button type="button" onClick={() => void queue.sendOrQueue(body('Wren Ashby'), { totalCents: 379 }).catch(() => {})}>
+      <button type="button" onClick={() => void offlineOrders.sendOrQueue(body('Wren Ashby'), { totalCents: 379 }).catch(() => {})}>
         Take Wren
       </button>
-      <button type="button" onClick={() => void queue.sendOrQueue(body('Robin Vale'), { totalCents: 1250 }).catch(() => {})}>
+      <button type="button" onClick={() => void offlineOrders.sendOrQueue(body('Robin Vale'), { totalCents: 1250 }).catch(() => {})}>
         Take Robin
       </button>
-      <PendingOrdersBanner queue={queue} currency="USD" />
+      <OfflineOrdersBanner offlineOrders={offlineOrders} currency="USD" />
     </>
   );
 }
 
-describe('PendingOrdersBanner', () => {
+describe('OfflineOrdersBanner', () => {
   it('says in words how many orders wait, whose and how much, and sends them on "Send now"', async () => {
     const user = userEvent.setup();
     const first = scriptedServer(offline(), offline());
@@ -176,11 +177,11 @@ describe('PendingOrdersBanner', () => {
     await screen.findByRole('heading', { name: '1 order not sent yet — will send when the server is back' });
     await user.click(screen.getByRole('button', { name: 'Take Robin' }));
     await screen.findByRole('heading', { name: '2 orders not sent yet — will send when the server is back' });
-    const rows = screen.getAllByTestId('pending-order');
+    const rows = screen.getAllByTestId('offline-order');
     expect(rows.map((r) => r.textContent)).toEqual(['Wren Ashby$3.79Not sent yet', 'Robin Vale$12.50Not sent yet']);
 
     await user.click(screen.getByRole('button', { name: 'Send now' }));
-    await waitFor(() => expect(screen.queryByTestId('pending-orders')).toBeNull());
+    await waitFor(() => expect(screen.queryByTestId('offline-orders')).toBeNull());
     expect(later.bodies.map((b) => b.customerName)).toEqual(['Wren Ashby', 'Robin Vale']); // in the order taken
     expect(later.bodies.map((b) => b.clientOrderId)).toEqual(first.bodies.map((b) => b.clientOrderId));
   });
@@ -194,12 +195,12 @@ describe('PendingOrdersBanner', () => {
     await user.click(await screen.findByRole('button', { name: 'Send now' }));
 
     await screen.findByRole('heading', { name: '1 order refused by the server — check and discard' });
-    expect(screen.getByTestId('pending-order')).toHaveTextContent('Refused: Espresso is 86’d');
+    expect(screen.getByTestId('offline-order')).toHaveTextContent('Refused: Espresso is 86’d');
     expect(screen.queryByRole('button', { name: 'Send now' })).toBeNull(); // not resent by itself
     expect((await inIndexedDb()).map((o) => o.state)).toEqual(['refused']);
 
     await user.click(screen.getByRole('button', { name: 'Discard Wren Ashby' }));
-    await waitFor(() => expect(screen.queryByTestId('pending-orders')).toBeNull());
+    await waitFor(() => expect(screen.queryByTestId('offline-orders')).toBeNull());
     expect(await inIndexedDb()).toEqual([]);
     expect(later.bodies).toHaveLength(1);
   });
@@ -216,13 +217,13 @@ const cardBody = (customerName: string): CreateOrderBody =>
   });
 
 function CardCounter({ send, resend }: { send: SendOrderFn; resend: SendOrderFn }) {
-  const queue = usePendingOrders(send, { resend, retryDelayMs: () => 1 });
+  const offlineOrders = useOfflineOrders(send, { resend, retryDelayMs: () => 1 });
   return (
     <>
-      <button type="button" onClick={() => void queue.sendOrQueue(cardBody('Cass Moor'), { totalCents: 460 }).catch(() => {})}>
+      <button type="button" onClick={() => void offlineOrders.sendOrQueue(cardBody('Cass Moor'), { totalCents: 460 }).catch(() => {})}>
         Take Cass by card
       </button>
-      <PendingOrdersBanner queue={queue} currency="USD" />
+      <OfflineOrdersBanner offlineOrders={offlineOrders} currency="USD" />
     </>
   );
 }
@@ -235,7 +236,7 @@ describe('a card order while the server is away', () => {
     render(<CardCounter send={first.send} resend={later.send} />, { wrapper });
     await user.click(screen.getByRole('button', { name: 'Take Cass by card' }));
     await screen.findByRole('heading', { name: /1 card order held — not charged/ });
-    expect(screen.getByTestId('pending-order')).toHaveTextContent('Cass Moor$4.60Card not charged');
+    expect(screen.getByTestId('offline-order')).toHaveTextContent('Cass Moor$4.60Card not charged');
     expect(screen.queryByRole('button', { name: 'Send now' })).toBeNull();
     expect((await inIndexedDb()).map((o) => o.state)).toEqual(['held']);
 
@@ -251,7 +252,7 @@ describe('a card order while the server is away', () => {
     render(<CardCounter send={first.send} resend={later.send} />, { wrapper });
     await user.click(screen.getByRole('button', { name: 'Take Cass by card' }));
     await user.click(await screen.findByRole('button', { name: 'Cass Moor paid cash' }));
-    await waitFor(() => expect(screen.queryByTestId('pending-orders')).toBeNull());
+    await waitFor(() => expect(screen.queryByTestId('offline-orders')).toBeNull());
     expect(later.bodies.map((b) => [b.clientOrderId, b.payment])).toEqual([[first.bodies[0].clientOrderId, { method: 'cash', tenderedCents: 460 }]]);
   });
 
@@ -262,7 +263,7 @@ describe('a card order while the server is away', () => {
     render(<CardCounter send={first.send} resend={later.send} />, { wrapper });
     await user.click(screen.getByRole('button', { name: 'Take Cass by card' }));
     await user.click(await screen.findByRole('button', { name: 'Charge Cass Moor’s card now' }));
-    await waitFor(() => expect(screen.queryByTestId('pending-orders')).toBeNull());
+    await waitFor(() => expect(screen.queryByTestId('offline-orders')).toBeNull());
     expect(later.bodies).toEqual([first.bodies[0]]);
   });
 
@@ -273,17 +274,17 @@ describe('a card order while the server is away', () => {
     render(<CardCounter send={first.send} resend={later.send} />, { wrapper });
     await user.click(screen.getByRole('button', { name: 'Take Cass by card' }));
     await user.click(await screen.findByRole('button', { name: 'Cancel Cass Moor’s order' }));
-    await waitFor(() => expect(screen.queryByTestId('pending-orders')).toBeNull());
+    await waitFor(() => expect(screen.queryByTestId('offline-orders')).toBeNull());
     expect(later.bodies).toEqual([]);
     expect(await inIndexedDb()).toEqual([]);
   });
 
   it('a card order an older page stored as waiting is held on mount, not charged', async () => {
     const left = cardBody('From an older page');
-    await putPending(pendingOf(left, '2026-12-01T09:00:00.000Z'));
+    await putOfflineOrder(offlineOrderOf(left, '2026-12-01T09:00:00.000Z'));
     const server = scriptedServer();
-    const { result } = renderHook(() => usePendingOrders(server.send, { resend: server.send, retryDelayMs: () => 1 }), { wrapper });
-    await waitFor(() => expect(result.current.pending.map((o) => o.state)).toEqual(['held']));
+    const { result } = renderHook(() => useOfflineOrders(server.send, { resend: server.send, retryDelayMs: () => 1 }), { wrapper });
+    await waitFor(() => expect(result.current.orders.map((o) => o.state)).toEqual(['held']));
     await new Promise((r) => setTimeout(r, 50));
     expect(server.bodies).toEqual([]);
   });

@@ -1,13 +1,14 @@
-// Orders the Counter took but could not hand to the server yet, kept in this browser's
-// IndexedDB so a reload or a crashed tab doesn't lose them. Each keeps its clientOrderId, so a
-// resend that the server already has is answered with the same order, never a second one.
+// Offline orders: orders the Counter took but could not hand to the server yet, kept in this
+// browser's IndexedDB so a reload or a crashed tab doesn't lose them. Each keeps its
+// clientOrderId, so a resend that the server already has is answered with the same order, never
+// a second one.
 //
 // Nothing here touches indexedDB until a function is called, and never where it doesn't exist
 // (the server render): there the orders live in memory for as long as the process does.
 import { createStore, del, set, values, type UseStore } from 'idb-keyval';
 import type { CreateOrderBody } from '../../domain/schemas';
 
-export interface PendingOrder {
+export interface OfflineOrder {
   clientOrderId: string;
   /** Exactly what is POSTed to /api/orders, id included. */
   body: CreateOrderBody;
@@ -29,16 +30,17 @@ export interface PendingOrder {
 
 // Used when indexedDB is missing, or when a write to it fails (a full or blocked store): an
 // order kept in memory is still resent while the tab lives, rather than dropped.
-const memory = new Map<string, PendingOrder>();
+const memory = new Map<string, OfflineOrder>();
 let store: UseStore | null = null;
 
 function idb(): UseStore | null {
   if (typeof indexedDB === 'undefined') return null;
+  // the store keeps its first name, so orders a browser already holds are still found
   store ??= createStore('jugline', 'pending-orders');
   return store;
 }
 
-export async function putPending(order: PendingOrder): Promise<void> {
+export async function putOfflineOrder(order: OfflineOrder): Promise<void> {
   const s = idb();
   if (s) {
     try {
@@ -52,13 +54,13 @@ export async function putPending(order: PendingOrder): Promise<void> {
   memory.set(order.clientOrderId, order);
 }
 
-/** Every pending order, the oldest first (the order they were taken in). */
-export async function listPending(): Promise<PendingOrder[]> {
+/** Every offline order, the oldest first (the order they were taken in). */
+export async function listOfflineOrders(): Promise<OfflineOrder[]> {
   const s = idb();
-  let stored: PendingOrder[] = [];
+  let stored: OfflineOrder[] = [];
   if (s) {
     try {
-      stored = await values<PendingOrder>(s);
+      stored = await values<OfflineOrder>(s);
     } catch {
       stored = [];
     }
@@ -70,7 +72,7 @@ export async function listPending(): Promise<PendingOrder[]> {
     .map((o) => (o.state === 'waiting' && o.body.payment.method === 'card' ? { ...o, state: 'held' as const } : o)).sort((a, b) => a.queuedAt.localeCompare(b.queuedAt) || a.clientOrderId.localeCompare(b.clientOrderId));
 }
 
-export async function removePending(clientOrderId: string): Promise<void> {
+export async function removeOfflineOrder(clientOrderId: string): Promise<void> {
   memory.delete(clientOrderId);
   const s = idb();
   if (s) await del(clientOrderId, s);

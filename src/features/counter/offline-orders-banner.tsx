@@ -1,4 +1,4 @@
-// The strip under the Counter's header while orders wait for the server: how many, whose, how
+// The strip under the Counter's header while there are offline orders: how many, whose, how
 // much, and a "Send now". A held card order asks the cashier: charge the card now (the customer
 // is there), they paid cash, or cancel. Told in words and a shape (the warning sign), never by
 // colour alone.
@@ -7,17 +7,17 @@ import { formatCents } from '../../domain/money';
 import { plural } from '../../domain/plural';
 import { Button } from '../../components/ui/button';
 import type { OrderView } from '../../domain/types';
-import type { PendingOrder } from './pending-orders';
-import type { PendingOrders } from './use-pending-orders';
+import type { OfflineOrder } from './offline-orders';
+import type { OfflineOrders } from './use-offline-orders';
 
 /** `onSent`: a held card order the cashier settled is on the server (the Counter says "Sent"). */
-export function PendingOrdersBanner({ queue, currency, onSent }: { queue: PendingOrders; currency: string; onSent?(order: OrderView): void }) {
-  const { pending, resending, retryNow } = queue;
+export function OfflineOrdersBanner({ offlineOrders, currency, onSent }: { offlineOrders: OfflineOrders; currency: string; onSent?(order: OrderView): void }) {
+  const { orders, resending, retryNow } = offlineOrders;
   const [notice, setNotice] = useState<string | null>(null);
-  if (pending.length === 0 && !notice) return null;
-  const waiting = pending.filter((o) => o.state === 'waiting');
-  const refused = pending.filter((o) => o.state === 'refused');
-  const held = pending.filter((o) => o.state === 'held');
+  if (orders.length === 0 && !notice) return null;
+  const waiting = orders.filter((o) => o.state === 'waiting');
+  const refused = orders.filter((o) => o.state === 'refused');
+  const held = orders.filter((o) => o.state === 'held');
   const money = (c: number | null) => (c === null ? null : formatCents(c, currency));
   const parts = [
     held.length > 0 && `${plural(held.length, 'card order')} held — not charged; ask the customer`,
@@ -26,9 +26,9 @@ export function PendingOrdersBanner({ queue, currency, onSent }: { queue: Pendin
   ].filter(Boolean);
 
   return (
-    <section aria-labelledby="pending-orders-title" data-testid="pending-orders" className="border-b-4 border-alert-deep bg-alert-ink px-5 py-3 text-ink-900">
+    <section aria-labelledby="offline-orders-title" data-testid="offline-orders" className="border-b-4 border-alert-deep bg-alert-ink px-5 py-3 text-ink-900">
       <div className="flex flex-wrap items-center gap-4">
-        <h2 id="pending-orders-title" className="text-xl font-semibold" aria-live="polite">
+        <h2 id="offline-orders-title" className="text-xl font-semibold" aria-live="polite">
           <span aria-hidden className="mr-2">
             ⚠
           </span>
@@ -47,13 +47,13 @@ export function PendingOrdersBanner({ queue, currency, onSent }: { queue: Pendin
         </Button>
       )}
       <ul className="mt-2 flex flex-col gap-1 text-lg" aria-label="Orders not sent yet">
-        {pending.map((o) => (
-          <li key={o.clientOrderId} data-testid="pending-order" className="flex flex-wrap items-center gap-3">
+        {orders.map((o) => (
+          <li key={o.clientOrderId} data-testid="offline-order" className="flex flex-wrap items-center gap-3">
             <strong>{o.body.customerName}</strong>
             {money(o.totalCents) && <span>{money(o.totalCents)}</span>}
             {o.state === 'waiting' && <span className="rounded border border-ink-900 px-2 text-base">Not sent yet</span>}
-            {o.state === 'refused' && <Refused order={o} queue={queue} />}
-            {o.state === 'held' && <Held order={o} queue={queue} money={money} onNotice={setNotice} onSent={onSent} />}
+            {o.state === 'refused' && <Refused order={o} offlineOrders={offlineOrders} />}
+            {o.state === 'held' && <Held order={o} offlineOrders={offlineOrders} money={money} onNotice={setNotice} onSent={onSent} />}
           </li>
         ))}
       </ul>
@@ -61,14 +61,14 @@ export function PendingOrdersBanner({ queue, currency, onSent }: { queue: Pendin
   );
 }
 
-function Refused({ order: o, queue }: { order: PendingOrder; queue: PendingOrders }) {
+function Refused({ order: o, offlineOrders }: { order: OfflineOrder; offlineOrders: OfflineOrders }) {
   return (
     <>
       <span className="rounded border-2 border-ink-900 px-2 text-base font-semibold">Refused: {o.lastError?.message ?? 'the server said no'}</span>
-      <Button tone="quiet" onClick={() => queue.retryNow(o.clientOrderId)} aria-label={`Try again ${o.body.customerName}`}>
+      <Button tone="quiet" onClick={() => offlineOrders.retryNow(o.clientOrderId)} aria-label={`Try again ${o.body.customerName}`}>
         Try again
       </Button>
-      <Button tone="quiet" onClick={() => void queue.discard(o.clientOrderId)} aria-label={`Discard ${o.body.customerName}`}>
+      <Button tone="quiet" onClick={() => void offlineOrders.discard(o.clientOrderId)} aria-label={`Discard ${o.body.customerName}`}>
         Discard
       </Button>
     </>
@@ -77,19 +77,19 @@ function Refused({ order: o, queue }: { order: PendingOrder; queue: PendingOrder
 
 /** A card order taken while the server was away: nothing happens until the cashier chooses. */
 interface HeldProps {
-  order: PendingOrder;
-  queue: PendingOrders;
+  order: OfflineOrder;
+  offlineOrders: OfflineOrders;
   money(c: number | null): string | null;
   onNotice(n: string): void;
   onSent?(order: OrderView): void;
 }
 
-function Held({ order: o, queue, money, onNotice, onSent }: HeldProps) {
+function Held({ order: o, offlineOrders, money, onNotice, onSent }: HeldProps) {
   const [busy, setBusy] = useState(false);
   const name = o.body.customerName;
   const settle = async (choice: 'card' | 'cash') => {
     setBusy(true);
-    const order = await queue.settleHeld(o.clientOrderId, choice).finally(() => setBusy(false));
+    const order = await offlineOrders.settleHeld(o.clientOrderId, choice).finally(() => setBusy(false));
     // the card went through on an earlier try after all: the customer must not pay twice
     if (order && choice === 'cash' && order.payment?.method === 'card' && order.paymentStatus === 'paid') {
       onNotice(`${name}’s card was charged ${money(order.totalCents)} before the connection dropped: give the cash back.`);
@@ -107,7 +107,7 @@ function Held({ order: o, queue, money, onNotice, onSent }: HeldProps) {
       <Button tone="quiet" disabled={busy} onClick={() => void settle('cash')} aria-label={`${name} paid cash`}>
         They paid cash
       </Button>
-      <Button tone="quiet" disabled={busy} onClick={() => void queue.discard(o.clientOrderId)} aria-label={`Cancel ${name}’s order`}>
+      <Button tone="quiet" disabled={busy} onClick={() => void offlineOrders.discard(o.clientOrderId)} aria-label={`Cancel ${name}’s order`}>
         Cancel
       </Button>
     </>

@@ -1,4 +1,4 @@
-// The Counter's outbox. An order the server can't be reached for (no connection, or a gateway
+// The Counter's offline orders. An order the server can't be reached for (no connection, or a gateway
 // answering 502/503/504) is kept in this browser and resent with the same clientOrderId: on a
 // timer with backoff, when the browser says it is back online, when the live socket reconnects,
 // and when the cashier taps "Send now". An order the server refuses (4xx) is never queued; one
@@ -12,22 +12,22 @@ import type { OrderView } from '../../domain/types';
 import { ApiError, http } from '../../lib/http';
 import { onLiveConnected } from '../../lib/live-socket';
 import { menuKeys } from '../../queries/menu';
-import { listPending, putPending, removePending, type PendingOrder } from './pending-orders';
+import { listOfflineOrders, putOfflineOrder, removeOfflineOrder, type OfflineOrder } from './offline-orders';
 
 export type SendOrderFn = (body: CreateOrderBody) => Promise<{ order: OrderView }>;
 
-export type SendOutcome = { queued: false; order: OrderView } | { queued: true; pending: PendingOrder };
+export type SendOutcome = { queued: false; order: OrderView } | { queued: true; offlineOrder: OfflineOrder };
 
-export interface PendingOrdersOptions {
+export interface OfflineOrdersOptions {
   /** Resends of queued orders; POST /api/orders unless a test passes its own. */
   resend?: SendOrderFn;
   /** Wait before the n-th automatic resend after a failed round (n from 1). */
   retryDelayMs?: (failures: number) => number;
 }
 
-export interface PendingOrders {
+export interface OfflineOrders {
   /** Orders not on the server yet, the oldest first. */
-  pending: PendingOrder[];
+  orders: OfflineOrder[];
   /** True while a round of resends is running. */
   resending: boolean;
   /**
@@ -63,7 +63,7 @@ const postOrder: SendOrderFn = (body) => http<{ order: OrderView }>('POST', '/or
 // 2 s, 4 s, 8 s … up to 30 s, with jitter so a room of tablets doesn't resend at once.
 const defaultDelay = (failures: number) => Math.min(30_000, 1000 * 2 ** failures) * (0.75 + Math.random() / 2);
 
-const errorOf = (err: unknown): PendingOrder['lastError'] =>
+const errorOf = (err: unknown): OfflineOrder['lastError'] =>
   err instanceof ApiError
     ? { status: err.status, code: err.code, message: err.message }
     : { status: 0, code: 'internal', message: err instanceof Error ? err.message : 'Could not send the order' };
@@ -72,23 +72,23 @@ const errorOf = (err: unknown): PendingOrder['lastError'] =>
  * @param send the first send of each new order. The Counter passes its own mutation's
  * `mutateAsync`, so "Sending…" and a refusal show there as before; resends don't go through it.
  */
-export function usePendingOrders(send: SendOrderFn = postOrder, options: PendingOrdersOptions = {}): PendingOrders {
+export function useOfflineOrders(send: SendOrderFn = postOrder, options: OfflineOrdersOptions = {}): OfflineOrders {
   const qc = useQueryClient();
-  const [pending, setPending] = useState<PendingOrder[]>([]);
+  const [orders, setOrders] = useState<OfflineOrder[]>([]);
   const [resending, setResending] = useState(false);
   const fns = useRef({ send, resend: options.resend ?? postOrder, delay: options.retryDelayMs ?? defaultDelay });
   fns.current = { send, resend: options.resend ?? postOrder, delay: options.retryDelayMs ?? defaultDelay };
   const loop = useRef({ running: false, again: false, failures: 0, timer: undefined as ReturnType<typeof setTimeout> | undefined, alive: false });
 
   const refresh = useCallback(async () => {
-    const list = await listPending();
-    if (loop.current.alive) setPending(list);
+    const list = await listOfflineOrders();
+    if (loop.current.alive) setOrders(list);
     return list;
   }, []);
 
   const flushRef = useRef<() => Promise<void>>(async () => {});
   /** Set the next automatic round, if anything is still waiting. */
-  const schedule = useCallback((list: PendingOrder[]) => {
+  const schedule = useCallback((list: OfflineOrder[]) => {
     const l = loop.current;
     clearTimeout(l.timer);
     l.timer = undefined;
@@ -111,19 +111,19 @@ export function usePendingOrders(send: SendOrderFn = postOrder, options: Pending
       do {
         l.again = false;
         let blocked = false;
-        for (const order of (await listPending()).filter((o) => o.state === 'waiting' && o.body.payment.method === 'cash')) {
+        for (const order of (await listOfflineOrders()).filter((o) => o.state === 'waiting' && o.body.payment.method === 'cash')) {
           try {
             await fns.current.resend(order.body);
-            await removePending(order.clientOrderId).catch(() => {
+            await removeOfflineOrder(order.clientOrderId).catch(() => {
               /* still stored: the next round resends it and the server answers the same order */
             });
           } catch (err) {
             if (isRefusal(err)) {
-              await putPending({ ...order, attempts: order.attempts + 1, state: 'refused', lastError: errorOf(err) });
+              await putOfflineOrder({ ...order, attempts: order.attempts + 1, state: 'refused', lastError: errorOf(err) });
               if (err.status === 409) void qc.invalidateQueries({ queryKey: menuKeys.all }); // something was 86'd
               continue;
             }
-            await putPending({ ...order, attempts: order.attempts + 1, lastError: errorOf(err) });
+            await putOfflineOrder({ ...order, attempts: order.attempts + 1, lastError: errorOf(err) });
             blocked = true;
             break;
           }
@@ -172,7 +172,7 @@ export function usePendingOrders(send: SendOrderFn = postOrder, options: Pending
         if (!isUnreachable(err)) throw err;
         // our server answered that the card service didn't: the cashier sees that at once
         if (body.payment.method === 'card' && err instanceof ApiError && err.code === 'payment_unavailable') throw err;
-        const kept: PendingOrder = {
+        const kept: OfflineOrder = {
           clientOrderId: body.clientOrderId,
           body,
           totalCents: summary.totalCents ?? null,
@@ -181,10 +181,10 @@ export function usePendingOrders(send: SendOrderFn = postOrder, options: Pending
           state: body.payment.method === 'card' ? 'held' : 'waiting',
           lastError: errorOf(err),
         };
-        await putPending(kept);
+        await putOfflineOrder(kept);
         const list = await refresh();
         if (!loop.current.running) schedule(list);
-        return { queued: true, pending: kept };
+        return { queued: true, offlineOrder: kept };
       }
     },
     [refresh, schedule],
@@ -194,8 +194,8 @@ export function usePendingOrders(send: SendOrderFn = postOrder, options: Pending
     (clientOrderId?: string) => {
       void (async () => {
         if (clientOrderId) {
-          const order = (await listPending()).find((o) => o.clientOrderId === clientOrderId);
-          if (order?.state === 'refused') await putPending({ ...order, state: 'waiting' });
+          const order = (await listOfflineOrders()).find((o) => o.clientOrderId === clientOrderId);
+          if (order?.state === 'refused') await putOfflineOrder({ ...order, state: 'waiting' });
         }
         retrySoon();
       })();
@@ -205,7 +205,7 @@ export function usePendingOrders(send: SendOrderFn = postOrder, options: Pending
 
   const discard = useCallback(
     async (clientOrderId: string) => {
-      await removePending(clientOrderId);
+      await removeOfflineOrder(clientOrderId);
       await refresh();
     },
     [refresh],
@@ -213,18 +213,18 @@ export function usePendingOrders(send: SendOrderFn = postOrder, options: Pending
 
   const settleHeld = useCallback(
     async (clientOrderId: string, choice: 'card' | 'cash'): Promise<OrderView | null> => {
-      const order = (await listPending()).find((o) => o.clientOrderId === clientOrderId);
+      const order = (await listOfflineOrders()).find((o) => o.clientOrderId === clientOrderId);
       if (!order || order.state !== 'held') return null;
       const body: CreateOrderBody =
         choice === 'card' ? order.body : { ...order.body, payment: { method: 'cash', tenderedCents: order.totalCents ?? 0 } };
       try {
         const { order: taken } = await fns.current.resend(body);
-        await removePending(clientOrderId);
+        await removeOfflineOrder(clientOrderId);
         return taken;
       } catch (err) {
         // cash was taken: it may go on its own now; a card stays held for the cashier
         const state = choice === 'cash' && isUnreachable(err) ? 'waiting' : 'held';
-        await putPending({ ...order, body: state === 'waiting' ? body : order.body, state, attempts: order.attempts + 1, lastError: errorOf(err) });
+        await putOfflineOrder({ ...order, body: state === 'waiting' ? body : order.body, state, attempts: order.attempts + 1, lastError: errorOf(err) });
         if (state === 'waiting') schedule(await refresh());
         return null;
       } finally {
@@ -234,5 +234,5 @@ export function usePendingOrders(send: SendOrderFn = postOrder, options: Pending
     [refresh, schedule],
   );
 
-  return { pending, resending, sendOrQueue, retryNow, discard, settleHeld };
+  return { orders, resending, sendOrQueue, retryNow, discard, settleHeld };
 }
