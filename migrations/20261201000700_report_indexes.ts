@@ -4,11 +4,11 @@ import { dialectOf } from '../server/db/dialect';
 // Reports over a long range. Two things the report and the ticket history kept recomputing:
 //
 // - orders.wait_seconds: a ticket's fired → ready wait, to the millisecond, as the reports work it
-//   out (server/services/reports/sql.ts, WAIT_OF_ORDER): set when the ticket becomes ready, cleared
+//   out (server/reports/sql.ts, WAIT_OF_ORDER): set when the ticket becomes ready, cleared
 //   by a recall, null without bar drinks. The ticket history sorts on it instead of working the wait
 //   out for every order. (No index on it: the sort needs the date filter's index, and an index led by
 //   location_id drew the shift report's queries away from orders.shift_id.)
-// - report_days: one past café day's report partial per row (server/services/reports/days.ts),
+// - report_days: one past café day's report partial per row (server/reports/days.ts),
 //   filled lazily by the range report. A row must never outlive a change to its day's orders, so
 //   triggers delete it whenever an order or an order line of that day is inserted, changed or
 //   deleted (refunds, late bumps and payments, the history generator, anything else), inside the

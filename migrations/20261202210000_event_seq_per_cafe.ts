@@ -3,7 +3,7 @@ import type { Knex } from 'knex';
 // The live sequence number becomes per café and commit-ordered. It was the global events.id, which
 // PostgreSQL hands out at insert, not at commit: a screen could resume past an event whose
 // transaction committed later, and never be sent it. Now each command takes its numbers from its
-// café's counter row as the last step of its transaction (server/services/events.ts), which holds
+// café's counter row as the last step of its transaction (server/events.ts), which holds
 // that row until commit: numbers are gap-free and committed in order. Same SQL on both databases.
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('event_seqs', (t) => {

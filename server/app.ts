@@ -11,21 +11,22 @@ import { requestLogger } from './logging';
 import { sameOriginOnly, securityHeaders } from './security';
 import type { Logger } from 'pino';
 import { createInProcessHub, type Hub } from './realtime/hub';
-import { mountRoutes, type ApiRoute } from './routes/define';
-import { beanRoutes } from './routes/beans';
-import { mailRoutes } from './routes/mail';
-import { menuAdminRoutes } from './routes/menu-admin';
-import { menuImportRoutes } from './routes/menu-import';
-import { settingsRoutes } from './routes/settings';
-import { teamRoutes } from './routes/team';
-import { orderRoutes, WEBHOOK_PATH } from './routes/orders';
-import { reportRoutes } from './routes/reports';
-import { shiftRoutes } from './routes/shifts';
-import { sessionRoutes, type SignInPacing } from './routes/session';
-import { ticketRoutes } from './routes/tickets';
-import type { Clock, Deps } from './services/deps';
-import { PHOTO_FOLDER } from './services/item-photos';
-import type { Mailer } from './services/mail';
+import { mountRoutes, type ApiRoute } from './routes';
+import { beanRoutes } from './beans/routes';
+import { mailRoutes } from './mail/routes';
+import { menuAdminRoutes } from './menu/admin-routes';
+import { menuImportRoutes } from './menu/import-routes';
+import { settingsRoutes } from './settings/routes';
+import { teamRoutes } from './team/routes';
+import { menuRoutes } from './menu/routes';
+import { orderRoutes, WEBHOOK_PATH } from './orders/routes';
+import { reportRoutes } from './reports/routes';
+import { shiftRoutes } from './shifts/routes';
+import { sessionRoutes, type SignInPacing } from './auth/routes';
+import { ticketRoutes } from './tickets/routes';
+import type { Clock, Deps } from './deps';
+import { PHOTO_FOLDER } from './menu/item-photos';
+import type { Mailer } from './mail/outbox';
 import type { PaymentGateway } from './payments/gateway';
 import type { PageRenderer } from './ssr/pages';
 
@@ -96,7 +97,7 @@ export function createApp(opts: AppOptions): App {
     logger: opts.logger,
   });
   const passport = createPassport(opts.db, opts.sessionClock);
-  const routes = [...sessionRoutes(passport, deps, { secret: opts.config.sessionSecret, pacing: opts.signInPacing }), ...orderRoutes(deps), ...ticketRoutes(deps), ...shiftRoutes(deps), ...reportRoutes(deps)];
+  const routes = [...sessionRoutes(passport, deps, { secret: opts.config.sessionSecret, pacing: opts.signInPacing }), ...menuRoutes(deps), ...orderRoutes(deps), ...ticketRoutes(deps), ...shiftRoutes(deps), ...reportRoutes(deps)];
   routes.push(...menuAdminRoutes(deps), ...menuImportRoutes(deps, mediaDir), ...teamRoutes(deps), ...settingsRoutes(deps), ...beanRoutes(deps));
   if (opts.mailer) routes.push(...mailRoutes(deps, opts.mailer));
 

@@ -9,15 +9,15 @@ import { databaseTarget, mediaDirOf, migratesOnStart, type Config } from './conf
 import { createDb } from './db/knex';
 import { migrateAndSeed, requireMigrated } from './db/migrate';
 import { attachSocketServer, type SocketServer } from './realtime/socket-server';
-import type { ApiRoute } from './routes/define';
-import type { Clock, Deps } from './services/deps';
-import { startMail } from './services/mail';
+import type { ApiRoute } from './routes';
+import type { Clock, Deps } from './deps';
+import { startMail } from './mail/outbox';
 import { createLogger } from './logging';
 import type { Logger } from 'pino';
 import type { PaymentFake } from './fakes/payment-fake';
 import { startPayments } from './payments/start';
-import { WEBHOOK_PATH } from './routes/orders';
-import type { SignInPacing } from './routes/session';
+import { WEBHOOK_PATH } from './orders/routes';
+import type { SignInPacing } from './auth/routes';
 import { developmentPages, productionPages } from './ssr/pages';
 
 export interface RunningServer {

@@ -7,7 +7,7 @@ import type { Random } from './random';
 /** Seconds of queue per drink ahead, per barista on bar: with the rushes of arrivals.ts this keeps
  * about 94 % of tickets under the 4-minute target, with 8–13 % over it at the morning peak. */
 const QUEUE_SECONDS_PER_DRINK = 20;
-/** Recent drinks that set the quoted pace (as server/services/quotes.ts). */
+/** Recent drinks that set the quoted pace (as server/orders/quotes.ts). */
 const RECENT_DRINKS = 30;
 
 export interface DrinkTiming {

@@ -1,11 +1,11 @@
 // Fill a database with an invented year (or any number of days) of service ending yesterday,
 // café-local: migrate, load the demo café into an empty database (a SQLite file or PostgreSQL),
 // then plan and write day by day.
-import { rangeDays } from '../../server/services/reports/days';
-import { loadReportLocation } from '../../server/services/reports/scope';
+import { rangeDays } from '../../server/reports/days';
+import { loadReportLocation } from '../../server/reports/scope';
 import { isPostgresUrl } from '../../server/db/dialect';
 import { createDb, migrate } from '../../server/db/knex';
-import { loadMenu } from '../../server/services/menu';
+import { loadMenu } from '../../server/menu/menu';
 import { isEmpty, seedDemoCafe } from '../../seeds/demo-cafe';
 import { indexMenu } from './basket';
 import { businessDate, daysEndingYesterday } from './calendar';

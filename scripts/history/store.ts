@@ -1,11 +1,11 @@
 // Writing planned days through Knex, one transaction per day, on SQLite or PostgreSQL alike: each
 // table's rows for the day go in as a few multi-row inserts. The columns are filled as
-// server/services/orders.ts and the bar commands fill them; no events rows (the realtime log is
+// server/orders/orders.ts and the bar commands fill them; no events rows (the realtime log is
 // for live screens, not for history).
 import type { Knex } from 'knex';
 import { dialectOf } from '../../server/db/dialect';
-import { orderItemRow } from '../../server/services/order-item-row';
-import { waitOfOrder } from '../../server/services/reports/sql';
+import { orderItemRow } from '../../server/orders/order-item-row';
+import { waitOfOrder } from '../../server/reports/sql';
 import type { DayPlan } from './day';
 
 export interface Written {
@@ -33,7 +33,7 @@ async function insertAll<T extends Record<string, unknown>>(trx: Knex.Transactio
 }
 
 export async function dayWriter(db: Knex, locationId: number, lead: number): Promise<DayWriter> {
-  // the stored wait, worked out by the same SQL the bar's bump uses (server/services/tickets.ts)
+  // the stored wait, worked out by the same SQL the bar's bump uses (server/tickets/tickets.ts)
   const waits = `UPDATE orders AS o SET wait_seconds = ${waitOfOrder(dialectOf(db))} WHERE o.location_id = ? AND o.business_date = ? AND o.ready_at IS NOT NULL`;
   // Bumps are numbered in the order they happened, after any the bar has made already (read once:
   // bump_seq has no index, and history is the only writer while it runs).

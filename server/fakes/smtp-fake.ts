@@ -5,7 +5,7 @@ import type { AddressInfo } from 'node:net';
 import { simpleParser, type AddressObject } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 
-/** Header a sender may set so the fake knows which café a mail belongs to (see services/mail.ts). */
+/** Header a sender may set so the fake knows which café a mail belongs to (see server/mail/outbox.ts). */
 export const LOCATION_HEADER = 'x-jugline-location';
 /** Set on mail with a sign-in link; the Outbox shows such mail to the owner only. */
 export const OWNER_ONLY_HEADER = 'x-jugline-owner-only';

@@ -6,9 +6,9 @@
 // and the Pickup board's ready timeout stay current. Snapshot frames are kept beside it, one per
 // audience (see frames.ts).
 import type { AnyLiveEvent, BoardSnapshot } from '../../src/domain/types';
-import type { Deps } from '../services/deps';
-import { eventsSince, latestSeq, moreEventsThan } from '../services/events';
-import { boardSnapshot } from '../services/tickets';
+import type { Deps } from '../deps';
+import { eventsSince, latestSeq, moreEventsThan } from '../events';
+import { boardSnapshot } from '../tickets/tickets';
 import { snapshotFrames, type Audience } from './frames';
 
 /** How long a computed snapshot or replay is reused while the log has not moved. */

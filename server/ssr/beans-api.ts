@@ -2,9 +2,9 @@
 import { idParam } from '../../src/domain/schemas';
 import type { BeansApi } from '../../src/lib/beans-api';
 import { parse } from '../errors';
-import { beansView } from '../services/beans';
-import type { Deps } from '../services/deps';
-import { dialInView, lotShots } from '../services/dial-in';
+import { beansView } from '../beans/beans';
+import type { Deps } from '../deps';
+import { dialInView, lotShots } from '../beans/dial-in';
 
 /** `locationId` throws 401 when nobody is signed in. Input is checked as the HTTP routes check it. */
 export function beansServerApi(deps: Deps, locationId: () => number): BeansApi {

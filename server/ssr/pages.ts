@@ -7,7 +7,7 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 import express, { type Request, type RequestHandler } from 'express';
 import type { RenderResult } from '../../src/entry-server';
 import type { Api } from '../../src/lib/api';
-import type { Deps } from '../services/deps';
+import type { Deps } from '../deps';
 import { serverApi } from './server-api';
 
 export const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');

@@ -3,9 +3,9 @@ import { cardCheckQuery } from '../../src/domain/card-check-schemas';
 import { parse } from '../errors';
 import { reportRangeQuery, ticketHistoryQuery } from '../../src/domain/schemas';
 import type { ReportsApi } from '../../src/lib/reports-api';
-import { cardCheck } from '../services/card-check';
-import type { Deps } from '../services/deps';
-import { rangeReport, reportShifts, shiftReport, ticketHistory } from '../services/reports';
+import { cardCheck } from '../payments/card-check';
+import type { Deps } from '../deps';
+import { rangeReport, reportShifts, shiftReport, ticketHistory } from '../reports';
 
 /** `locationId` throws 401 when nobody is signed in. Input is checked as the HTTP routes check it. */
 export function reportsServerApi(deps: Deps, locationId: () => number): ReportsApi {

@@ -3,18 +3,18 @@ import type { Api } from '../../src/lib/api';
 import { pickupView } from '../../src/domain/pickup';
 import type { SessionUser } from '../../src/domain/types';
 import { HttpError } from '../errors';
-import type { Deps } from '../services/deps';
-import { outboxView } from '../services/mail';
+import type { Deps } from '../deps';
+import { outboxView } from '../mail/outbox';
 import { beansServerApi } from './beans-api';
 import { menuAdminServerApi } from './menu-admin-api';
 import { reportsServerApi } from './reports-api';
 import { settingsServerApi } from './settings-api';
 import { teamServerApi } from './team-api';
-import { loadMenu } from '../services/menu';
-import { findOrderInLocation, listOrders, loadOrder } from '../services/order-views';
-import { pulse } from '../services/pulse';
-import { waitNowForCounter } from '../services/quotes';
-import { boardSnapshot } from '../services/tickets';
+import { loadMenu } from '../menu/menu';
+import { findOrderInLocation, listOrders, loadOrder } from '../orders/order-views';
+import { pulse } from '../shifts/pulse';
+import { waitNowForCounter } from '../orders/quotes';
+import { boardSnapshot } from '../tickets/tickets';
 
 export function serverApi(deps: Deps, user: SessionUser | undefined): Api {
   const locationId = () => {

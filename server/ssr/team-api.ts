@@ -3,10 +3,10 @@ import type { TeamApi } from '../../src/lib/team-api';
 import { tokenParam } from '../../src/domain/team-schemas';
 import type { SessionUser } from '../../src/domain/types';
 import { parse } from '../errors';
-import type { Deps } from '../services/deps';
-import { welcomeView } from '../services/invitations';
-import { switchPeople } from '../services/pins';
-import { listTeam } from '../services/team';
+import type { Deps } from '../deps';
+import { welcomeView } from '../team/invitations';
+import { switchPeople } from '../team/pins';
+import { listTeam } from '../team/team';
 
 /** `locationId` throws 401 when nobody is signed in; `user` is the signed-in person, if any. */
 export function teamServerApi(deps: Deps, locationId: () => number, user?: () => SessionUser): TeamApi {

@@ -5,7 +5,7 @@
 // covered as soon as it exists.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { z } from 'zod';
-import type { ApiRoute } from '../../server/routes/define';
+import type { ApiRoute } from '../../server/routes';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent } from './helpers';
 import { tableNames } from '../../server/db/dialect';

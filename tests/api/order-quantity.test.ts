@@ -4,7 +4,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { formatCents } from '../../src/domain/money';
 import type { MenuView } from '../../src/domain/types';
-import { receiptEmail } from '../../server/services/receipts';
+import { receiptEmail } from '../../server/orders/receipts';
 import { MAX_CUPS, MAX_QUANTITY } from '../../src/domain/order-quantity';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, writeCounts, type Agent } from './helpers';

@@ -11,7 +11,7 @@ import request from 'supertest';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { hashPassword } from '../../server/auth/passwords';
 import { createLogger } from '../../server/logging';
-import { WRONG_PINS_PER_ADDRESS } from '../../server/routes/team';
+import { WRONG_PINS_PER_ADDRESS } from '../../server/team/routes';
 import { startServer } from '../../server/server';
 import { PIN_LOCK_MINUTES, PIN_TRIES } from '../../src/domain/team-schemas';
 import { DEMO_PASSWORD, DEMO_PINS } from '../../seeds/demo-cafe';

@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { formatCents } from '../../src/domain/money';
 import type { ReportView } from '../../src/domain/reports';
 import { PERCENTILE_METHOD } from '../../src/domain/stats';
-import { shiftReportEmail } from '../../server/services/reports';
+import { shiftReportEmail } from '../../server/reports';
 import { manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent } from './helpers';
 import { DAY, T0, expectedBar, expectedMoney, placeReportDay, type ReportDay } from './reports-fixture';

@@ -6,7 +6,7 @@ import { readFileSync } from 'node:fs';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ROLES, type Role } from '../../src/domain/roles';
-import type { ApiRoute } from '../../server/routes/define';
+import type { ApiRoute } from '../../server/routes';
 import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, writeCounts, type Agent } from './helpers';
 

@@ -9,7 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Config } from '../../server/config';
 import { startSmtpFake, type ReceivedMail, type SmtpFake } from '../../server/fakes/smtp-fake';
 import { startServer } from '../../server/server';
-import { createMailer } from '../../server/services/mail';
+import { createMailer } from '../../server/mail/outbox';
 import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
 import { orderBody } from './helpers';
 

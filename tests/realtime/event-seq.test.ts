@@ -6,7 +6,7 @@
 // time, and the same checks hold.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { dialectOf } from '../../server/db/dialect';
-import { appendMenuChangedEvent, eventsSince, latestSeq, runCommand } from '../../server/services/events';
+import { appendMenuChangedEvent, eventsSince, latestSeq, runCommand } from '../../server/events';
 import { startTestServer, type TestServer } from '../support/test-server';
 import { demoLocationId } from './bar-actions';
 import { closeAllSockets, connectAndResume } from './ws-client';

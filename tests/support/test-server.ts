@@ -7,8 +7,8 @@ import path from 'node:path';
 import request from 'supertest';
 import type { Config } from '../../server/config';
 import { startServer, type RunningServer } from '../../server/server';
-import type { SignInPacing } from '../../server/routes/session';
-import type { Clock } from '../../server/services/deps';
+import type { SignInPacing } from '../../server/auth/routes';
+import type { Clock } from '../../server/deps';
 import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
 import { createTestDatabase } from './test-database';
 

@@ -12,7 +12,7 @@ import {
   type ProviderRefundLine,
   type RefundLine,
 } from '../../src/domain/card-check';
-import { dayBounds } from '../../server/services/reports/local-hours';
+import { dayBounds } from '../../server/reports/local-hours';
 
 const at = (hhmm: string) => `2026-03-05T${hhmm}:00.000Z`;
 

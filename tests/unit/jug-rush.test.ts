@@ -1,7 +1,7 @@
 // Random rushes at the bar: tickets arrive while baristas start jugs and single drinks, bump jugs,
 // drinks and tickets, recall the last bump and rush tickets, in any order. After every step the
 // Bar's plan (planBar) must keep the rules a barista relies on. The commands are modelled as the
-// server runs them (server/services/jugs.ts and tickets.ts), with the same checks
+// server runs them (server/tickets/jugs.ts and tickets.ts), with the same checks
 // (src/domain/jug-commands.ts).
 //
 // Sources: the rules checked are common practice at a busy bar, as in tests/unit/jug-plan.test.ts

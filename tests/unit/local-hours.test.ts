@@ -5,7 +5,7 @@
 // India (from memory): UTC+05:30 all year, no daylight saving time.
 import { describe, expect, it } from 'vitest';
 import { inHourOrder } from '../../src/domain/reports';
-import { localHour, offsetMinutes, offsetStretches } from '../../server/services/reports/local-hours';
+import { localHour, offsetMinutes, offsetStretches } from '../../server/reports/local-hours';
 
 const ms = (iso: string) => Date.parse(iso);
 

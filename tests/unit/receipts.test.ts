@@ -1,7 +1,7 @@
 // The receipt mail, from an invented order: what a customer needs to read on it, money written in
 // the café's currency, and nothing the customer typed able to become markup.
 import { describe, expect, it } from 'vitest';
-import { receiptEmail } from '../../server/services/receipts';
+import { receiptEmail } from '../../server/orders/receipts';
 import type { OrderView } from '../../src/domain/types';
 
 function order(over: Partial<OrderView> = {}): OrderView {

@@ -7,7 +7,7 @@ import { FieldError } from '../../components/ui/field-error';
 import { cn } from '../../lib/cn';
 import { useRemovePhoto, useUploadPhoto } from '../../queries/menu-import';
 
-/** server/services/item-photos.ts PHOTO_MAX_BYTES */
+/** server/menu/item-photos.ts PHOTO_MAX_BYTES */
 const MAX_BYTES = 5 * 1024 * 1024;
 const TYPES = ['image/jpeg', 'image/png', 'image/webp'];
 /** The hidden file input's focus, drawn on the label that stands for it. */

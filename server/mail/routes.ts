@@ -1,0 +1,43 @@
+// Mailing a receipt, and the Outbox of mail the local SMTP fake caught.
+import { idParam, receiptEmailBody } from '../../src/domain/schemas';
+import { userOf } from '../auth/guards';
+import { DomainError } from '../domain-errors';
+import { HttpError, parse } from '../errors';
+import type { Deps } from '../deps';
+import { outboxView, type Mailer } from './outbox';
+import { sendOrderReceipt } from '../orders/receipts';
+import type { ApiRoute } from '../routes';
+
+const OUTBOX_LIMIT = 100;
+
+export function mailRoutes(deps: Deps, mailer: Mailer): ApiRoute[] {
+  return [
+    {
+      method: 'post',
+      path: '/orders/:id/receipt',
+      capability: 'takeOrders',
+      handler: async (req, res) => {
+        const { id } = parse(idParam, req.params, 'params');
+        const { email } = parse(receiptEmailBody, req.body);
+        const user = userOf(req);
+        let sent: { messageId: string };
+        try {
+          sent = await sendOrderReceipt(deps.db, mailer, user.locationId, id, email);
+        } catch (err) {
+          if (err instanceof HttpError || err instanceof DomainError) throw err;
+          // The mail server refused or was unreachable: the cashier can try again, nothing is lost.
+          console.warn(`Receipt for order ${id} was not sent: ${(err as Error).message}`);
+          throw new HttpError(502, 'internal', 'The mail server did not take the receipt; try again');
+        }
+        // 202: handed to the mail server, which delivers it in its own time
+        res.status(202).json({ sent: true, messageId: sent.messageId });
+      },
+    },
+    {
+      method: 'get',
+      path: '/outbox',
+      capability: 'viewOutbox',
+      handler: async (req, res) => res.json(await outboxView(deps.db, userOf(req).locationId, userOf(req).role, OUTBOX_LIMIT)),
+    },
+  ];
+}

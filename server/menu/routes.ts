@@ -1,0 +1,30 @@
+// GET /menu (what the Counter and the Bar read) and 86ing an item from the floor.
+import { availabilityBody, idParam } from '../../src/domain/schemas';
+import { userOf } from '../auth/guards';
+import type { Deps } from '../deps';
+import { parse } from '../errors';
+import type { ApiRoute } from '../routes';
+import { setItemAvailability } from './availability';
+import { loadMenu } from './menu';
+
+export function menuRoutes(deps: Deps): ApiRoute[] {
+  const id = (params: unknown) => parse(idParam, params, 'params').id;
+  return [
+    {
+      method: 'get',
+      path: '/menu',
+      capability: 'viewQueue',
+      handler: async (req, res) => res.json(await loadMenu(deps.db, userOf(req).locationId)),
+    },
+    {
+      method: 'post',
+      path: '/menu/items/:id/availability',
+      capability: 'eightySix',
+      handler: async (req, res) => {
+        const itemId = id(req.params);
+        const { available } = parse(availabilityBody, req.body);
+        res.json({ item: await setItemAvailability(deps, userOf(req), itemId, available) });
+      },
+    },
+  ];
+}

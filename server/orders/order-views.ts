@@ -1,0 +1,80 @@
+// An order as the Counter and receipts read it: one order, or today's list with a search.
+import { businessDate } from '../../src/domain/business-date';
+import type { OrderView, SessionUser } from '../../src/domain/types';
+import { containing, containsSql, dialectOf } from '../db/dialect';
+import type { Db } from '../db/knex';
+import { json } from '../db/rows';
+import type { Deps } from '../deps';
+
+export function toOrderView(o: Record<string, any>, items: Record<string, any>[], payment?: Record<string, any>, takenBy?: string): OrderView {
+  return {
+    id: o.id,
+    clientOrderId: o.client_order_id,
+    number: o.number,
+    customerName: o.customer_name,
+    status: o.status,
+    paymentStatus: o.payment_status,
+    service: o.service,
+    allergens: json<string[]>(o.allergens, []),
+    allergyNote: o.allergy_note ?? null,
+    customerEmail: o.customer_email ?? null,
+    lines: items.map((i) => ({
+      id: i.id,
+      menuItemId: i.menu_item_id,
+      itemName: i.item_name,
+      station: i.station,
+      sizeName: i.size_name,
+      milkName: i.milk_name,
+      shots: i.shots,
+      modifiers: json<{ name: string }[]>(i.modifiers, []).map((m) => m.name),
+      note: i.note,
+      priceCents: i.price_cents,
+    })),
+    subtotalCents: o.subtotal_cents,
+    discountCents: o.discount_cents,
+    discountReason: o.discount_reason ?? null,
+    taxCents: o.tax_cents,
+    totalCents: o.total_cents,
+    refundedCents: o.refunded_cents,
+    payment: {
+      method: o.payment_method,
+      tenderedCents: o.tendered_cents,
+      changeCents: o.change_cents,
+      providerId: payment?.provider_id ?? null,
+    },
+    changeCents: o.change_cents,
+    quotedWaitSeconds: o.quoted_wait_seconds,
+    takenBy: takenBy ?? null,
+    createdAt: o.created_at,
+    firedAt: o.fired_at,
+    voidReason: o.void_reason ?? null,
+  };
+}
+
+export async function loadOrder(db: Db, orderId: number): Promise<OrderView> {
+  const o = await db('orders').where({ id: orderId }).first();
+  const items = await db('order_items').where({ order_id: orderId }).orderBy('line_no');
+  const payment = await db('payments').where({ order_id: orderId, status: 'succeeded' }).first('provider_id');
+  const user = o.taken_by ? await db('users').where({ id: o.taken_by }).first('name') : null;
+  return toOrderView(o, items, payment, user?.name);
+}
+
+export async function findOrderInLocation(db: Db, user: SessionUser, orderId: number) {
+  const o = await db('orders').where({ id: orderId, location_id: user.locationId }).first();
+  return o ?? null;
+}
+
+export async function listOrders(deps: Deps, user: SessionUser, q: string | undefined, limit: number): Promise<OrderView[]> {
+  const location = await deps.db('locations').where({ id: user.locationId }).first('time_zone');
+  const day = businessDate(deps.clock(), location.time_zone);
+  const query = deps.db('orders').where({ location_id: user.locationId, business_date: day });
+  if (q) {
+    const n = Number(q.replace(/^#/, ''));
+    query.andWhere((w) => {
+      w.whereRaw(containsSql(dialectOf(deps.db), 'customer_name'), [containing(q)]);
+      if (Number.isInteger(n) && n > 0) w.orWhere('number', n);
+    });
+  }
+  const rows = await query.orderBy('id', 'desc').limit(limit).select('id');
+  return Promise.all(rows.map((r) => loadOrder(deps.db, r.id)));
+}

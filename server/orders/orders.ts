@@ -1,0 +1,141 @@
+// Taking an order: price it on the server, store it with its drinks, payment and event in one
+// transaction, and make a replay of the same client order id return the same order. Cash is
+// fired to the bar at once; a card order waits, unfired, until its payment has succeeded.
+import type { CreateOrderBody } from '../../src/domain/schemas';
+import type { OrderView, SessionUser } from '../../src/domain/types';
+import { businessDate } from '../../src/domain/business-date';
+import { lockingRead } from '../db/dialect';
+import { isUniqueViolation } from '../db/rows';
+import { conflict } from '../domain-errors';
+import { payByCard } from '../payments/card-payments';
+import { settleOpenAttempts } from '../payments/card-settle';
+import { cashColumns, cashPayment, fireOrder, requireEnoughCash, settledColumns } from './settle';
+import { orderItemRow } from './order-item-row';
+import type { Deps } from '../deps';
+import { appendEvent, lockCafe, runCommand } from '../events';
+import { priceOrder, type PricedOrder } from './order-pricing';
+import { quoteForNewOrder } from './quotes';
+import { loadOrder } from './order-views';
+import { loadTicket } from '../tickets/ticket-views';
+import type { Db } from '../db/knex';
+
+async function findByClientId(db: Db, user: SessionUser, clientOrderId: string) {
+  const existing = await db('orders').where({ client_order_id: clientOrderId }).first('id', 'location_id');
+  if (!existing) return null;
+  if (existing.location_id !== user.locationId) throw conflict('This order id is already in use');
+  return loadOrder(db, existing.id);
+}
+
+async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody, priced: PricedOrder): Promise<number> {
+  const { menu, lines, totals } = priced;
+  const cash = body.payment.method === 'cash' ? body.payment : null;
+  return runCommand(deps, async (trx) => {
+    const now = deps.clock();
+    const at = now.toISOString();
+    const day = businessDate(now, menu.location.timeZone);
+    // The quote and the open shift are read before the café's lock: neither needs it, and the quote
+    // reads every drink on the bar, which would keep the café's other counters waiting meanwhile.
+    const barDrinks = lines.filter((l) => l.station === 'bar').length;
+    const quote = await quoteForNewOrder(trx, user.locationId, now, barDrinks, menu.location.baristasOnBar);
+    const shift = await trx('shifts').where({ location_id: user.locationId }).whereNull('closed_at').first('id');
+    await lockCafe(trx, user.locationId); // orders taken at once get numbers one after another
+    const last = await trx('orders')
+      .where({ location_id: user.locationId, business_date: day })
+      .max<{ n: number | null }>({ n: 'number' })
+      .first();
+    const [{ id: orderId }] = await trx('orders')
+      .insert({
+        location_id: user.locationId,
+        shift_id: shift?.id ?? null,
+        client_order_id: body.clientOrderId,
+        business_date: day,
+        number: (last?.n ?? 0) + 1,
+        customer_name: body.customerName,
+        service: body.service,
+        allergens: JSON.stringify(body.allergens),
+        allergy_note: body.allergyNote || null,
+        customer_email: body.customerEmail ?? null,
+        subtotal_cents: totals.subtotalCents,
+        discount_cents: totals.discountCents,
+        discount_reason: body.discount?.reason ?? null,
+        tax_cents: totals.taxCents,
+        total_cents: totals.totalCents,
+        quoted_wait_seconds: quote,
+        taken_by: user.id,
+        created_at: at,
+        // cash is settled as the order is taken; a card order waits for its charge (card-payments.ts)
+        ...(cash
+          ? { ...cashColumns(totals.totalCents, cash.tenderedCents), ...settledColumns(barDrinks > 0, at) }
+          : { payment_method: body.payment.method, status: 'pending', payment_status: 'unpaid' }),
+      })
+      .returning('id');
+    await trx('order_items').insert(
+      lines.map((l, i) => ({
+        ...orderItemRow(l, orderId, i + 1),
+        status: l.station === 'bar' ? 'queued' : 'done',
+      })),
+    );
+    if (cash) await trx('payments').insert(cashPayment(orderId, totals.totalCents, cash.tenderedCents, at));
+    const ticket = await loadTicket(trx, orderId);
+    const event = await appendEvent(trx, user.locationId, cash ? 'order.fired' : 'order.taken', ticket, at, user.id);
+    return { result: orderId, events: [event] };
+  });
+}
+
+export async function createOrder(
+  deps: Deps,
+  user: SessionUser,
+  body: CreateOrderBody,
+): Promise<{ order: OrderView; created: boolean }> {
+  const replay = await findByClientId(deps.db, user, body.clientOrderId);
+  if (replay) {
+    // A declined card may be tried again with another card; a paid order is never charged again.
+    if (replay.status === 'pending' && replay.paymentStatus === 'unpaid') {
+      const order =
+        body.payment.method === 'card'
+          ? await payByCard(deps, user, replay.id, body.payment.paymentMethod)
+          : await payPendingByCash(deps, user, replay.id, body.payment.tenderedCents);
+      return { order, created: false };
+    }
+    return { order: replay, created: false };
+  }
+
+  const priced = await priceOrder(deps, user, body);
+  let orderId: number;
+  try {
+    orderId = await insertOrder(deps, user, body, priced);
+  } catch (err) {
+    // Two sends of one order raced: the loser answers with the winner's order.
+    if (isUniqueViolation(err)) {
+      const winner = await findByClientId(deps.db, user, body.clientOrderId);
+      if (winner) return { order: winner, created: false };
+    }
+    throw err;
+  }
+  if (body.payment.method === 'card') {
+    return { order: await payByCard(deps, user, orderId, body.payment.paymentMethod), created: true };
+  }
+  return { order: await loadOrder(deps.db, orderId), created: true };
+}
+
+/** A card was declined and the customer pays cash instead: settle the waiting order and fire it. */
+async function payPendingByCash(deps: Deps, user: SessionUser, orderId: number, tendered: number): Promise<OrderView> {
+  // A card whose answer was lost may have been charged: if so, the order is paid and no cash is
+  // taken. If the card service can't say, cash goes ahead and a charge found later is given back.
+  await settleOpenAttempts(deps, orderId);
+  return runCommand(deps, async (trx) => {
+    const order = await lockingRead(trx, trx('orders').where({ id: orderId, location_id: user.locationId })).first();
+    if (order.status !== 'pending' || order.payment_status !== 'unpaid') return { result: await loadOrder(trx, orderId), events: [] };
+    requireEnoughCash(order.total_cents, tendered);
+    const live = await trx('payments').where({ order_id: orderId, status: 'processing' }).first('id');
+    if (live) throw conflict('A card payment for this order is in progress');
+    const at = deps.clock().toISOString();
+    await trx('payments').insert(cashPayment(orderId, order.total_cents, tendered, at));
+    await fireOrder(trx, orderId, at, cashColumns(order.total_cents, tendered));
+    const ticket = await loadTicket(trx, orderId);
+    const event = await appendEvent(trx, user.locationId, 'order.fired', ticket, at, user.id);
+    return { result: await loadOrder(trx, orderId), events: [event] };
+  });
+}
+
+/** Today's orders at the café, newest first; `q` matches a name or an order number. */

@@ -1,0 +1,107 @@
+// Reports for the lead and the owner: a shift's or a date range's numbers, the ticket history,
+// their CSV downloads, and the day's card check (with "settle", which may give money back).
+import type { Response } from 'express';
+import { cardCheckQuery, cardSettleBody } from '../../src/domain/card-check-schemas';
+import { idParam, reportRangeQuery, ticketCsvQuery, ticketHistoryQuery } from '../../src/domain/schemas';
+import { userOf } from '../auth/guards';
+import { parse } from '../errors';
+import { cardCheck, settleCardDay } from '../payments/card-check';
+import type { Deps } from '../deps';
+import { rangeReport, reportCsv, reportShifts, shiftReport, ticketHistory, ticketRows, ticketsCsv } from './index';
+import { loadReportLocation } from './scope';
+import type { ApiRoute } from '../routes';
+
+function sendCsv(res: Response, fileName: string, csv: string) {
+  res.set('Content-Type', 'text/csv; charset=utf-8');
+  res.set('Content-Disposition', `attachment; filename="${fileName}"`);
+  res.set('Cache-Control', 'no-store');
+  res.send(csv);
+}
+
+const span = (from?: string, to?: string) => (from || to ? `${from ?? 'start'}_to_${to ?? 'now'}` : 'all');
+
+export function reportRoutes(deps: Deps): ApiRoute[] {
+  const shiftId = (params: unknown) => parse(idParam, params, 'params').id;
+  return [
+    {
+      method: 'get',
+      path: '/reports/shifts',
+      capability: 'viewReports',
+      handler: async (req, res) => res.json(await reportShifts(deps.db, userOf(req).locationId, deps.clock())),
+    },
+    {
+      // before /reports/shift/:id, which would otherwise take "12.csv" as its id
+      method: 'get',
+      path: '/reports/shift/:id.csv',
+      capability: 'viewReports',
+      handler: async (req, res) => {
+        const id = shiftId(req.params);
+        const report = await shiftReport(deps.db, userOf(req).locationId, id, deps.clock());
+        sendCsv(res, `jugline-shift-${id}-${report.period.from}.csv`, reportCsv(report));
+      },
+    },
+    {
+      method: 'get',
+      path: '/reports/shift/:id',
+      capability: 'viewReports',
+      handler: async (req, res) => res.json(await shiftReport(deps.db, userOf(req).locationId, shiftId(req.params), deps.clock())),
+    },
+    {
+      method: 'get',
+      path: '/reports/range.csv',
+      capability: 'viewReports',
+      handler: async (req, res) => {
+        const { from, to } = parse(reportRangeQuery, req.query, 'query');
+        sendCsv(res, `jugline-report-${span(from, to)}.csv`, reportCsv(await rangeReport(deps.db, userOf(req).locationId, from, to, deps.clock())));
+      },
+    },
+    {
+      method: 'get',
+      path: '/reports/range',
+      capability: 'viewReports',
+      handler: async (req, res) => {
+        const { from, to } = parse(reportRangeQuery, req.query, 'query');
+        res.json(await rangeReport(deps.db, userOf(req).locationId, from, to, deps.clock()));
+      },
+    },
+    {
+      method: 'get',
+      path: '/reports/tickets.csv',
+      capability: 'viewReports',
+      handler: async (req, res) => {
+        const query = parse(ticketCsvQuery, req.query, 'query');
+        const { locationId } = userOf(req);
+        const location = await loadReportLocation(deps.db, locationId);
+        const rows = await ticketRows(deps.db, locationId, query, null);
+        sendCsv(res, `jugline-tickets-${span(query.from, query.to)}.csv`, ticketsCsv(rows, location.currency, location.timeZone));
+      },
+    },
+    {
+      method: 'get',
+      path: '/reports/tickets',
+      capability: 'viewReports',
+      handler: async (req, res) => {
+        const query = parse(ticketHistoryQuery, req.query, 'query');
+        res.json(await ticketHistory(deps.db, userOf(req).locationId, query));
+      },
+    },
+    {
+      method: 'get',
+      path: '/reports/cards',
+      capability: 'viewReports',
+      handler: async (req, res) => {
+        const { date } = parse(cardCheckQuery, req.query, 'query');
+        res.json(await cardCheck(deps, userOf(req).locationId, date));
+      },
+    },
+    {
+      method: 'post',
+      path: '/reports/cards/settle',
+      capability: 'refundOrders',
+      handler: async (req, res) => {
+        const { date } = parse(cardSettleBody, req.body);
+        res.json(await settleCardDay(deps, userOf(req).locationId, date));
+      },
+    },
+  ];
+}
