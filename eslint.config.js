@@ -38,7 +38,7 @@ export default tseslint.config(
         'error',
         {
           patterns: [
-            { regex: '^\\.\\./', message: 'src/domain is pure: import only other domain modules (./x) and plain libraries.' },
+            { regex: '^(\\.\\./|@/|@server/|@seeds/|@scripts/)', message: 'src/domain is pure: import only other domain modules (./x) and plain libraries.' },
             { regex: '^(react|react-dom|react-router|@tanstack/.*|knex|express|ws|node:.*)$', message: 'src/domain is pure: no UI, I/O or server library.' },
           ],
         },
@@ -50,7 +50,15 @@ export default tseslint.config(
     rules: {
       'no-restricted-imports': [
         'error',
-        { patterns: [{ regex: '^\\.\\./(?!\\.)[^/]+/', message: 'A feature does not import another feature: move what both need to src/queries, src/lib or src/components.' }] },
+        // a feature's own files import each other as ./x; anything under @/features/ is another feature's
+        {
+          patterns: [
+            {
+              regex: '^(@/features/|\\.\\./(?!\\.)[^/]+/)',
+              message: 'A feature does not import another feature: move what both need to src/queries, src/lib or src/components.',
+            },
+          ],
+        },
       ],
     },
   },
@@ -67,7 +75,15 @@ export default tseslint.config(
     rules: {
       'no-restricted-imports': [
         'error',
-        { patterns: [{ group: ['**/errors'], importNames: ['HttpError'], message: 'Services throw DomainError (server/domain-errors.ts); the error handler picks the status.' }] },
+        {
+          patterns: [
+            {
+              group: ['**/errors'],
+              importNames: ['HttpError'],
+              message: 'Services throw DomainError (server/domain-errors.ts); the error handler picks the status.',
+            },
+          ],
+        },
       ],
     },
   },

@@ -5,6 +5,8 @@ import tailwindcss from '@tailwindcss/vite';
 
 export default defineConfig({
   plugins: [react(), tailwindcss()],
+  // @/… is src/, @server/… is server/ (tsconfig.json's paths; tsx reads the same for the server)
+  resolve: { tsconfigPaths: true },
   // manifest: the chunk table the server reads to preload a screen's chunks, and the benchmark
   // reads to weigh each screen (bench/weights.ts)
   build: { sourcemap: true, manifest: true },

@@ -2,7 +2,7 @@
 // `--db postgres` fresh databases in a throwaway PostgreSQL cluster (scripts/services/postgres.ts)
 // that the bench starts and removes. Each server process gets a database of its own by name.
 import path from 'node:path';
-import { adminQuery, startCluster, type PgCluster } from '../scripts/services/postgres';
+import { adminQuery, startCluster, type PgCluster } from '@scripts/services/postgres';
 
 export type BenchDb = 'sqlite' | 'postgres';
 

@@ -22,9 +22,7 @@ export interface OrderTemplate {
   response: { order: Record<string, unknown> };
 }
 
-const templates = new Map<string, OrderTemplate>(
-  (JSON.parse(readFileSync(process.env.BENCH_TEMPLATES!, 'utf8')) as OrderTemplate[]).map((t) => [t.key, t]),
-);
+const templates = new Map<string, OrderTemplate>((JSON.parse(readFileSync(process.env.BENCH_TEMPLATES!, 'utf8')) as OrderTemplate[]).map((t) => [t.key, t]));
 
 const db = new Database(process.env.BENCH_DATABASE_FILE!);
 db.pragma('journal_mode = WAL');

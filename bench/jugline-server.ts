@@ -2,8 +2,8 @@
 // at info), in a process of its own that the bench forks, with the probe on its IPC channel.
 // Env: BENCH_PORT, BENCH_DATABASE_FILE or BENCH_DATABASE_URL (PostgreSQL: migrated and seeded at
 // start, as on SQLite), JUGLINE_DIST (read by server/ssr/pages.ts).
-import { loadConfig } from '../server/config';
-import { startServer } from '../server/server';
+import { loadConfig } from '@server/config';
+import { startServer } from '@server/server';
 import { serveProbe } from './probe';
 
 const config = loadConfig({

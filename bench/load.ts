@@ -29,7 +29,10 @@ export async function signIn(url: string, username: string): Promise<string> {
     body: JSON.stringify({ username, password: 'jugline-demo' }),
   });
   if (res.status !== 200) throw new Error(`sign-in as ${username}: ${res.status}`);
-  return res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  return res.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
 }
 
 // ---- the counters --------------------------------------------------------------------------
@@ -303,7 +306,12 @@ export async function closedLoop(
   const want = h.screens.sockets.length;
   const delivered = names.filter((n) => h.screens.pending.get(n)!.arrivals >= want).length;
   for (const n of names) h.screens.pending.delete(n);
-  return { throughput: done / elapsed, delivered: delivered / Math.max(1, names.length), loop: last.loop, cpuPerOrder: (last.cpuMs - first.cpuMs) / Math.max(1, done) };
+  return {
+    throughput: done / elapsed,
+    delivered: delivered / Math.max(1, names.length),
+    loop: last.loop,
+    cpuPerOrder: (last.cpuMs - first.cpuMs) / Math.max(1, done),
+  };
 }
 
 export interface MemoryReading {

@@ -71,7 +71,9 @@ export async function renderBar(url: string, cashier: string, barista: string, b
 }
 
 export async function historyEndpoints(url: string, lead: string, owner: string, from: string, to: string): Promise<Timed[]> {
-  const shifts = (await (await fetch(`${url}/api/reports/shifts`, { headers: { cookie: owner } })).json()) as { shifts: { id: number; closedAt: string | null }[] };
+  const shifts = (await (await fetch(`${url}/api/reports/shifts`, { headers: { cookie: owner } })).json()) as {
+    shifts: { id: number; closedAt: string | null }[];
+  };
   const lastClosed = shifts.shifts.find((s) => s.closedAt)?.id;
   const range = `from=${from}&to=${to}`;
   const list: [string, string, string][] = [

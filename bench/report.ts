@@ -40,7 +40,11 @@ function percentileRows(label: string, j: Summary, f: Summary, target = ''): (st
   return (['p50', 'p95', 'p99', 'max'] as const).map((p) => [`${label} — ${p} (ms)`, ms(j[p]), ms(f[p]), ratio(j[p], f[p]), p === 'p99' ? target : '']);
 }
 
-function perSocket(m: { before: { heapUsed: number; external: number; rss: number }; after: { heapUsed: number; external: number; rss: number }; sockets: number }) {
+function perSocket(m: {
+  before: { heapUsed: number; external: number; rss: number };
+  after: { heapUsed: number; external: number; rss: number };
+  sockets: number;
+}) {
   const heap = (m.after.heapUsed + m.after.external - m.before.heapUsed - m.before.external) / m.sockets;
   const rss = (m.after.rss - m.before.rss) / m.sockets;
   return { heap, rss };
@@ -54,18 +58,45 @@ function runRows(j: RunResult, f: RunResult, memJ: SideResult['memory'], memF: S
     ...percentileRows('event at a socket (every order × socket)', j.oneSocket, f.oneSocket),
     ...percentileRows(`event at all ${j.sockets} sockets (per order)`, j.allSockets, f.allSockets, allTarget),
     ['orders whose event missed a socket / failed POSTs', `${j.incomplete} / ${j.failures}`, `${f.incomplete} / ${f.failures}`, '', '0'],
-    ['sustained throughput (orders/s answered)', j.throughput.toFixed(1), f.throughput.toFixed(1), ratio(f.throughput, j.throughput) + ' (floor ÷ Jugline)', ''],
+    [
+      'sustained throughput (orders/s answered)',
+      j.throughput.toFixed(1),
+      f.throughput.toFixed(1),
+      ratio(f.throughput, j.throughput) + ' (floor ÷ Jugline)',
+      '',
+    ],
     ['server CPU time per order (ms, user + system)', ms(j.cpuPerOrder), ms(f.cpuPerOrder), ratio(j.cpuPerOrder, f.cpuPerOrder), ''],
-    ['event-loop delay — p50 / p99 / max (ms)', `${ms(j.loop.p50)} / ${ms(j.loop.p99)} / ${ms(j.loop.max)}`, `${ms(f.loop.p50)} / ${ms(f.loop.p99)} / ${ms(f.loop.max)}`, ratio(j.loop.p99, f.loop.p99) + ' (p99)', ''],
+    [
+      'event-loop delay — p50 / p99 / max (ms)',
+      `${ms(j.loop.p50)} / ${ms(j.loop.p99)} / ${ms(j.loop.max)}`,
+      `${ms(f.loop.p50)} / ${ms(f.loop.p99)} / ${ms(f.loop.max)}`,
+      ratio(j.loop.p99, f.loop.p99) + ' (p99)',
+      '',
+    ],
     ["the load generator's own event-loop delay — p99 (ms)", ms(j.clientLoopP99), ms(f.clientLoopP99), '', ''],
-    [`server memory with ${j.sockets} sockets — RSS / heap+external (MB)`, `${mb(memJ.after.rss)} / ${mb(memJ.after.heapUsed + memJ.after.external)}`, `${mb(memF.after.rss)} / ${mb(memF.after.heapUsed + memF.after.external)}`, ratio(memJ.after.rss, memF.after.rss) + ' (RSS)', ''],
-    [`memory per socket (${memJ.sockets} added) — heap+external / RSS (KB)`, `${kb(pj.heap)} / ${kb(pj.rss)}`, `${kb(pf.heap)} / ${kb(pf.rss)}`, ratio(pj.heap, pf.heap) + ' (heap)', ''],
+    [
+      `server memory with ${j.sockets} sockets — RSS / heap+external (MB)`,
+      `${mb(memJ.after.rss)} / ${mb(memJ.after.heapUsed + memJ.after.external)}`,
+      `${mb(memF.after.rss)} / ${mb(memF.after.heapUsed + memF.after.external)}`,
+      ratio(memJ.after.rss, memF.after.rss) + ' (RSS)',
+      '',
+    ],
+    [
+      `memory per socket (${memJ.sockets} added) — heap+external / RSS (KB)`,
+      `${kb(pj.heap)} / ${kb(pj.rss)}`,
+      `${kb(pf.heap)} / ${kb(pf.rss)}`,
+      ratio(pj.heap, pf.heap) + ' (heap)',
+      '',
+    ],
   ];
 }
 
 /** The resume storm: /healthz and a polite screen's resume, before and while one sign-in storms. */
 export function stormTable(s: StormResult): string {
-  const closes = Object.entries(s.closes).map(([code, n]) => `${n}× ${code}`).join(', ') || 'none';
+  const closes =
+    Object.entries(s.closes)
+      .map(([code, n]) => `${n}× ${code}`)
+      .join(', ') || 'none';
   return [
     `### One sign-in storming the live socket with resumes from 0: ${s.sockets} sockets at 20 resumes/s each for ${s.seconds} s, on a board of 300 open drinks`,
     '',
@@ -74,7 +105,13 @@ export function stormTable(s: StormResult): string {
       [
         ['GET /healthz, before the storm', ms(s.rest.p50), ms(s.rest.p95), ms(s.rest.max), s.rest.n],
         ['GET /healthz, during the storm', ms(s.during.p50), ms(s.during.p95), ms(s.during.max), s.during.n],
-        ["another sign-in's screen: resume from 0 → its snapshot, during the storm", ms(s.bystander.p50), ms(s.bystander.p95), ms(s.bystander.max), s.bystander.n],
+        [
+          "another sign-in's screen: resume from 0 → its snapshot, during the storm",
+          ms(s.bystander.p50),
+          ms(s.bystander.p95),
+          ms(s.bystander.max),
+          s.bystander.n,
+        ],
         ["the server's event-loop delay during the storm (p50 / p99 / max, ms)", ms(s.serverLoop.p50), ms(s.serverLoop.p99), ms(s.serverLoop.max), ''],
         ["the load generator's own event-loop delay during the storm (p99, ms)", '', ms(s.clientLoopP99), '', ''],
       ],
@@ -100,7 +137,9 @@ export function report(r: BenchResults): string {
     '```',
     '',
     `Load average (1 min) at the start and the end: ${m.load.map((l) => l.toFixed(1)).join(' / ')}` +
-      (Math.max(...m.load) > m.cores / 2 ? ` — **other work was running on this ${m.cores}-core machine; the times are inflated by it**` : ' (an idle machine)') +
+      (Math.max(...m.load) > m.cores / 2
+        ? ` — **other work was running on this ${m.cores}-core machine; the times are inflated by it**`
+        : ' (an idle machine)') +
       (m.nice !== 0 ? `; the bench ran at nice ${m.nice} (ahead of that work for the CPU, not for the disk).` : '.'),
     '',
   );
@@ -121,7 +160,13 @@ export function report(r: BenchResults): string {
           ratio(f.saturation.throughput, j.saturation.throughput) + ' (floor ÷ Jugline)',
           '',
         ],
-        ['server CPU time per order in the closed loop (ms)', ms(j.saturation.cpuPerOrder), ms(f.saturation.cpuPerOrder), ratio(j.saturation.cpuPerOrder, f.saturation.cpuPerOrder), ''],
+        [
+          'server CPU time per order in the closed loop (ms)',
+          ms(j.saturation.cpuPerOrder),
+          ms(f.saturation.cpuPerOrder),
+          ratio(j.saturation.cpuPerOrder, f.saturation.cpuPerOrder),
+          '',
+        ],
         [
           'event-loop delay in the closed loop — p99 / max (ms)',
           `${ms(j.saturation.loop.p99)} / ${ms(j.saturation.loop.max)}`,
@@ -139,7 +184,10 @@ export function report(r: BenchResults): string {
     out.push(
       `### Order → screens: ${a.big} sockets, ${a.rate} orders/s for ${j.big.run.orders / a.rate} s`,
       '',
-      table(['figure', 'Jugline', 'floor', 'Jugline ÷ floor', 'target'], runRows(j.big.run, f.big.run, j.big.memory, f.big.memory, `< 250 ms: ${mark(bigP99 < 250)}`)),
+      table(
+        ['figure', 'Jugline', 'floor', 'Jugline ÷ floor', 'target'],
+        runRows(j.big.run, f.big.run, j.big.memory, f.big.memory, `< 250 ms: ${mark(bigP99 < 250)}`),
+      ),
       '',
     );
   }
@@ -168,11 +216,18 @@ export function report(r: BenchResults): string {
   out.push(stormTable(r.storm), '');
 
   out.push(
-    '### Client weight per screen (gzip, from the build manifest: entry + the screen\'s chunks and their imports)',
+    "### Client weight per screen (gzip, from the build manifest: entry + the screen's chunks and their imports)",
     '',
     table(
       ['screen', 'JS (KB gzip)', 'CSS (KB gzip)', 'files', 'loaded later by the screen (KB gzip)', 'target'],
-      r.weights.map((w) => [w.screen, kb(w.jsGzip), kb(w.cssGzip), w.files, w.laterJsGzip ? kb(w.laterJsGzip) : '—', w.screen === 'bar' ? `JS < 150 KB: ${mark(w.jsGzip / 1024 < 150)}` : '']),
+      r.weights.map((w) => [
+        w.screen,
+        kb(w.jsGzip),
+        kb(w.cssGzip),
+        w.files,
+        w.laterJsGzip ? kb(w.laterJsGzip) : '—',
+        w.screen === 'bar' ? `JS < 150 KB: ${mark(w.jsGzip / 1024 < 150)}` : '',
+      ]),
     ),
   );
   return out.join('\n');
@@ -206,7 +261,11 @@ export function sideBySide(sqlite: BenchResults, postgres: BenchResults): string
         both('/bar rendered, 20 open drinks — median (ms)', bar(20)),
         both('/bar rendered, 100 open drinks — median (ms)', bar(100)),
         both('/bar rendered, 300 open drinks — median (ms)', bar(300)),
-        both(`history written, ${sqlite.history.days} days (s)`, (r) => r.history.seconds, (x) => x.toFixed(1)),
+        both(
+          `history written, ${sqlite.history.days} days (s)`,
+          (r) => r.history.seconds,
+          (x) => x.toFixed(1),
+        ),
         ...sqlite.endpoints.flatMap((e) => [both(`${e.what} — median (ms)`, endpoint(e.what, 'p50')), both(`${e.what} — p95 (ms)`, endpoint(e.what, 'p95'))]),
         both('GET /healthz during the resume storm — median (ms)', (r) => r.storm.during.p50),
       ],

@@ -15,11 +15,11 @@ import os from 'node:os';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
 import type { Knex } from 'knex';
-import { generateHistory } from '../scripts/history/generate';
-import { MAX_REPLAY, MAX_SOCKETS_PER_SESSION } from '../server/realtime/socket-server';
-import { rawRows } from '../server/db/dialect';
-import { createDb } from '../server/db/knex';
-import { prepareDatabase } from '../server/server';
+import { generateHistory } from '@scripts/history/generate';
+import { MAX_REPLAY, MAX_SOCKETS_PER_SESSION } from '@server/realtime/socket-server';
+import { rawRows } from '@server/db/dialect';
+import { createDb } from '@server/db/knex';
+import { prepareDatabase } from '@server/server';
 import { ROOT, startChild, type ServerChild } from './child';
 import { benchDatabases, type BenchDatabases, type BenchDb } from './databases';
 import type { OrderTemplate } from './floor-server';
@@ -29,7 +29,8 @@ import { report, sideBySide, stormTable, type BenchResults } from './report';
 import { resumeStorm, type StormResult } from './storm';
 import { screenWeights } from './weights';
 
-const USAGE = 'Usage: npm run bench -- [--db sqlite|postgres] [--sockets 100] [--counters 10] [--rate 20] [--seconds 20] [--big 1000] [--dist dist] [--days 365] [--port 4326] [--out BENCHMARKS.md] [--no-write] [--profile <dir>] [--storm-only]';
+const USAGE =
+  'Usage: npm run bench -- [--db sqlite|postgres] [--sockets 100] [--counters 10] [--rate 20] [--seconds 20] [--big 1000] [--dist dist] [--days 365] [--port 4326] [--out BENCHMARKS.md] [--no-write] [--profile <dir>] [--storm-only]';
 
 function parsed() {
   try {
@@ -138,7 +139,10 @@ function orderBodies(menu: { items: MenuItem[]; milks: { id: number; name: strin
 /** A row as the floor's SQLite takes it: PostgreSQL answers booleans and json columns as values. */
 function sqliteRow({ id: _id, ...row }: Record<string, unknown>) {
   return Object.fromEntries(
-    Object.entries(row).map(([k, v]) => [k, typeof v === 'boolean' ? Number(v) : v instanceof Date ? v.toISOString() : v !== null && typeof v === 'object' ? JSON.stringify(v) : v]),
+    Object.entries(row).map(([k, v]) => [
+      k,
+      typeof v === 'boolean' ? Number(v) : v instanceof Date ? v.toISOString() : v !== null && typeof v === 'object' ? JSON.stringify(v) : v,
+    ]),
   );
 }
 
@@ -147,7 +151,10 @@ async function readTemplates(target: string, h: Harness, bodies: OrderBody[]): P
   const db: Knex = createDb(target);
   try {
     const fired = rawRows<{ type: string; payload: unknown }>(await db.raw("select type, payload from events where type = 'order.fired'"));
-    const payloads = fired.map((e) => ({ type: e.type, payload: (typeof e.payload === 'string' ? JSON.parse(e.payload) : e.payload) as { ticket: { id: number } } }));
+    const payloads = fired.map((e) => ({
+      type: e.type,
+      payload: (typeof e.payload === 'string' ? JSON.parse(e.payload) : e.payload) as { ticket: { id: number } },
+    }));
     return await Promise.all(
       bodies.map(async (body, variant) => {
         const answer = h.answers.get(variant);
@@ -200,7 +207,9 @@ async function stormPhase(server: ServerChild, bodies: OrderBody[]): Promise<Sto
     if (res.status !== 200) throw new Error(`86 toggle answered ${res.status}`);
   }
   const result = await resumeStorm(server, storming, bystander);
-  console.log(`  /healthz median ${result.rest.p50.toFixed(1)} ms at rest, ${result.during.p50.toFixed(1)} ms during the storm (max ${result.during.max.toFixed(1)})`);
+  console.log(
+    `  /healthz median ${result.rest.p50.toFixed(1)} ms at rest, ${result.during.p50.toFixed(1)} ms during the storm (max ${result.during.max.toFixed(1)})`,
+  );
   return result;
 }
 
@@ -216,7 +225,13 @@ async function stormOnly(o: O, dbs: BenchDatabases, children: ServerChild[]) {
 }
 
 /** The same sequence on either server: sockets, warm-up, the measured run, the big run, saturation. */
-async function orderToScreens(server: ServerChild, o: O, bodies: OrderBody[], cookies: { counters: (string | undefined)[]; socket: (i: number) => string | undefined }, tag: string) {
+async function orderToScreens(
+  server: ServerChild,
+  o: O,
+  bodies: OrderBody[],
+  cookies: { counters: (string | undefined)[]; socket: (i: number) => string | undefined },
+  tag: string,
+) {
   const h = harness(server, cookies.counters);
   const run = { counters: o.counters, rate: o.rate, seconds: o.seconds, bodies, tag };
   const memory = await connectMeasured(h, o.sockets, cookies.socket);
@@ -257,7 +272,9 @@ async function main() {
     const weights = screenWeights(path.join(o.dist, 'client'));
 
     // 1. Jugline
-    console.log(`Jugline on ${o.db === 'postgres' ? 'PostgreSQL' : 'SQLite'}: ${o.sockets} sockets, ${o.counters} counters at ${o.rate} orders/s for ${o.seconds} s…`);
+    console.log(
+      `Jugline on ${o.db === 'postgres' ? 'PostgreSQL' : 'SQLite'}: ${o.sockets} sockets, ${o.counters} counters at ${o.rate} orders/s for ${o.seconds} s…`,
+    );
     const jTarget = await dbs.create('jugline');
     const jugline = await startChild('jugline-server.ts', { BENCH_PORT: String(o.port), ...dbs.envOf(jTarget), JUGLINE_DIST: o.dist });
     children.push(jugline);

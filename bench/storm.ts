@@ -106,7 +106,12 @@ async function bystander(url: string, cookie: string, until: number): Promise<{ 
   return { times, refused };
 }
 
-export async function resumeStorm(server: ServerChild, stormCookie: string, bystanderCookie: string, opts = { sockets: 20, seconds: 8, perSecond: 20 }): Promise<StormResult> {
+export async function resumeStorm(
+  server: ServerChild,
+  stormCookie: string,
+  bystanderCookie: string,
+  opts = { sockets: 20, seconds: 8, perSecond: 20 },
+): Promise<StormResult> {
   const url = server.url;
   const rest = await timeHealth(url, performance.now() + 3_000);
   await server.probe({ reset: true });

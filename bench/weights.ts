@@ -5,8 +5,8 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { gzipSync } from 'node:zlib';
-import { chunkClosure, readManifest, type Manifest } from '../server/ssr/pages';
-import { SCREEN_FILES } from '../src/routes';
+import { chunkClosure, readManifest, type Manifest } from '@server/ssr/pages';
+import { SCREEN_FILES } from '@/routes';
 
 export interface ScreenWeight {
   screen: string;
@@ -66,6 +66,8 @@ export function screenWeights(clientDir: string): ScreenWeight[] {
 if (import.meta.url === `file://${process.argv[1]}`) {
   const dir = path.resolve(process.argv[2] ?? 'dist/client');
   for (const w of screenWeights(dir)) {
-    console.log(`${w.screen.padEnd(16)} js ${(w.jsGzip / 1024).toFixed(1).padStart(6)} KB  css ${(w.cssGzip / 1024).toFixed(1)} KB  later ${(w.laterJsGzip / 1024).toFixed(1)} KB  (${w.files} files)`);
+    console.log(
+      `${w.screen.padEnd(16)} js ${(w.jsGzip / 1024).toFixed(1).padStart(6)} KB  css ${(w.cssGzip / 1024).toFixed(1)} KB  later ${(w.laterJsGzip / 1024).toFixed(1)} KB  (${w.files} files)`,
+    );
   }
 }

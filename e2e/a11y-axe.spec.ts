@@ -17,7 +17,13 @@ async function seriousViolations(page: Page, within?: string): Promise<string[]>
   const { violations } = await (within ? axe.include(within) : axe).analyze();
   return violations
     .filter((v) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v) => `${v.impact} ${v.id}: ${v.help} → ${v.nodes.map((n) => n.target.join(' ')).slice(0, 6).join(' | ')}`);
+    .map(
+      (v) =>
+        `${v.impact} ${v.id}: ${v.help} → ${v.nodes
+          .map((n) => n.target.join(' '))
+          .slice(0, 6)
+          .join(' | ')}`,
+    );
 }
 
 const suite = screenSuite();
@@ -67,7 +73,10 @@ const DIALOGS: { name: string; as: Login; path: string; open(page: Page): Promis
     path: '/admin/menu',
     open: async (page) => {
       await page.getByRole('button', { name: 'Edit Latte' }).click();
-      await page.getByRole('dialog').getByRole('button', { name: /^Retire/ }).click();
+      await page
+        .getByRole('dialog')
+        .getByRole('button', { name: /^Retire/ })
+        .click();
       await expect(page.getByRole('alertdialog')).toBeVisible();
     },
   },
@@ -86,7 +95,10 @@ const DIALOGS: { name: string; as: Login; path: string; open(page: Page): Promis
     path: '/admin/menu',
     open: async (page) => {
       await page.getByRole('tab', { name: 'Extras' }).click();
-      await page.getByRole('button', { name: /^Edit group/ }).first().click();
+      await page
+        .getByRole('button', { name: /^Edit group/ })
+        .first()
+        .click();
     },
   },
 ];

@@ -67,9 +67,11 @@ async function tabTo(page: Page, target: Locator, max = 80) {
 async function expectTrapped(page: Page, dialog: Locator) {
   const stops = await dialog.evaluate(
     (box) =>
-      [...box.querySelectorAll<HTMLElement>('a[href], button:not([disabled]), input:not([disabled]), select:not([disabled]), textarea:not([disabled]), [tabindex]')].filter(
-        (el) => el.tabIndex >= 0 && el.getClientRects().length > 0,
-      ).length,
+      [
+        ...box.querySelectorAll<HTMLElement>(
+          'a[href], button:not([disabled]), input:not([disabled]), select:not([disabled]), textarea:not([disabled]), [tabindex]',
+        ),
+      ].filter((el) => el.tabIndex >= 0 && el.getClientRects().length > 0).length,
   );
   expect(stops).toBeGreaterThan(0);
   for (let i = 0; i <= stops + 1; i++) {

@@ -92,7 +92,7 @@ test('pages carry a Content-Security-Policy with no inline script, and a hostile
   const page = await api.get('/bar');
   const csp = page.headers()['content-security-policy'];
   expect(csp).toContain("script-src 'self'");
-  expect(csp).not.toContain('unsafe-inline\'; script');
+  expect(csp).not.toContain("unsafe-inline'; script");
   const html = await page.text();
   expect(html).not.toContain(hostile); // neither in the markup nor in the JSON state
   expect(html).toContain('&lt;img src=x onerror=');

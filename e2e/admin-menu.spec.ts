@@ -14,7 +14,8 @@ test.beforeAll(async () => {
 });
 test.afterAll(() => own?.dispose());
 
-const pageOn = (browser: Browser, login: Login, path: string, viewport: { width: number; height: number }) => pageAs(browser, login, path, viewport, own.baseURL);
+const pageOn = (browser: Browser, login: Login, path: string, viewport: { width: number; height: number }) =>
+  pageAs(browser, login, path, viewport, own.baseURL);
 
 const live = (page: Page) => expect(page.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
 
@@ -51,7 +52,16 @@ test('the owner adds a seasonal drink with its recipe; the open Counter sells it
   await sheet.getByLabel('Comes with').selectOption({ label: 'Whole (WH)' });
   await sheet.getByRole('radio', { name: /silky/ }).click();
   await sheet.screenshot(shot('admin-menu-editor-item-form-top'));
-  await fillSize(sheet, 0, { 'Size name': '12 oz', 'Cup volume': '355', Cup: '12 oz hot cup', Price: '5.60', Shots: '2', Dose: '4', 'Target yield': '36', Milk: '240' });
+  await fillSize(sheet, 0, {
+    'Size name': '12 oz',
+    'Cup volume': '355',
+    Cup: '12 oz hot cup',
+    Price: '5.60',
+    Shots: '2',
+    Dose: '4',
+    'Target yield': '36',
+    Milk: '240',
+  });
   await sheet.getByRole('button', { name: '+ Add a size' }).click();
   // the new size starts with the espresso of the size before it; cup, price and milk are its own
   const second = sheet.getByTestId('size-row').nth(1);

@@ -25,7 +25,12 @@ test('owner changes units, wait target, a pitcher and the allergen list; an open
   const latte = menu.items.find((i: { name: string }) => i.name === 'Latte');
   const oat = menu.milks.find((m: { name: string }) => m.name === 'Oat');
   const placed = await api.post('/api/orders', {
-    data: { clientOrderId: crypto.randomUUID(), customerName: 'Juno Pell', items: [{ menuItemId: latte.id, milkId: oat.id }], payment: { method: 'cash', tenderedCents: 10_000 } },
+    data: {
+      clientOrderId: crypto.randomUUID(),
+      customerName: 'Juno Pell',
+      items: [{ menuItemId: latte.id, milkId: oat.id }],
+      payment: { method: 'cash', tenderedCents: 10_000 },
+    },
   });
   expect(placed.status()).toBe(201);
   const oatLane = bar.getByTestId('lane').filter({ has: bar.getByRole('heading', { name: 'Oat' }) });

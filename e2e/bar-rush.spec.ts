@@ -26,7 +26,10 @@ async function pageOn(browser: Browser, login: Login, at: string) {
 const laneOf = (page: Page, milk: string) => page.getByTestId('lane').filter({ has: page.getByRole('heading', { name: milk, exact: true }) });
 const cardOf = (page: Page, name: string) => page.getByTestId('drink-card').filter({ hasText: name });
 const px = (page: Page, selector: string) =>
-  page.locator(selector).first().evaluate((el) => parseFloat(getComputedStyle(el).fontSize));
+  page
+    .locator(selector)
+    .first()
+    .evaluate((el) => parseFloat(getComputedStyle(el).fontSize));
 
 /** Each card with a bump key: its key, and whether it is in sight (inside the window and its lane's card box). */
 const keyedCards = (page: Page) =>
@@ -76,7 +79,13 @@ test('a rush with seven milks: every lane in sight, oldest first, keys that stay
     ['Gil Ortiz', [{ item: 'Latte', milk: 'Skim' }]],
     ['Hal Pike', [{ item: 'Latte', milk: 'Lactose-free' }]],
     ['Ida Ruiz', [{ item: 'Espresso' }]],
-    ['Jo Quist', [{ item: 'Flat white', milk: 'Whole' }, { item: 'Latte', milk: 'Oat' }]],
+    [
+      'Jo Quist',
+      [
+        { item: 'Flat white', milk: 'Whole' },
+        { item: 'Latte', milk: 'Oat' },
+      ],
+    ],
     ['Kit Roan', [{ item: 'Cappuccino', milk: 'Whole' }]],
     ['Lu Sato', [{ item: 'Latte', milk: 'Oat', size: 'Large' }]],
     ['Max Tull', [{ item: 'Mocha', milk: 'Whole' }]],
@@ -113,7 +122,9 @@ test('a rush with seven milks: every lane in sight, oldest first, keys that stay
   // 4. The lanes keep the menu's milk order, no milk last; each lane is oldest first.
   const laneNames = await bar.getByTestId('lane').evaluateAll((ls) => ls.map((l) => (l as HTMLElement).dataset.lane));
   expect(laneNames).toEqual(['Whole', 'Skim', 'Oat', 'Soy', 'Almond', 'Coconut', 'Lactose-free', 'No milk']);
-  const wholeTickets = await laneOf(bar, 'Whole').getByTestId('drink-card').evaluateAll((cs) => cs.map((c) => Number((c as HTMLElement).dataset.ticket)));
+  const wholeTickets = await laneOf(bar, 'Whole')
+    .getByTestId('drink-card')
+    .evaluateAll((cs) => cs.map((c) => Number((c as HTMLElement).dataset.ticket)));
   expect(wholeTickets).toEqual([...wholeTickets].sort((a, b) => a - b));
   expect(wholeTickets[0]).toBe(numbers.get('Ama Osei'));
   expect(wholeTickets.at(-1)).toBe(numbers.get('Uma Vo'));
@@ -151,7 +162,12 @@ test('a rush with seven milks: every lane in sight, oldest first, keys that stay
   await expect(build).toContainText('Vanilla syrup');
   await expect(bar.locator('main')).not.toContainText(/\d ml\b/);
   expect(await px(bar, '[data-testid="build"]')).toBeGreaterThanOrEqual(28);
-  expect(await bar.getByTestId('build').first().evaluate((el) => getComputedStyle(el).color)).toBe('rgb(246, 234, 216)'); // crema-100
+  expect(
+    await bar
+      .getByTestId('build')
+      .first()
+      .evaluate((el) => getComputedStyle(el).color),
+  ).toBe('rgb(246, 234, 216)'); // crema-100
   expect(await px(bar, '[data-testid="who"]')).toBeGreaterThanOrEqual(20);
 
   // 11. The jug names the drinks it serves; each drink names its jug. Fill the pitcher, pour cups.
@@ -194,7 +210,9 @@ test('a rush with seven milks: every lane in sight, oldest first, keys that stay
   await bar.setViewportSize({ width: 390, height: 844 });
   await expect(bar.getByTestId('lanes-hidden')).toHaveCount(0);
   expect(await bar.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
-  const boxes = await bar.getByTestId('lane').evaluateAll((ls) => ls.map((l) => l.getBoundingClientRect()).map((r) => ({ left: r.left, right: r.right, top: r.top })));
+  const boxes = await bar
+    .getByTestId('lane')
+    .evaluateAll((ls) => ls.map((l) => l.getBoundingClientRect()).map((r) => ({ left: r.left, right: r.right, top: r.top })));
   for (const b of boxes) {
     expect(b.left).toBeGreaterThanOrEqual(0);
     expect(b.right).toBeLessThanOrEqual(390);
@@ -209,7 +227,10 @@ test('a rush with seven milks: every lane in sight, oldest first, keys that stay
   watchForErrors(labels);
   await signIn(labels, 'cashier', `/labels/${ids.get('Dee Park')}`);
   await labels.waitForURL('**/labels/*');
-  for (const [name, words] of [['Dee Park', 'Here · mug'], ['Bo Lind', 'To go · cup']]) {
+  for (const [name, words] of [
+    ['Dee Park', 'Here · mug'],
+    ['Bo Lind', 'To go · cup'],
+  ]) {
     await labels.goto(`/labels/${ids.get(name)}`);
     await expect(labels.getByTestId('cup-label').first().getByTestId('service')).toHaveText(words);
     await expect(labels.getByTestId('cup-label').first().getByTestId('service').locator('svg')).toHaveCount(1);

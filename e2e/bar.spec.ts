@@ -59,15 +59,45 @@ test.describe('two bar screens at work', () => {
 
     // A rush at the morning peak: 16+ drinks across four milks; a lead rushes a newer ticket
     const rush: [string, { item: string; milk?: string; size?: string }[]][] = [
-      ['Cleo Marsh', [{ item: 'Latte', milk: 'Whole' }, { item: 'Cappuccino', milk: 'Whole', size: 'Small' }]],
+      [
+        'Cleo Marsh',
+        [
+          { item: 'Latte', milk: 'Whole' },
+          { item: 'Cappuccino', milk: 'Whole', size: 'Small' },
+        ],
+      ],
       ['Dev Anand', [{ item: 'Flat white', milk: 'Oat' }, { item: 'Long black' }]],
       ['Effie Rowe', [{ item: 'Latte', milk: 'Almond', size: 'Large' }]],
       ['Finn Doyle', [{ item: 'Cappuccino', milk: 'Oat' }, { item: 'Mocha', milk: 'Whole' }, { item: 'Espresso' }]],
       ['Gus Tran', [{ item: 'Chai latte', milk: 'Soy' }]],
-      ['Hana Ito', [{ item: 'Latte', milk: 'Whole', size: 'Large' }, { item: 'Iced latte', milk: 'Oat' }]],
-      ['Ivo Berg', [{ item: 'Flat white', milk: 'Whole' }, { item: 'Cappuccino', milk: 'Almond' }]],
-      ['Jude Park', [{ item: 'Latte', milk: 'Oat', size: 'Small' }, { item: 'Mocha', milk: 'Soy' }]],
-      ['Kai Webb', [{ item: 'Latte', milk: 'Whole' }, { item: 'Flat white', milk: 'Almond' }]],
+      [
+        'Hana Ito',
+        [
+          { item: 'Latte', milk: 'Whole', size: 'Large' },
+          { item: 'Iced latte', milk: 'Oat' },
+        ],
+      ],
+      [
+        'Ivo Berg',
+        [
+          { item: 'Flat white', milk: 'Whole' },
+          { item: 'Cappuccino', milk: 'Almond' },
+        ],
+      ],
+      [
+        'Jude Park',
+        [
+          { item: 'Latte', milk: 'Oat', size: 'Small' },
+          { item: 'Mocha', milk: 'Soy' },
+        ],
+      ],
+      [
+        'Kai Webb',
+        [
+          { item: 'Latte', milk: 'Whole' },
+          { item: 'Flat white', milk: 'Almond' },
+        ],
+      ],
     ];
     for (const [name, items] of rush) await order(api, name, items);
     await expect(cardsOf(bar1, 'Kai Webb')).toHaveCount(2);
@@ -133,4 +163,3 @@ test.describe('a bar screen while the server restarts', () => {
     expect(errors).toEqual([]);
   });
 });
-

@@ -10,7 +10,12 @@ const own = ownServerFor('beans-move');
 test('adding a lot to a full grinder asks first, naming the lot that moves, and says so after', async ({ browser }) => {
   const page = await pageAs(browser, 'owner', '/admin/beans', { width: 1366, height: 768 }, own.baseURL);
   const lots = page.getByTestId('lots-table');
-  const inEspresso = (await lots.getByRole('row').filter({ hasText: 'Espresso' }).first().getByRole('button', { name: /^Edit / }).getAttribute('aria-label'))!.replace(/^Edit /, '');
+  const inEspresso = (await lots
+    .getByRole('row')
+    .filter({ hasText: 'Espresso' })
+    .first()
+    .getByRole('button', { name: /^Edit / })
+    .getAttribute('aria-label'))!.replace(/^Edit /, '');
   await page.getByRole('button', { name: 'Add a lot' }).click();
   const form = page.getByRole('form', { name: 'Add a lot' });
   await form.getByLabel('Name').fill('Tidewater Natural');

@@ -6,8 +6,8 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { request as apiRequest, type APIRequestContext } from '@playwright/test';
-import { loadConfig } from '../server/config';
-import { startServer, type RunningServer } from '../server/server';
+import { loadConfig } from '@server/config';
+import { startServer, type RunningServer } from '@server/server';
 import { DEMO_PASSWORD, errorsOf, expect, signIn, test, watchForErrors } from './fixtures';
 import { shot } from './shots';
 

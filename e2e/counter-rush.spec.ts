@@ -6,7 +6,6 @@ import type { APIRequestContext, Locator, Page } from '@playwright/test';
 import { DEMO_PASSWORD, errorsOf, expect, pageAs, test, type Login, WIDTHS } from './fixtures';
 import { shot } from './shots';
 
-
 async function apiAs(playwright: { request: { newContext(o: { baseURL?: string }): Promise<APIRequestContext> } }, baseURL: string | undefined, login: Login) {
   const api = await playwright.request.newContext({ baseURL });
   expect((await api.post('/api/session', { data: { username: login, password: DEMO_PASSWORD } })).ok()).toBe(true);
@@ -28,9 +27,7 @@ async function expectNoSidewaysScroll(page: Page) {
 }
 
 /** How far any scrolling box inside `within` is scrolled down. */
-const scrolledDown = (within: Locator) =>
-  within.evaluate((root) => Math.max(0, ...[root, ...root.querySelectorAll('*')].map((el) => el.scrollTop)));
-
+const scrolledDown = (within: Locator) => within.evaluate((root) => Math.max(0, ...[root, ...root.querySelectorAll('*')].map((el) => el.scrollTop)));
 
 test('from a phone to a wide screen nothing scrolls sideways and the menu, order and payment are in reach', async ({ browser }) => {
   test.setTimeout(120_000);
@@ -69,7 +66,11 @@ test('from a phone to a wide screen nothing scrolls sideways and the menu, order
   }
 });
 
-test('the ready strip stays one row, newest first, with the rest behind "+n more", and each chip says what tapping does', async ({ browser, playwright, baseURL }) => {
+test('the ready strip stays one row, newest first, with the rest behind "+n more", and each chip says what tapping does', async ({
+  browser,
+  playwright,
+  baseURL,
+}) => {
   test.setTimeout(120_000);
   const cashier = await apiAs(playwright, baseURL, 'cashier');
   const barista = await apiAs(playwright, baseURL, 'barista');
@@ -77,14 +78,23 @@ test('the ready strip stays one row, newest first, with the rest behind "+n more
   const ids: number[] = [];
   for (let i = 1; i <= 26; i++) {
     const res = await cashier.post('/api/orders', {
-      data: { clientOrderId: crypto.randomUUID(), customerName: `Rush ${i}`, items: [{ menuItemId: longBlack }], payment: { method: 'cash', tenderedCents: 1000 } },
+      data: {
+        clientOrderId: crypto.randomUUID(),
+        customerName: `Rush ${i}`,
+        items: [{ menuItemId: longBlack }],
+        payment: { method: 'cash', tenderedCents: 1000 },
+      },
     });
     expect(res.status()).toBe(201);
     ids.push(((await res.json()) as { order: { id: number } }).order.id);
   }
   for (const id of ids) expect((await barista.post(`/api/tickets/${id}/bump`)).ok()).toBe(true);
 
-  for (const viewport of [{ width: 1024, height: 768 }, { width: 390, height: 844 }, { width: 1366, height: 768 }]) {
+  for (const viewport of [
+    { width: 1024, height: 768 },
+    { width: 390, height: 844 },
+    { width: 1366, height: 768 },
+  ]) {
     const page = await pageAs(browser, 'cashier', '/counter', viewport);
     const strip = page.getByRole('region', { name: 'Ready for pickup' });
     const chips = strip.getByRole('button', { name: /^Mark collected #\d+/ });

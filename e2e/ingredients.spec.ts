@@ -16,7 +16,8 @@ test.beforeAll(async () => {
 });
 test.afterAll(() => own?.dispose());
 
-const pageOn = (browser: Browser, login: Login, path: string, viewport: { width: number; height: number }) => pageAs(browser, login, path, viewport, own.baseURL);
+const pageOn = (browser: Browser, login: Login, path: string, viewport: { width: number; height: number }) =>
+  pageAs(browser, login, path, viewport, own.baseURL);
 
 const live = (page: Page) => expect(page.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
 /** A row of the switch preview by its first cell ("Oat (milk)"): its four cells' text. */

@@ -7,7 +7,6 @@ import { DEMO_PASSWORD, errorsOf, expect, signIn, test, watchForErrors, type Log
 import { shot } from './shots';
 import { OwnServer } from './own-server';
 
-
 let own: OwnServer;
 test.beforeAll(async () => {
   own = await OwnServer.create('jug-plan');

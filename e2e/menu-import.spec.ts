@@ -4,7 +4,6 @@ import sharp from 'sharp';
 import { errorsOf, expect, pageAs, test } from './fixtures';
 import { shot } from './shots';
 
-
 const HEADER = 'category,item,station,size,volume_ml,price,shots,dose_g,yield_g,milk_ml,takes_milk,default_milk,texture,ingredients,allergens,default_size';
 const SCONE = (price: string) => `Baked,Quayside scone,counter,,,${price},0,,,,no,,,wheat; cow's milk; egg,milk; eggs; wheat,no`;
 const CORTADO = 'Espresso,Cortado,bar,Regular,120,4.20,2,18.5,37,60,yes,OA,flat,,,yes';

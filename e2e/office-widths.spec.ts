@@ -80,7 +80,9 @@ test('Menu, Dial-in, Beans, Reports, Team and Settings fit 390 to 1920 px wide',
     }
   }
   // unnamed scroll boxes list every cell: name the box once
-  const short = Object.fromEntries(Object.entries(found).map(([k, v]) => [k, v.filter((p, i) => !p.startsWith('unnamed') || v.findIndex((q) => q.startsWith('unnamed')) === i)]));
+  const short = Object.fromEntries(
+    Object.entries(found).map(([k, v]) => [k, v.filter((p, i) => !p.startsWith('unnamed') || v.findIndex((q) => q.startsWith('unnamed')) === i)]),
+  );
   expect(short).toEqual({});
   expect(errorsOf(page)).toEqual([]);
 });

@@ -114,7 +114,10 @@ test.describe('Counter with the server gone', () => {
     await page.waitForURL('**/counter');
     await expect(page.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
 
-    await page.getByRole('tabpanel').getByRole('button', { name: /^Long black/ }).click();
+    await page
+      .getByRole('tabpanel')
+      .getByRole('button', { name: /^Long black/ })
+      .click();
     await page.getByRole('button', { name: /Add to order/ }).click();
     await page.getByLabel('Name for the cup').fill('Cass Moor');
     await page.getByRole('radio', { name: 'Card' }).click();
@@ -135,9 +138,9 @@ test.describe('Counter with the server gone', () => {
     const api = await apiRequest.newContext({ baseURL: own.baseURL });
     expect((await api.post('/api/session', { data: { username: 'cashier', password: DEMO_PASSWORD } })).ok()).toBe(true);
     const ordersFor = async () =>
-      ((await (await api.get('/api/orders?q=Cass')).json()) as { orders: { customerName: string; payment: { method: string }; paymentStatus: string }[] }).orders.filter(
-        (o) => o.customerName === 'Cass Moor',
-      );
+      (
+        (await (await api.get('/api/orders?q=Cass')).json()) as { orders: { customerName: string; payment: { method: string }; paymentStatus: string }[] }
+      ).orders.filter((o) => o.customerName === 'Cass Moor');
     expect(await ordersFor()).toEqual([]);
     await page.screenshot(shot('counter-card-held'));
 

@@ -19,7 +19,12 @@ async function placeOrders(cashier: APIRequestContext, names: string[]): Promise
   const ids: number[] = [];
   for (const name of names) {
     const res = await cashier.post('/api/orders', {
-      data: { clientOrderId: crypto.randomUUID(), customerName: `${name} Quill`, items: [{ menuItemId: latte }], payment: { method: 'cash', tenderedCents: 1000 } },
+      data: {
+        clientOrderId: crypto.randomUUID(),
+        customerName: `${name} Quill`,
+        items: [{ menuItemId: latte }],
+        payment: { method: 'cash', tenderedCents: 1000 },
+      },
     });
     expect(res.status()).toBe(201);
     ids.push((await res.json()).order.id);
@@ -61,7 +66,13 @@ function readBoard(page: Page) {
         if ((name.textContent ?? '').length <= 7) shortSizes.push(parseFloat(getComputedStyle(name).fontSize));
       }
       const more = section.querySelector('[data-testid="pickup-more"]');
-      return { shown: rows.length, more: more ? Number(/\+(\d+) more/.exec(more.textContent ?? '')?.[1]) : 0, cut, smallestName: Math.min(...sizes), smallestShortName: Math.min(...shortSizes) };
+      return {
+        shown: rows.length,
+        more: more ? Number(/\+(\d+) more/.exec(more.textContent ?? '')?.[1]) : 0,
+        cut,
+        smallestName: Math.min(...sizes),
+        smallestShortName: Math.min(...shortSizes),
+      };
     };
     return { making: half('making'), ready: half('ready'), sideways: document.documentElement.scrollWidth > window.innerWidth };
   });
@@ -72,10 +83,13 @@ async function checkBoard(page: Page, label: string) {
   // read as one settled board: after a resize or a burst of orders the wall lays itself out again
   // (columns, then name sizes), and a read in between can catch names mid-fit
   await expect
-    .poll(async () => {
-      const b = await readBoard(page);
-      return { making: b.making.shown + b.making.more, ready: b.ready.shown + b.ready.more, cut: [...b.making.cut, ...b.ready.cut], sideways: b.sideways };
-    }, { message: `${label}: every name shown whole or counted, none cut off, nothing sideways` })
+    .poll(
+      async () => {
+        const b = await readBoard(page);
+        return { making: b.making.shown + b.making.more, ready: b.ready.shown + b.ready.more, cut: [...b.making.cut, ...b.ready.cut], sideways: b.sideways };
+      },
+      { message: `${label}: every name shown whole or counted, none cut off, nothing sideways` },
+    )
     .toEqual({ ...want, cut: [], sideways: false });
   return readBoard(page);
 }
@@ -111,7 +125,12 @@ test('the Pickup wall in a rush shows or counts every name, at every width', asy
   }
 
   // 40 being made: the wall counts what it can't show
-  await placeOrders(cashier, NAMES.concat(NAMES).slice(0, 24).map((n) => `${n}a`));
+  await placeOrders(
+    cashier,
+    NAMES.concat(NAMES)
+      .slice(0, 24)
+      .map((n) => `${n}a`),
+  );
   for (const viewport of [VIEWPORTS[0], VIEWPORTS[4]]) {
     await page.setViewportSize(viewport);
     const b = await checkBoard(page, `${viewport.width}, 40 being made`);

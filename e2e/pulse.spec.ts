@@ -50,7 +50,6 @@ test('a shift on Pulse: open, live numbers, close with a count, report mailed', 
   await expect(pulse.getByRole('region', { name: 'Staffing' })).toContainText('Erlang C');
   await pulse.getByRole('region', { name: 'Staffing' }).screenshot(shot('pulse-staffing'));
 
-
   const expected = (await pulse.getByTestId('expected-cash').textContent())!.replace(/[$,]/g, '');
   const closeForm = pulse.getByRole('form', { name: 'Close the shift' });
   await closeForm.getByLabel('Cash counted ($)').fill(expected);

@@ -1,7 +1,7 @@
 // Every screen × every role → the expected answer, generated from the one screens table, so a new
 // screen can't ship without its row. Signed out → sign-in and back; without the capability → 403.
-import { CAPABILITIES, ROLES, type Role } from '../src/domain/roles';
-import { SCREENS } from '../src/domain/screens';
+import { CAPABILITIES, ROLES, type Role } from '@/domain/roles';
+import { SCREENS } from '@/domain/screens';
 import { DEMO_PASSWORD, expect, test } from './fixtures';
 
 const LOGIN: Record<Role, string> = { cashier: 'cashier', barista: 'barista', lead: 'lead', owner: 'owner' };

@@ -2,7 +2,7 @@
 // ready, one with an allergy, a shift open, a receipt and a reset link mailed), for the
 // accessibility and widths specs. One signed-in browser context per role, reused across screens.
 import { request as apiRequest, type APIRequestContext, type Browser, type BrowserContext, type Page } from '@playwright/test';
-import { SCREENS } from '../src/domain/screens';
+import { SCREENS } from '@/domain/screens';
 import { DEMO_PASSWORD, expect, test, watchForErrors, type Login } from './fixtures';
 
 export interface ScreenCase {

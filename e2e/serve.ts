@@ -2,9 +2,9 @@
 import { mkdtempSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { loadConfig } from '../server/config';
-import { guardProcess } from '../server/process-guard';
-import { appLogger, startServer } from '../server/server';
+import { loadConfig } from '@server/config';
+import { guardProcess } from '@server/process-guard';
+import { appLogger, startServer } from '@server/server';
 
 // E2E_DATABASE_FILE: a test that stops and restarts the server keeps its data (and sessions).
 const databaseFile = process.env.E2E_DATABASE_FILE ?? path.join(mkdtempSync(path.join(os.tmpdir(), 'jugline-e2e-')), 'jugline.sqlite');

@@ -81,7 +81,12 @@ test.describe('a shared terminal', () => {
     const menu = await (await api.get('/api/menu')).json();
     const latte = menu.items.find((i: { name: string }) => i.name === 'Latte').id;
     const placed = await api.post('/api/orders', {
-      data: { clientOrderId: crypto.randomUUID(), customerName: 'Odette Lyle', items: [{ menuItemId: latte }], payment: { method: 'cash', tenderedCents: 2000 } },
+      data: {
+        clientOrderId: crypto.randomUUID(),
+        customerName: 'Odette Lyle',
+        items: [{ menuItemId: latte }],
+        payment: { method: 'cash', tenderedCents: 2000 },
+      },
     });
     expect(placed.status()).toBe(201);
     await api.dispose();
@@ -117,7 +122,10 @@ test.describe('a shared terminal', () => {
 
     // a cashier can't see the Bar: the terminal goes to the Counter
     await page.getByRole('button', { name: 'Switch person' }).click();
-    await page.getByRole('dialog', { name: 'Switch person' }).getByRole('button', { name: /Priya Onslow/ }).click();
+    await page
+      .getByRole('dialog', { name: 'Switch person' })
+      .getByRole('button', { name: /Priya Onslow/ })
+      .click();
     await page.keyboard.type('4072');
     await page.keyboard.press('Enter');
     await page.waitForURL('**/counter');

@@ -5,7 +5,6 @@ import type { Page } from '@playwright/test';
 import { apiAs, errorsOf, expect, pageAs, test } from './fixtures';
 import { shot } from './shots';
 
-
 async function rush(baseURL: string) {
   const [cashier, barista] = [await apiAs(baseURL, 'cashier'), await apiAs(baseURL, 'barista')];
   const menu = await (await cashier.get('/api/menu')).json();
@@ -13,7 +12,12 @@ async function rush(baseURL: string) {
   const ids: number[] = [];
   for (const name of ['Ari Moss', 'Bea Lund', 'Cy Holt', 'Di Vane', 'Eli Ross', 'Fay Dunn']) {
     const res = await cashier.post('/api/orders', {
-      data: { clientOrderId: crypto.randomUUID(), customerName: name, items: [{ menuItemId: latte }, { menuItemId: latte }], payment: { method: 'cash', tenderedCents: 2000 } },
+      data: {
+        clientOrderId: crypto.randomUUID(),
+        customerName: name,
+        items: [{ menuItemId: latte }, { menuItemId: latte }],
+        payment: { method: 'cash', tenderedCents: 2000 },
+      },
     });
     expect(res.status()).toBe(201);
     ids.push((await res.json()).order.id);
@@ -32,7 +36,8 @@ function layoutProblems(page: Page) {
       // name the widest culprits: elements sticking out whose parent doesn't
       for (const el of document.querySelectorAll<HTMLElement>('body *')) {
         const out = (e: Element | null) => !!e && e.getBoundingClientRect().right > window.innerWidth + 1;
-        if (out(el) && !out(el.parentElement?.closest('section, table, form, div') === el.parentElement ? el.parentElement : el.parentElement)) problems.push(`too wide: <${el.tagName.toLowerCase()}> ${(el.textContent ?? '').slice(0, 40)}`);
+        if (out(el) && !out(el.parentElement?.closest('section, table, form, div') === el.parentElement ? el.parentElement : el.parentElement))
+          problems.push(`too wide: <${el.tagName.toLowerCase()}> ${(el.textContent ?? '').slice(0, 40)}`);
       }
     }
     for (const el of document.querySelectorAll<HTMLElement>('[data-testid="pulse-number"] p, [data-testid="wait-now"], [data-testid="staffing"]')) {

@@ -7,7 +7,6 @@ import { errorsOf, expect, test, WIDTHS } from './fixtures';
 import { open, SCREEN_NAMES, screenSuite } from './screens';
 import { shot } from './shots';
 
-
 /** What is wrong with the layout at the current width, one line per problem. */
 function layoutProblems(page: Page): Promise<string[]> {
   return page.evaluate(() => {
@@ -43,7 +42,9 @@ function layoutProblems(page: Page): Promise<string[]> {
     };
 
     // controls: wholly inside the viewport, left to right
-    for (const el of document.querySelectorAll('button, input:not([type="hidden"]), select, textarea, a[href], [role="button"], [role="tab"], [role="radio"]')) {
+    for (const el of document.querySelectorAll(
+      'button, input:not([type="hidden"]), select, textarea, a[href], [role="button"], [role="tab"], [role="radio"]',
+    )) {
       if (!shown(el) || inScroller(el)) continue;
       const r = el.getBoundingClientRect();
       if (r.left < -1 || r.right > vw + 1) out.push(`${name(el)} spans ${Math.round(r.left)}–${Math.round(r.right)} px, outside 0–${vw}`);
@@ -72,7 +73,6 @@ function layoutProblems(page: Page): Promise<string[]> {
     return [...new Set(out)].slice(0, 12);
   });
 }
-
 
 const suite = screenSuite();
 

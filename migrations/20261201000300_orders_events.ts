@@ -89,9 +89,7 @@ export async function up(knex: Knex): Promise<void> {
     t.string('updated_at').notNullable();
     t.index(['order_id']);
   });
-  await knex.raw(
-    "CREATE UNIQUE INDEX payments_one_live_per_order ON payments (order_id) WHERE status IN ('processing', 'succeeded')",
-  );
+  await knex.raw("CREATE UNIQUE INDEX payments_one_live_per_order ON payments (order_id) WHERE status IN ('processing', 'succeeded')");
 
   await knex.schema.createTable('refunds', (t) => {
     t.increments('id');

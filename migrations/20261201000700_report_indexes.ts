@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import { dialectOf } from '../server/db/dialect';
+import { dialectOf } from '@server/db/dialect';
 
 // Reports over a long range. Two things the report and the ticket history kept recomputing:
 //
@@ -17,8 +17,7 @@ const WAIT_OF_ORDER = `CASE WHEN o.fired_at IS NOT NULL AND o.ready_at IS NOT NU
   AND EXISTS (SELECT 1 FROM order_items b WHERE b.order_id = o.id AND b.station = 'bar')
   THEN ROUND((julianday(o.ready_at) - julianday(o.fired_at)) * 86400, 3) END`;
 
-const forget = (row: 'NEW' | 'OLD') =>
-  `DELETE FROM report_days WHERE location_id = ${row}.location_id AND business_date = ${row}.business_date;`;
+const forget = (row: 'NEW' | 'OLD') => `DELETE FROM report_days WHERE location_id = ${row}.location_id AND business_date = ${row}.business_date;`;
 const forgetLine = (row: 'NEW' | 'OLD') =>
   `DELETE FROM report_days WHERE (location_id, business_date) IN (SELECT location_id, business_date FROM orders WHERE id = ${row}.order_id);`;
 
@@ -37,8 +36,7 @@ const PG_WAIT_OF_ORDER = `CASE WHEN o.fired_at IS NOT NULL AND o.ready_at IS NOT
   AND EXISTS (SELECT 1 FROM order_items b WHERE b.order_id = o.id AND b.station = 'bar')
   THEN ROUND(EXTRACT(EPOCH FROM (o.ready_at::timestamptz - o.fired_at::timestamptz))::numeric, 3) END`;
 
-const PG_FORGET = (row: 'NEW' | 'OLD', table: 'orders' | 'order_items') =>
-  table === 'orders' ? forget(row) : forgetLine(row);
+const PG_FORGET = (row: 'NEW' | 'OLD', table: 'orders' | 'order_items') => (table === 'orders' ? forget(row) : forgetLine(row));
 const pgTriggerFunction = (table: 'orders' | 'order_items') => `CREATE FUNCTION report_days_forget_${table}() RETURNS trigger AS $$
 BEGIN
   IF TG_OP IN ('UPDATE', 'DELETE') THEN ${PG_FORGET('OLD', table)} END IF;
@@ -64,7 +62,9 @@ export async function up(knex: Knex): Promise<void> {
   if (pg) {
     for (const table of PG_TABLES) {
       await knex.raw(pgTriggerFunction(table));
-      await knex.raw(`CREATE TRIGGER report_days_forget AFTER INSERT OR UPDATE OR DELETE ON ${table} FOR EACH ROW EXECUTE FUNCTION report_days_forget_${table}()`);
+      await knex.raw(
+        `CREATE TRIGGER report_days_forget AFTER INSERT OR UPDATE OR DELETE ON ${table} FOR EACH ROW EXECUTE FUNCTION report_days_forget_${table}()`,
+      );
     }
   } else for (const [name, body] of TRIGGERS) await knex.raw(`CREATE TRIGGER ${name} ${body}`);
 }

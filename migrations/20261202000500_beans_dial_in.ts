@@ -23,9 +23,7 @@ export async function up(knex: Knex): Promise<void> {
     t.index(['location_id']);
   });
   // one lot at a time in each grinder
-  await knex.raw(
-    "CREATE UNIQUE INDEX bean_lots_one_per_grinder ON bean_lots (location_id, hopper) WHERE retired_at IS NULL AND hopper <> 'shelf'",
-  );
+  await knex.raw("CREATE UNIQUE INDEX bean_lots_one_per_grinder ON bean_lots (location_id, hopper) WHERE retired_at IS NULL AND hopper <> 'shelf'");
 
   await knex.schema.createTable('dial_in_shots', (t) => {
     t.increments('id');

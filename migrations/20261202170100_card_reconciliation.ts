@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import { dialectOf } from '../server/db/dialect';
+import { dialectOf } from '@server/db/dialect';
 
 // Card money reconciliation. A card attempt whose answer was lost is `unknown` until the provider
 // says what happened; a charge the order can't take (voided, paid another way, a duplicate) is
@@ -36,13 +36,15 @@ const REFUNDS = (withCause: boolean) => `CREATE TABLE \`refunds_next\` (
   \`amount_cents\` integer not null,
   \`reason\` varchar(200) not null,
   \`provider_id\` varchar(64),
-  ${withCause
-    ? `\`created_by\` integer,
+  ${
+    withCause
+      ? `\`created_by\` integer,
   \`cause\` varchar(16) check (\`cause\` in ('order_voided','paid_otherwise','duplicate')),
   \`created_at\` varchar(255) not null,
   check ((\`cause\` is null) <> (\`created_by\` is null)),`
-    : `\`created_by\` integer not null,
-  \`created_at\` varchar(255) not null,`}
+      : `\`created_by\` integer not null,
+  \`created_at\` varchar(255) not null,`
+  }
   foreign key(\`order_id\`) references \`orders\`(\`id\`),
   foreign key(\`payment_id\`) references \`payments\`(\`id\`),
   foreign key(\`created_by\`) references \`users\`(\`id\`))`;
@@ -90,7 +92,7 @@ const PG_UP = [
 const PG_DOWN = [
   'DROP INDEX refunds_one_automatic_per_payment',
   'DROP INDEX refunds_created_at_index',
-  "DELETE FROM refunds WHERE cause IS NOT NULL",
+  'DELETE FROM refunds WHERE cause IS NOT NULL',
   'ALTER TABLE refunds DROP CONSTRAINT refunds_cause_or_person',
   'ALTER TABLE refunds DROP COLUMN cause',
   'ALTER TABLE refunds ALTER COLUMN created_by SET NOT NULL',

@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import { dialectOf } from '../server/db/dialect';
+import { dialectOf } from '@server/db/dialect';
 
 // Started jugs, and the café's rules for planning jugs.
 //

@@ -83,9 +83,15 @@ const parse = (text: unknown): string[] => {
 async function rowsOf(knex: Knex, table: (typeof TABLES)[number], column: string) {
   const q =
     table === 'menu_items'
-      ? knex('menu_items').join('menu_categories', 'menu_categories.id', 'menu_items.category_id').join('locations', 'locations.id', 'menu_categories.location_id')
+      ? knex('menu_items')
+          .join('menu_categories', 'menu_categories.id', 'menu_items.category_id')
+          .join('locations', 'locations.id', 'menu_categories.location_id')
       : knex(table).join('locations', 'locations.id', `${table}.location_id`);
-  const rows: { id: number; value: string; list: 'US' | 'EU' }[] = await q.select(`${table}.id as id`, `${table}.${column} as value`, 'locations.allergen_list as list');
+  const rows: { id: number; value: string; list: 'US' | 'EU' }[] = await q.select(
+    `${table}.id as id`,
+    `${table}.${column} as value`,
+    'locations.allergen_list as list',
+  );
   return rows;
 }
 
@@ -102,7 +108,9 @@ export async function up(knex: Knex): Promise<void> {
         return ingredient;
       });
       const ingredients = ORDER.filter((name) => found.includes(name));
-      await knex(table).where({ id: row.id }).update({ ingredients: JSON.stringify(ingredients) });
+      await knex(table)
+        .where({ id: row.id })
+        .update({ ingredients: JSON.stringify(ingredients) });
     }
     // SQLite's own DROP COLUMN: Knex would rebuild the table, which past orders reference
     await knex.raw(`ALTER TABLE ${table} DROP COLUMN allergens`);
@@ -121,7 +129,9 @@ export async function down(knex: Knex): Promise<void> {
         const tag = row.list === 'EU' ? eu : us;
         return names.includes(name) && tag ? [tag] : [];
       });
-      await knex(table).where({ id: row.id }).update({ allergens: JSON.stringify([...new Set(tags)]) });
+      await knex(table)
+        .where({ id: row.id })
+        .update({ allergens: JSON.stringify([...new Set(tags)]) });
     }
     await knex.raw(`ALTER TABLE ${table} DROP COLUMN ingredients`);
   }

@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import { dialectOf } from '../server/db/dialect';
+import { dialectOf } from '@server/db/dialect';
 
 // A stored report day (report_days) must never be older than its orders. On SQLite the one
 // connection runs transactions one after another, so the triggers of …0700 that forget a day when
@@ -20,12 +20,14 @@ const forgetLine = (row: 'NEW' | 'OLD') =>
     DELETE FROM report_days WHERE (location_id, business_date) IN (SELECT location_id, business_date FROM orders WHERE id = ${row}.order_id);`;
 
 // the bodies as …0700 made them, for down()
-const oldForget = (row: 'NEW' | 'OLD') =>
-  `DELETE FROM report_days WHERE location_id = ${row}.location_id AND business_date = ${row}.business_date;`;
+const oldForget = (row: 'NEW' | 'OLD') => `DELETE FROM report_days WHERE location_id = ${row}.location_id AND business_date = ${row}.business_date;`;
 const oldForgetLine = (row: 'NEW' | 'OLD') =>
   `DELETE FROM report_days WHERE (location_id, business_date) IN (SELECT location_id, business_date FROM orders WHERE id = ${row}.order_id);`;
 
-const triggerFunction = (table: 'orders' | 'order_items', body: (row: 'NEW' | 'OLD') => string) => `CREATE OR REPLACE FUNCTION report_days_forget_${table}() RETURNS trigger AS $$
+const triggerFunction = (
+  table: 'orders' | 'order_items',
+  body: (row: 'NEW' | 'OLD') => string,
+) => `CREATE OR REPLACE FUNCTION report_days_forget_${table}() RETURNS trigger AS $$
 BEGIN
   IF TG_OP IN ('UPDATE', 'DELETE') THEN ${body('OLD')} END IF;
   IF TG_OP IN ('INSERT', 'UPDATE') THEN ${body('NEW')} END IF;

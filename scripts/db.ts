@@ -1,10 +1,10 @@
 // npm run db:migrate | db:seed | db:backup | db:restore — the database commands, with the same
 // config as the server (DATABASE_URL: PostgreSQL, else DATABASE_FILE).
 import path from 'node:path';
-import { backupDatabase, backupFileName, checkBackup, restoreDatabase } from '../server/db/backup';
-import { databaseTarget, loadConfig } from '../server/config';
-import { createDb } from '../server/db/knex';
-import { migrateAndSeed } from '../server/db/migrate';
+import { backupDatabase, backupFileName, checkBackup, restoreDatabase } from '@server/db/backup';
+import { databaseTarget, loadConfig } from '@server/config';
+import { createDb } from '@server/db/knex';
+import { migrateAndSeed } from '@server/db/migrate';
 
 const command = process.argv[2];
 const config = loadConfig();

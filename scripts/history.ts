@@ -6,8 +6,8 @@ import { mkdirSync } from 'node:fs';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { parseArgs } from 'node:util';
-import { databaseTarget, loadConfig } from '../server/config';
-import { isPostgresUrl } from '../server/db/dialect';
+import { databaseTarget, loadConfig } from '@server/config';
+import { isPostgresUrl } from '@server/db/dialect';
 import { DEFAULT_SEED, generateHistory, HistoryRefused, type HistorySummary } from './history/generate';
 
 export { generateHistory, HistoryRefused };

@@ -11,10 +11,10 @@ import path from 'node:path';
 import { parseArgs } from 'node:util';
 import { chromium, request, type APIRequestContext, type BrowserServer } from '@playwright/test';
 import playwrightConfig from '../playwright.config';
-import { DEMO_PASSWORD } from '../seeds/demo-cafe';
-import { loadConfig } from '../server/config';
-import { startServer, type RunningServer } from '../server/server';
-import { CLIENT_DIR, isBuilt } from '../server/ssr/pages';
+import { DEMO_PASSWORD } from '@seeds/demo-cafe';
+import { loadConfig } from '@server/config';
+import { startServer, type RunningServer } from '@server/server';
+import { CLIENT_DIR, isBuilt } from '@server/ssr/pages';
 import { businessDate, localDayStartMs } from './history/calendar';
 import { generateHistory } from './history/generate';
 import { describeBoard, playRush, type SceneClock } from './screenshots/rush';
@@ -99,11 +99,20 @@ async function main() {
     console.log(`History: ${days} days before ${today} …`);
     const history = await generateHistory({ file: databaseFile, days, now: new Date(openMs) });
     console.log(`  ${history.orders} orders in ${history.seconds.toFixed(0)} s`);
-    const config = loadConfig({ NODE_ENV: 'production', PORT: values.port, HOST: '127.0.0.1', DATABASE_FILE: databaseFile, SEED_DEMO: 'true', LOG_LEVEL: 'error' });
+    const config = loadConfig({
+      NODE_ENV: 'production',
+      PORT: values.port,
+      HOST: '127.0.0.1',
+      DATABASE_FILE: databaseFile,
+      SEED_DEMO: 'true',
+      LOG_LEVEL: 'error',
+    });
     running = await startServer(config, { pages: 'production', clock: scene.clock, log: () => {} });
     const baseURL = running.url;
 
-    const [cashier, lead, barista, barista2, owner] = await Promise.all((['cashier', 'lead', 'barista', 'barista2', 'owner'] as const).map((l) => signedIn(baseURL, l)));
+    const [cashier, lead, barista, barista2, owner] = await Promise.all(
+      (['cashier', 'lead', 'barista', 'barista2', 'owner'] as const).map((l) => signedIn(baseURL, l)),
+    );
     apis.push(cashier, lead, barista, barista2, owner);
     console.log('The morning rush …');
     const rush = await playRush({
@@ -194,7 +203,10 @@ async function finishScene(showcaseOrderId: number, api: { cashier: APIRequestCo
   ];
   for (const s of shots) await ok('a dial-in shot', api.barista.post('/api/dial-in/shots', { data: { lotId: lot.id, ...s } }));
 
-  await ok('the invitation', api.owner.post('/api/team', { data: { name: 'Rosa Bright', username: 'rosa', email: 'rosa.bright@example.test', role: 'barista' } }));
+  await ok(
+    'the invitation',
+    api.owner.post('/api/team', { data: { name: 'Rosa Bright', username: 'rosa', email: 'rosa.bright@example.test', role: 'barista' } }),
+  );
   const outbox = await (await ok('the outbox', api.owner.get('/api/outbox'))).text();
   const welcomePath = /\/welcome\/[A-Za-z0-9_-]{43}/.exec(outbox)?.[0] ?? null;
   return { showcaseOrderId, welcomePath };

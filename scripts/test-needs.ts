@@ -3,7 +3,7 @@
 // the command to type. Nothing here starts a service: the tests start their own servers.
 import { execFileSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
-import { postgresBin } from '../server/db/postgres-tools';
+import { postgresBin } from '@server/db/postgres-tools';
 
 interface Need {
   /** The Debian package. */
@@ -33,7 +33,9 @@ if (missing.length > 0) {
   const pkgs = missing.map((n) => n.pkg);
   const why = missing.map((n) => `  ${n.pkg}: ${n.why}`).join('\n');
   if (process.getuid?.() !== 0) {
-    console.error(`The tests need Debian packages that are not installed:\n${why}\nInstall them, then run npm test again:\n  sudo apt-get install -y ${pkgs.join(' ')}`);
+    console.error(
+      `The tests need Debian packages that are not installed:\n${why}\nInstall them, then run npm test again:\n  sudo apt-get install -y ${pkgs.join(' ')}`,
+    );
     process.exit(1);
   }
   console.log(`Installing what the tests need from Debian:\n${why}`);

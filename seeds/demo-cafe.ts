@@ -1,12 +1,12 @@
 // The demo café: Harbour & Hearth Coffee, an invented quay-side café with invented staff.
 // Loaded only into an empty database when SEED_DEMO is on.
 import type { Knex } from 'knex';
-import { hashPassword, verifyPassword } from '../server/auth/passwords';
-import { adviseShot, doseRange, DEFAULT_SHOT_TARGETS } from '../src/domain/dial-in';
-import { addDays } from '../src/domain/freshness';
-import { businessDate } from '../src/domain/business-date';
-import { defaultMinFillMl } from '../src/domain/settings-schemas';
-import { inOrder, type Ingredient } from '../src/domain/ingredients';
+import { hashPassword, verifyPassword } from '@server/auth/passwords';
+import { adviseShot, doseRange, DEFAULT_SHOT_TARGETS } from '@/domain/dial-in';
+import { addDays } from '@/domain/freshness';
+import { businessDate } from '@/domain/business-date';
+import { defaultMinFillMl } from '@/domain/settings-schemas';
+import { inOrder, type Ingredient } from '@/domain/ingredients';
 
 export const DEMO_PASSWORD = 'jugline-demo';
 
@@ -56,14 +56,32 @@ const MENU: { category: string; items: ItemSeed[] }[] = [
       { name: 'Latte', station: 'bar', shots: 2, milk: true, texture: 'silky', sizes: SML([480, 540, 590], [180, 270, 360]) },
       { name: 'Cappuccino', station: 'bar', shots: 2, milk: true, texture: 'foamy', sizes: SML([480, 540, 590], [140, 210, 280]) },
       { name: 'Mocha', station: 'bar', shots: 2, milk: true, texture: 'silky', sizes: SML([520, 580, 630], [170, 250, 340]) },
-      { name: 'Iced latte', station: 'bar', shots: 2, milk: true, texture: 'cold', sizes: [['Regular', 350, 540, 200], ['Large', 470, 590, 280]] },
+      {
+        name: 'Iced latte',
+        station: 'bar',
+        shots: 2,
+        milk: true,
+        texture: 'cold',
+        sizes: [
+          ['Regular', 350, 540, 200],
+          ['Large', 470, 590, 280],
+        ],
+      },
     ],
   },
   {
     category: 'Tea & brew',
     items: [
       { name: 'Chai latte', station: 'bar', shots: 0, milk: true, texture: 'silky', sizes: SML([490, 550, 600], [200, 290, 380]) },
-      { name: 'Batch brew', station: 'bar', shots: 0, sizes: [['Small', 240, 350, 0], ['Regular', 350, 400, 0]] },
+      {
+        name: 'Batch brew',
+        station: 'bar',
+        shots: 0,
+        sizes: [
+          ['Small', 240, 350, 0],
+          ['Regular', 350, 400, 0],
+        ],
+      },
     ],
   },
   {
@@ -193,7 +211,12 @@ async function seedDemo(db: Knex, now: Date, passwordCost: number | undefined, o
         [350, 190],
         [600, 330],
         [950, 520],
-      ].map(([capacity_ml, fill_line_ml]) => ({ location_id: locationId, capacity_ml, fill_line_ml, min_fill_ml: defaultMinFillMl(capacity_ml, fill_line_ml) })),
+      ].map(([capacity_ml, fill_line_ml]) => ({
+        location_id: locationId,
+        capacity_ml,
+        fill_line_ml,
+        min_fill_ml: defaultMinFillMl(capacity_ml, fill_line_ml),
+      })),
     );
 
     const milkIds: number[] = [];
@@ -220,9 +243,7 @@ async function seedDemo(db: Knex, now: Date, passwordCost: number | undefined, o
     }
 
     for (const [ci, cat] of MENU.entries()) {
-      const [{ id: categoryId }] = await trx('menu_categories')
-        .insert({ location_id: locationId, name: cat.category, sort: ci })
-        .returning('id');
+      const [{ id: categoryId }] = await trx('menu_categories').insert({ location_id: locationId, name: cat.category, sort: ci }).returning('id');
       for (const [ii, item] of cat.items.entries()) {
         const [{ id: itemId }] = await trx('menu_items')
           .insert({
@@ -280,9 +301,33 @@ async function seedDemo(db: Knex, now: Date, passwordCost: number | undefined, o
 // its best days on the espresso grinder, a single origin still resting on the shelf, and a decaf
 // that is fading. Two test shots from this morning dial in the house blend.
 const BEAN_LOTS = [
-  { name: 'Breakwater House Blend', roaster: 'Kestrel & Vane Roasters', origin: 'Brazil and Colombia; cocoa, toffee', roastedDaysAgo: 12, receivedDaysAgo: 10, grams: 5000, hopper: 'espresso' },
-  { name: 'Guji Hillside', roaster: 'Marlow Street Roastworks', origin: 'Ethiopia, washed; jasmine, peach', roastedDaysAgo: 3, receivedDaysAgo: 1, grams: 1000, hopper: 'shelf' },
-  { name: 'Night Harbour Decaf', roaster: 'Kestrel & Vane Roasters', origin: 'Colombia, sugarcane decaf; brown sugar', roastedDaysAgo: 34, receivedDaysAgo: 31, grams: 1000, hopper: 'decaf' },
+  {
+    name: 'Breakwater House Blend',
+    roaster: 'Kestrel & Vane Roasters',
+    origin: 'Brazil and Colombia; cocoa, toffee',
+    roastedDaysAgo: 12,
+    receivedDaysAgo: 10,
+    grams: 5000,
+    hopper: 'espresso',
+  },
+  {
+    name: 'Guji Hillside',
+    roaster: 'Marlow Street Roastworks',
+    origin: 'Ethiopia, washed; jasmine, peach',
+    roastedDaysAgo: 3,
+    receivedDaysAgo: 1,
+    grams: 1000,
+    hopper: 'shelf',
+  },
+  {
+    name: 'Night Harbour Decaf',
+    roaster: 'Kestrel & Vane Roasters',
+    origin: 'Colombia, sugarcane decaf; brown sugar',
+    roastedDaysAgo: 34,
+    receivedDaysAgo: 31,
+    grams: 1000,
+    hopper: 'decaf',
+  },
 ] as const;
 
 const DIAL_IN_SHOTS = [

@@ -97,7 +97,14 @@ export function createApp(opts: AppOptions): App {
     logger: opts.logger,
   });
   const passport = createPassport(opts.db, opts.sessionClock);
-  const routes = [...sessionRoutes(passport, deps, { secret: opts.config.sessionSecret, pacing: opts.signInPacing }), ...menuRoutes(deps), ...orderRoutes(deps), ...ticketRoutes(deps), ...shiftRoutes(deps), ...reportRoutes(deps)];
+  const routes = [
+    ...sessionRoutes(passport, deps, { secret: opts.config.sessionSecret, pacing: opts.signInPacing }),
+    ...menuRoutes(deps),
+    ...orderRoutes(deps),
+    ...ticketRoutes(deps),
+    ...shiftRoutes(deps),
+    ...reportRoutes(deps),
+  ];
   routes.push(...menuAdminRoutes(deps), ...menuImportRoutes(deps, mediaDir), ...teamRoutes(deps), ...settingsRoutes(deps), ...beanRoutes(deps));
   if (opts.mailer) routes.push(...mailRoutes(deps, opts.mailer));
 

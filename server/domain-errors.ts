@@ -47,5 +47,6 @@ export const gone = (message: string) => new DomainError('not_found', 'not_found
 export const conflict = (message: string, details?: unknown, code: ErrorCode = 'conflict') => new DomainError('conflict', code, message, details);
 export const declined = (message: string, details?: unknown) => new DomainError('declined', 'payment_declined', message, details);
 export const tooMany = (message: string, details?: unknown) => new DomainError('too_many', 'rate_limited', message, details);
-export const upstreamFailed = (message: string, details?: unknown, code: ErrorCode = 'payment_unavailable') => new DomainError('upstream', code, message, details);
+export const upstreamFailed = (message: string, details?: unknown, code: ErrorCode = 'payment_unavailable') =>
+  new DomainError('upstream', code, message, details);
 export const notSetUp = (message: string) => new DomainError('not_set_up', 'unavailable', message);

@@ -1,7 +1,7 @@
 // The events table is the realtime log: appended inside each command's transaction, published
 // after commit, replayed to screens that resume.
 import type { Knex } from 'knex';
-import type { AnyLiveEvent, MenuEvent, ShiftView, TicketEventType, TicketView } from '../src/domain/types';
+import type { AnyLiveEvent, MenuEvent, ShiftView, TicketEventType, TicketView } from '@/domain/types';
 import { lockingRead } from './db/dialect';
 import type { Deps } from './deps';
 import type { Db } from './db/knex';
@@ -91,10 +91,7 @@ export async function appendBeansChangedEvent(_trx: Knex.Transaction, locationId
 }
 
 /** Run a command in one transaction; publish its events only once it has committed. */
-export async function runCommand<T>(
-  deps: Deps,
-  work: (trx: Knex.Transaction) => Promise<{ result: T; events: PendingEvent[] }>,
-): Promise<T> {
+export async function runCommand<T>(deps: Deps, work: (trx: Knex.Transaction) => Promise<{ result: T; events: PendingEvent[] }>): Promise<T> {
   const { result, events } = await deps.db.transaction(async (trx) => {
     const done = await work(trx);
     await writeEvents(trx, done.events);

@@ -1,6 +1,6 @@
 // `npm run dev` and `npm start` land here.
 import { ConfigError, loadConfig } from './config';
-import { demoPasswordStillSet } from '../seeds/demo-cafe';
+import { demoPasswordStillSet } from '@seeds/demo-cafe';
 import { DatabaseBehindError } from './db/migrate';
 import { guardProcess } from './process-guard';
 import { appLogger, printSignIns, startServer } from './server';

@@ -1,7 +1,7 @@
 // Every API route is declared as data (method, path, who may call it, handler) so that the
 // role matrix in the tests is generated from the same list the app mounts.
 import { Router, type RequestHandler } from 'express';
-import type { Capability } from '../src/domain/roles';
+import type { Capability } from '@/domain/roles';
 import { requireCapability } from './auth/guards';
 
 export interface ApiRoute {

@@ -3,7 +3,7 @@ import { mkdirSync } from 'node:fs';
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import type { Knex } from 'knex';
-import { DEMO_PASSWORD, DEMO_STAFF } from '../seeds/demo-cafe';
+import { DEMO_PASSWORD, DEMO_STAFF } from '@seeds/demo-cafe';
 import { createApp } from './app';
 import { databaseTarget, mediaDirOf, migratesOnStart, type Config } from './config';
 import { createDb } from './db/knex';

@@ -1,7 +1,7 @@
 // The bar through one day: each drink waits in the queue for a time that grows with the drinks
 // still ahead of it (so it grows at the rushes), then takes 40–120 s to make. The quote is the
 // Counter's own quoteWaitSeconds over the same queue and the same recent make times.
-import { quoteWaitSeconds } from '../../src/domain/quote';
+import { quoteWaitSeconds } from '@/domain/quote';
 import type { Random } from './random';
 
 /** Seconds of queue per drink ahead, per barista on bar: with the rushes of arrivals.ts this keeps

@@ -1,8 +1,8 @@
 // What one customer orders: 1–3 items, mostly bar drinks, with the scenario's milk mix
 // (whole 46 %, oat 24 %, skim 10 %, soy 6 %, almond 8 %, none 6 %), sizes mostly Regular, a few
 // extra shots and syrups, and a pastry with about one order in five. Ids come from the menu by name.
-import type { OrderLineInput } from '../../src/domain/schemas';
-import type { MenuItemView, MenuView } from '../../src/domain/types';
+import type { OrderLineInput } from '@/domain/schemas';
+import type { MenuItemView, MenuView } from '@/domain/types';
 import type { Random } from './random';
 
 /** Share of bar drinks by milk, in percent; null: a drink without milk. */
@@ -60,9 +60,21 @@ export function indexMenu(menu: MenuView): MenuIndex {
   const groupIds = new Map(menu.modifierGroups.map((g) => [g.name, g.id]));
   return {
     menu,
-    item: (name) => need(menu.items.find((i) => i.name === name), `item "${name}"`),
-    milkId: (name) => need(menu.milks.find((m) => m.name === name), `milk "${name}"`).id,
-    modifierId: (name) => need(menu.modifiers.find((m) => m.name === name), `extra "${name}"`).id,
+    item: (name) =>
+      need(
+        menu.items.find((i) => i.name === name),
+        `item "${name}"`,
+      ),
+    milkId: (name) =>
+      need(
+        menu.milks.find((m) => m.name === name),
+        `milk "${name}"`,
+      ).id,
+    modifierId: (name) =>
+      need(
+        menu.modifiers.find((m) => m.name === name),
+        `extra "${name}"`,
+      ).id,
     offers: (item, groupName) => item.modifierGroupIds.includes(groupIds.get(groupName) ?? -1),
   };
 }
@@ -77,9 +89,7 @@ function icedWeight(month: number): number {
 function drinkLine(ix: MenuIndex, random: Random, month: number): OrderLineInput {
   const milk = random.weighted(MILK_MIX);
   const name =
-    milk === null
-      ? random.weighted(BLACK_DRINKS)
-      : random.weighted(MILK_DRINKS.map(([n, w]) => [n, n === 'Iced latte' ? w * icedWeight(month) : w] as const));
+    milk === null ? random.weighted(BLACK_DRINKS) : random.weighted(MILK_DRINKS.map(([n, w]) => [n, n === 'Iced latte' ? w * icedWeight(month) : w] as const));
   const item = ix.item(name);
   const line: OrderLineInput = { menuItemId: item.id };
   if (milk !== null) line.milkId = ix.milkId(milk);
@@ -109,8 +119,16 @@ export function basket(ix: MenuIndex, random: Random, month: number): OrderLineI
   const pastry = random.chance(0.2);
   const water = random.chance(0.02);
   const drinks = pastry
-    ? random.weighted([[0, 12], [1, 70], [2, 18]] as const)
-    : random.weighted([[1, 74], [2, 20], [3, 6]] as const);
+    ? random.weighted([
+        [0, 12],
+        [1, 70],
+        [2, 18],
+      ] as const)
+    : random.weighted([
+        [1, 74],
+        [2, 20],
+        [3, 6],
+      ] as const);
   const lines = Array.from({ length: drinks }, () => drinkLine(ix, random, month));
   if (pastry) lines.push({ menuItemId: ix.item(random.weighted(PASTRIES)).id });
   if (water && lines.length < 3) lines.push({ menuItemId: ix.item('Bottled water').id });

@@ -1,5 +1,5 @@
 // Café-local calendar dates ('YYYY-MM-DD') and local clock times turned into UTC instants.
-import { businessDate } from '../../src/domain/business-date';
+import { businessDate } from '@/domain/business-date';
 
 export { businessDate };
 

@@ -1,10 +1,10 @@
 // Pricing and paying for one historical order, with the app's own pure functions, so every total
 // is exactly what the live Counter would have charged: resolveLine per line, discountCents and
 // orderTotals per order.
-import { discountCents, orderTotals, taxCents, type OrderTotals } from '../../src/domain/money';
-import { resolveLine, type ResolvedLine } from '../../src/domain/order-lines';
-import type { DiscountInput, OrderLineInput } from '../../src/domain/schemas';
-import type { MenuView } from '../../src/domain/types';
+import { discountCents, orderTotals, taxCents, type OrderTotals } from '@/domain/money';
+import { resolveLine, type ResolvedLine } from '@/domain/order-lines';
+import type { DiscountInput, OrderLineInput } from '@/domain/schemas';
+import type { MenuView } from '@/domain/types';
 import type { Random } from './random';
 
 export interface Priced {
@@ -42,9 +42,7 @@ export function priceOrder(menu: MenuView, inputs: OrderLineInput[], random: Ran
   return { lines, totals, discount };
 }
 
-export type Payment =
-  | { method: 'card'; providerId: string }
-  | { method: 'cash'; tenderedCents: number; changeCents: number };
+export type Payment = { method: 'card'; providerId: string } | { method: 'cash'; tenderedCents: number; changeCents: number };
 
 const ALNUM = 'ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789';
 export const fakeId = (prefix: string, random: Random, length = 20) =>

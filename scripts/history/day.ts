@@ -2,7 +2,7 @@
 // with its lines, payment, bar timing and the odd refund. Pure: the same seed and date give the
 // same day, whatever else the run does.
 import { createHash } from 'node:crypto';
-import type { ResolvedLine } from '../../src/domain/order-lines';
+import type { ResolvedLine } from '@/domain/order-lines';
 import { arrivalTimes, CLOSE_SECONDS, OPEN_SECONDS, ordersOnDay } from './arrivals';
 import { openBar, type DrinkTiming } from './bar';
 import { basket, type MenuIndex } from './basket';

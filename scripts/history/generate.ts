@@ -1,12 +1,12 @@
 // Fill a database with an invented year (or any number of days) of service ending yesterday,
 // café-local: migrate, load the demo café into an empty database (a SQLite file or PostgreSQL),
 // then plan and write day by day.
-import { rangeDays } from '../../server/reports/days';
-import { loadReportLocation } from '../../server/reports/scope';
-import { isPostgresUrl } from '../../server/db/dialect';
-import { createDb, migrate } from '../../server/db/knex';
-import { loadMenu } from '../../server/menu/menu';
-import { isEmpty, seedDemoCafe } from '../../seeds/demo-cafe';
+import { rangeDays } from '@server/reports/days';
+import { loadReportLocation } from '@server/reports/scope';
+import { isPostgresUrl } from '@server/db/dialect';
+import { createDb, migrate } from '@server/db/knex';
+import { loadMenu } from '@server/menu/menu';
+import { isEmpty, seedDemoCafe } from '@seeds/demo-cafe';
 import { indexMenu } from './basket';
 import { businessDate, daysEndingYesterday } from './calendar';
 import { planDay, type Staff } from './day';
@@ -48,7 +48,10 @@ async function staffOf(db: ReturnType<typeof createDb>): Promise<{ locationId: n
   const lead = await db('users').where({ username: 'lead' }).first('id', 'location_id');
   if (!lead) throw new HistoryRefused("History needs the shift lead 'lead' (the demo café's); this database has no such user.");
   const people = await db('users').where({ location_id: lead.location_id, active: true }).orderBy('id').select('id', 'role');
-  const baristas = people.filter((p) => p.role === 'barista').slice(0, 2).map((p) => p.id as number);
+  const baristas = people
+    .filter((p) => p.role === 'barista')
+    .slice(0, 2)
+    .map((p) => p.id as number);
   const cashier = people.find((p) => p.role === 'cashier')?.id as number | undefined;
   return {
     locationId: lead.location_id,
@@ -78,9 +81,7 @@ export async function generateHistory(options: HistoryOptions): Promise<HistoryS
           'Use a fresh file, or pass --append to fill only the days that have no orders yet.',
       );
     }
-    const taken = new Set<string>(
-      (await db('orders').where({ location_id: locationId }).distinct('business_date')).map((r) => r.business_date as string),
-    );
+    const taken = new Set<string>((await db('orders').where({ location_id: locationId }).distinct('business_date')).map((r) => r.business_date as string));
     for (const s of await db('shifts').where({ location_id: locationId }).select('opened_at')) {
       taken.add(businessDate(new Date(s.opened_at), timeZone));
     }

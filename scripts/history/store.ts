@@ -3,9 +3,9 @@
 // server/orders/orders.ts and the bar commands fill them; no events rows (the realtime log is
 // for live screens, not for history).
 import type { Knex } from 'knex';
-import { dialectOf } from '../../server/db/dialect';
-import { orderItemRow } from '../../server/orders/order-item-row';
-import { waitOfOrder } from '../../server/reports/sql';
+import { dialectOf } from '@server/db/dialect';
+import { orderItemRow } from '@server/orders/order-item-row';
+import { waitOfOrder } from '@server/reports/sql';
 import type { DayPlan } from './day';
 
 export interface Written {

@@ -3,7 +3,7 @@
 // later) start and bump drinks in pairs by milk, customers collect a minute or two after "ready".
 // It stops mid-rush, so the screens show drinks queued, being made and ready, with believable ages.
 import type { APIRequestContext } from '@playwright/test';
-import { createRandom } from '../history/random';
+import { createRandom } from '@scripts/history/random';
 
 /** Moves the server's clock (never backwards). */
 export interface SceneClock {
@@ -31,17 +31,101 @@ interface Menu {
   modifiers: { id: number; name: string; groupId: number }[];
 }
 
-const FIRST = ['Maya', 'Idris', 'Harriet', 'Kenji', 'Lena', 'Mateo', 'Nadia', 'Otis', 'Rosa', 'Silas', 'Tess', 'Amir', 'Cleo', 'Dev',
-  'Elsa', 'Farah', 'Gus', 'Hana', 'Jonas', 'Leila', 'Malik', 'Nora', 'Omar', 'Pia', 'Rafa', 'Sade', 'Uma', 'Wen', 'Yusuf', 'Zadie',
-  'Beatrix', 'Emeka', 'Isla', 'Luca', 'Marisol', 'Nico', 'Odette', 'Quinn', 'Remy', 'Sanne', 'Vera', 'Arlo', 'Juno', 'Felix'];
-const LAST = ['Okafor', 'Lindqvist', 'Moreau', 'Tanaka', 'Brennan', 'Alvarez', 'Haddad', 'Kowalski', 'Reyes', 'Abernathy', 'Singh',
-  'Duarte', 'Whitcombe', 'Nakamura', 'Ferreira', 'Osei', 'Hale', 'Castell', 'Marsh', 'Petrov'];
+const FIRST = [
+  'Maya',
+  'Idris',
+  'Harriet',
+  'Kenji',
+  'Lena',
+  'Mateo',
+  'Nadia',
+  'Otis',
+  'Rosa',
+  'Silas',
+  'Tess',
+  'Amir',
+  'Cleo',
+  'Dev',
+  'Elsa',
+  'Farah',
+  'Gus',
+  'Hana',
+  'Jonas',
+  'Leila',
+  'Malik',
+  'Nora',
+  'Omar',
+  'Pia',
+  'Rafa',
+  'Sade',
+  'Uma',
+  'Wen',
+  'Yusuf',
+  'Zadie',
+  'Beatrix',
+  'Emeka',
+  'Isla',
+  'Luca',
+  'Marisol',
+  'Nico',
+  'Odette',
+  'Quinn',
+  'Remy',
+  'Sanne',
+  'Vera',
+  'Arlo',
+  'Juno',
+  'Felix',
+];
+const LAST = [
+  'Okafor',
+  'Lindqvist',
+  'Moreau',
+  'Tanaka',
+  'Brennan',
+  'Alvarez',
+  'Haddad',
+  'Kowalski',
+  'Reyes',
+  'Abernathy',
+  'Singh',
+  'Duarte',
+  'Whitcombe',
+  'Nakamura',
+  'Ferreira',
+  'Osei',
+  'Hale',
+  'Castell',
+  'Marsh',
+  'Petrov',
+];
 
 /** What people order in the morning (name, weight), and the milks they ask for (demo-scenario.md's mix). */
-const DRINKS: [string, number][] = [['Latte', 30], ['Flat white', 16], ['Cappuccino', 16], ['Long black', 8], ['Espresso', 5],
-  ['Mocha', 6], ['Chai latte', 6], ['Iced latte', 5], ['Batch brew', 8]];
-const MILKS: [string, number][] = [['Whole', 46], ['Oat', 26], ['Skim', 10], ['Almond', 9], ['Soy', 6], ['Coconut', 3]];
-const FOOD: [string, number][] = [['Butter croissant', 4], ['Almond croissant', 2], ['Banana bread', 3], ['Bottled water', 1]];
+const DRINKS: [string, number][] = [
+  ['Latte', 30],
+  ['Flat white', 16],
+  ['Cappuccino', 16],
+  ['Long black', 8],
+  ['Espresso', 5],
+  ['Mocha', 6],
+  ['Chai latte', 6],
+  ['Iced latte', 5],
+  ['Batch brew', 8],
+];
+const MILKS: [string, number][] = [
+  ['Whole', 46],
+  ['Oat', 26],
+  ['Skim', 10],
+  ['Almond', 9],
+  ['Soy', 6],
+  ['Coconut', 3],
+];
+const FOOD: [string, number][] = [
+  ['Butter croissant', 4],
+  ['Almond croissant', 2],
+  ['Banana bread', 3],
+  ['Bottled water', 1],
+];
 
 export interface RushResult {
   orders: { id: number; number: number; name: string }[];
@@ -65,7 +149,7 @@ export async function playRush(opts: { clock: SceneClock; staff: Staff; startMs:
 
   // Arrival times: a quiet start, then the rush from about 07:20 (startMs is 06:30 when the doors open)
   const arrivals: number[] = [];
-  for (let t = at(2); t < endMs; ) {
+  for (let t = at(2); t < endMs;) {
     arrivals.push(t);
     // quiet until 07:20, busy to 07:50, then the commuter wave that builds the queue on screen
     const meanMs = t < at(50) ? 140_000 : t < at(80) ? 50_000 : 27_000;
@@ -85,13 +169,29 @@ export async function playRush(opts: { clock: SceneClock; staff: Staff; startMs:
     const recent = new Set(orders.slice(-20).map((o) => o.name.split(' ')[0]));
     const first = rnd.pick(FIRST.filter((f) => !recent.has(f)));
     const name = `${first} ${rnd.pick(LAST)}`;
-    const count = rnd.weighted([[1, 70], [2, 24], [3, 6]] as const);
+    const count = rnd.weighted([
+      [1, 70],
+      [2, 24],
+      [3, 6],
+    ] as const);
     const items =
       lines ??
       Array.from({ length: count }, () => {
         const it = item(rnd.weighted(DRINKS));
-        const size = it.sizes.length > 1 ? it.sizes[rnd.weighted([[0, 25], [1, 55], [2, 20]] as const) % it.sizes.length] : undefined;
-        const mods = [rnd.chance(0.06) ? modifier(it, 'Decaf') : undefined, rnd.chance(0.1) ? modifier(it, rnd.pick(['Vanilla syrup', 'Caramel syrup'])) : undefined];
+        const size =
+          it.sizes.length > 1
+            ? it.sizes[
+                rnd.weighted([
+                  [0, 25],
+                  [1, 55],
+                  [2, 20],
+                ] as const) % it.sizes.length
+              ]
+            : undefined;
+        const mods = [
+          rnd.chance(0.06) ? modifier(it, 'Decaf') : undefined,
+          rnd.chance(0.1) ? modifier(it, rnd.pick(['Vanilla syrup', 'Caramel syrup'])) : undefined,
+        ];
         return {
           menuItemId: it.id,
           sizeId: size?.id,
@@ -142,7 +242,7 @@ export async function playRush(opts: { clock: SceneClock; staff: Staff; startMs:
     const candidates: { atMs: number; run: () => Promise<void> }[] = [];
     if (next < arrivals.length) {
       const i = next;
-      candidates.push({ atMs: arrivals[i], run: async () => void (next = i + 1, await placeOrder()) });
+      candidates.push({ atMs: arrivals[i], run: async () => void ((next = i + 1), await placeOrder()) });
     }
     for (const [b, job] of busyUntil) candidates.push({ atMs: job.atMs, run: () => finishDrinks(b) });
     for (const c of collections) {
@@ -168,11 +268,20 @@ export async function playRush(opts: { clock: SceneClock; staff: Staff; startMs:
     }
     // the showcase order near the end: an allergy, here, a receipt by mail
     if (!showcaseOrderId && clock.nowMs() >= endMs - 150_000) {
-      const order = await placeOrder({ allergens: ['tree nuts'], allergyNote: 'Tree nut allergy, carries an EpiPen', customerEmail: 'harriet.moreau@example.test', service: 'dine_in', customerName: 'Harriet Moreau' }, [
-        { menuItemId: item('Latte').id, sizeId: item('Latte').sizes[1]?.id, milkId: milk('Oat'), modifierIds: [] },
-        { menuItemId: item('Cappuccino').id, sizeId: item('Cappuccino').sizes[0]?.id, milkId: milk('Whole'), modifierIds: [] },
-        { menuItemId: item('Banana bread').id, modifierIds: [] },
-      ]);
+      const order = await placeOrder(
+        {
+          allergens: ['tree nuts'],
+          allergyNote: 'Tree nut allergy, carries an EpiPen',
+          customerEmail: 'harriet.moreau@example.test',
+          service: 'dine_in',
+          customerName: 'Harriet Moreau',
+        },
+        [
+          { menuItemId: item('Latte').id, sizeId: item('Latte').sizes[1]?.id, milkId: milk('Oat'), modifierIds: [] },
+          { menuItemId: item('Cappuccino').id, sizeId: item('Cappuccino').sizes[0]?.id, milkId: milk('Whole'), modifierIds: [] },
+          { menuItemId: item('Banana bread').id, modifierIds: [] },
+        ],
+      );
       showcaseOrderId = order.id;
     }
   }

@@ -47,7 +47,10 @@ async function buildOrder(page: Page) {
   await page.getByRole('button', { name: /^Butter croissant/ }).click();
   await expect(page.getByTestId('order-line')).toHaveCount(2);
   await page.getByLabel('Name for the cup').fill('Maya Lindqvist');
-  await page.getByRole('tab', { name: /Coffee|Espresso|Drinks/ }).first().click();
+  await page
+    .getByRole('tab', { name: /Coffee|Espresso|Drinks/ })
+    .first()
+    .click();
 }
 
 /** The Bar and Pickup first: their ages are read as close as can be to the moment the rush stops. */

@@ -9,7 +9,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import pg from 'pg';
-import { MISSING_POSTGRES, postgresBin } from '../../server/db/postgres-tools';
+import { MISSING_POSTGRES, postgresBin } from '@server/db/postgres-tools';
 
 export interface PgCluster {
   /** postgres://… of the `postgres` maintenance database (superuser, no password). */
@@ -61,11 +61,11 @@ export async function startCluster(): Promise<PgCluster> {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-pg-'));
   if (owner) chownSync(dir, owner.uid, owner.gid);
   const data = path.join(dir, 'data');
-  const init = spawnSync(
-    path.join(bin, 'initdb'),
-    ['-D', data, '-A', 'trust', '-U', 'postgres', '--no-sync', '-E', 'UTF8', '--locale=C'],
-    { encoding: 'utf8', cwd: dir, ...owner },
-  );
+  const init = spawnSync(path.join(bin, 'initdb'), ['-D', data, '-A', 'trust', '-U', 'postgres', '--no-sync', '-E', 'UTF8', '--locale=C'], {
+    encoding: 'utf8',
+    cwd: dir,
+    ...owner,
+  });
   if (init.status !== 0) {
     rmSync(dir, { recursive: true, force: true });
     throw new Error(`initdb failed (${init.error?.message ?? init.status}):\n${init.stderr}\n${MISSING_POSTGRES}`);
@@ -74,7 +74,24 @@ export async function startCluster(): Promise<PgCluster> {
   // durability off: a test cluster is thrown away; max_connections covers a pool per test server
   const child = spawn(
     path.join(bin, 'postgres'),
-    ['-D', data, '-p', String(port), '-k', dir, '-c', 'listen_addresses=127.0.0.1', '-c', 'fsync=off', '-c', 'synchronous_commit=off', '-c', 'full_page_writes=off', '-c', 'max_connections=400'],
+    [
+      '-D',
+      data,
+      '-p',
+      String(port),
+      '-k',
+      dir,
+      '-c',
+      'listen_addresses=127.0.0.1',
+      '-c',
+      'fsync=off',
+      '-c',
+      'synchronous_commit=off',
+      '-c',
+      'full_page_writes=off',
+      '-c',
+      'max_connections=400',
+    ],
     { cwd: dir, stdio: ['ignore', 'pipe', 'pipe'], ...owner },
   );
   let output = '';
@@ -113,7 +130,9 @@ export async function adminQuery(url: string, sql: string): Promise<void> {
 if (process.argv[1] && import.meta.url === pathToFileURL(path.resolve(process.argv[1])).href) {
   const cluster = await startCluster();
   await adminQuery(cluster.adminUrl, 'CREATE DATABASE jugline');
-  console.log(`PostgreSQL is up (a throwaway cluster; Ctrl-C stops and removes it). In another shell:\n\n  export DATABASE_URL=${cluster.urlOf('jugline')}\n  npm run db:seed && npm start\n`);
+  console.log(
+    `PostgreSQL is up (a throwaway cluster; Ctrl-C stops and removes it). In another shell:\n\n  export DATABASE_URL=${cluster.urlOf('jugline')}\n  npm run db:seed && npm start\n`,
+  );
   const stop = () => void cluster.stop().then(() => process.exit(0));
   process.once('SIGINT', stop);
   process.once('SIGTERM', stop);

@@ -1,8 +1,8 @@
 // Route guards: signed out → 401, signed in without the capability → 403.
 import type { NextFunction, Request, Response } from 'express';
-import { can, type Capability } from '../../src/domain/roles';
-import type { SessionUser } from '../../src/domain/types';
-import { HttpError } from '../errors';
+import { can, type Capability } from '@/domain/roles';
+import type { SessionUser } from '@/domain/types';
+import { HttpError } from '@server/errors';
 
 export function requireCapability(capability: Capability) {
   return (req: Request, _res: Response, next: NextFunction) => {

@@ -1,13 +1,13 @@
 import type { Request, Response, NextFunction } from 'express';
 import { ipKeyGenerator } from 'express-rate-limit';
 import type { createPassport } from './session';
-import { signInBody } from '../../src/domain/schemas';
-import type { SessionUser } from '../../src/domain/types';
+import { signInBody } from '@/domain/schemas';
+import type { SessionUser } from '@/domain/types';
 import { knownTerminals } from './known-terminal';
 import { SignInThrottle, type Outcome } from './sign-in-throttle';
-import { HttpError, parse } from '../errors';
-import type { Clock, Deps } from '../deps';
-import type { ApiRoute } from '../routes';
+import { HttpError, parse } from '@server/errors';
+import type { Clock, Deps } from '@server/deps';
+import type { ApiRoute } from '@server/routes';
 
 const publicUser = (u: SessionUser) => ({ id: u.id, name: u.name, role: u.role });
 
@@ -20,11 +20,7 @@ export interface SignInPacing {
 // unref: a pause never keeps a stopping process alive
 const realSleep = (ms: number) => new Promise<void>((resolve) => setTimeout(resolve, ms).unref());
 
-export function sessionRoutes(
-  passport: ReturnType<typeof createPassport>,
-  deps: Deps,
-  opts: { secret: string; pacing?: SignInPacing },
-): ApiRoute[] {
+export function sessionRoutes(passport: ReturnType<typeof createPassport>, deps: Deps, opts: { secret: string; pacing?: SignInPacing }): ApiRoute[] {
   const clock = opts.pacing?.clock ?? (() => new Date());
   const throttle = new SignInThrottle(() => clock().getTime(), opts.pacing?.sleep ?? realSleep);
   const terminals = knownTerminals(opts.secret);

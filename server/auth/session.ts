@@ -9,10 +9,10 @@ import type { Knex } from 'knex';
 import { Passport } from 'passport';
 import type { Logger } from 'pino';
 import { Strategy as LocalStrategy } from 'passport-local';
-import type { SessionUser } from '../../src/domain/types';
-import { PASSIVE_REQUEST_HEADER } from '../../src/lib/http';
-import { dialectOf, jsonNumberSql, jsonSetNumbersSql } from '../db/dialect';
-import { bool } from '../db/rows';
+import type { SessionUser } from '@/domain/types';
+import { PASSIVE_REQUEST_HEADER } from '@/lib/http';
+import { dialectOf, jsonNumberSql, jsonSetNumbersSql } from '@server/db/dialect';
+import { bool } from '@server/db/rows';
 import { hashPassword, verifyPassword } from './passwords';
 import { createSessionStore } from './session-store';
 
@@ -93,8 +93,7 @@ export function sessionPolicy(opts: Pick<SessionOptions, 'idleMinutes' | 'clock'
 }
 
 /** The policy a session middleware was made with (the defaults for any other middleware). */
-export const policyOf = (middleware: RequestHandler): SessionPolicy =>
-  (middleware as Partial<SessionMiddleware>).policy ?? sessionPolicy();
+export const policyOf = (middleware: RequestHandler): SessionPolicy => (middleware as Partial<SessionMiddleware>).policy ?? sessionPolicy();
 
 export function createSessionMiddleware(db: Knex, secret: string, opts: SessionOptions = {}): SessionMiddleware {
   const store = createSessionStore(db, { cleanupIntervalMs: opts.cleanupIntervalMs, logger: opts.logger });

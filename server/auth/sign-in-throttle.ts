@@ -9,7 +9,7 @@ import {
   WAITING_SIGN_INS_IN_ALL,
   WAITING_SIGN_INS_PER_NAME,
   signInPauseMs,
-} from '../../src/domain/sign-in-pacing';
+} from '@/domain/sign-in-pacing';
 
 /** Keys a log keeps at most; past it the least recently failed key is forgotten. */
 const MAX_KEYS = 20_000;
@@ -96,7 +96,11 @@ export class SignInThrottle {
     if (this.pairs.count(pair, now) >= PAIR_FAILURES_PER_HOUR) {
       const ms = this.pairs.msUntilOneExpires(pair, now);
       const where = a.terminal ? 'on this terminal' : 'from this address';
-      return this.refuse(429, ms, `Too many failed sign-ins for this name ${where}. Try again in about ${minutes(ms)}, or sign in on a terminal this person has used before.`);
+      return this.refuse(
+        429,
+        ms,
+        `Too many failed sign-ins for this name ${where}. Try again in about ${minutes(ms)}, or sign in on a terminal this person has used before.`,
+      );
     }
     // A terminal this name has signed in on is judged by its own count only (OWASP device cookies).
     if (a.terminal) return this.admitted(0, pair, null);
@@ -109,7 +113,11 @@ export class SignInThrottle {
     const slot = Math.max(now, line.nextAt);
     const wait = slot - now;
     if (wait > 0 && line.waiting >= WAITING_SIGN_INS_PER_NAME) {
-      return this.refuse(429, wait, `Sign-ins for this name are being slowed after many wrong passwords. Try again in ${seconds(wait)}; a terminal this person has signed in on before is not slowed.`);
+      return this.refuse(
+        429,
+        wait,
+        `Sign-ins for this name are being slowed after many wrong passwords. Try again in ${seconds(wait)}; a terminal this person has signed in on before is not slowed.`,
+      );
     }
     if (wait > 0 && this.waitingInAll >= WAITING_SIGN_INS_IN_ALL) {
       return this.refuse(503, wait, `Too many sign-ins are waiting. Try again in ${seconds(wait)}.`);

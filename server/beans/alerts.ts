@@ -1,6 +1,6 @@
 // What Pulse says about the coffee: grinders running low or out, lots past their best.
 import type { Knex } from 'knex';
-import { beanAlerts, type BeanAlert } from '../../src/domain/bean-stock';
+import { beanAlerts, type BeanAlert } from '@/domain/bean-stock';
 import { loadLotViews } from './views';
 
 export async function pulseBeanAlerts(db: Knex, locationId: number, now: Date, timeZone: string): Promise<BeanAlert[]> {

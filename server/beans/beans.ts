@@ -2,14 +2,14 @@
 // window and low-stock line. Each command is one transaction; moving coffee in or out of a
 // grinder tells every open screen (menu.changed), so the Bar's strip follows.
 import type { Knex } from 'knex';
-import type { BeanLotBody, BeanSettingsBody } from '../../src/domain/beans-schemas';
-import { businessDate } from '../../src/domain/business-date';
-import type { SessionUser } from '../../src/domain/types';
-import type { BeansView } from '../../src/lib/beans-api';
-import { conflict, fieldsNeedFixing, notFound } from '../domain-errors';
-import type { Deps } from '../deps';
-import { appendMenuChangedEvent, runCommand } from '../events';
-import { loadLocation } from '../menu/menu';
+import type { BeanLotBody, BeanSettingsBody } from '@/domain/beans-schemas';
+import { businessDate } from '@/domain/business-date';
+import type { SessionUser } from '@/domain/types';
+import type { BeansView } from '@/lib/beans-api';
+import { conflict, fieldsNeedFixing, notFound } from '@server/domain-errors';
+import type { Deps } from '@server/deps';
+import { appendMenuChangedEvent, runCommand } from '@server/events';
+import { loadLocation } from '@server/menu/menu';
 import { loadBeanSettings, loadLotViews, locationLocale } from './views';
 
 export async function beansView(deps: Deps, locationId: number): Promise<BeansView> {
@@ -88,7 +88,9 @@ export function updateLot(deps: Deps, user: SessionUser, lotId: number, body: Be
     const at = now.toISOString();
     const timeZone = await checkDates(trx, user.locationId, now, body);
     await clearGrinder(trx, user.locationId, body.hopper, lotId, at);
-    await trx('bean_lots').where({ id: lotId }).update({ ...lotRow(body), updated_at: at });
+    await trx('bean_lots')
+      .where({ id: lotId })
+      .update({ ...lotRow(body), updated_at: at });
     const lot = await lotView(trx, user.locationId, timeZone, now, lotId);
     return { result: lot, events: [await appendMenuChangedEvent(trx, user.locationId, at, user.id)] };
   });
@@ -118,7 +120,10 @@ export function saveBeanSettings(deps: Deps, user: SessionUser, body: BeanSettin
       low_stock_g: body.lowStockG,
       updated_at: at,
     };
-    await trx('bean_settings').insert({ location_id: user.locationId, ...row }).onConflict('location_id').merge(row);
+    await trx('bean_settings')
+      .insert({ location_id: user.locationId, ...row })
+      .onConflict('location_id')
+      .merge(row);
     const settings = await loadBeanSettings(trx, user.locationId);
     return { result: settings, events: [await appendMenuChangedEvent(trx, user.locationId, at, user.id)] };
   });

@@ -1,16 +1,16 @@
 // The dial-in log: test shots against the location's window, the advice for the next one, and
 // the coffee each shot takes from its lot.
-import type { DialInShotBody } from '../../src/domain/beans-schemas';
-import { adviseShot, doseRange, type DialInShotView, type ShotWindow } from '../../src/domain/dial-in';
-import { businessDate } from '../../src/domain/business-date';
-import type { SessionUser } from '../../src/domain/types';
-import type { DialInView, LoggedShot } from '../../src/lib/beans-api';
-import { conflict, notFound } from '../domain-errors';
-import type { Deps } from '../deps';
-import { appendBeansChangedEvent, runCommand } from '../events';
-import { loadLocation } from '../menu/menu';
+import type { DialInShotBody } from '@/domain/beans-schemas';
+import { adviseShot, doseRange, type DialInShotView, type ShotWindow } from '@/domain/dial-in';
+import { businessDate } from '@/domain/business-date';
+import type { SessionUser } from '@/domain/types';
+import type { DialInView, LoggedShot } from '@/lib/beans-api';
+import { conflict, notFound } from '@server/domain-errors';
+import type { Deps } from '@server/deps';
+import { appendBeansChangedEvent, runCommand } from '@server/events';
+import { loadLocation } from '@server/menu/menu';
 import { loadBeanSettings, loadLotViews, locationLocale, shotsQuery, toShotView } from './views';
-import type { Db } from '../db/knex';
+import type { Db } from '@server/db/knex';
 
 /** The house double: the dose most of the menu's double-shot recipes use. */
 export async function houseDoubleDoseDg(db: Db, locationId: number): Promise<number | null> {
@@ -24,7 +24,10 @@ export async function houseDoubleDoseDg(db: Db, locationId: number): Promise<num
     .groupBy('item_sizes.dose_dg')
     .select('item_sizes.dose_dg as dose')
     .count({ n: '*' })
-    .orderBy([{ column: 'n', order: 'desc' }, { column: 'dose', order: 'desc' }])
+    .orderBy([
+      { column: 'n', order: 'desc' },
+      { column: 'dose', order: 'desc' },
+    ])
     .first<{ dose: number; n: number } | undefined>();
   return row ? Number(row.dose) : null;
 }
@@ -57,7 +60,10 @@ export async function lotShots(db: Db, locationId: number, lotId: number, limit 
   if (!lot) throw notFound('Bean lot');
   const rows = await shotsQuery(db)
     .where({ 'dial_in_shots.lot_id': lotId })
-    .orderBy([{ column: 'dial_in_shots.pulled_at', order: 'desc' }, { column: 'dial_in_shots.id', order: 'desc' }])
+    .orderBy([
+      { column: 'dial_in_shots.pulled_at', order: 'desc' },
+      { column: 'dial_in_shots.id', order: 'desc' },
+    ])
     .limit(limit);
   return rows.map(toShotView);
 }

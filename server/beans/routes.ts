@@ -1,12 +1,12 @@
 // Bean lots with their freshness and stock (the owner), and the dial-in log (barista and up).
-import { beanLotBody, beanSettingsBody, dialInShotBody } from '../../src/domain/beans-schemas';
-import { idParam } from '../../src/domain/schemas';
-import { userOf } from '../auth/guards';
-import { parse } from '../errors';
+import { beanLotBody, beanSettingsBody, dialInShotBody } from '@/domain/beans-schemas';
+import { idParam } from '@/domain/schemas';
+import { userOf } from '@server/auth/guards';
+import { parse } from '@server/errors';
 import { beansView, createLot, retireLot, saveBeanSettings, updateLot } from './beans';
-import type { Deps } from '../deps';
+import type { Deps } from '@server/deps';
 import { dialInView, logShot, lotShots } from './dial-in';
-import type { ApiRoute } from '../routes';
+import type { ApiRoute } from '@server/routes';
 
 export function beanRoutes(deps: Deps): ApiRoute[] {
   const id = (params: unknown) => parse(idParam, params, 'params').id;

@@ -1,8 +1,8 @@
 // Coffee taken from the grinders by the bar. Written inside the bump's own transaction, so a
 // bump and its coffee commit together, and a recall takes both back.
 import type { Knex } from 'knex';
-import { drinkHopper } from '../../src/domain/bean-stock';
-import { json } from '../db/rows';
+import { drinkHopper } from '@/domain/bean-stock';
+import { json } from '@server/db/rows';
 
 /** One usage row per bumped drink with a dose, from the lot in the grinder it was made from. */
 export async function recordCoffeeUse(trx: Knex.Transaction, locationId: number, drinkIds: number[], at: string): Promise<void> {

@@ -1,20 +1,12 @@
 // Bean lots as the screens see them: freshness from the café's calendar, stock from the usage
 // rows, the run-out estimate and the last good dial-in shot.
-import {
-  DEFAULT_LOW_STOCK_G,
-  runsOut,
-  stockState,
-  type BeanLotView,
-  type BeanSettingsView,
-  type Hopper,
-  type UsePoint,
-} from '../../src/domain/bean-stock';
-import { DEFAULT_SHOT_TARGETS, type DialInShotView } from '../../src/domain/dial-in';
-import { brewRatioX10 } from '../../src/domain/format';
-import { freshnessOf } from '../../src/domain/freshness';
-import { bool } from '../db/rows';
-import { openShiftOf } from '../shifts/shifts';
-import type { Db } from '../db/knex';
+import { DEFAULT_LOW_STOCK_G, runsOut, stockState, type BeanLotView, type BeanSettingsView, type Hopper, type UsePoint } from '@/domain/bean-stock';
+import { DEFAULT_SHOT_TARGETS, type DialInShotView } from '@/domain/dial-in';
+import { brewRatioX10 } from '@/domain/format';
+import { freshnessOf } from '@/domain/freshness';
+import { bool } from '@server/db/rows';
+import { openShiftOf } from '@server/shifts/shifts';
+import type { Db } from '@server/db/knex';
 
 /** The run-out pace looks back a week of café days; a little more covers a DST change. */
 const PACE_LOOKBACK_MS = 9 * 86_400_000;
@@ -57,10 +49,13 @@ export const shotsQuery = (db: Db) =>
   db('dial_in_shots').join('users', 'users.id', 'dial_in_shots.pulled_by').select('dial_in_shots.*', 'users.name as pulled_by_name');
 
 export async function lastGoodShot(db: Db, lotId: number): Promise<DialInShotView | null> {
-  const row = await shotsQuery(db).where({ 'dial_in_shots.lot_id': lotId, 'dial_in_shots.good': true }).orderBy([
-    { column: 'dial_in_shots.pulled_at', order: 'desc' },
-    { column: 'dial_in_shots.id', order: 'desc' },
-  ]).first();
+  const row = await shotsQuery(db)
+    .where({ 'dial_in_shots.lot_id': lotId, 'dial_in_shots.good': true })
+    .orderBy([
+      { column: 'dial_in_shots.pulled_at', order: 'desc' },
+      { column: 'dial_in_shots.id', order: 'desc' },
+    ])
+    .first();
   return row ? toShotView(row) : null;
 }
 
@@ -76,12 +71,19 @@ export async function loadLotViews(db: Db, scope: LotScope): Promise<BeanLotView
   const q = db('bean_lots').where({ location_id: scope.locationId });
   if (!scope.includeRetired) q.whereNull('retired_at');
   if (scope.lotId !== undefined) q.andWhere({ id: scope.lotId });
-  const lots = await q.orderByRaw('retired_at IS NOT NULL').orderBy([{ column: 'roast_date', order: 'desc' }, { column: 'id', order: 'desc' }]);
+  const lots = await q.orderByRaw('retired_at IS NOT NULL').orderBy([
+    { column: 'roast_date', order: 'desc' },
+    { column: 'id', order: 'desc' },
+  ]);
   if (lots.length === 0) return [];
   const ids = lots.map((l) => l.id as number);
   const settings = await loadBeanSettings(db, scope.locationId);
   const shift = await openShiftOf(db, scope.locationId);
-  const totals: { lot_id: number; used: number | null }[] = await db('bean_usage').whereIn('lot_id', ids).groupBy('lot_id').select('lot_id').sum({ used: 'dose_dg' });
+  const totals: { lot_id: number; used: number | null }[] = await db('bean_usage')
+    .whereIn('lot_id', ids)
+    .groupBy('lot_id')
+    .select('lot_id')
+    .sum({ used: 'dose_dg' });
   const since = new Date(scope.now.getTime() - PACE_LOOKBACK_MS).toISOString();
   const recent = await db('bean_usage').whereIn('lot_id', ids).andWhere('used_at', '>=', since).select('lot_id', 'used_at', 'dose_dg');
 

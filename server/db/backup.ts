@@ -85,7 +85,11 @@ export async function restoreDatabase(backupFile: string, target: string): Promi
     throw new Error(`${backupFile} is a ${archive ? 'PostgreSQL' : 'SQLite'} backup; it restores only onto a ${archive ? 'PostgreSQL' : 'SQLite'} database`);
   }
   if (archive) {
-    await run(postgresTool('pg_restore'), ['--clean', '--if-exists', '--no-owner', '--no-privileges', '--single-transaction', '--exit-on-error', `--dbname=${target}`, backupFile], BIG_OUTPUT);
+    await run(
+      postgresTool('pg_restore'),
+      ['--clean', '--if-exists', '--no-owner', '--no-privileges', '--single-transaction', '--exit-on-error', `--dbname=${target}`, backupFile],
+      BIG_OUTPUT,
+    );
     return;
   }
   for (const suffix of ['-wal', '-shm']) if (existsSync(target + suffix)) rmSync(target + suffix);

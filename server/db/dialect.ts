@@ -116,7 +116,9 @@ export function jsonSetNumbersSql(d: Dialect, column: string, values: [key: stri
 export async function tableNames(db: Knex): Promise<string[]> {
   const rows =
     dialectOf(db) === 'postgres'
-      ? await db('information_schema.tables').where({ table_schema: db.raw('current_schema()'), table_type: 'BASE TABLE' }).pluck('table_name')
+      ? await db('information_schema.tables')
+          .where({ table_schema: db.raw('current_schema()'), table_type: 'BASE TABLE' })
+          .pluck('table_name')
       : await db('sqlite_master').where({ type: 'table' }).whereNot('name', 'like', 'sqlite_%').pluck('name');
   return (rows as string[]).sort();
 }

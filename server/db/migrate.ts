@@ -4,7 +4,7 @@
 // database and tries again until the first is done.
 import Database from 'better-sqlite3';
 import type { Knex } from 'knex';
-import { seedDemoCafeIfEmpty } from '../../seeds/demo-cafe';
+import { seedDemoCafeIfEmpty } from '@seeds/demo-cafe';
 import { dialectOf, isDatabaseBusy } from './dialect';
 import { migrate, migrationConfig } from './knex';
 
@@ -35,7 +35,9 @@ export async function requireMigrated(db: Knex): Promise<void> {
   const [, pending] = (await db.migrate.list(migrationConfig)) as [unknown[], { file?: string; name?: string }[]];
   if (pending.length > 0) {
     const names = pending.map((m) => m.file ?? m.name ?? String(m)).join(', ');
-    throw new DatabaseBehindError(`The database is missing ${pending.length} migration(s) (${names}): run \`npm run db:migrate\` first, or set MIGRATE_ON_START=true.`);
+    throw new DatabaseBehindError(
+      `The database is missing ${pending.length} migration(s) (${names}): run \`npm run db:migrate\` first, or set MIGRATE_ON_START=true.`,
+    );
   }
 }
 

@@ -26,5 +26,4 @@ export function postgresBin(env: NodeJS.ProcessEnv = process.env): string {
 }
 
 /** The full path of one PostgreSQL program. */
-export const postgresTool = (name: 'initdb' | 'postgres' | 'pg_dump' | 'pg_restore', env: NodeJS.ProcessEnv = process.env) =>
-  path.join(postgresBin(env), name);
+export const postgresTool = (name: 'initdb' | 'postgres' | 'pg_dump' | 'pg_restore', env: NodeJS.ProcessEnv = process.env) => path.join(postgresBin(env), name);

@@ -70,10 +70,15 @@ export type Obj = Record<string, unknown>;
 
 /** An error answer: HTTP status, the `error` object, and whether an Idempotency-Key stores it. */
 export class ApiError extends Error {
-  constructor(readonly status: number, readonly error: Obj, readonly store: boolean) { super(String(error.message)); }
+  constructor(
+    readonly status: number,
+    readonly error: Obj,
+    readonly store: boolean,
+  ) {
+    super(String(error.message));
+  }
 }
-export const invalid = (message: string, extra: Obj = {}, store = false) =>
-  new ApiError(400, { type: 'invalid_request_error', message, ...extra }, store);
+export const invalid = (message: string, extra: Obj = {}, store = false) => new ApiError(400, { type: 'invalid_request_error', message, ...extra }, store);
 export const missing = (kind: string, id: string, param?: string) =>
   new ApiError(param ? 400 : 404, { type: 'invalid_request_error', code: 'resource_missing', message: `No such ${kind}: '${id}'`, param }, false);
 
@@ -111,7 +116,8 @@ export function int(p: Form, name: string): number | undefined {
   if (v === undefined) return undefined;
   if (!/^\d+$/.test(v)) throw invalid(`Invalid integer: ${v}`, { param: name, code: 'parameter_invalid_integer' });
   const n = Number(v);
-  if (n < 1 || n > 99_999_999) throw invalid('This value must be greater than or equal to 1 and at most 99999999.', { param: name, code: 'parameter_invalid_integer' });
+  if (n < 1 || n > 99_999_999)
+    throw invalid('This value must be greater than or equal to 1 and at most 99999999.', { param: name, code: 'parameter_invalid_integer' });
   return n;
 }
 export function metadata(p: Form): Record<string, string> {
@@ -133,6 +139,5 @@ export function cardParam(p: Form): TestCard | null {
   if (!found) throw missing('PaymentMethod', pm, 'payment_method');
   return found;
 }
-export const unexpectedState = (action: string, status: string) => invalid(
-  `You cannot ${action} this PaymentIntent because it has a status of ${status}.`,
-  { code: 'payment_intent_unexpected_state' }, true);
+export const unexpectedState = (action: string, status: string) =>
+  invalid(`You cannot ${action} this PaymentIntent because it has a status of ${status}.`, { code: 'payment_intent_unexpected_state' }, true);

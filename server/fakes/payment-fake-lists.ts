@@ -12,7 +12,8 @@ function limitOf(p: Form): number {
   const v = str(p, 'limit');
   if (v === undefined) return 10;
   const n = Number(v);
-  if (!/^\d+$/.test(v) || n < 1 || n > MAX_LIMIT) throw invalid('This value must be greater than or equal to 1 and less than or equal to 100.', { param: 'limit' });
+  if (!/^\d+$/.test(v) || n < 1 || n > MAX_LIMIT)
+    throw invalid('This value must be greater than or equal to 1 and less than or equal to 100.', { param: 'limit' });
   return n;
 }
 
@@ -88,10 +89,7 @@ function clause(text: string): Clause {
     const [, name, , value] = field;
     return (o) => o[name] === value;
   }
-  throw invalid(
-    `The payment fake's search understands metadata['key']:'value' and status:'value' clauses joined by AND, not: ${text}`,
-    { param: 'query' },
-  );
+  throw invalid(`The payment fake's search understands metadata['key']:'value' and status:'value' clauses joined by AND, not: ${text}`, { param: 'query' });
 }
 
 /** One page of a search over `objects` (oldest first, as stored). */
@@ -99,7 +97,10 @@ export function searchPage(url: string, objects: Iterable<Obj>, p: Form): Obj {
   allowOnly(p, ['query', 'limit', 'page', 'expand']);
   const query = str(p, 'query');
   if (!query) throw invalid('Missing required param: query.', { param: 'query', code: 'parameter_missing' });
-  const clauses = query.trim().split(/\s+AND\s+/).map(clause);
+  const clauses = query
+    .trim()
+    .split(/\s+AND\s+/)
+    .map(clause);
   const limit = limitOf(p);
   const page = str(p, 'page');
   const start = page === undefined ? 0 : Number(/^offset:(\d+)$/.exec(page)?.[1] ?? NaN);

@@ -13,15 +13,34 @@ import https from 'node:https';
 import type { AddressInfo } from 'node:net';
 import { listPage, searchPage } from './payment-fake-lists';
 import {
-  ApiError, allowOnly, cardParam, findTestCard, int, invalid, metadata, missing, paymentMethodObject, parseForm, str,
-  unexpectedState, type Form, type Obj, type TestCard,
+  ApiError,
+  allowOnly,
+  cardParam,
+  findTestCard,
+  int,
+  invalid,
+  metadata,
+  missing,
+  paymentMethodObject,
+  parseForm,
+  str,
+  unexpectedState,
+  type Form,
+  type Obj,
+  type TestCard,
 } from './payment-fake-cards';
 
 export { parseForm };
 
 export interface FakeEvent {
-  id: string; object: 'event'; type: string; created: number; livemode: false; api_version: string;
-  pending_webhooks: number; request: { id: string; idempotency_key: string | null };
+  id: string;
+  object: 'event';
+  type: string;
+  created: number;
+  livemode: false;
+  api_version: string;
+  pending_webhooks: number;
+  request: { id: string; idempotency_key: string | null };
   data: { object: Record<string, unknown> };
 }
 /** Switches a test flips to make the network fail the app; all off at start. */
@@ -40,8 +59,11 @@ export interface PaymentFaults {
   clear(): void;
 }
 export interface PaymentFake {
-  url: string; host: string; port: number;
-  secretKey: string; webhookSecret: string;
+  url: string;
+  host: string;
+  port: number;
+  secretKey: string;
+  webhookSecret: string;
   setWebhookUrl(url: string | null): void;
   events(): FakeEvent[];
   faults: PaymentFaults;
@@ -50,8 +72,17 @@ export interface PaymentFake {
   close(): Promise<void>;
 }
 
-interface Ctx { requestId: string; idempotencyKey: string | null; apiVersion: string; ranCard: boolean }
-interface Result { status: number; body: unknown; store: boolean }
+interface Ctx {
+  requestId: string;
+  idempotencyKey: string | null;
+  apiVersion: string;
+  ranCard: boolean;
+}
+interface Result {
+  status: number;
+  body: unknown;
+  store: boolean;
+}
 
 // The version stripe@23.1.0 pins (node_modules/stripe/esm/apiVersion.js); used when a request sends none.
 const DEFAULT_API_VERSION = '2026-10-28.endive';
@@ -89,12 +120,21 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
 
   function emit(type: string, object: Obj, ctx: Ctx) {
     const event: FakeEvent = {
-      id: newId('evt'), object: 'event', type, created: now(), livemode: false, api_version: ctx.apiVersion,
-      pending_webhooks: webhookUrl ? 1 : 0, request: { id: ctx.requestId, idempotency_key: ctx.idempotencyKey },
+      id: newId('evt'),
+      object: 'event',
+      type,
+      created: now(),
+      livemode: false,
+      api_version: ctx.apiVersion,
+      pending_webhooks: webhookUrl ? 1 : 0,
+      request: { id: ctx.requestId, idempotency_key: ctx.idempotencyKey },
       data: { object: clone(object) },
     };
     produced.push(event);
-    if (webhookUrl) { queue.push({ event, url: webhookUrl }); setImmediate(pump); }
+    if (webhookUrl) {
+      queue.push({ event, url: webhookUrl });
+      setImmediate(pump);
+    }
   }
 
   function pump() {
@@ -107,7 +147,10 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
       return;
     }
     delivering = true;
-    void deliver(next.event, next.url).finally(() => { delivering = false; pump(); });
+    void deliver(next.event, next.url).finally(() => {
+      delivering = false;
+      pump();
+    });
   }
 
   async function deliver(event: FakeEvent, url: string) {
@@ -115,8 +158,18 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
     for (let attempt = 0; attempt <= RETRY_DELAYS_MS.length && !closed; attempt++) {
       if (attempt > 0) {
         await new Promise<void>((resolve) => {
-          const timer = setTimeout(() => { wake = null; resolve(); }, RETRY_DELAYS_MS[attempt - 1]);
-          wake = () => { clearTimeout(timer); wake = null; resolve(); };
+          const timer = setTimeout(
+            () => {
+              wake = null;
+              resolve();
+            },
+            RETRY_DELAYS_MS[attempt - 1],
+          );
+          wake = () => {
+            clearTimeout(timer);
+            wake = null;
+            resolve();
+          };
         });
         if (closed) return;
       }
@@ -131,14 +184,21 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
       const v1 = crypto.createHmac('sha256', webhookSecret).update(`${t}.${payload}`, 'utf8').digest('hex');
       const target = new URL(url);
       const req = (target.protocol === 'https:' ? https : http).request(target, {
-        method: 'POST', agent: false, timeout: 5000,
+        method: 'POST',
+        agent: false,
+        timeout: 5000,
         headers: {
-          'Content-Type': 'application/json; charset=utf-8', 'Content-Length': Buffer.byteLength(payload),
-          'Stripe-Signature': `t=${t},v1=${v1}`, 'User-Agent': 'Jugline-PaymentFake/1.0',
+          'Content-Type': 'application/json; charset=utf-8',
+          'Content-Length': Buffer.byteLength(payload),
+          'Stripe-Signature': `t=${t},v1=${v1}`,
+          'User-Agent': 'Jugline-PaymentFake/1.0',
         },
       });
       inflight = req;
-      const done = (ok: boolean) => { if (inflight === req) inflight = null; resolve(ok); };
+      const done = (ok: boolean) => {
+        if (inflight === req) inflight = null;
+        resolve(ok);
+      };
       req.on('response', (res) => {
         res.resume();
         res.on('end', () => done(res.statusCode !== undefined && res.statusCode >= 200 && res.statusCode < 300));
@@ -150,16 +210,33 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
     });
   }
 
-  const intent = (id: string) => { const pi = intents.get(id); if (!pi) throw missing('payment_intent', id); return pi; };
+  const intent = (id: string) => {
+    const pi = intents.get(id);
+    if (!pi) throw missing('payment_intent', id);
+    return pi;
+  };
 
   /** Charges the card on the PaymentIntent: success, or a decline answered with 402. */
   function runCard(pi: Obj, c: TestCard, ctx: Ctx) {
     ctx.ranCard = true;
     const charge: Obj = {
-      id: newId('ch'), object: 'charge', amount: pi.amount, amount_captured: c.decline ? 0 : pi.amount, amount_refunded: 0,
-      currency: pi.currency, payment_intent: pi.id, payment_method: c.paymentMethod, paid: !c.decline, captured: !c.decline,
-      refunded: false, status: c.decline ? 'failed' : 'succeeded', metadata: pi.metadata, created: now(), livemode: false,
-      failure_code: c.decline?.code ?? null, failure_message: c.decline?.message ?? null,
+      id: newId('ch'),
+      object: 'charge',
+      amount: pi.amount,
+      amount_captured: c.decline ? 0 : pi.amount,
+      amount_refunded: 0,
+      currency: pi.currency,
+      payment_intent: pi.id,
+      payment_method: c.paymentMethod,
+      paid: !c.decline,
+      captured: !c.decline,
+      refunded: false,
+      status: c.decline ? 'failed' : 'succeeded',
+      metadata: pi.metadata,
+      created: now(),
+      livemode: false,
+      failure_code: c.decline?.code ?? null,
+      failure_message: c.decline?.message ?? null,
     };
     charges.set(charge.id as string, charge);
     pi.latest_charge = charge.id;
@@ -175,8 +252,19 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
   }
 
   function createIntent(p: Form, ctx: Ctx): Obj {
-    allowOnly(p, ['amount', 'currency', 'payment_method', 'confirm', 'metadata', 'description', 'capture_method',
-      'expand', 'payment_method_types', 'automatic_payment_methods', 'receipt_email']);
+    allowOnly(p, [
+      'amount',
+      'currency',
+      'payment_method',
+      'confirm',
+      'metadata',
+      'description',
+      'capture_method',
+      'expand',
+      'payment_method_types',
+      'automatic_payment_methods',
+      'receipt_email',
+    ]);
     const amount = int(p, 'amount');
     if (amount === undefined) throw invalid('Missing required param: amount.', { param: 'amount', code: 'parameter_missing' });
     const currency = str(p, 'currency')?.toLowerCase();
@@ -188,14 +276,32 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
     if (capture !== undefined && capture !== 'automatic' && capture !== 'automatic_async')
       throw invalid(`The payment fake only supports capture_method=automatic, not ${capture}.`, { param: 'capture_method' });
     const c = cardParam(p);
-    if (confirm === 'true' && !c) throw invalid("You cannot confirm this PaymentIntent because it's missing a payment method.", { param: 'payment_method', code: 'payment_intent_unexpected_state' });
+    if (confirm === 'true' && !c)
+      throw invalid("You cannot confirm this PaymentIntent because it's missing a payment method.", {
+        param: 'payment_method',
+        code: 'payment_intent_unexpected_state',
+      });
     const id = newId('pi');
     const pi: Obj = {
-      id, object: 'payment_intent', amount, amount_capturable: 0, amount_received: 0, currency,
-      capture_method: capture ?? 'automatic', client_secret: `${id}_secret_${crypto.randomBytes(8).toString('hex')}`,
-      status: c ? 'requires_confirmation' : 'requires_payment_method', payment_method: c?.paymentMethod ?? null,
-      payment_method_types: ['card'], metadata: metadata(p), description: str(p, 'description') ?? null,
-      created: now(), livemode: false, last_payment_error: null, latest_charge: null, canceled_at: null, cancellation_reason: null,
+      id,
+      object: 'payment_intent',
+      amount,
+      amount_capturable: 0,
+      amount_received: 0,
+      currency,
+      capture_method: capture ?? 'automatic',
+      client_secret: `${id}_secret_${crypto.randomBytes(8).toString('hex')}`,
+      status: c ? 'requires_confirmation' : 'requires_payment_method',
+      payment_method: c?.paymentMethod ?? null,
+      payment_method_types: ['card'],
+      metadata: metadata(p),
+      description: str(p, 'description') ?? null,
+      created: now(),
+      livemode: false,
+      last_payment_error: null,
+      latest_charge: null,
+      canceled_at: null,
+      cancellation_reason: null,
     };
     intents.set(id, pi);
     if (confirm === 'true' && c) runCard(pi, c, ctx);
@@ -206,7 +312,11 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
     allowOnly(p, ['payment_method', 'expand', 'return_url']);
     if (pi.status !== 'requires_payment_method' && pi.status !== 'requires_confirmation') throw unexpectedState('confirm', String(pi.status));
     const c = cardParam(p) ?? (typeof pi.payment_method === 'string' ? findTestCard(pi.payment_method) : null);
-    if (!c) throw invalid("You cannot confirm this PaymentIntent because it's missing a payment method.", { param: 'payment_method', code: 'payment_intent_unexpected_state' });
+    if (!c)
+      throw invalid("You cannot confirm this PaymentIntent because it's missing a payment method.", {
+        param: 'payment_method',
+        code: 'payment_intent_unexpected_state',
+      });
     runCard(pi, c, ctx);
     return pi;
   }
@@ -231,16 +341,33 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
     const pi = intents.get(piId);
     if (!pi) throw missing('payment_intent', piId, 'payment_intent');
     const charge = pi.status === 'succeeded' ? charges.get(pi.latest_charge as string) : undefined;
-    if (!charge) throw invalid(`This PaymentIntent (${piId}) does not have a successful charge to refund.`, { param: 'payment_intent', code: 'payment_intent_unexpected_state' }, true);
+    if (!charge)
+      throw invalid(
+        `This PaymentIntent (${piId}) does not have a successful charge to refund.`,
+        { param: 'payment_intent', code: 'payment_intent_unexpected_state' },
+        true,
+      );
     const left = (charge.amount as number) - (charge.amount_refunded as number);
     if (left <= 0) throw invalid(`Charge ${String(charge.id)} has already been refunded.`, { code: 'charge_already_refunded' }, true);
     const money = (n: number) => `${(n / 100).toFixed(2)} ${String(charge.currency)}`;
     if (requested !== undefined && requested > left)
-      throw invalid(`Refund amount (${money(requested)}) is greater than unrefunded amount on charge (${money(left)})`, { param: 'amount', code: 'amount_too_large' }, true);
+      throw invalid(
+        `Refund amount (${money(requested)}) is greater than unrefunded amount on charge (${money(left)})`,
+        { param: 'amount', code: 'amount_too_large' },
+        true,
+      );
     const amount = requested ?? left;
     const refund: Obj = {
-      id: newId('re'), object: 'refund', amount, currency: charge.currency, charge: charge.id, payment_intent: pi.id,
-      status: 'succeeded', reason: reason ?? null, metadata: meta, created: now(),
+      id: newId('re'),
+      object: 'refund',
+      amount,
+      currency: charge.currency,
+      charge: charge.id,
+      payment_intent: pi.id,
+      status: 'succeeded',
+      reason: reason ?? null,
+      metadata: meta,
+      created: now(),
     };
     refunds.set(refund.id as string, refund);
     charge.amount_refunded = (charge.amount_refunded as number) + amount;
@@ -262,8 +389,13 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
     if (method === 'GET' && path === '/v1/refunds') {
       const piId = str(p, 'payment_intent');
       const chargeId = str(p, 'charge');
-      return listPage(path, refunds.values(), p, ['payment_intent', 'charge'],
-        (r) => (piId === undefined || r.payment_intent === piId) && (chargeId === undefined || r.charge === chargeId));
+      return listPage(
+        path,
+        refunds.values(),
+        p,
+        ['payment_intent', 'charge'],
+        (r) => (piId === undefined || r.payment_intent === piId) && (chargeId === undefined || r.charge === chargeId),
+      );
     }
     if ((m = /^\/v1\/refunds\/([^/]+)$/.exec(path)) && method === 'GET') {
       const refund = refunds.get(m[1]);
@@ -289,12 +421,16 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
     }
     const requestId = newId('req');
     const apiVersion = String(req.headers['stripe-version'] ?? DEFAULT_API_VERSION);
-    const idempotencyKey = req.method === 'POST' ? (req.headers['idempotency-key'] as string | undefined) ?? null : null;
+    const idempotencyKey = req.method === 'POST' ? ((req.headers['idempotency-key'] as string | undefined) ?? null) : null;
     const send = ({ status, body }: { status: number; body: unknown }, extra: Record<string, string> = {}) => {
       const text = JSON.stringify(body, null, 2);
       res.writeHead(status, {
-        'Content-Type': 'application/json', 'Content-Length': Buffer.byteLength(text), 'Request-Id': requestId,
-        'Stripe-Version': apiVersion, ...(idempotencyKey ? { 'Idempotency-Key': idempotencyKey } : {}), ...extra,
+        'Content-Type': 'application/json',
+        'Content-Length': Buffer.byteLength(text),
+        'Request-Id': requestId,
+        'Stripe-Version': apiVersion,
+        ...(idempotencyKey ? { 'Idempotency-Key': idempotencyKey } : {}),
+        ...extra,
       });
       res.end(text);
     };
@@ -310,19 +446,28 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
       const auth = req.headers.authorization ?? '';
       if (auth !== `Bearer ${secretKey}`) {
         const given = auth.replace(/^Bearer\s+/i, '');
-        const message = given ? `Invalid API Key provided: ${given.slice(0, 8)}${'*'.repeat(8)}${given.slice(-4)}`
+        const message = given
+          ? `Invalid API Key provided: ${given.slice(0, 8)}${'*'.repeat(8)}${given.slice(-4)}`
           : 'You did not provide an API key. Provide it in the Authorization header, using Bearer auth.';
         return send({ status: 401, body: { error: { type: 'invalid_request_error', message } } });
       }
       const url = new URL(req.url ?? '/', 'http://fake');
       const method = req.method ?? 'GET';
       const params = parseForm(method === 'POST' ? Buffer.concat(chunks).toString('utf8') : url.search.slice(1));
-      const fingerprint = JSON.stringify(params, (_k, v: unknown) => v && typeof v === 'object'
-        ? Object.fromEntries(Object.entries(v as Obj).sort(([a], [b]) => a.localeCompare(b))) : v);
+      const fingerprint = JSON.stringify(params, (_k, v: unknown) =>
+        v && typeof v === 'object' ? Object.fromEntries(Object.entries(v as Obj).sort(([a], [b]) => a.localeCompare(b))) : v,
+      );
       if (idempotencyKey) {
         const prior = idempotency.get(idempotencyKey);
         if (prior && (prior.method !== method || prior.path !== url.pathname || prior.fingerprint !== fingerprint)) {
-          return send(fail(invalid(`Keys for idempotent requests can only be used with the same parameters they were first used with. Try using a key other than '${idempotencyKey}' if you meant to execute a different request.`, { type: 'idempotency_error' })));
+          return send(
+            fail(
+              invalid(
+                `Keys for idempotent requests can only be used with the same parameters they were first used with. Try using a key other than '${idempotencyKey}' if you meant to execute a different request.`,
+                { type: 'idempotency_error' },
+              ),
+            ),
+          );
         }
         if (prior) {
           if (loseAnswer(idempotencyKey, false, res)) return;
@@ -346,19 +491,27 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
       send(result);
     } catch (e) {
       if (e instanceof ApiError) return send(fail(e));
-      if (!res.headersSent) send({ status: 500, body: { error: { type: 'api_error', message: `Payment fake failed: ${String(e)}` } } }, { 'Stripe-Should-Retry': 'false' });
+      if (!res.headersSent)
+        send({ status: 500, body: { error: { type: 'api_error', message: `Payment fake failed: ${String(e)}` } } }, { 'Stripe-Should-Retry': 'false' });
     }
   }
 
   const server = http.createServer((req, res) => void onRequest(req, res));
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
-    server.listen(opts.port ?? 0, '127.0.0.1', () => { server.off('error', reject); resolve(); });
+    server.listen(opts.port ?? 0, '127.0.0.1', () => {
+      server.off('error', reject);
+      resolve();
+    });
   });
   const { port } = server.address() as AddressInfo;
 
   const fake: PaymentFake = {
-    url: `http://127.0.0.1:${port}`, host: '127.0.0.1', port, secretKey, webhookSecret,
+    url: `http://127.0.0.1:${port}`,
+    host: '127.0.0.1',
+    port,
+    secretKey,
+    webhookSecret,
     setWebhookUrl(url) {
       if (url !== null && !/^https?:$/.test(new URL(url).protocol)) throw new Error(`Webhook URL must be http(s): ${url}`);
       webhookUrl = url;
@@ -395,7 +548,10 @@ export async function startPaymentFake(opts: { webhookUrl?: string; port?: numbe
       settledWaiters = [];
       wake?.();
       inflight?.destroy();
-      await new Promise<void>((resolve) => { server.close(() => resolve()); server.closeAllConnections(); });
+      await new Promise<void>((resolve) => {
+        server.close(() => resolve());
+        server.closeAllConnections();
+      });
     },
   };
   fake.setWebhookUrl(opts.webhookUrl ?? null);

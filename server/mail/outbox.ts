@@ -2,10 +2,10 @@
 // fills. The same mailer talks to the fake in the demo and to SMTP_URL in real use.
 import type { Knex } from 'knex';
 import nodemailer from 'nodemailer';
-import type { OutboxMail, OutboxView } from '../../src/domain/outbox';
-import { json } from '../db/rows';
-import { LOCATION_HEADER, OWNER_ONLY_HEADER, startSmtpFake, type ReceivedMail } from '../fakes/smtp-fake';
-import type { Role } from '../../src/domain/roles';
+import type { OutboxMail, OutboxView } from '@/domain/outbox';
+import { json } from '@server/db/rows';
+import { LOCATION_HEADER, OWNER_ONLY_HEADER, startSmtpFake, type ReceivedMail } from '@server/fakes/smtp-fake';
+import type { Role } from '@/domain/roles';
 
 export type MailTransport = { host: string; port: number } | { url: string };
 

@@ -1,12 +1,12 @@
 // Mailing a receipt, and the Outbox of mail the local SMTP fake caught.
-import { idParam, receiptEmailBody } from '../../src/domain/schemas';
-import { userOf } from '../auth/guards';
-import { DomainError } from '../domain-errors';
-import { HttpError, parse } from '../errors';
-import type { Deps } from '../deps';
+import { idParam, receiptEmailBody } from '@/domain/schemas';
+import { userOf } from '@server/auth/guards';
+import { DomainError } from '@server/domain-errors';
+import { HttpError, parse } from '@server/errors';
+import type { Deps } from '@server/deps';
 import { outboxView, type Mailer } from './outbox';
-import { sendOrderReceipt } from '../orders/receipts';
-import type { ApiRoute } from '../routes';
+import { sendOrderReceipt } from '@server/orders/receipts';
+import type { ApiRoute } from '@server/routes';
 
 const OUTBOX_LIMIT = 100;
 

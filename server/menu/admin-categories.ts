@@ -1,8 +1,8 @@
 // Menu categories: the Counter's tabs.
-import type { CategoryBody, MoveBody } from '../../src/domain/menu-admin-schemas';
-import type { SessionUser } from '../../src/domain/types';
-import { conflict } from '../domain-errors';
-import type { Deps } from '../deps';
+import type { CategoryBody, MoveBody } from '@/domain/menu-admin-schemas';
+import type { SessionUser } from '@/domain/types';
+import { conflict } from '@server/domain-errors';
+import type { Deps } from '@server/deps';
 import { menuCommand, moveRow, nextSort, ownedCategory } from './admin-shared';
 
 export const createCategory = (deps: Deps, user: SessionUser, body: CategoryBody) =>

@@ -1,23 +1,12 @@
 // Menu items with their sizes and recipes. An item is saved whole (its sizes in order, its groups
 // of extras); a size the form leaves out is retired, never deleted, since past orders point at it.
 // Orders copy name and price when taken (order_items), so an edit never rewrites a past order.
-import type { ItemBody, MoveBody, SizeInput } from '../../src/domain/menu-admin-schemas';
-import { planSizeChanges } from '../../src/domain/menu-sizes';
-import type { SessionUser } from '../../src/domain/types';
-import { conflict, notFound } from '../domain-errors';
-import type { Deps } from '../deps';
-import {
-  assertMenuOrderable,
-  liveItems,
-  menuCommand,
-  moveRow,
-  nextSort,
-  ownedCategory,
-  ownedItem,
-  ownedRow,
-  ownedSize,
-  type Trx,
-} from './admin-shared';
+import type { ItemBody, MoveBody, SizeInput } from '@/domain/menu-admin-schemas';
+import { planSizeChanges } from '@/domain/menu-sizes';
+import type { SessionUser } from '@/domain/types';
+import { conflict, notFound } from '@server/domain-errors';
+import type { Deps } from '@server/deps';
+import { assertMenuOrderable, liveItems, menuCommand, moveRow, nextSort, ownedCategory, ownedItem, ownedRow, ownedSize, type Trx } from './admin-shared';
 
 function sizeRow(s: SizeInput, sort: number) {
   return {
@@ -109,9 +98,13 @@ export const updateItem = (deps: Deps, user: SessionUser, id: number, body: Item
     }
     const moved = body.categoryId !== item.category_id;
     const sort = moved ? await nextSort(trx('menu_items').where({ category_id: body.categoryId })) : item.sort;
-    await trx('menu_items').where({ id }).update({ ...itemRow(body), sort });
+    await trx('menu_items')
+      .where({ id })
+      .update({ ...itemRow(body), sort });
     for (const keep of changes.keep) {
-      await trx('item_sizes').where({ id: keep.id }).update({ ...sizeRow(body.sizes[keep.sort], keep.sort), retired_at: null });
+      await trx('item_sizes')
+        .where({ id: keep.id })
+        .update({ ...sizeRow(body.sizes[keep.sort], keep.sort), retired_at: null });
     }
     for (const place of changes.insert) await trx('item_sizes').insert({ ...sizeRow(body.sizes[place], place), item_id: id });
     if (changes.retire.length) await trx('item_sizes').whereIn('id', changes.retire).update({ retired_at: at, is_default: false });
@@ -167,11 +160,7 @@ export const restoreSize = (deps: Deps, user: SessionUser, id: number) =>
     const size = await ownedSize(trx, locationId, id);
     if (!size.retired_at) throw conflict(`${size.name} is in use`);
     const item = await ownedItem(trx, locationId, size.item_id);
-    const clash = await trx('item_sizes')
-      .where({ item_id: size.item_id })
-      .whereNull('retired_at')
-      .whereRaw('lower(name) = lower(?)', [size.name])
-      .first('id');
+    const clash = await trx('item_sizes').where({ item_id: size.item_id }).whereNull('retired_at').whereRaw('lower(name) = lower(?)', [size.name]).first('id');
     if (clash) throw conflict(`${item.name} already has a size called ${size.name}`);
     const takesMilk = item.takes_milk === 1 || item.takes_milk === true;
     if (takesMilk !== size.milk_ml > 0) throw conflict(`Its recipe no longer fits ${item.name}'s milk: add the size again instead`);

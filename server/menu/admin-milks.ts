@@ -1,10 +1,10 @@
 // Milks: each a lane on the Bar, with its own two-letter badge (unique in the café, retired milks
 // included, since past tickets carry the code).
-import type { MilkBody, MoveBody } from '../../src/domain/menu-admin-schemas';
-import type { SessionUser } from '../../src/domain/types';
-import { isUniqueViolation } from '../db/rows';
-import { conflict } from '../domain-errors';
-import type { Deps } from '../deps';
+import type { MilkBody, MoveBody } from '@/domain/menu-admin-schemas';
+import type { SessionUser } from '@/domain/types';
+import { isUniqueViolation } from '@server/db/rows';
+import { conflict } from '@server/domain-errors';
+import type { Deps } from '@server/deps';
 import { assertMenuOrderable, menuCommand, moveRow, nextSort, ownedRow, type Trx } from './admin-shared';
 
 async function assertCodeFree(trx: Trx, locationId: number, code: string, milkId: number | null) {
@@ -36,7 +36,11 @@ export const createMilk = (deps: Deps, user: SessionUser, body: MilkBody) =>
   menuCommand(deps, user, async ({ trx, locationId }) => {
     await assertCodeFree(trx, locationId, body.code, null);
     const sort = await nextSort(trx('milk_options').where({ location_id: locationId }));
-    const [{ id }] = await guarded(body.code, () => trx('milk_options').insert({ ...row(body), location_id: locationId, sort }).returning('id'));
+    const [{ id }] = await guarded(body.code, () =>
+      trx('milk_options')
+        .insert({ ...row(body), location_id: locationId, sort })
+        .returning('id'),
+    );
     return id;
   });
 

@@ -1,9 +1,9 @@
 // Groups of extras (single or multiple choice, required or not, on which items) and the extras
 // in them. Orders copy an extra's name and price when taken, so edits never reach past orders.
-import type { ModifierBody, ModifierGroupBody, MoveBody } from '../../src/domain/menu-admin-schemas';
-import type { SessionUser } from '../../src/domain/types';
-import { conflict } from '../domain-errors';
-import type { Deps } from '../deps';
+import type { ModifierBody, ModifierGroupBody, MoveBody } from '@/domain/menu-admin-schemas';
+import type { SessionUser } from '@/domain/types';
+import { conflict } from '@server/domain-errors';
+import type { Deps } from '@server/deps';
 import { assertMenuOrderable, menuCommand, moveRow, nextSort, ownedItem, ownedRow, type Trx } from './admin-shared';
 
 async function setItems(trx: Trx, locationId: number, groupId: number, itemIds: number[]) {
@@ -17,7 +17,9 @@ const groupRow = (b: ModifierGroupBody) => ({ name: b.name, selection: b.selecti
 export const createGroup = (deps: Deps, user: SessionUser, body: ModifierGroupBody) =>
   menuCommand(deps, user, async ({ trx, locationId }) => {
     const sort = await nextSort(trx('modifier_groups').where({ location_id: locationId }));
-    const [{ id }] = await trx('modifier_groups').insert({ ...groupRow(body), location_id: locationId, sort }).returning('id');
+    const [{ id }] = await trx('modifier_groups')
+      .insert({ ...groupRow(body), location_id: locationId, sort })
+      .returning('id');
     await setItems(trx, locationId, id, body.itemIds);
     await assertMenuOrderable(trx, locationId);
     return id;
@@ -71,7 +73,9 @@ export const createModifier = (deps: Deps, user: SessionUser, body: ModifierBody
   menuCommand(deps, user, async ({ trx, locationId }) => {
     await liveGroup(trx, locationId, body.groupId);
     const sort = await nextSort(trx('modifiers').where({ group_id: body.groupId }));
-    const [{ id }] = await trx('modifiers').insert({ ...modifierRow(body), location_id: locationId, sort }).returning('id');
+    const [{ id }] = await trx('modifiers')
+      .insert({ ...modifierRow(body), location_id: locationId, sort })
+      .returning('id');
     return id;
   });
 
@@ -80,7 +84,9 @@ export const updateModifier = (deps: Deps, user: SessionUser, id: number, body: 
     const modifier = await ownedRow(trx, 'modifiers', locationId, id, 'Extra');
     await liveGroup(trx, locationId, body.groupId);
     const sort = body.groupId === modifier.group_id ? modifier.sort : await nextSort(trx('modifiers').where({ group_id: body.groupId }));
-    await trx('modifiers').where({ id }).update({ ...modifierRow(body), sort });
+    await trx('modifiers')
+      .where({ id })
+      .update({ ...modifierRow(body), sort });
     await assertMenuOrderable(trx, locationId);
     return id;
   });

@@ -2,22 +2,13 @@
 // Every command answers { id, menu } with the whole editable menu as it now is. Each kind has the
 // same four commands: create, update (the whole row), retired { retired } and move { direction }.
 import type { z } from 'zod';
-import {
-  categoryBody,
-  itemBody,
-  milkBody,
-  modifierBody,
-  modifierGroupBody,
-  moveBody,
-  retiredBody,
-  type MoveBody,
-} from '../../src/domain/menu-admin-schemas';
-import type { MenuAdminResult } from '../../src/domain/menu-admin-view';
-import { idParam } from '../../src/domain/schemas';
-import type { SessionUser } from '../../src/domain/types';
-import { userOf } from '../auth/guards';
-import { parse } from '../errors';
-import type { Deps } from '../deps';
+import { categoryBody, itemBody, milkBody, modifierBody, modifierGroupBody, moveBody, retiredBody, type MoveBody } from '@/domain/menu-admin-schemas';
+import type { MenuAdminResult } from '@/domain/menu-admin-view';
+import { idParam } from '@/domain/schemas';
+import type { SessionUser } from '@/domain/types';
+import { userOf } from '@server/auth/guards';
+import { parse } from '@server/errors';
+import type { Deps } from '@server/deps';
 import { loadAdminMenu } from './admin';
 import { createCategory, moveCategory, restoreCategory, retireCategory, updateCategory } from './admin-categories';
 import { createItem, moveItem, restoreItem, retireItem, retireSize, restoreSize, updateItem } from './admin-items';
@@ -34,7 +25,7 @@ import {
   updateGroup,
   updateModifier,
 } from './admin-modifiers';
-import type { ApiRoute } from '../routes';
+import type { ApiRoute } from '@server/routes';
 
 type Command<B> = (deps: Deps, user: SessionUser, body: B) => Promise<MenuAdminResult>;
 type IdCommand<B> = (deps: Deps, user: SessionUser, id: number, body: B) => Promise<MenuAdminResult>;
@@ -52,11 +43,35 @@ interface Kind<S extends z.ZodType> {
 const kind = <S extends z.ZodType>(k: Kind<S>) => k;
 
 const KINDS = [
-  kind({ path: 'categories', body: categoryBody, create: createCategory, update: updateCategory, retire: retireCategory, restore: restoreCategory, move: moveCategory }),
+  kind({
+    path: 'categories',
+    body: categoryBody,
+    create: createCategory,
+    update: updateCategory,
+    retire: retireCategory,
+    restore: restoreCategory,
+    move: moveCategory,
+  }),
   kind({ path: 'items', body: itemBody, create: createItem, update: updateItem, retire: retireItem, restore: restoreItem, move: moveItem }),
   kind({ path: 'milks', body: milkBody, create: createMilk, update: updateMilk, retire: retireMilk, restore: restoreMilk, move: moveMilk }),
-  kind({ path: 'modifier-groups', body: modifierGroupBody, create: createGroup, update: updateGroup, retire: retireGroup, restore: restoreGroup, move: moveGroup }),
-  kind({ path: 'modifiers', body: modifierBody, create: createModifier, update: updateModifier, retire: retireModifier, restore: restoreModifier, move: moveModifier }),
+  kind({
+    path: 'modifier-groups',
+    body: modifierGroupBody,
+    create: createGroup,
+    update: updateGroup,
+    retire: retireGroup,
+    restore: restoreGroup,
+    move: moveGroup,
+  }),
+  kind({
+    path: 'modifiers',
+    body: modifierBody,
+    create: createModifier,
+    update: updateModifier,
+    retire: retireModifier,
+    restore: restoreModifier,
+    move: moveModifier,
+  }),
 ];
 
 export function menuAdminRoutes(deps: Deps): ApiRoute[] {

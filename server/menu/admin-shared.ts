@@ -2,12 +2,12 @@
 // only inside the signed-in café (another café's id is simply not found), moving a row among its
 // siblings, and the menu-wide rules a change must leave standing.
 import type { Knex } from 'knex';
-import type { MenuAdminResult } from '../../src/domain/menu-admin-view';
-import { moveAmong, type Direction } from '../../src/domain/menu-order';
-import type { SessionUser } from '../../src/domain/types';
-import { conflict, notFound } from '../domain-errors';
-import type { Deps } from '../deps';
-import { appendMenuChangedEvent, runCommand } from '../events';
+import type { MenuAdminResult } from '@/domain/menu-admin-view';
+import { moveAmong, type Direction } from '@/domain/menu-order';
+import type { SessionUser } from '@/domain/types';
+import { conflict, notFound } from '@server/domain-errors';
+import type { Deps } from '@server/deps';
+import { appendMenuChangedEvent, runCommand } from '@server/events';
 import { loadAdminMenu } from './admin';
 
 export type Trx = Knex.Transaction;

@@ -1,12 +1,12 @@
 // The back-office menu editor's read side: the whole menu, retired things included.
-import { allergensOf, type AllergenList } from '../../src/domain/allergens';
-import { allergensFrom } from '../../src/domain/ingredients';
-import type { AdminMenuView } from '../../src/domain/menu-admin-view';
-import type { Station, Texture } from '../../src/domain/types';
-import { bool, json } from '../db/rows';
-import { notFound } from '../domain-errors';
+import { allergensOf, type AllergenList } from '@/domain/allergens';
+import { allergensFrom } from '@/domain/ingredients';
+import type { AdminMenuView } from '@/domain/menu-admin-view';
+import type { Station, Texture } from '@/domain/types';
+import { bool, json } from '@server/db/rows';
+import { notFound } from '@server/domain-errors';
 import { sizeView } from './menu';
-import type { Db } from '../db/knex';
+import type { Db } from '@server/db/knex';
 
 export async function loadAdminMenu(db: Db, locationId: number): Promise<AdminMenuView> {
   const location = await db('locations').where({ id: locationId }).first();
@@ -14,16 +14,24 @@ export async function loadAdminMenu(db: Db, locationId: number): Promise<AdminMe
   const categories = await db('menu_categories').where({ location_id: locationId }).orderBy(['sort', 'id']);
   const place = new Map(categories.map((c, i) => [c.id as number, i]));
   // in the Counter's order: by category, then within it
-  const items = (await db('menu_items').whereIn('category_id', [...place.keys()]).orderBy(['sort', 'id'])).sort(
-    (a, b) => place.get(a.category_id)! - place.get(b.category_id)!,
-  );
+  const items = (
+    await db('menu_items')
+      .whereIn('category_id', [...place.keys()])
+      .orderBy(['sort', 'id'])
+  ).sort((a, b) => place.get(a.category_id)! - place.get(b.category_id)!);
   const sizes = await db('item_sizes')
-    .whereIn('item_id', items.map((i) => i.id))
+    .whereIn(
+      'item_id',
+      items.map((i) => i.id),
+    )
     .orderByRaw('retired_at is not null, sort, id');
   const milks = await db('milk_options').where({ location_id: locationId }).orderBy(['sort', 'id']);
   const groups = await db('modifier_groups').where({ location_id: locationId }).orderBy(['sort', 'id']);
   const modifiers = await db('modifiers').where({ location_id: locationId }).orderBy(['sort', 'id']);
-  const links: { item_id: number; group_id: number }[] = await db('item_modifier_groups').whereIn('group_id', groups.map((g) => g.id));
+  const links: { item_id: number; group_id: number }[] = await db('item_modifier_groups').whereIn(
+    'group_id',
+    groups.map((g) => g.id),
+  );
   const list = location.allergen_list as AllergenList;
   const contents = (row: { ingredients: string }) => {
     const ingredients = json<string[]>(row.ingredients, []);
@@ -53,9 +61,7 @@ export async function loadAdminMenu(db: Db, locationId: number): Promise<AdminMe
       available: bool(i.available),
       retired: i.retired_at !== null,
       modifierGroupIds: links.filter((l) => l.item_id === i.id).map((l) => l.group_id),
-      sizes: sizes
-        .filter((s) => s.item_id === i.id)
-        .map((s) => ({ ...sizeView(s), retired: s.retired_at !== null })),
+      sizes: sizes.filter((s) => s.item_id === i.id).map((s) => ({ ...sizeView(s), retired: s.retired_at !== null })),
     })),
     milks: milks.map((m) => ({
       id: m.id,

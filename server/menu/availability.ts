@@ -1,8 +1,8 @@
 // 86 an item (and bring it back). The Counter greys it out at once through the live event.
-import type { SessionUser } from '../../src/domain/types';
-import { notFound } from '../domain-errors';
-import type { Deps } from '../deps';
-import { appendMenuEvent, runCommand } from '../events';
+import type { SessionUser } from '@/domain/types';
+import { notFound } from '@server/domain-errors';
+import type { Deps } from '@server/deps';
+import { appendMenuEvent, runCommand } from '@server/events';
 
 export function setItemAvailability(deps: Deps, user: SessionUser, itemId: number, available: boolean) {
   return runCommand(deps, async (trx) => {

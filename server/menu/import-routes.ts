@@ -3,14 +3,14 @@
 // decided by the services (the CSV reader, sharp), never by the file's name alone.
 import type { Request, Response } from 'express';
 import multer from 'multer';
-import { MENU_CSV_MAX_BYTES } from '../../src/domain/menu-csv';
-import { idParam } from '../../src/domain/schemas';
-import { userOf } from '../auth/guards';
-import { HttpError, parse } from '../errors';
-import type { Deps } from '../deps';
+import { MENU_CSV_MAX_BYTES } from '@/domain/menu-csv';
+import { idParam } from '@/domain/schemas';
+import { userOf } from '@server/auth/guards';
+import { HttpError, parse } from '@server/errors';
+import type { Deps } from '@server/deps';
 import { PHOTO_MAX_BYTES, removeItemPhoto, setItemPhoto } from './item-photos';
 import { csvText, exportMenuCsv, importMenu, previewMenuImport } from './import';
-import type { ApiRoute } from '../routes';
+import type { ApiRoute } from '@server/routes';
 
 const FIELD = 'file';
 

@@ -7,7 +7,7 @@
 // the file leaves out stay as they are. An item's default size is the row marked default_size
 // yes; with none marked the item keeps its current default (a new item takes its first row).
 import type { Knex } from 'knex';
-import type { AllergenList } from '../../src/domain/allergens';
+import type { AllergenList } from '@/domain/allergens';
 import {
   groupMenuRows,
   parseMenuCsv,
@@ -18,14 +18,14 @@ import {
   type MenuImportPreview,
   type RowAction,
   type RowError,
-} from '../../src/domain/menu-csv';
-import type { SessionUser } from '../../src/domain/types';
-import { bool, json } from '../db/rows';
-import { invalid, unsupported } from '../domain-errors';
-import type { Deps } from '../deps';
-import { appendMenuChangedEvent, runCommand } from '../events';
+} from '@/domain/menu-csv';
+import type { SessionUser } from '@/domain/types';
+import { bool, json } from '@server/db/rows';
+import { invalid, unsupported } from '@server/domain-errors';
+import type { Deps } from '@server/deps';
+import { appendMenuChangedEvent, runCommand } from '@server/events';
 import { loadMenu } from './menu';
-import type { Db } from '../db/knex';
+import type { Db } from '@server/db/knex';
 
 const lower = (s: string) => s.toLowerCase();
 
@@ -83,9 +83,19 @@ const differs = (row: Record<string, unknown>, fields: Record<string, unknown>) 
 /** What the file would do to the menu: per row add / update / unchanged, or why it can't. */
 async function planImport(db: Db, locationId: number, items: ImportItem[], milkId: Map<string, number>): Promise<Plan> {
   const categories = await db('menu_categories').where({ location_id: locationId }).whereNull('retired_at').select('id', 'name', 'sort');
-  const menuItems = await db('menu_items').whereIn('category_id', categories.map((c) => c.id)).whereNull('retired_at');
+  const menuItems = await db('menu_items')
+    .whereIn(
+      'category_id',
+      categories.map((c) => c.id),
+    )
+    .whereNull('retired_at');
   // a retired size (kept for past orders, 20261202000100_menu_recipes) is not on the menu: a row of that name adds a new one
-  const sizes = await db('item_sizes').whereIn('item_id', menuItems.map((i) => i.id)).whereNull('retired_at');
+  const sizes = await db('item_sizes')
+    .whereIn(
+      'item_id',
+      menuItems.map((i) => i.id),
+    )
+    .whereNull('retired_at');
   const maxSort = (rows: { sort: number }[]) => rows.reduce((m, r) => Math.max(m, r.sort), -1);
 
   const plan: Plan = { errors: [], actions: new Map(), newCategories: [], items: [] };
@@ -176,7 +186,10 @@ async function writePlan(trx: Knex.Transaction, locationId: number, plan: Plan):
   }
   for (const item of plan.items) {
     let id = item.id;
-    if (id === null) [{ id }] = await trx('menu_items').insert({ ...item.fields, category_id: item.category.id }).returning('id');
+    if (id === null)
+      [{ id }] = await trx('menu_items')
+        .insert({ ...item.fields, category_id: item.category.id })
+        .returning('id');
     else if (item.changed) await trx('menu_items').where({ id }).update(item.fields);
     wrote ||= item.changed;
     for (const size of item.sizes.filter((s) => s.changed)) {

@@ -7,11 +7,11 @@ import { randomBytes } from 'node:crypto';
 import { mkdir, unlink, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import sharp from 'sharp';
-import type { SessionUser } from '../../src/domain/types';
-import { notFound, unsupported } from '../domain-errors';
-import type { Deps } from '../deps';
-import { appendMenuChangedEvent, runCommand } from '../events';
-import type { Db } from '../db/knex';
+import type { SessionUser } from '@/domain/types';
+import { notFound, unsupported } from '@server/domain-errors';
+import type { Deps } from '@server/deps';
+import { appendMenuChangedEvent, runCommand } from '@server/events';
+import type { Db } from '@server/db/knex';
 
 export const PHOTO_MAX_BYTES = 5 * 1024 * 1024;
 export const PHOTO_MAX_PX = 800;
@@ -24,8 +24,7 @@ const NAME = /^[0-9a-f]{32}\.webp$/;
 
 export const photoUrlOf = (photo: string | null | undefined): string | null => (photo && NAME.test(photo) ? `/media/${PHOTO_FOLDER}/${photo}` : null);
 
-const notAnImage = (what: string) =>
-  unsupported(`${what} Choose a JPEG, PNG or WebP photo.`, [{ path: 'file', message: 'Not a JPEG, PNG or WebP image' }]);
+const notAnImage = (what: string) => unsupported(`${what} Choose a JPEG, PNG or WebP photo.`, [{ path: 'file', message: 'Not a JPEG, PNG or WebP image' }]);
 
 /** The upload as a WebP of at most 800 px a side, or 415 when its bytes are not a photo we take. */
 export async function toMenuPhoto(bytes: Buffer): Promise<Buffer> {

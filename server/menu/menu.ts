@@ -1,11 +1,11 @@
 // The menu as the Counter and the pricing see it.
-import type { JugRules, Pitcher } from '../../src/domain/jug-plan';
-import { allergensFrom } from '../../src/domain/ingredients';
-import type { LocationView, MenuView, Texture } from '../../src/domain/types';
-import { bool, json } from '../db/rows';
-import { notFound } from '../domain-errors';
+import type { JugRules, Pitcher } from '@/domain/jug-plan';
+import { allergensFrom } from '@/domain/ingredients';
+import type { LocationView, MenuView, Texture } from '@/domain/types';
+import { bool, json } from '@server/db/rows';
+import { notFound } from '@server/domain-errors';
 import { photoUrlOf } from './item-photos';
-import type { Db } from '../db/knex';
+import type { Db } from '@server/db/knex';
 
 export async function loadLocation(db: Db, locationId: number): Promise<LocationView> {
   const l = await db('locations').where({ id: locationId }).first();
@@ -62,32 +62,40 @@ export const sizeView = (s: Record<string, any>) => ({
 
 export async function loadMenu(db: Db, locationId: number): Promise<MenuView> {
   const location = await loadLocation(db, locationId);
-  const categories = await db('menu_categories')
-    .where({ location_id: locationId })
-    .whereNull('retired_at')
-    .orderBy(['sort', 'id'])
-    .select('id', 'name');
+  const categories = await db('menu_categories').where({ location_id: locationId }).whereNull('retired_at').orderBy(['sort', 'id']).select('id', 'name');
   const items = await db('menu_items')
-    .whereIn('category_id', categories.map((c) => c.id))
+    .whereIn(
+      'category_id',
+      categories.map((c) => c.id),
+    )
     .whereNull('retired_at')
     .orderBy(['sort', 'id']);
   const sizes = await db('item_sizes')
-    .whereIn('item_id', items.map((i) => i.id))
+    .whereIn(
+      'item_id',
+      items.map((i) => i.id),
+    )
     .whereNull('retired_at') // retired in the menu editor: past orders keep them, the Counter doesn't
     .orderBy(['sort', 'id']);
-  const milks = await db('milk_options')
-    .where({ location_id: locationId })
-    .whereNull('retired_at')
-    .orderBy(['sort', 'id']);
+  const milks = await db('milk_options').where({ location_id: locationId }).whereNull('retired_at').orderBy(['sort', 'id']);
   const groups = await db('modifier_groups').where({ location_id: locationId }).whereNull('retired_at').orderBy(['sort', 'id']);
   const modifiers = await db('modifiers')
     .where({ location_id: locationId })
-    .whereIn('group_id', groups.map((g) => g.id))
+    .whereIn(
+      'group_id',
+      groups.map((g) => g.id),
+    )
     .whereNull('retired_at')
     .orderBy(['sort', 'id']);
   const links = await db('item_modifier_groups')
-    .whereIn('item_id', items.map((i) => i.id))
-    .whereIn('group_id', groups.map((g) => g.id));
+    .whereIn(
+      'item_id',
+      items.map((i) => i.id),
+    )
+    .whereIn(
+      'group_id',
+      groups.map((g) => g.id),
+    );
   const groupName = new Map(groups.map((g) => [g.id, g.name as string]));
   const allergens = (row: { ingredients: string }) => allergensFrom(json<string[]>(row.ingredients, []), location.allergenList);
 
@@ -107,9 +115,7 @@ export async function loadMenu(db: Db, locationId: number): Promise<MenuView> {
       available: bool(i.available),
       ingredients: json<string[]>(i.ingredients, []),
       allergens: allergens(i),
-      sizes: sizes
-        .filter((s) => s.item_id === i.id)
-        .map(sizeView),
+      sizes: sizes.filter((s) => s.item_id === i.id).map(sizeView),
       modifierGroupIds: links.filter((l) => l.item_id === i.id).map((l) => l.group_id),
       photoUrl: photoUrlOf(i.photo),
     })),

@@ -1,9 +1,9 @@
 // GET /menu (what the Counter and the Bar read) and 86ing an item from the floor.
-import { availabilityBody, idParam } from '../../src/domain/schemas';
-import { userOf } from '../auth/guards';
-import type { Deps } from '../deps';
-import { parse } from '../errors';
-import type { ApiRoute } from '../routes';
+import { availabilityBody, idParam } from '@/domain/schemas';
+import { userOf } from '@server/auth/guards';
+import type { Deps } from '@server/deps';
+import { parse } from '@server/errors';
+import type { ApiRoute } from '@server/routes';
 import { setItemAvailability } from './availability';
 import { loadMenu } from './menu';
 

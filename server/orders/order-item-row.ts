@@ -1,6 +1,6 @@
 // An order line as it is stored: what was sold, copied from the menu at the time of sale, so later
 // menu edits never rewrite history. Used by the Counter's orders and by the history generator.
-import type { ResolvedLine } from '../../src/domain/order-lines';
+import type { ResolvedLine } from '@/domain/order-lines';
 
 export function orderItemRow(line: ResolvedLine, orderId: number, lineNo: number) {
   return {

@@ -1,14 +1,14 @@
 // Check an order against the menu and price it: every line, the discount, the tax, the allergens.
-import { allergensOf } from '../../src/domain/allergens';
-import { discountCents, orderTotals, type OrderTotals } from '../../src/domain/money';
-import { resolveLine, type ResolvedLine } from '../../src/domain/order-lines';
-import { expandByQuantity } from '../../src/domain/order-quantity';
-import { can } from '../../src/domain/roles';
-import type { CreateOrderBody } from '../../src/domain/schemas';
-import type { MenuView, SessionUser } from '../../src/domain/types';
-import { conflict, fieldsNeedFixing, forbidden } from '../domain-errors';
-import type { Deps } from '../deps';
-import { loadMenu } from '../menu/menu';
+import { allergensOf } from '@/domain/allergens';
+import { discountCents, orderTotals, type OrderTotals } from '@/domain/money';
+import { resolveLine, type ResolvedLine } from '@/domain/order-lines';
+import { expandByQuantity } from '@/domain/order-quantity';
+import { can } from '@/domain/roles';
+import type { CreateOrderBody } from '@/domain/schemas';
+import type { MenuView, SessionUser } from '@/domain/types';
+import { conflict, fieldsNeedFixing, forbidden } from '@server/domain-errors';
+import type { Deps } from '@server/deps';
+import { loadMenu } from '@server/menu/menu';
 import { requireEnoughCash } from './settle';
 
 export interface PricedOrder {

@@ -1,10 +1,10 @@
 // An order as the Counter and receipts read it: one order, or today's list with a search.
-import { businessDate } from '../../src/domain/business-date';
-import type { OrderView, SessionUser } from '../../src/domain/types';
-import { containing, containsSql, dialectOf } from '../db/dialect';
-import type { Db } from '../db/knex';
-import { json } from '../db/rows';
-import type { Deps } from '../deps';
+import { businessDate } from '@/domain/business-date';
+import type { OrderView, SessionUser } from '@/domain/types';
+import { containing, containsSql, dialectOf } from '@server/db/dialect';
+import type { Db } from '@server/db/knex';
+import { json } from '@server/db/rows';
+import type { Deps } from '@server/deps';
 
 export function toOrderView(o: Record<string, any>, items: Record<string, any>[], payment?: Record<string, any>, takenBy?: string): OrderView {
   return {

@@ -1,23 +1,23 @@
 // Taking an order: price it on the server, store it with its drinks, payment and event in one
 // transaction, and make a replay of the same client order id return the same order. Cash is
 // fired to the bar at once; a card order waits, unfired, until its payment has succeeded.
-import type { CreateOrderBody } from '../../src/domain/schemas';
-import type { OrderView, SessionUser } from '../../src/domain/types';
-import { businessDate } from '../../src/domain/business-date';
-import { lockingRead } from '../db/dialect';
-import { isUniqueViolation } from '../db/rows';
-import { conflict } from '../domain-errors';
-import { payByCard } from '../payments/card-payments';
-import { settleOpenAttempts } from '../payments/card-settle';
+import type { CreateOrderBody } from '@/domain/schemas';
+import type { OrderView, SessionUser } from '@/domain/types';
+import { businessDate } from '@/domain/business-date';
+import { lockingRead } from '@server/db/dialect';
+import { isUniqueViolation } from '@server/db/rows';
+import { conflict } from '@server/domain-errors';
+import { payByCard } from '@server/payments/card-payments';
+import { settleOpenAttempts } from '@server/payments/card-settle';
 import { cashColumns, cashPayment, fireOrder, requireEnoughCash, settledColumns } from './settle';
 import { orderItemRow } from './order-item-row';
-import type { Deps } from '../deps';
-import { appendEvent, lockCafe, runCommand } from '../events';
+import type { Deps } from '@server/deps';
+import { appendEvent, lockCafe, runCommand } from '@server/events';
 import { priceOrder, type PricedOrder } from './order-pricing';
 import { quoteForNewOrder } from './quotes';
 import { loadOrder } from './order-views';
-import { loadTicket } from '../tickets/ticket-views';
-import type { Db } from '../db/knex';
+import { loadTicket } from '@server/tickets/ticket-views';
+import type { Db } from '@server/db/knex';
 
 async function findByClientId(db: Db, user: SessionUser, clientOrderId: string) {
   const existing = await db('orders').where({ client_order_id: clientOrderId }).first('id', 'location_id');
@@ -39,10 +39,7 @@ async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody,
     const quote = await quoteForNewOrder(trx, user.locationId, now, barDrinks, menu.location.baristasOnBar);
     const shift = await trx('shifts').where({ location_id: user.locationId }).whereNull('closed_at').first('id');
     await lockCafe(trx, user.locationId); // orders taken at once get numbers one after another
-    const last = await trx('orders')
-      .where({ location_id: user.locationId, business_date: day })
-      .max<{ n: number | null }>({ n: 'number' })
-      .first();
+    const last = await trx('orders').where({ location_id: user.locationId, business_date: day }).max<{ n: number | null }>({ n: 'number' }).first();
     const [{ id: orderId }] = await trx('orders')
       .insert({
         location_id: user.locationId,
@@ -82,11 +79,7 @@ async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody,
   });
 }
 
-export async function createOrder(
-  deps: Deps,
-  user: SessionUser,
-  body: CreateOrderBody,
-): Promise<{ order: OrderView; created: boolean }> {
+export async function createOrder(deps: Deps, user: SessionUser, body: CreateOrderBody): Promise<{ order: OrderView; created: boolean }> {
   const replay = await findByClientId(deps.db, user, body.clientOrderId);
   if (replay) {
     // A declined card may be tried again with another card; a paid order is never charged again.

@@ -1,11 +1,11 @@
 // The Counter's quoted wait, from the bar as it is: the drinks on it now and its pace over the
 // last 30 minutes (busyPace: the barista-time the bar was busy over the drinks it bumped).
-import { busyPace, FORGOTTEN_AFTER_MS, type BarDrink, type BarPace } from '../../src/domain/make-times';
-import { quoteWaitSeconds } from '../../src/domain/quote';
-import type { CounterWaitNow } from '../../src/domain/wait-now';
-import type { Deps } from '../deps';
-import { loadLocation } from '../menu/menu';
-import type { Db } from '../db/knex';
+import { busyPace, FORGOTTEN_AFTER_MS, type BarDrink, type BarPace } from '@/domain/make-times';
+import { quoteWaitSeconds } from '@/domain/quote';
+import type { CounterWaitNow } from '@/domain/wait-now';
+import type { Deps } from '@server/deps';
+import { loadLocation } from '@server/menu/menu';
+import type { Db } from '@server/db/knex';
 
 /** How far back the pace looks. */
 export const PACE_WINDOW_MS = 30 * 60_000;

@@ -1,12 +1,12 @@
 // The customer's receipt as an e-mail (plain text and HTML), and sending it for an order.
 import type { Knex } from 'knex';
-import type { Deps } from '../deps';
-import { formatCents } from '../../src/domain/money';
-import { groupOrderLines } from '../../src/domain/order-quantity';
-import type { OrderLineView, OrderView } from '../../src/domain/types';
-import { escapeHtml } from '../../src/lib/html';
-import { notFound } from '../domain-errors';
-import type { Mailer } from '../mail/outbox';
+import type { Deps } from '@server/deps';
+import { formatCents } from '@/domain/money';
+import { groupOrderLines } from '@/domain/order-quantity';
+import type { OrderLineView, OrderView } from '@/domain/types';
+import { escapeHtml } from '@/lib/html';
+import { notFound } from '@server/domain-errors';
+import type { Mailer } from '@server/mail/outbox';
 import { loadOrder } from './order-views';
 
 export interface ReceiptLocation {
@@ -65,7 +65,11 @@ export function receiptEmail(order: OrderView, location: ReceiptLocation, footer
     '',
     ...groupOrderLines(order.lines).flatMap(({ line: l, quantity, totalCents }) => {
       const details = lineDetails(l);
-      return [`${quantity > 1 ? `${quantity} × ` : ''}${l.itemName} — ${money(totalCents)}`, ...(details ? [`  ${details}`] : []), ...(l.note ? [`  Note: ${l.note}`] : [])];
+      return [
+        `${quantity > 1 ? `${quantity} × ` : ''}${l.itemName} — ${money(totalCents)}`,
+        ...(details ? [`  ${details}`] : []),
+        ...(l.note ? [`  Note: ${l.note}`] : []),
+      ];
     }),
     '',
     ...totals.map(([label, value]) => `${label}: ${value}`),
@@ -114,13 +118,7 @@ export function receiptEmail(order: OrderView, location: ReceiptLocation, footer
  * Mail the receipt of one of the location's orders to `email`. An order of another location is
  * reported as not found, so its existence isn't revealed.
  */
-export async function sendOrderReceipt(
-  db: Knex,
-  mailer: Mailer,
-  locationId: number,
-  orderId: number,
-  email: string,
-): Promise<{ messageId: string }> {
+export async function sendOrderReceipt(db: Knex, mailer: Mailer, locationId: number, orderId: number, email: string): Promise<{ messageId: string }> {
   const own = await db('orders').where({ id: orderId, location_id: locationId }).first('id');
   if (!own) throw notFound('Order');
   const order = await loadOrder(db, orderId);
@@ -141,10 +139,15 @@ export async function mailReceiptWithOrder(deps: Deps, locationId: number, order
   const email = order.customerEmail;
   if (!mailer || !email || order.paymentStatus !== 'paid') return;
   // the customer's address stays out of the log, even inside a mail server's message
-  const reason = (err: unknown) => String((err as Error)?.message ?? err).split(email).join('<customer>').slice(0, 200);
+  const reason = (err: unknown) =>
+    String((err as Error)?.message ?? err)
+      .split(email)
+      .join('<customer>')
+      .slice(0, 200);
   let claimed: number;
   try {
-    claimed = await deps.db('orders')
+    claimed = await deps
+      .db('orders')
       .where({ id: order.id, location_id: locationId })
       .whereNull('receipt_mail_state')
       .update({ receipt_mail_state: 'sending', receipt_mail_at: deps.clock().toISOString() });
@@ -154,7 +157,10 @@ export async function mailReceiptWithOrder(deps: Deps, locationId: number, order
   }
   if (claimed !== 1) return;
   const record = (fields: Record<string, string | null>) =>
-    deps.db('orders').where({ id: order.id, receipt_mail_state: 'sending' }).update({ ...fields, receipt_mail_at: deps.clock().toISOString() });
+    deps
+      .db('orders')
+      .where({ id: order.id, receipt_mail_state: 'sending' })
+      .update({ ...fields, receipt_mail_at: deps.clock().toISOString() });
   void sendOrderReceipt(deps.db, mailer, locationId, order.id, email)
     .then(
       () => record({ receipt_mail_state: 'sent', receipt_mail_error: null }),

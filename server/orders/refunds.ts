@@ -1,14 +1,14 @@
 // Giving money back and voiding orders that were never fired. Both reach the bar live: a fully
 // refunded order that was still being made leaves the bar.
-import type { SessionUser } from '../../src/domain/types';
-import { conflict, invalid, notFound, notSetUp, upstreamFailed } from '../domain-errors';
-import { GatewayRefused, GatewayUnavailable } from '../payments/gateway';
-import { lockingRead } from '../db/dialect';
-import type { Deps } from '../deps';
-import { releaseStaleAttempts, settleOpenAttempts } from '../payments/card-settle';
-import { appendEvent, runCommand } from '../events';
+import type { SessionUser } from '@/domain/types';
+import { conflict, invalid, notFound, notSetUp, upstreamFailed } from '@server/domain-errors';
+import { GatewayRefused, GatewayUnavailable } from '@server/payments/gateway';
+import { lockingRead } from '@server/db/dialect';
+import type { Deps } from '@server/deps';
+import { releaseStaleAttempts, settleOpenAttempts } from '@server/payments/card-settle';
+import { appendEvent, runCommand } from '@server/events';
 import { findOrderInLocation, loadOrder } from './order-views';
-import { loadTicket } from '../tickets/ticket-views';
+import { loadTicket } from '@server/tickets/ticket-views';
 
 export async function refundOrder(deps: Deps, user: SessionUser, orderId: number, input: { amountCents?: number; reason: string }) {
   const order = await findOrderInLocation(deps.db, user, orderId);
@@ -18,9 +18,7 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
   if (refundable <= 0) throw conflict('This order has been refunded in full already');
   const amount = input.amountCents ?? refundable;
   if (amount > refundable) {
-    throw invalid('That is more than is left to refund', [
-      { path: 'amountCents', message: `At most ${refundable} cents can be refunded` },
-    ]);
+    throw invalid('That is more than is left to refund', [{ path: 'amountCents', message: `At most ${refundable} cents can be refunded` }]);
   }
   const payment = await deps.db('payments').where({ order_id: orderId, status: 'succeeded' }).first();
   if (!payment) throw conflict('No successful payment to refund');
@@ -96,11 +94,13 @@ export async function voidOrder(deps: Deps, user: SessionUser, orderId: number, 
     if (live) throw conflict('A card payment for this order is in progress');
     const at = deps.clock().toISOString();
     await trx('orders').where({ id: orderId }).update({ status: 'void', void_reason: reason });
-    const declined = await trx('payments')
-      .where({ order_id: orderId, status: 'declined' })
-      .whereNotNull('provider_id')
-      .select('id', 'provider_id');
-    await trx('payments').whereIn('id', declined.map((d) => d.id)).update({ status: 'canceled', updated_at: at });
+    const declined = await trx('payments').where({ order_id: orderId, status: 'declined' }).whereNotNull('provider_id').select('id', 'provider_id');
+    await trx('payments')
+      .whereIn(
+        'id',
+        declined.map((d) => d.id),
+      )
+      .update({ status: 'canceled', updated_at: at });
     const ticket = await loadTicket(trx, orderId);
     const event = await appendEvent(trx, user.locationId, 'order.voided', ticket, at, user.id);
     return { result: { order: await loadOrder(trx, orderId), toCancel: declined.map((d) => d.provider_id as string) }, events: [event] };

@@ -1,16 +1,16 @@
-import { createOrderBody, idParam, ordersQuery, refundBody, voidBody } from '../../src/domain/schemas';
-import { waitNowQuery } from '../../src/domain/wait-now';
-import { userOf } from '../auth/guards';
-import { HttpError, notFound, parse } from '../errors';
-import { GatewayUnavailable } from '../payments/gateway';
-import { handlePaymentWebhook } from '../payments/card-settle';
-import type { Deps } from '../deps';
+import { createOrderBody, idParam, ordersQuery, refundBody, voidBody } from '@/domain/schemas';
+import { waitNowQuery } from '@/domain/wait-now';
+import { userOf } from '@server/auth/guards';
+import { HttpError, notFound, parse } from '@server/errors';
+import { GatewayUnavailable } from '@server/payments/gateway';
+import { handlePaymentWebhook } from '@server/payments/card-settle';
+import type { Deps } from '@server/deps';
 import { createOrder } from './orders';
 import { findOrderInLocation, listOrders, loadOrder } from './order-views';
 import { waitNowForCounter } from './quotes';
 import { mailReceiptWithOrder } from './receipts';
 import { refundOrder, voidOrder } from './refunds';
-import type { ApiRoute } from '../routes';
+import type { ApiRoute } from '@server/routes';
 
 export const WEBHOOK_PATH = '/webhooks/payments';
 

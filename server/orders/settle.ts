@@ -2,8 +2,8 @@
 // (now or when its late answer arrives), or in cash after a declined card. Settling fires it: an
 // order with bar drinks goes to the Bar (open); an order of counter items only is collected at
 // the till at once (collected, and ready at the same moment).
-import { invalid } from '../domain-errors';
-import type { Db } from '../db/knex';
+import { invalid } from '@server/domain-errors';
+import type { Db } from '@server/db/knex';
 
 /** The order's columns once it is paid and fired at `at`. */
 export function settledColumns(hasBarDrinks: boolean, at: string) {

@@ -3,21 +3,14 @@
 // and "settle", which asks the card service about every line still open and applies its answer
 // (a charge is recorded against its order or given back; nothing is left unknown).
 import type { Knex } from 'knex';
-import {
-  reconcileDay,
-  type AttemptLine,
-  type CardCheckView,
-  type ProviderCharge,
-  type ProviderRefundLine,
-  type RefundLine,
-} from '../../src/domain/card-check';
-import { notSetUp, upstreamFailed } from '../domain-errors';
+import { reconcileDay, type AttemptLine, type CardCheckView, type ProviderCharge, type ProviderRefundLine, type RefundLine } from '@/domain/card-check';
+import { notSetUp, upstreamFailed } from '@server/domain-errors';
 import { GatewayRefused, GatewayUnavailable, type ChargeState } from './gateway';
 import { applyChargeState, settleOpenAttempts } from './card-settle';
-import type { Deps } from '../deps';
-import { businessDate } from '../../src/domain/business-date';
-import { dayBounds } from '../reports/local-hours';
-import { loadReportLocation } from '../reports/scope';
+import type { Deps } from '@server/deps';
+import { businessDate } from '@/domain/business-date';
+import { dayBounds } from '@server/reports/local-hours';
+import { loadReportLocation } from '@server/reports/scope';
 
 async function juglineSide(db: Knex, locationId: number, [from, to]: [string, string]) {
   const attempts: AttemptLine[] = (

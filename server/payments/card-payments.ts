@@ -5,15 +5,15 @@
 // "unknown" until the card service says what happened (its webhook, or Jugline asking before the
 // order's money is touched again: the next card, cash or a void). The order is fired to the bar
 // only once its payment has succeeded.
-import type { OrderView, SessionUser } from '../../src/domain/types';
-import { lockingRead } from '../db/dialect';
-import { isUniqueViolation } from '../db/rows';
-import { conflict, declined, notFound, notSetUp, upstreamFailed } from '../domain-errors';
+import type { OrderView, SessionUser } from '@/domain/types';
+import { lockingRead } from '@server/db/dialect';
+import { isUniqueViolation } from '@server/db/rows';
+import { conflict, declined, notFound, notSetUp, upstreamFailed } from '@server/domain-errors';
 import { CardDeclined, GatewayRefused, type ChargeState } from './gateway';
 import { applyChargeState, markAttempt, settleOpenAttempts } from './card-settle';
-import type { Deps } from '../deps';
-import { loadLocation } from '../menu/menu';
-import { loadOrder } from '../orders/order-views';
+import type { Deps } from '@server/deps';
+import { loadLocation } from '@server/menu/menu';
+import { loadOrder } from '@server/orders/order-views';
 
 async function startAttempt(deps: Deps, user: SessionUser, orderId: number) {
   return deps.db.transaction(async (trx) => {

@@ -4,15 +4,15 @@
 // answer, the webhook, the next attempt at the Counter, a void and the lead's card check all come
 // through here, possibly at the same moment for the same attempt: each decision is one
 // transaction that re-reads the attempt, so the first decides and the rest find it done.
-import { AUTO_REFUND_REASON, autoRefundCause, type AutoRefundCause } from '../../src/domain/card-check';
-import { isUniqueViolation } from '../db/rows';
-import { conflict } from '../domain-errors';
+import { AUTO_REFUND_REASON, autoRefundCause, type AutoRefundCause } from '@/domain/card-check';
+import { isUniqueViolation } from '@server/db/rows';
+import { conflict } from '@server/domain-errors';
 import { GatewayRefused, GatewayUnavailable, type ChargeState, type PaymentGateway } from './gateway';
-import { lockingRead } from '../db/dialect';
-import type { Deps } from '../deps';
-import { appendEvent, runCommand } from '../events';
-import { fireOrder } from '../orders/settle';
-import { loadTicket } from '../tickets/ticket-views';
+import { lockingRead } from '@server/db/dialect';
+import type { Deps } from '@server/deps';
+import { appendEvent, runCommand } from '@server/events';
+import { fireOrder } from '@server/orders/settle';
+import { loadTicket } from '@server/tickets/ticket-views';
 
 /** Longer than the SDK's three tries with their timeouts: a "processing" attempt this old was cut off. */
 export const STALE_PROCESSING_MS = 2 * 60_000;
@@ -35,7 +35,8 @@ const nowIso = (deps: Deps) => deps.clock().toISOString();
 
 /** Mark an attempt, only if it is still in one of `from` (another path may have settled it). */
 export async function markAttempt(deps: Deps, paymentId: number, from: string[], fields: Record<string, unknown>) {
-  return deps.db('payments')
+  return deps
+    .db('payments')
     .where({ id: paymentId })
     .whereIn('status', from)
     .update({ ...fields, updated_at: nowIso(deps) });
@@ -45,7 +46,9 @@ export async function markAttempt(deps: Deps, paymentId: number, from: string[],
 async function recordGivenBack(deps: Deps, r: GiveBack, refundProviderId: string) {
   await deps.db.transaction(async (trx) => {
     await trx('refunds').where({ id: r.refundId }).whereNull('provider_id').update({ provider_id: refundProviderId });
-    await trx('payments').where({ id: r.paymentId, status: 'refunding' }).update({ status: 'refunded', updated_at: nowIso(deps) });
+    await trx('payments')
+      .where({ id: r.paymentId, status: 'refunding' })
+      .update({ status: 'refunded', updated_at: nowIso(deps) });
   });
 }
 
@@ -174,7 +177,8 @@ async function settleAttempt(deps: Deps, p: { id: number; provider_id: string | 
 /** An attempt still "processing" long after any call could take was cut off (a restart mid-call): its outcome is unknown. */
 export async function releaseStaleAttempts(deps: Deps, orderId: number) {
   const cutoff = new Date(deps.clock().getTime() - STALE_PROCESSING_MS).toISOString();
-  await deps.db('payments')
+  await deps
+    .db('payments')
     .where({ order_id: orderId, method: 'card', status: 'processing' })
     .andWhere('updated_at', '<', cutoff)
     .update({ status: 'unknown', updated_at: nowIso(deps) });
@@ -188,7 +192,8 @@ export async function releaseStaleAttempts(deps: Deps, orderId: number) {
 export async function settleOpenAttempts(deps: Deps, orderId: number): Promise<boolean> {
   if (!deps.payments) return true;
   await releaseStaleAttempts(deps, orderId);
-  const open = await deps.db('payments')
+  const open = await deps
+    .db('payments')
     .where({ order_id: orderId, method: 'card' })
     .whereIn('status', ['unknown', 'refunding'])
     .orderBy('id')

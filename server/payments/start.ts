@@ -1,6 +1,6 @@
 // Card payments for this process: the real provider when keys are configured, otherwise the
 // local fake on loopback, so dev, tests and the demo take cards with no outside service.
-import { startPaymentFake, type PaymentFake } from '../fakes/payment-fake';
+import { startPaymentFake, type PaymentFake } from '@server/fakes/payment-fake';
 import { createStripeGateway, type PaymentGateway } from './gateway';
 
 export interface Payments {

@@ -3,8 +3,8 @@
 // was most of the server's time per order (see BENCHMARKS.md). A Pickup screen faces customers
 // and gets the Pickup shape of the same event (src/domain/pickup.ts), whatever the role of the
 // session that set it up; every other screen gets the full event.
-import { pickupEvent, pickupView, type PickupServerMessage } from '../../src/domain/pickup';
-import type { AnyLiveEvent, BoardSnapshot, ServerMessage } from '../../src/domain/types';
+import { pickupEvent, pickupView, type PickupServerMessage } from '@/domain/pickup';
+import type { AnyLiveEvent, BoardSnapshot, ServerMessage } from '@/domain/types';
 
 export type Audience = 'staff' | 'pickup';
 

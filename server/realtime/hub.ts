@@ -1,6 +1,6 @@
 // The realtime hub: services publish committed events, sockets subscribe per location.
 // Kept behind this small interface so a broker-backed hub (several processes) is one module.
-import type { AnyLiveEvent } from '../../src/domain/types';
+import type { AnyLiveEvent } from '@/domain/types';
 
 export type EventListener = (event: AnyLiveEvent) => void;
 

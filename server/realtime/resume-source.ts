@@ -5,10 +5,10 @@
 // reused while no new event has been logged — for a few seconds at most, so a snapshot's `now`
 // and the Pickup board's ready timeout stay current. Snapshot frames are kept beside it, one per
 // audience (see frames.ts).
-import type { AnyLiveEvent, BoardSnapshot } from '../../src/domain/types';
-import type { Deps } from '../deps';
-import { eventsSince, latestSeq, moreEventsThan } from '../events';
-import { boardSnapshot } from '../tickets/tickets';
+import type { AnyLiveEvent, BoardSnapshot } from '@/domain/types';
+import type { Deps } from '@server/deps';
+import { eventsSince, latestSeq, moreEventsThan } from '@server/events';
+import { boardSnapshot } from '@server/tickets/tickets';
 import { snapshotFrames, type Audience } from './frames';
 
 /** How long a computed snapshot or replay is reused while the log has not moved. */
@@ -17,8 +17,7 @@ export const REUSE_MS = 5_000;
 const KEPT_REPLAYS = 16;
 
 export type ResumeAnswer =
-  | { kind: 'replay'; events: AnyLiveEvent[] }
-  | { kind: 'snapshot'; snapshot: BoardSnapshot; frame: (audience: Audience, nowIso: string) => string };
+  { kind: 'replay'; events: AnyLiveEvent[] } | { kind: 'snapshot'; snapshot: BoardSnapshot; frame: (audience: Audience, nowIso: string) => string };
 
 type SharedSnapshot = Extract<ResumeAnswer, { kind: 'snapshot' }>;
 
@@ -78,7 +77,11 @@ export function createResumeSource(deps: Deps, maxReplay: number): ResumeSource 
       let replay = shared.replays.get(since);
       if (!replay) {
         replay = readReplay(locationId, since);
-        if (shared.replays.size < KEPT_REPLAYS) shared.replays.set(since, keep(replay, () => shared.replays.delete(since)));
+        if (shared.replays.size < KEPT_REPLAYS)
+          shared.replays.set(
+            since,
+            keep(replay, () => shared.replays.delete(since)),
+          );
       }
       const events = await replay;
       if (events) return { kind: 'replay', events };

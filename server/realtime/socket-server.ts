@@ -4,14 +4,14 @@ import type { IncomingMessage, Server } from 'node:http';
 import type { Duplex } from 'node:stream';
 import type { RequestHandler } from 'express';
 import { WebSocket, WebSocketServer } from 'ws';
-import { can } from '../../src/domain/roles';
-import { clientMessage } from '../../src/domain/schemas';
-import { SCREENS, type ScreenId } from '../../src/domain/screens';
-import type { AnyLiveEvent, ServerMessage, SessionUser } from '../../src/domain/types';
-import { endSession, findActiveUser, policyOf, recordActivity, storedSessionExpiry } from '../auth/session';
-import { BUSY_RETRY_AFTER_SECONDS, isDatabaseBusy } from '../errors';
-import type { Deps } from '../deps';
-import { latestSeq } from '../events';
+import { can } from '@/domain/roles';
+import { clientMessage } from '@/domain/schemas';
+import { SCREENS, type ScreenId } from '@/domain/screens';
+import type { AnyLiveEvent, ServerMessage, SessionUser } from '@/domain/types';
+import { endSession, findActiveUser, policyOf, recordActivity, storedSessionExpiry } from '@server/auth/session';
+import { BUSY_RETRY_AFTER_SECONDS, isDatabaseBusy } from '@server/errors';
+import type { Deps } from '@server/deps';
+import { latestSeq } from '@server/events';
 import { eventFrame, type Audience } from './frames';
 import { createResumeSource } from './resume-source';
 import { fullBucket, hasToken, isFull, takeToken, type BucketSize, type TokenBucket } from './token-bucket';
@@ -111,11 +111,7 @@ function sendEvent(peer: Peer, event: AnyLiveEvent) {
   sendText(peer, eventFrame(event, peer.audience));
 }
 
-export function attachSocketServer(
-  server: Server,
-  deps: Deps,
-  sessionMiddleware: RequestHandler,
-): SocketServer {
+export function attachSocketServer(server: Server, deps: Deps, sessionMiddleware: RequestHandler): SocketServer {
   const wss = new WebSocketServer({ noServer: true, maxPayload: MAX_MESSAGE_BYTES });
   const policy = policyOf(sessionMiddleware);
   const peers = new Set<Peer>();
@@ -136,9 +132,7 @@ export function attachSocketServer(
   }
 
   async function authenticate(req: IncomingMessage): Promise<SessionUser | null> {
-    await new Promise<void>((resolve, reject) =>
-      sessionMiddleware(req as never, {} as never, (err?: unknown) => (err ? reject(err) : resolve())),
-    );
+    await new Promise<void>((resolve, reject) => sessionMiddleware(req as never, {} as never, (err?: unknown) => (err ? reject(err) : resolve())));
     const id = (req as unknown as { session?: { passport?: { user?: number } } }).session?.passport?.user;
     return typeof id === 'number' ? findActiveUser(deps.db, id) : null;
   }

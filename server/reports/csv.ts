@@ -2,10 +2,10 @@
 // against formula injection, OWASP "CSV Injection"). Money as decimal amounts in the café's
 // currency (12.5 for $12.50) so a spreadsheet can add them up. The ticket list's times are the
 // café's wall clock with its offset and its words are the screen's; the report's stay ISO-8601 UTC.
-import { toCsv } from '../../src/domain/csv';
-import { hourLabel, type ReportView, type TicketHistoryRow } from '../../src/domain/reports';
-import { PERCENTILE_METHOD } from '../../src/domain/stats';
-import { localIsoWithOffset, PAYMENT_METHOD_WORDS, PAYMENT_STATUS_WORDS, TICKET_STATUS_WORDS } from '../../src/domain/ticket-words';
+import { toCsv } from '@/domain/csv';
+import { hourLabel, type ReportView, type TicketHistoryRow } from '@/domain/reports';
+import { PERCENTILE_METHOD } from '@/domain/stats';
+import { localIsoWithOffset, PAYMENT_METHOD_WORDS, PAYMENT_STATUS_WORDS, TICKET_STATUS_WORDS } from '@/domain/ticket-words';
 
 /** 790 → "7.90": two decimals, as a spreadsheet reads an amount */
 const amount = (cents: number) => (cents / 100).toFixed(2);

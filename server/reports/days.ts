@@ -10,11 +10,11 @@
 // its orders or order lines is inserted, changed or deleted, in the same transaction; it is
 // recomputed the next time a range needs it.
 import type { Knex } from 'knex';
-import { dialectOf, lockReportDays, rawRows } from '../db/dialect';
-import { json } from '../db/rows';
-import type { HourRow, OverTargetTicket, ReportView } from '../../src/domain/reports';
-import { median, summarizeWaits } from '../../src/domain/stats';
-import { businessDate } from '../../src/domain/business-date';
+import { dialectOf, lockReportDays, rawRows } from '@server/db/dialect';
+import { json } from '@server/db/rows';
+import type { HourRow, OverTargetTicket, ReportView } from '@/domain/reports';
+import { median, summarizeWaits } from '@/domain/stats';
+import { businessDate } from '@/domain/business-date';
 import { localHourSql } from './local-hours';
 import { moneyView, PAID, type ReportLocation } from './scope';
 import { HAS_WAIT, n, waitSeconds } from './sql';
@@ -211,7 +211,10 @@ export async function rangeDays(db: Knex, location: ReportLocation, from: string
           payload: JSON.stringify(p),
         }));
         for (let i = 0; i < rows.length; i += 100) {
-          await trx('report_days').insert(rows.slice(i, i + 100)).onConflict(['location_id', 'business_date']).merge();
+          await trx('report_days')
+            .insert(rows.slice(i, i + 100))
+            .onConflict(['location_id', 'business_date'])
+            .merge();
         }
         for (const [date, p] of computed) parts.set(date, p);
       }
@@ -234,7 +237,11 @@ function runs(dates: string[]): [string, string][] {
 }
 
 /** The partials (in date order) summed into the report, as the single-pass report sums its rows. */
-export function mergeDays(parts: DayPartial[], dates: string[], targetSeconds: number): Omit<ReportView, 'period' | 'currency' | 'locale' | 'timeZone' | 'targetSeconds'> {
+export function mergeDays(
+  parts: DayPartial[],
+  dates: string[],
+  targetSeconds: number,
+): Omit<ReportView, 'period' | 'currency' | 'locale' | 'timeZone' | 'targetSeconds'> {
   const t = { orders: 0, gross: 0, tax: 0, discount: 0, refunds: 0, cashOrders: 0, cashCents: 0, drinks: 0, shots: 0, dose: 0 };
   const hours = new Map<number, HourRow>();
   const milks = new Map<string, number>();
@@ -298,9 +305,7 @@ export function mergeDays(parts: DayPartial[], dates: string[], targetSeconds: n
     milkUsedMl: [...milks].map(([milk, ml]) => ({ milk, ml })).sort((a, b) => b.ml - a.ml || a.milk.localeCompare(b.milk)),
     shotsPulled: t.shots,
     coffeeUsedDg: t.dose,
-    topItems: [...items.values()]
-      .sort((a, b) => b.count - a.count || b.cents - a.cents || a.item.localeCompare(b.item))
-      .slice(0, TOP_ITEMS),
+    topItems: [...items.values()].sort((a, b) => b.count - a.count || b.cents - a.cents || a.item.localeCompare(b.item)).slice(0, TOP_ITEMS),
     hourly: [...hours.values()].filter((h) => h.orders > 0).sort((a, b) => a.hour - b.hour),
   };
 }

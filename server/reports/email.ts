@@ -1,11 +1,11 @@
 // The shift report as an e-mail for the owner: plain text and HTML, from a ReportView. Pure: the
 // caller sends it (e.g. with the Mailer when a shift closes).
-import { formatCents } from '../../src/domain/money';
-import { formatDuration } from '../../src/domain/format';
-import { formatCoffee, formatLitres, formatShare, type ReportView } from '../../src/domain/reports';
-import { cashDifferenceWords, openTicketsWords } from '../../src/domain/shift-close';
-import { PERCENTILE_METHOD } from '../../src/domain/stats';
-import { escapeHtml } from '../../src/lib/html';
+import { formatCents } from '@/domain/money';
+import { formatDuration } from '@/domain/format';
+import { formatCoffee, formatLitres, formatShare, type ReportView } from '@/domain/reports';
+import { cashDifferenceWords, openTicketsWords } from '@/domain/shift-close';
+import { PERCENTILE_METHOD } from '@/domain/stats';
+import { escapeHtml } from '@/lib/html';
 
 export interface ReportMailLocation {
   name: string;
@@ -74,7 +74,9 @@ export function shiftReportEmail(report: ReportView, location: ReportMailLocatio
         ['Closed by', cash.closedBy ?? 'still open'],
         [
           'Tickets still open at close',
-          cash.openTicketsAtClose === null ? '—' : openTicketsWords({ openTickets: cash.openTicketsAtClose, oldestWaitSeconds: cash.oldestOpenWaitSecondsAtClose }),
+          cash.openTicketsAtClose === null
+            ? '—'
+            : openTicketsWords({ openTickets: cash.openTicketsAtClose, oldestWaitSeconds: cash.oldestOpenWaitSecondsAtClose }),
         ],
       ]
     : [];
@@ -87,14 +89,7 @@ export function shiftReportEmail(report: ReportView, location: ReportMailLocatio
     ...(items.length ? [['Top items', items] as [string, Row[]]] : []),
   ];
 
-  const text = [
-    title,
-    when,
-    '',
-    ...sections.flatMap(([heading, rows]) => [heading, ...rows.map(([l, v]) => `  ${l}: ${v}`), '']),
-    note,
-    '',
-  ].join('\n');
+  const text = [title, when, '', ...sections.flatMap(([heading, rows]) => [heading, ...rows.map(([l, v]) => `  ${l}: ${v}`), '']), note, ''].join('\n');
 
   const e = escapeHtml;
   const cell = 'padding:4px 0;border-bottom:1px solid #e4ddd2';

@@ -1,8 +1,8 @@
 // Reports for the lead and the owner: a shift's or a date range's numbers, the ticket history,
 // their CSV exports and the shift report mail. The parts live in ./reports/.
 import type { Knex } from 'knex';
-import type { ReportShiftsView } from '../../src/domain/reports';
-import { businessDate } from '../../src/domain/business-date';
+import type { ReportShiftsView } from '@/domain/reports';
+import { businessDate } from '@/domain/business-date';
 import { loadReportLocation } from './scope';
 
 export { reportCsv, ticketsCsv } from './csv';

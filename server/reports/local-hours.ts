@@ -2,8 +2,8 @@
 // zones, so the zone's UTC offsets over the period (one per stretch between daylight-saving
 // changes) are worked out here with Intl and handed to strftime as '+N minutes' modifiers (on
 // PostgreSQL, the same text as an interval: one SQL for both, server/db/dialect.ts).
-import { addDays } from '../../src/domain/freshness';
-import { type Dialect, shiftedHourSql } from '../db/dialect';
+import { addDays } from '@/domain/freshness';
+import { type Dialect, shiftedHourSql } from '@server/db/dialect';
 
 const formatters = new Map<string, Intl.DateTimeFormat>();
 
@@ -27,7 +27,11 @@ function partsFormatter(timeZone: string): Intl.DateTimeFormat {
 
 /** The zone's offset from UTC at `ms`, in whole minutes (New York in winter: −300). */
 export function offsetMinutes(ms: number, timeZone: string): number {
-  const p = Object.fromEntries(partsFormatter(timeZone).formatToParts(new Date(ms)).map((x) => [x.type, x.value]));
+  const p = Object.fromEntries(
+    partsFormatter(timeZone)
+      .formatToParts(new Date(ms))
+      .map((x) => [x.type, x.value]),
+  );
   const wall = Date.UTC(+p.year, +p.month - 1, +p.day, +p.hour, +p.minute, +p.second);
   return Math.round((wall - Math.floor(ms / 1000) * 1000) / 60_000);
 }
@@ -83,7 +87,10 @@ export function localHourSql(d: Dialect, column: string, fromMs: number, toMs: n
   if (stretches.length === 1) {
     return { sql: shiftedHourSql(d, column, '?'), bindings: [modifier(stretches[0].offsetMinutes)] };
   }
-  const whens = stretches.slice(1).map(() => `WHEN ${column} < ? THEN ?`).join(' ');
+  const whens = stretches
+    .slice(1)
+    .map(() => `WHEN ${column} < ? THEN ?`)
+    .join(' ');
   const bindings: string[] = [];
   stretches.slice(1).forEach((s, i) => bindings.push(new Date(s.startMs).toISOString(), modifier(stretches[i].offsetMinutes)));
   bindings.push(modifier(stretches[stretches.length - 1].offsetMinutes));

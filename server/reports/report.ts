@@ -3,9 +3,9 @@
 // hour (drinks, milk, shots, items), the ticket waits (two numeric columns: hour and seconds, for
 // the percentiles) and the 20 longest.
 import type { Knex } from 'knex';
-import { dialectOf, rawRows } from '../db/dialect';
-import { inHourOrder, type HourRow, type OverTargetTicket, type ReportView } from '../../src/domain/reports';
-import { median, summarizeWaits } from '../../src/domain/stats';
+import { dialectOf, rawRows } from '@server/db/dialect';
+import { inHourOrder, type HourRow, type OverTargetTicket, type ReportView } from '@/domain/reports';
+import { median, summarizeWaits } from '@/domain/stats';
 import { datesBetween, mergeDays, rangeDays } from './days';
 import { localHour, localHourSql } from './local-hours';
 import { moneyView, PAID, rangeScope, shiftScope, type MoneyTotals, type Scope } from './scope';
@@ -106,9 +106,7 @@ async function lineTotals(db: Knex, s: Scope, hours: Hours) {
       items.set(r.item, it);
     }
   }
-  const topItems = [...items.values()]
-    .sort((a, b) => b.count - a.count || b.cents - a.cents || a.item.localeCompare(b.item))
-    .slice(0, TOP_ITEMS);
+  const topItems = [...items.values()].sort((a, b) => b.count - a.count || b.cents - a.cents || a.item.localeCompare(b.item)).slice(0, TOP_ITEMS);
   const milkUsedMl = [...milks].map(([milk, ml]) => ({ milk, ml })).sort((a, b) => b.ml - a.ml || a.milk.localeCompare(b.milk));
   return { ...out, topItems, milkUsedMl };
 }
@@ -117,10 +115,10 @@ async function lineTotals(db: Knex, s: Scope, hours: Hours) {
 async function waitTimes(db: Knex, s: Scope, hours: Hours): Promise<number[]> {
   const hour = hourSql(db, s);
   const rows: { h: number; w: number }[] = rawRows(
-    await db.raw(
-      `SELECT ${hour.sql} AS h, ${waitSeconds(dialectOf(db))} AS w FROM orders o WHERE ${s.where} AND ${HAS_WAIT}`,
-      [...hour.bindings, ...s.bindings],
-    ),
+    await db.raw(`SELECT ${hour.sql} AS h, ${waitSeconds(dialectOf(db))} AS w FROM orders o WHERE ${s.where} AND ${HAS_WAIT}`, [
+      ...hour.bindings,
+      ...s.bindings,
+    ]),
   );
   const all = new Array<number>(rows.length);
   const perHour = new Map<number, number[]>();

@@ -1,15 +1,15 @@
 // Reports for the lead and the owner: a shift's or a date range's numbers, the ticket history,
 // their CSV downloads, and the day's card check (with "settle", which may give money back).
 import type { Response } from 'express';
-import { cardCheckQuery, cardSettleBody } from '../../src/domain/card-check-schemas';
-import { idParam, reportRangeQuery, ticketCsvQuery, ticketHistoryQuery } from '../../src/domain/schemas';
-import { userOf } from '../auth/guards';
-import { parse } from '../errors';
-import { cardCheck, settleCardDay } from '../payments/card-check';
-import type { Deps } from '../deps';
+import { cardCheckQuery, cardSettleBody } from '@/domain/card-check-schemas';
+import { idParam, reportRangeQuery, ticketCsvQuery, ticketHistoryQuery } from '@/domain/schemas';
+import { userOf } from '@server/auth/guards';
+import { parse } from '@server/errors';
+import { cardCheck, settleCardDay } from '@server/payments/card-check';
+import type { Deps } from '@server/deps';
 import { rangeReport, reportCsv, reportShifts, shiftReport, ticketHistory, ticketRows, ticketsCsv } from './index';
 import { loadReportLocation } from './scope';
-import type { ApiRoute } from '../routes';
+import type { ApiRoute } from '@server/routes';
 
 function sendCsv(res: Response, fileName: string, csv: string) {
   res.set('Content-Type', 'text/csv; charset=utf-8');

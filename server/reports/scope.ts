@@ -1,10 +1,10 @@
 // Which orders a report covers: a shift's (orders.shift_id) or a range of café-local dates
 // (orders.business_date), always within one café. Both filters ride on an index.
 import type { Knex } from 'knex';
-import type { ReportPeriod } from '../../src/domain/reports';
-import { notFound } from '../domain-errors';
-import { businessDate } from '../../src/domain/business-date';
-import { expectedCash } from '../shifts/shifts';
+import type { ReportPeriod } from '@/domain/reports';
+import { notFound } from '@server/domain-errors';
+import { businessDate } from '@/domain/business-date';
+import { expectedCash } from '@server/shifts/shifts';
 
 export interface ReportLocation {
   id: number;

@@ -1,5 +1,5 @@
 // SQL pieces shared by the report and the ticket history (orders aliased `o`).
-import { type Dialect, secondsBetweenSql } from '../db/dialect';
+import { type Dialect, secondsBetweenSql } from '@server/db/dialect';
 
 /** Fired → ready in seconds, to the millisecond (timestamps are ISO strings). */
 export const waitSeconds = (d: Dialect) => secondsBetweenSql(d, 'o.fired_at', 'o.ready_at');
@@ -16,8 +16,7 @@ export const HAS_WAIT = `o.status <> 'void' AND o.fired_at IS NOT NULL AND o.rea
  * in orders.wait_seconds when the ticket becomes ready (settleTicket, the history generator; a
  * recall clears it), so lists sort on an index instead of working it out for every order.
  */
-export const waitOfOrder = (d: Dialect) =>
-  `CASE WHEN o.fired_at IS NOT NULL AND o.ready_at IS NOT NULL AND ${HAS_BAR_DRINK} THEN ${waitSeconds(d)} END`;
+export const waitOfOrder = (d: Dialect) => `CASE WHEN o.fired_at IS NOT NULL AND o.ready_at IS NOT NULL AND ${HAS_BAR_DRINK} THEN ${waitSeconds(d)} END`;
 
 /** Sums come back as numbers or null (SQLite) or as text for big integers (PostgreSQL); reports want numbers, 0 for "none". */
 export const n = (v: unknown): number => (v === null || v === undefined ? 0 : Number(v));

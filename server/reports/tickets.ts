@@ -1,8 +1,8 @@
 // The ticket history: every order of a café, filtered, sorted and paged in SQL.
 import type { Knex } from 'knex';
-import { caseFoldedSql, containing, containsSql, type Dialect, dialectOf, rawRows } from '../db/dialect';
-import type { TicketHistoryPage, TicketHistoryRow, TicketSort } from '../../src/domain/reports';
-import type { TicketStatus } from '../../src/domain/types';
+import { caseFoldedSql, containing, containsSql, type Dialect, dialectOf, rawRows } from '@server/db/dialect';
+import type { TicketHistoryPage, TicketHistoryRow, TicketSort } from '@/domain/reports';
+import type { TicketStatus } from '@/domain/types';
 import { BAR_DRINKS } from './sql';
 
 export interface TicketFilter {

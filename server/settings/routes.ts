@@ -1,11 +1,11 @@
 // The location's settings: name, money, tax, units, wait target, pitchers, allergen list.
-import { idParam } from '../../src/domain/schemas';
-import { pitcherBody, settingsBody } from '../../src/domain/settings-schemas';
-import { userOf } from '../auth/guards';
-import { parse } from '../errors';
-import type { Deps } from '../deps';
+import { idParam } from '@/domain/schemas';
+import { pitcherBody, settingsBody } from '@/domain/settings-schemas';
+import { userOf } from '@server/auth/guards';
+import { parse } from '@server/errors';
+import type { Deps } from '@server/deps';
 import { addPitcher, loadSettings, removePitcher, updatePitcher, updateSettings } from './settings';
-import type { ApiRoute } from '../routes';
+import type { ApiRoute } from '@server/routes';
 
 export function settingsRoutes(deps: Deps): ApiRoute[] {
   const id = (params: unknown) => parse(idParam, params, 'params').id;

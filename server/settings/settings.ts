@@ -1,16 +1,24 @@
 // The location's settings and pitchers. Each change is one transaction plus a menu.changed
 // event, so every open Counter, Bar and Pickup reloads what it shows from them.
 import type { Knex } from 'knex';
-import { allergenSwitch, type MenuEntry } from '../../src/domain/allergen-switch';
-import type { AllergenList } from '../../src/domain/allergens';
-import { defaultMinFillMl, milliToPercent, type PitcherBody, type PitcherView, type SettingsBody, type SettingsPage, type SettingsView } from '../../src/domain/settings-schemas';
-import type { SessionUser } from '../../src/domain/types';
-import { json } from '../db/rows';
-import { conflict, notFound } from '../domain-errors';
-import type { Deps } from '../deps';
-import { appendMenuChangedEvent, runCommand } from '../events';
-import { loadMenu } from '../menu/menu';
-import type { Db } from '../db/knex';
+import { allergenSwitch, type MenuEntry } from '@/domain/allergen-switch';
+import type { AllergenList } from '@/domain/allergens';
+import {
+  defaultMinFillMl,
+  milliToPercent,
+  type PitcherBody,
+  type PitcherView,
+  type SettingsBody,
+  type SettingsPage,
+  type SettingsView,
+} from '@/domain/settings-schemas';
+import type { SessionUser } from '@/domain/types';
+import { json } from '@server/db/rows';
+import { conflict, notFound } from '@server/domain-errors';
+import type { Deps } from '@server/deps';
+import { appendMenuChangedEvent, runCommand } from '@server/events';
+import { loadMenu } from '@server/menu/menu';
+import type { Db } from '@server/db/knex';
 
 const COLUMNS = {
   name: 'name',
@@ -69,8 +77,7 @@ export async function loadSettings(db: Db, locationId: number): Promise<Settings
   const settings = await loadSettingsView(db, locationId);
   const pitchers = await db('pitchers').where({ location_id: locationId }).orderBy(['capacity_ml', 'id']);
   const cups = new Map<number, Set<string>>();
-  for (const item of (await loadMenu(db, locationId)).items)
-    for (const s of item.sizes) cups.set(s.volumeMl, (cups.get(s.volumeMl) ?? new Set()).add(s.name));
+  for (const item of (await loadMenu(db, locationId)).items) for (const s of item.sizes) cups.set(s.volumeMl, (cups.get(s.volumeMl) ?? new Set()).add(s.name));
   return {
     settings,
     pitchers: pitchers.map(pitcherView),
@@ -96,12 +103,14 @@ async function menuEntries(db: Db, locationId: number): Promise<MenuEntry[]> {
   const milks = await db('milk_options').where({ location_id: locationId }).whereNull('retired_at').orderBy(['sort', 'id']);
   const items = await onSale(db, locationId, 'menu_items', 'menu_categories', 'category_id');
   const modifiers = await onSale(db, locationId, 'modifiers', 'modifier_groups', 'group_id');
-  const entry = (kind: MenuEntry['kind']) => (r: { id: number; name: string; ingredients: string }): MenuEntry => ({
-    kind,
-    id: r.id,
-    name: r.name,
-    ingredients: json<string[]>(r.ingredients, []),
-  });
+  const entry =
+    (kind: MenuEntry['kind']) =>
+    (r: { id: number; name: string; ingredients: string }): MenuEntry => ({
+      kind,
+      id: r.id,
+      name: r.name,
+      ingredients: json<string[]>(r.ingredients, []),
+    });
   return [...milks.map(entry('milk')), ...items.map(entry('item')), ...modifiers.map(entry('modifier'))];
 }
 

@@ -3,19 +3,19 @@
 // back from now across midnight too. A day's tickets are a few hundred: they are read once and
 // summarised in plain functions.
 import type { Knex } from 'knex';
-import { staffingAdvice, type ErlangResult } from '../../src/domain/erlang';
-import { fraction } from '../../src/domain/fraction';
-import { durationWords } from '../../src/domain/format';
-import { bumpShares } from '../../src/domain/make-times';
-import type { PulseView } from '../../src/domain/pulse';
-import { DEFAULT_MAKE_SECONDS, DEFAULT_WEIGHT_DRINKS, quoteWaitSeconds } from '../../src/domain/quote';
-import { median, PERCENTILE_METHOD, summarizeWaits } from '../../src/domain/stats';
-import { staffingSentence } from '../../src/domain/wait-now';
-import type { Deps } from '../deps';
-import { pulseBeanAlerts } from '../beans/alerts';
-import { loadLocation } from '../menu/menu';
-import { businessDate } from '../../src/domain/business-date';
-import { barNow, PACE_WINDOW_MS } from '../orders/quotes';
+import { staffingAdvice, type ErlangResult } from '@/domain/erlang';
+import { fraction } from '@/domain/fraction';
+import { durationWords } from '@/domain/format';
+import { bumpShares } from '@/domain/make-times';
+import type { PulseView } from '@/domain/pulse';
+import { DEFAULT_MAKE_SECONDS, DEFAULT_WEIGHT_DRINKS, quoteWaitSeconds } from '@/domain/quote';
+import { median, PERCENTILE_METHOD, summarizeWaits } from '@/domain/stats';
+import { staffingSentence } from '@/domain/wait-now';
+import type { Deps } from '@server/deps';
+import { pulseBeanAlerts } from '@server/beans/alerts';
+import { loadLocation } from '@server/menu/menu';
+import { businessDate } from '@/domain/business-date';
+import { barNow, PACE_WINDOW_MS } from '@server/orders/quotes';
 import { expectedCash, openShiftOf } from './shifts';
 
 const MIN = 60_000;
@@ -83,7 +83,12 @@ export async function pulse(deps: Deps, locationId: number): Promise<PulseView> 
     .whereNotNull('fired_at')
     .whereNot({ status: 'void' })
     .select('id', 'number', 'customer_name', 'status', 'fired_at', 'ready_at', 'quoted_wait_seconds', 'shift_id', 'business_date');
-  const drinkRows: DrinkRow[] = await pulseOrders(deps.db('order_items').join('orders', 'orders.id', 'order_items.order_id'), locationId, sinceIso, shift?.id ?? null)
+  const drinkRows: DrinkRow[] = await pulseOrders(
+    deps.db('order_items').join('orders', 'orders.id', 'order_items.order_id'),
+    locationId,
+    sinceIso,
+    shift?.id ?? null,
+  )
     .join('menu_items', 'menu_items.id', 'order_items.menu_item_id')
     .join('menu_categories', 'menu_categories.id', 'menu_items.category_id')
     .leftJoin('users', 'users.id', 'order_items.done_by')

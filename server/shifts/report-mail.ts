@@ -1,7 +1,7 @@
 // At close, the owner gets the shift report by e-mail (HTML with a plain-text part).
-import type { Deps } from '../deps';
-import { loadLocation } from '../menu/menu';
-import { shiftReport, shiftReportEmail } from '../reports/index';
+import type { Deps } from '@server/deps';
+import { loadLocation } from '@server/menu/menu';
+import { shiftReport, shiftReportEmail } from '@server/reports/index';
 
 export async function mailShiftReport(deps: Deps, locationId: number, shiftId: number): Promise<boolean> {
   if (!deps.mailer) return false;

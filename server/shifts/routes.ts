@@ -1,11 +1,11 @@
-import { baristasBody, closeShiftBody, openShiftBody } from '../../src/domain/schemas';
-import { userOf } from '../auth/guards';
-import { parse } from '../errors';
-import type { Deps } from '../deps';
+import { baristasBody, closeShiftBody, openShiftBody } from '@/domain/schemas';
+import { userOf } from '@server/auth/guards';
+import { parse } from '@server/errors';
+import type { Deps } from '@server/deps';
 import { pulse } from './pulse';
 import { mailShiftReport } from './report-mail';
 import { closeShift, openShift, setBaristas } from './shifts';
-import type { ApiRoute } from '../routes';
+import type { ApiRoute } from '@server/routes';
 
 export function shiftRoutes(deps: Deps): ApiRoute[] {
   return [

@@ -1,12 +1,12 @@
 // Shifts: the lead opens one with a cash float, the baristas on bar and the wait target, changes
 // the bar count as people move, and closes it with a cash count against what the till expects.
-import type { SessionUser, ShiftView } from '../../src/domain/types';
-import { openTicketsAt, openTicketsWarning, type OpenTicketsAtClose } from '../../src/domain/shift-close';
-import { conflict, DomainError, notFound } from '../domain-errors';
-import { isUniqueViolation } from '../db/dialect';
-import type { Deps } from '../deps';
-import { appendShiftEvent, runCommand } from '../events';
-import type { Db } from '../db/knex';
+import type { SessionUser, ShiftView } from '@/domain/types';
+import { openTicketsAt, openTicketsWarning, type OpenTicketsAtClose } from '@/domain/shift-close';
+import { conflict, DomainError, notFound } from '@server/domain-errors';
+import { isUniqueViolation } from '@server/db/dialect';
+import type { Deps } from '@server/deps';
+import { appendShiftEvent, runCommand } from '@server/events';
+import type { Db } from '@server/db/knex';
 
 type ShiftInput = { openingFloatCents: number; baristasOnBar: number; waitTargetSeconds: number };
 
@@ -84,9 +84,7 @@ function insertShift(deps: Deps, user: SessionUser, input: ShiftInput, alreadyOp
       })
       .returning('id');
     // the bar's target and the Counter's quotes follow the shift
-    await trx('locations')
-      .where({ id: user.locationId })
-      .update({ baristas_on_bar: input.baristasOnBar, wait_target_seconds: input.waitTargetSeconds });
+    await trx('locations').where({ id: user.locationId }).update({ baristas_on_bar: input.baristasOnBar, wait_target_seconds: input.waitTargetSeconds });
     const shift = await loadShift(trx, id);
     return { result: shift, events: [await appendShiftEvent(trx, user.locationId, shift, at, user.id)] };
   });
@@ -106,10 +104,11 @@ export function setBaristas(deps: Deps, user: SessionUser, baristasOnBar: number
 
 /** The café's tickets still at the bar (any shift's): how many, and how long the oldest has waited. */
 export async function openTicketsNow(db: Db, locationId: number, now: Date): Promise<OpenTicketsAtClose> {
-  const rows: { at: string }[] = await db('orders')
-    .where({ location_id: locationId, status: 'open' })
-    .select(db.raw('COALESCE(fired_at, created_at) AS at'));
-  return openTicketsAt(rows.map((r) => r.at), now);
+  const rows: { at: string }[] = await db('orders').where({ location_id: locationId, status: 'open' }).select(db.raw('COALESCE(fired_at, created_at) AS at'));
+  return openTicketsAt(
+    rows.map((r) => r.at),
+    now,
+  );
 }
 
 export function closeShift(deps: Deps, user: SessionUser, input: { countedCashCents: number; note?: string; confirmOpenTickets?: boolean }) {

@@ -5,9 +5,9 @@ import type { Server } from 'node:http';
 import path from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import express, { type Request, type RequestHandler } from 'express';
-import type { RenderResult } from '../../src/entry-server';
-import type { Api } from '../../src/lib/api';
-import type { Deps } from '../deps';
+import type { RenderResult } from '@/entry-server';
+import type { Api } from '@/lib/api';
+import type { Deps } from '@server/deps';
 import { serverApi } from './server-api';
 
 export const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
@@ -90,7 +90,10 @@ export function chunkClosure(manifest: Manifest, keys: string[]): { js: string[]
  */
 export function preloadLinks(manifest: Manifest | null, modules: string[]): string {
   if (!manifest || modules.length === 0) return '';
-  const entry = chunkClosure(manifest, Object.keys(manifest).filter((k) => manifest[k].isEntry));
+  const entry = chunkClosure(
+    manifest,
+    Object.keys(manifest).filter((k) => manifest[k].isEntry),
+  );
   const screen = chunkClosure(manifest, modules);
   const have = new Set([...entry.js, ...entry.css]);
   return [
@@ -107,16 +110,17 @@ function fill(template: string, page: Page, manifest: Manifest | null = null): s
     .replace('<!--app-state-->', () => `<script id="app-state" type="application/json">${page.state}</script>`);
 }
 
-function pageHandler(
-  deps: Deps,
-  load: (url: string) => Promise<{ template: string; render: Render; manifest?: Manifest | null }>,
-): RequestHandler {
+function pageHandler(deps: Deps, load: (url: string) => Promise<{ template: string; render: Render; manifest?: Manifest | null }>): RequestHandler {
   return async (req, res, next) => {
     try {
       const { template, render, manifest } = await load(req.originalUrl);
       const result = await render(toFetchRequest(req), serverApi(deps, req.user));
       if (result.kind === 'redirect') return res.redirect(result.status, result.location);
-      res.status(result.status).set('content-type', 'text/html; charset=utf-8').set('cache-control', 'no-store').send(fill(template, result, manifest));
+      res
+        .status(result.status)
+        .set('content-type', 'text/html; charset=utf-8')
+        .set('cache-control', 'no-store')
+        .send(fill(template, result, manifest));
     } catch (err) {
       next(err);
     }

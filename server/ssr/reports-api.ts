@@ -1,11 +1,11 @@
 // The Reports part of the screens' Api during server rendering: straight to the services.
-import { cardCheckQuery } from '../../src/domain/card-check-schemas';
-import { parse } from '../errors';
-import { reportRangeQuery, ticketHistoryQuery } from '../../src/domain/schemas';
-import type { ReportsApi } from '../../src/lib/reports-api';
-import { cardCheck } from '../payments/card-check';
-import type { Deps } from '../deps';
-import { rangeReport, reportShifts, shiftReport, ticketHistory } from '../reports';
+import { cardCheckQuery } from '@/domain/card-check-schemas';
+import { parse } from '@server/errors';
+import { reportRangeQuery, ticketHistoryQuery } from '@/domain/schemas';
+import type { ReportsApi } from '@/lib/reports-api';
+import { cardCheck } from '@server/payments/card-check';
+import type { Deps } from '@server/deps';
+import { rangeReport, reportShifts, shiftReport, ticketHistory } from '@server/reports';
 
 /** `locationId` throws 401 when nobody is signed in. Input is checked as the HTTP routes check it. */
 export function reportsServerApi(deps: Deps, locationId: () => number): ReportsApi {

@@ -1,20 +1,20 @@
 // The screens' Api during server rendering: straight to the services, as the signed-in user.
-import type { Api } from '../../src/lib/api';
-import { pickupView } from '../../src/domain/pickup';
-import type { SessionUser } from '../../src/domain/types';
-import { HttpError } from '../errors';
-import type { Deps } from '../deps';
-import { outboxView } from '../mail/outbox';
+import type { Api } from '@/lib/api';
+import { pickupView } from '@/domain/pickup';
+import type { SessionUser } from '@/domain/types';
+import { HttpError } from '@server/errors';
+import type { Deps } from '@server/deps';
+import { outboxView } from '@server/mail/outbox';
 import { beansServerApi } from './beans-api';
 import { menuAdminServerApi } from './menu-admin-api';
 import { reportsServerApi } from './reports-api';
 import { settingsServerApi } from './settings-api';
 import { teamServerApi } from './team-api';
-import { loadMenu } from '../menu/menu';
-import { findOrderInLocation, listOrders, loadOrder } from '../orders/order-views';
-import { pulse } from '../shifts/pulse';
-import { waitNowForCounter } from '../orders/quotes';
-import { boardSnapshot } from '../tickets/tickets';
+import { loadMenu } from '@server/menu/menu';
+import { findOrderInLocation, listOrders, loadOrder } from '@server/orders/order-views';
+import { pulse } from '@server/shifts/pulse';
+import { waitNowForCounter } from '@server/orders/quotes';
+import { boardSnapshot } from '@server/tickets/tickets';
 
 export function serverApi(deps: Deps, user: SessionUser | undefined): Api {
   const locationId = () => {

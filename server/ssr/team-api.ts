@@ -1,12 +1,12 @@
 // The owner's team screen: staff accounts, roles, invitations, PINs. — during server rendering, straight to the services.
-import type { TeamApi } from '../../src/lib/team-api';
-import { tokenParam } from '../../src/domain/team-schemas';
-import type { SessionUser } from '../../src/domain/types';
-import { parse } from '../errors';
-import type { Deps } from '../deps';
-import { welcomeView } from '../team/invitations';
-import { switchPeople } from '../team/pins';
-import { listTeam } from '../team/team';
+import type { TeamApi } from '@/lib/team-api';
+import { tokenParam } from '@/domain/team-schemas';
+import type { SessionUser } from '@/domain/types';
+import { parse } from '@server/errors';
+import type { Deps } from '@server/deps';
+import { welcomeView } from '@server/team/invitations';
+import { switchPeople } from '@server/team/pins';
+import { listTeam } from '@server/team/team';
 
 /** `locationId` throws 401 when nobody is signed in; `user` is the signed-in person, if any. */
 export function teamServerApi(deps: Deps, locationId: () => number, user?: () => SessionUser): TeamApi {

@@ -6,25 +6,23 @@
 // someone out at once, the owner deactivates them).
 import { createHash, randomBytes } from 'node:crypto';
 import type { Knex } from 'knex';
-import { LINK_HOURS, type LinkPurpose, type WelcomeView } from '../../src/domain/team-schemas';
-import type { SessionUser } from '../../src/domain/types';
-import { hashPassword } from '../auth/passwords';
-import { lockingRead } from '../db/dialect';
-import { bool } from '../db/rows';
-import { conflict, gone, notFound, notSetUp, upstreamFailed } from '../domain-errors';
-import type { Deps } from '../deps';
-import { runCommand } from '../events';
+import { LINK_HOURS, type LinkPurpose, type WelcomeView } from '@/domain/team-schemas';
+import type { SessionUser } from '@/domain/types';
+import { hashPassword } from '@server/auth/passwords';
+import { lockingRead } from '@server/db/dialect';
+import { bool } from '@server/db/rows';
+import { conflict, gone, notFound, notSetUp, upstreamFailed } from '@server/domain-errors';
+import type { Deps } from '@server/deps';
+import { runCommand } from '@server/events';
 import { linkMail } from './mail';
-import type { Db } from '../db/knex';
+import type { Db } from '@server/db/knex';
 
 export const newToken = () => randomBytes(32).toString('base64url');
 export const hashToken = (token: string) => createHash('sha256').update(token, 'utf8').digest('hex');
 
 /** One answer for an unknown, used, replaced or expired link, so the page gives nothing away. */
 export const linkNotValid = () =>
-  gone(
-    "This link can't be used any more: links work once, for a limited time, and a newer link replaces an older one. Ask the owner to send you a new one.",
-  );
+  gone("This link can't be used any more: links work once, for a limited time, and a newer link replaces an older one. Ask the owner to send you a new one.");
 
 export const mailUnavailable = () => notSetUp('No mail service is set up, so no link can be sent');
 
@@ -112,15 +110,7 @@ async function openLink(db: Db, token: string, now: Date) {
     .whereNull('invitations.used_at')
     .whereNull('invitations.voided_at')
     .andWhere('invitations.expires_at', '>', now.toISOString())
-    .first(
-      'invitations.id',
-      'invitations.purpose',
-      'users.id as user_id',
-      'users.name',
-      'users.username',
-      'users.active',
-      'locations.name as location_name',
-    );
+    .first('invitations.id', 'invitations.purpose', 'users.id as user_id', 'users.name', 'users.username', 'users.active', 'locations.name as location_name');
   return row && bool(row.active) ? row : null;
 }
 

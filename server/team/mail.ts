@@ -1,7 +1,7 @@
 // The mail that carries an invitation or a reset link (plain text and HTML).
-import type { LinkPurpose } from '../../src/domain/team-schemas';
-import { LINK_HOURS } from '../../src/domain/team-schemas';
-import { escapeHtml } from '../../src/lib/html';
+import type { LinkPurpose } from '@/domain/team-schemas';
+import { LINK_HOURS } from '@/domain/team-schemas';
+import { escapeHtml } from '@/lib/html';
 
 export interface LinkMailInput {
   purpose: LinkPurpose;

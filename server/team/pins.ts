@@ -2,13 +2,13 @@
 // Four to six digits are few, so the guard is the count of tries: each try is counted before the
 // PIN is checked (parallel tries can't slip past the limit), and the PIN_TRIES-th wrong one
 // locks that person's PIN for PIN_LOCK_MINUTES. The PIN itself is never logged or stored in clear.
-import { PIN_LOCK_MINUTES, PIN_TRIES, type SwitchBody, type SwitchPerson } from '../../src/domain/team-schemas';
-import type { SessionUser } from '../../src/domain/types';
-import { hashPassword, verifyPassword } from '../auth/passwords';
-import { conflict, DomainError, notFound, tooMany, unauthenticated } from '../domain-errors';
-import { lockingRead } from '../db/dialect';
-import type { Deps } from '../deps';
-import type { Db } from '../db/knex';
+import { PIN_LOCK_MINUTES, PIN_TRIES, type SwitchBody, type SwitchPerson } from '@/domain/team-schemas';
+import type { SessionUser } from '@/domain/types';
+import { hashPassword, verifyPassword } from '@server/auth/passwords';
+import { conflict, DomainError, notFound, tooMany, unauthenticated } from '@server/domain-errors';
+import { lockingRead } from '@server/db/dialect';
+import type { Deps } from '@server/deps';
+import type { Db } from '@server/db/knex';
 
 /** Wrong tries older than this are forgotten, so a slip now and then never adds up to a lock. */
 const FAILURE_MEMORY_MS = 15 * 60_000;
@@ -57,10 +57,7 @@ function lockedError(name: string, until: Date, now: Date, loc: { time_zone: str
  */
 export async function checkPinSwitch(deps: Deps, user: SessionUser, body: SwitchBody): Promise<SwitchOutcome> {
   const now = deps.clock();
-  const target = await deps.db('users')
-    .where({ id: body.userId, location_id: user.locationId, active: true })
-    .whereNotNull('pin_hash')
-    .first();
+  const target = await deps.db('users').where({ id: body.userId, location_id: user.locationId, active: true }).whereNotNull('pin_hash').first();
   if (!target) return { ok: false, wrongPin: false, error: notFound('Person with a PIN') };
   if (target.id === user.id) return { ok: false, wrongPin: false, error: conflict('You are already signed in here') };
   const loc = await deps.db('locations').where({ id: user.locationId }).first('time_zone', 'locale');

@@ -2,27 +2,18 @@
 // password; and the PIN switch of a shared terminal (which lives here, beside the PINs it checks).
 import type { Request, RequestHandler } from 'express';
 import { rateLimit } from 'express-rate-limit';
-import { idParam } from '../../src/domain/schemas';
-import {
-  newPersonBody,
-  ownPinBody,
-  personPatchBody,
-  pinBody,
-  sendLinkBody,
-  setPasswordBody,
-  switchBody,
-  tokenParam,
-} from '../../src/domain/team-schemas';
-import type { SessionUser } from '../../src/domain/types';
-import { userOf } from '../auth/guards';
-import { HttpError, parse } from '../errors';
-import { DomainError } from '../domain-errors';
-import type { Deps } from '../deps';
+import { idParam } from '@/domain/schemas';
+import { newPersonBody, ownPinBody, personPatchBody, pinBody, sendLinkBody, setPasswordBody, switchBody, tokenParam } from '@/domain/team-schemas';
+import type { SessionUser } from '@/domain/types';
+import { userOf } from '@server/auth/guards';
+import { HttpError, parse } from '@server/errors';
+import { DomainError } from '@server/domain-errors';
+import type { Deps } from '@server/deps';
 import { acceptLink, sendLink, welcomeView } from './invitations';
 import { checkPinSwitch, setOwnPin, setPin, switchPeople } from './pins';
 import { addPerson, listTeam, updatePerson } from './team';
 import { signOutEverywhere } from './sessions';
-import type { ApiRoute } from '../routes';
+import type { ApiRoute } from '@server/routes';
 
 /** Wrong PINs from one address in 15 minutes, whoever they were for. */
 export const WRONG_PINS_PER_ADDRESS = 20;
@@ -33,8 +24,7 @@ const publicUser = (u: SessionUser) => ({ id: u.id, name: u.name, role: u.role }
 const originOf = (req: Request) => `${req.protocol}://${req.get('host')}`;
 
 /** Signs the request's session in as `user` under a new session id (passport regenerates it). */
-const logIn = (req: Request, user: SessionUser) =>
-  new Promise<void>((resolve, reject) => req.logIn(user, (err) => (err ? reject(err) : resolve())));
+const logIn = (req: Request, user: SessionUser) => new Promise<void>((resolve, reject) => req.logIn(user, (err) => (err ? reject(err) : resolve())));
 
 function throttle(opts: { windowMs: number; limit: number; key?: (req: Request) => string; message: string }): RequestHandler {
   return rateLimit({

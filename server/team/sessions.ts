@@ -1,12 +1,14 @@
 // Signing a person out everywhere: their session rows go, and their live screens are told
 // (deps.sessions 'signed-out' closes the sockets opened with each session, see the socket server).
-import { dialectOf, jsonNumberSql } from '../db/dialect';
-import type { Deps } from '../deps';
-import type { Db } from '../db/knex';
+import { dialectOf, jsonNumberSql } from '@server/db/dialect';
+import type { Deps } from '@server/deps';
+import type { Db } from '@server/db/knex';
 
 /** The ids of the sessions signed in as this person (express-session rows, stored as JSON text). */
 export async function sessionIdsOf(db: Db, userId: number): Promise<string[]> {
-  const rows = await db('sessions').whereRaw(`${jsonNumberSql(dialectOf(db), 'sess', ['passport', 'user'])} = ?`, [userId]).select('sid');
+  const rows = await db('sessions')
+    .whereRaw(`${jsonNumberSql(dialectOf(db), 'sess', ['passport', 'user'])} = ?`, [userId])
+    .select('sid');
   return rows.map((r) => r.sid as string);
 }
 

@@ -2,16 +2,16 @@
 // The café keeps at least one active owner, or nobody could manage the team any more.
 import { randomBytes } from 'node:crypto';
 import type { Knex } from 'knex';
-import type { NewPersonBody, PersonPatchBody, TeamMember, TeamView } from '../../src/domain/team-schemas';
-import type { SessionUser } from '../../src/domain/types';
-import { hashPassword } from '../auth/passwords';
-import { bool, isUniqueViolation } from '../db/rows';
-import { conflict, notFound } from '../domain-errors';
-import type { Deps } from '../deps';
-import { runCommand } from '../events';
+import type { NewPersonBody, PersonPatchBody, TeamMember, TeamView } from '@/domain/team-schemas';
+import type { SessionUser } from '@/domain/types';
+import { hashPassword } from '@server/auth/passwords';
+import { bool, isUniqueViolation } from '@server/db/rows';
+import { conflict, notFound } from '@server/domain-errors';
+import type { Deps } from '@server/deps';
+import { runCommand } from '@server/events';
 import { createLink, mailLink, mailUnavailable, voidLinks } from './invitations';
 import { signOutEverywhere } from './sessions';
-import type { Db } from '../db/knex';
+import type { Db } from '@server/db/knex';
 
 function toMember(u: Record<string, any>, link: Record<string, any> | undefined, now: Date): TeamMember {
   return {
@@ -40,7 +40,10 @@ async function members(db: Db, locationId: number, now: Date, onlyId?: number): 
   if (onlyId) q.andWhere({ id: onlyId });
   const users = await q.orderBy([{ column: 'active', order: 'desc' }, { column: 'name' }]);
   const links = await db('invitations')
-    .whereIn('user_id', users.map((u) => u.id))
+    .whereIn(
+      'user_id',
+      users.map((u) => u.id),
+    )
     .whereNull('used_at')
     .whereNull('voided_at')
     .orderBy('id');

@@ -2,14 +2,14 @@
 // names, bumping them, settling their tickets and the event each ticket gets. Each runs inside
 // the command's transaction.
 import type { Knex } from 'knex';
-import { byAge } from '../../src/domain/lanes';
-import type { SessionUser, TicketEventType } from '../../src/domain/types';
-import { dialectOf } from '../db/dialect';
-import { json } from '../db/rows';
-import { conflict, notFound } from '../domain-errors';
-import { recordCoffeeUse } from '../beans/usage';
-import { appendEvent, lockCafe } from '../events';
-import { waitOfOrder } from '../reports/sql';
+import { byAge } from '@/domain/lanes';
+import type { SessionUser, TicketEventType } from '@/domain/types';
+import { dialectOf } from '@server/db/dialect';
+import { json } from '@server/db/rows';
+import { conflict, notFound } from '@server/domain-errors';
+import { recordCoffeeUse } from '@server/beans/usage';
+import { appendEvent, lockCafe } from '@server/events';
+import { waitOfOrder } from '@server/reports/sql';
 import { loadTicket } from './ticket-views';
 
 export type DrinkRow = Record<string, any>;
@@ -84,11 +84,7 @@ export async function nextBumpSeq(trx: Knex.Transaction, locationId: number): Pr
 
 /** Once every bar drink is done the ticket is ready for pickup. */
 export async function settleTicket(trx: Knex.Transaction, orderId: number, at: string) {
-  const left = await trx('order_items')
-    .where({ order_id: orderId, station: 'bar' })
-    .whereNot({ status: 'done' })
-    .count<{ n: number }>({ n: '*' })
-    .first();
+  const left = await trx('order_items').where({ order_id: orderId, station: 'bar' }).whereNot({ status: 'done' }).count<{ n: number }>({ n: '*' }).first();
   if (Number(left?.n) === 0) {
     const changed = await trx('orders').where({ id: orderId, status: 'open' }).update({ status: 'ready', ready_at: at });
     if (changed) await trx.raw(`UPDATE orders AS o SET wait_seconds = ${waitOfOrder(dialectOf(trx))} WHERE o.id = ?`, [orderId]);
@@ -125,7 +121,13 @@ export async function bumpRows(trx: Knex.Transaction, user: SessionUser, rows: D
   if (changed !== drinkIds.length) throw conflict('A drink was already bumped');
   await recordCoffeeUse(trx, user.locationId, drinkIds, at);
   for (const orderId of new Set(rows.map((r) => r.order_id))) await settleTicket(trx, orderId, at);
-  return ticketEvents(trx, user, rows.map((r) => r.order_id), 'drink.bumped', at);
+  return ticketEvents(
+    trx,
+    user,
+    rows.map((r) => r.order_id),
+    'drink.bumped',
+    at,
+  );
 }
 
 /** Queued → being made, conditionally: a drink another screen started first makes the command 409. */

@@ -4,13 +4,13 @@
 // the screen showed in it, and bumps exactly those, or answers 409 when the jug's drinks still on
 // the bar are not those any more. Each is one transaction plus its events.
 import type { Knex } from 'knex';
-import { jugBumpProblem, jugToStart } from '../../src/domain/jug-commands';
-import type { SessionUser } from '../../src/domain/types';
-import { conflict, notFound } from '../domain-errors';
+import { jugBumpProblem, jugToStart } from '@/domain/jug-commands';
+import type { SessionUser } from '@/domain/types';
+import { conflict, notFound } from '@server/domain-errors';
 import { bumpRows, inLaneOrder, openDrinks, startRows, ticketEvents, type DrinkRow } from './bar-rows';
-import type { Deps } from '../deps';
-import { runCommand } from '../events';
-import { loadJugRules } from '../menu/menu';
+import type { Deps } from '@server/deps';
+import { runCommand } from '@server/events';
+import { loadJugRules } from '@server/menu/menu';
 
 /**
  * Store these checked rows as one started jug and mark them being made. 409 when they can't be
@@ -36,7 +36,12 @@ export async function openJug(trx: Knex.Transaction, user: SessionUser, rows: Dr
       started_by: user.id,
     })
     .returning('id');
-  await startRows(trx, user, rows.map((r) => r.id), at);
+  await startRows(
+    trx,
+    user,
+    rows.map((r) => r.id),
+    at,
+  );
   await trx('jug_drinks').insert(rows.map((r) => ({ order_item_id: r.id, jug_id: jugId })));
   return jugId as number;
 }
@@ -46,7 +51,13 @@ export function startJug(deps: Deps, user: SessionUser, drinkIds: number[]) {
     const rows = await openDrinks(trx, user, drinkIds);
     const at = deps.clock().toISOString();
     const jugId = await openJug(trx, user, rows, at);
-    const { tickets, events } = await ticketEvents(trx, user, rows.map((r) => r.order_id), 'drink.started', at);
+    const { tickets, events } = await ticketEvents(
+      trx,
+      user,
+      rows.map((r) => r.order_id),
+      'drink.started',
+      at,
+    );
     return { result: { jugId, tickets }, events };
   });
 }

@@ -1,23 +1,24 @@
-import { drinkBatchBody, idParam, ticketsQuery } from '../../src/domain/schemas';
-import { pickupView } from '../../src/domain/pickup';
-import { openTickets } from '../../src/domain/tickets';
-import { userOf } from '../auth/guards';
-import { parse } from '../errors';
-import type { Deps } from '../deps';
-import { planBar } from '../../src/domain/lanes';
+import { drinkBatchBody, idParam, ticketsQuery } from '@/domain/schemas';
+import { pickupView } from '@/domain/pickup';
+import { openTickets } from '@/domain/tickets';
+import { userOf } from '@server/auth/guards';
+import { parse } from '@server/errors';
+import type { Deps } from '@server/deps';
+import { planBar } from '@/domain/lanes';
 import { acknowledgeAllergy, collectTicket, rushTicket } from './ticket-care';
 import { bumpJug, startJug } from './jugs';
 import { boardSnapshot, bumpDrink, bumpDrinks, bumpTicket, recallTicket, startDrink, startDrinks } from './tickets';
-import type { ApiRoute } from '../routes';
-
+import type { ApiRoute } from '@server/routes';
 
 type Command = typeof bumpDrink;
 
 export function ticketRoutes(deps: Deps): ApiRoute[] {
-  const command = (run: Command): ApiRoute['handler'] => async (req, res) => {
-    const { id } = parse(idParam, req.params, 'params');
-    res.json({ ticket: await run(deps, userOf(req), id) });
-  };
+  const command =
+    (run: Command): ApiRoute['handler'] =>
+    async (req, res) => {
+      const { id } = parse(idParam, req.params, 'params');
+      res.json({ ticket: await run(deps, userOf(req), id) });
+    };
   return [
     {
       method: 'get',

@@ -1,9 +1,9 @@
 // The rest of a ticket's life at the bar: the allergy read, a lead's rush, and its collection at pickup.
-import type { SessionUser } from '../../src/domain/types';
-import { json } from '../db/rows';
-import { conflict, notFound } from '../domain-errors';
-import type { Deps } from '../deps';
-import { appendEvent, runCommand } from '../events';
+import type { SessionUser } from '@/domain/types';
+import { json } from '@server/db/rows';
+import { conflict, notFound } from '@server/domain-errors';
+import type { Deps } from '@server/deps';
+import { appendEvent, runCommand } from '@server/events';
 import { loadTicket } from './ticket-views';
 
 /** A barista confirms reading the allergy before the drink can be bumped; who and when is kept. */

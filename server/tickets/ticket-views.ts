@@ -1,7 +1,7 @@
 // Reading tickets (orders with their bar drinks) into the shape the screens use.
-import type { DrinkView, JugRef, TicketView } from '../../src/domain/types';
-import { bool, json } from '../db/rows';
-import type { Db } from '../db/knex';
+import type { DrinkView, JugRef, TicketView } from '@/domain/types';
+import { bool, json } from '@server/db/rows';
+import type { Db } from '@server/db/knex';
 
 function toDrink(r: Record<string, any>): DrinkView {
   return {
@@ -51,7 +51,10 @@ export async function loadTickets(db: Db, orders: Record<string, any>[]): Promis
     .leftJoin('jug_drinks', 'jug_drinks.order_item_id', 'order_items.id')
     .leftJoin('jugs', 'jugs.id', 'jug_drinks.jug_id')
     .leftJoin('milk_options', 'milk_options.id', 'order_items.milk_id')
-    .whereIn('order_items.order_id', orders.map((o) => o.id))
+    .whereIn(
+      'order_items.order_id',
+      orders.map((o) => o.id),
+    )
     .andWhere('order_items.station', 'bar')
     .orderBy(['order_items.order_id', 'order_items.line_no'])
     .select(

@@ -1,18 +1,17 @@
 // Bar commands: start, bump and recall. Each is one transaction plus its event.
 import type { Knex } from 'knex';
-import type { BoardSnapshot, SessionUser } from '../../src/domain/types';
-import { needsJug } from '../../src/domain/jug-plan';
-import { RECALL_WINDOW_SECONDS } from '../../src/domain/timing';
-import { conflict, notFound } from '../domain-errors';
+import type { BoardSnapshot, SessionUser } from '@/domain/types';
+import { needsJug } from '@/domain/jug-plan';
+import { RECALL_WINDOW_SECONDS } from '@/domain/timing';
+import { conflict, notFound } from '@server/domain-errors';
 import { alreadyBumped, assertAllergyRead, bumpRows, nextBumpSeq, openDrinks, settleTicket, startRows, ticketEvents, ticketWords } from './bar-rows';
-import { recordCoffeeUse, returnCoffeeUse } from '../beans/usage';
-import type { Deps } from '../deps';
-import { snapshotRead } from '../db/dialect';
-import { appendEvent, latestSeq, runCommand } from '../events';
+import { recordCoffeeUse, returnCoffeeUse } from '@server/beans/usage';
+import type { Deps } from '@server/deps';
+import { snapshotRead } from '@server/db/dialect';
+import { appendEvent, latestSeq, runCommand } from '@server/events';
 import { openJug } from './jugs';
-import { loadJugRules, loadLocation } from '../menu/menu';
+import { loadJugRules, loadLocation } from '@server/menu/menu';
 import { loadBoardTickets, loadTicket } from './ticket-views';
-
 
 export async function boardSnapshot(deps: Deps, locationId: number): Promise<BoardSnapshot> {
   // One read transaction on one snapshot, so the tickets and the sequence number describe the same moment.
@@ -54,8 +53,19 @@ export function startDrinks(deps: Deps, user: SessionUser, drinkIds: number[]) {
     const at = deps.clock().toISOString();
     const steamed = rows.filter((r) => needsJug({ id: r.id, milkMl: r.milk_ml, texture: r.texture }));
     for (const row of steamed) await openJug(trx, user, [row], at);
-    await startRows(trx, user, rows.filter((r) => !steamed.includes(r)).map((r) => r.id), at);
-    const { tickets, events } = await ticketEvents(trx, user, rows.map((r) => r.order_id), 'drink.started', at);
+    await startRows(
+      trx,
+      user,
+      rows.filter((r) => !steamed.includes(r)).map((r) => r.id),
+      at,
+    );
+    const { tickets, events } = await ticketEvents(
+      trx,
+      user,
+      rows.map((r) => r.order_id),
+      'drink.started',
+      at,
+    );
     return { result: tickets, events };
   });
 }
@@ -78,7 +88,13 @@ export function bumpTicket(deps: Deps, user: SessionUser, orderId: number) {
     if (order.status !== 'open') throw conflict('This ticket has no drinks left to bump');
     const left = await trx('order_items').where({ order_id: orderId, station: 'bar' }).whereNot({ status: 'done' }).select('id');
     if (left.length === 0) throw conflict('This ticket has no drinks left to bump');
-    assertAllergyRead(await openDrinks(trx, user, left.map((d) => d.id)));
+    assertAllergyRead(
+      await openDrinks(
+        trx,
+        user,
+        left.map((d) => d.id),
+      ),
+    );
     const at = deps.clock().toISOString();
     const bumpSeq = await nextBumpSeq(trx, user.locationId);
     await trx('order_items').where({ order_id: orderId, station: 'bar', status: 'queued' }).update({ started_at: at });
@@ -86,7 +102,12 @@ export function bumpTicket(deps: Deps, user: SessionUser, orderId: number) {
       .where({ order_id: orderId, station: 'bar' })
       .whereNot({ status: 'done' })
       .update({ status: 'done', done_at: at, done_by: user.id, bump_seq: bumpSeq });
-    await recordCoffeeUse(trx, user.locationId, left.map((d) => d.id), at);
+    await recordCoffeeUse(
+      trx,
+      user.locationId,
+      left.map((d) => d.id),
+      at,
+    );
     await settleTicket(trx, orderId, at);
     const ticket = await loadTicket(trx, orderId);
     return { result: ticket, events: [await appendEvent(trx, user.locationId, 'ticket.bumped', ticket, at, user.id)] };
@@ -116,9 +137,7 @@ export function recallTicket(deps: Deps, user: SessionUser, orderId: number) {
     }
     const at = now.toISOString();
     await returnCoffeeUse(trx, orderId, last.bump_seq);
-    await trx('order_items')
-      .where({ order_id: orderId, bump_seq: last.bump_seq })
-      .update({ status: 'making', done_at: null, done_by: null, bump_seq: null });
+    await trx('order_items').where({ order_id: orderId, bump_seq: last.bump_seq }).update({ status: 'making', done_at: null, done_by: null, bump_seq: null });
     await trx('orders').where({ id: orderId }).update({ status: 'open', ready_at: null, wait_seconds: null });
     const ticket = await loadTicket(trx, orderId);
     return { result: ticket, events: [await appendEvent(trx, user.locationId, 'ticket.recalled', ticket, at, user.id)] };

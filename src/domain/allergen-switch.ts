@@ -47,7 +47,8 @@ export function allergenSwitch(entries: readonly MenuEntry[], from: AllergenList
     if (!same(before, after)) changed.push({ ...e, before, after });
     const vague = unspecifiedOf(e.ingredients);
     if (vague.length > 0) toCheck.push({ kind: e.kind, id: e.id, name: e.name, reason: `name the real ingredient for ${vague.join(', ')}` });
-    else if (e.kind === 'milk' && e.ingredients.length === 0) toCheck.push({ kind: e.kind, id: e.id, name: e.name, reason: 'no ingredients recorded: say what it is made of' });
+    else if (e.kind === 'milk' && e.ingredients.length === 0)
+      toCheck.push({ kind: e.kind, id: e.id, name: e.name, reason: 'no ingredients recorded: say what it is made of' });
   }
   return { from, to, changed, unchanged: entries.length - changed.length, toCheck };
 }

@@ -1,17 +1,7 @@
 // Published allergen lists a location chooses from. Never a home-made list.
 
 /** US major food allergens: FALCPA 2004 (FD&C Act §201(qq)) plus sesame (FASTER Act 2021). */
-export const US_ALLERGENS = [
-  'milk',
-  'eggs',
-  'fish',
-  'crustacean shellfish',
-  'tree nuts',
-  'peanuts',
-  'wheat',
-  'soybeans',
-  'sesame',
-] as const;
+export const US_ALLERGENS = ['milk', 'eggs', 'fish', 'crustacean shellfish', 'tree nuts', 'peanuts', 'wheat', 'soybeans', 'sesame'] as const;
 
 /** EU Regulation (EU) No 1169/2011, Annex II. */
 export const EU_ALLERGENS = [

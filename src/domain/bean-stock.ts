@@ -137,7 +137,12 @@ export function beanAlerts(lots: BeanLotView[]): BeanAlert[] {
       alerts.push({ lotId: lot.id, lotName: lot.name, kind: 'low', message: `${lot.name} ${where} is low: ${kg(lot.remainingDg)} left${left}` });
     }
     if (lot.freshness === 'fading' && lot.stock !== 'empty') {
-      alerts.push({ lotId: lot.id, lotName: lot.name, kind: 'fading', message: `${lot.name} ${where} is past its best: ${lot.daysSinceRoast} days since roast` });
+      alerts.push({
+        lotId: lot.id,
+        lotName: lot.name,
+        kind: 'fading',
+        message: `${lot.name} ${where} is past its best: ${lot.daysSinceRoast} days since roast`,
+      });
     }
   }
   return alerts;

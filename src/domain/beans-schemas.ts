@@ -44,8 +44,7 @@ export const beanSettingsBody = z
   .refine((s) => s.ratioMaxX10 > s.ratioMinX10, { message: 'The highest ratio must be over the lowest', path: ['ratioMaxX10'] });
 export type BeanSettingsBody = z.infer<typeof beanSettingsBody>;
 
-const grams = (max: number, what: string) =>
-  z.number(`Enter the ${what} in grams`).positive(`Enter the ${what} in grams`).max(max, `At most ${max} g`);
+const grams = (max: number, what: string) => z.number(`Enter the ${what} in grams`).positive(`Enter the ${what} in grams`).max(max, `At most ${max} g`);
 
 /** A test shot: POST /api/dial-in/shots. Grams and seconds as weighed and timed (one decimal kept). */
 export const dialInShotBody = z.object({

@@ -250,8 +250,14 @@ export function reconcileDay(input: {
     netCents: 0,
     charges: taken.length,
     refunds: refunds.length,
-    recordedCents: sum(taken.filter((a) => a.status === 'succeeded'), (a) => a.amountCents),
-    givenBackCents: sum(refunds.filter((r) => r.cause !== null), (r) => r.amountCents),
+    recordedCents: sum(
+      taken.filter((a) => a.status === 'succeeded'),
+      (a) => a.amountCents,
+    ),
+    givenBackCents: sum(
+      refunds.filter((r) => r.cause !== null),
+      (r) => r.amountCents,
+    ),
   };
   jugline.netCents = jugline.chargedCents - jugline.refundedCents;
 

@@ -76,7 +76,10 @@ export function adviseShot(shot: ShotInput, w: ShotWindow): ShotAdvice {
   const advice = (code: AdviceCode, detail: string): ShotAdvice => ({ code, good: code === 'good', ratioX10, headline: ADVICE_HEADLINE[code], detail });
   const time = formatSeconds(shot.timeDs);
   if (shot.doseDg < w.doseMinDg || shot.doseDg > w.doseMaxDg) {
-    return advice('dose', `${formatGrams(shot.doseDg)} is outside ${(w.doseMinDg / 10).toFixed(1)}–${formatGrams(w.doseMaxDg)}; weigh the dose again before you touch the grind.`);
+    return advice(
+      'dose',
+      `${formatGrams(shot.doseDg)} is outside ${(w.doseMinDg / 10).toFixed(1)}–${formatGrams(w.doseMaxDg)}; weigh the dose again before you touch the grind.`,
+    );
   }
   if (shot.timeDs < w.timeMinS * 10) return advice('fast', `${time} is under ${timeLabel(w)}.`);
   if (shot.timeDs > w.timeMaxS * 10) return advice('slow', `${time} is over ${timeLabel(w)}.`);

@@ -34,6 +34,6 @@ export function durationWords(seconds: number): string {
 /** 1 → "1st", 12 → "12th", 22 → "22nd": English ordinals, with 11th–13th. */
 export function ordinal(n: number): string {
   const teen = n % 100 >= 11 && n % 100 <= 13;
-  const suffix = teen ? 'th' : ({ 1: 'st', 2: 'nd', 3: 'rd' } as Record<number, string>)[n % 10] ?? 'th';
+  const suffix = teen ? 'th' : (({ 1: 'st', 2: 'nd', 3: 'rd' } as Record<number, string>)[n % 10] ?? 'th');
   return `${n}${suffix}`;
 }

@@ -74,7 +74,10 @@ export const isIngredient = (name: string): name is Ingredient => FACTS[name] !=
 
 /** "Cow’s Milk" or "oats " as an owner may type it → the ingredient, or null. */
 export function ingredientNamed(text: string): Ingredient | null {
-  const key = text.trim().replace(/[\u2018\u2019]/g, "'").toLowerCase();
+  const key = text
+    .trim()
+    .replace(/[\u2018\u2019]/g, "'")
+    .toLowerCase();
   return INGREDIENT_NAMES.find((n) => n.toLowerCase() === key) ?? null;
 }
 
@@ -91,8 +94,7 @@ export function allergensFrom(ingredients: readonly string[], list: AllergenList
 export const inOrder = (ingredients: readonly string[]): Ingredient[] => INGREDIENT_NAMES.filter((n) => ingredients.includes(n));
 
 /** Stand-ins for an old tag ("tree nuts (unspecified)"): the owner should name the real one. */
-export const unspecifiedOf = (ingredients: readonly string[]): Ingredient[] =>
-  inOrder(ingredients).filter((i) => (FACTS[i] as IngredientFacts).unspecified);
+export const unspecifiedOf = (ingredients: readonly string[]): Ingredient[] => inOrder(ingredients).filter((i) => (FACTS[i] as IngredientFacts).unspecified);
 
 /** The ingredients of one group, for the editor's picker. */
 export const ingredientsIn = (group: IngredientGroup): Ingredient[] => INGREDIENT_NAMES.filter((n) => INGREDIENTS[n].group === group);

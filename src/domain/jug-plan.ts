@@ -77,8 +77,7 @@ function holds(p: Pitcher, milkMl: number, steamFor: SteamedTexture, rules: JugR
 }
 
 /** The smallest pitcher that holds `milkMl` of drinks steamed for `steamFor`, if any. */
-const pitcherFor = (milkMl: number, steamFor: SteamedTexture, rules: JugRules) =>
-  bySize(rules.pitchers).find((p) => holds(p, milkMl, steamFor, rules));
+const pitcherFor = (milkMl: number, steamFor: SteamedTexture, rules: JugRules) => bySize(rules.pitchers).find((p) => holds(p, milkMl, steamFor, rules));
 
 /**
  * These drinks (lane order, oldest first; each needing a jug) as one jug, or null when they can't

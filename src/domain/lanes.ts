@@ -81,7 +81,13 @@ export function groupIntoLanes(tickets: TicketView[]): Lane[] {
   const result: Lane[] = [];
   for (const [key, { milk, cards }] of lanes) {
     cards.sort(byAge);
-    result.push({ key, milk, drinks: cards, drinkCount: cards.length, oldestFiredAt: cards.reduce((m, c) => (c.firedAt < m ? c.firedAt : m), cards[0].firedAt) });
+    result.push({
+      key,
+      milk,
+      drinks: cards,
+      drinkCount: cards.length,
+      oldestFiredAt: cards.reduce((m, c) => (c.firedAt < m ? c.firedAt : m), cards[0].firedAt),
+    });
   }
   return result.sort(byMenuOrder);
 }
@@ -123,7 +129,13 @@ export function laneJugs(cards: LaneDrink[], rules: JugRules): Jug[] {
       const { id: _id, ...pour } = drinks[0].jug!;
       return { jugId, ...pour, drinkIds: pourOrder(drinks).map((d) => d.id) };
     });
-  return [...fixed, ...planJugs(cards.filter((c) => c.status === 'queued' && !c.jug), rules)];
+  return [
+    ...fixed,
+    ...planJugs(
+      cards.filter((c) => c.status === 'queued' && !c.jug),
+      rules,
+    ),
+  ];
 }
 
 /** Lanes with their jug plan and shot plan: what the Bar shows and GET /api/bar/lanes answers. */

@@ -35,8 +35,7 @@ const name = (max: number) => plainText().min(1, 'Enter a name').max(max, `At mo
 const int = (min: number, max: number, message: string) => z.number({ error: message }).int(message).min(min, message).max(max, message);
 const cents = int(MENU_LIMITS.priceCents.min, MENU_LIMITS.priceCents.max, MESSAGES.price);
 const id = z.number().int().positive();
-const ids = (max: number, what: string) =>
-  z.array(id).max(max).refine(unique, `${what} is listed twice`);
+const ids = (max: number, what: string) => z.array(id).max(max).refine(unique, `${what} is listed twice`);
 /**
  * What it contains, from Jugline's ingredients (src/domain/ingredients.ts), stored in their order.
  * The allergens are never sent: they are worked out from these for the café's list.
@@ -213,7 +212,8 @@ export const itemForm = z
     // the price field only counts for an item without sizes
     if (f.sizes.length === 0) {
       const r = amount.safeParse(f.price);
-      if (!r.success || f.price.trim() === '') ctx.addIssue({ code: 'custom', path: ['price'], message: r.success ? 'Give a price, or add a size' : r.error.issues[0].message });
+      if (!r.success || f.price.trim() === '')
+        ctx.addIssue({ code: 'custom', path: ['price'], message: r.success ? 'Give a price, or add a size' : r.error.issues[0].message });
     }
   })
   .transform((f): ItemBody => ({

@@ -49,7 +49,7 @@ export const MENU_CSV_HELP: Record<MenuCsvColumn, string> = {
   takes_milk: 'yes or no',
   default_milk: 'milk code, e.g. WH',
   texture: 'flat, silky, foamy or cold',
-  ingredients: 'what it contains, separated by ;, e.g. wheat; cow\'s milk; egg',
+  ingredients: "what it contains, separated by ;, e.g. wheat; cow's milk; egg",
   allergens: 'worked out from the ingredients for the café’s list; may be left out or empty',
   default_size: 'yes on the size a tap picks',
 };
@@ -124,16 +124,20 @@ const column = <T>(read: Reader<T>) =>
     return value;
   });
 
-const name = (max: number, optional = false): Reader<string | null> => (t) => {
-  if (t === '') return optional ? null : new Problem('Needed');
-  if (t.length > max) return new Problem(`At most ${max} characters`);
-  return isPlainText(t) ? t : new Problem(PLAIN_TEXT_MESSAGE);
-};
-const whole = (max: number, example: string, blank: number | null | Problem): Reader<number | null> => (t) => {
-  if (t === '') return blank;
-  if (!/^\d{1,6}$/.test(t)) return new Problem(`Use a whole number, like ${example}`);
-  return Number(t) > max ? new Problem(`At most ${max}`) : Number(t);
-};
+const name =
+  (max: number, optional = false): Reader<string | null> =>
+  (t) => {
+    if (t === '') return optional ? null : new Problem('Needed');
+    if (t.length > max) return new Problem(`At most ${max} characters`);
+    return isPlainText(t) ? t : new Problem(PLAIN_TEXT_MESSAGE);
+  };
+const whole =
+  (max: number, example: string, blank: number | null | Problem): Reader<number | null> =>
+  (t) => {
+    if (t === '') return blank;
+    if (!/^\d{1,6}$/.test(t)) return new Problem(`Use a whole number, like ${example}`);
+    return Number(t) > max ? new Problem(`At most ${max}`) : Number(t);
+  };
 /** Grams with at most one decimal → tenths of a gram. */
 const grams: Reader<number> = (t) => {
   if (t === '') return 0;
@@ -174,7 +178,11 @@ export function menuCsvRowSchema(ctx: MenuCsvContext) {
     const code = t.toUpperCase();
     return ctx.milkCodes.includes(code) ? code : new Problem(`No milk with code "${t}"; the menu's milks are ${ctx.milkCodes.join(', ') || 'none yet'}`);
   };
-  const words = (t: string) => t.split(';').map((w) => w.trim()).filter(Boolean);
+  const words = (t: string) =>
+    t
+      .split(';')
+      .map((w) => w.trim())
+      .filter(Boolean);
   const ingredients: Reader<Ingredient[]> = (t) => {
     const out: Ingredient[] = [];
     for (const word of words(t)) {
@@ -225,32 +233,33 @@ export function menuCsvRowSchema(ctx: MenuCsvContext) {
       const derived = allergensFrom(r.ingredients, ctx.allergenList);
       if (r.allergens.length > 0 && !sameSet(r.allergens, derived)) {
         const says = derived.join('; ') || 'none';
-        at('allergens', `The allergens follow from the ingredients, which contain ${says} on the ${ctx.allergenList} list: change the ingredients, or leave this cell empty`);
+        at(
+          'allergens',
+          `The allergens follow from the ingredients, which contain ${says} on the ${ctx.allergenList} list: change the ingredients, or leave this cell empty`,
+        );
       }
       if (!r.takes_milk) {
         if (r.default_milk !== null) at('default_milk', 'Only for an item that takes milk (takes_milk yes)');
         if (r.milk_ml !== 0) at('milk_ml', 'Only for an item that takes milk (takes_milk yes)');
       }
     })
-    .transform(
-      (r): MenuCsvRow => ({
-        category: r.category!,
-        item: r.item!,
-        station: r.station,
-        size: r.size,
-        volumeMl: r.volume_ml,
-        priceCents: r.price,
-        shots: r.shots ?? 0,
-        doseDg: r.dose_g,
-        yieldDg: r.yield_g,
-        milkMl: r.milk_ml ?? 0,
-        takesMilk: r.takes_milk,
-        defaultMilk: r.default_milk,
-        texture: r.texture,
-        ingredients: r.ingredients,
-        defaultSize: r.default_size,
-      }),
-    );
+    .transform((r): MenuCsvRow => ({
+      category: r.category!,
+      item: r.item!,
+      station: r.station,
+      size: r.size,
+      volumeMl: r.volume_ml,
+      priceCents: r.price,
+      shots: r.shots ?? 0,
+      doseDg: r.dose_g,
+      yieldDg: r.yield_g,
+      milkMl: r.milk_ml ?? 0,
+      takesMilk: r.takes_milk,
+      defaultMilk: r.default_milk,
+      texture: r.texture,
+      ingredients: r.ingredients,
+      defaultSize: r.default_size,
+    }));
 }
 
 // ---------------------------------------------------------------- the file
@@ -260,7 +269,12 @@ const GUARDED = /^'[=+\-@\t\r\n]/;
 export const cleanCell = (text: string) => (GUARDED.test(text.trim()) ? text.trim().slice(1) : text).trim();
 
 function readHeader(header: string[], errors: RowError[]): Map<MenuCsvColumn, number> {
-  const names = header.map((h) => h.replace(/^\uFEFF/, '').trim().toLowerCase());
+  const names = header.map((h) =>
+    h
+      .replace(/^\uFEFF/, '')
+      .trim()
+      .toLowerCase(),
+  );
   const at = new Map<MenuCsvColumn, number>();
   if (names.length === 1 && names[0].includes(';')) {
     errors.push({ row: 1, column: null, message: 'The columns are separated by ";"; save the file as CSV with commas (CSV UTF-8)' });
@@ -275,7 +289,10 @@ function readHeader(header: string[], errors: RowError[]): Map<MenuCsvColumn, nu
   for (const c of MENU_CSV_COLUMNS) {
     if (at.has(c) || OPTIONAL_COLUMNS.includes(c)) continue;
     // a file from before ingredients: say what the new column is for
-    const message = c === 'ingredients' ? 'Column missing from the first row: list what each item contains (e.g. wheat; egg); the allergens follow from it' : 'Column missing from the first row';
+    const message =
+      c === 'ingredients'
+        ? 'Column missing from the first row: list what each item contains (e.g. wheat; egg); the allergens follow from it'
+        : 'Column missing from the first row';
     errors.push({ row: 1, column: c, message });
   }
   return at;
@@ -315,7 +332,8 @@ export function readMenuCsv(parsed: Papa.ParseResult<string[]>, ctx: MenuCsvCont
     rows.push({ row, cells, data: result.success ? result.data : null });
   });
   if (rows.length === 0) errors.push({ row: 2, column: null, message: 'The file has no rows under the column names' });
-  if (rows.length > MENU_CSV_MAX_ROWS) errors.push({ row: rows[MENU_CSV_MAX_ROWS].row, column: null, message: `At most ${MENU_CSV_MAX_ROWS} rows in one file` });
+  if (rows.length > MENU_CSV_MAX_ROWS)
+    errors.push({ row: rows[MENU_CSV_MAX_ROWS].row, column: null, message: `At most ${MENU_CSV_MAX_ROWS} rows in one file` });
   errors.push(...checkAcrossRows(rows));
   return { rows, errors: errors.sort((a, b) => a.row - b.row) };
 }
@@ -384,7 +402,11 @@ function checkAcrossRows(rows: ReadRow[]): RowError[] {
       else seen.set(sizeKey, row);
       if (row === first.row) continue;
       if ((data.size === null) !== (first.data.size === null)) {
-        errors.push({ row, column: 'size', message: `Give every row of ${item.name} a size, or none (row ${first.row} ${first.data.size === null ? 'has none' : 'has one'})` });
+        errors.push({
+          row,
+          column: 'size',
+          message: `Give every row of ${item.name} a size, or none (row ${first.row} ${first.data.size === null ? 'has none' : 'has one'})`,
+        });
       }
       for (const [col, label, value] of ITEM_FIELDS) {
         if (value(data) !== value(first.data)) {
@@ -425,7 +447,17 @@ export function menuCsvCells(menu: MenuView): MenuCsvCells[] {
         allergens: item.allergens.join('; '),
       };
       if (item.sizes.length === 0) {
-        out.push({ ...common, size: '', volume_ml: '', price: priceText(item.priceCents ?? 0), shots: String(item.shots), dose_g: '', yield_g: '', milk_ml: '', default_size: 'no' });
+        out.push({
+          ...common,
+          size: '',
+          volume_ml: '',
+          price: priceText(item.priceCents ?? 0),
+          shots: String(item.shots),
+          dose_g: '',
+          yield_g: '',
+          milk_ml: '',
+          default_size: 'no',
+        });
       }
       for (const s of item.sizes) {
         out.push({

@@ -28,11 +28,7 @@ export interface OrderTotals {
   totalCents: number;
 }
 
-export function orderTotals(
-  lineCents: number[],
-  location: { taxRateMilliPct: number; taxMode: 'exclusive' | 'inclusive' },
-  discountCents = 0,
-): OrderTotals {
+export function orderTotals(lineCents: number[], location: { taxRateMilliPct: number; taxMode: 'exclusive' | 'inclusive' }, discountCents = 0): OrderTotals {
   const subtotalCents = lineCents.reduce((a, b) => a + b, 0);
   const discount = Math.min(Math.max(0, discountCents), subtotalCents); // never more than the order
   const taxable = subtotalCents - discount;

@@ -37,10 +37,7 @@ export function resolveLine(menu: MenuView, input: OrderLineInput): LineResult {
 
   let size: SizeView | null = null;
   if (item.sizes.length > 0) {
-    size =
-      input.sizeId === undefined
-        ? (item.sizes.find((s) => s.isDefault) ?? item.sizes[0])
-        : (item.sizes.find((s) => s.id === input.sizeId) ?? null);
+    size = input.sizeId === undefined ? (item.sizes.find((s) => s.isDefault) ?? item.sizes[0]) : (item.sizes.find((s) => s.id === input.sizeId) ?? null);
     if (!size) return fail('sizeId', `${item.name} has no size ${input.sizeId}`);
   } else if (input.sizeId !== undefined) {
     return fail('sizeId', `${item.name} comes in one size`);
@@ -78,11 +75,7 @@ export function resolveLine(menu: MenuView, input: OrderLineInput): LineResult {
   // A milk costs extra only as a swap: the drink's own milk is in its price (a drink made with oat
   // by default is sold at its menu price). Common practice for alternative-milk charges.
   const milkCharge = milk && milk.id !== item.defaultMilkId ? milk.upchargeCents : 0;
-  const priceCents =
-    base +
-    milkCharge +
-    extraShots * menu.location.extraShotCents +
-    modifiers.reduce((sum, m) => sum + m.priceCents, 0);
+  const priceCents = base + milkCharge + extraShots * menu.location.extraShotCents + modifiers.reduce((sum, m) => sum + m.priceCents, 0);
 
   return {
     ok: true,

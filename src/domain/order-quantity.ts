@@ -56,7 +56,6 @@ export function groupOrderLines(lines: readonly OrderLineView[]): LineGroup[] {
   return [...groups.values()];
 }
 
-
 /** "3 drinks", "1 drink, 2 items": bar drinks and other items counted apart, by cup. */
 export function orderCountLabel(menu: MenuView, items: readonly OrderLineInput[]): string {
   let drinks = 0;

@@ -40,8 +40,7 @@ export function pickupLayout(making: number, ready: number, space: PickupSpace):
     if (mShort <= 0 && rShort <= 0) {
       if (making >= ready) m++;
       else r++;
-    }
-    else if (mShort >= rShort) m++;
+    } else if (mShort >= rShort) m++;
     else r++;
   }
   return { making: fill(making, m, rows), ready: fill(ready, r, rows) };

@@ -24,8 +24,7 @@ export interface PickupBoard {
 
 /** A ticket event carries the Pickup ticket; any other event only moves the screen's place in the log. */
 export type PickupEvent =
-  | { seq: number; type: TicketEventType; at: string; ticket: PickupTicket }
-  | { seq: number; type: Exclude<EventType, TicketEventType>; at: string };
+  { seq: number; type: TicketEventType; at: string; ticket: PickupTicket } | { seq: number; type: Exclude<EventType, TicketEventType>; at: string };
 
 /** What the server sends a Pickup socket (the same as ServerMessage, in the Pickup shape). */
 export type PickupServerMessage =

@@ -6,7 +6,6 @@ import type { WaitNow } from './wait-now';
 
 export type { WaitSummary };
 
-
 export interface PulseWindow {
   label: string;
   minutes: number | null; // null: the whole shift (or day)

@@ -24,8 +24,7 @@ export interface QuoteInput {
 }
 
 /** Mean make time per drink per barista in seconds: the measured pace, steadied by the default. */
-export const meanMakeSeconds = (pace: BarPace) =>
-  (pace.totalMs / 1000 + DEFAULT_WEIGHT_DRINKS * DEFAULT_MAKE_SECONDS) / (pace.drinks + DEFAULT_WEIGHT_DRINKS);
+export const meanMakeSeconds = (pace: BarPace) => (pace.totalMs / 1000 + DEFAULT_WEIGHT_DRINKS * DEFAULT_MAKE_SECONDS) / (pace.drinks + DEFAULT_WEIGHT_DRINKS);
 
 /**
  * The order is ready when the last of its drinks is: the drinks ahead and its own shared among the

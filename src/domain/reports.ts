@@ -138,7 +138,6 @@ export function formatCoffee(dg: number, locale = 'en-US'): string {
   return `${new Intl.NumberFormat(locale, { minimumFractionDigits: 2, maximumFractionDigits: 2 }).format(grams / 1000)} kg`;
 }
 
-
 /** 0.125 → "12.5 %"; null → "—". */
 export function formatShare(share: number | null, locale = 'en-US'): string {
   if (share === null) return '—';

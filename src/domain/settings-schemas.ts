@@ -66,7 +66,9 @@ export function percentToMilli(text: string): number | null {
 /** 8250 → "8.25", 8000 → "8", 8875 → "8.875". */
 export function milliToPercent(milli: number): string {
   const whole = Math.floor(milli / 1000);
-  const frac = String(milli % 1000).padStart(3, '0').replace(/0+$/, '');
+  const frac = String(milli % 1000)
+    .padStart(3, '0')
+    .replace(/0+$/, '');
   return frac ? `${whole}.${frac}` : String(whole);
 }
 
@@ -84,11 +86,10 @@ export const localeField = plainText()
   .min(1, 'Enter a locale such as en-US')
   .max(35)
   .transform((v, ctx) => canonicalLocale(v) ?? custom(ctx, 'Not a locale this system can format for; use one like en-US or de-DE'));
-export const currencyField = plainText()
-  .transform((v, ctx) => {
-    const problem = currencyProblem(v);
-    return problem ? custom(ctx, problem) : v;
-  });
+export const currencyField = plainText().transform((v, ctx) => {
+  const problem = currencyProblem(v);
+  return problem ? custom(ctx, problem) : v;
+});
 /** Percent as typed (a string) or sent as a JSON number: up to 3 decimals, 0–100. */
 export const taxRatePercentField = z
   .union([z.string().max(10), z.number().finite()])
@@ -101,7 +102,9 @@ export const receiptFooterField = plainText()
 const int = (min: number, max: number, what: string) =>
   z
     .number({ error: `${what}: enter a number` })
-    .int(`${what}: a whole number`).min(min, `${what}: at least ${min}`).max(max, `${what}: at most ${max}`);
+    .int(`${what}: a whole number`)
+    .min(min, `${what}: at least ${min}`)
+    .max(max, `${what}: at most ${max}`);
 
 export const SETTINGS_FIELDS = {
   name: cafeNameField,
@@ -140,7 +143,11 @@ export const pitcherBody = z
   .strictObject({
     capacityMl: int(PITCHER_CAPACITY_ML.min, PITCHER_CAPACITY_ML.max, 'Capacity in ml'),
     fillLineMl: z.number({ error: 'Fill line in ml: enter a number' }).int('Fill line in ml: a whole number').positive('Fill line: above 0 ml'),
-    minFillMl: z.number({ error: 'Minimum fill in ml: enter a number' }).int('Minimum fill in ml: a whole number').positive('Minimum fill: above 0 ml').optional(),
+    minFillMl: z
+      .number({ error: 'Minimum fill in ml: enter a number' })
+      .int('Minimum fill in ml: a whole number')
+      .positive('Minimum fill: above 0 ml')
+      .optional(),
   })
   .refine((p) => p.fillLineMl <= p.capacityMl, { path: ['fillLineMl'], message: 'The fill line cannot be above the capacity' })
   .refine((p) => p.minFillMl === undefined || p.minFillMl <= p.fillLineMl, { path: ['minFillMl'], message: 'The minimum cannot be above the fill line' });

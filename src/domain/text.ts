@@ -22,8 +22,4 @@ export const isPlainText = (text: string): boolean => !FORBIDDEN.test(text);
  * A free-text field: checked before it is trimmed (a trailing line break is refused too), then
  * trimmed. Chain .min/.max/.optional as with any string. `error` is the message for a non-string.
  */
-export const plainText = (error?: string) =>
-  z
-    .string(error)
-    .refine(isPlainText, PLAIN_TEXT_MESSAGE)
-    .trim();
+export const plainText = (error?: string) => z.string(error).refine(isPlainText, PLAIN_TEXT_MESSAGE).trim();

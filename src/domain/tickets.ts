@@ -10,9 +10,7 @@ type TicketState = Pick<TicketView, 'status' | 'readyAt'>;
 export const openTickets: BoardFilter<TicketState> = (t) => t.status === 'open';
 
 export function pickupBoard(timeoutSeconds: number): BoardFilter<TicketState> {
-  return (t, nowMs) =>
-    t.status === 'open' ||
-    (t.status === 'ready' && t.readyAt !== null && nowMs - Date.parse(t.readyAt) < timeoutSeconds * 1000);
+  return (t, nowMs) => t.status === 'open' || (t.status === 'ready' && t.readyAt !== null && nowMs - Date.parse(t.readyAt) < timeoutSeconds * 1000);
 }
 
 /** Any board: its place in the log and its tickets (each keyed by its row id), in its order. */
@@ -30,7 +28,13 @@ const byFired = (a: TicketView, b: TicketView) => a.firedAt.localeCompare(b.fire
  * or below the board's sequence number were already applied (a resume may repeat them), so they
  * change nothing.
  */
-export function upsertInOrder<T extends { id: number }, B extends Board<T>>(board: B, ticket: T, keep: BoardFilter<T>, nowMs: number, order: (a: T, b: T) => number): B {
+export function upsertInOrder<T extends { id: number }, B extends Board<T>>(
+  board: B,
+  ticket: T,
+  keep: BoardFilter<T>,
+  nowMs: number,
+  order: (a: T, b: T) => number,
+): B {
   const others = board.tickets.filter((t) => t.id !== ticket.id);
   const tickets = keep(ticket, nowMs) ? [...others, ticket].sort(order) : others;
   return { ...board, tickets };

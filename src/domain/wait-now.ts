@@ -14,7 +14,10 @@ export const waitNowQuery = z.object({ drinks: z.coerce.number().int().min(0).ma
 export type CounterWaitNow = Omit<WaitNow, 'withOneMoreSeconds'>;
 
 /** "about 6 min": a wait said in whole minutes, rounded up, as the Counter tells a customer. */
-export const aboutMinutes = (seconds: number) => quoteLabel(seconds).replace(/^About/, 'about').replace('Ready now', 'no wait');
+export const aboutMinutes = (seconds: number) =>
+  quoteLabel(seconds)
+    .replace(/^About/, 'about')
+    .replace('Ready now', 'no wait');
 
 const drinksWord = (n: number) => (n === 1 ? '1 drink' : `${n} drinks`);
 

@@ -1,11 +1,11 @@
 // What screens read, as one interface: over HTTP in the browser, straight from the services
 // during server rendering (so a page render makes no network round trip).
-import type { OutboxView } from '../domain/outbox';
-import type { PickupBoard } from '../domain/pickup';
-import type { PulseView } from '../domain/pulse';
-import type { CounterWaitNow } from '../domain/wait-now';
-import type { Role } from '../domain/roles';
-import type { BoardSnapshot, MenuView, OrderView } from '../domain/types';
+import type { OutboxView } from '@/domain/outbox';
+import type { PickupBoard } from '@/domain/pickup';
+import type { PulseView } from '@/domain/pulse';
+import type { CounterWaitNow } from '@/domain/wait-now';
+import type { Role } from '@/domain/roles';
+import type { BoardSnapshot, MenuView, OrderView } from '@/domain/types';
 import { http } from './http';
 import { httpBeansApi, type BeansApi } from './beans-api';
 import { httpMenuAdminApi, type MenuAdminApi } from './menu-admin-api';

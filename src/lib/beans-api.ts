@@ -1,8 +1,8 @@
 // Bean lots with their freshness and stock, and the dial-in log.
 // Over HTTP in the browser; server/ssr/beans-api.ts is the server-rendering side.
-import type { BeanLotView, BeanSettingsView } from '../domain/bean-stock';
-import type { BeanLotBody, BeanSettingsBody, DialInShotBody } from '../domain/beans-schemas';
-import type { DialInShotView, ShotAdvice, ShotWindow } from '../domain/dial-in';
+import type { BeanLotView, BeanSettingsView } from '@/domain/bean-stock';
+import type { BeanLotBody, BeanSettingsBody, DialInShotBody } from '@/domain/beans-schemas';
+import type { DialInShotView, ShotAdvice, ShotWindow } from '@/domain/dial-in';
 import { http } from './http';
 
 export interface BeansView {

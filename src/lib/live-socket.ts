@@ -1,9 +1,9 @@
 // The screen's end of the live socket: connects, says where it is (resume from the last seq),
 // hands events on, answers heartbeats, and reconnects with backoff when the line drops. A session
 // that has ended (signed out, or timed out) sends the screen to sign-in.
-import { SCREENS, type ScreenId } from '../domain/screens';
-import type { PickupServerMessage } from '../domain/pickup';
-import type { AnyLiveEvent, BoardSnapshot, ServerMessage } from '../domain/types';
+import { SCREENS, type ScreenId } from '@/domain/screens';
+import type { PickupServerMessage } from '@/domain/pickup';
+import type { AnyLiveEvent, BoardSnapshot, ServerMessage } from '@/domain/types';
 import { goToSignIn, isLeaving, PASSIVE_REQUEST_HEADER } from './http';
 
 export type LinkState = 'connecting' | 'live' | 'offline';

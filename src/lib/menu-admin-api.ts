@@ -1,9 +1,9 @@
 // The back-office menu editor: categories, items, sizes and recipes, milks, modifiers.
 // Over HTTP in the browser; server/ssr/menu-admin-api.ts is the server-rendering side.
 // Commands run only in the browser, so they are plain HTTP calls beside the interface.
-import type { CategoryBody, ItemBody, MilkBody, ModifierBody, ModifierGroupBody } from '../domain/menu-admin-schemas';
-import type { AdminMenuView, MenuAdminResult } from '../domain/menu-admin-view';
-import type { Direction } from '../domain/menu-order';
+import type { CategoryBody, ItemBody, MilkBody, ModifierBody, ModifierGroupBody } from '@/domain/menu-admin-schemas';
+import type { AdminMenuView, MenuAdminResult } from '@/domain/menu-admin-view';
+import type { Direction } from '@/domain/menu-order';
 import { http } from './http';
 
 export interface MenuAdminApi {

@@ -1,8 +1,8 @@
 // The Reports part of the Api: over HTTP in the browser (server/ssr/reports-api.ts has the
 // server-rendering side). Query strings use the same names the routes validate.
-import type { CardCheckView } from '../domain/card-check';
-import type { ReportShiftsView, ReportView, TicketHistoryPage, TicketSort } from '../domain/reports';
-import type { TicketStatus } from '../domain/types';
+import type { CardCheckView } from '@/domain/card-check';
+import type { ReportShiftsView, ReportView, TicketHistoryPage, TicketSort } from '@/domain/reports';
+import type { TicketStatus } from '@/domain/types';
 import { http } from './http';
 
 export interface TicketHistoryParams {

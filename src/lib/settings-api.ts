@@ -1,6 +1,6 @@
 // The location's settings: name, money, tax, units, wait target, pitchers, allergen list.
 // Over HTTP in the browser; server/ssr/settings-api.ts is the server-rendering side.
-import type { PitcherBody, SettingsBody, SettingsPage } from '../domain/settings-schemas';
+import type { PitcherBody, SettingsBody, SettingsPage } from '@/domain/settings-schemas';
 import { http } from './http';
 
 /** What the settings screen reads (the server renders it from the services). */

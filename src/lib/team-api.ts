@@ -1,7 +1,7 @@
 // The owner's team screen: staff accounts, roles, invitations, PINs; the welcome page; the
 // people a terminal can switch to. Over HTTP in the browser; server/ssr/team-api.ts is the
 // server-rendering side. Commands go through src/features/team/commands.ts.
-import type { SwitchPerson, TeamView, WelcomeView } from '../domain/team-schemas';
+import type { SwitchPerson, TeamView, WelcomeView } from '@/domain/team-schemas';
 import { http } from './http';
 
 export interface TeamApi {

@@ -4,16 +4,16 @@
 // (src/domain/pickup.ts): it keeps the Pickup board and nothing else.
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
-import { applyPickupEvent, pickupEvent, pickupTicket, pickupView, upsertPickupTicket, type PickupBoard, type PickupEvent } from '../domain/pickup';
-import { applyEvent, moveSeq, upsertTicket } from '../domain/tickets';
-import { isTicketEvent, type AnyLiveEvent, type BoardSnapshot, type MenuView, type TicketView } from '../domain/types';
-import type { Api } from '../lib/api';
-import { useApi } from '../lib/api-context';
-import { connectLive, liveUrl, type LinkState } from '../lib/live-socket';
-import { syncServerClock } from '../lib/server-clock';
-import { dialInKeys } from '../queries/dial-in';
-import { menuKeys } from '../queries/menu';
-import { boardKeys } from '../queries/board';
+import { applyPickupEvent, pickupEvent, pickupTicket, pickupView, upsertPickupTicket, type PickupBoard, type PickupEvent } from '@/domain/pickup';
+import { applyEvent, moveSeq, upsertTicket } from '@/domain/tickets';
+import { isTicketEvent, type AnyLiveEvent, type BoardSnapshot, type MenuView, type TicketView } from '@/domain/types';
+import type { Api } from '@/lib/api';
+import { useApi } from '@/lib/api-context';
+import { connectLive, liveUrl, type LinkState } from '@/lib/live-socket';
+import { syncServerClock } from '@/lib/server-clock';
+import { dialInKeys } from '@/queries/dial-in';
+import { menuKeys } from '@/queries/menu';
+import { boardKeys } from '@/queries/board';
 
 /** Who a screen's socket is for: staff get full events; the Pickup screen faces customers. */
 export type Audience = 'staff' | 'pickup';
@@ -61,9 +61,7 @@ export function applyLiveEvent(qc: QueryClient, event: AnyLiveEvent, api?: Api) 
   } else if (event.type === 'menu.availability') {
     // 86 / back on: the menu tile changes at once
     const { id, available } = event.item;
-    qc.setQueryData<MenuView>(menuKeys.all, (menu) =>
-      menu && { ...menu, items: menu.items.map((i) => (i.id === id ? { ...i, available } : i)) },
-    );
+    qc.setQueryData<MenuView>(menuKeys.all, (menu) => menu && { ...menu, items: menu.items.map((i) => (i.id === id ? { ...i, available } : i)) });
   }
 }
 

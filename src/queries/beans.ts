@@ -1,6 +1,6 @@
 // Query keys and options for the owner's Beans screen.
 import { queryOptions } from '@tanstack/react-query';
-import type { Api } from '../lib/api';
+import type { Api } from '@/lib/api';
 
 export const beanKeys = {
   all: ['beans'] as const,

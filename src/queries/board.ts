@@ -1,7 +1,7 @@
 // The board (open tickets, or the Pickup board's view) is loaded once and then kept current by
 // live events, so it never goes stale by time.
 import { queryOptions } from '@tanstack/react-query';
-import type { Api } from '../lib/api';
+import type { Api } from '@/lib/api';
 
 export const boardKeys = {
   all: ['board'] as const,
@@ -10,8 +10,6 @@ export const boardKeys = {
 };
 
 /** Open tickets and those ready a short while (the bar's recall tray, the Counter's glance). */
-export const barBoardQuery = (api: Api) =>
-  queryOptions({ queryKey: boardKeys.bar, queryFn: () => api.tickets(), staleTime: Infinity });
+export const barBoardQuery = (api: Api) => queryOptions({ queryKey: boardKeys.bar, queryFn: () => api.tickets(), staleTime: Infinity });
 
-export const pickupBoardQuery = (api: Api) =>
-  queryOptions({ queryKey: boardKeys.pickup, queryFn: () => api.pickup(), staleTime: Infinity });
+export const pickupBoardQuery = (api: Api) => queryOptions({ queryKey: boardKeys.pickup, queryFn: () => api.pickup(), staleTime: Infinity });

@@ -1,6 +1,6 @@
 // Query keys and options for the card check.
 import { queryOptions } from '@tanstack/react-query';
-import type { Api } from '../lib/api';
+import type { Api } from '@/lib/api';
 
 export const cardCheckKeys = {
   all: ['card-check'] as const,

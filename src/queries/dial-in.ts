@@ -1,6 +1,6 @@
 // Query keys and options for the dial-in log and the Bar's "on the grinder" strip.
 import { queryOptions } from '@tanstack/react-query';
-import type { Api } from '../lib/api';
+import type { Api } from '@/lib/api';
 
 export const dialInKeys = {
   all: ['dial-in'] as const,

@@ -1,10 +1,10 @@
 // The import panel's and the photo upload's calls. Each success refetches the menu (the live
 // menu.changed event does the same for every other open screen).
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { MenuImportCounts, MenuImportPreview } from '../domain/menu-csv';
-import { http } from '../lib/http';
+import type { MenuImportCounts, MenuImportPreview } from '@/domain/menu-csv';
+import { http } from '@/lib/http';
 import { menuKeys } from './menu';
-import { sendFile } from '../features/menu-import/send-file';
+import { sendFile } from '@/features/menu-import/send-file';
 
 export const MENU_EXPORT_HREF = '/api/menu/export.csv';
 

@@ -1,5 +1,5 @@
 import { queryOptions } from '@tanstack/react-query';
-import type { Api } from '../lib/api';
+import type { Api } from '@/lib/api';
 
 export const pulseKeys = { all: ['pulse'] as const };
 

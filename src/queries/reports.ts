@@ -1,8 +1,8 @@
 // Query keys and options for the Reports screen.
 import { queryOptions } from '@tanstack/react-query';
-import type { Api } from '../lib/api';
-import type { TicketHistoryParams } from '../lib/reports-api';
-import type { PeriodChoice } from '../features/reports/params';
+import type { Api } from '@/lib/api';
+import type { TicketHistoryParams } from '@/lib/reports-api';
+import type { PeriodChoice } from '@/features/reports/params';
 
 export const reportKeys = {
   all: ['reports'] as const,
@@ -11,8 +11,7 @@ export const reportKeys = {
   tickets: (params: TicketHistoryParams) => ['reports', 'tickets', params] as const,
 };
 
-export const reportShiftsQuery = (api: Api) =>
-  queryOptions({ queryKey: reportKeys.shifts(), queryFn: () => api.reports.shifts(), staleTime: 30_000 });
+export const reportShiftsQuery = (api: Api) => queryOptions({ queryKey: reportKeys.shifts(), queryFn: () => api.reports.shifts(), staleTime: 30_000 });
 
 /** A shift's report, or a range's ("today" is the range from today to today). */
 export const reportQuery = (api: Api, period: Exclude<PeriodChoice, { kind: 'today' }>) =>

@@ -1,6 +1,6 @@
 // Query keys and options of the team area: the owner's list, a welcome link, the switch list.
 import { queryOptions } from '@tanstack/react-query';
-import type { Api } from '../lib/api';
+import type { Api } from '@/lib/api';
 
 export const teamKeys = {
   all: ['team'] as const,
@@ -14,5 +14,4 @@ export const teamQuery = (api: Api) => queryOptions({ queryKey: teamKeys.list(),
 export const welcomeQuery = (api: Api, token: string) =>
   queryOptions({ queryKey: teamKeys.welcome(token), queryFn: () => api.team.welcome(token), staleTime: 60_000, retry: false });
 
-export const switchPeopleQuery = (api: Api) =>
-  queryOptions({ queryKey: teamKeys.switchPeople(), queryFn: () => api.team.switchPeople(), staleTime: 30_000 });
+export const switchPeopleQuery = (api: Api) => queryOptions({ queryKey: teamKeys.switchPeople(), queryFn: () => api.team.switchPeople(), staleTime: 30_000 });

@@ -3,18 +3,18 @@
 import { useMutation, useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useCallback, useState } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
-import type { BeanLotView } from '../domain/bean-stock';
-import { SCREENS } from '../domain/screens';
-import { Button } from '../components/ui/button';
-import { StaffMenu } from '../features/team/staff-menu';
-import { dateText } from '../features/beans/format';
-import { LotForm } from '../features/beans/lot-form';
-import { LotsTable } from '../features/beans/lots-table';
-import { beanKeys, beansQuery } from '../queries/beans';
-import { BeanSettingsForm } from '../features/beans/settings-form';
-import { useApi } from '../lib/api-context';
-import { beanCommands } from '../lib/beans-api';
-import { ApiError } from '../lib/http';
+import type { BeanLotView } from '@/domain/bean-stock';
+import { SCREENS } from '@/domain/screens';
+import { Button } from '@/components/ui/button';
+import { StaffMenu } from '@/features/team/staff-menu';
+import { dateText } from '@/features/beans/format';
+import { LotForm } from '@/features/beans/lot-form';
+import { LotsTable } from '@/features/beans/lots-table';
+import { beanKeys, beansQuery } from '@/queries/beans';
+import { BeanSettingsForm } from '@/features/beans/settings-form';
+import { useApi } from '@/lib/api-context';
+import { beanCommands } from '@/lib/beans-api';
+import { ApiError } from '@/lib/http';
 import { requireScreen, type RouteDeps } from './deps';
 
 function RetireConfirm({ lot, onDone }: { lot: BeanLotView; onDone(): void }) {
@@ -38,7 +38,11 @@ function RetireConfirm({ lot, onDone }: { lot: BeanLotView; onDone(): void }) {
       <Button tone="quiet" size="lg" onClick={onDone}>
         Keep it
       </Button>
-      {retire.error && <p role="alert" className="font-semibold text-copper-700">{retire.error instanceof ApiError ? retire.error.message : 'That did not work'}</p>}
+      {retire.error && (
+        <p role="alert" className="font-semibold text-copper-700">
+          {retire.error instanceof ApiError ? retire.error.message : 'That did not work'}
+        </p>
+      )}
     </div>
   );
 }

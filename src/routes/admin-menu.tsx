@@ -3,21 +3,21 @@
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { useCallback, useMemo, useState } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
-import type { AdminItem } from '../domain/menu-admin-view';
-import { SCREENS } from '../domain/screens';
-import { Button } from '../components/ui/button';
-import { ScrollBox } from '../components/ui/scroll-box';
-import { StaffMenu } from '../features/team/staff-menu';
-import { CategoryBar } from '../features/menu-admin/category-bar';
-import { useMenuCommand } from '../features/menu-admin/commands';
-import { ExtrasPanel } from '../features/menu-admin/extras-panel';
-import { ItemForm } from '../features/menu-admin/item-form';
-import { ItemsTable, type ItemActions } from '../features/menu-admin/items-table';
-import { MilksPanel } from '../features/menu-admin/milks-panel';
-import { menuAdminQuery } from '../queries/menu-admin';
-import { MenuImportPanel } from '../features/menu-import/menu-import-panel';
-import { useApi } from '../lib/api-context';
-import { cn } from '../lib/cn';
+import type { AdminItem } from '@/domain/menu-admin-view';
+import { SCREENS } from '@/domain/screens';
+import { Button } from '@/components/ui/button';
+import { ScrollBox } from '@/components/ui/scroll-box';
+import { StaffMenu } from '@/features/team/staff-menu';
+import { CategoryBar } from '@/features/menu-admin/category-bar';
+import { useMenuCommand } from '@/features/menu-admin/commands';
+import { ExtrasPanel } from '@/features/menu-admin/extras-panel';
+import { ItemForm } from '@/features/menu-admin/item-form';
+import { ItemsTable, type ItemActions } from '@/features/menu-admin/items-table';
+import { MilksPanel } from '@/features/menu-admin/milks-panel';
+import { menuAdminQuery } from '@/queries/menu-admin';
+import { MenuImportPanel } from '@/features/menu-import/menu-import-panel';
+import { useApi } from '@/lib/api-context';
+import { cn } from '@/lib/cn';
 import { requireScreen, type RouteDeps } from './deps';
 
 type Part = 'items' | 'milks' | 'extras';
@@ -56,7 +56,8 @@ function AdminMenu() {
       busy: command.isPending,
       edit: (i) => setEditing(i),
       move: (i, d) => run((c) => c.move('items', i.id, d), `Moved ${i.name}.`),
-      setAvailable: (i, available) => run((c) => c.setAvailable(i.id, available), available ? `${i.name} is back on.` : `${i.name} is 86'd: the Counter shows it unavailable.`),
+      setAvailable: (i, available) =>
+        run((c) => c.setAvailable(i.id, available), available ? `${i.name} is back on.` : `${i.name} is 86'd: the Counter shows it unavailable.`),
       restore: (i) => run((c) => c.setRetired('items', i.id, false), `Restored ${i.name}.`),
     }),
     [command.isPending, run],
@@ -126,7 +127,14 @@ function AdminMenu() {
         <MenuImportPanel />
       </main>
       {editing && category && (
-        <ItemForm menu={menu} item={editing === 'new' ? null : editing} categoryId={category.id} command={command} notify={notify} onClose={() => setEditing(null)} />
+        <ItemForm
+          menu={menu}
+          item={editing === 'new' ? null : editing}
+          categoryId={category.id}
+          command={command}
+          notify={notify}
+          onClose={() => setEditing(null)}
+        />
       )}
     </div>
   );

@@ -3,17 +3,17 @@
 // reaches open Counters, Bars and Pickup boards through the menu.changed event.
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { Link, type LoaderFunctionArgs } from 'react-router';
-import { SCREENS } from '../domain/screens';
-import { StaffMenu } from '../features/team/staff-menu';
-import { AllergensSection } from '../features/settings/allergens-section';
-import { BarSection } from '../features/settings/bar-section';
-import { CafeSection } from '../features/settings/cafe-section';
-import { MoneySection } from '../features/settings/money-section';
-import { PitchersSection } from '../features/settings/pitchers-section';
-import { settingsQuery } from '../queries/settings';
-import { ReceiptsSection } from '../features/settings/receipts-section';
-import { UnitsSection } from '../features/settings/units-section';
-import { useApi } from '../lib/api-context';
+import { SCREENS } from '@/domain/screens';
+import { StaffMenu } from '@/features/team/staff-menu';
+import { AllergensSection } from '@/features/settings/allergens-section';
+import { BarSection } from '@/features/settings/bar-section';
+import { CafeSection } from '@/features/settings/cafe-section';
+import { MoneySection } from '@/features/settings/money-section';
+import { PitchersSection } from '@/features/settings/pitchers-section';
+import { settingsQuery } from '@/queries/settings';
+import { ReceiptsSection } from '@/features/settings/receipts-section';
+import { UnitsSection } from '@/features/settings/units-section';
+import { useApi } from '@/lib/api-context';
 import { requireScreen, type RouteDeps } from './deps';
 
 function AdminSettings() {

@@ -2,16 +2,16 @@
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
-import { SCREENS } from '../domain/screens';
-import { PIN_LOCK_MINUTES, PIN_TRIES } from '../domain/team-schemas';
-import { StaffMenu } from '../features/team/staff-menu';
-import { AddPersonForm } from '../features/team/add-person-form';
-import { useTeamCommand } from '../features/team/commands';
-import { teamQuery } from '../queries/team';
-import { TeamTable } from '../features/team/team-table';
-import { useApi } from '../lib/api-context';
-import { cn } from '../lib/cn';
-import { plural } from '../domain/plural';
+import { SCREENS } from '@/domain/screens';
+import { PIN_LOCK_MINUTES, PIN_TRIES } from '@/domain/team-schemas';
+import { StaffMenu } from '@/features/team/staff-menu';
+import { AddPersonForm } from '@/features/team/add-person-form';
+import { useTeamCommand } from '@/features/team/commands';
+import { teamQuery } from '@/queries/team';
+import { TeamTable } from '@/features/team/team-table';
+import { useApi } from '@/lib/api-context';
+import { cn } from '@/lib/cn';
+import { plural } from '@/domain/plural';
 import { requireScreen, type RouteDeps } from './deps';
 
 function AdminTeam() {
@@ -54,13 +54,10 @@ function AdminTeam() {
               Switch person by PIN
             </h2>
             <p className="mt-1">
-              On a shared terminal, "Switch person" in the staff menu lets someone with a PIN take over without the password. After{' '}
-              {PIN_TRIES} wrong PINs that person's PIN locks for {PIN_LOCK_MINUTES} minutes. Tell people their PIN in person; everyone can
-              change their own.
+              On a shared terminal, "Switch person" in the staff menu lets someone with a PIN take over without the password. After {PIN_TRIES} wrong PINs that
+              person's PIN locks for {PIN_LOCK_MINUTES} minutes. Tell people their PIN in person; everyone can change their own.
             </p>
-            <p className="mt-2">
-              A reset link leaves the old password working until the new one is set. To shut someone out at once, deactivate them.
-            </p>
+            <p className="mt-2">A reset link leaves the old password working until the new one is set. To shut someone out at once, deactivate them.</p>
           </section>
         </aside>
       </div>

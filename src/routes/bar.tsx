@@ -4,33 +4,32 @@
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
-import { durationWords, ordinal } from '../domain/format';
-import { planBar, type PlannedLane } from '../domain/lanes';
-import { assignBumpKeys } from '../domain/bump-keys';
-import { ticketAgeSeconds } from '../domain/tickets';
-import { can } from '../domain/roles';
-import { RECALL_WINDOW_SECONDS } from '../domain/timing';
-import { Button } from '../components/ui/button';
-import { LinkStateBadge } from '../components/ui/link-state';
-import { StaffMenu } from '../features/team/staff-menu';
-import { barBoardQuery } from '../queries/board';
-import { useLiveBoard } from '../live/use-live-board';
-import { useBarCommand } from '../features/bar/commands';
-import { DrinkCard } from '../features/bar/drink-card';
-import { grams, LaneColumn, laneName } from '../features/bar/lane-column';
-import { ageLabel } from '../features/bar/pour-line';
-import { useScreenSight } from '../features/bar/use-screen-sight';
-import { useBumpKeys } from '../features/bar/use-bump-keys';
-import { sessionQuery } from '../queries/session';
-import { useApi } from '../lib/api-context';
-import { ApiError } from '../lib/http';
-import { useNow } from '../lib/use-now';
+import { durationWords, ordinal } from '@/domain/format';
+import { planBar, type PlannedLane } from '@/domain/lanes';
+import { assignBumpKeys } from '@/domain/bump-keys';
+import { ticketAgeSeconds } from '@/domain/tickets';
+import { can } from '@/domain/roles';
+import { RECALL_WINDOW_SECONDS } from '@/domain/timing';
+import { Button } from '@/components/ui/button';
+import { LinkStateBadge } from '@/components/ui/link-state';
+import { StaffMenu } from '@/features/team/staff-menu';
+import { barBoardQuery } from '@/queries/board';
+import { useLiveBoard } from '@/live/use-live-board';
+import { useBarCommand } from '@/features/bar/commands';
+import { DrinkCard } from '@/features/bar/drink-card';
+import { grams, LaneColumn, laneName } from '@/features/bar/lane-column';
+import { ageLabel } from '@/features/bar/pour-line';
+import { useScreenSight } from '@/features/bar/use-screen-sight';
+import { useBumpKeys } from '@/features/bar/use-bump-keys';
+import { sessionQuery } from '@/queries/session';
+import { useApi } from '@/lib/api-context';
+import { ApiError } from '@/lib/http';
+import { useNow } from '@/lib/use-now';
 import { requireScreen, type RouteDeps } from './deps';
-import { EspressoStrip } from '../features/dial-in/espresso-strip';
-import { dialInQuery } from '../queries/dial-in';
-import { SCREENS } from '../domain/screens';
-import { SteamCaution } from '../features/settings/steam-caution';
-
+import { EspressoStrip } from '@/features/dial-in/espresso-strip';
+import { dialInQuery } from '@/queries/dial-in';
+import { SCREENS } from '@/domain/screens';
+import { SteamCaution } from '@/features/settings/steam-caution';
 
 function Bar() {
   const api = useApi();
@@ -47,8 +46,7 @@ function Bar() {
   const unit = board.location.volumeUnit ?? 'ml';
   const cards = plan.lanes.flatMap((l) => l.drinks);
   const jugLabel = new Map<number, string>();
-  for (const lane of plan.lanes)
-    lane.jugPlan.forEach((b, j) => b.drinkIds.forEach((id, k) => jugLabel.set(id, `Jug ${j + 1} · pour ${ordinal(k + 1)}`)));
+  for (const lane of plan.lanes) lane.jugPlan.forEach((b, j) => b.drinkIds.forEach((id, k) => jugLabel.set(id, `Jug ${j + 1} · pour ${ordinal(k + 1)}`)));
 
   // Tickets with a bump inside the recall window, newest first.
   const recallable = board.tickets
@@ -72,9 +70,8 @@ function Bar() {
       <header className="flex flex-wrap items-center gap-x-6 gap-y-2 px-3 py-3 md:px-5">
         <h1 className="font-display text-4xl font-semibold tracking-wide">Bar</h1>
         <p className="text-2xl">
-          <strong className="font-display text-4xl">{cards.length}</strong> drinks ·{' '}
-          <strong className="font-display text-4xl">{plan.shotPlan.shots}</strong> shots to pull ·{' '}
-          <span data-testid="coffee-needed">{grams(plan.shotPlan.doseDg)} coffee</span>
+          <strong className="font-display text-4xl">{cards.length}</strong> drinks · <strong className="font-display text-4xl">{plan.shotPlan.shots}</strong>{' '}
+          shots to pull · <span data-testid="coffee-needed">{grams(plan.shotPlan.doseDg)} coffee</span>
         </p>
         <p className="text-xl text-crema-300">Target {durationWords(target)}</p>
         {error && (
@@ -137,8 +134,8 @@ function Bar() {
 
       <footer className="flex flex-wrap items-center gap-x-6 gap-y-1 bg-roast-850 px-3 py-2 text-lg text-crema-300 md:px-5">
         <span>
-          Keys: <kbd className="font-semibold text-crema-100">1–9</kbd> bump card · <kbd className="font-semibold text-crema-100">← ↑ → ↓</kbd>{' '}
-          move · <kbd className="font-semibold text-crema-100">Enter</kbd> bump · <kbd className="font-semibold text-crema-100">S</kbd> start ·{' '}
+          Keys: <kbd className="font-semibold text-crema-100">1–9</kbd> bump card · <kbd className="font-semibold text-crema-100">← ↑ → ↓</kbd> move ·{' '}
+          <kbd className="font-semibold text-crema-100">Enter</kbd> bump · <kbd className="font-semibold text-crema-100">S</kbd> start ·{' '}
           <kbd className="font-semibold text-crema-100">A</kbd> allergy read · <kbd className="font-semibold text-crema-100">R</kbd> recall last
         </span>
         <span className="md:ml-auto">
@@ -167,8 +164,8 @@ function LanesOffScreen({ side, lanes, nowMs, targetSeconds }: { side: 'left' | 
       onClick={show}
       className={`mx-3 mt-2 rounded-lg border-2 border-dashed border-crema-100 bg-roast-850 px-3 py-1 text-2xl font-semibold md:mx-5 ${side === 'right' ? 'self-end text-right' : 'self-start text-left'}`}
     >
-      {arrow} {lanes.length} more lane{lanes.length === 1 ? '' : 's'} off screen: {lanes.map(laneName).join(', ')} · {drinks} drink{drinks === 1 ? '' : 's'} · oldest{' '}
-      {ageLabel(ticketAgeSeconds(oldest, nowMs), targetSeconds)} {arrow}
+      {arrow} {lanes.length} more lane{lanes.length === 1 ? '' : 's'} off screen: {lanes.map(laneName).join(', ')} · {drinks} drink{drinks === 1 ? '' : 's'} ·
+      oldest {ageLabel(ticketAgeSeconds(oldest, nowMs), targetSeconds)} {arrow}
     </button>
   );
 }

@@ -5,17 +5,17 @@
 import { useMutation, useQuery, useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useMemo } from 'react';
 import { data, Form, Link, useSearchParams, type LoaderFunctionArgs } from 'react-router';
-import { buttonStyles, Button } from '../components/ui/button';
-import type { CardCheckView } from '../domain/card-check';
-import { addDays } from '../domain/freshness';
-import { can } from '../domain/roles';
-import { SCREENS } from '../domain/screens';
-import { ChargeTable, moneyIn, openLines, RefundTable, Totals, Verdict } from '../features/card-check/card-check-parts';
-import { cardCheckKeys, cardCheckQuery } from '../queries/card-check';
-import { sessionQuery } from '../queries/session';
-import { useApi } from '../lib/api-context';
-import { cn } from '../lib/cn';
-import { http } from '../lib/http';
+import { buttonStyles, Button } from '@/components/ui/button';
+import type { CardCheckView } from '@/domain/card-check';
+import { addDays } from '@/domain/freshness';
+import { can } from '@/domain/roles';
+import { SCREENS } from '@/domain/screens';
+import { ChargeTable, moneyIn, openLines, RefundTable, Totals, Verdict } from '@/features/card-check/card-check-parts';
+import { cardCheckKeys, cardCheckQuery } from '@/queries/card-check';
+import { sessionQuery } from '@/queries/session';
+import { useApi } from '@/lib/api-context';
+import { cn } from '@/lib/cn';
+import { http } from '@/lib/http';
 import { requireScreen, type RouteDeps } from './deps';
 
 const DATE = /^\d{4}-\d{2}-\d{2}$/;
@@ -108,8 +108,8 @@ function CardCheck() {
             Day after <span aria-hidden>→</span>
           </Link>
           <p className="ml-auto max-w-xl text-sm text-ink-600">
-            Charges and refunds the card service made on this café day, set beside Jugline’s card payments and refunds. Every charge
-            should be recorded against an order or given back.
+            Charges and refunds the card service made on this café day, set beside Jugline’s card payments and refunds. Every charge should be recorded against
+            an order or given back.
           </p>
         </section>
         <Verdict view={view} money={money} />

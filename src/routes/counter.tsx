@@ -4,38 +4,38 @@ import { useSuspenseQuery } from '@tanstack/react-query';
 import { useCallback, useRef, useState } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
 import type { LoaderFunctionArgs } from 'react-router';
-import { formatCents } from '../domain/money';
-import { addLine, cupsOf, orderCountLabel } from '../domain/order-quantity';
-import { plural } from '../domain/plural';
-import { quoteLabel } from '../domain/quote';
-import { can } from '../domain/roles';
-import { orderDraft, type OrderDraft, type OrderDraftInput, type OrderLineInput } from '../domain/schemas';
-import type { MenuItemView, OrderView } from '../domain/types';
-import { Button } from '../components/ui/button';
-import { LinkStateBadge } from '../components/ui/link-state';
-import { StaffMenu } from '../features/team/staff-menu';
-import { barBoardQuery } from '../queries/board';
-import { useLiveBoard } from '../live/use-live-board';
-import { emptyCheckout, previewTotals, tenderedCents, type Checkout } from '../features/counter/checkout';
-import { CheckoutPanel, PaymentPanel, SendBar } from '../features/counter/checkout-panel';
-import { ItemSheet } from '../features/counter/item-sheet';
-import { OrdersDrawer } from '../features/counter/orders-drawer';
-import { ReadyStrip } from '../features/counter/ready-strip';
-import { MenuGrid } from '../features/counter/menu-grid';
-import { OrderPanel } from '../features/counter/order-panel';
-import { OfflineOrdersBanner } from '../features/counter/offline-orders-banner';
-import { useOfflineOrders } from '../features/counter/use-offline-orders';
-import { useSendOrder } from '../features/counter/use-send-order';
-import { WaitNow } from '../features/counter/wait-now';
-import { menuQuery } from '../queries/menu';
-import { sessionQuery } from '../queries/session';
-import { useApi } from '../lib/api-context';
-import { ApiError } from '../lib/http';
-import { useLeaveGuard } from '../lib/leave-guard';
-import { cn } from '../lib/cn';
-import { uuid } from '../lib/uuid';
+import { formatCents } from '@/domain/money';
+import { addLine, cupsOf, orderCountLabel } from '@/domain/order-quantity';
+import { plural } from '@/domain/plural';
+import { quoteLabel } from '@/domain/quote';
+import { can } from '@/domain/roles';
+import { orderDraft, type OrderDraft, type OrderDraftInput, type OrderLineInput } from '@/domain/schemas';
+import type { MenuItemView, OrderView } from '@/domain/types';
+import { Button } from '@/components/ui/button';
+import { LinkStateBadge } from '@/components/ui/link-state';
+import { StaffMenu } from '@/features/team/staff-menu';
+import { barBoardQuery } from '@/queries/board';
+import { useLiveBoard } from '@/live/use-live-board';
+import { emptyCheckout, previewTotals, tenderedCents, type Checkout } from '@/features/counter/checkout';
+import { CheckoutPanel, PaymentPanel, SendBar } from '@/features/counter/checkout-panel';
+import { ItemSheet } from '@/features/counter/item-sheet';
+import { OrdersDrawer } from '@/features/counter/orders-drawer';
+import { ReadyStrip } from '@/features/counter/ready-strip';
+import { MenuGrid } from '@/features/counter/menu-grid';
+import { OrderPanel } from '@/features/counter/order-panel';
+import { OfflineOrdersBanner } from '@/features/counter/offline-orders-banner';
+import { useOfflineOrders } from '@/features/counter/use-offline-orders';
+import { useSendOrder } from '@/features/counter/use-send-order';
+import { WaitNow } from '@/features/counter/wait-now';
+import { menuQuery } from '@/queries/menu';
+import { sessionQuery } from '@/queries/session';
+import { useApi } from '@/lib/api-context';
+import { ApiError } from '@/lib/http';
+import { useLeaveGuard } from '@/lib/leave-guard';
+import { cn } from '@/lib/cn';
+import { uuid } from '@/lib/uuid';
 import { requireScreen, type RouteDeps } from './deps';
-import { SCREENS } from '../domain/screens';
+import { SCREENS } from '@/domain/screens';
 
 type Sheet = { item: MenuItemView; index: number | null } | null;
 
@@ -180,9 +180,7 @@ function Counter() {
               Change due <strong data-testid="sent-change">{money(sent.changeCents)}</strong>
             </span>
           )}
-          {sent.quotedWaitSeconds !== null && sent.status === 'open' && (
-            <span data-testid="quote">Tell them: {quoteLabel(sent.quotedWaitSeconds)}</span>
-          )}
+          {sent.quotedWaitSeconds !== null && sent.status === 'open' && <span data-testid="quote">Tell them: {quoteLabel(sent.quotedWaitSeconds)}</span>}
           <a className="underline" href={`/receipts/${sent.id}`} target="_blank" rel="noreferrer">
             Receipt
           </a>
@@ -194,7 +192,11 @@ function Counter() {
           </Button>
         </div>
       )}
-      <form onSubmit={onSubmit} noValidate className="grid min-h-0 flex-1 grid-cols-1 gap-3 p-2 md:grid-cols-[1fr_22rem] md:gap-4 md:p-4 lg:grid-cols-[1fr_26rem]">
+      <form
+        onSubmit={onSubmit}
+        noValidate
+        className="grid min-h-0 flex-1 grid-cols-1 gap-3 p-2 md:grid-cols-[1fr_22rem] md:gap-4 md:p-4 lg:grid-cols-[1fr_26rem]"
+      >
         <div className={cn('min-h-0 min-w-0 flex-col', phoneView === 'menu' ? 'flex' : 'hidden', 'md:flex')}>
           <MenuGrid menu={menu} onPick={pick} />
           {/* a phone: the order is one tap away, with its count and total on the button */}
@@ -204,7 +206,11 @@ function Counter() {
         </div>
         <aside
           aria-label="Order and payment"
-          className={cn('min-h-0 min-w-0 flex-col rounded-2xl border border-steam-200 bg-white p-3 md:p-4', phoneView === 'order' ? 'flex' : 'hidden', 'md:flex')}
+          className={cn(
+            'min-h-0 min-w-0 flex-col rounded-2xl border border-steam-200 bg-white p-3 md:p-4',
+            phoneView === 'order' ? 'flex' : 'hidden',
+            'md:flex',
+          )}
         >
           <Button tone="quiet" className="mb-2 self-start md:hidden" onClick={() => setPhoneView('menu')}>
             ‹ Menu
@@ -237,15 +243,7 @@ function Counter() {
             </div>
             <PaymentPanel key={`pay-${orderCount}`} menu={menu} form={form} checkout={checkout} onCheckout={setCheckout} totalCents={totals.totalCents} />
           </div>
-          <SendBar
-            menu={menu}
-            form={form}
-            checkout={checkout}
-            onCheckout={setCheckout}
-            totalCents={totals.totalCents}
-            sending={send.isPending}
-            error={error}
-          />
+          <SendBar menu={menu} form={form} checkout={checkout} onCheckout={setCheckout} totalCents={totals.totalCents} sending={send.isPending} error={error} />
         </aside>
       </form>
       {sheet && (
@@ -258,7 +256,9 @@ function Counter() {
           onClose={closeSheet}
         />
       )}
-      {ordersOpen && <OrdersDrawer canRefund={can(session.user?.role, 'refundOrders')} currency={menu.location.currency} onClose={() => setOrdersOpen(false)} />}
+      {ordersOpen && (
+        <OrdersDrawer canRefund={can(session.user?.role, 'refundOrders')} currency={menu.location.currency} onClose={() => setOrdersOpen(false)} />
+      )}
     </div>
   );
 }
@@ -270,10 +270,7 @@ export const counterRoute = (deps: RouteDeps) => ({
   handle: { title: 'Counter' },
   loader: async ({ request }: LoaderFunctionArgs) => {
     await requireScreen(deps, request, SCREENS.counter.need);
-    await Promise.all([
-      deps.queryClient.ensureQueryData(menuQuery(deps.api)),
-      deps.queryClient.ensureQueryData(barBoardQuery(deps.api)),
-    ]);
+    await Promise.all([deps.queryClient.ensureQueryData(menuQuery(deps.api)), deps.queryClient.ensureQueryData(barBoardQuery(deps.api))]);
     return null;
   },
 });

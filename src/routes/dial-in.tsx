@@ -3,20 +3,20 @@
 import { useMutation, useQuery, useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useSearchParams, type LoaderFunctionArgs } from 'react-router';
-import { type ShotAdvice } from '../domain/dial-in';
-import { formatRatio } from '../domain/format';
-import { SCREENS } from '../domain/screens';
-import { StaffMenu } from '../features/team/staff-menu';
-import { AdvicePanel } from '../features/dial-in/advice-panel';
-import { LotPicker } from '../features/dial-in/lot-picker';
-import { dialInKeys, dialInQuery, lotShotsQuery } from '../queries/dial-in';
-import { ShotForm, type ShotFields } from '../features/dial-in/shot-form';
-import { ShotList } from '../features/dial-in/shot-list';
-import { goodShotWords, shotNumbers, timeOfDay } from '../features/dial-in/shot-view';
-import { keepUnits } from '../lib/keep-units';
-import { useApi } from '../lib/api-context';
-import { beanCommands, type DialInView } from '../lib/beans-api';
-import { ApiError } from '../lib/http';
+import { type ShotAdvice } from '@/domain/dial-in';
+import { formatRatio } from '@/domain/format';
+import { SCREENS } from '@/domain/screens';
+import { StaffMenu } from '@/features/team/staff-menu';
+import { AdvicePanel } from '@/features/dial-in/advice-panel';
+import { LotPicker } from '@/features/dial-in/lot-picker';
+import { dialInKeys, dialInQuery, lotShotsQuery } from '@/queries/dial-in';
+import { ShotForm, type ShotFields } from '@/features/dial-in/shot-form';
+import { ShotList } from '@/features/dial-in/shot-list';
+import { goodShotWords, shotNumbers, timeOfDay } from '@/features/dial-in/shot-view';
+import { keepUnits } from '@/lib/keep-units';
+import { useApi } from '@/lib/api-context';
+import { beanCommands, type DialInView } from '@/lib/beans-api';
+import { ApiError } from '@/lib/http';
 import { requireScreen, type RouteDeps } from './deps';
 
 /** The lot asked for in ?lot=, else the one in the espresso grinder, else the first. */
@@ -101,10 +101,10 @@ function DialIn() {
         <details className="text-base text-ink-600">
           <summary className="cursor-pointer underline underline-offset-4">Where the target comes from</summary>
           <p className="mt-1">
-            The café&rsquo;s own target, set by the owner on the Beans screen: the dose range from the house double recipe, the yield as a
-            ratio of the dose (yield ÷ dose, {formatRatio(w.ratioMinX10)}–{formatRatio(w.ratioMaxX10)}) and the shot time. Common practice is
-            about 1:2 in about 25–30 s; a fast shot is under-extracted (grind finer), a slow one over-extracted (grind coarser). Change one
-            thing at a time. Each test shot&rsquo;s dose is taken from the lot&rsquo;s stock.
+            The café&rsquo;s own target, set by the owner on the Beans screen: the dose range from the house double recipe, the yield as a ratio of the dose
+            (yield ÷ dose, {formatRatio(w.ratioMinX10)}–{formatRatio(w.ratioMaxX10)}) and the shot time. Common practice is about 1:2 in about 25–30 s; a fast
+            shot is under-extracted (grind finer), a slow one over-extracted (grind coarser). Change one thing at a time. Each test shot&rsquo;s dose is taken
+            from the lot&rsquo;s stock.
           </p>
         </details>
       </main>

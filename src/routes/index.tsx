@@ -5,8 +5,8 @@
 // does it), and the browser does the same before hydrating (`resolveLazyMatches`), so the first
 // paint is the server's HTML and hydration finds the same tree.
 import { data, matchRoutes, redirect, type RouteObject } from 'react-router';
-import { HOME_SCREEN } from '../domain/roles';
-import { sessionQuery } from '../queries/session';
+import { HOME_SCREEN } from '@/domain/roles';
+import { sessionQuery } from '@/queries/session';
 import { RouteError } from './route-error';
 import { Root } from './root';
 import type { RouteDeps } from './deps';

@@ -2,12 +2,12 @@
 // made, and any allergy.
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router';
-import { Button } from '../components/ui/button';
-import { ServiceMark } from '../components/ui/service-mark';
-import { orderQuery } from '../queries/orders';
-import { useApi } from '../lib/api-context';
+import { Button } from '@/components/ui/button';
+import { ServiceMark } from '@/components/ui/service-mark';
+import { orderQuery } from '@/queries/orders';
+import { useApi } from '@/lib/api-context';
 import { orNotFound, orderIdFrom, requireScreen, type RouteDeps } from './deps';
-import { SCREENS } from '../domain/screens';
+import { SCREENS } from '@/domain/screens';
 
 function Labels() {
   const api = useApi();
@@ -22,11 +22,7 @@ function Labels() {
       </Button>
       <div className="flex flex-wrap gap-3">
         {drinks.map((d, i) => (
-          <section
-            key={d.id}
-            data-testid="cup-label"
-            className="w-[2.25in] break-inside-avoid rounded-md border-2 border-ink-900 p-2 print:rounded-none"
-          >
+          <section key={d.id} data-testid="cup-label" className="w-[2.25in] break-inside-avoid rounded-md border-2 border-ink-900 p-2 print:rounded-none">
             <p className="flex items-baseline justify-between">
               <span className="font-display text-2xl font-semibold">#{o.number}</span>
               <span className="text-sm">

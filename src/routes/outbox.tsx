@@ -3,12 +3,12 @@
 import { useSuspenseQuery } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
 import { Link, useSearchParams, type LoaderFunctionArgs } from 'react-router';
-import type { OutboxMail } from '../domain/outbox';
-import { outboxQuery } from '../queries/outbox';
-import { useApi } from '../lib/api-context';
-import { cn } from '../lib/cn';
+import type { OutboxMail } from '@/domain/outbox';
+import { outboxQuery } from '@/queries/outbox';
+import { useApi } from '@/lib/api-context';
+import { cn } from '@/lib/cn';
 import { requireScreen, type RouteDeps } from './deps';
-import { SCREENS } from '../domain/screens';
+import { SCREENS } from '@/domain/screens';
 
 type Format = (iso: string) => string;
 
@@ -29,10 +29,7 @@ function MailRow({ mail, selected, format }: { mail: OutboxMail; selected: boole
         preventScrollReset
         aria-current={selected ? 'true' : undefined}
         data-testid="outbox-mail"
-        className={cn(
-          'block rounded-lg border-l-8 px-4 py-3',
-          selected ? 'border-ink-900 bg-steam-200' : 'border-transparent bg-white hover:bg-steam-100',
-        )}
+        className={cn('block rounded-lg border-l-8 px-4 py-3', selected ? 'border-ink-900 bg-steam-200' : 'border-transparent bg-white hover:bg-steam-100')}
       >
         <span className="line-clamp-2 text-lg font-semibold">{mail.subject || '(no subject)'}</span>
         <span className="block truncate text-base text-ink-600" title={mail.to.join(', ')}>
@@ -65,7 +62,10 @@ function MailPanel({ mail, format }: { mail: OutboxMail; format: Format }) {
           </div>
         ))}
       </dl>
-      <pre data-testid="outbox-text" className="mt-5 border-t border-steam-200 pt-5 font-sans text-lg leading-relaxed whitespace-pre-wrap [overflow-wrap:anywhere]">
+      <pre
+        data-testid="outbox-text"
+        className="mt-5 border-t border-steam-200 pt-5 font-sans text-lg leading-relaxed whitespace-pre-wrap [overflow-wrap:anywhere]"
+      >
         {mail.text}
       </pre>
       {mail.html && (
@@ -114,9 +114,7 @@ function Outbox() {
           <MailPanel mail={selected} format={format} />
         </div>
       ) : (
-        <p className="m-auto max-w-md p-8 text-center text-xl text-ink-600">
-          No mail yet. Send a receipt from the Counter and it shows up here.
-        </p>
+        <p className="m-auto max-w-md p-8 text-center text-xl text-ink-600">No mail yet. Send a receipt from the Counter and it shows up here.</p>
       )}
     </div>
   );

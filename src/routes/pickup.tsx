@@ -7,19 +7,19 @@
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { useEffect, useRef, useState, type CSSProperties } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
-import type { PickupTicket } from '../domain/pickup';
-import { pickupLayout, type HalfLayout } from '../domain/pickup-layout';
-import { PICKUP_CAUTION } from '../domain/cautions';
-import { pickupBoard } from '../domain/tickets';
-import { LinkStateBadge } from '../components/ui/link-state';
-import { boardKeys, pickupBoardQuery } from '../queries/board';
-import { useLiveBoard } from '../live/use-live-board';
-import { useApi } from '../lib/api-context';
-import { cn } from '../lib/cn';
-import { useNow } from '../lib/use-now';
+import type { PickupTicket } from '@/domain/pickup';
+import { pickupLayout, type HalfLayout } from '@/domain/pickup-layout';
+import { PICKUP_CAUTION } from '@/domain/cautions';
+import { pickupBoard } from '@/domain/tickets';
+import { LinkStateBadge } from '@/components/ui/link-state';
+import { boardKeys, pickupBoardQuery } from '@/queries/board';
+import { useLiveBoard } from '@/live/use-live-board';
+import { useApi } from '@/lib/api-context';
+import { cn } from '@/lib/cn';
+import { useNow } from '@/lib/use-now';
 import { requireScreen, type RouteDeps } from './deps';
 import type { RouteHandle } from './root';
-import { SCREENS } from '../domain/screens';
+import { SCREENS } from '@/domain/screens';
 
 /** A name that turned ready this recently gets the slow underline. */
 const FRESH_MS = 20_000;
@@ -47,7 +47,17 @@ function NameRow({ t, fresh }: { t: PickupTicket; fresh?: boolean }) {
   );
 }
 
-function Half({ id, title, tickets, layout, rows, empty, fresh, muted, className }: {
+function Half({
+  id,
+  title,
+  tickets,
+  layout,
+  rows,
+  empty,
+  fresh,
+  muted,
+  className,
+}: {
   id: string;
   title: string;
   tickets: PickupTicket[];
@@ -66,7 +76,12 @@ function Half({ id, title, tickets, layout, rows, empty, fresh, muted, className
     ? { gridTemplateColumns: `repeat(${layout.columns}, minmax(0, 1fr))`, gridTemplateRows: `repeat(${rows}, ${ROW_EM}em)`, gridAutoFlow: 'column' }
     : undefined;
   return (
-    <section aria-labelledby={id} data-testid={`pickup-${id}`} className={cn('flex min-w-0 flex-col p-5 sm:min-h-0 sm:overflow-hidden sm:p-10', className)} style={layout ? { gridColumn: `span ${layout.columns}` } : undefined}>
+    <section
+      aria-labelledby={id}
+      data-testid={`pickup-${id}`}
+      className={cn('flex min-w-0 flex-col p-5 sm:min-h-0 sm:overflow-hidden sm:p-10', className)}
+      style={layout ? { gridColumn: `span ${layout.columns}` } : undefined}
+    >
       <h1 id={id} className={cn('font-display text-[0.6em] leading-tight font-semibold tracking-wide uppercase', muted && 'text-crema-300')}>
         {title} <span className="text-[0.6em] text-crema-300">({tickets.length})</span>
       </h1>
@@ -119,9 +134,7 @@ function Pickup() {
   const { ref, space } = useWallSpace();
   const shown = board.tickets.filter((t) => pickupBoard(board.location.pickupTimeoutSeconds)(t, now));
   const making = shown.filter((t) => t.status === 'open');
-  const ready = shown
-    .filter((t) => t.status === 'ready')
-    .sort((a, b) => (b.readyAt ?? '').localeCompare(a.readyAt ?? ''));
+  const ready = shown.filter((t) => t.status === 'ready').sort((a, b) => (b.readyAt ?? '').localeCompare(a.readyAt ?? ''));
   const layout = space ? pickupLayout(making.length, ready.length, space) : null;
 
   return (

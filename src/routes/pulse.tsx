@@ -2,23 +2,23 @@
 import { useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { lazy, Suspense, useEffect, useState } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
-import { durationWords, formatDuration } from '../domain/format';
-import type { PulseView, WaitSummary } from '../domain/pulse';
-import { LinkStateBadge } from '../components/ui/link-state';
-import { StaffMenu } from '../features/team/staff-menu';
-import { barBoardQuery } from '../queries/board';
-import { useLiveBoard } from '../live/use-live-board';
-import { menuQuery } from '../queries/menu';
-import { pulseKeys, pulseQuery } from '../queries/pulse';
-import { ShiftPanel } from '../features/pulse/shift-panel';
-import { useApi } from '../lib/api-context';
-import { cn } from '../lib/cn';
-import { useHydrated } from '../lib/use-hydrated';
+import { durationWords, formatDuration } from '@/domain/format';
+import type { PulseView, WaitSummary } from '@/domain/pulse';
+import { LinkStateBadge } from '@/components/ui/link-state';
+import { StaffMenu } from '@/features/team/staff-menu';
+import { barBoardQuery } from '@/queries/board';
+import { useLiveBoard } from '@/live/use-live-board';
+import { menuQuery } from '@/queries/menu';
+import { pulseKeys, pulseQuery } from '@/queries/pulse';
+import { ShiftPanel } from '@/features/pulse/shift-panel';
+import { useApi } from '@/lib/api-context';
+import { cn } from '@/lib/cn';
+import { useHydrated } from '@/lib/use-hydrated';
 import { requireScreen, type RouteDeps } from './deps';
-import { SCREENS } from '../domain/screens';
-import { ScrollBox } from '../components/ui/scroll-box';
+import { SCREENS } from '@/domain/screens';
+import { ScrollBox } from '@/components/ui/scroll-box';
 
-const PulseChart = lazy(() => import('../features/pulse/pulse-chart'));
+const PulseChart = lazy(() => import('@/features/pulse/pulse-chart'));
 
 /** m:ss, as the Reports write waits too. */
 const min = formatDuration;
@@ -49,22 +49,36 @@ function Table({ caption, head, rows }: { caption: string; head: string[]; rows:
   return (
     // a phone scrolls a wide table inside its own box, never the page
     <ScrollBox label={caption}>
-    <table className="w-full text-left text-base sm:text-lg">
-      <caption className="mb-1 text-left text-base font-semibold tracking-widest text-ink-600 uppercase">{caption}</caption>
-      <thead>
-        <tr className="border-b border-steam-200">{head.map((h) => <th key={h} className="py-1 pr-3 font-semibold">{h}</th>)}</tr>
-      </thead>
-      <tbody>
-        {rows.length === 0 && (
-          <tr>
-            <td colSpan={head.length} className="py-2 text-ink-600">Nothing yet</td>
+      <table className="w-full text-left text-base sm:text-lg">
+        <caption className="mb-1 text-left text-base font-semibold tracking-widest text-ink-600 uppercase">{caption}</caption>
+        <thead>
+          <tr className="border-b border-steam-200">
+            {head.map((h) => (
+              <th key={h} className="py-1 pr-3 font-semibold">
+                {h}
+              </th>
+            ))}
           </tr>
-        )}
-        {rows.map((r, i) => (
-          <tr key={i} className="border-b border-steam-100">{r.map((c, j) => <td key={j} className="py-1 pr-3">{c}</td>)}</tr>
-        ))}
-      </tbody>
-    </table>
+        </thead>
+        <tbody>
+          {rows.length === 0 && (
+            <tr>
+              <td colSpan={head.length} className="py-2 text-ink-600">
+                Nothing yet
+              </td>
+            </tr>
+          )}
+          {rows.map((r, i) => (
+            <tr key={i} className="border-b border-steam-100">
+              {r.map((c, j) => (
+                <td key={j} className="py-1 pr-3">
+                  {c}
+                </td>
+              ))}
+            </tr>
+          ))}
+        </tbody>
+      </table>
     </ScrollBox>
   );
 }
@@ -78,23 +92,23 @@ function Staffing({ staffing: { sentence, inputs } }: { staffing: PulseView['sta
     : `${durationWords(inputs.meanMakeSeconds)} a drink for each barista (nothing bumped in the last ${inputs.paceMinutes} min yet)`;
   return (
     <section aria-label="Staffing" className="mt-4 rounded-2xl border-2 border-ink-900 bg-white p-4">
-      <p data-testid="staffing" className="text-xl font-semibold sm:text-2xl">{sentence}</p>
+      <p data-testid="staffing" className="text-xl font-semibold sm:text-2xl">
+        {sentence}
+      </p>
       <p data-testid="staffing-inputs" className="mt-1 text-base text-ink-600">
-        From {drinksWord(inputs.arrivals)} fired in the last {inputs.windowMinutes} min and {pace}, with {inputs.baristas} on bar. A guide, not a
-        promise.
+        From {drinksWord(inputs.arrivals)} fired in the last {inputs.windowMinutes} min and {pace}, with {inputs.baristas} on bar. A guide, not a promise.
       </p>
       <details className="mt-1 text-base text-ink-600">
         <summary className="cursor-pointer font-semibold">How we work this out</summary>
         <p className="mt-1">
-          The pace: the time the baristas had drinks to make, over the drinks they bumped (Little's law), so a jug started a moment before
-          its bump doesn't read as seconds a drink; with only a few drinks bumped it leans on 60 s a drink. The wait now: the drinks on the
-          bar and this one, shared among the baristas at that pace, the same sum the Counter quotes.
+          The pace: the time the baristas had drinks to make, over the drinks they bumped (Little's law), so a jug started a moment before its bump doesn't read
+          as seconds a drink; with only a few drinks bumped it leans on 60 s a drink. The wait now: the drinks on the bar and this one, shared among the
+          baristas at that pace, the same sum the Counter quotes.
         </p>
         <p className="mt-1">
-          Keeping up: the bar is treated as a queue with several servers (the M/M/c model, Erlang C): drinks arrive at random at the rate of
-          the last {inputs.windowMinutes} min and take the pace's time give or take. It keeps up only while the drinks coming in need fewer
-          baristas than are on bar, decided on the exact counts, not rounded. When the bar has more drinks on it than the model expects,
-          the sentence says the wait now instead.
+          Keeping up: the bar is treated as a queue with several servers (the M/M/c model, Erlang C): drinks arrive at random at the rate of the last{' '}
+          {inputs.windowMinutes} min and take the pace's time give or take. It keeps up only while the drinks coming in need fewer baristas than are on bar,
+          decided on the exact counts, not rounded. When the bar has more drinks on it than the model expects, the sentence says the wait now instead.
         </p>
       </details>
     </section>
@@ -161,7 +175,10 @@ function Pulse() {
             role="tab"
             aria-selected={i === windowIndex}
             onClick={() => setWindowIndex(i)}
-            className={cn('min-h-11 rounded-lg border-2 px-4 font-semibold', i === windowIndex ? 'border-ink-900 bg-ink-900 text-steam-50' : 'border-steam-200 bg-white')}
+            className={cn(
+              'min-h-11 rounded-lg border-2 px-4 font-semibold',
+              i === windowIndex ? 'border-ink-900 bg-ink-900 text-steam-50' : 'border-steam-200 bg-white',
+            )}
           >
             {x.label}
           </button>
@@ -175,8 +192,8 @@ function Pulse() {
         <details className="mt-1 text-sm text-ink-600">
           <summary className="cursor-pointer font-semibold">How we work this out</summary>
           <p className="mt-1">
-            A ticket's wait runs from when it reached the bar (paid) to when its last drink was bumped. "Half waited under" is the median,
-            "9 in 10 waited under" the 90th percentile, both by {p.percentileMethod}.
+            A ticket's wait runs from when it reached the bar (paid) to when its last drink was bumped. "Half waited under" is the median, "9 in 10 waited
+            under" the 90th percentile, both by {p.percentileMethod}.
           </p>
         </details>
       </div>
@@ -199,14 +216,24 @@ function Pulse() {
         <Table
           caption={`Quote vs actual (${p.windows[3].label.toLowerCase()})`}
           head={['Tickets', 'Told (average)', 'Waited (average)', 'Longer than told']}
-          rows={[[p.quoteVsActual.count, min(p.quoteVsActual.meanQuotedSeconds), min(p.quoteVsActual.meanActualSeconds), pct(p.quoteVsActual.shareLongerThanQuoted)]]}
+          rows={[
+            [p.quoteVsActual.count, min(p.quoteVsActual.meanQuotedSeconds), min(p.quoteVsActual.meanActualSeconds), pct(p.quoteVsActual.shareLongerThanQuoted)],
+          ]}
         />
-        <Table caption="Per barista (bumped by)" head={['Barista', 'Drinks', 'Half made within']} rows={p.perBarista.map((b) => [b.name, b.drinks, min(b.medianMakeSeconds)])} />
-        <Table caption="Per category" head={['Category', 'Drinks', 'Half made within']} rows={p.perCategory.map((c) => [c.category, c.drinks, min(c.medianMakeSeconds)])} />
+        <Table
+          caption="Per barista (bumped by)"
+          head={['Barista', 'Drinks', 'Half made within']}
+          rows={p.perBarista.map((b) => [b.name, b.drinks, min(b.medianMakeSeconds)])}
+        />
+        <Table
+          caption="Per category"
+          head={['Category', 'Drinks', 'Half made within']}
+          rows={p.perCategory.map((c) => [c.category, c.drinks, min(c.medianMakeSeconds)])}
+        />
         <p className="text-sm text-ink-600 lg:col-span-2">
-          A drink's make time: from its barista's previous bump (or from when it reached the bar, if that was later) to its bump, shared
-          among the drinks bumped together — start taps aren't used, so a jug of 4 started a moment before its bump doesn't read as seconds
-          a drink. A drink bumped in the same moment as another by the same barista gets no time of its own.
+          A drink's make time: from its barista's previous bump (or from when it reached the bar, if that was later) to its bump, shared among the drinks bumped
+          together — start taps aren't used, so a jug of 4 started a moment before its bump doesn't read as seconds a drink. A drink bumped in the same moment
+          as another by the same barista gets no time of its own.
         </p>
       </div>
     </div>
@@ -226,4 +253,3 @@ export const pulseRoute = (deps: RouteDeps) => ({
     return null;
   },
 });
-

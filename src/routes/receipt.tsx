@@ -1,14 +1,14 @@
 // A printable receipt (80 mm roll) for one order.
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router';
-import { formatCents } from '../domain/money';
-import { groupOrderLines } from '../domain/order-quantity';
-import { Button } from '../components/ui/button';
-import { menuQuery } from '../queries/menu';
-import { orderQuery } from '../queries/orders';
-import { useApi } from '../lib/api-context';
+import { formatCents } from '@/domain/money';
+import { groupOrderLines } from '@/domain/order-quantity';
+import { Button } from '@/components/ui/button';
+import { menuQuery } from '@/queries/menu';
+import { orderQuery } from '@/queries/orders';
+import { useApi } from '@/lib/api-context';
 import { orNotFound, orderIdFrom, requireScreen, type RouteDeps } from './deps';
-import { SCREENS } from '../domain/screens';
+import { SCREENS } from '@/domain/screens';
 
 function Receipt() {
   const api = useApi();
@@ -17,9 +17,7 @@ function Receipt() {
   const { data: menu } = useSuspenseQuery(menuQuery(api));
   const o = data.order;
   const money = (c: number) => formatCents(c, menu.location.currency);
-  const when = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeStyle: 'short', timeZone: menu.location.timeZone }).format(
-    new Date(o.createdAt),
-  );
+  const when = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeStyle: 'short', timeZone: menu.location.timeZone }).format(new Date(o.createdAt));
   return (
     <main className="mx-auto max-w-[80mm] bg-white p-4 font-sans text-ink-900 print:p-0">
       <Button className="mb-4 w-full print:hidden" onClick={() => window.print()}>
@@ -90,4 +88,3 @@ export const receiptRoute = (deps: RouteDeps) => ({
     return null;
   },
 });
-

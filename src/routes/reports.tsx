@@ -3,19 +3,19 @@
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { useMemo } from 'react';
 import { data, Link, useSearchParams, type LoaderFunctionArgs } from 'react-router';
-import type { ReportView } from '../domain/reports';
-import { buttonStyles } from '../components/ui/button';
-import { HourlyTable, OverTargetList } from '../features/reports/hourly-table';
-import { periodFrom, ticketParams, type PeriodChoice } from '../features/reports/params';
-import { PeriodPicker, shiftLabel } from '../features/reports/period-picker';
-import { reportQuery, reportShiftsQuery, ticketHistoryQuery } from '../queries/reports';
-import { BarUse, PaymentMix, TopItems } from '../components/report/report-breakdowns';
-import { ReportTiles } from '../components/report/report-tiles';
-import { TicketTable } from '../features/reports/ticket-table';
-import { useApi } from '../lib/api-context';
-import { queryString } from '../lib/reports-api';
+import type { ReportView } from '@/domain/reports';
+import { buttonStyles } from '@/components/ui/button';
+import { HourlyTable, OverTargetList } from '@/features/reports/hourly-table';
+import { periodFrom, ticketParams, type PeriodChoice } from '@/features/reports/params';
+import { PeriodPicker, shiftLabel } from '@/features/reports/period-picker';
+import { reportQuery, reportShiftsQuery, ticketHistoryQuery } from '@/queries/reports';
+import { BarUse, PaymentMix, TopItems } from '@/components/report/report-breakdowns';
+import { ReportTiles } from '@/components/report/report-tiles';
+import { TicketTable } from '@/features/reports/ticket-table';
+import { useApi } from '@/lib/api-context';
+import { queryString } from '@/lib/reports-api';
 import { requireScreen, type RouteDeps } from './deps';
-import { SCREENS } from '../domain/screens';
+import { SCREENS } from '@/domain/screens';
 
 type Period = Exclude<PeriodChoice, { kind: 'today' }>;
 const periodOf = (choice: PeriodChoice, today: string): Period => (choice.kind === 'today' ? { kind: 'range', from: today, to: today } : choice);
@@ -107,4 +107,3 @@ export const reportsRoute = (deps: RouteDeps) => ({
     return null;
   },
 });
-

@@ -1,6 +1,6 @@
 import { useEffect } from 'react';
 import { Outlet, useMatches } from 'react-router';
-import { useHydratedMark } from '../lib/use-hydrated';
+import { useHydratedMark } from '@/lib/use-hydrated';
 
 export interface RouteHandle {
   title?: string;

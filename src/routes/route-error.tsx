@@ -1,5 +1,5 @@
 import { isRouteErrorResponse, Link, useRouteError } from 'react-router';
-import { useHydratedMark } from '../lib/use-hydrated';
+import { useHydratedMark } from '@/lib/use-hydrated';
 
 export function RouteError() {
   const error = useRouteError();

@@ -2,14 +2,14 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useQueryClient } from '@tanstack/react-query';
 import { useForm } from 'react-hook-form';
 import { useNavigate, useSearchParams } from 'react-router';
-import { HOME_SCREEN } from '../domain/roles';
-import { signInBody, type SignInBody } from '../domain/schemas';
-import { Button } from '../components/ui/button';
-import { FieldError } from '../components/ui/field-error';
-import { sessionKeys } from '../queries/session';
-import type { PublicUser } from '../lib/api';
-import { ApiError, http } from '../lib/http';
-import { useHydrated } from '../lib/use-hydrated';
+import { HOME_SCREEN } from '@/domain/roles';
+import { signInBody, type SignInBody } from '@/domain/schemas';
+import { Button } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
+import { sessionKeys } from '@/queries/session';
+import type { PublicUser } from '@/lib/api';
+import { ApiError, http } from '@/lib/http';
+import { useHydrated } from '@/lib/use-hydrated';
 import type { RouteDeps } from './deps';
 
 /** Only paths on this site, so a crafted ?next= can't send someone elsewhere. */

@@ -5,15 +5,15 @@ import { useSuspenseQuery } from '@tanstack/react-query';
 import { useForm } from 'react-hook-form';
 import type { ReactNode } from 'react';
 import { data, isRouteErrorResponse, Link, useParams, useRouteError, type LoaderFunctionArgs } from 'react-router';
-import { HOME_SCREEN } from '../domain/roles';
-import { PASSWORD_MAX_BYTES, PASSWORD_MIN_CHARS, setPasswordBody, type SetPasswordBody } from '../domain/team-schemas';
-import { Button } from '../components/ui/button';
-import { FieldError } from '../components/ui/field-error';
-import { welcomeQuery } from '../queries/team';
-import type { PublicUser } from '../lib/api';
-import { useApi } from '../lib/api-context';
-import { ApiError, http } from '../lib/http';
-import { useHydrated } from '../lib/use-hydrated';
+import { HOME_SCREEN } from '@/domain/roles';
+import { PASSWORD_MAX_BYTES, PASSWORD_MIN_CHARS, setPasswordBody, type SetPasswordBody } from '@/domain/team-schemas';
+import { Button } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
+import { welcomeQuery } from '@/queries/team';
+import type { PublicUser } from '@/lib/api';
+import { useApi } from '@/lib/api-context';
+import { ApiError, http } from '@/lib/http';
+import { useHydrated } from '@/lib/use-hydrated';
 import type { RouteDeps } from './deps';
 import { RouteError } from './route-error';
 
@@ -72,7 +72,8 @@ function Welcome() {
           {...form.register('password')}
         />
         <p id="password-rules" className="mt-1 text-base text-ink-600">
-          At least {PASSWORD_MIN_CHARS} characters and at most about {PASSWORD_MAX_BYTES} (accented letters count double). A few words you'll remember make a good one.
+          At least {PASSWORD_MIN_CHARS} characters and at most about {PASSWORD_MAX_BYTES} (accented letters count double). A few words you'll remember make a
+          good one.
         </p>
         <FieldError message={errors.password?.message} />
         <label className="mt-4 block text-base font-semibold" htmlFor="confirm">
@@ -97,8 +98,7 @@ function LinkNotValid() {
     <Card>
       <h1 className="mt-2 text-2xl font-semibold">This link can't be used</h1>
       <p className="mt-3 text-lg">
-        A link to set a password works once and for a limited time, and a newer link replaces an older one. Ask the owner to send you a
-        new link.
+        A link to set a password works once and for a limited time, and a newer link replaces an older one. Ask the owner to send you a new link.
       </p>
       <p className="mt-6 text-lg font-semibold underline">
         <Link to="/signin" reloadDocument>

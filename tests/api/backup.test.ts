@@ -8,10 +8,10 @@ import path from 'node:path';
 import { promisify } from 'node:util';
 import request from 'supertest';
 import { afterAll, describe, expect, it } from 'vitest';
-import { checkBackup, restoreDatabase } from '../../server/db/backup';
-import { isPostgresUrl } from '../../server/db/dialect';
-import { startServer } from '../../server/server';
-import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
+import { checkBackup, restoreDatabase } from '@server/db/backup';
+import { isPostgresUrl } from '@server/db/dialect';
+import { startServer } from '@server/server';
+import { DEMO_PASSWORD } from '@seeds/demo-cafe';
 import { createEmptyDatabase } from '../support/test-database';
 import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
 
@@ -39,7 +39,9 @@ describe('db:backup and db:restore', () => {
     for (const name of ['Uma Fenn', 'Vic Laird']) {
       const clientOrderId = randomUUID();
       ids.push(clientOrderId);
-      const res = await cashier.post('/api/orders').send({ clientOrderId, customerName: name, items: [{ menuItemId: espresso }], payment: { method: 'cash', tenderedCents: 500 } });
+      const res = await cashier
+        .post('/api/orders')
+        .send({ clientOrderId, customerName: name, items: [{ menuItemId: espresso }], payment: { method: 'cash', tenderedCents: 500 } });
       expect(res.status).toBe(201);
     }
 

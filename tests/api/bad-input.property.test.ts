@@ -5,17 +5,17 @@
 import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { z } from 'zod';
-import * as beanSchemas from '../../src/domain/beans-schemas';
-import * as menuAdminSchemas from '../../src/domain/menu-admin-schemas';
-import * as schemas from '../../src/domain/schemas';
-import * as settingsSchemas from '../../src/domain/settings-schemas';
-import * as teamSchemas from '../../src/domain/team-schemas';
-import { idParam } from '../../src/domain/schemas';
-import type { ApiRoute } from '../../server/routes';
-import { WEBHOOK_PATH } from '../../server/orders/routes';
+import * as beanSchemas from '@/domain/beans-schemas';
+import * as menuAdminSchemas from '@/domain/menu-admin-schemas';
+import * as schemas from '@/domain/schemas';
+import * as settingsSchemas from '@/domain/settings-schemas';
+import * as teamSchemas from '@/domain/team-schemas';
+import { idParam } from '@/domain/schemas';
+import type { ApiRoute } from '@server/routes';
+import { WEBHOOK_PATH } from '@server/orders/routes';
 import { startTestServer, type TestServer } from '../support/test-server';
 import type { Agent } from './helpers';
-import { tableNames } from '../../server/db/dialect';
+import { tableNames } from '@server/db/dialect';
 
 const RUNS = 25;
 // Each property walks every route (about 100 of them) with RUNS inputs: minutes, not seconds.
@@ -56,9 +56,7 @@ async function rowCounts() {
   return out;
 }
 
-const errorShape = z
-  .object({ error: z.object({ code: z.string().min(1), message: z.string().min(1), details: z.unknown().optional() }).strict() })
-  .strict();
+const errorShape = z.object({ error: z.object({ code: z.string().min(1), message: z.string().min(1), details: z.unknown().optional() }).strict() }).strict();
 
 interface Answer {
   status: number;
@@ -104,8 +102,7 @@ const jsonObjectish = fc.letrec<{ value: unknown }>((tie) => ({
 })).value;
 
 /** A value no schema accepts for that field name (wrong type, out of range, too long…). */
-const wrongFor = (name: string) =>
-  fc.oneof(jsonAny, jsonObjectish).filter((v) => knownFields.get(name)!.every((s) => !s.safeParse(v).success));
+const wrongFor = (name: string) => fc.oneof(jsonAny, jsonObjectish).filter((v) => knownFields.get(name)!.every((s) => !s.safeParse(v).success));
 
 const knownFieldsWrong = fc
   .subarray(knownNames, { minLength: 1, maxLength: 6 })
@@ -164,10 +161,12 @@ const anyIdSegment = fc
   .oneof(
     fc.string({ unit: 'grapheme', maxLength: 40 }).map(encodeURIComponent),
     fc.string({ unit: 'binary-ascii', maxLength: 40 }).map(encodeURIComponent),
-    fc.array(fc.oneof(percentJunk, fc.constantFrom('../', '..', '.', 'a', '1', '-1', '0', '1e3', '0x10', ' 5', '1.5', 'Infinity', '9'.repeat(30))), {
-      minLength: 1,
-      maxLength: 5,
-    }).map((a) => a.join('')),
+    fc
+      .array(fc.oneof(percentJunk, fc.constantFrom('../', '..', '.', 'a', '1', '-1', '0', '1e3', '0x10', ' 5', '1.5', 'Infinity', '9'.repeat(30))), {
+        minLength: 1,
+        maxLength: 5,
+      })
+      .map((a) => a.join('')),
   )
   .filter((segment) => {
     // no segment at all is another route (/orders/ is GET /orders); a raw # or ? ends the path
@@ -260,10 +259,19 @@ describe('the payment webhook', () => {
     expect(webhook).toBeDefined();
     await fc.assert(
       fc.asyncProperty(
-        fc.oneof(anyBody, fc.uint8Array({ maxLength: 2_000 }).map((a) => Buffer.from(a))),
-        fc.option(fc.oneof(fc.string({ unit: 'binary-ascii', maxLength: 80 }), fc.string({ maxLength: 40 }).map((s) => `t=1,v1=${s}`)), {
-          nil: undefined,
-        }),
+        fc.oneof(
+          anyBody,
+          fc.uint8Array({ maxLength: 2_000 }).map((a) => Buffer.from(a)),
+        ),
+        fc.option(
+          fc.oneof(
+            fc.string({ unit: 'binary-ascii', maxLength: 80 }),
+            fc.string({ maxLength: 40 }).map((s) => `t=1,v1=${s}`),
+          ),
+          {
+            nil: undefined,
+          },
+        ),
         async (body, signature) => {
           const before = await rowCounts();
           let req = owner.post(`/api${WEBHOOK_PATH}`).set('Content-Type', 'application/json');

@@ -4,8 +4,8 @@
 // transaction; a refused one changes no row and appends no event.
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { PickupTicket } from '../../src/domain/pickup';
-import type { TicketView } from '../../src/domain/types';
+import type { PickupTicket } from '@/domain/pickup';
+import type { TicketView } from '@/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { BIG_PITCHER, barTools, laneIds, laneOf, MID_PITCHER, plannedJug, SMALL_PITCHER } from './bar-helpers';
 import { orderBody, type Agent } from './helpers';
@@ -41,12 +41,14 @@ beforeAll(async () => {
 });
 afterAll(() => server.close());
 
-const { place, drinkIdsOf, drinkRow, orderRow, maxEventId, eventsAfter, expectRefused, expectCommand, expectBatch, openTickets, clearBar, barLanes } = barTools({
-  server: () => server,
-  cashier: () => cashier,
-  barista: () => barista,
-  nowIso,
-});
+const { place, drinkIdsOf, drinkRow, orderRow, maxEventId, eventsAfter, expectRefused, expectCommand, expectBatch, openTickets, clearBar, barLanes } = barTools(
+  {
+    server: () => server,
+    cashier: () => cashier,
+    barista: () => barista,
+    nowIso,
+  },
+);
 
 describe('GET /api/bar/lanes', () => {
   it('groups the open drinks by milk, oldest first, with a jug plan per lane and the shots still to pull', async () => {
@@ -314,7 +316,15 @@ async function insertOtherCafeDrink(): Promise<number> {
   const db = server.db;
   const at = nowIso();
   const [{ id: locationId }] = await db('locations')
-    .insert({ name: 'North Quay Espresso', time_zone: 'Europe/London', currency: 'GBP', locale: 'en-GB', tax_mode: 'inclusive', tax_rate_milli_pct: 20000, created_at: at })
+    .insert({
+      name: 'North Quay Espresso',
+      time_zone: 'Europe/London',
+      currency: 'GBP',
+      locale: 'en-GB',
+      tax_mode: 'inclusive',
+      tax_rate_milli_pct: 20000,
+      created_at: at,
+    })
     .returning('id');
   const [{ id: categoryId }] = await db('menu_categories').insert({ location_id: locationId, name: 'Coffee' }).returning('id');
   const [{ id: itemId }] = await db('menu_items')
@@ -338,7 +348,17 @@ async function insertOtherCafeDrink(): Promise<number> {
     })
     .returning('id');
   const [{ id: drinkId }] = await db('order_items')
-    .insert({ order_id: orderId, menu_item_id: itemId, line_no: 1, item_name: 'Cortado', station: 'bar', shots: 2, price_cents: 350, dose_dg: 190, status: 'queued' })
+    .insert({
+      order_id: orderId,
+      menu_item_id: itemId,
+      line_no: 1,
+      item_name: 'Cortado',
+      station: 'bar',
+      shots: 2,
+      price_cents: 350,
+      dose_dg: 190,
+      status: 'queued',
+    })
     .returning('id');
   return drinkId;
 }

@@ -1,8 +1,8 @@
 // The bar's commands over HTTP: start, bump a drink, bump a ticket, recall. Each one is a
 // transaction that appends exactly one event; a refused one appends none.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { PickupTicket } from '../../src/domain/pickup';
-import type { TicketView } from '../../src/domain/types';
+import type { PickupTicket } from '@/domain/pickup';
+import type { TicketView } from '@/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
 import { jsonOf } from '../support/rows';
@@ -88,7 +88,13 @@ describe('GET /api/tickets', () => {
     expect(ticket).toMatchObject({ customerName: 'Anouk Pemberton', status: 'open', readyAt: null });
     // Bar drinks only: the croissant is collected at the counter.
     expect(ticket.drinks.map((d: { itemName: string }) => d.itemName)).toEqual(['Latte', 'Cappuccino', 'Espresso']);
-    expect(ticket.drinks[0]).toMatchObject({ milk: { id: ids.milk('Oat'), name: 'Oat', code: 'OA' }, shots: 2, status: 'queued', startedAt: null, doneAt: null });
+    expect(ticket.drinks[0]).toMatchObject({
+      milk: { id: ids.milk('Oat'), name: 'Oat', code: 'OA' },
+      shots: 2,
+      status: 'queued',
+      startedAt: null,
+      doneAt: null,
+    });
     expect(ticket.drinks[1]).toMatchObject({ milk: { name: 'Whole', code: 'WH' }, sizeName: 'Regular', status: 'queued' });
     expect(ticket.drinks[2]).toMatchObject({ milk: null, shots: 3, status: 'queued' });
 
@@ -222,10 +228,7 @@ describe('bumping a ticket and recalling', () => {
   });
 
   it('a recall undoes the last command even when two bumps land in the same millisecond', async () => {
-    const id = await place('Orla Brennick', [
-      { menuItemId: ids.item('Latte'), milkId: ids.milk('Whole') },
-      { menuItemId: ids.item('Espresso') },
-    ]);
+    const id = await place('Orla Brennick', [{ menuItemId: ids.item('Latte'), milkId: ids.milk('Whole') }, { menuItemId: ids.item('Espresso') }]);
     const [latte, espresso] = await drinkRows(id);
     tick();
     // the clock does not move between these two: same done_at

@@ -2,8 +2,8 @@
 // check that a refused command changed no row and appended no event. The server and agents are
 // read through getters, as each test file signs them in inside its beforeAll.
 import { expect } from 'vitest';
-import type { PlannedLane } from '../../src/domain/lanes';
-import type { TicketView } from '../../src/domain/types';
+import type { PlannedLane } from '@/domain/lanes';
+import type { TicketView } from '@/domain/types';
 import type { TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
 import { jsonOf } from '../support/rows';
@@ -15,7 +15,10 @@ export function barTools(get: { server: () => TestServer; cashier: () => Agent; 
 
   /** A cash order placed by the cashier; answers its id. */
   async function place(customerName: string, items: LineInput[], extras: OrderExtras = {}): Promise<number> {
-    const res = await get.cashier().post('/api/orders').send({ ...orderBody(customerName, items), ...extras });
+    const res = await get
+      .cashier()
+      .post('/api/orders')
+      .send({ ...orderBody(customerName, items), ...extras });
     if (res.status !== 201) throw new Error(`order failed: ${res.status} ${JSON.stringify(res.body)}`);
     return res.body.order.id;
   }
@@ -30,7 +33,9 @@ export function barTools(get: { server: () => TestServer; cashier: () => Agent; 
   /** The rows a command could change: the drinks, the orders they are on, and the jugs. */
   async function rowsOf(drinkIds: number[]) {
     const drinks = await db()('order_items').whereIn('id', drinkIds).orderBy('id');
-    const orders = await db()('orders').whereIn('id', [...new Set(drinks.map((d) => d.order_id))]).orderBy('id');
+    const orders = await db()('orders')
+      .whereIn('id', [...new Set(drinks.map((d) => d.order_id))])
+      .orderBy('id');
     const jugs = await db()('jugs').orderBy('id');
     const jugDrinks = await db()('jug_drinks').orderBy('order_item_id');
     return { drinks, orders, jugs, jugDrinks };
@@ -118,7 +123,22 @@ export function barTools(get: { server: () => TestServer; cashier: () => Agent; 
     return res.body as { seq: number; now: string; lanes: PlannedLane[]; shotPlan: { shots: number; doseDg: number } };
   }
 
-  return { place, drinkIdsOf, drinkRow, orderRow, maxEventId, eventsAfter, rowsOf, send, expectRefused, expectCommand, expectBatch, openTickets, clearBar, barLanes };
+  return {
+    place,
+    drinkIdsOf,
+    drinkRow,
+    orderRow,
+    maxEventId,
+    eventsAfter,
+    rowsOf,
+    send,
+    expectRefused,
+    expectCommand,
+    expectBatch,
+    openTickets,
+    clearBar,
+    barLanes,
+  };
 }
 
 export const laneOf = (lanes: PlannedLane[], milkName: string) => lanes.find((l) => l.milk?.name === milkName)!;

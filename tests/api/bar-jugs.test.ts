@@ -8,7 +8,7 @@
 // the base of the spout (the fill line; docs/check-values.md, common practice), a minimum fill of
 // a third of the pitcher and growth of 15/25/75 % by texture (common practice, from memory).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BoardSnapshot } from '../../src/domain/types';
+import type { BoardSnapshot } from '@/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { BIG_PITCHER, barTools, laneOf, MID_PITCHER, plannedJug, SMALL_PITCHER } from './bar-helpers';
 import type { Agent } from './helpers';
@@ -28,7 +28,12 @@ let barista2Id: number;
 
 beforeAll(async () => {
   server = await startTestServer({ clock: time.clock });
-  [cashier, barista, barista2, owner] = [await server.signIn('cashier'), await server.signIn('barista'), await server.signIn('barista2'), await server.signIn('owner')];
+  [cashier, barista, barista2, owner] = [
+    await server.signIn('cashier'),
+    await server.signIn('barista'),
+    await server.signIn('barista2'),
+    await server.signIn('owner'),
+  ];
   ids = await demoMenu(server);
   const userId = async (username: string) => (await server.db('users').where({ username }).first()).id as number;
   [baristaId, barista2Id] = [await userId('barista'), await userId('barista2')];
@@ -55,7 +60,10 @@ async function tickets(...lines: ReturnType<typeof whole>[]) {
 /** "Start jug": 201 { jugId, tickets } and one drink.started event per ticket. */
 async function startJug(agent: Agent, drinkIds: number[], ticketIds: number[], actorId = baristaId) {
   tick();
-  const { tickets: answered, body } = await expectBatch(agent, '/api/jugs', drinkIds, 'drink.started', actorId, ticketIds, { status: 201, keys: ['jugId', 'tickets'] });
+  const { tickets: answered, body } = await expectBatch(agent, '/api/jugs', drinkIds, 'drink.started', actorId, ticketIds, {
+    status: 201,
+    keys: ['jugId', 'tickets'],
+  });
   return { jugId: body.jugId as number, tickets: answered };
 }
 const bumpJug = (agent: Agent, jugId: number, drinkIds: number[], ticketIds: number[], actorId = baristaId) => {
@@ -94,10 +102,7 @@ describe('the reported sequence', () => {
 
     // A cappuccino arrives: 210 + 15 = 225 > 190; ≥ 200, ≤ 330, 225 × 1.75 = 393.75 ≤ 600 → 600 ml.
     const [cappuccino] = await tickets(whole('Cappuccino'));
-    expect(await jugPlanOf()).toEqual([
-      { ...shown, jugId },
-      plannedJug(MID_PITCHER, 225, 15, 'foamy', [cappuccino]),
-    ]);
+    expect(await jugPlanOf()).toEqual([{ ...shown, jugId }, plannedJug(MID_PITCHER, 225, 15, 'foamy', [cappuccino])]);
 
     await bumpJug(barista, jugId, [flatWhite], [fwTicket]);
     expect(await drinkRow(flatWhite)).toMatchObject({ status: 'done', done_by: baristaId });
@@ -116,7 +121,8 @@ describe('POST /api/jugs', () => {
     const mixed = await place('Ines Oduya', [{ menuItemId: ids.item('Espresso') }, { menuItemId: ids.item('Latte'), milkId: ids.milk('Oat') }]);
     const [espresso, oatLatte] = await drinkIdsOf(mixed);
     const watch = [latte, bigLatte1, bigLatte2, espresso, oatLatte];
-    const refused = (drinkIds: number[], status = 409, code = 'conflict', agent = barista) => expectRefused(agent, '/api/jugs', { drinkIds }, status, code, watch);
+    const refused = (drinkIds: number[], status = 409, code = 'conflict', agent = barista) =>
+      expectRefused(agent, '/api/jugs', { drinkIds }, status, code, watch);
 
     expect((await refused([latte, espresso])).details).toEqual({ drinkId: espresso }); // no steamed milk
     expect((await refused([latte, oatLatte])).details).toEqual({ drinkId: oatLatte }); // one milk a jug
@@ -146,7 +152,9 @@ describe('POST /api/jugs', () => {
     try {
       const [a, b, c] = await tickets(whole('Flat white'), whole('Flat white'), whole('Flat white'));
       tick();
-      const [cap] = await drinkIdsOf(await place('Oona Vell', [{ menuItemId: ids.item('Cappuccino'), sizeId: ids.size('Cappuccino', 'Small'), milkId: ids.milk('Oat') }]));
+      const [cap] = await drinkIdsOf(
+        await place('Oona Vell', [{ menuItemId: ids.item('Cappuccino'), sizeId: ids.size('Cappuccino', 'Small'), milkId: ids.milk('Oat') }]),
+      );
       const { lanes } = await barLanes();
       const summary = (milk: string) => laneOf(lanes, milk).jugPlan.map((j) => [j.drinkIds, j.pitcher.capacityMl, j.coldMl, j.wasteMl]);
       // At most 2 a jug: 120 + 120 + 15 = 255 > 190 → 600 ml (≥ 200). The third alone: 135 ml,
@@ -172,7 +180,16 @@ describe('POST /api/jugs', () => {
     const since = await maxEventId();
     tick();
     // Eight requests, each naming two of the three drinks: any two overlap, so one wins.
-    const pairs = [[a, b], [b, c], [a, c], [a, b], [b, c], [a, c], [a, b], [b, c]];
+    const pairs = [
+      [a, b],
+      [b, c],
+      [a, c],
+      [a, b],
+      [b, c],
+      [a, c],
+      [a, b],
+      [b, c],
+    ];
     const answers = await Promise.all(pairs.map((drinkIds, i) => (i % 2 ? barista2 : barista).post('/api/jugs').send({ drinkIds })));
     expect(answers.map((r) => r.status).sort()).toEqual([201, 409, 409, 409, 409, 409, 409, 409]);
     const won = answers.findIndex((r) => r.status === 201);
@@ -228,7 +245,17 @@ describe('POST /api/jugs/:id/bump', () => {
     const [{ id: otherCafe }] = await server.db('locations').insert({ name: 'Quayside Roasters', created_at: nowIso() }).returning('id');
     const [{ id: theirJug }] = await server
       .db('jugs')
-      .insert({ location_id: otherCafe, capacity_ml: 600, fill_line_ml: 330, min_fill_ml: 200, cold_ml: 200, waste_ml: 15, steam_for: 'flat', fits: true, started_at: nowIso() })
+      .insert({
+        location_id: otherCafe,
+        capacity_ml: 600,
+        fill_line_ml: 330,
+        min_fill_ml: 200,
+        cold_ml: 200,
+        waste_ml: 15,
+        steam_for: 'flat',
+        fits: true,
+        started_at: nowIso(),
+      })
       .returning('id');
     await expectRefused(barista, `/api/jugs/${theirJug}/bump`, { drinkIds: [latte] }, 404, 'not_found', watch);
 
@@ -246,7 +273,9 @@ describe('POST /api/jugs/:id/bump', () => {
     const { jugId } = await startJug(barista, [a, b], ticketIds);
     const since = await maxEventId();
     tick();
-    const answers = await Promise.all(Array.from({ length: 8 }, (_, i) => (i % 2 ? barista2 : barista).post(`/api/jugs/${jugId}/bump`).send({ drinkIds: [a, b] })));
+    const answers = await Promise.all(
+      Array.from({ length: 8 }, (_, i) => (i % 2 ? barista2 : barista).post(`/api/jugs/${jugId}/bump`).send({ drinkIds: [a, b] })),
+    );
     expect(answers.map((r) => r.status).sort()).toEqual([200, 409, 409, 409, 409, 409, 409, 409]);
     const rows = [await drinkRow(a), await drinkRow(b)];
     expect(rows.map((r) => r.status)).toEqual(['done', 'done']);

@@ -1,8 +1,8 @@
 // Bean lots over HTTP: owner only; 400 with the fields to fix; freshness from the café's calendar;
 // stock that a bumped drink takes from the lot in the espresso grinder and a recall gives back.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BeanLotView } from '../../src/domain/bean-stock';
-import type { BeansView } from '../../src/lib/beans-api';
+import type { BeanLotView } from '@/domain/bean-stock';
+import type { BeansView } from '@/lib/beans-api';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { lotBody, orderBody, type Agent, type LineInput } from './helpers';
 
@@ -84,7 +84,12 @@ describe('the demo lots', () => {
     const v = await view();
     expect(v.timeZone).toBe('America/New_York');
     expect(v.today).toBe('2026-03-02');
-    expect(v.lots.filter((l) => !l.retiredAt).map((l) => l.hopper).sort()).toEqual(['decaf', 'espresso', 'shelf']);
+    expect(
+      v.lots
+        .filter((l) => !l.retiredAt)
+        .map((l) => l.hopper)
+        .sort(),
+    ).toEqual(['decaf', 'espresso', 'shelf']);
   });
 });
 
@@ -210,7 +215,15 @@ describe('coffee used by the bar', () => {
     const bump = await agents.barista.post(`/api/drinks/${drinks[0].id}/bump`);
     expect(bump.status).toBe(200);
     expect(await usageOf([drinks[0].id])).toEqual([
-      { id: expect.any(Number), lot_id: espresso.id, source: 'drink', order_item_id: drinks[0].id, shot_id: null, dose_dg: dose, used_at: time.clock().toISOString() },
+      {
+        id: expect.any(Number),
+        lot_id: espresso.id,
+        source: 'drink',
+        order_item_id: drinks[0].id,
+        shot_id: null,
+        dose_dg: dose,
+        used_at: time.clock().toISOString(),
+      },
     ]);
     expect(await remaining(espresso)).toBe(start - dose);
 
@@ -277,7 +290,9 @@ describe('coffee used by the bar', () => {
     const pulse = await agents.lead.get('/api/pulse');
     expect(pulse.status).toBe(200);
     expect(pulse.body.beanAlerts).toEqual(
-      expect.arrayContaining([expect.objectContaining({ lotId: espresso.id, kind: 'low', message: expect.stringContaining('Bar Espresso in the espresso grinder is low') })]),
+      expect.arrayContaining([
+        expect.objectContaining({ lotId: espresso.id, kind: 'low', message: expect.stringContaining('Bar Espresso in the espresso grinder is low') }),
+      ]),
     );
     await agents.owner.put('/api/beans/settings').send({ timeMinS: 25, timeMaxS: 30, ratioMinX10: 18, ratioMaxX10: 22, lowStockG: 500 });
   });

@@ -5,7 +5,7 @@ import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { OrderView, TicketView } from '../../src/domain/types';
+import type { OrderView, TicketView } from '@/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
 import { jsonOf } from '../support/rows';

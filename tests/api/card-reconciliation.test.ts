@@ -7,7 +7,7 @@ import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import Stripe from 'stripe';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import type { PaymentFake } from '../../server/fakes/payment-fake';
+import type { PaymentFake } from '@server/fakes/payment-fake';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
 import { jsonOf } from '../support/rows';
@@ -81,9 +81,7 @@ async function releaseWebhooks() {
 
 /** What the provider holds for an order: its succeeded charges and every refund of them. */
 async function providerSide(orderId: number) {
-  const charges = await sdk.paymentIntents
-    .search({ query: `metadata['orderId']:'${orderId}' AND status:'succeeded'` })
-    .autoPagingToArray({ limit: 100 });
+  const charges = await sdk.paymentIntents.search({ query: `metadata['orderId']:'${orderId}' AND status:'succeeded'` }).autoPagingToArray({ limit: 100 });
   const refunds = (await Promise.all(charges.map((pi) => sdk.refunds.list({ payment_intent: pi.id }).autoPagingToArray({ limit: 100 })))).flat();
   return { charges, refunds };
 }
@@ -108,7 +106,10 @@ async function expectEveryChargeAccountedFor(orderId: number) {
       );
       continue;
     }
-    expect(givenBack.reduce((sum, r) => sum + r.amount, 0), `${pi.id} is neither recorded nor given back`).toBe(pi.amount_received);
+    expect(
+      givenBack.reduce((sum, r) => sum + r.amount, 0),
+      `${pi.id} is neither recorded nor given back`,
+    ).toBe(pi.amount_received);
     for (const r of givenBack) {
       expect(refunds, `no Jugline refund row for ${r.id}`).toContainEqual(
         expect.objectContaining({ provider_id: r.id, amount_cents: r.amount, reason: expect.stringMatching(/\w/) }),
@@ -165,7 +166,13 @@ describe('a lost answer', () => {
     expect(charges).toHaveLength(1);
     expect(refunds).toHaveLength(1);
     expect(await refundRows(orderId)).toEqual([
-      expect.objectContaining({ amount_cents: order.total_cents, cause: 'order_voided', created_by: null, reason: expect.stringMatching(/void/i), provider_id: refunds[0].id }),
+      expect.objectContaining({
+        amount_cents: order.total_cents,
+        cause: 'order_voided',
+        created_by: null,
+        reason: expect.stringMatching(/void/i),
+        provider_id: refunds[0].id,
+      }),
     ]);
     // Nothing is left for a lead to give back.
     const refund = await lead.post(`/api/orders/${orderId}/refund`).send({ reason: 'Customer asked' });
@@ -255,7 +262,9 @@ describe('webhooks for an order in any state', () => {
   it('answers 503 with Retry-After when it cannot ask the provider, so the provider sends it again', async () => {
     const { orderId } = await lostAnswer('Quentin Yarrow');
     const [attempt] = await paymentRows(orderId);
-    const event = fake.events().find((e) => e.type === 'payment_intent.succeeded' && (e.data.object.metadata as { paymentId?: string }).paymentId === String(attempt.id));
+    const event = fake
+      .events()
+      .find((e) => e.type === 'payment_intent.succeeded' && (e.data.object.metadata as { paymentId?: string }).paymentId === String(attempt.id));
     expect(event).toBeDefined();
     const payload = JSON.stringify(event);
     fake.faults.setOffline(true);
@@ -285,7 +294,9 @@ describe('the answer and the webhook settling one attempt at once', () => {
     for (let round = 0; round < 6; round++) {
       const { body, orderId } = await lostAnswer(`Ambrose Kettle ${round}`);
       const [attempt] = await paymentRows(orderId);
-      const event = fake.events().find((e) => e.type === 'payment_intent.succeeded' && (e.data.object.metadata as { paymentId?: string }).paymentId === String(attempt.id))!;
+      const event = fake
+        .events()
+        .find((e) => e.type === 'payment_intent.succeeded' && (e.data.object.metadata as { paymentId?: string }).paymentId === String(attempt.id))!;
       const payload = JSON.stringify(event);
       // The held webhook goes out while the Counter resends and the provider's event is delivered
       // again (at least once, maybe more), all at the same time.
@@ -330,13 +341,17 @@ describe('an attempt cut off mid-call (the server restarted while the card servi
     const orderId: number = res.body.error.details.orderId;
     const order = await orderRow(orderId);
     const at = time.clock().toISOString();
-    const [{ id }] = await server.db('payments')
+    const [{ id }] = await server
+      .db('payments')
       .insert({ order_id: orderId, method: 'card', status: 'processing', amount_cents: order.total_cents, created_at: at, updated_at: at })
       .returning('id');
     if (charged) {
       // the card was run before the crash: the card service holds the charge
       const pi = await sdk.paymentIntents.create({
-        amount: order.total_cents, currency: 'usd', payment_method: VISA, confirm: true,
+        amount: order.total_cents,
+        currency: 'usd',
+        payment_method: VISA,
+        confirm: true,
         metadata: { orderId: String(orderId), paymentId: String(id), locationId: String(order.location_id) },
       });
       await server.db('payments').where({ id }).update({ provider_id: pi.id });

@@ -4,8 +4,8 @@
 // must lock, write conditionally or lean on a unique constraint (409, never 500).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Knex } from 'knex';
-import { dialectOf } from '../../server/db/dialect';
-import { createDb } from '../../server/db/knex';
+import { dialectOf } from '@server/db/dialect';
+import { createDb } from '@server/db/knex';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent } from './helpers';
 
@@ -38,7 +38,11 @@ describe('orders taken at once', () => {
   it(`${AT_ONCE} at once: all 201, numbered one after another without a gap or a repeat`, async () => {
     const before = await server.db('orders').select('number', 'business_date');
     const res = await Promise.all(
-      Array.from({ length: AT_ONCE }, (_, i) => terminal(i).post('/api/orders').send(orderBody(`Guest ${i}`, [{ menuItemId: ids.item('Espresso') }]))),
+      Array.from({ length: AT_ONCE }, (_, i) =>
+        terminal(i)
+          .post('/api/orders')
+          .send(orderBody(`Guest ${i}`, [{ menuItemId: ids.item('Espresso') }])),
+      ),
     );
     expect(statuses(res), JSON.stringify(res.find((r) => r.status !== 201)?.body)).toEqual(Array(AT_ONCE).fill(201));
     const day = (await server.db('orders').where({ id: res[0].body.order.id }).first('business_date')).business_date as string;
@@ -53,7 +57,12 @@ describe('drinks of one ticket bumped at once', () => {
     const drinks = ['Latte', 'Cappuccino', 'Flat white', 'Espresso', 'Long black', 'Mocha'];
     const placed = await terminal(0)
       .post('/api/orders')
-      .send(orderBody('Ines Vale', drinks.map((d) => ({ menuItemId: ids.item(d) }))));
+      .send(
+        orderBody(
+          'Ines Vale',
+          drinks.map((d) => ({ menuItemId: ids.item(d) })),
+        ),
+      );
     expect(placed.status).toBe(201);
     const orderId = placed.body.order.id as number;
     const drinkIds = (await server.db('order_items').where({ order_id: orderId, station: 'bar' }).pluck('id')) as number[];
@@ -91,7 +100,9 @@ describe('refunds landing while the range report stores its past days', () => {
     // last in the file: it moves the clock on to the next café day
     const orders = [];
     for (let i = 0; i < 12; i++) {
-      const res = await terminal(0).post('/api/orders').send(orderBody(`Past ${i}`, [{ menuItemId: ids.item('Latte') }]));
+      const res = await terminal(0)
+        .post('/api/orders')
+        .send(orderBody(`Past ${i}`, [{ menuItemId: ids.item('Latte') }]));
       expect(res.status).toBe(201);
       orders.push(res.body.order as { id: number });
     }
@@ -119,7 +130,9 @@ describe('refunds landing while the range report stores its past days', () => {
     // A second connection changes an order of the stored day and holds its transaction open (on
     // PostgreSQL; SQLite's one writer can't have a change open beside the app's, so there the
     // change simply comes first). The report asked meanwhile must not store the day without it.
-    const placed = await terminal(0).post('/api/orders').send(orderBody('Held Change', [{ menuItemId: ids.item('Latte') }]));
+    const placed = await terminal(0)
+      .post('/api/orders')
+      .send(orderBody('Held Change', [{ menuItemId: ids.item('Latte') }]));
     expect(placed.status).toBe(201);
     time.advance(24 * 3600_000); // its day is past now: the report stores it
     const order = (await server.db('orders').where({ id: placed.body.order.id }).first('id', 'business_date')) as { id: number; business_date: string };

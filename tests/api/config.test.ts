@@ -4,7 +4,7 @@ import { mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { ConfigError, loadConfig } from '../../server/config';
+import { ConfigError, loadConfig } from '@server/config';
 
 const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-config-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));

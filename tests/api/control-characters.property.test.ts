@@ -7,16 +7,16 @@
 import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { z } from 'zod';
-import { beanLotBody, dialInShotBody } from '../../src/domain/beans-schemas';
-import { categoryBody, itemBody, milkBody, modifierBody, modifierGroupBody } from '../../src/domain/menu-admin-schemas';
-import { MENU_CSV_COLUMNS } from '../../src/domain/menu-csv';
-import { closeShiftBody, createOrderBody, receiptEmailBody, refundBody, signInBody, voidBody } from '../../src/domain/schemas';
-import { settingsBody } from '../../src/domain/settings-schemas';
-import { newPersonBody, personPatchBody } from '../../src/domain/team-schemas';
-import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
+import { beanLotBody, dialInShotBody } from '@/domain/beans-schemas';
+import { categoryBody, itemBody, milkBody, modifierBody, modifierGroupBody } from '@/domain/menu-admin-schemas';
+import { MENU_CSV_COLUMNS } from '@/domain/menu-csv';
+import { closeShiftBody, createOrderBody, receiptEmailBody, refundBody, signInBody, voidBody } from '@/domain/schemas';
+import { settingsBody } from '@/domain/settings-schemas';
+import { newPersonBody, personPatchBody } from '@/domain/team-schemas';
+import { DEMO_PASSWORD } from '@seeds/demo-cafe';
 import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
 import { lotBody, orderBody, type Agent } from './helpers';
-import { tableNames } from '../../server/db/dialect';
+import { tableNames } from '@server/db/dialect';
 
 const RUNS = 30;
 vi.setConfig({ testTimeout: 300_000 });
@@ -94,11 +94,29 @@ const CASES: Case[] = [
   { method: 'post', url: () => `/api/orders/${ids.order}/refund`, body: () => ({ reason: 'spilled it' }), schema: refundBody, fields: ['reason'] },
   { method: 'post', url: () => `/api/orders/${ids.order}/void`, body: () => ({ reason: 'rang it twice' }), schema: voidBody, fields: ['reason'] },
   { method: 'post', url: () => `/api/orders/${ids.order}/receipt`, body: () => ({ email: 'ivo@example.com' }), schema: receiptEmailBody, fields: ['email'] },
-  { method: 'post', url: () => '/api/shifts/current/close', body: () => ({ countedCashCents: 100_00, note: 'till counted twice' }), schema: closeShiftBody, fields: ['note'] },
+  {
+    method: 'post',
+    url: () => '/api/shifts/current/close',
+    body: () => ({ countedCashCents: 100_00, note: 'till counted twice' }),
+    schema: closeShiftBody,
+    fields: ['note'],
+  },
   { method: 'post', url: () => '/api/menu-admin/categories', body: () => ({ name: 'Brunch' }), schema: categoryBody, fields: ['name'] },
   { method: 'put', url: () => `/api/menu-admin/categories/${ids.category}`, body: () => ({ name: 'Brunch' }), schema: categoryBody, fields: ['name'] },
-  { method: 'post', url: () => '/api/menu-admin/milks', body: () => ({ name: 'Hazel', code: 'HZ', upchargeCents: 60, ingredients: ['hazelnut'] }), schema: milkBody, fields: ['name', 'code'] },
-  { method: 'put', url: () => `/api/menu-admin/milks/${ids.milk}`, body: () => ({ name: 'Oat', code: 'OA', upchargeCents: 60, ingredients: [] }), schema: milkBody, fields: ['name', 'code'] },
+  {
+    method: 'post',
+    url: () => '/api/menu-admin/milks',
+    body: () => ({ name: 'Hazel', code: 'HZ', upchargeCents: 60, ingredients: ['hazelnut'] }),
+    schema: milkBody,
+    fields: ['name', 'code'],
+  },
+  {
+    method: 'put',
+    url: () => `/api/menu-admin/milks/${ids.milk}`,
+    body: () => ({ name: 'Oat', code: 'OA', upchargeCents: 60, ingredients: [] }),
+    schema: milkBody,
+    fields: ['name', 'code'],
+  },
   {
     method: 'post',
     url: () => '/api/menu-admin/modifier-groups',
@@ -129,7 +147,13 @@ const CASES: Case[] = [
     schema: newPersonBody,
     fields: ['name', 'username', 'email'],
   },
-  { method: 'patch', url: () => `/api/team/${ids.person}`, body: () => ({ name: 'Jonah Reyes', email: 'jonah@example.com' }), schema: personPatchBody, fields: ['name', 'email'] },
+  {
+    method: 'patch',
+    url: () => `/api/team/${ids.person}`,
+    body: () => ({ name: 'Jonah Reyes', email: 'jonah@example.com' }),
+    schema: personPatchBody,
+    fields: ['name', 'email'],
+  },
   { method: 'post', url: () => '/api/beans/lots', body: lotWithNotes, schema: beanLotBody, fields: ['name', 'roaster', 'origin', 'notes'] },
   { method: 'put', url: () => `/api/beans/lots/${ids.lot}`, body: lotWithNotes, schema: beanLotBody, fields: ['name', 'roaster', 'origin', 'notes'] },
   {
@@ -183,7 +207,10 @@ describe('a forbidden character in any free-text field', () => {
           const what = `${field} with U+${ch.charCodeAt(0).toString(16).padStart(4, '0')} → ${res.status} ${JSON.stringify(res.body).slice(0, 300)}`;
           expect(res.status, what).toBe(400);
           expect(res.body.error.code, what).toBe('validation_failed');
-          expect(res.body.error.details.map((d: { path: string }) => d.path), what).toContain(field);
+          expect(
+            res.body.error.details.map((d: { path: string }) => d.path),
+            what,
+          ).toContain(field);
           expect(await rowCounts(), what).toEqual(before);
         }),
         { numRuns: RUNS },

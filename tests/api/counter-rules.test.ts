@@ -2,8 +2,8 @@
 // the café's published list, finding today's orders, and prices only ever from the server.
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { US_ALLERGENS } from '../../src/domain/allergens';
-import type { MenuView, OrderView, TicketView } from '../../src/domain/types';
+import { US_ALLERGENS } from '@/domain/allergens';
+import type { MenuView, OrderView, TicketView } from '@/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, writeCounts, type Agent, type LineInput } from './helpers';
 import { jsonOf } from '../support/rows';
@@ -63,11 +63,14 @@ describe('quotedWaitSeconds', () => {
     expect(menu.location.baristasOnBar).toBe(1);
     expect((await cashier.get('/api/tickets?view=open')).body.tickets).toEqual([]);
 
-    const first = await place(cashier, orderBody('Ignatius Rook', [
-      { menuItemId: ids.item('Latte') },
-      { menuItemId: ids.item('Cappuccino') },
-      { menuItemId: ids.item('Butter croissant') }, // a counter item: not made at the bar
-    ]));
+    const first = await place(
+      cashier,
+      orderBody('Ignatius Rook', [
+        { menuItemId: ids.item('Latte') },
+        { menuItemId: ids.item('Cappuccino') },
+        { menuItemId: ids.item('Butter croissant') }, // a counter item: not made at the bar
+      ]),
+    );
     expect(first.status).toBe(201);
     expect(first.body.order.quotedWaitSeconds).toBe(((0 + 2) * 60) / 1);
     expect((await server.db('orders').where({ id: first.body.order.id }).first()).quoted_wait_seconds).toBe(120);
@@ -88,7 +91,7 @@ describe('quotedWaitSeconds', () => {
 describe("86'ing an item", () => {
   const path = (id: number) => `/api/menu/items/${id}/availability`;
 
-  it("a cashier may not: 403, and the item stays on", async () => {
+  it('a cashier may not: 403, and the item stays on', async () => {
     const item = ids.item('Almond croissant');
     const since = await maxEventId();
     const res = await cashier.post(path(item)).send({ available: false });
@@ -189,12 +192,21 @@ describe('discounts', () => {
 
     const res = await place(lead, { ...orderBody('Marigold Tench', lines), discount: { kind: 'amount', value, reason: 'Spilt the first one' } });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
-    expect(res.body.order).toMatchObject({ subtotalCents: subtotal, discountCents: value, taxCents: 83, totalCents: 10_00 + 83, discountReason: 'Spilt the first one' });
+    expect(res.body.order).toMatchObject({
+      subtotalCents: subtotal,
+      discountCents: value,
+      taxCents: 83,
+      totalCents: 10_00 + 83,
+      discountReason: 'Spilt the first one',
+    });
   });
 
   it('needs a reason: 400 on discount.reason, nothing stored', async () => {
     const before = await writeCounts(server);
-    for (const discount of [{ kind: 'percent', value: 10 }, { kind: 'percent', value: 10, reason: 'no' }]) {
+    for (const discount of [
+      { kind: 'percent', value: 10 },
+      { kind: 'percent', value: 10, reason: 'no' },
+    ]) {
       const res = await place(lead, { ...orderBody('Aldous Penn', mochaAndCroissant()), discount });
       expect(res.status).toBe(400);
       expect(res.body.error).toMatchObject({ code: 'validation_failed', details: [{ path: 'discount.reason', message: expect.any(String) }] });
@@ -293,7 +305,11 @@ describe('prices', () => {
     const total = subtotal + ssutaTaxCents(subtotal, menu.location.taxRateMilliPct).cents;
 
     const res = await place(cashier, {
-      ...orderBody('Cuthbert Vale', lines.map((l) => ({ ...l, priceCents: 1 }) as LineInput), 50_00),
+      ...orderBody(
+        'Cuthbert Vale',
+        lines.map((l) => ({ ...l, priceCents: 1 }) as LineInput),
+        50_00,
+      ),
       subtotalCents: 1,
       discountCents: 500,
       taxCents: 0,

@@ -8,7 +8,7 @@
 // same (tests/faults/database-busy.test.ts runs the built server on the real 5 s).
 import request from 'supertest';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_PASSWORD, DEMO_PINS } from '../../seeds/demo-cafe';
+import { DEMO_PASSWORD, DEMO_PINS } from '@seeds/demo-cafe';
 import { holdWriteLock } from '../support/db-lock';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { closeAllSockets, connect, tryUpgrade } from '../realtime/ws-client';

@@ -2,8 +2,8 @@
 // answer carries the ratio and the advice; each shot takes its dose from the lot; the lot's last
 // good settings follow. Advice values: common practice (see tests/unit/dial-in.test.ts).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { BeanLotView } from '../../src/domain/bean-stock';
-import type { DialInView } from '../../src/lib/beans-api';
+import type { BeanLotView } from '@/domain/bean-stock';
+import type { DialInView } from '@/lib/beans-api';
 import { manualClock, startTestServer, type TestServer } from '../support/test-server';
 import type { Agent } from './helpers';
 
@@ -125,7 +125,9 @@ describe('logging shots', () => {
 
   it('400 with the fields to fix, 404 for a lot that is not there, 409 for a retired lot; nothing stored', async () => {
     const before = await counts();
-    const bad = await agents.barista.post('/api/dial-in/shots').send({ lotId: lot.id, grind: '  ', doseG: '18', yieldG: -1, timeS: 500, tasteNote: 'x'.repeat(141) });
+    const bad = await agents.barista
+      .post('/api/dial-in/shots')
+      .send({ lotId: lot.id, grind: '  ', doseG: '18', yieldG: -1, timeS: 500, tasteNote: 'x'.repeat(141) });
     expect(bad.status).toBe(400);
     expect(bad.body.error.details.map((d: { path: string }) => d.path).sort()).toEqual(['doseG', 'grind', 'tasteNote', 'timeS', 'yieldG']);
     const missing = await agents.barista.post('/api/dial-in/shots').send({});

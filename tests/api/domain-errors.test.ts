@@ -17,8 +17,8 @@ import {
   unsupported,
   upstreamFailed,
   type DomainError,
-} from '../../server/domain-errors';
-import { errorHandler } from '../../server/errors';
+} from '@server/domain-errors';
+import { errorHandler } from '@server/errors';
 
 function appThrowing(error: DomainError) {
   const app = express();

@@ -1,7 +1,7 @@
 // Small helpers shared by the API tests. No state lives here: every test file starts its own
 // server and passes it in.
 import { randomUUID } from 'node:crypto';
-import { SESSION_COOKIE } from '../../server/auth/session';
+import { SESSION_COOKIE } from '@server/auth/session';
 import type { TestServer } from '../support/test-server';
 
 export type Agent = Awaited<ReturnType<TestServer['signIn']>>;

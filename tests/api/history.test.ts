@@ -8,11 +8,11 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Knex } from 'knex';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { dialectOf, rawRows, secondsBetweenSql } from '../../server/db/dialect';
-import { createDb } from '../../server/db/knex';
+import { dialectOf, rawRows, secondsBetweenSql } from '@server/db/dialect';
+import { createDb } from '@server/db/knex';
 import { createEmptyDatabase } from '../support/test-database';
-import { generateHistory, HistoryRefused } from '../../scripts/history';
-import type { HistorySummary } from '../../scripts/history/generate';
+import { generateHistory, HistoryRefused } from '@scripts/history';
+import type { HistorySummary } from '@scripts/history/generate';
 
 // Monday 16 March 2026, 13:00 in New York: yesterday is Sunday the 15th, so 14 days run Mon 2 – Sun 15.
 const NOW = new Date('2026-03-16T17:00:00.000Z');
@@ -199,7 +199,14 @@ describe('the drinks', () => {
     );
     const total = drinks.reduce((sum, d) => sum + d.n, 0);
     const share = (milk: string | null) => (100 * (drinks.find((d) => d.milk === milk)?.n ?? 0)) / total;
-    const mix: [string | null, number][] = [['Whole', 46], ['Oat', 24], ['Skim', 10], ['Soy', 6], ['Almond', 8], [null, 6]];
+    const mix: [string | null, number][] = [
+      ['Whole', 46],
+      ['Oat', 24],
+      ['Skim', 10],
+      ['Soy', 6],
+      ['Almond', 8],
+      [null, 6],
+    ];
     for (const [milk, pct] of mix) expect(Math.abs(share(milk) - pct), String(milk)).toBeLessThan(2.5);
     // no milk: espresso, long black or batch brew only
     const black = await all<{ item_name: string }>("SELECT DISTINCT item_name FROM order_items WHERE station = 'bar' AND milk_id IS NULL");

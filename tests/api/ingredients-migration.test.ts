@@ -6,8 +6,8 @@ import os from 'node:os';
 import path from 'node:path';
 import type { Knex } from 'knex';
 import { afterEach, describe, expect, it } from 'vitest';
-import { createDb, migrationConfig } from '../../server/db/knex';
-import { allergensFrom } from '../../src/domain/ingredients';
+import { createDb, migrationConfig } from '@server/db/knex';
+import { allergensFrom } from '@/domain/ingredients';
 import { jsonOf } from '../support/rows';
 
 const MIGRATION = '20261202170600_ingredients.ts';
@@ -34,12 +34,20 @@ async function beforeIngredients(): Promise<Knex> {
 
 /** A café on a list, with one milk, one item and one extra carrying the given tags. */
 async function cafe(db: Knex, list: 'US' | 'EU', tags: { milk: string[]; item: string[]; extra: string[] }) {
-  const [{ id: location }] = await db('locations').insert({ name: `${list} café`, allergen_list: list, created_at: new Date().toISOString() }).returning('id');
-  const [{ id: milk }] = await db('milk_options').insert({ location_id: location, name: 'House', code: 'HO', allergens: JSON.stringify(tags.milk) }).returning('id');
+  const [{ id: location }] = await db('locations')
+    .insert({ name: `${list} café`, allergen_list: list, created_at: new Date().toISOString() })
+    .returning('id');
+  const [{ id: milk }] = await db('milk_options')
+    .insert({ location_id: location, name: 'House', code: 'HO', allergens: JSON.stringify(tags.milk) })
+    .returning('id');
   const [{ id: category }] = await db('menu_categories').insert({ location_id: location, name: 'Food' }).returning('id');
-  const [{ id: item }] = await db('menu_items').insert({ category_id: category, name: 'Pastry', station: 'counter', price_cents: 400, allergens: JSON.stringify(tags.item) }).returning('id');
+  const [{ id: item }] = await db('menu_items')
+    .insert({ category_id: category, name: 'Pastry', station: 'counter', price_cents: 400, allergens: JSON.stringify(tags.item) })
+    .returning('id');
   const [{ id: group }] = await db('modifier_groups').insert({ location_id: location, name: 'Syrup' }).returning('id');
-  const [{ id: extra }] = await db('modifiers').insert({ location_id: location, group_id: group, name: 'Nut syrup', allergens: JSON.stringify(tags.extra) }).returning('id');
+  const [{ id: extra }] = await db('modifiers')
+    .insert({ location_id: location, group_id: group, name: 'Nut syrup', allergens: JSON.stringify(tags.extra) })
+    .returning('id');
   return { milk, item, extra };
 }
 
@@ -65,13 +73,27 @@ describe(`migration ${MIGRATION}`, () => {
     expect(await column(db, 'menu_items', us.item, 'ingredients')).toEqual(['milk (unspecified)', 'egg', 'wheat', 'tree nuts (unspecified)']);
     expect(await column(db, 'modifiers', us.extra, 'ingredients')).toEqual(['peanut', 'soy', 'sesame', 'fish', 'crustaceans']);
     expect(await column(db, 'milk_options', eu.milk, 'ingredients')).toEqual(['gluten cereal (unspecified)']);
-    expect(await column(db, 'menu_items', eu.item, 'ingredients')).toEqual(['tree nuts (unspecified)', 'lupin', 'mustard', 'crustaceans', 'molluscs', 'celery']);
+    expect(await column(db, 'menu_items', eu.item, 'ingredients')).toEqual([
+      'tree nuts (unspecified)',
+      'lupin',
+      'mustard',
+      'crustaceans',
+      'molluscs',
+      'celery',
+    ]);
     // nothing is guessed from a name: an untagged milk gets no ingredients
     expect(await column(db, 'milk_options', oat.milk, 'ingredients')).toEqual([]);
 
     // every allergen comes back under the café's own list: none is lost, none added
-    for (const [list, ids, tags] of [['US', us, US_TAGS], ['EU', eu, EU_TAGS]] as const) {
-      for (const [table, id, had] of [['milk_options', ids.milk, tags.milk], ['menu_items', ids.item, tags.item], ['modifiers', ids.extra, tags.extra]] as const) {
+    for (const [list, ids, tags] of [
+      ['US', us, US_TAGS],
+      ['EU', eu, EU_TAGS],
+    ] as const) {
+      for (const [table, id, had] of [
+        ['milk_options', ids.milk, tags.milk],
+        ['menu_items', ids.item, tags.item],
+        ['modifiers', ids.extra, tags.extra],
+      ] as const) {
         expect(new Set(allergensFrom(await column(db, table, id, 'ingredients'), list)), `${list} ${table}`).toEqual(new Set(had));
       }
     }

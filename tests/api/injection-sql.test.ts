@@ -5,10 +5,10 @@
 // covered as soon as it exists.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { z } from 'zod';
-import type { ApiRoute } from '../../server/routes';
+import type { ApiRoute } from '@server/routes';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent } from './helpers';
-import { tableNames } from '../../server/db/dialect';
+import { tableNames } from '@server/db/dialect';
 
 const DAY = '2026-03-02';
 const time = manualClock(`${DAY}T14:00:00.000Z`); // 09:00 in New York, the demo café's zone
@@ -91,8 +91,7 @@ beforeAll(async () => {
 afterAll(() => server.close());
 
 const ids = (rows: { id: number }[]) => rows.map((r) => r.id).sort((a, b) => a - b);
-const expectedIds = (q: string, onlyToday = false) =>
-  ids(all.filter((o) => (!onlyToday || o.business_date === DAY) && contains(o.customer_name, q)));
+const expectedIds = (q: string, onlyToday = false) => ids(all.filter((o) => (!onlyToday || o.business_date === DAY) && contains(o.customer_name, q)));
 
 /** Every table's rows, except the session store (each request rightly updates its own session). */
 async function snapshot() {
@@ -100,7 +99,11 @@ async function snapshot() {
   for (const t of await tableNames(server.db)) {
     // every column but JSON ones as the sort key: a whole-row order that needs no row id
     const columns = Object.entries(await server.db(t).columnInfo()).filter(([, c]) => c.type !== 'json');
-    if (t !== 'sessions') out[t] = await server.db(t).select('*').orderBy(columns.map(([name]) => name));
+    if (t !== 'sessions')
+      out[t] = await server
+        .db(t)
+        .select('*')
+        .orderBy(columns.map(([name]) => name));
   }
   return out;
 }
@@ -151,7 +154,7 @@ describe('the searches return exactly the rows that contain the text', () => {
 });
 
 describe('filters that take only known values', () => {
-  const bad = ["' OR 1=1 --", '"; DROP TABLE orders;--', '%', 'open OR 1=1', '2026-03-02\' OR \'1\'=\'1', 'createdAt; DROP TABLE orders'];
+  const bad = ["' OR 1=1 --", '"; DROP TABLE orders;--', '%', 'open OR 1=1', "2026-03-02' OR '1'='1", 'createdAt; DROP TABLE orders'];
 
   it.each(['status', 'sort', 'dir', 'from', 'to', 'page', 'pageSize'])('/api/reports/tickets?%s=… answers 400 naming the field', async (field) => {
     const before = await snapshot();
@@ -179,7 +182,7 @@ function queryFields(): string[] {
   return [...fields].sort();
 }
 
-const PAYLOADS = ["'", '"', ';', '--', '%', '_', '\\', "' OR 1=1 --", "1; DROP TABLE orders", '%27%20OR%201%3D1', 'Zoë 李 \u0000'];
+const PAYLOADS = ["'", '"', ';', '--', '%', '_', '\\', "' OR 1=1 --", '1; DROP TABLE orders', '%27%20OR%201%3D1', 'Zoë 李 \u0000'];
 const label = (r: ApiRoute) => `GET /api${r.path}`;
 
 describe('every GET route, every query field, every metacharacter', () => {

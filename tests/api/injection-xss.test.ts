@@ -11,10 +11,10 @@ import os from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Config } from '../../server/config';
-import { startServer, type RunningServer } from '../../server/server';
-import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
-import type { LiveEvent } from '../../src/domain/types';
+import type { Config } from '@server/config';
+import { startServer, type RunningServer } from '@server/server';
+import { DEMO_PASSWORD } from '@seeds/demo-cafe';
+import type { LiveEvent } from '@/domain/types';
 import { manualClock, type DemoLogin } from '../support/test-server';
 import { closeAllSockets, connectAndResume, type LiveClient } from '../realtime/ws-client';
 import { orderBody, type Agent } from './helpers';
@@ -130,7 +130,10 @@ beforeAll(async () => {
 
   for (const login of ['owner', 'lead', 'cashier', 'barista'] as const) agents[login] = await signIn(login);
   const signedIn = await request(server.url).post('/api/session').send({ username: 'barista', password: DEMO_PASSWORD });
-  const cookie = ([] as string[]).concat(signedIn.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ');
+  const cookie = ([] as string[])
+    .concat(signedIn.headers['set-cookie'] ?? [])
+    .map((c) => c.split(';')[0])
+    .join('; ');
   ({ client: bar } = await connectAndResume(server.url, cookie));
 
   expect((await agents.lead.post('/api/shifts').send({ openingFloatCents: 100_00, baristasOnBar: 1, waitTargetSeconds: 240 })).status).toBe(201);
@@ -248,7 +251,9 @@ describe('e-mail', () => {
     const close = await agents.lead.post('/api/shifts/current/close').send({ countedCashCents: 100_00, note: P.note, confirmOpenTickets: true });
     expect(close.status).toBe(200);
     expect(close.body.mailed).toBe(true);
-    const mail = (await server.db('outbox').orderBy('id', 'desc').select('*')).find((m) => jsonOf<string[]>(m.to_addresses).some((a) => a.includes('mara@harbour-hearth.example')));
+    const mail = (await server.db('outbox').orderBy('id', 'desc').select('*')).find((m) =>
+      jsonOf<string[]>(m.to_addresses).some((a) => a.includes('mara@harbour-hearth.example')),
+    );
     expect(mail.subject).not.toMatch(/[\r\n]/);
     expect(markupFrom(mail.html_body, 'shift report mail')).toEqual([]);
     const html = visibleText(mail.html_body);

@@ -99,7 +99,9 @@ describe('uploading a photo', () => {
   });
 
   it('a JPEG replaces it: its camera metadata is dropped, a small photo is not enlarged, the old file is gone', async () => {
-    const jpeg = await (await testImage(300, 200))
+    const jpeg = await (
+      await testImage(300, 200)
+    )
       .jpeg()
       .withExif({ IFD0: { Copyright: 'Harbour test camera', Artist: 'Mara Quill' } })
       .toBuffer();
@@ -133,8 +135,20 @@ describe('uploads that are refused save nothing', () => {
   it.each([
     ['a text file named .jpg', () => Buffer.from('this is not a photo, only words\n'), 'latte.jpg', 'image/jpeg', /not an image.*JPEG, PNG or WebP/],
     ['a GIF', async () => (await testImage(20, 20)).gif().toBuffer(), 'latte.gif', 'image/gif', /GIF image.*JPEG, PNG or WebP/],
-    ['an SVG', () => Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10"><rect width="10" height="10"/></svg>'), 'latte.svg', 'image/svg+xml', /SVG image/],
-    ['a PNG cut short', async () => (await (await testImage(200, 200)).png().toBuffer()).subarray(0, 300), 'latte.png', 'image/png', /could not be read|not an image/],
+    [
+      'an SVG',
+      () => Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10"><rect width="10" height="10"/></svg>'),
+      'latte.svg',
+      'image/svg+xml',
+      /SVG image/,
+    ],
+    [
+      'a PNG cut short',
+      async () => (await (await testImage(200, 200)).png().toBuffer()).subarray(0, 300),
+      'latte.png',
+      'image/png',
+      /could not be read|not an image/,
+    ],
   ])('%s is 415 with a clear message', async (_what, make, filename, type, message) => {
     const before = { files: filesOnDisk(), photo: await photoOf(latteId), events: await eventCount() };
     const res = await upload(owner, latteId, await make(), filename, type);

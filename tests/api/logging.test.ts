@@ -6,9 +6,9 @@ import os from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
 import { afterAll, describe, expect, it } from 'vitest';
-import { createLogger } from '../../server/logging';
-import { startServer } from '../../server/server';
-import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
+import { createLogger } from '@server/logging';
+import { startServer } from '@server/server';
+import { DEMO_PASSWORD } from '@seeds/demo-cafe';
 import { sessionCookieOf } from './helpers';
 
 const lines: string[] = [];
@@ -35,7 +35,12 @@ describe('request logs', () => {
     const latte = menu.items.find((i: { name: string }) => i.name === 'Latte').id;
     await agent
       .post('/api/orders')
-      .send({ clientOrderId: randomUUID(), customerName: 'Xan Poole', items: [{ menuItemId: latte }], payment: { method: 'card', paymentMethod: 'pm_card_visa' } })
+      .send({
+        clientOrderId: randomUUID(),
+        customerName: 'Xan Poole',
+        items: [{ menuItemId: latte }],
+        payment: { method: 'card', paymentMethod: 'pm_card_visa' },
+      })
       .expect(201);
 
     const log = lines.join('');

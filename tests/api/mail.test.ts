@@ -2,9 +2,9 @@
 // in the outbox; the Outbox lists a café's own mail only, and the guards and validation hold.
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { hashPassword } from '../../server/auth/passwords';
-import type { OutboxMail } from '../../src/domain/outbox';
-import type { OrderView } from '../../src/domain/types';
+import { hashPassword } from '@server/auth/passwords';
+import type { OutboxMail } from '@/domain/outbox';
+import type { OrderView } from '@/domain/types';
 import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent } from './helpers';
 import { jsonOf } from '../support/rows';
@@ -21,7 +21,15 @@ let northItemId: number;
 async function insertNorthCafe(db: TestServer['db']) {
   const createdAt = new Date().toISOString();
   const [{ id: locationId }] = await db('locations')
-    .insert({ name: 'North Quay Espresso', time_zone: 'Europe/London', currency: 'GBP', locale: 'en-GB', tax_mode: 'inclusive', tax_rate_milli_pct: 20000, created_at: createdAt })
+    .insert({
+      name: 'North Quay Espresso',
+      time_zone: 'Europe/London',
+      currency: 'GBP',
+      locale: 'en-GB',
+      tax_mode: 'inclusive',
+      tax_rate_milli_pct: 20000,
+      created_at: createdAt,
+    })
     .returning('id');
   const hash = await hashPassword('north-side-password');
   for (const role of ['cashier', 'lead']) {

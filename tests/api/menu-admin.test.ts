@@ -1,8 +1,8 @@
 // The owner's menu editor over HTTP: who may call it, what it refuses (and that a refusal changes
 // nothing), another café's ids, retiring without rewriting past orders, and the live menu.changed.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import type { AdminMenuView } from '../../src/domain/menu-admin-view';
-import type { MenuView } from '../../src/domain/types';
+import type { AdminMenuView } from '@/domain/menu-admin-view';
+import type { MenuView } from '@/domain/types';
 import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
 import { closeAllSockets, connectAndResume } from '../realtime/ws-client';
 import { orderBody, type Agent } from './helpers';
@@ -82,7 +82,10 @@ async function create(kind: string, body: object): Promise<{ id: number; menu: A
 }
 
 /** 400 validation_failed naming `path`, and nothing changed. */
-async function expectInvalid(send: () => Promise<{ status: number; body: { error: { code: string; message: string; details: { path: string; message: string }[] } } }>, path: string) {
+async function expectInvalid(
+  send: () => Promise<{ status: number; body: { error: { code: string; message: string; details: { path: string; message: string }[] } } }>,
+  path: string,
+) {
   const before = await snapshot();
   const res = await send();
   expect(res.status, JSON.stringify(res.body)).toBe(400);
@@ -92,7 +95,10 @@ async function expectInvalid(send: () => Promise<{ status: number; body: { error
 }
 
 /** `status` with the API's error code for it, and nothing changed. */
-async function expectRefused(status: 404 | 409, send: () => Promise<{ status: number; body: { error: { code: string; message: string; details?: { path: string; message: string }[] } } }>) {
+async function expectRefused(
+  status: 404 | 409,
+  send: () => Promise<{ status: number; body: { error: { code: string; message: string; details?: { path: string; message: string }[] } } }>,
+) {
   const before = await snapshot();
   const res = await send();
   expect(res.status, JSON.stringify(res.body)).toBe(status);
@@ -132,7 +138,12 @@ describe('who may edit the menu', () => {
       ['post', '/menu-admin/categories/:id/retired', `/api/menu-admin/categories/${cat}/retired`, { retired: true }],
       ['post', '/menu-admin/categories/:id/retired', `/api/menu-admin/categories/${cat}/retired`, { retired: false }],
       ['post', '/menu-admin/items', '/api/menu-admin/items', latteBody('Guard Two Latte')],
-      ['put', '/menu-admin/items/:id', `/api/menu-admin/items/${item}`, latteBody('Guard Test Latte', { sizes: sizes.map((s) => ({ ...size({ name: s.name, milkMl: s.milkMl, isDefault: s.isDefault }), id: s.id })) })],
+      [
+        'put',
+        '/menu-admin/items/:id',
+        `/api/menu-admin/items/${item}`,
+        latteBody('Guard Test Latte', { sizes: sizes.map((s) => ({ ...size({ name: s.name, milkMl: s.milkMl, isDefault: s.isDefault }), id: s.id })) }),
+      ],
       ['post', '/menu-admin/items/:id/move', `/api/menu-admin/items/${item}/move`, { direction: 'up' }],
       ['post', '/menu-admin/sizes/:id/retired', `/api/menu-admin/sizes/${sizes[1].id}/retired`, { retired: true }],
       ['post', '/menu-admin/sizes/:id/retired', `/api/menu-admin/sizes/${sizes[1].id}/retired`, { retired: false }],
@@ -144,12 +155,22 @@ describe('who may edit the menu', () => {
       ['post', '/menu-admin/milks/:id/retired', `/api/menu-admin/milks/${milk}/retired`, { retired: true }],
       ['post', '/menu-admin/milks/:id/retired', `/api/menu-admin/milks/${milk}/retired`, { retired: false }],
       ['post', '/menu-admin/modifier-groups', '/api/menu-admin/modifier-groups', { name: 'Guard group 2', selection: 'single', required: false }],
-      ['put', '/menu-admin/modifier-groups/:id', `/api/menu-admin/modifier-groups/${group}`, { name: 'Guard group', selection: 'single', required: false, itemIds: [item] }],
+      [
+        'put',
+        '/menu-admin/modifier-groups/:id',
+        `/api/menu-admin/modifier-groups/${group}`,
+        { name: 'Guard group', selection: 'single', required: false, itemIds: [item] },
+      ],
       ['post', '/menu-admin/modifier-groups/:id/move', `/api/menu-admin/modifier-groups/${group}/move`, { direction: 'up' }],
       ['post', '/menu-admin/modifier-groups/:id/retired', `/api/menu-admin/modifier-groups/${group}/retired`, { retired: true }],
       ['post', '/menu-admin/modifier-groups/:id/retired', `/api/menu-admin/modifier-groups/${group}/retired`, { retired: false }],
       ['post', '/menu-admin/modifiers', '/api/menu-admin/modifiers', { groupId: group, name: 'Guard extra 2', priceCents: 25 }],
-      ['put', '/menu-admin/modifiers/:id', `/api/menu-admin/modifiers/${modifier}`, { groupId: group, name: 'Guard extra', priceCents: 30, ingredients: ["cow's milk"] }],
+      [
+        'put',
+        '/menu-admin/modifiers/:id',
+        `/api/menu-admin/modifiers/${modifier}`,
+        { groupId: group, name: 'Guard extra', priceCents: 30, ingredients: ["cow's milk"] },
+      ],
       ['post', '/menu-admin/modifiers/:id/move', `/api/menu-admin/modifiers/${modifier}/move`, { direction: 'down' }],
       ['post', '/menu-admin/modifiers/:id/retired', `/api/menu-admin/modifiers/${modifier}/retired`, { retired: true }],
       ['post', '/menu-admin/modifiers/:id/retired', `/api/menu-admin/modifiers/${modifier}/retired`, { retired: false }],
@@ -229,15 +250,39 @@ describe('items and recipes', () => {
   });
 
   it('an item without milk or shots: milk and dose must be nothing', async () => {
-    const tea = { categoryId: espressoCategory, name: 'Hearth Tea', station: 'bar', takesMilk: false, sizes: [size({ shots: 0, doseDg: 0, yieldDg: 0, milkMl: 0 })] };
-    await expectInvalid(() => owner.post('/api/menu-admin/items').send({ ...tea, sizes: [size({ shots: 0, doseDg: 180, yieldDg: 0, milkMl: 0 })] }), 'sizes.0.doseDg');
-    await expectInvalid(() => owner.post('/api/menu-admin/items').send({ ...tea, sizes: [size({ shots: 0, doseDg: 0, yieldDg: 0, milkMl: 100 })] }), 'sizes.0.milkMl');
+    const tea = {
+      categoryId: espressoCategory,
+      name: 'Hearth Tea',
+      station: 'bar',
+      takesMilk: false,
+      sizes: [size({ shots: 0, doseDg: 0, yieldDg: 0, milkMl: 0 })],
+    };
+    await expectInvalid(
+      () => owner.post('/api/menu-admin/items').send({ ...tea, sizes: [size({ shots: 0, doseDg: 180, yieldDg: 0, milkMl: 0 })] }),
+      'sizes.0.doseDg',
+    );
+    await expectInvalid(
+      () => owner.post('/api/menu-admin/items').send({ ...tea, sizes: [size({ shots: 0, doseDg: 0, yieldDg: 0, milkMl: 100 })] }),
+      'sizes.0.milkMl',
+    );
     const { id } = await create('items', tea);
     const made = (await counterMenu()).items.find((i) => i.id === id)!;
     expect(made).toMatchObject({ takesMilk: false, texture: null, defaultMilkId: null, shots: 0 });
-    const scone = await create('items', { categoryId: espressoCategory, name: 'Hearth Scone', station: 'counter', takesMilk: false, priceCents: 375, ingredients: ['wheat', "cow's milk"] });
+    const scone = await create('items', {
+      categoryId: espressoCategory,
+      name: 'Hearth Scone',
+      station: 'counter',
+      takesMilk: false,
+      priceCents: 375,
+      ingredients: ['wheat', "cow's milk"],
+    });
     // stored in the editor's order; FALCPA + FASTER Act list order for the allergens
-    expect((await counterMenu()).items.find((i) => i.id === scone.id)).toMatchObject({ priceCents: 375, sizes: [], ingredients: ["cow's milk", 'wheat'], allergens: ['milk', 'wheat'] });
+    expect((await counterMenu()).items.find((i) => i.id === scone.id)).toMatchObject({
+      priceCents: 375,
+      sizes: [],
+      ingredients: ["cow's milk", 'wheat'],
+      allergens: ['milk', 'wheat'],
+    });
   });
 
   it('a second item of the same name on sale is a 409', async () => {
@@ -247,7 +292,10 @@ describe('items and recipes', () => {
   it('editing a price changes new orders only; past orders keep what they were sold at', async () => {
     const { id, menu } = await create('items', latteBody('Harbour Honey Latte'));
     const sizes = menu.items.find((i) => i.id === id)!.sizes;
-    const before = await cashier.post('/api/orders').send(orderBody('Pia Lund', [{ menuItemId: id, sizeId: sizes[0].id }])).expect(201);
+    const before = await cashier
+      .post('/api/orders')
+      .send(orderBody('Pia Lund', [{ menuItemId: id, sizeId: sizes[0].id }]))
+      .expect(201);
     expect(before.body.order.lines[0].priceCents).toBe(560);
 
     const edited = latteBody('Harbour Honey Latte', {
@@ -260,13 +308,19 @@ describe('items and recipes', () => {
     const past = await cashier.get(`/api/orders/${before.body.order.id}`).expect(200);
     expect(past.body.order.lines[0]).toMatchObject({ itemName: 'Harbour Honey Latte', sizeName: '12 oz', priceCents: 560 });
     expect(past.body.order.subtotalCents).toBe(560);
-    const after = await cashier.post('/api/orders').send(orderBody('Pia Lund', [{ menuItemId: id, sizeId: sizes[0].id }])).expect(201);
+    const after = await cashier
+      .post('/api/orders')
+      .send(orderBody('Pia Lund', [{ menuItemId: id, sizeId: sizes[0].id }]))
+      .expect(201);
     expect(after.body.order.lines[0].priceCents).toBe(610);
   });
 
   it('retiring an item takes it off the Counter; past orders keep its name and price; restore brings it back', async () => {
     const { id } = await create('items', latteBody('Quayside Mocha'));
-    const sold = await cashier.post('/api/orders').send(orderBody('Ola Brandt', [{ menuItemId: id, milkId: ids.milk('Oat') }])).expect(201);
+    const sold = await cashier
+      .post('/api/orders')
+      .send(orderBody('Ola Brandt', [{ menuItemId: id, milkId: ids.milk('Oat') }]))
+      .expect(201);
     const line = sold.body.order.lines[0];
     expect(line).toMatchObject({ itemName: 'Quayside Mocha', milkName: 'Oat', priceCents: 560 + 70 });
 
@@ -301,10 +355,16 @@ describe('items and recipes', () => {
   it('a size left out of the item is retired, not deleted; the last size and the default size stay', async () => {
     const { id, menu } = await create('items', latteBody('Pier Cortado'));
     const [small, large] = menu.items.find((i) => i.id === id)!.sizes;
-    const sold = await cashier.post('/api/orders').send(orderBody('Rue Hale', [{ menuItemId: id, sizeId: large.id }])).expect(201);
+    const sold = await cashier
+      .post('/api/orders')
+      .send(orderBody('Rue Hale', [{ menuItemId: id, sizeId: large.id }]))
+      .expect(201);
 
     // only the 12 oz in the list: the 16 oz is retired
-    await owner.put(`/api/menu-admin/items/${id}`).send(latteBody('Pier Cortado', { sizes: [{ ...size(), id: small.id }] })).expect(200);
+    await owner
+      .put(`/api/menu-admin/items/${id}`)
+      .send(latteBody('Pier Cortado', { sizes: [{ ...size(), id: small.id }] }))
+      .expect(200);
     expect((await counterMenu()).items.find((i) => i.id === id)!.sizes.map((s) => s.name)).toEqual(['12 oz']);
     expect((await server.db('item_sizes').where({ id: large.id }).first()).retired_at).not.toBeNull();
     expect((await cashier.get(`/api/orders/${sold.body.order.id}`)).body.order.lines[0]).toMatchObject({ sizeName: '16 oz', priceCents: 620 });
@@ -314,7 +374,11 @@ describe('items and recipes', () => {
     ]);
 
     // no sizes at all, or the last or default size alone: 409
-    const lastOne = await expectRefused(409, () => owner.put(`/api/menu-admin/items/${id}`).send(latteBody('Pier Cortado', { sizes: [], priceCents: 500, takesMilk: false, defaultMilkId: null, texture: null })));
+    const lastOne = await expectRefused(409, () =>
+      owner
+        .put(`/api/menu-admin/items/${id}`)
+        .send(latteBody('Pier Cortado', { sizes: [], priceCents: 500, takesMilk: false, defaultMilkId: null, texture: null })),
+    );
     expect(lastOne.message).toMatch(/keep at least one/);
     await expectRefused(409, () => owner.post(`/api/menu-admin/sizes/${small.id}/retired`).send({ retired: true }));
 
@@ -334,7 +398,10 @@ describe('items and recipes', () => {
     const order = async () => (await counterMenu()).items.filter((i) => i.categoryId === espressoCategory).map((i) => i.name);
     const before = await order();
     const second = before[1];
-    const { body } = await owner.post(`/api/menu-admin/items/${ids.item(second)}/move`).send({ direction: 'up' }).expect(200);
+    const { body } = await owner
+      .post(`/api/menu-admin/items/${ids.item(second)}/move`)
+      .send({ direction: 'up' })
+      .expect(200);
     expect(body.id).toBe(ids.item(second));
     const after = await order();
     expect(after.slice(0, 2)).toEqual([second, before[0]]);
@@ -374,12 +441,15 @@ describe('milks', () => {
     await expectInvalid(() => owner.post('/api/menu-admin/milks').send({ name: 'Pea', code: 'PE', upchargeCents: 0, ingredients: ['nuts'] }), 'ingredients.0');
   });
 
-  it('the owner records what a milk is made of; the editor and the Counter show the allergens for the café\'s list', async () => {
+  it("the owner records what a milk is made of; the editor and the Counter show the allergens for the café's list", async () => {
     const { id, menu } = await create('milks', { name: 'Hazelnut', code: 'HZ', upchargeCents: 90, ingredients: ['hazelnut', 'rice'] });
     // FALCPA tree nuts (the FDA's twelve include hazelnut, Edition 5); rice is on neither list
     expect(menu.milks.find((m) => m.id === id)).toMatchObject({ ingredients: ['rice', 'hazelnut'], allergens: ['tree nuts'] });
     expect((await counterMenu()).milks.find((m) => m.id === id)!.allergens).toEqual(['tree nuts']);
-    await owner.put(`/api/menu-admin/milks/${id}`).send({ name: 'Hazelnut', code: 'HZ', upchargeCents: 90, ingredients: ['oats', 'hazelnut'] }).expect(200);
+    await owner
+      .put(`/api/menu-admin/milks/${id}`)
+      .send({ name: 'Hazelnut', code: 'HZ', upchargeCents: 90, ingredients: ['oats', 'hazelnut'] })
+      .expect(200);
     const edited = (await editable()).milks.find((m) => m.id === id)!;
     // oats are not a US major allergen (FALCPA names wheat only)
     expect(edited).toMatchObject({ ingredients: ['oats', 'hazelnut'], allergens: ['tree nuts'] });
@@ -389,7 +459,10 @@ describe('milks', () => {
   it('an extra carries what it adds: an order with it contains that allergen', async () => {
     const { id } = await create('modifiers', { groupId: syrupGroup, name: 'Almond syrup', priceCents: 60, ingredients: ['almond'] });
     expect((await counterMenu()).modifiers.find((m) => m.id === id)!.allergens).toEqual(['tree nuts']); // §201(qq)
-    const order = await cashier.post('/api/orders').send(orderBody('Ida Marsh', [{ menuItemId: ids.item('Latte'), milkId: ids.milk('Oat'), modifierIds: [id] }])).expect(201);
+    const order = await cashier
+      .post('/api/orders')
+      .send(orderBody('Ida Marsh', [{ menuItemId: ids.item('Latte'), milkId: ids.milk('Oat'), modifierIds: [id] }]))
+      .expect(201);
     const drink = await server.db('order_items').where({ order_id: order.body.order.id }).first('contains');
     expect(jsonOf(drink.contains)).toEqual(['tree nuts']); // oat milk adds none on the US list
     await owner.post(`/api/menu-admin/modifiers/${id}/retired`).send({ retired: true }).expect(200);
@@ -404,10 +477,15 @@ describe('milks', () => {
 describe('groups of extras', () => {
   it('a required group on an item needs a choice in use; retiring a group takes it off the Counter', async () => {
     const latte = ids.item('Latte');
-    await expectRefused(409, () => owner.post('/api/menu-admin/modifier-groups').send({ name: 'Spice', selection: 'single', required: true, itemIds: [latte] }));
+    await expectRefused(409, () =>
+      owner.post('/api/menu-admin/modifier-groups').send({ name: 'Spice', selection: 'single', required: true, itemIds: [latte] }),
+    );
     const { id: group } = await create('modifier-groups', { name: 'Spice', selection: 'single', required: false, itemIds: [latte] });
     const { id: cinnamon } = await create('modifiers', { groupId: group, name: 'Cinnamon', priceCents: 40, ingredients: [] });
-    await owner.put(`/api/menu-admin/modifier-groups/${group}`).send({ name: 'Spice', selection: 'single', required: true, itemIds: [latte] }).expect(200);
+    await owner
+      .put(`/api/menu-admin/modifier-groups/${group}`)
+      .send({ name: 'Spice', selection: 'single', required: true, itemIds: [latte] })
+      .expect(200);
     let menu = await counterMenu();
     expect(menu.items.find((i) => i.id === latte)!.modifierGroupIds).toContain(group);
     expect(menu.modifiers.find((m) => m.id === cinnamon)).toMatchObject({ groupName: 'Spice', priceCents: 40 });
@@ -419,7 +497,10 @@ describe('groups of extras', () => {
     expect(menu.modifiers.map((m) => m.id)).not.toContain(cinnamon);
     expect(menu.items.find((i) => i.id === latte)!.modifierGroupIds).not.toContain(group);
     // a latte can be ordered without the retired required group
-    await cashier.post('/api/orders').send(orderBody('Sol Baines', [{ menuItemId: latte }])).expect(201);
+    await cashier
+      .post('/api/orders')
+      .send(orderBody('Sol Baines', [{ menuItemId: latte }]))
+      .expect(201);
     await owner.post(`/api/menu-admin/modifier-groups/${group}/retired`).send({ retired: false }).expect(200);
     expect((await counterMenu()).items.find((i) => i.id === latte)!.modifierGroupIds).toContain(group);
     // …and off again, so the rest of the file's lattes need no spice
@@ -428,7 +509,10 @@ describe('groups of extras', () => {
 
   it('an extra edited or retired keeps past orders as sold', async () => {
     const vanilla = ids.modifier('Vanilla syrup');
-    const sold = await cashier.post('/api/orders').send(orderBody('Tam Rook', [{ menuItemId: ids.item('Latte'), modifierIds: [vanilla] }])).expect(201);
+    const sold = await cashier
+      .post('/api/orders')
+      .send(orderBody('Tam Rook', [{ menuItemId: ids.item('Latte'), modifierIds: [vanilla] }]))
+      .expect(201);
     await owner.put(`/api/menu-admin/modifiers/${vanilla}`).send({ groupId: syrupGroup, name: 'Vanilla bean syrup', priceCents: 90 }).expect(200);
     await owner.post(`/api/menu-admin/modifiers/${vanilla}/retired`).send({ retired: true }).expect(200);
     const past = (await cashier.get(`/api/orders/${sold.body.order.id}`)).body.order;
@@ -483,7 +567,10 @@ describe('live', () => {
     expect(logged).toMatchObject({ type: 'menu.changed' });
     expect((await counterMenu()).items.map((i) => i.id)).toContain(id);
 
-    await owner.post(`/api/menu-admin/milks/${ids.milk('Whole')}/retired`).send({ retired: true }).expect(409);
+    await owner
+      .post(`/api/menu-admin/milks/${ids.milk('Whole')}/retired`)
+      .send({ retired: true })
+      .expect(409);
     await owner.post(`/api/menu-admin/items/${id}/retired`).send({ retired: true }).expect(200);
     const next = await client.next((m) => m.type === 'event', 'the next event');
     // the refused retire sent nothing: the next event is the item's retire, one seq on

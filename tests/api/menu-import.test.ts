@@ -2,7 +2,7 @@
 // an import that is all or nothing, nothing deleted, and an export that imports back unchanged.
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { MENU_CSV_COLUMNS, MENU_CSV_MAX_BYTES } from '../../src/domain/menu-csv';
+import { MENU_CSV_COLUMNS, MENU_CSV_MAX_BYTES } from '@/domain/menu-csv';
 import { startTestServer, type TestServer } from '../support/test-server';
 import type { Agent } from './helpers';
 import { boolOf, jsonOf } from '../support/rows';
@@ -32,11 +32,14 @@ async function menuSnapshot() {
 }
 
 async function exported(): Promise<string> {
-  const res = await owner.get('/api/menu/export.csv').buffer(true).parse((r, done) => {
-    let text = '';
-    r.on('data', (c: Buffer) => (text += c.toString('utf8')));
-    r.on('end', () => done(null, text));
-  });
+  const res = await owner
+    .get('/api/menu/export.csv')
+    .buffer(true)
+    .parse((r, done) => {
+      let text = '';
+      r.on('data', (c: Buffer) => (text += c.toString('utf8')));
+      r.on('end', () => done(null, text));
+    });
   expect(res.status).toBe(200);
   return res.body as string;
 }
@@ -71,7 +74,9 @@ describe('export', () => {
     // the demo seed's latte: 19 g in, 38 g out, 270 mL of whole milk in a Regular at 5.40
     expect(lines).toContain('"Espresso","Latte","bar","Regular","350","5.40","2","19","38","270","yes","WH","silky","","","yes"');
     // its ingredients as recorded, and the allergens they give on the US list (FALCPA + FASTER Act order)
-    expect(lines).toContain(`"Food","Almond croissant","counter","","","4.95","0","","","","no","","","cow's milk; egg; wheat; almond","milk; eggs; tree nuts; wheat","no"`);
+    expect(lines).toContain(
+      `"Food","Almond croissant","counter","","","4.95","0","","","","no","","","cow's milk; egg; wheat; almond","milk; eggs; tree nuts; wheat","no"`,
+    );
     const sizes = Number((await server.db('item_sizes').whereNull('retired_at').count({ n: '*' }).first())?.n);
     const unsized = Number((await server.db('menu_items').whereNull('price_cents').count({ n: '*' }).first())?.n);
     const items = Number((await server.db('menu_items').count({ n: '*' }).first())?.n);
@@ -117,7 +122,7 @@ describe('import', () => {
   const latteUp = 'Espresso,Latte,bar,Regular,350,5.60,2,19,38,270,yes,WH,silky,,,yes';
   const bad = 'Espresso,Mocha,bar,Regular,350,5.8O,2,19,38,250,yes,WH,silky,,,yes';
 
-  it('a preview shows each row\'s action and errors and saves nothing', async () => {
+  it("a preview shows each row's action and errors and saves nothing", async () => {
     const before = await menuSnapshot();
     const res = await send(owner, '/menu/import/preview', csv(scone, cortado, latteUp, bad));
     expect(res.status).toBe(200);
@@ -134,7 +139,7 @@ describe('import', () => {
     expect(await menuSnapshot()).toEqual(before);
   });
 
-  it('one bad row: 400 with that row\'s error and the menu unchanged; the fixed file saves every row', async () => {
+  it("one bad row: 400 with that row's error and the menu unchanged; the fixed file saves every row", async () => {
     const before = await menuSnapshot();
     const refused = await send(owner, '/menu/import', csv(scone, cortado, latteUp, bad));
     expect(refused.status).toBe(400);
@@ -162,7 +167,13 @@ describe('import', () => {
     });
     const cortadoRow = await server.db('menu_items').where({ name: 'Cortado' }).first();
     const oat = await server.db('milk_options').where({ code: 'OA' }).first();
-    expect({ ...cortadoRow, takes_milk: Number(cortadoRow.takes_milk) }).toMatchObject({ takes_milk: 1, default_milk_id: oat.id, texture: 'flat', price_cents: null, shots: 2 });
+    expect({ ...cortadoRow, takes_milk: Number(cortadoRow.takes_milk) }).toMatchObject({
+      takes_milk: 1,
+      default_milk_id: oat.id,
+      texture: 'flat',
+      price_cents: null,
+      shots: 2,
+    });
     expect((await server.db('item_sizes').where({ item_id: cortadoRow.id })).map((r) => ({ ...r, is_default: Number(r.is_default) }))).toEqual([
       expect.objectContaining({ name: 'Regular', volume_ml: 120, price_cents: 420, shots: 2, dose_dg: 185, yield_dg: 370, milk_ml: 60, is_default: 1 }),
     ]);
@@ -183,7 +194,7 @@ describe('import', () => {
     for (const item of before.items) expect(after.items.find((i) => i.id === item.id)?.retired_at).toBe(item.retired_at);
   });
 
-  it('matches names without regard to case, keeps the menu\'s spelling, and moves the default size', async () => {
+  it("matches names without regard to case, keeps the menu's spelling, and moves the default size", async () => {
     const before = await menuSnapshot();
     const res = await send(owner, '/menu/import', csv('espresso,LATTE,bar,large,470,5.90,2,19,38,360,yes,WH,silky,,,yes'));
     expect(res.status).toBe(200);
@@ -198,12 +209,16 @@ describe('import', () => {
     expect((await menuSnapshot()).items.length).toBe(before.items.length);
   });
 
-  it('refuses a row without a size for an item that has sizes, and one that differs from its item\'s other rows', async () => {
+  it("refuses a row without a size for an item that has sizes, and one that differs from its item's other rows", async () => {
     const before = await menuSnapshot();
     const res = await send(
       owner,
       '/menu/import',
-      csv('Espresso,Latte,bar,,,5.00,2,,,,yes,WH,silky,,,no', 'Espresso,Flat white,bar,Regular,160,4.60,2,19,38,120,yes,WH,flat,,,yes', 'Espresso,Flat white,bar,Large,240,5.20,2,19,38,180,yes,OA,flat,,,no'),
+      csv(
+        'Espresso,Latte,bar,,,5.00,2,,,,yes,WH,silky,,,no',
+        'Espresso,Flat white,bar,Regular,160,4.60,2,19,38,120,yes,WH,flat,,,yes',
+        'Espresso,Flat white,bar,Large,240,5.20,2,19,38,180,yes,OA,flat,,,no',
+      ),
     );
     expect(res.status).toBe(400);
     expect(res.body.error.details).toEqual([
@@ -213,7 +228,7 @@ describe('import', () => {
     expect(await menuSnapshot()).toEqual(before);
   });
 
-  it('refuses allergens off the café\'s list or not following from the ingredients, unknown ingredients and milk codes not on the menu', async () => {
+  it("refuses allergens off the café's list or not following from the ingredients, unknown ingredients and milk codes not on the menu", async () => {
     const before = await menuSnapshot();
     const res = await send(
       owner,
@@ -229,7 +244,12 @@ describe('import', () => {
     );
     expect(res.status).toBe(400);
     expect(res.body.error.message).toBe('4 rows need fixing; nothing was imported');
-    expect(res.body.error.details.map((d: { path: string }) => d.path)).toEqual(['row.2.allergens', 'row.3.default_milk', 'row.4.ingredients', 'row.5.allergens']);
+    expect(res.body.error.details.map((d: { path: string }) => d.path)).toEqual([
+      'row.2.allergens',
+      'row.3.default_milk',
+      'row.4.ingredients',
+      'row.5.allergens',
+    ]);
     expect(await menuSnapshot()).toEqual(before);
   });
 });
@@ -242,15 +262,7 @@ describe('files that are not a menu CSV', () => {
     ['a binary file named .csv', () => send(owner, '/menu/import', Buffer.from([0x50, 0x4b, 0x03, 0x04, 0, 0, 0, 0])), 415],
     ['no file at all (JSON)', () => owner.post('/api/menu/import').send({ file: 'category,item' }), 400],
     ['the file in another field', () => owner.post('/api/menu/import').attach('upload', Buffer.from(csv()), 'menu.csv'), 400],
-    [
-      'two files',
-      () =>
-        owner
-          .post('/api/menu/import')
-          .attach('file', Buffer.from(csv()), 'a.csv')
-          .attach('file', Buffer.from(csv()), 'b.csv'),
-      400,
-    ],
+    ['two files', () => owner.post('/api/menu/import').attach('file', Buffer.from(csv()), 'a.csv').attach('file', Buffer.from(csv()), 'b.csv'), 400],
   ])('%s is refused with a message and nothing saved', async (_what, post, status) => {
     const before = await menuSnapshot();
     const res = await post();

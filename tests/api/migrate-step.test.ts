@@ -7,10 +7,10 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import type { Config } from '../../server/config';
-import { createDb } from '../../server/db/knex';
-import { DatabaseBehindError, migrateAndSeed } from '../../server/db/migrate';
-import { prepareDatabase } from '../../server/server';
+import type { Config } from '@server/config';
+import { createDb } from '@server/db/knex';
+import { DatabaseBehindError, migrateAndSeed } from '@server/db/migrate';
+import { prepareDatabase } from '@server/server';
 import { createEmptyDatabase } from '../support/test-database';
 
 const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-migrate-'));

@@ -2,10 +2,10 @@
 // priced as three, shown on the receipt as one line "3 × Long black"; a quantity out of bounds is
 // refused with its field named and nothing stored.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { formatCents } from '../../src/domain/money';
-import type { MenuView } from '../../src/domain/types';
-import { receiptEmail } from '../../server/orders/receipts';
-import { MAX_CUPS, MAX_QUANTITY } from '../../src/domain/order-quantity';
+import { formatCents } from '@/domain/money';
+import type { MenuView } from '@/domain/types';
+import { receiptEmail } from '@server/orders/receipts';
+import { MAX_CUPS, MAX_QUANTITY } from '@/domain/order-quantity';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, writeCounts, type Agent } from './helpers';
 
@@ -38,7 +38,13 @@ describe('POST /api/orders with a quantity per line', () => {
     const croissant = menu.items.find((i) => i.name === 'Butter croissant')!.priceCents!;
     // 3 cups and 2 croissants, each at its menu price (worked by hand from GET /api/menu)
     expect(order.subtotalCents).toBe(3 * oneCup + 2 * croissant);
-    expect(order.lines.map((l: { itemName: string }) => l.itemName)).toEqual(['Long black', 'Long black', 'Long black', 'Butter croissant', 'Butter croissant']);
+    expect(order.lines.map((l: { itemName: string }) => l.itemName)).toEqual([
+      'Long black',
+      'Long black',
+      'Long black',
+      'Butter croissant',
+      'Butter croissant',
+    ]);
     expect(await writeCounts(server)).toEqual({ orders: before.orders + 1, order_items: before.order_items + 5, events: before.events + 1 });
 
     const { tickets } = (await cashier.get('/api/tickets?view=open')).body;

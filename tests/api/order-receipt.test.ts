@@ -56,7 +56,10 @@ describe('POST /api/orders with customerEmail', () => {
     // the total written out here rather than by the app's own formatter
     expect(mail.text_body).toContain(`Total: $${(order.totalCents / 100).toFixed(2)}`);
     // the fake stores the mail before the client hears it was taken: the order says so a moment later
-    await eventually(async () => (await server.db('orders').where({ id: order.id }).first('receipt_mail_state')).receipt_mail_state === 'sent', 'sent recorded');
+    await eventually(
+      async () => (await server.db('orders').where({ id: order.id }).first('receipt_mail_state')).receipt_mail_state === 'sent',
+      'sent recorded',
+    );
 
     const replay = await cashier.post('/api/orders').send(body);
     expect(replay.status).toBe(200);

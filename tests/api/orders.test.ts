@@ -1,7 +1,7 @@
 // Taking an order: priced by the server, stored once per client order id, numbered per day.
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { MenuView } from '../../src/domain/types';
+import type { MenuView } from '@/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, writeCounts, type Agent, type LineInput } from './helpers';
 import { jsonOf } from '../support/rows';
@@ -146,9 +146,7 @@ describe('a priced order', () => {
 
 describe('idempotent replay', () => {
   const firedEvents = async (orderId: number) =>
-    (await server.db('events').where({ type: 'order.fired' }).select('payload')).filter(
-      (e) => jsonOf(e.payload).ticket.id === orderId,
-    ).length;
+    (await server.db('events').where({ type: 'order.fired' }).select('payload')).filter((e) => jsonOf(e.payload).ticket.id === orderId).length;
 
   it('answers a replay of the same clientOrderId with 200 and the identical order, stored once', async () => {
     const clientOrderId = randomUUID();
@@ -169,10 +167,7 @@ describe('idempotent replay', () => {
     const clientOrderId = randomUUID();
     const lines = [{ menuItemId: ids.item('Cappuccino'), milkId: ids.milk('Almond') }];
     const before = await writeCounts(server);
-    const [a, b] = await Promise.all([
-      place('Perpetua Gill', lines, 20_00, clientOrderId),
-      place('Perpetua Gill', lines, 20_00, clientOrderId),
-    ]);
+    const [a, b] = await Promise.all([place('Perpetua Gill', lines, 20_00, clientOrderId), place('Perpetua Gill', lines, 20_00, clientOrderId)]);
     expect([a.status, b.status].sort()).toEqual([200, 201]);
     expect(a.body).toEqual(b.body);
     expect(a.body.order.clientOrderId).toBe(clientOrderId);
@@ -207,7 +202,7 @@ describe('order numbers', () => {
 });
 
 describe("an 86'd item", () => {
-  it("is refused with 409 unavailable and nothing is stored", async () => {
+  it('is refused with 409 unavailable and nothing is stored', async () => {
     const croissant = ids.item('Almond croissant');
     await server.db('menu_items').where({ id: croissant }).update({ available: 0 });
     try {

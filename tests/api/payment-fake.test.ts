@@ -3,9 +3,12 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import Stripe from 'stripe';
 import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest';
-import { startPaymentFake, type PaymentFake } from '../../server/fakes/payment-fake';
+import { startPaymentFake, type PaymentFake } from '@server/fakes/payment-fake';
 
-interface Delivery { raw: Buffer; headers: http.IncomingHttpHeaders }
+interface Delivery {
+  raw: Buffer;
+  headers: http.IncomingHttpHeaders;
+}
 
 let fake: PaymentFake;
 let stripe: Stripe;
@@ -50,7 +53,10 @@ beforeEach(() => {
 });
 
 async function cardError(p: Promise<unknown>): Promise<Stripe.errors.StripeCardError> {
-  const err = await p.then(() => null, (e: unknown) => e);
+  const err = await p.then(
+    () => null,
+    (e: unknown) => e,
+  );
   expect(err).toBeInstanceOf(Stripe.errors.StripeCardError);
   return err as Stripe.errors.StripeCardError;
 }
@@ -60,12 +66,24 @@ const verified = (d: Delivery) => stripe.webhooks.constructEvent(d.raw, String(d
 describe('payment intents', () => {
   it('creates, then confirms with the test PaymentMethod pm_card_visa', async () => {
     const created = await stripe.paymentIntents.create({
-      amount: 450, currency: 'usd', payment_method: 'pm_card_visa', metadata: { orderId: '12' }, description: 'Flat white',
+      amount: 450,
+      currency: 'usd',
+      payment_method: 'pm_card_visa',
+      metadata: { orderId: '12' },
+      description: 'Flat white',
     });
     expect(created).toMatchObject({
-      object: 'payment_intent', amount: 450, amount_received: 0, currency: 'usd', status: 'requires_confirmation',
-      payment_method: 'pm_card_visa', metadata: { orderId: '12' }, description: 'Flat white', livemode: false,
-      last_payment_error: null, latest_charge: null,
+      object: 'payment_intent',
+      amount: 450,
+      amount_received: 0,
+      currency: 'usd',
+      status: 'requires_confirmation',
+      payment_method: 'pm_card_visa',
+      metadata: { orderId: '12' },
+      description: 'Flat white',
+      livemode: false,
+      last_payment_error: null,
+      latest_charge: null,
     });
     expect(created.id).toMatch(/^pi_/);
     const confirmed = await stripe.paymentIntents.confirm(created.id);
@@ -92,7 +110,13 @@ describe('payment intents', () => {
   // …9995 insufficient funds, …0069 expired card. Messages are the provider's customer-facing texts.
   const declines = [
     { pm: 'pm_card_chargeDeclined', number: '4000000000000002', code: 'card_declined', decline: 'generic_decline', message: 'Your card was declined.' },
-    { pm: 'pm_card_chargeDeclinedInsufficientFunds', number: '4000000000009995', code: 'card_declined', decline: 'insufficient_funds', message: 'Your card has insufficient funds.' },
+    {
+      pm: 'pm_card_chargeDeclinedInsufficientFunds',
+      number: '4000000000009995',
+      code: 'card_declined',
+      decline: 'insufficient_funds',
+      message: 'Your card has insufficient funds.',
+    },
     { pm: 'pm_card_chargeDeclinedExpiredCard', number: '4000000000000069', code: 'expired_card', decline: null, message: 'Your card has expired.' },
   ];
   for (const d of declines) {
@@ -121,20 +145,27 @@ describe('payment intents', () => {
   });
 
   it('rejects an unknown payment method and bad amounts as invalid requests', async () => {
-    await expect(stripe.paymentIntents.create({ amount: 400, currency: 'usd', payment_method: 'pm_card_nope', confirm: true }))
-      .rejects.toMatchObject({ type: 'StripeInvalidRequestError', statusCode: 400, param: 'payment_method' });
-    await expect(stripe.paymentIntents.create({ amount: 0, currency: 'usd' }))
-      .rejects.toMatchObject({ type: 'StripeInvalidRequestError', param: 'amount' });
-    await expect(stripe.paymentIntents.create({ amount: 100, currency: 'usd', capture_method: 'manual' }))
-      .rejects.toMatchObject({ type: 'StripeInvalidRequestError', param: 'capture_method' });
+    await expect(stripe.paymentIntents.create({ amount: 400, currency: 'usd', payment_method: 'pm_card_nope', confirm: true })).rejects.toMatchObject({
+      type: 'StripeInvalidRequestError',
+      statusCode: 400,
+      param: 'payment_method',
+    });
+    await expect(stripe.paymentIntents.create({ amount: 0, currency: 'usd' })).rejects.toMatchObject({ type: 'StripeInvalidRequestError', param: 'amount' });
+    await expect(stripe.paymentIntents.create({ amount: 100, currency: 'usd', capture_method: 'manual' })).rejects.toMatchObject({
+      type: 'StripeInvalidRequestError',
+      param: 'capture_method',
+    });
   });
 
   it('retrieves a PI, and answers 404 resource_missing for an unknown id', async () => {
     const pi = await stripe.paymentIntents.create({ amount: 350, currency: 'usd', payment_method: 'pm_card_visa', confirm: true, metadata: { orderId: '7' } });
     const got = await stripe.paymentIntents.retrieve(pi.id);
     expect(got).toMatchObject({ id: pi.id, status: 'succeeded', amount: 350, metadata: { orderId: '7' } });
-    await expect(stripe.paymentIntents.retrieve('pi_missing'))
-      .rejects.toMatchObject({ type: 'StripeInvalidRequestError', statusCode: 404, code: 'resource_missing' });
+    await expect(stripe.paymentIntents.retrieve('pi_missing')).rejects.toMatchObject({
+      type: 'StripeInvalidRequestError',
+      statusCode: 404,
+      code: 'resource_missing',
+    });
   });
 
   it('cancels an unpaid PI and refuses to cancel a succeeded one', async () => {
@@ -153,20 +184,30 @@ describe('refunds', () => {
     const pi = await stripe.paymentIntents.create({ amount: 480, currency: 'usd', payment_method: 'pm_card_visa', confirm: true });
     const refund = await stripe.refunds.create({ payment_intent: pi.id, reason: 'requested_by_customer', metadata: { by: 'counter' } });
     expect(refund).toMatchObject({
-      object: 'refund', amount: 480, currency: 'usd', payment_intent: pi.id, status: 'succeeded',
-      reason: 'requested_by_customer', metadata: { by: 'counter' },
+      object: 'refund',
+      amount: 480,
+      currency: 'usd',
+      payment_intent: pi.id,
+      status: 'succeeded',
+      reason: 'requested_by_customer',
+      metadata: { by: 'counter' },
     });
     expect(refund.id).toMatch(/^re_/);
     expect(await stripe.refunds.retrieve(refund.id)).toMatchObject({ id: refund.id, amount: 480 });
-    await expect(stripe.refunds.create({ payment_intent: pi.id }))
-      .rejects.toMatchObject({ type: 'StripeInvalidRequestError', code: 'charge_already_refunded' });
+    await expect(stripe.refunds.create({ payment_intent: pi.id })).rejects.toMatchObject({
+      type: 'StripeInvalidRequestError',
+      code: 'charge_already_refunded',
+    });
   });
 
   it('refunds partially, refuses an over-refund, then refunds the rest', async () => {
     const pi = await stripe.paymentIntents.create({ amount: 1000, currency: 'usd', payment_method: 'pm_card_visa', confirm: true });
     expect((await stripe.refunds.create({ payment_intent: pi.id, amount: 300 })).amount).toBe(300);
-    await expect(stripe.refunds.create({ payment_intent: pi.id, amount: 701 }))
-      .rejects.toMatchObject({ type: 'StripeInvalidRequestError', statusCode: 400, code: 'amount_too_large' });
+    await expect(stripe.refunds.create({ payment_intent: pi.id, amount: 701 })).rejects.toMatchObject({
+      type: 'StripeInvalidRequestError',
+      statusCode: 400,
+      code: 'amount_too_large',
+    });
     expect((await stripe.refunds.create({ payment_intent: pi.id })).amount).toBe(700);
   });
 
@@ -180,7 +221,10 @@ describe('refunds', () => {
 describe('authentication and idempotency', () => {
   it('answers a wrong secret key with 401, which the SDK raises as StripeAuthenticationError', async () => {
     const wrong = new Stripe('sk_test_not_the_fakes_key', { host: fake.host, port: fake.port, protocol: 'http' });
-    const err = await wrong.paymentIntents.create({ amount: 100, currency: 'usd' }).then(() => null, (e: unknown) => e);
+    const err = await wrong.paymentIntents.create({ amount: 100, currency: 'usd' }).then(
+      () => null,
+      (e: unknown) => e,
+    );
     expect(err).toBeInstanceOf(Stripe.errors.StripeAuthenticationError);
     expect(err).toMatchObject({ statusCode: 401, rawType: 'invalid_request_error' });
   });
@@ -204,7 +248,10 @@ describe('authentication and idempotency', () => {
     const a = await cardError(stripe.paymentIntents.create(params, { idempotencyKey: key }));
     const b = await cardError(stripe.paymentIntents.create(params, { idempotencyKey: key }));
     expect((b.payment_intent as Stripe.PaymentIntent).id).toBe((a.payment_intent as Stripe.PaymentIntent).id);
-    const err = await stripe.paymentIntents.create({ ...params, amount: 611 }, { idempotencyKey: key }).then(() => null, (e: unknown) => e);
+    const err = await stripe.paymentIntents.create({ ...params, amount: 611 }, { idempotencyKey: key }).then(
+      () => null,
+      (e: unknown) => e,
+    );
     expect(err).toBeInstanceOf(Stripe.errors.StripeIdempotencyError);
   });
 });
@@ -228,14 +275,21 @@ describe('webhooks', () => {
     expect(events[2].data.object).toMatchObject({ id: open.id, status: 'canceled' });
     expect(events[3].data.object).toMatchObject({ object: 'charge', payment_intent: paid.id, amount_refunded: 200, refunded: false });
     expect(events[4].data.object).toMatchObject({ id: refund.id, amount: 200 });
-    expect(fake.events().slice(-5).map((e) => e.id)).toEqual(events.map((e) => e.id));
+    expect(
+      fake
+        .events()
+        .slice(-5)
+        .map((e) => e.id),
+    ).toEqual(events.map((e) => e.id));
 
     const tampered = Buffer.from(deliveries[0].raw.toString('utf8').replace('"amount": 700', '"amount": 1'));
     expect(tampered.equals(deliveries[0].raw)).toBe(false);
-    expect(() => stripe.webhooks.constructEvent(tampered, String(deliveries[0].headers['stripe-signature']), fake.webhookSecret))
-      .toThrow(Stripe.errors.StripeSignatureVerificationError);
-    expect(() => stripe.webhooks.constructEvent(deliveries[0].raw, String(deliveries[0].headers['stripe-signature']), 'whsec_other'))
-      .toThrow(Stripe.errors.StripeSignatureVerificationError);
+    expect(() => stripe.webhooks.constructEvent(tampered, String(deliveries[0].headers['stripe-signature']), fake.webhookSecret)).toThrow(
+      Stripe.errors.StripeSignatureVerificationError,
+    );
+    expect(() => stripe.webhooks.constructEvent(deliveries[0].raw, String(deliveries[0].headers['stripe-signature']), 'whsec_other')).toThrow(
+      Stripe.errors.StripeSignatureVerificationError,
+    );
   });
 
   it('retries a delivery the app answered with an error', async () => {
@@ -343,15 +397,26 @@ describe('faults', () => {
       { idempotencyKey: `lost-once-${Date.now()}` },
     );
     expect(pi.status).toBe('succeeded');
-    expect(fake.events().slice(before).map((e) => e.type)).toEqual(['payment_intent.succeeded']);
+    expect(
+      fake
+        .events()
+        .slice(before)
+        .map((e) => e.type),
+    ).toEqual(['payment_intent.succeeded']);
   });
 
   it('answers lost on every try: the SDK gives up with a connection error, though the card was charged', async () => {
     fake.faults.loseChargeAnswers();
     const withRetries = new Stripe(fake.secretKey, { host: fake.host, port: fake.port, protocol: 'http', maxNetworkRetries: 2 });
     const err = await withRetries.paymentIntents
-      .create({ amount: 516, currency: 'usd', payment_method: 'pm_card_visa', confirm: true, metadata: { lost: 'always' } }, { idempotencyKey: `lost-${Date.now()}` })
-      .then(() => null, (e: unknown) => e);
+      .create(
+        { amount: 516, currency: 'usd', payment_method: 'pm_card_visa', confirm: true, metadata: { lost: 'always' } },
+        { idempotencyKey: `lost-${Date.now()}` },
+      )
+      .then(
+        () => null,
+        (e: unknown) => e,
+      );
     expect(err).toBeInstanceOf(Stripe.errors.StripeConnectionError);
     fake.faults.loseChargeAnswers(0);
     const found = await stripe.paymentIntents.search({ query: "metadata['lost']:'always'" });
@@ -362,7 +427,10 @@ describe('faults', () => {
     fake.faults.setOffline(true);
     const err = await stripe.paymentIntents
       .create({ amount: 517, currency: 'usd', payment_method: 'pm_card_visa', confirm: true, metadata: { offline: 'yes' } })
-      .then(() => null, (e: unknown) => e);
+      .then(
+        () => null,
+        (e: unknown) => e,
+      );
     expect(err).toBeInstanceOf(Stripe.errors.StripeConnectionError);
     fake.faults.setOffline(false);
     expect((await stripe.paymentIntents.search({ query: "metadata['offline']:'yes'" })).data).toEqual([]);

@@ -9,12 +9,12 @@ import path from 'node:path';
 import bcrypt from 'bcryptjs';
 import request from 'supertest';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { hashPassword } from '../../server/auth/passwords';
-import { createLogger } from '../../server/logging';
-import { WRONG_PINS_PER_ADDRESS } from '../../server/team/routes';
-import { startServer } from '../../server/server';
-import { PIN_LOCK_MINUTES, PIN_TRIES } from '../../src/domain/team-schemas';
-import { DEMO_PASSWORD, DEMO_PINS } from '../../seeds/demo-cafe';
+import { hashPassword } from '@server/auth/passwords';
+import { createLogger } from '@server/logging';
+import { WRONG_PINS_PER_ADDRESS } from '@server/team/routes';
+import { startServer } from '@server/server';
+import { PIN_LOCK_MINUTES, PIN_TRIES } from '@/domain/team-schemas';
+import { DEMO_PASSWORD, DEMO_PINS } from '@seeds/demo-cafe';
 import { closeAllSockets, connect } from '../realtime/ws-client';
 import { manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { sessionCookieOf, setCookies, sidOf, type Agent } from './helpers';
@@ -108,7 +108,9 @@ describe('switching person', () => {
 
   it('signs the terminal in as the person under a new session id; the old id signs nobody in and its socket closes', async () => {
     const login = await request(server.url).post('/api/session').send({ username: 'cashier', password: DEMO_PASSWORD });
-    const oldCookie = setCookies(login).map((c) => c.split(';')[0]).join('; ');
+    const oldCookie = setCookies(login)
+      .map((c) => c.split(';')[0])
+      .join('; ');
     const live = await connect(server.url, oldCookie);
     await live.next((m) => m.type === 'hello', 'hello');
     const closed = new Promise<number>((resolve) => live.socket.once('close', (code) => resolve(code)));
@@ -117,7 +119,9 @@ describe('switching person', () => {
     const res = await request(server.url).post('/api/session/switch').set('Cookie', oldCookie).send({ userId: barista, pin: DEMO_PINS.barista });
     expect(res.status).toBe(200);
     expect(res.body.user).toEqual({ id: barista, name: 'Jonah Reyes', role: 'barista' });
-    const newCookie = setCookies(res).map((c) => c.split(';')[0]).join('; ');
+    const newCookie = setCookies(res)
+      .map((c) => c.split(';')[0])
+      .join('; ');
     expect(sidOf(sessionCookieOf(res))).not.toBe(sidOf(sessionCookieOf(login)));
 
     // 4409: the screen reconnects on the new session instead of going to sign-in
@@ -137,8 +141,17 @@ describe('switching person', () => {
     expect((await cashier.post('/api/session/switch').send({ userId: await idOf(server, 'cashier'), pin: DEMO_PINS.cashier })).status).toBe(409);
 
     const [{ id: otherCafe }] = await server.db('locations').insert({ name: 'North Quay Espresso', created_at: time.clock().toISOString() }).returning('id');
-    const [{ id: stranger }] = await server.db('users')
-      .insert({ location_id: otherCafe, username: 'north-lead', name: 'North Lead', role: 'lead', password_hash: await hashPassword('x-x-x-x-x-x'), pin_hash: await hashPassword('5830'), created_at: time.clock().toISOString() })
+    const [{ id: stranger }] = await server
+      .db('users')
+      .insert({
+        location_id: otherCafe,
+        username: 'north-lead',
+        name: 'North Lead',
+        role: 'lead',
+        password_hash: await hashPassword('x-x-x-x-x-x'),
+        pin_hash: await hashPassword('5830'),
+        created_at: time.clock().toISOString(),
+      })
       .returning('id');
     expect((await cashier.post('/api/session/switch').send({ userId: stranger, pin: '5830' })).status).toBe(404);
 
@@ -185,9 +198,7 @@ describe('switching person', () => {
   it('counts parallel wrong tries before checking them, so no more than the limit are ever checked', async () => {
     const terminal = await server.signIn('lead');
     const owner = await idOf(server, 'owner');
-    const tries = await Promise.all(
-      Array.from({ length: PIN_TRIES + 3 }, () => terminal.post('/api/session/switch').send({ userId: owner, pin: '5831' })),
-    );
+    const tries = await Promise.all(Array.from({ length: PIN_TRIES + 3 }, () => terminal.post('/api/session/switch').send({ userId: owner, pin: '5831' })));
     const statuses = tries.map((r) => r.status);
     expect(statuses.filter((s) => s === 401).length).toBeLessThanOrEqual(PIN_TRIES - 1);
     expect(statuses.filter((s) => s === 429).length).toBeGreaterThanOrEqual(4);

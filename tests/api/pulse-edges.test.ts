@@ -2,9 +2,9 @@
 // exactly to capacity, a few slow drinks pulling the mean make time past the median, a jug of
 // lattes bumped as one batch, and a shift that runs past midnight. Numbers worked by hand.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { PulseView } from '../../src/domain/pulse';
-import type { ReportView } from '../../src/domain/reports';
-import type { OrderView, ShiftView } from '../../src/domain/types';
+import type { PulseView } from '@/domain/pulse';
+import type { ReportView } from '@/domain/reports';
+import type { OrderView, ShiftView } from '@/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
 
@@ -13,7 +13,13 @@ const MIN = 60_000;
 /** A fresh server on its own clock, with the lead, the cashier and a barista signed in. */
 function bar(startIso: string) {
   const time = manualClock(startIso);
-  const ctx = { server: undefined as unknown as TestServer, lead: {} as Agent, cashier: {} as Agent, barista: {} as Agent, ids: {} as Awaited<ReturnType<typeof demoMenu>> };
+  const ctx = {
+    server: undefined as unknown as TestServer,
+    lead: {} as Agent,
+    cashier: {} as Agent,
+    barista: {} as Agent,
+    ids: {} as Awaited<ReturnType<typeof demoMenu>>,
+  };
   beforeAll(async () => {
     ctx.server = await startTestServer({ clock: time.clock });
     ctx.lead = await ctx.server.signIn('lead');
@@ -86,7 +92,8 @@ describe('staffing at the edges', () => {
   it('bumps 30, 40, 50, 60 and 300 s apart: the mean says 1 barista can’t keep up; the median would not', async () => {
     // the rush made at 1:40, then three hours on: it is out of every window
     h.setMinute(100);
-    for (const id of (await h.ctx.server.db('orders').where('customer_name', 'like', 'Rush %').pluck('id')) as number[]) await h.ctx.lead.post(`/api/tickets/${id}/bump`);
+    for (const id of (await h.ctx.server.db('orders').where('customer_name', 'like', 'Rush %').pluck('id')) as number[])
+      await h.ctx.lead.post(`/api/tickets/${id}/bump`);
     h.setMinute(200);
     const set = await h.ctx.lead.post('/api/shifts/current/baristas').send({ baristasOnBar: 1 });
     expect(set.status).toBe(200);

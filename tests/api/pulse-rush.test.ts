@@ -3,9 +3,9 @@
 // Counter quoted a minute with 20 drinks queued, Pulse said a drink waits seconds under measured
 // waits of minutes, and a barista's median make time read 0:03. Numbers worked by hand.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { PulseView } from '../../src/domain/pulse';
-import { quoteLabel } from '../../src/domain/quote';
-import type { OrderView } from '../../src/domain/types';
+import type { PulseView } from '@/domain/pulse';
+import { quoteLabel } from '@/domain/quote';
+import type { OrderView } from '@/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent } from './helpers';
 

@@ -1,7 +1,7 @@
 // Giving money back and voiding orders: only a shift lead (or the owner) may; a full refund of an
 // order still at the bar takes it off the bar; a void is for an order that was never paid.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { OrderView, TicketView } from '../../src/domain/types';
+import type { OrderView, TicketView } from '@/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
 import { jsonOf } from '../support/rows';
@@ -64,7 +64,12 @@ async function openTicketIds(): Promise<number[]> {
 }
 
 /** Send a command and check it was refused: the status and code, and not one row written. */
-async function expectRefused(send: () => PromiseLike<{ status: number; body: { error: { code: string; message: string; details?: { path: string; message: string }[] } } }>, status: number, code: string, orderId: number) {
+async function expectRefused(
+  send: () => PromiseLike<{ status: number; body: { error: { code: string; message: string; details?: { path: string; message: string }[] } } }>,
+  status: number,
+  code: string,
+  orderId: number,
+) {
   const before = { order: await orderRow(orderId), refunds: await countRows('refunds'), payments: await countRows('payments'), seq: await maxEventId() };
   const res = await send();
   expect(res.status, JSON.stringify(res.body)).toBe(status);
@@ -170,7 +175,10 @@ describe('POST /api/orders/:id/refund', () => {
       lead.post(`/api/orders/${order.id}/refund`).send({ amountCents: 100, reason: 'Milk was off' }),
       lead.post(`/api/orders/${order.id}/refund`).send({ amountCents: 200, reason: 'Cake was stale' }),
     ]);
-    expect([a.status, b.status].every((s) => s === 200 || s === 409), JSON.stringify([a.body, b.body])).toBe(true);
+    expect(
+      [a.status, b.status].every((s) => s === 200 || s === 409),
+      JSON.stringify([a.body, b.body]),
+    ).toBe(true);
     const recorded = (await refundRows(order.id)).reduce((sum, r) => sum + r.amount_cents, 0);
     expect((await orderRow(order.id)).refunded_cents).toBe(recorded);
 

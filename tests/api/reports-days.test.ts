@@ -2,7 +2,7 @@
 // a range needs it and read back after; the answer is the same as one worked out from the orders;
 // a refund on that day drops the stored partial in its own transaction, so the next answer has it.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { ReportView } from '../../src/domain/reports';
+import type { ReportView } from '@/domain/reports';
 import { manualClock, startTestServer, type TestServer } from '../support/test-server';
 import type { Agent } from './helpers';
 import { DAY, T0, placeReportDay, type ReportDay } from './reports-fixture';

@@ -2,7 +2,7 @@
 // in shifts, as the shift screen would write it), cash and card orders, a lead's discount, a
 // partial and a full refund, a declined card that is voided, and bumps at known times.
 import { expect } from 'vitest';
-import type { OrderView, TicketView } from '../../src/domain/types';
+import type { OrderView, TicketView } from '@/domain/types';
 import { demoMenu, type manualClock, type TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
 
@@ -52,8 +52,7 @@ export async function placeReportDay(server: TestServer, time: Clock): Promise<R
     return res.body.order as OrderView;
   };
   const cash = (name: string, items: LineInput[]) => place(cashier, orderBody(name, items));
-  const card = (name: string, items: LineInput[]) =>
-    place(cashier, { ...orderBody(name, items), payment: { method: 'card', paymentMethod: 'pm_card_visa' } });
+  const card = (name: string, items: LineInput[]) => place(cashier, { ...orderBody(name, items), payment: { method: 'card', paymentMethod: 'pm_card_visa' } });
 
   const ada = await cash('Ada Finch', [
     { menuItemId: ids.item('Latte'), sizeId: ids.size('Latte', 'Large'), milkId: ids.milk('Oat') },

@@ -2,7 +2,7 @@
 // row, a sensible file name, and a customer named "=cmd" written as the text '=cmd, never a formula.
 import Papa from 'papaparse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { TicketHistoryPage, TicketHistoryRow } from '../../src/domain/reports';
+import type { TicketHistoryPage, TicketHistoryRow } from '@/domain/reports';
 import { manualClock, startTestServer, type TestServer } from '../support/test-server';
 import type { Agent } from './helpers';
 import { DAY, T0, WAITS, expectedMoney, placeReportDay, type ReportDay } from './reports-fixture';
@@ -104,7 +104,18 @@ describe('CSV downloads', () => {
     expect(res.headers['content-disposition']).toBe('attachment; filename="jugline-tickets-all.csv"');
     const rows = csvRows(res.text);
     expect(rows[0]).toEqual([
-      'Date', 'Ticket', 'Customer', 'Status', 'Payment', 'Method', 'Total (USD)', 'Refunded (USD)', 'Drinks', 'Taken at (America/New_York)', 'Ready at (America/New_York)', 'Wait (s)',
+      'Date',
+      'Ticket',
+      'Customer',
+      'Status',
+      'Payment',
+      'Method',
+      'Total (USD)',
+      'Refunded (USD)',
+      'Drinks',
+      'Taken at (America/New_York)',
+      'Ready at (America/New_York)',
+      'Wait (s)',
     ]);
     // the café's own clock with its offset (EST is UTC−5 in March before the 8th: 14:00Z is 09:00),
     // and the same status and payment words as the Reports screen

@@ -3,10 +3,10 @@
 // set to the second with the manual clock).
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { formatCents } from '../../src/domain/money';
-import type { ReportView } from '../../src/domain/reports';
-import { PERCENTILE_METHOD } from '../../src/domain/stats';
-import { shiftReportEmail } from '../../server/reports';
+import { formatCents } from '@/domain/money';
+import type { ReportView } from '@/domain/reports';
+import { PERCENTILE_METHOD } from '@/domain/stats';
+import { shiftReportEmail } from '@server/reports';
 import { manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent } from './helpers';
 import { DAY, T0, expectedBar, expectedMoney, placeReportDay, type ReportDay } from './reports-fixture';
@@ -31,14 +31,22 @@ const get = async (path: string, who: Agent = lead) => {
 };
 
 describe('access', () => {
-  const reportUrl = (path: string) =>
-    `/api${path.replace(':id', String(day.shiftId))}${path.startsWith('/reports/range') ? `?from=${DAY}&to=${DAY}` : ''}`;
+  const reportUrl = (path: string) => `/api${path.replace(':id', String(day.shiftId))}${path.startsWith('/reports/range') ? `?from=${DAY}&to=${DAY}` : ''}`;
 
   it('every reports route: 401 signed out, 403 for a cashier or a barista, 200 for a lead or the owner', async () => {
     // the card check's "settle" (POST, refundOrders) is covered in card-reconciliation.test.ts
     const routes = server.routes.filter((r) => r.path.startsWith('/reports') && r.method === 'get');
     expect(routes.map((r) => r.path).sort()).toEqual(
-      ['/reports/cards', '/reports/range', '/reports/range.csv', '/reports/shift/:id', '/reports/shift/:id.csv', '/reports/shifts', '/reports/tickets', '/reports/tickets.csv'].sort(),
+      [
+        '/reports/cards',
+        '/reports/range',
+        '/reports/range.csv',
+        '/reports/shift/:id',
+        '/reports/shift/:id.csv',
+        '/reports/shifts',
+        '/reports/tickets',
+        '/reports/tickets.csv',
+      ].sort(),
     );
     const agents = { cashier: await server.signIn('cashier'), barista: await server.signIn('barista'), owner: await server.signIn('owner') };
     for (const r of routes) {
@@ -88,7 +96,13 @@ describe('GET /api/reports/shift/:id', () => {
         closedAt: '2026-03-02T14:30:00.000Z',
         waitTargetSeconds: 240,
         // the fixture closed it without a count: the drawer has a float and an expected figure only
-        cash: expect.objectContaining({ openedBy: 'Theo Brand', closedBy: 'Theo Brand', openingFloatCents: 100_00, countedCashCents: null, differenceCents: null }),
+        cash: expect.objectContaining({
+          openedBy: 'Theo Brand',
+          closedBy: 'Theo Brand',
+          openingFloatCents: 100_00,
+          countedCashCents: null,
+          differenceCents: null,
+        }),
       },
     });
   });
@@ -157,9 +171,16 @@ describe('GET /api/reports/range', () => {
       { hour: 10, orders: 1, drinks: 2, cents: day.late.totalCents, medianWaitSeconds: null },
     ]);
     expect(report.topItems[0]).toEqual({ item: 'Banana bread', count: 2, cents: 2 * 395 });
-    expect(report.topItems.map((i) => i.item).sort()).toEqual(
-      ['Banana bread', 'Cappuccino', 'Chai latte', 'Espresso', 'Flat white', 'Iced latte', 'Latte', 'Long black'],
-    );
+    expect(report.topItems.map((i) => i.item).sort()).toEqual([
+      'Banana bread',
+      'Cappuccino',
+      'Chai latte',
+      'Espresso',
+      'Flat white',
+      'Iced latte',
+      'Latte',
+      'Long black',
+    ]);
     // the late order's drinks were never made: no more milk than the shift's
     expect(byMilk(report.milkUsedMl)).toEqual(byMilk(expectedBar(day.bumped).milkUsedMl));
   });

@@ -5,8 +5,8 @@
 import { readFileSync } from 'node:fs';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { ROLES, type Role } from '../../src/domain/roles';
-import type { ApiRoute } from '../../server/routes';
+import { ROLES, type Role } from '@/domain/roles';
+import type { ApiRoute } from '@server/routes';
 import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, writeCounts, type Agent } from './helpers';
 
@@ -44,7 +44,10 @@ function readTable(): Map<string, Record<Principal, 'allow' | 'deny'>> {
   let columns: string[] = [];
   for (const line of readFileSync(new URL('./role-matrix.expected.md', import.meta.url), 'utf8').split('\n')) {
     if (!line.startsWith('|')) continue;
-    const cells = line.split('|').slice(1, -1).map((c) => c.trim().replace(/^`|`$/g, ''));
+    const cells = line
+      .split('|')
+      .slice(1, -1)
+      .map((c) => c.trim().replace(/^`|`$/g, ''));
     if (cells[0] === 'method') {
       columns = cells.slice(2);
       if (columns.join() !== PRINCIPALS.join()) throw new Error(`${TABLE_FILE}: the columns must be method | path | ${PRINCIPALS.join(' | ')}`);

@@ -10,13 +10,13 @@ import path from 'node:path';
 import request from 'supertest';
 import WebSocket from 'ws';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
-import { DEFAULT_IDLE_MINUTES, SESSION_COOKIE, SESSION_MAX_AGE_MS } from '../../server/auth/session';
-import { ConfigError, loadConfig } from '../../server/config';
-import { SESSION_ENDED, WALL_SCREENS } from '../../server/realtime/socket-server';
-import { startServer } from '../../server/server';
-import type { ScreenId } from '../../src/domain/screens';
-import { PASSIVE_REQUEST_HEADER, screenAt } from '../../src/lib/live-socket';
+import { DEMO_PASSWORD } from '@seeds/demo-cafe';
+import { DEFAULT_IDLE_MINUTES, SESSION_COOKIE, SESSION_MAX_AGE_MS } from '@server/auth/session';
+import { ConfigError, loadConfig } from '@server/config';
+import { SESSION_ENDED, WALL_SCREENS } from '@server/realtime/socket-server';
+import { startServer } from '@server/server';
+import type { ScreenId } from '@/domain/screens';
+import { PASSIVE_REQUEST_HEADER, screenAt } from '@/lib/live-socket';
 import { manualClock, startTestServer, type DemoLogin, type TestServer } from '../support/test-server';
 import { closeAllSockets, connect, tryUpgrade, type LiveClient } from '../realtime/ws-client';
 import { setCookies, sidOf } from './helpers';
@@ -307,14 +307,25 @@ describe('SESSION_IDLE_MINUTES', () => {
   });
 
   /** A server of its own with SESSION_IDLE_MINUTES set, on a manual clock for both clocks. */
-  async function withIdleMinutes(value: string, run: (s: { url: string; clock: ReturnType<typeof manualClock>; signIn(login: DemoLogin): Promise<string> }) => Promise<void>) {
-    const config = loadConfig({ DATABASE_FILE: file, SESSION_IDLE_MINUTES: value, SESSION_SECRET: randomBytes(32).toString('hex'), NODE_ENV: 'test', PORT: '0' });
+  async function withIdleMinutes(
+    value: string,
+    run: (s: { url: string; clock: ReturnType<typeof manualClock>; signIn(login: DemoLogin): Promise<string> }) => Promise<void>,
+  ) {
+    const config = loadConfig({
+      DATABASE_FILE: file,
+      SESSION_IDLE_MINUTES: value,
+      SESSION_SECRET: randomBytes(32).toString('hex'),
+      NODE_ENV: 'test',
+      PORT: '0',
+    });
     expect(config.sessionIdleMinutes).toBe(Number(value));
     const clock = manualClock();
     const running = await startServer(config, { pages: 'none', clock: clock.clock, sessionClock: clock.clock, log: () => {} });
     const signIn = async (login: DemoLogin) => {
       const res = await request(running.url).post('/api/session').send({ username: login, password: DEMO_PASSWORD });
-      return setCookies(res).map((c) => c.split(';')[0]).join('; ');
+      return setCookies(res)
+        .map((c) => c.split(';')[0])
+        .join('; ');
     };
     try {
       await run({ url: running.url, clock, signIn });

@@ -1,8 +1,8 @@
 // Signing in and out: error shapes, what the answer reveals, the session cookie and its id.
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_PASSWORD, DEMO_STAFF } from '../../seeds/demo-cafe';
-import { SESSION_COOKIE } from '../../server/auth/session';
+import { DEMO_PASSWORD, DEMO_STAFF } from '@seeds/demo-cafe';
+import { SESSION_COOKIE } from '@server/auth/session';
 import { startTestServer, type TestServer } from '../support/test-server';
 import { setCookies, sidOf } from './helpers';
 

@@ -2,8 +2,8 @@
 // answered with (and that nothing changed), switching allergen lists, the pitcher rules, and the
 // menu.changed event that makes open screens reload.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import type { SettingsPage } from '../../src/domain/settings-schemas';
-import type { BoardSnapshot, MenuView, ServerMessage } from '../../src/domain/types';
+import type { SettingsPage } from '@/domain/settings-schemas';
+import type { BoardSnapshot, MenuView, ServerMessage } from '@/domain/types';
 import { startTestServer, type TestServer } from '../support/test-server';
 import { closeAllSockets, connectAndResume } from '../realtime/ws-client';
 import type { Agent } from './helpers';
@@ -205,7 +205,10 @@ describe('switching the allergen list', () => {
     // Annex II item 1 (oats); item 8 (almonds) against FALCPA's "tree nuts"; wheat is a cereal containing gluten
     expect(row('Oat')).toEqual({ kind: 'milk', id: expect.any(Number), name: 'Oat', ingredients: ['oats'], before: [], after: ['cereals containing gluten'] });
     expect(row('Almond')).toMatchObject({ kind: 'milk', before: ['tree nuts'], after: ['nuts'] });
-    expect(row('Almond croissant')).toMatchObject({ before: ['milk', 'eggs', 'tree nuts', 'wheat'], after: ['cereals containing gluten', 'eggs', 'milk', 'nuts'] });
+    expect(row('Almond croissant')).toMatchObject({
+      before: ['milk', 'eggs', 'tree nuts', 'wheat'],
+      after: ['cereals containing gluten', 'eggs', 'milk', 'nuts'],
+    });
     // milk is milk and coconut is in neither list (FDA Q&A Edition 5, January 2025): unchanged
     expect(row('Whole')).toBeUndefined();
     expect(row('Coconut')).toBeUndefined();
@@ -225,7 +228,10 @@ describe('switching the allergen list', () => {
     const milk = (name: string) => menu.milks.find((m) => m.name === name)!.allergens;
     expect(milk('Almond')).toEqual(['nuts']); // Annex II item 8
     expect(milk('Coconut')).toEqual([]); // not in Annex II
-    expect(menu.items.find((i) => i.name === 'Butter croissant')).toMatchObject({ ingredients: ["cow's milk", 'egg', 'wheat'], allergens: ['cereals containing gluten', 'eggs', 'milk'] });
+    expect(menu.items.find((i) => i.name === 'Butter croissant')).toMatchObject({
+      ingredients: ["cow's milk", 'egg', 'wheat'],
+      allergens: ['cereals containing gluten', 'eggs', 'milk'],
+    });
 
     await owner.put('/api/settings').send({ allergenList: 'US' }).expect(200);
     const us: MenuView = (await owner.get('/api/menu').expect(200)).body;
@@ -281,10 +287,7 @@ describe('pitchers', () => {
   });
 
   it('a pitcher that is not there, or is another café’s, is 404', async () => {
-    const [{ id: otherCafe }] = await server
-      .db('locations')
-      .insert({ name: 'Another café', created_at: '2026-03-01T00:00:00.000Z' })
-      .returning('id');
+    const [{ id: otherCafe }] = await server.db('locations').insert({ name: 'Another café', created_at: '2026-03-01T00:00:00.000Z' }).returning('id');
     const [{ id: theirs }] = await server.db('pitchers').insert({ location_id: otherCafe, capacity_ml: 600, fill_line_ml: 330 }).returning('id');
     const before = await stored();
     expect((await owner.put(`/api/settings/pitchers/${theirs}`).send({ capacityMl: 350, fillLineMl: 190 })).status).toBe(404);
@@ -320,7 +323,9 @@ describe('a settings change reaches open screens', () => {
     expect(board.location.waitTargetSeconds).toBe(300);
     expect(board.location.jugRules.wasteMl).toBe(20);
     expect(board.location.jugRules.pitchers).toEqual(
-      (saved.body as SettingsPage).pitchers.map(({ id: _id, ...pitcher }) => pitcher).sort((a, b) => a.fillLineMl - b.fillLineMl || a.capacityMl - b.capacityMl),
+      (saved.body as SettingsPage).pitchers
+        .map(({ id: _id, ...pitcher }) => pitcher)
+        .sort((a, b) => a.fillLineMl - b.fillLineMl || a.capacityMl - b.capacityMl),
     );
   });
 });

@@ -3,8 +3,8 @@
 // mail and in the shift CSV, in the café's currency (a euro café here).
 import Papa from 'papaparse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { OutboxMail } from '../../src/domain/outbox';
-import type { OrderView } from '../../src/domain/types';
+import type { OutboxMail } from '@/domain/outbox';
+import type { OrderView } from '@/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent } from './helpers';
 
@@ -24,7 +24,12 @@ describe('closing a shift with tickets still open', () => {
 
   beforeAll(async () => {
     server = await startTestServer({ clock: time.clock });
-    [lead, cashier, barista, owner] = [await server.signIn('lead'), await server.signIn('cashier'), await server.signIn('barista'), await server.signIn('owner')];
+    [lead, cashier, barista, owner] = [
+      await server.signIn('lead'),
+      await server.signIn('cashier'),
+      await server.signIn('barista'),
+      await server.signIn('owner'),
+    ];
     latte = (await demoMenu(server)).item('Latte');
     // a euro café: every cash figure must come out in its currency, never in dollars
     await server.db('locations').update({ currency: 'EUR' });
@@ -128,7 +133,9 @@ describe('closing a shift with tickets still open', () => {
     const open = await lead.post('/api/shifts').send({ openingFloatCents: 0, baristasOnBar: 1, waitTargetSeconds: 240 });
     expect(open.status).toBe(201);
     expect((await cashier.post('/api/orders').send(orderBody('Lux Varga', [{ menuItemId: latte }], 10_00))).status).toBe(201);
-    const closes = await Promise.all(Array.from({ length: 8 }, () => lead.post('/api/shifts/current/close').send({ countedCashCents: 0, confirmOpenTickets: true })));
+    const closes = await Promise.all(
+      Array.from({ length: 8 }, () => lead.post('/api/shifts/current/close').send({ countedCashCents: 0, confirmOpenTickets: true })),
+    );
     expect(closes.map((r) => r.status).sort()).toEqual([200, 409, 409, 409, 409, 409, 409, 409]);
     expect(closes.filter((r) => r.status === 409).every((r) => r.body.error.code === 'conflict')).toBe(true);
     expect(await server.db('shifts').where({ id: open.body.shift.id }).first()).toMatchObject({ open_tickets_at_close: 1 });

@@ -4,9 +4,9 @@
 // worked out by hand from tickets bumped at known times.
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
-import type { OutboxMail } from '../../src/domain/outbox';
-import type { PulseView } from '../../src/domain/pulse';
-import type { OrderView, ShiftView } from '../../src/domain/types';
+import type { OutboxMail } from '@/domain/outbox';
+import type { PulseView } from '@/domain/pulse';
+import type { OrderView, ShiftView } from '@/domain/types';
 import { demoMenu, manualClock, startTestServer, type DemoLogin, type TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
 import { jsonOf } from '../support/rows';
@@ -596,7 +596,14 @@ describe('the Pulse numbers', () => {
     const rush: OrderView[] = [];
     for (let i = 0; i < 10; i++) {
       setMinute(180 + i);
-      rush.push(await h.place(`Rushing Regular ${String.fromCharCode(65 + i)}. Ormsby`, [drink('Latte'), drink('Cappuccino'), drink('Flat white'), drink('Long black')]));
+      rush.push(
+        await h.place(`Rushing Regular ${String.fromCharCode(65 + i)}. Ormsby`, [
+          drink('Latte'),
+          drink('Cappuccino'),
+          drink('Flat white'),
+          drink('Long black'),
+        ]),
+      );
     }
     // an order refunded in full before it is made leaves the bar: its drinks are no demand
     setMinute(185);

@@ -9,14 +9,14 @@
 // here waits in real time and no assertion is about time taken.
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
+import { DEMO_PASSWORD } from '@seeds/demo-cafe';
 import {
   ADDRESS_FAILURES_PER_HOUR,
   FAILED_SIGN_INS_PER_HOUR,
   MAX_SIGN_IN_PAUSE_MS,
   PAIR_FAILURES_PER_HOUR,
   WAITING_SIGN_INS_PER_NAME,
-} from '../../src/domain/sign-in-pacing';
+} from '@/domain/sign-in-pacing';
 import { manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { setCookies } from './helpers';
 
@@ -93,11 +93,17 @@ describe('a flood of wrong passwords for one name from many addresses', () => {
 
     // the owner's cookie with one character changed is no cookie at all
     const owner = await signInFrom(freshAddress(), 'owner', DEMO_PASSWORD);
-    const pair = setCookies(owner).find((c) => c.startsWith('jugline.known='))!.split(';')[0];
+    const pair = setCookies(owner)
+      .find((c) => c.startsWith('jugline.known='))!
+      .split(';')[0];
     const [name, value] = [pair.slice(0, pair.indexOf('=') + 1), pair.slice(pair.indexOf('=') + 1)];
     const forged = name + (value[0] === 'x' ? 'y' : 'x') + value.slice(1);
     pausesBefore = slept.length;
-    const forgedTry = await request(server.url).post('/api/session').set('Cookie', forged).set('X-Forwarded-For', freshAddress()).send({ username: 'owner', password: DEMO_PASSWORD });
+    const forgedTry = await request(server.url)
+      .post('/api/session')
+      .set('Cookie', forged)
+      .set('X-Forwarded-For', freshAddress())
+      .send({ username: 'owner', password: DEMO_PASSWORD });
     expect(forgedTry.status).toBe(200);
     expect(slept.length).toBe(pausesBefore + 1);
   });

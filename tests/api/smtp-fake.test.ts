@@ -6,11 +6,11 @@ import os from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Config } from '../../server/config';
-import { startSmtpFake, type ReceivedMail, type SmtpFake } from '../../server/fakes/smtp-fake';
-import { startServer } from '../../server/server';
-import { createMailer } from '../../server/mail/outbox';
-import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
+import type { Config } from '@server/config';
+import { startSmtpFake, type ReceivedMail, type SmtpFake } from '@server/fakes/smtp-fake';
+import { startServer } from '@server/server';
+import { createMailer } from '@server/mail/outbox';
+import { DEMO_PASSWORD } from '@seeds/demo-cafe';
 import { orderBody } from './helpers';
 
 let fake: SmtpFake;

@@ -4,9 +4,9 @@
 import { createHash } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { createApp } from '../../server/app';
-import { LINK_HOURS } from '../../src/domain/team-schemas';
-import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
+import { createApp } from '@server/app';
+import { LINK_HOURS } from '@/domain/team-schemas';
+import { DEMO_PASSWORD } from '@seeds/demo-cafe';
 import { closeAllSockets, connect } from '../realtime/ws-client';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent } from './helpers';

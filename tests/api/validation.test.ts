@@ -76,9 +76,7 @@ describe('POST /api/orders: the shape of the body', () => {
   });
 
   it('refuses a payment method it does not know', async () => {
-    const res = await cashier
-      .post('/api/orders')
-      .send({ ...orderBody('Tamsin Vale', [latte()]), payment: { method: 'cheque', tenderedCents: 1000 } });
+    const res = await cashier.post('/api/orders').send({ ...orderBody('Tamsin Vale', [latte()]), payment: { method: 'cheque', tenderedCents: 1000 } });
     expect(res.status).toBe(400);
     expect(paths(res.body)).toEqual(['payment.method']);
   });
@@ -102,9 +100,7 @@ describe('POST /api/orders: checked against the menu on the server', () => {
   });
 
   it('refuses a milk on a drink that takes none, naming the line it is on', async () => {
-    const res = await cashier
-      .post('/api/orders')
-      .send(orderBody('Tamsin Vale', [latte(), { menuItemId: menu.item('Long black'), milkId: menu.milk('Oat') }]));
+    const res = await cashier.post('/api/orders').send(orderBody('Tamsin Vale', [latte(), { menuItemId: menu.item('Long black'), milkId: menu.milk('Oat') }]));
     expect(res.status).toBe(400);
     expect(res.body).toEqual(validationFailed([{ path: 'items.1.milkId', message: expect.any(String) }]));
   });

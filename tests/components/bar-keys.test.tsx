@@ -6,9 +6,9 @@ import { renderHook } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { useState } from 'react';
 import { describe, expect, it } from 'vitest';
-import type { LaneDrink } from '../../src/domain/lanes';
-import type { BarCommand } from '../../src/features/bar/commands';
-import { useBumpKeys } from '../../src/features/bar/use-bump-keys';
+import type { LaneDrink } from '@/domain/lanes';
+import type { BarCommand } from '@/features/bar/commands';
+import { useBumpKeys } from '@/features/bar/use-bump-keys';
 
 function card(id: number, o: Partial<LaneDrink> = {}): LaneDrink {
   return {
@@ -57,7 +57,14 @@ function bar(cards: LaneDrink[], keys: [number, number][], recallLast: number | 
 describe('the Bar keys', () => {
   it('a number bumps the card that shows it, not the card in that place', async () => {
     // card 12 shows key 1 although it sits second: keys stay with their card
-    const screen = bar([card(11), card(12), card(13)], [[12, 1], [11, 2], [13, 3]]);
+    const screen = bar(
+      [card(11), card(12), card(13)],
+      [
+        [12, 1],
+        [11, 2],
+        [13, 3],
+      ],
+    );
     await userEvent.keyboard('1');
     expect(screen.ran).toEqual([{ kind: 'bump-drink', id: 12 }]);
     await userEvent.keyboard('9'); // no card shows 9: nothing happens
@@ -65,7 +72,14 @@ describe('the Bar keys', () => {
   });
 
   it('arrows move the focus ring; Enter bumps and S starts the focused card', async () => {
-    const screen = bar([card(1), card(2), card(3)], [[1, 1], [2, 2], [3, 3]]);
+    const screen = bar(
+      [card(1), card(2), card(3)],
+      [
+        [1, 1],
+        [2, 2],
+        [3, 3],
+      ],
+    );
     await userEvent.keyboard('{ArrowDown}{ArrowDown}');
     expect(screen.focus()).toBe(2);
     await userEvent.keyboard('{ArrowUp}');
@@ -79,14 +93,26 @@ describe('the Bar keys', () => {
 
   it('a bump key on an unread allergy only focuses the card; A reads it, then the key bumps', async () => {
     const nuts = card(5, { allergens: ['peanuts'] });
-    const first = bar([card(4), nuts], [[4, 1], [5, 2]]);
+    const first = bar(
+      [card(4), nuts],
+      [
+        [4, 1],
+        [5, 2],
+      ],
+    );
     await userEvent.keyboard('2');
     expect(first.ran).toEqual([]);
     expect(first.focus()).toBe(5);
     await userEvent.keyboard('a');
     expect(first.ran).toEqual([{ kind: 'acknowledge-allergy', id: 5 }]);
 
-    const read = bar([card(4), { ...nuts, allergyAckAt: '2026-03-02T14:01:00.000Z', allergyAckBy: 'Theo' }], [[4, 1], [5, 2]]);
+    const read = bar(
+      [card(4), { ...nuts, allergyAckAt: '2026-03-02T14:01:00.000Z', allergyAckBy: 'Theo' }],
+      [
+        [4, 1],
+        [5, 2],
+      ],
+    );
     await userEvent.keyboard('2');
     expect(read.ran).toEqual([{ kind: 'bump-drink', id: 5 }]);
   });

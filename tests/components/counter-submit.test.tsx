@@ -10,11 +10,11 @@ import userEvent from '@testing-library/user-event';
 import { createMemoryRouter, RouterProvider } from 'react-router';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import WebSocket from 'ws';
-import { counterRoute } from '../../src/routes/counter';
-import { httpApi } from '../../src/lib/api';
-import { menuQuery } from '../../src/queries/menu';
-import { barBoardQuery } from '../../src/queries/board';
-import { sessionQuery } from '../../src/queries/session';
+import { counterRoute } from '@/routes/counter';
+import { httpApi } from '@/lib/api';
+import { menuQuery } from '@/queries/menu';
+import { barBoardQuery } from '@/queries/board';
+import { sessionQuery } from '@/queries/session';
 import { startTestServer, type TestServer } from '../support/test-server';
 
 let server: TestServer;

@@ -11,12 +11,12 @@ import { hydrateRoot, type Root } from 'react-dom/client';
 // copy of the package, whose router context the screens would not see.
 import { createBrowserRouter, createStaticHandler, RouterProvider, type RouteObject } from 'react-router';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { render } from '../../src/entry-server';
-import type { Api } from '../../src/lib/api';
-import { ApiContext } from '../../src/lib/api-context';
-import { createRoutes, resolveLazyMatches, SCREEN_FILES } from '../../src/routes';
-import type { RouteDeps } from '../../src/routes/deps';
-import { signInRoute } from '../../src/routes/signin';
+import { render } from '@/entry-server';
+import type { Api } from '@/lib/api';
+import { ApiContext } from '@/lib/api-context';
+import { createRoutes, resolveLazyMatches, SCREEN_FILES } from '@/routes';
+import type { RouteDeps } from '@/routes/deps';
+import { signInRoute } from '@/routes/signin';
 
 const ROOT = path.resolve(__dirname, '../..');
 // Only the sign-in screen is rendered here, signed out: it needs the session and nothing else.
@@ -29,7 +29,9 @@ describe('the lazy screens', () => {
     const lazy = screens(createRoutes(deps())).filter((r) => r.lazy);
     expect(lazy.map((r) => r.id).sort()).toEqual(Object.keys(SCREEN_FILES).sort());
     for (const file of Object.values(SCREEN_FILES)) expect(existsSync(path.join(ROOT, file)), file).toBe(true);
-    const eager = screens(createRoutes(deps())).filter((r) => !r.lazy).map((r) => r.id);
+    const eager = screens(createRoutes(deps()))
+      .filter((r) => !r.lazy)
+      .map((r) => r.id);
     expect(eager).toEqual(['home', 'not-found']);
   });
 

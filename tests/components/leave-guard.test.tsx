@@ -2,7 +2,7 @@
 // first while a screen holds unsent work, and asks nothing otherwise.
 import { renderHook } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { confirmLeave, useLeaveGuard } from '../../src/lib/leave-guard';
+import { confirmLeave, useLeaveGuard } from '@/lib/leave-guard';
 
 afterEach(() => vi.restoreAllMocks());
 
@@ -16,7 +16,9 @@ describe('the leave guard', () => {
 
   it('asks with the screen’s words while work is held, and follows the answer', () => {
     const ask = vi.spyOn(window, 'confirm').mockReturnValueOnce(false).mockReturnValueOnce(true);
-    const { rerender, unmount } = renderHook(({ m }) => useLeaveGuard(m), { initialProps: { m: 'The order being built (2 items) will be lost.' as string | null } });
+    const { rerender, unmount } = renderHook(({ m }) => useLeaveGuard(m), {
+      initialProps: { m: 'The order being built (2 items) will be lost.' as string | null },
+    });
     expect(confirmLeave()).toBe(false);
     expect(ask).toHaveBeenCalledWith('The order being built (2 items) will be lost. Leave anyway?');
     expect(confirmLeave()).toBe(true);

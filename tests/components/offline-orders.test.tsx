@@ -7,13 +7,13 @@ import userEvent from '@testing-library/user-event';
 import { createStore, values } from 'idb-keyval';
 import type { ReactNode } from 'react';
 import { afterEach, describe, expect, it } from 'vitest';
-import { createOrderBody, type CreateOrderBody } from '../../src/domain/schemas';
-import type { OrderView } from '../../src/domain/types';
-import { OfflineOrdersBanner } from '../../src/features/counter/offline-orders-banner';
-import { listOfflineOrders, putOfflineOrder, removeOfflineOrder, type OfflineOrder } from '../../src/features/counter/offline-orders';
-import { useOfflineOrders, type SendOrderFn } from '../../src/features/counter/use-offline-orders';
-import { ApiError } from '../../src/lib/http';
-import { uuid } from '../../src/lib/uuid';
+import { createOrderBody, type CreateOrderBody } from '@/domain/schemas';
+import type { OrderView } from '@/domain/types';
+import { OfflineOrdersBanner } from '@/features/counter/offline-orders-banner';
+import { listOfflineOrders, putOfflineOrder, removeOfflineOrder, type OfflineOrder } from '@/features/counter/offline-orders';
+import { useOfflineOrders, type SendOrderFn } from '@/features/counter/use-offline-orders';
+import { ApiError } from '@/lib/http';
+import { uuid } from '@/lib/uuid';
 
 // Read IndexedDB itself, not through the module, to be sure the order is really stored there
 // (the store keeps its first name, pending-orders, for orders a browser already holds).

@@ -1,7 +1,7 @@
 // The pour line never tells lateness by colour alone: past target it hatches and the text says so.
 import { render, screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
-import { PourLine, ageLabel } from '../../src/features/bar/pour-line';
+import { PourLine, ageLabel } from '@/features/bar/pour-line';
 
 describe('ageLabel', () => {
   it('writes the age as it is (m:ss), and how late past target', () => {

@@ -2,7 +2,7 @@
 // Redirects and Forwards": allow-list the destination). Browsers read '//host' and '/\host' as
 // another host (WHATWG URL: backslash is a path separator in special schemes).
 import { describe, expect, it } from 'vitest';
-import { safeNext } from '../../src/routes/signin';
+import { safeNext } from '@/routes/signin';
 
 describe('safeNext', () => {
   it('keeps paths on this site, with their query', () => {

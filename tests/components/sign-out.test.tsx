@@ -2,7 +2,7 @@
 // between the session ending and the page changing. That answer must not turn "Sign out" into a trip
 // to sign-in that comes back to the screen (/signin?next=/bar).
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { holdReads, http, signOut } from '../../src/lib/http';
+import { holdReads, http, signOut } from '@/lib/http';
 
 afterEach(() => vi.unstubAllGlobals());
 
@@ -17,7 +17,9 @@ describe('signOut', () => {
       'fetch',
       vi.fn((_url: string, init: RequestInit) => {
         if (init.method === 'DELETE') return new Promise<Response>((resolve) => (endSession = () => resolve(new Response(null, { status: 204 }))));
-        return new Promise<Response>((resolve) => (answerScreen = () => resolve(Response.json({ error: { code: 'unauthenticated', message: 'Sign in first' } }, { status: 401 }))));
+        return new Promise<Response>(
+          (resolve) => (answerScreen = () => resolve(Response.json({ error: { code: 'unauthenticated', message: 'Sign in first' } }, { status: 401 }))),
+        );
       }),
     );
     // the screen's read is on its way when the person signs out; it answers 401 once the session is gone

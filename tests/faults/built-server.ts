@@ -4,7 +4,7 @@ import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { createServer } from 'node:net';
 import path from 'node:path';
-import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
+import { DEMO_PASSWORD } from '@seeds/demo-cafe';
 
 export const ROOT = path.resolve(import.meta.dirname, '../..');
 /** A safety net so a broken start fails instead of hanging; never a timing assertion. */

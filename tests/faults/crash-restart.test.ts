@@ -16,7 +16,7 @@ import path from 'node:path';
 import Database from 'better-sqlite3';
 import WebSocket from 'ws';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { ServerMessage, TicketView } from '../../src/domain/types';
+import type { ServerMessage, TicketView } from '@/domain/types';
 import { BuiltServer, ensureBuilt, freePort, signIn, sleep } from './built-server';
 
 const COUNTERS = 3;
@@ -299,7 +299,9 @@ function check(run: RunResult) {
       .all(locationId) as { orderId: number; n: number }[];
     const firedCount = new Map(fired.map((f) => [f.orderId, f.n]));
     expect(orders.filter((o) => firedCount.get(o.id) !== 1).map((o) => o.id)).toEqual([]);
-    const paid = db.prepare("SELECT count(*) AS n FROM payments p JOIN orders o ON o.id = p.order_id WHERE o.location_id = ? AND p.status = 'succeeded'").get(locationId) as {
+    const paid = db
+      .prepare("SELECT count(*) AS n FROM payments p JOIN orders o ON o.id = p.order_id WHERE o.location_id = ? AND p.status = 'succeeded'")
+      .get(locationId) as {
       n: number;
     };
     expect(paid.n).toBe(orders.length);
@@ -311,7 +313,9 @@ function check(run: RunResult) {
     expect(gaps.slice(0, 5), 'first events whose id is not its position').toEqual([]);
 
     // each resumed bar screen holds exactly the open tickets
-    const open = (db.prepare("SELECT id FROM orders WHERE location_id = ? AND status = 'open' ORDER BY id").all(locationId) as { id: number }[]).map((r) => r.id);
+    const open = (db.prepare("SELECT id FROM orders WHERE location_id = ? AND status = 'open' ORDER BY id").all(locationId) as { id: number }[]).map(
+      (r) => r.id,
+    );
     expect(open.length).toBeGreaterThan(0);
     for (const bar of run.bars) {
       expect(bar.problems).toEqual([]);

@@ -54,7 +54,12 @@ describe('the built server under a write lock held by another process', () => {
     const cookie = await signIn(server.url, 'cashier');
     const menu = (await (await call('GET', `${server.url}/api/menu`, cookie)).json()) as { items: { id: number; name: string }[] };
     const espresso = menu.items.find((i) => i.name === 'Espresso')!;
-    const order = { clientOrderId: randomUUID(), customerName: 'Ada Quill', items: [{ menuItemId: espresso.id }], payment: { method: 'cash', tenderedCents: 10_00 } };
+    const order = {
+      clientOrderId: randomUUID(),
+      customerName: 'Ada Quill',
+      items: [{ menuItemId: espresso.id }],
+      payment: { method: 'cash', tenderedCents: 10_00 },
+    };
     const fresh = await signIn(server.url, 'cashier'); // its first request touches its session row
 
     const lock = await holdWriteLock(server.databaseFile);

@@ -2,9 +2,9 @@
 // no connection.
 import request from 'supertest';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { SESSION_COOKIE } from '../../server/auth/session';
-import { SESSION_ENDED } from '../../server/realtime/socket-server';
-import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
+import { SESSION_COOKIE } from '@server/auth/session';
+import { SESSION_ENDED } from '@server/realtime/socket-server';
+import { DEMO_PASSWORD } from '@seeds/demo-cafe';
 import { orderBody } from '../api/helpers';
 import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
 import { closeAllSockets, connect, connectAndResume, tryUpgrade } from './ws-client';
@@ -67,7 +67,10 @@ describe('upgrading to the live socket', () => {
 describe('signing out and origins', () => {
   it('signing out closes that session’s live sockets, and only those', async () => {
     const signIn = await request(server.url).post('/api/session').send({ username: 'barista', password: DEMO_PASSWORD });
-    const cookie = ([] as string[]).concat(signIn.headers['set-cookie']).map((c) => c.split(';')[0]).join('; ');
+    const cookie = ([] as string[])
+      .concat(signIn.headers['set-cookie'])
+      .map((c) => c.split(';')[0])
+      .join('; ');
     const other = await connect(server.url, await server.cookieFor('lead'));
     const mine = await connect(server.url, cookie);
     await mine.next((m) => m.type === 'hello');
@@ -81,7 +84,11 @@ describe('signing out and origins', () => {
   });
 
   it('signing in again on a cookie that had a session closes the old session’s sockets at once (4401), before any event', async () => {
-    const cookieOf = (res: request.Response) => ([] as string[]).concat(res.headers['set-cookie']).map((c) => c.split(';')[0]).join('; ');
+    const cookieOf = (res: request.Response) =>
+      ([] as string[])
+        .concat(res.headers['set-cookie'])
+        .map((c) => c.split(';')[0])
+        .join('; ');
     const signIn = (username: string, cookie?: string) => {
       const req = request(server.url).post('/api/session');
       return (cookie ? req.set('Cookie', cookie) : req).send({ username, password: DEMO_PASSWORD });
@@ -102,7 +109,10 @@ describe('signing out and origins', () => {
     const newCookie = cookieOf(again);
     expect(newCookie).not.toBe(cookie);
     const ids = await demoMenu(server);
-    const placed = await request(server.url).post('/api/orders').set('Cookie', newCookie).send(orderBody('Ada Quill', [{ menuItemId: ids.item('Long black') }]));
+    const placed = await request(server.url)
+      .post('/api/orders')
+      .set('Cookie', newCookie)
+      .send(orderBody('Ada Quill', [{ menuItemId: ids.item('Long black') }]));
     expect(placed.status).toBe(201);
 
     expect(await first).toBe(`closed ${SESSION_ENDED}`);

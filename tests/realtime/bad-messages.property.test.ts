@@ -6,9 +6,9 @@
 import fc from 'fast-check';
 import WebSocket from 'ws';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { clientMessage } from '../../src/domain/schemas';
-import type { ServerMessage } from '../../src/domain/types';
-import { RATE_BURST, RATE_PER_SECOND } from '../../server/realtime/socket-server';
+import { clientMessage } from '@/domain/schemas';
+import type { ServerMessage } from '@/domain/types';
+import { RATE_BURST, RATE_PER_SECOND } from '@server/realtime/socket-server';
 import { manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { closeAllSockets, connect, type LiveClient } from './ws-client';
 
@@ -63,10 +63,13 @@ const badFrame: fc.Arbitrary<Frame> = fc
     fc.string({ unit: 'binary', maxLength: 800 }).map((s): Frame => ({ text: s })),
     fc.jsonValue({ stringUnit: 'binary', maxDepth: 4 }).map((v): Frame => ({ text: JSON.stringify(v) })),
     fc
-      .record({
-        type: fc.oneof(fc.constantFrom('ping', 'resume', 'PING', 'event', '', 'hello'), fc.jsonValue()),
-        since: fc.oneof(fc.jsonValue(), fc.constantFrom(-1, 1.5, '3', null, Infinity)),
-      }, { requiredKeys: [] })
+      .record(
+        {
+          type: fc.oneof(fc.constantFrom('ping', 'resume', 'PING', 'event', '', 'hello'), fc.jsonValue()),
+          since: fc.oneof(fc.jsonValue(), fc.constantFrom(-1, 1.5, '3', null, Infinity)),
+        },
+        { requiredKeys: [] },
+      )
       .map((v): Frame => ({ text: JSON.stringify(v) })),
     fc.uint8Array({ maxLength: 1_000 }).map((bytes): Frame => ({ binary: Buffer.from(bytes) })),
   )

@@ -1,7 +1,7 @@
 // Counter and bar actions through the real HTTP API, for the realtime tests.
 import { randomUUID } from 'node:crypto';
 import type request from 'supertest';
-import type { OrderView, TicketView } from '../../src/domain/types';
+import type { OrderView, TicketView } from '@/domain/types';
 import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
 
 export type Agent = ReturnType<typeof request.agent>;
@@ -14,9 +14,7 @@ export interface Line {
 
 /** POST /api/orders with cash covering any total; asserts it was created. */
 export async function fireOrder(agent: Agent, customerName: string, items: Line[]): Promise<OrderView> {
-  const res = await agent
-    .post('/api/orders')
-    .send({ clientOrderId: randomUUID(), customerName, items, payment: { method: 'cash', tenderedCents: 100_00 } });
+  const res = await agent.post('/api/orders').send({ clientOrderId: randomUUID(), customerName, items, payment: { method: 'cash', tenderedCents: 100_00 } });
   if (res.status !== 201) throw new Error(`order for ${customerName} failed: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body.order as OrderView;
 }

@@ -5,8 +5,8 @@
 // event once, in order. On PostgreSQL all the transactions are open at once; SQLite runs one at a
 // time, and the same checks hold.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { dialectOf } from '../../server/db/dialect';
-import { appendMenuChangedEvent, eventsSince, latestSeq, runCommand } from '../../server/events';
+import { dialectOf } from '@server/db/dialect';
+import { appendMenuChangedEvent, eventsSince, latestSeq, runCommand } from '@server/events';
 import { startTestServer, type TestServer } from '../support/test-server';
 import { demoLocationId } from './bar-actions';
 import { closeAllSockets, connectAndResume } from './ws-client';
@@ -80,7 +80,17 @@ describe('the event sequence under concurrent commands', () => {
   });
 
   it('numbers each café on its own, and a rolled-back command gives its number back', async () => {
-    const other = await server.db('locations').insert({ name: 'North Quay', time_zone: 'America/New_York', currency: 'USD', locale: 'en-US', tax_mode: 'exclusive', created_at: new Date().toISOString() }).returning('id');
+    const other = await server
+      .db('locations')
+      .insert({
+        name: 'North Quay',
+        time_zone: 'America/New_York',
+        currency: 'USD',
+        locale: 'en-US',
+        tax_mode: 'exclusive',
+        created_at: new Date().toISOString(),
+      })
+      .returning('id');
     const otherId = Number((other[0] as { id: number }).id ?? other[0]);
     const before = await latestSeq(server.db, locationId);
     const at = new Date().toISOString();

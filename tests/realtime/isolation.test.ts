@@ -2,7 +2,7 @@
 // neither live nor in a replay, and the other way round.
 import request from 'supertest';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { hashPassword } from '../../server/auth/passwords';
+import { hashPassword } from '@server/auth/passwords';
 import type { TestServer } from '../support/test-server';
 import { barLines, bumpDrink, demoLines, fireOrder, loggedEvents, startDrink, type Agent, barScene } from './bar-actions';
 import { closeAllSockets, connect, connectAndResume } from './ws-client';
@@ -46,9 +46,7 @@ async function insertNorthCafe(db: TestServer['db']) {
     password_hash: await hashPassword(NORTH_PASSWORD),
     created_at: createdAt,
   });
-  const [{ id: categoryId }] = await db('menu_categories')
-    .insert({ location_id: locationId, name: 'Coffee', sort: 0 })
-    .returning('id');
+  const [{ id: categoryId }] = await db('menu_categories').insert({ location_id: locationId, name: 'Coffee', sort: 0 }).returning('id');
   const [{ id: itemId }] = await db('menu_items')
     .insert({
       category_id: categoryId,
@@ -150,7 +148,7 @@ describe('events per location', () => {
     expect(northScreen.events().every((e) => northOrders.has(e.ticket.id))).toBe(true);
   });
 
-  it("the north board (what a north snapshot is built from) has only north tickets and the north seq", async () => {
+  it('the north board (what a north snapshot is built from) has only north tickets and the north seq', async () => {
     const res = await north.get('/api/tickets?view=board');
     expect(res.status).toBe(200);
     expect(res.body.location.name).toBe('North Quay Espresso');

@@ -1,7 +1,7 @@
 // Live events on a connected screen: hello → resume → events as the counter and bar act,
 // message validation, and several screens seeing the same event.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import type { LiveEvent } from '../../src/domain/types';
+import type { LiveEvent } from '@/domain/types';
 import type { TestServer } from '../support/test-server';
 import { barLines, bumpDrink, demoLines, fireOrder, loggedEvents, startDrink, type Agent, barScene } from './bar-actions';
 import { closeAllSockets, connect, connectAndResume } from './ws-client';
@@ -63,12 +63,7 @@ describe('a signed-in barista screen', () => {
     expect(last.ticket.status).toBe('ready');
     expect(last.ticket.readyAt).not.toBeNull();
 
-    expect(client.messages.map((m) => (m.type === 'event' ? m.event.type : m.type))).toEqual([
-      'hello',
-      'order.fired',
-      'drink.bumped',
-      'drink.bumped',
-    ]);
+    expect(client.messages.map((m) => (m.type === 'event' ? m.event.type : m.type))).toEqual(['hello', 'order.fired', 'drink.bumped', 'drink.bumped']);
   });
 
   it('gets no events before it has sent resume', async () => {

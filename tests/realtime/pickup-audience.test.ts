@@ -6,9 +6,9 @@
 // slips through under any name is caught.
 import { createRequire } from 'node:module';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { MAX_REPLAY } from '../../server/realtime/socket-server';
-import { DEMO_STAFF } from '../../seeds/demo-cafe';
-import type { ServerMessage } from '../../src/domain/types';
+import { MAX_REPLAY } from '@server/realtime/socket-server';
+import { DEMO_STAFF } from '@seeds/demo-cafe';
+import type { ServerMessage } from '@/domain/types';
 import { orderBody } from '../api/helpers';
 import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
 import { availabilityEvents, demoLocationId, loggedEvents, type Agent } from './bar-actions';
@@ -89,9 +89,7 @@ beforeAll(async () => {
   expect((await lead.post('/api/shifts').send({ openingFloatCents: 150_00, baristasOnBar: 1, waitTargetSeconds: 240 })).status).toBe(201);
   // a soy latte with a note, for a guest with allergies, an allergy note and an e-mail receipt
   const latte = { menuItemId: m.item('Latte'), sizeId: m.size('Latte', 'Regular'), milkId: m.milk('Soy'), note: NOTE };
-  const guest = await cashier
-    .post('/api/orders')
-    .send({ ...orderBody(GUEST, [latte]), allergens: ALLERGENS, allergyNote: ALLERGY_NOTE, customerEmail: EMAIL });
+  const guest = await cashier.post('/api/orders').send({ ...orderBody(GUEST, [latte]), allergens: ALLERGENS, allergyNote: ALLERGY_NOTE, customerEmail: EMAIL });
   expect(guest.status, JSON.stringify(guest.body)).toBe(201);
   guestTicketId = guest.body.order.id;
   const drinkId = guest.body.order.lines[0].id;

@@ -1,19 +1,8 @@
 // Resume from 0 on a fresh database: the whole log, in order, no duplicates.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import type { TicketView } from '../../src/domain/types';
+import type { TicketView } from '@/domain/types';
 import type { TestServer } from '../support/test-server';
-import {
-  barLines,
-  bumpDrink,
-  bumpTicket,
-  demoLines,
-  fireOrder,
-  loggedEvents,
-  recallTicket,
-  startDrink,
-  type Agent,
-  barScene,
-} from './bar-actions';
+import { barLines, bumpDrink, bumpTicket, demoLines, fireOrder, loggedEvents, recallTicket, startDrink, type Agent, barScene } from './bar-actions';
 import { closeAllSockets, connect, connectAndResume } from './ws-client';
 
 let server: TestServer;

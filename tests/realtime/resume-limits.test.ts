@@ -10,16 +10,9 @@ import type { Knex } from 'knex';
 import request from 'supertest';
 import WebSocket from 'ws';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import {
-  MAX_REPLAY,
-  MAX_SOCKETS_PER_SESSION,
-  RESUME_BURST,
-  RESUME_STRIKES,
-  SESSION_RESUME_BURST,
-  TOO_MANY_SOCKETS,
-} from '../../server/realtime/socket-server';
-import { REUSE_MS } from '../../server/realtime/resume-source';
-import type { ServerMessage } from '../../src/domain/types';
+import { MAX_REPLAY, MAX_SOCKETS_PER_SESSION, RESUME_BURST, RESUME_STRIKES, SESSION_RESUME_BURST, TOO_MANY_SOCKETS } from '@server/realtime/socket-server';
+import { REUSE_MS } from '@server/realtime/resume-source';
+import type { ServerMessage } from '@/domain/types';
 import { demoMenu, manualClock, startTestServer, type DemoLogin, type TestServer } from '../support/test-server';
 import { availabilityEvents, demoLines, demoLocationId, fireOrder, loggedEvents, type Agent } from './bar-actions';
 import { closeAllSockets, connect, tryUpgrade, type LiveClient } from './ws-client';
@@ -174,10 +167,12 @@ describe('the limits', () => {
         if (client.socket.readyState !== WebSocket.OPEN) continue;
         const closed = closeCode(client);
         client.send({ type: 'resume', since: 0 });
-        const answered = await client.next((m) => m.type === 'snapshot', 'a snapshot').then(
-          () => 'snapshot',
-          () => null, // closed instead
-        );
+        const answered = await client
+          .next((m) => m.type === 'snapshot', 'a snapshot')
+          .then(
+            () => 'snapshot',
+            () => null, // closed instead
+          );
         outcomes.push(answered ?? (await closed));
       }
     }

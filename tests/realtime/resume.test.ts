@@ -1,20 +1,9 @@
 // Done means: a screen that drops and comes back with resume { since } gets exactly what it
 // missed, in order, and then carries on live — nothing lost, nothing twice.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import type { AnyLiveEvent } from '../../src/domain/types';
+import type { AnyLiveEvent } from '@/domain/types';
 import type { TestServer } from '../support/test-server';
-import {
-  barLines,
-  bumpDrink,
-  bumpTicket,
-  demoLines,
-  fireOrder,
-  loggedEvents,
-  recallTicket,
-  startDrink,
-  type Agent,
-  barScene,
-} from './bar-actions';
+import { barLines, bumpDrink, bumpTicket, demoLines, fireOrder, loggedEvents, recallTicket, startDrink, type Agent, barScene } from './bar-actions';
 import { closeAllSockets, connect, connectAndResume } from './ws-client';
 
 let server: TestServer;
@@ -53,11 +42,7 @@ describe('resuming after a drop', () => {
     const [drink] = barLines(order);
     const started = await startDrink(barista, drink.id);
     const bumped = await bumpDrink(barista, drink.id);
-    const missedLive = [
-      await watcher.nextEvent('order.fired'),
-      await watcher.nextEvent('drink.started'),
-      await watcher.nextEvent('drink.bumped'),
-    ];
+    const missedLive = [await watcher.nextEvent('order.fired'), await watcher.nextEvent('drink.started'), await watcher.nextEvent('drink.bumped')];
     const logged = (await loggedEvents(server, locationId)).filter((e) => e.seq > S);
     expect(logged.map((e) => e.type)).toEqual(['order.fired', 'drink.started', 'drink.bumped']);
 

@@ -1,7 +1,7 @@
 // A screen more than MAX_REPLAY events behind gets one snapshot of the board instead of a replay.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { MAX_REPLAY } from '../../server/realtime/socket-server';
-import type { BoardSnapshot, ServerMessage } from '../../src/domain/types';
+import { MAX_REPLAY } from '@server/realtime/socket-server';
+import type { BoardSnapshot, ServerMessage } from '@/domain/types';
 import type { TestServer } from '../support/test-server';
 import { barLines, bumpDrink, bumpTicket, demoLines, fireOrder, loggedEvents, startDrink, type Agent, barScene } from './bar-actions';
 import { closeAllSockets, connectAndResume } from './ws-client';

@@ -15,10 +15,7 @@ afterEach(() => closeAllSockets());
 afterAll(() => server.close());
 
 const within = <T>(p: Promise<T>, what: string) =>
-  Promise.race([
-    p,
-    new Promise<never>((_r, reject) => setTimeout(() => reject(new Error(`no ${what}`)), SAFETY_TIMEOUT_MS)),
-  ]);
+  Promise.race([p, new Promise<never>((_r, reject) => setTimeout(() => reject(new Error(`no ${what}`)), SAFETY_TIMEOUT_MS))]);
 
 describe('a client resetting the connection during the upgrade', () => {
   it('leaves the server running and accepting screens', async () => {

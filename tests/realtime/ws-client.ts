@@ -1,7 +1,7 @@
 // A small live-socket client for the realtime tests: the real `ws` client against the real
 // server, collecting every server message in arrival order.
 import WebSocket from 'ws';
-import type { LiveEvent, ServerMessage } from '../../src/domain/types';
+import type { LiveEvent, ServerMessage } from '@/domain/types';
 
 /** Only a safety net so a broken test fails instead of hanging; never a timing assertion. */
 export const SAFETY_TIMEOUT_MS = 5_000;
@@ -87,10 +87,7 @@ export function connect(httpUrl: string, cookie: string): Promise<LiveClient> {
       });
     },
     async nextEvent(type) {
-      const m = await client.next(
-        (msg) => msg.type === 'event' && (type === undefined || msg.event.type === type),
-        type ? `a ${type} event` : 'an event',
-      );
+      const m = await client.next((msg) => msg.type === 'event' && (type === undefined || msg.event.type === type), type ? `a ${type} event` : 'an event');
       return (m as Extract<ServerMessage, { type: 'event' }>).event as LiveEvent;
     },
     send(message) {

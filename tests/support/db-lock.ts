@@ -3,7 +3,7 @@
 // better-sqlite3 connection that runs BEGIN EXCLUSIVE and holds it until told to let go.
 import { spawn } from 'node:child_process';
 import path from 'node:path';
-import { isPostgresUrl } from '../../server/db/dialect';
+import { isPostgresUrl } from '@server/db/dialect';
 
 const ROOT = path.resolve(import.meta.dirname, '../..');
 

@@ -5,14 +5,18 @@
 // 100 %: its fill line is ≥ 320 ml and its capacity at least twice its fill line. It sits at a
 // random place in the list: the plan must not depend on the order.
 import fc from 'fast-check';
-import type { Jug, JugRules, Pitcher } from '../../src/domain/jug-plan';
+import type { Jug, JugRules, Pitcher } from '@/domain/jug-plan';
 
 export const MAX_TEST_DRINK_ML = 300;
 
 const pitcherArb = (fill: { min: number; max: number }, capacity: (fillLineMl: number, headroom: number) => number) =>
   fc
     .record({ fillLineMl: fc.integer(fill), headroom: fc.integer({ min: 0, max: 600 }), minPart: fc.double({ min: 0, max: 1, noNaN: true }) })
-    .map(({ fillLineMl, headroom, minPart }): Pitcher => ({ capacityMl: capacity(fillLineMl, headroom), fillLineMl, minFillMl: Math.floor(fillLineMl * minPart) }));
+    .map(({ fillLineMl, headroom, minPart }): Pitcher => ({
+      capacityMl: capacity(fillLineMl, headroom),
+      fillLineMl,
+      minFillMl: Math.floor(fillLineMl * minPart),
+    }));
 
 const anyPitcherArb = pitcherArb({ min: 40, max: 900 }, (fill, headroom) => fill + headroom);
 const bigPitcherArb = pitcherArb({ min: 320, max: 900 }, (fill, headroom) => 2 * fill + headroom);

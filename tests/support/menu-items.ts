@@ -1,6 +1,6 @@
 // An invented menu item for unit tests of pricing and lines: a bar drink with no sizes, milk or
 // extras unless the test says so.
-import type { MenuItemView } from '../../src/domain/types';
+import type { MenuItemView } from '@/domain/types';
 
 export function menuItem(over: Partial<MenuItemView> & Pick<MenuItemView, 'id' | 'name'>, modifierGroupIds: number[] = []): MenuItemView {
   return {

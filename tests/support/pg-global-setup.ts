@@ -3,7 +3,7 @@
 // admin URL handed to the test workers, which clone one database per test server from the template.
 import { spawnSync } from 'node:child_process';
 import type { TestProject } from 'vitest/node';
-import { adminQuery, startCluster } from '../../scripts/services/postgres';
+import { adminQuery, startCluster } from '@scripts/services/postgres';
 
 export const TEMPLATE_DATABASE = 'jugline_template';
 

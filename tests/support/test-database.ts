@@ -4,7 +4,7 @@
 import { randomBytes } from 'node:crypto';
 import path from 'node:path';
 import { inject } from 'vitest';
-import { adminQuery } from '../../scripts/services/postgres';
+import { adminQuery } from '@scripts/services/postgres';
 import { TEMPLATE_DATABASE } from './pg-global-setup';
 
 export interface TestDatabase {

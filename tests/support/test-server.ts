@@ -5,11 +5,11 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
-import type { Config } from '../../server/config';
-import { startServer, type RunningServer } from '../../server/server';
-import type { SignInPacing } from '../../server/auth/routes';
-import type { Clock } from '../../server/deps';
-import { DEMO_PASSWORD } from '../../seeds/demo-cafe';
+import type { Config } from '@server/config';
+import { startServer, type RunningServer } from '@server/server';
+import type { SignInPacing } from '@server/auth/routes';
+import type { Clock } from '@server/deps';
+import { DEMO_PASSWORD } from '@seeds/demo-cafe';
 import { createTestDatabase } from './test-database';
 
 export type DemoLogin = 'owner' | 'lead' | 'cashier' | 'barista' | 'barista2';

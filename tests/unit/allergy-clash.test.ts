@@ -1,6 +1,6 @@
 // A drink that contains what the customer must avoid is caught before it is sent.
 import { describe, expect, it } from 'vitest';
-import { allergyClash, US_ALLERGENS } from '../../src/domain/allergens';
+import { allergyClash, US_ALLERGENS } from '@/domain/allergens';
 
 describe('allergyClash', () => {
   it('names each allergen the drink contains that the customer avoids', () => {

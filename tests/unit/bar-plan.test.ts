@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
-import type { Jug, JugRules, Pitcher } from '../../src/domain/jug-plan';
-import { groupIntoLanes, hasAllergy, needsAllergyAck, planBar } from '../../src/domain/lanes';
-import type { DrinkStatus, DrinkView, JugRef, MilkRef, Texture, TicketView } from '../../src/domain/types';
+import type { Jug, JugRules, Pitcher } from '@/domain/jug-plan';
+import { groupIntoLanes, hasAllergy, needsAllergyAck, planBar } from '@/domain/lanes';
+import type { DrinkStatus, DrinkView, JugRef, MilkRef, Texture, TicketView } from '@/domain/types';
 import { plannedJug } from '../support/jugs';
 
 const OAT: MilkRef = { id: 7, name: 'Oat', code: 'OT' };
@@ -102,11 +102,7 @@ describe('planBar', () => {
     const longBlack = drink(2, { milk: null });
     const latte = drink(3, { milk: WHOLE, shots: 1, milkMl: 200, texture: 'silky' });
     const { lanes, shotPlan } = planBar(
-      [
-        ticket(1, at('08:00'), [flatWhite, longBlackMaking]),
-        ticket(2, at('08:02'), [cappuccino, longBlack]),
-        ticket(3, at('08:03'), [latte]),
-      ],
+      [ticket(1, at('08:00'), [flatWhite, longBlackMaking]), ticket(2, at('08:02'), [cappuccino, longBlack]), ticket(3, at('08:03'), [latte])],
       RULES,
     );
 
@@ -140,21 +136,15 @@ describe('planBar', () => {
   });
 
   it('keeps lanes as groupIntoLanes makes them', () => {
-    const tickets = [
-      ticket(1, at('08:00'), [drink(1, { milk: OAT, shots: 1 }), drink(1, { milk: WHOLE })]),
-      ticket(2, at('08:04'), [drink(2, { milk: OAT })]),
-    ];
+    const tickets = [ticket(1, at('08:00'), [drink(1, { milk: OAT, shots: 1 }), drink(1, { milk: WHOLE })]), ticket(2, at('08:04'), [drink(2, { milk: OAT })])];
     const { lanes } = planBar(tickets, RULES);
     // The planned lanes are the grouped lanes plus their plans (Jugline's own shape, no outside value).
     expect(lanes.map(({ jugPlan: _j, shotPlan: _s, ...lane }) => lane)).toEqual(groupIntoLanes(tickets));
   });
 
-  it("counts no shots or dose for drinks already being made or done", () => {
+  it('counts no shots or dose for drinks already being made or done', () => {
     // Common practice: a started drink's shots are being pulled; a done drink's are in the cup.
-    const { lanes, shotPlan } = planBar(
-      [ticket(1, at('08:00'), [drink(1, { status: 'making' }), drink(1, { status: 'done' })])],
-      RULES,
-    );
+    const { lanes, shotPlan } = planBar([ticket(1, at('08:00'), [drink(1, { status: 'making' }), drink(1, { status: 'done' })])], RULES);
     expect(lanes).toHaveLength(1);
     expect(lanes[0].shotPlan).toEqual({ shots: 0, doseDg: 0 });
     expect(shotPlan).toEqual({ shots: 0, doseDg: 0 });
@@ -166,11 +156,7 @@ describe('planBar', () => {
     const old2 = drink(2, { milkMl: 200 });
     const rushed = drink(3, { milkMl: 200 });
     const { lanes } = planBar(
-      [
-        ticket(1, at('08:00'), [old1]),
-        ticket(2, at('08:05'), [old2]),
-        ticket(3, at('08:10'), [rushed], { rushedAt: at('08:12') }),
-      ],
+      [ticket(1, at('08:00'), [old1]), ticket(2, at('08:05'), [old2]), ticket(3, at('08:10'), [rushed], { rushedAt: at('08:12') })],
       RULES,
     );
     expect(lanes).toHaveLength(1);
@@ -221,10 +207,7 @@ describe('planBar with started jugs', () => {
     const { lanes } = planBar([ticket(1, at('08:00'), [flatWhite]), ticket(2, at('08:01'), [cappuccino])], RULES);
     // Jug 1 still holds only the flat white, with the pour it was started with. The cappuccino is
     // jug 2: 180 + 20 = 200 > 160; ≤ 280, ≥ 170, 200 × 1.75 = 350 ≤ 500 → 500 ml pitcher.
-    expect(lanes[0].jugPlan).toEqual([
-      { ...planned(MEDIUM, 170, 20, 'flat', [flatWhite.id]), jugId: 41 },
-      planned(MEDIUM, 200, 20, 'foamy', [cappuccino.id]),
-    ]);
+    expect(lanes[0].jugPlan).toEqual([{ ...planned(MEDIUM, 170, 20, 'flat', [flatWhite.id]), jugId: 41 }, planned(MEDIUM, 200, 20, 'foamy', [cappuccino.id])]);
   });
 
   it("lists a started jug's drinks still on the bar, thinnest first, and keeps its pour though some were bumped", () => {
@@ -275,16 +258,17 @@ describe('planBar with started jugs', () => {
       RULES,
     );
     // Planned: 200 + 200 + 20 = 420 → 1000 ml pitcher, the rushed drink poured first (as above).
-    expect(lanes[0].jugPlan).toEqual([
-      { ...planned(MEDIUM, 170, 20, 'flat', [making.id]), jugId: 5 },
-      planned(LARGE, 420, 20, 'flat', [rushed.id, older.id]),
-    ]);
+    expect(lanes[0].jugPlan).toEqual([{ ...planned(MEDIUM, 170, 20, 'flat', [making.id]), jugId: 5 }, planned(LARGE, 420, 20, 'flat', [rushed.id, older.id])]);
   });
 });
 
 describe('needsAllergyAck', () => {
   const cardsOf = (tickets: TicketView[]) =>
-    new Map(groupIntoLanes(tickets).flatMap((l) => l.drinks).map((c) => [c.id, c]));
+    new Map(
+      groupIntoLanes(tickets)
+        .flatMap((l) => l.drinks)
+        .map((c) => [c.id, c]),
+    );
 
   it("is true for a drink of a ticket with allergens or an allergy note until it's acknowledged", () => {
     // Jugline's own rule (no outside value): an allergy is read before the drink is bumped. The

@@ -3,7 +3,7 @@
 // expected value below is worked by hand in the comment beside it. Zone facts (from memory): New
 // York is on EDT (UTC−4) from 8 March 2026; Auckland on NZDT (UTC+13) on 2 March 2026.
 import { describe, expect, it } from 'vitest';
-import { beanAlerts, drinkHopper, runsOut, runsOutPhrase, stockState, type BeanLotView, type UsePoint } from '../../src/domain/bean-stock';
+import { beanAlerts, drinkHopper, runsOut, runsOutPhrase, stockState, type BeanLotView, type UsePoint } from '@/domain/bean-stock';
 
 const NY = 'America/New_York';
 const NOW = new Date('2026-03-10T15:00:00Z'); // 11:00 EDT on Tuesday 10 March

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { assignBumpKeys } from '../../src/domain/bump-keys';
+import { assignBumpKeys } from '@/domain/bump-keys';
 
 // Jugline's own keyboard rule (no outside value; a bump bar's numbered keys are common practice):
 // keys 1–9 go only to cards on screen, and a card keeps its key while it stays on screen.

@@ -4,15 +4,8 @@
 // recorded against a sale or refunded, every refund on one side is on the other, and the two
 // sides' net totals agree.
 import { describe, expect, it } from 'vitest';
-import {
-  autoRefundCause,
-  reconcileDay,
-  type AttemptLine,
-  type ProviderCharge,
-  type ProviderRefundLine,
-  type RefundLine,
-} from '../../src/domain/card-check';
-import { dayBounds } from '../../server/reports/local-hours';
+import { autoRefundCause, reconcileDay, type AttemptLine, type ProviderCharge, type ProviderRefundLine, type RefundLine } from '@/domain/card-check';
+import { dayBounds } from '@server/reports/local-hours';
 
 const at = (hhmm: string) => `2026-03-05T${hhmm}:00.000Z`;
 
@@ -26,7 +19,17 @@ function providerRefund(providerId: string, chargeId: string, cents: number, hhm
   return { providerId, chargeId, amountCents: cents, status: 'succeeded', createdAt: at(hhmm) };
 }
 function refund(refundId: number, orderId: number, cents: number, providerId: string | null, cause: RefundLine['cause'] = null): RefundLine {
-  return { refundId, orderId, orderNumber: orderId + 100, amountCents: cents, reason: cause ? 'automatic' : 'Wrong milk', cause, providerId, createdAt: at('16:00'), by: cause ? null : 'Theo Brand' };
+  return {
+    refundId,
+    orderId,
+    orderNumber: orderId + 100,
+    amountCents: cents,
+    reason: cause ? 'automatic' : 'Wrong milk',
+    cause,
+    providerId,
+    createdAt: at('16:00'),
+    by: cause ? null : 'Theo Brand',
+  };
 }
 
 describe('autoRefundCause', () => {
@@ -69,7 +72,15 @@ describe('reconcileDay', () => {
     ]);
     // 1045 + 620 + 480 taken; 300 + 480 given back
     expect(result.provider).toEqual({ chargedCents: 2145, refundedCents: 780, netCents: 1365, charges: 3, refunds: 2 });
-    expect(result.jugline).toEqual({ chargedCents: 2145, refundedCents: 780, netCents: 1365, charges: 3, refunds: 2, recordedCents: 1665, givenBackCents: 480 });
+    expect(result.jugline).toEqual({
+      chargedCents: 2145,
+      refundedCents: 780,
+      netCents: 1365,
+      charges: 3,
+      refunds: 2,
+      recordedCents: 1665,
+      givenBackCents: 480,
+    });
     expect(result.differenceCents).toBe(0);
     expect(result.mismatches).toBe(0);
   });
@@ -131,10 +142,7 @@ describe('dayBounds', () => {
   // US daylight saving time (from memory: Energy Policy Act of 2005) starts on the second Sunday
   // of March at 02:00 local standard time: in 2026, 8 March, so that day has 23 hours in New York.
   it('a New York day is midnight to midnight local time, 23 hours on the day the clocks go forward', () => {
-    expect(dayBounds('2026-03-05', 'America/New_York').map((t) => new Date(t).toISOString())).toEqual([
-      '2026-03-05T05:00:00.000Z',
-      '2026-03-06T05:00:00.000Z',
-    ]);
+    expect(dayBounds('2026-03-05', 'America/New_York').map((t) => new Date(t).toISOString())).toEqual(['2026-03-05T05:00:00.000Z', '2026-03-06T05:00:00.000Z']);
     const [start, end] = dayBounds('2026-03-08', 'America/New_York');
     expect([new Date(start).toISOString(), new Date(end).toISOString()]).toEqual(['2026-03-08T05:00:00.000Z', '2026-03-09T04:00:00.000Z']);
     expect((end - start) / 3_600_000).toBe(23);
@@ -142,9 +150,6 @@ describe('dayBounds', () => {
 
   // India (from memory): UTC+05:30 all year.
   it('a zone ahead of UTC starts the day the evening before, in UTC', () => {
-    expect(dayBounds('2026-03-05', 'Asia/Kolkata').map((t) => new Date(t).toISOString())).toEqual([
-      '2026-03-04T18:30:00.000Z',
-      '2026-03-05T18:30:00.000Z',
-    ]);
+    expect(dayBounds('2026-03-05', 'Asia/Kolkata').map((t) => new Date(t).toISOString())).toEqual(['2026-03-04T18:30:00.000Z', '2026-03-05T18:30:00.000Z']);
   });
 });

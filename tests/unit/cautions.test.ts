@@ -1,7 +1,7 @@
 // The hot-drink and steam cautions, worded from published burn times (docs/check-values.md,
 // "Temperatures and burns") rather than from the temperature at which milk starts to taste cooked.
 import { describe, expect, it } from 'vitest';
-import { BURN_TIMES, HOT_DRINKS_SERVED_C, barCaution, hotMilkNote, PICKUP_CAUTION } from '../../src/domain/cautions';
+import { BURN_TIMES, HOT_DRINKS_SERVED_C, barCaution, hotMilkNote, PICKUP_CAUTION } from '@/domain/cautions';
 
 describe('the burn figures', () => {
   it('are the hot-water exposure times as commonly tabulated', () => {

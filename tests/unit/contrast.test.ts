@@ -1,7 +1,7 @@
 // The theme's text/background pairs meet WCAG 2.2 AA: 4.5:1 for text, 3:1 for large text.
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { contrastRatio } from '../../src/lib/contrast';
+import { contrastRatio } from '@/lib/contrast';
 
 const css = readFileSync(new URL('../../src/styles.css', import.meta.url), 'utf8');
 const token = (name: string) => {

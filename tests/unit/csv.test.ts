@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import Papa from 'papaparse';
-import { neutraliseCell, toCsv } from '../../src/domain/csv';
+import { neutraliseCell, toCsv } from '@/domain/csv';
 
 // OWASP "CSV Injection" (check-values.md, "Security"): a cell must not begin with =, +, -, @,
 // tab, CR or LF unless neutralised — prefix ' and quote the field, doubling quotes.
@@ -73,9 +73,7 @@ describe('toCsv', () => {
       { name: 'Sam', note: 'Say "extra hot"', cents: 450 },
       { name: 'Ana', note: 'oat', cents: 525 },
     ]);
-    expect(csv).toBe(
-      '"Name","Note","Amount (cents)"\r\n' + '"Sam","Say ""extra hot""","450"\r\n' + '"Ana","oat","525"',
-    );
+    expect(csv).toBe('"Name","Note","Amount (cents)"\r\n' + '"Sam","Say ""extra hot""","450"\r\n' + '"Ana","oat","525"');
   });
 
   it('neutralises risky strings, a quote in a neutralised cell is doubled too', () => {
@@ -105,10 +103,7 @@ describe('toCsv', () => {
       fc.property(rows, (data) => {
         const parsed = Papa.parse<string[]>(toCsv(columns, data), { newline: '\r\n' });
         expect(parsed.errors).toEqual([]);
-        expect(parsed.data).toEqual([
-          columns.map((c) => c.header),
-          ...data.map((row) => columns.map((c) => neutraliseCell(row[c.key as keyof typeof row]))),
-        ]);
+        expect(parsed.data).toEqual([columns.map((c) => c.header), ...data.map((row) => columns.map((c) => neutraliseCell(row[c.key as keyof typeof row])))]);
       }),
       { numRuns: 300 },
     );

@@ -4,15 +4,8 @@
 // the ratio and "the house recipe's dose ± 1 g" are our own choices, said where they are used.
 // The INEI values (percolation 25 ± 5 s) are confirmed on copies of the institute's FAQ.
 import { describe, expect, it } from 'vitest';
-import {
-  adviseShot,
-  COMMON_DOUBLE_DOSE,
-  DEFAULT_SHOT_TARGETS,
-  doseRange,
-  type AdviceCode,
-  type ShotWindow,
-} from '../../src/domain/dial-in';
-import { brewRatioX10, formatRatio } from '../../src/domain/format';
+import { adviseShot, COMMON_DOUBLE_DOSE, DEFAULT_SHOT_TARGETS, doseRange, type AdviceCode, type ShotWindow } from '@/domain/dial-in';
+import { brewRatioX10, formatRatio } from '@/domain/format';
 
 // The demo house recipe, 19 g for a double → 18–20 g; 25–30 s; 1:1.8–1:2.2.
 const HOUSE: ShotWindow = { ...doseRange(190), ...DEFAULT_SHOT_TARGETS };

@@ -3,8 +3,8 @@
 // `windowSeconds`, and the mean make time per drink.
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
-import { erlangC, staffingAdvice } from '../../src/domain/erlang';
-import { fraction } from '../../src/domain/fraction';
+import { erlangC, staffingAdvice } from '@/domain/erlang';
+import { fraction } from '@/domain/fraction';
 
 /** Agreement to 4 significant digits: the value rounded to 4 significant digits is the published one. */
 function expectSig4(actual: number, expected: number) {
@@ -251,12 +251,16 @@ describe('staffingAdvice', () => {
     // W_q = P·h/(c − A) ≈ 0.999·75/0.001 s ≈ 20 h. With 4: P_wait 0.509, W_q = 0.509·75/1.001 ≈ 38 s.
     const advice = staffingAdvice({ arrivals: 2999, windowSeconds: 75_000, meanMakeSeconds: 75, baristas: 3, targetSeconds: 240 });
     expect(advice.now.stable).toBe(true);
-    expect(advice.sentence).toMatch(/^With 3 on bar the bar only just keeps up: a drink would wait over an hour on average before it's started\. With 4 it would be about 38 s \(/);
+    expect(advice.sentence).toMatch(
+      /^With 3 on bar the bar only just keeps up: a drink would wait over an hour on average before it's started\. With 4 it would be about 38 s \(/,
+    );
   });
 
   it('one barista and no drinks read naturally', () => {
     // hand-worked: 45 drinks in 30 min at 60 s → A = 1.5 > 1 barista; with 2 it is stable
-    expect(advise(45, 60, 1, 90).sentence).toMatch(/^The bar can't keep up: 45 drinks came in over the last 30 min, and 1 barista at 1:00 a drink makes at most 30/);
+    expect(advise(45, 60, 1, 90).sentence).toMatch(
+      /^The bar can't keep up: 45 drinks came in over the last 30 min, and 1 barista at 1:00 a drink makes at most 30/,
+    );
     expect(advise(0, 60, 1, 90).sentence).toBe('No drinks came in over the last 30 min, so nobody waits.');
   });
 });

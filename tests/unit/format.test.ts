@@ -1,7 +1,7 @@
 // How the screens write a brew ratio, a duration and an ordinal: one formatter each, used by every
 // screen (src/domain/format.ts).
 import { describe, expect, it } from 'vitest';
-import { brewRatioX10, durationWords, formatDuration, formatRatio, ordinal, ratioLabel } from '../../src/domain/format';
+import { brewRatioX10, durationWords, formatDuration, formatRatio, ordinal, ratioLabel } from '@/domain/format';
 
 describe('brew ratio', () => {
   it('is yield ÷ dose to one decimal, halves rounded up', () => {

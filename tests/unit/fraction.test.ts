@@ -1,6 +1,6 @@
 // Exact fractions for the bar's keep-up decision (src/domain/fraction.ts). All hand-worked.
 import { describe, expect, it } from 'vitest';
-import { compare, floor, fraction, mul, sub, toNumber } from '../../src/domain/fraction';
+import { compare, floor, fraction, mul, sub, toNumber } from '@/domain/fraction';
 
 describe('fraction', () => {
   it('reduces, and keeps the sign on top', () => {

@@ -13,8 +13,8 @@
 // The freshness window itself (resting under 5 days, best to 30, fading after) is common practice
 // (check-values.md: "beans at their best about 5–30 days after roasting").
 import { describe, expect, it } from 'vitest';
-import { addDays, daysBetween, daysSinceRoast, DEFAULT_FRESHNESS, freshnessOf, freshnessState } from '../../src/domain/freshness';
-import { businessDate } from '../../src/domain/business-date';
+import { addDays, daysBetween, daysSinceRoast, DEFAULT_FRESHNESS, freshnessOf, freshnessState } from '@/domain/freshness';
+import { businessDate } from '@/domain/business-date';
 
 const at = (iso: string) => new Date(iso);
 

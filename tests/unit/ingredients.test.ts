@@ -5,9 +5,9 @@
 //       milk includes goat's and sheep's milk).
 //   EU: Regulation (EU) No 1169/2011, Annex II (fourteen).
 import { describe, expect, it } from 'vitest';
-import { allergenSwitch, type MenuEntry } from '../../src/domain/allergen-switch';
-import { EU_ALLERGENS, US_ALLERGENS } from '../../src/domain/allergens';
-import { allergenOf, allergensFrom, ingredientNamed, INGREDIENT_NAMES, INGREDIENTS, inOrder, unspecifiedOf, type Ingredient } from '../../src/domain/ingredients';
+import { allergenSwitch, type MenuEntry } from '@/domain/allergen-switch';
+import { EU_ALLERGENS, US_ALLERGENS } from '@/domain/allergens';
+import { allergenOf, allergensFrom, ingredientNamed, INGREDIENT_NAMES, INGREDIENTS, inOrder, unspecifiedOf, type Ingredient } from '@/domain/ingredients';
 
 const both = (i: Ingredient) => [allergenOf(i, 'US'), allergenOf(i, 'EU')];
 

@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
-import { describeJug, makeJug, needsJug, planJugs, type Jug, type JugDrink, type JugRules, type Pitcher } from '../../src/domain/jug-plan';
-import type { Texture } from '../../src/domain/types';
+import { describeJug, makeJug, needsJug, planJugs, type Jug, type JugDrink, type JugRules, type Pitcher } from '@/domain/jug-plan';
+import type { Texture } from '@/domain/types';
 import { MAX_TEST_DRINK_ML, pitcherHolds, plannedJug, rulesArb } from '../support/jugs';
 
 // Invented pitchers for these tests (not the demo café's). Each has:
@@ -212,7 +212,9 @@ describe('planJugs (hand-worked)', () => {
     const huge = d(600);
     const [alone] = planJugs([huge], RULES);
     expect(alone).toEqual(jug(LARGE, 620, 20, 'flat', [huge.id], false));
-    expect(describeJug(alone)).toBe('1000 ml pitcher · fill to 620 ml (20 ml waste) · 1 drink · short stretch (wet) · too much for one pitcher: steam it in two goes');
+    expect(describeJug(alone)).toBe(
+      '1000 ml pitcher · fill to 620 ml (20 ml waste) · 1 drink · short stretch (wet) · too much for one pitcher: steam it in two goes',
+    );
 
     // Between two small drinks it is still alone:
     // Jug 1: 100 + 20 = 120 ≤ 160, ≥ 100 → 300 ml. Adding 600 → 720 > 560, close.
@@ -293,9 +295,7 @@ describe('planJugs (properties)', () => {
     texture: fc.constantFrom<Texture>('flat', 'silky', 'foamy', 'cold'),
   });
   // Lane of 0–25 drinks; ids are unique and the array order is the lane order (oldest first).
-  const laneArb = fc
-    .array(drinkArb, { maxLength: 25 })
-    .map((ds): JugDrink[] => ds.map((x, i) => ({ id: 1000 + i, milkMl: x.milkMl, texture: x.texture })));
+  const laneArb = fc.array(drinkArb, { maxLength: 25 }).map((ds): JugDrink[] => ds.map((x, i) => ({ id: 1000 + i, milkMl: x.milkMl, texture: x.texture })));
 
   const run = (prop: (lane: JugDrink[], r: JugRules, plan: Jug[]) => void) =>
     fc.assert(
@@ -395,9 +395,7 @@ describe('planJugs (properties)', () => {
       const pos = positionIn(lane);
       for (const b of plan) {
         expect(b.steamFor).toBe(foamiest(lane, b.drinkIds));
-        const expected = [...b.drinkIds].sort(
-          (x, y) => THICKNESS[byId.get(x)!.texture!] - THICKNESS[byId.get(y)!.texture!] || pos.get(x)! - pos.get(y)!,
-        );
+        const expected = [...b.drinkIds].sort((x, y) => THICKNESS[byId.get(x)!.texture!] - THICKNESS[byId.get(y)!.texture!] || pos.get(x)! - pos.get(y)!);
         expect(b.drinkIds).toEqual(expected);
       }
     });

@@ -10,10 +10,10 @@
 // memory), oldest ticket first — plus the product's own promises for started jugs.
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { jugBumpProblem, jugToStart } from '../../src/domain/jug-commands';
-import { needsJug, type Jug, type JugRules } from '../../src/domain/jug-plan';
-import { planBar } from '../../src/domain/lanes';
-import type { DrinkView, JugRef, MilkRef, Texture, TicketView } from '../../src/domain/types';
+import { jugBumpProblem, jugToStart } from '@/domain/jug-commands';
+import { needsJug, type Jug, type JugRules } from '@/domain/jug-plan';
+import { planBar } from '@/domain/lanes';
+import type { DrinkView, JugRef, MilkRef, Texture, TicketView } from '@/domain/types';
 import { MAX_TEST_DRINK_ML, pitcherHolds, rulesArb } from '../support/jugs';
 
 const MILKS: MilkRef[] = [
@@ -40,7 +40,9 @@ const actArb = fc.record({
   kind: fc.constantFrom('startJug', 'startJug', 'startDrink', 'bumpJug', 'bumpJug', 'staleBumpJug', 'bumpDrink', 'bumpTicket', 'recall', 'rush'),
   pick: fc.nat(),
 });
-const stepsArb = fc.array(fc.oneof({ arbitrary: arriveArb, weight: 2 }, { arbitrary: actArb, weight: 3 }), { minLength: 1, maxLength: 60 }) as fc.Arbitrary<Step[]>;
+const stepsArb = fc.array(fc.oneof({ arbitrary: arriveArb, weight: 2 }, { arbitrary: actArb, weight: 3 }), { minLength: 1, maxLength: 60 }) as fc.Arbitrary<
+  Step[]
+>;
 
 /** The bar as the server keeps it, reduced to what the plan reads. */
 class Bar {
@@ -87,13 +89,29 @@ class Bar {
       jug: null,
     }));
     const at = this.now();
-    this.tickets.push({ id, number: id, customerName: `Guest ${id}`, status: 'open', firedAt: at, readyAt: null, collectedAt: null, service: 'takeaway', allergens: [], allergyNote: null, rushedAt: null, drinks });
+    this.tickets.push({
+      id,
+      number: id,
+      customerName: `Guest ${id}`,
+      status: 'open',
+      firedAt: at,
+      readyAt: null,
+      collectedAt: null,
+      service: 'takeaway',
+      allergens: [],
+      allergyNote: null,
+      rushedAt: null,
+      drinks,
+    });
   }
 
   /** The server's "start jug": these drinks, as the screen showed them, become one stored jug. */
   startJug(drinkIds: number[]): Jug {
     const drinks = drinkIds.map(this.drink);
-    const result = jugToStart(drinks.map((d) => ({ ...d, milkId: d.milk?.id ?? null })), this.rules);
+    const result = jugToStart(
+      drinks.map((d) => ({ ...d, milkId: d.milk?.id ?? null })),
+      this.rules,
+    );
     if (result.refused !== undefined) throw new Error(`start refused: ${result.refused}`);
     const { jugId: _none, drinkIds: _ids, ...pour } = result.jug;
     const ref: JugRef = { id: this.ids.jug++, ...pour };
@@ -128,7 +146,7 @@ class Bar {
 }
 
 function step(bar: Bar, s: Step) {
-  const pick = <T,>(xs: T[]): T | undefined => (xs.length === 0 ? undefined : xs[(s as { pick: number }).pick % xs.length]);
+  const pick = <T>(xs: T[]): T | undefined => (xs.length === 0 ? undefined : xs[(s as { pick: number }).pick % xs.length]);
   switch (s.kind) {
     case 'arrive':
       return bar.arrive(s.drinks);
@@ -246,7 +264,10 @@ function checkPlan(bar: Bar) {
 
     // The oldest ticket is never delayed to fill a jug: the lane's oldest (or first rushed) drink
     // waiting for a jug is in the first jug not started yet, and the planned jugs keep lane order.
-    const waiting = laneOrder(bar.tickets, laneDrinks.filter((d) => d.status === 'queued' && !d.jug && needsJug(d)).map((d) => d.id));
+    const waiting = laneOrder(
+      bar.tickets,
+      laneDrinks.filter((d) => d.status === 'queued' && !d.jug && needsJug(d)).map((d) => d.id),
+    );
     const planned = lane.jugPlan.filter((j) => j.jugId === null);
     if (waiting.length > 0) expect(planned[0].drinkIds).toContain(waiting[0]);
     expect(planned.flatMap((j) => laneOrder(bar.tickets, j.drinkIds))).toEqual(waiting);

@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
-import { groupIntoLanes } from '../../src/domain/lanes';
-import type { DrinkStatus, DrinkView, MilkRef, TicketView } from '../../src/domain/types';
+import { groupIntoLanes } from '@/domain/lanes';
+import type { DrinkStatus, DrinkView, MilkRef, TicketView } from '@/domain/types';
 
 // Sources: how a bar groups and orders its drinks is common practice (no published source):
 // drinks sharing a milk are steamed together, first fired is first made, a lead can move a ticket

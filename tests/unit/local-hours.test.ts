@@ -4,8 +4,8 @@
 // daylight time. In 2026: 8 March 07:00 UTC (EST, UTC−5 → EDT, UTC−4) and 1 November 06:00 UTC.
 // India (from memory): UTC+05:30 all year, no daylight saving time.
 import { describe, expect, it } from 'vitest';
-import { inHourOrder } from '../../src/domain/reports';
-import { localHour, offsetMinutes, offsetStretches } from '../../server/reports/local-hours';
+import { inHourOrder } from '@/domain/reports';
+import { localHour, offsetMinutes, offsetStretches } from '@server/reports/local-hours';
 
 const ms = (iso: string) => Date.parse(iso);
 

@@ -3,7 +3,7 @@
 // stretch. All numbers here are worked by hand (no outside source is needed for the sharing
 // itself; the mean is what Erlang C and Little's law take, docs/check-values.md, "Queueing").
 import { describe, expect, it } from 'vitest';
-import { barPace, bumpShares, busyPace, perDrinkMakeSeconds, type BarDrink, type TimedDrink } from '../../src/domain/make-times';
+import { barPace, bumpShares, busyPace, perDrinkMakeSeconds, type BarDrink, type TimedDrink } from '@/domain/make-times';
 
 const S = 1000;
 const drink = (startedS: number, doneS: number, bumpSeq: number | null): TimedDrink => ({ startedMs: startedS * S, doneMs: doneS * S, bumpSeq });
@@ -58,7 +58,13 @@ describe('busyPace (Little’s law on the baristas)', () => {
   it('a jug of 4 started 12 s before its bump is not 3 s a drink', () => {
     // hand-worked: 4 drinks fired at 0 and bumped together at 120 by 1 barista → 120 s over 4 = 30 s
     // (start → bump would read 12 s ÷ 4 = 3 s)
-    expect(busyPace([0, 0, 0, 0].map(() => bar(0, 120)), 1, 0)).toEqual({ drinks: 4, totalMs: 120_000 });
+    expect(
+      busyPace(
+        [0, 0, 0, 0].map(() => bar(0, 120)),
+        1,
+        0,
+      ),
+    ).toEqual({ drinks: 4, totalMs: 120_000 });
   });
 
   it('counts a barista busy only while there is a drink for them', () => {

@@ -1,9 +1,18 @@
 // The menu editor's rules, as the form and the route both apply them.
 import { describe, expect, it } from 'vitest';
-import { formPathOf, itemBody, itemForm, milkBody, type ItemFormValues } from '../../src/domain/menu-admin-schemas';
+import { formPathOf, itemBody, itemForm, milkBody, type ItemFormValues } from '@/domain/menu-admin-schemas';
 
 const size = (over = {}) => ({ name: '12 oz', volumeMl: 355, priceCents: 560, shots: 2, doseDg: 180, yieldDg: 360, milkMl: 240, isDefault: true, ...over });
-const latte = (over = {}) => ({ categoryId: 1, name: 'Ember Spice Latte', station: 'bar', takesMilk: true, defaultMilkId: 3, texture: 'silky', sizes: [size()], ...over });
+const latte = (over = {}) => ({
+  categoryId: 1,
+  name: 'Ember Spice Latte',
+  station: 'bar',
+  takesMilk: true,
+  defaultMilkId: 3,
+  texture: 'silky',
+  sizes: [size()],
+  ...over,
+});
 const paths = (r: { success: boolean; error?: { issues: { path: PropertyKey[] }[] } }) => (r.error?.issues ?? []).map((i) => i.path.join('.'));
 
 describe('itemBody', () => {
@@ -39,7 +48,7 @@ describe('itemBody', () => {
 });
 
 describe('ingredients in a body', () => {
-  it('takes only ingredients Jugline knows, once each, and stores them in the editor\'s order', () => {
+  it("takes only ingredients Jugline knows, once each, and stores them in the editor's order", () => {
     expect(milkBody.parse({ name: 'Oat', code: 'OA', upchargeCents: 70, ingredients: ['oats'] }).ingredients).toEqual(['oats']);
     // the allergens are worked out, never sent: a list tag is no ingredient
     expect(paths(milkBody.safeParse({ name: 'Oat', code: 'OA', upchargeCents: 70, ingredients: ['cereals containing gluten'] }))).toEqual(['ingredients.0']);
@@ -57,7 +66,18 @@ describe('milkBody', () => {
   });
 });
 
-const formSize = (over = {}) => ({ name: '12 oz', volumeMl: '355', cup: '12 oz cup', price: '5.60', shots: '2', doseG: '18', yieldG: '36', milkMl: '240', isDefault: true, ...over });
+const formSize = (over = {}) => ({
+  name: '12 oz',
+  volumeMl: '355',
+  cup: '12 oz cup',
+  price: '5.60',
+  shots: '2',
+  doseG: '18',
+  yieldG: '36',
+  milkMl: '240',
+  isDefault: true,
+  ...over,
+});
 const form = (over: Partial<ItemFormValues> = {}): ItemFormValues => ({
   categoryId: '1',
   name: 'Ember Spice Latte',
@@ -77,7 +97,17 @@ describe('itemForm', () => {
     const body = itemForm.parse(form());
     expect(itemBody.safeParse(body).success).toBe(true);
     // 18 g → 180 tenths, 36 g → 360; $5.60 → 560 cents (hand-checked)
-    expect(body.sizes[0]).toEqual({ name: '12 oz', volumeMl: 355, cup: '12 oz cup', priceCents: 560, shots: 2, doseDg: 180, yieldDg: 360, milkMl: 240, isDefault: true });
+    expect(body.sizes[0]).toEqual({
+      name: '12 oz',
+      volumeMl: 355,
+      cup: '12 oz cup',
+      priceCents: 560,
+      shots: 2,
+      doseDg: 180,
+      yieldDg: 360,
+      milkMl: 240,
+      isDefault: true,
+    });
     expect(body.sizes[1]).toMatchObject({ priceCents: 620, doseDg: 180, yieldDg: 360, milkMl: 320, isDefault: false });
     expect(body).toMatchObject({ categoryId: 1, defaultMilkId: 3, texture: 'silky', priceCents: null, modifierGroupIds: [2] });
   });

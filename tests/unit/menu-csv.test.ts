@@ -1,10 +1,10 @@
 import { readFileSync } from 'node:fs';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
-import { cleanCell, importSummary, MENU_CSV_COLUMNS, parseMenuCsv, readMenuCsv, writeMenuCsv, type MenuCsvContext } from '../../src/domain/menu-csv';
-import type { MenuItemView, MenuView } from '../../src/domain/types';
-import { PLAIN_TEXT_MESSAGE } from '../../src/domain/text';
-import { contrastRatio } from '../../src/lib/contrast';
+import { cleanCell, importSummary, MENU_CSV_COLUMNS, parseMenuCsv, readMenuCsv, writeMenuCsv, type MenuCsvContext } from '@/domain/menu-csv';
+import type { MenuItemView, MenuView } from '@/domain/types';
+import { PLAIN_TEXT_MESSAGE } from '@/domain/text';
+import { contrastRatio } from '@/lib/contrast';
 
 // The location's published list: US major food allergens (FALCPA 2004 + FASTER Act 2021,
 // docs/check-values.md "Allergens").
@@ -68,7 +68,10 @@ describe('reading a menu file', () => {
   });
 
   it('refuses a line break inside a name, and counts a quoted multi-line cell as one row', () => {
-    const { errors } = parseMenuCsv(csv('Espresso,"Lat\r\nte",bar,Regular,350,5.40,2,19,38,270,yes,WH,silky,,,yes', 'Espresso,Mocha,bar,Regular,350,x,2,19,38,250,yes,WH,silky,,,yes'), ctx);
+    const { errors } = parseMenuCsv(
+      csv('Espresso,"Lat\r\nte",bar,Regular,350,5.40,2,19,38,270,yes,WH,silky,,,yes', 'Espresso,Mocha,bar,Regular,350,x,2,19,38,250,yes,WH,silky,,,yes'),
+      ctx,
+    );
     expect(errors).toEqual([
       { row: 2, column: 'item', message: PLAIN_TEXT_MESSAGE },
       { row: 3, column: 'price', message: expect.stringContaining('like 4.80') },
@@ -127,7 +130,12 @@ describe('reading a menu file', () => {
   it('checks the first row: missing, unknown and repeated columns, and ";" as separator', () => {
     const short = parseMenuCsv('category,item,prce\r\nEspresso,Latte,4.80\r\n', ctx);
     expect(short.rows).toEqual([]);
-    expect(short.errors).toEqual(expect.arrayContaining([{ row: 1, column: null, message: 'Unknown column "prce"' }, { row: 1, column: 'price', message: 'Column missing from the first row' }]));
+    expect(short.errors).toEqual(
+      expect.arrayContaining([
+        { row: 1, column: null, message: 'Unknown column "prce"' },
+        { row: 1, column: 'price', message: 'Column missing from the first row' },
+      ]),
+    );
     const twice = parseMenuCsv(`${HEADER},item\r\n${LATTE_REGULAR},Latte\r\n`, ctx);
     expect(twice.errors).toEqual([{ row: 1, column: 'item', message: 'This column appears twice' }]);
     const semicolons = parseMenuCsv(MENU_CSV_COLUMNS.join(';') + '\r\n', ctx);
@@ -191,12 +199,16 @@ describe('ingredients, and the allergens that follow from them', () => {
     expect(parseMenuCsv(csv(OAT_LATTE.replace('%s', '')), EU).errors).toEqual([]);
   });
 
-  it('checks a filled allergens cell against the ingredients, under the café\'s list', () => {
+  it("checks a filled allergens cell against the ingredients, under the café's list", () => {
     // Regulation (EU) No 1169/2011 Annex II item 1: oats are a cereal containing gluten
     expect(parseMenuCsv(csv(OAT_LATTE.replace('%s', 'cereals containing gluten')), EU).errors).toEqual([]);
     // FALCPA's nine do not include oats: nothing to write on the US list
     expect(parseMenuCsv(csv(OAT_LATTE.replace('%s', 'wheat')), ctx).errors).toEqual([
-      { row: 2, column: 'allergens', message: 'The allergens follow from the ingredients, which contain none on the US list: change the ingredients, or leave this cell empty' },
+      {
+        row: 2,
+        column: 'allergens',
+        message: 'The allergens follow from the ingredients, which contain none on the US list: change the ingredients, or leave this cell empty',
+      },
     ]);
   });
 
@@ -211,7 +223,20 @@ describe('ingredients, and the allergens that follow from them', () => {
 // ---------------------------------------------------------------- export
 
 function item(over: Partial<MenuItemView> & Pick<MenuItemView, 'id' | 'name' | 'categoryId'>): MenuItemView {
-  return { station: 'bar', priceCents: null, shots: 0, takesMilk: false, defaultMilkId: null, texture: null, available: true, ingredients: [], allergens: [], sizes: [], modifierGroupIds: [], ...over };
+  return {
+    station: 'bar',
+    priceCents: null,
+    shots: 0,
+    takesMilk: false,
+    defaultMilkId: null,
+    texture: null,
+    available: true,
+    ingredients: [],
+    allergens: [],
+    sizes: [],
+    modifierGroupIds: [],
+    ...over,
+  };
 }
 
 function menu(items: MenuItemView[]): MenuView {
@@ -244,8 +269,27 @@ const size = (id: number, name: string, volumeMl: number, priceCents: number, is
 });
 
 const DEMO = menu([
-  item({ id: 1, categoryId: 1, name: 'Latte', takesMilk: true, defaultMilkId: 11, texture: 'silky', ingredients: ["cow's milk"], allergens: ['milk'], shots: 2, sizes: [size(1, 'Regular', 350, 540, true), size(2, 'Large', 470, 590, false)] }),
-  item({ id: 2, categoryId: 2, name: 'Butter croissant', station: 'counter', priceCents: 425, ingredients: ["cow's milk", 'egg', 'wheat'], allergens: ['milk', 'eggs', 'wheat'] }),
+  item({
+    id: 1,
+    categoryId: 1,
+    name: 'Latte',
+    takesMilk: true,
+    defaultMilkId: 11,
+    texture: 'silky',
+    ingredients: ["cow's milk"],
+    allergens: ['milk'],
+    shots: 2,
+    sizes: [size(1, 'Regular', 350, 540, true), size(2, 'Large', 470, 590, false)],
+  }),
+  item({
+    id: 2,
+    categoryId: 2,
+    name: 'Butter croissant',
+    station: 'counter',
+    priceCents: 425,
+    ingredients: ["cow's milk", 'egg', 'wheat'],
+    allergens: ['milk', 'eggs', 'wheat'],
+  }),
 ]);
 
 describe('writing the menu', () => {

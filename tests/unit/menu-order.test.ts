@@ -1,6 +1,6 @@
 // Moving a menu row one place among its siblings.
 import { describe, expect, it } from 'vitest';
-import { moveAmong } from '../../src/domain/menu-order';
+import { moveAmong } from '@/domain/menu-order';
 
 describe('moveAmong', () => {
   it('swaps a row with its neighbour (hand-worked)', () => {

@@ -1,6 +1,6 @@
 // An item form's list of sizes against the sizes stored: update, add, bring back, retire.
 import { describe, expect, it } from 'vitest';
-import { planSizeChanges } from '../../src/domain/menu-sizes';
+import { planSizeChanges } from '@/domain/menu-sizes';
 
 const stored = [
   { id: 1, retired: false },

@@ -1,7 +1,7 @@
 // Recipe units in the menu editor: grams typed as text ↔ tenths of a gram stored, and the brew ratio.
 import { describe, expect, it } from 'vitest';
-import { brewRatioX10, formatRatio, ratioLabel } from '../../src/domain/format';
-import { centsToAmountText, dgToGramsText, parseGramsToDg, parseWhole } from '../../src/domain/menu-units';
+import { brewRatioX10, formatRatio, ratioLabel } from '@/domain/format';
+import { centsToAmountText, dgToGramsText, parseGramsToDg, parseWhole } from '@/domain/menu-units';
 
 describe('grams ↔ tenths of a gram', () => {
   it('reads what an owner types', () => {

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { divideHalfUp, formatCents, orderTotals, taxCents } from '../../src/domain/money';
+import { divideHalfUp, formatCents, orderTotals, taxCents } from '@/domain/money';
 
 // Rates are in thousandths of a percent: 7 % = 7000, 8.875 % = 8875, 20 % = 20000.
 

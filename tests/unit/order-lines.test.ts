@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
-import { resolveLine, type LineResult, type ResolvedLine } from '../../src/domain/order-lines';
-import type { MenuItemView, MenuView } from '../../src/domain/types';
+import { resolveLine, type LineResult, type ResolvedLine } from '@/domain/order-lines';
+import type { MenuItemView, MenuView } from '@/domain/types';
 import { menuItem } from '../support/menu-items';
 
 // An invented "Test Café"; none of these numbers come from the demo café.
@@ -225,9 +225,7 @@ describe('resolveLine: modifiers and the full price', () => {
 
   it('prices a line as size + milk upcharge + extra shots + modifiers', () => {
     // Hand-worked from the test menu: Jumbo 515 + Hemp 45 + (5 − 3) × 95 + Maple 55 + Cinnamon 15 = 820
-    const line = ok(
-      resolveLine(testMenu(), { menuItemId: LATTE, sizeId: 103, milkId: HEMP, shots: 5, modifierIds: [MAPLE, CINNAMON] }),
-    );
+    const line = ok(resolveLine(testMenu(), { menuItemId: LATTE, sizeId: 103, milkId: HEMP, shots: 5, modifierIds: [MAPLE, CINNAMON] }));
     expect(line.priceCents).toBe(820);
     expect(line.modifiers.map((m) => m.name)).toEqual(['Maple', 'Cinnamon']);
     expect(line.texture).toBe('silky');

@@ -2,10 +2,10 @@
 // into one drink per cup, and the receipt groups them back ("3 × Long black"). Also the words
 // the Counter uses for counts and for a field that is too long.
 import { describe, expect, it } from 'vitest';
-import { addLine, cupsOf, expandByQuantity, groupOrderLines, orderCountLabel, MAX_CUPS, MAX_QUANTITY } from '../../src/domain/order-quantity';
-import { plural } from '../../src/domain/plural';
-import { createOrderBody } from '../../src/domain/schemas';
-import type { MenuItemView, MenuView, OrderLineView } from '../../src/domain/types';
+import { addLine, cupsOf, expandByQuantity, groupOrderLines, orderCountLabel, MAX_CUPS, MAX_QUANTITY } from '@/domain/order-quantity';
+import { plural } from '@/domain/plural';
+import { createOrderBody } from '@/domain/schemas';
+import type { MenuItemView, MenuView, OrderLineView } from '@/domain/types';
 import { menuItem } from '../support/menu-items';
 
 // An invented café; none of these numbers come from the demo café.

@@ -1,7 +1,7 @@
 // The Pickup wall's columns: every name shown or counted, an empty half's room given away.
 // Hand-worked; no outside source (Jugline's own layout rule).
 import { describe, expect, it } from 'vitest';
-import { pickupLayout } from '../../src/domain/pickup-layout';
+import { pickupLayout } from '@/domain/pickup-layout';
 
 describe('pickupLayout', () => {
   it('gives the room of an empty Ready half to Being made (16 names, 4 columns of 6 rows)', () => {

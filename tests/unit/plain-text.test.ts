@@ -5,30 +5,62 @@
 // CVE-2021-42574 ("Trojan Source") for why direction overrides are refused.
 import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
-import * as beanSchemas from '../../src/domain/beans-schemas';
-import * as menuAdminSchemas from '../../src/domain/menu-admin-schemas';
-import * as schemas from '../../src/domain/schemas';
-import * as settingsSchemas from '../../src/domain/settings-schemas';
-import * as teamSchemas from '../../src/domain/team-schemas';
-import { PLAIN_TEXT_MESSAGE, isPlainText, plainText } from '../../src/domain/text';
+import * as beanSchemas from '@/domain/beans-schemas';
+import * as menuAdminSchemas from '@/domain/menu-admin-schemas';
+import * as schemas from '@/domain/schemas';
+import * as settingsSchemas from '@/domain/settings-schemas';
+import * as teamSchemas from '@/domain/team-schemas';
+import { PLAIN_TEXT_MESSAGE, isPlainText, plainText } from '@/domain/text';
 
 const hex = (s: string) => [...s].map((c) => `U+${c.codePointAt(0)!.toString(16).toUpperCase().padStart(4, '0')}`).join(' ');
 
 /** One of each kind the rule refuses (the ranges as UAX #9 and the UCD give them). */
 const REFUSED = [
-  '\u0000', '\u0007', '\t', '\n', '\u000b', '\r', '\u001b', '\u001f', // C0
+  '\u0000',
+  '\u0007',
+  '\t',
+  '\n',
+  '\u000b',
+  '\r',
+  '\u001b',
+  '\u001f', // C0
   '\u007f', // DEL
-  '\u0080', '\u0085', '\u009b', '\u009f', // C1 (U+0085 NEL, U+009B CSI)
-  '\u2028', '\u2029', // line and paragraph separators
-  '\u202a', '\u202b', '\u202c', '\u202d', '\u202e', // LRE RLE PDF LRO RLO
-  '\u2066', '\u2067', '\u2068', '\u2069', // LRI RLI FSI PDI
-  '\ud800', '\udfff', // unpaired surrogates
+  '\u0080',
+  '\u0085',
+  '\u009b',
+  '\u009f', // C1 (U+0085 NEL, U+009B CSI)
+  '\u2028',
+  '\u2029', // line and paragraph separators
+  '\u202a',
+  '\u202b',
+  '\u202c',
+  '\u202d',
+  '\u202e', // LRE RLE PDF LRO RLO
+  '\u2066',
+  '\u2067',
+  '\u2068',
+  '\u2069', // LRI RLI FSI PDI
+  '\ud800',
+  '\udfff', // unpaired surrogates
 ];
 
 /** Text people really type, kept: accents, other scripts, emoji with joiners, the bidi marks. */
 const KEPT = [
-  'Zoë Ćirić', 'Ångström café', '山田 花子', 'Ольга', 'يوسف', 'נועה', 'Ana (oat) — “extra hot”',
-  '👩🏽‍🍳 barista', '🇮🇪', 'O\u2019Brien', 'Latte \u200F(RTL mark)', 'x\u200Ey', 'a\u061Cb', 'no\u00A0break', '½ sugar',
+  'Zoë Ćirić',
+  'Ångström café',
+  '山田 花子',
+  'Ольга',
+  'يوسف',
+  'נועה',
+  'Ana (oat) — “extra hot”',
+  '👩🏽‍🍳 barista',
+  '🇮🇪',
+  'O\u2019Brien',
+  'Latte \u200F(RTL mark)',
+  'x\u200Ey',
+  'a\u061Cb',
+  'no\u00A0break',
+  '½ sugar',
 ];
 
 describe('isPlainText', () => {

@@ -1,6 +1,6 @@
 // Counts agree with their nouns (English grammar, common practice).
 import { describe, expect, it } from 'vitest';
-import { plural } from '../../src/domain/plural';
+import { plural } from '@/domain/plural';
 
 describe('plural', () => {
   it('one takes the singular, every other count the plural', () => {

@@ -1,7 +1,7 @@
 // The server's preload links for a lazy screen, from a build manifest in the shape Vite writes
 // (vite.dev/guide/backend-integration: `file`, `isEntry`, `imports`, `dynamicImports`, `css`).
 import { describe, expect, it } from 'vitest';
-import { chunkClosure, preloadLinks, type Manifest } from '../../server/ssr/pages';
+import { chunkClosure, preloadLinks, type Manifest } from '@server/ssr/pages';
 
 const manifest: Manifest = {
   'index.html': { file: 'assets/index.js', isEntry: true, imports: ['_react.js'], css: ['assets/index.css'] },

@@ -6,8 +6,8 @@
 // the actual wait, fired → ready (common practice); the pace itself by Little's law (L = λW,
 // docs/check-values.md, "Queueing"). The simulation's numbers are invented.
 import { describe, expect, it } from 'vitest';
-import { busyPace, type BarDrink } from '../../src/domain/make-times';
-import { quoteWaitSeconds } from '../../src/domain/quote';
+import { busyPace, type BarDrink } from '@/domain/make-times';
+import { quoteWaitSeconds } from '@/domain/quote';
 
 const BARISTAS = 2;
 const JUG = 4;

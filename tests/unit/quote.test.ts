@@ -1,8 +1,8 @@
 // The Counter's quoted wait: the drinks ahead plus this order's, at the bar's recent pace (the mean
 // make time per drink, a batch's time shared among its drinks), shared among the baristas on bar.
 import { describe, expect, it } from 'vitest';
-import { barPace, busyPace, type TimedDrink } from '../../src/domain/make-times';
-import { DEFAULT_MAKE_SECONDS, DEFAULT_WEIGHT_DRINKS, quoteLabel, quoteWaitSeconds } from '../../src/domain/quote';
+import { barPace, busyPace, type TimedDrink } from '@/domain/make-times';
+import { DEFAULT_MAKE_SECONDS, DEFAULT_WEIGHT_DRINKS, quoteLabel, quoteWaitSeconds } from '@/domain/quote';
 
 /** A pace of `drinks` drinks in `seconds` of bar time in all. */
 const pace = (drinks: number, seconds: number) => ({ drinks, totalMs: seconds * 1000 });

@@ -1,8 +1,8 @@
 // The receipt mail, from an invented order: what a customer needs to read on it, money written in
 // the café's currency, and nothing the customer typed able to become markup.
 import { describe, expect, it } from 'vitest';
-import { receiptEmail } from '../../server/orders/receipts';
-import type { OrderView } from '../../src/domain/types';
+import { receiptEmail } from '@server/orders/receipts';
+import type { OrderView } from '@/domain/types';
 
 function order(over: Partial<OrderView> = {}): OrderView {
   return {
@@ -17,8 +17,30 @@ function order(over: Partial<OrderView> = {}): OrderView {
     allergyNote: null,
     customerEmail: null,
     lines: [
-      { id: 1, menuItemId: 3, itemName: 'Latte', station: 'bar', sizeName: 'Large', milkName: 'Oat', shots: 3, modifiers: ['Vanilla syrup', 'Extra hot'], note: 'half sweet', priceCents: 790 },
-      { id: 2, menuItemId: 9, itemName: 'Butter croissant', station: 'counter', sizeName: null, milkName: null, shots: 0, modifiers: [], note: null, priceCents: 425 },
+      {
+        id: 1,
+        menuItemId: 3,
+        itemName: 'Latte',
+        station: 'bar',
+        sizeName: 'Large',
+        milkName: 'Oat',
+        shots: 3,
+        modifiers: ['Vanilla syrup', 'Extra hot'],
+        note: 'half sweet',
+        priceCents: 790,
+      },
+      {
+        id: 2,
+        menuItemId: 9,
+        itemName: 'Butter croissant',
+        station: 'counter',
+        sizeName: null,
+        milkName: null,
+        shots: 0,
+        modifiers: [],
+        note: null,
+        priceCents: 425,
+      },
     ],
     subtotalCents: 1215,
     discountCents: 0,

@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
-import { CAPABILITIES, HOME_SCREEN, ROLES, can } from '../../src/domain/roles';
-import { clientMessage, createOrderBody, orderLineInput } from '../../src/domain/schemas';
+import { CAPABILITIES, HOME_SCREEN, ROLES, can } from '@/domain/roles';
+import { clientMessage, createOrderBody, orderLineInput } from '@/domain/schemas';
 
 describe('can / CAPABILITIES', () => {
   it('lets a lead take orders and make drinks', () => {

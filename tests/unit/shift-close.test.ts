@@ -1,6 +1,6 @@
 // What the bar still has open at a close, and how the drawer's difference reads.
 import { describe, expect, it } from 'vitest';
-import { cashDifferenceWords, openTicketsAt, openTicketsWarning, openTicketsWords, ticketAgeWords } from '../../src/domain/shift-close';
+import { cashDifferenceWords, openTicketsAt, openTicketsWarning, openTicketsWords, ticketAgeWords } from '@/domain/shift-close';
 
 const NOW = new Date('2026-03-02T14:13:00.000Z');
 

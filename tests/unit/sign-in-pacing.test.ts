@@ -2,7 +2,7 @@
 // many addresses guess at once, one name gets no more than 100 failed checks in any hour (OWASP
 // ASVS 4.0.3 V2.2.1), while attempts are paused or told when to come back, never locked out.
 import { describe, expect, it } from 'vitest';
-import { FailureLog, SignInThrottle } from '../../server/auth/sign-in-throttle';
+import { FailureLog, SignInThrottle } from '@server/auth/sign-in-throttle';
 import {
   FAILED_SIGN_INS_PER_HOUR,
   FAILURE_WINDOW_MS,
@@ -11,7 +11,7 @@ import {
   WAITING_SIGN_INS_IN_ALL,
   WAITING_SIGN_INS_PER_NAME,
   signInPauseMs,
-} from '../../src/domain/sign-in-pacing';
+} from '@/domain/sign-in-pacing';
 
 describe('signInPauseMs', () => {
   it('is free for the first failures, then doubles from 1 s and stops at the cap', () => {

@@ -3,7 +3,7 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { quantile as ssQuantile, quantileSorted as ssQuantileSorted } from 'simple-statistics';
-import { PERCENTILE_METHOD, mean, median, quantile, summarizeWaits } from '../../src/domain/stats';
+import { PERCENTILE_METHOD, mean, median, quantile, summarizeWaits } from '@/domain/stats';
 
 describe('quantile (Hyndman & Fan type 7)', () => {
   it('matches the hand-checkable type-7 values', () => {
@@ -92,9 +92,7 @@ describe('type 7 differs from the NIST/SEMATECH e-Handbook definition (type 6)',
   // secondary copies: two public repositories' test suites transcribe the handbook's table with
   // these same values (one, ESA SNAP's PercentileTest, quotes the handbook's "p(N+1) = 0.9(13) =
   // 11.7; k = 11, and d = 0.7 … 95.1981"). The 90th percentile 95.1981 is in docs/check-values.md.
-  const resistivity = [
-    95.1772, 95.1567, 95.1937, 95.1959, 95.1442, 95.061, 95.1591, 95.1195, 95.1065, 95.0925, 95.199, 95.1682,
-  ];
+  const resistivity = [95.1772, 95.1567, 95.1937, 95.1959, 95.1442, 95.061, 95.1591, 95.1195, 95.1065, 95.0925, 95.199, 95.1682];
 
   it('reproduces the handbook 90th percentile 95.1981 with type 6', () => {
     // 0.9 · 13 = 11.7 → Y[11] + 0.7·(Y[12] − Y[11]) = 95.1959 + 0.7·0.0031 = 95.19807

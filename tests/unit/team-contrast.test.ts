@@ -2,7 +2,7 @@
 // card's "who" line add meet WCAG 2.2 AA for normal text (4.5:1, Success Criterion 1.4.3).
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { contrastRatio } from '../../src/lib/contrast';
+import { contrastRatio } from '@/lib/contrast';
 
 const css = readFileSync(new URL('../../src/styles.css', import.meta.url), 'utf8');
 const token = (name: string) => {

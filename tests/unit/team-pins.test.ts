@@ -1,6 +1,6 @@
 // Which PINs and passwords the Team screen refuses, against published guidance.
 import { describe, expect, it } from 'vitest';
-import { newPersonBody, passwordSchema, pinSchema, pinWeakness, setPasswordBody } from '../../src/domain/team-schemas';
+import { newPersonBody, passwordSchema, pinSchema, pinWeakness, setPasswordBody } from '@/domain/team-schemas';
 
 describe('pinWeakness', () => {
   it('refuses the PINs at the top of published lists of chosen PINs', () => {

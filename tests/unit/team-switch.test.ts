@@ -1,8 +1,8 @@
 // Where a terminal lands after a PIN switch, read off the screens table and the roles table
 // (src/domain/screens.ts, src/domain/roles.ts): the same screen if the new role may open it.
 import { describe, expect, it } from 'vitest';
-import { HOME_SCREEN } from '../../src/domain/roles';
-import { screenAfterSwitch } from '../../src/features/team/switch-target';
+import { HOME_SCREEN } from '@/domain/roles';
+import { screenAfterSwitch } from '@/features/team/switch-target';
 
 describe('screenAfterSwitch', () => {
   it('keeps the screen, with its query, when the new role may see it', () => {

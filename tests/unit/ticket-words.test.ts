@@ -1,6 +1,6 @@
 // Local wall-clock times with their offset, as the ticket CSV writes them.
 import { describe, expect, it } from 'vitest';
-import { localIsoWithOffset } from '../../src/domain/ticket-words';
+import { localIsoWithOffset } from '@/domain/ticket-words';
 
 describe('localIsoWithOffset', () => {
   it('writes the café clock and its UTC offset (IANA tz database offsets, from memory)', () => {

@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
-import { applyPickupEvent, pickupEvent, pickupTicket, pickupView } from '../../src/domain/pickup';
-import { applyEvent, firstName, openTickets, pickupBoard, ticketAgeSeconds } from '../../src/domain/tickets';
-import type { BoardSnapshot, DrinkView, LiveEvent, TicketStatus, TicketView } from '../../src/domain/types';
+import { applyPickupEvent, pickupEvent, pickupTicket, pickupView } from '@/domain/pickup';
+import { applyEvent, firstName, openTickets, pickupBoard, ticketAgeSeconds } from '@/domain/tickets';
+import type { BoardSnapshot, DrinkView, LiveEvent, TicketStatus, TicketView } from '@/domain/types';
 
 const aDrink: DrinkView = {
   id: 1,
@@ -42,7 +42,17 @@ function ticket(id: number, firedAt: string, status: TicketStatus = 'open', read
 }
 
 function board(seq: number, tickets: TicketView[]): BoardSnapshot {
-  return { seq, now: '2025-04-02T10:00:00.000Z', location: { name: 'Test Café', waitTargetSeconds: 240, pickupTimeoutSeconds: 600, jugRules: { pitchers: [], wasteMl: 0, maxDrinks: 4, expansionPct: { flat: 15, silky: 25, foamy: 75 } } }, tickets };
+  return {
+    seq,
+    now: '2025-04-02T10:00:00.000Z',
+    location: {
+      name: 'Test Café',
+      waitTargetSeconds: 240,
+      pickupTimeoutSeconds: 600,
+      jugRules: { pitchers: [], wasteMl: 0, maxDrinks: 4, expansionPct: { flat: 15, silky: 25, foamy: 75 } },
+    },
+    tickets,
+  };
 }
 
 function event(seq: number, t: TicketView, at = '2025-04-02T10:05:00.000Z'): LiveEvent {
@@ -171,7 +181,19 @@ describe('firstName and the public pickup view', () => {
       seq: 8,
       type: 'shift.changed' as const,
       at: '2025-04-02T10:06:00.000Z',
-      shift: { id: 1, openedAt: '', openedBy: 'Theo Brand', openingFloatCents: 150_00, baristasOnBar: 1, waitTargetSeconds: 240, closedAt: null, closedBy: null, expectedCashCents: null, countedCashCents: null, closeNote: null },
+      shift: {
+        id: 1,
+        openedAt: '',
+        openedBy: 'Theo Brand',
+        openingFloatCents: 150_00,
+        baristasOnBar: 1,
+        waitTargetSeconds: 240,
+        closedAt: null,
+        closedBy: null,
+        expectedCashCents: null,
+        countedCashCents: null,
+        closeNote: null,
+      },
     };
     expect(pickupEvent(shift)).toEqual({ seq: 8, type: 'shift.changed', at: '2025-04-02T10:06:00.000Z' });
   });

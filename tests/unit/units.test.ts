@@ -10,8 +10,8 @@ import {
   STEAM,
   temperatureLabel,
   usFlOzToMl,
-} from '../../src/domain/units';
-import { milliToPercent, percentToMilli } from '../../src/domain/settings-schemas';
+} from '@/domain/units';
+import { milliToPercent, percentToMilli } from '@/domain/settings-schemas';
 
 describe('US fluid ounces', () => {
   it('1 US fl oz is 29.5735295625 mL exactly', () => {

@@ -1,9 +1,9 @@
 // The report in parts: how people paid, what the bar used, and what sold best.
-import { ScrollBox } from '../ui/scroll-box';
+import { ScrollBox } from '@/components/ui/scroll-box';
 import type { ReactNode } from 'react';
-import { formatCents } from '../../domain/money';
-import { formatCoffee, formatCount, formatLitres, formatShare, type ReportView } from '../../domain/reports';
-import { cn } from '../../lib/cn';
+import { formatCents } from '@/domain/money';
+import { formatCoffee, formatCount, formatLitres, formatShare, type ReportView } from '@/domain/reports';
+import { cn } from '@/lib/cn';
 
 export const cardClass = 'min-w-0 rounded-xl border border-steam-200 bg-white p-4';
 export const thClass = 'border-b-2 border-steam-200 px-2 py-1 text-left text-sm font-semibold tracking-wide text-ink-600 uppercase';
@@ -56,7 +56,10 @@ export function PaymentMix({ report }: { report: ReportView }) {
               <tr key={label}>
                 <td className={tdClass}>
                   {label}
-                  <ShareBar share={report.grossCents ? m.cents / report.grossCents : 0} label={report.grossCents ? formatShare(m.cents / report.grossCents, report.locale) : '—'} />
+                  <ShareBar
+                    share={report.grossCents ? m.cents / report.grossCents : 0}
+                    label={report.grossCents ? formatShare(m.cents / report.grossCents, report.locale) : '—'}
+                  />
                 </td>
                 <td className={cn(tdClass, numClass)}>{formatCount(m.orders, report.locale)}</td>
                 <td className={cn(tdClass, numClass)}>{money(m.cents)}</td>

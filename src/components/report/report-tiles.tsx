@@ -1,10 +1,10 @@
 // The report's headline numbers as tiles, the waits said in café words, and (in a help note)
 // which percentile definition they use.
 import type { ReactNode } from 'react';
-import { formatCents } from '../../domain/money';
-import { formatDuration } from '../../domain/format';
-import { formatCount, formatShare, type ReportView } from '../../domain/reports';
-import { PERCENTILE_METHOD } from '../../domain/stats';
+import { formatCents } from '@/domain/money';
+import { formatDuration } from '@/domain/format';
+import { formatCount, formatShare, type ReportView } from '@/domain/reports';
+import { PERCENTILE_METHOD } from '@/domain/stats';
 
 export function Tile({ label, value, hint, testId }: { label: string; value: ReactNode; hint?: ReactNode; testId?: string }) {
   return (
@@ -43,7 +43,12 @@ export function ReportTiles({ report }: { report: ReportView }) {
         </h2>
         <div className={group}>
           <dl className="col-span-2 grid grid-cols-2 gap-3 sm:col-span-3 sm:grid-cols-3">
-            <Tile label="Half waited under" value={formatDuration(waits.medianSeconds)} hint={`of ${formatCount(waits.count, report.locale)} ${waits.count === 1 ? 'ticket' : 'tickets'} timed`} testId="tile-median" />
+            <Tile
+              label="Half waited under"
+              value={formatDuration(waits.medianSeconds)}
+              hint={`of ${formatCount(waits.count, report.locale)} ${waits.count === 1 ? 'ticket' : 'tickets'} timed`}
+              testId="tile-median"
+            />
             <Tile label="9 in 10 waited under" value={formatDuration(waits.p90Seconds)} hint="the slow end of the rush" testId="tile-p90" />
             <Tile label="Over target" value={formatShare(waits.overTargetShare, report.locale)} hint={`waited longer than ${target}`} />
           </dl>

@@ -1,5 +1,5 @@
-import type { LinkState } from '../../lib/live-socket';
-import { cn } from '../../lib/cn';
+import type { LinkState } from '@/lib/live-socket';
+import { cn } from '@/lib/cn';
 
 const TEXT: Record<LinkState, string> = {
   connecting: 'Connecting…',
@@ -11,13 +11,7 @@ const TEXT: Record<LinkState, string> = {
 export function LinkStateBadge({ state, className }: { state: LinkState; className?: string }) {
   return (
     <span role="status" aria-live="polite" data-link-state={state} className={cn('inline-flex items-center gap-2', className)}>
-      <span
-        aria-hidden
-        className={cn(
-          'inline-block size-3 rounded-full border-2 border-current',
-          state === 'live' && 'bg-current',
-        )}
-      />
+      <span aria-hidden className={cn('inline-block size-3 rounded-full border-2 border-current', state === 'live' && 'bg-current')} />
       {TEXT[state]}
     </span>
   );

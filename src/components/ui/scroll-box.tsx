@@ -1,7 +1,7 @@
 // A wide table's own sideways scroll, so the page never scrolls sideways on a phone. The box is a
 // named region and takes focus, so a keyboard can scroll it and a screen reader says what it holds.
 import type { ReactNode } from 'react';
-import { cn } from '../../lib/cn';
+import { cn } from '@/lib/cn';
 
 export function ScrollBox({ label, className, children }: { label: string; className?: string; children: ReactNode }) {
   return (

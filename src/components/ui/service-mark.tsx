@@ -1,7 +1,7 @@
 // Here or to go, as the Bar and the cup labels say it: in words and by a shape (a mug with a
 // handle, a paper cup with a lid), never by colour alone.
-import type { Service } from '../../domain/types';
-import { cn } from '../../lib/cn';
+import type { Service } from '@/domain/types';
+import { cn } from '@/lib/cn';
 
 export const serviceWords = (s: Service) => (s === 'dine_in' ? 'Here · mug' : 'To go · cup');
 

@@ -1,9 +1,9 @@
 // Bar commands. Each answers with the ticket's new state, shown at once; the live event
 // that follows brings every other screen along.
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { TicketView } from '../../domain/types';
-import { http } from '../../lib/http';
-import { applyTicket } from '../../live/use-live-board';
+import type { TicketView } from '@/domain/types';
+import { http } from '@/lib/http';
+import { applyTicket } from '@/live/use-live-board';
 
 type OneKind = 'start-drink' | 'bump-drink' | 'acknowledge-allergy' | 'bump-ticket' | 'recall-ticket' | 'rush-ticket';
 export type BarCommand =

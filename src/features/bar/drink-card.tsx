@@ -1,10 +1,10 @@
-import { allergyClash } from '../../domain/allergens';
-import { needsAllergyAck, hasAllergy, type LaneDrink } from '../../domain/lanes';
-import { ticketAgeSeconds } from '../../domain/tickets';
-import { cn } from '../../lib/cn';
-import { Button } from '../../components/ui/button';
-import { ServiceMark } from '../../components/ui/service-mark';
-import { cupSizeLabel, type VolumeUnit } from '../../domain/units';
+import { allergyClash } from '@/domain/allergens';
+import { needsAllergyAck, hasAllergy, type LaneDrink } from '@/domain/lanes';
+import { ticketAgeSeconds } from '@/domain/tickets';
+import { cn } from '@/lib/cn';
+import { Button } from '@/components/ui/button';
+import { ServiceMark } from '@/components/ui/service-mark';
+import { cupSizeLabel, type VolumeUnit } from '@/domain/units';
 import { PourLine, ageLabel } from './pour-line';
 
 /** The usual caution on every allergy card; the café's own rules and the recipe decide. */
@@ -71,7 +71,7 @@ export function DrinkCard({ card, unit, nowMs, targetSeconds, keyNumber, jugLabe
       {allergy && (
         <div data-testid="allergy" className="allergy-band -mx-2 -mt-2 mb-2 rounded-t-md px-2 py-2 text-roast-950">
           <p className="text-3xl leading-tight font-bold tracking-wide">⚠ ALLERGY</p>
-          <p className="text-2xl leading-tight font-bold">{card.allergens.join(", ").toUpperCase()}</p>
+          <p className="text-2xl leading-tight font-bold">{card.allergens.join(', ').toUpperCase()}</p>
           {card.allergyNote && <p className="text-xl font-semibold">{card.allergyNote}</p>}
           {clash.length > 0 && (
             <p data-testid="contains-clash" className="mt-1 rounded bg-roast-950 px-2 text-xl font-semibold text-alert-ink">
@@ -118,7 +118,11 @@ export function DrinkCard({ card, unit, nowMs, targetSeconds, keyNumber, jugLabe
           </span>
         ))}
       </p>
-      {jugLabel && <p data-testid="jug-label" className="mt-1 text-2xl font-semibold underline decoration-2 underline-offset-4">{jugLabel}</p>}
+      {jugLabel && (
+        <p data-testid="jug-label" className="mt-1 text-2xl font-semibold underline decoration-2 underline-offset-4">
+          {jugLabel}
+        </p>
+      )}
       {card.note && <p className="mt-1 text-2xl font-semibold text-alert-ink">Note: {card.note}</p>}
       <WhoLine takenBy={card.takenBy} startedBy={card.status === 'making' ? card.startedBy : null} />
       <div className="mt-2 flex items-center gap-3">
@@ -133,18 +137,9 @@ export function DrinkCard({ card, unit, nowMs, targetSeconds, keyNumber, jugLabe
             Start
           </Button>
         ) : (
-          <span className="flex flex-1 items-center justify-center rounded-lg border-2 border-crema-300 text-xl font-semibold">
-            Making
-          </span>
+          <span className="flex flex-1 items-center justify-center rounded-lg border-2 border-crema-300 text-xl font-semibold">Making</span>
         )}
-        <Button
-          tone="bump"
-          size="lg"
-          className="flex-[2]"
-          disabled={busy || unread}
-          title={unread ? 'Read the allergy first' : undefined}
-          onClick={onBump}
-        >
+        <Button tone="bump" size="lg" className="flex-[2]" disabled={busy || unread} title={unread ? 'Read the allergy first' : undefined} onClick={onBump}>
           Bump ✓
         </Button>
         {canRush && !card.rushedAt && (

@@ -2,11 +2,11 @@
 // shown, as started), then the next jug to steam with "Start jug N", then how many more follow.
 // Each jug names the cups it pours, in pour order (ticket number and first name, as on the cards).
 // Started or not is said in words, not only by look. Volumes in the café's unit.
-import { describeJug, type Jug } from '../../domain/jug-plan';
-import { needsAllergyAck, type LaneDrink, type PlannedLane } from '../../domain/lanes';
-import { firstName } from '../../domain/tickets';
-import type { VolumeUnit } from '../../domain/units';
-import { Button } from '../../components/ui/button';
+import { describeJug, type Jug } from '@/domain/jug-plan';
+import { needsAllergyAck, type LaneDrink, type PlannedLane } from '@/domain/lanes';
+import { firstName } from '@/domain/tickets';
+import type { VolumeUnit } from '@/domain/units';
+import { Button } from '@/components/ui/button';
 
 interface Props {
   lane: PlannedLane;
@@ -29,7 +29,14 @@ export function JugPlanBox({ lane, unit, busy, onStartJug, onBumpJug }: Props) {
         const held = jug.drinkIds.some((id) => unread.has(id));
         return (
           <JugRow key={jug.jugId} label={`Jug ${i + 1} · started`} jug={jug} unit={unit} cups={byId} state="started">
-            <Button tone="bump" size="lg" className="text-2xl" disabled={busy || held} title={held ? 'Read the allergy first' : undefined} onClick={() => onBumpJug(jug.jugId!, jug.drinkIds)}>
+            <Button
+              tone="bump"
+              size="lg"
+              className="text-2xl"
+              disabled={busy || held}
+              title={held ? 'Read the allergy first' : undefined}
+              onClick={() => onBumpJug(jug.jugId!, jug.drinkIds)}
+            >
               Bump jug {i + 1}
             </Button>
           </JugRow>
@@ -65,7 +72,9 @@ function JugRow({ label, jug, unit, cups, state, children }: RowProps) {
   return (
     <div data-testid="jug" data-jug-state={state} className="flex flex-col gap-2">
       <p className="text-xl font-semibold">
-        <span className={state === 'started' ? 'rounded-md bg-crema-100 px-2 text-roast-950' : 'text-crema-100 underline decoration-2 underline-offset-4'}>{label}:</span>{' '}
+        <span className={state === 'started' ? 'rounded-md bg-crema-100 px-2 text-roast-950' : 'text-crema-100 underline decoration-2 underline-offset-4'}>
+          {label}:
+        </span>{' '}
         {describeJug(jug, unit)}
       </p>
       <p data-testid="jug-cups" className="text-xl">

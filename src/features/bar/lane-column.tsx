@@ -1,5 +1,5 @@
-import type { PlannedLane } from '../../domain/lanes';
-import type { VolumeUnit } from '../../domain/units';
+import type { PlannedLane } from '@/domain/lanes';
+import type { VolumeUnit } from '@/domain/units';
 import { JugPlanBox } from './jug-plan-box';
 import { MilkShape } from './milk-mark';
 

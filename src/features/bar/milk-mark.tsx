@@ -1,7 +1,7 @@
 // A milk at a glance: its full name beside a shape of its own (circle, triangle, square…), taken
 // from the milk's place in the menu, so the same milk wears the same shape on every screen and no
 // two milks of a menu of up to eight share one. Shape and name, never colour alone.
-import type { MilkRef } from '../../domain/types';
+import type { MilkRef } from '@/domain/types';
 
 const SHAPES = [
   'M12 3a9 9 0 1 0 0 18a9 9 0 1 0 0-18z', // circle

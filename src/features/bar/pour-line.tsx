@@ -1,7 +1,7 @@
 // The pour line: a thin bar along the card that fills toward the wait target and turns to a
 // diagonal hatch past it. The age is always written out beside it, as it is (m:ss).
-import { formatDuration } from '../../domain/format';
-import { cn } from '../../lib/cn';
+import { formatDuration } from '@/domain/format';
+import { cn } from '@/lib/cn';
 
 export function ageLabel(ageSeconds: number, targetSeconds: number): string {
   if (ageSeconds <= targetSeconds) return formatDuration(Math.floor(ageSeconds));

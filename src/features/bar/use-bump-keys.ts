@@ -3,7 +3,7 @@
 // the focused card, S starts it, A acknowledges its allergy, R recalls the last bump. On a card
 // whose allergy is unread a bump key only focuses it.
 import { useEffect } from 'react';
-import { needsAllergyAck, type LaneDrink } from '../../domain/lanes';
+import { needsAllergyAck, type LaneDrink } from '@/domain/lanes';
 import type { BarCommand } from './commands';
 
 interface Options {

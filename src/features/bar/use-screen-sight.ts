@@ -49,10 +49,11 @@ export function useScreenSight(ref: RefObject<HTMLElement | null>, contentKey: s
   useEffect(() => {
     const main = ref.current;
     if (!main) return;
-    const update = () => setSight((prev) => {
-      const next = measure(main);
-      return same(prev, next) ? prev : next;
-    });
+    const update = () =>
+      setSight((prev) => {
+        const next = measure(main);
+        return same(prev, next) ? prev : next;
+      });
     update();
     // any scroll (the page, the lane row, a lane's cards) and any resize changes what is in sight
     document.addEventListener('scroll', update, { capture: true, passive: true });

@@ -1,9 +1,9 @@
 // Freshness and stock as words with a shape beside them, never colour alone. Colour pairs are the
 // theme's tested ones (tests/unit/contrast.test.ts): ink-900 on steam-100, steam-50 on ink-900,
 // ink-900 on alert-ink.
-import { FRESHNESS_LABEL, type FreshnessState } from '../../domain/freshness';
-import type { StockState } from '../../domain/bean-stock';
-import { cn } from '../../lib/cn';
+import { FRESHNESS_LABEL, type FreshnessState } from '@/domain/freshness';
+import type { StockState } from '@/domain/bean-stock';
+import { cn } from '@/lib/cn';
 
 const badge = 'inline-flex items-center gap-1.5 rounded-full px-3 py-0.5 text-base font-semibold whitespace-nowrap';
 

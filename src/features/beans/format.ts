@@ -1,6 +1,6 @@
 // How the Beans screen writes weights, dates and the run-out estimate.
-import { runsOutPhrase, type RunsOut } from '../../domain/bean-stock';
-import { keepUnits } from '../../lib/keep-units';
+import { runsOutPhrase, type RunsOut } from '@/domain/bean-stock';
+import { keepUnits } from '@/lib/keep-units';
 
 /** "1,000 g" with a no-break space: a weight never wraps between number and unit. */
 export const gramsText = (dg: number, locale = 'en-US') => `${new Intl.NumberFormat(locale, { maximumFractionDigits: 0 }).format(Math.round(dg / 10))}\u00a0g`;

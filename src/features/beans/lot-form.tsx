@@ -4,17 +4,17 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useForm, type FieldPath } from 'react-hook-form';
-import { HOPPER_LABEL, HOPPERS, type BeanLotView, type Hopper } from '../../domain/bean-stock';
-import { beanLotBody, type BeanLotBody } from '../../domain/beans-schemas';
-import { daysBetween, DEFAULT_FRESHNESS, freshnessState } from '../../domain/freshness';
-import { Button } from '../../components/ui/button';
-import { FieldError } from '../../components/ui/field-error';
-import { useHydrated } from '../../lib/use-hydrated';
-import { Segmented } from '../../components/ui/segmented';
-import { beanCommands } from '../../lib/beans-api';
-import { ApiError } from '../../lib/http';
-import { cn } from '../../lib/cn';
-import { beanKeys } from '../../queries/beans';
+import { HOPPER_LABEL, HOPPERS, type BeanLotView, type Hopper } from '@/domain/bean-stock';
+import { beanLotBody, type BeanLotBody } from '@/domain/beans-schemas';
+import { daysBetween, DEFAULT_FRESHNESS, freshnessState } from '@/domain/freshness';
+import { Button } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
+import { useHydrated } from '@/lib/use-hydrated';
+import { Segmented } from '@/components/ui/segmented';
+import { beanCommands } from '@/lib/beans-api';
+import { ApiError } from '@/lib/http';
+import { cn } from '@/lib/cn';
+import { beanKeys } from '@/queries/beans';
 
 const input = 'mt-1 block min-h-12 w-full rounded-lg border border-steam-200 bg-white px-3 text-lg';
 const label = 'block text-sm font-semibold tracking-widest text-ink-600 uppercase';
@@ -56,13 +56,19 @@ export function LotForm({ lot, lots, today, onDone }: { lot: BeanLotView | null;
   const displaced = hopper !== 'shelf' ? lots.find((l) => l.hopper === hopper && !l.retiredAt && l.id !== lot?.id) : undefined;
   const [roastDate, restDays, bestUntilDays] = watch(['roastDate', 'restDays', 'bestUntilDays']);
   const age = /^\d{4}-\d{2}-\d{2}$/.test(roastDate ?? '') ? daysBetween(roastDate, today) : null;
-  const state = age !== null && age >= 0 && Number.isFinite(restDays) && Number.isFinite(bestUntilDays) ? freshnessState(age, { restDays, bestUntilDays }) : null;
+  const state =
+    age !== null && age >= 0 && Number.isFinite(restDays) && Number.isFinite(bestUntilDays) ? freshnessState(age, { restDays, bestUntilDays }) : null;
   const err = (f: (typeof FIELDS)[number]) => formState.errors[f]?.message;
   const number = { valueAsNumber: true } as const;
   const title = lot ? `Edit ${lot.name}` : 'Add a lot';
 
   return (
-    <form aria-label={title} onSubmit={handleSubmit((v) => (displaced ? setMoving(v) : save.mutate(v)))} className="grid grid-cols-4 gap-4 rounded-2xl border border-steam-200 bg-white p-5" noValidate>
+    <form
+      aria-label={title}
+      onSubmit={handleSubmit((v) => (displaced ? setMoving(v) : save.mutate(v)))}
+      className="grid grid-cols-4 gap-4 rounded-2xl border border-steam-200 bg-white p-5"
+      noValidate
+    >
       <h2 className="col-span-4 text-2xl font-semibold">{title}</h2>
       <label className="col-span-2">
         <span className={label}>Name</span>
@@ -134,12 +140,16 @@ export function LotForm({ lot, lots, today, onDone }: { lot: BeanLotView | null;
           </p>
         )}
         <p className="mt-2 text-sm text-ink-600">
-          Bumped drinks take their recipe dose from the lot in the espresso grinder (from the decaf grinder when the drink has a decaf extra).
-          Freshness is common practice: resting under {DEFAULT_FRESHNESS.restDays} days, best to day {DEFAULT_FRESHNESS.bestUntilDays}; set each lot's own.
+          Bumped drinks take their recipe dose from the lot in the espresso grinder (from the decaf grinder when the drink has a decaf extra). Freshness is
+          common practice: resting under {DEFAULT_FRESHNESS.restDays} days, best to day {DEFAULT_FRESHNESS.bestUntilDays}; set each lot's own.
         </p>
       </div>
       {moving && displaced && (
-        <div role="group" aria-label="Move a lot to the shelf" className="col-span-4 flex flex-wrap items-center gap-3 rounded-xl border-2 border-ink-900 px-4 py-3">
+        <div
+          role="group"
+          aria-label="Move a lot to the shelf"
+          className="col-span-4 flex flex-wrap items-center gap-3 rounded-xl border-2 border-ink-900 px-4 py-3"
+        >
           <p className="text-lg">
             <span aria-hidden>⇄ </span>
             {displaced.name} is in the {HOPPER_LABEL[hopper].toLowerCase()} grinder. Put {moving.name} in and move {displaced.name} to the shelf?

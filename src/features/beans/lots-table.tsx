@@ -1,11 +1,11 @@
 // The owner's lots: days since roast, freshness, what is left, when it runs out, which grinder.
 // TanStack Table sorting in the browser: a café has a handful of lots, all sent at once.
-import { ScrollBox } from '../../components/ui/scroll-box';
+import { ScrollBox } from '@/components/ui/scroll-box';
 import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
 import { useMemo, useState } from 'react';
-import { HOPPER_LABEL, type BeanLotView } from '../../domain/bean-stock';
-import { Button } from '../../components/ui/button';
-import { cn } from '../../lib/cn';
+import { HOPPER_LABEL, type BeanLotView } from '@/domain/bean-stock';
+import { Button } from '@/components/ui/button';
+import { cn } from '@/lib/cn';
 import { FreshnessBadge, StockBadge } from './badges';
 import { dateText, gramsText, runsOutText } from './format';
 
@@ -76,7 +76,9 @@ function columns(c: Context) {
         const t = runsOutText(l.runsOut, c.timeZone, c.locale);
         return (
           <div>
-            <p className="font-semibold" data-testid="runs-out">{t.main}</p>
+            <p className="font-semibold" data-testid="runs-out">
+              {t.main}
+            </p>
             <p className="text-sm text-ink-600">{t.hint}</p>
           </div>
         );
@@ -129,7 +131,11 @@ export function LotsTable({ lots, showRetired, ...context }: Context & { lots: B
                 return (
                   <th key={h.id} scope="col" className={th} aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}>
                     {h.column.getCanSort() ? (
-                      <button type="button" onClick={h.column.getToggleSortingHandler()} className="inline-flex min-h-11 items-center gap-1 uppercase hover:underline">
+                      <button
+                        type="button"
+                        onClick={h.column.getToggleSortingHandler()}
+                        className="inline-flex min-h-11 items-center gap-1 uppercase hover:underline"
+                      >
                         {flexRender(h.column.columnDef.header, h.getContext())}
                         <span aria-hidden>{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
                       </button>

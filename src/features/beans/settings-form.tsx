@@ -4,14 +4,14 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import type { BeanSettingsView } from '../../domain/bean-stock';
-import { beanSettingsBody } from '../../domain/beans-schemas';
-import { Button } from '../../components/ui/button';
-import { FieldError } from '../../components/ui/field-error';
-import { useHydrated } from '../../lib/use-hydrated';
-import { beanCommands } from '../../lib/beans-api';
-import { ApiError } from '../../lib/http';
-import { beanKeys } from '../../queries/beans';
+import type { BeanSettingsView } from '@/domain/bean-stock';
+import { beanSettingsBody } from '@/domain/beans-schemas';
+import { Button } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
+import { useHydrated } from '@/lib/use-hydrated';
+import { beanCommands } from '@/lib/beans-api';
+import { ApiError } from '@/lib/http';
+import { beanKeys } from '@/queries/beans';
 
 const decimal = (v: unknown) => (v === '' || v === undefined ? NaN : Number(String(v).replace(',', '.')));
 const ratio = z.number('Enter a ratio like 2.0').min(0.5).max(5);
@@ -47,7 +47,13 @@ export function BeanSettingsForm({ settings }: { settings: BeanSettingsView }) {
     },
   });
   const submit = (v: Form) => {
-    const body = { timeMinS: v.timeMinS, timeMaxS: v.timeMaxS, ratioMinX10: Math.round(v.ratioMin * 10), ratioMaxX10: Math.round(v.ratioMax * 10), lowStockG: v.lowStockG };
+    const body = {
+      timeMinS: v.timeMinS,
+      timeMaxS: v.timeMaxS,
+      ratioMinX10: Math.round(v.ratioMin * 10),
+      ratioMaxX10: Math.round(v.ratioMax * 10),
+      lowStockG: v.lowStockG,
+    };
     // the route's own schema, so the form says exactly what the server would
     const checked = beanSettingsBody.safeParse(body);
     if (!checked.success) {
@@ -60,7 +66,12 @@ export function BeanSettingsForm({ settings }: { settings: BeanSettingsView }) {
   const num = { setValueAs: decimal } as const;
   const e = formState.errors;
   return (
-    <form aria-label="Dial-in window and low stock" onSubmit={handleSubmit(submit)} className="flex flex-wrap items-end gap-4 rounded-2xl border border-steam-200 bg-white p-5" noValidate>
+    <form
+      aria-label="Dial-in window and low stock"
+      onSubmit={handleSubmit(submit)}
+      className="flex flex-wrap items-end gap-4 rounded-2xl border border-steam-200 bg-white p-5"
+      noValidate
+    >
       <h2 className="w-full text-xl font-semibold">Dial-in window and low stock</h2>
       <label>
         <span className={label}>Shot from (s)</span>
@@ -91,14 +102,20 @@ export function BeanSettingsForm({ settings }: { settings: BeanSettingsView }) {
         Save window
       </Button>
       {save.isSuccess && !formState.isDirty && <p role="status">Saved.</p>}
-      {save.error && <p role="alert" className="font-semibold text-copper-700">{save.error instanceof ApiError ? save.error.message : 'That did not work'}</p>}
+      {save.error && (
+        <p role="alert" className="font-semibold text-copper-700">
+          {save.error instanceof ApiError ? save.error.message : 'That did not work'}
+        </p>
+      )}
       <p className="w-full text-base text-ink-600">
-        This is the café&rsquo;s own target for a good shot. The dose range comes from the house double recipe (its dose ± 1 g, or 18–22 g
-        without one). A grinder&rsquo;s lot is also low when it has under a day of use left at the last week&rsquo;s pace.
+        This is the café&rsquo;s own target for a good shot. The dose range comes from the house double recipe (its dose ± 1 g, or 18–22 g without one). A
+        grinder&rsquo;s lot is also low when it has under a day of use left at the last week&rsquo;s pace.
       </p>
       <details className="w-full text-sm text-ink-600">
         <summary className="cursor-pointer underline underline-offset-4">Where the usual numbers come from</summary>
-        <p className="mt-1">Common practice is about 1:2 (yield ÷ dose) in 25–30 s; the Italian espresso institute&rsquo;s certified espresso allows 25 ± 5 s.</p>
+        <p className="mt-1">
+          Common practice is about 1:2 (yield ÷ dose) in 25–30 s; the Italian espresso institute&rsquo;s certified espresso allows 25 ± 5 s.
+        </p>
       </details>
     </form>
   );

@@ -10,12 +10,12 @@ import {
   type CheckNote,
   type Match,
   type ProviderChargeStatus,
-} from '../../domain/card-check';
-import { formatCents } from '../../domain/money';
-import { cn } from '../../lib/cn';
-import { Panel, numClass, tdClass, thClass } from '../../components/report/report-breakdowns';
-import { Tile } from '../../components/report/report-tiles';
-import { ScrollBox } from '../../components/ui/scroll-box';
+} from '@/domain/card-check';
+import { formatCents } from '@/domain/money';
+import { cn } from '@/lib/cn';
+import { Panel, numClass, tdClass, thClass } from '@/components/report/report-breakdowns';
+import { Tile } from '@/components/report/report-tiles';
+import { ScrollBox } from '@/components/ui/scroll-box';
 
 const PROVIDER_WORD: Record<ProviderChargeStatus | 'missing', string> = {
   succeeded: 'Taken',
@@ -53,11 +53,12 @@ export function openLines(view: CardCheckView): number {
 
 export function Verdict({ view, money }: { view: CardCheckView; money: Money }) {
   const inStep = view.provider !== null && view.mismatches === 0 && view.differenceCents === 0;
-  const text = view.provider === null
-    ? 'Not checked: only Jugline’s side is shown.'
-    : inStep
-      ? 'In step: the card service and Jugline agree on every charge and refund.'
-      : `${view.mismatches} ${view.mismatches === 1 ? 'line needs' : 'lines need'} a look; the card service’s net is ${money(view.differenceCents ?? 0)} ${(view.differenceCents ?? 0) < 0 ? 'under' : 'over'} Jugline’s.`;
+  const text =
+    view.provider === null
+      ? 'Not checked: only Jugline’s side is shown.'
+      : inStep
+        ? 'In step: the card service and Jugline agree on every charge and refund.'
+        : `${view.mismatches} ${view.mismatches === 1 ? 'line needs' : 'lines need'} a look; the card service’s net is ${money(view.differenceCents ?? 0)} ${(view.differenceCents ?? 0) < 0 ? 'under' : 'over'} Jugline’s.`;
   return (
     <p
       role="status"
@@ -110,7 +111,11 @@ export function Totals({ view, money }: { view: CardCheckView; money: Money }) {
         <Tile label="Net" value={money(jugline.netCents)} hint="charged less refunded" />
       </Side>
       <Side title="Difference" testId="difference">
-        <Tile label="Card service − Jugline" value={view.differenceCents === null ? '—' : money(view.differenceCents)} hint={view.differenceCents === 0 ? 'none' : 'to explain'} />
+        <Tile
+          label="Card service − Jugline"
+          value={view.differenceCents === null ? '—' : money(view.differenceCents)}
+          hint={view.differenceCents === 0 ? 'none' : 'to explain'}
+        />
       </Side>
     </div>
   );
@@ -159,38 +164,38 @@ function LinesPanel<T extends Line>(props: {
         <p className="text-base text-ink-600">{props.empty}</p>
       ) : (
         <ScrollBox label={`${props.title} table`}>
-        <table className="w-full text-base" data-testid={`${props.kind}-lines`}>
-          <thead>
-            <tr>
-              <th className={thClass}>Time</th>
-              <th className={thClass}>Order</th>
-              <th className={cn(thClass, 'text-right')}>Amount</th>
-              {columns.map(([header]) => (
-                <th key={header} className={thClass}>
-                  {header}
-                </th>
-              ))}
-              <th className={thClass}>How it stands</th>
-            </tr>
-          </thead>
-          <tbody>
-            {lines.map((line) => (
-              <tr key={props.keyOf(line)} className={rowClass(line.match)} data-testid={`${props.kind}-line`} data-match={line.match}>
-                <td className={cn(tdClass, 'whitespace-nowrap')} suppressHydrationWarning>
-                  {time(line.at)}
-                </td>
-                <td className={tdClass}>{orderLabel(line.orderNumber)}</td>
-                <td className={cn(tdClass, numClass)}>{money(line.amountCents)}</td>
-                {columns.map(([header, cell]) => (
-                  <td key={header} className={tdClass}>
-                    {cell(line)}
-                  </td>
+          <table className="w-full text-base" data-testid={`${props.kind}-lines`}>
+            <thead>
+              <tr>
+                <th className={thClass}>Time</th>
+                <th className={thClass}>Order</th>
+                <th className={cn(thClass, 'text-right')}>Amount</th>
+                {columns.map(([header]) => (
+                  <th key={header} className={thClass}>
+                    {header}
+                  </th>
                 ))}
-                <MatchCell match={line.match} note={line.note} />
+                <th className={thClass}>How it stands</th>
               </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody>
+              {lines.map((line) => (
+                <tr key={props.keyOf(line)} className={rowClass(line.match)} data-testid={`${props.kind}-line`} data-match={line.match}>
+                  <td className={cn(tdClass, 'whitespace-nowrap')} suppressHydrationWarning>
+                    {time(line.at)}
+                  </td>
+                  <td className={tdClass}>{orderLabel(line.orderNumber)}</td>
+                  <td className={cn(tdClass, numClass)}>{money(line.amountCents)}</td>
+                  {columns.map(([header, cell]) => (
+                    <td key={header} className={tdClass}>
+                      {cell(line)}
+                    </td>
+                  ))}
+                  <MatchCell match={line.match} note={line.note} />
+                </tr>
+              ))}
+            </tbody>
+          </table>
         </ScrollBox>
       )}
     </Panel>
@@ -233,4 +238,7 @@ export function RefundTable({ lines, money, time }: { lines: CardCheckRefund[]; 
   );
 }
 
-export const moneyIn = (view: CardCheckView): Money => (cents) => formatCents(cents, view.currency, view.locale);
+export const moneyIn =
+  (view: CardCheckView): Money =>
+  (cents) =>
+    formatCents(cents, view.currency, view.locale);

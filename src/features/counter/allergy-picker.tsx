@@ -1,6 +1,6 @@
 // Allergies the customer names, chosen from the café's published list, plus their own words.
-import { allergensOf, type AllergenList } from '../../domain/allergens';
-import { cn } from '../../lib/cn';
+import { allergensOf, type AllergenList } from '@/domain/allergens';
+import { cn } from '@/lib/cn';
 
 interface Props {
   list: AllergenList;
@@ -14,9 +14,7 @@ export function AllergyPicker({ list, value, note, onChange, onNote }: Props) {
   const toggle = (a: string) => onChange(value.includes(a) ? value.filter((x) => x !== a) : [...value, a]);
   return (
     <fieldset className="rounded-lg border-2 border-alert-deep/40 bg-white p-3">
-      <legend className="px-1 text-sm font-semibold tracking-widest text-ink-600 uppercase">
-        Allergy ({list === 'EU' ? 'EU 14' : 'US 9'} list)
-      </legend>
+      <legend className="px-1 text-sm font-semibold tracking-widest text-ink-600 uppercase">Allergy ({list === 'EU' ? 'EU 14' : 'US 9'} list)</legend>
       <div className="flex flex-wrap gap-1.5">
         {allergensOf(list).map((a) => {
           const on = value.includes(a);
@@ -45,9 +43,7 @@ export function AllergyPicker({ list, value, note, onChange, onNote }: Props) {
         value={note}
         onChange={(e) => onNote(e.target.value)}
       />
-      <p className="mt-1 text-sm text-ink-600">
-        Tell the bar out loud too. Jugline flags the drink; it can't promise a kitchen free of traces.
-      </p>
+      <p className="mt-1 text-sm text-ink-600">Tell the bar out loud too. Jugline flags the drink; it can't promise a kitchen free of traces.</p>
     </fieldset>
   );
 }

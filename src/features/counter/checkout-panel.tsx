@@ -2,12 +2,12 @@
 // and cash (with change) or card (through the card reader).
 import { useState } from 'react';
 import type { UseFormReturn } from 'react-hook-form';
-import { cashQuickAmounts, formatCents } from '../../domain/money';
-import type { OrderDraft, OrderDraftInput } from '../../domain/schemas';
-import type { MenuView } from '../../domain/types';
-import { Button } from '../../components/ui/button';
-import { FieldError } from '../../components/ui/field-error';
-import { Segmented } from '../../components/ui/segmented';
+import { cashQuickAmounts, formatCents } from '@/domain/money';
+import type { OrderDraft, OrderDraftInput } from '@/domain/schemas';
+import type { MenuView } from '@/domain/types';
+import { Button } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
+import { Segmented } from '@/components/ui/segmented';
 import { AllergyPicker } from './allergy-picker';
 import { blockedLines, clashesOf, tenderedCents, type Checkout } from './checkout';
 import { DiscountEditor } from './discount-editor';

@@ -1,10 +1,10 @@
 // What the Counter knows about paying for the order being built, apart from its lines.
-import { discountCents, orderTotals, parseAmountToCents, type OrderTotals } from '../../domain/money';
-import { resolveLine } from '../../domain/order-lines';
-import { expandByQuantity } from '../../domain/order-quantity';
-import type { DiscountInput, OrderLineInput } from '../../domain/schemas';
-import { allergyClash } from '../../domain/allergens';
-import type { MenuView } from '../../domain/types';
+import { discountCents, orderTotals, parseAmountToCents, type OrderTotals } from '@/domain/money';
+import { resolveLine } from '@/domain/order-lines';
+import { expandByQuantity } from '@/domain/order-quantity';
+import type { DiscountInput, OrderLineInput } from '@/domain/schemas';
+import { allergyClash } from '@/domain/allergens';
+import type { MenuView } from '@/domain/types';
 
 export interface Checkout {
   method: 'cash' | 'card';

@@ -1,14 +1,14 @@
 // The item sheet: size, milk, shots and extras for one drink, as big touch choices.
 import { useEffect, useRef, useState } from 'react';
-import { formatCents } from '../../domain/money';
-import { resolveLine } from '../../domain/order-lines';
-import type { OrderLineInput } from '../../domain/schemas';
-import type { MenuItemView, MenuView } from '../../domain/types';
-import { cupSizeLabel } from '../../domain/units';
-import { Button } from '../../components/ui/button';
-import { Segmented } from '../../components/ui/segmented';
-import { useModalFocus } from '../../components/ui/use-modal-focus';
-import { cn } from '../../lib/cn';
+import { formatCents } from '@/domain/money';
+import { resolveLine } from '@/domain/order-lines';
+import type { OrderLineInput } from '@/domain/schemas';
+import type { MenuItemView, MenuView } from '@/domain/types';
+import { cupSizeLabel } from '@/domain/units';
+import { Button } from '@/components/ui/button';
+import { Segmented } from '@/components/ui/segmented';
+import { useModalFocus } from '@/components/ui/use-modal-focus';
+import { cn } from '@/lib/cn';
 
 interface Props {
   menu: MenuView;
@@ -67,64 +67,66 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
       <button type="button" aria-label="Close" tabIndex={-1} className="flex-1 cursor-default" onClick={onClose} />
       <div ref={panel} className="flex max-h-[92dvh] flex-col rounded-t-2xl bg-steam-50 shadow-2xl">
         <div className="overflow-y-auto px-6 pt-5 pb-3">
-        <div className="flex items-baseline gap-4">
-          <h2 className="text-3xl font-semibold">{item.name}</h2>
-          <span className="text-2xl text-ink-600">{priced.ok ? money(priced.line.priceCents) : ''}</span>
-          <Button tone="quiet" className="ml-auto" onClick={onClose}>
-            Cancel
-          </Button>
-        </div>
-        {priced.ok && priced.line.contains.length > 0 && (
-          // everything this drink holds as made now: the item itself, its milk and its extras
-          <p data-testid="sheet-contains" className="mt-1 text-lg">
-            <span className="font-semibold">Contains:</span> {priced.line.contains.join(', ')}
-          </p>
-        )}
-        <div data-first-choice className="mt-4 flex flex-col gap-4">
-          {item.sizes.length > 1 && (
-            <Segmented
-              label="Size"
-              value={line.sizeId}
-              onChange={(sizeId) => setLine({ ...line, sizeId, shots: undefined })}
-              options={item.sizes.map((s) => ({ value: s.id, label: s.name, hint: `${cupSizeLabel(s.volumeMl, menu.location.volumeUnit ?? 'ml')} · ${money(s.priceCents)}` }))}
-            />
+          <div className="flex items-baseline gap-4">
+            <h2 className="text-3xl font-semibold">{item.name}</h2>
+            <span className="text-2xl text-ink-600">{priced.ok ? money(priced.line.priceCents) : ''}</span>
+            <Button tone="quiet" className="ml-auto" onClick={onClose}>
+              Cancel
+            </Button>
+          </div>
+          {priced.ok && priced.line.contains.length > 0 && (
+            // everything this drink holds as made now: the item itself, its milk and its extras
+            <p data-testid="sheet-contains" className="mt-1 text-lg">
+              <span className="font-semibold">Contains:</span> {priced.line.contains.join(', ')}
+            </p>
           )}
-          {item.takesMilk && (
-            <Segmented
-              label="Milk"
-              value={line.milkId}
-              onChange={(milkId) => setLine({ ...line, milkId })}
-              options={menu.milks.map((m) => ({
-                value: m.id,
-                label: m.name,
-                hint:
-                  [m.upchargeCents && m.id !== item.defaultMilkId ? `+${money(m.upchargeCents)}` : '', m.allergens.join(', ')].filter(Boolean).join(' · ') ||
-                  undefined,
-              }))}
-            />
-          )}
-          {recipeShots > 0 && (
-            <fieldset>
-              <legend className="mb-1 text-sm font-semibold tracking-widest text-ink-600 uppercase">Shots</legend>
-              <div className="flex items-center gap-3">
-                <Button tone="quiet" size="lg" aria-label="One shot fewer" disabled={shots <= 1} onClick={() => setLine({ ...line, shots: shots - 1 })}>
-                  −
-                </Button>
-                <output aria-live="polite" className="w-28 text-center text-2xl font-semibold">
-                  {shots} shot{shots === 1 ? '' : 's'}
-                </output>
-                <Button tone="quiet" size="lg" aria-label="One shot more" disabled={shots >= 6} onClick={() => setLine({ ...line, shots: shots + 1 })}>
-                  +
-                </Button>
-                {shots > recipeShots && (
-                  <span className="text-lg text-ink-600">
-                    +{money((shots - recipeShots) * menu.location.extraShotCents)} extra shot
-                  </span>
-                )}
-              </div>
-            </fieldset>
-          )}
-          {groups.map(({ group, options }) => (
+          <div data-first-choice className="mt-4 flex flex-col gap-4">
+            {item.sizes.length > 1 && (
+              <Segmented
+                label="Size"
+                value={line.sizeId}
+                onChange={(sizeId) => setLine({ ...line, sizeId, shots: undefined })}
+                options={item.sizes.map((s) => ({
+                  value: s.id,
+                  label: s.name,
+                  hint: `${cupSizeLabel(s.volumeMl, menu.location.volumeUnit ?? 'ml')} · ${money(s.priceCents)}`,
+                }))}
+              />
+            )}
+            {item.takesMilk && (
+              <Segmented
+                label="Milk"
+                value={line.milkId}
+                onChange={(milkId) => setLine({ ...line, milkId })}
+                options={menu.milks.map((m) => ({
+                  value: m.id,
+                  label: m.name,
+                  hint:
+                    [m.upchargeCents && m.id !== item.defaultMilkId ? `+${money(m.upchargeCents)}` : '', m.allergens.join(', ')].filter(Boolean).join(' · ') ||
+                    undefined,
+                }))}
+              />
+            )}
+            {recipeShots > 0 && (
+              <fieldset>
+                <legend className="mb-1 text-sm font-semibold tracking-widest text-ink-600 uppercase">Shots</legend>
+                <div className="flex items-center gap-3">
+                  <Button tone="quiet" size="lg" aria-label="One shot fewer" disabled={shots <= 1} onClick={() => setLine({ ...line, shots: shots - 1 })}>
+                    −
+                  </Button>
+                  <output aria-live="polite" className="w-28 text-center text-2xl font-semibold">
+                    {shots} shot{shots === 1 ? '' : 's'}
+                  </output>
+                  <Button tone="quiet" size="lg" aria-label="One shot more" disabled={shots >= 6} onClick={() => setLine({ ...line, shots: shots + 1 })}>
+                    +
+                  </Button>
+                  {shots > recipeShots && (
+                    <span className="text-lg text-ink-600">+{money((shots - recipeShots) * menu.location.extraShotCents)} extra shot</span>
+                  )}
+                </div>
+              </fieldset>
+            )}
+            {groups.map(({ group, options }) => (
               <fieldset key={group.id}>
                 <legend className="mb-1 text-sm font-semibold tracking-widest text-ink-600 uppercase">
                   {group.name}
@@ -134,42 +136,46 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
                 </legend>
                 <div className="flex flex-wrap gap-2">
                   {options.map((m) => {
-                      const on = line.modifierIds?.includes(m.id) ?? false;
-                      return (
-                        <button
-                          key={m.id}
-                          type="button"
-                          aria-pressed={on}
-                          onClick={() => toggleModifier(m.id, group.selection === 'single' ? group.id : null)}
-                          className={cn(
-                            'min-h-14 rounded-lg border-2 px-4 text-lg font-semibold',
-                            on ? 'border-ink-900 bg-ink-900 text-steam-50' : 'border-steam-200 bg-white',
-                          )}
-                        >
-                          {on && <span aria-hidden>✓ </span>}
-                          {m.name}
-                          {m.priceCents > 0 && <span className="ml-1 text-sm font-medium">+{money(m.priceCents)}</span>}
-                          {m.allergens.length > 0 && <span className="ml-1 text-sm font-medium">⚠ {m.allergens.join(', ')}</span>}
-                        </button>
-                      );
-                    })}
+                    const on = line.modifierIds?.includes(m.id) ?? false;
+                    return (
+                      <button
+                        key={m.id}
+                        type="button"
+                        aria-pressed={on}
+                        onClick={() => toggleModifier(m.id, group.selection === 'single' ? group.id : null)}
+                        className={cn(
+                          'min-h-14 rounded-lg border-2 px-4 text-lg font-semibold',
+                          on ? 'border-ink-900 bg-ink-900 text-steam-50' : 'border-steam-200 bg-white',
+                        )}
+                      >
+                        {on && <span aria-hidden>✓ </span>}
+                        {m.name}
+                        {m.priceCents > 0 && <span className="ml-1 text-sm font-medium">+{money(m.priceCents)}</span>}
+                        {m.allergens.length > 0 && <span className="ml-1 text-sm font-medium">⚠ {m.allergens.join(', ')}</span>}
+                      </button>
+                    );
+                  })}
                 </div>
               </fieldset>
             ))}
-          <label className="block">
-            <span className="mb-1 block text-sm font-semibold tracking-widest text-ink-600 uppercase">Note for the bar</span>
-            <input
-              className="w-full rounded-lg border border-steam-200 bg-white px-3 py-3 text-lg"
-              maxLength={140}
-              value={line.note ?? ''}
-              onChange={(e) => setLine({ ...line, note: e.target.value || undefined })}
-            />
-          </label>
-        </div>
+            <label className="block">
+              <span className="mb-1 block text-sm font-semibold tracking-widest text-ink-600 uppercase">Note for the bar</span>
+              <input
+                className="w-full rounded-lg border border-steam-200 bg-white px-3 py-3 text-lg"
+                maxLength={140}
+                value={line.note ?? ''}
+                onChange={(e) => setLine({ ...line, note: e.target.value || undefined })}
+              />
+            </label>
+          </div>
         </div>
         {/* pinned, so a 768 px tablet never scrolls to add a drink */}
         <div className="border-t border-steam-200 px-6 py-3">
-          {!priced.ok && <p role="alert" className="mb-2 font-semibold text-copper-700">{priced.problem.message}</p>}
+          {!priced.ok && (
+            <p role="alert" className="mb-2 font-semibold text-copper-700">
+              {priced.problem.message}
+            </p>
+          )}
           <Button size="xl" className="w-full" disabled={!priced.ok} onClick={() => onAdd(line)}>
             {initial ? 'Update line' : 'Add to order'} {priced.ok ? `· ${money(priced.line.priceCents)}` : ''}
           </Button>

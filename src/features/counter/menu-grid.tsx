@@ -1,7 +1,7 @@
 import { useEffect, useState } from 'react';
-import { formatCents } from '../../domain/money';
-import type { MenuItemView, MenuView } from '../../domain/types';
-import { cn } from '../../lib/cn';
+import { formatCents } from '@/domain/money';
+import type { MenuItemView, MenuView } from '@/domain/types';
+import { cn } from '@/lib/cn';
 
 export function fromPrice(item: MenuItemView): number {
   return item.sizes.length ? Math.min(...item.sizes.map((s) => s.priceCents)) : (item.priceCents ?? 0);

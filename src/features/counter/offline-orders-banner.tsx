@@ -3,10 +3,10 @@
 // is there), they paid cash, or cancel. Told in words and a shape (the warning sign), never by
 // colour alone.
 import { useState } from 'react';
-import { formatCents } from '../../domain/money';
-import { plural } from '../../domain/plural';
-import { Button } from '../../components/ui/button';
-import type { OrderView } from '../../domain/types';
+import { formatCents } from '@/domain/money';
+import { plural } from '@/domain/plural';
+import { Button } from '@/components/ui/button';
+import type { OrderView } from '@/domain/types';
 import type { OfflineOrder } from './offline-orders';
 import type { OfflineOrders } from './use-offline-orders';
 

@@ -6,7 +6,7 @@
 // Nothing here touches indexedDB until a function is called, and never where it doesn't exist
 // (the server render): there the orders live in memory for as long as the process does.
 import { createStore, del, set, values, type UseStore } from 'idb-keyval';
-import type { CreateOrderBody } from '../../domain/schemas';
+import type { CreateOrderBody } from '@/domain/schemas';
 
 export interface OfflineOrder {
   clientOrderId: string;
@@ -69,7 +69,8 @@ export async function listOfflineOrders(): Promise<OfflineOrder[]> {
   for (const o of memory.values()) byId.set(o.clientOrderId, o);
   // a card order stored as waiting (by an older page) is held all the same: never charged unasked
   return [...byId.values()]
-    .map((o) => (o.state === 'waiting' && o.body.payment.method === 'card' ? { ...o, state: 'held' as const } : o)).sort((a, b) => a.queuedAt.localeCompare(b.queuedAt) || a.clientOrderId.localeCompare(b.clientOrderId));
+    .map((o) => (o.state === 'waiting' && o.body.payment.method === 'card' ? { ...o, state: 'held' as const } : o))
+    .sort((a, b) => a.queuedAt.localeCompare(b.queuedAt) || a.clientOrderId.localeCompare(b.clientOrderId));
 }
 
 export async function removeOfflineOrder(clientOrderId: string): Promise<void> {

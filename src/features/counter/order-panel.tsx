@@ -1,14 +1,14 @@
 // The order being built: its lines (tap to edit, − / + or type how many, ✕ to remove) and the
 // running totals. Identical drinks are one line with a quantity ("3 × Long black").
 import { useState } from 'react';
-import { formatCents, type OrderTotals } from '../../domain/money';
-import { resolveLine } from '../../domain/order-lines';
-import { MAX_QUANTITY, orderCountLabel, quantityOf } from '../../domain/order-quantity';
-import type { OrderLineInput } from '../../domain/schemas';
-import type { MenuView } from '../../domain/types';
-import { cupSizeLabel } from '../../domain/units';
-import { Button } from '../../components/ui/button';
-import { FieldError } from '../../components/ui/field-error';
+import { formatCents, type OrderTotals } from '@/domain/money';
+import { resolveLine } from '@/domain/order-lines';
+import { MAX_QUANTITY, orderCountLabel, quantityOf } from '@/domain/order-quantity';
+import type { OrderLineInput } from '@/domain/schemas';
+import type { MenuView } from '@/domain/types';
+import { cupSizeLabel } from '@/domain/units';
+import { Button } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
 
 interface Props {
   menu: MenuView;
@@ -41,14 +41,21 @@ export function OrderPanel({ menu, items, totals, error, onEditLine, onQuantity,
                   <span className="block text-lg font-semibold">
                     {quantity > 1 && <span>{quantity} × </span>}
                     {p.line.itemName}
-                    {p.line.size && sizeCount(p.line.menuItemId) > 1 ? ` · ${p.line.size.name} · ${cupSizeLabel(p.line.size.volumeMl, menu.location.volumeUnit ?? 'ml')}` : ''}
+                    {p.line.size && sizeCount(p.line.menuItemId) > 1
+                      ? ` · ${p.line.size.name} · ${cupSizeLabel(p.line.size.volumeMl, menu.location.volumeUnit ?? 'ml')}`
+                      : ''}
                   </span>
                 </button>
                 <span className="text-lg font-semibold whitespace-nowrap">{money(p.line.priceCents * quantity)}</span>
               </div>
               <div className="flex items-center gap-2">
                 <button type="button" className="min-w-0 flex-1 text-left text-base text-ink-600" tabIndex={-1} onClick={() => onEditLine(i)}>
-                  {[p.line.milk?.name, p.line.shots ? `${p.line.shots} shot${p.line.shots === 1 ? '' : 's'}` : null, ...p.line.modifiers.map((m) => m.name), p.line.note]
+                  {[
+                    p.line.milk?.name,
+                    p.line.shots ? `${p.line.shots} shot${p.line.shots === 1 ? '' : 's'}` : null,
+                    ...p.line.modifiers.map((m) => m.name),
+                    p.line.note,
+                  ]
                     .filter(Boolean)
                     .join(' · ')}
                 </button>
@@ -115,7 +122,13 @@ function QuantityStepper({ name, quantity, onChange }: { name: string; quantity:
         onBlur={() => setTyped(null)}
         onFocus={(e) => e.target.select()}
       />
-      <Button tone="quiet" className="min-w-11 px-2 text-xl" aria-label={`One more ${name}`} disabled={quantity >= MAX_QUANTITY} onClick={() => onChange(quantity + 1)}>
+      <Button
+        tone="quiet"
+        className="min-w-11 px-2 text-xl"
+        aria-label={`One more ${name}`}
+        disabled={quantity >= MAX_QUANTITY}
+        onClick={() => onChange(quantity + 1)}
+      >
         +
       </Button>
     </div>

@@ -2,13 +2,13 @@
 // refund a paid one, with a reason, and the bar sees it at once.
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
-import { formatCents } from '../../domain/money';
-import type { OrderView } from '../../domain/types';
-import { Button } from '../../components/ui/button';
-import { useModalFocus } from '../../components/ui/use-modal-focus';
-import { useApi } from '../../lib/api-context';
-import { ApiError, http } from '../../lib/http';
-import { orderKeys, ordersQuery } from '../../queries/orders';
+import { formatCents } from '@/domain/money';
+import type { OrderView } from '@/domain/types';
+import { Button } from '@/components/ui/button';
+import { useModalFocus } from '@/components/ui/use-modal-focus';
+import { useApi } from '@/lib/api-context';
+import { ApiError, http } from '@/lib/http';
+import { orderKeys, ordersQuery } from '@/queries/orders';
 
 const STATUS: Record<OrderView['status'], string> = {
   pending: 'waiting for payment',
@@ -76,8 +76,7 @@ export function OrdersDrawer({ canRefund, currency, onClose }: { canRefund: bool
               </div>
               <p className="text-ink-600">
                 {o.payment.method === 'card' ? 'Card' : 'Cash'} · {o.paymentStatus}
-                {o.refundedCents > 0 ? ` · refunded ${money(o.refundedCents)}` : ''} ·{' '}
-                {o.lines.map((l) => l.itemName).join(', ')}
+                {o.refundedCents > 0 ? ` · refunded ${money(o.refundedCents)}` : ''} · {o.lines.map((l) => l.itemName).join(', ')}
               </p>
               <div className="mt-1 flex flex-wrap gap-2">
                 <a className="underline" href={`/receipts/${o.id}`} target="_blank" rel="noreferrer">

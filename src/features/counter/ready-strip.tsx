@@ -3,10 +3,10 @@
 // many as the width holds — and "+n more ready" opens the rest, so the order below never moves.
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
-import type { TicketView } from '../../domain/types';
-import { Button } from '../../components/ui/button';
-import { http } from '../../lib/http';
-import { applyTicket } from '../../live/use-live-board';
+import type { TicketView } from '@/domain/types';
+import { Button } from '@/components/ui/button';
+import { http } from '@/lib/http';
+import { applyTicket } from '@/live/use-live-board';
 
 /** Chips that fit one row beside the heading and the "more" button, by window width. */
 const CHIPS_BY_WIDTH: [minWidth: number, chips: number][] = [
@@ -30,9 +30,7 @@ function useChipsThatFit(): number {
 
 /** Newest on the shelf first; the ticket number breaks a tie. */
 export const newestReadyFirst = (tickets: TicketView[]) =>
-  tickets
-    .filter((t) => t.status === 'ready')
-    .sort((a, b) => (b.readyAt ?? '').localeCompare(a.readyAt ?? '') || b.number - a.number);
+  tickets.filter((t) => t.status === 'ready').sort((a, b) => (b.readyAt ?? '').localeCompare(a.readyAt ?? '') || b.number - a.number);
 
 export function ReadyStrip({ tickets }: { tickets: TicketView[] }) {
   const qc = useQueryClient();
@@ -62,7 +60,10 @@ export function ReadyStrip({ tickets }: { tickets: TicketView[] }) {
     </Button>
   );
   return (
-    <section aria-label="Ready for pickup" className="flex flex-nowrap items-center gap-2 overflow-hidden border-b border-steam-200 bg-steam-100 px-3 py-2 md:px-5">
+    <section
+      aria-label="Ready for pickup"
+      className="flex flex-nowrap items-center gap-2 overflow-hidden border-b border-steam-200 bg-steam-100 px-3 py-2 md:px-5"
+    >
       <h2 className="shrink-0 text-base font-semibold text-ink-600 uppercase md:tracking-widest">
         Ready <span aria-hidden>✓</span> {ready.length}
       </h2>

@@ -7,11 +7,11 @@
 // meanwhile they may have paid cash. It is held until the cashier chooses (settleHeld).
 import { useQueryClient } from '@tanstack/react-query';
 import { useCallback, useEffect, useRef, useState } from 'react';
-import type { CreateOrderBody } from '../../domain/schemas';
-import type { OrderView } from '../../domain/types';
-import { ApiError, http } from '../../lib/http';
-import { onLiveConnected } from '../../lib/live-socket';
-import { menuKeys } from '../../queries/menu';
+import type { CreateOrderBody } from '@/domain/schemas';
+import type { OrderView } from '@/domain/types';
+import { ApiError, http } from '@/lib/http';
+import { onLiveConnected } from '@/lib/live-socket';
+import { menuKeys } from '@/queries/menu';
 import { listOfflineOrders, putOfflineOrder, removeOfflineOrder, type OfflineOrder } from './offline-orders';
 
 export type SendOrderFn = (body: CreateOrderBody) => Promise<{ order: OrderView }>;
@@ -215,8 +215,7 @@ export function useOfflineOrders(send: SendOrderFn = postOrder, options: Offline
     async (clientOrderId: string, choice: 'card' | 'cash'): Promise<OrderView | null> => {
       const order = (await listOfflineOrders()).find((o) => o.clientOrderId === clientOrderId);
       if (!order || order.state !== 'held') return null;
-      const body: CreateOrderBody =
-        choice === 'card' ? order.body : { ...order.body, payment: { method: 'cash', tenderedCents: order.totalCents ?? 0 } };
+      const body: CreateOrderBody = choice === 'card' ? order.body : { ...order.body, payment: { method: 'cash', tenderedCents: order.totalCents ?? 0 } };
       try {
         const { order: taken } = await fns.current.resend(body);
         await removeOfflineOrder(clientOrderId);

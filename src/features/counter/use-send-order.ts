@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { CreateOrderBody } from '../../domain/schemas';
-import type { OrderView } from '../../domain/types';
-import { http } from '../../lib/http';
-import { menuKeys } from '../../queries/menu';
+import type { CreateOrderBody } from '@/domain/schemas';
+import type { OrderView } from '@/domain/types';
+import { http } from '@/lib/http';
+import { menuKeys } from '@/queries/menu';
 
 /**
  * Send an order. A retry after a dropped connection sends the same clientOrderId, so the

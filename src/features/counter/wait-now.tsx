@@ -2,11 +2,11 @@
 // for the drinks picked so far (one, before any), read again whenever the bar moves. Read-only; the
 // quote stored with the order is still made when it is sent.
 import { keepPreviousData, useQuery, useSuspenseQuery } from '@tanstack/react-query';
-import { cupsOf } from '../../domain/order-quantity';
-import { aboutMinutes } from '../../domain/wait-now';
-import { useApi } from '../../lib/api-context';
-import { barBoardQuery } from '../../queries/board';
-import { menuQuery } from '../../queries/menu';
+import { cupsOf } from '@/domain/order-quantity';
+import { aboutMinutes } from '@/domain/wait-now';
+import { useApi } from '@/lib/api-context';
+import { barBoardQuery } from '@/queries/board';
+import { menuQuery } from '@/queries/menu';
 
 export const waitNowKeys = { all: ['wait-now'] as const, of: (drinks: number, seq: number) => ['wait-now', drinks, seq] as const };
 

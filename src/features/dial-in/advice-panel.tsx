@@ -1,7 +1,7 @@
 // What the last shot says to do next, in large type with a sign beside the words.
-import type { AdviceCode, ShotAdvice } from '../../domain/dial-in';
-import { formatRatio } from '../../domain/format';
-import { cn } from '../../lib/cn';
+import type { AdviceCode, ShotAdvice } from '@/domain/dial-in';
+import { formatRatio } from '@/domain/format';
+import { cn } from '@/lib/cn';
 
 const SIGN: Record<AdviceCode, string> = { dose: '⚖', fast: '»', slow: '«', 'ratio-short': '⇥', 'ratio-long': '⇤', good: '✓' };
 

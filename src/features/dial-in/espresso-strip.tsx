@@ -3,10 +3,10 @@
 // it loads beside it, and a failure only hides the strip.
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect } from 'react';
-import { HOPPER_LABEL } from '../../domain/bean-stock';
-import { FRESHNESS_LABEL } from '../../domain/freshness';
-import { useApi } from '../../lib/api-context';
-import { dialInKeys, dialInQuery } from '../../queries/dial-in';
+import { HOPPER_LABEL } from '@/domain/bean-stock';
+import { FRESHNESS_LABEL } from '@/domain/freshness';
+import { useApi } from '@/lib/api-context';
+import { dialInKeys, dialInQuery } from '@/queries/dial-in';
 import { shotNumbers } from './shot-view';
 
 /** Refetch when the bar's live log moves (a bump uses coffee, a lot changes grinder, a dial-in shot is logged: beans.changed), and every minute besides. */
@@ -22,7 +22,11 @@ export function EspressoStrip({ seq }: { seq: number }) {
   const inGrinders = data.lots.filter((l) => l.hopper !== 'shelf').sort((a, b) => (a.hopper === 'espresso' ? -1 : b.hopper === 'espresso' ? 1 : 0));
 
   return (
-    <section aria-label="Espresso on the grinder" data-testid="espresso-strip" className="flex flex-wrap items-center gap-x-8 gap-y-1 border-y border-crema-300/30 bg-roast-850 px-5 py-2 text-2xl">
+    <section
+      aria-label="Espresso on the grinder"
+      data-testid="espresso-strip"
+      className="flex flex-wrap items-center gap-x-8 gap-y-1 border-y border-crema-300/30 bg-roast-850 px-5 py-2 text-2xl"
+    >
       <h2 className="text-2xl font-semibold text-crema-300">Espresso on the grinder</h2>
       {!inGrinders.some((l) => l.hopper === 'espresso') && <p>No lot in the espresso grinder — set one in Beans</p>}
       {inGrinders.map((l) => (

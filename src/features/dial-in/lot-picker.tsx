@@ -1,7 +1,7 @@
 // Which lot the test shots are for: big buttons, the lot in the espresso grinder first.
-import { HOPPER_LABEL, type BeanLotView } from '../../domain/bean-stock';
-import { FRESHNESS_LABEL } from '../../domain/freshness';
-import { cn } from '../../lib/cn';
+import { HOPPER_LABEL, type BeanLotView } from '@/domain/bean-stock';
+import { FRESHNESS_LABEL } from '@/domain/freshness';
+import { cn } from '@/lib/cn';
 
 const ORDER = { espresso: 0, decaf: 1, shelf: 2 } as const;
 

@@ -3,10 +3,10 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
-import { dialInShotBody } from '../../domain/beans-schemas';
-import { Button } from '../../components/ui/button';
-import { FieldError } from '../../components/ui/field-error';
-import { useHydrated } from '../../lib/use-hydrated';
+import { dialInShotBody } from '@/domain/beans-schemas';
+import { Button } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
+import { useHydrated } from '@/lib/use-hydrated';
 
 const shotFields = dialInShotBody.omit({ lotId: true });
 export type ShotFields = z.infer<typeof shotFields>;
@@ -21,7 +21,12 @@ export function ShotForm({ defaults, busy, onLog }: { defaults: Partial<ShotFiel
   const e = formState.errors;
   const num = { setValueAs: decimal } as const;
   return (
-    <form aria-label="Log a test shot" onSubmit={handleSubmit(onLog)} noValidate className="grid grid-cols-2 gap-4 rounded-2xl sm:grid-cols-4 border border-steam-200 bg-white p-5">
+    <form
+      aria-label="Log a test shot"
+      onSubmit={handleSubmit(onLog)}
+      noValidate
+      className="grid grid-cols-2 gap-4 rounded-2xl sm:grid-cols-4 border border-steam-200 bg-white p-5"
+    >
       <label>
         <span className={label}>Grind</span>
         <input className={big} autoComplete="off" inputMode="decimal" {...register('grind')} aria-invalid={!!e.grind} />
@@ -44,7 +49,11 @@ export function ShotForm({ defaults, busy, onLog }: { defaults: Partial<ShotFiel
       </label>
       <label className="col-span-2 sm:col-span-3">
         <span className={label}>Taste (optional)</span>
-        <input className="mt-1 block min-h-14 w-full rounded-xl border-2 border-steam-200 bg-white px-4 text-xl" {...register('tasteNote')} placeholder="e.g. sour, thin; sweet, syrupy" />
+        <input
+          className="mt-1 block min-h-14 w-full rounded-xl border-2 border-steam-200 bg-white px-4 text-xl"
+          {...register('tasteNote')}
+          placeholder="e.g. sour, thin; sweet, syrupy"
+        />
         <FieldError message={e.tasteNote?.message} />
       </label>
       <div className="col-span-2 flex items-end sm:col-span-1">

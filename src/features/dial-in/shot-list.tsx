@@ -1,9 +1,9 @@
 // The lot's recent test shots, newest first, with the advice each one got.
-import { ScrollBox } from '../../components/ui/scroll-box';
-import { ADVICE_HEADLINE, formatGrams, formatSeconds, type DialInShotView } from '../../domain/dial-in';
-import { formatRatio } from '../../domain/format';
-import { cn } from '../../lib/cn';
-import { keepUnits } from '../../lib/keep-units';
+import { ScrollBox } from '@/components/ui/scroll-box';
+import { ADVICE_HEADLINE, formatGrams, formatSeconds, type DialInShotView } from '@/domain/dial-in';
+import { formatRatio } from '@/domain/format';
+import { cn } from '@/lib/cn';
+import { keepUnits } from '@/lib/keep-units';
 import { timeOfDay } from './shot-view';
 
 const th = 'border-b-2 border-steam-200 px-3 py-2 text-left text-sm font-semibold tracking-wide text-ink-600 uppercase';
@@ -39,9 +39,7 @@ export function ShotList({ shots, timeZone, locale }: { shots: DialInShotView[];
                 </time>
               </td>
               <td className={cn(td, 'font-semibold')}>{s.grind}</td>
-              <td className={cn(td, 'tabular-nums')}>
-                {keepUnits(`${formatGrams(s.doseDg)} → ${formatGrams(s.yieldDg)}`)}
-              </td>
+              <td className={cn(td, 'tabular-nums')}>{keepUnits(`${formatGrams(s.doseDg)} → ${formatGrams(s.yieldDg)}`)}</td>
               <td className={cn(td, 'tabular-nums')}>{keepUnits(formatSeconds(s.timeDs))}</td>
               <td className={cn(td, 'tabular-nums')}>{formatRatio(s.ratioX10)}</td>
               <td className={td}>

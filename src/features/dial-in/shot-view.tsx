@@ -1,7 +1,7 @@
 // A shot's numbers as the bar says them: "2.4 · 18.0 g → 36.0 g · 28 s · 1:2.0".
-import { formatGrams, formatSeconds, type DialInShotView, type ShotWindow } from '../../domain/dial-in';
-import { keepUnits } from '../../lib/keep-units';
-import { formatRatio } from '../../domain/format';
+import { formatGrams, formatSeconds, type DialInShotView, type ShotWindow } from '@/domain/dial-in';
+import { keepUnits } from '@/lib/keep-units';
+import { formatRatio } from '@/domain/format';
 
 export function shotNumbers(s: Pick<DialInShotView, 'doseDg' | 'yieldDg' | 'timeDs' | 'ratioX10'>) {
   return keepUnits(`${formatGrams(s.doseDg)} → ${formatGrams(s.yieldDg)} · ${formatSeconds(s.timeDs)} · ${formatRatio(s.ratioX10)}`);

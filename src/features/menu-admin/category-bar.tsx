@@ -2,10 +2,10 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { categoryForm, type CategoryBody } from '../../domain/menu-admin-schemas';
-import type { AdminCategory, AdminMenuView } from '../../domain/menu-admin-view';
-import { Button } from '../../components/ui/button';
-import { cn } from '../../lib/cn';
+import { categoryForm, type CategoryBody } from '@/domain/menu-admin-schemas';
+import type { AdminCategory, AdminMenuView } from '@/domain/menu-admin-view';
+import { Button } from '@/components/ui/button';
+import { cn } from '@/lib/cn';
 import type { MenuCommand } from './commands';
 import { ConfirmRetire } from './dialog';
 import { Field } from './fields';
@@ -21,7 +21,17 @@ interface Props {
   notify(message: string, tone?: 'ok' | 'problem'): void;
 }
 
-function NameForm({ initial, submitLabel, onSave, onCancel }: { initial: string; submitLabel: string; onSave(body: CategoryBody): Promise<void>; onCancel(): void }) {
+function NameForm({
+  initial,
+  submitLabel,
+  onSave,
+  onCancel,
+}: {
+  initial: string;
+  submitLabel: string;
+  onSave(body: CategoryBody): Promise<void>;
+  onCancel(): void;
+}) {
   const form = useForm<CategoryBody>({ resolver: zodResolver(categoryForm), defaultValues: { name: initial } });
   const [problem, setProblem] = useState<string | null>(null);
   const save = form.handleSubmit(async (body) => {
@@ -33,7 +43,14 @@ function NameForm({ initial, submitLabel, onSave, onCancel }: { initial: string;
   });
   return (
     <form onSubmit={save} className="flex flex-wrap items-start gap-3" aria-label={submitLabel}>
-      <Field label="Category name" autoFocus error={form.formState.errors.name?.message ?? problem ?? undefined} {...form.register('name')} id="category-name" className="w-72" />
+      <Field
+        label="Category name"
+        autoFocus
+        error={form.formState.errors.name?.message ?? problem ?? undefined}
+        {...form.register('name')}
+        id="category-name"
+        className="w-72"
+      />
       <Button type="submit" className="mt-6">
         {submitLabel}
       </Button>
@@ -64,23 +81,23 @@ export function CategoryBar({ menu, selected, showRetired, command, onSelect, no
       {/* a tablist holds only tabs (axe aria-required-children): the new-category button sits beside it */}
       <div className="flex flex-wrap gap-2 border-b border-steam-200">
         <div role="tablist" aria-label="Menu categories" className="flex flex-wrap gap-2">
-        {shown.map((c) => (
-          <button
-            key={c.id}
-            role="tab"
-            type="button"
-            aria-selected={c.id === selected?.id}
-            onClick={() => onSelect(c.id)}
-            className={cn(
-              'min-h-14 rounded-t-lg border-b-4 px-5 text-xl font-semibold',
-              c.id === selected?.id ? 'border-copper-700 bg-white' : 'border-transparent text-ink-600',
-              c.retired && 'italic',
-            )}
-          >
-            {c.name}
-            {c.retired && <span className="ml-1 text-base font-medium">(retired)</span>}
-          </button>
-        ))}
+          {shown.map((c) => (
+            <button
+              key={c.id}
+              role="tab"
+              type="button"
+              aria-selected={c.id === selected?.id}
+              onClick={() => onSelect(c.id)}
+              className={cn(
+                'min-h-14 rounded-t-lg border-b-4 px-5 text-xl font-semibold',
+                c.id === selected?.id ? 'border-copper-700 bg-white' : 'border-transparent text-ink-600',
+                c.retired && 'italic',
+              )}
+            >
+              {c.name}
+              {c.retired && <span className="ml-1 text-base font-medium">(retired)</span>}
+            </button>
+          ))}
         </div>
         <Button tone="quiet" className="mb-1 ml-2 self-center" onClick={() => setEditing('new')}>
           + New category
@@ -118,7 +135,11 @@ export function CategoryBar({ menu, selected, showRetired, command, onSelect, no
             Rename
           </Button>
           {selected.retired ? (
-            <Button tone="quiet" disabled={command.isPending} onClick={() => run((c) => c.setRetired('categories', selected.id, false), `Restored ${selected.name}.`)}>
+            <Button
+              tone="quiet"
+              disabled={command.isPending}
+              onClick={() => run((c) => c.setRetired('categories', selected.id, false), `Restored ${selected.name}.`)}
+            >
               Restore category
             </Button>
           ) : (

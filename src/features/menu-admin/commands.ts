@@ -1,10 +1,10 @@
 // The menu editor's commands. Each answers with the menu as it now is, shown at once; the
 // menu.changed event brings every open Counter and Bar along.
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { AdminMenuView, MenuAdminResult } from '../../domain/menu-admin-view';
-import { menuAdminCommands } from '../../lib/menu-admin-api';
-import { menuKeys } from '../../queries/menu';
-import { menuAdminKeys } from '../../queries/menu-admin';
+import type { AdminMenuView, MenuAdminResult } from '@/domain/menu-admin-view';
+import { menuAdminCommands } from '@/lib/menu-admin-api';
+import { menuKeys } from '@/queries/menu';
+import { menuAdminKeys } from '@/queries/menu-admin';
 
 export function useMenuCommand() {
   const qc = useQueryClient();

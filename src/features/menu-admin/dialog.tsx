@@ -2,9 +2,9 @@
 // Esc or the backdrop closes it; the page behind stays put. The focus stays inside while it is
 // open and goes back to the opener when it closes (useModalFocus).
 import { useEffect, useId, useRef, type ReactNode } from 'react';
-import { Button } from '../../components/ui/button';
-import { useModalFocus } from '../../components/ui/use-modal-focus';
-import { cn } from '../../lib/cn';
+import { Button } from '@/components/ui/button';
+import { useModalFocus } from '@/components/ui/use-modal-focus';
+import { cn } from '@/lib/cn';
 
 /**
  * Esc calls the latest `close` (parents pass a new function each render). A confirmation on top
@@ -85,7 +85,13 @@ export function ConfirmRetire({
   useModalFocus(box, (el) => el.querySelector<HTMLElement>('[data-keep]')); // the safe choice has the focus
   return (
     <div className="fixed inset-0 z-40 grid place-items-center bg-ink-900/50 p-4">
-      <div ref={box} role="alertdialog" aria-modal="true" aria-labelledby={titleId} className="w-full max-w-xl rounded-2xl border-2 border-ink-900 bg-white p-6 shadow-2xl">
+      <div
+        ref={box}
+        role="alertdialog"
+        aria-modal="true"
+        aria-labelledby={titleId}
+        className="w-full max-w-xl rounded-2xl border-2 border-ink-900 bg-white p-6 shadow-2xl"
+      >
         <h2 id={titleId} className="text-2xl font-semibold">
           Retire {what}?
         </h2>

@@ -2,19 +2,13 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
-import {
-  modifierForm,
-  modifierGroupForm,
-  type ModifierFormValues,
-  type ModifierGroupBody,
-  type ModifierGroupFormValues,
-} from '../../domain/menu-admin-schemas';
-import type { Ingredient } from '../../domain/ingredients';
-import type { AdminMenuView, AdminModifier, AdminModifierGroup } from '../../domain/menu-admin-view';
-import { centsToAmountText } from '../../domain/menu-units';
-import { Button } from '../../components/ui/button';
-import { FieldError } from '../../components/ui/field-error';
-import { Segmented } from '../../components/ui/segmented';
+import { modifierForm, modifierGroupForm, type ModifierFormValues, type ModifierGroupBody, type ModifierGroupFormValues } from '@/domain/menu-admin-schemas';
+import type { Ingredient } from '@/domain/ingredients';
+import type { AdminMenuView, AdminModifier, AdminModifierGroup } from '@/domain/menu-admin-view';
+import { centsToAmountText } from '@/domain/menu-units';
+import { Button } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
+import { Segmented } from '@/components/ui/segmented';
 import type { MenuCommand } from './commands';
 import { ConfirmRetire, Sheet } from './dialog';
 import { CheckGroup, Field, IngredientPicker } from './fields';
@@ -41,10 +35,24 @@ function SaveFooter({ problem, label, busy, onSave }: { problem: string | null; 
   );
 }
 
-function GroupForm({ menu, group, command, notify, onClose }: { menu: AdminMenuView; group: AdminModifierGroup | null; command: MenuCommand; notify: Notify; onClose(): void }) {
+function GroupForm({
+  menu,
+  group,
+  command,
+  notify,
+  onClose,
+}: {
+  menu: AdminMenuView;
+  group: AdminModifierGroup | null;
+  command: MenuCommand;
+  notify: Notify;
+  onClose(): void;
+}) {
   const form = useForm<ModifierGroupFormValues, unknown, ModifierGroupBody>({
     resolver: zodResolver(modifierGroupForm),
-    defaultValues: group ? { name: group.name, selection: group.selection, required: group.required, itemIds: group.itemIds } : { name: '', selection: 'multi', required: false, itemIds: [] },
+    defaultValues: group
+      ? { name: group.name, selection: group.selection, required: group.required, itemIds: group.itemIds }
+      : { name: '', selection: 'multi', required: false, itemIds: [] },
   });
   const [problem, setProblem] = useState<string | null>(null);
   const errors = form.formState.errors;
@@ -59,7 +67,11 @@ function GroupForm({ menu, group, command, notify, onClose }: { menu: AdminMenuV
     }
   });
   return (
-    <Sheet title={group ? `Edit ${group.name}` : 'New group of extras'} onClose={onClose} footer={<SaveFooter problem={problem} label={group ? 'Save group' : 'Add group'} busy={command.isPending} onSave={save} />}>
+    <Sheet
+      title={group ? `Edit ${group.name}` : 'New group of extras'}
+      onClose={onClose}
+      footer={<SaveFooter problem={problem} label={group ? 'Save group' : 'Add group'} busy={command.isPending} onSave={save} />}
+    >
       <form onSubmit={save} noValidate className="flex flex-col gap-5" aria-label="Group of extras">
         <Field label="Name" placeholder="Syrup" error={errors.name?.message} {...form.register('name')} id="group-name" />
         <Controller
@@ -117,7 +129,9 @@ function ModifierForm({
 }) {
   const form = useForm<ModifierFormValues, unknown, { name: string; priceCents: number; ingredients: Ingredient[] }>({
     resolver: zodResolver(modifierForm),
-    defaultValues: modifier ? { name: modifier.name, price: centsToAmountText(modifier.priceCents), ingredients: modifier.ingredients } : { name: '', price: '0.00', ingredients: [] },
+    defaultValues: modifier
+      ? { name: modifier.name, price: centsToAmountText(modifier.priceCents), ingredients: modifier.ingredients }
+      : { name: '', price: '0.00', ingredients: [] },
   });
   const [problem, setProblem] = useState<string | null>(null);
   const errors = form.formState.errors;
@@ -132,15 +146,34 @@ function ModifierForm({
     }
   });
   return (
-    <Sheet title={modifier ? `Edit ${modifier.name}` : 'New extra'} onClose={onClose} footer={<SaveFooter problem={problem} label={modifier ? 'Save extra' : 'Add extra'} busy={command.isPending} onSave={save} />}>
+    <Sheet
+      title={modifier ? `Edit ${modifier.name}` : 'New extra'}
+      onClose={onClose}
+      footer={<SaveFooter problem={problem} label={modifier ? 'Save extra' : 'Add extra'} busy={command.isPending} onSave={save} />}
+    >
       <form onSubmit={save} noValidate className="flex flex-col gap-5" aria-label="Extra">
         <Field label="Name" placeholder="Vanilla syrup" error={errors.name?.message} {...form.register('name')} id="extra-name" />
-        <Field label="Price" prefix={currencySign(menu)} className="max-w-xs" inputMode="decimal" hint="0.00 for a free choice" error={errors.price?.message} {...form.register('price')} id="extra-price" />
+        <Field
+          label="Price"
+          prefix={currencySign(menu)}
+          className="max-w-xs"
+          inputMode="decimal"
+          hint="0.00 for a free choice"
+          error={errors.price?.message}
+          {...form.register('price')}
+          id="extra-price"
+        />
         <Controller
           control={form.control}
           name="ingredients"
           render={({ field }) => (
-            <IngredientPicker list={menu.location.allergenList} value={field.value} onChange={field.onChange} hint="What the extra adds: almond for an almond syrup that contains nut." error={errors.ingredients?.message} />
+            <IngredientPicker
+              list={menu.location.allergenList}
+              value={field.value}
+              onChange={field.onChange}
+              hint="What the extra adds: almond for an almond syrup that contains nut."
+              error={errors.ingredients?.message}
+            />
           )}
         />
       </form>
@@ -183,9 +216,22 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
         const liveMods = mods.filter((m) => !m.retired);
         const on = itemNames(g.itemIds);
         return (
-          <article key={g.id} data-testid="extra-group" aria-label={`Group ${g.name}`} className={`rounded-xl border border-steam-200 p-5 ${g.retired ? 'bg-steam-100' : 'bg-white'}`}>
+          <article
+            key={g.id}
+            data-testid="extra-group"
+            aria-label={`Group ${g.name}`}
+            className={`rounded-xl border border-steam-200 p-5 ${g.retired ? 'bg-steam-100' : 'bg-white'}`}
+          >
             <header className="flex flex-wrap items-center gap-3">
-              {!g.retired && <MoveButtons name={g.name} first={at === 0} last={at === liveGroups.length - 1} busy={command.isPending} onMove={(d) => run((c) => c.move('modifier-groups', g.id, d), `Moved ${g.name}.`)} />}
+              {!g.retired && (
+                <MoveButtons
+                  name={g.name}
+                  first={at === 0}
+                  last={at === liveGroups.length - 1}
+                  busy={command.isPending}
+                  onMove={(d) => run((c) => c.move('modifier-groups', g.id, d), `Moved ${g.name}.`)}
+                />
+              )}
               <h3 className="text-xl font-semibold">{g.name}</h3>
               <span className="text-lg">
                 {/* with one extra in the group there is nothing to pick between */}
@@ -194,7 +240,11 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
               <StatusBadge status={g.retired ? 'retired' : 'in-use'} />
               <span className="ml-auto inline-flex gap-2">
                 {g.retired ? (
-                  <Button tone="quiet" disabled={command.isPending} onClick={() => run((c) => c.setRetired('modifier-groups', g.id, false), `Restored ${g.name}.`)}>
+                  <Button
+                    tone="quiet"
+                    disabled={command.isPending}
+                    onClick={() => run((c) => c.setRetired('modifier-groups', g.id, false), `Restored ${g.name}.`)}
+                  >
                     Restore group
                   </Button>
                 ) : (
@@ -214,7 +264,13 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
                 return (
                   <li key={m.id} className={`flex flex-wrap items-center gap-3 border-t border-steam-200 py-2 ${m.retired ? 'text-ink-600' : ''}`}>
                     {!m.retired ? (
-                      <MoveButtons name={m.name} first={mAt === 0} last={mAt === liveMods.length - 1} busy={command.isPending} onMove={(d) => run((c) => c.move('modifiers', m.id, d), `Moved ${m.name}.`)} />
+                      <MoveButtons
+                        name={m.name}
+                        first={mAt === 0}
+                        last={mAt === liveMods.length - 1}
+                        busy={command.isPending}
+                        onMove={(d) => run((c) => c.move('modifiers', m.id, d), `Moved ${m.name}.`)}
+                      />
                     ) : (
                       <span className="w-[5.75rem]" />
                     )}
@@ -224,7 +280,12 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
                     {m.retired && <StatusBadge status="retired" />}
                     <span className="ml-auto inline-flex gap-2">
                       {m.retired ? (
-                        <Button tone="quiet" disabled={command.isPending} onClick={() => run((c) => c.setRetired('modifiers', m.id, false), `Restored ${m.name}.`)} aria-label={`Restore ${m.name}`}>
+                        <Button
+                          tone="quiet"
+                          disabled={command.isPending}
+                          onClick={() => run((c) => c.setRetired('modifiers', m.id, false), `Restored ${m.name}.`)}
+                          aria-label={`Restore ${m.name}`}
+                        >
                           Restore
                         </Button>
                       ) : (
@@ -255,7 +316,9 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
       {retiring && (
         <ConfirmRetire
           what={retiring.name}
-          consequence={retiring.kind === 'modifiers' ? 'The Counter stops offering this extra.' : 'The group and its extras leave every item’s sheet at the Counter.'}
+          consequence={
+            retiring.kind === 'modifiers' ? 'The Counter stops offering this extra.' : 'The group and its extras leave every item’s sheet at the Counter.'
+          }
           busy={command.isPending}
           onCancel={() => setRetiring(null)}
           onConfirm={async () => {

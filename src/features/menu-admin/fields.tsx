@@ -1,12 +1,13 @@
 // Form pieces for the editor: a labelled field with its error, a set of checkboxes, and the
 // ingredients with the allergens they give on the café's list. Big type, ≥ 44 px targets.
 import type { ComponentProps, ReactNode } from 'react';
-import type { AllergenList } from '../../domain/allergens';
-import { ALLERGEN_CAUTION, allergensFrom, INGREDIENT_GROUPS, ingredientsIn, inOrder, unspecifiedOf } from '../../domain/ingredients';
-import { FieldError } from '../../components/ui/field-error';
-import { cn } from '../../lib/cn';
+import type { AllergenList } from '@/domain/allergens';
+import { ALLERGEN_CAUTION, allergensFrom, INGREDIENT_GROUPS, ingredientsIn, inOrder, unspecifiedOf } from '@/domain/ingredients';
+import { FieldError } from '@/components/ui/field-error';
+import { cn } from '@/lib/cn';
 
-export const inputClass = 'min-h-12 w-full rounded-lg border border-steam-200 bg-white px-3 text-lg text-ink-900 aria-invalid:border-copper-700 aria-invalid:border-2';
+export const inputClass =
+  'min-h-12 w-full rounded-lg border border-steam-200 bg-white px-3 text-lg text-ink-900 aria-invalid:border-copper-700 aria-invalid:border-2';
 
 interface FieldProps extends ComponentProps<'input'> {
   label: string;
@@ -26,7 +27,13 @@ export function Field({ label, error, hint, unit, prefix, className, id, ...inpu
       </label>
       <div className="flex items-center gap-2">
         {prefix && <span className="text-lg text-ink-600">{prefix}</span>}
-        <input id={fieldId} aria-invalid={error ? true : undefined} aria-describedby={error ? `${fieldId}-error` : undefined} className={inputClass} {...input} />
+        <input
+          id={fieldId}
+          aria-invalid={error ? true : undefined}
+          aria-describedby={error ? `${fieldId}-error` : undefined}
+          className={inputClass}
+          {...input}
+        />
         {unit && <span className="text-lg text-ink-600">{unit}</span>}
       </div>
       {hint && !error && <p className="mt-1 text-sm text-ink-600">{hint}</p>}

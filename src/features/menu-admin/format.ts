@@ -1,5 +1,5 @@
-import { formatCents } from '../../domain/money';
-import type { AdminMenuView } from '../../domain/menu-admin-view';
+import { formatCents } from '@/domain/money';
+import type { AdminMenuView } from '@/domain/menu-admin-view';
 
 /** Money in the café's currency and locale. */
 export const moneyOf = (menu: AdminMenuView) => (cents: number) => formatCents(cents, menu.location.currency, menu.location.locale);

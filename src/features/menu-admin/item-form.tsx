@@ -3,13 +3,13 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm, useWatch } from 'react-hook-form';
-import { itemForm, type ItemBody, type ItemFormValues } from '../../domain/menu-admin-schemas';
-import type { AdminItem, AdminMenuView } from '../../domain/menu-admin-view';
-import { TEXTURES } from '../../domain/types';
-import { hotMilkNote } from '../../domain/cautions';
-import { Button } from '../../components/ui/button';
-import { FieldError } from '../../components/ui/field-error';
-import { Segmented } from '../../components/ui/segmented';
+import { itemForm, type ItemBody, type ItemFormValues } from '@/domain/menu-admin-schemas';
+import type { AdminItem, AdminMenuView } from '@/domain/menu-admin-view';
+import { TEXTURES } from '@/domain/types';
+import { hotMilkNote } from '@/domain/cautions';
+import { Button } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
+import { Segmented } from '@/components/ui/segmented';
 import type { MenuCommand } from './commands';
 import { ConfirmRetire, Sheet } from './dialog';
 import { CheckGroup, Field, IngredientPicker, inputClass } from './fields';
@@ -175,7 +175,16 @@ export function ItemForm({ menu, item, categoryId, command, notify, onClose }: P
 
         <SizeRows form={form} takesMilk={takesMilk} retired={item?.sizes.filter((s) => s.retired) ?? []} sign={sign} />
         {!hasSizes && (
-          <Field className="max-w-xs" label="Price" prefix={sign} inputMode="decimal" hint="For an item sold in one size only" error={errors.price?.message} {...form.register('price')} id="item-price" />
+          <Field
+            className="max-w-xs"
+            label="Price"
+            prefix={sign}
+            inputMode="decimal"
+            hint="For an item sold in one size only"
+            error={errors.price?.message}
+            {...form.register('price')}
+            id="item-price"
+          />
         )}
 
         <Controller

@@ -1,7 +1,7 @@
 // An item as its form holds it (grams and prices as the owner reads them), and back.
-import type { ItemFormValues, SizeFormValues } from '../../domain/menu-admin-schemas';
-import type { AdminItem, AdminSize } from '../../domain/menu-admin-view';
-import { centsToAmountText, dgToGramsText } from '../../domain/menu-units';
+import type { ItemFormValues, SizeFormValues } from '@/domain/menu-admin-schemas';
+import type { AdminItem, AdminSize } from '@/domain/menu-admin-view';
+import { centsToAmountText, dgToGramsText } from '@/domain/menu-units';
 
 export function sizeValues(s: AdminSize | null, isDefault: boolean): SizeFormValues {
   if (!s) return { name: '', volumeMl: '', cup: '', price: '', shots: '0', doseG: '', yieldG: '', milkMl: '', isDefault };

@@ -2,10 +2,10 @@
 // TanStack Table draws it; the rows come in the menu's own order (the Counter's tile order).
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { useMemo } from 'react';
-import { itemStatus, type AdminItem, type AdminMenuView } from '../../domain/menu-admin-view';
-import { dgToGramsText } from '../../domain/menu-units';
-import { Button } from '../../components/ui/button';
-import { cn } from '../../lib/cn';
+import { itemStatus, type AdminItem, type AdminMenuView } from '@/domain/menu-admin-view';
+import { dgToGramsText } from '@/domain/menu-units';
+import { Button } from '@/components/ui/button';
+import { cn } from '@/lib/cn';
 import { moneyOf } from './format';
 import { MoveButtons } from './move-buttons';
 import { StatusBadge } from './status';
@@ -106,7 +106,12 @@ function columns(menu: AdminMenuView, live: AdminItem[], a: ItemActions) {
               Restore
             </Button>
           ) : (
-            <Button tone="quiet" disabled={a.busy} onClick={() => a.setAvailable(i, !i.available)} aria-label={i.available ? `86 ${i.name}` : `Put ${i.name} back on`}>
+            <Button
+              tone="quiet"
+              disabled={a.busy}
+              onClick={() => a.setAvailable(i, !i.available)}
+              aria-label={i.available ? `86 ${i.name}` : `Put ${i.name} back on`}
+            >
               {i.available ? '86 it' : 'Back on'}
             </Button>
           )}
@@ -129,7 +134,11 @@ export function ItemsTable({ menu, items, actions }: { menu: AdminMenuView; item
         {table.getHeaderGroups().map((g) => (
           <tr key={g.id}>
             {g.headers.map((h) => (
-              <th key={h.id} scope="col" className="border-b-2 border-steam-200 px-1.5 py-2 text-left text-sm font-semibold tracking-wide whitespace-nowrap text-ink-600 uppercase lg:px-2">
+              <th
+                key={h.id}
+                scope="col"
+                className="border-b-2 border-steam-200 px-1.5 py-2 text-left text-sm font-semibold tracking-wide whitespace-nowrap text-ink-600 uppercase lg:px-2"
+              >
                 {flexRender(h.column.columnDef.header, h.getContext())}
               </th>
             ))}

@@ -1,13 +1,13 @@
 // Milks: each is a lane on the Bar, headed by its two-letter code. Name, code, upcharge, and what
 // it is made of (the allergens follow for the café's list).
-import { ScrollBox } from '../../components/ui/scroll-box';
+import { ScrollBox } from '@/components/ui/scroll-box';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
-import { milkForm, type MilkBody, type MilkFormValues } from '../../domain/menu-admin-schemas';
-import type { AdminMenuView, AdminMilk } from '../../domain/menu-admin-view';
-import { centsToAmountText } from '../../domain/menu-units';
-import { Button } from '../../components/ui/button';
+import { milkForm, type MilkBody, type MilkFormValues } from '@/domain/menu-admin-schemas';
+import type { AdminMenuView, AdminMilk } from '@/domain/menu-admin-view';
+import { centsToAmountText } from '@/domain/menu-units';
+import { Button } from '@/components/ui/button';
 import type { MenuCommand } from './commands';
 import { ConfirmRetire, Sheet } from './dialog';
 import { Field, IngredientPicker } from './fields';
@@ -18,7 +18,19 @@ import { StatusBadge } from './status';
 
 type Notify = (message: string, tone?: 'ok' | 'problem') => void;
 
-function MilkForm({ menu, milk, command, notify, onClose }: { menu: AdminMenuView; milk: AdminMilk | null; command: MenuCommand; notify: Notify; onClose(): void }) {
+function MilkForm({
+  menu,
+  milk,
+  command,
+  notify,
+  onClose,
+}: {
+  menu: AdminMenuView;
+  milk: AdminMilk | null;
+  command: MenuCommand;
+  notify: Notify;
+  onClose(): void;
+}) {
   const form = useForm<MilkFormValues, unknown, MilkBody>({
     resolver: zodResolver(milkForm),
     defaultValues: milk
@@ -64,7 +76,16 @@ function MilkForm({ menu, milk, command, notify, onClose }: { menu: AdminMenuVie
           {...form.register('code')}
           id="milk-code"
         />
-        <Field label="Upcharge" prefix={currencySign(menu)} className="max-w-xs" inputMode="decimal" hint="Added to the drink's price; 0.00 for none" error={errors.upcharge?.message} {...form.register('upcharge')} id="milk-upcharge" />
+        <Field
+          label="Upcharge"
+          prefix={currencySign(menu)}
+          className="max-w-xs"
+          inputMode="decimal"
+          hint="Added to the drink's price; 0.00 for none"
+          error={errors.upcharge?.message}
+          {...form.register('upcharge')}
+          id="milk-upcharge"
+        />
         <Controller
           control={form.control}
           name="ingredients"
@@ -131,11 +152,21 @@ export function MilksPanel({ menu, command, notify }: { menu: AdminMenuView; com
               return (
                 <tr key={m.id} data-testid="milk-row" className={m.retired ? 'bg-steam-100 text-ink-600' : undefined}>
                   <td className={td}>
-                    {!m.retired && <MoveButtons name={m.name} first={at === 0} last={at === live.length - 1} busy={command.isPending} onMove={(d) => run((c) => c.move('milks', m.id, d), `Moved ${m.name}.`)} />}
+                    {!m.retired && (
+                      <MoveButtons
+                        name={m.name}
+                        first={at === 0}
+                        last={at === live.length - 1}
+                        busy={command.isPending}
+                        onMove={(d) => run((c) => c.move('milks', m.id, d), `Moved ${m.name}.`)}
+                      />
+                    )}
                   </td>
                   <td className={`${td} text-xl font-semibold`}>{m.name}</td>
                   <td className={td}>
-                    <span className="inline-grid size-11 place-items-center rounded-lg border-2 border-ink-900 font-display text-xl font-semibold">{m.code}</span>
+                    <span className="inline-grid size-11 place-items-center rounded-lg border-2 border-ink-900 font-display text-xl font-semibold">
+                      {m.code}
+                    </span>
                   </td>
                   <td className={`${td} tabular-nums`}>{m.upchargeCents ? `+${money(m.upchargeCents)}` : 'none'}</td>
                   <td className={td}>{m.ingredients.length ? m.ingredients.join(', ') : <strong>⚠ not recorded: say what it is made of</strong>}</td>
@@ -146,7 +177,12 @@ export function MilksPanel({ menu, command, notify }: { menu: AdminMenuView; com
                   <td className={`${td} text-right`}>
                     <span className="inline-flex gap-2">
                       {m.retired ? (
-                        <Button tone="quiet" disabled={command.isPending} onClick={() => run((c) => c.setRetired('milks', m.id, false), `Restored ${m.name}.`)} aria-label={`Restore ${m.name}`}>
+                        <Button
+                          tone="quiet"
+                          disabled={command.isPending}
+                          onClick={() => run((c) => c.setRetired('milks', m.id, false), `Restored ${m.name}.`)}
+                          aria-label={`Restore ${m.name}`}
+                        >
                           Restore
                         </Button>
                       ) : (

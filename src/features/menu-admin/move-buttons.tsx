@@ -1,4 +1,4 @@
-import { Button } from '../../components/ui/button';
+import { Button } from '@/components/ui/button';
 
 /** ↑ / ↓ (or ← / → for tabs) with the row's name in the label. */
 export function MoveButtons({
@@ -21,7 +21,13 @@ export function MoveButtons({
       <Button tone="quiet" className="w-11 px-0" aria-label={`Move ${name} ${across ? 'left' : 'up'}`} disabled={busy || first} onClick={() => onMove('up')}>
         {across ? '←' : '↑'}
       </Button>
-      <Button tone="quiet" className="w-11 px-0" aria-label={`Move ${name} ${across ? 'right' : 'down'}`} disabled={busy || last} onClick={() => onMove('down')}>
+      <Button
+        tone="quiet"
+        className="w-11 px-0"
+        aria-label={`Move ${name} ${across ? 'right' : 'down'}`}
+        disabled={busy || last}
+        onClick={() => onMove('down')}
+      >
         {across ? '→' : '↓'}
       </Button>
     </span>

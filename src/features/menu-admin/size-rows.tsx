@@ -2,13 +2,13 @@
 // A stored size removed here is retired on save (after a confirmation), never deleted.
 import { useState } from 'react';
 import { useFieldArray, useWatch, type UseFormReturn } from 'react-hook-form';
-import type { ItemBody, ItemFormValues } from '../../domain/menu-admin-schemas';
-import type { AdminSize } from '../../domain/menu-admin-view';
-import { ratioLabel } from '../../domain/format';
-import { parseGramsToDg, parseWhole } from '../../domain/menu-units';
-import { exactUsFlOz } from '../../domain/units';
-import { Button } from '../../components/ui/button';
-import { FieldError } from '../../components/ui/field-error';
+import type { ItemBody, ItemFormValues } from '@/domain/menu-admin-schemas';
+import type { AdminSize } from '@/domain/menu-admin-view';
+import { ratioLabel } from '@/domain/format';
+import { parseGramsToDg, parseWhole } from '@/domain/menu-units';
+import { exactUsFlOz } from '@/domain/units';
+import { Button } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
 import { ConfirmRetire } from './dialog';
 import { Field } from './fields';
 import { sizeValues } from './item-values';
@@ -57,9 +57,25 @@ export function SizeRows({ form, takesMilk, retired, sign }: { form: Form; takes
           <div key={row.id} data-testid="size-row" className="rounded-xl border border-steam-200 bg-white p-4">
             <div className="grid grid-cols-[1fr_1fr_1.3fr_1fr_auto] items-start gap-3">
               <Field label="Size name" placeholder="12 oz" error={err(i, 'name')} {...form.register(`${p}.name`)} id={`${p}.name`} />
-              <Field label="Cup volume" unit="ml" inputMode="numeric" error={err(i, 'volumeMl')} hint={<VolumeHint form={form} index={i} />} {...form.register(`${p}.volumeMl`)} id={`${p}.volumeMl`} />
+              <Field
+                label="Cup volume"
+                unit="ml"
+                inputMode="numeric"
+                error={err(i, 'volumeMl')}
+                hint={<VolumeHint form={form} index={i} />}
+                {...form.register(`${p}.volumeMl`)}
+                id={`${p}.volumeMl`}
+              />
               <Field label="Cup" placeholder="12 oz hot cup" error={err(i, 'cup')} {...form.register(`${p}.cup`)} id={`${p}.cup`} />
-              <Field label="Price" prefix={sign} inputMode="decimal" placeholder="5.60" error={err(i, 'price')} {...form.register(`${p}.price`)} id={`${p}.price`} />
+              <Field
+                label="Price"
+                prefix={sign}
+                inputMode="decimal"
+                placeholder="5.60"
+                error={err(i, 'price')}
+                {...form.register(`${p}.price`)}
+                id={`${p}.price`}
+              />
               <label className="flex min-h-12 cursor-pointer items-center gap-2 self-end rounded-lg border-2 border-steam-200 px-3 text-base font-semibold has-checked:border-ink-900">
                 <input type="radio" name="default-size" className="size-5 accent-copper-700" checked={!!values[i]?.isDefault} onChange={() => makeDefault(i)} />
                 Default
@@ -68,9 +84,25 @@ export function SizeRows({ form, takesMilk, retired, sign }: { form: Form; takes
             <div className="mt-3 grid grid-cols-[1fr_1fr_1fr_1fr_auto] items-start gap-3">
               <Field label="Shots" inputMode="numeric" error={err(i, 'shots')} {...form.register(`${p}.shots`)} id={`${p}.shots`} />
               <Field label="Dose" unit="g" inputMode="decimal" error={err(i, 'doseG')} hint="Coffee in" {...form.register(`${p}.doseG`)} id={`${p}.doseG`} />
-              <Field label="Target yield" unit="g" inputMode="decimal" error={err(i, 'yieldG')} hint={<RatioHint form={form} index={i} />} {...form.register(`${p}.yieldG`)} id={`${p}.yieldG`} />
+              <Field
+                label="Target yield"
+                unit="g"
+                inputMode="decimal"
+                error={err(i, 'yieldG')}
+                hint={<RatioHint form={form} index={i} />}
+                {...form.register(`${p}.yieldG`)}
+                id={`${p}.yieldG`}
+              />
               {takesMilk ? (
-                <Field label="Milk" unit="ml" inputMode="numeric" error={err(i, 'milkMl')} hint="Cold, before steaming" {...form.register(`${p}.milkMl`)} id={`${p}.milkMl`} />
+                <Field
+                  label="Milk"
+                  unit="ml"
+                  inputMode="numeric"
+                  error={err(i, 'milkMl')}
+                  hint="Cold, before steaming"
+                  {...form.register(`${p}.milkMl`)}
+                  id={`${p}.milkMl`}
+                />
               ) : (
                 <p className="self-center text-base text-ink-600">No milk</p>
               )}
@@ -78,7 +110,13 @@ export function SizeRows({ form, takesMilk, retired, sign }: { form: Form; takes
                 <Button tone="quiet" className="w-11 px-0" aria-label={`Move ${name} up`} disabled={i === 0} onClick={() => rows.move(i, i - 1)}>
                   ↑
                 </Button>
-                <Button tone="quiet" className="w-11 px-0" aria-label={`Move ${name} down`} disabled={i === rows.fields.length - 1} onClick={() => rows.move(i, i + 1)}>
+                <Button
+                  tone="quiet"
+                  className="w-11 px-0"
+                  aria-label={`Move ${name} down`}
+                  disabled={i === rows.fields.length - 1}
+                  onClick={() => rows.move(i, i + 1)}
+                >
                   ↓
                 </Button>
                 <Button tone="quiet" aria-label={`Remove ${name}`} onClick={() => remove(i)}>

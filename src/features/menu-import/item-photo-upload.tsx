@@ -2,16 +2,17 @@
 // The server decides what the bytes are and re-encodes them; the checks here only save a wasted
 // upload. The local preview is a data: URL, which the page's Content-Security-Policy allows.
 import { useEffect, useId, useState, type ChangeEvent } from 'react';
-import { buttonStyles } from '../../components/ui/button';
-import { FieldError } from '../../components/ui/field-error';
-import { cn } from '../../lib/cn';
-import { useRemovePhoto, useUploadPhoto } from '../../queries/menu-import';
+import { buttonStyles } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
+import { cn } from '@/lib/cn';
+import { useRemovePhoto, useUploadPhoto } from '@/queries/menu-import';
 
 /** server/menu/item-photos.ts PHOTO_MAX_BYTES */
 const MAX_BYTES = 5 * 1024 * 1024;
 const TYPES = ['image/jpeg', 'image/png', 'image/webp'];
 /** The hidden file input's focus, drawn on the label that stands for it. */
-export const FOCUS_RING = 'peer-focus-visible:outline-3 peer-focus-visible:outline-offset-2 peer-focus-visible:outline-copper-500 peer-focus-visible:outline-solid';
+export const FOCUS_RING =
+  'peer-focus-visible:outline-3 peer-focus-visible:outline-offset-2 peer-focus-visible:outline-copper-500 peer-focus-visible:outline-solid';
 
 function readAsDataUrl(file: File): Promise<string> {
   return new Promise((resolve, reject) => {

@@ -1,8 +1,8 @@
 // Every item on the menu with its photo, by category, so photos can be added without opening
 // each item. The Counter shows them on its tiles.
 import { useQuery } from '@tanstack/react-query';
-import { useApi } from '../../lib/api-context';
-import { menuQuery } from '../../queries/menu';
+import { useApi } from '@/lib/api-context';
+import { menuQuery } from '@/queries/menu';
 import { ItemPhotoUpload } from './item-photo-upload';
 
 export function ItemPhotos() {

@@ -1,14 +1,14 @@
 // Menu import and export for the owner: choose a CSV → see every row as the import would take it,
 // bad rows marked → import (only when nothing is wrong) → what it did. Also the menu's photos.
 import { useId, useState, type ChangeEvent } from 'react';
-import { Button, buttonStyles } from '../../components/ui/button';
-import { FieldError } from '../../components/ui/field-error';
-import { importSummary, MENU_CSV_COLUMNS, MENU_CSV_HELP, MENU_CSV_MAX_BYTES, type MenuImportPreview } from '../../domain/menu-csv';
-import { cn } from '../../lib/cn';
+import { Button, buttonStyles } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
+import { importSummary, MENU_CSV_COLUMNS, MENU_CSV_HELP, MENU_CSV_MAX_BYTES, type MenuImportPreview } from '@/domain/menu-csv';
+import { cn } from '@/lib/cn';
 import { FOCUS_RING } from './item-photo-upload';
 import { ItemPhotos } from './item-photos';
 import { PreviewTable } from './preview-table';
-import { MENU_EXPORT_HREF, useImportMenu, usePreviewImport, type ChosenFile } from '../../queries/menu-import';
+import { MENU_EXPORT_HREF, useImportMenu, usePreviewImport, type ChosenFile } from '@/queries/menu-import';
 
 function PreviewSummary({ preview }: { preview: MenuImportPreview }) {
   const badRows = new Set(preview.errors.map((e) => e.row)).size;
@@ -16,8 +16,8 @@ function PreviewSummary({ preview }: { preview: MenuImportPreview }) {
   if (badRows > 0) {
     return (
       <p className="text-lg" role="alert" data-testid="import-problems">
-        <span className="font-semibold text-copper-700">⚠ {badRows === 1 ? '1 row has a problem' : `${badRows} rows have problems`}.</span> Nothing can be imported
-        until every row is right: fix {preview.fileName} and choose it again.
+        <span className="font-semibold text-copper-700">⚠ {badRows === 1 ? '1 row has a problem' : `${badRows} rows have problems`}.</span> Nothing can be
+        imported until every row is right: fix {preview.fileName} and choose it again.
       </p>
     );
   }
@@ -84,9 +84,8 @@ export function MenuImportPanel() {
         </a>
       </div>
       <p className="max-w-4xl text-base">
-        One row per item size. Rows are matched to the menu by category, item and size name (capitals don't matter): a match is updated, anything else is
-        added. <strong>Nothing is deleted</strong> — items and sizes that are not in the file stay on the menu as they are. The whole file is imported, or
-        none of it.
+        One row per item size. Rows are matched to the menu by category, item and size name (capitals don't matter): a match is updated, anything else is added.{' '}
+        <strong>Nothing is deleted</strong> — items and sizes that are not in the file stay on the menu as they are. The whole file is imported, or none of it.
       </p>
       <details className="text-base">
         <summary className="min-h-11 cursor-pointer py-2 font-semibold">The columns</summary>

@@ -1,10 +1,10 @@
 // The rows of an uploaded menu file as the import would take them: what each row would do, and
 // for a bad row the word "Problem", the cell marked, and what to fix written beside it.
-import { ScrollBox } from '../../components/ui/scroll-box';
+import { ScrollBox } from '@/components/ui/scroll-box';
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { useMemo } from 'react';
-import { MENU_CSV_COLUMNS, type MenuCsvColumn, type MenuImportPreview, type RowAction, type RowError } from '../../domain/menu-csv';
-import { cn } from '../../lib/cn';
+import { MENU_CSV_COLUMNS, type MenuCsvColumn, type MenuImportPreview, type RowAction, type RowError } from '@/domain/menu-csv';
+import { cn } from '@/lib/cn';
 
 type PreviewRow = MenuImportPreview['rows'][number] & { problems: RowError[] };
 
@@ -94,7 +94,14 @@ export function PreviewTable({ preview }: { preview: MenuImportPreview }) {
               return (
                 <tr key={row.id} data-testid="import-row" data-row={row.original.row} data-problem={bad ? 'yes' : 'no'} className={cn(bad && 'bg-steam-100')}>
                   {row.getVisibleCells().map((cell) => (
-                    <td key={cell.id} className={cn(td, cell.column.id === 'row' && 'text-right tabular-nums', bad && cell.column.id === 'row' && 'border-l-4 border-l-copper-700')}>
+                    <td
+                      key={cell.id}
+                      className={cn(
+                        td,
+                        cell.column.id === 'row' && 'text-right tabular-nums',
+                        bad && cell.column.id === 'row' && 'border-l-4 border-l-copper-700',
+                      )}
+                    >
                       {flexRender(cell.column.columnDef.cell, cell.getContext())}
                     </td>
                   ))}

@@ -1,7 +1,7 @@
 // One file to the API as multipart/form-data, with upload progress. XMLHttpRequest rather than
 // fetch, because fetch reports no upload progress. A same-origin XHR carries the page's Origin,
 // which is what the server's cross-site check (server/security.ts) looks at.
-import { ApiError } from '../../lib/http';
+import { ApiError } from '@/lib/http';
 
 export function sendFile<T>(method: 'POST', path: string, file: Blob, fileName: string, onProgress?: (fraction: number) => void): Promise<T> {
   return new Promise<T>((resolve, reject) => {

@@ -3,8 +3,8 @@
 // series is told by colour alone. Loaded only on the Pulse screen, after hydration, so the chart
 // library weighs nothing on the Bar or the Counter.
 import { Bar, BarChart, CartesianGrid, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
-import { formatDuration } from '../../domain/format';
-import type { PulseBucket } from '../../domain/pulse';
+import { formatDuration } from '@/domain/format';
+import type { PulseBucket } from '@/domain/pulse';
 
 const INK = '#1d1a17';
 const TICK = { fill: INK, fontSize: 14 };

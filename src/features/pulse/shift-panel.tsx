@@ -4,13 +4,13 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { currencySymbol, formatCents, parseAmountToCents } from '../../domain/money';
-import { cashDifferenceWords, openTicketsWarning, type OpenTicketsAtClose } from '../../domain/shift-close';
-import type { ShiftView } from '../../domain/types';
-import { Button } from '../../components/ui/button';
-import { FieldError } from '../../components/ui/field-error';
-import { ApiError, http } from '../../lib/http';
-import { pulseKeys } from '../../queries/pulse';
+import { currencySymbol, formatCents, parseAmountToCents } from '@/domain/money';
+import { cashDifferenceWords, openTicketsWarning, type OpenTicketsAtClose } from '@/domain/shift-close';
+import type { ShiftView } from '@/domain/types';
+import { Button } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
+import { ApiError, http } from '@/lib/http';
+import { pulseKeys } from '@/queries/pulse';
 
 // The forms take dollars and minutes as typed; the API takes cents and seconds.
 const amount = z.string().refine((v) => parseAmountToCents(v) !== null, 'Enter an amount like 150 or 150.00');
@@ -94,7 +94,11 @@ export function ShiftPanel({
         <Button type="submit" size="lg" disabled={open.isPending}>
           Open shift
         </Button>
-        {error && <p role="alert" className="w-full font-semibold text-copper-700">{error instanceof ApiError ? error.message : 'That did not work'}</p>}
+        {error && (
+          <p role="alert" className="w-full font-semibold text-copper-700">
+            {error instanceof ApiError ? error.message : 'That did not work'}
+          </p>
+        )}
       </form>
     );
   }
@@ -102,18 +106,27 @@ export function ShiftPanel({
   return (
     <section aria-label="Shift" className="flex flex-wrap items-end gap-4 rounded-2xl border border-steam-200 bg-white p-4">
       <h2 className="w-full text-xl font-semibold">
-        Shift open since {new Date(shift.openedAt).toLocaleTimeString('en-US', { hour: 'numeric', minute: '2-digit', timeZone })} ·{' '}
-        {shift.openedBy}
+        Shift open since {new Date(shift.openedAt).toLocaleTimeString('en-US', { hour: 'numeric', minute: '2-digit', timeZone })} · {shift.openedBy}
       </h2>
       <div className="flex items-center gap-2">
         <span className="text-lg">On bar:</span>
-        <Button tone="quiet" aria-label="One barista fewer" disabled={shift.baristasOnBar <= 1 || baristas.isPending} onClick={() => baristas.mutate({ baristasOnBar: shift.baristasOnBar - 1 })}>
+        <Button
+          tone="quiet"
+          aria-label="One barista fewer"
+          disabled={shift.baristasOnBar <= 1 || baristas.isPending}
+          onClick={() => baristas.mutate({ baristasOnBar: shift.baristasOnBar - 1 })}
+        >
           −
         </Button>
         <strong data-testid="baristas-on-bar" className="w-8 text-center font-display text-3xl">
           {shift.baristasOnBar}
         </strong>
-        <Button tone="quiet" aria-label="One barista more" disabled={baristas.isPending} onClick={() => baristas.mutate({ baristasOnBar: shift.baristasOnBar + 1 })}>
+        <Button
+          tone="quiet"
+          aria-label="One barista more"
+          disabled={baristas.isPending}
+          onClick={() => baristas.mutate({ baristasOnBar: shift.baristasOnBar + 1 })}
+        >
           +
         </Button>
       </div>
@@ -126,7 +139,11 @@ export function ShiftPanel({
           <p className="text-lg">
             <strong>⚠ {openTicketsWarning(leftOpen)}</strong> Close the shift anyway? They stay on the Bar.
           </p>
-          <Button size="lg" disabled={close.isPending} onClick={() => close.mutate({ ...confirming, confirmOpenTickets: true }, { onSuccess: () => setConfirming(null) })}>
+          <Button
+            size="lg"
+            disabled={close.isPending}
+            onClick={() => close.mutate({ ...confirming, confirmOpenTickets: true }, { onSuccess: () => setConfirming(null) })}
+          >
             Close with {leftOpen.openTickets === 1 ? 'the ticket' : 'tickets'} open
           </Button>
           <Button
@@ -142,7 +159,11 @@ export function ShiftPanel({
         </div>
       ) : confirming ? (
         // Closing mails the report and ends the shift for everyone: the lead sees the difference first.
-        <div role="group" aria-label="Confirm closing the shift" className="ml-auto flex flex-wrap items-center gap-3 rounded-xl border-2 border-ink-900 px-4 py-3">
+        <div
+          role="group"
+          aria-label="Confirm closing the shift"
+          className="ml-auto flex flex-wrap items-center gap-3 rounded-xl border-2 border-ink-900 px-4 py-3"
+        >
           <p className="text-lg">
             Close with {money(confirming.countedCashCents)} counted — expected {money(expectedCashCents ?? 0)}, difference{' '}
             <strong>{cashDifferenceWords(expectedCashCents ?? 0, confirming.countedCashCents, currency)}</strong>?
@@ -184,7 +205,11 @@ export function ShiftPanel({
           </Button>
         </form>
       )}
-      {error && <p role="alert" className="w-full font-semibold text-copper-700">{error instanceof ApiError ? error.message : 'That did not work'}</p>}
+      {error && (
+        <p role="alert" className="w-full font-semibold text-copper-700">
+          {error instanceof ApiError ? error.message : 'That did not work'}
+        </p>
+      )}
     </section>
   );
 }

@@ -1,10 +1,10 @@
 // The day by the hour, and the tickets that waited past the target.
-import { ScrollBox } from '../../components/ui/scroll-box';
-import { formatCents } from '../../domain/money';
-import { formatDuration } from '../../domain/format';
-import { formatCount, hourLabel, type ReportView } from '../../domain/reports';
-import { cn } from '../../lib/cn';
-import { Panel, ShareBar, numClass, tdClass, thClass } from '../../components/report/report-breakdowns';
+import { ScrollBox } from '@/components/ui/scroll-box';
+import { formatCents } from '@/domain/money';
+import { formatDuration } from '@/domain/format';
+import { formatCount, hourLabel, type ReportView } from '@/domain/reports';
+import { cn } from '@/lib/cn';
+import { Panel, ShareBar, numClass, tdClass, thClass } from '@/components/report/report-breakdowns';
 
 export function HourlyTable({ report }: { report: ReportView }) {
   const money = (c: number) => formatCents(c, report.currency, report.locale);
@@ -54,9 +54,7 @@ export function OverTargetList({ report, multiDay }: { report: ReportView; multi
       ) : (
         <ScrollBox label="Over-target tickets table">
           <table className="w-full text-base" data-testid="over-target">
-            <caption className="mb-1 text-left text-sm text-ink-600">
-              Longest first{report.overTarget.length === 20 ? ', the 20 longest' : ''}.
-            </caption>
+            <caption className="mb-1 text-left text-sm text-ink-600">Longest first{report.overTarget.length === 20 ? ', the 20 longest' : ''}.</caption>
             <thead>
               <tr>
                 <th className={thClass}>Ticket</th>

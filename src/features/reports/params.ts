@@ -2,8 +2,8 @@
 // rendered on the server: ?shift=12 or ?from=…&to=… (none: today), and the ticket table's
 // q, status, sort, dir and page. A value that doesn't parse is left out, never an error page.
 import { z } from 'zod';
-import { calendarDate, ticketHistoryQuery } from '../../domain/schemas';
-import type { TicketHistoryParams } from '../../lib/reports-api';
+import { calendarDate, ticketHistoryQuery } from '@/domain/schemas';
+import type { TicketHistoryParams } from '@/lib/reports-api';
 
 export type PeriodChoice = { kind: 'today' } | { kind: 'shift'; id: number } | { kind: 'range'; from: string; to: string };
 

@@ -1,9 +1,9 @@
 // Which period the report covers: today, one of the recent shifts, or a range of dates. Plain GET
 // forms and a link, so the picker works before the page's script has loaded.
 import { Form, Link } from 'react-router';
-import type { ReportShiftsView } from '../../domain/reports';
-import { buttonStyles } from '../../components/ui/button';
-import { cn } from '../../lib/cn';
+import type { ReportShiftsView } from '@/domain/reports';
+import { buttonStyles } from '@/components/ui/button';
+import { cn } from '@/lib/cn';
 import type { PeriodChoice } from './params';
 
 const field = 'min-h-11 rounded-lg border border-steam-200 bg-white px-3 text-base text-ink-900';

@@ -1,9 +1,9 @@
 // The ticket history's columns. The sortable ones carry the server's sort names as their ids.
 import { createColumnHelper, type RowData } from '@tanstack/react-table';
-import { formatCents } from '../../domain/money';
-import { formatDuration } from '../../domain/format';
-import { type TicketHistoryRow } from '../../domain/reports';
-import { PAYMENT_METHOD_WORDS, PAYMENT_STATUS_WORDS, TICKET_STATUS_WORDS } from '../../domain/ticket-words';
+import { formatCents } from '@/domain/money';
+import { formatDuration } from '@/domain/format';
+import { type TicketHistoryRow } from '@/domain/reports';
+import { PAYMENT_METHOD_WORDS, PAYMENT_STATUS_WORDS, TICKET_STATUS_WORDS } from '@/domain/ticket-words';
 
 declare module '@tanstack/react-table' {
   // numeric columns are right-aligned (the generics must match the library's declaration)
@@ -12,7 +12,6 @@ declare module '@tanstack/react-table' {
     numeric?: boolean;
   }
 }
-
 
 export interface ColumnContext {
   currency: string;
@@ -26,7 +25,10 @@ const col = createColumnHelper<TicketHistoryRow>();
 
 export function ticketColumns(c: ColumnContext) {
   const money = (cents: number) => formatCents(cents, c.currency, c.locale);
-  const time = new Intl.DateTimeFormat(c.locale, c.multiDay ? { dateStyle: 'short', timeStyle: 'short', timeZone: c.timeZone } : { timeStyle: 'short', timeZone: c.timeZone });
+  const time = new Intl.DateTimeFormat(
+    c.locale,
+    c.multiDay ? { dateStyle: 'short', timeStyle: 'short', timeZone: c.timeZone } : { timeStyle: 'short', timeZone: c.timeZone },
+  );
   return [
     col.accessor('number', {
       id: 'number',

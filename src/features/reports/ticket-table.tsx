@@ -1,19 +1,19 @@
 // The ticket history: TanStack Table in manual mode, so the server sorts, filters and pages and
 // the table only draws. Its state lives in the URL (sort, dir, page, q, status); every change is a
 // navigation, and the route's loader fetches the page asked for.
-import { ScrollBox } from '../../components/ui/scroll-box';
+import { ScrollBox } from '@/components/ui/scroll-box';
 import { flexRender, getCoreRowModel, useReactTable, type SortingState, type Updater } from '@tanstack/react-table';
 import { useEffect, useEffectEvent, useMemo, useRef, useState } from 'react';
 import { Form, Link, useNavigate, useSearchParams } from 'react-router';
-import { formatCount, TICKET_SORTS, type TicketHistoryPage, type TicketSort } from '../../domain/reports';
-import { buttonStyles } from '../../components/ui/button';
-import { cn } from '../../lib/cn';
-import { queryString, type TicketHistoryParams } from '../../lib/reports-api';
-import { tdClass, thClass } from '../../components/report/report-breakdowns';
+import { formatCount, TICKET_SORTS, type TicketHistoryPage, type TicketSort } from '@/domain/reports';
+import { buttonStyles } from '@/components/ui/button';
+import { cn } from '@/lib/cn';
+import { queryString, type TicketHistoryParams } from '@/lib/reports-api';
+import { tdClass, thClass } from '@/components/report/report-breakdowns';
 import { ticketColumns, type ColumnContext } from './ticket-columns';
 import { withParams } from './params';
-import { plural } from '../../domain/plural';
-import { TICKET_STATUS_WORDS } from '../../domain/ticket-words';
+import { plural } from '@/domain/plural';
+import { TICKET_STATUS_WORDS } from '@/domain/ticket-words';
 
 /** the status filter's order: where a ticket is in the rush, then the ones set aside */
 const STATUS_ORDER = ['open', 'ready', 'collected', 'pending', 'void'] as const;
@@ -125,7 +125,11 @@ export function TicketTable({ page, params, context }: { page: TicketHistoryPage
                       className={cn(thClass, numeric && 'text-right')}
                     >
                       {header.column.getCanSort() ? (
-                        <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 uppercase underline-offset-4 hover:underline">
+                        <button
+                          type="button"
+                          onClick={header.column.getToggleSortingHandler()}
+                          className="inline-flex items-center gap-1 uppercase underline-offset-4 hover:underline"
+                        >
                           {flexRender(header.column.columnDef.header, header.getContext())}
                           <span aria-hidden className="w-3 text-ink-900">
                             {sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}
@@ -164,7 +168,9 @@ export function TicketTable({ page, params, context }: { page: TicketHistoryPage
 
       <nav aria-label="Ticket pages" className="mt-3 flex items-center gap-3 text-base">
         <span className="mr-auto text-ink-600" data-testid="ticket-count">
-          {formatCount(first, context.locale)}–{formatCount(last, context.locale)} of {plural(page.total, 'ticket', 'tickets', formatCount(page.total, context.locale))} · page {formatCount(page.page, context.locale)} of {formatCount(pageCount, context.locale)}
+          {formatCount(first, context.locale)}–{formatCount(last, context.locale)} of{' '}
+          {plural(page.total, 'ticket', 'tickets', formatCount(page.total, context.locale))} · page {formatCount(page.page, context.locale)} of{' '}
+          {formatCount(pageCount, context.locale)}
         </span>
         <PageLink to={pageLink(page.page - 1)} enabled={table.getCanPreviousPage()} label="Previous" />
         <PageLink to={pageLink(page.page + 1)} enabled={table.getCanNextPage()} label="Next" />
@@ -174,7 +180,12 @@ export function TicketTable({ page, params, context }: { page: TicketHistoryPage
 }
 
 function PageLink({ to, enabled, label }: { to: string; enabled: boolean; label: string }) {
-  if (!enabled) return <span className={cn(buttonStyles({ tone: 'quiet' }), 'cursor-not-allowed opacity-50')} aria-disabled="true">{label}</span>;
+  if (!enabled)
+    return (
+      <span className={cn(buttonStyles({ tone: 'quiet' }), 'cursor-not-allowed opacity-50')} aria-disabled="true">
+        {label}
+      </span>
+    );
   return (
     <Link to={to} replace preventScrollReset className={buttonStyles({ tone: 'quiet' })}>
       {label}

@@ -2,17 +2,17 @@
 // menu records ingredients, so a switch rewrites nothing; choosing the other list shows, per milk,
 // item and extra, what it contains under the current list and under the new one, and the owner
 // confirms with the section's save.
-import { ScrollBox } from '../../components/ui/scroll-box';
+import { ScrollBox } from '@/components/ui/scroll-box';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
 import { z } from 'zod';
-import type { AllergenSwitchPreview, MenuEntryKind } from '../../domain/allergen-switch';
-import { allergensOf, type AllergenList } from '../../domain/allergens';
-import { ALLERGEN_CAUTION } from '../../domain/ingredients';
-import { SETTINGS_FIELDS, type SettingsPage } from '../../domain/settings-schemas';
-import { Segmented } from '../../components/ui/segmented';
-import { settingsCommands } from '../../lib/settings-api';
+import type { AllergenSwitchPreview, MenuEntryKind } from '@/domain/allergen-switch';
+import { allergensOf, type AllergenList } from '@/domain/allergens';
+import { ALLERGEN_CAUTION } from '@/domain/ingredients';
+import { SETTINGS_FIELDS, type SettingsPage } from '@/domain/settings-schemas';
+import { Segmented } from '@/components/ui/segmented';
+import { settingsCommands } from '@/lib/settings-api';
 import { SettingsSection, type SaveStatus } from './section';
 import { showServerErrors } from './server-errors';
 import { useSettingsCommand } from './use-settings-command';
@@ -33,7 +33,12 @@ function SwitchPreview({ preview }: { preview: AllergenSwitchPreview }) {
   const th = 'border-b-2 border-steam-200 px-2 py-1 text-left text-sm font-semibold tracking-wide text-ink-600 uppercase';
   const td = 'border-b border-steam-200 px-2 py-2 align-top';
   return (
-    <div role="group" aria-label={`What the ${to} list changes`} className="flex flex-col gap-3 rounded-xl border-2 border-ink-900 p-4" data-testid="allergen-switch">
+    <div
+      role="group"
+      aria-label={`What the ${to} list changes`}
+      className="flex flex-col gap-3 rounded-xl border-2 border-ink-900 p-4"
+      data-testid="allergen-switch"
+    >
       <p className="text-lg font-semibold">
         {changed.length === 0
           ? `Every milk, item and extra reads the same on the ${to} list.`
@@ -103,7 +108,10 @@ export function AllergensSection({ page }: { page: SettingsPage }) {
       saveLabel={switching ? `Switch to the ${chosen} list` : 'Save'}
       onSubmit={form.handleSubmit((v) => {
         setStatus(null);
-        save.mutate({ allergenList: v.allergenList }, { onError: (e) => setStatus({ ok: false, text: showServerErrors(e, form.setError, { allergenList: 'allergenList' }) }) });
+        save.mutate(
+          { allergenList: v.allergenList },
+          { onError: (e) => setStatus({ ok: false, text: showServerErrors(e, form.setError, { allergenList: 'allergenList' }) }) },
+        );
       })}
     >
       <Controller

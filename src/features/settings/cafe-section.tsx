@@ -4,9 +4,9 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { cafeNameField, localeField, timeZoneField, type SettingsView } from '../../domain/settings-schemas';
-import { settingsCommands } from '../../lib/settings-api';
-import { useHydrated } from '../../lib/use-hydrated';
+import { cafeNameField, localeField, timeZoneField, type SettingsView } from '@/domain/settings-schemas';
+import { settingsCommands } from '@/lib/settings-api';
+import { useHydrated } from '@/lib/use-hydrated';
 import { Field, SettingsSection, type SaveStatus } from './section';
 import { showServerErrors } from './server-errors';
 import { useSettingsCommand } from './use-settings-command';
@@ -38,7 +38,9 @@ export function CafeSection({ settings }: { settings: SettingsView }) {
       saving={save.isPending}
       onSubmit={form.handleSubmit((v) => {
         setStatus(null);
-        save.mutate(v, { onError: (e) => setStatus({ ok: false, text: showServerErrors(e, form.setError, { name: 'name', timeZone: 'timeZone', locale: 'locale' }) }) });
+        save.mutate(v, {
+          onError: (e) => setStatus({ ok: false, text: showServerErrors(e, form.setError, { name: 'name', timeZone: 'timeZone', locale: 'locale' }) }),
+        });
       })}
     >
       <Field label="Café name" error={errors.name?.message}>

@@ -3,11 +3,11 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { formatCents, parseAmountToCents, taxCents } from '../../domain/money';
-import { currencyField, currencyProblem, EXTRA_SHOT_MAX_CENTS, percentToMilli, SETTINGS_FIELDS, type SettingsView } from '../../domain/settings-schemas';
-import { Segmented } from '../../components/ui/segmented';
-import { cn } from '../../lib/cn';
-import { settingsCommands } from '../../lib/settings-api';
+import { formatCents, parseAmountToCents, taxCents } from '@/domain/money';
+import { currencyField, currencyProblem, EXTRA_SHOT_MAX_CENTS, percentToMilli, SETTINGS_FIELDS, type SettingsView } from '@/domain/settings-schemas';
+import { Segmented } from '@/components/ui/segmented';
+import { cn } from '@/lib/cn';
+import { settingsCommands } from '@/lib/settings-api';
 import { Field, SettingsSection, type SaveStatus } from './section';
 import { showServerErrors } from './server-errors';
 import { useSettingsCommand } from './use-settings-command';
@@ -17,10 +17,13 @@ const moneyForm = z.object({
   currency: currencyField,
   taxMode: SETTINGS_FIELDS.taxMode,
   taxRatePercent: z.string().refine((v) => percentToMilli(v) !== null, 'A percent from 0 to 100 with up to 3 decimals, like 8.25'),
-  extraShot: z.string().refine((v) => {
-    const cents = parseAmountToCents(v);
-    return cents !== null && cents <= EXTRA_SHOT_MAX_CENTS;
-  }, `An amount from 0 to ${EXTRA_SHOT_MAX_CENTS / 100}, like 1.00`),
+  extraShot: z.string().refine(
+    (v) => {
+      const cents = parseAmountToCents(v);
+      return cents !== null && cents <= EXTRA_SHOT_MAX_CENTS;
+    },
+    `An amount from 0 to ${EXTRA_SHOT_MAX_CENTS / 100}, like 1.00`,
+  ),
 });
 type MoneyForm = z.input<typeof moneyForm>;
 
@@ -71,7 +74,15 @@ export function MoneySection({ settings }: { settings: SettingsView }) {
     >
       <div className="grid gap-4 sm:grid-cols-3">
         <Field label="Currency" help="ISO 4217 code, e.g. USD, EUR, GBP" error={errors.currency?.message}>
-          {(p) => <input {...p} {...form.register('currency', { setValueAs: (v: string) => v.toUpperCase() })} maxLength={3} spellCheck={false} className={cn(p.className, 'uppercase')} />}
+          {(p) => (
+            <input
+              {...p}
+              {...form.register('currency', { setValueAs: (v: string) => v.toUpperCase() })}
+              maxLength={3}
+              spellCheck={false}
+              className={cn(p.className, 'uppercase')}
+            />
+          )}
         </Field>
         <Field label="Tax rate (%)" help="Up to 3 decimals: 8.25 or 8.875" error={errors.taxRatePercent?.message}>
           {(p) => <input {...p} {...form.register('taxRatePercent')} inputMode="decimal" />}

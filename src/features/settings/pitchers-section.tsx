@@ -5,11 +5,11 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { defaultMinFillMl, PITCHER_CAPACITY_ML, pitcherBody, type PitcherBody, type PitcherView, type SettingsPage } from '../../domain/settings-schemas';
-import { exactUsFlOz, type VolumeUnit } from '../../domain/units';
-import { Button } from '../../components/ui/button';
-import { cn } from '../../lib/cn';
-import { settingsCommands } from '../../lib/settings-api';
+import { defaultMinFillMl, PITCHER_CAPACITY_ML, pitcherBody, type PitcherBody, type PitcherView, type SettingsPage } from '@/domain/settings-schemas';
+import { exactUsFlOz, type VolumeUnit } from '@/domain/units';
+import { Button } from '@/components/ui/button';
+import { cn } from '@/lib/cn';
+import { settingsCommands } from '@/lib/settings-api';
 import { Field, SaveStatusText, type SaveStatus } from './section';
 import { showServerErrors } from './server-errors';
 import { useSettingsCommand } from './use-settings-command';
@@ -32,7 +32,8 @@ function fillLineNote(capacityMl: number, fillLineMl: number, foamyPct: number):
       warn: true,
       text: `The fill line is the brim. Cold milk goes to just below the base of the spout, leaving room to grow when steamed; the jug plan fills this pitcher to at most ${foamyMax} ml for a foamy jug.`,
     };
-  if (fillLineMl > foamyMax) return { warn: false, text: `Foamy milk grows about ${foamyPct} %: for a foamy jug the plan fills this pitcher to at most ${foamyMax} ml.` };
+  if (fillLineMl > foamyMax)
+    return { warn: false, text: `Foamy milk grows about ${foamyPct} %: for a foamy jug the plan fills this pitcher to at most ${foamyMax} ml.` };
   return null;
 }
 
@@ -63,7 +64,10 @@ function PitcherForm({
     (body: PitcherBody) => (pitcher ? settingsCommands.updatePitcher(pitcher.id, body) : settingsCommands.addPitcher(body)),
     done(pitcher ? 'Pitcher saved — open Bars plan with it now' : 'Pitcher added — open Bars plan with it now'),
   );
-  const remove = useSettingsCommand(() => settingsCommands.removePitcher(pitcher!.id), () => report({ ok: true, text: 'Pitcher removed' }));
+  const remove = useSettingsCommand(
+    () => settingsCommands.removePitcher(pitcher!.id),
+    () => report({ ok: true, text: 'Pitcher removed' }),
+  );
   const fail = (e: unknown) => report({ ok: false, text: showServerErrors(e, form.setError, SERVER_FIELDS) });
   const errors = form.formState.errors;
   const capacity = form.watch('capacityMl');
@@ -85,7 +89,13 @@ function PitcherForm({
     >
       <Field
         label="Capacity (ml)"
-        help={Number.isFinite(capacity) && capacity > 0 ? (unit === 'us_floz' ? exactUsFlOz(capacity) : `${PITCHER_CAPACITY_ML.min}–${PITCHER_CAPACITY_ML.max} ml`) : `${PITCHER_CAPACITY_ML.min}–${PITCHER_CAPACITY_ML.max} ml`}
+        help={
+          Number.isFinite(capacity) && capacity > 0
+            ? unit === 'us_floz'
+              ? exactUsFlOz(capacity)
+              : `${PITCHER_CAPACITY_ML.min}–${PITCHER_CAPACITY_ML.max} ml`
+            : `${PITCHER_CAPACITY_ML.min}–${PITCHER_CAPACITY_ML.max} ml`
+        }
         error={errors.capacityMl?.message}
       >
         {(p) => <input {...p} {...form.register('capacityMl', number)} inputMode="numeric" className={cn(p.className, 'w-32')} />}
@@ -123,7 +133,11 @@ function PitcherForm({
         )}
       </div>
       {note && (
-        <p data-testid="fill-line-note" role={note.warn ? 'alert' : undefined} className={cn('basis-full text-base', note.warn ? 'font-semibold text-copper-700' : 'text-ink-600')}>
+        <p
+          data-testid="fill-line-note"
+          role={note.warn ? 'alert' : undefined}
+          className={cn('basis-full text-base', note.warn ? 'font-semibold text-copper-700' : 'text-ink-600')}
+        >
           {note.warn && <span aria-hidden>⚠ </span>}
           {note.text}
         </p>
@@ -141,10 +155,10 @@ export function PitchersSection({ page }: { page: SettingsPage }) {
         Pitchers
       </h2>
       <p className="text-base text-ink-600">
-        The jug plan takes the smallest pitcher that holds a jug: its cold milk at or under the fill line and at or over the minimum, and
-        that milk, grown as it is steamed, still inside the pitcher. The fill line is the cold milk that still leaves room to stretch it: by
-        common practice just below the base of the spout, about half to two-thirds of the capacity. The minimum covers the steam tip,
-        about a third. A jug whose drinks need less is poured at the minimum, the rest shown as waste. Measure your own.
+        The jug plan takes the smallest pitcher that holds a jug: its cold milk at or under the fill line and at or over the minimum, and that milk, grown as it
+        is steamed, still inside the pitcher. The fill line is the cold milk that still leaves room to stretch it: by common practice just below the base of the
+        spout, about half to two-thirds of the capacity. The minimum covers the steam tip, about a third. A jug whose drinks need less is poured at the minimum,
+        the rest shown as waste. Measure your own.
       </p>
       <div className="divide-y divide-steam-200">
         {pitchers.map((p) => (

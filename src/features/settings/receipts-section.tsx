@@ -4,9 +4,9 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { PICKUP_TIMEOUT_SECONDS, RECEIPT_FOOTER_MAX, type SettingsView } from '../../domain/settings-schemas';
-import { cn } from '../../lib/cn';
-import { settingsCommands } from '../../lib/settings-api';
+import { PICKUP_TIMEOUT_SECONDS, RECEIPT_FOOTER_MAX, type SettingsView } from '@/domain/settings-schemas';
+import { cn } from '@/lib/cn';
+import { settingsCommands } from '@/lib/settings-api';
 import { Field, SettingsSection, type SaveStatus } from './section';
 import { showServerErrors } from './server-errors';
 import { useSettingsCommand } from './use-settings-command';
@@ -46,7 +46,10 @@ export function ReceiptsSection({ settings }: { settings: SettingsView }) {
         setStatus(null);
         save.mutate(
           { receiptFooter: v.receiptFooter, pickupTimeoutSeconds: v.pickupMinutes * 60 },
-          { onError: (e) => setStatus({ ok: false, text: showServerErrors(e, form.setError, { receiptFooter: 'receiptFooter', pickupTimeoutSeconds: 'pickupMinutes' }) }) },
+          {
+            onError: (e) =>
+              setStatus({ ok: false, text: showServerErrors(e, form.setError, { receiptFooter: 'receiptFooter', pickupTimeoutSeconds: 'pickupMinutes' }) }),
+          },
         );
       })}
     >

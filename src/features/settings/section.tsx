@@ -1,7 +1,7 @@
 // A settings section: a card with its title, what it changes, its fields and one save button,
 // and the answer of its last save in words (never colour alone).
 import { useId, type FormEventHandler, type ReactNode } from 'react';
-import { Button } from '../../components/ui/button';
+import { Button } from '@/components/ui/button';
 
 export type SaveStatus = { ok: true; text: string } | { ok: false; text: string } | null;
 
@@ -61,17 +61,7 @@ interface InputProps {
 }
 
 /** A labelled input with its help and its error beside it (described by both, named by the label). */
-export function Field({
-  label,
-  help,
-  error,
-  children,
-}: {
-  label: string;
-  help?: ReactNode;
-  error?: string;
-  children: (props: InputProps) => ReactNode;
-}) {
+export function Field({ label, help, error, children }: { label: string; help?: ReactNode; error?: string; children: (props: InputProps) => ReactNode }) {
   const id = useId();
   const described = [help ? `${id}-help` : '', error ? `${id}-error` : ''].filter(Boolean).join(' ') || undefined;
   return (

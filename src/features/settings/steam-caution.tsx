@@ -1,8 +1,8 @@
 // The Bar's standing caution line, in the café's temperature unit (wording: src/domain/cautions.ts).
 import { useQuery } from '@tanstack/react-query';
-import { barCaution } from '../../domain/cautions';
-import { useApi } from '../../lib/api-context';
-import { menuQuery } from '../../queries/menu';
+import { barCaution } from '@/domain/cautions';
+import { useApi } from '@/lib/api-context';
+import { menuQuery } from '@/queries/menu';
 
 /**
  * It reads the unit from the menu (the board snapshot carries none); until the menu has loaded —

@@ -1,22 +1,15 @@
 // Units: what cup sizes and temperatures read in. Display only — sizes, recipes and pitchers
 // stay in millilitres — so the preview shows every cup size on the menu in the chosen unit.
-import { ScrollBox } from '../../components/ui/scroll-box';
+import { ScrollBox } from '@/components/ui/scroll-box';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { hotMilkNote } from '../../domain/cautions';
-import { SETTINGS_FIELDS, type SettingsPage } from '../../domain/settings-schemas';
-import {
-  cupSizeLabel,
-  exactUsFlOz,
-  TEMPERATURE_UNIT_LABEL,
-  TEMPERATURE_UNITS,
-  VOLUME_UNIT_LABEL,
-  VOLUME_UNITS,
-} from '../../domain/units';
-import { Segmented } from '../../components/ui/segmented';
-import { settingsCommands } from '../../lib/settings-api';
+import { hotMilkNote } from '@/domain/cautions';
+import { SETTINGS_FIELDS, type SettingsPage } from '@/domain/settings-schemas';
+import { cupSizeLabel, exactUsFlOz, TEMPERATURE_UNIT_LABEL, TEMPERATURE_UNITS, VOLUME_UNIT_LABEL, VOLUME_UNITS } from '@/domain/units';
+import { Segmented } from '@/components/ui/segmented';
+import { settingsCommands } from '@/lib/settings-api';
 import { SettingsSection, type SaveStatus } from './section';
 import { showServerErrors } from './server-errors';
 import { useSettingsCommand } from './use-settings-command';
@@ -26,7 +19,10 @@ type UnitsForm = z.infer<typeof unitsForm>;
 
 export function UnitsSection({ page }: { page: SettingsPage }) {
   const { settings, cupSizes } = page;
-  const form = useForm<UnitsForm>({ resolver: zodResolver(unitsForm), defaultValues: { volumeUnit: settings.volumeUnit, temperatureUnit: settings.temperatureUnit } });
+  const form = useForm<UnitsForm>({
+    resolver: zodResolver(unitsForm),
+    defaultValues: { volumeUnit: settings.volumeUnit, temperatureUnit: settings.temperatureUnit },
+  });
   const [status, setStatus] = useState<SaveStatus>(null);
   const save = useSettingsCommand(settingsCommands.update, (p) => {
     form.reset({ volumeUnit: p.settings.volumeUnit, temperatureUnit: p.settings.temperatureUnit });
@@ -49,7 +45,12 @@ export function UnitsSection({ page }: { page: SettingsPage }) {
         control={form.control}
         name="volumeUnit"
         render={({ field }) => (
-          <Segmented label="Cup sizes in" value={field.value} onChange={field.onChange} options={VOLUME_UNITS.map((u) => ({ value: u, label: VOLUME_UNIT_LABEL[u] }))} />
+          <Segmented
+            label="Cup sizes in"
+            value={field.value}
+            onChange={field.onChange}
+            options={VOLUME_UNITS.map((u) => ({ value: u, label: VOLUME_UNIT_LABEL[u] }))}
+          />
         )}
       />
       <div>
@@ -79,8 +80,7 @@ export function UnitsSection({ page }: { page: SettingsPage }) {
         </ScrollBox>
         {volume === 'us_floz' && (
           <p className="mt-1 text-sm text-ink-600">
-            US fluid ounces of 29.5735 ml, rounded to the nearest half ounce as cups are sold (12 oz is 354.9 ml) — not the 30 ml ounce of
-            nutrition labels.
+            US fluid ounces of 29.5735 ml, rounded to the nearest half ounce as cups are sold (12 oz is 354.9 ml) — not the 30 ml ounce of nutrition labels.
           </p>
         )}
       </div>

@@ -1,13 +1,13 @@
 // Add a person: name, sign-in name, e-mail and role; they get an invitation link by mail.
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Controller, useForm } from 'react-hook-form';
-import { ROLES } from '../../domain/roles';
-import { LINK_HOURS, newPersonBody, type NewPersonBody } from '../../domain/team-schemas';
-import { Button } from '../../components/ui/button';
-import { FieldError } from '../../components/ui/field-error';
-import { Segmented } from '../../components/ui/segmented';
-import { ApiError } from '../../lib/http';
-import { useHydrated } from '../../lib/use-hydrated';
+import { ROLES } from '@/domain/roles';
+import { LINK_HOURS, newPersonBody, type NewPersonBody } from '@/domain/team-schemas';
+import { Button } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
+import { Segmented } from '@/components/ui/segmented';
+import { ApiError } from '@/lib/http';
+import { useHydrated } from '@/lib/use-hydrated';
 import type { TeamCommand, TeamResult } from './commands';
 
 const field = 'mt-1 w-full rounded-lg border border-steam-200 bg-white px-3 py-2.5 text-lg';
@@ -72,7 +72,12 @@ export function AddPersonForm({ run, onDone }: { run(c: TeamCommand): Promise<Te
           control={form.control}
           name="role"
           render={({ field: f }) => (
-            <Segmented label="Role" value={f.value} onChange={f.onChange} options={ROLES.map((r) => ({ value: r, label: r[0].toUpperCase() + r.slice(1), hint: ROLE_HINTS[r] }))} />
+            <Segmented
+              label="Role"
+              value={f.value}
+              onChange={f.onChange}
+              options={ROLES.map((r) => ({ value: r, label: r[0].toUpperCase() + r.slice(1), hint: ROLE_HINTS[r] }))}
+            />
           )}
         />
       </div>

@@ -1,8 +1,8 @@
 // The owner's team commands. Each answers with what changed; the list is refetched after.
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { LinkPurpose, NewPersonBody, PersonPatchBody, TeamMember } from '../../domain/team-schemas';
-import { http } from '../../lib/http';
-import { teamKeys } from '../../queries/team';
+import type { LinkPurpose, NewPersonBody, PersonPatchBody, TeamMember } from '@/domain/team-schemas';
+import { http } from '@/lib/http';
+import { teamKeys } from '@/queries/team';
 
 export type TeamCommand =
   | { kind: 'add'; body: NewPersonBody }

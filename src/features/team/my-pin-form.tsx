@@ -3,10 +3,10 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { PIN_MAX_DIGITS, PIN_MIN_DIGITS, pinSchema } from '../../domain/team-schemas';
-import { Button } from '../../components/ui/button';
-import { FieldError } from '../../components/ui/field-error';
-import { ApiError, http } from '../../lib/http';
+import { PIN_MAX_DIGITS, PIN_MIN_DIGITS, pinSchema } from '@/domain/team-schemas';
+import { Button } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
+import { ApiError, http } from '@/lib/http';
 
 const schema = z
   .object({ password: z.string().min(1, 'Enter your password').max(200), pin: pinSchema, again: z.string() })
@@ -33,7 +33,14 @@ export function MyPinForm({ onDone, onCancel }: { onDone(message: string): void;
       <label htmlFor="my-password" className="block text-base font-semibold">
         Your password
       </label>
-      <input id="my-password" type="password" autoComplete="current-password" aria-invalid={!!errors.password} className={field} {...form.register('password')} />
+      <input
+        id="my-password"
+        type="password"
+        autoComplete="current-password"
+        aria-invalid={!!errors.password}
+        className={field}
+        {...form.register('password')}
+      />
       <FieldError message={errors.password?.message} />
       <label htmlFor="my-pin" className="mt-3 block text-base font-semibold">
         New PIN ({PIN_MIN_DIGITS}–{PIN_MAX_DIGITS} digits)

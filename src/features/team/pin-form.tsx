@@ -2,10 +2,10 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { PIN_MAX_DIGITS, PIN_MIN_DIGITS, pinSchema, type TeamMember } from '../../domain/team-schemas';
-import { Button } from '../../components/ui/button';
-import { FieldError } from '../../components/ui/field-error';
-import { ApiError } from '../../lib/http';
+import { PIN_MAX_DIGITS, PIN_MIN_DIGITS, pinSchema, type TeamMember } from '@/domain/team-schemas';
+import { Button } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
+import { ApiError } from '@/lib/http';
 import type { TeamCommand, TeamResult } from './commands';
 
 const schema = z.object({ pin: pinSchema });

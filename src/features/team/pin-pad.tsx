@@ -1,8 +1,8 @@
 // A PIN pad for a touch terminal: big digit buttons over a masked field that a keyboard can type
 // into too (digits, Backspace, Enter).
 import { useEffect, useRef } from 'react';
-import { PIN_MAX_DIGITS } from '../../domain/team-schemas';
-import { cn } from '../../lib/cn';
+import { PIN_MAX_DIGITS } from '@/domain/team-schemas';
+import { cn } from '@/lib/cn';
 
 interface Props {
   value: string;

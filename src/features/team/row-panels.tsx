@@ -2,10 +2,10 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import type { TeamMember } from '../../domain/team-schemas';
-import { Button } from '../../components/ui/button';
-import { FieldError } from '../../components/ui/field-error';
-import { ApiError } from '../../lib/http';
+import type { TeamMember } from '@/domain/team-schemas';
+import { Button } from '@/components/ui/button';
+import { FieldError } from '@/components/ui/field-error';
+import { ApiError } from '@/lib/http';
 import type { TeamCommand, TeamResult } from './commands';
 
 interface PanelProps {
@@ -35,7 +35,13 @@ export function EmailForm({ member, run, onDone, onCancel }: PanelProps) {
         <label htmlFor={id} className="block text-base font-semibold">
           E-mail of {member.name} (for invitation and reset links)
         </label>
-        <input id={id} type="email" aria-invalid={!!errors.email} className="mt-1 w-80 rounded-lg border border-steam-200 bg-white px-3 py-2 text-lg" {...form.register('email')} />
+        <input
+          id={id}
+          type="email"
+          aria-invalid={!!errors.email}
+          className="mt-1 w-80 rounded-lg border border-steam-200 bg-white px-3 py-2 text-lg"
+          {...form.register('email')}
+        />
         <FieldError message={errors.email?.message ?? errors.root?.message} />
       </div>
       <div className="mt-7 flex gap-2">
@@ -62,8 +68,8 @@ export function DeactivateConfirm({ member, run, onDone, onCancel, isYou }: Pane
   return (
     <div className="flex flex-wrap items-center gap-3">
       <p className="text-lg">
-        Deactivate <strong>{member.name}</strong>? {isYou ? 'You will be signed out at once. ' : ''}They are signed out on every screen and
-        can't sign in or switch in by PIN. Their past orders and bumps keep their name.
+        Deactivate <strong>{member.name}</strong>? {isYou ? 'You will be signed out at once. ' : ''}They are signed out on every screen and can't sign in or
+        switch in by PIN. Their past orders and bumps keep their name.
       </p>
       <div className="flex gap-2">
         <Button onClick={deactivate}>Yes, deactivate</Button>

@@ -1,14 +1,14 @@
 // Who is signed in, the other screens their role opens, and sign out.
 import { useQuery } from '@tanstack/react-query';
 import { Link, useLocation } from 'react-router';
-import { can } from '../../domain/roles';
-import { SCREENS } from '../../domain/screens';
-import { sessionQuery } from '../../queries/session';
+import { can } from '@/domain/roles';
+import { SCREENS } from '@/domain/screens';
+import { sessionQuery } from '@/queries/session';
 import { SwitchPersonButton } from './switch-person-button';
-import { useApi } from '../../lib/api-context';
-import { cn } from '../../lib/cn';
-import { signOut } from '../../lib/http';
-import { confirmLeave } from '../../lib/leave-guard';
+import { useApi } from '@/lib/api-context';
+import { cn } from '@/lib/cn';
+import { signOut } from '@/lib/http';
+import { confirmLeave } from '@/lib/leave-guard';
 
 const MENU = [
   SCREENS.counter,
@@ -35,9 +35,18 @@ export function StaffMenu({ dark = false }: { dark?: boolean }) {
     if (confirmLeave()) void signOut();
   };
   return (
-    <nav aria-label="Screens" className={cn('flex max-w-full flex-wrap items-center gap-x-3 gap-y-2 text-base whitespace-nowrap', dark ? 'text-crema-300' : 'text-ink-600')}>
+    <nav
+      aria-label="Screens"
+      className={cn('flex max-w-full flex-wrap items-center gap-x-3 gap-y-2 text-base whitespace-nowrap', dark ? 'text-crema-300' : 'text-ink-600')}
+    >
       {MENU.filter((s) => s.path !== here && can(user.role, s.need)).map((s) => (
-        <Link key={s.path} to={s.path} reloadDocument onClick={(e) => confirmLeave() || e.preventDefault()} className="whitespace-nowrap underline underline-offset-4">
+        <Link
+          key={s.path}
+          to={s.path}
+          reloadDocument
+          onClick={(e) => confirmLeave() || e.preventDefault()}
+          className="whitespace-nowrap underline underline-offset-4"
+        >
           {s.label}
         </Link>
       ))}

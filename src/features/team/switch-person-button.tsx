@@ -1,7 +1,7 @@
 // The staff menu's "Switch person" control. The dialog (PIN pad, the own-PIN form with its form
 // and schema libraries) loads on the first tap, so it weighs nothing on the Bar and the Counter.
 import { lazy, Suspense, useState } from 'react';
-import { confirmLeave } from '../../lib/leave-guard';
+import { confirmLeave } from '@/lib/leave-guard';
 
 const SwitchDialog = lazy(() => import('./switch-person').then((m) => ({ default: m.SwitchDialog })));
 

@@ -2,15 +2,15 @@
 // (a new session; the screen stays if your role may see it, else your home screen).
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
-import type { SwitchPerson } from '../../domain/team-schemas';
-import { Button } from '../../components/ui/button';
-import { useModalFocus } from '../../components/ui/use-modal-focus';
-import type { PublicUser } from '../../lib/api';
-import { useApi } from '../../lib/api-context';
-import { ApiError, holdReads, http, leavePage } from '../../lib/http';
+import type { SwitchPerson } from '@/domain/team-schemas';
+import { Button } from '@/components/ui/button';
+import { useModalFocus } from '@/components/ui/use-modal-focus';
+import type { PublicUser } from '@/lib/api';
+import { useApi } from '@/lib/api-context';
+import { ApiError, holdReads, http, leavePage } from '@/lib/http';
 import { MyPinForm } from './my-pin-form';
 import { PinPad } from './pin-pad';
-import { switchPeopleQuery } from '../../queries/team';
+import { switchPeopleQuery } from '@/queries/team';
 import { screenAfterSwitch } from './switch-target';
 
 export function SwitchDialog({ onClose }: { onClose(): void }) {

@@ -1,7 +1,7 @@
 // Where a terminal goes after a PIN switch: it stays on the screen if the new person's role may
 // see it, else it goes to their home screen.
-import { can, HOME_SCREEN, type Role } from '../../domain/roles';
-import { SCREENS } from '../../domain/screens';
+import { can, HOME_SCREEN, type Role } from '@/domain/roles';
+import { SCREENS } from '@/domain/screens';
 
 function matches(pattern: string, pathname: string): boolean {
   const a = pattern.split('/');

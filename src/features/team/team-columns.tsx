@@ -1,9 +1,9 @@
 // The Team table's columns: who, role, e-mail, account state, PIN, and what the owner can do.
 import { createColumnHelper } from '@tanstack/react-table';
-import { ROLES, type Role } from '../../domain/roles';
-import type { TeamMember } from '../../domain/team-schemas';
-import { Button } from '../../components/ui/button';
-import { cn } from '../../lib/cn';
+import { ROLES, type Role } from '@/domain/roles';
+import type { TeamMember } from '@/domain/team-schemas';
+import { Button } from '@/components/ui/button';
+import { cn } from '@/lib/cn';
 
 export type RowPanel = 'pin' | 'email' | 'deactivate';
 

@@ -2,10 +2,10 @@
 // deactivation to confirm.
 import { flexRender, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { Fragment, useMemo, useState } from 'react';
-import type { Role } from '../../domain/roles';
-import type { TeamMember, TeamView } from '../../domain/team-schemas';
-import { LINK_HOURS } from '../../domain/team-schemas';
-import { ApiError } from '../../lib/http';
+import type { Role } from '@/domain/roles';
+import type { TeamMember, TeamView } from '@/domain/team-schemas';
+import { LINK_HOURS } from '@/domain/team-schemas';
+import { ApiError } from '@/lib/http';
 import type { TeamCommand, TeamResult } from './commands';
 import { PinForm } from './pin-form';
 import { DeactivateConfirm, EmailForm } from './row-panels';
@@ -38,7 +38,8 @@ export function TeamTable({ view, busy, run, notify }: Props) {
     youId: view.youId,
     busy,
     format: (iso) => formatter.format(new Date(iso)),
-    setRole: (m: TeamMember, role: Role) => attempt({ kind: 'patch', id: m.id, body: { role } }, () => `${m.name} is now ${role === 'owner' ? 'an' : 'a'} ${role}.`),
+    setRole: (m: TeamMember, role: Role) =>
+      attempt({ kind: 'patch', id: m.id, body: { role } }, () => `${m.name} is now ${role === 'owner' ? 'an' : 'a'} ${role}.`),
     sendLink: (m: TeamMember) =>
       attempt({ kind: 'link', id: m.id, purpose: m.awaitingPassword ? 'invite' : 'reset' }, (r) =>
         r.kind === 'link'
