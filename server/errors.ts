@@ -102,6 +102,10 @@ export function errorHandler(err: unknown, req: Request, res: Response, _next: N
     res.status(e.status).json({ error: { code: 'validation_failed', message } });
     return;
   }
-  console.error(err);
+  // into the request's own log line (pino-http's req.log: its request id, level error), so a 500 can
+  // be traced from the answer's log line to its stack; outside a logged request, to stderr
+  const log = (req as { log?: { error(obj: object, msg: string): void } }).log;
+  if (log) log.error({ err }, 'unexpected error');
+  else console.error(err);
   res.status(500).json({ error: { code: 'internal', message: 'Something went wrong on our side' } });
 }

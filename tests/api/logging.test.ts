@@ -4,6 +4,7 @@ import { randomBytes, randomUUID } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
+import type { Knex } from 'knex';
 import request from 'supertest';
 import { afterAll, describe, expect, it } from 'vitest';
 import { createLogger } from '@server/logging';
@@ -14,6 +15,8 @@ import { sessionCookieOf } from './helpers';
 const lines: string[] = [];
 const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-logs-'));
 let close: (() => Promise<void>) | undefined;
+let runningUrl = '';
+let runningDb: Knex;
 afterAll(async () => {
   await close?.();
   rmSync(dir, { recursive: true, force: true });
@@ -27,6 +30,8 @@ describe('request logs', () => {
       { pages: 'none', log: () => {}, logger },
     );
     close = running.close;
+    runningUrl = running.url;
+    runningDb = running.db;
     const agent = request.agent(running.url);
     await agent.post('/api/session').send({ username: 'cashier', password: 'not-the-one-9f3' }).expect(401);
     const signedIn = await agent.post('/api/session').send({ username: 'cashier', password: DEMO_PASSWORD }).expect(200);
@@ -54,5 +59,23 @@ describe('request logs', () => {
     for (const secret of [DEMO_PASSWORD, 'not-the-one-9f3', sid, rawSessionId, 'pm_card_visa', 'Xan Poole']) {
       expect(log).not.toContain(secret);
     }
+  });
+
+  it('log an unexpected error with its stack under the request id, not on stderr', async () => {
+    lines.length = 0;
+    const agent = request.agent(runningUrl);
+    await agent.post('/api/session').send({ username: 'owner', password: DEMO_PASSWORD }).expect(200);
+    await runningDb.schema.renameTable('pitchers', 'pitchers_away'); // a fault the code does not expect
+    try {
+      const res = await agent.get('/api/settings').set('x-request-id', 'trace-me-500');
+      expect(res.status).toBe(500);
+      expect(res.body.error.code).toBe('internal');
+    } finally {
+      await runningDb.schema.renameTable('pitchers_away', 'pitchers');
+    }
+    const entries = lines.map((l) => JSON.parse(l));
+    const failure = entries.find((e) => e.msg === 'unexpected error');
+    expect(failure).toMatchObject({ level: 50, req: { id: 'trace-me-500' } });
+    expect(failure.err.stack).toMatch(/pitchers/);
   });
 });
