@@ -17,7 +17,7 @@ export interface OrderTemplate {
   order: Record<string, unknown>;
   items: Record<string, unknown>[];
   payments: Record<string, unknown>[];
-  event: { type: string; payload: { ticket: Record<string, any> } };
+  event: { type: string; payload: { ticket: Record<string, unknown> & { drinks: Record<string, unknown>[] } } };
   /** Jugline's answer to the POST, sent back the same size. */
   response: { order: Record<string, unknown> };
 }

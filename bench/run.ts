@@ -153,7 +153,7 @@ async function readTemplates(target: string, h: Harness, bodies: OrderBody[]): P
     const fired = rawRows<{ type: string; payload: unknown }>(await db.raw("select type, payload from events where type = 'order.fired'"));
     const payloads = fired.map((e) => ({
       type: e.type,
-      payload: (typeof e.payload === 'string' ? JSON.parse(e.payload) : e.payload) as { ticket: { id: number } },
+      payload: (typeof e.payload === 'string' ? JSON.parse(e.payload) : e.payload) as OrderTemplate['event']['payload'],
     }));
     return await Promise.all(
       bodies.map(async (body, variant) => {

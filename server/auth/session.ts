@@ -15,6 +15,7 @@ import { dialectOf, jsonNumberSql, jsonSetNumbersSql } from '@server/db/dialect'
 import { bool } from '@server/db/rows';
 import { hashPassword, verifyPassword } from './passwords';
 import { createSessionStore } from './session-store';
+import type { Row } from '@server/db/tables';
 
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
@@ -178,7 +179,7 @@ export async function endSession(db: Knex, sid: string): Promise<void> {
   await db('sessions').where({ sid }).delete();
 }
 
-const toSessionUser = (u: Record<string, any>): SessionUser => ({
+const toSessionUser = (u: Row<'users'>): SessionUser => ({
   id: u.id,
   name: u.name,
   role: u.role,

@@ -7,6 +7,7 @@ import { freshnessOf } from '@/domain/freshness';
 import { bool } from '@server/db/rows';
 import { openShiftOf } from '@server/shifts/shifts';
 import type { Db } from '@server/db/knex';
+import type { Row } from '@server/db/tables';
 
 /** The run-out pace looks back a week of café days; a little more covers a DST change. */
 const PACE_LOOKBACK_MS = 9 * 86_400_000;
@@ -28,7 +29,7 @@ export async function loadBeanSettings(db: Db, locationId: number): Promise<Bean
   };
 }
 
-export function toShotView(r: Record<string, any>): DialInShotView {
+export function toShotView(r: Row<'dial_in_shots'> & { pulled_by_name: string }): DialInShotView {
   return {
     id: r.id,
     lotId: r.lot_id,

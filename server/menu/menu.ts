@@ -6,6 +6,7 @@ import { bool, json } from '@server/db/rows';
 import { notFound } from '@server/domain-errors';
 import { photoUrlOf } from './item-photos';
 import type { Db } from '@server/db/knex';
+import type { Row } from '@server/db/tables';
 
 export async function loadLocation(db: Db, locationId: number): Promise<LocationView> {
   const l = await db('locations').where({ id: locationId }).first();
@@ -47,7 +48,7 @@ export async function loadJugRules(db: Db, locationId: number): Promise<JugRules
 }
 
 /** An item_sizes row as the screens see it (the Counter's menu and the back-office editor). */
-export const sizeView = (s: Record<string, any>) => ({
+export const sizeView = (s: Row<'item_sizes'>) => ({
   id: s.id as number,
   name: s.name as string,
   volumeMl: s.volume_ml as number,

@@ -5,8 +5,9 @@ import { containing, containsSql, dialectOf } from '@server/db/dialect';
 import type { Db } from '@server/db/knex';
 import { json } from '@server/db/rows';
 import type { Deps } from '@server/deps';
+import type { Row } from '@server/db/tables';
 
-export function toOrderView(o: Record<string, any>, items: Record<string, any>[], payment?: Record<string, any>, takenBy?: string): OrderView {
+export function toOrderView(o: Row<'orders'>, items: Row<'order_items'>[], payment?: Pick<Row<'payments'>, 'provider_id'>, takenBy?: string): OrderView {
   return {
     id: o.id,
     clientOrderId: o.client_order_id,

@@ -17,7 +17,7 @@ import { median, summarizeWaits } from '@/domain/stats';
 import { businessDate } from '@/domain/business-date';
 import { localHourSql } from './local-hours';
 import { moneyView, PAID, type ReportLocation } from './scope';
-import { HAS_WAIT, n, waitSeconds } from './sql';
+import { HAS_WAIT, n, waitSeconds, type LineRow, type MoneyRow, type WaitRow } from './sql';
 
 const OVER_TARGET_LIMIT = 20;
 const TOP_ITEMS = 10;
@@ -87,7 +87,7 @@ export async function computeDays(db: Knex, location: ReportLocation, from: stri
     return row;
   };
 
-  const money: Record<string, any>[] = rawRows(
+  const money = rawRows<MoneyRow & { d: string }>(
     await db.raw(
       `SELECT o.business_date AS d, ${hour.sql} AS hour, COUNT(*) AS orders, SUM(o.total_cents) AS gross, SUM(o.tax_cents) AS tax,
          SUM(o.discount_cents) AS discount, SUM(o.refunded_cents) AS refunds,
@@ -108,7 +108,7 @@ export async function computeDays(db: Knex, location: ReportLocation, from: stri
   }
 
   const made = `i.station = 'bar' AND i.status = 'done'`;
-  const lines: Record<string, any>[] = rawRows(
+  const lines = rawRows<LineRow & { d: string }>(
     await db.raw(
       `SELECT o.business_date AS d, i.item_name AS item, i.milk_name AS milk, i.station AS station, ${hour.sql} AS hour,
          SUM(CASE WHEN ${PAID} THEN 1 ELSE 0 END) AS sold, SUM(CASE WHEN ${PAID} THEN i.price_cents ELSE 0 END) AS cents,
@@ -159,7 +159,7 @@ export async function computeDays(db: Knex, location: ReportLocation, from: stri
     else p.waitHours.push(r.h, 1);
   }
 
-  const longest: Record<string, any>[] = rawRows(
+  const longest = rawRows<Omit<WaitRow, 'business_date'> & { d: string }>(
     await db.raw(
       `SELECT d, id, number, customer_name, w FROM (
          SELECT o.business_date AS d, o.id, o.number, o.customer_name, ${waitSeconds(dialectOf(db))} AS w,

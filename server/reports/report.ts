@@ -9,7 +9,7 @@ import { median, summarizeWaits } from '@/domain/stats';
 import { datesBetween, mergeDays, rangeDays } from './days';
 import { localHour, localHourSql } from './local-hours';
 import { moneyView, PAID, rangeScope, shiftScope, type MoneyTotals, type Scope } from './scope';
-import { HAS_WAIT, n, waitSeconds } from './sql';
+import { HAS_WAIT, n, waitSeconds, type LineRow, type MoneyRow, type WaitRow } from './sql';
 
 const OVER_TARGET_LIMIT = 20;
 const TOP_ITEMS = 10;
@@ -48,7 +48,7 @@ function hourRow(hours: Hours, hour: number): HourRow {
 /** Paid orders by hour: counts and money, summed again here over at most 24 rows. */
 async function moneyByHour(db: Knex, s: Scope, hours: Hours) {
   const hour = hourSql(db, s);
-  const rows: Record<string, any>[] = rawRows(
+  const rows = rawRows<MoneyRow>(
     await db.raw(
       `SELECT ${hour.sql} AS hour, COUNT(*) AS orders, SUM(o.total_cents) AS gross, SUM(o.tax_cents) AS tax,
          SUM(o.discount_cents) AS discount, SUM(o.refunded_cents) AS refunds,
@@ -75,7 +75,7 @@ async function moneyByHour(db: Knex, s: Scope, hours: Hours) {
 async function lineTotals(db: Knex, s: Scope, hours: Hours) {
   const hour = hourSql(db, s);
   const made = `i.station = 'bar' AND i.status = 'done'`;
-  const rows: Record<string, any>[] = rawRows(
+  const rows = rawRows<LineRow>(
     await db.raw(
       `SELECT i.item_name AS item, i.milk_name AS milk, i.station AS station, ${hour.sql} AS hour,
          SUM(CASE WHEN ${PAID} THEN 1 ELSE 0 END) AS sold, SUM(CASE WHEN ${PAID} THEN i.price_cents ELSE 0 END) AS cents,
@@ -134,7 +134,7 @@ async function waitTimes(db: Knex, s: Scope, hours: Hours): Promise<number[]> {
 }
 
 async function overTarget(db: Knex, s: Scope): Promise<OverTargetTicket[]> {
-  const rows: Record<string, any>[] = rawRows(
+  const rows = rawRows<WaitRow>(
     await db.raw(
       `SELECT o.id, o.business_date, o.number, o.customer_name, ${waitSeconds(dialectOf(db))} AS w
        FROM orders o WHERE ${s.where} AND ${HAS_WAIT} AND ${waitSeconds(dialectOf(db))} > ?

@@ -1,4 +1,5 @@
 // SQL pieces shared by the report and the ticket history (orders aliased `o`).
+import type { Station } from '@/domain/types';
 import { type Dialect, secondsBetweenSql } from '@server/db/dialect';
 
 /** Fired → ready in seconds, to the millisecond (timestamps are ISO strings). */
@@ -17,6 +18,43 @@ export const HAS_WAIT = `o.status <> 'void' AND o.fired_at IS NOT NULL AND o.rea
  * recall clears it), so lists sort on an index instead of working it out for every order.
  */
 export const waitOfOrder = (d: Dialect) => `CASE WHEN o.fired_at IS NOT NULL AND o.ready_at IS NOT NULL AND ${HAS_BAR_DRINK} THEN ${waitSeconds(d)} END`;
+
+/** A SUM or COUNT as it comes back: a number or null (SQLite), text for big integers (PostgreSQL). */
+export type Sum = number | string | null;
+
+/** One row of the paid-money totals (per hour, and per day in the rollups). */
+export interface MoneyRow {
+  hour: Sum;
+  orders: Sum;
+  gross: Sum;
+  tax: Sum;
+  discount: Sum;
+  refunds: Sum;
+  cash_orders: Sum;
+  cash_cents: Sum;
+}
+
+/** One row of the line totals: sold (paid orders) and made (drinks done) per item, milk, station and hour. */
+export interface LineRow {
+  item: string;
+  milk: string | null;
+  station: Station;
+  hour: Sum;
+  sold: Sum;
+  cents: Sum;
+  milk_ml: Sum;
+  shots: Sum;
+  dose_dg: Sum;
+}
+
+/** A ticket with its wait in seconds (`w`), for the longest waits. */
+export interface WaitRow {
+  id: number;
+  business_date: string;
+  number: number;
+  customer_name: string;
+  w: Sum;
+}
 
 /** Sums come back as numbers or null (SQLite) or as text for big integers (PostgreSQL); reports want numbers, 0 for "none". */
 export const n = (v: unknown): number => (v === null || v === undefined ? 0 : Number(v));

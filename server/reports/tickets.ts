@@ -3,7 +3,8 @@ import type { Knex } from 'knex';
 import { caseFoldedSql, containing, containsSql, type Dialect, dialectOf, rawRows } from '@server/db/dialect';
 import type { TicketHistoryPage, TicketHistoryRow, TicketSort } from '@/domain/reports';
 import type { TicketStatus } from '@/domain/types';
-import { BAR_DRINKS } from './sql';
+import { BAR_DRINKS, type Sum } from './sql';
+import type { Row } from '@server/db/tables';
 
 export interface TicketFilter {
   /** café-local dates, both included; left out: no bound */
@@ -57,7 +58,23 @@ function whereOf(d: Dialect, locationId: number, f: TicketFilter): { sql: string
   return { sql: parts.join(' AND '), bindings };
 }
 
-function toRow(r: Record<string, any>): TicketHistoryRow {
+/** A ticket of the history: its order's columns, its wait and its count of bar drinks. */
+type HistoryRow = Pick<
+  Row<'orders'>,
+  | 'id'
+  | 'business_date'
+  | 'number'
+  | 'customer_name'
+  | 'status'
+  | 'payment_status'
+  | 'payment_method'
+  | 'total_cents'
+  | 'refunded_cents'
+  | 'created_at'
+  | 'ready_at'
+> & { wait: Sum | undefined; drinks: Sum };
+
+function toRow(r: HistoryRow): TicketHistoryRow {
   return {
     id: r.id,
     businessDate: r.business_date,
@@ -85,7 +102,7 @@ export async function ticketRows(db: Knex, locationId: number, q: Omit<TicketQue
   const key = (k: string) => (q.sort === 'customer' ? caseFoldedSql(dialectOf(db), k) : k);
   // Tickets without a wait sort after those with one, whichever the direction; ties by order id.
   const orderBy = (k: string, id: string) => `${q.sort === 'wait' ? `${k} IS NULL, ` : ''}${key(k)} ${dir}, ${id} ${dir}`;
-  const rows: Record<string, any>[] = rawRows(
+  const rows = rawRows<HistoryRow>(
     await db.raw(
       `WITH p AS (
          SELECT o.id AS id, ${SORT_SQL[q.sort]} AS k FROM orders o WHERE ${where.sql}

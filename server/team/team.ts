@@ -12,8 +12,9 @@ import { runCommand } from '@server/events';
 import { createLink, mailLink, mailUnavailable, voidLinks } from './invitations';
 import { signOutEverywhere } from './sessions';
 import type { Db } from '@server/db/knex';
+import type { Row } from '@server/db/tables';
 
-function toMember(u: Record<string, any>, link: Record<string, any> | undefined, now: Date): TeamMember {
+function toMember(u: Row<'users'>, link: Row<'invitations'> | undefined, now: Date): TeamMember {
   return {
     id: u.id,
     name: u.name,

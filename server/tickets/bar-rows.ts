@@ -3,7 +3,7 @@
 // the command's transaction.
 import type { Knex } from 'knex';
 import { byAge } from '@/domain/lanes';
-import type { SessionUser, TicketEventType } from '@/domain/types';
+import type { SessionUser, TicketEventType, TicketStatus } from '@/domain/types';
 import { dialectOf } from '@server/db/dialect';
 import { json } from '@server/db/rows';
 import { conflict, notFound } from '@server/domain-errors';
@@ -11,8 +11,20 @@ import { recordCoffeeUse } from '@server/beans/usage';
 import { appendEvent, lockCafe } from '@server/events';
 import { waitOfOrder } from '@server/reports/sql';
 import { loadTicket } from './ticket-views';
+import type { JsonColumn, Row } from '@server/db/tables';
 
-export type DrinkRow = Record<string, any>;
+/** A drink a command names, with the ticket fields the command checks. */
+export type DrinkRow = Row<'order_items'> & {
+  order_status: TicketStatus;
+  order_allergens: JsonColumn;
+  allergy_note: string | null;
+  fired_at: string | null;
+  order_created_at: string;
+  rushed_at: string | null;
+  order_number: number;
+  customer_name: string;
+  done_by_name: string | null;
+};
 
 /**
  * The bar drinks a command names, each checked: in this café, on an open ticket. Read under the

@@ -2,15 +2,34 @@
 import type { DrinkView, JugRef, TicketView } from '@/domain/types';
 import { bool, json } from '@server/db/rows';
 import type { Db } from '@server/db/knex';
+import type { Flag, Row } from '@server/db/tables';
+import type { SteamedTexture } from '@/domain/jug-plan';
 
-function toDrink(r: Record<string, any>): DrinkView {
+/** A bar drink as loadTickets reads it: its row, who acted on it, and its started jug if any. */
+type DrinkRow = Row<'order_items'> & {
+  ack_by_name: string | null;
+  started_by_name: string | null;
+  done_by_name: string | null;
+  milk_sort: number | null;
+  jug_id: number | null;
+  jug_capacity_ml: number;
+  jug_fill_line_ml: number;
+  jug_min_fill_ml: number;
+  jug_cold_ml: number;
+  jug_waste_ml: number;
+  jug_steam_for: SteamedTexture;
+  jug_fits: Flag;
+};
+
+function toDrink(r: DrinkRow): DrinkView {
   return {
     id: r.id,
     ticketId: r.order_id,
     itemName: r.item_name,
     sizeName: r.size_name,
     volumeMl: r.volume_ml,
-    milk: r.milk_id ? { id: r.milk_id, name: r.milk_name, code: r.milk_code, sort: r.milk_sort ?? 0 } : null,
+    // a line's milk name and code are stored with its milk id (order-item-row.ts)
+    milk: r.milk_id ? { id: r.milk_id, name: r.milk_name!, code: r.milk_code!, sort: r.milk_sort ?? 0 } : null,
     shots: r.shots,
     milkMl: r.milk_ml,
     texture: r.texture,
@@ -30,7 +49,7 @@ function toDrink(r: Record<string, any>): DrinkView {
 }
 
 /** The started jug a drink row was joined with (jug_* columns), or null. */
-function jugOf(r: Record<string, any>): JugRef | null {
+function jugOf(r: DrinkRow): JugRef | null {
   if (r.jug_id == null) return null;
   return {
     id: r.jug_id,
@@ -42,7 +61,7 @@ function jugOf(r: Record<string, any>): JugRef | null {
   };
 }
 
-export async function loadTickets(db: Db, orders: Record<string, any>[]): Promise<TicketView[]> {
+export async function loadTickets(db: Db, orders: Row<'orders'>[]): Promise<TicketView[]> {
   if (orders.length === 0) return [];
   const drinks = await db('order_items')
     .leftJoin('users', 'users.id', 'order_items.allergy_ack_by')
@@ -109,7 +128,7 @@ export async function loadBoardTickets(db: Db, locationId: number, nowMs: number
     db('orders').where({ location_id: locationId, status: 'open' }),
     db('orders').where({ location_id: locationId, status: 'ready' }).andWhere('ready_at', '>', readySince),
   ]);
-  const byFired = (a: Record<string, any>, b: Record<string, any>) =>
+  const byFired = (a: Row<'orders'>, b: Row<'orders'>) =>
     (a.fired_at ?? '') < (b.fired_at ?? '') ? -1 : (a.fired_at ?? '') > (b.fired_at ?? '') ? 1 : a.id - b.id;
   return loadTickets(db, [...open, ...ready].sort(byFired));
 }

@@ -11,6 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { dialectOf, rawRows, secondsBetweenSql } from '@server/db/dialect';
 import { createDb } from '@server/db/knex';
 import { createEmptyDatabase } from '../support/test-database';
+import type { Row } from '@server/db/tables';
 import { generateHistory, HistoryRefused } from '@scripts/history';
 import type { HistorySummary } from '@scripts/history/generate';
 
@@ -68,7 +69,7 @@ function ssutaTaxCents(amountCents: number, rateMilliPct: number): number {
 describe('the days', () => {
   it('cover the 14 café days ending yesterday, one closed shift each, opened 06:30 and closed 15:00 local', async () => {
     expect(first).toMatchObject({ days: 14, skippedDays: 0, firstDate: '2026-03-02', lastDate: '2026-03-15' });
-    const shifts = await all<Record<string, any>>('SELECT * FROM shifts ORDER BY opened_at');
+    const shifts = await all<Row<'shifts'>>('SELECT * FROM shifts ORDER BY opened_at');
     expect(shifts).toHaveLength(14);
     // EST (UTC−5) before 8 March, EDT (UTC−4) from it
     expect(shifts[0]).toMatchObject({ opened_at: '2026-03-02T11:30:00.000Z', closed_at: '2026-03-02T20:00:00.000Z' });
@@ -78,7 +79,7 @@ describe('the days', () => {
       const saturday = weekdayOf(`2026-03-${String(2 + i).padStart(2, '0')}`) === 6;
       expect(s).toMatchObject({ opened_by: lead, closed_by: lead, opening_float_cents: 150_00, wait_target_seconds: 240 });
       expect(s.baristas_on_bar).toBe(saturday ? 3 : 2);
-      expect(Math.abs(s.counted_cash_cents - s.expected_cash_cents)).toBeLessThan(10);
+      expect(Math.abs(s.counted_cash_cents! - s.expected_cash_cents!)).toBeLessThan(10); // a closed shift has both
       const cash = await one<{ taken: number; back: number }>(
         `SELECT (SELECT COALESCE(SUM(p.amount_cents), 0) FROM payments p JOIN orders o ON o.id = p.order_id
                  WHERE o.shift_id = ? AND p.method = 'cash' AND p.status = 'succeeded') AS taken,
@@ -138,7 +139,12 @@ describe('the orders', () => {
   });
 
   it('are paid once each, about 65 % by card, cash with its change', async () => {
-    const rows = await all<Record<string, any>>(
+    type Paid = Pick<Row<'orders'>, 'total_cents' | 'payment_method'> &
+      Pick<Row<'payments'>, 'method' | 'status' | 'amount_cents' | 'tendered_cents' | 'change_cents' | 'provider_id'> & {
+        o_tendered: number | null;
+        o_change: number | null;
+      };
+    const rows = await all<Paid>(
       `SELECT o.total_cents, o.payment_method, o.tendered_cents AS o_tendered, o.change_cents AS o_change, p.method,
               p.status, p.amount_cents, p.tendered_cents, p.change_cents, p.provider_id
        FROM orders o JOIN payments p ON p.order_id = o.id`,
@@ -153,7 +159,7 @@ describe('the orders', () => {
         expect([r.tendered_cents, r.o_tendered]).toEqual([null, null]);
       } else {
         expect(r.tendered_cents).toBeGreaterThanOrEqual(r.total_cents);
-        expect([r.o_tendered, r.change_cents, r.o_change]).toEqual([r.tendered_cents, r.tendered_cents - r.total_cents, r.change_cents]);
+        expect([r.o_tendered, r.change_cents, r.o_change]).toEqual([r.tendered_cents, r.tendered_cents! - r.total_cents, r.change_cents]);
       }
     }
     const card = rows.filter((r) => r.method === 'card').length / rows.length;
