@@ -4,6 +4,7 @@
 import { execFileSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { postgresBin } from '@server/db/postgres-tools';
+import { REDIS_SERVER } from '@scripts/services/redis';
 
 interface Need {
   /** The Debian package. */
@@ -26,6 +27,7 @@ const NEEDS: Need[] = [
       }
     },
   },
+  { pkg: 'redis-server', why: 'the live events across processes (a throwaway redis-server per test file)', present: () => existsSync(REDIS_SERVER) },
 ];
 
 const missing = NEEDS.filter((n) => !n.present());

@@ -42,6 +42,11 @@ const envSchema = z.object({
     .optional(),
   // unset: a `media` folder beside the database file (item photos)
   MEDIA_DIR: z.string().min(1).optional(),
+  // set: live events reach the screens of every process through Redis (several processes)
+  REDIS_URL: z
+    .string()
+    .regex(/^rediss?:\/\/./, 'use redis://host:6379 or redis://:password@host:6379/0')
+    .optional(),
 });
 
 export interface Config {
@@ -67,6 +72,8 @@ export interface Config {
   stripeWebhookSecret?: string;
   /** Uploaded item photos; unset (as in tests that build a Config by hand): see mediaDirOf. */
   mediaDir?: string;
+  /** redis://… : live events travel between processes (server/realtime/redis-hub.ts). */
+  redisUrl?: string;
   /** SQLite's busy timeout; unset: 5 s (db/knex.ts). Only tests shorten it, to wait less per refusal. */
   dbBusyTimeoutMs?: number;
 }
@@ -108,6 +115,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     stripeSecretKey: e.STRIPE_SECRET_KEY,
     stripeWebhookSecret: e.STRIPE_WEBHOOK_SECRET,
     mediaDir: e.MEDIA_DIR ? path.resolve(e.MEDIA_DIR) : undefined,
+    redisUrl: e.REDIS_URL,
   };
 }
 

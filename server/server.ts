@@ -19,6 +19,7 @@ import { startPayments } from './payments/start';
 import { WEBHOOK_PATH } from './orders/routes';
 import type { SignInPacing } from './auth/routes';
 import { developmentPages, productionPages } from './ssr/pages';
+import { createRedisHub } from './realtime/redis-hub';
 
 export interface RunningServer {
   url: string;
@@ -77,6 +78,9 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
   mkdirSync(mediaDir, { recursive: true });
   const mail = await startMail({ smtpUrl: config.smtpUrl, db, clock: opts.clock, log });
   const payments = await startPayments({ secretKey: config.stripeSecretKey, webhookSecret: config.stripeWebhookSecret, log, clock: opts.clock });
+  // several processes: events travel through Redis; one process: the in-process hub (app.ts)
+  const hub = config.redisUrl ? createRedisHub(config.redisUrl, db, (m) => console.warn(m)) : undefined;
+  await hub?.ready;
   const { app, deps, sessionMiddleware, routes } = createApp({
     db,
     config,
@@ -88,6 +92,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
     logger: opts.logger ?? appLogger(config),
     mediaDir,
     signInPacing: opts.signInPacing,
+    hub,
   });
   server.on('request', app);
   const sockets = attachSocketServer(server, deps, sessionMiddleware);
@@ -110,6 +115,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
       await pages?.close();
       await mail.close();
       await payments.close();
+      await hub?.close();
       await db.destroy();
     })());
   return { url, server, db, deps, routes, sockets, payments: { webhookSecret: payments.webhookSecret, fake: payments.fake }, close };

@@ -16,6 +16,7 @@ export type DemoLogin = 'owner' | 'lead' | 'cashier' | 'barista' | 'barista2';
 
 export interface TestServer extends RunningServer {
   dir: string;
+  config: Config;
   /** Where its data is: the SQLite file, or the postgres:// URL on the PostgreSQL leg. */
   databaseTarget: string;
   /** A supertest agent with its own cookie jar, signed in as the demo person. */
@@ -41,20 +42,26 @@ export async function startTestServer(
     signInPacing?: SignInPacing;
     /** a real SMTP server instead of the local fake */
     smtpUrl?: string;
+    /** live events through this Redis (several processes) instead of the in-process hub */
+    redisUrl?: string;
+    /** a second process of the same café: that server's database and session secret */
+    sharing?: TestServer;
   } = {},
 ): Promise<TestServer> {
-  const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-test-'));
-  const database = await createTestDatabase();
+  const dir = opts.sharing?.dir ?? mkdtempSync(path.join(os.tmpdir(), 'jugline-test-'));
+  // the first server of a database owns it (and drops it); one sharing it leaves it alone
+  const database = opts.sharing ? { databaseUrl: opts.sharing.config.databaseUrl, drop: async () => {} } : await createTestDatabase();
   const config: Config = {
     env: 'test',
     port: 0,
     host: '127.0.0.1',
-    databaseFile: path.join(dir, 'jugline.sqlite'),
+    databaseFile: opts.sharing?.config.databaseFile ?? path.join(dir, 'jugline.sqlite'),
     databaseUrl: database.databaseUrl,
-    sessionSecret: randomBytes(32).toString('hex'),
+    sessionSecret: opts.sharing?.config.sessionSecret ?? randomBytes(32).toString('hex'),
     seedDemo: true,
     dbBusyTimeoutMs: opts.dbBusyTimeoutMs,
     smtpUrl: opts.smtpUrl,
+    redisUrl: opts.redisUrl,
   };
   const running = await startServer(config, {
     pages: opts.pages ?? 'none',
@@ -80,13 +87,14 @@ export async function startTestServer(
   return {
     ...running,
     dir,
+    config,
     databaseTarget: database.databaseUrl ?? config.databaseFile,
     signIn,
     cookieFor,
     close: async () => {
       await running.close();
       await database.drop();
-      rmSync(dir, { recursive: true, force: true });
+      if (!opts.sharing) rmSync(dir, { recursive: true, force: true });
     },
   };
 }

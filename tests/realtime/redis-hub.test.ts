@@ -1,0 +1,114 @@
+// Several processes of one café share live events through Redis (server/realtime/redis-hub.ts):
+// three servers on one database and one real redis-server (Debian's, on a loopback port). Orders
+// taken on two of them at once reach a Bar on the third, every event once, in sequence order, as
+// the events table has them — also when a publish is lost and when Redis restarts mid-rush.
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
+import type { LiveEvent } from '@/domain/types';
+import { appendMenuChangedEvent, latestSeq, runCommand } from '@server/events';
+import type { Hub } from '@server/realtime/hub';
+import { startRedis, type RedisServer } from '@scripts/services/redis';
+import { startTestServer, type TestServer } from '../support/test-server';
+import { demoLines, demoLocationId, fireOrder, loggedEvents } from './bar-actions';
+import { closeAllSockets, connectAndResume, type LiveClient } from './ws-client';
+
+let redis: RedisServer;
+let a: TestServer;
+let b: TestServer;
+let c: TestServer;
+let locationId: number;
+
+beforeAll(async () => {
+  redis = await startRedis();
+  a = await startTestServer({ redisUrl: redis.url });
+  b = await startTestServer({ redisUrl: redis.url, sharing: a });
+  c = await startTestServer({ redisUrl: redis.url, sharing: a });
+  locationId = await demoLocationId(a);
+});
+afterEach(() => closeAllSockets());
+afterAll(async () => {
+  for (const server of [c, b, a]) await server?.close();
+  await redis?.stop();
+});
+
+/** Events the screen receives until it has seen `last`; every one of them, in arrival order. */
+async function eventsUntil(client: LiveClient, last: number): Promise<LiveEvent[]> {
+  for (;;) {
+    const seen = client.events();
+    if (seen.length > 0 && seen[seen.length - 1].seq >= last) return seen;
+    await client.nextEvent();
+  }
+}
+
+/** The screen got exactly the table's events after `from`, in order, each once. */
+async function expectContiguous(received: LiveEvent[], from: number, to: number) {
+  const seqs = received.map((e) => e.seq);
+  expect(seqs).toEqual(Array.from({ length: to - from }, (_, i) => from + 1 + i));
+  const table = (await loggedEvents(a, locationId)).filter((e) => e.seq > from && e.seq <= to);
+  expect(received.map((e) => [e.seq, e.type])).toEqual(table.map((e) => [e.seq, e.type]));
+}
+
+describe('live events across processes', () => {
+  it('orders taken on two processes at once reach a Bar on a third: every event, in order, once', async () => {
+    // the Bar resumes from where the café is now; everything after comes live
+    const { client: bar, hello } = await connectAndResume(c.url, await c.cookieFor('barista'));
+    const start = hello.seq;
+    const lines = await demoLines(a);
+    const [counterA, counterB] = [await a.signIn('cashier'), await b.signIn('cashier')];
+    await Promise.all(
+      Array.from({ length: 12 }, (_, i) => fireOrder(i % 2 ? counterA : counterB, `Guest ${i + 1}`, [i % 3 ? lines.latte() : lines.flatWhite()])),
+    );
+    const end = await latestSeq(a.db, locationId);
+    expect(end - start).toBe(12);
+    await expectContiguous(
+      (await eventsUntil(bar, end)).filter((e) => e.seq > start),
+      start,
+      end,
+    );
+  });
+
+  it('a publish that never reaches Redis is filled from the events table, in its place', async () => {
+    const { client: bar, hello } = await connectAndResume(b.url, await b.cookieFor('barista'));
+    const start = hello.seq;
+    const counter = await a.signIn('cashier');
+    const lines = await demoLines(a);
+    // once this order's event is on the Bar, its socket is live: what follows comes only live
+    await fireOrder(counter, 'Before the gap', [lines.espresso()]);
+    await eventsUntil(bar, start + 1);
+    // a command whose event is committed but never published (as if the process died right then)
+    const silent: Hub = { publish: () => {}, subscribe: () => () => {} };
+    await runCommand({ ...a.deps, hub: silent }, async (trx) => ({
+      result: null,
+      events: [await appendMenuChangedEvent(trx, locationId, new Date().toISOString(), null)],
+    }));
+    // the next event does travel, and shows the gap to the Bar's process
+    await fireOrder(counter, 'After the gap', [lines.espresso()]);
+    const end = await latestSeq(a.db, locationId);
+    expect(end - start).toBe(3);
+    await expectContiguous(
+      (await eventsUntil(bar, end)).filter((e) => e.seq > start),
+      start,
+      end,
+    );
+  });
+
+  it('Redis down mid-rush loses nothing: what was taken meanwhile reaches the Bar once Redis is back', async () => {
+    const { client: bar, hello } = await connectAndResume(c.url, await c.cookieFor('barista'));
+    const start = hello.seq;
+    const lines = await demoLines(a);
+    const counter = await a.signIn('cashier');
+    for (let i = 0; i < 3; i++) await fireOrder(counter, `Before ${i + 1}`, [lines.latte()]);
+    await eventsUntil(bar, start + 3); // live now
+    await redis.down();
+    // taken while Redis is away: committed, published to nobody
+    for (let i = 0; i < 3; i++) await fireOrder(counter, `Meanwhile ${i + 1}`, [lines.flatWhite()]);
+    await redis.up();
+    // nothing more is taken: only the Bar's process catching up from the table can bring these
+    const end = await latestSeq(a.db, locationId);
+    expect(end - start).toBe(6);
+    await expectContiguous(
+      (await eventsUntil(bar, end)).filter((e) => e.seq > start),
+      start,
+      end,
+    );
+  });
+});
