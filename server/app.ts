@@ -35,6 +35,8 @@ export interface AppOptions {
   config: Pick<Config, 'sessionSecret' | 'env'> & Partial<Pick<Config, 'sessionIdleMinutes'>>;
   clock?: Clock;
   hub?: Hub;
+  /** Sign-outs and person switches; several processes share them through Redis (redis-hub.ts). */
+  sessions?: EventEmitter;
   /** Server-side rendering of the screens; left out by API-only tests. */
   pages?: PageRenderer;
   sessionCleanupIntervalMs?: number;
@@ -68,7 +70,7 @@ export function createApp(opts: AppOptions): App {
     hub: opts.hub ?? createInProcessHub(),
     payments: opts.payments ?? null,
     mailer: opts.mailer ?? null,
-    sessions: new EventEmitter(),
+    sessions: opts.sessions ?? new EventEmitter(),
   };
   const app = express();
   app.disable('x-powered-by');

@@ -93,6 +93,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
     mediaDir,
     signInPacing: opts.signInPacing,
     hub,
+    sessions: hub?.sessions,
   });
   server.on('request', app);
   const sockets = attachSocketServer(server, deps, sessionMiddleware);

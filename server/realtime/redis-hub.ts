@@ -3,6 +3,8 @@
 // without a gap or a repeat. Redis pub/sub delivers at most once (a publish made while a process
 // was disconnected is never seen again), so the events table stays the truth: each process keeps,
 // per café, the last sequence it delivered, and fills any gap from the table before going on.
+import { randomUUID } from 'node:crypto';
+import { EventEmitter } from 'node:events';
 import { Redis } from 'ioredis';
 import type { Knex } from 'knex';
 import type { AnyLiveEvent } from '@/domain/types';
@@ -10,6 +12,9 @@ import { eventsSince, latestSeq } from '@server/events';
 import type { EventListener, Hub } from './hub';
 
 export const EVENTS_CHANNEL = 'jugline:events';
+/** Sign-outs and person switches ('signed-out', 'switched' with the session id). */
+export const SESSIONS_CHANNEL = 'jugline:sessions';
+const SESSION_NEWS = ['signed-out', 'switched'] as const;
 /** Events read from the table per fill; a café far behind takes several reads. */
 const FILL_BATCH = 500;
 
@@ -24,8 +29,14 @@ interface Cafe {
 }
 
 export interface RedisHub extends Hub {
-  /** Resolves once subscribed to the channel. */
+  /** Resolves once subscribed to the channels. */
   ready: Promise<void>;
+  /**
+   * Deps.sessions across processes: 'signed-out' and 'switched' emitted here reach this process's
+   * listeners at once and every other process's through Redis, so a sign-out on one process closes
+   * that session's screens on all of them.
+   */
+  sessions: EventEmitter;
   close(): Promise<void>;
 }
 
@@ -107,7 +118,31 @@ export function createRedisHub(url: string, db: Knex, log: (message: string) => 
     drain(locationId, cafe);
   }
 
+  // this process's own news comes back from Redis too: it is told apart by this tag
+  const origin = randomUUID();
+  const sessions = new EventEmitter();
+  const emitHere = sessions.emit.bind(sessions);
+  sessions.emit = (name: string | symbol, ...args: unknown[]) => {
+    const handled = emitHere(name, ...args);
+    if ((SESSION_NEWS as readonly (string | symbol)[]).includes(name)) {
+      publisher.publish(SESSIONS_CHANNEL, JSON.stringify({ origin, name, sid: args[0] })).catch((err: Error) => {
+        // the other processes' heartbeat finds the session gone within a minute (socket-server.ts)
+        log(`A sign-out could not be published to Redis: ${err.message}`);
+      });
+    }
+    return handled;
+  };
+
   subscriber.on('message', (channel: string, text: string) => {
+    if (channel === SESSIONS_CHANNEL) {
+      try {
+        const news = JSON.parse(text) as { origin: string; name: string; sid: string };
+        if (news.origin !== origin && (SESSION_NEWS as readonly string[]).includes(news.name)) emitHere(news.name, news.sid);
+      } catch {
+        log('A sign-out on Redis could not be read.');
+      }
+      return;
+    }
     if (channel !== EVENTS_CHANNEL) return;
     try {
       const { locationId, event } = JSON.parse(text) as { locationId: number; event: AnyLiveEvent };
@@ -125,12 +160,13 @@ export function createRedisHub(url: string, db: Knex, log: (message: string) => 
   });
   for (const connection of [publisher, subscriber]) connection.on('error', (err: Error) => log(`Redis: ${err.message}`));
   const ready = Promise.all([
-    subscriber.subscribe(EVENTS_CHANNEL),
+    subscriber.subscribe(EVENTS_CHANNEL, SESSIONS_CHANNEL),
     new Promise<void>((resolve) => (publisher.status === 'ready' ? resolve() : publisher.once('ready', () => resolve()))),
   ]).then(() => undefined);
 
   return {
     ready,
+    sessions,
     publish(locationId, event) {
       // this process's own screens at once; the echo from Redis is then a repeat and is dropped
       accept(locationId, event);

@@ -2,6 +2,7 @@
 // three servers on one database and one real redis-server (Debian's, on a loopback port). Orders
 // taken on two of them at once reach a Bar on the third, every event once, in sequence order, as
 // the events table has them — also when a publish is lost and when Redis restarts mid-rush.
+import request from 'supertest';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { LiveEvent } from '@/domain/types';
 import { appendMenuChangedEvent, latestSeq, runCommand } from '@server/events';
@@ -9,7 +10,7 @@ import type { Hub } from '@server/realtime/hub';
 import { startRedis, type RedisServer } from '@scripts/services/redis';
 import { startTestServer, type TestServer } from '../support/test-server';
 import { demoLines, demoLocationId, fireOrder, loggedEvents } from './bar-actions';
-import { closeAllSockets, connectAndResume, type LiveClient } from './ws-client';
+import { closeAllSockets, connect, connectAndResume, type LiveClient } from './ws-client';
 
 let redis: RedisServer;
 let a: TestServer;
@@ -110,5 +111,23 @@ describe('live events across processes', () => {
       start,
       end,
     );
+  });
+
+  it('signing out on one process closes that session’s screens on the others at once (4401)', async () => {
+    const cookie = await a.cookieFor('barista');
+    const onB = await connect(b.url, cookie);
+    const onC = await connect(c.url, cookie);
+    const bystander = await connect(c.url, await c.cookieFor('lead'));
+    for (const client of [onB, onC, bystander]) await client.next((m) => m.type === 'hello');
+    const closed = (client: LiveClient) => new Promise<number>((resolve) => client.socket.once('close', (code) => resolve(code)));
+    const [closedB, closedC] = [closed(onB), closed(onC)];
+    // the news itself reaches the other processes (their heartbeat would only notice later)
+    const told = (server: TestServer) => new Promise<unknown>((resolve) => server.deps.sessions.once('signed-out', resolve));
+    const [toldB, toldC] = [told(b), told(c)];
+    await request(a.url).delete('/api/session').set('Cookie', cookie).expect(204);
+    await Promise.all([toldB, toldC]);
+    expect(await Promise.all([closedB, closedC])).toEqual([4401, 4401]);
+    bystander.send({ type: 'ping' });
+    expect((await bystander.next((m) => m.type === 'pong')).type).toBe('pong');
   });
 });
