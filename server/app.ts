@@ -32,7 +32,7 @@ import type { PageRenderer } from './ssr/pages';
 
 export interface AppOptions {
   db: Knex;
-  config: Pick<Config, 'sessionSecret' | 'env'> & Partial<Pick<Config, 'sessionIdleMinutes'>>;
+  config: Pick<Config, 'sessionSecret' | 'env'> & Partial<Pick<Config, 'sessionIdleMinutes' | 'trustProxy'>>;
   clock?: Clock;
   hub?: Hub;
   /** Sign-outs and person switches; several processes share them through Redis (redis-hub.ts). */
@@ -74,7 +74,7 @@ export function createApp(opts: AppOptions): App {
   };
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  app.set('trust proxy', opts.config.trustProxy ?? 'loopback');
   if (opts.logger) app.use(requestLogger(opts.logger));
   app.use(securityHeaders(opts.config.env === 'production'));
 

@@ -42,6 +42,9 @@ const envSchema = z.object({
     .optional(),
   // unset: a `media` folder beside the database file (item photos)
   MEDIA_DIR: z.string().min(1).optional(),
+  // behind a load balancer: its address (or addresses, CIDRs), so a client's own address is read
+  // from X-Forwarded-For; unset: only a proxy on this machine (loopback) is trusted
+  TRUST_PROXY: z.string().min(1).optional(),
   // set: live events reach the screens of every process through Redis (several processes)
   REDIS_URL: z
     .string()
@@ -74,6 +77,8 @@ export interface Config {
   mediaDir?: string;
   /** redis://… : live events travel between processes (server/realtime/redis-hub.ts). */
   redisUrl?: string;
+  /** Express's `trust proxy`: the load balancer's address; unset: loopback. */
+  trustProxy?: string;
   /** SQLite's busy timeout; unset: 5 s (db/knex.ts). Only tests shorten it, to wait less per refusal. */
   dbBusyTimeoutMs?: number;
 }
@@ -116,7 +121,21 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     stripeWebhookSecret: e.STRIPE_WEBHOOK_SECRET,
     mediaDir: e.MEDIA_DIR ? path.resolve(e.MEDIA_DIR) : undefined,
     redisUrl: e.REDIS_URL,
+    trustProxy: e.TRUST_PROXY,
   };
+}
+
+/**
+ * What serving needs beyond loadConfig (the database commands don't): on PostgreSQL — a group of
+ * cafés, several processes — every process must sign session cookies with one SESSION_SECRET; a
+ * secret made up per machine would sign each process's visitors out on the next one.
+ */
+export function checkServeSettings(env: NodeJS.ProcessEnv = process.env): void {
+  if (env.DATABASE_URL && !env.SESSION_SECRET) {
+    throw new ConfigError(
+      'Jugline cannot start; fix these settings:\n  SESSION_SECRET: required with DATABASE_URL — the same value (32 characters or more) for every process',
+    );
+  }
 }
 
 /**

@@ -1,5 +1,5 @@
 // `npm run dev` and `npm start` land here.
-import { ConfigError, loadConfig } from './config';
+import { checkServeSettings, ConfigError, loadConfig } from './config';
 import { demoPasswordStillSet } from '@seeds/demo-cafe';
 import { DatabaseBehindError } from './db/migrate';
 import { guardProcess } from './process-guard';
@@ -9,6 +9,7 @@ async function main() {
   let config;
   try {
     config = loadConfig();
+    checkServeSettings();
   } catch (err) {
     if (err instanceof ConfigError) {
       console.error(err.message);

@@ -3,6 +3,7 @@
 // folder, stopped and removed afterwards. No running service, no password (trust on loopback).
 // initdb and postgres refuse to run as root, so as root they run as the `postgres` user.
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
 import { chownSync, mkdtempSync, rmSync } from 'node:fs';
 import net from 'node:net';
 import os from 'node:os';
@@ -131,7 +132,7 @@ if (process.argv[1] && import.meta.url === pathToFileURL(path.resolve(process.ar
   const cluster = await startCluster();
   await adminQuery(cluster.adminUrl, 'CREATE DATABASE jugline');
   console.log(
-    `PostgreSQL is up (a throwaway cluster; Ctrl-C stops and removes it). In another shell:\n\n  export DATABASE_URL=${cluster.urlOf('jugline')}\n  npm run db:seed && npm start\n`,
+    `PostgreSQL is up (a throwaway cluster; Ctrl-C stops and removes it). In another shell:\n\n  export DATABASE_URL=${cluster.urlOf('jugline')}\n  export SESSION_SECRET=${randomBytes(32).toString('hex')}\n  npm run db:seed && npm start\n`,
   );
   const stop = () => void cluster.stop().then(() => process.exit(0));
   process.once('SIGINT', stop);
