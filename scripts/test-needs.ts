@@ -4,6 +4,7 @@
 import { execFileSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { postgresBin } from '@server/db/postgres-tools';
+import { NGINX } from '@scripts/services/nginx';
 import { REDIS_SERVER } from '@scripts/services/redis';
 
 interface Need {
@@ -27,6 +28,7 @@ const NEEDS: Need[] = [
       }
     },
   },
+  { pkg: 'nginx', why: 'the load balancer in front of several processes (deploy/nginx.conf, on a loopback port)', present: () => existsSync(NGINX) },
   { pkg: 'redis-server', why: 'the live events across processes (a throwaway redis-server per test file)', present: () => existsSync(REDIS_SERVER) },
 ];
 

@@ -1,5 +1,6 @@
 // Several processes of one café share live events through Redis (server/realtime/redis-hub.ts):
-// three servers on one database and one real redis-server (Debian's, on a loopback port). Orders
+// three servers on one database and one real redis-server (Debian's, on a loopback port), and
+// Debian's nginx in front of them with deploy/nginx.conf. Orders
 // taken on two of them at once reach a Bar on the third, every event once, in sequence order, as
 // the events table has them — also when a publish is lost and when Redis restarts mid-rush.
 import request from 'supertest';
@@ -7,7 +8,9 @@ import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { LiveEvent } from '@/domain/types';
 import { appendMenuChangedEvent, latestSeq, runCommand } from '@server/events';
 import type { Hub } from '@server/realtime/hub';
+import { startNginx } from '@scripts/services/nginx';
 import { startRedis, type RedisServer } from '@scripts/services/redis';
+import { DEMO_PASSWORD } from '@seeds/demo-cafe';
 import { startTestServer, type TestServer } from '../support/test-server';
 import { demoLines, demoLocationId, fireOrder, loggedEvents } from './bar-actions';
 import { closeAllSockets, connect, connectAndResume, type LiveClient } from './ws-client';
@@ -129,5 +132,33 @@ describe('live events across processes', () => {
     expect(await Promise.all([closedB, closedC])).toEqual([4401, 4401]);
     bystander.send({ type: 'ping' });
     expect((await bystander.next((m) => m.type === 'pong')).type).toBe('pong');
+  });
+
+  it('behind nginx (deploy/nginx.conf as it is): orders and a Bar through one address, every event in order', async () => {
+    const nginx = await startNginx([a, b, c].map((s) => Number(new URL(s.url).port)));
+    try {
+      // sessions live in the database: each request may land on any process
+      const counter = request.agent(nginx.url);
+      await counter.post('/api/session').send({ username: 'cashier', password: DEMO_PASSWORD }).expect(200);
+      const signIn = await request(nginx.url).post('/api/session').send({ username: 'barista', password: DEMO_PASSWORD }).expect(200);
+      const cookie = ([] as string[])
+        .concat(signIn.headers['set-cookie'])
+        .map((x) => x.split(';')[0])
+        .join('; ');
+      const { client: bar, hello } = await connectAndResume(nginx.url, cookie);
+      const start = hello.seq;
+      const lines = await demoLines(a);
+      await Promise.all(Array.from({ length: 9 }, (_, i) => fireOrder(counter, `Through nginx ${i + 1}`, [i % 2 ? lines.latte() : lines.espresso()])));
+      const end = await latestSeq(a.db, locationId);
+      expect(end - start).toBe(9);
+      await expectContiguous(
+        (await eventsUntil(bar, end)).filter((e) => e.seq > start),
+        start,
+        end,
+      );
+    } finally {
+      await closeAllSockets();
+      await nginx.stop();
+    }
   });
 });
