@@ -4,13 +4,13 @@
 // deploy/nginx.conf. Prints the address; Ctrl-C stops everything and removes its folders.
 import { fork, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
-import net from 'node:net';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
 import { adminQuery, startCluster } from '@scripts/services/postgres';
 import { startNginx } from '@scripts/services/nginx';
 import { startRedis } from '@scripts/services/redis';
 import { DEMO_PASSWORD, DEMO_STAFF } from '@seeds/demo-cafe';
+import { freePort } from '@scripts/services/free-port';
 
 const ROOT = path.resolve(import.meta.dirname, '..');
 const USAGE = 'Usage: npm run cluster -- [--processes 3] [--port 8080]';
@@ -31,17 +31,6 @@ function options() {
     process.exit(2);
   }
   return { processes, port };
-}
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = net.createServer();
-    server.once('error', reject);
-    server.listen(0, '127.0.0.1', () => {
-      const { port } = server.address() as net.AddressInfo;
-      server.close(() => resolve(port));
-    });
-  });
 }
 
 /** One Jugline process (server/start.ts: builds first if there is no build), ready once it serves. */

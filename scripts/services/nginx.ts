@@ -7,6 +7,7 @@ import { chmodSync, copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSy
 import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
+import { freePort } from './free-port';
 
 export const NGINX = process.env.NGINX ?? '/usr/sbin/nginx';
 export const MISSING_NGINX = `This needs nginx from Debian: apt-get install nginx (only ${NGINX} is used; no service has to run).`;
@@ -16,17 +17,6 @@ export interface Nginx {
   url: string;
   port: number;
   stop(): Promise<void>;
-}
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = net.createServer();
-    server.once('error', reject);
-    server.listen(0, '127.0.0.1', () => {
-      const { port } = server.address() as net.AddressInfo;
-      server.close(() => resolve(port));
-    });
-  });
 }
 
 async function waitForPort(port: number, child: ChildProcess, log: () => string) {

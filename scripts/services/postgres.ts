@@ -5,12 +5,12 @@
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { chownSync, mkdtempSync, rmSync } from 'node:fs';
-import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import pg from 'pg';
 import { MISSING_POSTGRES, postgresBin } from '@server/db/postgres-tools';
+import { freePort } from './free-port';
 
 export interface PgCluster {
   /** postgres://… of the `postgres` maintenance database (superuser, no password). */
@@ -27,17 +27,6 @@ function runAs(): { uid: number; gid: number } | undefined {
   const gid = id('-g');
   if (!Number.isInteger(uid) || uid <= 0) throw new Error(`Running as root and there is no \`postgres\` user. ${MISSING_POSTGRES}`);
   return { uid, gid };
-}
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = net.createServer();
-    server.once('error', reject);
-    server.listen(0, '127.0.0.1', () => {
-      const { port } = server.address() as net.AddressInfo;
-      server.close(() => resolve(port));
-    });
-  });
 }
 
 async function waitUntilReady(url: string, child: ChildProcess, log: () => string): Promise<void> {

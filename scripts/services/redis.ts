@@ -7,6 +7,7 @@ import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
+import { freePort } from './free-port';
 
 export const REDIS_SERVER = process.env.REDIS_SERVER ?? '/usr/bin/redis-server';
 export const MISSING_REDIS = `This needs Redis from Debian: apt-get install redis-server (only ${REDIS_SERVER} is used; no service has to run).`;
@@ -18,17 +19,6 @@ export interface RedisServer {
   /** Starts it again on the same port. */
   up(): Promise<void>;
   stop(): Promise<void>;
-}
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = net.createServer();
-    server.once('error', reject);
-    server.listen(0, '127.0.0.1', () => {
-      const { port } = server.address() as net.AddressInfo;
-      server.close(() => resolve(port));
-    });
-  });
 }
 
 /** Answers once the server takes connections (a PING over a bare socket). */

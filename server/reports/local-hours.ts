@@ -3,35 +3,12 @@
 // changes) are worked out here with Intl and handed to strftime as '+N minutes' modifiers (on
 // PostgreSQL, the same text as an interval: one SQL for both, server/db/dialect.ts).
 import { addDays } from '@/domain/freshness';
+import { wallClock } from '@/domain/wall-clock';
 import { type Dialect, shiftedHourSql } from '@server/db/dialect';
-
-const formatters = new Map<string, Intl.DateTimeFormat>();
-
-function partsFormatter(timeZone: string): Intl.DateTimeFormat {
-  let f = formatters.get(timeZone);
-  if (!f) {
-    f = new Intl.DateTimeFormat('en-US', {
-      timeZone,
-      hourCycle: 'h23',
-      year: 'numeric',
-      month: '2-digit',
-      day: '2-digit',
-      hour: '2-digit',
-      minute: '2-digit',
-      second: '2-digit',
-    });
-    formatters.set(timeZone, f);
-  }
-  return f;
-}
 
 /** The zone's offset from UTC at `ms`, in whole minutes (New York in winter: −300). */
 export function offsetMinutes(ms: number, timeZone: string): number {
-  const p = Object.fromEntries(
-    partsFormatter(timeZone)
-      .formatToParts(new Date(ms))
-      .map((x) => [x.type, x.value]),
-  );
+  const p = wallClock(new Date(ms), timeZone);
   const wall = Date.UTC(+p.year, +p.month - 1, +p.day, +p.hour, +p.minute, +p.second);
   return Math.round((wall - Math.floor(ms / 1000) * 1000) / 60_000);
 }
