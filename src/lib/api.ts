@@ -4,20 +4,13 @@ import type { OutboxView } from '@/domain/outbox';
 import type { PickupBoard } from '@/domain/pickup';
 import type { PulseView } from '@/domain/pulse';
 import type { CounterWaitNow } from '@/domain/wait-now';
-import type { Role } from '@/domain/roles';
-import type { BoardSnapshot, MenuView, OrderView } from '@/domain/types';
+import type { BoardSnapshot, MenuView, OrderView, PublicUser } from '@/domain/types';
 import { http } from './http';
 import { httpBeansApi, type BeansApi } from './beans-api';
 import { httpMenuAdminApi, type MenuAdminApi } from './menu-admin-api';
 import { httpReportsApi, type ReportsApi } from './reports-api';
 import { httpSettingsApi, type SettingsApi } from './settings-api';
 import { httpTeamApi, type TeamApi } from './team-api';
-
-export interface PublicUser {
-  id: number;
-  name: string;
-  role: Role;
-}
 
 export interface Api {
   session(): Promise<{ user: PublicUser | null }>;

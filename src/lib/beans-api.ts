@@ -1,37 +1,9 @@
 // Bean lots with their freshness and stock, and the dial-in log.
 // Over HTTP in the browser; server/ssr/beans-api.ts is the server-rendering side.
 import type { BeanLotView, BeanSettingsView } from '@/domain/bean-stock';
-import type { BeanLotBody, BeanSettingsBody, DialInShotBody } from '@/domain/beans-schemas';
-import type { DialInShotView, ShotAdvice, ShotWindow } from '@/domain/dial-in';
+import type { BeanLotBody, BeanSettingsBody, BeansView, DialInShotBody, DialInView, LoggedShot } from '@/domain/beans-schemas';
+import type { DialInShotView } from '@/domain/dial-in';
 import { http } from './http';
-
-export interface BeansView {
-  today: string;
-  now: string;
-  timeZone: string;
-  locale: string;
-  settings: BeanSettingsView;
-  lots: BeanLotView[];
-}
-
-export interface DialInView {
-  today: string;
-  now: string;
-  timeZone: string;
-  locale: string;
-  window: ShotWindow;
-  /** The house double's dose the dose range is built on; null: the common 18–22 g. */
-  recipeDoseDg: number | null;
-  /** Lots that are not retired; the Bar's strip shows those in a grinder. */
-  lots: BeanLotView[];
-  espressoLotId: number | null;
-}
-
-export interface LoggedShot {
-  shot: DialInShotView;
-  advice: ShotAdvice;
-  lot: BeanLotView;
-}
 
 /** What the screens read. */
 export interface BeansApi {

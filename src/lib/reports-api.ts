@@ -1,20 +1,9 @@
 // The Reports part of the Api: over HTTP in the browser (server/ssr/reports-api.ts has the
 // server-rendering side). Query strings use the same names the routes validate.
 import type { CardCheckView } from '@/domain/card-check';
-import type { ReportShiftsView, ReportView, TicketHistoryPage, TicketSort } from '@/domain/reports';
-import type { TicketStatus } from '@/domain/types';
-import { http } from './http';
-
-export interface TicketHistoryParams {
-  from?: string;
-  to?: string;
-  q?: string;
-  status?: TicketStatus;
-  sort: TicketSort;
-  dir: 'asc' | 'desc';
-  page: number;
-  pageSize: number;
-}
+import type { ReportShiftsView, ReportView, TicketHistoryPage } from '@/domain/reports';
+import type { TicketHistoryQuery } from '@/domain/schemas';
+import { http, queryString } from './http';
 
 export interface ReportsApi {
   /** Recent shifts, newest first, and the café's date today. */
@@ -22,17 +11,9 @@ export interface ReportsApi {
   shift(id: number): Promise<ReportView>;
   /** Café-local dates, both included. */
   range(from: string, to: string): Promise<ReportView>;
-  tickets(params: TicketHistoryParams): Promise<TicketHistoryPage>;
+  tickets(params: TicketHistoryQuery): Promise<TicketHistoryPage>;
   /** The card check of a café-local date (today when left out). */
   cardCheck(date?: string): Promise<CardCheckView>;
-}
-
-/** "?a=1&b=x" from the defined values, in the given order. */
-export function queryString(params: object): string {
-  const search = new URLSearchParams();
-  for (const [k, v] of Object.entries(params)) if (v !== undefined && v !== null && v !== '') search.set(k, String(v));
-  const text = search.toString();
-  return text ? `?${text}` : '';
 }
 
 export const httpReportsApi: ReportsApi = {

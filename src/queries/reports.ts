@@ -1,14 +1,14 @@
 // Query keys and options for the Reports screen.
 import { queryOptions } from '@tanstack/react-query';
 import type { Api } from '@/lib/api';
-import type { TicketHistoryParams } from '@/lib/reports-api';
+import type { TicketHistoryQuery } from '@/domain/schemas';
 import type { PeriodChoice } from '@/features/reports/params';
 
 export const reportKeys = {
   all: ['reports'] as const,
   shifts: () => ['reports', 'shifts'] as const,
   report: (period: Exclude<PeriodChoice, { kind: 'today' }>) => ['reports', 'report', period] as const,
-  tickets: (params: TicketHistoryParams) => ['reports', 'tickets', params] as const,
+  tickets: (params: TicketHistoryQuery) => ['reports', 'tickets', params] as const,
 };
 
 export const reportShiftsQuery = (api: Api) => queryOptions({ queryKey: reportKeys.shifts(), queryFn: () => api.reports.shifts(), staleTime: 30_000 });
@@ -21,5 +21,5 @@ export const reportQuery = (api: Api, period: Exclude<PeriodChoice, { kind: 'tod
     staleTime: 15_000,
   });
 
-export const ticketHistoryQuery = (api: Api, params: TicketHistoryParams) =>
+export const ticketHistoryQuery = (api: Api, params: TicketHistoryQuery) =>
   queryOptions({ queryKey: reportKeys.tickets(params), queryFn: () => api.reports.tickets(params), staleTime: 15_000 });
