@@ -6,7 +6,9 @@ import { openTickets } from '@/domain/tickets';
 import { planBar } from '@/domain/lanes';
 import { pickupView } from '@/domain/pickup';
 import type { SessionUser } from '@/domain/types';
-import { READ_NAMES, reads, type ParsedInput, type ReadDef, type ReadOutput, type Reads } from '@/reads';
+import type { Api } from '@/lib/api';
+import { READ_NAMES, reads, wireOf, type ParsedInput, type ReadDef, type ReadOutput, type Reads } from '@/reads';
+import { refusal } from './auth/guards';
 import { beansView } from './beans/beans';
 import { dialInView, lotShots } from './beans/dial-in';
 import type { Deps } from './deps';
@@ -101,4 +103,22 @@ export function readRoutes(deps: Deps): ApiRoute[] {
       },
     };
   });
+}
+/**
+ * The screens' Api during server rendering: each read as `user` would make it over HTTP — the
+ * same capability check (401 signed out, 403 without it), the same input check, the same
+ * handler — without the network round trip.
+ */
+export function serverApi(deps: Deps, user: SessionUser | undefined): Api {
+  const api: Record<string, (input?: object) => Promise<unknown>> = {};
+  for (const name of READ_NAMES) {
+    const def: ReadDef = reads[name];
+    const handler = handlerOf(name);
+    api[name] = async (input) => {
+      const refused = refusal(user, def.capability);
+      if (refused) throw refused;
+      return handler({ deps, user }, inputOf(def, wireOf(def, input)));
+    };
+  }
+  return api as unknown as Api;
 }

@@ -57,11 +57,13 @@ export const reads = {
   /** Today's orders, newest first; `q` matches a name or number. */
   orders: read<{ orders: OrderView[] }>()({ path: '/orders', capability: 'takeOrders', input: ordersQuery }),
   order: read<{ order: OrderView }>()({ path: '/orders/:id', capability: 'takeOrders', input: idParam }),
-  /** The wait a customer would be quoted now for `drinks` bar drinks (the Counter, before payment). */
+  /** The wait a customer would be quoted now for `drinks` bar drinks (the Counter, before payment).
+   * Passive: a glance the Counter refreshes as the bar moves, not activity that keeps a session awake. */
   waitNow: read<{ waitNow: CounterWaitNow }>()({ path: '/wait-now', capability: 'takeOrders', input: waitNowQuery, passive: true }),
   /** The shift lead's live numbers. */
   pulse: read<PulseView>()({ path: '/pulse', capability: 'viewPulse' }),
-  /** Mail the local SMTP fake caught for this café, newest first. */
+  /** Mail the local SMTP fake caught for this café, newest first. Passive: the Outbox refreshes
+   * itself every few seconds, and that alone mustn't keep a session awake. */
   outbox: read<OutboxView>()({ path: '/outbox', capability: 'viewOutbox', passive: true }),
 
   // reports, for the lead and the owner
