@@ -81,10 +81,10 @@ type AnyHandler = (ctx: { deps: Deps; user: SessionUser | undefined }, input: un
 const handlerOf = (name: keyof Reads) => readHandlers[name] as AnyHandler;
 
 /** The read's input from its :params and query values; a bad one is a 400 naming the fields. */
-function inputOf(def: ReadDef, values: { params: object; query: object }): unknown {
+async function inputOf(def: ReadDef, values: { params: object; query: object }): Promise<unknown> {
   if (!def.input) return undefined;
   // the path's own values win over a query key of the same name
-  return parse(def.input, { ...values.query, ...values.params }, def.path.includes(':') ? 'params' : 'query');
+  return parse(await def.input(), { ...values.query, ...values.params }, def.path.includes(':') ? 'params' : 'query');
 }
 
 /** The GET route of every read; mountRoutes puts the capability's guard before each. */
@@ -97,7 +97,7 @@ export function readRoutes(deps: Deps): ApiRoute[] {
       path: def.path,
       capability: def.capability,
       handler: async (req, res) => {
-        const input = inputOf(def, { params: req.params, query: req.query });
+        const input = await inputOf(def, { params: req.params, query: req.query });
         if (def.noStore) res.set('Cache-Control', 'no-store');
         res.json(await handler({ deps, user: req.user }, input));
       },
@@ -117,7 +117,7 @@ export function serverApi(deps: Deps, user: SessionUser | undefined): Api {
     api[name] = async (input) => {
       const refused = refusal(user, def.capability);
       if (refused) throw refused;
-      return handler({ deps, user }, inputOf(def, wireOf(def, input)));
+      return handler({ deps, user }, await inputOf(def, wireOf(def, input)));
     };
   }
   return api as unknown as Api;

@@ -6,7 +6,6 @@
 import type { z } from 'zod';
 import type { BeansView, DialInView } from '@/domain/beans-schemas';
 import type { CardCheckView } from '@/domain/card-check';
-import { cardCheckQuery } from '@/domain/card-check-schemas';
 import type { DialInShotView } from '@/domain/dial-in';
 import type { PlannedLane, ShotPlan } from '@/domain/lanes';
 import type { AdminMenuView } from '@/domain/menu-admin-view';
@@ -15,19 +14,19 @@ import type { PickupBoard } from '@/domain/pickup';
 import type { PulseView } from '@/domain/pulse';
 import type { ReportShiftsView, ReportView, TicketHistoryPage } from '@/domain/reports';
 import type { Capability } from '@/domain/roles';
-import { idParam, ordersQuery, reportRangeQuery, ticketHistoryQuery, ticketsQuery } from '@/domain/schemas';
 import type { SettingsPage } from '@/domain/settings-schemas';
-import { tokenParam, type SwitchPerson, type TeamView, type WelcomeView } from '@/domain/team-schemas';
+import type { SwitchPerson, TeamView, WelcomeView } from '@/domain/team-schemas';
 import type { BoardSnapshot, MenuView, OrderView, PublicUser } from '@/domain/types';
-import { waitNowQuery, type CounterWaitNow } from '@/domain/wait-now';
+import type { CounterWaitNow } from '@/domain/wait-now';
 
 export interface ReadDef {
   /** Under /api; `:name` segments come from the input. */
   path: string;
   /** null: open to everyone, signed in or not. */
   capability: Capability | null;
-  /** The path's :params and the query string, checked as one object (a bad one answers 400). */
-  input?: z.ZodType;
+  /** The schema of the path's :params and the query string, checked as one object (a bad one
+   * answers 400); see `schema` below. */
+  input?: () => Promise<z.ZodType>;
   /** A screen's own background refresh: it doesn't keep an idle session awake (src/lib/http.ts). */
   passive?: true;
   /** Answered with `Cache-Control: no-store` (the path holds a secret). */
@@ -44,22 +43,34 @@ export const read =
   <const D extends ReadDef>(def: D): Read<O, D> =>
     def;
 
+// Only the server parses a read's input, so its schema is loaded when first used: the browser's
+// Api needs the paths alone, and would otherwise bring zod into every screen's first load.
+const schemas = () => import('@/domain/schemas');
+const teamSchemas = () => import('@/domain/team-schemas');
+const cardCheckSchemas = () => import('@/domain/card-check-schemas');
+const waitNowSchemas = () => import('@/domain/wait-now');
+/** `schema(schemas, 'idParam')`: a schema from src/domain, by its module and name. */
+const schema =
+  <M, K extends keyof M>(load: () => Promise<M>, name: K) =>
+  async (): Promise<M[K]> =>
+    (await load())[name];
+
 export const reads = {
   session: read<{ user: PublicUser | null }>()({ path: '/session', capability: null }),
 
   // the Counter, the Bar, Pickup and Pulse
   menu: read<MenuView>()({ path: '/menu', capability: 'viewQueue' }),
   /** `view: 'board'`: the open tickets and the ready ones still inside the Pickup timeout. */
-  tickets: read<BoardSnapshot>()({ path: '/tickets', capability: 'viewQueue', input: ticketsQuery }),
+  tickets: read<BoardSnapshot>()({ path: '/tickets', capability: 'viewQueue', input: schema(schemas, 'ticketsQuery') }),
   barLanes: read<{ seq: number; now: string; lanes: PlannedLane[]; shotPlan: ShotPlan }>()({ path: '/bar/lanes', capability: 'viewQueue' }),
   /** The Pickup screen's board: first names, numbers, status and ready times only. */
   pickup: read<PickupBoard>()({ path: '/pickup', capability: 'viewPickup' }),
   /** Today's orders, newest first; `q` matches a name or number. */
-  orders: read<{ orders: OrderView[] }>()({ path: '/orders', capability: 'takeOrders', input: ordersQuery }),
-  order: read<{ order: OrderView }>()({ path: '/orders/:id', capability: 'takeOrders', input: idParam }),
+  orders: read<{ orders: OrderView[] }>()({ path: '/orders', capability: 'takeOrders', input: schema(schemas, 'ordersQuery') }),
+  order: read<{ order: OrderView }>()({ path: '/orders/:id', capability: 'takeOrders', input: schema(schemas, 'idParam') }),
   /** The wait a customer would be quoted now for `drinks` bar drinks (the Counter, before payment).
    * Passive: a glance the Counter refreshes as the bar moves, not activity that keeps a session awake. */
-  waitNow: read<{ waitNow: CounterWaitNow }>()({ path: '/wait-now', capability: 'takeOrders', input: waitNowQuery, passive: true }),
+  waitNow: read<{ waitNow: CounterWaitNow }>()({ path: '/wait-now', capability: 'takeOrders', input: schema(waitNowSchemas, 'waitNowQuery'), passive: true }),
   /** The shift lead's live numbers. */
   pulse: read<PulseView>()({ path: '/pulse', capability: 'viewPulse' }),
   /** Mail the local SMTP fake caught for this café, newest first. Passive: the Outbox refreshes
@@ -69,12 +80,12 @@ export const reads = {
   // reports, for the lead and the owner
   /** Recent shifts, newest first, and the café's date today. */
   reportShifts: read<ReportShiftsView>()({ path: '/reports/shifts', capability: 'viewReports' }),
-  reportShift: read<ReportView>()({ path: '/reports/shift/:id', capability: 'viewReports', input: idParam }),
+  reportShift: read<ReportView>()({ path: '/reports/shift/:id', capability: 'viewReports', input: schema(schemas, 'idParam') }),
   /** Café-local dates, both included. */
-  reportRange: read<ReportView>()({ path: '/reports/range', capability: 'viewReports', input: reportRangeQuery }),
-  reportTickets: read<TicketHistoryPage>()({ path: '/reports/tickets', capability: 'viewReports', input: ticketHistoryQuery }),
+  reportRange: read<ReportView>()({ path: '/reports/range', capability: 'viewReports', input: schema(schemas, 'reportRangeQuery') }),
+  reportTickets: read<TicketHistoryPage>()({ path: '/reports/tickets', capability: 'viewReports', input: schema(schemas, 'ticketHistoryQuery') }),
   /** The card check of a café-local date (today when left out). */
-  cardCheck: read<CardCheckView>()({ path: '/reports/cards', capability: 'viewReports', input: cardCheckQuery }),
+  cardCheck: read<CardCheckView>()({ path: '/reports/cards', capability: 'viewReports', input: schema(cardCheckSchemas, 'cardCheckQuery') }),
 
   // back office
   /** The whole menu as the owner edits it, retired things included. */
@@ -83,21 +94,21 @@ export const reads = {
   /** Who may take over this terminal by PIN. */
   switchPeople: read<{ people: SwitchPerson[] }>()({ path: '/switch/people', capability: 'viewQueue' }),
   /** Who an invitation or reset link is for; 404 when it can't be used. */
-  welcome: read<WelcomeView>()({ path: '/welcome/:token', capability: null, input: tokenParam, noStore: true }),
+  welcome: read<WelcomeView>()({ path: '/welcome/:token', capability: null, input: schema(teamSchemas, 'tokenParam'), noStore: true }),
   settings: read<SettingsPage>()({ path: '/settings', capability: 'editSettings' }),
   /** Every lot, retired ones last, and the location's dial-in window (owner). */
   beans: read<BeansView>()({ path: '/beans', capability: 'manageBeans' }),
   /** Lots in use, the window and the lot in the espresso grinder (barista and up). */
   dialIn: read<DialInView>()({ path: '/dial-in', capability: 'logDialIn' }),
   /** A lot's latest test shots, newest first. */
-  lotShots: read<{ shots: DialInShotView[] }>()({ path: '/dial-in/lots/:id/shots', capability: 'logDialIn', input: idParam }),
+  lotShots: read<{ shots: DialInShotView[] }>()({ path: '/dial-in/lots/:id/shots', capability: 'logDialIn', input: schema(schemas, 'idParam') }),
 };
 
 export type Reads = typeof reads;
 export type ReadName = keyof Reads;
 export const READ_NAMES = Object.keys(reads) as ReadName[];
 
-type SchemaOf<R> = R extends { input: infer S extends z.ZodType } ? S : undefined;
+type SchemaOf<R> = R extends { input: () => Promise<infer S extends z.ZodType> } ? S : undefined;
 /** The schema's input, with a coerced field (typed `unknown` by zod) as the type it becomes. */
 type CallerInput<S extends z.ZodType> = {
   [K in keyof z.input<S>]: unknown extends z.input<S>[K] ? (K extends keyof z.output<S> ? z.output<S>[K] : never) : z.input<S>[K];

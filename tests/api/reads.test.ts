@@ -107,7 +107,7 @@ describe('the reads', () => {
   });
 
   it('are every GET route but the CSV downloads: no read is written by hand beside them', () => {
-    const paths = new Set(READ_NAMES.map((name) => reads[name].path));
+    const paths = new Set<string>(READ_NAMES.map((name) => reads[name].path));
     const others = server.routes.filter((r) => r.method === 'get' && !paths.has(r.path)).map((r) => r.path);
     expect(others.length).toBeGreaterThan(0);
     for (const path of others) expect(path, 'a GET route that is not a read').toMatch(/\.csv$/);
