@@ -12,7 +12,7 @@ import { refusal } from './auth/guards';
 import { beansView } from './beans/beans';
 import { dialInView, lotShots } from './beans/dial-in';
 import type { Deps } from './deps';
-import { notFound, parse } from './errors';
+import { asHttpError, notFound, parse } from './errors';
 import { outboxView } from './mail/outbox';
 import { loadAdminMenu } from './menu/admin';
 import { loadMenu } from './menu/menu';
@@ -107,7 +107,7 @@ export function readRoutes(deps: Deps): ApiRoute[] {
 /**
  * The screens' Api during server rendering: each read as `user` would make it over HTTP — the
  * same capability check (401 signed out, 403 without it), the same input check, the same
- * handler — without the network round trip.
+ * handler, a refusal with the same status — without the network round trip.
  */
 export function serverApi(deps: Deps, user: SessionUser | undefined): Api {
   const api: Record<string, (input?: object) => Promise<unknown>> = {};
@@ -117,7 +117,11 @@ export function serverApi(deps: Deps, user: SessionUser | undefined): Api {
     api[name] = async (input) => {
       const refused = refusal(user, def.capability);
       if (refused) throw refused;
-      return handler({ deps, user }, await inputOf(def, wireOf(def, input)));
+      try {
+        return await handler({ deps, user }, await inputOf(def, wireOf(def, input)));
+      } catch (err) {
+        throw asHttpError(err);
+      }
     };
   }
   return api as unknown as Api;

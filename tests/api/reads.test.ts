@@ -10,7 +10,6 @@ import { httpApi, type Api } from '@/lib/api';
 import { READ_NAMES, reads, type ReadName } from '@/reads';
 import { findActiveUser } from '@server/auth/session';
 import { serverApi } from '@server/reads';
-import { DomainError } from '@server/domain-errors';
 import { HttpError } from '@server/errors';
 import { demoMenu, manualClock, startTestServer, type DemoLogin, type TestServer } from '../support/test-server';
 import { orderBody } from './helpers';
@@ -28,13 +27,13 @@ async function userOf(login: DemoLogin): Promise<SessionUser> {
   return (await findActiveUser(server.db, id))!;
 }
 
-/** An answer, or a refusal in the words both sides share (the status is the HTTP side's own). */
+/** An answer, or a refusal: its status (loaders read it, for a 404 page), code, words and details. */
 async function outcome(work: () => Promise<unknown>) {
   try {
     return { answer: JSON.parse(JSON.stringify(await work())) as unknown };
   } catch (err) {
-    if (err instanceof ApiError || err instanceof HttpError || err instanceof DomainError) {
-      return { refused: { code: err.code, message: err.message, details: err.details } };
+    if (err instanceof ApiError || err instanceof HttpError) {
+      return { refused: { status: err.status, code: err.code, message: err.message, details: err.details } };
     }
     throw err;
   }
@@ -127,8 +126,15 @@ describe('the server-rendering Api', () => {
 
   it('checks the input with the read’s schema: 400 with the field named', async () => {
     const owner = serverApi(server.deps, await userOf('owner'));
-    await expect(owner.reportTickets({ page: 0 })).rejects.toMatchObject({ code: 'validation_failed', details: [{ path: 'query.page' }] });
-    await expect(owner.order({ id: -1 })).rejects.toMatchObject({ code: 'validation_failed', details: [{ path: 'params.id' }] });
+    await expect(owner.reportTickets({ page: 0 })).rejects.toMatchObject({ status: 400, code: 'validation_failed', details: [{ path: 'query.page' }] });
+    await expect(owner.order({ id: -1 })).rejects.toMatchObject({ status: 400, code: 'validation_failed', details: [{ path: 'params.id' }] });
+  });
+
+  it('refuses with the status HTTP would answer, which the loaders read (a 404 is the not-found page)', async () => {
+    const owner = serverApi(server.deps, await userOf('owner'));
+    await expect(owner.order({ id: 2_000_000_000 })).rejects.toMatchObject({ status: 404, code: 'not_found' });
+    await expect(owner.reportShift({ id: 2_000_000_000 })).rejects.toMatchObject({ status: 404, code: 'not_found' });
+    await expect(owner.welcome({ token: 'x'.repeat(43) })).rejects.toMatchObject({ status: 404, code: 'not_found' });
   });
 });
 
