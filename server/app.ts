@@ -20,6 +20,7 @@ import { settingsRoutes } from './settings/routes';
 import { teamRoutes } from './team/routes';
 import { menuRoutes } from './menu/routes';
 import { orderRoutes, WEBHOOK_PATH } from './orders/routes';
+import { readRoutes } from './reads';
 import { reportRoutes } from './reports/routes';
 import { shiftRoutes } from './shifts/routes';
 import { sessionRoutes, type SignInPacing } from './auth/routes';
@@ -109,6 +110,8 @@ export function createApp(opts: AppOptions): App {
   ];
   routes.push(...menuAdminRoutes(deps), ...menuImportRoutes(deps, mediaDir), ...teamRoutes(deps), ...settingsRoutes(deps), ...beanRoutes(deps));
   if (opts.mailer) routes.push(...mailRoutes(deps, opts.mailer));
+  // the reads (src/reads.ts) last: a download such as /reports/shift/:id.csv must be matched first
+  routes.push(...readRoutes(deps));
 
   // The payment webhook is verified against its exact bytes, so it alone keeps a raw body.
   const json = express.json({ limit: '32kb' });

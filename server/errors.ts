@@ -54,6 +54,12 @@ const STATUS_OF: Record<Refusal, number> = {
   not_set_up: 503,
 };
 
+/** The error as HTTP answers it: a service's refusal becomes an HttpError with its status (what
+ * server rendering throws, so a loader sees the status the browser's request would get). */
+export function asHttpError(err: unknown): unknown {
+  return err instanceof DomainError ? new HttpError(STATUS_OF[err.refusal], err.code, err.message, err.details) : err;
+}
+
 /** Field-by-field details from a zod error: [{ path: 'items.0.sizeId', message }]. */
 export function validationError(error: z.ZodError, where?: string): DomainError {
   return fieldsNeedFixing(

@@ -67,12 +67,6 @@ export function sessionRoutes(passport: ReturnType<typeof createPassport>, deps:
   return [
     { method: 'post', path: '/session', capability: null, handler: signIn },
     {
-      method: 'get',
-      path: '/session',
-      capability: null,
-      handler: (req, res) => res.json({ user: req.user ? publicUser(req.user) : null }),
-    },
-    {
       method: 'delete',
       path: '/session',
       capability: null,

@@ -2,10 +2,9 @@
 // window and low-stock line. Each command is one transaction; moving coffee in or out of a
 // grinder tells every open screen (menu.changed), so the Bar's strip follows.
 import type { Knex } from 'knex';
-import type { BeanLotBody, BeanSettingsBody } from '@/domain/beans-schemas';
+import type { BeanLotBody, BeanSettingsBody, BeansView } from '@/domain/beans-schemas';
 import { businessDate } from '@/domain/business-date';
 import type { SessionUser } from '@/domain/types';
-import type { BeansView } from '@/lib/beans-api';
 import { conflict, fieldsNeedFixing, notFound } from '@server/domain-errors';
 import type { Deps } from '@server/deps';
 import { appendMenuChangedEvent, runCommand } from '@server/events';

@@ -1,10 +1,9 @@
 // The dial-in log: test shots against the location's window, the advice for the next one, and
 // the coffee each shot takes from its lot.
-import type { DialInShotBody } from '@/domain/beans-schemas';
+import type { DialInShotBody, DialInView, LoggedShot } from '@/domain/beans-schemas';
 import { adviseShot, doseRange, type DialInShotView, type ShotWindow } from '@/domain/dial-in';
 import { businessDate } from '@/domain/business-date';
 import type { SessionUser } from '@/domain/types';
-import type { DialInView, LoggedShot } from '@/lib/beans-api';
 import { conflict, notFound } from '@server/domain-errors';
 import type { Deps } from '@server/deps';
 import { appendBeansChangedEvent, runCommand } from '@server/events';

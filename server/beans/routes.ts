@@ -3,20 +3,14 @@ import { beanLotBody, beanSettingsBody, dialInShotBody } from '@/domain/beans-sc
 import { idParam } from '@/domain/schemas';
 import { userOf } from '@server/auth/guards';
 import { parse } from '@server/errors';
-import { beansView, createLot, retireLot, saveBeanSettings, updateLot } from './beans';
+import { createLot, retireLot, saveBeanSettings, updateLot } from './beans';
 import type { Deps } from '@server/deps';
-import { dialInView, logShot, lotShots } from './dial-in';
+import { logShot } from './dial-in';
 import type { ApiRoute } from '@server/routes';
 
 export function beanRoutes(deps: Deps): ApiRoute[] {
   const id = (params: unknown) => parse(idParam, params, 'params').id;
   return [
-    {
-      method: 'get',
-      path: '/beans',
-      capability: 'manageBeans',
-      handler: async (req, res) => res.json(await beansView(deps, userOf(req).locationId)),
-    },
     {
       method: 'post',
       path: '/beans/lots',
@@ -43,18 +37,6 @@ export function beanRoutes(deps: Deps): ApiRoute[] {
       path: '/beans/settings',
       capability: 'manageBeans',
       handler: async (req, res) => res.json({ settings: await saveBeanSettings(deps, userOf(req), parse(beanSettingsBody, req.body)) }),
-    },
-    {
-      method: 'get',
-      path: '/dial-in',
-      capability: 'logDialIn',
-      handler: async (req, res) => res.json(await dialInView(deps, userOf(req).locationId)),
-    },
-    {
-      method: 'get',
-      path: '/dial-in/lots/:id/shots',
-      capability: 'logDialIn',
-      handler: async (req, res) => res.json({ shots: await lotShots(deps.db, userOf(req).locationId, id(req.params)) }),
     },
     {
       method: 'post',

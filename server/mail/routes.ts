@@ -1,14 +1,12 @@
-// Mailing a receipt, and the Outbox of mail the local SMTP fake caught.
+// Mailing a receipt (the Outbox, the mail the local SMTP fake caught, is a read: src/reads.ts).
 import { idParam, receiptEmailBody } from '@/domain/schemas';
 import { userOf } from '@server/auth/guards';
 import { DomainError } from '@server/domain-errors';
 import { HttpError, parse } from '@server/errors';
 import type { Deps } from '@server/deps';
-import { outboxView, type Mailer } from './outbox';
+import type { Mailer } from './outbox';
 import { sendOrderReceipt } from '@server/orders/receipts';
 import type { ApiRoute } from '@server/routes';
-
-const OUTBOX_LIMIT = 100;
 
 export function mailRoutes(deps: Deps, mailer: Mailer): ApiRoute[] {
   return [
@@ -32,12 +30,6 @@ export function mailRoutes(deps: Deps, mailer: Mailer): ApiRoute[] {
         // 202: handed to the mail server, which delivers it in its own time
         res.status(202).json({ sent: true, messageId: sent.messageId });
       },
-    },
-    {
-      method: 'get',
-      path: '/outbox',
-      capability: 'viewOutbox',
-      handler: async (req, res) => res.json(await outboxView(deps.db, userOf(req).locationId, userOf(req).role, OUTBOX_LIMIT)),
     },
   ];
 }

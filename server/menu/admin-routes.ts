@@ -9,7 +9,6 @@ import type { SessionUser } from '@/domain/types';
 import { userOf } from '@server/auth/guards';
 import { parse } from '@server/errors';
 import type { Deps } from '@server/deps';
-import { loadAdminMenu } from './admin';
 import { createCategory, moveCategory, restoreCategory, retireCategory, updateCategory } from './admin-categories';
 import { createItem, moveItem, restoreItem, retireItem, retireSize, restoreSize, updateItem } from './admin-items';
 import { createMilk, moveMilk, restoreMilk, retireMilk, updateMilk } from './admin-milks';
@@ -90,7 +89,7 @@ export function menuAdminRoutes(deps: Deps): ApiRoute[] {
       res.json(await (body.retired ? retire : restore)(deps, userOf(req), rowId));
     });
 
-  const routes: ApiRoute[] = [route('get', '', async (req, res) => res.json(await loadAdminMenu(deps.db, userOf(req).locationId)))];
+  const routes: ApiRoute[] = [];
   for (const k of KINDS as Kind<z.ZodType>[]) {
     routes.push(
       route('post', `/${k.path}`, async (req, res) => res.status(201).json(await k.create(deps, userOf(req), parse(k.body, req.body)))),

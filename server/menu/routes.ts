@@ -1,21 +1,14 @@
-// GET /menu (what the Counter and the Bar read) and 86ing an item from the floor.
+// 86ing an item from the floor (GET /menu, what the Counter and the Bar read, is in src/reads.ts).
 import { availabilityBody, idParam } from '@/domain/schemas';
 import { userOf } from '@server/auth/guards';
 import type { Deps } from '@server/deps';
 import { parse } from '@server/errors';
 import type { ApiRoute } from '@server/routes';
 import { setItemAvailability } from './availability';
-import { loadMenu } from './menu';
 
 export function menuRoutes(deps: Deps): ApiRoute[] {
   const id = (params: unknown) => parse(idParam, params, 'params').id;
   return [
-    {
-      method: 'get',
-      path: '/menu',
-      capability: 'viewQueue',
-      handler: async (req, res) => res.json(await loadMenu(deps.db, userOf(req).locationId)),
-    },
     {
       method: 'post',
       path: '/menu/items/:id/availability',

@@ -1,13 +1,10 @@
-import { createOrderBody, idParam, ordersQuery, refundBody, voidBody } from '@/domain/schemas';
-import { waitNowQuery } from '@/domain/wait-now';
+import { createOrderBody, idParam, refundBody, voidBody } from '@/domain/schemas';
 import { userOf } from '@server/auth/guards';
 import { HttpError, notFound, parse } from '@server/errors';
 import { GatewayUnavailable } from '@server/payments/gateway';
 import { handlePaymentWebhook } from '@server/payments/card-settle';
 import type { Deps } from '@server/deps';
 import { createOrder } from './orders';
-import { findOrderInLocation, listOrders, loadOrder } from './order-views';
-import { waitNowForCounter } from './quotes';
 import { mailReceiptWithOrder } from './receipts';
 import { refundOrder, voidOrder } from './refunds';
 import type { ApiRoute } from '@server/routes';
@@ -17,15 +14,6 @@ export const WEBHOOK_PATH = '/webhooks/payments';
 export function orderRoutes(deps: Deps): ApiRoute[] {
   const id = (params: unknown) => parse(idParam, params, 'params').id;
   return [
-    {
-      method: 'get',
-      path: '/wait-now',
-      capability: 'takeOrders',
-      handler: async (req, res) => {
-        const { drinks } = parse(waitNowQuery, req.query, 'query');
-        res.json({ waitNow: await waitNowForCounter(deps, userOf(req).locationId, drinks) });
-      },
-    },
     {
       method: 'post',
       path: '/orders',
@@ -37,25 +25,6 @@ export function orderRoutes(deps: Deps): ApiRoute[] {
         // after the commit, however the order came (at once, queued offline, a retry): once per order
         await mailReceiptWithOrder(deps, user.locationId, order);
         res.status(created ? 201 : 200).json({ order });
-      },
-    },
-    {
-      method: 'get',
-      path: '/orders',
-      capability: 'takeOrders',
-      handler: async (req, res) => {
-        const { q, limit } = parse(ordersQuery, req.query, 'query');
-        res.json({ orders: await listOrders(deps, userOf(req), q, limit) });
-      },
-    },
-    {
-      method: 'get',
-      path: '/orders/:id',
-      capability: 'takeOrders',
-      handler: async (req, res) => {
-        const orderId = id(req.params);
-        if (!(await findOrderInLocation(deps.db, userOf(req), orderId))) throw notFound('Order');
-        res.json({ order: await loadOrder(deps.db, orderId) });
       },
     },
     {

@@ -1,13 +1,14 @@
-// Reports for the lead and the owner: a shift's or a date range's numbers, the ticket history,
-// their CSV downloads, and the day's card check (with "settle", which may give money back).
+// Reports for the lead and the owner: the CSV downloads of a shift's or a date range's numbers and
+// of the ticket history, and "settle" of the day's card check (which may give money back). The
+// reports themselves are reads (src/reads.ts).
 import type { Response } from 'express';
-import { cardCheckQuery, cardSettleBody } from '@/domain/card-check-schemas';
-import { idParam, reportRangeQuery, ticketCsvQuery, ticketHistoryQuery } from '@/domain/schemas';
+import { cardSettleBody } from '@/domain/card-check-schemas';
+import { idParam, reportRangeQuery, ticketCsvQuery } from '@/domain/schemas';
 import { userOf } from '@server/auth/guards';
 import { parse } from '@server/errors';
-import { cardCheck, settleCardDay } from '@server/payments/card-check';
+import { settleCardDay } from '@server/payments/card-check';
 import type { Deps } from '@server/deps';
-import { rangeReport, reportCsv, reportShifts, shiftReport, ticketHistory, ticketRows, ticketsCsv } from './index';
+import { rangeReport, reportCsv, shiftReport, ticketRows, ticketsCsv } from './index';
 import { loadReportLocation } from './scope';
 import type { ApiRoute } from '@server/routes';
 
@@ -24,13 +25,7 @@ export function reportRoutes(deps: Deps): ApiRoute[] {
   const shiftId = (params: unknown) => parse(idParam, params, 'params').id;
   return [
     {
-      method: 'get',
-      path: '/reports/shifts',
-      capability: 'viewReports',
-      handler: async (req, res) => res.json(await reportShifts(deps.db, userOf(req).locationId, deps.clock())),
-    },
-    {
-      // before /reports/shift/:id, which would otherwise take "12.csv" as its id
+      // mounted before the reads (server/app.ts): /reports/shift/:id would otherwise take "12.csv" as its id
       method: 'get',
       path: '/reports/shift/:id.csv',
       capability: 'viewReports',
@@ -39,12 +34,6 @@ export function reportRoutes(deps: Deps): ApiRoute[] {
         const report = await shiftReport(deps.db, userOf(req).locationId, id, deps.clock());
         sendCsv(res, `jugline-shift-${id}-${report.period.from}.csv`, reportCsv(report));
       },
-    },
-    {
-      method: 'get',
-      path: '/reports/shift/:id',
-      capability: 'viewReports',
-      handler: async (req, res) => res.json(await shiftReport(deps.db, userOf(req).locationId, shiftId(req.params), deps.clock())),
     },
     {
       method: 'get',
@@ -57,15 +46,6 @@ export function reportRoutes(deps: Deps): ApiRoute[] {
     },
     {
       method: 'get',
-      path: '/reports/range',
-      capability: 'viewReports',
-      handler: async (req, res) => {
-        const { from, to } = parse(reportRangeQuery, req.query, 'query');
-        res.json(await rangeReport(deps.db, userOf(req).locationId, from, to, deps.clock()));
-      },
-    },
-    {
-      method: 'get',
       path: '/reports/tickets.csv',
       capability: 'viewReports',
       handler: async (req, res) => {
@@ -74,24 +54,6 @@ export function reportRoutes(deps: Deps): ApiRoute[] {
         const location = await loadReportLocation(deps.db, locationId);
         const rows = await ticketRows(deps.db, locationId, query, null);
         sendCsv(res, `jugline-tickets-${span(query.from, query.to)}.csv`, ticketsCsv(rows, location.currency, location.timeZone));
-      },
-    },
-    {
-      method: 'get',
-      path: '/reports/tickets',
-      capability: 'viewReports',
-      handler: async (req, res) => {
-        const query = parse(ticketHistoryQuery, req.query, 'query');
-        res.json(await ticketHistory(deps.db, userOf(req).locationId, query));
-      },
-    },
-    {
-      method: 'get',
-      path: '/reports/cards',
-      capability: 'viewReports',
-      handler: async (req, res) => {
-        const { date } = parse(cardCheckQuery, req.query, 'query');
-        res.json(await cardCheck(deps, userOf(req).locationId, date));
       },
     },
     {

@@ -4,18 +4,12 @@ import { pitcherBody, settingsBody } from '@/domain/settings-schemas';
 import { userOf } from '@server/auth/guards';
 import { parse } from '@server/errors';
 import type { Deps } from '@server/deps';
-import { addPitcher, loadSettings, removePitcher, updatePitcher, updateSettings } from './settings';
+import { addPitcher, removePitcher, updatePitcher, updateSettings } from './settings';
 import type { ApiRoute } from '@server/routes';
 
 export function settingsRoutes(deps: Deps): ApiRoute[] {
   const id = (params: unknown) => parse(idParam, params, 'params').id;
   return [
-    {
-      method: 'get',
-      path: '/settings',
-      capability: 'editSettings',
-      handler: async (req, res) => res.json(await loadSettings(deps.db, userOf(req).locationId)),
-    },
     {
       method: 'put',
       path: '/settings',

@@ -2,19 +2,12 @@ import { baristasBody, closeShiftBody, openShiftBody } from '@/domain/schemas';
 import { userOf } from '@server/auth/guards';
 import { parse } from '@server/errors';
 import type { Deps } from '@server/deps';
-import { pulse } from './pulse';
 import { mailShiftReport } from './report-mail';
 import { closeShift, openShift, setBaristas } from './shifts';
 import type { ApiRoute } from '@server/routes';
 
 export function shiftRoutes(deps: Deps): ApiRoute[] {
   return [
-    {
-      method: 'get',
-      path: '/pulse',
-      capability: 'viewPulse',
-      handler: async (req, res) => res.json(await pulse(deps, userOf(req).locationId)),
-    },
     {
       method: 'post',
       path: '/shifts',

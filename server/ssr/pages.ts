@@ -8,7 +8,7 @@ import express, { type Request, type RequestHandler } from 'express';
 import type { RenderResult } from '@/entry-server';
 import type { Api } from '@/lib/api';
 import type { Deps } from '@server/deps';
-import { serverApi } from './server-api';
+import { serverApi } from '@server/reads';
 
 export const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 // JUGLINE_DIST: another build folder (e.g. two builds side by side on one machine)

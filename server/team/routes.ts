@@ -9,9 +9,9 @@ import { userOf } from '@server/auth/guards';
 import { HttpError, parse } from '@server/errors';
 import { DomainError } from '@server/domain-errors';
 import type { Deps } from '@server/deps';
-import { acceptLink, sendLink, welcomeView } from './invitations';
-import { checkPinSwitch, setOwnPin, setPin, switchPeople } from './pins';
-import { addPerson, listTeam, updatePerson } from './team';
+import { acceptLink, sendLink } from './invitations';
+import { checkPinSwitch, setOwnPin, setPin } from './pins';
+import { addPerson, updatePerson } from './team';
 import { signOutEverywhere } from './sessions';
 import type { ApiRoute } from '@server/routes';
 
@@ -54,12 +54,6 @@ export function teamRoutes(deps: Deps): ApiRoute[] {
   });
 
   return [
-    {
-      method: 'get',
-      path: '/team',
-      capability: 'manageTeam',
-      handler: async (req, res) => res.json(await listTeam(deps, userOf(req))),
-    },
     {
       method: 'post',
       path: '/team',
@@ -114,13 +108,6 @@ export function teamRoutes(deps: Deps): ApiRoute[] {
       },
     },
     {
-      // who may take over this terminal: any signed-in person's screen shows the list
-      method: 'get',
-      path: '/switch/people',
-      capability: 'viewQueue',
-      handler: async (req, res) => res.json({ people: await switchPeople(deps.db, userOf(req)) }),
-    },
-    {
       // Only from a terminal already signed in to the same café; never from a signed-out one.
       method: 'post',
       path: '/session/switch',
@@ -139,16 +126,6 @@ export function teamRoutes(deps: Deps): ApiRoute[] {
         await logIn(req, outcome.user);
         deps.sessions.emit('switched', oldSid);
         res.json({ user: publicUser(outcome.user) });
-      },
-    },
-    {
-      method: 'get',
-      path: '/welcome/:token',
-      capability: null,
-      handler: async (req, res) => {
-        const { token } = parse(tokenParam, req.params, 'params');
-        res.set('Cache-Control', 'no-store');
-        res.json(await welcomeView(deps, token));
       },
     },
     {

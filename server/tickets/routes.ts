@@ -1,13 +1,10 @@
-import { drinkBatchBody, idParam, ticketsQuery } from '@/domain/schemas';
-import { pickupView } from '@/domain/pickup';
-import { openTickets } from '@/domain/tickets';
+import { drinkBatchBody, idParam } from '@/domain/schemas';
 import { userOf } from '@server/auth/guards';
 import { parse } from '@server/errors';
 import type { Deps } from '@server/deps';
-import { planBar } from '@/domain/lanes';
 import { acknowledgeAllergy, collectTicket, rushTicket } from './ticket-care';
 import { bumpJug, startJug } from './jugs';
-import { boardSnapshot, bumpDrink, bumpDrinks, bumpTicket, recallTicket, startDrink, startDrinks } from './tickets';
+import { bumpDrink, bumpDrinks, bumpTicket, recallTicket, startDrink, startDrinks } from './tickets';
 import type { ApiRoute } from '@server/routes';
 
 type Command = typeof bumpDrink;
@@ -20,32 +17,6 @@ export function ticketRoutes(deps: Deps): ApiRoute[] {
       res.json({ ticket: await run(deps, userOf(req), id) });
     };
   return [
-    {
-      method: 'get',
-      path: '/tickets',
-      capability: 'viewQueue',
-      handler: async (req, res) => {
-        const { view } = parse(ticketsQuery, req.query, 'query');
-        const board = await boardSnapshot(deps, userOf(req).locationId);
-        res.json(view === 'open' ? { ...board, tickets: board.tickets.filter((t) => openTickets(t, 0)) } : board);
-      },
-    },
-    {
-      method: 'get',
-      path: '/pickup',
-      capability: 'viewPickup',
-      handler: async (req, res) => res.json(pickupView(await boardSnapshot(deps, userOf(req).locationId))),
-    },
-    {
-      method: 'get',
-      path: '/bar/lanes',
-      capability: 'viewQueue',
-      handler: async (req, res) => {
-        const board = await boardSnapshot(deps, userOf(req).locationId);
-        const open = board.tickets.filter((t) => openTickets(t, 0));
-        res.json({ seq: board.seq, now: board.now, ...planBar(open, board.location.jugRules) });
-      },
-    },
     {
       method: 'post',
       path: '/drinks/start',

@@ -1,6 +1,8 @@
-// Request bodies of the bean lots and the dial-in log, shared by the forms and the routes.
+// Request bodies of the bean lots and the dial-in log, shared by the forms and the routes, and
+// what the beans and dial-in reads answer.
 import { z } from 'zod';
-import { HOPPERS } from './bean-stock';
+import { HOPPERS, type BeanLotView, type BeanSettingsView } from './bean-stock';
+import type { DialInShotView, ShotAdvice, ShotWindow } from './dial-in';
 import { calendarDate } from './schemas';
 import { plainText } from './text';
 
@@ -56,3 +58,36 @@ export const dialInShotBody = z.object({
   tasteNote: optionalText(140),
 });
 export type DialInShotBody = z.infer<typeof dialInShotBody>;
+
+// ------------------------------------------------------------------ answers
+
+/** GET /api/beans. */
+export interface BeansView {
+  today: string;
+  now: string;
+  timeZone: string;
+  locale: string;
+  settings: BeanSettingsView;
+  lots: BeanLotView[];
+}
+
+/** GET /api/dial-in. */
+export interface DialInView {
+  today: string;
+  now: string;
+  timeZone: string;
+  locale: string;
+  window: ShotWindow;
+  /** The house double's dose the dose range is built on; null: the common 18–22 g. */
+  recipeDoseDg: number | null;
+  /** Lots that are not retired; the Bar's strip shows those in a grinder. */
+  lots: BeanLotView[];
+  espressoLotId: number | null;
+}
+
+/** POST /api/dial-in/shots. */
+export interface LoggedShot {
+  shot: DialInShotView;
+  advice: ShotAdvice;
+  lot: BeanLotView;
+}

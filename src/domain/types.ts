@@ -19,6 +19,13 @@ export interface SessionUser {
   locationId: number;
 }
 
+/** The signed-in person as the API shows them (GET /api/session). */
+export interface PublicUser {
+  id: number;
+  name: string;
+  role: Role;
+}
+
 export interface LocationView {
   id: number;
   name: string;

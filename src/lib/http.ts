@@ -50,6 +50,14 @@ export function holdReads(on: boolean) {
   leaving = on;
 }
 
+/** "?a=1&b=x" from the defined values, in the given order. */
+export function queryString(params: object): string {
+  const search = new URLSearchParams();
+  for (const [k, v] of Object.entries(params)) if (v !== undefined && v !== null && v !== '') search.set(k, String(v));
+  const text = search.toString();
+  return text ? `?${text}` : '';
+}
+
 /** A screen's own background refresh: not a person at work, so it doesn't keep an idle session alive. */
 export const PASSIVE_REQUEST_HEADER = 'x-jugline-passive';
 

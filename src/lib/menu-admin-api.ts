@@ -1,19 +1,10 @@
-// The back-office menu editor: categories, items, sizes and recipes, milks, modifiers.
-// Over HTTP in the browser; server/ssr/menu-admin-api.ts is the server-rendering side.
-// Commands run only in the browser, so they are plain HTTP calls beside the interface.
+// The back-office menu editor's commands: categories, items, sizes and recipes, milks, modifiers.
+// Commands run only in the browser, so they are plain HTTP calls; what the editor reads
+// (`api.menuAdmin()`) is in src/reads.ts.
 import type { CategoryBody, ItemBody, MilkBody, ModifierBody, ModifierGroupBody } from '@/domain/menu-admin-schemas';
-import type { AdminMenuView, MenuAdminResult } from '@/domain/menu-admin-view';
+import type { MenuAdminResult } from '@/domain/menu-admin-view';
 import type { Direction } from '@/domain/menu-order';
 import { http } from './http';
-
-export interface MenuAdminApi {
-  /** The whole menu as the owner edits it, retired things included. */
-  editable(): Promise<AdminMenuView>;
-}
-
-export const httpMenuAdminApi: MenuAdminApi = {
-  editable: () => http('GET', '/menu-admin'),
-};
 
 export interface MenuAdminBodies {
   categories: CategoryBody;

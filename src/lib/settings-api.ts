@@ -1,16 +1,7 @@
-// The location's settings: name, money, tax, units, wait target, pitchers, allergen list.
-// Over HTTP in the browser; server/ssr/settings-api.ts is the server-rendering side.
+// The owner's changes to the location's settings: name, money, tax, units, wait target, pitchers,
+// allergen list. The settings page itself is a read (`api.settings()`, src/reads.ts).
 import type { PitcherBody, SettingsBody, SettingsPage } from '@/domain/settings-schemas';
 import { http } from './http';
-
-/** What the settings screen reads (the server renders it from the services). */
-export interface SettingsApi {
-  settings(): Promise<SettingsPage>;
-}
-
-export const httpSettingsApi: SettingsApi = {
-  settings: () => http('GET', '/settings'),
-};
 
 /** The owner's changes; each answers with the whole page again. Browser only. */
 export const settingsCommands = {

@@ -53,7 +53,7 @@ export function applyLiveEvent(qc: QueryClient, event: AnyLiveEvent, api?: Api) 
   updateBar(qc, (b) => (isTicketEvent(event) ? applyEvent(b, event, keepOnBoard) : moveSeq(b, event.seq)));
   if (event.type === 'menu.changed') {
     qc.invalidateQueries({ queryKey: menuKeys.all });
-    if (api) void refreshLocation(qc, boardKeys.bar, api.tickets);
+    if (api) void refreshLocation(qc, boardKeys.bar, () => api.tickets({ view: 'board' }));
   } else if (event.type === 'beans.changed') {
     qc.invalidateQueries({ queryKey: dialInKeys.all });
   } else if (event.type === 'shift.changed') {

@@ -7,4 +7,4 @@ export const beanKeys = {
   lots: () => ['beans', 'lots'] as const,
 };
 
-export const beansQuery = (api: Api) => queryOptions({ queryKey: beanKeys.lots(), queryFn: () => api.beans.lots(), staleTime: 15_000 });
+export const beansQuery = (api: Api) => queryOptions({ queryKey: beanKeys.lots(), queryFn: () => api.beans(), staleTime: 15_000 });

@@ -10,6 +10,6 @@ export const boardKeys = {
 };
 
 /** Open tickets and those ready a short while (the bar's recall tray, the Counter's glance). */
-export const barBoardQuery = (api: Api) => queryOptions({ queryKey: boardKeys.bar, queryFn: () => api.tickets(), staleTime: Infinity });
+export const barBoardQuery = (api: Api) => queryOptions({ queryKey: boardKeys.bar, queryFn: () => api.tickets({ view: 'board' }), staleTime: Infinity });
 
 export const pickupBoardQuery = (api: Api) => queryOptions({ queryKey: boardKeys.pickup, queryFn: () => api.pickup(), staleTime: Infinity });

@@ -9,4 +9,4 @@ export const cardCheckKeys = {
 };
 
 export const cardCheckQuery = (api: Api, date: string | undefined) =>
-  queryOptions({ queryKey: cardCheckKeys.day(date), queryFn: () => api.reports.cardCheck(date), staleTime: 15_000 });
+  queryOptions({ queryKey: cardCheckKeys.day(date), queryFn: () => api.cardCheck({ date }), staleTime: 15_000 });

@@ -8,7 +8,7 @@ export const dialInKeys = {
   shots: (lotId: number) => ['dial-in', 'shots', lotId] as const,
 };
 
-export const dialInQuery = (api: Api) => queryOptions({ queryKey: dialInKeys.view(), queryFn: () => api.beans.dialIn(), staleTime: 10_000 });
+export const dialInQuery = (api: Api) => queryOptions({ queryKey: dialInKeys.view(), queryFn: () => api.dialIn(), staleTime: 10_000 });
 
 export const lotShotsQuery = (api: Api, lotId: number) =>
-  queryOptions({ queryKey: dialInKeys.shots(lotId), queryFn: () => api.beans.shots(lotId), staleTime: 10_000 });
+  queryOptions({ queryKey: dialInKeys.shots(lotId), queryFn: () => api.lotShots({ id: lotId }), staleTime: 10_000 });

@@ -6,4 +6,4 @@ import { menuKeys } from './menu';
 
 export const menuAdminKeys = { editable: [...menuKeys.all, 'admin'] as const };
 
-export const menuAdminQuery = (api: Api) => queryOptions({ queryKey: menuAdminKeys.editable, queryFn: () => api.menuAdmin.editable(), staleTime: 30_000 });
+export const menuAdminQuery = (api: Api) => queryOptions({ queryKey: menuAdminKeys.editable, queryFn: () => api.menuAdmin(), staleTime: 30_000 });

@@ -1,25 +1,25 @@
 // Query keys and options for the Reports screen.
 import { queryOptions } from '@tanstack/react-query';
 import type { Api } from '@/lib/api';
-import type { TicketHistoryParams } from '@/lib/reports-api';
+import type { TicketHistoryQuery } from '@/domain/schemas';
 import type { PeriodChoice } from '@/features/reports/params';
 
 export const reportKeys = {
   all: ['reports'] as const,
   shifts: () => ['reports', 'shifts'] as const,
   report: (period: Exclude<PeriodChoice, { kind: 'today' }>) => ['reports', 'report', period] as const,
-  tickets: (params: TicketHistoryParams) => ['reports', 'tickets', params] as const,
+  tickets: (params: TicketHistoryQuery) => ['reports', 'tickets', params] as const,
 };
 
-export const reportShiftsQuery = (api: Api) => queryOptions({ queryKey: reportKeys.shifts(), queryFn: () => api.reports.shifts(), staleTime: 30_000 });
+export const reportShiftsQuery = (api: Api) => queryOptions({ queryKey: reportKeys.shifts(), queryFn: () => api.reportShifts(), staleTime: 30_000 });
 
 /** A shift's report, or a range's ("today" is the range from today to today). */
 export const reportQuery = (api: Api, period: Exclude<PeriodChoice, { kind: 'today' }>) =>
   queryOptions({
     queryKey: reportKeys.report(period),
-    queryFn: () => (period.kind === 'shift' ? api.reports.shift(period.id) : api.reports.range(period.from, period.to)),
+    queryFn: () => (period.kind === 'shift' ? api.reportShift({ id: period.id }) : api.reportRange({ from: period.from, to: period.to })),
     staleTime: 15_000,
   });
 
-export const ticketHistoryQuery = (api: Api, params: TicketHistoryParams) =>
-  queryOptions({ queryKey: reportKeys.tickets(params), queryFn: () => api.reports.tickets(params), staleTime: 15_000 });
+export const ticketHistoryQuery = (api: Api, params: TicketHistoryQuery) =>
+  queryOptions({ queryKey: reportKeys.tickets(params), queryFn: () => api.reportTickets(params), staleTime: 15_000 });

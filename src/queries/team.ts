@@ -9,9 +9,9 @@ export const teamKeys = {
   switchPeople: () => [...teamKeys.all, 'switch-people'] as const,
 };
 
-export const teamQuery = (api: Api) => queryOptions({ queryKey: teamKeys.list(), queryFn: () => api.team.list(), staleTime: 10_000 });
+export const teamQuery = (api: Api) => queryOptions({ queryKey: teamKeys.list(), queryFn: () => api.team(), staleTime: 10_000 });
 
 export const welcomeQuery = (api: Api, token: string) =>
-  queryOptions({ queryKey: teamKeys.welcome(token), queryFn: () => api.team.welcome(token), staleTime: 60_000, retry: false });
+  queryOptions({ queryKey: teamKeys.welcome(token), queryFn: () => api.welcome({ token }), staleTime: 60_000, retry: false });
 
-export const switchPeopleQuery = (api: Api) => queryOptions({ queryKey: teamKeys.switchPeople(), queryFn: () => api.team.switchPeople(), staleTime: 30_000 });
+export const switchPeopleQuery = (api: Api) => queryOptions({ queryKey: teamKeys.switchPeople(), queryFn: () => api.switchPeople(), staleTime: 30_000 });

@@ -2,7 +2,8 @@ import type { QueryClient } from '@tanstack/react-query';
 import { data, redirect } from 'react-router';
 import { can, type Capability } from '@/domain/roles';
 import { sessionQuery } from '@/queries/session';
-import type { Api, PublicUser } from '@/lib/api';
+import type { PublicUser } from '@/domain/types';
+import type { Api } from '@/lib/api';
 
 /** What route loaders receive: the request's QueryClient and the api to fill it from. */
 export interface RouteDeps {

@@ -15,7 +15,8 @@ import { ShotList } from '@/features/dial-in/shot-list';
 import { goodShotWords, shotNumbers, timeOfDay } from '@/features/dial-in/shot-view';
 import { keepUnits } from '@/lib/keep-units';
 import { useApi } from '@/lib/api-context';
-import { beanCommands, type DialInView } from '@/lib/beans-api';
+import type { DialInView } from '@/domain/beans-schemas';
+import { beanCommands } from '@/lib/beans-api';
 import { ApiError } from '@/lib/http';
 import { requireScreen, type RouteDeps } from './deps';
 

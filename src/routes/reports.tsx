@@ -13,7 +13,7 @@ import { BarUse, PaymentMix, TopItems } from '@/components/report/report-breakdo
 import { ReportTiles } from '@/components/report/report-tiles';
 import { TicketTable } from '@/features/reports/ticket-table';
 import { useApi } from '@/lib/api-context';
-import { queryString } from '@/lib/reports-api';
+import { queryString } from '@/lib/http';
 import { requireScreen, type RouteDeps } from './deps';
 import { SCREENS } from '@/domain/screens';
 

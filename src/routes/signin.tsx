@@ -7,7 +7,7 @@ import { signInBody, type SignInBody } from '@/domain/schemas';
 import { Button } from '@/components/ui/button';
 import { FieldError } from '@/components/ui/field-error';
 import { sessionKeys } from '@/queries/session';
-import type { PublicUser } from '@/lib/api';
+import type { PublicUser } from '@/domain/types';
 import { ApiError, http } from '@/lib/http';
 import { useHydrated } from '@/lib/use-hydrated';
 import type { RouteDeps } from './deps';

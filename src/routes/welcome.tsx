@@ -10,7 +10,7 @@ import { PASSWORD_MAX_BYTES, PASSWORD_MIN_CHARS, setPasswordBody, type SetPasswo
 import { Button } from '@/components/ui/button';
 import { FieldError } from '@/components/ui/field-error';
 import { welcomeQuery } from '@/queries/team';
-import type { PublicUser } from '@/lib/api';
+import type { PublicUser } from '@/domain/types';
 import { useApi } from '@/lib/api-context';
 import { ApiError, http } from '@/lib/http';
 import { useHydrated } from '@/lib/use-hydrated';

@@ -2,7 +2,7 @@
 // stock that a bumped drink takes from the lot in the espresso grinder and a recall gives back.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BeanLotView } from '@/domain/bean-stock';
-import type { BeansView } from '@/lib/beans-api';
+import type { BeansView } from '@/domain/beans-schemas';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { lotBody, orderBody, type Agent, type LineInput } from './helpers';
 

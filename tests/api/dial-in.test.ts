@@ -3,7 +3,7 @@
 // good settings follow. Advice values: common practice (see tests/unit/dial-in.test.ts).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BeanLotView } from '@/domain/bean-stock';
-import type { DialInView } from '@/lib/beans-api';
+import type { DialInView } from '@/domain/beans-schemas';
 import { manualClock, startTestServer, type TestServer } from '../support/test-server';
 import type { Agent } from './helpers';
 

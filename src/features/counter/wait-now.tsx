@@ -18,7 +18,7 @@ export function WaitNow({ items }: { items: { menuItemId: number; quantity?: num
   const drinks = Math.max(1, cupsOf(items.filter((l) => menu.items.find((i) => i.id === l.menuItemId)?.station === 'bar')));
   const { data } = useQuery({
     queryKey: waitNowKeys.of(drinks, board.seq),
-    queryFn: () => api.waitNow(drinks),
+    queryFn: () => api.waitNow({ drinks }),
     staleTime: 15_000,
     placeholderData: keepPreviousData,
   });

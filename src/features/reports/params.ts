@@ -2,8 +2,7 @@
 // rendered on the server: ?shift=12 or ?from=…&to=… (none: today), and the ticket table's
 // q, status, sort, dir and page. A value that doesn't parse is left out, never an error page.
 import { z } from 'zod';
-import { calendarDate, ticketHistoryQuery } from '@/domain/schemas';
-import type { TicketHistoryParams } from '@/lib/reports-api';
+import { calendarDate, ticketHistoryQuery, type TicketHistoryQuery } from '@/domain/schemas';
 
 export type PeriodChoice = { kind: 'today' } | { kind: 'shift'; id: number } | { kind: 'range'; from: string; to: string };
 
@@ -21,7 +20,7 @@ export function periodFrom(params: URLSearchParams): PeriodChoice {
 const TABLE_KEYS = ['q', 'status', 'sort', 'dir', 'page'] as const;
 
 /** The ticket table's own settings, each dropped on its own when it doesn't parse. */
-export function tableFrom(params: URLSearchParams): Pick<TicketHistoryParams, 'q' | 'status' | 'sort' | 'dir' | 'page'> {
+export function tableFrom(params: URLSearchParams): Pick<TicketHistoryQuery, 'q' | 'status' | 'sort' | 'dir' | 'page'> {
   const raw: Record<string, string> = {};
   for (const key of TABLE_KEYS) {
     const value = params.get(key);
@@ -33,7 +32,7 @@ export function tableFrom(params: URLSearchParams): Pick<TicketHistoryParams, 'q
 }
 
 /** The report's dates, which the ticket table follows. */
-export function ticketParams(dates: { from: string; to: string }, params: URLSearchParams): TicketHistoryParams {
+export function ticketParams(dates: { from: string; to: string }, params: URLSearchParams): TicketHistoryQuery {
   return { from: dates.from, to: dates.to, ...tableFrom(params), pageSize: TICKETS_PAGE_SIZE };
 }
 

@@ -8,7 +8,8 @@ import { Form, Link, useNavigate, useSearchParams } from 'react-router';
 import { formatCount, TICKET_SORTS, type TicketHistoryPage, type TicketSort } from '@/domain/reports';
 import { buttonStyles } from '@/components/ui/button';
 import { cn } from '@/lib/cn';
-import { queryString, type TicketHistoryParams } from '@/lib/reports-api';
+import type { TicketHistoryQuery } from '@/domain/schemas';
+import { queryString } from '@/lib/http';
 import { tdClass, thClass } from '@/components/report/report-breakdowns';
 import { ticketColumns, type ColumnContext } from './ticket-columns';
 import { withParams } from './params';
@@ -20,7 +21,7 @@ const STATUS_ORDER = ['open', 'ready', 'collected', 'pending', 'void'] as const;
 
 const field = 'min-h-11 rounded-lg border border-steam-200 bg-white px-3 text-base text-ink-900';
 
-export function TicketTable({ page, params, context }: { page: TicketHistoryPage; params: TicketHistoryParams; context: ColumnContext }) {
+export function TicketTable({ page, params, context }: { page: TicketHistoryPage; params: TicketHistoryQuery; context: ColumnContext }) {
   const [search] = useSearchParams();
   const navigate = useNavigate();
   const go = (changes: Record<string, string | number | undefined>) =>

@@ -5,7 +5,7 @@ import { useEffect, useRef, useState } from 'react';
 import type { SwitchPerson } from '@/domain/team-schemas';
 import { Button } from '@/components/ui/button';
 import { useModalFocus } from '@/components/ui/use-modal-focus';
-import type { PublicUser } from '@/lib/api';
+import type { PublicUser } from '@/domain/types';
 import { useApi } from '@/lib/api-context';
 import { ApiError, holdReads, http, leavePage } from '@/lib/http';
 import { MyPinForm } from './my-pin-form';

@@ -1,0 +1,146 @@
+// Every read the screens make, defined once: its path, who may make it, the input it takes and the
+// shape of its answer. The GET routes and the server-rendering Api (server/reads.ts) and the
+// browser's Api (src/lib/api.ts) are all made from this table, so their paths and checks can't
+// drift apart. A `:name` in the path is filled from the input; the rest of the input is the query
+// string. Commands (POST, PUT, …) and CSV downloads are plain routes, not reads.
+import type { z } from 'zod';
+import type { BeansView, DialInView } from '@/domain/beans-schemas';
+import type { CardCheckView } from '@/domain/card-check';
+import type { DialInShotView } from '@/domain/dial-in';
+import type { PlannedLane, ShotPlan } from '@/domain/lanes';
+import type { AdminMenuView } from '@/domain/menu-admin-view';
+import type { OutboxView } from '@/domain/outbox';
+import type { PickupBoard } from '@/domain/pickup';
+import type { PulseView } from '@/domain/pulse';
+import type { ReportShiftsView, ReportView, TicketHistoryPage } from '@/domain/reports';
+import type { Capability } from '@/domain/roles';
+import type { SettingsPage } from '@/domain/settings-schemas';
+import type { SwitchPerson, TeamView, WelcomeView } from '@/domain/team-schemas';
+import type { BoardSnapshot, MenuView, OrderView, PublicUser } from '@/domain/types';
+import type { CounterWaitNow } from '@/domain/wait-now';
+
+export interface ReadDef {
+  /** Under /api; `:name` segments come from the input. */
+  path: string;
+  /** null: open to everyone, signed in or not. */
+  capability: Capability | null;
+  /** The schema of the path's :params and the query string, checked as one object (a bad one
+   * answers 400); see `schema` below. */
+  input?: () => Promise<z.ZodType>;
+  /** A screen's own background refresh: it doesn't keep an idle session awake (src/lib/http.ts). */
+  passive?: true;
+  /** Answered with `Cache-Control: no-store` (the path holds a secret). */
+  noStore?: true;
+}
+
+declare const answer: unique symbol;
+/** A read's definition, carrying the type of its answer. */
+export type Read<O, D extends ReadDef = ReadDef> = D & { readonly [answer]?: [O] };
+
+/** `read<Answer>()({ path, capability, input? })`: the answer's type is given, the rest inferred. */
+export const read =
+  <O>() =>
+  <const D extends ReadDef>(def: D): Read<O, D> =>
+    def;
+
+// Only the server parses a read's input, so its schema is loaded when first used: the browser's
+// Api needs the paths alone, and would otherwise bring zod into every screen's first load.
+const schemas = () => import('@/domain/schemas');
+const teamSchemas = () => import('@/domain/team-schemas');
+const cardCheckSchemas = () => import('@/domain/card-check-schemas');
+const waitNowSchemas = () => import('@/domain/wait-now');
+/** `schema(schemas, 'idParam')`: a schema from src/domain, by its module and name. */
+const schema =
+  <M, K extends keyof M>(load: () => Promise<M>, name: K) =>
+  async (): Promise<M[K]> =>
+    (await load())[name];
+
+export const reads = {
+  session: read<{ user: PublicUser | null }>()({ path: '/session', capability: null }),
+
+  // the Counter, the Bar, Pickup and Pulse
+  menu: read<MenuView>()({ path: '/menu', capability: 'viewQueue' }),
+  /** `view: 'board'`: the open tickets and the ready ones still inside the Pickup timeout. */
+  tickets: read<BoardSnapshot>()({ path: '/tickets', capability: 'viewQueue', input: schema(schemas, 'ticketsQuery') }),
+  barLanes: read<{ seq: number; now: string; lanes: PlannedLane[]; shotPlan: ShotPlan }>()({ path: '/bar/lanes', capability: 'viewQueue' }),
+  /** The Pickup screen's board: first names, numbers, status and ready times only. */
+  pickup: read<PickupBoard>()({ path: '/pickup', capability: 'viewPickup' }),
+  /** Today's orders, newest first; `q` matches a name or number. */
+  orders: read<{ orders: OrderView[] }>()({ path: '/orders', capability: 'takeOrders', input: schema(schemas, 'ordersQuery') }),
+  order: read<{ order: OrderView }>()({ path: '/orders/:id', capability: 'takeOrders', input: schema(schemas, 'idParam') }),
+  /** The wait a customer would be quoted now for `drinks` bar drinks (the Counter, before payment).
+   * Passive: a glance the Counter refreshes as the bar moves, not activity that keeps a session awake. */
+  waitNow: read<{ waitNow: CounterWaitNow }>()({ path: '/wait-now', capability: 'takeOrders', input: schema(waitNowSchemas, 'waitNowQuery'), passive: true }),
+  /** The shift lead's live numbers. */
+  pulse: read<PulseView>()({ path: '/pulse', capability: 'viewPulse' }),
+  /** Mail the local SMTP fake caught for this café, newest first. Passive: the Outbox refreshes
+   * itself every few seconds, and that alone mustn't keep a session awake. */
+  outbox: read<OutboxView>()({ path: '/outbox', capability: 'viewOutbox', passive: true }),
+
+  // reports, for the lead and the owner
+  /** Recent shifts, newest first, and the café's date today. */
+  reportShifts: read<ReportShiftsView>()({ path: '/reports/shifts', capability: 'viewReports' }),
+  reportShift: read<ReportView>()({ path: '/reports/shift/:id', capability: 'viewReports', input: schema(schemas, 'idParam') }),
+  /** Café-local dates, both included. */
+  reportRange: read<ReportView>()({ path: '/reports/range', capability: 'viewReports', input: schema(schemas, 'reportRangeQuery') }),
+  reportTickets: read<TicketHistoryPage>()({ path: '/reports/tickets', capability: 'viewReports', input: schema(schemas, 'ticketHistoryQuery') }),
+  /** The card check of a café-local date (today when left out). */
+  cardCheck: read<CardCheckView>()({ path: '/reports/cards', capability: 'viewReports', input: schema(cardCheckSchemas, 'cardCheckQuery') }),
+
+  // back office
+  /** The whole menu as the owner edits it, retired things included. */
+  menuAdmin: read<AdminMenuView>()({ path: '/menu-admin', capability: 'editMenu' }),
+  team: read<TeamView>()({ path: '/team', capability: 'manageTeam' }),
+  /** Who may take over this terminal by PIN. */
+  switchPeople: read<{ people: SwitchPerson[] }>()({ path: '/switch/people', capability: 'viewQueue' }),
+  /** Who an invitation or reset link is for; 404 when it can't be used. */
+  welcome: read<WelcomeView>()({ path: '/welcome/:token', capability: null, input: schema(teamSchemas, 'tokenParam'), noStore: true }),
+  settings: read<SettingsPage>()({ path: '/settings', capability: 'editSettings' }),
+  /** Every lot, retired ones last, and the location's dial-in window (owner). */
+  beans: read<BeansView>()({ path: '/beans', capability: 'manageBeans' }),
+  /** Lots in use, the window and the lot in the espresso grinder (barista and up). */
+  dialIn: read<DialInView>()({ path: '/dial-in', capability: 'logDialIn' }),
+  /** A lot's latest test shots, newest first. */
+  lotShots: read<{ shots: DialInShotView[] }>()({ path: '/dial-in/lots/:id/shots', capability: 'logDialIn', input: schema(schemas, 'idParam') }),
+};
+
+export type Reads = typeof reads;
+export type ReadName = keyof Reads;
+export const READ_NAMES = Object.keys(reads) as ReadName[];
+
+type SchemaOf<R> = R extends { input: () => Promise<infer S extends z.ZodType> } ? S : undefined;
+/** The schema's input, with a coerced field (typed `unknown` by zod) as the type it becomes. */
+type CallerInput<S extends z.ZodType> = {
+  [K in keyof z.input<S>]: unknown extends z.input<S>[K] ? (K extends keyof z.output<S> ? z.output<S>[K] : never) : z.input<S>[K];
+};
+
+/** What a caller passes to a read. */
+export type ReadInput<R> = SchemaOf<R> extends z.ZodType ? CallerInput<SchemaOf<R>> : void;
+/** What the server's handler gets: the input as parsed, defaults filled in. */
+export type ParsedInput<R> = SchemaOf<R> extends z.ZodType ? z.output<SchemaOf<R>> : void;
+export type ReadOutput<R> = R extends { readonly [answer]?: [infer O] } ? O : never;
+
+/** A read as a function: no argument without an input, an optional one when every field may be left out. */
+export type ReadCall<R> =
+  SchemaOf<R> extends z.ZodType
+    ? object extends ReadInput<R>
+      ? (input?: ReadInput<R>) => Promise<ReadOutput<R>>
+      : (input: ReadInput<R>) => Promise<ReadOutput<R>>
+    : () => Promise<ReadOutput<R>>;
+
+/**
+ * What goes over the wire: the path with its :params filled, and the rest of the input as query
+ * values. Empty values (undefined, null, '') are left out, as a form leaves out an empty field.
+ * The server parses `{ ...query, ...params }` the same way whether it came over HTTP or not.
+ */
+export function wireOf(def: ReadDef, input: object | void): { path: string; params: Record<string, string>; query: Record<string, string> } {
+  const values: Record<string, string> = {};
+  for (const [k, v] of Object.entries(input ?? {})) if (v !== undefined && v !== null && v !== '') values[k] = String(v);
+  const params: Record<string, string> = {};
+  const path = def.path.replace(/:(\w+)/g, (_, name: string) => {
+    params[name] = values[name] ?? '';
+    delete values[name];
+    return encodeURIComponent(params[name]);
+  });
+  return { path, params, query: values };
+}
