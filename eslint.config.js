@@ -68,6 +68,19 @@ export default tseslint.config(
     },
   },
   {
+    // the server shares code with the screens only through src/domain and src/reads.ts
+    files: ['server/**/*.ts'],
+    ignores: ['server/ssr/**'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [{ regex: '^@/(lib|features|queries|components|live|routes)/', message: 'The server imports only src/domain and src/reads.ts from src/.' }],
+        },
+      ],
+    },
+  },
+  {
     // a service refuses in the café's terms (server/domain-errors.ts); only the HTTP layer picks statuses
     files: ['server/{orders,payments,tickets,menu,beans,shifts,reports,team,settings,mail}/**/*.ts'],
     ignores: ['server/*/routes.ts', 'server/*/*-routes.ts'],
@@ -81,6 +94,8 @@ export default tseslint.config(
               importNames: ['HttpError'],
               message: 'Services throw DomainError (server/domain-errors.ts); the error handler picks the status.',
             },
+            // repeated from the server-wide rule above: a later rule replaces an earlier one's patterns
+            { regex: '^@/(lib|features|queries|components|live|routes)/', message: 'The server imports only src/domain and src/reads.ts from src/.' },
           ],
         },
       ],

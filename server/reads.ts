@@ -6,7 +6,7 @@ import { openTickets } from '@/domain/tickets';
 import { planBar } from '@/domain/lanes';
 import { pickupView } from '@/domain/pickup';
 import type { SessionUser } from '@/domain/types';
-import type { Api } from '@/lib/api';
+import type { Api } from '@/reads';
 import { READ_NAMES, reads, wireOf, type ParsedInput, type ReadDef, type ReadOutput, type Reads } from '@/reads';
 import { refusal } from './auth/guards';
 import { beansView } from './beans/beans';

@@ -6,7 +6,7 @@ import { renderToString } from 'react-dom/server';
 import { createStaticHandler, createStaticRouter, StaticRouterProvider } from 'react-router';
 import type { Api } from './lib/api';
 import { ApiContext } from './lib/api-context';
-import { escapeHtml, jsonForScript } from './lib/html';
+import { escapeHtml, jsonForScript } from './domain/html';
 import { createRoutes, SCREEN_FILES } from './routes';
 import { embedOf, headOf, titleOf } from './routes/root';
 

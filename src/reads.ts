@@ -105,6 +105,15 @@ export const reads = {
 };
 
 export type Reads = typeof reads;
+
+/** Each read as a function: `api.orders({ q })`, `api.reportShift({ id })`, `api.menu()`. */
+export type Api = { [K in keyof Reads]: ReadCall<Reads[K]> };
+
+/**
+ * The header of a request a screen makes in the background (a passive read, the live socket's
+ * session check): it does not count as the person being active (server/auth/session.ts).
+ */
+export const PASSIVE_REQUEST_HEADER = 'x-jugline-passive';
 export type ReadName = keyof Reads;
 export const READ_NAMES = Object.keys(reads) as ReadName[];
 

@@ -10,7 +10,7 @@ import { Passport } from 'passport';
 import type { Logger } from 'pino';
 import { Strategy as LocalStrategy } from 'passport-local';
 import type { SessionUser } from '@/domain/types';
-import { PASSIVE_REQUEST_HEADER } from '@/lib/http';
+import { PASSIVE_REQUEST_HEADER } from '@/reads';
 import { dialectOf, jsonNumberSql, jsonSetNumbersSql } from '@server/db/dialect';
 import { bool } from '@server/db/rows';
 import { hashPassword, verifyPassword } from './passwords';

@@ -4,7 +4,7 @@ import type { Deps } from '@server/deps';
 import { formatCents } from '@/domain/money';
 import { groupOrderLines } from '@/domain/order-quantity';
 import type { OrderLineView, OrderView } from '@/domain/types';
-import { escapeHtml } from '@/lib/html';
+import { escapeHtml } from '@/domain/html';
 import { notFound } from '@server/domain-errors';
 import type { Mailer } from '@server/mail/outbox';
 import { loadOrder } from './order-views';

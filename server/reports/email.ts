@@ -5,7 +5,7 @@ import { formatDuration } from '@/domain/format';
 import { formatCoffee, formatLitres, formatShare, type ReportView } from '@/domain/reports';
 import { cashDifferenceWords, openTicketsWords } from '@/domain/shift-close';
 import { PERCENTILE_METHOD } from '@/domain/stats';
-import { escapeHtml } from '@/lib/html';
+import { escapeHtml } from '@/domain/html';
 
 export interface ReportMailLocation {
   name: string;

@@ -6,7 +6,7 @@ import path from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import express, { type Request, type RequestHandler } from 'express';
 import type { RenderResult } from '@/entry-server';
-import type { Api } from '@/lib/api';
+import type { Api } from '@/reads';
 import type { Deps } from '@server/deps';
 import { serverApi } from '@server/reads';
 

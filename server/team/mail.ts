@@ -1,7 +1,7 @@
 // The mail that carries an invitation or a reset link (plain text and HTML).
 import type { LinkPurpose } from '@/domain/team-schemas';
 import { LINK_HOURS } from '@/domain/team-schemas';
-import { escapeHtml } from '@/lib/html';
+import { escapeHtml } from '@/domain/html';
 
 export interface LinkMailInput {
   purpose: LinkPurpose;

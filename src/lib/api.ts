@@ -1,11 +1,10 @@
 // What screens read, as one interface made from the reads in src/reads.ts: over HTTP in the
 // browser (httpApi), straight from the services during server rendering (serverApi in
 // server/reads.ts, so a page render makes no network round trip).
-import { READ_NAMES, reads, wireOf, type ReadCall, type ReadDef, type Reads } from '@/reads';
+import { READ_NAMES, reads, wireOf, type Api, type ReadDef } from '@/reads';
 import { http, queryString } from './http';
 
-/** Each read as a function: `api.orders({ q })`, `api.reportShift({ id })`, `api.menu()`. */
-export type Api = { [K in keyof Reads]: ReadCall<Reads[K]> };
+export type { Api };
 
 const overHttp =
   (def: ReadDef) =>

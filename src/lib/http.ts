@@ -1,4 +1,5 @@
 // The browser's JSON client for /api. Errors arrive in one shape and become ApiError.
+import { PASSIVE_REQUEST_HEADER } from '@/reads';
 export interface ErrorDetail {
   path: string;
   message: string;
@@ -59,7 +60,7 @@ export function queryString(params: object): string {
 }
 
 /** A screen's own background refresh: not a person at work, so it doesn't keep an idle session alive. */
-export const PASSIVE_REQUEST_HEADER = 'x-jugline-passive';
+export { PASSIVE_REQUEST_HEADER };
 
 export async function http<T>(method: string, path: string, body?: unknown, opts: { passive?: boolean } = {}): Promise<T> {
   // the page is changing: a read now would only be answered for the session that replaces it

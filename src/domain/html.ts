@@ -1,3 +1,5 @@
+// Text made safe for HTML: escaped for an element's text or an attribute, or JSON inside a
+// <script type="application/json"> element. Pure, so the server's mails and pages use it too.
 /** JSON safe to place inside a <script type="application/json"> element. */
 export function jsonForScript(value: unknown): string {
   return JSON.stringify(value)
