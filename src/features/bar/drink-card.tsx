@@ -133,13 +133,21 @@ export function DrinkCard({ card, unit, nowMs, targetSeconds, keyNumber, jugLabe
       </div>
       <div className="mt-2 flex flex-wrap gap-2">
         {card.status === 'queued' ? (
-          <Button tone="dark" size="lg" className="flex-1" disabled={busy} onClick={onStart}>
+          // nowrap: a narrow lane puts Bump on a row of its own rather than split a word ("Star / t")
+          <Button tone="dark" size="lg" className="flex-1 whitespace-nowrap" disabled={busy} onClick={onStart}>
             Start
           </Button>
         ) : (
-          <span className="flex flex-1 items-center justify-center rounded-lg border-2 border-crema-300 text-xl font-semibold">Making</span>
+          <span className="flex flex-1 items-center justify-center rounded-lg border-2 border-crema-300 text-xl font-semibold whitespace-nowrap">Making</span>
         )}
-        <Button tone="bump" size="lg" className="flex-[2]" disabled={busy || unread} title={unread ? 'Read the allergy first' : undefined} onClick={onBump}>
+        <Button
+          tone="bump"
+          size="lg"
+          className="flex-[2] whitespace-nowrap"
+          disabled={busy || unread}
+          title={unread ? 'Read the allergy first' : undefined}
+          onClick={onBump}
+        >
           Bump ✓
         </Button>
         {canRush && !card.rushedAt && (
