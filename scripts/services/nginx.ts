@@ -47,12 +47,21 @@ export async function startNginx(upstreamPorts: number[], port?: number): Promis
   copyFileSync(NGINX_CONF, path.join(prefix, 'nginx.conf'));
   const args = ['-p', prefix + '/', '-c', path.join(prefix, 'nginx.conf'), '-e', path.join(prefix, 'logs', 'error.log'), '-g', 'daemon off;'];
   const test = spawnSync(NGINX, [...args, '-t'], { encoding: 'utf8' });
-  if (test.status !== 0) throw new Error(`nginx refused deploy/nginx.conf:\n${test.stderr}`);
+  if (test.status !== 0) {
+    rmSync(prefix, { recursive: true, force: true });
+    throw new Error(`nginx refused deploy/nginx.conf:\n${test.stderr}`);
+  }
   const child = spawn(NGINX, args, { stdio: ['ignore', 'ignore', 'pipe'] });
   let output = '';
   child.stderr?.on('data', (d) => (output = (output + d).slice(-10_000)));
   const log = () => output + (existsSync(path.join(prefix, 'logs', 'error.log')) ? readFileSync(path.join(prefix, 'logs', 'error.log'), 'utf8') : '');
-  await waitForPort(listen, child, log);
+  try {
+    await waitForPort(listen, child, log);
+  } catch (err) {
+    child.kill('SIGKILL');
+    rmSync(prefix, { recursive: true, force: true });
+    throw err;
+  }
   return {
     url: `http://127.0.0.1:${listen}`,
     port: listen,
