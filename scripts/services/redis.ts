@@ -58,7 +58,13 @@ export async function startRedis(): Promise<RedisServer> {
     child.kill('SIGTERM');
     await exited;
   };
-  await launch();
+  try {
+    await launch();
+  } catch (err) {
+    await halt();
+    rmSync(dir, { recursive: true, force: true });
+    throw err;
+  }
   return {
     url: `redis://127.0.0.1:${port}`,
     down: halt,
