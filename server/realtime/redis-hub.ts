@@ -118,18 +118,27 @@ export function createRedisHub(url: string, db: Knex, log: (message: string) => 
     drain(locationId, cafe);
   }
 
+  // A sign-out has no table to be filled from: while Redis is away it waits (a bounded few) and
+  // goes out when the connection is back. One lost anyway is caught by the other processes'
+  // heartbeat, which finds the session gone within a minute (socket-server.ts).
+  const newsWaiting: string[] = [];
+  const sendNews = (text: string) =>
+    publisher.publish(SESSIONS_CHANNEL, text).catch((err: Error) => log(`A sign-out could not be published to Redis: ${err.message}`));
+  const publishNews = (text: string) => {
+    if (publisher.status === 'ready') void sendNews(text);
+    else if (newsWaiting.length < 1000) newsWaiting.push(text);
+  };
+  publisher.on('ready', () => {
+    for (const text of newsWaiting.splice(0)) void sendNews(text);
+  });
+
   // this process's own news comes back from Redis too: it is told apart by this tag
   const origin = randomUUID();
   const sessions = new EventEmitter();
   const emitHere = sessions.emit.bind(sessions);
   sessions.emit = (name: string | symbol, ...args: unknown[]) => {
     const handled = emitHere(name, ...args);
-    if ((SESSION_NEWS as readonly (string | symbol)[]).includes(name)) {
-      publisher.publish(SESSIONS_CHANNEL, JSON.stringify({ origin, name, sid: args[0] })).catch((err: Error) => {
-        // the other processes' heartbeat finds the session gone within a minute (socket-server.ts)
-        log(`A sign-out could not be published to Redis: ${err.message}`);
-      });
-    }
+    if ((SESSION_NEWS as readonly (string | symbol)[]).includes(name)) publishNews(JSON.stringify({ origin, name, sid: args[0] }));
     return handled;
   };
 

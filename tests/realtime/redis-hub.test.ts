@@ -95,27 +95,6 @@ describe('live events across processes', () => {
     );
   });
 
-  it('Redis down mid-rush loses nothing: what was taken meanwhile reaches the Bar once Redis is back', async () => {
-    const { client: bar, hello } = await connectAndResume(c.url, await c.cookieFor('barista'));
-    const start = hello.seq;
-    const lines = await demoLines(a);
-    const counter = await a.signIn('cashier');
-    for (let i = 0; i < 3; i++) await fireOrder(counter, `Before ${i + 1}`, [lines.latte()]);
-    await eventsUntil(bar, start + 3); // live now
-    await redis.down();
-    // taken while Redis is away: committed, published to nobody
-    for (let i = 0; i < 3; i++) await fireOrder(counter, `Meanwhile ${i + 1}`, [lines.flatWhite()]);
-    await redis.up();
-    // nothing more is taken: only the Bar's process catching up from the table can bring these
-    const end = await latestSeq(a.db, locationId);
-    expect(end - start).toBe(6);
-    await expectContiguous(
-      (await eventsUntil(bar, end)).filter((e) => e.seq > start),
-      start,
-      end,
-    );
-  });
-
   it('signing out on one process closes that session’s screens on the others at once (4401)', async () => {
     const cookie = await a.cookieFor('barista');
     const onB = await connect(b.url, cookie);
@@ -160,5 +139,27 @@ describe('live events across processes', () => {
       await closeAllSockets();
       await nginx.stop();
     }
+  });
+
+  // last: the processes' Redis connections come back on their own clock after this one
+  it('Redis down mid-rush loses nothing: what was taken meanwhile reaches the Bar once Redis is back', async () => {
+    const { client: bar, hello } = await connectAndResume(c.url, await c.cookieFor('barista'));
+    const start = hello.seq;
+    const lines = await demoLines(a);
+    const counter = await a.signIn('cashier');
+    for (let i = 0; i < 3; i++) await fireOrder(counter, `Before ${i + 1}`, [lines.latte()]);
+    await eventsUntil(bar, start + 3); // live now
+    await redis.down();
+    // taken while Redis is away: committed, published to nobody
+    for (let i = 0; i < 3; i++) await fireOrder(counter, `Meanwhile ${i + 1}`, [lines.flatWhite()]);
+    await redis.up();
+    // nothing more is taken: only the Bar's process catching up from the table can bring these
+    const end = await latestSeq(a.db, locationId);
+    expect(end - start).toBe(6);
+    await expectContiguous(
+      (await eventsUntil(bar, end)).filter((e) => e.seq > start),
+      start,
+      end,
+    );
   });
 });
