@@ -1,5 +1,6 @@
 // Café-local calendar dates ('YYYY-MM-DD') and local clock times turned into UTC instants.
 import { businessDate } from '@/domain/business-date';
+import { offsetMinutes } from '@server/reports/local-hours';
 
 export { businessDate };
 
@@ -22,28 +23,8 @@ export function daysEndingYesterday(now: Date, timeZone: string, count: number):
   return Array.from({ length: count }, (_, i) => addDays(today, i - count));
 }
 
-const formats = new Map<string, Intl.DateTimeFormat>();
-
-/** How far the zone's wall clock is ahead of UTC at that instant, in ms. */
-function zoneOffsetMs(utcMs: number, timeZone: string): number {
-  let format = formats.get(timeZone);
-  if (!format) {
-    format = new Intl.DateTimeFormat('en-US', {
-      timeZone,
-      hourCycle: 'h23',
-      year: 'numeric',
-      month: 'numeric',
-      day: 'numeric',
-      hour: 'numeric',
-      minute: 'numeric',
-      second: 'numeric',
-    });
-    formats.set(timeZone, format);
-  }
-  const p = Object.fromEntries(format.formatToParts(new Date(utcMs)).map((x) => [x.type, x.value]));
-  const wall = Date.UTC(Number(p.year), Number(p.month) - 1, Number(p.day), Number(p.hour), Number(p.minute), Number(p.second));
-  return wall - Math.floor(utcMs / 1000) * 1000;
-}
+/** How far the zone's wall clock is ahead of UTC at that instant, in ms (the reports' own reading). */
+const zoneOffsetMs = (utcMs: number, timeZone: string) => offsetMinutes(utcMs, timeZone) * 60_000;
 
 /**
  * The UTC instant (ms) of the café's local midnight as its daytime clock reads it: add a number of
