@@ -56,7 +56,7 @@ export default defineConfig({
           include: ['tests/api/**/*.test.ts', 'tests/realtime/**/*.test.ts'],
           // files whose subject is not the database: the input fuzzers (what they send is refused
           // before any SQL runs; they take a minute), settings, the error mapping, the request log
-          // (a SQLite file of its own) and the row types (read from SQLite's schema)
+          // (a SQLite file of its own), the row types (read from SQLite's schema) and the throttles' Redis counts
           exclude: [
             'tests/api/bad-input.property.test.ts',
             'tests/api/control-characters.property.test.ts',
@@ -64,6 +64,7 @@ export default defineConfig({
             'tests/api/domain-errors.test.ts',
             'tests/api/logging.test.ts',
             'tests/api/table-types.test.ts',
+            'tests/realtime/shared-limits.test.ts',
           ],
           setupFiles: ['tests/support/server-setup.ts'],
           globalSetup: ['tests/support/pg-global-setup.ts'],

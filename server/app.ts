@@ -24,6 +24,7 @@ import { readRoutes } from './reads';
 import { reportRoutes } from './reports/routes';
 import { shiftRoutes } from './shifts/routes';
 import { sessionRoutes, type SignInPacing } from './auth/routes';
+import { processLimits, type Limits } from './auth/shared-limits';
 import { ticketRoutes } from './tickets/routes';
 import type { Clock, Deps } from './deps';
 import { PHOTO_FOLDER } from './menu/item-photos';
@@ -53,6 +54,8 @@ export interface AppOptions {
   mediaDir?: string;
   /** The clock and pause of sign-in pacing; real time unless a test passes virtual ones. */
   signInPacing?: SignInPacing;
+  /** Where the throttles count; several processes share Redis (shared-limits.ts). Left out: this process. */
+  limits?: Limits;
 }
 
 export interface App {
@@ -100,15 +103,16 @@ export function createApp(opts: AppOptions): App {
     logger: opts.logger,
   });
   const passport = createPassport(opts.db, opts.sessionClock);
+  const limits = opts.limits ?? processLimits();
   const routes = [
-    ...sessionRoutes(passport, deps, { secret: opts.config.sessionSecret, pacing: opts.signInPacing }),
+    ...sessionRoutes(passport, deps, { secret: opts.config.sessionSecret, pacing: opts.signInPacing, counts: limits.signIn }),
     ...menuRoutes(deps),
     ...orderRoutes(deps),
     ...ticketRoutes(deps),
     ...shiftRoutes(deps),
     ...reportRoutes(deps),
   ];
-  routes.push(...menuAdminRoutes(deps), ...menuImportRoutes(deps, mediaDir), ...teamRoutes(deps), ...settingsRoutes(deps), ...beanRoutes(deps));
+  routes.push(...menuAdminRoutes(deps), ...menuImportRoutes(deps, mediaDir), ...teamRoutes(deps, limits), ...settingsRoutes(deps), ...beanRoutes(deps));
   if (opts.mailer) routes.push(...mailRoutes(deps, opts.mailer));
   // the reads (src/reads.ts) last: a download such as /reports/shift/:id.csv must be matched first
   routes.push(...readRoutes(deps));

@@ -20,6 +20,7 @@ import { WEBHOOK_PATH } from './orders/routes';
 import type { SignInPacing } from './auth/routes';
 import { developmentPages, productionPages } from './ssr/pages';
 import { createRedisHub } from './realtime/redis-hub';
+import { redisLimits } from './auth/shared-limits';
 
 export interface RunningServer {
   url: string;
@@ -81,6 +82,8 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
   // several processes: events travel through Redis; one process: the in-process hub (app.ts)
   const hub = config.redisUrl ? createRedisHub(config.redisUrl, db, (m) => console.warn(m)) : undefined;
   await hub?.ready;
+  const limits = config.redisUrl ? redisLimits(config.redisUrl, (m) => console.warn(m)) : undefined;
+  await limits?.ready;
   const { app, deps, sessionMiddleware, routes } = createApp({
     db,
     config,
@@ -94,6 +97,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
     signInPacing: opts.signInPacing,
     hub,
     sessions: hub?.sessions,
+    limits,
   });
   server.on('request', app);
   const sockets = attachSocketServer(server, deps, sessionMiddleware);
@@ -117,6 +121,7 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
       await mail.close();
       await payments.close();
       await hub?.close();
+      await limits?.close();
       await db.destroy();
     })());
   return { url, server, db, deps, routes, sockets, payments: { webhookSecret: payments.webhookSecret, fake: payments.fake }, close };

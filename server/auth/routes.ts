@@ -4,7 +4,7 @@ import type { createPassport } from './session';
 import { signInBody } from '@/domain/schemas';
 import type { SessionUser } from '@/domain/types';
 import { knownTerminals } from './known-terminal';
-import { SignInThrottle, type Outcome } from './sign-in-throttle';
+import { SignInThrottle, type Outcome, type SignInCounts } from './sign-in-throttle';
 import { HttpError, parse } from '@server/errors';
 import type { Clock, Deps } from '@server/deps';
 import type { ApiRoute } from '@server/routes';
@@ -20,15 +20,19 @@ export interface SignInPacing {
 // unref: a pause never keeps a stopping process alive
 const realSleep = (ms: number) => new Promise<void>((resolve) => setTimeout(resolve, ms).unref());
 
-export function sessionRoutes(passport: ReturnType<typeof createPassport>, deps: Deps, opts: { secret: string; pacing?: SignInPacing }): ApiRoute[] {
+export function sessionRoutes(
+  passport: ReturnType<typeof createPassport>,
+  deps: Deps,
+  opts: { secret: string; pacing?: SignInPacing; counts?: SignInCounts },
+): ApiRoute[] {
   const clock = opts.pacing?.clock ?? (() => new Date());
-  const throttle = new SignInThrottle(() => clock().getTime(), opts.pacing?.sleep ?? realSleep);
+  const throttle = new SignInThrottle(() => clock().getTime(), opts.pacing?.sleep ?? realSleep, opts.counts);
   const terminals = knownTerminals(opts.secret);
 
   const signIn = async (req: Request, res: Response, next: NextFunction) => {
     req.body = parse(signInBody, req.body);
     const name = req.body.username.toLowerCase();
-    const admission = throttle.admit({ name, address: ipKeyGenerator(req.ip ?? 'unknown'), terminal: terminals.idFor(req, name) });
+    const admission = await throttle.admit({ name, address: ipKeyGenerator(req.ip ?? 'unknown'), terminal: terminals.idFor(req, name) });
     if (!admission.ok) {
       res.set('Retry-After', String(Math.ceil(admission.retryAfterMs / 1000)));
       throw new HttpError(admission.status, admission.status === 503 ? 'unavailable' : 'rate_limited', admission.message);
@@ -60,7 +64,7 @@ export function sessionRoutes(passport: ReturnType<typeof createPassport>, deps:
         })(req, res, next);
       });
     } finally {
-      admission.settle(outcome);
+      await admission.settle(outcome);
     }
   };
 

@@ -1,7 +1,8 @@
 // The owner's team screen: staff accounts, roles, invitations, PINs; the welcome link that sets a
 // password; and the PIN switch of a shared terminal (which lives here, beside the PINs it checks).
 import type { Request, RequestHandler } from 'express';
-import { rateLimit } from 'express-rate-limit';
+import { rateLimit, type Store } from 'express-rate-limit';
+import type { Limits } from '@server/auth/shared-limits';
 import { idParam } from '@/domain/schemas';
 import { newPersonBody, ownPinBody, personPatchBody, pinBody, sendLinkBody, setPasswordBody, switchBody, tokenParam } from '@/domain/team-schemas';
 import type { SessionUser } from '@/domain/types';
@@ -18,7 +19,7 @@ import type { ApiRoute } from '@server/routes';
 /** Wrong PINs from one address in 15 minutes, whoever they were for. */
 export const WRONG_PINS_PER_ADDRESS = 20;
 /** Wrong passwords when setting one's own PIN, per person per hour. */
-const WRONG_PASSWORDS_PER_PERSON = 10;
+export const WRONG_PASSWORDS_PER_PERSON = 10;
 
 const publicUser = (u: SessionUser) => ({ id: u.id, name: u.name, role: u.role });
 const originOf = (req: Request) => `${req.protocol}://${req.get('host')}`;
@@ -26,8 +27,9 @@ const originOf = (req: Request) => `${req.protocol}://${req.get('host')}`;
 /** Signs the request's session in as `user` under a new session id (passport regenerates it). */
 const logIn = (req: Request, user: SessionUser) => new Promise<void>((resolve, reject) => req.logIn(user, (err) => (err ? reject(err) : resolve())));
 
-function throttle(opts: { windowMs: number; limit: number; key?: (req: Request) => string; message: string }): RequestHandler {
+function throttle(opts: { windowMs: number; limit: number; key?: (req: Request) => string; message: string; store: Store }): RequestHandler {
   return rateLimit({
+    store: opts.store,
     windowMs: opts.windowMs,
     limit: opts.limit,
     // only the refusals a route marks as a wrong secret count; a good one or a typo'd body doesn't
@@ -40,17 +42,19 @@ function throttle(opts: { windowMs: number; limit: number; key?: (req: Request) 
   });
 }
 
-export function teamRoutes(deps: Deps): ApiRoute[] {
+export function teamRoutes(deps: Deps, limits: Limits): ApiRoute[] {
   const pinsFromAddress = throttle({
     windowMs: 15 * 60_000,
     limit: WRONG_PINS_PER_ADDRESS,
     message: 'Too many wrong PINs from this terminal. Wait 15 minutes, or sign in with a password.',
+    store: limits.rateLimitStore('wrong-pins'),
   });
   const ownPasswordTries = throttle({
     windowMs: 60 * 60_000,
     limit: WRONG_PASSWORDS_PER_PERSON,
     key: (req) => `user:${req.user?.id ?? 'none'}`,
     message: 'Too many wrong passwords. Wait an hour, or ask the owner to set your PIN.',
+    store: limits.rateLimitStore('wrong-own-passwords'),
   });
 
   return [

@@ -8,9 +8,11 @@ import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { LiveEvent } from '@/domain/types';
 import { appendMenuChangedEvent, latestSeq, runCommand } from '@server/events';
 import type { Hub } from '@server/realtime/hub';
+import { WRONG_PASSWORDS_PER_PERSON } from '@server/team/routes';
 import { startNginx } from '@scripts/services/nginx';
 import { startRedis, type RedisServer } from '@scripts/services/redis';
 import { DEMO_PASSWORD } from '@seeds/demo-cafe';
+import { FREE_FAILURES, PAIR_FAILURES_PER_HOUR } from '@/domain/sign-in-pacing';
 import { startTestServer, type TestServer } from '../support/test-server';
 import { demoLines, demoLocationId, fireOrder, loggedEvents } from './bar-actions';
 import { closeAllSockets, connect, connectAndResume, type LiveClient } from './ws-client';
@@ -141,6 +143,35 @@ describe('live events across processes', () => {
     }
   });
 
+  it('sign-in failures and wrong passwords count once across processes: pacing and limits hold wherever an attempt lands', async () => {
+    const slept: number[] = [];
+    const pacing = { sleep: async (ms: number) => void slept.push(ms) }; // a turn's wait, recorded instead of waited
+    const x = await startTestServer({ redisUrl: redis.url, sharing: a, signInPacing: pacing });
+    const y = await startTestServer({ redisUrl: redis.url, sharing: a, signInPacing: pacing });
+    try {
+      const guess = (server: TestServer) => request(server.url).post('/api/session').send({ username: 'nobody-here', password: 'a wrong guess' });
+      for (let i = 0; i < FREE_FAILURES; i++) expect((await guess(x)).status).toBe(401);
+      expect(slept).toEqual([]);
+      // y has seen no failure itself, yet the name's next attempt waits its turn there
+      expect((await guess(y)).status).toBe(401);
+      expect(slept).toHaveLength(1);
+      for (let n = FREE_FAILURES + 1; n < PAIR_FAILURES_PER_HOUR; n++) expect((await guess(n % 2 ? x : y)).status).toBe(401);
+      const refused = await guess(x);
+      expect(refused.status).toBe(429);
+      expect(refused.body.error.message).toMatch(/for this name from this address/);
+      expect(Number(refused.headers['retry-after'])).toBeGreaterThan(0);
+    } finally {
+      await y.close();
+      await x.close();
+    }
+    // setting one's own PIN: the wrong passwords of one person add up on all three processes
+    const cookie = await a.cookieFor('barista2');
+    const wrongPassword = (server: TestServer) =>
+      request(server.url).put('/api/me/pin').set('Cookie', cookie).send({ password: 'not my password', pin: '480262' });
+    for (let i = 0; i < WRONG_PASSWORDS_PER_PERSON; i++) expect((await wrongPassword([a, b, c][i % 3])).status).toBe(401);
+    expect((await wrongPassword(c)).status).toBe(429);
+  });
+
   // last: the processes' Redis connections come back on their own clock after this one
   it('Redis down mid-rush loses nothing: what was taken meanwhile reaches the Bar once Redis is back', async () => {
     const { client: bar, hello } = await connectAndResume(c.url, await c.cookieFor('barista'));
@@ -152,6 +183,7 @@ describe('live events across processes', () => {
     await redis.down();
     // taken while Redis is away: committed, published to nobody
     for (let i = 0; i < 3; i++) await fireOrder(counter, `Meanwhile ${i + 1}`, [lines.flatWhite()]);
+    await b.signIn('lead'); // sign-in pacing counts in the process meanwhile, and lets people in
     await redis.up();
     // nothing more is taken: only the Bar's process catching up from the table can bring these
     const end = await latestSeq(a.db, locationId);

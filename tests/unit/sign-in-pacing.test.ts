@@ -3,6 +3,7 @@
 // ASVS 4.0.3 V2.2.1), while attempts are paused or told when to come back, never locked out.
 import { describe, expect, it } from 'vitest';
 import { FailureLog, SignInThrottle } from '@server/auth/sign-in-throttle';
+import { guessersAtOnce, virtualTime } from '../support/virtual-time';
 import {
   FAILED_SIGN_INS_PER_HOUR,
   FAILURE_WINDOW_MS,
@@ -27,50 +28,11 @@ describe('signInPauseMs', () => {
   });
 });
 
-/** A virtual clock whose sleeps wake in time order when the test moves it. */
-function virtualTime() {
-  let now = 0;
-  const timers: { at: number; wake: () => void }[] = [];
-  return {
-    now: () => now,
-    sleep: (ms: number) => new Promise<void>((wake) => timers.push({ at: now + ms, wake })),
-    /** Wake the earliest sleeper; false when none is left. */
-    async step(): Promise<boolean> {
-      await new Promise((r) => setImmediate(r)); // let the woken work run up to its next sleep
-      if (timers.length === 0) return false;
-      timers.sort((a, b) => a.at - b.at);
-      const next = timers.shift()!;
-      now = Math.max(now, next.at);
-      next.wake();
-      return true;
-    },
-  };
-}
-
 describe('SignInThrottle on a virtual clock', () => {
   it(`lets no name get more than ${FAILED_SIGN_INS_PER_HOUR} failed checks in any hour, with 12 guessers at once from fresh addresses`, async () => {
     const time = virtualTime();
     const throttle = new SignInThrottle(time.now, time.sleep);
-    const checks: number[] = [];
-    const refusals: number[] = [];
-    const end = 3 * FAILURE_WINDOW_MS;
-    let address = 0;
-    const guesser = async () => {
-      while (time.now() < end) {
-        const a = throttle.admit({ name: 'owner', address: `2001:db8:${address++}::`, terminal: null });
-        if (!a.ok) {
-          refusals.push(a.retryAfterMs);
-          await time.sleep(a.retryAfterMs); // back exactly when told
-          continue;
-        }
-        await a.turn();
-        checks.push(time.now());
-        a.settle('failed');
-      }
-    };
-    const running = Promise.all(Array.from({ length: 12 }, guesser));
-    while (await time.step());
-    await running;
+    const { checks, refusals } = await guessersAtOnce(time, [throttle], 12, 3 * FAILURE_WINDOW_MS);
 
     const worstHour = Math.max(...checks.map((t) => checks.filter((u) => u >= t && u < t + FAILURE_WINDOW_MS).length));
     expect(worstHour).toBeLessThanOrEqual(FAILED_SIGN_INS_PER_HOUR); // ASVS V2.2.1
@@ -90,10 +52,10 @@ describe('SignInThrottle on a virtual clock', () => {
       },
     );
     const attempt = async (terminal: string | null, outcome: 'failed' | 'signed-in') => {
-      const a = throttle.admit({ name: 'owner', address: `192.0.2.${slept.length % 250}`, terminal });
+      const a = await throttle.admit({ name: 'owner', address: `192.0.2.${slept.length % 250}`, terminal });
       if (!a.ok) throw new Error(a.message);
       await a.turn();
-      a.settle(outcome);
+      await a.settle(outcome);
     };
     for (let i = 0; i < 20; i++) await attempt(null, 'failed');
     expect(slept.at(-1)).toBe(MAX_SIGN_IN_PAUSE_MS);
@@ -103,23 +65,23 @@ describe('SignInThrottle on a virtual clock', () => {
     await attempt(null, 'signed-in');
     expect(slept.slice(before)).toEqual([MAX_SIGN_IN_PAUSE_MS]);
   });
-  it(`holds at most ${WAITING_SIGN_INS_IN_ALL} attempts waiting over all names; past that 503 with a time to come back`, () => {
+  it(`holds at most ${WAITING_SIGN_INS_IN_ALL} attempts waiting over all names; past that 503 with a time to come back`, async () => {
     const throttle = new SignInThrottle(
       () => 0,
       () => new Promise(() => {}),
     );
     let address = 0;
     const admit = (name: string) => throttle.admit({ name, address: `2001:db8:${(address++).toString(16)}::`, terminal: null });
-    const waitFor = (name: string) => {
+    const waitFor = async (name: string) => {
       for (let i = 0; i < FREE_FAILURES; i++) {
-        const a = admit(name);
+        const a = await admit(name);
         if (!a.ok) throw new Error(a.message);
-        a.settle('failed'); // the free ones: checked at once
+        await a.settle('failed'); // the free ones: checked at once
       }
-      return admit(name); // has to wait its turn now
+      return await admit(name); // has to wait its turn now
     };
-    for (let n = 0; n < WAITING_SIGN_INS_IN_ALL; n++) expect(waitFor(`name-${n}`).ok, `name-${n}`).toBe(true);
-    const refused = waitFor('one-too-many');
+    for (let n = 0; n < WAITING_SIGN_INS_IN_ALL; n++) expect((await waitFor(`name-${n}`)).ok, `name-${n}`).toBe(true);
+    const refused = await waitFor('one-too-many');
     expect(refused).toMatchObject({ ok: false, status: 503 });
     if (!refused.ok) expect(refused.retryAfterMs).toBeGreaterThanOrEqual(1000);
   });
