@@ -8,12 +8,18 @@ import { appLogger, startServer } from '@server/server';
 
 // E2E_DATABASE_FILE: a test that stops and restarts the server keeps its data (and sessions).
 const databaseFile = process.env.E2E_DATABASE_FILE ?? path.join(mkdtempSync(path.join(os.tmpdir(), 'jugline-e2e-')), 'jugline.sqlite');
+// DATABASE_URL, REDIS_URL, SESSION_SECRET, MIGRATE_ON_START: one process of a group (tests/faults/cluster-kill.test.ts)
+const { DATABASE_URL, REDIS_URL, SESSION_SECRET, MIGRATE_ON_START } = process.env;
 const config = loadConfig({
   NODE_ENV: 'production',
   PORT: process.env.E2E_PORT ?? '4310',
   HOST: '127.0.0.1',
   DATABASE_FILE: databaseFile,
   SEED_DEMO: 'true',
+  ...(DATABASE_URL ? { DATABASE_URL } : {}),
+  ...(REDIS_URL ? { REDIS_URL } : {}),
+  ...(SESSION_SECRET ? { SESSION_SECRET } : {}),
+  ...(MIGRATE_ON_START ? { MIGRATE_ON_START } : {}),
 });
 const logger = appLogger(config);
 guardProcess(logger);

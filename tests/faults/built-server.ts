@@ -37,6 +37,8 @@ export class BuiltServer {
   constructor(
     readonly databaseFile: string,
     readonly port: number,
+    /** More environment, e.g. DATABASE_URL and REDIS_URL for one process of a group. */
+    private readonly env: NodeJS.ProcessEnv = {},
   ) {}
 
   get url() {
@@ -58,7 +60,7 @@ export class BuiltServer {
     const child = spawn(path.join(ROOT, 'node_modules/.bin/tsx'), ['e2e/serve.ts'], {
       cwd: ROOT,
       detached: true, // its own process group: tsx and the node it runs die together
-      env: { ...process.env, E2E_PORT: String(this.port), E2E_DATABASE_FILE: this.databaseFile },
+      env: { ...process.env, ...this.env, E2E_PORT: String(this.port), E2E_DATABASE_FILE: this.databaseFile },
       stdio: ['ignore', 'pipe', 'pipe'],
     });
     child.stdout?.on('data', (d) => (this.log += d));
