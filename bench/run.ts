@@ -25,6 +25,8 @@ import { benchDatabases, type BenchDatabases, type BenchDb } from './databases';
 import type { OrderTemplate } from './floor-server';
 import { closedLoop, closeHarness, connectMeasured, harness, openLoop, signIn, type Harness, type MemoryReading, type OrderBody, type RunResult } from './load';
 import { fillOpenDrinks, historyEndpoints, renderBar, type Timed } from './pages';
+import { between, putBetween, RESULTS } from './blocks';
+import { orderBodies, type MenuItem } from './bodies';
 import { report, sideBySide, stormTable, type BenchResults } from './report';
 import { resumeStorm, type StormResult } from './storm';
 import { screenWeights } from './weights';
@@ -104,36 +106,6 @@ async function ensureBuild(dist: string) {
   await build({ root: ROOT, logLevel: 'warn', build: { outDir: path.join(dist, 'client'), emptyOutDir: true } });
   await build({ root: ROOT, logLevel: 'warn', build: { ssr: 'src/entry-server.tsx', outDir: path.join(dist, 'server'), emptyOutDir: true } });
   return true;
-}
-
-interface MenuItem {
-  id: number;
-  name: string;
-  station: string;
-  takesMilk: boolean;
-  sizes: { id: number }[];
-}
-
-/** Four orders of one to three bar drinks (and a pastry), from the café's own menu. */
-function orderBodies(menu: { items: MenuItem[]; milks: { id: number; name: string }[] }): OrderBody[] {
-  const bar = menu.items.filter((i) => i.station === 'bar');
-  const milky = bar.filter((i) => i.takesMilk);
-  const counter = menu.items.find((i) => i.station === 'counter');
-  const oat = menu.milks.find((m) => m.name === 'Oat') ?? menu.milks[0];
-  const line = (i: MenuItem, size = 0, milk?: number) => ({
-    menuItemId: i.id,
-    ...(i.sizes.length ? { sizeId: i.sizes[Math.min(size, i.sizes.length - 1)].id } : {}),
-    ...(milk && i.takesMilk ? { milkId: milk } : {}),
-  });
-  const pick = (list: MenuItem[], k: number) => list[k % list.length];
-  const lists = [
-    [line(pick(milky, 0))],
-    [line(pick(milky, 1), 1, oat?.id), line(pick(bar, 0))],
-    [line(pick(milky, 2), 2), ...(counter ? [line(counter)] : [])],
-    [line(pick(milky, 0)), line(pick(milky, 1), 0), line(pick(bar, 1))],
-  ];
-  const station = new Map(menu.items.map((i) => [i.id, i.station]));
-  return lists.map((items) => ({ items, barDrinks: items.filter((l) => station.get(l.menuItemId) === 'bar').length }));
 }
 
 /** A row as the floor's SQLite takes it: PostgreSQL answers booleans and json columns as values. */
@@ -361,24 +333,6 @@ async function main() {
 // BENCHMARKS.md holds one block per database and a side-by-side block built from both; each
 // run's block ends with its results as JSON in a comment, so the other database's run can rebuild
 // the side-by-side table without running again.
-const markers = (name: string) => [`<!-- bench:${name}:start (npm run bench writes between these markers) -->`, `<!-- bench:${name}:end -->`] as const;
-const RESULTS = /<!-- bench:results (.*) -->/;
-
-function between(text: string, name: string): string | undefined {
-  const [start, end] = markers(name);
-  const a = text.indexOf(start);
-  const b = text.indexOf(end);
-  return a >= 0 && b > a ? text.slice(a + start.length, b) : undefined;
-}
-
-function putBetween(text: string, name: string, body: string): string {
-  const [start, end] = markers(name);
-  const block = `${start}\n${body}\n${end}`;
-  const a = text.indexOf(start);
-  const b = text.indexOf(end);
-  return a >= 0 && b > a ? text.slice(0, a) + block + text.slice(b + end.length) : `${text.trimEnd()}\n\n${block}\n`;
-}
-
 /** Replace this database's block and the side-by-side block; everything else (notes by hand) stays. */
 function writeInto(file: string, results: BenchResults, table: string) {
   let text = existsSync(file) ? readFileSync(file, 'utf8') : '# Benchmarks\n';
