@@ -64,6 +64,8 @@ export function sessionRoutes(passport: ReturnType<typeof createPassport>, deps:
     }
   };
 
+  // Plain routes, not commands (src/commands.ts): passport answers the sign-in itself, once the
+  // throttle's turn has come, and the sign-out ends the session it came with.
   return [
     { method: 'post', path: '/session', capability: null, handler: signIn },
     {
