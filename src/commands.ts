@@ -10,32 +10,28 @@ import type { BeanLotView, BeanSettingsView } from '@/domain/bean-stock';
 import type { LoggedShot } from '@/domain/beans-schemas';
 import type { CardCheckView } from '@/domain/card-check';
 import type { MenuAdminResult } from '@/domain/menu-admin-view';
-import type { Capability } from '@/domain/roles';
 import type { SettingsPage } from '@/domain/settings-schemas';
 import type { LinkPurpose, TeamMember } from '@/domain/team-schemas';
 import type { OrderView, PublicUser, ShiftView, TicketView } from '@/domain/types';
-import type { CallerInput } from '@/reads';
+import type { AnswerOf, Answering, CallerInput, ReadDef } from '@/reads';
 import { beansSchemas, cardCheckSchemas, menuAdminSchemas, schema, schemas, settingsSchemas, teamSchemas } from '@/schemas-by-name';
 
-export interface CommandDef {
+/** `capability` (null: open to everyone) and `passive` (sent in the background, so it doesn't keep an
+ * idle session awake) as a read's. */
+export interface CommandDef extends Pick<ReadDef, 'capability' | 'passive'> {
   method: 'post' | 'put' | 'patch' | 'delete';
   /** Under /api; `:name` segments come from the input and are checked by `params`. */
   path: string;
-  /** null: open to everyone, signed in or not. */
-  capability: Capability | null;
   /** The schema of the path's :params (a bad one answers 400 naming `params.<name>`). */
   params?: () => Promise<z.ZodType>;
   /** The schema of the JSON body; without one, nothing is sent and nothing read. */
   body?: () => Promise<z.ZodType>;
   /** The status of a success: 200 unless given (201 for a create, 202 when handed on, 204 with no answer). */
   status?: 201 | 202 | 204;
-  /** Sent by a screen in the background: it doesn't keep an idle session awake (src/lib/http.ts). */
-  passive?: true;
 }
 
-declare const answer: unique symbol;
 /** A command's definition, carrying the type of its answer. */
-export type Command<O, D extends CommandDef = CommandDef> = D & { readonly [answer]?: [O] };
+export type Command<O, D extends CommandDef = CommandDef> = D & Answering<O>;
 
 /** `command<Answer>()({ method, path, capability, params?, body? })`: the answer's type is given, the rest inferred. */
 export const command =
@@ -47,6 +43,27 @@ const id = schema(schemas, 'idParam');
 const retired = schema(menuAdminSchemas, 'retiredBody');
 const move = schema(menuAdminSchemas, 'moveBody');
 const menuChange = command<MenuAdminResult>();
+/** The four commands of each kind the menu editor edits: created, updated (the whole row), retired
+ * or restored (`{ retired }`), moved (`{ direction }`); each answers the id it made or changed and
+ * the whole editable menu. */
+const menuKind = <const K extends string, const B extends 'categoryBody' | 'itemBody' | 'milkBody' | 'modifierGroupBody' | 'modifierBody'>(
+  kind: K,
+  body: B,
+) => {
+  const path = `/menu-admin/${kind}` as const;
+  const base = { capability: 'editMenu', params: id } as const;
+  return {
+    create: menuChange({ method: 'post', path, capability: 'editMenu', body: schema(menuAdminSchemas, body), status: 201 }),
+    update: menuChange({ ...base, method: 'put', path: `${path}/:id`, body: schema(menuAdminSchemas, body) }),
+    retired: menuChange({ ...base, method: 'post', path: `${path}/:id/retired`, body: retired }),
+    move: menuChange({ ...base, method: 'post', path: `${path}/:id/move`, body: move }),
+  };
+};
+const categories = menuKind('categories', 'categoryBody');
+const items = menuKind('items', 'itemBody');
+const milks = menuKind('milks', 'milkBody');
+const modifierGroups = menuKind('modifier-groups', 'modifierGroupBody');
+const modifiers = menuKind('modifiers', 'modifierBody');
 const ticket = command<{ ticket: TicketView }>();
 const tickets = command<{ tickets: TicketView[] }>();
 
@@ -140,64 +157,27 @@ export const commands = {
     body: schema(cardCheckSchemas, 'cardSettleBody'),
   }),
 
-  // the menu editor: each kind is created, updated (the whole row), retired or restored, and moved;
-  // every one answers the id it made or changed and the whole editable menu
-  createCategory: menuChange({
-    method: 'post',
-    path: '/menu-admin/categories',
-    capability: 'editMenu',
-    body: schema(menuAdminSchemas, 'categoryBody'),
-    status: 201,
-  }),
-  updateCategory: menuChange({
-    method: 'put',
-    path: '/menu-admin/categories/:id',
-    capability: 'editMenu',
-    params: id,
-    body: schema(menuAdminSchemas, 'categoryBody'),
-  }),
-  setCategoryRetired: menuChange({ method: 'post', path: '/menu-admin/categories/:id/retired', capability: 'editMenu', params: id, body: retired }),
-  moveCategory: menuChange({ method: 'post', path: '/menu-admin/categories/:id/move', capability: 'editMenu', params: id, body: move }),
-  createItem: menuChange({ method: 'post', path: '/menu-admin/items', capability: 'editMenu', body: schema(menuAdminSchemas, 'itemBody'), status: 201 }),
-  updateItem: menuChange({ method: 'put', path: '/menu-admin/items/:id', capability: 'editMenu', params: id, body: schema(menuAdminSchemas, 'itemBody') }),
-  setItemRetired: menuChange({ method: 'post', path: '/menu-admin/items/:id/retired', capability: 'editMenu', params: id, body: retired }),
-  moveItem: menuChange({ method: 'post', path: '/menu-admin/items/:id/move', capability: 'editMenu', params: id, body: move }),
-  createMilk: menuChange({ method: 'post', path: '/menu-admin/milks', capability: 'editMenu', body: schema(menuAdminSchemas, 'milkBody'), status: 201 }),
-  updateMilk: menuChange({ method: 'put', path: '/menu-admin/milks/:id', capability: 'editMenu', params: id, body: schema(menuAdminSchemas, 'milkBody') }),
-  setMilkRetired: menuChange({ method: 'post', path: '/menu-admin/milks/:id/retired', capability: 'editMenu', params: id, body: retired }),
-  moveMilk: menuChange({ method: 'post', path: '/menu-admin/milks/:id/move', capability: 'editMenu', params: id, body: move }),
-  createModifierGroup: menuChange({
-    method: 'post',
-    path: '/menu-admin/modifier-groups',
-    capability: 'editMenu',
-    body: schema(menuAdminSchemas, 'modifierGroupBody'),
-    status: 201,
-  }),
-  updateModifierGroup: menuChange({
-    method: 'put',
-    path: '/menu-admin/modifier-groups/:id',
-    capability: 'editMenu',
-    params: id,
-    body: schema(menuAdminSchemas, 'modifierGroupBody'),
-  }),
-  setModifierGroupRetired: menuChange({ method: 'post', path: '/menu-admin/modifier-groups/:id/retired', capability: 'editMenu', params: id, body: retired }),
-  moveModifierGroup: menuChange({ method: 'post', path: '/menu-admin/modifier-groups/:id/move', capability: 'editMenu', params: id, body: move }),
-  createModifier: menuChange({
-    method: 'post',
-    path: '/menu-admin/modifiers',
-    capability: 'editMenu',
-    body: schema(menuAdminSchemas, 'modifierBody'),
-    status: 201,
-  }),
-  updateModifier: menuChange({
-    method: 'put',
-    path: '/menu-admin/modifiers/:id',
-    capability: 'editMenu',
-    params: id,
-    body: schema(menuAdminSchemas, 'modifierBody'),
-  }),
-  setModifierRetired: menuChange({ method: 'post', path: '/menu-admin/modifiers/:id/retired', capability: 'editMenu', params: id, body: retired }),
-  moveModifier: menuChange({ method: 'post', path: '/menu-admin/modifiers/:id/move', capability: 'editMenu', params: id, body: move }),
+  // the menu editor (see menuKind)
+  createCategory: categories.create,
+  updateCategory: categories.update,
+  setCategoryRetired: categories.retired,
+  moveCategory: categories.move,
+  createItem: items.create,
+  updateItem: items.update,
+  setItemRetired: items.retired,
+  moveItem: items.move,
+  createMilk: milks.create,
+  updateMilk: milks.update,
+  setMilkRetired: milks.retired,
+  moveMilk: milks.move,
+  createModifierGroup: modifierGroups.create,
+  updateModifierGroup: modifierGroups.update,
+  setModifierGroupRetired: modifierGroups.retired,
+  moveModifierGroup: modifierGroups.move,
+  createModifier: modifiers.create,
+  updateModifier: modifiers.update,
+  setModifierRetired: modifiers.retired,
+  moveModifier: modifiers.move,
   /** A size is retired or restored with its item's form; it has no commands of its own besides. */
   setSizeRetired: menuChange({ method: 'post', path: '/menu-admin/sizes/:id/retired', capability: 'editMenu', params: id, body: retired }),
   /** The item's photo goes (uploading one is a multipart route: server/menu/import-routes.ts). */
@@ -307,7 +287,7 @@ export type CommandInput<C> = ParamsInput<C> & CommandBody<C>;
 /** What the server's handler gets: the params and the body as parsed. */
 export type ParsedParams<C> = ParamsSchemaOf<C> extends z.ZodType ? z.output<ParamsSchemaOf<C>> : undefined;
 export type ParsedBody<C> = BodySchemaOf<C> extends z.ZodType ? z.output<BodySchemaOf<C>> : undefined;
-export type CommandOutput<C> = C extends { readonly [answer]?: [infer O] } ? O : never;
+export type CommandOutput<C> = AnswerOf<C>;
 
 /** Each command as a function: `send.refundOrder({ id, reason })`, `send.retireLot({ id })`. */
 export type CommandSender = { [K in CommandName]: (input: CommandInput<Commands[K]>) => Promise<CommandOutput<Commands[K]>> };

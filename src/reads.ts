@@ -35,8 +35,11 @@ export interface ReadDef {
 }
 
 declare const answer: unique symbol;
+/** A definition carrying the type of its answer (a read's here, a command's in src/commands.ts). */
+export type Answering<O> = { readonly [answer]?: [O] };
+export type AnswerOf<R> = R extends Answering<infer O> ? O : never;
 /** A read's definition, carrying the type of its answer. */
-export type Read<O, D extends ReadDef = ReadDef> = D & { readonly [answer]?: [O] };
+export type Read<O, D extends ReadDef = ReadDef> = D & Answering<O>;
 
 /** `read<Answer>()({ path, capability, input? })`: the answer's type is given, the rest inferred. */
 export const read =
@@ -116,7 +119,7 @@ export type CallerInput<S extends z.ZodType> = {
 export type ReadInput<R> = SchemaOf<R> extends z.ZodType ? CallerInput<SchemaOf<R>> : void;
 /** What the server's handler gets: the input as parsed, defaults filled in. */
 export type ParsedInput<R> = SchemaOf<R> extends z.ZodType ? z.output<SchemaOf<R>> : void;
-export type ReadOutput<R> = R extends { readonly [answer]?: [infer O] } ? O : never;
+export type ReadOutput<R> = AnswerOf<R>;
 
 /** A read as a function: no argument without an input, an optional one when every field may be left out. */
 export type ReadCall<R> =
