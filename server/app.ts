@@ -12,20 +12,21 @@ import { sameOriginOnly, securityHeaders } from './security';
 import type { Logger } from 'pino';
 import { createInProcessHub, type Hub } from './realtime/hub';
 import { mountRoutes, type ApiRoute } from './routes';
-import { beanRoutes } from './beans/routes';
-import { mailRoutes } from './mail/routes';
-import { menuAdminRoutes } from './menu/admin-routes';
-import { menuImportRoutes } from './menu/import-routes';
-import { settingsRoutes } from './settings/routes';
-import { teamRoutes } from './team/routes';
-import { menuRoutes } from './menu/routes';
-import { orderRoutes, WEBHOOK_PATH } from './orders/routes';
+import { beanCommands } from './beans/routes';
+import { commandRoutes } from './commands';
+import { mailCommands } from './mail/routes';
+import { menuAdminCommands } from './menu/admin-routes';
+import { itemPhotoCommands, menuImportRoutes } from './menu/import-routes';
+import { settingsCommands } from './settings/routes';
+import { teamCommands } from './team/routes';
+import { menuCommands } from './menu/routes';
+import { orderCommands, orderRoutes, WEBHOOK_PATH } from './orders/routes';
 import { readRoutes } from './reads';
-import { reportRoutes } from './reports/routes';
-import { shiftRoutes } from './shifts/routes';
+import { reportCommands, reportRoutes } from './reports/routes';
+import { shiftCommands } from './shifts/routes';
 import { sessionRoutes, type SignInPacing } from './auth/routes';
 import { processLimits, type Limits } from './auth/shared-limits';
-import { ticketRoutes } from './tickets/routes';
+import { ticketCommands } from './tickets/routes';
 import type { Clock, Deps } from './deps';
 import { PHOTO_FOLDER } from './menu/item-photos';
 import type { Mailer } from './mail/outbox';
@@ -104,16 +105,29 @@ export function createApp(opts: AppOptions): App {
   });
   const passport = createPassport(opts.db, opts.sessionClock);
   const limits = opts.limits ?? processLimits();
+  // the plain routes: sign-in and sign-out, the payment webhook, uploads and CSV downloads
   const routes = [
     ...sessionRoutes(passport, deps, { secret: opts.config.sessionSecret, pacing: opts.signInPacing, counts: limits.signIn }),
-    ...menuRoutes(deps),
     ...orderRoutes(deps),
-    ...ticketRoutes(deps),
-    ...shiftRoutes(deps),
     ...reportRoutes(deps),
+    ...menuImportRoutes(deps, mediaDir),
   ];
-  routes.push(...menuAdminRoutes(deps), ...menuImportRoutes(deps, mediaDir), ...teamRoutes(deps, limits), ...settingsRoutes(deps), ...beanRoutes(deps));
-  if (opts.mailer) routes.push(...mailRoutes(deps, opts.mailer));
+  // the commands (src/commands.ts), each area's handlers from its own folder
+  routes.push(
+    ...commandRoutes(deps, {
+      ...orderCommands,
+      ...mailCommands(opts.mailer),
+      ...ticketCommands,
+      ...menuCommands,
+      ...shiftCommands,
+      ...reportCommands,
+      ...menuAdminCommands,
+      ...itemPhotoCommands(mediaDir),
+      ...teamCommands(limits),
+      ...settingsCommands,
+      ...beanCommands,
+    }),
+  );
   // the reads (src/reads.ts) last: a download such as /reports/shift/:id.csv must be matched first
   routes.push(...readRoutes(deps));
 

@@ -2,7 +2,7 @@
 // shape of its answer. The GET routes and the server-rendering Api (server/reads.ts) and the
 // browser's Api (src/lib/api.ts) are all made from this table, so their paths and checks can't
 // drift apart. A `:name` in the path is filled from the input; the rest of the input is the query
-// string. Commands (POST, PUT, …) and CSV downloads are plain routes, not reads.
+// string. Commands (POST, PUT, …) are in src/commands.ts; CSV downloads are plain routes.
 import type { z } from 'zod';
 import type { BeansView, DialInView } from '@/domain/beans-schemas';
 import type { CardCheckView } from '@/domain/card-check';
@@ -18,6 +18,7 @@ import type { SettingsPage } from '@/domain/settings-schemas';
 import type { SwitchPerson, TeamView, WelcomeView } from '@/domain/team-schemas';
 import type { BoardSnapshot, MenuView, OrderView, PublicUser } from '@/domain/types';
 import type { CounterWaitNow } from '@/domain/wait-now';
+import { cardCheckSchemas, schema, schemas, teamSchemas, waitNowSchemas } from '@/schemas-by-name';
 
 export interface ReadDef {
   /** Under /api; `:name` segments come from the input. */
@@ -25,7 +26,7 @@ export interface ReadDef {
   /** null: open to everyone, signed in or not. */
   capability: Capability | null;
   /** The schema of the path's :params and the query string, checked as one object (a bad one
-   * answers 400); see `schema` below. */
+   * answers 400); `schema(module, name)` of src/schemas-by-name.ts. */
   input?: () => Promise<z.ZodType>;
   /** A screen's own background refresh: it doesn't keep an idle session awake (src/lib/http.ts). */
   passive?: true;
@@ -34,26 +35,17 @@ export interface ReadDef {
 }
 
 declare const answer: unique symbol;
+/** A definition carrying the type of its answer (a read's here, a command's in src/commands.ts). */
+export type Answering<O> = { readonly [answer]?: [O] };
+export type AnswerOf<R> = R extends Answering<infer O> ? O : never;
 /** A read's definition, carrying the type of its answer. */
-export type Read<O, D extends ReadDef = ReadDef> = D & { readonly [answer]?: [O] };
+export type Read<O, D extends ReadDef = ReadDef> = D & Answering<O>;
 
 /** `read<Answer>()({ path, capability, input? })`: the answer's type is given, the rest inferred. */
 export const read =
   <O>() =>
   <const D extends ReadDef>(def: D): Read<O, D> =>
     def;
-
-// Only the server parses a read's input, so its schema is loaded when first used: the browser's
-// Api needs the paths alone, and would otherwise bring zod into every screen's first load.
-const schemas = () => import('@/domain/schemas');
-const teamSchemas = () => import('@/domain/team-schemas');
-const cardCheckSchemas = () => import('@/domain/card-check-schemas');
-const waitNowSchemas = () => import('@/domain/wait-now');
-/** `schema(schemas, 'idParam')`: a schema from src/domain, by its module and name. */
-const schema =
-  <M, K extends keyof M>(load: () => Promise<M>, name: K) =>
-  async (): Promise<M[K]> =>
-    (await load())[name];
 
 export const reads = {
   session: read<{ user: PublicUser | null }>()({ path: '/session', capability: null }),
@@ -119,7 +111,7 @@ export const READ_NAMES = Object.keys(reads) as ReadName[];
 
 type SchemaOf<R> = R extends { input: () => Promise<infer S extends z.ZodType> } ? S : undefined;
 /** The schema's input, with a coerced field (typed `unknown` by zod) as the type it becomes. */
-type CallerInput<S extends z.ZodType> = {
+export type CallerInput<S extends z.ZodType> = {
   [K in keyof z.input<S>]: unknown extends z.input<S>[K] ? (K extends keyof z.output<S> ? z.output<S>[K] : never) : z.input<S>[K];
 };
 
@@ -127,7 +119,7 @@ type CallerInput<S extends z.ZodType> = {
 export type ReadInput<R> = SchemaOf<R> extends z.ZodType ? CallerInput<SchemaOf<R>> : void;
 /** What the server's handler gets: the input as parsed, defaults filled in. */
 export type ParsedInput<R> = SchemaOf<R> extends z.ZodType ? z.output<SchemaOf<R>> : void;
-export type ReadOutput<R> = R extends { readonly [answer]?: [infer O] } ? O : never;
+export type ReadOutput<R> = AnswerOf<R>;
 
 /** A read as a function: no argument without an input, an optional one when every field may be left out. */
 export type ReadCall<R> =

@@ -68,6 +68,8 @@ export function sessionRoutes(
     }
   };
 
+  // Plain routes, not commands (src/commands.ts): passport answers the sign-in itself, once the
+  // throttle's turn has come, and the sign-out ends the session it came with.
   return [
     { method: 'post', path: '/session', capability: null, handler: signIn },
     {

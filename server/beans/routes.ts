@@ -1,48 +1,13 @@
-// Bean lots with their freshness and stock (the owner), and the dial-in log (barista and up).
-import { beanLotBody, beanSettingsBody, dialInShotBody } from '@/domain/beans-schemas';
-import { idParam } from '@/domain/schemas';
-import { userOf } from '@server/auth/guards';
-import { parse } from '@server/errors';
+// Bean lots with their freshness and stock (the owner), and the dial-in log (barista and up): the
+// handlers of their commands (src/commands.ts).
+import type { CommandHandlers } from '@server/commands';
 import { createLot, retireLot, saveBeanSettings, updateLot } from './beans';
-import type { Deps } from '@server/deps';
 import { logShot } from './dial-in';
-import type { ApiRoute } from '@server/routes';
 
-export function beanRoutes(deps: Deps): ApiRoute[] {
-  const id = (params: unknown) => parse(idParam, params, 'params').id;
-  return [
-    {
-      method: 'post',
-      path: '/beans/lots',
-      capability: 'manageBeans',
-      handler: async (req, res) => res.status(201).json({ lot: await createLot(deps, userOf(req), parse(beanLotBody, req.body)) }),
-    },
-    {
-      method: 'put',
-      path: '/beans/lots/:id',
-      capability: 'manageBeans',
-      handler: async (req, res) => {
-        const lotId = id(req.params);
-        res.json({ lot: await updateLot(deps, userOf(req), lotId, parse(beanLotBody, req.body)) });
-      },
-    },
-    {
-      method: 'post',
-      path: '/beans/lots/:id/retire',
-      capability: 'manageBeans',
-      handler: async (req, res) => res.json({ lot: await retireLot(deps, userOf(req), id(req.params)) }),
-    },
-    {
-      method: 'put',
-      path: '/beans/settings',
-      capability: 'manageBeans',
-      handler: async (req, res) => res.json({ settings: await saveBeanSettings(deps, userOf(req), parse(beanSettingsBody, req.body)) }),
-    },
-    {
-      method: 'post',
-      path: '/dial-in/shots',
-      capability: 'logDialIn',
-      handler: async (req, res) => res.status(201).json(await logShot(deps, userOf(req), parse(dialInShotBody, req.body))),
-    },
-  ];
-}
+export const beanCommands: CommandHandlers<'createLot' | 'updateLot' | 'retireLot' | 'saveBeanSettings' | 'logShot'> = {
+  createLot: async ({ deps, user }, body) => ({ lot: await createLot(deps, user, body) }),
+  updateLot: async ({ deps, user, params }, body) => ({ lot: await updateLot(deps, user, params.id, body) }),
+  retireLot: async ({ deps, user, params }) => ({ lot: await retireLot(deps, user, params.id) }),
+  saveBeanSettings: async ({ deps, user }, body) => ({ settings: await saveBeanSettings(deps, user, body) }),
+  logShot: ({ deps, user }, body) => logShot(deps, user, body),
+};

@@ -1,13 +1,12 @@
 // The back-office menu editor: categories, items, sizes and recipes, milks, groups of extras.
 // Every command answers { id, menu } with the whole editable menu as it now is. Each kind has the
-// same four commands: create, update (the whole row), retired { retired } and move { direction }.
-import type { z } from 'zod';
-import { categoryBody, itemBody, milkBody, modifierBody, modifierGroupBody, moveBody, retiredBody, type MoveBody } from '@/domain/menu-admin-schemas';
+// same four commands (src/commands.ts): create, update (the whole row), retired { retired } and
+// move { direction }; these are their handlers.
+import type { CommandName, Commands } from '@/commands';
+import type { RetiredBody } from '@/domain/menu-admin-schemas';
 import type { MenuAdminResult } from '@/domain/menu-admin-view';
-import { idParam } from '@/domain/schemas';
 import type { SessionUser } from '@/domain/types';
-import { userOf } from '@server/auth/guards';
-import { parse } from '@server/errors';
+import type { CommandHandlers } from '@server/commands';
 import type { Deps } from '@server/deps';
 import { createCategory, moveCategory, restoreCategory, retireCategory, updateCategory } from './admin-categories';
 import { createItem, moveItem, restoreItem, retireItem, retireSize, restoreSize, updateItem } from './admin-items';
@@ -24,86 +23,44 @@ import {
   updateGroup,
   updateModifier,
 } from './admin-modifiers';
-import type { ApiRoute } from '@server/routes';
 
-type Command<B> = (deps: Deps, user: SessionUser, body: B) => Promise<MenuAdminResult>;
-type IdCommand<B> = (deps: Deps, user: SessionUser, id: number, body: B) => Promise<MenuAdminResult>;
+type Who = { deps: Deps; user: SessionUser };
+type ById = Who & { params: { id: number } };
 
-interface Kind<S extends z.ZodType> {
-  path: string;
-  body: S;
-  create: Command<z.infer<S>>;
-  update: IdCommand<z.infer<S>>;
-  retire: IdCommand<void>;
-  restore: IdCommand<void>;
-  move: IdCommand<MoveBody>;
-}
+const create =
+  <B>(run: (deps: Deps, user: SessionUser, body: B) => Promise<MenuAdminResult>) =>
+  ({ deps, user }: Who, body: B) =>
+    run(deps, user, body);
+const byId =
+  <B>(run: (deps: Deps, user: SessionUser, id: number, body: B) => Promise<MenuAdminResult>) =>
+  ({ deps, user, params }: ById, body: B) =>
+    run(deps, user, params.id, body);
+/** Retire or restore: never a delete, since past orders point at menu rows. */
+const retired = (retire: (deps: Deps, user: SessionUser, id: number) => Promise<MenuAdminResult>, restore: typeof retire) =>
+  byId((deps, user, id, body: RetiredBody) => (body.retired ? retire : restore)(deps, user, id));
 
-const kind = <S extends z.ZodType>(k: Kind<S>) => k;
+type MenuAdminCommand = { [N in CommandName]: Commands[N] extends { path: `/menu-admin/${string}` } ? N : never }[CommandName];
 
-const KINDS = [
-  kind({
-    path: 'categories',
-    body: categoryBody,
-    create: createCategory,
-    update: updateCategory,
-    retire: retireCategory,
-    restore: restoreCategory,
-    move: moveCategory,
-  }),
-  kind({ path: 'items', body: itemBody, create: createItem, update: updateItem, retire: retireItem, restore: restoreItem, move: moveItem }),
-  kind({ path: 'milks', body: milkBody, create: createMilk, update: updateMilk, retire: retireMilk, restore: restoreMilk, move: moveMilk }),
-  kind({
-    path: 'modifier-groups',
-    body: modifierGroupBody,
-    create: createGroup,
-    update: updateGroup,
-    retire: retireGroup,
-    restore: restoreGroup,
-    move: moveGroup,
-  }),
-  kind({
-    path: 'modifiers',
-    body: modifierBody,
-    create: createModifier,
-    update: updateModifier,
-    retire: retireModifier,
-    restore: restoreModifier,
-    move: moveModifier,
-  }),
-];
-
-export function menuAdminRoutes(deps: Deps): ApiRoute[] {
-  const id = (params: unknown) => parse(idParam, params, 'params').id;
-  const route = (method: ApiRoute['method'], path: string, handler: ApiRoute['handler']): ApiRoute => ({
-    method,
-    path: `/menu-admin${path}`,
-    capability: 'editMenu',
-    handler,
-  });
-  /** Retire or restore: never a delete, since past orders point at menu rows. */
-  const retired = (path: string, retire: IdCommand<void>, restore: IdCommand<void>) =>
-    route('post', `${path}/:id/retired`, async (req, res) => {
-      const rowId = id(req.params);
-      const body = parse(retiredBody, req.body);
-      res.json(await (body.retired ? retire : restore)(deps, userOf(req), rowId));
-    });
-
-  const routes: ApiRoute[] = [];
-  for (const k of KINDS as Kind<z.ZodType>[]) {
-    routes.push(
-      route('post', `/${k.path}`, async (req, res) => res.status(201).json(await k.create(deps, userOf(req), parse(k.body, req.body)))),
-      route('put', `/${k.path}/:id`, async (req, res) => {
-        const rowId = id(req.params);
-        res.json(await k.update(deps, userOf(req), rowId, parse(k.body, req.body)));
-      }),
-      retired(`/${k.path}`, k.retire, k.restore),
-      route('post', `/${k.path}/:id/move`, async (req, res) => {
-        const rowId = id(req.params);
-        res.json(await k.move(deps, userOf(req), rowId, parse(moveBody, req.body)));
-      }),
-    );
-  }
-  routes.push(retired('/sizes', retireSize, restoreSize));
-  return routes;
-}
+export const menuAdminCommands: CommandHandlers<MenuAdminCommand> = {
+  createCategory: create(createCategory),
+  updateCategory: byId(updateCategory),
+  setCategoryRetired: retired(retireCategory, restoreCategory),
+  moveCategory: byId(moveCategory),
+  createItem: create(createItem),
+  updateItem: byId(updateItem),
+  setItemRetired: retired(retireItem, restoreItem),
+  moveItem: byId(moveItem),
+  createMilk: create(createMilk),
+  updateMilk: byId(updateMilk),
+  setMilkRetired: retired(retireMilk, restoreMilk),
+  moveMilk: byId(moveMilk),
+  createModifierGroup: create(createGroup),
+  updateModifierGroup: byId(updateGroup),
+  setModifierGroupRetired: retired(retireGroup, restoreGroup),
+  moveModifierGroup: byId(moveGroup),
+  createModifier: create(createModifier),
+  updateModifier: byId(updateModifier),
+  setModifierRetired: retired(retireModifier, restoreModifier),
+  moveModifier: byId(moveModifier),
+  setSizeRetired: retired(retireSize, restoreSize),
+};

@@ -1,6 +1,7 @@
 // Menu CSV import/export and item photos, for the owner. Uploads are multipart/form-data with one
 // file in the field "file", read by multer into memory within a size limit; what the bytes are is
-// decided by the services (the CSV reader, sharp), never by the file's name alone.
+// decided by the services (the CSV reader, sharp), never by the file's name alone. These are plain
+// routes, not commands (src/commands.ts): a multipart upload, and a CSV download.
 import type { Request, Response } from 'express';
 import multer from 'multer';
 import { MENU_CSV_MAX_BYTES } from '@/domain/menu-csv';
@@ -11,6 +12,7 @@ import type { Deps } from '@server/deps';
 import { PHOTO_MAX_BYTES, removeItemPhoto, setItemPhoto } from './item-photos';
 import { csvText, exportMenuCsv, importMenu, previewMenuImport } from './import';
 import type { ApiRoute } from '@server/routes';
+import type { CommandHandlers } from '@server/commands';
 
 const FIELD = 'file';
 
@@ -93,11 +95,10 @@ export function menuImportRoutes(deps: Deps, mediaDir: string): ApiRoute[] {
         res.json({ item: await setItemPhoto(deps, mediaDir, userOf(req), itemId, file.buffer) });
       },
     },
-    {
-      method: 'delete',
-      path: '/menu/items/:id/photo',
-      capability: 'editMenu',
-      handler: async (req, res) => res.json({ item: await removeItemPhoto(deps, mediaDir, userOf(req), id(req.params)) }),
-    },
   ];
 }
+
+/** The item's photo removed: a JSON command (src/commands.ts), unlike the upload. */
+export const itemPhotoCommands = (mediaDir: string): CommandHandlers<'removeItemPhoto'> => ({
+  removeItemPhoto: async ({ deps, user, params }) => ({ item: await removeItemPhoto(deps, mediaDir, user, params.id) }),
+});

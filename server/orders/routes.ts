@@ -1,6 +1,5 @@
-import { createOrderBody, idParam, refundBody, voidBody } from '@/domain/schemas';
-import { userOf } from '@server/auth/guards';
-import { HttpError, notFound, parse } from '@server/errors';
+import type { CommandHandlers } from '@server/commands';
+import { HttpError, notFound } from '@server/errors';
 import { GatewayUnavailable } from '@server/payments/gateway';
 import { handlePaymentWebhook } from '@server/payments/card-settle';
 import type { Deps } from '@server/deps';
@@ -11,40 +10,23 @@ import type { ApiRoute } from '@server/routes';
 
 export const WEBHOOK_PATH = '/webhooks/payments';
 
+/** The orders' commands (src/commands.ts). */
+export const orderCommands: CommandHandlers<'placeOrder' | 'refundOrder' | 'voidOrder'> = {
+  placeOrder: async ({ deps, user, status }, body) => {
+    const { order, created } = await createOrder(deps, user, body);
+    // after the commit, however the order came (at once, queued offline, a retry): once per order
+    await mailReceiptWithOrder(deps, user.locationId, order);
+    // the same clientOrderId again: the order the server already has, not a new one
+    if (!created) status(200);
+    return { order };
+  },
+  refundOrder: async ({ deps, user, params }, body) => ({ order: await refundOrder(deps, user, params.id, body) }),
+  voidOrder: async ({ deps, user, params }, { reason }) => ({ order: await voidOrder(deps, user, params.id, reason) }),
+};
+
+/** The payment provider's webhook: a plain route, not a command (its raw body is checked against its signature). */
 export function orderRoutes(deps: Deps): ApiRoute[] {
-  const id = (params: unknown) => parse(idParam, params, 'params').id;
   return [
-    {
-      method: 'post',
-      path: '/orders',
-      capability: 'takeOrders',
-      handler: async (req, res) => {
-        const body = parse(createOrderBody, req.body);
-        const user = userOf(req);
-        const { order, created } = await createOrder(deps, user, body);
-        // after the commit, however the order came (at once, queued offline, a retry): once per order
-        await mailReceiptWithOrder(deps, user.locationId, order);
-        res.status(created ? 201 : 200).json({ order });
-      },
-    },
-    {
-      method: 'post',
-      path: '/orders/:id/refund',
-      capability: 'refundOrders',
-      handler: async (req, res) => {
-        const orderId = id(req.params);
-        res.json({ order: await refundOrder(deps, userOf(req), orderId, parse(refundBody, req.body)) });
-      },
-    },
-    {
-      method: 'post',
-      path: '/orders/:id/void',
-      capability: 'refundOrders',
-      handler: async (req, res) => {
-        const orderId = id(req.params);
-        res.json({ order: await voidOrder(deps, userOf(req), orderId, parse(voidBody, req.body).reason) });
-      },
-    },
     {
       // The payment provider calls this; its signature, not a session, says who it is.
       method: 'post',

@@ -1,8 +1,7 @@
 // Reports for the lead and the owner: the CSV downloads of a shift's or a date range's numbers and
-// of the ticket history, and "settle" of the day's card check (which may give money back). The
-// reports themselves are reads (src/reads.ts).
+// of the ticket history (plain routes: they answer a file, not JSON), and "settle" of the day's card
+// check (a command, src/commands.ts). The reports themselves are reads (src/reads.ts).
 import type { Response } from 'express';
-import { cardSettleBody } from '@/domain/card-check-schemas';
 import { idParam, reportRangeQuery, ticketCsvQuery } from '@/domain/schemas';
 import { userOf } from '@server/auth/guards';
 import { parse } from '@server/errors';
@@ -11,6 +10,7 @@ import type { Deps } from '@server/deps';
 import { rangeReport, reportCsv, shiftReport, ticketRows, ticketsCsv } from './index';
 import { loadReportLocation } from './scope';
 import type { ApiRoute } from '@server/routes';
+import type { CommandHandlers } from '@server/commands';
 
 function sendCsv(res: Response, fileName: string, csv: string) {
   res.set('Content-Type', 'text/csv; charset=utf-8');
@@ -56,14 +56,10 @@ export function reportRoutes(deps: Deps): ApiRoute[] {
         sendCsv(res, `jugline-tickets-${span(query.from, query.to)}.csv`, ticketsCsv(rows, location.currency, location.timeZone));
       },
     },
-    {
-      method: 'post',
-      path: '/reports/cards/settle',
-      capability: 'refundOrders',
-      handler: async (req, res) => {
-        const { date } = parse(cardSettleBody, req.body);
-        res.json(await settleCardDay(deps, userOf(req).locationId, date));
-      },
-    },
   ];
 }
+
+/** The day's card check settled (it may give money back): the handler of its command (src/commands.ts). */
+export const reportCommands: CommandHandlers<'settleCards'> = {
+  settleCards: ({ deps, user }, { date }) => settleCardDay(deps, user.locationId, date),
+};

@@ -1,20 +1,17 @@
 // The owner's team screen: staff accounts, roles, invitations, PINs; the welcome link that sets a
 // password; and the PIN switch of a shared terminal (which lives here, beside the PINs it checks).
+// The handlers of their commands (src/commands.ts).
 import type { Request, RequestHandler } from 'express';
 import { rateLimit, type Store } from 'express-rate-limit';
 import type { Limits } from '@server/auth/shared-limits';
-import { idParam } from '@/domain/schemas';
-import { newPersonBody, ownPinBody, personPatchBody, pinBody, sendLinkBody, setPasswordBody, switchBody, tokenParam } from '@/domain/team-schemas';
 import type { SessionUser } from '@/domain/types';
-import { userOf } from '@server/auth/guards';
-import { HttpError, parse } from '@server/errors';
+import type { CommandHandlers } from '@server/commands';
+import { HttpError } from '@server/errors';
 import { DomainError } from '@server/domain-errors';
-import type { Deps } from '@server/deps';
 import { acceptLink, sendLink } from './invitations';
 import { checkPinSwitch, setOwnPin, setPin } from './pins';
 import { addPerson, updatePerson } from './team';
 import { signOutEverywhere } from './sessions';
-import type { ApiRoute } from '@server/routes';
 
 /** Wrong PINs from one address in 15 minutes, whoever they were for. */
 export const WRONG_PINS_PER_ADDRESS = 20;
@@ -42,7 +39,8 @@ function throttle(opts: { windowMs: number; limit: number; key?: (req: Request) 
   });
 }
 
-export function teamRoutes(deps: Deps, limits: Limits): ApiRoute[] {
+/** The team's commands, the PIN switch and the welcome link (src/commands.ts); the throttles count in `limits`. */
+export function teamCommands(limits: Limits): CommandHandlers<'addPerson' | 'updatePerson' | 'sendLink' | 'setPin' | 'setOwnPin' | 'switchPerson' | 'acceptLink'> {
   const pinsFromAddress = throttle({
     windowMs: 15 * 60_000,
     limit: WRONG_PINS_PER_ADDRESS,
@@ -57,69 +55,28 @@ export function teamRoutes(deps: Deps, limits: Limits): ApiRoute[] {
     store: limits.rateLimitStore('wrong-own-passwords'),
   });
 
-  return [
-    {
-      method: 'post',
-      path: '/team',
-      capability: 'manageTeam',
-      handler: async (req, res) => res.status(201).json(await addPerson(deps, userOf(req), parse(newPersonBody, req.body), originOf(req))),
-    },
-    {
-      method: 'patch',
-      path: '/team/:id',
-      capability: 'manageTeam',
-      handler: async (req, res) => {
-        const { id } = parse(idParam, req.params, 'params');
-        res.json({ member: await updatePerson(deps, userOf(req), id, parse(personPatchBody, req.body)) });
-      },
-    },
-    {
-      method: 'post',
-      path: '/team/:id/link',
-      capability: 'manageTeam',
-      handler: async (req, res) => {
-        const { id } = parse(idParam, req.params, 'params');
-        const { purpose } = parse(sendLinkBody, req.body);
-        res.status(202).json(await sendLink(deps, userOf(req), id, purpose, originOf(req)));
-      },
-    },
-    {
-      method: 'put',
-      path: '/team/:id/pin',
-      capability: 'manageTeam',
-      handler: async (req, res) => {
-        const { id } = parse(idParam, req.params, 'params');
-        const { pin } = parse(pinBody, req.body);
-        await setPin(deps, userOf(req).locationId, id, pin);
-        res.status(204).end();
-      },
-    },
-    {
-      // any signed-in person, for their own PIN
-      method: 'put',
-      path: '/me/pin',
-      capability: 'viewQueue',
+  return {
+    addPerson: ({ deps, user, req }, body) => addPerson(deps, user, body, originOf(req)),
+    updatePerson: async ({ deps, user, params }, body) => ({ member: await updatePerson(deps, user, params.id, body) }),
+    sendLink: ({ deps, user, params, req }, { purpose }) => sendLink(deps, user, params.id, purpose, originOf(req)),
+    setPin: ({ deps, user, params }, { pin }) => setPin(deps, user.locationId, params.id, pin),
+    // any signed-in person, for their own PIN
+    setOwnPin: {
       before: [ownPasswordTries],
-      handler: async (req, res) => {
-        const body = parse(ownPinBody, req.body);
+      handle: async ({ deps, user, res }, body) => {
         try {
-          await setOwnPin(deps, userOf(req), body.password, body.pin);
+          await setOwnPin(deps, user, body.password, body.pin);
         } catch (err) {
           if (err instanceof DomainError && err.refusal === 'unauthenticated') res.locals.wrongSecret = true;
           throw err;
         }
-        res.status(204).end();
       },
     },
-    {
-      // Only from a terminal already signed in to the same café; never from a signed-out one.
-      method: 'post',
-      path: '/session/switch',
-      capability: 'viewQueue',
+    // Only from a terminal already signed in to the same café; never from a signed-out one.
+    switchPerson: {
       before: [pinsFromAddress],
-      handler: async (req, res) => {
-        const body = parse(switchBody, req.body);
-        const outcome = await checkPinSwitch(deps, userOf(req), body);
+      handle: async ({ deps, user, req, res }, body) => {
+        const outcome = await checkPinSwitch(deps, user, body);
         if (!outcome.ok) {
           if (outcome.wrongPin) res.locals.wrongSecret = true;
           const retryAt = (outcome.error.details as { retryAt?: string } | undefined)?.retryAt;
@@ -129,24 +86,17 @@ export function teamRoutes(deps: Deps, limits: Limits): ApiRoute[] {
         const oldSid = req.sessionID;
         await logIn(req, outcome.user);
         deps.sessions.emit('switched', oldSid);
-        res.json({ user: publicUser(outcome.user) });
+        return { user: publicUser(outcome.user) };
       },
     },
-    {
-      method: 'post',
-      path: '/welcome/:token',
-      capability: null,
-      handler: async (req, res) => {
-        const { token } = parse(tokenParam, req.params, 'params');
-        const { password } = parse(setPasswordBody, req.body);
-        const user = await acceptLink(deps, token, password);
-        const previous = req.user ? req.sessionID : null;
-        // a new password ends the person's sessions elsewhere (a reset may be about a leaked one)
-        await signOutEverywhere(deps, user.id, req.sessionID);
-        await logIn(req, user);
-        if (previous) deps.sessions.emit('switched', previous);
-        res.json({ user: publicUser(user) });
-      },
+    acceptLink: async ({ deps, params, req }, { password }) => {
+      const user = await acceptLink(deps, params.token, password);
+      const previous = req.user ? req.sessionID : null;
+      // a new password ends the person's sessions elsewhere (a reset may be about a leaked one)
+      await signOutEverywhere(deps, user.id, req.sessionID);
+      await logIn(req, user);
+      if (previous) deps.sessions.emit('switched', previous);
+      return { user: publicUser(user) };
     },
-  ];
+  };
 }

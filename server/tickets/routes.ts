@@ -1,55 +1,38 @@
-import { drinkBatchBody, idParam } from '@/domain/schemas';
-import { userOf } from '@server/auth/guards';
-import { parse } from '@server/errors';
+// The Bar's commands and the Counter's collect and rush: their handlers (src/commands.ts).
+import type { SessionUser } from '@/domain/types';
+import type { CommandHandlers } from '@server/commands';
 import type { Deps } from '@server/deps';
 import { acknowledgeAllergy, collectTicket, rushTicket } from './ticket-care';
 import { bumpJug, startJug } from './jugs';
 import { bumpDrink, bumpDrinks, bumpTicket, recallTicket, startDrink, startDrinks } from './tickets';
-import type { ApiRoute } from '@server/routes';
 
-type Command = typeof bumpDrink;
+/** A command on one drink or ticket, answering the ticket as it now is. */
+const one =
+  (run: typeof bumpDrink) =>
+  async ({ deps, user, params }: { deps: Deps; user: SessionUser; params: { id: number } }) => ({ ticket: await run(deps, user, params.id) });
 
-export function ticketRoutes(deps: Deps): ApiRoute[] {
-  const command =
-    (run: Command): ApiRoute['handler'] =>
-    async (req, res) => {
-      const { id } = parse(idParam, req.params, 'params');
-      res.json({ ticket: await run(deps, userOf(req), id) });
-    };
-  return [
-    {
-      method: 'post',
-      path: '/drinks/start',
-      capability: 'makeDrinks',
-      handler: async (req, res) => res.json({ tickets: await startDrinks(deps, userOf(req), parse(drinkBatchBody, req.body).drinkIds) }),
-    },
-    {
-      method: 'post',
-      path: '/drinks/bump',
-      capability: 'makeDrinks',
-      handler: async (req, res) => res.json({ tickets: await bumpDrinks(deps, userOf(req), parse(drinkBatchBody, req.body).drinkIds) }),
-    },
-    {
-      method: 'post',
-      path: '/jugs',
-      capability: 'makeDrinks',
-      handler: async (req, res) => res.status(201).json(await startJug(deps, userOf(req), parse(drinkBatchBody, req.body).drinkIds)),
-    },
-    {
-      method: 'post',
-      path: '/jugs/:id/bump',
-      capability: 'makeDrinks',
-      handler: async (req, res) => {
-        const { id } = parse(idParam, req.params, 'params');
-        res.json({ tickets: await bumpJug(deps, userOf(req), id, parse(drinkBatchBody, req.body).drinkIds) });
-      },
-    },
-    { method: 'post', path: '/drinks/:id/start', capability: 'makeDrinks', handler: command(startDrink) },
-    { method: 'post', path: '/drinks/:id/acknowledge-allergy', capability: 'makeDrinks', handler: command(acknowledgeAllergy) },
-    { method: 'post', path: '/tickets/:id/rush', capability: 'rushTickets', handler: command(rushTicket) },
-    { method: 'post', path: '/tickets/:id/collect', capability: 'collectTickets', handler: command(collectTicket) },
-    { method: 'post', path: '/drinks/:id/bump', capability: 'makeDrinks', handler: command(bumpDrink) },
-    { method: 'post', path: '/tickets/:id/bump', capability: 'makeDrinks', handler: command(bumpTicket) },
-    { method: 'post', path: '/tickets/:id/recall', capability: 'makeDrinks', handler: command(recallTicket) },
-  ];
-}
+export const ticketCommands: CommandHandlers<
+  | 'startDrinks'
+  | 'bumpDrinks'
+  | 'startJug'
+  | 'bumpJug'
+  | 'startDrink'
+  | 'acknowledgeAllergy'
+  | 'rushTicket'
+  | 'collectTicket'
+  | 'bumpDrink'
+  | 'bumpTicket'
+  | 'recallTicket'
+> = {
+  startDrinks: async ({ deps, user }, { drinkIds }) => ({ tickets: await startDrinks(deps, user, drinkIds) }),
+  bumpDrinks: async ({ deps, user }, { drinkIds }) => ({ tickets: await bumpDrinks(deps, user, drinkIds) }),
+  startJug: ({ deps, user }, { drinkIds }) => startJug(deps, user, drinkIds),
+  bumpJug: async ({ deps, user, params }, { drinkIds }) => ({ tickets: await bumpJug(deps, user, params.id, drinkIds) }),
+  startDrink: one(startDrink),
+  acknowledgeAllergy: one(acknowledgeAllergy),
+  rushTicket: one(rushTicket),
+  collectTicket: one(collectTicket),
+  bumpDrink: one(bumpDrink),
+  bumpTicket: one(bumpTicket),
+  recallTicket: one(recallTicket),
+};

@@ -259,3 +259,4 @@ export const categoryForm = categoryBody;
 
 /** Retire (true) or restore (false), as the Counter's 86 sends `available`. */
 export const retiredBody = z.strictObject({ retired: z.boolean() });
+export type RetiredBody = z.infer<typeof retiredBody>;

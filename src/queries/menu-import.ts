@@ -2,7 +2,7 @@
 // menu.changed event does the same for every other open screen).
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { MenuImportCounts, MenuImportPreview } from '@/domain/menu-csv';
-import { http } from '@/lib/http';
+import { send } from '@/lib/commands';
 import { menuKeys } from './menu';
 import { sendFile } from '@/features/menu-import/send-file';
 
@@ -41,7 +41,7 @@ export function useUploadPhoto(itemId: number, onProgress: (fraction: number) =>
 export function useRemovePhoto(itemId: number) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: () => http<ItemPhotoAnswer>('DELETE', `/menu/items/${itemId}/photo`),
+    mutationFn: (): Promise<ItemPhotoAnswer> => send.removeItemPhoto({ id: itemId }),
     onSuccess: () => qc.invalidateQueries({ queryKey: menuKeys.all }),
   });
 }

@@ -13,14 +13,14 @@ import { LotsTable } from '@/features/beans/lots-table';
 import { beanKeys, beansQuery } from '@/queries/beans';
 import { BeanSettingsForm } from '@/features/beans/settings-form';
 import { useApi } from '@/lib/api-context';
-import { beanCommands } from '@/lib/beans-api';
+import { send } from '@/lib/commands';
 import { ApiError } from '@/lib/http';
 import { requireScreen, type RouteDeps } from './deps';
 
 function RetireConfirm({ lot, onDone }: { lot: BeanLotView; onDone(): void }) {
   const qc = useQueryClient();
   const retire = useMutation({
-    mutationFn: () => beanCommands.retireLot(lot.id),
+    mutationFn: () => send.retireLot({ id: lot.id }),
     onSuccess: async () => {
       await qc.invalidateQueries({ queryKey: beanKeys.all });
       onDone();

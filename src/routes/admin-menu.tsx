@@ -55,10 +55,10 @@ function AdminMenu() {
     () => ({
       busy: command.isPending,
       edit: (i) => setEditing(i),
-      move: (i, d) => run((c) => c.move('items', i.id, d), `Moved ${i.name}.`),
+      move: (i, d) => run((c) => c.moveItem({ id: i.id, direction: d }), `Moved ${i.name}.`),
       setAvailable: (i, available) =>
-        run((c) => c.setAvailable(i.id, available), available ? `${i.name} is back on.` : `${i.name} is 86'd: the Counter shows it unavailable.`),
-      restore: (i) => run((c) => c.setRetired('items', i.id, false), `Restored ${i.name}.`),
+        run((c) => c.setAvailability({ id: i.id, available }), available ? `${i.name} is back on.` : `${i.name} is 86'd: the Counter shows it unavailable.`),
+      restore: (i) => run((c) => c.setItemRetired({ id: i.id, retired: false }), `Restored ${i.name}.`),
     }),
     [command.isPending, run],
   );

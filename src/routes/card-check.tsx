@@ -15,7 +15,7 @@ import { cardCheckKeys, cardCheckQuery } from '@/queries/card-check';
 import { sessionQuery } from '@/queries/session';
 import { useApi } from '@/lib/api-context';
 import { cn } from '@/lib/cn';
-import { http } from '@/lib/http';
+import { send } from '@/lib/commands';
 import { requireScreen, type RouteDeps } from './deps';
 
 const DATE = /^\d{4}-\d{2}-\d{2}$/;
@@ -36,7 +36,7 @@ function SettleButton({ view }: { view: CardCheckView }) {
   const [search] = useSearchParams();
   const open = openLines(view);
   const settle = useMutation({
-    mutationFn: () => http<CardCheckView>('POST', '/reports/cards/settle', { date: view.date }),
+    mutationFn: () => send.settleCards({ date: view.date }),
     onSuccess: (next) => qc.setQueryData(cardCheckKeys.day(dateFrom(search)), next),
   });
   return (

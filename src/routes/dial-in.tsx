@@ -16,7 +16,7 @@ import { goodShotWords, shotNumbers, timeOfDay } from '@/features/dial-in/shot-v
 import { keepUnits } from '@/lib/keep-units';
 import { useApi } from '@/lib/api-context';
 import type { DialInView } from '@/domain/beans-schemas';
-import { beanCommands } from '@/lib/beans-api';
+import { send } from '@/lib/commands';
 import { ApiError } from '@/lib/http';
 import { requireScreen, type RouteDeps } from './deps';
 
@@ -37,7 +37,7 @@ function DialIn() {
   const { data: shots } = useQuery({ ...lotShotsQuery(api, lotId ?? 0), enabled: lotId !== null });
   const [advice, setAdvice] = useState<{ lotId: number; advice: ShotAdvice } | null>(null);
   const log = useMutation({
-    mutationFn: (f: ShotFields) => beanCommands.logShot({ ...f, lotId: lotId! }),
+    mutationFn: (f: ShotFields) => send.logShot({ ...f, lotId: lotId! }),
     onSuccess: async (r) => {
       setAdvice({ lotId: r.shot.lotId, advice: r.advice });
       await qc.invalidateQueries({ queryKey: dialInKeys.all });

@@ -28,6 +28,7 @@ function SignIn() {
 
   const onSubmit = form.handleSubmit(async (values) => {
     try {
+      // a plain route, not a command (src/commands.ts): passport answers it after the throttle's turn
       const { user } = await http<{ user: PublicUser }>('POST', '/session', values);
       qc.clear();
       qc.setQueryData(sessionKeys.all, { user });

@@ -10,9 +10,9 @@ import { PASSWORD_MAX_BYTES, PASSWORD_MIN_CHARS, setPasswordBody, type SetPasswo
 import { Button } from '@/components/ui/button';
 import { FieldError } from '@/components/ui/field-error';
 import { welcomeQuery } from '@/queries/team';
-import type { PublicUser } from '@/domain/types';
 import { useApi } from '@/lib/api-context';
-import { ApiError, http } from '@/lib/http';
+import { send } from '@/lib/commands';
+import { ApiError } from '@/lib/http';
 import { useHydrated } from '@/lib/use-hydrated';
 import type { RouteDeps } from './deps';
 import { RouteError } from './route-error';
@@ -41,7 +41,7 @@ function Welcome() {
 
   const onSubmit = form.handleSubmit(async (values) => {
     try {
-      const { user } = await http<{ user: PublicUser }>('POST', `/welcome/${encodeURIComponent(token)}`, values);
+      const { user } = await send.acceptLink({ token, ...values });
       // A fresh page as the person (not a client-side move: this screen's data is the used link,
       // and the browser's Back must not lead to it).
       window.location.replace(HOME_SCREEN[user.role]);

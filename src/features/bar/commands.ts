@@ -2,7 +2,8 @@
 // that follows brings every other screen along.
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { TicketView } from '@/domain/types';
-import { http } from '@/lib/http';
+import type { CommandName } from '@/commands';
+import { send } from '@/lib/commands';
 import { applyTicket } from '@/live/use-live-board';
 
 type OneKind = 'start-drink' | 'bump-drink' | 'acknowledge-allergy' | 'bump-ticket' | 'recall-ticket' | 'rush-ticket';
@@ -13,19 +14,19 @@ export type BarCommand =
   /** A started jug and the drinks the screen shows in it: refused (409) if they changed meanwhile. */
   | { kind: 'bump-jug'; jugId: number; drinkIds: number[] };
 
-const PATHS: Record<OneKind, (id: number) => string> = {
-  'start-drink': (id) => `/drinks/${id}/start`,
-  'bump-drink': (id) => `/drinks/${id}/bump`,
-  'acknowledge-allergy': (id) => `/drinks/${id}/acknowledge-allergy`,
-  'bump-ticket': (id) => `/tickets/${id}/bump`,
-  'recall-ticket': (id) => `/tickets/${id}/recall`,
-  'rush-ticket': (id) => `/tickets/${id}/rush`,
+const ONE: Record<OneKind, Extract<CommandName, 'startDrink' | 'bumpDrink' | 'acknowledgeAllergy' | 'bumpTicket' | 'recallTicket' | 'rushTicket'>> = {
+  'start-drink': 'startDrink',
+  'bump-drink': 'bumpDrink',
+  'acknowledge-allergy': 'acknowledgeAllergy',
+  'bump-ticket': 'bumpTicket',
+  'recall-ticket': 'recallTicket',
+  'rush-ticket': 'rushTicket',
 };
 
 async function run(c: BarCommand): Promise<TicketView[]> {
-  if (c.kind === 'start-jug') return (await http<{ jugId: number; tickets: TicketView[] }>('POST', '/jugs', { drinkIds: c.drinkIds })).tickets;
-  if (c.kind === 'bump-jug') return (await http<{ tickets: TicketView[] }>('POST', `/jugs/${c.jugId}/bump`, { drinkIds: c.drinkIds })).tickets;
-  return [(await http<{ ticket: TicketView }>('POST', PATHS[c.kind](c.id))).ticket];
+  if (c.kind === 'start-jug') return (await send.startJug({ drinkIds: c.drinkIds })).tickets;
+  if (c.kind === 'bump-jug') return (await send.bumpJug({ id: c.jugId, drinkIds: c.drinkIds })).tickets;
+  return [(await send[ONE[c.kind]]({ id: c.id })).ticket];
 }
 
 export function useBarCommand() {

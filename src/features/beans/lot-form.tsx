@@ -11,7 +11,7 @@ import { Button } from '@/components/ui/button';
 import { FieldError } from '@/components/ui/field-error';
 import { useHydrated } from '@/lib/use-hydrated';
 import { Segmented } from '@/components/ui/segmented';
-import { beanCommands } from '@/lib/beans-api';
+import { send } from '@/lib/commands';
 import { ApiError } from '@/lib/http';
 import { cn } from '@/lib/cn';
 import { beanKeys } from '@/queries/beans';
@@ -36,7 +36,7 @@ export function LotForm({ lot, lots, today, onDone }: { lot: BeanLotView | null;
   const form = useForm<BeanLotBody>({ resolver: zodResolver(beanLotBody), defaultValues: defaults(lot, today) });
   const { register, formState, setError, watch, setValue, handleSubmit } = form;
   const save = useMutation({
-    mutationFn: (body: BeanLotBody) => (lot ? beanCommands.updateLot(lot.id, body) : beanCommands.createLot(body)),
+    mutationFn: (body: BeanLotBody) => (lot ? send.updateLot({ id: lot.id, ...body }) : send.createLot(body)),
     onSuccess: async (_, body) => {
       // named before the refetch: afterwards the grinder holds the lot just saved
       const moved = displaced?.name;

@@ -9,7 +9,7 @@ import { beanSettingsBody } from '@/domain/beans-schemas';
 import { Button } from '@/components/ui/button';
 import { FieldError } from '@/components/ui/field-error';
 import { useHydrated } from '@/lib/use-hydrated';
-import { beanCommands } from '@/lib/beans-api';
+import { send } from '@/lib/commands';
 import { ApiError } from '@/lib/http';
 import { beanKeys } from '@/queries/beans';
 
@@ -40,7 +40,7 @@ export function BeanSettingsForm({ settings }: { settings: BeanSettingsView }) {
   const hydrated = useHydrated();
   const { register, handleSubmit, formState, setError, reset } = useForm<Form>({ resolver: zodResolver(form), defaultValues: formValues(settings) });
   const save = useMutation({
-    mutationFn: beanCommands.saveSettings,
+    mutationFn: send.saveBeanSettings,
     onSuccess: async ({ settings: saved }) => {
       reset(formValues(saved));
       await qc.invalidateQueries({ queryKey: beanKeys.all });

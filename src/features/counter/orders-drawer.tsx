@@ -7,7 +7,8 @@ import type { OrderView } from '@/domain/types';
 import { Button } from '@/components/ui/button';
 import { useModalFocus } from '@/components/ui/use-modal-focus';
 import { useApi } from '@/lib/api-context';
-import { ApiError, http } from '@/lib/http';
+import { send } from '@/lib/commands';
+import { ApiError } from '@/lib/http';
 import { orderKeys, ordersQuery } from '@/queries/orders';
 
 const STATUS: Record<OrderView['status'], string> = {
@@ -26,7 +27,7 @@ export function OrdersDrawer({ canRefund, currency, onClose }: { canRefund: bool
   const [reason, setReason] = useState('');
   const list = useQuery(ordersQuery(api, q));
   const act = useMutation({
-    mutationFn: ({ id, kind }: { id: number; kind: 'refund' | 'void' }) => http('POST', `/orders/${id}/${kind}`, { reason }),
+    mutationFn: ({ id, kind }: { id: number; kind: 'refund' | 'void' }) => (kind === 'refund' ? send.refundOrder : send.voidOrder)({ id, reason }),
     onSuccess: () => {
       setActing(null);
       setReason('');

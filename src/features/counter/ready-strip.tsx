@@ -5,7 +5,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
 import type { TicketView } from '@/domain/types';
 import { Button } from '@/components/ui/button';
-import { http } from '@/lib/http';
+import { send } from '@/lib/commands';
 import { applyTicket } from '@/live/use-live-board';
 
 /** Chips that fit one row beside the heading and the "more" button, by window width. */
@@ -35,7 +35,7 @@ export const newestReadyFirst = (tickets: TicketView[]) =>
 export function ReadyStrip({ tickets }: { tickets: TicketView[] }) {
   const qc = useQueryClient();
   const collect = useMutation({
-    mutationFn: (id: number) => http<{ ticket: TicketView }>('POST', `/tickets/${id}/collect`),
+    mutationFn: (id: number) => send.collectTicket({ id }),
     onSuccess: ({ ticket }) => applyTicket(qc, ticket),
   });
   const [allOpen, setAllOpen] = useState(false);

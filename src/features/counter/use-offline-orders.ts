@@ -9,7 +9,8 @@ import { useQueryClient } from '@tanstack/react-query';
 import { useCallback, useEffect, useRef, useState } from 'react';
 import type { CreateOrderBody } from '@/domain/schemas';
 import type { OrderView } from '@/domain/types';
-import { ApiError, http } from '@/lib/http';
+import { send } from '@/lib/commands';
+import { ApiError } from '@/lib/http';
 import { onLiveConnected } from '@/lib/live-socket';
 import { menuKeys } from '@/queries/menu';
 import { listOfflineOrders, putOfflineOrder, removeOfflineOrder, type OfflineOrder } from './offline-orders';
@@ -58,7 +59,7 @@ function isRefusal(err: unknown): err is ApiError {
   return err instanceof ApiError && err.status >= 400 && err.status < 500 && ![401, 408, 429].includes(err.status);
 }
 
-const postOrder: SendOrderFn = (body) => http<{ order: OrderView }>('POST', '/orders', body);
+const postOrder: SendOrderFn = (body) => send.placeOrder(body);
 
 // 2 s, 4 s, 8 s … up to 30 s, with jitter so a room of tablets doesn't resend at once.
 const defaultDelay = (failures: number) => Math.min(30_000, 1000 * 2 ** failures) * (0.75 + Math.random() / 2);

@@ -1,7 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { CreateOrderBody } from '@/domain/schemas';
-import type { OrderView } from '@/domain/types';
-import { http } from '@/lib/http';
+import { send } from '@/lib/commands';
 import { menuKeys } from '@/queries/menu';
 
 /**
@@ -11,7 +10,7 @@ import { menuKeys } from '@/queries/menu';
 export function useSendOrder() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (body: CreateOrderBody) => http<{ order: OrderView }>('POST', '/orders', body),
+    mutationFn: (body: CreateOrderBody) => send.placeOrder(body),
     onError: (err: { status?: number }) => {
       // 409 unavailable: something was 86'd since the menu loaded
       if (err.status === 409) qc.invalidateQueries({ queryKey: menuKeys.all });

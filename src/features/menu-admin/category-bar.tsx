@@ -109,7 +109,7 @@ export function CategoryBar({ menu, selected, showRetired, command, onSelect, no
           submitLabel="Add category"
           onCancel={() => setEditing(null)}
           onSave={async (body) => {
-            const r = await command.mutateAsync((c) => c.create('categories', body));
+            const r = await command.mutateAsync((c) => c.createCategory(body));
             setEditing(null);
             onSelect((r as { id: number }).id);
             notify(`Added the category ${body.name}.`);
@@ -122,7 +122,7 @@ export function CategoryBar({ menu, selected, showRetired, command, onSelect, no
           submitLabel="Rename"
           onCancel={() => setEditing(null)}
           onSave={async (body) => {
-            await command.mutateAsync((c) => c.update('categories', selected.id, body));
+            await command.mutateAsync((c) => c.updateCategory({ id: selected.id, ...body }));
             setEditing(null);
             notify(`Renamed to ${body.name}.`);
           }}
@@ -138,7 +138,7 @@ export function CategoryBar({ menu, selected, showRetired, command, onSelect, no
             <Button
               tone="quiet"
               disabled={command.isPending}
-              onClick={() => run((c) => c.setRetired('categories', selected.id, false), `Restored ${selected.name}.`)}
+              onClick={() => run((c) => c.setCategoryRetired({ id: selected.id, retired: false }), `Restored ${selected.name}.`)}
             >
               Restore category
             </Button>
@@ -150,7 +150,7 @@ export function CategoryBar({ menu, selected, showRetired, command, onSelect, no
                 first={at === 0}
                 last={at === live.length - 1}
                 busy={command.isPending}
-                onMove={(d) => run((c) => c.move('categories', selected.id, d), `Moved ${selected.name}.`)}
+                onMove={(d) => run((c) => c.moveCategory({ id: selected.id, direction: d }), `Moved ${selected.name}.`)}
               />
               <Button tone="quiet" onClick={() => setConfirm(true)}>
                 Retire category…
@@ -167,7 +167,7 @@ export function CategoryBar({ menu, selected, showRetired, command, onSelect, no
           onCancel={() => setConfirm(false)}
           onConfirm={async () => {
             setConfirm(false);
-            await run((c) => c.setRetired('categories', selected.id, true), `Retired ${selected.name}.`);
+            await run((c) => c.setCategoryRetired({ id: selected.id, retired: true }), `Retired ${selected.name}.`);
           }}
         />
       )}

@@ -2,14 +2,15 @@
 // menu.changed event brings every open Counter and Bar along.
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { AdminMenuView, MenuAdminResult } from '@/domain/menu-admin-view';
-import { menuAdminCommands } from '@/lib/menu-admin-api';
+import type { CommandSender } from '@/commands';
+import { send } from '@/lib/commands';
 import { menuKeys } from '@/queries/menu';
 import { menuAdminKeys } from '@/queries/menu-admin';
 
 export function useMenuCommand() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (run: (c: typeof menuAdminCommands) => Promise<MenuAdminResult | unknown>) => run(menuAdminCommands),
+    mutationFn: (run: (c: CommandSender) => Promise<MenuAdminResult | unknown>) => run(send),
     onSuccess: (result) => {
       const menu = (result as MenuAdminResult | undefined)?.menu;
       if (menu) qc.setQueryData<AdminMenuView>(menuAdminKeys.editable, menu);

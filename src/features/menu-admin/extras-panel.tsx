@@ -59,7 +59,7 @@ function GroupForm({
   const live = menu.items.filter((i) => !i.retired);
   const save = form.handleSubmit(async (body) => {
     try {
-      await command.mutateAsync((c) => (group ? c.update('modifier-groups', group.id, body) : c.create('modifier-groups', body)));
+      await command.mutateAsync((c) => (group ? c.updateModifierGroup({ id: group.id, ...body }) : c.createModifierGroup(body)));
       notify(`${group ? 'Saved' : 'Added'} the group ${body.name}.`);
       onClose();
     } catch (err) {
@@ -138,7 +138,7 @@ function ModifierForm({
   const save = form.handleSubmit(async (f) => {
     const body = { ...f, groupId };
     try {
-      await command.mutateAsync((c) => (modifier ? c.update('modifiers', modifier.id, body) : c.create('modifiers', body)));
+      await command.mutateAsync((c) => (modifier ? c.updateModifier({ id: modifier.id, ...body }) : c.createModifier(body)));
       notify(`${modifier ? 'Saved' : 'Added'} ${body.name}.`);
       onClose();
     } catch (err) {
@@ -229,7 +229,7 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
                   first={at === 0}
                   last={at === liveGroups.length - 1}
                   busy={command.isPending}
-                  onMove={(d) => run((c) => c.move('modifier-groups', g.id, d), `Moved ${g.name}.`)}
+                  onMove={(d) => run((c) => c.moveModifierGroup({ id: g.id, direction: d }), `Moved ${g.name}.`)}
                 />
               )}
               <h3 className="text-xl font-semibold">{g.name}</h3>
@@ -243,7 +243,7 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
                   <Button
                     tone="quiet"
                     disabled={command.isPending}
-                    onClick={() => run((c) => c.setRetired('modifier-groups', g.id, false), `Restored ${g.name}.`)}
+                    onClick={() => run((c) => c.setModifierGroupRetired({ id: g.id, retired: false }), `Restored ${g.name}.`)}
                   >
                     Restore group
                   </Button>
@@ -269,7 +269,7 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
                         first={mAt === 0}
                         last={mAt === liveMods.length - 1}
                         busy={command.isPending}
-                        onMove={(d) => run((c) => c.move('modifiers', m.id, d), `Moved ${m.name}.`)}
+                        onMove={(d) => run((c) => c.moveModifier({ id: m.id, direction: d }), `Moved ${m.name}.`)}
                       />
                     ) : (
                       <span className="w-[5.75rem]" />
@@ -283,7 +283,7 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
                         <Button
                           tone="quiet"
                           disabled={command.isPending}
-                          onClick={() => run((c) => c.setRetired('modifiers', m.id, false), `Restored ${m.name}.`)}
+                          onClick={() => run((c) => c.setModifierRetired({ id: m.id, retired: false }), `Restored ${m.name}.`)}
                           aria-label={`Restore ${m.name}`}
                         >
                           Restore
@@ -324,7 +324,7 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
           onConfirm={async () => {
             const r = retiring;
             setRetiring(null);
-            await run((c) => c.setRetired(r.kind, r.id, true), `Retired ${r.name}.`);
+            await run((c) => (r.kind === 'modifiers' ? c.setModifierRetired : c.setModifierGroupRetired)({ id: r.id, retired: true }), `Retired ${r.name}.`);
           }}
         />
       )}

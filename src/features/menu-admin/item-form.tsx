@@ -43,7 +43,7 @@ export function ItemForm({ menu, item, categoryId, command, notify, onClose }: P
   const save = form.handleSubmit(async (body) => {
     setProblem(null);
     try {
-      await command.mutateAsync((c) => (item ? c.update('items', item.id, body) : c.create('items', body)));
+      await command.mutateAsync((c) => (item ? c.updateItem({ id: item.id, ...body }) : c.createItem(body)));
       notify(item ? `Saved ${body.name}. Open Counters show it now.` : `Added ${body.name}. Open Counters show it now.`);
       onClose();
     } catch (err) {
@@ -52,7 +52,7 @@ export function ItemForm({ menu, item, categoryId, command, notify, onClose }: P
   });
   const retire = async () => {
     try {
-      await command.mutateAsync((c) => c.setRetired('items', item!.id, true));
+      await command.mutateAsync((c) => c.setItemRetired({ id: item!.id, retired: true }));
       notify(`Retired ${item!.name}. It is off the Counter; past orders keep it.`);
       onClose();
     } catch (err) {

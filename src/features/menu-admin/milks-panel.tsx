@@ -41,7 +41,7 @@ function MilkForm({
   const errors = form.formState.errors;
   const save = form.handleSubmit(async (body) => {
     try {
-      await command.mutateAsync((c) => (milk ? c.update('milks', milk.id, body) : c.create('milks', body)));
+      await command.mutateAsync((c) => (milk ? c.updateMilk({ id: milk.id, ...body }) : c.createMilk(body)));
       notify(`${milk ? 'Saved' : 'Added'} ${body.name} (${body.code}).`);
       onClose();
     } catch (err) {
@@ -158,7 +158,7 @@ export function MilksPanel({ menu, command, notify }: { menu: AdminMenuView; com
                         first={at === 0}
                         last={at === live.length - 1}
                         busy={command.isPending}
-                        onMove={(d) => run((c) => c.move('milks', m.id, d), `Moved ${m.name}.`)}
+                        onMove={(d) => run((c) => c.moveMilk({ id: m.id, direction: d }), `Moved ${m.name}.`)}
                       />
                     )}
                   </td>
@@ -180,7 +180,7 @@ export function MilksPanel({ menu, command, notify }: { menu: AdminMenuView; com
                         <Button
                           tone="quiet"
                           disabled={command.isPending}
-                          onClick={() => run((c) => c.setRetired('milks', m.id, false), `Restored ${m.name}.`)}
+                          onClick={() => run((c) => c.setMilkRetired({ id: m.id, retired: false }), `Restored ${m.name}.`)}
                           aria-label={`Restore ${m.name}`}
                         >
                           Restore
@@ -211,7 +211,7 @@ export function MilksPanel({ menu, command, notify }: { menu: AdminMenuView; com
           onConfirm={async () => {
             const m = retiring;
             setRetiring(null);
-            await run((c) => c.setRetired('milks', m.id, true), `Retired ${m.name}.`);
+            await run((c) => c.setMilkRetired({ id: m.id, retired: true }), `Retired ${m.name}.`);
           }}
         />
       )}

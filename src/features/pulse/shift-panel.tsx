@@ -9,7 +9,8 @@ import { cashDifferenceWords, openTicketsWarning, type OpenTicketsAtClose } from
 import type { ShiftView } from '@/domain/types';
 import { Button } from '@/components/ui/button';
 import { FieldError } from '@/components/ui/field-error';
-import { ApiError, http } from '@/lib/http';
+import { send } from '@/lib/commands';
+import { ApiError } from '@/lib/http';
 import { pulseKeys } from '@/queries/pulse';
 
 // The forms take dollars and minutes as typed; the API takes cents and seconds.
@@ -29,10 +30,10 @@ function openTicketsOf(error: unknown): OpenTicketsAtClose | null {
   return error.details as unknown as OpenTicketsAtClose;
 }
 
-function useShiftCommand<T>(path: string) {
+function useShiftCommand<T>(run: (body: T) => Promise<{ shift: ShiftView }>) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (body: T) => http<{ shift: ShiftView }>('POST', path, body),
+    mutationFn: run,
     onSuccess: () => qc.invalidateQueries({ queryKey: pulseKeys.all }),
   });
 }
@@ -50,9 +51,9 @@ export function ShiftPanel({
   currency: string;
   timeZone: string;
 }) {
-  const open = useShiftCommand<{ openingFloatCents: number; baristasOnBar: number; waitTargetSeconds: number }>('/shifts');
-  const baristas = useShiftCommand<{ baristasOnBar: number }>('/shifts/current/baristas');
-  const close = useShiftCommand<CloseBody>('/shifts/current/close');
+  const open = useShiftCommand(send.openShift);
+  const baristas = useShiftCommand(send.setBaristas);
+  const close = useShiftCommand(send.closeShift);
   const openF = useForm({ resolver: zodResolver(openForm), defaultValues: { float: '150.00', baristas: 2, targetMinutes: 4 } });
   const closeF = useForm({ resolver: zodResolver(closeForm), defaultValues: { counted: '', note: '' } });
   const money = (c: number) => formatCents(c, currency);

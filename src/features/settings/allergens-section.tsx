@@ -12,7 +12,7 @@ import { allergensOf, type AllergenList } from '@/domain/allergens';
 import { ALLERGEN_CAUTION } from '@/domain/ingredients';
 import { SETTINGS_FIELDS, type SettingsPage } from '@/domain/settings-schemas';
 import { Segmented } from '@/components/ui/segmented';
-import { settingsCommands } from '@/lib/settings-api';
+import { send } from '@/lib/commands';
 import { SettingsSection, type SaveStatus } from './section';
 import { showServerErrors } from './server-errors';
 import { useSettingsCommand } from './use-settings-command';
@@ -92,7 +92,7 @@ export function AllergensSection({ page }: { page: SettingsPage }) {
   const { settings, allergenSwitch } = page;
   const form = useForm<AllergenForm>({ resolver: zodResolver(allergenForm), defaultValues: { allergenList: settings.allergenList } });
   const [status, setStatus] = useState<SaveStatus>(null);
-  const save = useSettingsCommand(settingsCommands.update, (p) => {
+  const save = useSettingsCommand(send.updateSettings, (p) => {
     form.reset({ allergenList: p.settings.allergenList });
     setStatus({ ok: true, text: `Saved — the Counter and the menu use the ${p.settings.allergenList} list` });
   });

@@ -7,7 +7,7 @@ import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { EXPANSION_MAX_PCT, JUG_MAX_DRINKS, JUG_WASTE_MAX_ML, WAIT_TARGET_SECONDS, type SettingsView } from '@/domain/settings-schemas';
 import { cn } from '@/lib/cn';
-import { settingsCommands } from '@/lib/settings-api';
+import { send } from '@/lib/commands';
 import { Field, SettingsSection, type SaveStatus } from './section';
 import { showServerErrors } from './server-errors';
 import { useSettingsCommand } from './use-settings-command';
@@ -51,7 +51,7 @@ const formValues = (s: SettingsView): BarForm => ({
 export function BarSection({ settings }: { settings: SettingsView }) {
   const form = useForm<BarForm>({ resolver: zodResolver(barForm), defaultValues: formValues(settings) });
   const [status, setStatus] = useState<SaveStatus>(null);
-  const save = useSettingsCommand(settingsCommands.update, (p) => {
+  const save = useSettingsCommand(send.updateSettings, (p) => {
     form.reset(formValues(p.settings));
     setStatus({ ok: true, text: 'Saved — open Bars time tickets against it now' });
   });

@@ -5,7 +5,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { cafeNameField, localeField, timeZoneField, type SettingsView } from '@/domain/settings-schemas';
-import { settingsCommands } from '@/lib/settings-api';
+import { send } from '@/lib/commands';
 import { useHydrated } from '@/lib/use-hydrated';
 import { Field, SettingsSection, type SaveStatus } from './section';
 import { showServerErrors } from './server-errors';
@@ -23,7 +23,7 @@ export function CafeSection({ settings }: { settings: SettingsView }) {
     defaultValues: { name: settings.name, timeZone: settings.timeZone, locale: settings.locale },
   });
   const [status, setStatus] = useState<SaveStatus>(null);
-  const save = useSettingsCommand(settingsCommands.update, (page) => {
+  const save = useSettingsCommand(send.updateSettings, (page) => {
     form.reset({ name: page.settings.name, timeZone: page.settings.timeZone, locale: page.settings.locale });
     setStatus({ ok: true, text: 'Saved' });
   });

@@ -7,7 +7,7 @@ import { formatCents, parseAmountToCents, taxCents } from '@/domain/money';
 import { currencyField, currencyProblem, EXTRA_SHOT_MAX_CENTS, percentToMilli, SETTINGS_FIELDS, type SettingsView } from '@/domain/settings-schemas';
 import { Segmented } from '@/components/ui/segmented';
 import { cn } from '@/lib/cn';
-import { settingsCommands } from '@/lib/settings-api';
+import { send } from '@/lib/commands';
 import { Field, SettingsSection, type SaveStatus } from './section';
 import { showServerErrors } from './server-errors';
 import { useSettingsCommand } from './use-settings-command';
@@ -40,7 +40,7 @@ const formValues = (s: SettingsView): MoneyForm => ({
 export function MoneySection({ settings }: { settings: SettingsView }) {
   const form = useForm<MoneyForm, unknown, z.output<typeof moneyForm>>({ resolver: zodResolver(moneyForm), defaultValues: formValues(settings) });
   const [status, setStatus] = useState<SaveStatus>(null);
-  const save = useSettingsCommand(settingsCommands.update, (page) => {
+  const save = useSettingsCommand(send.updateSettings, (page) => {
     form.reset(formValues(page.settings));
     setStatus({ ok: true, text: 'Saved — the Counter prices with it from the next order' });
   });

@@ -9,7 +9,7 @@ import { defaultMinFillMl, PITCHER_CAPACITY_ML, pitcherBody, type PitcherBody, t
 import { exactUsFlOz, type VolumeUnit } from '@/domain/units';
 import { Button } from '@/components/ui/button';
 import { cn } from '@/lib/cn';
-import { settingsCommands } from '@/lib/settings-api';
+import { send } from '@/lib/commands';
 import { Field, SaveStatusText, type SaveStatus } from './section';
 import { showServerErrors } from './server-errors';
 import { useSettingsCommand } from './use-settings-command';
@@ -61,11 +61,11 @@ function PitcherForm({
     report({ ok: true, text });
   };
   const save = useSettingsCommand(
-    (body: PitcherBody) => (pitcher ? settingsCommands.updatePitcher(pitcher.id, body) : settingsCommands.addPitcher(body)),
+    (body: PitcherBody) => (pitcher ? send.updatePitcher({ id: pitcher.id, ...body }) : send.addPitcher(body)),
     done(pitcher ? 'Pitcher saved — open Bars plan with it now' : 'Pitcher added — open Bars plan with it now'),
   );
   const remove = useSettingsCommand(
-    () => settingsCommands.removePitcher(pitcher!.id),
+    () => send.removePitcher({ id: pitcher!.id }),
     () => report({ ok: true, text: 'Pitcher removed' }),
   );
   const fail = (e: unknown) => report({ ok: false, text: showServerErrors(e, form.setError, SERVER_FIELDS) });

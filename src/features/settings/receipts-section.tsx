@@ -6,7 +6,7 @@ import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { PICKUP_TIMEOUT_SECONDS, RECEIPT_FOOTER_MAX, type SettingsView } from '@/domain/settings-schemas';
 import { cn } from '@/lib/cn';
-import { settingsCommands } from '@/lib/settings-api';
+import { send } from '@/lib/commands';
 import { Field, SettingsSection, type SaveStatus } from './section';
 import { showServerErrors } from './server-errors';
 import { useSettingsCommand } from './use-settings-command';
@@ -30,7 +30,7 @@ const formValues = (s: SettingsView): ReceiptsForm => ({
 export function ReceiptsSection({ settings }: { settings: SettingsView }) {
   const form = useForm<ReceiptsForm>({ resolver: zodResolver(receiptsForm), defaultValues: formValues(settings) });
   const [status, setStatus] = useState<SaveStatus>(null);
-  const save = useSettingsCommand(settingsCommands.update, (p) => {
+  const save = useSettingsCommand(send.updateSettings, (p) => {
     form.reset(formValues(p.settings));
     setStatus({ ok: true, text: 'Saved' });
   });

@@ -9,7 +9,7 @@ import { hotMilkNote } from '@/domain/cautions';
 import { SETTINGS_FIELDS, type SettingsPage } from '@/domain/settings-schemas';
 import { cupSizeLabel, exactUsFlOz, TEMPERATURE_UNIT_LABEL, TEMPERATURE_UNITS, VOLUME_UNIT_LABEL, VOLUME_UNITS } from '@/domain/units';
 import { Segmented } from '@/components/ui/segmented';
-import { settingsCommands } from '@/lib/settings-api';
+import { send } from '@/lib/commands';
 import { SettingsSection, type SaveStatus } from './section';
 import { showServerErrors } from './server-errors';
 import { useSettingsCommand } from './use-settings-command';
@@ -24,7 +24,7 @@ export function UnitsSection({ page }: { page: SettingsPage }) {
     defaultValues: { volumeUnit: settings.volumeUnit, temperatureUnit: settings.temperatureUnit },
   });
   const [status, setStatus] = useState<SaveStatus>(null);
-  const save = useSettingsCommand(settingsCommands.update, (p) => {
+  const save = useSettingsCommand(send.updateSettings, (p) => {
     form.reset({ volumeUnit: p.settings.volumeUnit, temperatureUnit: p.settings.temperatureUnit });
     setStatus({ ok: true, text: 'Saved — open Counters and Bars show it now' });
   });

@@ -1,7 +1,7 @@
 // The owner's team commands. Each answers with what changed; the list is refetched after.
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { LinkPurpose, NewPersonBody, PersonPatchBody, TeamMember } from '@/domain/team-schemas';
-import { http } from '@/lib/http';
+import { send } from '@/lib/commands';
 import { teamKeys } from '@/queries/team';
 
 export type TeamCommand =
@@ -19,13 +19,13 @@ export type TeamResult =
 async function run(c: TeamCommand): Promise<TeamResult> {
   switch (c.kind) {
     case 'add':
-      return { kind: 'add', ...(await http<{ member: TeamMember; mailed: boolean }>('POST', '/team', c.body)) };
+      return { kind: 'add', ...(await send.addPerson(c.body)) };
     case 'patch':
-      return { kind: 'patch', ...(await http<{ member: TeamMember }>('PATCH', `/team/${c.id}`, c.body)) };
+      return { kind: 'patch', ...(await send.updatePerson({ id: c.id, ...c.body })) };
     case 'link':
-      return { kind: 'link', ...(await http<{ purpose: LinkPurpose; to: string }>('POST', `/team/${c.id}/link`, { purpose: c.purpose })) };
+      return { kind: 'link', ...(await send.sendLink({ id: c.id, purpose: c.purpose })) };
     case 'pin':
-      await http('PUT', `/team/${c.id}/pin`, { pin: c.pin });
+      await send.setPin({ id: c.id, pin: c.pin });
       return { kind: 'pin', id: c.id, cleared: c.pin === null };
   }
 }

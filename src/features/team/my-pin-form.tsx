@@ -6,7 +6,8 @@ import { z } from 'zod';
 import { PIN_MAX_DIGITS, PIN_MIN_DIGITS, pinSchema } from '@/domain/team-schemas';
 import { Button } from '@/components/ui/button';
 import { FieldError } from '@/components/ui/field-error';
-import { ApiError, http } from '@/lib/http';
+import { send } from '@/lib/commands';
+import { ApiError } from '@/lib/http';
 
 const schema = z
   .object({ password: z.string().min(1, 'Enter your password').max(200), pin: pinSchema, again: z.string() })
@@ -20,7 +21,7 @@ export function MyPinForm({ onDone, onCancel }: { onDone(message: string): void;
   const { errors, isSubmitting } = form.formState;
   const onSubmit = form.handleSubmit(async ({ password, pin }) => {
     try {
-      await http('PUT', '/me/pin', { password, pin });
+      await send.setOwnPin({ password, pin });
       onDone('Your PIN is saved. Use it with "Switch person" on any terminal of this café.');
     } catch (err) {
       const detail = err instanceof ApiError ? err.details?.find((d) => d.path === 'password' || d.path === 'pin') : undefined;

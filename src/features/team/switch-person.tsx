@@ -5,9 +5,9 @@ import { useEffect, useRef, useState } from 'react';
 import type { SwitchPerson } from '@/domain/team-schemas';
 import { Button } from '@/components/ui/button';
 import { useModalFocus } from '@/components/ui/use-modal-focus';
-import type { PublicUser } from '@/domain/types';
 import { useApi } from '@/lib/api-context';
-import { ApiError, holdReads, http, leavePage } from '@/lib/http';
+import { send } from '@/lib/commands';
+import { ApiError, holdReads, leavePage } from '@/lib/http';
 import { MyPinForm } from './my-pin-form';
 import { PinPad } from './pin-pad';
 import { switchPeopleQuery } from '@/queries/team';
@@ -45,7 +45,7 @@ export function SwitchDialog({ onClose }: { onClose(): void }) {
     setBusy(true);
     holdReads(true);
     try {
-      const { user } = await http<{ user: PublicUser }>('POST', '/session/switch', { userId: who.id, pin });
+      const { user } = await send.switchPerson({ userId: who.id, pin });
       // a fresh page: the new session's data, and the live socket reconnects as the new person
       leavePage(screenAfterSwitch(window.location.pathname + window.location.search, user.role));
     } catch (err) {
