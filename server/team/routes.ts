@@ -40,7 +40,9 @@ function throttle(opts: { windowMs: number; limit: number; key?: (req: Request) 
 }
 
 /** The team's commands, the PIN switch and the welcome link (src/commands.ts); the throttles count in `limits`. */
-export function teamCommands(limits: Limits): CommandHandlers<'addPerson' | 'updatePerson' | 'sendLink' | 'setPin' | 'setOwnPin' | 'switchPerson' | 'acceptLink'> {
+export function teamCommands(
+  limits: Limits,
+): CommandHandlers<'addPerson' | 'updatePerson' | 'sendLink' | 'setPin' | 'setOwnPin' | 'switchPerson' | 'acceptLink'> {
   const pinsFromAddress = throttle({
     windowMs: 15 * 60_000,
     limit: WRONG_PINS_PER_ADDRESS,
