@@ -9,17 +9,17 @@ export async function apiAs(baseURL: string, login: Login = 'cashier'): Promise<
 }
 export const cashierApi = (baseURL: string) => apiAs(baseURL, 'cashier');
 
-export type Line = { item: string; milk?: string; size?: string; modifiers?: string[] };
+export type Line = { item: string; milk?: string; size?: string; extras?: string[] };
 
 export async function order(api: APIRequestContext, name: string, items: Line[], extra = {}) {
   const menu = await (await api.get('/api/menu')).json();
-  const lines = items.map(({ item, milk, size, modifiers }) => {
+  const lines = items.map(({ item, milk, size, extras }) => {
     const m = menu.items.find((i: { name: string }) => i.name === item);
     return {
       menuItemId: m.id,
       milkId: milk ? menu.milks.find((x: { name: string }) => x.name === milk).id : undefined,
       sizeId: size ? m.sizes.find((s: { name: string }) => s.name === size).id : undefined,
-      modifierIds: modifiers?.map((n) => menu.modifiers.find((x: { name: string }) => x.name === n).id),
+      extraIds: extras?.map((n) => menu.extras.find((x: { name: string }) => x.name === n).id),
     };
   });
   const res = await api.post('/api/orders', {

@@ -70,7 +70,7 @@ test('a rush with seven milks: every lane in sight, oldest first, keys that stay
   const cashier = await apiAs(own.baseURL, 'cashier');
   const here = { service: 'dine_in' };
   const rush: [string, Line[], object?][] = [
-    ['Ama Osei', [{ item: 'Latte', milk: 'Whole', size: 'Large', modifiers: ['Decaf', 'Vanilla syrup'] }], here],
+    ['Ama Osei', [{ item: 'Latte', milk: 'Whole', size: 'Large', extras: ['Decaf', 'Vanilla syrup'] }], here],
     ['Bo Lind', [{ item: 'Flat white', milk: 'Coconut' }]],
     ['Cy Diaz', [{ item: 'Chai latte', milk: 'Whole' }]],
     ['Dee Park', [{ item: 'Cappuccino', milk: 'Oat' }], here],
@@ -145,7 +145,7 @@ test('a rush with seven milks: every lane in sight, oldest first, keys that stay
     const still = after.find((a) => a.id === k.id);
     if (still) expect(still.key, `card ${k.id} kept its key`).toBe(k.key);
   }
-  await order(cashier, 'Ama Osei', [{ item: 'Latte', milk: 'Whole', size: 'Large', modifiers: ['Decaf', 'Vanilla syrup'] }], here);
+  await order(cashier, 'Ama Osei', [{ item: 'Latte', milk: 'Whole', size: 'Large', extras: ['Decaf', 'Vanilla syrup'] }], here);
   await expect(cardOf(bar, 'Ama Osei')).toHaveCount(1);
 
   // 8. Here or To go, in words and a shape.

@@ -123,7 +123,7 @@ const GROUPS = [
 type GroupName = (typeof GROUPS)[number]['name'];
 
 // Hazelnut syrup records no hazelnut: the owner adds it if their syrup contains nut.
-const MODIFIERS: { group: GroupName; name: string; price: number }[] = [
+const EXTRAS: { group: GroupName; name: string; price: number }[] = [
   { group: 'Coffee', name: 'Decaf', price: 50 },
   { group: 'Syrup', name: 'Vanilla syrup', price: 60 },
   { group: 'Syrup', name: 'Caramel syrup', price: 60 },
@@ -236,7 +236,7 @@ async function seedDemo(db: Knex, now: Date, passwordCost: number | undefined, o
 
     const groupIds = new Map<GroupName, number>();
     for (const [i, g] of GROUPS.entries()) {
-      const [{ id }] = await trx('modifier_groups')
+      const [{ id }] = await trx('extra_groups')
         .insert({ location_id: locationId, name: g.name, selection: g.selection, required: false, sort: i })
         .returning('id');
       groupIds.set(g.name, id);
@@ -260,7 +260,7 @@ async function seedDemo(db: Knex, now: Date, passwordCost: number | undefined, o
           })
           .returning('id');
         for (const group of OFFERED[item.name] ?? []) {
-          await trx('item_modifier_groups').insert({ item_id: itemId, group_id: groupIds.get(group) });
+          await trx('item_extra_groups').insert({ item_id: itemId, group_id: groupIds.get(group) });
         }
         const sizes = item.sizes ?? [];
         const defaultIndex = sizes.findIndex(([name]) => name === 'Regular');
@@ -283,8 +283,8 @@ async function seedDemo(db: Knex, now: Date, passwordCost: number | undefined, o
       }
     }
 
-    await trx('modifiers').insert(
-      MODIFIERS.map((m, i) => ({
+    await trx('extras').insert(
+      EXTRAS.map((m, i) => ({
         location_id: locationId,
         group_id: groupIds.get(m.group),
         name: m.name,

@@ -46,10 +46,7 @@ const menuChange = command<MenuAdminResult>();
 /** The four commands of each kind the menu editor edits: created, updated (the whole row), retired
  * or restored (`{ retired }`), moved (`{ direction }`); each answers the id it made or changed and
  * the whole editable menu. */
-const menuKind = <const K extends string, const B extends 'categoryBody' | 'itemBody' | 'milkBody' | 'modifierGroupBody' | 'modifierBody'>(
-  kind: K,
-  body: B,
-) => {
+const menuKind = <const K extends string, const B extends 'categoryBody' | 'itemBody' | 'milkBody' | 'extraGroupBody' | 'extraBody'>(kind: K, body: B) => {
   const path = `/menu-admin/${kind}` as const;
   const base = { capability: 'editMenu', params: id } as const;
   return {
@@ -62,8 +59,8 @@ const menuKind = <const K extends string, const B extends 'categoryBody' | 'item
 const categories = menuKind('categories', 'categoryBody');
 const items = menuKind('items', 'itemBody');
 const milks = menuKind('milks', 'milkBody');
-const modifierGroups = menuKind('modifier-groups', 'modifierGroupBody');
-const modifiers = menuKind('modifiers', 'modifierBody');
+const extraGroups = menuKind('extra-groups', 'extraGroupBody');
+const extras = menuKind('extras', 'extraBody');
 const ticket = command<{ ticket: TicketView }>();
 const tickets = command<{ tickets: TicketView[] }>();
 
@@ -170,14 +167,14 @@ export const commands = {
   updateMilk: milks.update,
   setMilkRetired: milks.retired,
   moveMilk: milks.move,
-  createModifierGroup: modifierGroups.create,
-  updateModifierGroup: modifierGroups.update,
-  setModifierGroupRetired: modifierGroups.retired,
-  moveModifierGroup: modifierGroups.move,
-  createModifier: modifiers.create,
-  updateModifier: modifiers.update,
-  setModifierRetired: modifiers.retired,
-  moveModifier: modifiers.move,
+  createExtraGroup: extraGroups.create,
+  updateExtraGroup: extraGroups.update,
+  setExtraGroupRetired: extraGroups.retired,
+  moveExtraGroup: extraGroups.move,
+  createExtra: extras.create,
+  updateExtra: extras.update,
+  setExtraRetired: extras.retired,
+  moveExtra: extras.move,
   /** A size is retired or restored with its item's form; it has no commands of its own besides. */
   setSizeRetired: menuChange({ method: 'post', path: '/menu-admin/sizes/:id/retired', capability: 'editMenu', params: id, body: retired }),
   /** The item's photo goes (uploading one is a multipart route: server/menu/import-routes.ts). */

@@ -47,7 +47,7 @@ export interface MenuIndex {
   menu: MenuView;
   item(name: string): MenuItemView;
   milkId(name: string): number;
-  modifierId(name: string): number;
+  extraId(name: string): number;
   offers(item: MenuItemView, groupName: string): boolean;
 }
 
@@ -57,7 +57,7 @@ export function indexMenu(menu: MenuView): MenuIndex {
     if (found === undefined) throw new Error(`The menu has no ${what}; history needs the demo café's menu`);
     return found;
   };
-  const groupIds = new Map(menu.modifierGroups.map((g) => [g.name, g.id]));
+  const groupIds = new Map(menu.extraGroups.map((g) => [g.name, g.id]));
   return {
     menu,
     item: (name) =>
@@ -70,12 +70,12 @@ export function indexMenu(menu: MenuView): MenuIndex {
         menu.milks.find((m) => m.name === name),
         `milk "${name}"`,
       ).id,
-    modifierId: (name) =>
+    extraId: (name) =>
       need(
-        menu.modifiers.find((m) => m.name === name),
+        menu.extras.find((m) => m.name === name),
         `extra "${name}"`,
       ).id,
-    offers: (item, groupName) => item.modifierGroupIds.includes(groupIds.get(groupName) ?? -1),
+    offers: (item, groupName) => item.extraGroupIds.includes(groupIds.get(groupName) ?? -1),
   };
 }
 
@@ -103,14 +103,14 @@ function drinkLine(ix: MenuIndex, random: Random, month: number): OrderLineInput
   const mods: number[] = [];
   if (recipeShots > 0) {
     if (random.chance(0.07)) line.shots = recipeShots + 1;
-    if (ix.offers(item, 'Coffee') && random.chance(0.04)) mods.push(ix.modifierId('Decaf'));
+    if (ix.offers(item, 'Coffee') && random.chance(0.04)) mods.push(ix.extraId('Decaf'));
   }
   const syrup = ix.offers(item, 'Syrup') && random.chance(name === 'Mocha' ? 0.03 : 0.09);
-  if (syrup) mods.push(ix.modifierId(random.weighted(SYRUPS)));
-  if (ix.offers(item, 'Temperature') && random.chance(0.04)) mods.push(ix.modifierId('Extra hot'));
+  if (syrup) mods.push(ix.extraId(random.weighted(SYRUPS)));
+  if (ix.offers(item, 'Temperature') && random.chance(0.04)) mods.push(ix.extraId('Extra hot'));
   const sweet = name === 'Mocha' || name === 'Chai latte' || syrup;
-  if (ix.offers(item, 'Sweetness') && random.chance(sweet ? 0.1 : 0.01)) mods.push(ix.modifierId('Half sweet'));
-  if (mods.length) line.modifierIds = mods;
+  if (ix.offers(item, 'Sweetness') && random.chance(sweet ? 0.1 : 0.01)) mods.push(ix.extraId('Half sweet'));
+  if (mods.length) line.extraIds = mods;
   return line;
 }
 

@@ -23,12 +23,12 @@ interface MenuItem {
   station: string;
   takesMilk: boolean;
   sizes: { id: number; name: string }[];
-  modifierGroupIds: number[];
+  extraGroupIds: number[];
 }
 interface Menu {
   items: MenuItem[];
   milks: { id: number; name: string }[];
-  modifiers: { id: number; name: string; groupId: number }[];
+  extras: { id: number; name: string; groupId: number }[];
 }
 
 const FIRST = [
@@ -140,7 +140,7 @@ export async function playRush(opts: { clock: SceneClock; staff: Staff; startMs:
   const item = (name: string) => menu.items.find((i) => i.name === name) ?? fail(`the demo menu has no "${name}"`);
   const milk = (name: string) => menu.milks.find((m) => m.name === name)?.id ?? fail(`the demo menu has no milk "${name}"`);
   /** The extra, if the item offers its group. */
-  const modifier = (it: MenuItem, name: string) => menu.modifiers.find((m) => m.name === name && it.modifierGroupIds.includes(m.groupId))?.id;
+  const extraId = (it: MenuItem, name: string) => menu.extras.find((m) => m.name === name && it.extraGroupIds.includes(m.groupId))?.id;
   const at = (minutes: number) => startMs + minutes * 60_000;
 
   // 06:25: the lead opens the shift with two on bar and the 4-minute target
@@ -189,17 +189,17 @@ export async function playRush(opts: { clock: SceneClock; staff: Staff; startMs:
               ]
             : undefined;
         const mods = [
-          rnd.chance(0.06) ? modifier(it, 'Decaf') : undefined,
-          rnd.chance(0.1) ? modifier(it, rnd.pick(['Vanilla syrup', 'Caramel syrup'])) : undefined,
+          rnd.chance(0.06) ? extraId(it, 'Decaf') : undefined,
+          rnd.chance(0.1) ? extraId(it, rnd.pick(['Vanilla syrup', 'Caramel syrup'])) : undefined,
         ];
         return {
           menuItemId: it.id,
           sizeId: size?.id,
           milkId: it.takesMilk ? milk(rnd.weighted(MILKS)) : undefined,
-          modifierIds: mods.filter((m): m is number => m !== undefined),
+          extraIds: mods.filter((m): m is number => m !== undefined),
         };
       });
-    if (!lines && rnd.chance(0.3)) items.push({ menuItemId: item(rnd.weighted(FOOD)).id, sizeId: undefined, milkId: undefined, modifierIds: [] });
+    if (!lines && rnd.chance(0.3)) items.push({ menuItemId: item(rnd.weighted(FOOD)).id, sizeId: undefined, milkId: undefined, extraIds: [] });
     const payment = rnd.chance(0.65) ? { method: 'card', paymentMethod: 'pm_card_visa' } : { method: 'cash', tenderedCents: 5_000 };
     const body = { clientOrderId: crypto.randomUUID(), customerName: name, service: rnd.chance(0.7) ? 'takeaway' : 'dine_in', items, payment, ...extra };
     const { order } = await json(staff.cashier.post('/api/orders', { data: body }));
@@ -277,9 +277,9 @@ export async function playRush(opts: { clock: SceneClock; staff: Staff; startMs:
           customerName: 'Harriet Moreau',
         },
         [
-          { menuItemId: item('Latte').id, sizeId: item('Latte').sizes[1]?.id, milkId: milk('Oat'), modifierIds: [] },
-          { menuItemId: item('Cappuccino').id, sizeId: item('Cappuccino').sizes[0]?.id, milkId: milk('Whole'), modifierIds: [] },
-          { menuItemId: item('Banana bread').id, modifierIds: [] },
+          { menuItemId: item('Latte').id, sizeId: item('Latte').sizes[1]?.id, milkId: milk('Oat'), extraIds: [] },
+          { menuItemId: item('Cappuccino').id, sizeId: item('Cappuccino').sizes[0]?.id, milkId: milk('Whole'), extraIds: [] },
+          { menuItemId: item('Banana bread').id, extraIds: [] },
         ],
       );
       showcaseOrderId = order.id;

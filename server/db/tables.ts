@@ -74,6 +74,25 @@ export interface Tables {
     created_at: string;
     seq: number | null;
   };
+  extra_groups: {
+    id: number;
+    location_id: number;
+    name: string;
+    selection: string;
+    required: Flag;
+    sort: number;
+    retired_at: string | null;
+  };
+  extras: {
+    id: number;
+    location_id: number;
+    group_id: number;
+    name: string;
+    price_cents: number;
+    sort: number;
+    retired_at: string | null;
+    ingredients: JsonColumn;
+  };
   invitations: {
     id: number;
     location_id: number;
@@ -87,7 +106,7 @@ export interface Tables {
     used_at: string | null;
     voided_at: string | null;
   };
-  item_modifier_groups: {
+  item_extra_groups: {
     item_id: number;
     group_id: number;
   };
@@ -180,25 +199,6 @@ export interface Tables {
     retired_at: string | null;
     ingredients: JsonColumn;
   };
-  modifier_groups: {
-    id: number;
-    location_id: number;
-    name: string;
-    selection: string;
-    required: Flag;
-    sort: number;
-    retired_at: string | null;
-  };
-  modifiers: {
-    id: number;
-    location_id: number;
-    group_id: number;
-    name: string;
-    price_cents: number;
-    sort: number;
-    retired_at: string | null;
-    ingredients: JsonColumn;
-  };
   order_items: {
     id: number;
     order_id: number;
@@ -215,7 +215,7 @@ export interface Tables {
     shots: number;
     milk_ml: number;
     texture: Texture | null;
-    modifiers: JsonColumn;
+    extras: JsonColumn;
     contains: JsonColumn;
     note: string | null;
     price_cents: number;

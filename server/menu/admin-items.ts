@@ -47,9 +47,9 @@ async function checkReferences(trx: Trx, locationId: number, body: ItemBody, ite
     if (milk.retired_at) throw conflict(`${milk.name} is retired`);
   }
   // a retired group keeps its links (a restore brings it back), so only a new link must be to a group in use
-  const linked = item ? await trx('item_modifier_groups').where({ item_id: item.id }).pluck('group_id') : [];
-  for (const groupId of body.modifierGroupIds) {
-    const group = await ownedRow(trx, 'modifier_groups', locationId, groupId, 'Group of extras');
+  const linked = item ? await trx('item_extra_groups').where({ item_id: item.id }).pluck('group_id') : [];
+  for (const groupId of body.extraGroupIds) {
+    const group = await ownedRow(trx, 'extra_groups', locationId, groupId, 'Group of extras');
     if (group.retired_at && !linked.includes(groupId)) throw conflict(`The group ${group.name} is retired`);
   }
   // a retired item may share a name with one on sale; restoring it is what would clash
@@ -66,8 +66,8 @@ async function assertNameFree(trx: Trx, locationId: number, name: string, itemId
 }
 
 async function setGroups(trx: Trx, itemId: number, groupIds: number[]) {
-  await trx('item_modifier_groups').where({ item_id: itemId }).delete();
-  if (groupIds.length) await trx('item_modifier_groups').insert(groupIds.map((group_id) => ({ item_id: itemId, group_id })));
+  await trx('item_extra_groups').where({ item_id: itemId }).delete();
+  if (groupIds.length) await trx('item_extra_groups').insert(groupIds.map((group_id) => ({ item_id: itemId, group_id })));
 }
 
 export const createItem = (deps: Deps, user: SessionUser, body: ItemBody) =>
@@ -78,7 +78,7 @@ export const createItem = (deps: Deps, user: SessionUser, body: ItemBody) =>
       .insert({ ...itemRow(body), available: true, sort })
       .returning('id');
     for (const [i, s] of body.sizes.entries()) await trx('item_sizes').insert({ ...sizeRow(s, i), item_id: id });
-    await setGroups(trx, id, body.modifierGroupIds);
+    await setGroups(trx, id, body.extraGroupIds);
     await assertMenuOrderable(trx, locationId);
     return id;
   });
@@ -108,7 +108,7 @@ export const updateItem = (deps: Deps, user: SessionUser, id: number, body: Item
     }
     for (const place of changes.insert) await trx('item_sizes').insert({ ...sizeRow(body.sizes[place], place), item_id: id });
     if (changes.retire.length) await trx('item_sizes').whereIn('id', changes.retire).update({ retired_at: at, is_default: false });
-    await setGroups(trx, id, body.modifierGroupIds);
+    await setGroups(trx, id, body.extraGroupIds);
     await assertMenuOrderable(trx, locationId);
     return id;
   });

@@ -11,18 +11,7 @@ import type { Deps } from '@server/deps';
 import { createCategory, moveCategory, restoreCategory, retireCategory, updateCategory } from './admin-categories';
 import { createItem, moveItem, restoreItem, retireItem, retireSize, restoreSize, updateItem } from './admin-items';
 import { createMilk, moveMilk, restoreMilk, retireMilk, updateMilk } from './admin-milks';
-import {
-  createGroup,
-  createModifier,
-  moveGroup,
-  moveModifier,
-  restoreGroup,
-  restoreModifier,
-  retireGroup,
-  retireModifier,
-  updateGroup,
-  updateModifier,
-} from './admin-modifiers';
+import { createGroup, createExtra, moveGroup, moveExtra, restoreGroup, restoreExtra, retireGroup, retireExtra, updateGroup, updateExtra } from './admin-extras';
 
 type Who = { deps: Deps; user: SessionUser };
 type ById = Who & { params: { id: number } };
@@ -54,13 +43,13 @@ export const menuAdminCommands: CommandHandlers<MenuAdminCommand> = {
   updateMilk: byId(updateMilk),
   setMilkRetired: retired(retireMilk, restoreMilk),
   moveMilk: byId(moveMilk),
-  createModifierGroup: create(createGroup),
-  updateModifierGroup: byId(updateGroup),
-  setModifierGroupRetired: retired(retireGroup, restoreGroup),
-  moveModifierGroup: byId(moveGroup),
-  createModifier: create(createModifier),
-  updateModifier: byId(updateModifier),
-  setModifierRetired: retired(retireModifier, restoreModifier),
-  moveModifier: byId(moveModifier),
+  createExtraGroup: create(createGroup),
+  updateExtraGroup: byId(updateGroup),
+  setExtraGroupRetired: retired(retireGroup, restoreGroup),
+  moveExtraGroup: byId(moveGroup),
+  createExtra: create(createExtra),
+  updateExtra: byId(updateExtra),
+  setExtraRetired: retired(retireExtra, restoreExtra),
+  moveExtra: byId(moveExtra),
   setSizeRetired: retired(retireSize, restoreSize),
 };

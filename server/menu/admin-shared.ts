@@ -53,7 +53,7 @@ export async function ownedSize(trx: Trx, locationId: number, id: number) {
   return row;
 }
 
-export async function ownedRow(trx: Trx, table: 'milk_options' | 'modifier_groups' | 'modifiers', locationId: number, id: number, what: string) {
+export async function ownedRow(trx: Trx, table: 'milk_options' | 'extra_groups' | 'extras', locationId: number, id: number, what: string) {
   const row = await trx(table).where({ id, location_id: locationId }).first();
   if (!row) throw notFound(what);
   return row;
@@ -96,13 +96,13 @@ export async function assertMenuOrderable(trx: Trx, locationId: number) {
   if (orphan) throw conflict(`${orphan.milk} is the milk ${orphan.item} comes with: choose another milk for it first`);
 
   const groups = await liveItems(trx, locationId)
-    .join('item_modifier_groups', 'item_modifier_groups.item_id', 'menu_items.id')
-    .join('modifier_groups', 'modifier_groups.id', 'item_modifier_groups.group_id')
-    .whereNull('modifier_groups.retired_at')
-    .where('modifier_groups.required', true)
-    .distinct('modifier_groups.id', 'modifier_groups.name');
+    .join('item_extra_groups', 'item_extra_groups.item_id', 'menu_items.id')
+    .join('extra_groups', 'extra_groups.id', 'item_extra_groups.group_id')
+    .whereNull('extra_groups.retired_at')
+    .where('extra_groups.required', true)
+    .distinct('extra_groups.id', 'extra_groups.name');
   for (const g of groups) {
-    const choice = await trx('modifiers').where({ group_id: g.id }).whereNull('retired_at').first('id');
+    const choice = await trx('extras').where({ group_id: g.id }).whereNull('retired_at').first('id');
     if (!choice) throw conflict(`${g.name} is required on items for sale, so it needs at least one choice in use`);
   }
 }

@@ -26,9 +26,9 @@ export async function loadAdminMenu(db: Db, locationId: number): Promise<AdminMe
     )
     .orderByRaw('retired_at is not null, sort, id');
   const milks = await db('milk_options').where({ location_id: locationId }).orderBy(['sort', 'id']);
-  const groups = await db('modifier_groups').where({ location_id: locationId }).orderBy(['sort', 'id']);
-  const modifiers = await db('modifiers').where({ location_id: locationId }).orderBy(['sort', 'id']);
-  const links: { item_id: number; group_id: number }[] = await db('item_modifier_groups').whereIn(
+  const groups = await db('extra_groups').where({ location_id: locationId }).orderBy(['sort', 'id']);
+  const extras = await db('extras').where({ location_id: locationId }).orderBy(['sort', 'id']);
+  const links: { item_id: number; group_id: number }[] = await db('item_extra_groups').whereIn(
     'group_id',
     groups.map((g) => g.id),
   );
@@ -60,7 +60,7 @@ export async function loadAdminMenu(db: Db, locationId: number): Promise<AdminMe
       ...contents(i),
       available: bool(i.available),
       retired: i.retired_at !== null,
-      modifierGroupIds: links.filter((l) => l.item_id === i.id).map((l) => l.group_id),
+      extraGroupIds: links.filter((l) => l.item_id === i.id).map((l) => l.group_id),
       sizes: sizes.filter((s) => s.item_id === i.id).map((s) => ({ ...sizeView(s), retired: s.retired_at !== null })),
     })),
     milks: milks.map((m) => ({
@@ -71,7 +71,7 @@ export async function loadAdminMenu(db: Db, locationId: number): Promise<AdminMe
       ...contents(m),
       retired: m.retired_at !== null,
     })),
-    modifierGroups: groups.map((g) => ({
+    extraGroups: groups.map((g) => ({
       id: g.id,
       name: g.name,
       selection: g.selection,
@@ -79,7 +79,7 @@ export async function loadAdminMenu(db: Db, locationId: number): Promise<AdminMe
       retired: g.retired_at !== null,
       itemIds: links.filter((l) => l.group_id === g.id).map((l) => l.item_id),
     })),
-    modifiers: modifiers.map((m) => ({
+    extras: extras.map((m) => ({
       id: m.id,
       groupId: m.group_id,
       name: m.name,

@@ -79,8 +79,8 @@ export async function loadMenu(db: Db, locationId: number): Promise<MenuView> {
     .whereNull('retired_at') // retired in the menu editor: past orders keep them, the Counter doesn't
     .orderBy(['sort', 'id']);
   const milks = await db('milk_options').where({ location_id: locationId }).whereNull('retired_at').orderBy(['sort', 'id']);
-  const groups = await db('modifier_groups').where({ location_id: locationId }).whereNull('retired_at').orderBy(['sort', 'id']);
-  const modifiers = await db('modifiers')
+  const groups = await db('extra_groups').where({ location_id: locationId }).whereNull('retired_at').orderBy(['sort', 'id']);
+  const extras = await db('extras')
     .where({ location_id: locationId })
     .whereIn(
       'group_id',
@@ -88,7 +88,7 @@ export async function loadMenu(db: Db, locationId: number): Promise<MenuView> {
     )
     .whereNull('retired_at')
     .orderBy(['sort', 'id']);
-  const links = await db('item_modifier_groups')
+  const links = await db('item_extra_groups')
     .whereIn(
       'item_id',
       items.map((i) => i.id),
@@ -117,7 +117,7 @@ export async function loadMenu(db: Db, locationId: number): Promise<MenuView> {
       ingredients: json<string[]>(i.ingredients, []),
       allergens: allergens(i),
       sizes: sizes.filter((s) => s.item_id === i.id).map(sizeView),
-      modifierGroupIds: links.filter((l) => l.item_id === i.id).map((l) => l.group_id),
+      extraGroupIds: links.filter((l) => l.item_id === i.id).map((l) => l.group_id),
       photoUrl: photoUrlOf(i.photo),
     })),
     milks: milks.map((m) => ({
@@ -127,8 +127,8 @@ export async function loadMenu(db: Db, locationId: number): Promise<MenuView> {
       upchargeCents: m.upcharge_cents,
       allergens: allergens(m),
     })),
-    modifierGroups: groups.map((g) => ({ id: g.id, name: g.name, selection: g.selection, required: bool(g.required) })),
-    modifiers: modifiers.map((m) => ({
+    extraGroups: groups.map((g) => ({ id: g.id, name: g.name, selection: g.selection, required: bool(g.required) })),
+    extras: extras.map((m) => ({
       id: m.id,
       groupId: m.group_id,
       groupName: groupName.get(m.group_id) ?? '',

@@ -19,7 +19,7 @@ export function orderItemRow(line: ResolvedLine, orderId: number, lineNo: number
     milk_ml: line.milkMl,
     dose_dg: line.doseDg,
     texture: line.texture,
-    modifiers: JSON.stringify(line.modifiers),
+    extras: JSON.stringify(line.extras),
     contains: JSON.stringify(line.contains),
     note: line.note,
     price_cents: line.priceCents,

@@ -27,7 +27,7 @@ export function toOrderView(o: Row<'orders'>, items: Row<'order_items'>[], payme
       sizeName: i.size_name,
       milkName: i.milk_name,
       shots: i.shots,
-      modifiers: json<{ name: string }[]>(i.modifiers, []).map((m) => m.name),
+      extras: json<{ name: string }[]>(i.extras, []).map((m) => m.name),
       note: i.note,
       priceCents: i.price_cents,
     })),

@@ -29,7 +29,7 @@ const firstName = (name: string) => name.trim().split(/\s+/)[0] ?? name;
 export function lineDetails(line: OrderLineView): string {
   const milk = line.milkName && (/milk$/i.test(line.milkName) ? line.milkName : `${line.milkName} milk`);
   const shots = line.shots > 0 ? `${line.shots} ${line.shots === 1 ? 'shot' : 'shots'}` : null;
-  const extras = line.modifiers.length ? line.modifiers.join(', ') : null;
+  const extras = line.extras.length ? line.extras.join(', ') : null;
   return [line.sizeName, milk, shots, extras].filter(Boolean).join(' · ');
 }
 

@@ -102,7 +102,7 @@ const onSale = (db: Db, locationId: number, table: string, parent: string, key: 
 async function menuEntries(db: Db, locationId: number): Promise<MenuEntry[]> {
   const milks = await db('milk_options').where({ location_id: locationId }).whereNull('retired_at').orderBy(['sort', 'id']);
   const items = await onSale(db, locationId, 'menu_items', 'menu_categories', 'category_id');
-  const modifiers = await onSale(db, locationId, 'modifiers', 'modifier_groups', 'group_id');
+  const extras = await onSale(db, locationId, 'extras', 'extra_groups', 'group_id');
   const entry =
     (kind: MenuEntry['kind']) =>
     (r: { id: number; name: string; ingredients: string }): MenuEntry => ({
@@ -111,7 +111,7 @@ async function menuEntries(db: Db, locationId: number): Promise<MenuEntry[]> {
       name: r.name,
       ingredients: json<string[]>(r.ingredients, []),
     });
-  return [...milks.map(entry('milk')), ...items.map(entry('item')), ...modifiers.map(entry('modifier'))];
+  return [...milks.map(entry('milk')), ...items.map(entry('item')), ...extras.map(entry('extra'))];
 }
 
 const OTHER_LIST: Record<AllergenList, AllergenList> = { US: 'EU', EU: 'US' };

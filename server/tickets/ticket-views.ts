@@ -33,7 +33,7 @@ function toDrink(r: DrinkRow): DrinkView {
     shots: r.shots,
     milkMl: r.milk_ml,
     texture: r.texture,
-    modifiers: json<{ name: string }[]>(r.modifiers, []).map((m) => m.name),
+    extras: json<{ name: string }[]>(r.extras, []).map((m) => m.name),
     note: r.note,
     contains: json<string[]>(r.contains, []),
     doseDg: r.dose_dg,

@@ -4,7 +4,7 @@
 import type { AllergenList } from './allergens';
 import { allergensFrom, unspecifiedOf } from './ingredients';
 
-export type MenuEntryKind = 'milk' | 'item' | 'modifier';
+export type MenuEntryKind = 'milk' | 'item' | 'extra';
 
 export interface MenuEntry {
   kind: MenuEntryKind;

@@ -9,8 +9,8 @@ export type Hopper = (typeof HOPPERS)[number];
 export const HOPPER_LABEL: Record<Hopper, string> = { espresso: 'Espresso', decaf: 'Decaf', shelf: 'Shelf' };
 
 /** A drink with a decaf extra draws from the decaf grinder; every other drink from the espresso one. */
-export function drinkHopper(modifierNames: string[]): 'espresso' | 'decaf' {
-  return modifierNames.some((n) => /\bdecaf/i.test(n)) ? 'decaf' : 'espresso';
+export function drinkHopper(extraNames: string[]): 'espresso' | 'decaf' {
+  return extraNames.some((n) => /\bdecaf/i.test(n)) ? 'decaf' : 'espresso';
 }
 
 /** Coffee taken from a lot: a bumped drink's dose or a dial-in shot's. */

@@ -18,7 +18,7 @@ export const MENU_LIMITS = {
   milkMl: { min: 0, max: 600 },
   volumeMl: { min: 1, max: 1000 },
   sizes: 8,
-  names: { item: 60, category: 60, milk: 40, group: 40, modifier: 40, size: 20, cup: 40 },
+  names: { item: 60, category: 60, milk: 40, group: 40, extra: 40, size: 20, cup: 40 },
 } as const;
 
 const MESSAGES = {
@@ -66,21 +66,21 @@ export const milkBody = z.strictObject({
 });
 export type MilkBody = z.infer<typeof milkBody>;
 
-export const modifierGroupBody = z.strictObject({
+export const extraGroupBody = z.strictObject({
   name: name(MENU_LIMITS.names.group),
   selection: z.enum(['single', 'multi']),
   required: z.boolean(),
   itemIds: ids(200, 'An item').default([]),
 });
-export type ModifierGroupBody = z.infer<typeof modifierGroupBody>;
+export type ExtraGroupBody = z.infer<typeof extraGroupBody>;
 
-export const modifierBody = z.strictObject({
+export const extraBody = z.strictObject({
   groupId: id,
-  name: name(MENU_LIMITS.names.modifier),
+  name: name(MENU_LIMITS.names.extra),
   priceCents: cents,
   ingredients: ingredientList.default([]),
 });
-export type ModifierBody = z.infer<typeof modifierBody>;
+export type ExtraBody = z.infer<typeof extraBody>;
 
 export const sizeInput = z.strictObject({
   /** Left out for a new size. */
@@ -111,7 +111,7 @@ const itemShape = {
   defaultMilkId: id.nullable().default(null),
   texture: z.enum(TEXTURES).nullable().default(null),
   ingredients: ingredientList.default([]),
-  modifierGroupIds: ids(20, 'A group of extras').default([]),
+  extraGroupIds: ids(20, 'A group of extras').default([]),
   sizes: z.array(sizeInput).max(MENU_LIMITS.sizes, `At most ${MENU_LIMITS.sizes} sizes`).default([]),
 };
 
@@ -205,7 +205,7 @@ export const itemForm = z
     defaultMilkId: text,
     texture: z.union([z.literal(''), z.enum(TEXTURES)]),
     ingredients: z.array(z.string()),
-    modifierGroupIds: z.array(z.number()),
+    extraGroupIds: z.array(z.number()),
     sizes: z.array(sizeForm).max(MENU_LIMITS.sizes, `At most ${MENU_LIMITS.sizes} sizes`),
   })
   .superRefine((f, ctx) => {
@@ -225,7 +225,7 @@ export const itemForm = z
     defaultMilkId: f.takesMilk && f.defaultMilkId ? Number(f.defaultMilkId) : null,
     texture: f.takesMilk && f.texture ? f.texture : null,
     ingredients: inOrder(f.ingredients),
-    modifierGroupIds: f.modifierGroupIds,
+    extraGroupIds: f.extraGroupIds,
     sizes: f.sizes.map((s) => ({
       ...(s.sizeId ? { id: s.sizeId } : {}),
       name: s.name,
@@ -247,13 +247,13 @@ export const milkForm = z
   .transform((f): MilkBody => ({ name: f.name, code: f.code, upchargeCents: f.upcharge, ingredients: inOrder(f.ingredients) }));
 export type MilkFormValues = z.input<typeof milkForm>;
 
-export const modifierForm = z
-  .object({ name: name(MENU_LIMITS.names.modifier), price: amount, ingredients: z.array(z.string()) })
+export const extraForm = z
+  .object({ name: name(MENU_LIMITS.names.extra), price: amount, ingredients: z.array(z.string()) })
   .transform((f) => ({ name: f.name, priceCents: f.price, ingredients: inOrder(f.ingredients) }));
-export type ModifierFormValues = z.input<typeof modifierForm>;
+export type ExtraFormValues = z.input<typeof extraForm>;
 
-export const modifierGroupForm = modifierGroupBody.extend({ itemIds: z.array(z.number()) });
-export type ModifierGroupFormValues = z.input<typeof modifierGroupForm>;
+export const extraGroupForm = extraGroupBody.extend({ itemIds: z.array(z.number()) });
+export type ExtraGroupFormValues = z.input<typeof extraGroupForm>;
 
 export const categoryForm = categoryBody;
 

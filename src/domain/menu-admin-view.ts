@@ -34,7 +34,7 @@ export interface AdminItem {
   /** false while 86'd. */
   available: boolean;
   retired: boolean;
-  modifierGroupIds: number[];
+  extraGroupIds: number[];
   /** Sizes in use first, in order, then retired ones. */
   sizes: AdminSize[];
 }
@@ -57,7 +57,7 @@ export interface AdminMilk {
   retired: boolean;
 }
 
-export interface AdminModifierGroup {
+export interface AdminExtraGroup {
   id: number;
   name: string;
   selection: 'single' | 'multi';
@@ -66,7 +66,7 @@ export interface AdminModifierGroup {
   itemIds: number[];
 }
 
-export interface AdminModifier {
+export interface AdminExtra {
   id: number;
   groupId: number;
   name: string;
@@ -92,8 +92,8 @@ export interface AdminMenuView {
   categories: AdminCategory[];
   items: AdminItem[];
   milks: AdminMilk[];
-  modifierGroups: AdminModifierGroup[];
-  modifiers: AdminModifier[];
+  extraGroups: AdminExtraGroup[];
+  extras: AdminExtra[];
 }
 
 /** What every menu command answers: the id it made or changed, and the menu as it now is. */

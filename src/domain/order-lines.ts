@@ -17,7 +17,7 @@ export interface ResolvedLine {
   /** Allergens the drink itself contains: the item's, its milk's and its extras'. */
   contains: string[];
   texture: Texture | null;
-  modifiers: { id: number; name: string; priceCents: number }[];
+  extras: { id: number; name: string; priceCents: number }[];
   note: string | null;
   priceCents: number;
 }
@@ -56,26 +56,26 @@ export function resolveLine(menu: MenuView, input: OrderLineInput): LineResult {
   const shots = input.shots ?? recipeShots;
   const extraShots = Math.max(0, shots - recipeShots);
 
-  const ids = input.modifierIds ?? [];
-  if (new Set(ids).size !== ids.length) return fail('modifierIds', 'An extra is listed twice');
-  const modifiers = [];
+  const ids = input.extraIds ?? [];
+  if (new Set(ids).size !== ids.length) return fail('extraIds', 'An extra is listed twice');
+  const extras = [];
   for (const id of ids) {
-    const mod = menu.modifiers.find((m) => m.id === id);
-    if (!mod) return fail('modifierIds', `No extra ${id}`);
-    if (!item.modifierGroupIds.includes(mod.groupId)) return fail('modifierIds', `${mod.name} is not offered on ${item.name}`);
-    modifiers.push({ id: mod.id, name: mod.name, priceCents: mod.priceCents, groupId: mod.groupId });
+    const mod = menu.extras.find((m) => m.id === id);
+    if (!mod) return fail('extraIds', `No extra ${id}`);
+    if (!item.extraGroupIds.includes(mod.groupId)) return fail('extraIds', `${mod.name} is not offered on ${item.name}`);
+    extras.push({ id: mod.id, name: mod.name, priceCents: mod.priceCents, groupId: mod.groupId });
   }
-  for (const group of menu.modifierGroups.filter((g) => item.modifierGroupIds.includes(g.id))) {
-    const chosen = modifiers.filter((m) => m.groupId === group.id).length;
-    if (group.selection === 'single' && chosen > 1) return fail('modifierIds', `Choose one ${group.name.toLowerCase()}`);
-    if (group.required && chosen === 0) return fail('modifierIds', `Choose a ${group.name.toLowerCase()} for ${item.name}`);
+  for (const group of menu.extraGroups.filter((g) => item.extraGroupIds.includes(g.id))) {
+    const chosen = extras.filter((m) => m.groupId === group.id).length;
+    if (group.selection === 'single' && chosen > 1) return fail('extraIds', `Choose one ${group.name.toLowerCase()}`);
+    if (group.required && chosen === 0) return fail('extraIds', `Choose a ${group.name.toLowerCase()} for ${item.name}`);
   }
 
   const base = size?.priceCents ?? item.priceCents ?? 0;
   // A milk costs extra only as a swap: the drink's own milk is in its price (a drink made with oat
   // by default is sold at its menu price). Common practice for alternative-milk charges.
   const milkCharge = milk && milk.id !== item.defaultMilkId ? milk.upchargeCents : 0;
-  const priceCents = base + milkCharge + extraShots * menu.location.extraShotCents + modifiers.reduce((sum, m) => sum + m.priceCents, 0);
+  const priceCents = base + milkCharge + extraShots * menu.location.extraShotCents + extras.reduce((sum, m) => sum + m.priceCents, 0);
 
   return {
     ok: true,
@@ -88,9 +88,9 @@ export function resolveLine(menu: MenuView, input: OrderLineInput): LineResult {
       shots,
       milkMl: item.takesMilk ? (size?.milkMl ?? 0) : 0,
       doseDg: size && size.shots > 0 ? Math.round((size.doseDg / size.shots) * shots) : 0,
-      contains: [...new Set([...item.allergens, ...(milk?.allergens ?? []), ...ids.flatMap((id) => menu.modifiers.find((m) => m.id === id)?.allergens ?? [])])],
+      contains: [...new Set([...item.allergens, ...(milk?.allergens ?? []), ...ids.flatMap((id) => menu.extras.find((m) => m.id === id)?.allergens ?? [])])],
       texture: item.texture,
-      modifiers: modifiers.map(({ id, name, priceCents }) => ({ id, name, priceCents })),
+      extras: extras.map(({ id, name, priceCents }) => ({ id, name, priceCents })),
       note: input.note ? input.note : null,
       priceCents,
     },

@@ -25,7 +25,7 @@ function lineKey(menu: MenuView, line: OrderLineInput): string {
   const r = resolveLine(menu, line);
   if (!r.ok) return JSON.stringify({ ...line, quantity: undefined });
   const l = r.line;
-  return JSON.stringify([l.menuItemId, l.size?.id ?? null, l.milk?.id ?? null, l.shots, l.modifiers.map((m) => m.id).sort((a, b) => a - b), l.note ?? '']);
+  return JSON.stringify([l.menuItemId, l.size?.id ?? null, l.milk?.id ?? null, l.shots, l.extras.map((m) => m.id).sort((a, b) => a - b), l.note ?? '']);
 }
 
 /** Add a line to the order: one more on an identical line (up to MAX_QUANTITY), else a new line. */
@@ -46,7 +46,7 @@ export interface LineGroup {
 export function groupOrderLines(lines: readonly OrderLineView[]): LineGroup[] {
   const groups = new Map<string, LineGroup>();
   for (const l of lines) {
-    const key = JSON.stringify([l.menuItemId, l.itemName, l.sizeName, l.milkName, l.shots, l.modifiers, l.note, l.priceCents]);
+    const key = JSON.stringify([l.menuItemId, l.itemName, l.sizeName, l.milkName, l.shots, l.extras, l.note, l.priceCents]);
     const g = groups.get(key);
     if (g) {
       g.quantity += 1;

@@ -14,21 +14,29 @@ export type SignInBody = z.infer<typeof signInBody>;
 
 export const idParam = z.object({ id: z.coerce.number().int().positive() });
 
-export const orderLineInput = z.object({
-  menuItemId: z.number().int().positive(),
-  sizeId: z.number().int().positive().optional(),
-  milkId: z.number().int().positive().optional(),
-  shots: z.number().int().min(0).max(8).optional(),
-  modifierIds: z.array(z.number().int().positive()).max(12, 'A drink takes at most 12 extras').optional(),
-  note: plainText().max(140, 'A note for the bar is at most 140 characters').optional(),
-  /** Cups of this same drink; the server makes one drink of each (see order-quantity.ts). */
-  quantity: z
-    .number('Say how many')
-    .int('Say how many as a whole number')
-    .min(1, 'A line holds at least 1')
-    .max(MAX_QUANTITY, `A line holds at most ${MAX_QUANTITY}`)
-    .optional(),
-});
+const extraIdList = z.array(z.number().int().positive()).max(12, 'A drink takes at most 12 extras');
+
+export const orderLineInput = z
+  .object({
+    menuItemId: z.number().int().positive(),
+    sizeId: z.number().int().positive().optional(),
+    milkId: z.number().int().positive().optional(),
+    shots: z.number().int().min(0).max(8).optional(),
+    extraIds: extraIdList.optional(),
+    /** extraIds' name before it was renamed: a Counter page loaded before an upgrade, or an order it
+     * queued offline then, still sends it, and its extras must not be dropped. */
+    modifierIds: extraIdList.optional(),
+    note: plainText().max(140, 'A note for the bar is at most 140 characters').optional(),
+    /** Cups of this same drink; the server makes one drink of each (see order-quantity.ts). */
+    quantity: z
+      .number('Say how many')
+      .int('Say how many as a whole number')
+      .min(1, 'A line holds at least 1')
+      .max(MAX_QUANTITY, `A line holds at most ${MAX_QUANTITY}`)
+      .optional(),
+  })
+  .transform(({ modifierIds, ...line }) => (line.extraIds === undefined && modifierIds !== undefined ? { ...line, extraIds: modifierIds } : line));
+
 export type OrderLineInput = z.infer<typeof orderLineInput>;
 
 export const cashPayment = z.object({

@@ -73,7 +73,7 @@ export interface SizeView {
   cup?: string | null;
 }
 
-export interface ModifierView {
+export interface ExtraView {
   id: number;
   groupId: number;
   groupName: string;
@@ -83,7 +83,7 @@ export interface ModifierView {
   allergens: string[];
 }
 
-export interface ModifierGroupView {
+export interface ExtraGroupView {
   id: number;
   name: string;
   selection: 'single' | 'multi';
@@ -108,7 +108,7 @@ export interface MenuItemView {
   allergens: string[];
   sizes: SizeView[];
   /** The extras offered on this item, by group. */
-  modifierGroupIds: number[];
+  extraGroupIds: number[];
   /** The item's photo (a WebP of at most 800 px, served by the app); null or absent: none. */
   photoUrl?: string | null;
 }
@@ -118,8 +118,8 @@ export interface MenuView {
   categories: { id: number; name: string }[];
   items: MenuItemView[];
   milks: MilkView[];
-  modifierGroups: ModifierGroupView[];
-  modifiers: ModifierView[];
+  extraGroups: ExtraGroupView[];
+  extras: ExtraView[];
 }
 
 export interface MilkRef {
@@ -140,7 +140,7 @@ export interface DrinkView {
   shots: number;
   milkMl: number;
   texture: Texture | null;
-  modifiers: string[];
+  extras: string[];
   note: string | null;
   /** Allergens the drink itself contains (its milk, extras, the item). */
   contains: string[];
@@ -190,7 +190,7 @@ export interface OrderLineView {
   sizeName: string | null;
   milkName: string | null;
   shots: number;
-  modifiers: string[];
+  extras: string[];
   note: string | null;
   priceCents: number;
 }

@@ -36,7 +36,7 @@ function Labels() {
               {d.itemName}
               {d.sizeName ? ` · ${d.sizeName}` : ''}
             </p>
-            <p className="text-sm">{[d.milkName, d.shots ? `${d.shots} shots` : null, ...d.modifiers].filter(Boolean).join(' · ')}</p>
+            <p className="text-sm">{[d.milkName, d.shots ? `${d.shots} shots` : null, ...d.extras].filter(Boolean).join(' · ')}</p>
             {d.note && <p className="text-sm">Note: {d.note}</p>}
             {allergy && (
               <p className="mt-1 border-2 border-ink-900 px-1 text-sm font-semibold">

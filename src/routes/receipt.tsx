@@ -37,7 +37,7 @@ function Receipt() {
                 {quantity > 1 ? `${quantity} × ` : ''}
                 {l.itemName}
                 {l.sizeName ? ` (${l.sizeName})` : ''}
-                <div className="text-xs text-ink-600">{[l.milkName, ...l.modifiers].filter(Boolean).join(', ')}</div>
+                <div className="text-xs text-ink-600">{[l.milkName, ...l.extras].filter(Boolean).join(', ')}</div>
               </td>
               <td className="py-1 text-right">{money(totalCents)}</td>
             </tr>

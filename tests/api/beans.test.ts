@@ -236,7 +236,7 @@ describe('coffee used by the bar', () => {
   it('a ticket bump: each drink from its grinder (decaf extra → decaf lot); no coffee for a drink without shots', async () => {
     const { orderId, drinks } = await place('Bram Oakes', [
       { menuItemId: ids.item('Cappuccino') },
-      { menuItemId: ids.item('Flat white'), modifierIds: [ids.modifier('Decaf')] },
+      { menuItemId: ids.item('Flat white'), extraIds: [ids.extra('Decaf')] },
       { menuItemId: ids.item('Chai latte') },
     ]);
     const [capp, decafFlat, chai] = drinks;

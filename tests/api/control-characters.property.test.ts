@@ -8,7 +8,7 @@ import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { z } from 'zod';
 import { beanLotBody, dialInShotBody } from '@/domain/beans-schemas';
-import { categoryBody, itemBody, milkBody, modifierBody, modifierGroupBody } from '@/domain/menu-admin-schemas';
+import { categoryBody, itemBody, milkBody, extraBody, extraGroupBody } from '@/domain/menu-admin-schemas';
 import { MENU_CSV_COLUMNS } from '@/domain/menu-csv';
 import { closeShiftBody, createOrderBody, receiptEmailBody, refundBody, signInBody, voidBody } from '@/domain/schemas';
 import { settingsBody } from '@/domain/settings-schemas';
@@ -25,7 +25,7 @@ let server: TestServer;
 let owner: Agent;
 let menu: Awaited<ReturnType<typeof demoMenu>>;
 let TABLES: string[] = [];
-const ids = { order: 0, category: 0, milk: 0, group: 0, modifier: 0, item: 0, person: 0, lot: 0 };
+const ids = { order: 0, category: 0, milk: 0, group: 0, extra: 0, item: 0, person: 0, lot: 0 };
 
 beforeAll(async () => {
   server = await startTestServer();
@@ -37,8 +37,8 @@ beforeAll(async () => {
   ids.order = placed.body.order.id;
   ids.category = (await server.db('menu_categories').first('id')).id;
   ids.milk = menu.milk('Oat');
-  ids.group = (await server.db('modifier_groups').first('id')).id;
-  ids.modifier = (await server.db('modifiers').first('id')).id;
+  ids.group = (await server.db('extra_groups').first('id')).id;
+  ids.extra = (await server.db('extras').first('id')).id;
   ids.item = menu.item('Latte');
   ids.person = (await server.db('users').where({ username: 'barista' }).first('id')).id;
   const lot = await owner.post('/api/beans/lots').send(lotWithNotes());
@@ -63,7 +63,7 @@ const itemBodyOf = () => ({
   defaultMilkId: menu.milk('Whole'),
   texture: 'silky',
   ingredients: ["cow's milk"],
-  modifierGroupIds: [],
+  extraGroupIds: [],
   sizes: [size()],
 });
 
@@ -119,16 +119,16 @@ const CASES: Case[] = [
   },
   {
     method: 'post',
-    url: () => '/api/menu-admin/modifier-groups',
+    url: () => '/api/menu-admin/extra-groups',
     body: () => ({ name: 'Sweeteners', selection: 'multi', required: false, itemIds: [] }),
-    schema: modifierGroupBody,
+    schema: extraGroupBody,
     fields: ['name'],
   },
   {
     method: 'post',
-    url: () => '/api/menu-admin/modifiers',
+    url: () => '/api/menu-admin/extras',
     body: () => ({ groupId: ids.group, name: 'Maple', priceCents: 50, ingredients: ["cow's milk"] }),
-    schema: modifierBody,
+    schema: extraBody,
     fields: ['name'],
   },
   { method: 'post', url: () => '/api/menu-admin/items', body: itemBodyOf, schema: itemBody, fields: ['name', 'sizes.0.name', 'sizes.0.cup'] },

@@ -33,7 +33,7 @@ function linePrice(line: LineInput): number {
   const milk = menu.milks.find((m) => m.id === milkId);
   const recipeShots = size?.shots ?? item.shots;
   const extraShots = Math.max(0, (line.shots ?? recipeShots) - recipeShots);
-  const mods = (line.modifierIds ?? []).map((id) => menu.modifiers.find((m) => m.id === id)!.priceCents);
+  const mods = (line.extraIds ?? []).map((id) => menu.extras.find((m) => m.id === id)!.priceCents);
   return (size?.priceCents ?? item.priceCents!) + (milk?.upchargeCents ?? 0) + extraShots * menu.location.extraShotCents + mods.reduce((a, b) => a + b, 0);
 }
 const subtotalOf = (lines: LineInput[]) => lines.map(linePrice).reduce((a, b) => a + b, 0);

@@ -11,7 +11,7 @@ export interface LineInput {
   sizeId?: number;
   milkId?: number;
   shots?: number;
-  modifierIds?: number[];
+  extraIds?: number[];
   note?: string;
 }
 

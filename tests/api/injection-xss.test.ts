@@ -1,7 +1,7 @@
 // Hostile text renders as text on every surface: the server-rendered screens (and the data they
 // hand to the browser), the live socket's events, the receipt page and the e-mailed receipt, the
 // shift-report e-mail, the CSV exports and the cup labels. Customer names, notes, allergy notes
-// and discount reasons come in through the API; menu, size, milk, modifier, category and café
+// and discount reasons come in through the API; menu, size, milk, extra, category and café
 // names are written straight into the database, as a menu editor or a settings screen could.
 // Each payload carries the marker "pwned" so any place it turns into markup can be found.
 import { randomBytes } from 'node:crypto';
@@ -36,7 +36,7 @@ const P = {
   discount: '<b onmouseover=pwned(6)>staff</b>',
   item: '<img src=x onerror=pwned(7)>Flat white',
   milk: 'Oat"><script>pwned(8)</script>',
-  modifier: '</td><td onclick=pwned(9)>Vanilla',
+  extra: '</td><td onclick=pwned(9)>Vanilla',
   size: '<i x=pwned(12)>R</i>',
   category: '<svg/onload=pwned(13)>Coffee',
   cafe: 'Harbour <script>pwned(10)</script> & "Hearth"',
@@ -125,7 +125,7 @@ beforeAll(async () => {
   await db('item_sizes').where({ item_id: flatWhite.id }).update({ name: P.size });
   await db('menu_categories').where({ id: flatWhite.category_id }).update({ name: P.category });
   await db('milk_options').where({ name: 'Oat' }).update({ name: P.milk });
-  await db('modifiers').where({ name: 'Vanilla syrup' }).update({ name: P.modifier });
+  await db('extras').where({ name: 'Vanilla syrup' }).update({ name: P.extra });
   await db('locations').update({ name: P.cafe, receipt_footer: P.footer });
 
   for (const login of ['owner', 'lead', 'cashier', 'barista'] as const) agents[login] = await signIn(login);
@@ -139,9 +139,9 @@ beforeAll(async () => {
   expect((await agents.lead.post('/api/shifts').send({ openingFloatCents: 100_00, baristasOnBar: 1, waitTargetSeconds: 240 })).status).toBe(201);
   const size = await db('item_sizes').where({ item_id: flatWhite.id }).first('id');
   const oat = await db('milk_options').where({ name: P.milk }).first('id');
-  const vanilla = await db('modifiers').where({ name: P.modifier }).first('id');
+  const vanilla = await db('extras').where({ name: P.extra }).first('id');
   const latte = await db('menu_items').where({ name: 'Latte' }).first('id');
-  const line = { menuItemId: flatWhite.id, sizeId: size.id, milkId: oat.id, modifierIds: [vanilla.id], note: P.note };
+  const line = { menuItemId: flatWhite.id, sizeId: size.id, milkId: oat.id, extraIds: [vanilla.id], note: P.note };
   const first = await agents.owner.post('/api/orders').send({
     ...orderBody(P.name, [line]),
     allergyNote: P.allergy,
@@ -193,11 +193,11 @@ describe('the checks themselves', () => {
 
 describe('server-rendered screens', () => {
   const screens: [DemoLogin, () => string, (keyof typeof P)[]][] = [
-    ['barista', () => '/bar', ['name', 'scriptName', 'note', 'allergy', 'item', 'milk', 'modifier']],
+    ['barista', () => '/bar', ['name', 'scriptName', 'note', 'allergy', 'item', 'milk', 'extra']],
     ['cashier', () => '/pickup', []],
     ['cashier', () => '/counter', ['item', 'category']],
-    ['cashier', () => `/receipts/${orderId}`, ['cafe', 'name', 'item', 'size', 'milk', 'modifier', 'discount', 'footer']],
-    ['cashier', () => `/labels/${orderId}`, ['name', 'item', 'size', 'milk', 'modifier', 'note', 'allergy']],
+    ['cashier', () => `/receipts/${orderId}`, ['cafe', 'name', 'item', 'size', 'milk', 'extra', 'discount', 'footer']],
+    ['cashier', () => `/labels/${orderId}`, ['name', 'item', 'size', 'milk', 'extra', 'note', 'allergy']],
     ['lead', () => '/pulse', []],
     ['lead', () => `/reports?q=${encodeURIComponent(P.search)}`, []],
     ['lead', () => '/reports', ['name', 'scriptName']],
@@ -224,7 +224,7 @@ describe('the live socket', () => {
     expect(first.ticket.customerName).toBe(P.name);
     expect(first.ticket.allergyNote).toBe(P.allergy);
     expect(first.ticket.drinks[0]).toMatchObject({ itemName: P.item, milk: { name: P.milk }, note: P.note });
-    expect(JSON.stringify(first.ticket.drinks[0])).toContain(JSON.stringify(P.modifier));
+    expect(JSON.stringify(first.ticket.drinks[0])).toContain(JSON.stringify(P.extra));
     expect(fired.find((e) => e.ticket.id === secondOrderId)!.ticket.customerName).toBe(P.scriptName);
     expect(fired.find((e) => e.ticket.id === csvOrderId)!.ticket.customerName).toBe(P.csvName);
   });
@@ -241,7 +241,7 @@ describe('e-mail', () => {
     expect(markupFrom(mail.html_body, 'receipt mail')).toEqual([]);
     const html = visibleText(mail.html_body);
     const firstName = P.name.split(' ')[0];
-    for (const text of [P.cafe, firstName, P.item, P.size, P.milk, P.modifier, P.note, P.discount, P.footer]) {
+    for (const text of [P.cafe, firstName, P.item, P.size, P.milk, P.extra, P.note, P.discount, P.footer]) {
       expect(html).toContain(flat(text));
       expect(mail.text_body).toContain(text);
     }

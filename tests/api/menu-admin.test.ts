@@ -17,7 +17,7 @@ let espressoCategory: number;
 let syrupGroup: number;
 let north: Awaited<ReturnType<typeof insertNorthCafe>>;
 
-const MENU_TABLES = ['menu_categories', 'menu_items', 'item_sizes', 'milk_options', 'modifier_groups', 'item_modifier_groups', 'modifiers'];
+const MENU_TABLES = ['menu_categories', 'menu_items', 'item_sizes', 'milk_options', 'extra_groups', 'item_extra_groups', 'extras'];
 
 /** Every menu row and the event count: what "the database is unchanged" means here. */
 async function snapshot() {
@@ -40,9 +40,9 @@ async function insertNorthCafe(db: TestServer['db']) {
   const [{ id: sizeId }] = await db('item_sizes')
     .insert({ item_id: itemId, name: 'Regular', volume_ml: 120, price_cents: 350, shots: 2, milk_ml: 60, dose_dg: 180, yield_dg: 360, is_default: true })
     .returning('id');
-  const [{ id: groupId }] = await db('modifier_groups').insert({ location_id: locationId, name: 'Syrup' }).returning('id');
-  const [{ id: modifierId }] = await db('modifiers').insert({ location_id: locationId, group_id: groupId, name: 'Vanilla' }).returning('id');
-  return { locationId, categoryId, milkId, itemId, sizeId, groupId, modifierId };
+  const [{ id: groupId }] = await db('extra_groups').insert({ location_id: locationId, name: 'Syrup' }).returning('id');
+  const [{ id: extraId }] = await db('extras').insert({ location_id: locationId, group_id: groupId, name: 'Vanilla' }).returning('id');
+  return { locationId, categoryId, milkId, itemId, sizeId, groupId, extraId };
 }
 
 const size = (over: Record<string, unknown> = {}) => ({
@@ -67,7 +67,7 @@ const latteBody = (name: string, over: Record<string, unknown> = {}) => ({
   defaultMilkId: ids.milk('Whole'),
   texture: 'silky',
   ingredients: [],
-  modifierGroupIds: [syrupGroup],
+  extraGroupIds: [syrupGroup],
   sizes: [size(), size({ name: '16 oz', volumeMl: 473, cup: '16 oz cup', priceCents: 620, milkMl: 320, isDefault: false })],
   ...over,
 });
@@ -114,7 +114,7 @@ beforeAll(async () => {
   refused = { cashier, barista: await server.signIn('barista'), lead: await server.signIn('lead') };
   ids = await demoMenu(server);
   espressoCategory = (await server.db('menu_categories').where({ name: 'Espresso' }).first('id')).id;
-  syrupGroup = (await server.db('modifier_groups').where({ name: 'Syrup' }).first('id')).id;
+  syrupGroup = (await server.db('extra_groups').where({ name: 'Syrup' }).first('id')).id;
   north = await insertNorthCafe(server.db);
 });
 afterEach(() => closeAllSockets());
@@ -128,8 +128,8 @@ describe('who may edit the menu', () => {
     const sizes = made.menu.items.find((i) => i.id === item)!.sizes;
     const cat = (await create('categories', { name: 'Guard tests' })).id;
     const milk = (await create('milks', { name: 'Guard milk', code: 'GT', upchargeCents: 0 })).id;
-    const group = (await create('modifier-groups', { name: 'Guard group', selection: 'multi', required: false })).id;
-    const modifier = (await create('modifiers', { groupId: group, name: 'Guard extra', priceCents: 0 })).id;
+    const group = (await create('extra-groups', { name: 'Guard group', selection: 'multi', required: false })).id;
+    const extra = (await create('extras', { groupId: group, name: 'Guard extra', priceCents: 0 })).id;
     const calls: [method: 'get' | 'post' | 'put', path: string, url: string, body?: object][] = [
       ['get', '/menu-admin', '/api/menu-admin'],
       ['post', '/menu-admin/categories', '/api/menu-admin/categories', { name: 'Guard two' }],
@@ -154,26 +154,26 @@ describe('who may edit the menu', () => {
       ['post', '/menu-admin/milks/:id/move', `/api/menu-admin/milks/${milk}/move`, { direction: 'up' }],
       ['post', '/menu-admin/milks/:id/retired', `/api/menu-admin/milks/${milk}/retired`, { retired: true }],
       ['post', '/menu-admin/milks/:id/retired', `/api/menu-admin/milks/${milk}/retired`, { retired: false }],
-      ['post', '/menu-admin/modifier-groups', '/api/menu-admin/modifier-groups', { name: 'Guard group 2', selection: 'single', required: false }],
+      ['post', '/menu-admin/extra-groups', '/api/menu-admin/extra-groups', { name: 'Guard group 2', selection: 'single', required: false }],
       [
         'put',
-        '/menu-admin/modifier-groups/:id',
-        `/api/menu-admin/modifier-groups/${group}`,
+        '/menu-admin/extra-groups/:id',
+        `/api/menu-admin/extra-groups/${group}`,
         { name: 'Guard group', selection: 'single', required: false, itemIds: [item] },
       ],
-      ['post', '/menu-admin/modifier-groups/:id/move', `/api/menu-admin/modifier-groups/${group}/move`, { direction: 'up' }],
-      ['post', '/menu-admin/modifier-groups/:id/retired', `/api/menu-admin/modifier-groups/${group}/retired`, { retired: true }],
-      ['post', '/menu-admin/modifier-groups/:id/retired', `/api/menu-admin/modifier-groups/${group}/retired`, { retired: false }],
-      ['post', '/menu-admin/modifiers', '/api/menu-admin/modifiers', { groupId: group, name: 'Guard extra 2', priceCents: 25 }],
+      ['post', '/menu-admin/extra-groups/:id/move', `/api/menu-admin/extra-groups/${group}/move`, { direction: 'up' }],
+      ['post', '/menu-admin/extra-groups/:id/retired', `/api/menu-admin/extra-groups/${group}/retired`, { retired: true }],
+      ['post', '/menu-admin/extra-groups/:id/retired', `/api/menu-admin/extra-groups/${group}/retired`, { retired: false }],
+      ['post', '/menu-admin/extras', '/api/menu-admin/extras', { groupId: group, name: 'Guard extra 2', priceCents: 25 }],
       [
         'put',
-        '/menu-admin/modifiers/:id',
-        `/api/menu-admin/modifiers/${modifier}`,
+        '/menu-admin/extras/:id',
+        `/api/menu-admin/extras/${extra}`,
         { groupId: group, name: 'Guard extra', priceCents: 30, ingredients: ["cow's milk"] },
       ],
-      ['post', '/menu-admin/modifiers/:id/move', `/api/menu-admin/modifiers/${modifier}/move`, { direction: 'down' }],
-      ['post', '/menu-admin/modifiers/:id/retired', `/api/menu-admin/modifiers/${modifier}/retired`, { retired: true }],
-      ['post', '/menu-admin/modifiers/:id/retired', `/api/menu-admin/modifiers/${modifier}/retired`, { retired: false }],
+      ['post', '/menu-admin/extras/:id/move', `/api/menu-admin/extras/${extra}/move`, { direction: 'down' }],
+      ['post', '/menu-admin/extras/:id/retired', `/api/menu-admin/extras/${extra}/retired`, { retired: true }],
+      ['post', '/menu-admin/extras/:id/retired', `/api/menu-admin/extras/${extra}/retired`, { retired: false }],
     ];
     const declared = server.routes.filter((r) => r.path.startsWith('/menu-admin')).map((r) => `${r.method} ${r.path}`);
     expect([...new Set(calls.map(([m, p]) => `${m} ${p}`))].sort()).toEqual(declared.sort());
@@ -217,7 +217,7 @@ describe('items and recipes', () => {
     const { id, menu } = await create('items', latteBody('Ember Spice Latte'));
     expect(menu.items.find((i) => i.id === id)!.sizes).toHaveLength(2);
     const item = (await counterMenu()).items.find((i) => i.id === id)!;
-    expect(item).toMatchObject({ name: 'Ember Spice Latte', takesMilk: true, texture: 'silky', available: true, modifierGroupIds: [syrupGroup] });
+    expect(item).toMatchObject({ name: 'Ember Spice Latte', takesMilk: true, texture: 'silky', available: true, extraGroupIds: [syrupGroup] });
     expect(item.sizes.map((s) => [s.name, s.priceCents, s.shots, s.doseDg, s.yieldDg, s.milkMl, s.isDefault])).toEqual([
       ['12 oz', 560, 2, 180, 360, 240, true],
       ['16 oz', 620, 2, 180, 360, 320, false],
@@ -457,15 +457,15 @@ describe('milks', () => {
   });
 
   it('an extra carries what it adds: an order with it contains that allergen', async () => {
-    const { id } = await create('modifiers', { groupId: syrupGroup, name: 'Almond syrup', priceCents: 60, ingredients: ['almond'] });
-    expect((await counterMenu()).modifiers.find((m) => m.id === id)!.allergens).toEqual(['tree nuts']); // §201(qq)
+    const { id } = await create('extras', { groupId: syrupGroup, name: 'Almond syrup', priceCents: 60, ingredients: ['almond'] });
+    expect((await counterMenu()).extras.find((m) => m.id === id)!.allergens).toEqual(['tree nuts']); // §201(qq)
     const order = await cashier
       .post('/api/orders')
-      .send(orderBody('Ida Marsh', [{ menuItemId: ids.item('Latte'), milkId: ids.milk('Oat'), modifierIds: [id] }]))
+      .send(orderBody('Ida Marsh', [{ menuItemId: ids.item('Latte'), milkId: ids.milk('Oat'), extraIds: [id] }]))
       .expect(201);
     const drink = await server.db('order_items').where({ order_id: order.body.order.id }).first('contains');
     expect(jsonOf(drink.contains)).toEqual(['tree nuts']); // oat milk adds none on the US list
-    await owner.post(`/api/menu-admin/modifiers/${id}/retired`).send({ retired: true }).expect(200);
+    await owner.post(`/api/menu-admin/extras/${id}/retired`).send({ retired: true }).expect(200);
   });
 
   it('the milk drinks come with cannot be retired until they come with another', async () => {
@@ -477,48 +477,46 @@ describe('milks', () => {
 describe('groups of extras', () => {
   it('a required group on an item needs a choice in use; retiring a group takes it off the Counter', async () => {
     const latte = ids.item('Latte');
-    await expectRefused(409, () =>
-      owner.post('/api/menu-admin/modifier-groups').send({ name: 'Spice', selection: 'single', required: true, itemIds: [latte] }),
-    );
-    const { id: group } = await create('modifier-groups', { name: 'Spice', selection: 'single', required: false, itemIds: [latte] });
-    const { id: cinnamon } = await create('modifiers', { groupId: group, name: 'Cinnamon', priceCents: 40, ingredients: [] });
+    await expectRefused(409, () => owner.post('/api/menu-admin/extra-groups').send({ name: 'Spice', selection: 'single', required: true, itemIds: [latte] }));
+    const { id: group } = await create('extra-groups', { name: 'Spice', selection: 'single', required: false, itemIds: [latte] });
+    const { id: cinnamon } = await create('extras', { groupId: group, name: 'Cinnamon', priceCents: 40, ingredients: [] });
     await owner
-      .put(`/api/menu-admin/modifier-groups/${group}`)
+      .put(`/api/menu-admin/extra-groups/${group}`)
       .send({ name: 'Spice', selection: 'single', required: true, itemIds: [latte] })
       .expect(200);
     let menu = await counterMenu();
-    expect(menu.items.find((i) => i.id === latte)!.modifierGroupIds).toContain(group);
-    expect(menu.modifiers.find((m) => m.id === cinnamon)).toMatchObject({ groupName: 'Spice', priceCents: 40 });
-    await expectRefused(409, () => owner.post(`/api/menu-admin/modifiers/${cinnamon}/retired`).send({ retired: true }));
+    expect(menu.items.find((i) => i.id === latte)!.extraGroupIds).toContain(group);
+    expect(menu.extras.find((m) => m.id === cinnamon)).toMatchObject({ groupName: 'Spice', priceCents: 40 });
+    await expectRefused(409, () => owner.post(`/api/menu-admin/extras/${cinnamon}/retired`).send({ retired: true }));
 
-    await owner.post(`/api/menu-admin/modifier-groups/${group}/retired`).send({ retired: true }).expect(200);
+    await owner.post(`/api/menu-admin/extra-groups/${group}/retired`).send({ retired: true }).expect(200);
     menu = await counterMenu();
-    expect(menu.modifierGroups.map((g) => g.id)).not.toContain(group);
-    expect(menu.modifiers.map((m) => m.id)).not.toContain(cinnamon);
-    expect(menu.items.find((i) => i.id === latte)!.modifierGroupIds).not.toContain(group);
+    expect(menu.extraGroups.map((g) => g.id)).not.toContain(group);
+    expect(menu.extras.map((m) => m.id)).not.toContain(cinnamon);
+    expect(menu.items.find((i) => i.id === latte)!.extraGroupIds).not.toContain(group);
     // a latte can be ordered without the retired required group
     await cashier
       .post('/api/orders')
       .send(orderBody('Sol Baines', [{ menuItemId: latte }]))
       .expect(201);
-    await owner.post(`/api/menu-admin/modifier-groups/${group}/retired`).send({ retired: false }).expect(200);
-    expect((await counterMenu()).items.find((i) => i.id === latte)!.modifierGroupIds).toContain(group);
+    await owner.post(`/api/menu-admin/extra-groups/${group}/retired`).send({ retired: false }).expect(200);
+    expect((await counterMenu()).items.find((i) => i.id === latte)!.extraGroupIds).toContain(group);
     // …and off again, so the rest of the file's lattes need no spice
-    await owner.put(`/api/menu-admin/modifier-groups/${group}`).send({ name: 'Spice', selection: 'single', required: false, itemIds: [] }).expect(200);
+    await owner.put(`/api/menu-admin/extra-groups/${group}`).send({ name: 'Spice', selection: 'single', required: false, itemIds: [] }).expect(200);
   });
 
   it('an extra edited or retired keeps past orders as sold', async () => {
-    const vanilla = ids.modifier('Vanilla syrup');
+    const vanilla = ids.extra('Vanilla syrup');
     const sold = await cashier
       .post('/api/orders')
-      .send(orderBody('Tam Rook', [{ menuItemId: ids.item('Latte'), modifierIds: [vanilla] }]))
+      .send(orderBody('Tam Rook', [{ menuItemId: ids.item('Latte'), extraIds: [vanilla] }]))
       .expect(201);
-    await owner.put(`/api/menu-admin/modifiers/${vanilla}`).send({ groupId: syrupGroup, name: 'Vanilla bean syrup', priceCents: 90 }).expect(200);
-    await owner.post(`/api/menu-admin/modifiers/${vanilla}/retired`).send({ retired: true }).expect(200);
+    await owner.put(`/api/menu-admin/extras/${vanilla}`).send({ groupId: syrupGroup, name: 'Vanilla bean syrup', priceCents: 90 }).expect(200);
+    await owner.post(`/api/menu-admin/extras/${vanilla}/retired`).send({ retired: true }).expect(200);
     const past = (await cashier.get(`/api/orders/${sold.body.order.id}`)).body.order;
-    expect(past.lines[0]).toMatchObject({ modifiers: ['Vanilla syrup'], priceCents: 540 + 60 });
-    await owner.post(`/api/menu-admin/modifiers/${vanilla}/retired`).send({ retired: false }).expect(200);
-    await expectInvalid(() => owner.post('/api/menu-admin/modifiers').send({ groupId: syrupGroup, name: 'Gold leaf', priceCents: 100_001 }), 'priceCents');
+    expect(past.lines[0]).toMatchObject({ extras: ['Vanilla syrup'], priceCents: 540 + 60 });
+    await owner.post(`/api/menu-admin/extras/${vanilla}/retired`).send({ retired: false }).expect(200);
+    await expectInvalid(() => owner.post('/api/menu-admin/extras').send({ groupId: syrupGroup, name: 'Gold leaf', priceCents: 100_001 }), 'priceCents');
   });
 });
 
@@ -536,17 +534,17 @@ describe("another café's ids", () => {
       ['post', `/api/menu-admin/sizes/${n.sizeId}/retired`, { retired: false }],
       ['put', `/api/menu-admin/milks/${n.milkId}`, { name: 'Whole', code: 'ZZ', upchargeCents: 0 }],
       ['post', `/api/menu-admin/milks/${n.milkId}/retired`, { retired: true }],
-      ['put', `/api/menu-admin/modifier-groups/${n.groupId}`, { name: 'Syrup', selection: 'multi', required: false }],
-      ['post', `/api/menu-admin/modifier-groups/${n.groupId}/retired`, { retired: true }],
-      ['put', `/api/menu-admin/modifiers/${n.modifierId}`, { groupId: syrupGroup, name: 'Vanilla', priceCents: 0 }],
-      ['post', `/api/menu-admin/modifiers/${n.modifierId}/move`, { direction: 'up' }],
+      ['put', `/api/menu-admin/extra-groups/${n.groupId}`, { name: 'Syrup', selection: 'multi', required: false }],
+      ['post', `/api/menu-admin/extra-groups/${n.groupId}/retired`, { retired: true }],
+      ['put', `/api/menu-admin/extras/${n.extraId}`, { groupId: syrupGroup, name: 'Vanilla', priceCents: 0 }],
+      ['post', `/api/menu-admin/extras/${n.extraId}/move`, { direction: 'up' }],
       // their ids inside a body
       ['post', '/api/menu-admin/items', latteBody('Borrowed Category', { categoryId: n.categoryId })],
       ['post', '/api/menu-admin/items', latteBody('Borrowed Milk', { defaultMilkId: n.milkId })],
-      ['post', '/api/menu-admin/items', latteBody('Borrowed Group', { modifierGroupIds: [n.groupId] })],
+      ['post', '/api/menu-admin/items', latteBody('Borrowed Group', { extraGroupIds: [n.groupId] })],
       ['put', `/api/menu-admin/items/${ids.item('Latte')}`, latteBody('Latte', { sizes: [{ ...size(), id: n.sizeId }] })],
-      ['post', '/api/menu-admin/modifiers', { groupId: n.groupId, name: 'Borrowed', priceCents: 0 }],
-      ['post', '/api/menu-admin/modifier-groups', { name: 'Borrowing', selection: 'multi', required: false, itemIds: [n.itemId] }],
+      ['post', '/api/menu-admin/extras', { groupId: n.groupId, name: 'Borrowed', priceCents: 0 }],
+      ['post', '/api/menu-admin/extra-groups', { name: 'Borrowing', selection: 'multi', required: false, itemIds: [n.itemId] }],
     ];
     for (const [method, url, body] of paths) {
       const send = () => (method === 'put' ? owner.put(url).send(body) : body ? owner.post(url).send(body) : owner.post(url));

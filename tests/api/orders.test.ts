@@ -28,7 +28,7 @@ function linePrice(line: LineInput): number {
   const milk = menu.milks.find((m) => m.id === milkId);
   const recipeShots = size?.shots ?? item.shots;
   const extraShots = Math.max(0, (line.shots ?? recipeShots) - recipeShots);
-  const mods = (line.modifierIds ?? []).map((id) => menu.modifiers.find((m) => m.id === id)!.priceCents);
+  const mods = (line.extraIds ?? []).map((id) => menu.extras.find((m) => m.id === id)!.priceCents);
   return (size?.priceCents ?? item.priceCents!) + (milk?.upchargeCents ?? 0) + extraShots * menu.location.extraShotCents + mods.reduce((a, b) => a + b, 0);
 }
 
@@ -57,15 +57,15 @@ describe('a priced order', () => {
       sizeId: ids.size('Latte', 'Large'),
       milkId: ids.milk('Oat'),
       shots: 3,
-      modifierIds: [ids.modifier('Vanilla syrup'), ids.modifier('Extra hot')],
+      extraIds: [ids.extra('Vanilla syrup'), ids.extra('Extra hot')],
     },
     {
       menuItemId: ids.item('Mocha'),
       sizeId: ids.size('Mocha', 'Large'),
       milkId: ids.milk('Coconut'),
-      modifierIds: [ids.modifier('Caramel syrup')],
+      extraIds: [ids.extra('Caramel syrup')],
     },
-    { menuItemId: ids.item('Long black'), shots: 5, modifierIds: [ids.modifier('Hazelnut syrup')] },
+    { menuItemId: ids.item('Long black'), shots: 5, extraIds: [ids.extra('Hazelnut syrup')] },
     { menuItemId: ids.item('Bottled water') },
   ];
 
@@ -101,7 +101,7 @@ describe('a priced order', () => {
     });
     expect(order.lines.map((l: { priceCents: number }) => l.priceCents)).toEqual(expectedLines);
     expect(order.lines.map((l: { itemName: string }) => l.itemName)).toEqual(['Latte', 'Mocha', 'Long black', 'Bottled water']);
-    expect(order.lines[0]).toMatchObject({ sizeName: 'Large', milkName: 'Oat', shots: 3, modifiers: ['Vanilla syrup', 'Extra hot'], station: 'bar' });
+    expect(order.lines[0]).toMatchObject({ sizeName: 'Large', milkName: 'Oat', shots: 3, extras: ['Vanilla syrup', 'Extra hot'], station: 'bar' });
     expect(order.lines[2]).toMatchObject({ milkName: null, shots: 5, station: 'bar' });
     expect(order.lines[3]).toMatchObject({ station: 'counter', sizeName: null, milkName: null });
 
@@ -132,6 +132,14 @@ describe('a priced order', () => {
     expect(cheeky.status).toBe(201);
     expect(cheeky.body.order.totalCents).toBe(honest.body.order.totalCents);
     expect(cheeky.body.order.lines[0].priceCents).toBe(linePrice({ menuItemId: ids.item('Espresso') }));
+  });
+
+  it('keeps the extras of a line sent under their old name (a Counter page loaded before the rename)', async () => {
+    const [latte] = items();
+    const { extraIds, ...rest } = latte;
+    const res = await place('Ottilie Brandt', [{ ...rest, modifierIds: extraIds } as LineInput]);
+    expect(res.status).toBe(201);
+    expect(res.body.order.lines[0]).toMatchObject({ extras: ['Vanilla syrup', 'Extra hot'], priceCents: linePrice(latte) });
   });
 
   it('accepts cash of exactly the total, with no change', async () => {

@@ -24,7 +24,7 @@ async function stored() {
     location: await server.db('locations').orderBy('id'),
     pitchers: await server.db('pitchers').orderBy('id'),
     milks: await server.db('milk_options').orderBy('id').select('id', 'ingredients'),
-    modifiers: await server.db('modifiers').orderBy('id').select('id', 'ingredients'),
+    extras: await server.db('extras').orderBy('id').select('id', 'ingredients'),
     items: await server.db('menu_items').orderBy('id').select('id', 'ingredients'),
     events: Number((await server.db('events').count({ n: '*' }).first())?.n),
   };

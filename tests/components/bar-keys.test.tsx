@@ -21,7 +21,7 @@ function card(id: number, o: Partial<LaneDrink> = {}): LaneDrink {
     shots: 2,
     milkMl: 0,
     texture: null,
-    modifiers: [],
+    extras: [],
     note: null,
     contains: [],
     doseDg: 190,

@@ -2,7 +2,7 @@
 // extras unless the test says so.
 import type { MenuItemView } from '@/domain/types';
 
-export function menuItem(over: Partial<MenuItemView> & Pick<MenuItemView, 'id' | 'name'>, modifierGroupIds: number[] = []): MenuItemView {
+export function menuItem(over: Partial<MenuItemView> & Pick<MenuItemView, 'id' | 'name'>, extraGroupIds: number[] = []): MenuItemView {
   return {
     categoryId: 1,
     station: 'bar',
@@ -15,7 +15,7 @@ export function menuItem(over: Partial<MenuItemView> & Pick<MenuItemView, 'id' |
     ingredients: [],
     allergens: [],
     sizes: [],
-    modifierGroupIds,
+    extraGroupIds,
     ...over,
   };
 }

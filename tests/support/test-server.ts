@@ -104,12 +104,12 @@ export async function demoMenu(server: TestServer) {
   const items = await server.db('menu_items').select('id', 'name');
   const milks = await server.db('milk_options').select('id', 'name');
   const sizes = await server.db('item_sizes').select('id', 'item_id', 'name');
-  const mods = await server.db('modifiers').select('id', 'name');
+  const mods = await server.db('extras').select('id', 'name');
   const item = (name: string) => items.find((i) => i.name === name)!.id as number;
   return {
     item,
     milk: (name: string) => milks.find((m) => m.name === name)!.id as number,
     size: (itemName: string, sizeName: string) => sizes.find((s) => s.item_id === item(itemName) && s.name === sizeName)!.id as number,
-    modifier: (name: string) => mods.find((m) => m.name === name)!.id as number,
+    extra: (name: string) => mods.find((m) => m.name === name)!.id as number,
   };
 }

@@ -56,7 +56,7 @@ function drink(ticketId: number, o: DrinkOpts = {}): DrinkView {
     shots,
     milkMl: o.milkMl ?? (milk ? 150 : 0),
     texture: o.texture !== undefined ? o.texture : milk ? 'flat' : null,
-    modifiers: [],
+    extras: [],
     note: null,
     contains: [],
     doseDg: shots === 2 ? DOUBLE_DG : SINGLE_DG,

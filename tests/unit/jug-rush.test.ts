@@ -77,7 +77,7 @@ class Bar {
       shots: 2,
       milkMl: l.milkMl,
       texture: l.texture,
-      modifiers: [],
+      extras: [],
       note: null,
       contains: [],
       doseDg: 190,

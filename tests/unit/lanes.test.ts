@@ -24,7 +24,7 @@ function drink(ticketId: number, milk: MilkRef | null, shots: number, status: Dr
     shots,
     milkMl: milk ? 150 : 0,
     texture: milk ? 'flat' : null,
-    modifiers: [],
+    extras: [],
     note: null,
     contains: [],
     doseDg: shots * 95,

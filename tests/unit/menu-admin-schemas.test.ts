@@ -19,7 +19,7 @@ describe('itemBody', () => {
   it('accepts a milk drink with its recipe and fills the defaults', () => {
     const r = itemBody.safeParse(latte());
     expect(r.success).toBe(true);
-    expect(r.data).toMatchObject({ ingredients: [], modifierGroupIds: [], priceCents: null, sizes: [{ cup: null }] });
+    expect(r.data).toMatchObject({ ingredients: [], extraGroupIds: [], priceCents: null, sizes: [{ cup: null }] });
   });
   it('keeps the ranges of the brief: price 0–100000 ¢, shots 0–4, dose 5–30 g, yield 0–120 g, milk 0–600 ml', () => {
     // the bounds themselves are allowed
@@ -87,7 +87,7 @@ const form = (over: Partial<ItemFormValues> = {}): ItemFormValues => ({
   defaultMilkId: '3',
   texture: 'silky',
   ingredients: [],
-  modifierGroupIds: [2],
+  extraGroupIds: [2],
   sizes: [formSize(), formSize({ name: '16 oz', volumeMl: '473', cup: '16 oz cup', price: '6.20', milkMl: '320', isDefault: false })],
   ...over,
 });
@@ -109,7 +109,7 @@ describe('itemForm', () => {
       isDefault: true,
     });
     expect(body.sizes[1]).toMatchObject({ priceCents: 620, doseDg: 180, yieldDg: 360, milkMl: 320, isDefault: false });
-    expect(body).toMatchObject({ categoryId: 1, defaultMilkId: 3, texture: 'silky', priceCents: null, modifierGroupIds: [2] });
+    expect(body).toMatchObject({ categoryId: 1, defaultMilkId: 3, texture: 'silky', priceCents: null, extraGroupIds: [2] });
   });
   it('names the form field, in grams, when a rule fails', () => {
     expect(paths(itemForm.safeParse(form({ sizes: [formSize({ doseG: '4.5' })] })))).toEqual(['sizes.0.doseG']);

@@ -234,7 +234,7 @@ function item(over: Partial<MenuItemView> & Pick<MenuItemView, 'id' | 'name' | '
     ingredients: [],
     allergens: [],
     sizes: [],
-    modifierGroupIds: [],
+    extraGroupIds: [],
     ...over,
   };
 }
@@ -251,8 +251,8 @@ function menu(items: MenuItemView[]): MenuView {
       { id: 10, name: 'Whole', code: 'WH', upchargeCents: 0, allergens: ['milk'] },
       { id: 11, name: 'Oat', code: 'OA', upchargeCents: 70, allergens: [] },
     ],
-    modifierGroups: [],
-    modifiers: [],
+    extraGroups: [],
+    extras: [],
   };
 }
 

@@ -18,7 +18,7 @@ const TOPPINGS = 42;
 const MAPLE = 31; // +55
 const CINNAMON = 32; // +15
 
-const item = (over: Partial<MenuItemView> & Pick<MenuItemView, 'id' | 'name'>) => menuItem({ modifierGroupIds: [SYRUPS, TOPPINGS], ...over });
+const item = (over: Partial<MenuItemView> & Pick<MenuItemView, 'id' | 'name'>) => menuItem({ extraGroupIds: [SYRUPS, TOPPINGS], ...over });
 
 function testMenu(): MenuView {
   return {
@@ -70,11 +70,11 @@ function testMenu(): MenuView {
       { id: PEA, name: 'Pea', code: 'PE', upchargeCents: 65, allergens: [] },
       { id: HEMP, name: 'Hemp', code: 'HE', upchargeCents: 45, allergens: [] },
     ],
-    modifierGroups: [
+    extraGroups: [
       { id: SYRUPS, name: 'Syrup', selection: 'multi', required: false },
       { id: TOPPINGS, name: 'Topping', selection: 'multi', required: false },
     ],
-    modifiers: [
+    extras: [
       { id: MAPLE, groupId: SYRUPS, groupName: 'Syrup', name: 'Maple', priceCents: 55, allergens: [] },
       { id: CINNAMON, groupId: TOPPINGS, groupName: 'Topping', name: 'Cinnamon', priceCents: 15, allergens: [] },
     ],
@@ -212,22 +212,22 @@ describe('resolveLine: shots', () => {
   });
 });
 
-describe('resolveLine: modifiers and the full price', () => {
-  it('rejects a modifier listed twice', () => {
-    const p = problem(resolveLine(testMenu(), { menuItemId: LATTE, modifierIds: [MAPLE, MAPLE] }));
-    expect(p).toMatchObject({ field: 'modifierIds', kind: 'invalid' });
+describe('resolveLine: extras and the full price', () => {
+  it('rejects an extra listed twice', () => {
+    const p = problem(resolveLine(testMenu(), { menuItemId: LATTE, extraIds: [MAPLE, MAPLE] }));
+    expect(p).toMatchObject({ field: 'extraIds', kind: 'invalid' });
   });
 
-  it('rejects an unknown modifier', () => {
-    const p = problem(resolveLine(testMenu(), { menuItemId: LATTE, modifierIds: [999] }));
-    expect(p.field).toBe('modifierIds');
+  it('rejects an unknown extra', () => {
+    const p = problem(resolveLine(testMenu(), { menuItemId: LATTE, extraIds: [999] }));
+    expect(p.field).toBe('extraIds');
   });
 
-  it('prices a line as size + milk upcharge + extra shots + modifiers', () => {
+  it('prices a line as size + milk upcharge + extra shots + extras', () => {
     // Hand-worked from the test menu: Jumbo 515 + Hemp 45 + (5 − 3) × 95 + Maple 55 + Cinnamon 15 = 820
-    const line = ok(resolveLine(testMenu(), { menuItemId: LATTE, sizeId: 103, milkId: HEMP, shots: 5, modifierIds: [MAPLE, CINNAMON] }));
+    const line = ok(resolveLine(testMenu(), { menuItemId: LATTE, sizeId: 103, milkId: HEMP, shots: 5, extraIds: [MAPLE, CINNAMON] }));
     expect(line.priceCents).toBe(820);
-    expect(line.modifiers.map((m) => m.name)).toEqual(['Maple', 'Cinnamon']);
+    expect(line.extras.map((m) => m.name)).toEqual(['Maple', 'Cinnamon']);
     expect(line.texture).toBe('silky');
     expect(line.milkMl).toBe(320);
   });
@@ -241,27 +241,27 @@ describe('resolveLine: modifiers and the full price', () => {
 describe('resolveLine: extras by group', () => {
   it('refuses an extra from a group the item does not offer', () => {
     const menu = testMenu();
-    menu.items = menu.items.map((i) => ({ ...i, modifierGroupIds: [SYRUPS] }));
-    const r = resolveLine(menu, { menuItemId: menu.items[0].id, modifierIds: [CINNAMON] });
+    menu.items = menu.items.map((i) => ({ ...i, extraGroupIds: [SYRUPS] }));
+    const r = resolveLine(menu, { menuItemId: menu.items[0].id, extraIds: [CINNAMON] });
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.problem).toMatchObject({ field: 'modifierIds', kind: 'invalid' });
+    if (!r.ok) expect(r.problem).toMatchObject({ field: 'extraIds', kind: 'invalid' });
   });
 
   it('allows one choice in a single-choice group and insists on a required one', () => {
     const menu = testMenu();
     const MINT = 33;
-    menu.modifierGroups = [
+    menu.extraGroups = [
       { id: SYRUPS, name: 'Syrup', selection: 'single', required: true },
       { id: TOPPINGS, name: 'Topping', selection: 'multi', required: false },
     ];
-    menu.modifiers.push({ id: MINT, groupId: SYRUPS, groupName: 'Syrup', name: 'Mint', priceCents: 55, allergens: [] });
+    menu.extras.push({ id: MINT, groupId: SYRUPS, groupName: 'Syrup', name: 'Mint', priceCents: 55, allergens: [] });
     const itemId = menu.items[0].id;
-    const two = resolveLine(menu, { menuItemId: itemId, modifierIds: [MAPLE, MINT] });
+    const two = resolveLine(menu, { menuItemId: itemId, extraIds: [MAPLE, MINT] });
     expect(two.ok).toBe(false);
     if (!two.ok) expect(two.problem.message).toMatch(/one syrup/i);
-    const none = resolveLine(menu, { menuItemId: itemId, modifierIds: [CINNAMON] });
+    const none = resolveLine(menu, { menuItemId: itemId, extraIds: [CINNAMON] });
     expect(none.ok).toBe(false);
     if (!none.ok) expect(none.problem.message).toMatch(/choose a syrup/i);
-    expect(resolveLine(menu, { menuItemId: itemId, modifierIds: [MINT, CINNAMON] }).ok).toBe(true);
+    expect(resolveLine(menu, { menuItemId: itemId, extraIds: [MINT, CINNAMON] }).ok).toBe(true);
   });
 });

@@ -22,8 +22,8 @@ const menu = {
     { id: 11, name: 'Dairy', code: 'DA', upchargeCents: 0, allergens: ['milk'] },
     { id: 12, name: 'Oat', code: 'OA', upchargeCents: 60, allergens: [] },
   ],
-  modifierGroups: [{ id: 7, name: 'Syrup', selection: 'multi', required: false }],
-  modifiers: [
+  extraGroups: [{ id: 7, name: 'Syrup', selection: 'multi', required: false }],
+  extras: [
     { id: 21, groupId: 7, groupName: 'Syrup', name: 'Maple', priceCents: 50, allergens: [] },
     { id: 22, groupId: 7, groupName: 'Syrup', name: 'Honey', priceCents: 50, allergens: [] },
   ],
@@ -31,16 +31,16 @@ const menu = {
 
 describe('addLine', () => {
   it('adds to the quantity of an identical line, however its defaults were written', () => {
-    let items = addLine(menu, [], { menuItemId: 2, milkId: 11, modifierIds: [] });
+    let items = addLine(menu, [], { menuItemId: 2, milkId: 11, extraIds: [] });
     items = addLine(menu, items, { menuItemId: 2 }); // the same drink, defaults left out
-    items = addLine(menu, items, { menuItemId: 2, milkId: 11, shots: 2, modifierIds: [] });
-    expect(items).toEqual([{ menuItemId: 2, milkId: 11, modifierIds: [], quantity: 3 }]);
+    items = addLine(menu, items, { menuItemId: 2, milkId: 11, shots: 2, extraIds: [] });
+    expect(items).toEqual([{ menuItemId: 2, milkId: 11, extraIds: [], quantity: 3 }]);
   });
 
   it('keeps a line of its own for another milk, extra, shot count or note', () => {
     let items = addLine(menu, [], { menuItemId: 2 });
     items = addLine(menu, items, { menuItemId: 2, milkId: 12 });
-    items = addLine(menu, items, { menuItemId: 2, modifierIds: [21] });
+    items = addLine(menu, items, { menuItemId: 2, extraIds: [21] });
     items = addLine(menu, items, { menuItemId: 2, shots: 3 });
     items = addLine(menu, items, { menuItemId: 2, note: 'extra hot' });
     expect(items).toHaveLength(5);
@@ -48,7 +48,7 @@ describe('addLine', () => {
   });
 
   it('treats extras in another order as the same drink', () => {
-    const items = addLine(menu, addLine(menu, [], { menuItemId: 1, modifierIds: [21, 22] }), { menuItemId: 1, modifierIds: [22, 21] });
+    const items = addLine(menu, addLine(menu, [], { menuItemId: 1, extraIds: [21, 22] }), { menuItemId: 1, extraIds: [22, 21] });
     expect(items).toHaveLength(1);
     expect(items[0].quantity).toBe(2);
   });
@@ -76,7 +76,7 @@ describe('groupOrderLines', () => {
     sizeName: null,
     milkName: null,
     shots: 2,
-    modifiers: [],
+    extras: [],
     note: null,
     priceCents: 350,
     ...over,
@@ -139,7 +139,7 @@ describe('createOrderBody: quantity and the words for a refusal', () => {
       allergyNote: 'x'.repeat(201),
       allergens: ['x'.repeat(41)],
       customerEmail: `${'x'.repeat(250)}@example.test`,
-      items: [{ menuItemId: 1, note: 'x'.repeat(141), modifierIds: Array.from({ length: 13 }, (_, i) => i + 1) }],
+      items: [{ menuItemId: 1, note: 'x'.repeat(141), extraIds: Array.from({ length: 13 }, (_, i) => i + 1) }],
     });
     expect(found).toEqual(
       expect.arrayContaining([

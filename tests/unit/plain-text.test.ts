@@ -141,7 +141,7 @@ describe('every text field of every request schema', () => {
         'schemas.orderLineInput note',
         'schemas.refundBody reason',
         'schemas.ordersQuery q',
-        'menuAdminSchemas.modifierBody name',
+        'menuAdminSchemas.extraBody name',
         'menuAdminSchemas.sizeInput cup',
         'settingsSchemas.settingsBody receiptFooter',
         'teamSchemas.newPersonBody name',

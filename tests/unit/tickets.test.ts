@@ -13,7 +13,7 @@ const aDrink: DrinkView = {
   shots: 2,
   milkMl: 60,
   texture: 'flat',
-  modifiers: [],
+  extras: [],
   note: null,
   contains: [],
   doseDg: 190,

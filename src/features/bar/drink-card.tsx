@@ -48,7 +48,7 @@ export function DrinkCard({ card, unit, nowMs, targetSeconds, keyNumber, jugLabe
   const late = age > targetSeconds;
   const size = card.sizeName ? `${card.sizeName}${card.volumeMl ? ` ${cupSizeLabel(card.volumeMl, unit)}` : ''}` : null;
   // the build, as the barista makes it: size, shots, then each extra (decaf, syrups…) on its own
-  const build = [size, card.shots ? `${card.shots} shot${card.shots > 1 ? 's' : ''}` : 'No shots', ...card.modifiers].filter((b): b is string => !!b);
+  const build = [size, card.shots ? `${card.shots} shot${card.shots > 1 ? 's' : ''}` : 'No shots', ...card.extras].filter((b): b is string => !!b);
   const clash = allergyClash(card.contains, card.allergens);
   return (
     <article

@@ -33,7 +33,7 @@ export function clashesOf(menu: MenuView, items: OrderLineInput[], avoid: string
       // a croissant is an item, not a drink
       ...(item && hits(item.allergens) ? [item.station === 'bar' ? 'the drink itself' : 'the item itself'] : []),
       ...(r.line.milk && hits(r.line.milk.allergens) ? [`the ${r.line.milk.name.toLowerCase()} milk`] : []),
-      ...r.line.modifiers.filter((m) => hits(menu.modifiers.find((x) => x.id === m.id)?.allergens ?? [])).map((m) => m.name.toLowerCase()),
+      ...r.line.extras.filter((m) => hits(menu.extras.find((x) => x.id === m.id)?.allergens ?? [])).map((m) => m.name.toLowerCase()),
     ];
     return [{ itemName: r.line.itemName, allergens, from }];
   });

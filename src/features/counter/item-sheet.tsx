@@ -20,16 +20,16 @@ interface Props {
 
 export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
   const defaultSize = item.sizes.find((s) => s.isDefault) ?? item.sizes[0];
-  const groups = menu.modifierGroups
-    .filter((g) => item.modifierGroupIds.includes(g.id))
-    .map((group) => ({ group, options: menu.modifiers.filter((m) => m.groupId === group.id) }));
+  const groups = menu.extraGroups
+    .filter((g) => item.extraGroupIds.includes(g.id))
+    .map((group) => ({ group, options: menu.extras.filter((m) => m.groupId === group.id) }));
   const [line, setLine] = useState<OrderLineInput>(
     initial ?? {
       menuItemId: item.id,
       sizeId: defaultSize?.id,
       milkId: item.takesMilk ? (item.defaultMilkId ?? undefined) : undefined,
       // a required choice with one option is no choice: it is made already
-      modifierIds: groups.filter(({ group, options }) => group.required && options.length === 1).map(({ options }) => options[0].id),
+      extraIds: groups.filter(({ group, options }) => group.required && options.length === 1).map(({ options }) => options[0].id),
     },
   );
   const priced = resolveLine(menu, line);
@@ -54,11 +54,11 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
   const shots = line.shots ?? recipeShots;
   const money = (c: number) => formatCents(c, menu.location.currency);
   /** In a pick-one group, choosing an extra replaces the group's other choice. */
-  const toggleModifier = (id: number, singleGroupId: number | null) => {
-    const ids = line.modifierIds ?? [];
-    if (ids.includes(id)) return setLine({ ...line, modifierIds: ids.filter((x) => x !== id) });
-    const others = singleGroupId === null ? ids : ids.filter((x) => menu.modifiers.find((m) => m.id === x)?.groupId !== singleGroupId);
-    setLine({ ...line, modifierIds: [...others, id] });
+  const toggleExtra = (id: number, singleGroupId: number | null) => {
+    const ids = line.extraIds ?? [];
+    if (ids.includes(id)) return setLine({ ...line, extraIds: ids.filter((x) => x !== id) });
+    const others = singleGroupId === null ? ids : ids.filter((x) => menu.extras.find((m) => m.id === x)?.groupId !== singleGroupId);
+    setLine({ ...line, extraIds: [...others, id] });
   };
 
   return (
@@ -136,13 +136,13 @@ export function ItemSheet({ menu, item, initial, onAdd, onClose }: Props) {
                 </legend>
                 <div className="flex flex-wrap gap-2">
                   {options.map((m) => {
-                    const on = line.modifierIds?.includes(m.id) ?? false;
+                    const on = line.extraIds?.includes(m.id) ?? false;
                     return (
                       <button
                         key={m.id}
                         type="button"
                         aria-pressed={on}
-                        onClick={() => toggleModifier(m.id, group.selection === 'single' ? group.id : null)}
+                        onClick={() => toggleExtra(m.id, group.selection === 'single' ? group.id : null)}
                         className={cn(
                           'min-h-14 rounded-lg border-2 px-4 text-lg font-semibold',
                           on ? 'border-ink-900 bg-ink-900 text-steam-50' : 'border-steam-200 bg-white',

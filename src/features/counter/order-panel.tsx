@@ -53,7 +53,7 @@ export function OrderPanel({ menu, items, totals, error, onEditLine, onQuantity,
                   {[
                     p.line.milk?.name,
                     p.line.shots ? `${p.line.shots} shot${p.line.shots === 1 ? '' : 's'}` : null,
-                    ...p.line.modifiers.map((m) => m.name),
+                    ...p.line.extras.map((m) => m.name),
                     p.line.note,
                   ]
                     .filter(Boolean)

@@ -2,9 +2,9 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
-import { modifierForm, modifierGroupForm, type ModifierFormValues, type ModifierGroupBody, type ModifierGroupFormValues } from '@/domain/menu-admin-schemas';
+import { extraForm, extraGroupForm, type ExtraFormValues, type ExtraGroupBody, type ExtraGroupFormValues } from '@/domain/menu-admin-schemas';
 import type { Ingredient } from '@/domain/ingredients';
-import type { AdminMenuView, AdminModifier, AdminModifierGroup } from '@/domain/menu-admin-view';
+import type { AdminMenuView, AdminExtra, AdminExtraGroup } from '@/domain/menu-admin-view';
 import { centsToAmountText } from '@/domain/menu-units';
 import { Button } from '@/components/ui/button';
 import { FieldError } from '@/components/ui/field-error';
@@ -43,13 +43,13 @@ function GroupForm({
   onClose,
 }: {
   menu: AdminMenuView;
-  group: AdminModifierGroup | null;
+  group: AdminExtraGroup | null;
   command: MenuCommand;
   notify: Notify;
   onClose(): void;
 }) {
-  const form = useForm<ModifierGroupFormValues, unknown, ModifierGroupBody>({
-    resolver: zodResolver(modifierGroupForm),
+  const form = useForm<ExtraGroupFormValues, unknown, ExtraGroupBody>({
+    resolver: zodResolver(extraGroupForm),
     defaultValues: group
       ? { name: group.name, selection: group.selection, required: group.required, itemIds: group.itemIds }
       : { name: '', selection: 'multi', required: false, itemIds: [] },
@@ -59,7 +59,7 @@ function GroupForm({
   const live = menu.items.filter((i) => !i.retired);
   const save = form.handleSubmit(async (body) => {
     try {
-      await command.mutateAsync((c) => (group ? c.updateModifierGroup({ id: group.id, ...body }) : c.createModifierGroup(body)));
+      await command.mutateAsync((c) => (group ? c.updateExtraGroup({ id: group.id, ...body }) : c.createExtraGroup(body)));
       notify(`${group ? 'Saved' : 'Added'} the group ${body.name}.`);
       onClose();
     } catch (err) {
@@ -112,25 +112,25 @@ function GroupForm({
   );
 }
 
-function ModifierForm({
+function ExtraForm({
   menu,
   groupId,
-  modifier,
+  extra,
   command,
   notify,
   onClose,
 }: {
   menu: AdminMenuView;
   groupId: number;
-  modifier: AdminModifier | null;
+  extra: AdminExtra | null;
   command: MenuCommand;
   notify: Notify;
   onClose(): void;
 }) {
-  const form = useForm<ModifierFormValues, unknown, { name: string; priceCents: number; ingredients: Ingredient[] }>({
-    resolver: zodResolver(modifierForm),
-    defaultValues: modifier
-      ? { name: modifier.name, price: centsToAmountText(modifier.priceCents), ingredients: modifier.ingredients }
+  const form = useForm<ExtraFormValues, unknown, { name: string; priceCents: number; ingredients: Ingredient[] }>({
+    resolver: zodResolver(extraForm),
+    defaultValues: extra
+      ? { name: extra.name, price: centsToAmountText(extra.priceCents), ingredients: extra.ingredients }
       : { name: '', price: '0.00', ingredients: [] },
   });
   const [problem, setProblem] = useState<string | null>(null);
@@ -138,8 +138,8 @@ function ModifierForm({
   const save = form.handleSubmit(async (f) => {
     const body = { ...f, groupId };
     try {
-      await command.mutateAsync((c) => (modifier ? c.updateModifier({ id: modifier.id, ...body }) : c.createModifier(body)));
-      notify(`${modifier ? 'Saved' : 'Added'} ${body.name}.`);
+      await command.mutateAsync((c) => (extra ? c.updateExtra({ id: extra.id, ...body }) : c.createExtra(body)));
+      notify(`${extra ? 'Saved' : 'Added'} ${body.name}.`);
       onClose();
     } catch (err) {
       setProblem(showServerErrors(err, form.setError, ['name', 'price', 'ingredients']));
@@ -147,9 +147,9 @@ function ModifierForm({
   });
   return (
     <Sheet
-      title={modifier ? `Edit ${modifier.name}` : 'New extra'}
+      title={extra ? `Edit ${extra.name}` : 'New extra'}
       onClose={onClose}
-      footer={<SaveFooter problem={problem} label={modifier ? 'Save extra' : 'Add extra'} busy={command.isPending} onSave={save} />}
+      footer={<SaveFooter problem={problem} label={extra ? 'Save extra' : 'Add extra'} busy={command.isPending} onSave={save} />}
     >
       <form onSubmit={save} noValidate className="flex flex-col gap-5" aria-label="Extra">
         <Field label="Name" placeholder="Vanilla syrup" error={errors.name?.message} {...form.register('name')} id="extra-name" />
@@ -181,14 +181,14 @@ function ModifierForm({
   );
 }
 
-type Editing = { kind: 'group'; group: AdminModifierGroup | null } | { kind: 'modifier'; groupId: number; modifier: AdminModifier | null } | null;
-type Retiring = { kind: 'modifier-groups' | 'modifiers'; id: number; name: string } | null;
+type Editing = { kind: 'group'; group: AdminExtraGroup | null } | { kind: 'extra'; groupId: number; extra: AdminExtra | null } | null;
+type Retiring = { kind: 'extra-groups' | 'extras'; id: number; name: string } | null;
 
 export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; command: MenuCommand; notify: Notify }) {
   const [editing, setEditing] = useState<Editing>(null);
   const [retiring, setRetiring] = useState<Retiring>(null);
   const money = moneyOf(menu);
-  const liveGroups = menu.modifierGroups.filter((g) => !g.retired);
+  const liveGroups = menu.extraGroups.filter((g) => !g.retired);
   const run = async (work: Work, done: string) => {
     try {
       await command.mutateAsync(work);
@@ -210,9 +210,9 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
           + New group
         </Button>
       </div>
-      {menu.modifierGroups.map((g) => {
+      {menu.extraGroups.map((g) => {
         const at = liveGroups.findIndex((x) => x.id === g.id);
-        const mods = menu.modifiers.filter((m) => m.groupId === g.id);
+        const mods = menu.extras.filter((m) => m.groupId === g.id);
         const liveMods = mods.filter((m) => !m.retired);
         const on = itemNames(g.itemIds);
         return (
@@ -229,7 +229,7 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
                   first={at === 0}
                   last={at === liveGroups.length - 1}
                   busy={command.isPending}
-                  onMove={(d) => run((c) => c.moveModifierGroup({ id: g.id, direction: d }), `Moved ${g.name}.`)}
+                  onMove={(d) => run((c) => c.moveExtraGroup({ id: g.id, direction: d }), `Moved ${g.name}.`)}
                 />
               )}
               <h3 className="text-xl font-semibold">{g.name}</h3>
@@ -243,12 +243,12 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
                   <Button
                     tone="quiet"
                     disabled={command.isPending}
-                    onClick={() => run((c) => c.setModifierGroupRetired({ id: g.id, retired: false }), `Restored ${g.name}.`)}
+                    onClick={() => run((c) => c.setExtraGroupRetired({ id: g.id, retired: false }), `Restored ${g.name}.`)}
                   >
                     Restore group
                   </Button>
                 ) : (
-                  <Button tone="quiet" onClick={() => setRetiring({ kind: 'modifier-groups', id: g.id, name: g.name })}>
+                  <Button tone="quiet" onClick={() => setRetiring({ kind: 'extra-groups', id: g.id, name: g.name })}>
                     Retire group…
                   </Button>
                 )}
@@ -269,7 +269,7 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
                         first={mAt === 0}
                         last={mAt === liveMods.length - 1}
                         busy={command.isPending}
-                        onMove={(d) => run((c) => c.moveModifier({ id: m.id, direction: d }), `Moved ${m.name}.`)}
+                        onMove={(d) => run((c) => c.moveExtra({ id: m.id, direction: d }), `Moved ${m.name}.`)}
                       />
                     ) : (
                       <span className="w-[5.75rem]" />
@@ -283,17 +283,17 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
                         <Button
                           tone="quiet"
                           disabled={command.isPending}
-                          onClick={() => run((c) => c.setModifierRetired({ id: m.id, retired: false }), `Restored ${m.name}.`)}
+                          onClick={() => run((c) => c.setExtraRetired({ id: m.id, retired: false }), `Restored ${m.name}.`)}
                           aria-label={`Restore ${m.name}`}
                         >
                           Restore
                         </Button>
                       ) : (
-                        <Button tone="quiet" onClick={() => setRetiring({ kind: 'modifiers', id: m.id, name: m.name })} aria-label={`Retire ${m.name}`}>
+                        <Button tone="quiet" onClick={() => setRetiring({ kind: 'extras', id: m.id, name: m.name })} aria-label={`Retire ${m.name}`}>
                           Retire…
                         </Button>
                       )}
-                      <Button tone="quiet" onClick={() => setEditing({ kind: 'modifier', groupId: g.id, modifier: m })} aria-label={`Edit ${m.name}`}>
+                      <Button tone="quiet" onClick={() => setEditing({ kind: 'extra', groupId: g.id, extra: m })} aria-label={`Edit ${m.name}`}>
                         Edit
                       </Button>
                     </span>
@@ -302,7 +302,7 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
               })}
             </ul>
             {!g.retired && (
-              <Button tone="quiet" className="mt-2" onClick={() => setEditing({ kind: 'modifier', groupId: g.id, modifier: null })}>
+              <Button tone="quiet" className="mt-2" onClick={() => setEditing({ kind: 'extra', groupId: g.id, extra: null })}>
                 + Add an extra to {g.name}
               </Button>
             )}
@@ -310,21 +310,21 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
         );
       })}
       {editing?.kind === 'group' && <GroupForm menu={menu} group={editing.group} command={command} notify={notify} onClose={() => setEditing(null)} />}
-      {editing?.kind === 'modifier' && (
-        <ModifierForm menu={menu} groupId={editing.groupId} modifier={editing.modifier} command={command} notify={notify} onClose={() => setEditing(null)} />
+      {editing?.kind === 'extra' && (
+        <ExtraForm menu={menu} groupId={editing.groupId} extra={editing.extra} command={command} notify={notify} onClose={() => setEditing(null)} />
       )}
       {retiring && (
         <ConfirmRetire
           what={retiring.name}
           consequence={
-            retiring.kind === 'modifiers' ? 'The Counter stops offering this extra.' : 'The group and its extras leave every item’s sheet at the Counter.'
+            retiring.kind === 'extras' ? 'The Counter stops offering this extra.' : 'The group and its extras leave every item’s sheet at the Counter.'
           }
           busy={command.isPending}
           onCancel={() => setRetiring(null)}
           onConfirm={async () => {
             const r = retiring;
             setRetiring(null);
-            await run((c) => (r.kind === 'modifiers' ? c.setModifierRetired : c.setModifierGroupRetired)({ id: r.id, retired: true }), `Retired ${r.name}.`);
+            await run((c) => (r.kind === 'extras' ? c.setExtraRetired : c.setExtraGroupRetired)({ id: r.id, retired: true }), `Retired ${r.name}.`);
           }}
         />
       )}

@@ -27,7 +27,7 @@ interface Props {
   onClose(): void;
 }
 
-const FIELDS = ['categoryId', 'name', 'station', 'price', 'takesMilk', 'defaultMilkId', 'texture', 'ingredients', 'modifierGroupIds', 'sizes'];
+const FIELDS = ['categoryId', 'name', 'station', 'price', 'takesMilk', 'defaultMilkId', 'texture', 'ingredients', 'extraGroupIds', 'sizes'];
 const label = 'mb-1 block text-sm font-semibold tracking-wide text-ink-600 uppercase';
 
 export function ItemForm({ menu, item, categoryId, command, notify, onClose }: Props) {
@@ -63,7 +63,7 @@ export function ItemForm({ menu, item, categoryId, command, notify, onClose }: P
 
   const categories = menu.categories.filter((c) => !c.retired || c.id === item?.categoryId);
   const milks = menu.milks.filter((m) => !m.retired || m.id === item?.defaultMilkId);
-  const groups = menu.modifierGroups.filter((g) => !g.retired || item?.modifierGroupIds.includes(g.id));
+  const groups = menu.extraGroups.filter((g) => !g.retired || item?.extraGroupIds.includes(g.id));
 
   return (
     <Sheet
@@ -202,14 +202,14 @@ export function ItemForm({ menu, item, categoryId, command, notify, onClose }: P
         />
         <Controller
           control={form.control}
-          name="modifierGroupIds"
+          name="extraGroupIds"
           render={({ field }) => (
             <CheckGroup
               legend="Extras offered"
               choices={groups.map((g) => ({ value: g.id, label: `${g.name}${g.retired ? ' (retired)' : ''}` }))}
               value={field.value}
               onChange={field.onChange}
-              error={errors.modifierGroupIds?.message}
+              error={errors.extraGroupIds?.message}
             />
           )}
         />

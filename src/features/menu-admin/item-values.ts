@@ -30,7 +30,7 @@ export function itemValues(item: AdminItem | null, categoryId: number): ItemForm
       defaultMilkId: '',
       texture: '',
       ingredients: [],
-      modifierGroupIds: [],
+      extraGroupIds: [],
       sizes: [sizeValues(null, true)],
     };
   }
@@ -43,7 +43,7 @@ export function itemValues(item: AdminItem | null, categoryId: number): ItemForm
     defaultMilkId: item.defaultMilkId === null ? '' : String(item.defaultMilkId),
     texture: item.texture ?? '',
     ingredients: item.ingredients,
-    modifierGroupIds: item.modifierGroupIds,
+    extraGroupIds: item.extraGroupIds,
     sizes: item.sizes.filter((s) => !s.retired).map((s) => sizeValues(s, s.isDefault)),
   };
 }

@@ -24,7 +24,7 @@ const SOURCES: Record<AllergenList, string> = {
   US: 'US major food allergens: FALCPA 2004 and the FASTER Act 2021 (sesame)',
   EU: 'Regulation (EU) No 1169/2011, Annex II',
 };
-const KIND: Record<MenuEntryKind, string> = { milk: 'milk', modifier: 'extra', item: 'item' };
+const KIND: Record<MenuEntryKind, string> = { milk: 'milk', extra: 'extra', item: 'item' };
 const listed = (allergens: string[]) => (allergens.length ? allergens.join(', ') : 'none');
 
 /** What the switch changes, entry by entry, before the owner confirms it. */
