@@ -161,10 +161,15 @@ export function createRedisHub(url: string, db: Knex, log: (message: string) => 
     }
   });
   // Back after a lost connection: ioredis subscribes again by itself, but what was published in
-  // between is gone. Every café watched here reads what it missed from the table.
+  // between is gone. Every café watched here reads what it missed from the table, and the screens
+  // check their sessions against the table at once ('resync', socket-server.ts): a sign-out made
+  // meanwhile on another process would otherwise reach them only at the next heartbeat.
   let connectedBefore = false;
   subscriber.on('ready', () => {
-    if (connectedBefore) for (const [locationId, cafe] of cafes) if (cafe.listeners.size > 0) void fill(locationId, cafe);
+    if (connectedBefore) {
+      for (const [locationId, cafe] of cafes) if (cafe.listeners.size > 0) void fill(locationId, cafe);
+      emitHere('resync');
+    }
     connectedBefore = true;
   });
   for (const connection of [publisher, subscriber]) connection.on('error', (err: Error) => log(`Redis: ${err.message}`));

@@ -19,6 +19,8 @@ import { fullBucket, hasToken, isFull, takeToken, type BucketSize, type TokenBuc
 /** A screen further behind than this gets a fresh snapshot instead of a replay. */
 export const MAX_REPLAY = 500;
 export const HEARTBEAT_MS = 30_000;
+/** After Redis is back, how long before the sessions are checked the second time. */
+const RESYNC_SECOND_LOOK_MS = 2_000;
 const MAX_MESSAGE_BYTES = 4096;
 /** Per-socket token bucket: a screen pings every few seconds; a flood is cut off. */
 export const RATE_PER_SECOND = 20;
@@ -344,6 +346,16 @@ export function attachSocketServer(server: Server, deps: Deps, sessionMiddleware
     for (const peer of peers) if (peer.sessionId === sid) peer.socket.close(SWITCHED, 'switched person');
   };
   deps.sessions.on('switched', onSwitched);
+  // News of sign-outs may have been missed (Redis was away, redis-hub.ts): every session is checked
+  // against the table now, and once more a moment later, since a session must be missing twice to
+  // close (a person switching deletes the row a moment before saying so).
+  const onResync = () => {
+    void sweep()
+      .then(() => new Promise((resolve) => setTimeout(resolve, RESYNC_SECOND_LOOK_MS).unref()))
+      .then(sweep)
+      .catch(() => {});
+  };
+  deps.sessions.on('resync', onResync);
 
   // Sockets that miss a heartbeat are dropped; their screen reconnects and resumes. Sockets of a
   // session that has timed out are closed.
@@ -370,6 +382,7 @@ export function attachSocketServer(server: Server, deps: Deps, sessionMiddleware
       server.off('upgrade', onUpgrade);
       deps.sessions.off('signed-out', onSignedOut);
       deps.sessions.off('switched', onSwitched);
+      deps.sessions.off('resync', onResync);
       for (const peer of peers) peer.socket.close(code, reason);
       return new Promise((resolve) => wss.close(() => resolve()));
     },

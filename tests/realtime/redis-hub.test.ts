@@ -14,6 +14,8 @@ import { startRedis, type RedisServer } from '@scripts/services/redis';
 import { DEMO_PASSWORD } from '@seeds/demo-cafe';
 import { FREE_FAILURES, PAIR_FAILURES_PER_HOUR } from '@/domain/sign-in-pacing';
 import { startTestServer, type TestServer } from '../support/test-server';
+import { sidOf } from '../api/helpers';
+import { SESSION_COOKIE } from '@server/auth/session';
 import { demoLines, demoLocationId, fireOrder, loggedEvents } from './bar-actions';
 import { closeAllSockets, connect, connectAndResume, type LiveClient } from './ws-client';
 
@@ -180,11 +182,22 @@ describe('live events across processes', () => {
     const counter = await a.signIn('cashier');
     for (let i = 0; i < 3; i++) await fireOrder(counter, `Before ${i + 1}`, [lines.latte()]);
     await eventsUntil(bar, start + 3); // live now
+    // a screen on B whose session ends while Redis is away, by a process that never gets to say so
+    const leaving = await a.cookieFor('barista2');
+    const onB = await connect(b.url, leaving);
+    await onB.next((m) => m.type === 'hello');
+    const closedOnB = new Promise<number>((resolve) => onB.socket.once('close', (code) => resolve(code)));
     await redis.down();
     // taken while Redis is away: committed, published to nobody
     for (let i = 0; i < 3; i++) await fireOrder(counter, `Meanwhile ${i + 1}`, [lines.flatWhite()]);
     await b.signIn('lead'); // sign-in pacing counts in the process meanwhile, and lets people in
+    await a
+      .db('sessions')
+      .where({ sid: sidOf(leaving.split('; ').find((c) => c.startsWith(`${SESSION_COOKIE}=`))!) })
+      .delete();
     await redis.up();
+    // B checks its screens' sessions once it is back on Redis, not only at the next heartbeat
+    expect(await closedOnB).toBe(4401);
     // nothing more is taken: only the Bar's process catching up from the table can bring these
     const end = await latestSeq(a.db, locationId);
     expect(end - start).toBe(6);
