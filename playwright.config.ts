@@ -34,5 +34,7 @@ export default defineConfig({
     env: { E2E_PORT: String(PORT) },
     reuseExistingServer: false,
     timeout: 60_000,
+    // a SIGTERM, so the server closes and removes its temp folder (e2e/serve.ts)
+    gracefulShutdown: { signal: 'SIGTERM', timeout: 15_000 },
   },
 });
