@@ -13,7 +13,7 @@ import type { MenuAdminResult } from '@/domain/menu-admin-view';
 import type { SettingsPage } from '@/domain/settings-schemas';
 import type { LinkPurpose, TeamMember } from '@/domain/team-schemas';
 import type { OrderView, PublicUser, ShiftView, TicketView } from '@/domain/types';
-import type { AnswerOf, Answering, CallerInput, ReadDef } from '@/reads';
+import { fillPath, type AnswerOf, type Answering, type CallerInput, type ReadDef } from '@/reads';
 import { beansSchemas, cardCheckSchemas, menuAdminSchemas, schema, schemas, settingsSchemas, teamSchemas } from '@/schemas-by-name';
 
 /** `capability` (null: open to everyone) and `passive` (sent in the background, so it doesn't keep an
@@ -295,10 +295,6 @@ export type CommandSender = { [K in CommandName]: (input: CommandInput<Commands[
  */
 export function wireOfCommand(def: CommandDef, input: object): { path: string; body: object | undefined } {
   const rest: Record<string, unknown> = { ...input };
-  const path = def.path.replace(/:(\w+)/g, (_, name: string) => {
-    const value = rest[name];
-    delete rest[name];
-    return encodeURIComponent(String(value ?? ''));
-  });
+  const path = fillPath(def.path, rest);
   return { path, body: def.body ? rest : undefined };
 }

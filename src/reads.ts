@@ -138,10 +138,22 @@ export function wireOf(def: ReadDef, input: object | void): { path: string; para
   const values: Record<string, string> = {};
   for (const [k, v] of Object.entries(input ?? {})) if (v !== undefined && v !== null && v !== '') values[k] = String(v);
   const params: Record<string, string> = {};
-  const path = def.path.replace(/:(\w+)/g, (_, name: string) => {
-    params[name] = values[name] ?? '';
-    delete values[name];
-    return encodeURIComponent(params[name]);
-  });
+  const path = fillPath(def.path, values, (name, value) => (params[name] = value === undefined ? '' : String(value)));
   return { path, params, query: values };
+}
+
+/**
+ * A read's or a command's path with each `:name` filled, URL-encoded, from `values`; a name used
+ * in the path is taken out of `values` (the rest is the query string, or the body).
+ */
+export function fillPath<V>(
+  path: string,
+  values: Record<string, V>,
+  asText: (name: string, value: V | undefined) => string = (_, v) => String(v ?? ''),
+): string {
+  return path.replace(/:(\w+)/g, (_, name: string) => {
+    const text = asText(name, values[name]);
+    delete values[name];
+    return encodeURIComponent(text);
+  });
 }

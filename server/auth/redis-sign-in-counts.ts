@@ -80,6 +80,8 @@ export class RedisSignInCounts implements SignInCounts {
       for (const [log, key] of logged) if (key !== null) multi.eval(ADD_FAILURE, 1, this.key(log, key), now, FAILURE_WINDOW_MS, CAPS[log], member);
     }
     if (keys.name !== null) multi.eval(END_CHECK, 1, this.key('line', keys.name));
-    await multi.exec();
+    // a step that failed inside the transaction is thrown, so the caller's fallback counts it
+    const stepFailed = (await multi.exec())?.find(([err]) => err);
+    if (stepFailed) throw stepFailed[0];
   }
 }

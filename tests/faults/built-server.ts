@@ -99,3 +99,11 @@ export async function signIn(url: string, username: string): Promise<string> {
     .map((c) => c.split(';')[0])
     .join('; ');
 }
+
+/** The demo menu's Espresso, the one-drink order the rush tests send. */
+export async function espressoId(url: string, cookie: string): Promise<number> {
+  const menu = (await (await fetch(`${url}/api/menu`, { headers: { cookie } })).json()) as { items: { id: number; name: string }[] };
+  const espresso = menu.items.find((i) => i.name === 'Espresso');
+  if (!espresso) throw new Error('the demo menu has no Espresso');
+  return espresso.id;
+}

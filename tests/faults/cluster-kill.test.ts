@@ -14,7 +14,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDb } from '@server/db/knex';
 import { adminQuery, startCluster, type PgCluster } from '@scripts/services/postgres';
 import { startRedis, type RedisServer } from '@scripts/services/redis';
-import { BuiltServer, ensureBuilt, freePort, signIn } from './built-server';
+import { BuiltServer, ensureBuilt, espressoId, freePort, signIn } from './built-server';
 import { BarSocket, checkRush, lastSeq, runCounter, type Ack } from './rush';
 
 const ORDERS_PER_TILL = 60;
@@ -62,9 +62,7 @@ describe('a group of processes, one killed with SIGKILL and Redis restarted mid-
     const tills = [a, a, b];
     const cookies = await Promise.all(tills.map((s) => signIn(s.url, 'cashier')));
     const barCookie = await signIn(b.url, 'barista');
-    const menu = (await (await fetch(`${a.url}/api/menu`, { headers: { cookie: cookies[0] } })).json()) as { items: { id: number; name: string }[] };
-    const espresso = menu.items.find((i) => i.name === 'Espresso');
-    if (!espresso) throw new Error('the demo menu has no Espresso');
+    const espresso = await espressoId(a.url, cookies[0]);
     const bars = [new BarSocket(a.url, barCookie), new BarSocket(b.url, barCookie)];
     bars.forEach((bar) => bar.start());
 
@@ -85,7 +83,7 @@ describe('a group of processes, one killed with SIGKILL and Redis restarted mid-
           url: tills[i].url,
           cookie,
           name: `Till ${i + 1}`,
-          itemId: espresso.id,
+          itemId: espresso,
           acks,
           problems,
           stop: () => timedOut,

@@ -14,7 +14,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDb } from '@server/db/knex';
-import { BuiltServer, ensureBuilt, freePort, signIn } from './built-server';
+import { BuiltServer, ensureBuilt, espressoId, freePort, signIn } from './built-server';
 import { BarSocket, checkRush, lastSeq, runCounter, seeded, type Ack, type RushResult } from './rush';
 
 const COUNTERS = 3;
@@ -44,11 +44,7 @@ async function crashRun(seed: number): Promise<RunResult> {
     await server.start();
     const cookies = await Promise.all(Array.from({ length: COUNTERS }, () => signIn(server.url, 'cashier')));
     const barCookie = await signIn(server.url, 'barista');
-    const menu = (await (await fetch(`${server.url}/api/menu`, { headers: { cookie: cookies[0] } })).json()) as {
-      items: { id: number; name: string }[];
-    };
-    const espresso = menu.items.find((i) => i.name === 'Espresso');
-    if (!espresso) throw new Error('the demo menu has no Espresso');
+    const espresso = await espressoId(server.url, cookies[0]);
 
     for (let i = 0; i < 2; i++) bars.push(new BarSocket(server.url, barCookie));
     bars.forEach((b) => b.start());
@@ -66,7 +62,7 @@ async function crashRun(seed: number): Promise<RunResult> {
         url: server.url,
         cookie,
         name: `Till ${i + 1}`,
-        itemId: espresso.id,
+        itemId: espresso,
         acks,
         problems,
         stop: () => timedOut,
