@@ -4,6 +4,7 @@
 // Started or not is said in words, not only by look. Volumes in the café's unit.
 import { describeJug, type Jug } from '@/domain/jug-plan';
 import { needsAllergyAck, type LaneDrink, type PlannedLane } from '@/domain/lanes';
+import { plural } from '@/domain/plural';
 import { firstName } from '@/domain/tickets';
 import type { VolumeUnit } from '@/domain/units';
 import { Button } from '@/components/ui/button';
@@ -23,6 +24,7 @@ export function JugPlanBox({ lane, unit, busy, onStartJug, onBumpJug }: Props) {
   const byId = new Map(lane.drinks.map((d) => [d.id, d]));
   const unread = new Set(lane.drinks.filter(needsAllergyAck).map((d) => d.id));
   const n = started.length + 1;
+  const laterDrinks = later.reduce((k, j) => k + j.drinkIds.length, 0);
   return (
     <div data-testid="jug-plan" className="mt-2 flex flex-col gap-2 rounded-lg bg-roast-750 p-2">
       {started.map((jug, i) => {
@@ -51,7 +53,7 @@ export function JugPlanBox({ lane, unit, busy, onStartJug, onBumpJug }: Props) {
       )}
       {later.length > 0 && (
         <p data-testid="later-jugs" className="text-xl text-crema-100">
-          Then {later.length} more jug{later.length > 1 ? 's' : ''} ({later.reduce((k, j) => k + j.drinkIds.length, 0)} drinks)
+          Then {plural(later.length, 'more jug', 'more jugs')} ({plural(laterDrinks, 'drink')})
         </p>
       )}
     </div>
