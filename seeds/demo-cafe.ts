@@ -174,8 +174,10 @@ async function seedDemo(db: Knex, now: Date, passwordCost: number | undefined, o
   const pinHashes = await Promise.all(DEMO_STAFF.map((s) => hashPassword(DEMO_PINS[s.username], passwordCost)));
   return db.transaction(async (trx) => {
     if (onlyIfEmpty && !(await isEmpty(trx))) return null;
+    const [{ id: groupId }] = await trx('cafe_groups').insert({ name: 'Harbour & Hearth Coffee', created_at: createdAt }).returning('id');
     const [{ id: locationId }] = await trx('locations')
       .insert({
+        group_id: groupId,
         name: 'Harbour & Hearth Coffee',
         time_zone: 'America/New_York',
         currency: 'USD',

@@ -5,6 +5,7 @@ import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { SettingsPage } from '@/domain/settings-schemas';
 import type { BoardSnapshot, MenuView, ServerMessage } from '@/domain/types';
 import { startTestServer, type TestServer } from '../support/test-server';
+import { groupOfItsOwn } from '../support/cafe-groups';
 import { closeAllSockets, connectAndResume } from '../realtime/ws-client';
 import type { Agent } from './helpers';
 
@@ -287,7 +288,14 @@ describe('pitchers', () => {
   });
 
   it('a pitcher that is not there, or is another café’s, is 404', async () => {
-    const [{ id: otherCafe }] = await server.db('locations').insert({ name: 'Another café', created_at: '2026-03-01T00:00:00.000Z' }).returning('id');
+    const [{ id: otherCafe }] = await server
+      .db('locations')
+      .insert({
+        name: 'Another café',
+        created_at: '2026-03-01T00:00:00.000Z',
+        group_id: await groupOfItsOwn(server.db, 'Another café', '2026-03-01T00:00:00.000Z'),
+      })
+      .returning('id');
     const [{ id: theirs }] = await server.db('pitchers').insert({ location_id: otherCafe, capacity_ml: 600, fill_line_ml: 330 }).returning('id');
     const before = await stored();
     expect((await owner.put(`/api/settings/pitchers/${theirs}`).send({ capacityMl: 350, fillLineMl: 190 })).status).toBe(404);
