@@ -1,7 +1,7 @@
 // Signing in and out: error shapes, what the answer reveals, the session cookie and its id.
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_PASSWORD, DEMO_STAFF } from '@seeds/demo-cafe';
+import { DEMO_PASSWORD, DEMO_SIGN_INS } from '@seeds/demo-cafe';
 import { SESSION_COOKIE } from '@server/auth/session';
 import { startTestServer, type TestServer } from '../support/test-server';
 import { setCookies, sidOf } from './helpers';
@@ -133,7 +133,7 @@ describe('signing out', () => {
 describe('stored passwords', () => {
   it('are bcrypt hashes with a cost of at least 10 (OWASP Password Storage Cheat Sheet)', async () => {
     const users = await server.db('users').select('username', 'password_hash');
-    expect(users.map((u) => u.username).sort()).toEqual(DEMO_STAFF.map((s) => s.username).sort());
+    expect(users.map((u) => u.username).sort()).toEqual(DEMO_SIGN_INS.map((s) => s.username).sort());
     for (const { password_hash: hash } of users) {
       // Modular crypt format: $2b$<cost>$<22-char salt><31-char hash>, 60 characters in all.
       const match = /^\$2[ab]\$(\d{2})\$[./A-Za-z0-9]{53}$/.exec(hash);
