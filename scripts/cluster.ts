@@ -9,7 +9,7 @@ import { parseArgs } from 'node:util';
 import { adminQuery, startCluster } from '@scripts/services/postgres';
 import { startNginx } from '@scripts/services/nginx';
 import { startRedis } from '@scripts/services/redis';
-import { DEMO_PASSWORD, DEMO_STAFF } from '@seeds/demo-cafe';
+import { DEMO_PASSWORD, DEMO_SIGN_INS } from '@seeds/demo-cafe';
 import { freePort } from '@scripts/services/free-port';
 
 const ROOT = path.resolve(import.meta.dirname, '..');
@@ -95,7 +95,7 @@ try {
   const nginx = await startNginx(ports, o.port);
   stops.push(nginx.stop);
   console.log(`\nThe group is serving at ${nginx.url} — nginx in front of ${ports.map((p) => `127.0.0.1:${p}`).join(', ')}.`);
-  console.log(`Demo sign-ins: ${DEMO_STAFF.map((s) => s.username).join(', ')} (password "${DEMO_PASSWORD}"). Ctrl-C stops everything.`);
+  console.log(`Demo sign-ins: ${DEMO_SIGN_INS.map((s) => s.username).join(', ')} (password "${DEMO_PASSWORD}"). Ctrl-C stops everything.`);
 } catch (err) {
   console.error(err);
   await stopAll();

@@ -1,4 +1,5 @@
-// The demo café: Harbour & Hearth Coffee, an invented quay-side café with invented staff.
+// The demo group: Harbour & Hearth Coffee, an invented quay-side café with invented staff, and
+// Ropewalk Coffee Bar, the group's second café with the same menu and staff of its own.
 // Loaded only into an empty database when SEED_DEMO is on.
 import type { Knex } from 'knex';
 import { hashPassword, verifyPassword } from '@server/auth/passwords';
@@ -18,14 +19,39 @@ export const DEMO_STAFF = [
   { username: 'barista2', name: 'Ines Calder', role: 'barista' },
 ] as const;
 
+/**
+ * The group's second café, Ropewalk Coffee Bar: the same menu, its own few staff. Usernames are
+ * unique across the whole installation, so its people carry the café's prefix. Mara, the owner,
+ * holds both cafés through the group.
+ */
+export const SECOND_CAFE_NAME = 'Ropewalk Coffee Bar';
+export const SECOND_CAFE_STAFF = [
+  { username: 'rw-lead', name: 'Sunniva Oduya', role: 'lead' },
+  { username: 'rw-cashier', name: 'Keir Tamsett', role: 'cashier' },
+  { username: 'rw-barista', name: 'Lotte Varga', role: 'barista' },
+] as const;
+
+/** Everyone the demo seed signs in, in both cafés. */
+export const DEMO_SIGN_INS = [...DEMO_STAFF, ...SECOND_CAFE_STAFF] as const;
+type DemoUsername = (typeof DEMO_SIGN_INS)[number]['username'];
+
 /** Demo PINs for "Switch person" on a shared terminal (none of them a run or a repeat). */
-export const DEMO_PINS: Record<(typeof DEMO_STAFF)[number]['username'], string> = {
+export const DEMO_PINS: Record<DemoUsername, string> = {
   owner: '8264',
   lead: '5139',
   cashier: '4072',
   barista: '6318',
   barista2: '7450',
+  'rw-lead': '3916',
+  'rw-cashier': '2857',
+  'rw-barista': '6093',
 };
+
+/** The demo group's first café (the demo owner's own): the café every single-café test means. */
+export async function demoCafeId(db: Knex | Knex.Transaction): Promise<number> {
+  const { location_id } = await db('users').where({ username: 'owner' }).first('location_id');
+  return location_id as number;
+}
 
 type SizeSeed = [name: string, volumeMl: number, priceCents: number, milkMl: number];
 const SML = (prices: [number, number, number], milk: [number, number, number]): SizeSeed[] => [
@@ -168,133 +194,166 @@ export async function seedDemoCafeIfEmpty(db: Knex, now = new Date()): Promise<n
   return seedDemo(db, now, undefined, true);
 }
 
+interface CafeSeed {
+  name: string;
+  staff: readonly { username: DemoUsername; name: string; role: 'owner' | 'lead' | 'cashier' | 'barista'; email?: string }[];
+  /** Who pulled this morning's dial-in shots. */
+  barista: DemoUsername;
+}
+
+const CAFES: CafeSeed[] = [
+  { name: 'Harbour & Hearth Coffee', staff: DEMO_STAFF, barista: 'barista' },
+  { name: SECOND_CAFE_NAME, staff: SECOND_CAFE_STAFF, barista: 'rw-barista' },
+];
+
 async function seedDemo(db: Knex, now: Date, passwordCost: number | undefined, onlyIfEmpty: boolean): Promise<number | null> {
   const createdAt = now.toISOString();
-  const hashes = await Promise.all(DEMO_STAFF.map(() => hashPassword(DEMO_PASSWORD, passwordCost)));
-  const pinHashes = await Promise.all(DEMO_STAFF.map((s) => hashPassword(DEMO_PINS[s.username], passwordCost)));
+  const hashes = new Map(
+    await Promise.all(
+      DEMO_SIGN_INS.map(
+        async (s) =>
+          [s.username, { password: await hashPassword(DEMO_PASSWORD, passwordCost), pin: await hashPassword(DEMO_PINS[s.username], passwordCost) }] as const,
+      ),
+    ),
+  );
   return db.transaction(async (trx) => {
     if (onlyIfEmpty && !(await isEmpty(trx))) return null;
-    const [{ id: locationId }] = await trx('locations')
+    const [{ id: groupId }] = await trx('cafe_groups').insert({ name: CAFES[0].name, created_at: createdAt }).returning('id');
+    const ids: number[] = [];
+    for (const cafe of CAFES) ids.push(await seedCafe(trx, groupId, cafe, hashes, now));
+    return ids[0];
+  });
+}
+
+async function seedCafe(
+  trx: Knex.Transaction,
+  groupId: number,
+  cafe: CafeSeed,
+  hashes: Map<DemoUsername, { password: string; pin: string }>,
+  now: Date,
+): Promise<number> {
+  const createdAt = now.toISOString();
+  const [{ id: locationId }] = await trx('locations')
+    .insert({
+      group_id: groupId,
+      name: cafe.name,
+      time_zone: 'America/New_York',
+      currency: 'USD',
+      locale: 'en-US',
+      tax_mode: 'exclusive',
+      tax_rate_milli_pct: 8250,
+      extra_shot_cents: 100,
+      wait_target_seconds: 240,
+      pickup_timeout_seconds: 600,
+      allergen_list: 'US',
+      // a US café: cup sizes in ounces, temperatures in °F (stored sizes stay in ml)
+      volume_unit: 'us_floz',
+      temperature_unit: 'F',
+      created_at: createdAt,
+    })
+    .returning('id');
+
+  await trx('users').insert(
+    cafe.staff.map((s) => ({
+      location_id: locationId,
+      username: s.username,
+      name: s.name,
+      role: s.role,
+      email: s.email ?? null,
+      password_hash: hashes.get(s.username)!.password,
+      pin_hash: hashes.get(s.username)!.pin,
+      created_at: createdAt,
+    })),
+  );
+
+  await trx('pitchers').insert(
+    [
+      [350, 190],
+      [600, 330],
+      [950, 520],
+    ].map(([capacity_ml, fill_line_ml]) => ({
+      location_id: locationId,
+      capacity_ml,
+      fill_line_ml,
+      min_fill_ml: defaultMinFillMl(capacity_ml, fill_line_ml),
+    })),
+  );
+
+  const milkIds: number[] = [];
+  for (const [i, m] of MILKS.entries()) {
+    const [{ id }] = await trx('milk_options')
       .insert({
-        name: 'Harbour & Hearth Coffee',
-        time_zone: 'America/New_York',
-        currency: 'USD',
-        locale: 'en-US',
-        tax_mode: 'exclusive',
-        tax_rate_milli_pct: 8250,
-        extra_shot_cents: 100,
-        wait_target_seconds: 240,
-        pickup_timeout_seconds: 600,
-        allergen_list: 'US',
-        // a US café: cup sizes in ounces, temperatures in °F (stored sizes stay in ml)
-        volume_unit: 'us_floz',
-        temperature_unit: 'F',
-        created_at: createdAt,
+        location_id: locationId,
+        name: m.name,
+        code: m.code,
+        upcharge_cents: m.upcharge,
+        ingredients: JSON.stringify(inOrder(m.ingredients)),
+        sort: i,
       })
       .returning('id');
+    milkIds.push(id);
+  }
 
-    await trx('users').insert(
-      DEMO_STAFF.map((s, i) => ({
-        location_id: locationId,
-        username: s.username,
-        name: s.name,
-        role: s.role,
-        email: 'email' in s ? s.email : null,
-        password_hash: hashes[i],
-        pin_hash: pinHashes[i],
-        created_at: createdAt,
-      })),
-    );
+  const groupIds = new Map<GroupName, number>();
+  for (const [i, g] of GROUPS.entries()) {
+    const [{ id }] = await trx('extra_groups')
+      .insert({ location_id: locationId, name: g.name, selection: g.selection, required: false, sort: i })
+      .returning('id');
+    groupIds.set(g.name, id);
+  }
 
-    await trx('pitchers').insert(
-      [
-        [350, 190],
-        [600, 330],
-        [950, 520],
-      ].map(([capacity_ml, fill_line_ml]) => ({
-        location_id: locationId,
-        capacity_ml,
-        fill_line_ml,
-        min_fill_ml: defaultMinFillMl(capacity_ml, fill_line_ml),
-      })),
-    );
-
-    const milkIds: number[] = [];
-    for (const [i, m] of MILKS.entries()) {
-      const [{ id }] = await trx('milk_options')
+  for (const [ci, cat] of MENU.entries()) {
+    const [{ id: categoryId }] = await trx('menu_categories').insert({ location_id: locationId, name: cat.category, sort: ci }).returning('id');
+    for (const [ii, item] of cat.items.entries()) {
+      const [{ id: itemId }] = await trx('menu_items')
         .insert({
-          location_id: locationId,
-          name: m.name,
-          code: m.code,
-          upcharge_cents: m.upcharge,
-          ingredients: JSON.stringify(inOrder(m.ingredients)),
-          sort: i,
+          category_id: categoryId,
+          name: item.name,
+          station: item.station,
+          price_cents: item.priceCents ?? null,
+          shots: item.shots ?? 0,
+          takes_milk: item.milk ?? false,
+          default_milk_id: item.milk ? milkIds[0] : null,
+          texture: item.texture ?? null,
+          ingredients: JSON.stringify(inOrder(item.ingredients ?? [])),
+          sort: ii,
         })
         .returning('id');
-      milkIds.push(id);
-    }
-
-    const groupIds = new Map<GroupName, number>();
-    for (const [i, g] of GROUPS.entries()) {
-      const [{ id }] = await trx('extra_groups')
-        .insert({ location_id: locationId, name: g.name, selection: g.selection, required: false, sort: i })
-        .returning('id');
-      groupIds.set(g.name, id);
-    }
-
-    for (const [ci, cat] of MENU.entries()) {
-      const [{ id: categoryId }] = await trx('menu_categories').insert({ location_id: locationId, name: cat.category, sort: ci }).returning('id');
-      for (const [ii, item] of cat.items.entries()) {
-        const [{ id: itemId }] = await trx('menu_items')
-          .insert({
-            category_id: categoryId,
-            name: item.name,
-            station: item.station,
-            price_cents: item.priceCents ?? null,
-            shots: item.shots ?? 0,
-            takes_milk: item.milk ?? false,
-            default_milk_id: item.milk ? milkIds[0] : null,
-            texture: item.texture ?? null,
-            ingredients: JSON.stringify(inOrder(item.ingredients ?? [])),
-            sort: ii,
-          })
-          .returning('id');
-        for (const group of OFFERED[item.name] ?? []) {
-          await trx('item_extra_groups').insert({ item_id: itemId, group_id: groupIds.get(group) });
-        }
-        const sizes = item.sizes ?? [];
-        const defaultIndex = sizes.findIndex(([name]) => name === 'Regular');
-        for (const [si, [name, volumeMl, priceCents, milkMl]] of sizes.entries()) {
-          await trx('item_sizes').insert({
-            item_id: itemId,
-            name,
-            volume_ml: volumeMl,
-            price_cents: priceCents,
-            shots: item.shots ?? 0,
-            milk_ml: milkMl,
-            // the house recipe: 19 g in, 38 g out for a double (19 × shots / 2)
-            dose_dg: (item.shots ?? 0) * 95,
-            yield_dg: (item.shots ?? 0) * 190,
-            is_default: si === (defaultIndex >= 0 ? defaultIndex : 0),
-            sort: si,
-            cup: cupFor(volumeMl, item.texture === 'cold'),
-          });
-        }
+      for (const group of OFFERED[item.name] ?? []) {
+        await trx('item_extra_groups').insert({ item_id: itemId, group_id: groupIds.get(group) });
+      }
+      const sizes = item.sizes ?? [];
+      const defaultIndex = sizes.findIndex(([name]) => name === 'Regular');
+      for (const [si, [name, volumeMl, priceCents, milkMl]] of sizes.entries()) {
+        await trx('item_sizes').insert({
+          item_id: itemId,
+          name,
+          volume_ml: volumeMl,
+          price_cents: priceCents,
+          shots: item.shots ?? 0,
+          milk_ml: milkMl,
+          // the house recipe: 19 g in, 38 g out for a double (19 × shots / 2)
+          dose_dg: (item.shots ?? 0) * 95,
+          yield_dg: (item.shots ?? 0) * 190,
+          is_default: si === (defaultIndex >= 0 ? defaultIndex : 0),
+          sort: si,
+          cup: cupFor(volumeMl, item.texture === 'cold'),
+        });
       }
     }
+  }
 
-    await trx('extras').insert(
-      EXTRAS.map((m, i) => ({
-        location_id: locationId,
-        group_id: groupIds.get(m.group),
-        name: m.name,
-        price_cents: m.price,
-        sort: i,
-      })),
-    );
-    await seedBeans(trx, locationId, now);
-    return locationId;
-  });
+  await trx('extras').insert(
+    EXTRAS.map((m, i) => ({
+      location_id: locationId,
+      group_id: groupIds.get(m.group),
+      name: m.name,
+      price_cents: m.price,
+      sort: i,
+    })),
+  );
+  await seedBeans(trx, locationId, cafe.barista, now);
+  return locationId;
 }
 
 // Bean lots of our own invention (names, roasters), dated back from the seed time: a house blend in
@@ -335,7 +394,7 @@ const DIAL_IN_SHOTS = [
   { minutesAgo: 88, grind: '2.4', doseDg: 190, yieldDg: 385, timeDs: 270, note: 'sweet, chocolate' },
 ];
 
-async function seedBeans(trx: Knex.Transaction, locationId: number, now: Date) {
+async function seedBeans(trx: Knex.Transaction, locationId: number, baristaUsername: DemoUsername, now: Date) {
   const { time_zone: timeZone } = await trx('locations').where({ id: locationId }).first('time_zone');
   const today = businessDate(now, timeZone);
   const at = now.toISOString();
@@ -357,7 +416,7 @@ async function seedBeans(trx: Knex.Transaction, locationId: number, now: Date) {
       .returning('id');
     lotIds.push(id);
   }
-  const { id: barista } = await trx('users').where({ username: 'barista' }).first('id');
+  const { id: barista } = await trx('users').where({ username: baristaUsername }).first('id');
   // the seed's house recipe is 19 g for a double, so the dose range is 18–20 g
   const window = { ...doseRange(190), ...DEFAULT_SHOT_TARGETS };
   for (const s of DIAL_IN_SHOTS) {

@@ -3,7 +3,7 @@ import { mkdirSync } from 'node:fs';
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import type { Knex } from 'knex';
-import { DEMO_PASSWORD, DEMO_STAFF } from '@seeds/demo-cafe';
+import { DEMO_PASSWORD, DEMO_SIGN_INS } from '@seeds/demo-cafe';
 import { createApp } from './app';
 import { databaseTarget, mediaDirOf, migratesOnStart, type Config } from './config';
 import { createDb } from './db/knex';
@@ -129,6 +129,6 @@ export async function startServer(config: Config, opts: StartOptions = {}): Prom
 
 export function printSignIns(url: string, log = console.log) {
   log(`Jugline is serving at ${url}`);
-  log(`Demo sign-ins (password "${DEMO_PASSWORD}"): ${DEMO_STAFF.map((s) => `${s.username} (${s.role})`).join(', ')}`);
+  log(`Demo sign-ins (password "${DEMO_PASSWORD}"): ${DEMO_SIGN_INS.map((s) => `${s.username} (${s.role})`).join(', ')}`);
   log('Before real use: set SEED_DEMO=false on a new database and give every person their own password.');
 }

@@ -12,7 +12,7 @@ import type { CardCheckView } from '@/domain/card-check';
 import type { MenuAdminResult } from '@/domain/menu-admin-view';
 import type { SettingsPage } from '@/domain/settings-schemas';
 import type { LinkPurpose, TeamMember } from '@/domain/team-schemas';
-import type { OrderView, PublicUser, ShiftView, TicketView } from '@/domain/types';
+import type { CafeRef, OrderView, PublicUser, ShiftView, TicketView } from '@/domain/types';
 import { fillPath, type AnswerOf, type Answering, type CallerInput, type ReadDef } from '@/reads';
 import { beansSchemas, cardCheckSchemas, menuAdminSchemas, schema, schemas, settingsSchemas, teamSchemas } from '@/schemas-by-name';
 
@@ -68,6 +68,8 @@ export const commands = {
   // a shared terminal and one's own PIN (sign-in and sign-out are plain routes: server/auth/routes.ts)
   /** Another person of the same café takes over this terminal by PIN; a new session id. */
   switchPerson: command<{ user: PublicUser }>()({ method: 'post', path: '/session/switch', capability: 'viewQueue', body: schema(teamSchemas, 'switchBody') }),
+  /** An owner works on another café of their group from now on in this session; the screens reload. */
+  chooseCafe: command<{ cafe: CafeRef }>()({ method: 'post', path: '/session/cafe', capability: 'switchCafe', body: schema(teamSchemas, 'chooseCafeBody') }),
   setOwnPin: command<void>()({ method: 'put', path: '/me/pin', capability: 'viewQueue', body: schema(teamSchemas, 'ownPinBody'), status: 204 }),
 
   // the Counter

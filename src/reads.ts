@@ -16,7 +16,7 @@ import type { ReportShiftsView, ReportView, TicketHistoryPage } from '@/domain/r
 import type { Capability } from '@/domain/roles';
 import type { SettingsPage } from '@/domain/settings-schemas';
 import type { SwitchPerson, TeamView, WelcomeView } from '@/domain/team-schemas';
-import type { BoardSnapshot, MenuView, OrderView, PublicUser } from '@/domain/types';
+import type { BoardSnapshot, MenuView, OrderView, SessionView } from '@/domain/types';
 import type { CounterWaitNow } from '@/domain/wait-now';
 import { cardCheckSchemas, schema, schemas, teamSchemas, waitNowSchemas } from '@/schemas-by-name';
 
@@ -48,7 +48,7 @@ export const read =
     def;
 
 export const reads = {
-  session: read<{ user: PublicUser | null }>()({ path: '/session', capability: null }),
+  session: read<SessionView>()({ path: '/session', capability: null }),
 
   // the Counter, the Bar, Pickup and Pulse
   menu: read<MenuView>()({ path: '/menu', capability: 'viewQueue' }),

@@ -14,6 +14,7 @@ import { PASSIVE_REQUEST_HEADER } from '@/reads';
 import { dialectOf, jsonNumberSql, jsonSetNumbersSql } from '@server/db/dialect';
 import { bool } from '@server/db/rows';
 import { hashPassword, verifyPassword } from './passwords';
+import { inView } from './cafe-in-view';
 import { createSessionStore } from './session-store';
 import type { Row } from '@server/db/tables';
 
@@ -26,8 +27,10 @@ declare global {
 }
 
 declare module 'express-session' {
-  // eslint-disable-next-line @typescript-eslint/no-empty-object-type -- merges our fields into the library's interface
-  interface SessionData extends SessionTimes {}
+  interface SessionData extends SessionTimes {
+    /** The café an owner chose to work on (server/auth/cafe-in-view.ts); their own when unset. */
+    cafeId?: number;
+  }
 }
 
 export const SESSION_COOKIE = 'jugline.sid';
@@ -212,13 +215,17 @@ export function createPassport(db: Knex, clock: () => Date = () => new Date()) {
     if (req.session) Object.assign(req.session, { signedInAt: now, lastActiveAt: now } satisfies SessionTimes);
     done(null, (user as SessionUser).id);
   });
-  passport.deserializeUser(async (id: number, done) => {
-    try {
-      done(null, (await findActiveUser(db, id)) ?? false);
-    } catch (err) {
-      done(err);
-    }
-  });
+  // the café in view comes from the session (an owner's choice), so it takes the request
+  passport.deserializeUser(
+    async (req: IncomingMessage & { session?: Partial<session.SessionData> }, id: number, done: (err: unknown, user?: SessionUser | false) => void) => {
+      try {
+        const user = await findActiveUser(db, id);
+        done(null, user ? await inView(db, user, req.session?.cafeId) : false);
+      } catch (err) {
+        done(err);
+      }
+    },
+  );
   return passport;
 }
 

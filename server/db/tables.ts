@@ -47,6 +47,11 @@ export interface Tables {
     dose_dg: number;
     used_at: string;
   };
+  cafe_groups: {
+    id: number;
+    name: string;
+    created_at: string;
+  };
   dial_in_shots: {
     id: number;
     location_id: number;
@@ -165,6 +170,7 @@ export interface Tables {
     expansion_flat_pct: number;
     expansion_silky_pct: number;
     expansion_foamy_pct: number;
+    group_id: number;
   };
   menu_categories: {
     id: number;

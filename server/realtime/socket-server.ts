@@ -9,6 +9,7 @@ import { clientMessage } from '@/domain/schemas';
 import { SCREENS, type ScreenId } from '@/domain/screens';
 import type { AnyLiveEvent, ServerMessage, SessionUser } from '@/domain/types';
 import { endSession, findActiveUser, policyOf, recordActivity, storedSessionExpiry } from '@server/auth/session';
+import { inView } from '@server/auth/cafe-in-view';
 import { BUSY_RETRY_AFTER_SECONDS, isDatabaseBusy } from '@server/errors';
 import type { Deps } from '@server/deps';
 import { latestSeq } from '@server/events';
@@ -135,8 +136,10 @@ export function attachSocketServer(server: Server, deps: Deps, sessionMiddleware
 
   async function authenticate(req: IncomingMessage): Promise<SessionUser | null> {
     await new Promise<void>((resolve, reject) => sessionMiddleware(req as never, {} as never, (err?: unknown) => (err ? reject(err) : resolve())));
-    const id = (req as unknown as { session?: { passport?: { user?: number } } }).session?.passport?.user;
-    return typeof id === 'number' ? findActiveUser(deps.db, id) : null;
+    const s = (req as unknown as { session?: { passport?: { user?: number }; cafeId?: number } }).session;
+    const id = s?.passport?.user;
+    const user = typeof id === 'number' ? await findActiveUser(deps.db, id) : null;
+    return user && inView(deps.db, user, s?.cafeId);
   }
 
   function refuse(socket: Duplex, status: number, text: string, headers = '') {

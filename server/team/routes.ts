@@ -3,6 +3,7 @@
 // The handlers of their commands (src/commands.ts).
 import type { Request, RequestHandler } from 'express';
 import { rateLimit, type Store } from 'express-rate-limit';
+import { chooseCafe } from '@server/auth/cafe-in-view';
 import type { Limits } from '@server/auth/shared-limits';
 import type { SessionUser } from '@/domain/types';
 import type { CommandHandlers } from '@server/commands';
@@ -42,7 +43,7 @@ function throttle(opts: { windowMs: number; limit: number; key?: (req: Request) 
 /** The team's commands, the PIN switch and the welcome link (src/commands.ts); the throttles count in `limits`. */
 export function teamCommands(
   limits: Limits,
-): CommandHandlers<'addPerson' | 'updatePerson' | 'sendLink' | 'setPin' | 'setOwnPin' | 'switchPerson' | 'acceptLink'> {
+): CommandHandlers<'addPerson' | 'updatePerson' | 'sendLink' | 'setPin' | 'setOwnPin' | 'switchPerson' | 'chooseCafe' | 'acceptLink'> {
   const pinsFromAddress = throttle({
     windowMs: 15 * 60_000,
     limit: WRONG_PINS_PER_ADDRESS,
@@ -90,6 +91,13 @@ export function teamCommands(
         deps.sessions.emit('switched', oldSid);
         return { user: publicUser(outcome.user) };
       },
+    },
+    // an owner, for their own session: from the next request on it works on the chosen café, and
+    // its live sockets close as on a switch, so the screens reconnect to that café's events
+    chooseCafe: async ({ deps, user, req }, { locationId }) => {
+      const cafe = await chooseCafe(deps.db, user, req.sessionID, locationId);
+      deps.sessions.emit('switched', req.sessionID);
+      return { cafe };
     },
     acceptLink: async ({ deps, params, req }, { password }) => {
       const user = await acceptLink(deps, params.token, password);

@@ -23,6 +23,8 @@ export const CAPABILITIES = {
   manageTeam: ['owner'],
   editSettings: ['owner'],
   manageBeans: ['owner'],
+  // a group of cafés: which café the session works on, and the group's report
+  switchCafe: ['owner'],
   logDialIn: ['barista', 'lead', 'owner'],
 } as const satisfies Record<string, readonly Role[]>;
 

@@ -89,6 +89,10 @@ export const switchBody = z.object({
 });
 export type SwitchBody = z.infer<typeof switchBody>;
 
+/** An owner chooses which café of their group this session works on. */
+export const chooseCafeBody = z.object({ locationId: z.number().int().positive() });
+export type ChooseCafeBody = z.infer<typeof chooseCafeBody>;
+
 /** 32 random bytes, base64url without padding. */
 export const tokenParam = z.object({ token: z.string().regex(/^[A-Za-z0-9_-]{43}$/, 'Not a link token') });
 

@@ -19,6 +19,20 @@ export interface SessionUser {
   locationId: number;
 }
 
+/** A café by name, as the group's list shows it. */
+export interface CafeRef {
+  id: number;
+  name: string;
+}
+
+/** GET /api/session: who is signed in, which café this session works on and, for an owner, the
+ * cafés of their group they may choose between (empty for anyone else, and signed out). */
+export interface SessionView {
+  user: PublicUser | null;
+  cafe: CafeRef | null;
+  groupCafes: CafeRef[];
+}
+
 /** The signed-in person as the API shows them (GET /api/session). */
 export interface PublicUser {
   id: number;

@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { PickupTicket } from '@/domain/pickup';
 import type { TicketView } from '@/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
+import { groupOfItsOwn } from '../support/cafe-groups';
 import { BIG_PITCHER, barTools, laneIds, laneOf, MID_PITCHER, plannedJug, SMALL_PITCHER } from './bar-helpers';
 import { orderBody, type Agent } from './helpers';
 import { jsonOf } from '../support/rows';
@@ -318,6 +319,7 @@ async function insertOtherCafeDrink(): Promise<number> {
   const [{ id: locationId }] = await db('locations')
     .insert({
       name: 'North Quay Espresso',
+      group_id: await groupOfItsOwn(db, 'North Quay Espresso', at),
       time_zone: 'Europe/London',
       currency: 'GBP',
       locale: 'en-GB',

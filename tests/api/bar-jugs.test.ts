@@ -10,6 +10,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BoardSnapshot } from '@/domain/types';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
+import { groupOfItsOwn } from '../support/cafe-groups';
 import { BIG_PITCHER, barTools, laneOf, MID_PITCHER, plannedJug, SMALL_PITCHER } from './bar-helpers';
 import type { Agent } from './helpers';
 
@@ -242,7 +243,10 @@ describe('POST /api/jugs/:id/bump', () => {
     await expectRefused(barista, path, { drinkIds: [] }, 400, 'validation_failed', watch);
     await expectRefused(cashier, path, { drinkIds: [latte] }, 403, 'forbidden', watch);
     await expectRefused(barista, '/api/jugs/999999/bump', { drinkIds: [latte] }, 404, 'not_found', watch);
-    const [{ id: otherCafe }] = await server.db('locations').insert({ name: 'Quayside Roasters', created_at: nowIso() }).returning('id');
+    const [{ id: otherCafe }] = await server
+      .db('locations')
+      .insert({ name: 'Quayside Roasters', created_at: nowIso(), group_id: await groupOfItsOwn(server.db, 'Quayside Roasters', nowIso()) })
+      .returning('id');
     const [{ id: theirJug }] = await server
       .db('jugs')
       .insert({

@@ -174,7 +174,9 @@ describe('the orders', () => {
           OR o.ready_at <> COALESCE((SELECT MAX(done_at) FROM order_items i WHERE i.order_id = o.id AND i.station = 'bar'), o.created_at)`,
     );
     expect(bad).toBe(0);
-    const baristas = (await all<{ id: number }>("SELECT id FROM users WHERE role = 'barista'")).map((u) => u.id);
+    const baristas = (
+      await all<{ id: number }>("SELECT id FROM users WHERE role = 'barista' AND location_id = (SELECT location_id FROM users WHERE username = 'lead')")
+    ).map((u) => u.id);
     const makers = (await all<{ done_by: number }>("SELECT DISTINCT done_by FROM order_items WHERE station = 'bar'")).map((r) => r.done_by);
     expect(makers.sort()).toEqual(baristas.sort());
     const make = await one<{ lo: number; hi: number }>(

@@ -6,6 +6,7 @@ import { hashPassword } from '@server/auth/passwords';
 import type { OutboxMail } from '@/domain/outbox';
 import type { OrderView } from '@/domain/types';
 import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
+import { groupOfItsOwn } from '../support/cafe-groups';
 import { orderBody, type Agent } from './helpers';
 import { jsonOf } from '../support/rows';
 
@@ -23,6 +24,7 @@ async function insertNorthCafe(db: TestServer['db']) {
   const [{ id: locationId }] = await db('locations')
     .insert({
       name: 'North Quay Espresso',
+      group_id: await groupOfItsOwn(db, 'North Quay Espresso', createdAt),
       time_zone: 'Europe/London',
       currency: 'GBP',
       locale: 'en-GB',

@@ -4,6 +4,7 @@ import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { AdminMenuView } from '@/domain/menu-admin-view';
 import type { MenuView } from '@/domain/types';
 import { demoMenu, startTestServer, type TestServer } from '../support/test-server';
+import { groupOfItsOwn } from '../support/cafe-groups';
 import { closeAllSockets, connectAndResume } from '../realtime/ws-client';
 import { orderBody, type Agent } from './helpers';
 import { jsonOf } from '../support/rows';
@@ -30,7 +31,13 @@ async function snapshot() {
 /** A second café with one of everything, so its ids exist but are not the demo café's. */
 async function insertNorthCafe(db: TestServer['db']) {
   const [{ id: locationId }] = await db('locations')
-    .insert({ name: 'North Quay Espresso', currency: 'GBP', allergen_list: 'EU', created_at: new Date().toISOString() })
+    .insert({
+      name: 'North Quay Espresso',
+      currency: 'GBP',
+      allergen_list: 'EU',
+      created_at: new Date().toISOString(),
+      group_id: await groupOfItsOwn(db, 'North Quay Espresso', new Date().toISOString()),
+    })
     .returning('id');
   const [{ id: categoryId }] = await db('menu_categories').insert({ location_id: locationId, name: 'Coffee' }).returning('id');
   const [{ id: milkId }] = await db('milk_options').insert({ location_id: locationId, name: 'Whole', code: 'WH' }).returning('id');

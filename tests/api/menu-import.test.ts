@@ -3,6 +3,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { MENU_CSV_COLUMNS, MENU_CSV_MAX_BYTES } from '@/domain/menu-csv';
+import { demoCafeId } from '@seeds/demo-cafe';
 import { startTestServer, type TestServer } from '../support/test-server';
 import type { Agent } from './helpers';
 import { boolOf, jsonOf } from '../support/rows';
@@ -77,9 +78,12 @@ describe('export', () => {
     expect(lines).toContain(
       `"Food","Almond croissant","counter","","","4.95","0","","","","no","","","cow's milk; egg; wheat; almond","milk; eggs; tree nuts; wheat","no"`,
     );
-    const sizes = Number((await server.db('item_sizes').whereNull('retired_at').count({ n: '*' }).first())?.n);
-    const unsized = Number((await server.db('menu_items').whereNull('price_cents').count({ n: '*' }).first())?.n);
-    const items = Number((await server.db('menu_items').count({ n: '*' }).first())?.n);
+    // the demo café's own menu (the group's other café has a copy of it)
+    const cafeItems = () => server.db('menu_items').whereIn('category_id', server.db('menu_categories').where({ location_id: cafe }).select('id'));
+    const cafe = await demoCafeId(server.db);
+    const sizes = Number((await server.db('item_sizes').whereNull('retired_at').whereIn('item_id', cafeItems().select('id')).count({ n: '*' }).first())?.n);
+    const unsized = Number((await cafeItems().whereNull('price_cents').count({ n: '*' }).first())?.n);
+    const items = Number((await cafeItems().count({ n: '*' }).first())?.n);
     expect(lines.filter(Boolean)).toHaveLength(1 + sizes + (items - unsized));
   });
 

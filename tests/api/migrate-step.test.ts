@@ -53,7 +53,7 @@ describe('the migration step', () => {
     await step.destroy();
     const db = await prepareDatabase({ ...config, migrateOnStart: false }, () => {});
     try {
-      expect(Number((await db('locations').count({ n: '*' }).first())?.n)).toBe(1);
+      expect(Number((await db('cafe_groups').count({ n: '*' }).first())?.n)).toBe(1);
     } finally {
       await db.destroy();
     }
@@ -67,7 +67,7 @@ describe('the migration step', () => {
       expect(results.map((r) => r.status)).toEqual(['fulfilled', 'fulfilled']);
       const seeded = results.map((r) => (r.status === 'fulfilled' ? r.value.seeded : null));
       expect(seeded.filter(Boolean)).toHaveLength(1);
-      expect(Number((await a('locations').count({ n: '*' }).first())?.n)).toBe(1);
+      expect(Number((await a('cafe_groups').count({ n: '*' }).first())?.n)).toBe(1);
     } finally {
       await a.destroy();
       await b.destroy();

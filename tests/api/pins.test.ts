@@ -17,6 +17,7 @@ import { PIN_LOCK_MINUTES, PIN_TRIES } from '@/domain/team-schemas';
 import { DEMO_PASSWORD, DEMO_PINS } from '@seeds/demo-cafe';
 import { closeAllSockets, connect } from '../realtime/ws-client';
 import { manualClock, startTestServer, type TestServer } from '../support/test-server';
+import { groupOfItsOwn } from '../support/cafe-groups';
 import { sessionCookieOf, setCookies, sidOf, type Agent } from './helpers';
 
 afterEach(() => closeAllSockets());
@@ -140,7 +141,14 @@ describe('switching person', () => {
     const cashier = await server.signIn('cashier');
     expect((await cashier.post('/api/session/switch').send({ userId: await idOf(server, 'cashier'), pin: DEMO_PINS.cashier })).status).toBe(409);
 
-    const [{ id: otherCafe }] = await server.db('locations').insert({ name: 'North Quay Espresso', created_at: time.clock().toISOString() }).returning('id');
+    const [{ id: otherCafe }] = await server
+      .db('locations')
+      .insert({
+        name: 'North Quay Espresso',
+        created_at: time.clock().toISOString(),
+        group_id: await groupOfItsOwn(server.db, 'North Quay Espresso', time.clock().toISOString()),
+      })
+      .returning('id');
     const [{ id: stranger }] = await server
       .db('users')
       .insert({

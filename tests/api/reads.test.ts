@@ -121,7 +121,7 @@ describe('the server-rendering Api', () => {
     await expect(cashier.team()).rejects.toMatchObject({ status: 403, code: 'forbidden' });
     await expect(cashier.menu()).resolves.toMatchObject({ items: expect.any(Array) });
     // open to everyone: no user needed
-    await expect(serverApi(server.deps, undefined).session()).resolves.toEqual({ user: null });
+    await expect(serverApi(server.deps, undefined).session()).resolves.toEqual({ user: null, cafe: null, groupCafes: [] });
   });
 
   it('checks the input with the read’s schema: 400 with the field named', async () => {

@@ -1,6 +1,7 @@
 // One morning at the demo café for the Reports tests, placed through the real API: a shift (a row
 // in shifts, as the shift screen would write it), cash and card orders, a lead's discount, a
 // partial and a full refund, a declined card that is voided, and bumps at known times.
+import { demoCafeId } from '@seeds/demo-cafe';
 import { expect } from 'vitest';
 import type { OrderView, TicketView } from '@/domain/types';
 import { demoMenu, type manualClock, type TestServer } from '../support/test-server';
@@ -32,7 +33,7 @@ export async function placeReportDay(server: TestServer, time: Clock): Promise<R
   const ids = await demoMenu(server);
   const [cashier, lead, barista] = [await server.signIn('cashier'), await server.signIn('lead'), await server.signIn('barista')];
   const leadId = (await server.db('users').where({ username: 'lead' }).first('id')).id;
-  const locationId = (await server.db('locations').first('id')).id;
+  const locationId = await demoCafeId(server.db);
   time.set(T0);
   const [{ id: shiftId }] = await server
     .db('shifts')

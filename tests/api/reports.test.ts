@@ -8,6 +8,7 @@ import type { ReportView } from '@/domain/reports';
 import { PERCENTILE_METHOD } from '@/domain/stats';
 import { shiftReportEmail } from '@server/reports';
 import { manualClock, startTestServer, type TestServer } from '../support/test-server';
+import { groupOfItsOwn } from '../support/cafe-groups';
 import { orderBody, type Agent } from './helpers';
 import { DAY, T0, expectedBar, expectedMoney, placeReportDay, type ReportDay } from './reports-fixture';
 
@@ -130,7 +131,10 @@ describe('GET /api/reports/shift/:id', () => {
   });
 
   it('an unknown shift, or one of another café, is 404', async () => {
-    const [{ id: otherCafe }] = await server.db('locations').insert({ name: 'Elsewhere', created_at: T0 }).returning('id');
+    const [{ id: otherCafe }] = await server
+      .db('locations')
+      .insert({ name: 'Elsewhere', created_at: T0, group_id: await groupOfItsOwn(server.db, 'Elsewhere', T0) })
+      .returning('id');
     const leadId = (await server.db('users').where({ username: 'lead' }).first('id')).id;
     const [{ id: foreign }] = await server
       .db('shifts')

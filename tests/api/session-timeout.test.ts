@@ -87,7 +87,7 @@ describe('the idle timeout over HTTP', () => {
     expect(await stored(sid)).toBe(true);
     time.advance(IDLE);
     expectSignedOut(await menu(cookie));
-    expect((await whoAmI(cookie)).body).toEqual({ user: null });
+    expect((await whoAmI(cookie)).body).toEqual({ user: null, cafe: null, groupCafes: [] });
     expect(await stored(sid)).toBe(false);
     // gone, not merely judged old: even a clock set back can't bring it back
     time.advance(-IDLE);

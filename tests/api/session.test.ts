@@ -1,7 +1,7 @@
 // Signing in and out: error shapes, what the answer reveals, the session cookie and its id.
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_PASSWORD, DEMO_STAFF } from '@seeds/demo-cafe';
+import { DEMO_PASSWORD, DEMO_SIGN_INS } from '@seeds/demo-cafe';
 import { SESSION_COOKIE } from '@server/auth/session';
 import { startTestServer, type TestServer } from '../support/test-server';
 import { setCookies, sidOf } from './helpers';
@@ -75,7 +75,11 @@ describe('sign-in success', () => {
     const cookie = cookiePair(sessionCookie(await signInRaw({ username: 'lead', password: DEMO_PASSWORD })));
     const res = await whoAmI(cookie);
     expect(res.status).toBe(200);
-    expect(res.body).toEqual({ user: { id: expect.any(Number), name: 'Theo Brand', role: 'lead' } });
+    expect(res.body).toEqual({
+      user: { id: expect.any(Number), name: 'Theo Brand', role: 'lead' },
+      cafe: { id: expect.any(Number), name: 'Harbour & Hearth Coffee' },
+      groupCafes: [],
+    });
   });
 });
 
@@ -89,7 +93,7 @@ describe('session id regeneration', () => {
     const sids = await storedSids();
     expect(sids).not.toContain(sidOf(first));
     expect(sids).toContain(sidOf(second));
-    expect((await whoAmI(cookiePair(first))).body).toEqual({ user: null });
+    expect((await whoAmI(cookiePair(first))).body).toEqual({ user: null, cafe: null, groupCafes: [] });
     expect((await whoAmI(cookiePair(second))).body.user).toMatchObject({ role: 'cashier' });
   });
 
@@ -104,7 +108,7 @@ describe('signing out', () => {
   it('GET /api/session signed out answers 200 { user: null }', async () => {
     const res = await request(server.url).get('/api/session');
     expect(res.status).toBe(200);
-    expect(res.body).toEqual({ user: null });
+    expect(res.body).toEqual({ user: null, cafe: null, groupCafes: [] });
   });
 
   it('DELETE /api/session answers 204, and the old cookie no longer authenticates', async () => {
@@ -118,7 +122,7 @@ describe('signing out', () => {
     const menu = await request(server.url).get('/api/menu').set('Cookie', cookie);
     expect(menu.status).toBe(401);
     expect(menu.body).toEqual({ error: { code: 'unauthenticated', message: expect.any(String) } });
-    expect((await whoAmI(cookie)).body).toEqual({ user: null });
+    expect((await whoAmI(cookie)).body).toEqual({ user: null, cafe: null, groupCafes: [] });
     expect(await storedSids()).not.toContain(sidOf(cookie));
   });
 
@@ -133,7 +137,7 @@ describe('signing out', () => {
 describe('stored passwords', () => {
   it('are bcrypt hashes with a cost of at least 10 (OWASP Password Storage Cheat Sheet)', async () => {
     const users = await server.db('users').select('username', 'password_hash');
-    expect(users.map((u) => u.username).sort()).toEqual(DEMO_STAFF.map((s) => s.username).sort());
+    expect(users.map((u) => u.username).sort()).toEqual(DEMO_SIGN_INS.map((s) => s.username).sort());
     for (const { password_hash: hash } of users) {
       // Modular crypt format: $2b$<cost>$<22-char salt><31-char hash>, 60 characters in all.
       const match = /^\$2[ab]\$(\d{2})\$[./A-Za-z0-9]{53}$/.exec(hash);

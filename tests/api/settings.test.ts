@@ -1,10 +1,12 @@
 // The location's settings through the real API: who may change them, what a bad value is
 // answered with (and that nothing changed), switching allergen lists, the pitcher rules, and the
 // menu.changed event that makes open screens reload.
+import { demoCafeId } from '@seeds/demo-cafe';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { SettingsPage } from '@/domain/settings-schemas';
 import type { BoardSnapshot, MenuView, ServerMessage } from '@/domain/types';
 import { startTestServer, type TestServer } from '../support/test-server';
+import { groupOfItsOwn } from '../support/cafe-groups';
 import { closeAllSockets, connectAndResume } from '../realtime/ws-client';
 import type { Agent } from './helpers';
 
@@ -161,7 +163,10 @@ describe('PUT /api/settings saves good values', () => {
       taxMode: 'inclusive',
       receiptFooter: 'Thank you — see you tomorrow',
     });
-    const row = await server.db('locations').first();
+    const row = await server
+      .db('locations')
+      .where({ id: await demoCafeId(server.db) })
+      .first();
     expect(row.tax_rate_milli_pct).toBe(8875);
 
     const menu: MenuView = (await owner.get('/api/menu').expect(200)).body;
@@ -172,7 +177,12 @@ describe('PUT /api/settings saves good values', () => {
       .put('/api/settings')
       .send({ timeZone: 'America/New_York', locale: 'en-US', currency: 'USD', taxRatePercent: 8.25, taxMode: 'exclusive', receiptFooter: '' })
       .expect(200);
-    expect(await server.db('locations').first()).toMatchObject({ tax_rate_milli_pct: 8250, receipt_footer: null, currency: 'USD' });
+    expect(
+      await server
+        .db('locations')
+        .where({ id: await demoCafeId(server.db) })
+        .first(),
+    ).toMatchObject({ tax_rate_milli_pct: 8250, receipt_footer: null, currency: 'USD' });
   });
 
   it('switches units both ways without touching a stored size', async () => {
@@ -287,7 +297,14 @@ describe('pitchers', () => {
   });
 
   it('a pitcher that is not there, or is another café’s, is 404', async () => {
-    const [{ id: otherCafe }] = await server.db('locations').insert({ name: 'Another café', created_at: '2026-03-01T00:00:00.000Z' }).returning('id');
+    const [{ id: otherCafe }] = await server
+      .db('locations')
+      .insert({
+        name: 'Another café',
+        created_at: '2026-03-01T00:00:00.000Z',
+        group_id: await groupOfItsOwn(server.db, 'Another café', '2026-03-01T00:00:00.000Z'),
+      })
+      .returning('id');
     const [{ id: theirs }] = await server.db('pitchers').insert({ location_id: otherCafe, capacity_ml: 600, fill_line_ml: 330 }).returning('id');
     const before = await stored();
     expect((await owner.put(`/api/settings/pitchers/${theirs}`).send({ capacityMl: 350, fillLineMl: 190 })).status).toBe(404);

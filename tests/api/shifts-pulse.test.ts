@@ -2,6 +2,7 @@
 // bar and wait target reach the location and the Counter's quotes), changing the bar count,
 // closing it against a cash count with the report mailed to the owner, and the Pulse numbers
 // worked out by hand from tickets bumped at known times.
+import { demoCafeId } from '@seeds/demo-cafe';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { OutboxMail } from '@/domain/outbox';
@@ -33,7 +34,7 @@ function harness(time: ReturnType<typeof manualClock>) {
       ctx.userId[login] = (await ctx.server.db('users').where({ username: login }).first('id')).id;
     }
     ctx.ids = await demoMenu(ctx.server);
-    ctx.locationId = (await ctx.server.db('locations').first('id')).id;
+    ctx.locationId = await demoCafeId(ctx.server.db);
   });
   afterAll(() => ctx.server.close());
 

@@ -8,6 +8,7 @@ import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { dialectOf } from '@server/db/dialect';
 import { appendMenuChangedEvent, eventsSince, latestSeq, runCommand } from '@server/events';
 import { startTestServer, type TestServer } from '../support/test-server';
+import { groupOfItsOwn } from '../support/cafe-groups';
 import { demoLocationId } from './bar-actions';
 import { closeAllSockets, connectAndResume } from './ws-client';
 
@@ -84,6 +85,7 @@ describe('the event sequence under concurrent commands', () => {
       .db('locations')
       .insert({
         name: 'North Quay',
+        group_id: await groupOfItsOwn(server.db, 'North Quay', new Date().toISOString()),
         time_zone: 'America/New_York',
         currency: 'USD',
         locale: 'en-US',

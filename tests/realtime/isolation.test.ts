@@ -4,6 +4,7 @@ import request from 'supertest';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { hashPassword } from '@server/auth/passwords';
 import type { TestServer } from '../support/test-server';
+import { groupOfItsOwn } from '../support/cafe-groups';
 import { barLines, bumpDrink, demoLines, fireOrder, loggedEvents, startDrink, type Agent, barScene } from './bar-actions';
 import { closeAllSockets, connect, connectAndResume } from './ws-client';
 
@@ -26,6 +27,7 @@ async function insertNorthCafe(db: TestServer['db']) {
   const [{ id: locationId }] = await db('locations')
     .insert({
       name: 'North Quay Espresso',
+      group_id: await groupOfItsOwn(db, 'North Quay Espresso', createdAt),
       time_zone: 'Europe/London',
       currency: 'GBP',
       locale: 'en-GB',

@@ -9,10 +9,10 @@ import type { Config } from '@server/config';
 import { startServer, type RunningServer } from '@server/server';
 import type { SignInPacing } from '@server/auth/routes';
 import type { Clock } from '@server/deps';
-import { DEMO_PASSWORD } from '@seeds/demo-cafe';
+import { DEMO_PASSWORD, DEMO_SIGN_INS, demoCafeId } from '@seeds/demo-cafe';
 import { createTestDatabase } from './test-database';
 
-export type DemoLogin = 'owner' | 'lead' | 'cashier' | 'barista' | 'barista2';
+export type DemoLogin = (typeof DEMO_SIGN_INS)[number]['username'];
 
 export interface TestServer extends RunningServer {
   dir: string;
@@ -99,12 +99,23 @@ export async function startTestServer(
   };
 }
 
-/** Ids the demo seed gives its menu, looked up by name so tests don't hard-code them. */
-export async function demoMenu(server: TestServer) {
-  const items = await server.db('menu_items').select('id', 'name');
-  const milks = await server.db('milk_options').select('id', 'name');
-  const sizes = await server.db('item_sizes').select('id', 'item_id', 'name');
-  const mods = await server.db('extras').select('id', 'name');
+/** Ids the demo seed gives its menu (the demo café's unless another café is named), looked up by name so tests don't hard-code them. */
+export async function demoMenu(server: TestServer, locationId?: number) {
+  const cafe = locationId ?? (await demoCafeId(server.db));
+  const items = await server
+    .db('menu_items')
+    .join('menu_categories', 'menu_categories.id', 'menu_items.category_id')
+    .where('menu_categories.location_id', cafe)
+    .select('menu_items.id', 'menu_items.name');
+  const milks = await server.db('milk_options').where({ location_id: cafe }).select('id', 'name');
+  const sizes = await server
+    .db('item_sizes')
+    .whereIn(
+      'item_id',
+      items.map((i) => i.id as number),
+    )
+    .select('id', 'item_id', 'name');
+  const mods = await server.db('extras').where({ location_id: cafe }).select('id', 'name');
   const item = (name: string) => items.find((i) => i.name === name)!.id as number;
   return {
     item,
