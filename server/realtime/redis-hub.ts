@@ -12,9 +12,9 @@ import { eventsSince, latestSeq } from '@server/events';
 import type { EventListener, Hub } from './hub';
 
 export const EVENTS_CHANNEL = 'jugline:events';
-/** Sign-outs and person switches ('signed-out', 'switched' with the session id). */
+/** Sign-outs, person switches and an owner's choice of café ('signed-out', 'switched', 'cafe-chosen' with the session id). */
 export const SESSIONS_CHANNEL = 'jugline:sessions';
-const SESSION_NEWS = ['signed-out', 'switched'] as const;
+const SESSION_NEWS = ['signed-out', 'switched', 'cafe-chosen'] as const;
 /** Events read from the table per fill; a café far behind takes several reads. */
 const FILL_BATCH = 500;
 
@@ -32,7 +32,7 @@ export interface RedisHub extends Hub {
   /** Resolves once subscribed to the channels. */
   ready: Promise<void>;
   /**
-   * Deps.sessions across processes: 'signed-out' and 'switched' emitted here reach this process's
+   * Deps.sessions across processes: the SESSION_NEWS emitted here reach this process's
    * listeners at once and every other process's through Redis, so a sign-out on one process closes
    * that session's screens on all of them.
    */

@@ -66,6 +66,9 @@ export const WALL_SCREENS: readonly ScreenId[] = ['bar', 'pickup'];
 export const SESSION_ENDED = 4401;
 /** Close code for a session another person took over on the same terminal. */
 export const SWITCHED = 4409;
+/** Close code for a session whose owner chose another café of the group: the whole page belongs
+ * to the café it came from (menu, board, sequence numbers), so the screen loads again. */
+export const CAFE_CHOSEN = 4412;
 
 interface Peer {
   socket: WebSocket;
@@ -349,6 +352,10 @@ export function attachSocketServer(server: Server, deps: Deps, sessionMiddleware
     for (const peer of peers) if (peer.sessionId === sid) peer.socket.close(SWITCHED, 'switched person');
   };
   deps.sessions.on('switched', onSwitched);
+  const onCafeChosen = (sid: string) => {
+    for (const peer of peers) if (peer.sessionId === sid) peer.socket.close(CAFE_CHOSEN, 'café chosen');
+  };
+  deps.sessions.on('cafe-chosen', onCafeChosen);
   // News of sign-outs may have been missed (Redis was away, redis-hub.ts): every session is checked
   // against the table now, and once more a moment later, since a session must be missing twice to
   // close (a person switching deletes the row a moment before saying so).
@@ -385,6 +392,7 @@ export function attachSocketServer(server: Server, deps: Deps, sessionMiddleware
       server.off('upgrade', onUpgrade);
       deps.sessions.off('signed-out', onSignedOut);
       deps.sessions.off('switched', onSwitched);
+      deps.sessions.off('cafe-chosen', onCafeChosen);
       deps.sessions.off('resync', onResync);
       for (const peer of peers) peer.socket.close(code, reason);
       return new Promise((resolve) => wss.close(() => resolve()));

@@ -93,10 +93,11 @@ export function teamCommands(
       },
     },
     // an owner, for their own session: from the next request on it works on the chosen café, and
-    // its live sockets close as on a switch, so the screens reconnect to that café's events
+    // its live sockets close with a code that makes every tab of the session load again (its page
+    // holds the other café's menu, board and sequence numbers)
     chooseCafe: async ({ deps, user, req }, { locationId }) => {
       const cafe = await chooseCafe(deps.db, user, req.sessionID, locationId);
-      deps.sessions.emit('switched', req.sessionID);
+      deps.sessions.emit('cafe-chosen', req.sessionID);
       return { cafe };
     },
     acceptLink: async ({ deps, params, req }, { password }) => {

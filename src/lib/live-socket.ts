@@ -28,6 +28,8 @@ const MAX_BACKOFF_MS = 10_000;
 const SIGNED_OUT = 4401;
 /** The server's close code when this terminal switched person (server/realtime/socket-server.ts). */
 const SWITCHED = 4409;
+/** The server's close code when the owner chose another café of the group for this session. */
+const CAFE_CHOSEN = 4412;
 /** The server's close code for the oldest socket of a sign-in with too many (MAX_SOCKETS_PER_SESSION). */
 const TOO_MANY_SOCKETS = 4429;
 /** After that close: long enough that tabs beyond the limit don't take turns closing each other. */
@@ -104,6 +106,11 @@ export function connectLive<E = AnyLiveEvent, S = BoardSnapshot>(url: string, h:
       if (event.code === SIGNED_OUT) {
         // this session was signed out or timed out (here or on another tab): back to sign-in, no retry
         goToSignIn();
+        return;
+      }
+      if (event.code === CAFE_CHOSEN) {
+        // everything this page holds (menu, board, last seq) is the other café's: load it afresh
+        window.location.reload();
         return;
       }
       h.onState('offline');

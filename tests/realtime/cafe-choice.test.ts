@@ -1,6 +1,7 @@
 // The owner's live socket follows the café the session chose: a socket open at the choice is
-// closed as on a person switch (so the screen reconnects), and a socket opened afterwards says
-// hello at the chosen café's sequence and carries that café's events.
+// closed with 4412, on which every tab of the session loads its page again (a tab kept open would
+// hold the other café's board and resume from the other café's sequence number), and a socket
+// opened afterwards says hello at the chosen café's sequence and carries that café's events.
 import request from 'supertest';
 import { afterAll, afterEach, beforeAll, expect, it } from 'vitest';
 import { SECOND_CAFE_NAME } from '@seeds/demo-cafe';
@@ -29,7 +30,7 @@ it('the owner’s socket moves to the chosen café', async () => {
   await before.next((m) => m.type === 'hello', 'hello');
   const closed = new Promise<number>((resolve) => before.socket.once('close', (code) => resolve(code)));
   await request(server.url).post('/api/session/cafe').set('Cookie', cookie).send({ locationId: ropewalk }).expect(200);
-  expect(await closed).not.toBe(4401); // not "signed out": the screen reconnects
+  expect(await closed).toBe(4412); // not "signed out" (4401): the page loads again on the chosen café
 
   const client = await connect(server.url, cookie);
   const hello = await client.next((m) => m.type === 'hello', 'hello');

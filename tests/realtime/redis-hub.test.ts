@@ -11,7 +11,7 @@ import type { Hub } from '@server/realtime/hub';
 import { WRONG_PASSWORDS_PER_PERSON } from '@server/team/routes';
 import { startNginx } from '@scripts/services/nginx';
 import { startRedis, type RedisServer } from '@scripts/services/redis';
-import { DEMO_PASSWORD } from '@seeds/demo-cafe';
+import { DEMO_PASSWORD, SECOND_CAFE_NAME } from '@seeds/demo-cafe';
 import { FREE_FAILURES, PAIR_FAILURES_PER_HOUR } from '@/domain/sign-in-pacing';
 import { startTestServer, type TestServer } from '../support/test-server';
 import { sidOf } from '../api/helpers';
@@ -115,6 +115,19 @@ describe('live events across processes', () => {
     expect(await Promise.all([closedB, closedC])).toEqual([4401, 4401]);
     bystander.send({ type: 'ping' });
     expect((await bystander.next((m) => m.type === 'pong')).type).toBe('pong');
+  });
+
+  it('an owner choosing another café on one process makes that session’s screens on the others load again (4412)', async () => {
+    const cookie = await a.cookieFor('owner');
+    const onB = await connect(b.url, cookie);
+    await onB.next((m) => m.type === 'hello');
+    const closed = new Promise<number>((resolve) => onB.socket.once('close', (code) => resolve(code)));
+    const ropewalk = (await a.db('locations').where({ name: SECOND_CAFE_NAME }).first('id')).id as number;
+    await request(a.url).post('/api/session/cafe').set('Cookie', cookie).send({ locationId: ropewalk }).expect(200);
+    expect(await closed).toBe(4412);
+    // reconnecting on B, the session now works on Ropewalk: hello at Ropewalk's sequence
+    const again = await connect(b.url, cookie);
+    expect(await again.next((m) => m.type === 'hello')).toEqual({ type: 'hello', seq: await latestSeq(a.db, ropewalk) });
   });
 
   it('behind nginx (deploy/nginx.conf as it is): orders and a Bar through one address, every event in order', async () => {
