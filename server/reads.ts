@@ -9,8 +9,7 @@ import type { SessionUser } from '@/domain/types';
 import type { Api } from '@/reads';
 import { READ_NAMES, reads, wireOf, type ParsedInput, type ReadDef, type ReadOutput, type Reads } from '@/reads';
 import { refusal } from './auth/guards';
-import { groupCafes } from './auth/cafe-in-view';
-import { can } from '@/domain/roles';
+import { sessionView } from './auth/cafe-in-view';
 import { beansView } from './beans/beans';
 import { dialInView, lotShots } from './beans/dial-in';
 import type { Deps } from './deps';
@@ -37,16 +36,10 @@ export interface ReadContext<R> {
 }
 export type ReadHandler<R> = (ctx: ReadContext<R>, input: ParsedInput<R>) => Promise<ReadOutput<R>>;
 
-const publicUser = (u: SessionUser) => ({ id: u.id, name: u.name, role: u.role });
 
 /** One handler per read; a missing one, or one answering the wrong shape, fails the typecheck. */
 export const readHandlers: { [K in keyof Reads]: ReadHandler<Reads[K]> } = {
-  session: async ({ deps, user }) => {
-    if (!user) return { user: null, cafe: null, groupCafes: [] };
-    const cafes = await groupCafes(deps.db, user.locationId);
-    const cafe = cafes.find((c) => c.id === user.locationId) ?? null;
-    return { user: publicUser(user), cafe, groupCafes: can(user.role, 'switchCafe') ? cafes : [] };
-  },
+  session: ({ deps, user }) => sessionView(deps.db, user),
 
   menu: ({ deps, user }) => loadMenu(deps.db, user.locationId),
   tickets: async ({ deps, user }, { view }) => {

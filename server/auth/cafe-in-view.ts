@@ -3,7 +3,8 @@
 // its live socket) works on the chosen one. The choice lives in the session row, so a new
 // sign-in or a PIN switch starts again on the person's own café.
 import type { Knex } from 'knex';
-import type { CafeRef, SessionUser } from '@/domain/types';
+import type { CafeRef, SessionUser, SessionView } from '@/domain/types';
+import { can } from '@/domain/roles';
 import { dialectOf, jsonSetNumbersSql } from '@server/db/dialect';
 import { notFound } from '@server/domain-errors';
 
@@ -42,4 +43,12 @@ export async function chooseCafe(db: Knex, user: SessionUser, sid: string, locat
     .where({ sid })
     .update({ sess: db.raw(jsonSetNumbersSql(dialectOf(db), 'sess', [['cafeId', '?']]), [locationId]) });
   return cafe;
+}
+
+/** Who is signed in and on which café, with the cafés an owner may choose (GET /api/session, and the sign-in's answer). */
+export async function sessionView(db: Knex, user: SessionUser | undefined): Promise<SessionView> {
+  if (!user) return { user: null, cafe: null, groupCafes: [] };
+  const cafes = await groupCafes(db, user.locationId);
+  const cafe = cafes.find((c) => c.id === user.locationId) ?? null;
+  return { user: { id: user.id, name: user.name, role: user.role }, cafe, groupCafes: can(user.role, 'switchCafe') ? cafes : [] };
 }

@@ -3,13 +3,12 @@ import { ipKeyGenerator } from 'express-rate-limit';
 import type { createPassport } from './session';
 import { signInBody } from '@/domain/schemas';
 import type { SessionUser } from '@/domain/types';
+import { sessionView } from './cafe-in-view';
 import { knownTerminals } from './known-terminal';
 import { SignInThrottle, type Outcome, type SignInCounts } from './sign-in-throttle';
 import { HttpError, parse } from '@server/errors';
 import type { Clock, Deps } from '@server/deps';
 import type { ApiRoute } from '@server/routes';
-
-const publicUser = (u: SessionUser) => ({ id: u.id, name: u.name, role: u.role });
 
 /** The clock and the pause of sign-in pacing; tests pass a virtual pair, so nothing waits in real time. */
 export interface SignInPacing {
@@ -58,8 +57,11 @@ export function sessionRoutes(
             // on, still showing names and allergy notes meanwhile
             if (previous !== req.sessionID) deps.sessions.emit('signed-out', previous);
             terminals.remember(req, res, name);
-            res.json({ user: publicUser(user) });
-            resolve();
+            // the same answer as GET /api/session, so the screen needs no second read
+            sessionView(deps.db, user).then((view) => {
+              res.json(view);
+              resolve();
+            }, reject);
           });
         })(req, res, next);
       });

@@ -7,7 +7,7 @@ import { signInBody, type SignInBody } from '@/domain/schemas';
 import { Button } from '@/components/ui/button';
 import { FieldError } from '@/components/ui/field-error';
 import { sessionKeys } from '@/queries/session';
-import type { PublicUser } from '@/domain/types';
+import type { PublicUser, SessionView } from '@/domain/types';
 import { ApiError, http } from '@/lib/http';
 import { useHydrated } from '@/lib/use-hydrated';
 import type { RouteDeps } from './deps';
@@ -29,9 +29,11 @@ function SignIn() {
   const onSubmit = form.handleSubmit(async (values) => {
     try {
       // a plain route, not a command (src/commands.ts): passport answers it after the throttle's turn
-      const { user } = await http<{ user: PublicUser }>('POST', '/session', values);
+      // the same answer as GET /api/session, for someone who is signed in now
+      const session = await http<SessionView & { user: PublicUser }>('POST', '/session', values);
+      const { user } = session;
       qc.clear();
-      qc.setQueryData(sessionKeys.all, { user });
+      qc.setQueryData(sessionKeys.all, session);
       navigate(safeNext(params.get('next')) ?? HOME_SCREEN[user.role], { replace: true });
     } catch (err) {
       form.setError('root', { message: err instanceof ApiError ? err.message : 'Could not sign in' });

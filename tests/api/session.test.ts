@@ -53,11 +53,15 @@ describe('sign-in failures', () => {
 });
 
 describe('sign-in success', () => {
-  it('answers 200 with { user: { id, name, role } } and nothing else', async () => {
+  it('answers 200 as GET /api/session does (person, café, no group list for a barista) and nothing else', async () => {
     const res = await signInRaw({ username: 'barista', password: DEMO_PASSWORD });
     expect(res.status).toBe(200);
     const row = await server.db('users').where({ username: 'barista' }).first();
-    expect(res.body).toEqual({ user: { id: row.id, name: 'Jonah Reyes', role: 'barista' } });
+    expect(res.body).toEqual({
+      user: { id: row.id, name: 'Jonah Reyes', role: 'barista' },
+      cafe: { id: row.location_id, name: 'Harbour & Hearth Coffee' },
+      groupCafes: [],
+    });
     expect(JSON.stringify(res.body)).not.toContain(row.password_hash);
     expect(JSON.stringify(res.body)).not.toMatch(/\$2[aby]\$/);
     expect(JSON.stringify(res.body).toLowerCase()).not.toContain('password');

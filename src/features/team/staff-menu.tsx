@@ -1,9 +1,10 @@
-// Who is signed in, the other screens their role opens, and sign out.
+// Who is signed in, the other screens their role opens, an owner's café of the group, and sign out.
 import { useQuery } from '@tanstack/react-query';
 import { Link, useLocation } from 'react-router';
 import { can } from '@/domain/roles';
 import { SCREENS } from '@/domain/screens';
 import { sessionQuery } from '@/queries/session';
+import { CafeChoice } from './cafe-choice';
 import { SwitchPersonButton } from './switch-person-button';
 import { useApi } from '@/lib/api-context';
 import { cn } from '@/lib/cn';
@@ -50,6 +51,7 @@ export function StaffMenu({ dark = false }: { dark?: boolean }) {
           {s.label}
         </Link>
       ))}
+      {data && <CafeChoice session={data} dark={dark} />}
       <span className={cn('whitespace-nowrap', dark ? 'text-crema-100' : 'text-ink-900')}>{user.name}</span>
       <SwitchPersonButton className="min-h-11 rounded-lg border border-current px-3 font-semibold whitespace-nowrap" />
       <button type="button" onClick={onSignOut} className="min-h-11 rounded-lg border border-current px-3 font-semibold whitespace-nowrap">
