@@ -256,6 +256,7 @@ async function seedCafe(
   await trx('users').insert(
     cafe.staff.map((s) => ({
       location_id: locationId,
+      group_id: groupId,
       username: s.username,
       name: s.name,
       role: s.role,

@@ -13,6 +13,7 @@ import type { SessionUser } from '@/domain/types';
 import { PASSIVE_REQUEST_HEADER } from '@/reads';
 import { dialectOf, jsonNumberSql, jsonSetNumbersSql } from '@server/db/dialect';
 import { bool } from '@server/db/rows';
+import { conflict } from '@server/domain-errors';
 import { hashPassword, verifyPassword } from './passwords';
 import { inView } from './cafe-in-view';
 import { createSessionStore } from './session-store';
@@ -194,16 +195,37 @@ export async function findActiveUser(db: Knex, id: number): Promise<SessionUser 
   return u && bool(u.active) ? toSessionUser(u) : null;
 }
 
+/** People of this many groups may share a sign-in name before the rest are not checked at sign-in. */
+const SAME_NAME_GROUPS = 8;
+
+/**
+ * Whom a name and password sign in. A name is unique within a group of cafés, not across groups,
+ * so it may belong to people of several groups, and the password tells them apart; every one of
+ * their hashes is checked, and a dummy for a name nobody has, so a wrong password takes as long
+ * whoever holds the name in that group. Two active people whose name and password both match
+ * can't be told apart: refused (409) rather than one of them guessed.
+ */
+async function personSigningIn(db: Knex, username: string, password: string): Promise<Row<'users'> | null> {
+  const rows = await db('users').where({ username }).orderBy('id').limit(SAME_NAME_GROUPS);
+  if (rows.length === 0) {
+    await verifyPassword(password, await getDummyHash());
+    return null;
+  }
+  const matching: Row<'users'>[] = [];
+  for (const u of rows) if ((await verifyPassword(password, u.password_hash)) && bool(u.active)) matching.push(u);
+  if (matching.length > 1) {
+    throw conflict('This sign-in name and password belong to people of two café groups. Ask your owner for a sign-in name of your own.');
+  }
+  return matching[0] ?? null;
+}
+
 export function createPassport(db: Knex, clock: () => Date = () => new Date()) {
   const passport = new Passport();
   passport.use(
     new LocalStrategy(async (username, password, done) => {
       try {
-        const u = await db('users').where({ username }).first();
-        // Compare against a hash even for an unknown name, so timing doesn't tell names apart.
-        const ok = await verifyPassword(password, u?.password_hash ?? (await getDummyHash()));
-        if (!u || !ok || !bool(u.active)) return done(null, false);
-        return done(null, toSessionUser(u));
+        const u = await personSigningIn(db, username, password);
+        return done(null, u ? toSessionUser(u) : false);
       } catch (err) {
         return done(err);
       }

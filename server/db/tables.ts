@@ -352,6 +352,7 @@ export interface Tables {
     pin_failures: number;
     pin_failed_at: string | null;
     pin_locked_until: string | null;
+    group_id: number;
   };
 }
 

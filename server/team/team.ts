@@ -77,12 +77,16 @@ export async function addPerson(deps: Deps, owner: SessionUser, body: NewPersonB
   try {
     created = await runCommand(deps, async (trx) => {
       const now = deps.clock();
-      if (await trx('users').whereRaw('lower(username) = ?', [body.username]).first('id')) {
+      // names are unique within the group (the unique index decides when two owners add one at
+      // once); another group's names are never looked at, so none is ever told apart
+      const { group_id: groupId } = await trx('locations').where({ id: owner.locationId }).first('group_id');
+      if (await trx('users').where({ group_id: groupId }).whereRaw('lower(username) = ?', [body.username]).first('id')) {
         throw conflict(`The sign-in name "${body.username}" is taken`, [{ path: 'username', message: 'Taken: choose another' }]);
       }
       const [{ id: userId }] = await trx('users')
         .insert({
           location_id: owner.locationId,
+          group_id: groupId,
           username: body.username,
           name: body.name,
           email: body.email,

@@ -34,8 +34,17 @@ async function insertNorthCafe(db: TestServer['db']) {
     })
     .returning('id');
   const hash = await hashPassword('north-side-password');
+  const { group_id } = await db('locations').where({ id: locationId }).first('group_id');
   for (const role of ['cashier', 'lead']) {
-    await db('users').insert({ location_id: locationId, username: `north-${role}`, name: `North ${role}`, role, password_hash: hash, created_at: createdAt });
+    await db('users').insert({
+      location_id: locationId,
+      group_id,
+      username: `north-${role}`,
+      name: `North ${role}`,
+      role,
+      password_hash: hash,
+      created_at: createdAt,
+    });
   }
   const [{ id: categoryId }] = await db('menu_categories').insert({ location_id: locationId, name: 'Coffee' }).returning('id');
   const [{ id: itemId }] = await db('menu_items')

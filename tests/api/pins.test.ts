@@ -141,18 +141,16 @@ describe('switching person', () => {
     const cashier = await server.signIn('cashier');
     expect((await cashier.post('/api/session/switch').send({ userId: await idOf(server, 'cashier'), pin: DEMO_PINS.cashier })).status).toBe(409);
 
+    const otherGroup = await groupOfItsOwn(server.db, 'North Quay Espresso', time.clock().toISOString());
     const [{ id: otherCafe }] = await server
       .db('locations')
-      .insert({
-        name: 'North Quay Espresso',
-        created_at: time.clock().toISOString(),
-        group_id: await groupOfItsOwn(server.db, 'North Quay Espresso', time.clock().toISOString()),
-      })
+      .insert({ name: 'North Quay Espresso', created_at: time.clock().toISOString(), group_id: otherGroup })
       .returning('id');
     const [{ id: stranger }] = await server
       .db('users')
       .insert({
         location_id: otherCafe,
+        group_id: otherGroup,
         username: 'north-lead',
         name: 'North Lead',
         role: 'lead',

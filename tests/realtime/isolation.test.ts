@@ -42,6 +42,7 @@ async function insertNorthCafe(db: TestServer['db']) {
     .returning('id');
   await db('users').insert({
     location_id: locationId,
+    group_id: (await db('locations').where({ id: locationId }).first('group_id')).group_id,
     username: NORTH_LOGIN,
     name: 'Nell North',
     role: 'lead',
