@@ -6,7 +6,8 @@ import { HOME_SCREEN } from '@/domain/roles';
 import { signInBody, type SignInBody } from '@/domain/schemas';
 import { Button } from '@/components/ui/button';
 import { FieldError } from '@/components/ui/field-error';
-import { sessionKeys } from '@/queries/session';
+import { sessionQuery } from '@/queries/session';
+import { useApi } from '@/lib/api-context';
 import type { PublicUser } from '@/domain/types';
 import { ApiError, http } from '@/lib/http';
 import { useHydrated } from '@/lib/use-hydrated';
@@ -20,6 +21,7 @@ export function safeNext(next: string | null): string | null {
 
 function SignIn() {
   const qc = useQueryClient();
+  const api = useApi();
   const navigate = useNavigate();
   const [params] = useSearchParams();
   const form = useForm<SignInBody>({ resolver: zodResolver(signInBody), defaultValues: { username: '', password: '' } });
@@ -31,7 +33,9 @@ function SignIn() {
       // a plain route, not a command (src/commands.ts): passport answers it after the throttle's turn
       const { user } = await http<{ user: PublicUser }>('POST', '/session', values);
       qc.clear();
-      qc.setQueryData(sessionKeys.all, { user });
+      // the whole session (the café in view, an owner's group), not just the person: a screen
+      // reading the cached session must not find half of it
+      await qc.fetchQuery(sessionQuery(api));
       navigate(safeNext(params.get('next')) ?? HOME_SCREEN[user.role], { replace: true });
     } catch (err) {
       form.setError('root', { message: err instanceof ApiError ? err.message : 'Could not sign in' });
