@@ -7,6 +7,7 @@ import type { z } from 'zod';
 import type { BeansView, DialInView } from '@/domain/beans-schemas';
 import type { CardCheckView } from '@/domain/card-check';
 import type { DialInShotView } from '@/domain/dial-in';
+import type { GroupReportView } from '@/domain/group-report';
 import type { PlannedLane, ShotPlan } from '@/domain/lanes';
 import type { AdminMenuView } from '@/domain/menu-admin-view';
 import type { OutboxView } from '@/domain/outbox';
@@ -75,6 +76,9 @@ export const reads = {
   reportShift: read<ReportView>()({ path: '/reports/shift/:id', capability: 'viewReports', input: schema(schemas, 'idParam') }),
   /** Café-local dates, both included. */
   reportRange: read<ReportView>()({ path: '/reports/range', capability: 'viewReports', input: schema(schemas, 'reportRangeQuery') }),
+  /** Every café of the owner's group side by side over the same café-local dates; the owner's
+   * alone (switchCafe: the capability that spans the group's cafés). */
+  reportGroup: read<GroupReportView>()({ path: '/reports/group', capability: 'switchCafe', input: schema(schemas, 'reportRangeQuery') }),
   reportTickets: read<TicketHistoryPage>()({ path: '/reports/tickets', capability: 'viewReports', input: schema(schemas, 'ticketHistoryQuery') }),
   /** The card check of a café-local date (today when left out). */
   cardCheck: read<CardCheckView>()({ path: '/reports/cards', capability: 'viewReports', input: schema(cardCheckSchemas, 'cardCheckQuery') }),

@@ -6,6 +6,7 @@ import { businessDate } from '@/domain/business-date';
 import { loadReportLocation } from './scope';
 
 export { reportCsv, ticketsCsv } from './csv';
+export { groupReport } from './group';
 export { shiftReportEmail, type ReportEmail, type ReportMailLocation } from './email';
 export { rangeReport, shiftReport } from './report';
 export { ticketHistory, ticketRows, type TicketFilter, type TicketQuery } from './tickets';

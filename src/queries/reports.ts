@@ -9,6 +9,7 @@ export const reportKeys = {
   shifts: () => ['reports', 'shifts'] as const,
   report: (period: Exclude<PeriodChoice, { kind: 'today' }>) => ['reports', 'report', period] as const,
   tickets: (params: TicketHistoryQuery) => ['reports', 'tickets', params] as const,
+  group: (dates: { from: string; to: string }) => ['reports', 'group', dates.from, dates.to] as const,
 };
 
 export const reportShiftsQuery = (api: Api) => queryOptions({ queryKey: reportKeys.shifts(), queryFn: () => api.reportShifts(), staleTime: 30_000 });
@@ -23,3 +24,7 @@ export const reportQuery = (api: Api, period: Exclude<PeriodChoice, { kind: 'tod
 
 export const ticketHistoryQuery = (api: Api, params: TicketHistoryQuery) =>
   queryOptions({ queryKey: reportKeys.tickets(params), queryFn: () => api.reportTickets(params), staleTime: 15_000 });
+
+/** The owner's cafés side by side over some dates (a shift belongs to one café, so dates only). */
+export const groupReportQuery = (api: Api, dates: { from: string; to: string }) =>
+  queryOptions({ queryKey: reportKeys.group(dates), queryFn: () => api.reportGroup({ from: dates.from, to: dates.to }), staleTime: 15_000 });

@@ -1,5 +1,6 @@
 // Reports, for the lead and the owner: a shift's, today's or some dates' numbers, the bar's use
-// of milk and coffee, the day by the hour, and every ticket, with CSV downloads. Light theme.
+// of milk and coffee, the day by the hour, and every ticket, with CSV downloads; for an owner of a
+// group of cafés, the cafés side by side over the same dates. Light theme.
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { useMemo } from 'react';
 import { data, Link, useSearchParams, type LoaderFunctionArgs } from 'react-router';
@@ -8,9 +9,12 @@ import { buttonStyles } from '@/components/ui/button';
 import { HourlyTable, OverTargetList } from '@/features/reports/hourly-table';
 import { periodFrom, ticketParams, type PeriodChoice } from '@/features/reports/params';
 import { PeriodPicker, shiftLabel } from '@/features/reports/period-picker';
-import { reportQuery, reportShiftsQuery, ticketHistoryQuery } from '@/queries/reports';
+import { groupReportQuery, reportQuery, reportShiftsQuery, ticketHistoryQuery } from '@/queries/reports';
+import { sessionQuery } from '@/queries/session';
+import type { SessionView } from '@/domain/types';
 import { BarUse, PaymentMix, TopItems } from '@/components/report/report-breakdowns';
 import { ReportTiles } from '@/components/report/report-tiles';
+import { GroupTable } from '@/features/reports/group-table';
 import { TicketTable } from '@/features/reports/ticket-table';
 import { useApi } from '@/lib/api-context';
 import { queryString } from '@/lib/http';
@@ -33,6 +37,21 @@ function periodTitle(choice: PeriodChoice, report: ReportView): string {
   return choice.kind === 'today' ? `Today · ${days}` : days;
 }
 
+/** The dates the group's cafés are shown side by side over: only an owner with more than one
+ * café, and never for a shift (a shift is one café's). */
+function groupDates(session: SessionView, period: Period): { from: string; to: string } | null {
+  return session.groupCafes.length > 1 && period.kind === 'range' ? { from: period.from, to: period.to } : null;
+}
+
+function GroupSection({ dates, inView }: { dates: { from: string; to: string }; inView: string | null }) {
+  const { data: group } = useSuspenseQuery(groupReportQuery(useApi(), dates));
+  return (
+    <div data-testid="group-section">
+      <GroupTable group={group} inView={inView} />
+    </div>
+  );
+}
+
 function reportCsvHref(period: Period) {
   return period.kind === 'shift' ? `/api/reports/shift/${period.id}.csv` : `/api/reports/range.csv${queryString({ from: period.from, to: period.to })}`;
 }
@@ -41,11 +60,13 @@ function Reports() {
   const api = useApi();
   const [search] = useSearchParams();
   const { data: shifts } = useSuspenseQuery(reportShiftsQuery(api));
+  const { data: session } = useSuspenseQuery(sessionQuery(api));
   const choice = periodFrom(search);
   const period = periodOf(choice, shifts.today);
   const { data: report } = useSuspenseQuery(reportQuery(api, period));
   const params = ticketParams(report.period, search);
   const { data: tickets } = useSuspenseQuery(ticketHistoryQuery(api, params));
+  const group = groupDates(session, period);
   const multiDay = report.period.from !== report.period.to;
   const context = useMemo(
     () => ({ currency: report.currency, locale: report.locale, timeZone: report.timeZone, targetSeconds: report.targetSeconds, multiDay }),
@@ -71,6 +92,7 @@ function Reports() {
       </header>
       <main className="flex flex-col gap-4 p-5">
         <PeriodPicker choice={choice} shifts={shifts} dates={report.period} locale={report.locale} />
+        {group && <GroupSection dates={group} inView={session.cafe?.name ?? null} />}
         <ReportTiles report={report} />
         <div className="grid grid-cols-1 items-start gap-4 md:grid-cols-2 xl:grid-cols-3">
           <PaymentMix report={report} />
@@ -102,7 +124,10 @@ export const reportsRoute = (deps: RouteDeps) => ({
     await requireScreen(deps, request, SCREENS.reports.need);
     const search = new URL(request.url).searchParams;
     const shifts = await deps.queryClient.ensureQueryData(reportShiftsQuery(deps.api));
-    const report = await loadReport(deps, periodOf(periodFrom(search), shifts.today));
+    const period = periodOf(periodFrom(search), shifts.today);
+    const report = await loadReport(deps, period);
+    const group = groupDates(await deps.queryClient.ensureQueryData(sessionQuery(deps.api)), period);
+    if (group) await deps.queryClient.ensureQueryData(groupReportQuery(deps.api, group));
     await deps.queryClient.ensureQueryData(ticketHistoryQuery(deps.api, ticketParams(report.period, search)));
     return null;
   },
