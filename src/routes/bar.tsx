@@ -30,6 +30,8 @@ import { EspressoStrip } from '@/features/dial-in/espresso-strip';
 import { dialInQuery } from '@/queries/dial-in';
 import { SCREENS } from '@/domain/screens';
 import { SteamCaution } from '@/features/settings/steam-caution';
+import { AllDayLine } from '@/features/bar/all-day-line';
+import { NewTicketSound } from '@/features/bar/new-ticket-sound';
 
 function Bar() {
   const api = useApi();
@@ -45,6 +47,7 @@ function Bar() {
   const plan = useMemo(() => planBar(open, board.location.jugRules), [open, board.location]);
   const unit = board.location.volumeUnit ?? 'ml';
   const cards = plan.lanes.flatMap((l) => l.drinks);
+  const openIds = useMemo(() => open.map((t) => t.id), [open]);
   const jugLabel = new Map<number, string>();
   for (const lane of plan.lanes) lane.jugPlan.forEach((b, j) => b.drinkIds.forEach((id, k) => jugLabel.set(id, `Jug ${j + 1} · pour ${ordinal(k + 1)}`)));
 
@@ -80,10 +83,12 @@ function Bar() {
           </p>
         )}
         <LinkStateBadge state={link} className="ml-auto text-xl" />
+        <NewTicketSound ticketIds={openIds} />
         <StaffMenu dark />
       </header>
 
       <EspressoStrip seq={board.seq} />
+      <AllDayLine drinks={cards} />
 
       <LanesOffScreen side="left" lanes={plan.lanes.filter((l) => sight.offLeft.includes(l.key))} nowMs={now} targetSeconds={target} />
       <LanesOffScreen side="right" lanes={plan.lanes.filter((l) => sight.offRight.includes(l.key))} nowMs={now} targetSeconds={target} />
