@@ -36,7 +36,6 @@ export interface ReadContext<R> {
 }
 export type ReadHandler<R> = (ctx: ReadContext<R>, input: ParsedInput<R>) => Promise<ReadOutput<R>>;
 
-
 /** One handler per read; a missing one, or one answering the wrong shape, fails the typecheck. */
 export const readHandlers: { [K in keyof Reads]: ReadHandler<Reads[K]> } = {
   session: ({ deps, user }) => sessionView(deps.db, user),
