@@ -35,6 +35,7 @@ const WORDS: Record<string, [string, string]> = {
   'menu_items.station': ['Station', '@/domain/types'],
   'menu_items.texture': ['Texture', '@/domain/types'],
   'jugs.steam_for': ['SteamedTexture', '@/domain/jug-plan'],
+  'extras.bar_effect': ['BarEffect', '@/domain/drink-options'],
   'users.role': ['Role', '@/domain/roles'],
   'invitations.purpose': ['LinkPurpose', '@/domain/team-schemas'],
   'dial_in_shots.advice': ['AdviceCode', '@/domain/dial-in'],

@@ -1,6 +1,7 @@
 // The demo group: Harbour & Hearth Coffee, an invented quay-side café with invented staff, and
 // Ropewalk Coffee Bar, the group's second café with the same menu and staff of its own.
 // Loaded only into an empty database when SEED_DEMO is on.
+import type { BarEffect } from '@/domain/drink-options';
 import type { Knex } from 'knex';
 import { hashPassword, verifyPassword } from '@server/auth/passwords';
 import { adviseShot, doseRange, DEFAULT_SHOT_TARGETS } from '@/domain/dial-in';
@@ -145,29 +146,39 @@ const GROUPS = [
   { name: 'Syrup', selection: 'multi' },
   { name: 'Temperature', selection: 'single' },
   { name: 'Sweetness', selection: 'single' },
+  // drink options the bar honours (src/domain/drink-options.ts): one foam at a time
+  { name: 'Foam', selection: 'single' },
+  { name: 'Ice', selection: 'single' },
 ] as const;
 type GroupName = (typeof GROUPS)[number]['name'];
 
 // Hazelnut syrup records no hazelnut: the owner adds it if their syrup contains nut.
-const EXTRAS: { group: GroupName; name: string; price: number }[] = [
+const EXTRAS: { group: GroupName; name: string; price: number; barEffect?: BarEffect }[] = [
   { group: 'Coffee', name: 'Decaf', price: 50 },
+  { group: 'Coffee', name: 'Half-caf', price: 50 },
   { group: 'Syrup', name: 'Vanilla syrup', price: 60 },
   { group: 'Syrup', name: 'Caramel syrup', price: 60 },
   { group: 'Syrup', name: 'Hazelnut syrup', price: 60 },
   { group: 'Temperature', name: 'Extra hot', price: 0 },
+  { group: 'Temperature', name: 'Kids’ temp', price: 0, barEffect: 'kids_temp' },
   { group: 'Sweetness', name: 'Half sweet', price: 0 },
+  { group: 'Foam', name: 'Wet', price: 0, barEffect: 'wet' },
+  { group: 'Foam', name: 'More foam', price: 0, barEffect: 'more_foam' },
+  { group: 'Foam', name: 'Dry', price: 0, barEffect: 'dry' },
+  { group: 'Ice', name: 'Light ice', price: 0 },
+  { group: 'Ice', name: 'No ice', price: 0 },
 ];
 
 /** Which extras each drink offers. */
 const OFFERED: Record<string, GroupName[]> = {
   Espresso: ['Coffee', 'Syrup'],
   'Long black': ['Coffee', 'Syrup', 'Temperature'],
-  'Flat white': ['Coffee', 'Syrup', 'Temperature', 'Sweetness'],
-  Latte: ['Coffee', 'Syrup', 'Temperature', 'Sweetness'],
-  Cappuccino: ['Coffee', 'Syrup', 'Temperature', 'Sweetness'],
-  Mocha: ['Coffee', 'Syrup', 'Temperature', 'Sweetness'],
-  'Iced latte': ['Coffee', 'Syrup', 'Sweetness'],
-  'Chai latte': ['Syrup', 'Temperature', 'Sweetness'],
+  'Flat white': ['Coffee', 'Syrup', 'Temperature', 'Sweetness', 'Foam'],
+  Latte: ['Coffee', 'Syrup', 'Temperature', 'Sweetness', 'Foam'],
+  Cappuccino: ['Coffee', 'Syrup', 'Temperature', 'Sweetness', 'Foam'],
+  Mocha: ['Coffee', 'Syrup', 'Temperature', 'Sweetness', 'Foam'],
+  'Iced latte': ['Coffee', 'Syrup', 'Sweetness', 'Ice'],
+  'Chai latte': ['Syrup', 'Temperature', 'Sweetness', 'Foam'],
 };
 
 export async function isEmpty(db: Knex | Knex.Transaction): Promise<boolean> {
@@ -350,6 +361,7 @@ async function seedCafe(
       group_id: groupIds.get(m.group),
       name: m.name,
       price_cents: m.price,
+      bar_effect: m.barEffect ?? null,
       sort: i,
     })),
   );

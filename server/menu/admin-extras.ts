@@ -67,7 +67,13 @@ async function liveGroup(trx: Trx, locationId: number, groupId: number) {
   if (group.retired_at) throw conflict(`The group ${group.name} is retired`);
 }
 
-const extraRow = (b: ExtraBody) => ({ group_id: b.groupId, name: b.name, price_cents: b.priceCents, ingredients: JSON.stringify(b.ingredients) });
+const extraRow = (b: ExtraBody) => ({
+  group_id: b.groupId,
+  name: b.name,
+  price_cents: b.priceCents,
+  ingredients: JSON.stringify(b.ingredients),
+  bar_effect: b.barEffect,
+});
 
 export const createExtra = (deps: Deps, user: SessionUser, body: ExtraBody) =>
   menuCommand(deps, user, async ({ trx, locationId }) => {

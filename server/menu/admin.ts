@@ -85,6 +85,7 @@ export async function loadAdminMenu(db: Db, locationId: number): Promise<AdminMe
       name: m.name,
       priceCents: m.price_cents,
       ...contents(m),
+      barEffect: m.bar_effect ?? null,
       retired: m.retired_at !== null,
     })),
   };

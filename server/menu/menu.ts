@@ -27,6 +27,7 @@ export async function loadLocation(db: Db, locationId: number): Promise<Location
     jugWasteMl: l.jug_waste_ml,
     volumeUnit: l.volume_unit,
     temperatureUnit: l.temperature_unit,
+    milkGrowthPct: { flat: l.expansion_flat_pct, silky: l.expansion_silky_pct, foamy: l.expansion_foamy_pct },
   };
 }
 
@@ -135,6 +136,7 @@ export async function loadMenu(db: Db, locationId: number): Promise<MenuView> {
       name: m.name,
       priceCents: m.price_cents,
       allergens: allergens(m),
+      barEffect: m.bar_effect ?? null,
     })),
   };
 }

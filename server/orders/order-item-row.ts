@@ -19,6 +19,7 @@ export function orderItemRow(line: ResolvedLine, orderId: number, lineNo: number
     milk_ml: line.milkMl,
     dose_dg: line.doseDg,
     texture: line.texture,
+    kids_temp: line.kidsTemp,
     extras: JSON.stringify(line.extras),
     contains: JSON.stringify(line.contains),
     note: line.note,

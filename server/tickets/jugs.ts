@@ -11,13 +11,21 @@ import { bumpRows, inLaneOrder, openDrinks, startRows, ticketEvents, type DrinkR
 import type { Deps } from '@server/deps';
 import { runCommand } from '@server/events';
 import { loadJugRules } from '@server/menu/menu';
+import { bool } from '@server/db/rows';
 
 /**
  * Store these checked rows as one started jug and mark them being made. 409 when they can't be
  * one jug (src/domain/jug-commands.ts) or another screen started one of them first.
  */
 export async function openJug(trx: Knex.Transaction, user: SessionUser, rows: DrinkRow[], at: string): Promise<number> {
-  const candidates = inLaneOrder(rows).map((r) => ({ id: r.id, milkMl: r.milk_ml, texture: r.texture, milkId: r.milk_id ?? null, status: r.status }));
+  const candidates = inLaneOrder(rows).map((r) => ({
+    id: r.id,
+    milkMl: r.milk_ml,
+    texture: r.texture,
+    kidsTemp: bool(r.kids_temp),
+    milkId: r.milk_id ?? null,
+    status: r.status,
+  }));
   const start = jugToStart(candidates, await loadJugRules(trx, user.locationId));
   if (start.refused !== undefined) throw conflict(start.refused, start.drinkId === undefined ? undefined : { drinkId: start.drinkId });
   const { jug } = start;

@@ -33,6 +33,7 @@ function toDrink(r: DrinkRow): DrinkView {
     shots: r.shots,
     milkMl: r.milk_ml,
     texture: r.texture,
+    ...(bool(r.kids_temp) ? { kidsTemp: true } : {}),
     extras: json<{ name: string }[]>(r.extras, []).map((m) => m.name),
     note: r.note,
     contains: json<string[]>(r.contains, []),
@@ -57,6 +58,8 @@ function jugOf(r: DrinkRow): JugRef | null {
     coldMl: r.jug_cold_ml,
     wasteMl: r.jug_waste_ml,
     steamFor: r.jug_steam_for,
+    // a jug holds drinks of one temperature (jug-plan.ts), so any of its drinks tells it
+    ...(bool(r.kids_temp) ? { kidsTemp: true } : {}),
     fits: bool(r.jug_fits),
   };
 }

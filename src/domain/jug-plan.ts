@@ -16,9 +16,12 @@
 // - when no pitcher holds the next drink too, the jug closes and the next one starts;
 // - the jug is steamed for the foamiest texture in it and poured thinnest first (flat, then
 //   silky, then foamy), since the foam rises to the top as the jug empties;
+// - a jug is steamed to one temperature: a drink asked at kids' temperature (cooler) never shares
+//   a jug with drinks steamed as usual (src/domain/drink-options.ts);
 // - iced drinks take cold milk straight from the fridge: no jug.
 import type { Texture } from './types';
-import { cupSizeLabel, mlToUsFlOz, type VolumeUnit } from './units';
+import { KIDS_TEMP_C } from './drink-options';
+import { celsiusToFahrenheit, cupSizeLabel, mlToUsFlOz, type VolumeUnit } from './units';
 
 export type SteamedTexture = Exclude<Texture, 'cold'>;
 
@@ -44,6 +47,8 @@ export interface JugDrink {
   id: number;
   milkMl: number;
   texture: Texture | null;
+  /** Steamed cooler, for a child (a drink option); absent: as usual. */
+  kidsTemp?: boolean;
 }
 
 export interface Jug {
@@ -56,6 +61,8 @@ export interface Jug {
   wasteMl: number;
   /** Steam for this (the foamiest in the jug). */
   steamFor: SteamedTexture;
+  /** Steamed cooler: every drink in it asked for kids' temperature; absent: as usual. */
+  kidsTemp?: boolean;
   /** False only for a lone drink more than the largest pitcher holds by these rules. */
   fits: boolean;
   /** Pour order: thinnest texture first; oldest first within a texture. */
@@ -86,13 +93,24 @@ const pitcherFor = (milkMl: number, steamFor: SteamedTexture, rules: JugRules) =
  */
 export function makeJug(drinks: JugDrink[], rules: JugRules): Jug | null {
   if (drinks.length === 0 || rules.pitchers.length === 0 || drinks.length > rules.maxDrinks) return null;
+  const kidsTemp = !!drinks[0].kidsTemp;
+  if (drinks.some((d) => !!d.kidsTemp !== kidsTemp)) return null;
   const milkMl = drinks.reduce((sum, d) => sum + d.milkMl, 0);
   const steamFor = drinks.map((d) => d.texture as SteamedTexture).reduce(foamier);
   const pitcher = pitcherFor(milkMl, steamFor, rules);
   if (!pitcher && drinks.length > 1) return null;
   const chosen = pitcher ?? bySize(rules.pitchers)[rules.pitchers.length - 1];
   const coldMl = coldFor(chosen, milkMl, rules);
-  return { jugId: null, pitcher: chosen, coldMl, wasteMl: coldMl - milkMl, steamFor, fits: !!pitcher, drinkIds: pourOrder(drinks).map((d) => d.id) };
+  return {
+    jugId: null,
+    pitcher: chosen,
+    coldMl,
+    wasteMl: coldMl - milkMl,
+    steamFor,
+    ...(kidsTemp ? { kidsTemp } : {}),
+    fits: !!pitcher,
+    drinkIds: pourOrder(drinks).map((d) => d.id),
+  };
 }
 
 /** Thinnest first, then in the order given (oldest first). */
@@ -143,5 +161,6 @@ export function describeJug(b: Jug, unit: VolumeUnit = 'ml'): string {
   const n = b.drinkIds.length;
   const waste = b.wasteMl > 0 ? ` (${v(b.wasteMl)} waste)` : '';
   const over = b.fits ? '' : ' · too much for one pitcher: steam it in two goes';
-  return `${pitcher} pitcher · fill to ${v(b.coldMl)}${waste} · ${n} drink${n === 1 ? '' : 's'} · ${STRETCH[b.steamFor]}${over}`;
+  const kids = b.kidsTemp ? ` · kids' temperature: stop at about ${KIDS_TEMP_C} °C / ${Math.round(celsiusToFahrenheit(KIDS_TEMP_C))} °F` : '';
+  return `${pitcher} pitcher · fill to ${v(b.coldMl)}${waste} · ${n} drink${n === 1 ? '' : 's'} · ${STRETCH[b.steamFor]}${kids}${over}`;
 }

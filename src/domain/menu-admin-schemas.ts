@@ -1,6 +1,7 @@
 // The menu editor's request bodies (what the routes parse) and its forms (what the owner types:
 // grams and prices as text), written once. The forms' rules are the bodies' rules, so the screen
 // and the server refuse the same things with the same words.
+import { BAR_EFFECTS } from './drink-options';
 import { z } from 'zod';
 import { inOrder, INGREDIENT_NAMES } from './ingredients';
 import { parseAmountToCents } from './money';
@@ -79,6 +80,8 @@ export const extraBody = z.strictObject({
   name: name(MENU_LIMITS.names.extra),
   priceCents: cents,
   ingredients: ingredientList.default([]),
+  /** What it does at the bar (src/domain/drink-options.ts); null or left out: nothing. */
+  barEffect: z.enum(BAR_EFFECTS).nullable().default(null),
 });
 export type ExtraBody = z.infer<typeof extraBody>;
 
@@ -248,8 +251,8 @@ export const milkForm = z
 export type MilkFormValues = z.input<typeof milkForm>;
 
 export const extraForm = z
-  .object({ name: name(MENU_LIMITS.names.extra), price: amount, ingredients: z.array(z.string()) })
-  .transform((f) => ({ name: f.name, priceCents: f.price, ingredients: inOrder(f.ingredients) }));
+  .object({ name: name(MENU_LIMITS.names.extra), price: amount, ingredients: z.array(z.string()), barEffect: z.enum([...BAR_EFFECTS, '']) })
+  .transform((f) => ({ name: f.name, priceCents: f.price, ingredients: inOrder(f.ingredients), barEffect: f.barEffect === '' ? null : f.barEffect }));
 export type ExtraFormValues = z.input<typeof extraForm>;
 
 export const extraGroupForm = extraGroupBody.extend({ itemIds: z.array(z.number()) });

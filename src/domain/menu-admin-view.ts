@@ -1,4 +1,5 @@
 // The menu as the owner edits it: everything, retired things included, in display order.
+import type { BarEffect } from './drink-options';
 import type { AllergenList } from './allergens';
 import type { Station, Texture } from './types';
 import type { TemperatureUnit } from './units';
@@ -75,6 +76,8 @@ export interface AdminExtra {
   ingredients: string[];
   /** Worked out from the ingredients for the café's list. */
   allergens: string[];
+  /** What it does at the bar (src/domain/drink-options.ts); null: nothing. */
+  barEffect: BarEffect | null;
   retired: boolean;
 }
 

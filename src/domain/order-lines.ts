@@ -2,6 +2,7 @@
 // uses it to price every order (prices are never taken from the client); the Counter uses it
 // to show a running price before sending.
 import type { OrderLineInput } from './schemas';
+import { withBarEffects } from './drink-options';
 import type { MenuView, MilkView, SizeView, Station, Texture } from './types';
 
 export interface ResolvedLine {
@@ -17,6 +18,8 @@ export interface ResolvedLine {
   /** Allergens the drink itself contains: the item's, its milk's and its extras'. */
   contains: string[];
   texture: Texture | null;
+  /** Steamed cooler, in a jug of its own (a drink option); texture and milk already follow the options. */
+  kidsTemp: boolean;
   extras: { id: number; name: string; priceCents: number }[];
   note: string | null;
   priceCents: number;
@@ -75,6 +78,9 @@ export function resolveLine(menu: MenuView, input: OrderLineInput): LineResult {
   // A milk costs extra only as a swap: the drink's own milk is in its price (a drink made with oat
   // by default is sold at its menu price). Common practice for alternative-milk charges.
   const milkCharge = milk && milk.id !== item.defaultMilkId ? milk.upchargeCents : 0;
+  // drink options change how the bar makes it: texture, cold milk, a cooler jug
+  const effects = ids.flatMap((id) => menu.extras.find((m) => m.id === id)?.barEffect ?? []);
+  const made = withBarEffects({ texture: item.texture, milkMl: item.takesMilk ? (size?.milkMl ?? 0) : 0 }, effects, menu.location.milkGrowthPct);
   const priceCents = base + milkCharge + extraShots * menu.location.extraShotCents + extras.reduce((sum, m) => sum + m.priceCents, 0);
 
   return {
@@ -86,10 +92,11 @@ export function resolveLine(menu: MenuView, input: OrderLineInput): LineResult {
       size,
       milk,
       shots,
-      milkMl: item.takesMilk ? (size?.milkMl ?? 0) : 0,
+      milkMl: made.milkMl,
       doseDg: size && size.shots > 0 ? Math.round((size.doseDg / size.shots) * shots) : 0,
       contains: [...new Set([...item.allergens, ...(milk?.allergens ?? []), ...ids.flatMap((id) => menu.extras.find((m) => m.id === id)?.allergens ?? [])])],
-      texture: item.texture,
+      texture: made.texture,
+      kidsTemp: made.kidsTemp,
       extras: extras.map(({ id, name, priceCents }) => ({ id, name, priceCents })),
       note: input.note ? input.note : null,
       priceCents,

@@ -1,5 +1,6 @@
 // Shapes the API answers with and the screens render. Shared by client and server.
-import type { Jug, JugRules } from './jug-plan';
+import type { BarEffect } from './drink-options';
+import type { Jug, JugRules, SteamedTexture } from './jug-plan';
 import type { Role } from './roles';
 import type { TemperatureUnit, VolumeUnit } from './units';
 
@@ -59,6 +60,8 @@ export interface LocationView {
    * with `?? 'ml'` / `?? 'C'` where a hand-made fixture leaves them out. */
   volumeUnit?: VolumeUnit;
   temperatureUnit?: TemperatureUnit;
+  /** How much cold milk grows when steamed, per texture, in %: drink options keep the cup full with it. */
+  milkGrowthPct?: Record<SteamedTexture, number>;
 }
 
 export interface MilkView {
@@ -95,6 +98,8 @@ export interface ExtraView {
   priceCents: number;
   /** Worked out from its ingredients for the café's list. */
   allergens: string[];
+  /** What it does at the bar (src/domain/drink-options.ts); null: nothing beyond being named on the card. */
+  barEffect?: BarEffect | null;
 }
 
 export interface ExtraGroupView {
@@ -154,6 +159,9 @@ export interface DrinkView {
   shots: number;
   milkMl: number;
   texture: Texture | null;
+  /** Asked at kids' temperature: its jug is steamed cooler, apart from the rest (a drink option);
+   * absent (a drink sold before options existed): as usual. */
+  kidsTemp?: boolean;
   extras: string[];
   note: string | null;
   /** Allergens the drink itself contains (its milk, extras, the item). */

@@ -401,3 +401,24 @@ describe('planJugs (properties)', () => {
     });
   });
 });
+
+describe("kids' temperature", () => {
+  const kids = (milkMl: number): JugDrink => ({ ...d(milkMl, 'silky'), kidsTemp: true });
+
+  it('a drink steamed cooler never shares a jug with drinks steamed as usual, and the plan stays oldest first', () => {
+    const [a, b, c, e] = [d(100, 'silky'), kids(100), kids(100), d(100, 'silky')];
+    const jugs = planJugs([a, b, c, e], RULES);
+    // by milk alone all four fit one large jug; by temperature they go usual | kids | usual
+    expect(jugs.map((j) => j.drinkIds)).toEqual([[a.id], [b.id, c.id], [e.id]]);
+    expect(jugs.map((j) => !!j.kidsTemp)).toEqual([false, true, false]);
+    expect(makeJug([a, b], RULES)).toBeNull();
+  });
+
+  it('the jug line says how cool to stop, in both scales', () => {
+    const [only] = planJugs([kids(100)], RULES);
+    // 50 °C = 122 °F (°F = 1.8 × °C + 32)
+    expect(describeJug(only)).toBe(
+      "300 ml pitcher · fill to 120 ml (20 ml waste) · 1 drink · medium stretch (silky) · kids' temperature: stop at about 50 °C / 122 °F",
+    );
+  });
+});

@@ -265,3 +265,37 @@ describe('resolveLine: extras by group', () => {
     expect(resolveLine(menu, { menuItemId: itemId, extraIds: [MINT, CINNAMON] }).ok).toBe(true);
   });
 });
+
+describe('resolveLine: drink options', () => {
+  const FOAM = 43;
+  const [DRY, KIDS] = [33, 34];
+  function optionsMenu(growth?: { flat: number; silky: number; foamy: number }): MenuView {
+    const menu = testMenu();
+    return {
+      ...menu,
+      location: { ...menu.location, ...(growth ? { milkGrowthPct: growth } : {}) },
+      items: menu.items.map((i) => (i.id === LATTE ? { ...i, extraGroupIds: [...i.extraGroupIds, FOAM] } : i)),
+      extraGroups: [...menu.extraGroups, { id: FOAM, name: 'How it’s made', selection: 'multi', required: false }],
+      extras: [
+        ...menu.extras,
+        { id: DRY, groupId: FOAM, groupName: 'How it’s made', name: 'Dry', priceCents: 0, allergens: [], barEffect: 'dry' },
+        { id: KIDS, groupId: FOAM, groupName: 'How it’s made', name: 'Kids’ temp', priceCents: 0, allergens: [], barEffect: 'kids_temp' },
+      ],
+    };
+  }
+
+  it('a dry latte is stored foamy with less milk, priced as a latte', () => {
+    const plain = ok(resolveLine(optionsMenu(), { menuItemId: LATTE }));
+    const dry = ok(resolveLine(optionsMenu(), { menuItemId: LATTE, extraIds: [DRY] }));
+    expect(plain).toMatchObject({ texture: 'silky', milkMl: 240, kidsTemp: false });
+    // 240 × 1.25 / 1.75 = 171.4, × 0.8 = 137.1 → 137 ml (default growth 15 / 25 / 75 %)
+    expect(dry).toMatchObject({ texture: 'foamy', milkMl: 137, kidsTemp: false, priceCents: plain.priceCents });
+    expect(dry.extras.map((e) => e.name)).toEqual(['Dry']);
+  });
+
+  it('uses the café’s milk growth, and marks kids’ temperature', () => {
+    // growth 10 / 30 / 60: 240 × 1.3 / 1.6 = 195, × 0.8 = 156 ml
+    expect(ok(resolveLine(optionsMenu({ flat: 10, silky: 30, foamy: 60 }), { menuItemId: LATTE, extraIds: [DRY] })).milkMl).toBe(156);
+    expect(ok(resolveLine(optionsMenu(), { menuItemId: LATTE, extraIds: [KIDS] }))).toMatchObject({ texture: 'silky', milkMl: 240, kidsTemp: true });
+  });
+});

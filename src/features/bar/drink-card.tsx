@@ -123,6 +123,11 @@ export function DrinkCard({ card, unit, nowMs, targetSeconds, keyNumber, jugLabe
           {jugLabel}
         </p>
       )}
+      {card.kidsTemp && (
+        <p data-testid="kids-temp" className="mt-1 w-fit rounded-md border-2 border-dashed border-crema-100 px-2 text-2xl font-semibold">
+          Kids' temperature: steam cooler, in its own jug
+        </p>
+      )}
       {card.note && <p className="mt-1 text-2xl font-semibold text-alert-ink">Note: {card.note}</p>}
       <WhoLine takenBy={card.takenBy} startedBy={card.status === 'making' ? card.startedBy : null} />
       <div className="mt-2 flex items-center gap-3">

@@ -4,6 +4,7 @@ import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
 import { extraForm, extraGroupForm, type ExtraFormValues, type ExtraGroupBody, type ExtraGroupFormValues } from '@/domain/menu-admin-schemas';
 import type { Ingredient } from '@/domain/ingredients';
+import { BAR_EFFECT_LABEL, BAR_EFFECTS, type BarEffect } from '@/domain/drink-options';
 import type { AdminMenuView, AdminExtra, AdminExtraGroup } from '@/domain/menu-admin-view';
 import { centsToAmountText } from '@/domain/menu-units';
 import { Button } from '@/components/ui/button';
@@ -127,11 +128,11 @@ function ExtraForm({
   notify: Notify;
   onClose(): void;
 }) {
-  const form = useForm<ExtraFormValues, unknown, { name: string; priceCents: number; ingredients: Ingredient[] }>({
+  const form = useForm<ExtraFormValues, unknown, { name: string; priceCents: number; ingredients: Ingredient[]; barEffect: BarEffect | null }>({
     resolver: zodResolver(extraForm),
     defaultValues: extra
-      ? { name: extra.name, price: centsToAmountText(extra.priceCents), ingredients: extra.ingredients }
-      : { name: '', price: '0.00', ingredients: [] },
+      ? { name: extra.name, price: centsToAmountText(extra.priceCents), ingredients: extra.ingredients, barEffect: extra.barEffect ?? '' }
+      : { name: '', price: '0.00', ingredients: [], barEffect: '' },
   });
   const [problem, setProblem] = useState<string | null>(null);
   const errors = form.formState.errors;
@@ -142,7 +143,7 @@ function ExtraForm({
       notify(`${extra ? 'Saved' : 'Added'} ${body.name}.`);
       onClose();
     } catch (err) {
-      setProblem(showServerErrors(err, form.setError, ['name', 'price', 'ingredients']));
+      setProblem(showServerErrors(err, form.setError, ['name', 'price', 'ingredients', 'barEffect']));
     }
   });
   return (
@@ -163,6 +164,22 @@ function ExtraForm({
           {...form.register('price')}
           id="extra-price"
         />
+        <label className="flex flex-col gap-1 text-base font-semibold" htmlFor="extra-bar-effect">
+          At the bar
+          <select
+            id="extra-bar-effect"
+            {...form.register('barEffect')}
+            className="min-h-11 max-w-md rounded-lg border border-steam-200 bg-white px-3 font-normal"
+          >
+            <option value="">Nothing more: named on the Bar card</option>
+            {BAR_EFFECTS.map((e) => (
+              <option key={e} value={e}>
+                {BAR_EFFECT_LABEL[e]}
+              </option>
+            ))}
+          </select>
+          <span className="text-sm font-normal text-ink-600">Changes the drink's milk and jug as the Bar makes it; the price stays as set above.</span>
+        </label>
         <Controller
           control={form.control}
           name="ingredients"
