@@ -2,6 +2,7 @@
 // today's order count as the day's own report says it, and the range's total; downloads the days
 // as CSV; on a phone the table scrolls in its own box. Today alone shows no day-by-day table.
 import { readFile } from 'node:fs/promises';
+import AxeBuilder from '@axe-core/playwright';
 import { expect, errorsOf, apiAs, pageAs, test } from './fixtures';
 import { shot } from './shots';
 
@@ -56,6 +57,9 @@ test('a lead reads a week day by day, with today’s orders, and downloads it as
   const toSection = () => page.getByRole('heading', { name: 'Day by day' }).evaluate((h) => h.scrollIntoView({ block: 'start' }));
   await toSection();
   await page.screenshot(shot('report-days'));
+  // the new section alone against WCAG 2.1 AA (a11y-axe.spec.ts opens Reports for today, without it)
+  const axe = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).include('[aria-labelledby="panel-day-by-day"]').analyze();
+  expect(axe.violations.map((v) => `${v.impact} ${v.id}: ${v.help}`)).toEqual([]);
 
   const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('days-csv').click()]);
   expect(download.suggestedFilename()).toBe(`jugline-days-${from}_to_${today}.csv`);
