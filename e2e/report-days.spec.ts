@@ -1,6 +1,7 @@
 // Reports day by day: a lead picks the last seven days, today included, sees a row per date with
 // today's order count as the day's own report says it, and the range's total; downloads the days
-// as CSV; on a phone the table scrolls in its own box. Today alone shows no day-by-day table.
+// as CSV; on a phone the table scrolls in its own box. Today alone shows no day-by-day table, and
+// a range past a year says it is too long for one.
 import { readFile } from 'node:fs/promises';
 import AxeBuilder from '@axe-core/playwright';
 import { expect, errorsOf, apiAs, pageAs, test } from './fixtures';
@@ -77,4 +78,11 @@ test('a lead reads a week day by day, with today’s orders, and downloads it as
   expect(await page.evaluate(() => document.documentElement.scrollWidth <= document.documentElement.clientWidth)).toBe(true);
   await toSection();
   await page.screenshot(shot('report-days-phone'));
+
+  // past a year the range is shown whole, and the page says why there are no days
+  await page.goto(`/reports?from=${daysBefore(today, 400)}&to=${today}`);
+  await expect(page.getByTestId('days-too-long')).toContainText('at most 366 days');
+  await expect(page.getByTestId('report-days')).toHaveCount(0);
+  await expect(page.getByTestId('tile-orders')).toBeVisible();
+  expect(errorsOf(page)).toEqual([]);
 });
