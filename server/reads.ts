@@ -20,7 +20,7 @@ import { loadMenu } from './menu/menu';
 import { findOrderInLocation, listOrders, loadOrder } from './orders/order-views';
 import { waitNowForCounter } from './orders/quotes';
 import { cardCheck } from './payments/card-check';
-import { groupReport, rangeReport, reportShifts, shiftReport, ticketHistory } from './reports';
+import { groupReport, rangeReport, reportDays, reportShifts, shiftReport, ticketHistory } from './reports';
 import type { ApiRoute } from './routes';
 import { loadSettings } from './settings/settings';
 import { pulse } from './shifts/pulse';
@@ -63,6 +63,7 @@ export const readHandlers: { [K in keyof Reads]: ReadHandler<Reads[K]> } = {
   reportShifts: ({ deps, user }) => reportShifts(deps.db, user.locationId, deps.clock()),
   reportShift: ({ deps, user }, { id }) => shiftReport(deps.db, user.locationId, id, deps.clock()),
   reportRange: ({ deps, user }, { from, to }) => rangeReport(deps.db, user.locationId, from, to, deps.clock()),
+  reportDays: ({ deps, user }, { from, to }) => reportDays(deps.db, user.locationId, from, to, deps.clock()),
   reportGroup: ({ deps, user }, { from, to }) => groupReport(deps.db, user.locationId, from, to, deps.clock()),
   reportTickets: ({ deps, user }, query) => ticketHistory(deps.db, user.locationId, query),
   cardCheck: ({ deps, user }, { date }) => cardCheck(deps, user.locationId, date),

@@ -14,6 +14,7 @@ import type { OutboxView } from '@/domain/outbox';
 import type { PickupBoard } from '@/domain/pickup';
 import type { PulseView } from '@/domain/pulse';
 import type { ReportShiftsView, ReportView, TicketHistoryPage } from '@/domain/reports';
+import type { ReportDaysView } from '@/domain/report-days';
 import type { Capability } from '@/domain/roles';
 import type { SettingsPage } from '@/domain/settings-schemas';
 import type { SwitchPerson, TeamView, WelcomeView } from '@/domain/team-schemas';
@@ -76,6 +77,8 @@ export const reads = {
   reportShift: read<ReportView>()({ path: '/reports/shift/:id', capability: 'viewReports', input: schema(schemas, 'idParam') }),
   /** Café-local dates, both included. */
   reportRange: read<ReportView>()({ path: '/reports/range', capability: 'viewReports', input: schema(schemas, 'reportRangeQuery') }),
+  /** The range's café-local dates day by day (a row each, zeros for a date without orders) and its total; at most a year. */
+  reportDays: read<ReportDaysView>()({ path: '/reports/days', capability: 'viewReports', input: schema(schemas, 'reportDaysQuery') }),
   /** Every café of the owner's group side by side over the same café-local dates; the owner's
    * alone (switchCafe: the capability that spans the group's cafés). */
   reportGroup: read<GroupReportView>()({ path: '/reports/group', capability: 'switchCafe', input: schema(schemas, 'reportRangeQuery') }),

@@ -4,6 +4,7 @@
 // café's wall clock with its offset and its words are the screen's; the report's stay ISO-8601 UTC.
 import { toCsv } from '@/domain/csv';
 import { hourLabel, type ReportView, type TicketHistoryRow } from '@/domain/reports';
+import type { DayFigures, ReportDaysView } from '@/domain/report-days';
 import { PERCENTILE_METHOD } from '@/domain/stats';
 import { localIsoWithOffset, PAYMENT_METHOD_WORDS, PAYMENT_STATUS_WORDS, TICKET_STATUS_WORDS } from '@/domain/ticket-words';
 
@@ -112,4 +113,46 @@ export function reportCsv(report: ReportView): string {
     ],
     rows,
   );
+}
+
+/** Day by day as a table: a header row, a row per date (oldest first), then the range's total. */
+export function reportDaysCsv(view: ReportDaysView): string {
+  const cur = view.currency;
+  const columns = [
+    { key: 'date', header: 'Date' },
+    { key: 'orders', header: 'Orders' },
+    { key: 'drinks', header: 'Drinks' },
+    { key: 'gross', header: `Gross (${cur})` },
+    { key: 'tax', header: `Tax (${cur})` },
+    { key: 'discount', header: `Discounts (${cur})` },
+    { key: 'refunds', header: `Refunds (${cur})` },
+    { key: 'net', header: `Net (${cur})` },
+    { key: 'cash', header: `Cash (${cur})` },
+    { key: 'card', header: `Card (${cur})` },
+    { key: 'median', header: 'Median wait (s)' },
+    { key: 'p90', header: 'p90 wait (s)' },
+    { key: 'overTarget', header: `Over ${view.targetSeconds} s target` },
+    { key: 'timed', header: 'Tickets timed' },
+    { key: 'shots', header: 'Shots pulled' },
+  ];
+  // seconds to one decimal, as the report's CSV writes them
+  const s1 = (x: number | null) => (x === null ? null : Math.round(x * 10) / 10);
+  const row = (date: string, f: DayFigures) => ({
+    date,
+    orders: f.orders,
+    drinks: f.drinks,
+    gross: amount(f.grossCents),
+    tax: amount(f.taxCents),
+    discount: amount(f.discountCents),
+    refunds: amount(f.refundsCents),
+    net: amount(f.netCents),
+    cash: amount(f.cashCents),
+    card: amount(f.cardCents),
+    median: s1(f.medianWaitSeconds),
+    p90: s1(f.p90WaitSeconds),
+    overTarget: f.overTargetCount,
+    timed: f.timedTickets,
+    shots: f.shotsPulled,
+  });
+  return toCsv(columns, [...view.days.map((d) => row(d.date, d)), row('Total', view.total)]);
 }

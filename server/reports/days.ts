@@ -13,6 +13,7 @@ import type { Knex } from 'knex';
 import { dialectOf, lockReportDays, rawRows } from '@server/db/dialect';
 import { json } from '@server/db/rows';
 import type { HourRow, OverTargetTicket, ReportView } from '@/domain/reports';
+import { dayFigures, type ReportDaysView } from '@/domain/report-days';
 import { median, summarizeWaits } from '@/domain/stats';
 import { businessDate } from '@/domain/business-date';
 import { localHourSql } from './local-hours';
@@ -46,7 +47,7 @@ export interface DayPartial {
   longest: [number, number, string, number][];
 }
 
-const emptyPartial = (tz: string): DayPartial => ({
+export const emptyPartial = (tz: string): DayPartial => ({
   v: PAYLOAD_VERSION,
   tz,
   hours: [],
@@ -307,5 +308,17 @@ export function mergeDays(
     coffeeUsedDg: t.dose,
     topItems: [...items.values()].sort((a, b) => b.count - a.count || b.cents - a.cents || a.item.localeCompare(b.item)).slice(0, TOP_ITEMS),
     hourly: [...hours.values()].filter((h) => h.orders > 0).sort((a, b) => a.hour - b.hour),
+  };
+}
+
+/**
+ * Day by day from the partials (in date order): each date's row merged from its partial alone, as
+ * that date's own range report is, and the total merged from all of them, as the range's report
+ * is (a median of the whole range, never one of the days' medians).
+ */
+export function dayByDay(parts: DayPartial[], dates: string[], targetSeconds: number): Pick<ReportDaysView, 'days' | 'total'> {
+  return {
+    days: dates.map((date, i) => ({ date, ...dayFigures(mergeDays([parts[i]], [date], targetSeconds)) })),
+    total: dayFigures(mergeDays(parts, dates, targetSeconds)),
   };
 }

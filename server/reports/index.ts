@@ -5,10 +5,10 @@ import type { ReportShiftsView } from '@/domain/reports';
 import { businessDate } from '@/domain/business-date';
 import { loadReportLocation } from './scope';
 
-export { reportCsv, ticketsCsv } from './csv';
+export { reportCsv, reportDaysCsv, ticketsCsv } from './csv';
 export { groupReport } from './group';
 export { shiftReportEmail, type ReportEmail, type ReportMailLocation } from './email';
-export { rangeReport, shiftReport } from './report';
+export { rangeReport, reportDays, shiftReport } from './report';
 export { ticketHistory, ticketRows, type TicketFilter, type TicketQuery } from './tickets';
 
 /** The café's most recent shifts, newest first, and its date today. */

@@ -5,8 +5,9 @@
 import type { Knex } from 'knex';
 import { dialectOf, rawRows } from '@server/db/dialect';
 import { inHourOrder, type HourRow, type OverTargetTicket, type ReportView } from '@/domain/reports';
+import type { ReportDaysView } from '@/domain/report-days';
 import { median, summarizeWaits } from '@/domain/stats';
-import { datesBetween, mergeDays, rangeDays } from './days';
+import { dayByDay, datesBetween, mergeDays, rangeDays } from './days';
 import { localHour, localHourSql } from './local-hours';
 import { moneyView, PAID, rangeScope, shiftScope, type MoneyTotals, type Scope } from './scope';
 import { HAS_WAIT, n, waitSeconds, type LineRow, type MoneyRow, type WaitRow } from './sql';
@@ -34,6 +35,25 @@ export async function rangeReport(db: Knex, locationId: number, fromDate: string
     timeZone: s.location.timeZone,
     targetSeconds: s.targetSeconds,
     ...mergeDays(parts, datesBetween(fromDate, toDate), s.targetSeconds),
+  };
+}
+
+/**
+ * The range from..to day by day: a row per café-local date (a date without orders as zeros), each
+ * what the range report of that date alone answers, and the whole range's figures. One reading of
+ * the days' partials (./days.ts) serves every row and the total.
+ */
+export async function reportDays(db: Knex, locationId: number, fromDate: string, toDate: string, now = new Date()): Promise<ReportDaysView> {
+  const s = await rangeScope(db, locationId, fromDate, toDate);
+  const parts = await rangeDays(db, s.location, fromDate, toDate, now);
+  return {
+    from: fromDate,
+    to: toDate,
+    currency: s.location.currency,
+    locale: s.location.locale,
+    timeZone: s.location.timeZone,
+    targetSeconds: s.targetSeconds,
+    ...dayByDay(parts, datesBetween(fromDate, toDate), s.targetSeconds),
   };
 }
 

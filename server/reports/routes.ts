@@ -1,13 +1,13 @@
-// Reports for the lead and the owner: the CSV downloads of a shift's or a date range's numbers and
-// of the ticket history (plain routes: they answer a file, not JSON), and "settle" of the day's card
-// check (a command, src/commands.ts). The reports themselves are reads (src/reads.ts).
+// Reports for the lead and the owner: the CSV downloads of a shift's or a date range's numbers, of
+// a range day by day and of the ticket history (plain routes: they answer a file, not JSON), and
+// "settle" of the day's card check (a command, src/commands.ts). The reports themselves are reads (src/reads.ts).
 import type { Response } from 'express';
-import { idParam, reportRangeQuery, ticketCsvQuery } from '@/domain/schemas';
+import { idParam, reportDaysQuery, reportRangeQuery, ticketCsvQuery } from '@/domain/schemas';
 import { userOf } from '@server/auth/guards';
 import { parse } from '@server/errors';
 import { settleCardDay } from '@server/payments/card-check';
 import type { Deps } from '@server/deps';
-import { rangeReport, reportCsv, shiftReport, ticketRows, ticketsCsv } from './index';
+import { rangeReport, reportCsv, reportDays, reportDaysCsv, shiftReport, ticketRows, ticketsCsv } from './index';
 import { loadReportLocation } from './scope';
 import type { ApiRoute } from '@server/routes';
 import type { CommandHandlers } from '@server/commands';
@@ -42,6 +42,15 @@ export function reportRoutes(deps: Deps): ApiRoute[] {
       handler: async (req, res) => {
         const { from, to } = parse(reportRangeQuery, req.query, 'query');
         sendCsv(res, `jugline-report-${span(from, to)}.csv`, reportCsv(await rangeReport(deps.db, userOf(req).locationId, from, to, deps.clock())));
+      },
+    },
+    {
+      method: 'get',
+      path: '/reports/days.csv',
+      capability: 'viewReports',
+      handler: async (req, res) => {
+        const { from, to } = parse(reportDaysQuery, req.query, 'query');
+        sendCsv(res, `jugline-days-${span(from, to)}.csv`, reportDaysCsv(await reportDays(deps.db, userOf(req).locationId, from, to, deps.clock())));
       },
     },
     {

@@ -3,6 +3,7 @@
 import { z } from 'zod';
 import { cupsOf, MAX_CUPS, MAX_QUANTITY } from './order-quantity';
 import { TICKET_SORTS } from './reports';
+import { daysInRange, MAX_REPORT_DAYS } from './report-days';
 import { SCREENS, type ScreenId } from './screens';
 import { plainText } from './text';
 
@@ -168,6 +169,12 @@ const rangeOrder = { message: 'The range ends before it starts', path: ['to'] };
 
 /** GET /api/reports/range and range.csv: both days included. */
 export const reportRangeQuery = z.object({ from: calendarDate, to: calendarDate }).refine(fromNotAfterTo, rangeOrder);
+
+/** GET /api/reports/days and days.csv: the range's dates, both included, at most a year of them. */
+export const reportDaysQuery = z
+  .object({ from: calendarDate, to: calendarDate })
+  .refine(fromNotAfterTo, rangeOrder)
+  .refine((r) => daysInRange(r.from, r.to) <= MAX_REPORT_DAYS, { message: `Pick at most ${MAX_REPORT_DAYS} days`, path: ['to'] });
 
 const ticketFilterFields = {
   from: calendarDate.optional(),

@@ -10,6 +10,7 @@ export const reportKeys = {
   report: (period: Exclude<PeriodChoice, { kind: 'today' }>) => ['reports', 'report', period] as const,
   tickets: (params: TicketHistoryQuery) => ['reports', 'tickets', params] as const,
   group: (dates: { from: string; to: string }) => ['reports', 'group', dates.from, dates.to] as const,
+  days: (dates: { from: string; to: string }) => ['reports', 'days', dates.from, dates.to] as const,
 };
 
 export const reportShiftsQuery = (api: Api) => queryOptions({ queryKey: reportKeys.shifts(), queryFn: () => api.reportShifts(), staleTime: 30_000 });
@@ -28,3 +29,7 @@ export const ticketHistoryQuery = (api: Api, params: TicketHistoryQuery) =>
 /** The owner's cafés side by side over some dates (a shift belongs to one café, so dates only). */
 export const groupReportQuery = (api: Api, dates: { from: string; to: string }) =>
   queryOptions({ queryKey: reportKeys.group(dates), queryFn: () => api.reportGroup({ from: dates.from, to: dates.to }), staleTime: 15_000 });
+
+/** A range of dates day by day, with the range's total. */
+export const reportDaysQuery = (api: Api, dates: { from: string; to: string }) =>
+  queryOptions({ queryKey: reportKeys.days(dates), queryFn: () => api.reportDays({ from: dates.from, to: dates.to }), staleTime: 15_000 });

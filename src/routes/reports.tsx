@@ -1,19 +1,22 @@
-// Reports, for the lead and the owner: a shift's, today's or some dates' numbers, the bar's use
-// of milk and coffee, the day by the hour, and every ticket, with CSV downloads; for an owner of a
-// group of cafés, the cafés side by side over the same dates. Light theme.
+// Reports, for the lead and the owner: a shift's, today's or some dates' numbers (several dates
+// also day by day), the bar's use of milk and coffee, the day by the hour, and every ticket, with
+// CSV downloads; for an owner of a group of cafés, the cafés side by side over the same dates.
+// Light theme.
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { useMemo } from 'react';
 import { data, Link, useSearchParams, type LoaderFunctionArgs } from 'react-router';
 import type { ReportView } from '@/domain/reports';
+import { daysInRange, MAX_REPORT_DAYS } from '@/domain/report-days';
 import { buttonStyles } from '@/components/ui/button';
 import { HourlyTable, OverTargetList } from '@/features/reports/hourly-table';
 import { periodFrom, ticketParams, type PeriodChoice } from '@/features/reports/params';
 import { PeriodPicker, shiftLabel } from '@/features/reports/period-picker';
-import { groupReportQuery, reportQuery, reportShiftsQuery, ticketHistoryQuery } from '@/queries/reports';
+import { groupReportQuery, reportDaysQuery, reportQuery, reportShiftsQuery, ticketHistoryQuery } from '@/queries/reports';
 import { sessionQuery } from '@/queries/session';
 import type { SessionView } from '@/domain/types';
 import { BarUse, PaymentMix, TopItems } from '@/components/report/report-breakdowns';
 import { ReportTiles } from '@/components/report/report-tiles';
+import { DaysTable } from '@/features/reports/days-table';
 import { GroupTable } from '@/features/reports/group-table';
 import { TicketTable } from '@/features/reports/ticket-table';
 import { useApi } from '@/lib/api-context';
@@ -52,6 +55,26 @@ function GroupSection({ dates, inView }: { dates: { from: string; to: string }; 
   );
 }
 
+/** The dates shown day by day: a range of more than one date (a shift is not cut into dates). */
+function dayByDayDates(period: Period): { from: string; to: string } | null {
+  return period.kind === 'range' && period.from !== period.to ? { from: period.from, to: period.to } : null;
+}
+
+function DaysSection({ dates }: { dates: { from: string; to: string } }) {
+  const { data: view } = useSuspenseQuery(reportDaysQuery(useApi(), dates));
+  return <DaysTable view={view} />;
+}
+
+/** Day by day, or why not: a range past a year is shown whole only. */
+function DayByDay({ dates }: { dates: { from: string; to: string } }) {
+  if (daysInRange(dates.from, dates.to) <= MAX_REPORT_DAYS) return <DaysSection dates={dates} />;
+  return (
+    <p className="rounded-xl border border-steam-200 bg-white p-4 text-base text-ink-600" data-testid="days-too-long">
+      Day by day covers at most {MAX_REPORT_DAYS} days: pick a shorter range to see each day.
+    </p>
+  );
+}
+
 function reportCsvHref(period: Period) {
   return period.kind === 'shift' ? `/api/reports/shift/${period.id}.csv` : `/api/reports/range.csv${queryString({ from: period.from, to: period.to })}`;
 }
@@ -67,6 +90,7 @@ function Reports() {
   const params = ticketParams(report.period, search);
   const { data: tickets } = useSuspenseQuery(ticketHistoryQuery(api, params));
   const group = groupDates(session, period);
+  const days = dayByDayDates(period);
   const multiDay = report.period.from !== report.period.to;
   const context = useMemo(
     () => ({ currency: report.currency, locale: report.locale, timeZone: report.timeZone, targetSeconds: report.targetSeconds, multiDay }),
@@ -94,6 +118,7 @@ function Reports() {
         <PeriodPicker choice={choice} shifts={shifts} dates={report.period} locale={report.locale} />
         {group && <GroupSection dates={group} inView={session.cafe?.name ?? null} />}
         <ReportTiles report={report} />
+        {days && <DayByDay dates={days} />}
         <div className="grid grid-cols-1 items-start gap-4 md:grid-cols-2 xl:grid-cols-3">
           <PaymentMix report={report} />
           <BarUse report={report} />
@@ -128,6 +153,8 @@ export const reportsRoute = (deps: RouteDeps) => ({
     const report = await loadReport(deps, period);
     const group = groupDates(await deps.queryClient.ensureQueryData(sessionQuery(deps.api)), period);
     if (group) await deps.queryClient.ensureQueryData(groupReportQuery(deps.api, group));
+    const days = dayByDayDates(period);
+    if (days && daysInRange(days.from, days.to) <= MAX_REPORT_DAYS) await deps.queryClient.ensureQueryData(reportDaysQuery(deps.api, days));
     await deps.queryClient.ensureQueryData(ticketHistoryQuery(deps.api, ticketParams(report.period, search)));
     return null;
   },

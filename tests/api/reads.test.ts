@@ -76,6 +76,7 @@ beforeAll(async () => {
     reportShifts: [],
     reportShift: [{ id: shifts.shifts[0].id }],
     reportRange: [{ from: shifts.today, to: shifts.today }],
+    reportDays: [{ from: shifts.today, to: shifts.today }],
     reportGroup: [{ from: shifts.today, to: shifts.today }],
     reportTickets: [{ q: 'wren', sort: 'total', dir: 'asc', page: 1, pageSize: 5 }],
     cardCheck: [{ date: shifts.today }],

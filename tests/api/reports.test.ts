@@ -32,7 +32,7 @@ const get = async (path: string, who: Agent = lead) => {
 };
 
 describe('access', () => {
-  const reportUrl = (path: string) => `/api${path.replace(':id', String(day.shiftId))}${path.startsWith('/reports/range') ? `?from=${DAY}&to=${DAY}` : ''}`;
+  const reportUrl = (path: string) => `/api${path.replace(':id', String(day.shiftId))}${/^\/reports\/(range|days)/.test(path) ? `?from=${DAY}&to=${DAY}` : ''}`;
 
   it('every reports route: 401 signed out, 403 for a cashier or a barista, 200 for a lead or the owner', async () => {
     // the card check's "settle" (POST, refundOrders) is covered in card-reconciliation.test.ts
@@ -41,6 +41,8 @@ describe('access', () => {
     expect(routes.map((r) => r.path).sort()).toEqual(
       [
         '/reports/cards',
+        '/reports/days',
+        '/reports/days.csv',
         '/reports/range',
         '/reports/range.csv',
         '/reports/shift/:id',
