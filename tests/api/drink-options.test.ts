@@ -35,7 +35,12 @@ const cappuccino = (extras: string[] = []) => ({
   sizeId: ids.size('Cappuccino', 'Regular'),
   extraIds: extras.map(ids.extra),
 });
-const latte = (extras: string[] = []) => ({ menuItemId: ids.item('Latte'), milkId: ids.milk('Whole'), sizeId: ids.size('Latte', 'Regular'), extraIds: extras.map(ids.extra) });
+const latte = (extras: string[] = []) => ({
+  menuItemId: ids.item('Latte'),
+  milkId: ids.milk('Whole'),
+  sizeId: ids.size('Latte', 'Regular'),
+  extraIds: extras.map(ids.extra),
+});
 
 describe('the demo options', () => {
   it('a dry cappuccino is stored with more foam and less milk than a cappuccino, at the same price', async () => {
@@ -77,7 +82,9 @@ describe('the owner sets an extra’s effect', () => {
   it('refuses an effect it doesn’t know (400, the field named) and changes nothing', async () => {
     const extraId = ids.extra('Extra hot');
     const before = await server.db('extras').where({ id: extraId }).first();
-    const res = await owner.put(`/api/menu-admin/extras/${extraId}`).send({ groupId: before.group_id, name: 'Extra hot', priceCents: 0, barEffect: 'scalding' });
+    const res = await owner
+      .put(`/api/menu-admin/extras/${extraId}`)
+      .send({ groupId: before.group_id, name: 'Extra hot', priceCents: 0, barEffect: 'scalding' });
     expect(res.status).toBe(400);
     expect(res.body.error.details.map((d: { path: string }) => d.path)).toEqual(['barEffect']);
     expect(await server.db('extras').where({ id: extraId }).first()).toEqual(before);
