@@ -72,5 +72,5 @@ describe('the migration step', () => {
       await a.destroy();
       await b.destroy();
     }
-  }, 60_000); // two whole migrations and seeds, one after the other
+  }, 120_000); // two whole migrations and seeds, one after the other: a net (over 60 s once at load 7)
 });
