@@ -103,6 +103,20 @@ describe('the ready mail', () => {
     expect(outbox.map((m) => m.subject)).toContain(mail.subject);
   });
 
+  it('is sent when the last drinks go out in one jug bump, once for each order in the jug', async () => {
+    const [a, b] = ['jug.one@example.com', 'jug.two@example.com'];
+    const flatWhite = [{ menuItemId: menu.item('Flat white') }];
+    const first = await place(cashier, 'Jug One', a, flatWhite);
+    const second = await place(cashier, 'Jug Two', b, flatWhite);
+    const drinkIds = [...(await drinkIdsOf(server, first.id)), ...(await drinkIdsOf(server, second.id))];
+    const started = await barista.post('/api/jugs').send({ drinkIds });
+    expect(started.status, JSON.stringify(started.body)).toBe(201);
+    expect((await barista.post(`/api/jugs/${started.body.jugId}/bump`).send({ drinkIds })).status).toBe(200);
+    for (const o of [first, second]) await eventually(async () => (await readyState(server, o.id)) === 'sent', `order ${o.number}'s ready mail`);
+    expect((await readyMailsTo(server, a)).map((m) => m.subject)).toEqual([`Your order #${first.number} is ready at Harbour & Hearth Coffee`]);
+    expect((await readyMailsTo(server, b)).map((m) => m.subject)).toEqual([`Your order #${second.number} is ready at Harbour & Hearth Coffee`]);
+  });
+
   it('is not sent for an order without an address', async () => {
     const order = await place(cashier, 'Cy Nomail', null);
     expect((await barista.post(`/api/tickets/${order.id}/bump`)).status).toBe(200);
