@@ -173,6 +173,7 @@ export interface Tables {
     expansion_silky_pct: number;
     expansion_foamy_pct: number;
     group_id: number;
+    ready_mail: Flag;
   };
   menu_categories: {
     id: number;
@@ -273,6 +274,9 @@ export interface Tables {
     receipt_mail_state: string | null;
     receipt_mail_at: string | null;
     receipt_mail_error: string | null;
+    ready_mail_state: string | null;
+    ready_mail_at: string | null;
+    ready_mail_error: string | null;
   };
   outbox: {
     id: number;

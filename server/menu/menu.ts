@@ -24,6 +24,7 @@ export async function loadLocation(db: Db, locationId: number): Promise<Location
     allergenList: l.allergen_list,
     baristasOnBar: l.baristas_on_bar,
     receiptFooter: l.receipt_footer ?? null,
+    readyMail: bool(l.ready_mail),
     jugWasteMl: l.jug_waste_ml,
     volumeUnit: l.volume_unit,
     temperatureUnit: l.temperature_unit,

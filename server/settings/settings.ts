@@ -13,7 +13,7 @@ import {
   type SettingsView,
 } from '@/domain/settings-schemas';
 import type { SessionUser } from '@/domain/types';
-import { json } from '@server/db/rows';
+import { bool, json } from '@server/db/rows';
 import { conflict, notFound } from '@server/domain-errors';
 import type { Deps } from '@server/deps';
 import { appendMenuChangedEvent, runCommand } from '@server/events';
@@ -39,6 +39,7 @@ const COLUMNS = {
   expansionFoamyPct: 'expansion_foamy_pct',
   allergenList: 'allergen_list',
   receiptFooter: 'receipt_footer',
+  readyMail: 'ready_mail',
 } as const satisfies Record<keyof SettingsView, string>;
 
 async function loadSettingsView(db: Db, locationId: number): Promise<SettingsView> {
@@ -63,6 +64,7 @@ async function loadSettingsView(db: Db, locationId: number): Promise<SettingsVie
     expansionFoamyPct: l.expansion_foamy_pct,
     allergenList: l.allergen_list,
     receiptFooter: l.receipt_footer ?? null,
+    readyMail: bool(l.ready_mail),
   };
 }
 

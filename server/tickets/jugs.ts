@@ -12,6 +12,7 @@ import type { Deps } from '@server/deps';
 import { runCommand } from '@server/events';
 import { loadJugRules } from '@server/menu/menu';
 import { bool } from '@server/db/rows';
+import { mailReadyTickets } from '@server/orders/ready-mail';
 
 /**
  * Store these checked rows as one started jug and mark them being made. 409 when they can't be
@@ -70,8 +71,8 @@ export function startJug(deps: Deps, user: SessionUser, drinkIds: number[]) {
   });
 }
 
-export function bumpJug(deps: Deps, user: SessionUser, jugId: number, drinkIds: number[]) {
-  return runCommand(deps, async (trx) => {
+export async function bumpJug(deps: Deps, user: SessionUser, jugId: number, drinkIds: number[]) {
+  const tickets = await runCommand(deps, async (trx) => {
     const jug = await trx('jugs').where({ id: jugId, location_id: user.locationId }).first('id');
     if (!jug) throw notFound('Jug');
     const open: number[] = await trx('jug_drinks')
@@ -86,4 +87,7 @@ export function bumpJug(deps: Deps, user: SessionUser, jugId: number, drinkIds: 
     const { tickets, events } = await bumpRows(trx, user, rows, deps.clock().toISOString());
     return { result: tickets, events };
   });
+  // after the commit, as every bump does (tickets.ts)
+  mailReadyTickets(deps, user.locationId, tickets);
+  return tickets;
 }

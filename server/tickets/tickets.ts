@@ -10,6 +10,7 @@ import type { Deps } from '@server/deps';
 import { snapshotRead } from '@server/db/dialect';
 import { appendEvent, latestSeq, runCommand } from '@server/events';
 import { openJug } from './jugs';
+import { mailReadyTickets } from '@server/orders/ready-mail';
 import { loadJugRules, loadLocation } from '@server/menu/menu';
 import { loadBoardTickets, loadTicket } from './ticket-views';
 
@@ -70,20 +71,25 @@ export function startDrinks(deps: Deps, user: SessionUser, drinkIds: number[]) {
   });
 }
 
-/** Bump one drink or a batch. Two screens bumping the same drink: one wins, the other gets 409. */
-export function bumpDrinks(deps: Deps, user: SessionUser, drinkIds: number[]) {
-  return runCommand(deps, async (trx) => {
+/**
+ * Bump one drink or a batch. Two screens bumping the same drink: one wins, the other gets 409.
+ * A ticket this makes ready is mailed to its customer once the bump has committed.
+ */
+export async function bumpDrinks(deps: Deps, user: SessionUser, drinkIds: number[]) {
+  const tickets = await runCommand(deps, async (trx) => {
     const rows = await openDrinks(trx, user, drinkIds);
     const { tickets, events } = await bumpRows(trx, user, rows, deps.clock().toISOString());
     return { result: tickets, events };
   });
+  mailReadyTickets(deps, user.locationId, tickets);
+  return tickets;
 }
 
 export const startDrink = async (deps: Deps, user: SessionUser, drinkId: number) => (await startDrinks(deps, user, [drinkId]))[0];
 export const bumpDrink = async (deps: Deps, user: SessionUser, drinkId: number) => (await bumpDrinks(deps, user, [drinkId]))[0];
 
-export function bumpTicket(deps: Deps, user: SessionUser, orderId: number) {
-  return runCommand(deps, async (trx) => {
+export async function bumpTicket(deps: Deps, user: SessionUser, orderId: number) {
+  const ticket = await runCommand(deps, async (trx) => {
     const order = await orderInLocation(trx, orderId, user);
     if (order.status !== 'open') throw conflict('This ticket has no drinks left to bump');
     const left = await trx('order_items').where({ order_id: orderId, station: 'bar' }).whereNot({ status: 'done' }).select('id');
@@ -112,6 +118,8 @@ export function bumpTicket(deps: Deps, user: SessionUser, orderId: number) {
     const ticket = await loadTicket(trx, orderId);
     return { result: ticket, events: [await appendEvent(trx, user.locationId, 'ticket.bumped', ticket, at, user.id)] };
   });
+  mailReadyTickets(deps, user.locationId, [ticket]);
+  return ticket;
 }
 
 /**

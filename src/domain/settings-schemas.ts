@@ -125,6 +125,7 @@ export const SETTINGS_FIELDS = {
   expansionFoamyPct: int(0, EXPANSION_MAX_PCT, 'Foamy milk growth in %'),
   allergenList: z.enum(['US', 'EU']),
   receiptFooter: receiptFooterField,
+  readyMail: z.boolean({ error: 'Ready mail: on or off' }),
 };
 export type SettingKey = keyof typeof SETTINGS_FIELDS;
 
@@ -175,6 +176,8 @@ export interface SettingsView {
   expansionFoamyPct: number;
   allergenList: AllergenList;
   receiptFooter: string | null;
+  /** Mail a customer who left an address for the receipt when the order is ready. */
+  readyMail: boolean;
 }
 
 export interface PitcherView {

@@ -55,6 +55,9 @@ export interface LocationView {
   allergenList: 'US' | 'EU';
   baristasOnBar: number;
   receiptFooter: string | null;
+  /** The café mails a customer who left an address when the order is ready (Settings); the
+   * Counter tells the customer so. Left out by hand-made fixtures: read it with `?? true`. */
+  readyMail?: boolean;
   jugWasteMl: number;
   /** Display units (src/domain/units.ts); sizes stay in ml. The server always sets them; read them
    * with `?? 'ml'` / `?? 'C'` where a hand-made fixture leaves them out. */

@@ -58,6 +58,7 @@ describe('GET /api/settings', () => {
       expansionFoamyPct: 75,
       allergenList: 'US',
       receiptFooter: null,
+      readyMail: true, // the migration's default (20261203130000_ready_mail.ts)
     });
     // minimum fill: a third of the capacity rounded up to 10 ml (common practice, from memory)
     expect(p.pitchers.map((x) => [x.capacityMl, x.fillLineMl, x.minFillMl])).toEqual([
@@ -123,6 +124,8 @@ describe('PUT /api/settings refuses bad values with the field named, and changes
     ['silky milk growing by half a percent', { expansionSilkyPct: 20.5 }, 'expansionSilkyPct'],
     ['foamy milk tripling', { expansionFoamyPct: 201 }, 'expansionFoamyPct'],
     ['an extra shot price in dollars', { extraShotCents: 1.5 }, 'extraShotCents'],
+    ['the ready mail as a word', { readyMail: 'off' }, 'readyMail'],
+    ['the ready mail as a number', { readyMail: 0 }, 'readyMail'],
   ];
   for (const [what, body, field] of bad) {
     it(what, async () => {
@@ -183,6 +186,25 @@ describe('PUT /api/settings saves good values', () => {
         .where({ id: await demoCafeId(server.db) })
         .first(),
     ).toMatchObject({ tax_rate_milli_pct: 8250, receipt_footer: null, currency: 'USD' });
+  });
+
+  it('turns the ready mail off and on again; the Counter menu carries it, so the Counter says what the address is for', async () => {
+    const stored = async () =>
+      (
+        await server
+          .db('locations')
+          .where({ id: await demoCafeId(server.db) })
+          .first('ready_mail')
+      ).ready_mail;
+    const off = await owner.put('/api/settings').send({ readyMail: false });
+    expect(off.status).toBe(200);
+    expect(off.body.settings.readyMail).toBe(false);
+    expect([false, 0]).toContain(await stored()); // a boolean on PostgreSQL, 0 on SQLite
+    expect((await owner.get('/api/menu').expect(200)).body.location.readyMail).toBe(false);
+    const on = await owner.put('/api/settings').send({ readyMail: true });
+    expect(on.body.settings.readyMail).toBe(true);
+    expect([true, 1]).toContain(await stored());
+    expect((await owner.get('/api/menu').expect(200)).body.location.readyMail).toBe(true);
   });
 
   it('switches units both ways without touching a stored size', async () => {

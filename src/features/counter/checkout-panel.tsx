@@ -1,6 +1,6 @@
 // Paying: the name for the cup, here or to go, allergies, a receipt address, a lead's discount,
 // and cash (with change) or card (through the card reader).
-import { useState } from 'react';
+import { useId, useState } from 'react';
 import type { UseFormReturn } from 'react-hook-form';
 import { cashQuickAmounts, formatCents } from '@/domain/money';
 import type { OrderDraft, OrderDraftInput } from '@/domain/schemas';
@@ -24,22 +24,34 @@ interface Props {
   error: string | null;
 }
 
-/** In the order's scrolling part, under the lines: a receipt address and a lead's discount. */
-export function CheckoutPanel({ menu: _menu, checkout, onCheckout, canDiscount }: Omit<Props, 'sending' | 'error'>) {
+/**
+ * In the order's scrolling part, under the lines: a receipt address and a lead's discount. The
+ * hint says everything the address is used for (the receipt, and the ready note when the café
+ * sends it), so the cashier can tell the customer before they give it.
+ */
+export function CheckoutPanel({ menu, checkout, onCheckout, canDiscount }: Omit<Props, 'sending' | 'error'>) {
   const set = (patch: Partial<Checkout>) => onCheckout({ ...checkout, ...patch });
+  const hintId = useId();
+  const readyMail = menu.location.readyMail ?? true;
   return (
     <div className="mt-3 flex flex-col gap-3 border-t border-steam-200 pt-3">
-      <label>
-        <span className="block text-sm font-semibold tracking-widest text-ink-600 uppercase">E-mail receipt (optional)</span>
-        <input
-          type="email"
-          inputMode="email"
-          autoComplete="off"
-          className="mt-1 w-full rounded-lg border border-steam-200 px-3 py-2 text-lg"
-          value={checkout.email}
-          onChange={(e) => set({ email: e.target.value })}
-        />
-      </label>
+      <div>
+        <label>
+          <span className="block text-sm font-semibold tracking-widest text-ink-600 uppercase">E-mail receipt (optional)</span>
+          <input
+            type="email"
+            inputMode="email"
+            autoComplete="off"
+            aria-describedby={hintId}
+            className="mt-1 w-full rounded-lg border border-steam-200 px-3 py-2 text-lg"
+            value={checkout.email}
+            onChange={(e) => set({ email: e.target.value })}
+          />
+        </label>
+        <p id={hintId} className="mt-1 text-sm text-ink-600">
+          {readyMail ? 'Used for the receipt and one note when the order is ready; nothing else.' : 'Used for the receipt only; nothing else.'}
+        </p>
+      </div>
       {canDiscount && <DiscountEditor value={checkout.discount} onChange={(discount) => set({ discount })} />}
     </div>
   );

@@ -1,7 +1,8 @@
-// Receipts and Pickup: the line at the foot of every receipt, and how long a ready name stays on
-// the Pickup board when nobody marks it collected.
+// Receipts and Pickup: the line at the foot of every receipt, whether a customer who left an
+// address is mailed when the order is ready, and how long a ready name stays on the Pickup board
+// when nobody marks it collected.
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
+import { useId, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { PICKUP_TIMEOUT_SECONDS, RECEIPT_FOOTER_MAX, type SettingsView } from '@/domain/settings-schemas';
@@ -19,12 +20,14 @@ const receiptsForm = z.object({
     .int('Whole minutes')
     .min(MIN_MIN, `From ${MIN_MIN} to ${MAX_MIN} minutes`)
     .max(MAX_MIN, `From ${MIN_MIN} to ${MAX_MIN} minutes`),
+  readyMail: z.boolean(),
 });
 type ReceiptsForm = z.infer<typeof receiptsForm>;
 
 const formValues = (s: SettingsView): ReceiptsForm => ({
   receiptFooter: s.receiptFooter ?? '',
   pickupMinutes: Math.round(s.pickupTimeoutSeconds / 60),
+  readyMail: s.readyMail,
 });
 
 export function ReceiptsSection({ settings }: { settings: SettingsView }) {
@@ -36,6 +39,7 @@ export function ReceiptsSection({ settings }: { settings: SettingsView }) {
   });
   const errors = form.formState.errors;
   const footer = form.watch('receiptFooter') ?? '';
+  const readyHelp = useId();
   return (
     <SettingsSection
       id="settings-receipts"
@@ -45,7 +49,7 @@ export function ReceiptsSection({ settings }: { settings: SettingsView }) {
       onSubmit={form.handleSubmit((v) => {
         setStatus(null);
         save.mutate(
-          { receiptFooter: v.receiptFooter, pickupTimeoutSeconds: v.pickupMinutes * 60 },
+          { receiptFooter: v.receiptFooter, pickupTimeoutSeconds: v.pickupMinutes * 60, readyMail: v.readyMail },
           {
             onError: (e) =>
               setStatus({ ok: false, text: showServerErrors(e, form.setError, { receiptFooter: 'receiptFooter', pickupTimeoutSeconds: 'pickupMinutes' }) }),
@@ -60,6 +64,15 @@ export function ReceiptsSection({ settings }: { settings: SettingsView }) {
       >
         {(p) => <textarea {...p} {...form.register('receiptFooter')} rows={2} maxLength={RECEIPT_FOOTER_MAX + 20} />}
       </Field>
+      <div>
+        <label className="flex min-h-11 items-center gap-3 text-lg font-semibold">
+          <input type="checkbox" className="size-6 accent-copper-700" aria-describedby={readyHelp} {...form.register('readyMail')} />
+          Mail the customer when the order is ready
+        </label>
+        <p id={readyHelp} className="text-sm text-ink-600">
+          Only to a customer who left an address for the receipt, once per order. The Counter tells them the address is used for this too.
+        </p>
+      </div>
       <Field
         label="Pickup board: a ready name stays (minutes)"
         help="Until the Counter marks the order collected, or this long after it is ready."
