@@ -1,33 +1,16 @@
 // The migration that puts cafés into groups, on a real SQLite file: every café already there goes
 // into one group named after the first, nothing a café owns is lost, a new café needs a group, and
 // down gives back the table as it was with every row.
-import { mkdtempSync, rmSync } from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
-import type { Knex } from 'knex';
-import { afterEach, describe, expect, it } from 'vitest';
-import { createDb, migrationConfig } from '@server/db/knex';
+import { describe, expect, it } from 'vitest';
+import { migrationConfig } from '@server/db/knex';
+import { migrationDatabases } from '../support/migration-db';
 
 const MIGRATION = '20261203110000_cafe_groups.ts';
-const open: { db: Knex; dir: string }[] = [];
-
-afterEach(async () => {
-  for (const { db, dir } of open.splice(0)) {
-    await db.destroy();
-    rmSync(dir, { recursive: true, force: true });
-  }
-});
+const databaseBefore = migrationDatabases();
 
 /** A database migrated up to, not including, the groups; with two cafés, a person and a pitcher in each. */
 async function beforeGroups() {
-  const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-migration-'));
-  const db = createDb(path.join(dir, 'jugline.sqlite'));
-  open.push({ db, dir });
-  for (;;) {
-    const [, pending] = (await db.migrate.list(migrationConfig)) as [unknown[], { file: string }[]];
-    if (pending[0].file === MIGRATION) break;
-    await db.migrate.up(migrationConfig);
-  }
+  const db = await databaseBefore(MIGRATION);
   const cafes: number[] = [];
   for (const [i, name] of ['Tideline Espresso', 'Lanternfish Coffee'].entries()) {
     const [{ id }] = await db('locations')
@@ -64,10 +47,8 @@ describe(`migration ${MIGRATION}`, () => {
   });
 
   it('on an empty database only adds the table and the column', async () => {
-    const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-migration-'));
-    const db = createDb(path.join(dir, 'jugline.sqlite'));
-    open.push({ db, dir });
-    await db.migrate.latest(migrationConfig);
+    const db = await databaseBefore(MIGRATION);
+    await db.migrate.up(migrationConfig);
     expect(await db('cafe_groups').count({ n: '*' })).toEqual([{ n: 0 }]);
     expect(Object.keys(await db('locations').columnInfo())).toContain('group_id');
   });

@@ -1,34 +1,17 @@
 // The migration that names extras one way everywhere (tables, the order lines' column, the keys of
 // stored live events), on a real SQLite file: rows and links survive, a stored event a resuming
 // screen replays says extras, and down gives back the old names and keys.
-import { mkdtempSync, rmSync } from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
-import type { Knex } from 'knex';
-import { afterEach, describe, expect, it } from 'vitest';
-import { createDb, migrationConfig } from '@server/db/knex';
+import { describe, expect, it } from 'vitest';
+import { migrationConfig } from '@server/db/knex';
+import { migrationDatabases } from '../support/migration-db';
 import { jsonOf } from '../support/rows';
 
 const MIGRATION = '20261203100000_extras_name.ts';
-const open: { db: Knex; dir: string }[] = [];
-
-afterEach(async () => {
-  for (const { db, dir } of open.splice(0)) {
-    await db.destroy();
-    rmSync(dir, { recursive: true, force: true });
-  }
-});
+const databaseBefore = migrationDatabases();
 
 /** A database migrated up to, not including, the rename; with a café, an extra on an item and a stored event. */
 async function beforeRename() {
-  const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-migration-'));
-  const db = createDb(path.join(dir, 'jugline.sqlite'));
-  open.push({ db, dir });
-  for (;;) {
-    const [, pending] = (await db.migrate.list(migrationConfig)) as [unknown[], { file: string }[]];
-    if (pending[0].file === MIGRATION) break;
-    await db.migrate.up(migrationConfig);
-  }
+  const db = await databaseBefore(MIGRATION);
   const [{ id: location }] = await db('locations').insert({ name: 'Test café', created_at: new Date().toISOString() }).returning('id');
   const [{ id: category }] = await db('menu_categories').insert({ location_id: location, name: 'Coffee' }).returning('id');
   const [{ id: item }] = await db('menu_items').insert({ category_id: category, name: 'Latte', station: 'bar', price_cents: 450 }).returning('id');

@@ -1,22 +1,12 @@
 // The migration that makes sign-in names unique per group of cafés, on a real SQLite file: every
 // person gets their café's group, every column and row is kept, a name may repeat in another group
 // but not in the same one, and down gives back the table as it was.
-import { mkdtempSync, rmSync } from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
-import type { Knex } from 'knex';
-import { afterEach, describe, expect, it } from 'vitest';
-import { createDb, migrationConfig } from '@server/db/knex';
+import { describe, expect, it } from 'vitest';
+import { migrationConfig } from '@server/db/knex';
+import { migrationDatabases } from '../support/migration-db';
 
 const MIGRATION = '20261203120000_usernames_per_group.ts';
-const open: { db: Knex; dir: string }[] = [];
-
-afterEach(async () => {
-  for (const { db, dir } of open.splice(0)) {
-    await db.destroy();
-    rmSync(dir, { recursive: true, force: true });
-  }
-});
+const databaseBefore = migrationDatabases();
 
 const person = (locationId: number, username: string) => ({
   location_id: locationId,
@@ -29,14 +19,7 @@ const person = (locationId: number, username: string) => ({
 
 /** A database migrated up to, not including, this migration; two groups with a café each, a person in each, one with a session. */
 async function beforeNamesPerGroup() {
-  const dir = mkdtempSync(path.join(os.tmpdir(), 'jugline-migration-'));
-  const db = createDb(path.join(dir, 'jugline.sqlite'));
-  open.push({ db, dir });
-  for (;;) {
-    const [, pending] = (await db.migrate.list(migrationConfig)) as [unknown[], { file: string }[]];
-    if (pending[0].file === MIGRATION) break;
-    await db.migrate.up(migrationConfig);
-  }
+  const db = await databaseBefore(MIGRATION);
   const cafes: { cafe: number; group: number }[] = [];
   for (const name of ['Tideline Espresso', 'Lanternfish Coffee']) {
     const [{ id: group }] = await db('cafe_groups').insert({ name, created_at: '2026-01-01T00:00:00.000Z' }).returning('id');
