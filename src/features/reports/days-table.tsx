@@ -2,7 +2,8 @@
 // closed day is seen, not skipped) and the range's total, with its CSV download. The total's wait
 // is the whole range's median, not a sum of the days'.
 import { ScrollBox } from '@/components/ui/scroll-box';
-import { Panel, numClass, tdClass, thClass } from '@/components/report/report-breakdowns';
+import { Panel, numClass, tdClass } from '@/components/report/report-breakdowns';
+import { FiguresHead } from './figures-head';
 import { buttonStyles } from '@/components/ui/button';
 import { formatDuration } from '@/domain/format';
 import { formatCents } from '@/domain/money';
@@ -39,28 +40,7 @@ export function DaysTable({ view }: { view: ReportDaysView }) {
       </div>
       <ScrollBox label="Day by day table">
         <table className="w-full text-base" data-testid="report-days" aria-describedby="days-note">
-          <thead>
-            <tr>
-              <th scope="col" className={thClass}>
-                Date
-              </th>
-              <th scope="col" className={cn(thClass, 'text-right')}>
-                Orders
-              </th>
-              <th scope="col" className={cn(thClass, 'text-right')}>
-                Drinks
-              </th>
-              <th scope="col" className={cn(thClass, 'text-right')}>
-                Net revenue
-              </th>
-              <th scope="col" className={cn(thClass, 'text-right')}>
-                Half waited under
-              </th>
-              <th scope="col" className={cn(thClass, 'text-right')}>
-                Over target
-              </th>
-            </tr>
-          </thead>
+          <FiguresHead rowLabel="Date" />
           <tbody>
             {view.days.map((d) => (
               <tr key={d.date} data-testid="report-day" data-date={d.date} className={d.orders === 0 ? 'text-ink-600' : undefined}>

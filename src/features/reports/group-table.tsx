@@ -2,7 +2,8 @@
 // currency, and the group's totals when they add up (one currency). Waits stay per café: a median
 // of medians is no one's median.
 import { ScrollBox } from '@/components/ui/scroll-box';
-import { Panel, numClass, tdClass, thClass } from '@/components/report/report-breakdowns';
+import { Panel, numClass, tdClass } from '@/components/report/report-breakdowns';
+import { FiguresHead } from './figures-head';
 import { formatDuration } from '@/domain/format';
 import type { GroupReportView } from '@/domain/group-report';
 import { formatCents } from '@/domain/money';
@@ -22,28 +23,7 @@ export function GroupTable({ group, inView }: { group: GroupReportView; inView: 
       </p>
       <ScrollBox label="Cafés side by side table">
         <table className="w-full text-base" data-testid="group-report" aria-describedby="group-report-note">
-          <thead>
-            <tr>
-              <th scope="col" className={thClass}>
-                Café
-              </th>
-              <th scope="col" className={cn(thClass, 'text-right')}>
-                Orders
-              </th>
-              <th scope="col" className={cn(thClass, 'text-right')}>
-                Drinks
-              </th>
-              <th scope="col" className={cn(thClass, 'text-right')}>
-                Net revenue
-              </th>
-              <th scope="col" className={cn(thClass, 'text-right')}>
-                Half waited under
-              </th>
-              <th scope="col" className={cn(thClass, 'text-right')}>
-                Over target
-              </th>
-            </tr>
-          </thead>
+          <FiguresHead rowLabel="Café" />
           <tbody>
             {cafes.map((c) => (
               <tr key={c.id} data-testid="group-cafe">
