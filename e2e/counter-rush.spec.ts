@@ -194,11 +194,13 @@ test('what the cashier reads: counts, field limits, items that are not drinks, s
   await expect(page.getByRole('heading', { name: 'Order · 1 drink' })).toBeVisible();
   await expect(page.getByTestId('order-line')).not.toContainText('Single cup');
 
-  // a group with one choice doesn't say "pick one"
+  // a group with one choice doesn't say "pick one"; a group of several single choices does
   await tile(page, 'Latte').click();
   const sheet = page.getByRole('dialog');
-  await expect(sheet.getByRole('group', { name: /Temperature/ })).toBeVisible();
-  await expect(sheet).not.toContainText('pick one');
+  const sweetness = sheet.getByRole('group', { name: /Sweetness/ });
+  await expect(sweetness).toBeVisible();
+  await expect(sweetness).not.toContainText('pick one');
+  await expect(sheet.getByRole('group', { name: /Foam/ })).toContainText('pick one');
   await sheet.getByRole('button', { name: 'Cancel' }).click();
 
   // a croissant is an item, not a drink

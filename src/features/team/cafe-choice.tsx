@@ -28,14 +28,19 @@ export function CafeChoice({ session, dark }: { session: SessionView; dark: bool
   };
 
   return (
-    <label className="flex items-center gap-2 whitespace-nowrap">
-      <span>Café</span>
+    // on a phone the choice shrinks with the screen (a long café name is cut in the closed select,
+    // whole in its list) rather than widen the page
+    <label className="flex max-w-full min-w-0 items-center gap-2">
+      <span className="sr-only sm:not-sr-only">Café</span>
       <select
         value={current}
         disabled={busy}
         onChange={(e) => void choose(Number(e.target.value))}
         data-testid="cafe-choice"
-        className={cn('min-h-11 rounded-lg border border-current px-2 font-semibold', dark ? 'bg-roast-850 text-crema-100' : 'bg-white text-ink-900')}
+        className={cn(
+          'min-h-11 w-44 rounded-lg border border-current px-2 font-semibold sm:w-auto sm:max-w-xs',
+          dark ? 'bg-roast-850 text-crema-100' : 'bg-white text-ink-900',
+        )}
       >
         {session.groupCafes.map((c) => (
           <option key={c.id} value={c.id}>
