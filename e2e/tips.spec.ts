@@ -28,7 +28,12 @@ test('the owner turns tips on; a 15 % tip in cash reaches the change and the rec
   const picker = counter.getByTestId('tip-picker');
   await expect(picker.getByRole('radio', { name: /No tip/ })).toHaveAttribute('aria-checked', 'true');
   await expect(picker.getByRole('radio', { name: /15 %/ })).toContainText('$0.78');
+  // another amount first: $1.00 on top of $5.20 is $6.20 to pay; then the customer picks 15 % after all
+  await picker.getByRole('radio', { name: 'Other' }).click();
+  await picker.getByLabel('Tip amount').fill('1');
+  await expect(counter.getByRole('button', { name: /^Send/ })).toHaveText('Send · $6.20');
   await picker.getByRole('radio', { name: /15 %/ }).click();
+  await expect(picker.getByLabel('Tip amount')).toHaveCount(0);
   await counter.getByLabel(/Cash tendered/).fill('10.00');
   await expect(counter.getByTestId('change-due')).toHaveText('$4.02');
   await expect(counter.getByRole('button', { name: /^Send/ })).toHaveText('Send · $5.98');
