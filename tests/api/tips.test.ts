@@ -5,9 +5,11 @@
 // tips apart from net revenue and tax.
 import Papa from 'papaparse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { formatCents } from '@/domain/money';
 import type { ReportView } from '@/domain/reports';
 import { tipForPercent } from '@/domain/tips';
 import type { OrderView } from '@/domain/types';
+import { shiftReportEmail } from '@server/reports';
 import { demoMenu, manualClock, startTestServer, type TestServer } from '../support/test-server';
 import { orderBody, type Agent, type LineInput } from './helpers';
 
@@ -201,6 +203,9 @@ describe('an order with a tip', () => {
       const res = await lead.get(`/api/reports/shift/${shiftId}`);
       expect(res.status).toBe(200);
       expectTips(res.body);
+      // the shift report mail the owner gets at close says them on a line of their own
+      const kept = formatCents(cash.tipCents + 150);
+      expect(shiftReportEmail(res.body, { name: 'Harbour & Hearth Coffee' }).text).toContain(`Tips (not in net or tax): ${kept} · cash ${kept} · card $0.00`);
       const csv = Papa.parse<string[]>((await lead.get(`/api/reports/shift/${shiftId}.csv`)).text.trim(), { skipEmptyLines: true }).data;
       const tipRows = csv.filter((row) => row[0] === 'Tips');
       expect(tipRows.map((row) => row.slice(1))).toEqual([
