@@ -174,6 +174,9 @@ export interface Tables {
     expansion_foamy_pct: number;
     group_id: number;
     ready_mail: Flag;
+    tips_on: Flag;
+    tip_percents: string;
+    tip_custom: Flag;
   };
   menu_categories: {
     id: number;
@@ -277,6 +280,7 @@ export interface Tables {
     ready_mail_state: string | null;
     ready_mail_at: string | null;
     ready_mail_error: string | null;
+    tip_cents: number;
   };
   outbox: {
     id: number;

@@ -25,6 +25,7 @@ export async function loadLocation(db: Db, locationId: number): Promise<Location
     baristasOnBar: l.baristas_on_bar,
     receiptFooter: l.receipt_footer ?? null,
     readyMail: bool(l.ready_mail),
+    tips: { on: bool(l.tips_on), percents: json<number[]>(l.tip_percents, []), custom: bool(l.tip_custom) },
     jugWasteMl: l.jug_waste_ml,
     volumeUnit: l.volume_unit,
     temperatureUnit: l.temperature_unit,

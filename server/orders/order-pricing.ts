@@ -1,6 +1,7 @@
 // Check an order against the menu and price it: every line, the discount, the tax, the allergens.
 import { allergensOf } from '@/domain/allergens';
 import { discountCents, orderTotals, type OrderTotals } from '@/domain/money';
+import { amountDueCents, maxTipCents, TIPS_OFF } from '@/domain/tips';
 import { resolveLine, type ResolvedLine } from '@/domain/order-lines';
 import { expandByQuantity } from '@/domain/order-quantity';
 import { can } from '@/domain/roles';
@@ -15,6 +16,8 @@ export interface PricedOrder {
   menu: MenuView;
   lines: ResolvedLine[];
   totals: OrderTotals;
+  /** the customer's tip, outside the totals: they pay totals.totalCents + tipCents */
+  tipCents: number;
 }
 
 const fieldNeedsFixing = (path: string, message: string) => fieldsNeedFixing([{ path, message }]);
@@ -47,6 +50,13 @@ export async function priceOrder(deps: Deps, user: SessionUser, body: CreateOrde
   if (body.payment.method === 'card' && totals.totalCents < 50) {
     throw fieldNeedsFixing('payment.method', 'Card payments start at 50 cents; take this one as cash');
   }
-  if (body.payment.method === 'cash') requireEnoughCash(totals.totalCents, body.payment.tenderedCents);
-  return { menu, lines, totals };
+  // Tax and discount above are on the lines alone: the tip is added after, untouched by either.
+  const tipCents = body.tipCents ?? 0;
+  const tips = menu.location.tips ?? TIPS_OFF;
+  if (tipCents > 0 && !tips.on) throw fieldNeedsFixing('tipCents', 'This café does not take tips');
+  if (tipCents > maxTipCents(totals.totalCents)) {
+    throw fieldNeedsFixing('tipCents', `A tip is at most ${maxTipCents(totals.totalCents)} cents on this order`);
+  }
+  if (body.payment.method === 'cash') requireEnoughCash(amountDueCents(totals.totalCents, tipCents), body.payment.tenderedCents);
+  return { menu, lines, totals, tipCents };
 }

@@ -36,6 +36,7 @@ export function toOrderView(o: Row<'orders'>, items: Row<'order_items'>[], payme
     discountReason: o.discount_reason ?? null,
     taxCents: o.tax_cents,
     totalCents: o.total_cents,
+    tipCents: o.tip_cents,
     refundedCents: o.refunded_cents,
     payment: {
       method: o.payment_method,

@@ -4,6 +4,7 @@
 import type { CreateOrderBody } from '@/domain/schemas';
 import type { OrderView, SessionUser } from '@/domain/types';
 import { businessDate } from '@/domain/business-date';
+import { amountDueCents } from '@/domain/tips';
 import { lockingRead } from '@server/db/dialect';
 import { isUniqueViolation } from '@server/db/rows';
 import { conflict } from '@server/domain-errors';
@@ -27,7 +28,8 @@ async function findByClientId(db: Db, user: SessionUser, clientOrderId: string) 
 }
 
 async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody, priced: PricedOrder): Promise<number> {
-  const { menu, lines, totals } = priced;
+  const { menu, lines, totals, tipCents } = priced;
+  const due = amountDueCents(totals.totalCents, tipCents);
   const cash = body.payment.method === 'cash' ? body.payment : null;
   return runCommand(deps, async (trx) => {
     const now = deps.clock();
@@ -57,12 +59,13 @@ async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody,
         discount_reason: body.discount?.reason ?? null,
         tax_cents: totals.taxCents,
         total_cents: totals.totalCents,
+        tip_cents: tipCents,
         quoted_wait_seconds: quote,
         taken_by: user.id,
         created_at: at,
         // cash is settled as the order is taken; a card order waits for its charge (card-payments.ts)
         ...(cash
-          ? { ...cashColumns(totals.totalCents, cash.tenderedCents), ...settledColumns(barDrinks > 0, at) }
+          ? { ...cashColumns(due, cash.tenderedCents), ...settledColumns(barDrinks > 0, at) }
           : { payment_method: body.payment.method, status: 'pending', payment_status: 'unpaid' }),
       })
       .returning('id');
@@ -72,7 +75,7 @@ async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody,
         status: l.station === 'bar' ? 'queued' : 'done',
       })),
     );
-    if (cash) await trx('payments').insert(cashPayment(orderId, totals.totalCents, cash.tenderedCents, at));
+    if (cash) await trx('payments').insert(cashPayment(orderId, due, cash.tenderedCents, at));
     const ticket = await loadTicket(trx, orderId);
     const event = await appendEvent(trx, user.locationId, cash ? 'order.fired' : 'order.taken', ticket, at, user.id);
     return { result: orderId, events: [event] };
@@ -119,12 +122,13 @@ async function payPendingByCash(deps: Deps, user: SessionUser, orderId: number, 
   return runCommand(deps, async (trx) => {
     const order = await lockingRead(trx, trx('orders').where({ id: orderId, location_id: user.locationId })).first();
     if (order.status !== 'pending' || order.payment_status !== 'unpaid') return { result: await loadOrder(trx, orderId), events: [] };
-    requireEnoughCash(order.total_cents, tendered);
+    const due = amountDueCents(order.total_cents, order.tip_cents);
+    requireEnoughCash(due, tendered);
     const live = await trx('payments').where({ order_id: orderId, status: 'processing' }).first('id');
     if (live) throw conflict('A card payment for this order is in progress');
     const at = deps.clock().toISOString();
-    await trx('payments').insert(cashPayment(orderId, order.total_cents, tendered, at));
-    await fireOrder(trx, orderId, at, cashColumns(order.total_cents, tendered));
+    await trx('payments').insert(cashPayment(orderId, due, tendered, at));
+    await fireOrder(trx, orderId, at, cashColumns(due, tendered));
     const ticket = await loadTicket(trx, orderId);
     const event = await appendEvent(trx, user.locationId, 'order.fired', ticket, at, user.id);
     return { result: await loadOrder(trx, orderId), events: [event] };

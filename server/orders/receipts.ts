@@ -3,6 +3,7 @@ import type { Knex } from 'knex';
 import type { Deps } from '@server/deps';
 import { formatCents } from '@/domain/money';
 import { groupOrderLines } from '@/domain/order-quantity';
+import { amountDueCents } from '@/domain/tips';
 import type { OrderLineView, OrderView } from '@/domain/types';
 import { escapeHtml } from '@/domain/html';
 import { notFound } from '@server/domain-errors';
@@ -44,7 +45,7 @@ export function receiptEmail(order: OrderView, location: ReceiptLocation, footer
   const paidLine =
     payment.method === 'cash'
       ? `Paid in cash: ${money(payment.tenderedCents ?? order.totalCents)} · change ${money(payment.changeCents ?? 0)}`
-      : `Paid by ${payment.method}: ${money(order.totalCents)}`;
+      : `Paid by ${payment.method}: ${money(amountDueCents(order.totalCents, order.tipCents))}`;
 
   const discountLabel = order.discountReason ? `Discount (${order.discountReason})` : 'Discount';
   const totals: [string, string][] = [
@@ -52,6 +53,10 @@ export function receiptEmail(order: OrderView, location: ReceiptLocation, footer
     ...(order.discountCents > 0 ? [[discountLabel, `−${money(order.discountCents)}`] as [string, string]] : []),
     ['Tax', money(order.taxCents)],
     ['Total', money(order.totalCents)],
+    // the tip is outside the total (never taxed or discounted), so it comes after it
+    ...(order.tipCents > 0
+      ? [['Tip', money(order.tipCents)] as [string, string], ['Amount paid', money(amountDueCents(order.totalCents, order.tipCents))] as [string, string]]
+      : []),
     ...(order.refundedCents > 0 ? [['Refunded', `−${money(order.refundedCents)}`] as [string, string]] : []),
   ];
 

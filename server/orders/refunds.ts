@@ -1,6 +1,7 @@
 // Giving money back and voiding orders that were never fired. Both reach the bar live: a fully
 // refunded order that was still being made leaves the bar.
 import type { SessionUser } from '@/domain/types';
+import { amountDueCents } from '@/domain/tips';
 import { conflict, invalid, notFound, notSetUp, upstreamFailed } from '@server/domain-errors';
 import { GatewayRefused, GatewayUnavailable } from '@server/payments/gateway';
 import { lockingRead } from '@server/db/dialect';
@@ -14,7 +15,8 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
   const order = await findOrderInLocation(deps.db, user, orderId);
   if (!order) throw notFound('Order');
   if (order.payment_status === 'unpaid') throw conflict('This order was never paid; void it instead');
-  const refundable = order.total_cents - order.refunded_cents;
+  // what the customer paid, the tip included: a full refund gives the tip back too
+  const refundable = amountDueCents(order.total_cents, order.tip_cents) - order.refunded_cents;
   if (refundable <= 0) throw conflict('This order has been refunded in full already');
   const amount = input.amountCents ?? refundable;
   if (amount > refundable) {
@@ -58,7 +60,7 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
       }
     }
     const refunded = fresh.refunded_cents + amount;
-    const full = refunded === fresh.total_cents;
+    const full = refunded === amountDueCents(fresh.total_cents, fresh.tip_cents);
     await trx('refunds').insert({
       order_id: orderId,
       payment_id: payment.id,

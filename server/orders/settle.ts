@@ -16,28 +16,28 @@ export function settledColumns(hasBarDrinks: boolean, at: string) {
   };
 }
 
-/** Refuses cash that doesn't cover the total (400, on the tendered field). */
-export function requireEnoughCash(totalCents: number, tenderedCents: number): void {
-  if (tenderedCents < totalCents) {
-    throw invalid('The cash tendered is less than the total', [{ path: 'payment.tenderedCents', message: `At least ${totalCents} cents are due` }]);
+/** Refuses cash that doesn't cover the amount due, the tip included (400, on the tendered field). */
+export function requireEnoughCash(dueCents: number, tenderedCents: number): void {
+  if (tenderedCents < dueCents) {
+    throw invalid('The cash tendered is less than the amount due', [{ path: 'payment.tenderedCents', message: `At least ${dueCents} cents are due` }]);
   }
 }
 
-/** The columns that say how an order was paid in cash. */
-export const cashColumns = (totalCents: number, tenderedCents: number) => ({
+/** The columns that say how an order was paid in cash; `dueCents` is the total and the tip. */
+export const cashColumns = (dueCents: number, tenderedCents: number) => ({
   payment_method: 'cash' as const,
   tendered_cents: tenderedCents,
-  change_cents: tenderedCents - totalCents,
+  change_cents: tenderedCents - dueCents,
 });
 
-/** The succeeded payment row of cash taken at `at`. */
-export const cashPayment = (orderId: number, totalCents: number, tenderedCents: number, at: string) => ({
+/** The succeeded payment row of cash taken at `at`: the amount is the total and the tip. */
+export const cashPayment = (orderId: number, dueCents: number, tenderedCents: number, at: string) => ({
   order_id: orderId,
   method: 'cash',
   status: 'succeeded',
-  amount_cents: totalCents,
+  amount_cents: dueCents,
   tendered_cents: tenderedCents,
-  change_cents: tenderedCents - totalCents,
+  change_cents: tenderedCents - dueCents,
   created_at: at,
   updated_at: at,
 });

@@ -6,6 +6,7 @@
 // order's money is touched again: the next card, cash or a void). The order is fired to the bar
 // only once its payment has succeeded.
 import type { OrderView, SessionUser } from '@/domain/types';
+import { amountDueCents } from '@/domain/tips';
 import { lockingRead } from '@server/db/dialect';
 import { isUniqueViolation } from '@server/db/rows';
 import { conflict, declined, notFound, notSetUp, upstreamFailed } from '@server/domain-errors';
@@ -21,12 +22,13 @@ async function startAttempt(deps: Deps, user: SessionUser, orderId: number) {
     if (!order) throw notFound('Order');
     if (order.payment_status !== 'unpaid' || order.status !== 'pending') return null; // already settled
     const at = deps.clock().toISOString();
+    const due = amountDueCents(order.total_cents, order.tip_cents); // the tip is charged with the order
     try {
       const [{ id }] = await trx('payments')
-        .insert({ order_id: orderId, method: 'card', status: 'processing', amount_cents: order.total_cents, created_at: at, updated_at: at })
+        .insert({ order_id: orderId, method: 'card', status: 'processing', amount_cents: due, created_at: at, updated_at: at })
         .returning('id');
       const location = await loadLocation(trx, user.locationId);
-      return { paymentId: id as number, amountCents: order.total_cents as number, currency: location.currency };
+      return { paymentId: id as number, amountCents: due, currency: location.currency };
     } catch (err) {
       if (isUniqueViolation(err)) throw conflict('A card payment for this order is in progress');
       throw err;

@@ -74,6 +74,10 @@ export function reportCsv(report: ReportView): string {
   add('Totals', undefined, `discounts (${cur})`, amount(report.discountCents));
   add('Totals', undefined, `refunds (${cur})`, amount(report.refundsCents));
   add('Totals', undefined, `net (${cur})`, amount(report.netCents));
+  // tips are the staff's, outside gross, net and tax
+  add('Tips', undefined, `total (${cur})`, amount(report.tips.cents));
+  add('Tips', 'cash', `kept (${cur})`, amount(report.tips.cashCents));
+  add('Tips', 'card', `kept (${cur})`, amount(report.tips.cardCents));
   for (const m of ['cash', 'card'] as const) {
     add('Payment mix', m, 'orders', report.paymentMix[m].orders);
     add('Payment mix', m, `taken (${cur})`, amount(report.paymentMix[m].cents));

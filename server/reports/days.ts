@@ -18,7 +18,7 @@ import { median, summarizeWaits } from '@/domain/stats';
 import { businessDate } from '@/domain/business-date';
 import { localHourSql } from './local-hours';
 import { moneyView, PAID, type ReportLocation } from './scope';
-import { HAS_WAIT, n, waitSeconds, type LineRow, type MoneyRow, type WaitRow } from './sql';
+import { HAS_WAIT, n, ORDER_REFUNDS, waitSeconds, type LineRow, type MoneyRow, type WaitRow } from './sql';
 
 const OVER_TARGET_LIMIT = 20;
 const TOP_ITEMS = 10;
@@ -91,7 +91,7 @@ export async function computeDays(db: Knex, location: ReportLocation, from: stri
   const money = rawRows<MoneyRow & { d: string }>(
     await db.raw(
       `SELECT o.business_date AS d, ${hour.sql} AS hour, COUNT(*) AS orders, SUM(o.total_cents) AS gross, SUM(o.tax_cents) AS tax,
-         SUM(o.discount_cents) AS discount, SUM(o.refunded_cents) AS refunds,
+         SUM(o.discount_cents) AS discount, SUM(${ORDER_REFUNDS}) AS refunds,
          SUM(CASE WHEN o.payment_method = 'cash' THEN 1 ELSE 0 END) AS cash_orders, SUM(CASE WHEN o.payment_method = 'cash' THEN o.total_cents ELSE 0 END) AS cash_cents
        FROM orders o WHERE ${where} AND ${PAID} GROUP BY 1, 2`,
       [...hour.bindings, ...bindings],
@@ -242,7 +242,7 @@ export function mergeDays(
   parts: DayPartial[],
   dates: string[],
   targetSeconds: number,
-): Omit<ReportView, 'period' | 'currency' | 'locale' | 'timeZone' | 'targetSeconds'> {
+): Omit<ReportView, 'period' | 'currency' | 'locale' | 'timeZone' | 'targetSeconds' | 'tips'> {
   const t = { orders: 0, gross: 0, tax: 0, discount: 0, refunds: 0, cashOrders: 0, cashCents: 0, drinks: 0, shots: 0, dose: 0 };
   const hours = new Map<number, HourRow>();
   const milks = new Map<string, number>();

@@ -48,6 +48,9 @@ export function shiftReportEmail(report: ReportView, location: ReportMailLocatio
     ['Tax', money(report.taxCents)],
     ['Refunds', money(report.refundsCents)],
     ['Net (gross less refunds)', money(report.netCents)],
+    ...(report.tips.cents > 0
+      ? [['Tips (not in net or tax)', `${money(report.tips.cents)} · cash ${money(report.tips.cashCents)} · card ${money(report.tips.cardCents)}`] as Row]
+      : []),
     ['Cash', `${report.paymentMix.cash.orders} orders · ${money(report.paymentMix.cash.cents)}`],
     ['Card', `${report.paymentMix.card.orders} orders · ${money(report.paymentMix.card.cents)}`],
   ];

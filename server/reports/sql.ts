@@ -19,6 +19,15 @@ export const HAS_WAIT = `o.status <> 'void' AND o.fired_at IS NOT NULL AND o.rea
  */
 export const waitOfOrder = (d: Dialect) => `CASE WHEN o.fired_at IS NOT NULL AND o.ready_at IS NOT NULL AND ${HAS_BAR_DRINK} THEN ${waitSeconds(d)} END`;
 
+/**
+ * The part of an order's refunds that gave back the order's own money: refunded_cents counts the
+ * tip too, and a refund gives the order's total back first, the tip only past it (refundSplit in
+ * src/domain/tips.ts). Net revenue subtracts this part only; the tip's part comes off the tips.
+ */
+export const ORDER_REFUNDS = `CASE WHEN o.refunded_cents > o.total_cents THEN o.total_cents ELSE o.refunded_cents END`;
+/** The tip the café kept: the order's tip less what a refund gave back of it. */
+export const TIP_KEPT = `(o.tip_cents - (o.refunded_cents - ${ORDER_REFUNDS}))`;
+
 /** A SUM or COUNT as it comes back: a number or null (SQLite), text for big integers (PostgreSQL). */
 export type Sum = number | string | null;
 

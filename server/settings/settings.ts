@@ -14,7 +14,7 @@ import {
 } from '@/domain/settings-schemas';
 import type { SessionUser } from '@/domain/types';
 import { bool, json } from '@server/db/rows';
-import { conflict, notFound } from '@server/domain-errors';
+import { conflict, fieldsNeedFixing, notFound } from '@server/domain-errors';
 import type { Deps } from '@server/deps';
 import { appendMenuChangedEvent, runCommand } from '@server/events';
 import { loadMenu } from '@server/menu/menu';
@@ -40,6 +40,9 @@ const COLUMNS = {
   allergenList: 'allergen_list',
   receiptFooter: 'receipt_footer',
   readyMail: 'ready_mail',
+  tipsOn: 'tips_on',
+  tipPercents: 'tip_percents',
+  tipCustom: 'tip_custom',
 } as const satisfies Record<keyof SettingsView, string>;
 
 async function loadSettingsView(db: Db, locationId: number): Promise<SettingsView> {
@@ -65,6 +68,9 @@ async function loadSettingsView(db: Db, locationId: number): Promise<SettingsVie
     allergenList: l.allergen_list,
     receiptFooter: l.receipt_footer ?? null,
     readyMail: bool(l.ready_mail),
+    tipsOn: bool(l.tips_on),
+    tipPercents: json<number[]>(l.tip_percents, []),
+    tipCustom: bool(l.tip_custom),
   };
 }
 
@@ -123,9 +129,14 @@ export function updateSettings(deps: Deps, user: SessionUser, body: SettingsBody
     const changes: Record<string, unknown> = {};
     for (const [key, column] of Object.entries(COLUMNS)) {
       const value = body[key as keyof typeof COLUMNS];
-      if (value !== undefined) changes[column] = value;
+      if (value !== undefined) changes[column] = Array.isArray(value) ? JSON.stringify(value) : value;
     }
     await trx('locations').where({ id: user.locationId }).update(changes);
+    const tips = await loadSettingsView(trx, user.locationId);
+    if (tips.tipsOn && tips.tipPercents.length === 0 && !tips.tipCustom) {
+      // tips on with nothing to offer would show the cashier an empty choice
+      throw fieldsNeedFixing([{ path: 'tipPercents', message: 'Suggest at least one tip, or allow a custom amount' }]);
+    }
     const at = deps.clock().toISOString();
     return { result: await loadSettings(trx, user.locationId), events: [await appendMenuChangedEvent(trx, user.locationId, at, user.id)] };
   });

@@ -32,6 +32,12 @@ export interface ShiftCash {
   oldestOpenWaitSecondsAtClose: number | null;
 }
 
+export interface TipTotals {
+  cents: number;
+  cashCents: number;
+  cardCents: number;
+}
+
 export interface MoneyByMethod {
   orders: number;
   /** total_cents of the method's paid and refunded orders, before refunds (sums to grossCents) */
@@ -76,6 +82,8 @@ export interface ReportView {
   refundsCents: number;
   /** grossCents − refundsCents */
   netCents: number;
+  /** the customers' tips, kept (less tips refunded): never in gross, net or tax */
+  tips: TipTotals;
   paymentMix: { cash: MoneyByMethod; card: MoneyByMethod };
   /** fired → ready, in seconds, of the tickets with bar drinks that reached ready */
   waits: WaitSummary;

@@ -6,6 +6,7 @@ import { TICKET_SORTS } from './reports';
 import { daysInRange, MAX_REPORT_DAYS } from './report-days';
 import { SCREENS, type ScreenId } from './screens';
 import { plainText } from './text';
+import { TIP_MAX_CENTS } from './tips';
 
 export const signInBody = z.object({
   username: plainText().min(1, 'Enter your sign-in name').max(64),
@@ -73,6 +74,13 @@ export const createOrderBody = z.object({
     .min(1, 'Add at least one item')
     .max(40, 'An order holds at most 40 lines')
     .refine((items) => cupsOf(items) <= MAX_CUPS, `An order holds at most ${MAX_CUPS} drinks and items`),
+  /** The customer's tip in cents, on top of the total (never taxed); only when the café takes tips. */
+  tipCents: z
+    .number({ error: 'Tip: an amount in cents' })
+    .int('Tip: whole cents')
+    .min(0, 'Tip: not below 0')
+    .max(TIP_MAX_CENTS, `Tip: at most ${TIP_MAX_CENTS} cents`)
+    .optional(),
   payment: z.discriminatedUnion('method', [cashPayment, cardPayment]),
 });
 export type CreateOrderBody = z.infer<typeof createOrderBody>;

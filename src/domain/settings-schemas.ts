@@ -5,6 +5,7 @@ import { z } from 'zod';
 import type { AllergenSwitchPreview } from './allergen-switch';
 import type { AllergenList } from './allergens';
 import { plainText } from './text';
+import { TIP_PERCENT, TIP_SUGGESTIONS_MAX } from './tips';
 import { TEMPERATURE_UNITS, VOLUME_UNITS, type TemperatureUnit, type VolumeUnit } from './units';
 
 export const WAIT_TARGET_SECONDS = { min: 60, max: 1800 } as const;
@@ -126,6 +127,12 @@ export const SETTINGS_FIELDS = {
   allergenList: z.enum(['US', 'EU']),
   receiptFooter: receiptFooterField,
   readyMail: z.boolean({ error: 'Ready mail: on or off' }),
+  tipsOn: z.boolean({ error: 'Tips: on or off' }),
+  tipPercents: z
+    .array(int(TIP_PERCENT.min, TIP_PERCENT.max, 'Suggested tip in %'), { error: 'Suggested tips: a list of percents' })
+    .max(TIP_SUGGESTIONS_MAX, `At most ${TIP_SUGGESTIONS_MAX} suggested tips`)
+    .refine((p) => new Set(p).size === p.length, 'Each suggested tip once'),
+  tipCustom: z.boolean({ error: 'Custom tip: allowed or not' }),
 };
 export type SettingKey = keyof typeof SETTINGS_FIELDS;
 
@@ -178,6 +185,12 @@ export interface SettingsView {
   receiptFooter: string | null;
   /** Mail a customer who left an address for the receipt when the order is ready. */
   readyMail: boolean;
+  /** Tips at the Counter: off (the default), or on with suggested percentages and/or a custom amount. */
+  tipsOn: boolean;
+  /** suggested whole percents (1–50), at most three, in the order the owner set them */
+  tipPercents: number[];
+  /** the customer may name a tip of their own */
+  tipCustom: boolean;
 }
 
 export interface PitcherView {

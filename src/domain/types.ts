@@ -2,6 +2,7 @@
 import type { BarEffect } from './drink-options';
 import type { Jug, JugRules, SteamedTexture } from './jug-plan';
 import type { Role } from './roles';
+import type { TipSettings } from './tips';
 import type { TemperatureUnit, VolumeUnit } from './units';
 
 export type Station = 'bar' | 'counter';
@@ -58,6 +59,8 @@ export interface LocationView {
   /** The café mails a customer who left an address when the order is ready (Settings); the
    * Counter tells the customer so. Left out by hand-made fixtures: read it with `?? true`. */
   readyMail?: boolean;
+  /** Tips at the Counter (Settings). Left out by hand-made fixtures: read it with `?? TIPS_OFF`. */
+  tips?: TipSettings;
   jugWasteMl: number;
   /** Display units (src/domain/units.ts); sizes stay in ml. The server always sets them; read them
    * with `?? 'ml'` / `?? 'C'` where a hand-made fixture leaves them out. */
@@ -237,6 +240,9 @@ export interface OrderView {
   discountReason: string | null;
   taxCents: number;
   totalCents: number;
+  /** the customer's tip, outside the total (never taxed); they paid totalCents + tipCents */
+  tipCents: number;
+  /** everything given back, the tip included once the order's total is back */
   refundedCents: number;
   payment: {
     method: 'cash' | 'card';

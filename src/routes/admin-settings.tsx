@@ -12,6 +12,7 @@ import { MoneySection } from '@/features/settings/money-section';
 import { PitchersSection } from '@/features/settings/pitchers-section';
 import { settingsQuery } from '@/queries/settings';
 import { ReceiptsSection } from '@/features/settings/receipts-section';
+import { TipsSection } from '@/features/settings/tips-section';
 import { UnitsSection } from '@/features/settings/units-section';
 import { useApi } from '@/lib/api-context';
 import { requireScreen, type RouteDeps } from './deps';
@@ -35,6 +36,7 @@ function AdminSettings() {
         <div className="flex flex-col gap-5">
           <CafeSection settings={settings} />
           <MoneySection settings={settings} />
+          <TipsSection settings={settings} />
           <UnitsSection page={page} />
           <AllergensSection page={page} />
         </div>

@@ -16,7 +16,9 @@ import { LinkStateBadge } from '@/components/ui/link-state';
 import { StaffMenu } from '@/features/team/staff-menu';
 import { barBoardQuery } from '@/queries/board';
 import { useLiveBoard } from '@/live/use-live-board';
-import { emptyCheckout, previewTotals, tenderedCents, type Checkout } from '@/features/counter/checkout';
+import { emptyCheckout, previewTotals, tenderedCents, tipCentsOf, type Checkout } from '@/features/counter/checkout';
+import { TipPicker } from '@/features/counter/tip-picker';
+import { amountDueCents, maxTipCents, TIPS_OFF } from '@/domain/tips';
 import { CheckoutPanel, PaymentPanel, SendBar } from '@/features/counter/checkout-panel';
 import { ItemSheet } from '@/features/counter/item-sheet';
 import { OrdersDrawer } from '@/features/counter/orders-drawer';
@@ -64,6 +66,11 @@ function Counter() {
   const items = form.watch('items');
   useLeaveGuard(items.length > 0 ? `The order being built (${plural(cupsOf(items), 'item')}) has not been sent and will be lost.` : null);
   const totals = previewTotals(menu, items, checkout.discount);
+  const tips = menu.location.tips ?? TIPS_OFF;
+  // the tip is on top of the order's total (never taxed); what the customer pays is both
+  const tipCents = tips.on ? tipCentsOf(checkout.tip, totals.totalCents) : 0;
+  const tipOk = tipCents !== null && tipCents <= maxTipCents(totals.totalCents);
+  const dueCents = amountDueCents(totals.totalCents, tipCents ?? 0);
   const queued = board.tickets.filter((t) => t.status === 'open').flatMap((t) => t.drinks.filter((d) => d.status !== 'done'));
 
   const pick = useCallback(
@@ -106,16 +113,17 @@ function Counter() {
       allergyNote: draft.allergyNote || undefined,
       customerEmail: checkout.email.trim() || undefined,
       discount: checkout.discount ?? undefined,
+      tipCents: tipCents ? tipCents : undefined,
     };
     try {
       const payment =
         checkout.method === 'card'
           ? ({ method: 'card', paymentMethod: checkout.paymentMethod! } as const)
-          : ({ method: 'cash', tenderedCents: tenderedCents(checkout, totals.totalCents) ?? 0 } as const);
+          : ({ method: 'cash', tenderedCents: tenderedCents(checkout, dueCents) ?? 0 } as const);
       // Cash that can't reach the server is kept and resent by itself. A card is charged only
       // with the customer there: one that can't reach the server is held, and the banner asks
       // the cashier (charge it now, they paid cash, or cancel) — never charged on its own.
-      const result = await offlineOrders.sendOrQueue({ ...base, payment }, { totalCents: totals.totalCents });
+      const result = await offlineOrders.sendOrQueue({ ...base, payment }, { totalCents: dueCents });
       if (result.queued) send.reset();
       // the receipt address travels in the order: the server mails it once the order is in, even
       // when it is sent later as an offline order
@@ -171,8 +179,8 @@ function Counter() {
           className="fixed right-2 bottom-2 left-2 z-10 flex flex-wrap items-center gap-x-5 gap-y-1 rounded-xl bg-ink-900 px-5 py-3 text-xl text-steam-50 shadow-xl md:right-auto md:bottom-4 md:left-4 md:max-w-[calc(100%-30rem)]"
         >
           <span>
-            Sent <strong>#{sent.number}</strong> for <strong>{sent.customerName}</strong> · {money(sent.totalCents)}{' '}
-            {sent.payment.method === 'card' ? '· card paid' : ''}
+            Sent <strong>#{sent.number}</strong> for <strong>{sent.customerName}</strong> · {money(amountDueCents(sent.totalCents, sent.tipCents ?? 0))}
+            {sent.tipCents ? ` with ${money(sent.tipCents)} tip` : ''} {sent.payment.method === 'card' ? '· card paid' : ''}
             {sent.allergens.length > 0 || sent.allergyNote ? ' · ⚠ allergy flagged' : ''}
           </span>
           {sent.payment.method === 'cash' && (
@@ -241,9 +249,37 @@ function Counter() {
                 canDiscount={can(session.user?.role, 'giveDiscounts')}
               />
             </div>
-            <PaymentPanel key={`pay-${orderCount}`} menu={menu} form={form} checkout={checkout} onCheckout={setCheckout} totalCents={totals.totalCents} />
+            <PaymentPanel
+              key={`pay-${orderCount}`}
+              menu={menu}
+              form={form}
+              checkout={checkout}
+              onCheckout={setCheckout}
+              totalCents={dueCents}
+              tipPicker={
+                tips.on && (
+                  <TipPicker
+                    tips={tips}
+                    tip={checkout.tip}
+                    tipCents={tipCents}
+                    totalCents={totals.totalCents}
+                    currency={menu.location.currency}
+                    onChange={(tip) => setCheckout({ ...checkout, tip })}
+                  />
+                )
+              }
+            />
           </div>
-          <SendBar menu={menu} form={form} checkout={checkout} onCheckout={setCheckout} totalCents={totals.totalCents} sending={send.isPending} error={error} />
+          <SendBar
+            menu={menu}
+            form={form}
+            checkout={checkout}
+            onCheckout={setCheckout}
+            totalCents={dueCents}
+            sending={send.isPending}
+            tipOk={tipOk}
+            error={error}
+          />
         </aside>
       </form>
       {sheet && (

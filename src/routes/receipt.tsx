@@ -3,6 +3,7 @@ import { useSuspenseQuery } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router';
 import { formatCents } from '@/domain/money';
 import { groupOrderLines } from '@/domain/order-quantity';
+import { amountDueCents } from '@/domain/tips';
 import { Button } from '@/components/ui/button';
 import { menuQuery } from '@/queries/menu';
 import { orderQuery } from '@/queries/orders';
@@ -57,8 +58,17 @@ function Receipt() {
         <dd className="text-right">{money(o.taxCents)}</dd>
         <dt className="text-base font-semibold">Total</dt>
         <dd className="text-right text-base font-semibold">{money(o.totalCents)}</dd>
+        {o.tipCents > 0 && (
+          // outside the total: the tip is never taxed or discounted
+          <>
+            <dt>Tip</dt>
+            <dd className="text-right">{money(o.tipCents)}</dd>
+            <dt className="text-base font-semibold">Amount paid</dt>
+            <dd className="text-right text-base font-semibold">{money(amountDueCents(o.totalCents, o.tipCents))}</dd>
+          </>
+        )}
         <dt>{o.payment.method === 'card' ? 'Card' : 'Cash'}</dt>
-        <dd className="text-right">{money(o.payment.tenderedCents ?? o.totalCents)}</dd>
+        <dd className="text-right">{money(o.payment.tenderedCents ?? amountDueCents(o.totalCents, o.tipCents))}</dd>
         {o.payment.method === 'cash' && (
           <>
             <dt>Change</dt>

@@ -59,6 +59,10 @@ describe('GET /api/settings', () => {
       allergenList: 'US',
       receiptFooter: null,
       readyMail: true, // the migration's default (20261203130000_ready_mail.ts)
+      // tips off by default; the suggestions the owner sees on turning them on (20261203150000_tips.ts)
+      tipsOn: false,
+      tipPercents: [10, 15, 20],
+      tipCustom: true,
     });
     // minimum fill: a third of the capacity rounded up to 10 ml (common practice, from memory)
     expect(p.pitchers.map((x) => [x.capacityMl, x.fillLineMl, x.minFillMl])).toEqual([

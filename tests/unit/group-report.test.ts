@@ -30,6 +30,7 @@ function report(over: Partial<ReportView>): ReportView {
     discountCents: 0,
     refundsCents: 0,
     netCents: 0,
+    tips: { cents: 0, cashCents: 0, cardCents: 0 },
     paymentMix: { cash: { orders: 0, cents: 0 }, card: { orders: 0, cents: 0 } },
     waits: waits(null),
     overTarget: [],

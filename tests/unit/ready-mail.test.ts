@@ -47,6 +47,7 @@ function order(over: Partial<OrderView> = {}): OrderView {
     discountReason: null,
     taxCents: 100,
     totalCents: 1315,
+    tipCents: 0,
     refundedCents: 0,
     payment: { method: 'cash', tenderedCents: 2000, changeCents: 685, providerId: null },
     changeCents: 685,

@@ -47,6 +47,7 @@ function order(over: Partial<OrderView> = {}): OrderView {
     discountReason: null,
     taxCents: 100,
     totalCents: 1315,
+    tipCents: 0,
     refundedCents: 0,
     payment: { method: 'cash', tenderedCents: 2000, changeCents: 685, providerId: null },
     changeCents: 685,
@@ -84,6 +85,20 @@ describe('receiptEmail', () => {
     expect(text).toContain('Discount (Regular): −$1.50');
     expect(text).toContain('Paid by card: $13.15');
     expect(text).not.toContain('change');
+  });
+
+  it('says a tip after the total (outside it), then the amount paid; no tip line without one', () => {
+    // by hand: total $13.15 + tip $1.97 (15 %) = $15.12 charged to the card; cash $20.00 − $15.12 = $4.88 change
+    const card = receiptEmail(order({ tipCents: 197, payment: { method: 'card', tenderedCents: null, changeCents: null, providerId: 'pi_1' } }), cafe);
+    expect(card.text).toContain('Tax: $1.00\nTotal: $13.15\nTip: $1.97\nAmount paid: $15.12');
+    expect(card.text).toContain('Paid by card: $15.12');
+    expect(card.html).toContain('Tip');
+    const cash = receiptEmail(
+      order({ tipCents: 197, changeCents: 488, payment: { method: 'cash', tenderedCents: 2000, changeCents: 488, providerId: null } }),
+      cafe,
+    );
+    expect(cash.text).toContain('Paid in cash: $20.00 · change $4.88');
+    expect(receiptEmail(order(), cafe).text).not.toContain('Tip');
   });
 
   it('writes money in the café’s currency and locale', () => {

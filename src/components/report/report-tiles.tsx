@@ -35,6 +35,15 @@ export function ReportTiles({ report }: { report: ReportView }) {
           <Tile label="Tax" value={money(report.taxCents)} hint="charged" />
           <Tile label="Discounts" value={money(report.discountCents)} hint="given" />
           <Tile label="Refunds" value={money(report.refundsCents)} hint="given back" />
+          {report.tips.cents > 0 && (
+            // the customers' money for the staff: apart from the café's revenue and never taxed
+            <Tile
+              label="Tips"
+              value={money(report.tips.cents)}
+              hint={`cash ${money(report.tips.cashCents)} · card ${money(report.tips.cardCents)}; not in net or tax`}
+              testId="tile-tips"
+            />
+          )}
         </dl>
       </section>
       <section aria-labelledby="waits-heading">

@@ -1,6 +1,6 @@
 // Paying: the name for the cup, here or to go, allergies, a receipt address, a lead's discount,
 // and cash (with change) or card (through the card reader).
-import { useId, useState } from 'react';
+import { useId, useState, type ReactNode } from 'react';
 import type { UseFormReturn } from 'react-hook-form';
 import { cashQuickAmounts, formatCents } from '@/domain/money';
 import type { OrderDraft, OrderDraftInput } from '@/domain/schemas';
@@ -61,7 +61,14 @@ export function CheckoutPanel({ menu, checkout, onCheckout, canDiscount }: Omit<
  * Pinned under the order's lines, so on a 1024×768 tablet the name, here or to go, and every
  * payment choice are in view without scrolling, however long the order.
  */
-export function PaymentPanel({ menu, form, checkout, onCheckout, totalCents }: Omit<Props, 'sending' | 'error' | 'canDiscount'>) {
+export function PaymentPanel({
+  menu,
+  form,
+  checkout,
+  onCheckout,
+  totalCents,
+  tipPicker,
+}: Omit<Props, 'sending' | 'error' | 'canDiscount'> & { tipPicker?: ReactNode }) {
   const money = (c: number) => formatCents(c, menu.location.currency);
   const [allergyOpen, setAllergyOpen] = useState(false);
   const allergens = form.watch('allergens') ?? [];
@@ -123,6 +130,7 @@ export function PaymentPanel({ menu, form, checkout, onCheckout, totalCents }: O
           ]}
         />
       </div>
+      {tipPicker}
       {checkout.method === 'cash' ? (
         <div>
           <label className="block text-base font-semibold" htmlFor="tendered">
@@ -184,7 +192,7 @@ export function PaymentPanel({ menu, form, checkout, onCheckout, totalCents }: O
 }
 
 /** Always in view at the bottom of the order: what went wrong, and the one big action. */
-export function SendBar({ menu, form, checkout, onCheckout, totalCents, sending, error }: Omit<Props, 'canDiscount'>) {
+export function SendBar({ menu, form, checkout, onCheckout, totalCents, sending, error, tipOk = true }: Omit<Props, 'canDiscount'> & { tipOk?: boolean }) {
   const tendered = tenderedCents(checkout, totalCents);
   const items = form.watch('items');
   const clashes = clashesOf(menu, items, form.watch('allergens') ?? []);
@@ -192,6 +200,7 @@ export function SendBar({ menu, form, checkout, onCheckout, totalCents, sending,
   const blocked = blockedLines(menu, items);
   const ready =
     blocked.length === 0 &&
+    tipOk &&
     (checkout.method === 'card' ? checkout.paymentMethod !== null : tendered !== null && tendered >= totalCents) &&
     (clashes.length === 0 || checkout.clashConfirmed);
   return (

@@ -4,6 +4,7 @@ import { resolveLine } from '@/domain/order-lines';
 import { expandByQuantity } from '@/domain/order-quantity';
 import type { DiscountInput, OrderLineInput } from '@/domain/schemas';
 import { allergyClash } from '@/domain/allergens';
+import { tipForPercent } from '@/domain/tips';
 import type { MenuView } from '@/domain/types';
 
 export interface Checkout {
@@ -15,9 +16,28 @@ export interface Checkout {
   discount: DiscountInput | null;
   /** The cashier checked with the customer that a drink containing their allergen is wanted. */
   clashConfirmed: boolean;
+  /** The customer's tip, when the café takes tips: none, a suggested percentage, or an amount as typed. */
+  tip: TipChoice;
 }
 
-export const emptyCheckout: Checkout = { method: 'cash', tendered: '', paymentMethod: null, email: '', discount: null, clashConfirmed: false };
+export type TipChoice = { kind: 'none' } | { kind: 'percent'; percent: number } | { kind: 'custom'; text: string };
+
+export const emptyCheckout: Checkout = {
+  method: 'cash',
+  tendered: '',
+  paymentMethod: null,
+  email: '',
+  discount: null,
+  clashConfirmed: false,
+  tip: { kind: 'none' },
+};
+
+/** The tip in cents on an order of this total (after discount, with tax); null when the typed amount isn't one. */
+export function tipCentsOf(tip: TipChoice, totalCents: number): number | null {
+  if (tip.kind === 'none') return 0;
+  if (tip.kind === 'percent') return tipForPercent(totalCents, tip.percent);
+  return tip.text.trim() === '' ? 0 : parseAmountToCents(tip.text);
+}
 
 /** "Flat white contains tree nuts (from the almond milk)": each line that contains an allergen the
  * customer avoids, and where in the drink it comes from, so the cashier knows what to swap. */
