@@ -45,10 +45,13 @@ export async function chooseCafe(db: Knex, user: SessionUser, sid: string, locat
   return cafe;
 }
 
+/** The signed-in person as the API shows them. */
+export const publicUser = (u: SessionUser) => ({ id: u.id, name: u.name, role: u.role });
+
 /** Who is signed in and on which café, with the cafés an owner may choose (GET /api/session, and the sign-in's answer). */
 export async function sessionView(db: Knex, user: SessionUser | undefined): Promise<SessionView> {
   if (!user) return { user: null, cafe: null, groupCafes: [] };
   const cafes = await groupCafes(db, user.locationId);
   const cafe = cafes.find((c) => c.id === user.locationId) ?? null;
-  return { user: { id: user.id, name: user.name, role: user.role }, cafe, groupCafes: can(user.role, 'switchCafe') ? cafes : [] };
+  return { user: publicUser(user), cafe, groupCafes: can(user.role, 'switchCafe') ? cafes : [] };
 }

@@ -3,7 +3,7 @@
 // The handlers of their commands (src/commands.ts).
 import type { Request, RequestHandler } from 'express';
 import { rateLimit, type Store } from 'express-rate-limit';
-import { chooseCafe } from '@server/auth/cafe-in-view';
+import { chooseCafe, publicUser } from '@server/auth/cafe-in-view';
 import type { Limits } from '@server/auth/shared-limits';
 import type { SessionUser } from '@/domain/types';
 import type { CommandHandlers } from '@server/commands';
@@ -19,7 +19,6 @@ export const WRONG_PINS_PER_ADDRESS = 20;
 /** Wrong passwords when setting one's own PIN, per person per hour. */
 export const WRONG_PASSWORDS_PER_PERSON = 10;
 
-const publicUser = (u: SessionUser) => ({ id: u.id, name: u.name, role: u.role });
 const originOf = (req: Request) => `${req.protocol}://${req.get('host')}`;
 
 /** Signs the request's session in as `user` under a new session id (passport regenerates it). */

@@ -6,17 +6,9 @@ import type { ReportView } from './reports';
 /** The most dates one day-by-day answer covers: a year, a leap day included. */
 export const MAX_REPORT_DAYS = 366;
 
-/** The figures of one date's (or the whole range's) report that a day's row shows. */
-export interface DayFigures {
-  orders: number;
-  /** bar drinks sold */
-  drinks: number;
-  grossCents: number;
-  taxCents: number;
-  discountCents: number;
-  refundsCents: number;
-  /** grossCents − refundsCents */
-  netCents: number;
+/** The figures of one date's (or the whole range's) report that a day's row shows: the report's
+ * own counts and money as they are, and the rest flattened for a table row and the CSV. */
+export interface DayFigures extends Pick<ReportView, 'orders' | 'drinks' | 'grossCents' | 'taxCents' | 'discountCents' | 'refundsCents' | 'netCents'> {
   /** what cash and card orders took, before refunds (together grossCents) */
   cashCents: number;
   cardCents: number;
