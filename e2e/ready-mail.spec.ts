@@ -5,6 +5,8 @@ import { errorsOf, expect, pageAs, test } from './fixtures';
 import { shot } from './shots';
 
 test('a customer who left an address is mailed when the Bar bumps the last drink', async ({ browser }) => {
+  // three signed-in pages and a full order: past Playwright's 30 s once on a loaded run; a net, not a measure
+  test.setTimeout(90_000);
   const bar = await pageAs(browser, 'barista', '/bar');
   const counter = await pageAs(browser, 'cashier', '/counter', { width: 1280, height: 800 });
   await expect(bar.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
