@@ -261,7 +261,7 @@ export interface Tables {
     tax_cents: number;
     total_cents: number;
     refunded_cents: number;
-    payment_method: 'cash' | 'card';
+    payment_method: 'cash' | 'card' | 'split';
     tendered_cents: number | null;
     change_cents: number | null;
     quoted_wait_seconds: number | null;
@@ -281,6 +281,7 @@ export interface Tables {
     ready_mail_at: string | null;
     ready_mail_error: string | null;
     tip_cents: number;
+    split_cash_cents: number | null;
   };
   outbox: {
     id: number;
@@ -307,6 +308,7 @@ export interface Tables {
     message: string | null;
     created_at: string;
     updated_at: string;
+    part: number;
   };
   pitchers: {
     id: number;

@@ -1,7 +1,7 @@
 // Giving money back and voiding orders that were never fired. Both reach the bar live: a fully
 // refunded order that was still being made leaves the bar.
-import type { SessionUser } from '@/domain/types';
-import { amountDueCents } from '@/domain/tips';
+import { refundPlan, type PaidPart } from '@/domain/split-payment';
+import type { OrderView, SessionUser } from '@/domain/types';
 import { conflict, invalid, notFound, notSetUp, upstreamFailed } from '@server/domain-errors';
 import { GatewayRefused, GatewayUnavailable } from '@server/payments/gateway';
 import { lockingRead } from '@server/db/dialect';
@@ -9,32 +9,65 @@ import type { Deps } from '@server/deps';
 import { releaseStaleAttempts, settleOpenAttempts } from '@server/payments/card-settle';
 import { appendEvent, runCommand } from '@server/events';
 import { findOrderInLocation, loadOrder } from './order-views';
+import { paidParts, paidSum } from './settle';
 import { loadTicket } from '@server/tickets/ticket-views';
 
-export async function refundOrder(deps: Deps, user: SessionUser, orderId: number, input: { amountCents?: number; reason: string }) {
-  const order = await findOrderInLocation(deps.db, user, orderId);
-  if (!order) throw notFound('Order');
-  if (order.payment_status === 'unpaid') throw conflict('This order was never paid; void it instead');
+interface RefundInput {
+  amountCents?: number;
+  reason: string;
+  /** one part of a split order; left out, the parts give back the last paid first */
+  paymentId?: number;
+}
+
+/** Which parts give back how much: the named part alone, or the last paid first (refundPlan). */
+function planRefund(paid: PaidPart[], refundedCents: number, input: RefundInput) {
+  if (input.paymentId !== undefined) {
+    const part = paid.find((p) => p.paymentId === input.paymentId);
+    if (!part) throw invalid('That is not a paid part of this order', [{ path: 'paymentId', message: 'Not a paid part of this order' }]);
+    const left = part.amountCents - part.refundedCents;
+    if (left <= 0) throw conflict(`Part ${part.part} has been refunded in full already`);
+    const amount = input.amountCents ?? left;
+    if (amount > left) throw invalid('That is more than is left of this part', [{ path: 'amountCents', message: `At most ${left} cents can be refunded` }]);
+    return [{ paymentId: part.paymentId, amountCents: amount }];
+  }
   // what the customer paid, the tip included: a full refund gives the tip back too
-  const refundable = amountDueCents(order.total_cents, order.tip_cents) - order.refunded_cents;
+  const refundable = paidSum(paid) - refundedCents;
   if (refundable <= 0) throw conflict('This order has been refunded in full already');
   const amount = input.amountCents ?? refundable;
   if (amount > refundable) {
     throw invalid('That is more than is left to refund', [{ path: 'amountCents', message: `At most ${refundable} cents can be refunded` }]);
   }
-  const payment = await deps.db('payments').where({ order_id: orderId, status: 'succeeded' }).first();
-  if (!payment) throw conflict('No successful payment to refund');
+  return refundPlan(paid, amount);
+}
 
+export async function refundOrder(deps: Deps, user: SessionUser, orderId: number, input: RefundInput) {
+  const order = await findOrderInLocation(deps.db, user, orderId);
+  if (!order) throw notFound('Order');
+  const paid = await paidParts(deps.db, orderId);
+  if (paid.length === 0) throw conflict('This order was never paid; void it instead');
+  const plan = planRefund(paid, order.refunded_cents, input);
+  let result: OrderView | undefined;
+  // one part after another, each its own refund at the card service and its own command
+  for (const step of plan) {
+    const part = paid.find((p) => p.paymentId === step.paymentId) as PaidPart;
+    result = await refundPart(deps, user, orderId, part, step.amountCents, input.reason);
+  }
+  return result as OrderView;
+}
+
+/** Give back `amount` of one paid part: at the card service first for a card, then the record. */
+async function refundPart(deps: Deps, user: SessionUser, orderId: number, part: PaidPart, amount: number, reason: string) {
   let providerId: string | null = null;
-  if (payment.method === 'card') {
+  if (part.method === 'card') {
     if (!deps.payments) throw notSetUp('Card payments are not set up here');
+    const payment = await deps.db('payments').where({ id: part.paymentId }).first('provider_id');
     // The key names what is being refunded, so a retried request can't refund twice.
     try {
       ({ providerId } = await deps.payments.refund({
         providerId: payment.provider_id,
         amountCents: amount,
-        reason: input.reason,
-        idempotencyKey: `jugline-refund-${orderId}-${order.refunded_cents}-${amount}`,
+        reason,
+        idempotencyKey: `jugline-refund-${orderId}-${part.paymentId}-${part.refundedCents}-${amount}`,
       }));
     } catch (err) {
       if (err instanceof GatewayRefused) throw conflict(`The card service refused the refund: ${err.message}`);
@@ -50,7 +83,9 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
     // re-read inside the transaction, holding the order: another refund may have landed meanwhile,
     // and one sent at the same moment waits here until this one has committed
     const fresh = await lockingRead(trx, trx('orders').where({ id: orderId })).first();
-    if (fresh.refunded_cents !== order.refunded_cents) {
+    const now = await paidParts(trx, orderId);
+    const freshPart = now.find((p) => p.paymentId === part.paymentId) as PaidPart;
+    if (freshPart.refundedCents !== part.refundedCents) {
       // Cash: nothing has been handed back yet, so refuse. Card: the provider has already given
       // this money back (it checks the charge's own balance), so it must be recorded, unless it
       // is the same refund again, replayed by the provider for the same idempotency key.
@@ -60,12 +95,14 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
       }
     }
     const refunded = fresh.refunded_cents + amount;
-    const full = refunded === amountDueCents(fresh.total_cents, fresh.tip_cents);
+    const full = refunded === paidSum(now);
+    // an order still waiting for its other parts was never made: all given back, it is void
+    const waiting = fresh.status === 'pending';
     await trx('refunds').insert({
       order_id: orderId,
-      payment_id: payment.id,
+      payment_id: part.paymentId,
       amount_cents: amount,
-      reason: input.reason,
+      reason,
       provider_id: providerId,
       created_by: user.id,
       created_at: at,
@@ -74,9 +111,9 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
       .where({ id: orderId })
       .update({
         refunded_cents: refunded,
-        payment_status: full ? 'refunded' : 'paid',
+        ...(waiting ? {} : { payment_status: full ? 'refunded' : 'paid' }),
         // drinks not yet made are not made: the ticket leaves the bar
-        ...(full && fresh.status === 'open' ? { status: 'void', void_reason: input.reason } : {}),
+        ...(full && (fresh.status === 'open' || waiting) ? { status: 'void', void_reason: reason } : {}),
       });
     const ticket = await loadTicket(trx, orderId);
     const event = await appendEvent(trx, user.locationId, 'order.refunded', ticket, at, user.id);
@@ -91,6 +128,10 @@ export async function voidOrder(deps: Deps, user: SessionUser, orderId: number, 
     if (!order) throw notFound('Order');
     if (order.status !== 'pending' || order.payment_status !== 'unpaid') {
       throw conflict('Only an order that was never paid can be voided; refund a paid one');
+    }
+    // a split with a part paid: that money goes back first (a refund of the whole voids it)
+    if ((await paidParts(trx, orderId)).length > 0 && order.refunded_cents === 0) {
+      throw conflict('Part of this order is paid; refund it, and the order is void once all of it is back');
     }
     const live = await trx('payments').where({ order_id: orderId, status: 'processing' }).first('id');
     if (live) throw conflict('A card payment for this order is in progress');

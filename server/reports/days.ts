@@ -18,7 +18,7 @@ import { median, summarizeWaits } from '@/domain/stats';
 import { businessDate } from '@/domain/business-date';
 import { localHourSql } from './local-hours';
 import { moneyView, PAID, type ReportLocation } from './scope';
-import { HAS_WAIT, n, ORDER_REFUNDS, waitSeconds, type LineRow, type MoneyRow, type WaitRow } from './sql';
+import { CASH_OF_TOTAL, CASH_ORDER, HAS_WAIT, n, ORDER_REFUNDS, waitSeconds, type LineRow, type MoneyRow, type WaitRow } from './sql';
 
 const OVER_TARGET_LIMIT = 20;
 const TOP_ITEMS = 10;
@@ -92,7 +92,7 @@ export async function computeDays(db: Knex, location: ReportLocation, from: stri
     await db.raw(
       `SELECT o.business_date AS d, ${hour.sql} AS hour, COUNT(*) AS orders, SUM(o.total_cents) AS gross, SUM(o.tax_cents) AS tax,
          SUM(o.discount_cents) AS discount, SUM(${ORDER_REFUNDS}) AS refunds,
-         SUM(CASE WHEN o.payment_method = 'cash' THEN 1 ELSE 0 END) AS cash_orders, SUM(CASE WHEN o.payment_method = 'cash' THEN o.total_cents ELSE 0 END) AS cash_cents
+         SUM(CASE WHEN ${CASH_ORDER} THEN 1 ELSE 0 END) AS cash_orders, SUM(${CASH_OF_TOTAL}) AS cash_cents
        FROM orders o WHERE ${where} AND ${PAID} GROUP BY 1, 2`,
       [...hour.bindings, ...bindings],
     ),

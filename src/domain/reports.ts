@@ -116,7 +116,7 @@ export interface TicketHistoryRow {
   customerName: string;
   status: TicketStatus;
   paymentStatus: 'unpaid' | 'paid' | 'refunded';
-  paymentMethod: 'cash' | 'card';
+  paymentMethod: 'cash' | 'card' | 'split';
   totalCents: number;
   refundedCents: number;
   createdAt: string;

@@ -9,14 +9,14 @@ import { addLine, cupsOf, orderCountLabel } from '@/domain/order-quantity';
 import { plural } from '@/domain/plural';
 import { quoteLabel } from '@/domain/quote';
 import { can } from '@/domain/roles';
-import { orderDraft, type OrderDraft, type OrderDraftInput, type OrderLineInput } from '@/domain/schemas';
+import { orderDraft, type CreateOrderBody, type OrderDraft, type OrderDraftInput, type OrderLineInput } from '@/domain/schemas';
 import type { MenuItemView, OrderView } from '@/domain/types';
 import { Button } from '@/components/ui/button';
 import { LinkStateBadge } from '@/components/ui/link-state';
 import { StaffMenu } from '@/features/team/staff-menu';
 import { barBoardQuery } from '@/queries/board';
 import { useLiveBoard } from '@/live/use-live-board';
-import { emptyCheckout, previewTotals, tenderedCents, tipCentsOf, type Checkout } from '@/features/counter/checkout';
+import { emptyCheckout, previewTotals, splitParts, tenderedCents, tipCentsOf, type Checkout } from '@/features/counter/checkout';
 import { TipPicker } from '@/features/counter/tip-picker';
 import { amountDueCents, maxTipCents, TIPS_OFF } from '@/domain/tips';
 import { CheckoutPanel, PaymentPanel, SendBar } from '@/features/counter/checkout-panel';
@@ -116,10 +116,13 @@ function Counter() {
       tipCents: tipCents ? tipCents : undefined,
     };
     try {
-      const payment =
-        checkout.method === 'card'
-          ? ({ method: 'card', paymentMethod: checkout.paymentMethod! } as const)
-          : ({ method: 'cash', tenderedCents: tenderedCents(checkout, dueCents) ?? 0 } as const);
+      const split = checkout.method === 'split' ? splitParts(checkout.split, dueCents) : null;
+      const payment: CreateOrderBody['payment'] =
+        split && 'parts' in split
+          ? { method: 'split', parts: split.parts }
+          : checkout.method === 'card'
+            ? { method: 'card', paymentMethod: checkout.paymentMethod! }
+            : { method: 'cash', tenderedCents: tenderedCents(checkout, dueCents) ?? 0 };
       // Cash that can't reach the server is kept and resent by itself. A card is charged only
       // with the customer there: one that can't reach the server is held, and the banner asks
       // the cashier (charge it now, they paid cash, or cancel) — never charged on its own.
@@ -128,8 +131,11 @@ function Counter() {
       // the receipt address travels in the order: the server mails it once the order is in, even
       // when it is sent later as an offline order
       finish(result.queued ? null : result.order);
-    } catch {
-      /* shown from send.error; the same id is kept for the retry */
+    } catch (err) {
+      // shown from send.error; the same id is kept for the retry. A split says which parts the
+      // server took before a card was declined: those stay as they were, marked paid.
+      const paidParts = err instanceof ApiError ? (err.details as { paidParts?: unknown } | undefined)?.paidParts : undefined;
+      if (Array.isArray(paidParts)) setCheckout((c) => ({ ...c, paidParts: paidParts.filter((n): n is number => typeof n === 'number') }));
     }
   });
 
@@ -180,10 +186,11 @@ function Counter() {
         >
           <span>
             Sent <strong>#{sent.number}</strong> for <strong>{sent.customerName}</strong> · {money(amountDueCents(sent.totalCents, sent.tipCents ?? 0))}
-            {sent.tipCents ? ` with ${money(sent.tipCents)} tip` : ''} {sent.payment.method === 'card' ? '· card paid' : ''}
+            {sent.tipCents ? ` with ${money(sent.tipCents)} tip` : ''}{' '}
+            {sent.payment.method === 'card' ? '· card paid' : sent.payment.method === 'split' ? `· paid in ${sent.payment.parts.length} parts` : ''}
             {sent.allergens.length > 0 || sent.allergyNote ? ' · ⚠ allergy flagged' : ''}
           </span>
-          {sent.payment.method === 'cash' && (
+          {sent.payment.method !== 'card' && sent.changeCents !== null && (
             <span>
               Change due <strong data-testid="sent-change">{money(sent.changeCents)}</strong>
             </span>
