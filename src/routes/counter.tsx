@@ -28,6 +28,8 @@ import { OrderPanel } from '@/features/counter/order-panel';
 import { OfflineOrdersBanner } from '@/features/counter/offline-orders-banner';
 import { useOfflineOrders } from '@/features/counter/use-offline-orders';
 import { useSendOrder } from '@/features/counter/use-send-order';
+import { SplitEditor } from '@/features/counter/split-editor';
+import { useWide } from '@/lib/use-wide';
 import { WaitNow } from '@/features/counter/wait-now';
 import { menuQuery } from '@/queries/menu';
 import { sessionQuery } from '@/queries/session';
@@ -71,6 +73,10 @@ function Counter() {
   const tipCents = tips.on ? tipCentsOf(checkout.tip, totals.totalCents) : 0;
   const tipOk = tipCents !== null && tipCents <= maxTipCents(totals.totalCents);
   const dueCents = amountDueCents(totals.totalCents, tipCents ?? 0);
+  const wide = useWide();
+  const [menuWhileSplit, setMenuWhileSplit] = useState(false);
+  const splitOnLeft = wide && checkout.method === 'split' && !menuWhileSplit;
+  const splitEditor = <SplitEditor checkout={checkout} onCheckout={setCheckout} dueCents={dueCents} currency={menu.location.currency} />;
   const queued = board.tickets.filter((t) => t.status === 'open').flatMap((t) => t.drinks.filter((d) => d.status !== 'done'));
 
   const pick = useCallback(
@@ -100,6 +106,7 @@ function Counter() {
     clientOrderId.current = null;
     form.reset(BLANK_DRAFT);
     setCheckout(emptyCheckout);
+    setMenuWhileSplit(false);
     // the next customer's order starts at the top, with the menu in front on a phone
     for (const box of [orderScroll.current, orderScroll.current?.firstElementChild]) box?.scrollTo({ top: 0 });
     setPhoneView('menu');
@@ -213,7 +220,20 @@ function Counter() {
         className="grid min-h-0 flex-1 grid-cols-1 gap-3 p-2 md:grid-cols-[1fr_22rem] md:gap-4 md:p-4 lg:grid-cols-[1fr_26rem]"
       >
         <div className={cn('min-h-0 min-w-0 flex-col', phoneView === 'menu' ? 'flex' : 'hidden', 'md:flex')}>
-          <MenuGrid menu={menu} onPick={pick} />
+          {/* from a tablet up the parts of a split take the menu's place: the payment column has no room for them at 768 px high */}
+          {splitOnLeft ? (
+            <div className="min-h-0 flex-1 overflow-y-auto">
+              <div className="mb-2 flex items-center gap-3">
+                <h2 className="text-2xl font-semibold">Paying in parts · {money(dueCents)}</h2>
+                <Button tone="quiet" className="ml-auto" onClick={() => setMenuWhileSplit(true)}>
+                  Show the menu
+                </Button>
+              </div>
+              {splitEditor}
+            </div>
+          ) : (
+            <MenuGrid menu={menu} onPick={pick} />
+          )}
           {/* a phone: the order is one tap away, with its count and total on the button */}
           <Button size="lg" className="mt-2 w-full shrink-0 md:hidden" onClick={() => setPhoneView('order')}>
             Order · {orderCountLabel(menu, items)} · {money(totals.totalCents)} ›
@@ -263,6 +283,20 @@ function Counter() {
               checkout={checkout}
               onCheckout={setCheckout}
               totalCents={dueCents}
+              split={
+                wide ? (
+                  <p className="text-lg">
+                    The parts are on the left.{' '}
+                    {menuWhileSplit && (
+                      <Button tone="quiet" onClick={() => setMenuWhileSplit(false)}>
+                        Show the parts
+                      </Button>
+                    )}
+                  </p>
+                ) : (
+                  splitEditor
+                )
+              }
               tipPicker={
                 tips.on && (
                   <TipPicker

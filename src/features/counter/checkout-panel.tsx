@@ -11,7 +11,6 @@ import { Segmented } from '@/components/ui/segmented';
 import { AllergyPicker } from './allergy-picker';
 import { blockedLines, clashesOf, splitParts, tenderedCents, type Checkout } from './checkout';
 import { DiscountEditor } from './discount-editor';
-import { SplitEditor } from './split-editor';
 import { TEST_CARDS } from './test-cards';
 
 interface Props {
@@ -69,7 +68,8 @@ export function PaymentPanel({
   onCheckout,
   totalCents,
   tipPicker,
-}: Omit<Props, 'sending' | 'error' | 'canDiscount'> & { tipPicker?: ReactNode }) {
+  split,
+}: Omit<Props, 'sending' | 'error' | 'canDiscount'> & { tipPicker?: ReactNode; split?: ReactNode }) {
   const money = (c: number) => formatCents(c, menu.location.currency);
   const [allergyOpen, setAllergyOpen] = useState(false);
   const allergens = form.watch('allergens') ?? [];
@@ -134,7 +134,7 @@ export function PaymentPanel({
       </div>
       {tipPicker}
       {checkout.method === 'split' ? (
-        <SplitEditor checkout={checkout} onCheckout={onCheckout} dueCents={totalCents} currency={menu.location.currency} />
+        split
       ) : checkout.method === 'cash' ? (
         <div>
           <label className="block text-base font-semibold" htmlFor="tendered">
