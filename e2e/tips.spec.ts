@@ -107,6 +107,11 @@ test('tips on Pulse, in Day by day and in the cafés side by side', async ({ bro
   await days.getByRole('heading', { name: 'Day by day' }).evaluate((h) => h.scrollIntoView({ block: 'start' }));
   await days.screenshot(shot('tips-report-days'));
   await axeOf(days, '[aria-labelledby="panel-day-by-day"]');
+  // the wider table still scrolls in its own box on a phone, never the page
+  await days.setViewportSize({ width: 390, height: 844 });
+  expect(await days.evaluate(() => document.documentElement.scrollWidth <= document.documentElement.clientWidth)).toBe(true);
+  await days.getByRole('heading', { name: 'Day by day' }).evaluate((h) => h.scrollIntoView({ block: 'start' }));
+  await days.screenshot(shot('tips-report-days-phone'));
 
   // the owner's group: Harbour & Hearth's tips, none at Ropewalk, and the two added up
   const group = await pageAs(browser, 'owner', '/reports', { width: 1366, height: 900 }, own.baseURL);
