@@ -12,7 +12,7 @@
 import type { Knex } from 'knex';
 import { dialectOf, lockReportDays, rawRows } from '@server/db/dialect';
 import { json } from '@server/db/rows';
-import type { HourRow, OverTargetTicket, ReportView } from '@/domain/reports';
+import { NO_TIPS, sumTips, type HourRow, type OverTargetTicket, type ReportView, type TipTotals } from '@/domain/reports';
 import { dayFigures, type ReportDaysView } from '@/domain/report-days';
 import { median, summarizeWaits } from '@/domain/stats';
 import { businessDate } from '@/domain/business-date';
@@ -314,11 +314,18 @@ export function mergeDays(
 /**
  * Day by day from the partials (in date order): each date's row merged from its partial alone, as
  * that date's own range report is, and the total merged from all of them, as the range's report
- * is (a median of the whole range, never one of the days' medians).
+ * is (a median of the whole range, never one of the days' medians). Tips come by date from the
+ * orders (./tips.ts), a date without any as none; the total's are the days' added up.
  */
-export function dayByDay(parts: DayPartial[], dates: string[], targetSeconds: number): Pick<ReportDaysView, 'days' | 'total'> {
+export function dayByDay(
+  parts: DayPartial[],
+  dates: string[],
+  targetSeconds: number,
+  tips = new Map<string, TipTotals>(),
+): Pick<ReportDaysView, 'days' | 'total'> {
+  const tipsOf = (date: string) => tips.get(date) ?? NO_TIPS;
   return {
-    days: dates.map((date, i) => ({ date, ...dayFigures(mergeDays([parts[i]], [date], targetSeconds)) })),
-    total: dayFigures(mergeDays(parts, dates, targetSeconds)),
+    days: dates.map((date, i) => ({ date, ...dayFigures({ ...mergeDays([parts[i]], [date], targetSeconds), tips: tipsOf(date) }) })),
+    total: dayFigures({ ...mergeDays(parts, dates, targetSeconds), tips: sumTips(dates.map(tipsOf)) }),
   };
 }

@@ -9,6 +9,7 @@ import type { ReportDaysView } from '@/domain/report-days';
 import { median, summarizeWaits } from '@/domain/stats';
 import { dayByDay, datesBetween, mergeDays, rangeDays } from './days';
 import { localHour, localHourSql } from './local-hours';
+import { tipsByDate } from './tips';
 import { moneyView, PAID, rangeScope, shiftScope, type MoneyTotals, type Scope } from './scope';
 import {
   CASH_OF_TOTAL,
@@ -67,7 +68,7 @@ export async function reportDays(db: Knex, locationId: number, fromDate: string,
     locale: s.location.locale,
     timeZone: s.location.timeZone,
     targetSeconds: s.targetSeconds,
-    ...dayByDay(parts, datesBetween(fromDate, toDate), s.targetSeconds),
+    ...dayByDay(parts, datesBetween(fromDate, toDate), s.targetSeconds, await tipsByDate(db, locationId, fromDate, toDate)),
   };
 }
 
