@@ -217,7 +217,7 @@ function Counter() {
       <form
         onSubmit={onSubmit}
         noValidate
-        className="grid min-h-0 flex-1 grid-cols-1 gap-3 p-2 md:grid-cols-[1fr_22rem] md:gap-4 md:p-4 lg:grid-cols-[1fr_26rem]"
+        className="grid min-h-0 flex-1 grid-cols-1 gap-3 p-2 md:grid-cols-[1fr_22rem] md:gap-4 md:p-4 lg:grid-cols-[1fr_28rem]"
       >
         <div className={cn('min-h-0 min-w-0 flex-col', phoneView === 'menu' ? 'flex' : 'hidden', 'md:flex')}>
           {/* from a tablet up the parts of a split take the menu's place: the payment column has no room for them at 768 px high */}

@@ -12,6 +12,8 @@ const segmentStyles = cva('flex flex-col items-center justify-center rounded-lg 
   variants: {
     size: {
       regular: 'min-h-14 min-w-20 px-4 text-lg',
+      // as tall, narrower: two choices side by side on a tablet's payment column
+      snug: 'min-h-14 min-w-16 px-3 text-lg',
       // buttons share the row's width, however many there are
       compact: 'min-h-12 min-w-0 px-1 text-base leading-tight',
     },
@@ -33,12 +35,14 @@ export function Segmented<T extends string | number>({
   value,
   onChange,
   compact = false,
+  snug = false,
 }: {
   label: string;
   options: Option<T>[];
   value: T | undefined;
   onChange(v: T): void;
   compact?: boolean;
+  snug?: boolean;
 }) {
   const labelId = useId();
   const buttons = options.map((o) => {
@@ -50,7 +54,7 @@ export function Segmented<T extends string | number>({
         role="radio"
         aria-checked={selected}
         onClick={() => onChange(o.value)}
-        className={segmentStyles({ size: compact ? 'compact' : 'regular', selected })}
+        className={segmentStyles({ size: compact ? 'compact' : snug ? 'snug' : 'regular', selected })}
       >
         <span>
           {selected && <span aria-hidden>✓ </span>}

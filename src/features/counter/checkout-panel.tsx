@@ -111,8 +111,10 @@ export function PaymentPanel({
           onNote={(n) => form.setValue('allergyNote', n || undefined)}
         />
       )}
+      {/* service and payment share one row on a 1024×768 tablet (the card reader must stay in view under them) */}
       <div className="flex flex-wrap gap-x-3 gap-y-2">
         <Segmented
+          snug
           label="Service"
           value={form.watch('service')}
           onChange={(service) => form.setValue('service', service)}
@@ -122,6 +124,7 @@ export function PaymentPanel({
           ]}
         />
         <Segmented
+          snug
           label="Payment"
           value={checkout.method}
           onChange={(method) => set({ method })}
