@@ -130,7 +130,7 @@ export async function voidOrder(deps: Deps, user: SessionUser, orderId: number, 
       throw conflict('Only an order that was never paid can be voided; refund a paid one');
     }
     // a split with a part paid: that money goes back first (a refund of the whole voids it)
-    if ((await paidParts(trx, orderId)).length > 0 && order.refunded_cents === 0) {
+    if (paidSum(await paidParts(trx, orderId)) > order.refunded_cents) {
       throw conflict('Part of this order is paid; refund it, and the order is void once all of it is back');
     }
     const live = await trx('payments').where({ order_id: orderId, status: 'processing' }).first('id');

@@ -33,6 +33,8 @@ const describe = (p: { method: string; amountCents: number }) => `${p.method} ${
 async function checkAgainstPaid(deps: Deps, user: SessionUser, orderId: number, parts: readonly PaymentPart[]) {
   const order = await deps.db('orders').where({ id: orderId, location_id: user.locationId }).first();
   if (!order) throw notFound('Order');
+  // money given back from a part of this order: its parts no longer say what was paid
+  if (order.refunded_cents > 0) throw conflict('Money was given back on this order; take it again as a new order', { orderId });
   requirePartsCover(parts, amountDueCents(order.total_cents, order.tip_cents));
   for (const paid of await paidParts(deps.db, orderId)) {
     const listed = parts[paid.part - 1];

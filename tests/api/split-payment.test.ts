@@ -176,6 +176,20 @@ describe('a declined card in a split', () => {
     expect(await orderRow(orderId)).toMatchObject({ status: 'pending', payment_status: 'unpaid' });
   });
 
+  it('a part partly given back: the list sent again is refused (409), nothing more is taken', async () => {
+    const { body, orderId } = await declinedSplit();
+    expect((await lead.post(`/api/orders/${orderId}/refund`).send({ amountCents: 100, reason: 'Short change' })).status).toBe(200);
+    const before = await countRows('payments');
+    const again = await cashier.post('/api/orders').send({ ...body, payment: { method: 'split', parts: [cash(500), card(due - 500, VISA)] } });
+    expect(again.status).toBe(409);
+    expect(await countRows('payments')).toBe(before);
+    expect(await orderRow(orderId)).toMatchObject({ status: 'pending', payment_status: 'unpaid', refunded_cents: 100 });
+    // nor voided with 4.00 of the part still held: the rest is given back first
+    expect((await lead.post(`/api/orders/${orderId}/void`).send({ reason: 'Customer left' })).status).toBe(409);
+    const rest = await lead.post(`/api/orders/${orderId}/refund`).send({ reason: 'Customer left' });
+    expect(rest.body.order).toMatchObject({ status: 'void', refundedCents: 500 });
+  });
+
   it('cannot be voided while a part is paid (409); a refund gives the part back and voids it', async () => {
     const { orderId } = await declinedSplit();
     const voided = await lead.post(`/api/orders/${orderId}/void`).send({ reason: 'Customer left' });
