@@ -71,3 +71,31 @@ test('part cash, part card, a declined card replaced, one part refunded', async 
 
   for (const page of [counter, bar, lead, receipt]) expect(errorsOf(page).filter((e) => !/402/.test(e))).toEqual([]);
 });
+
+test('on a phone the parts sit under the payment choice, and nothing scrolls sideways', async ({ browser }) => {
+  const phone = await pageAs(browser, 'cashier', '/counter', { width: 390, height: 844 });
+  await phone.getByRole('button', { name: /^Espresso/ }).click();
+  await phone.getByRole('button', { name: /Add to order/ }).click();
+  await phone.getByRole('button', { name: /^Order · / }).click();
+  await phone.getByRole('radiogroup', { name: 'Payment' }).getByRole('radio', { name: 'Split' }).click();
+  const parts = phone.getByTestId('split-part');
+  await expect(parts).toHaveCount(2);
+  await phone.getByRole('button', { name: '+ Another part' }).click();
+  await expect(parts).toHaveCount(3);
+  await parts.nth(2).scrollIntoViewIfNeeded();
+  await expect(parts.nth(2).getByLabel('Card presented')).toBeInViewport();
+  expect(await phone.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+  // every control inside its part and on the screen (a fieldset grows to its content unless told not to)
+  const aside = phone.getByRole('complementary');
+  expect(
+    await aside.evaluate(
+      (el) => [el, ...el.querySelectorAll('*')].filter((e) => e.scrollWidth > e.clientWidth + 1 && getComputedStyle(e).overflowX !== 'visible').length,
+    ),
+  ).toBe(0);
+  for (const button of await phone.getByRole('button', { name: /^Remove part/ }).all()) {
+    const box = (await button.boundingBox())!;
+    expect(box.x + box.width).toBeLessThanOrEqual(390);
+  }
+  await phone.screenshot(shot('counter-split-phone'));
+  expect(errorsOf(phone)).toEqual([]);
+});

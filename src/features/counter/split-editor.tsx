@@ -8,7 +8,7 @@ import { cn } from '@/lib/cn';
 import { emptySplitPart, splitAmounts, type Checkout, type SplitPartDraft } from './checkout';
 import { TEST_CARDS } from './test-cards';
 
-const input = 'w-24 rounded-lg border border-steam-200 px-2 py-2 text-lg';
+const input = 'w-20 rounded-lg border border-steam-200 px-2 py-2 text-lg md:w-24';
 
 export function SplitEditor({
   checkout,
@@ -27,7 +27,7 @@ export function SplitEditor({
     onCheckout({ ...checkout, split: checkout.split.map((p, j) => (j === i ? { ...p, ...patch } : p)) });
   const last = checkout.split.length - 1;
   return (
-    <fieldset className="rounded-lg border border-steam-200 bg-white px-2 pb-2" data-testid="split-editor">
+    <fieldset className="min-w-0 rounded-lg border border-steam-200 bg-white px-2 pb-2" data-testid="split-editor">
       <legend className="px-1 text-sm font-semibold tracking-widest text-ink-600 uppercase">Parts</legend>
       <ol className="flex flex-col gap-2">
         {checkout.split.map((p, i) => {
@@ -37,7 +37,7 @@ export function SplitEditor({
           return (
             <li key={i} className={cn('rounded-lg border px-2 py-1.5', paid ? 'border-ink-900 bg-steam-100' : 'border-steam-200')} data-testid="split-part">
               <div className="flex flex-wrap items-center gap-2">
-                <strong className="w-14">Part {i + 1}</strong>
+                <strong className="shrink-0">Part {i + 1}</strong>
                 <div role="radiogroup" aria-label={`Part ${i + 1} paid by`} className="flex gap-1">
                   {(['cash', 'card'] as const).map((m) => (
                     <button
@@ -87,7 +87,7 @@ export function SplitEditor({
               </div>
               {!paid && p.method === 'cash' && (
                 <label className="mt-1 flex items-center gap-2">
-                  <span>Cash handed over</span>
+                  <span className="shrink-0">Cash handed over</span>
                   <input
                     inputMode="decimal"
                     autoComplete="off"
@@ -101,9 +101,9 @@ export function SplitEditor({
               )}
               {!paid && p.method === 'card' && (
                 <label className="mt-1 flex items-center gap-2">
-                  <span>Card presented</span>
+                  <span className="shrink-0">Card presented</span>
                   <select
-                    className="min-h-11 rounded-lg border border-steam-200 bg-white px-2"
+                    className="min-h-11 min-w-0 flex-1 rounded-lg border border-steam-200 bg-white px-2 md:flex-none"
                     value={p.paymentMethod ?? ''}
                     onChange={(e) => setPart(i, { paymentMethod: e.target.value || null })}
                   >
