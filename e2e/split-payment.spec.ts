@@ -2,6 +2,7 @@
 // leaves the cash part paid and nothing on the bar; another card for that part pays the rest and
 // the drink reaches the bar; the receipt lists the parts, and a lead refunds one part on its own.
 // Cards are the provider's documented test cards (see check-values.md): 4242 approves, 0002 declines.
+import AxeBuilder from '@axe-core/playwright';
 import { errorsOf, expect, pageAs, test } from './fixtures';
 import { shot } from './shots';
 
@@ -38,6 +39,13 @@ test('part cash, part card, a declined card replaced, one part refunded', async 
   await expect(parts.nth(0)).toContainText('✓ Paid');
   await expect(parts.nth(0).getByLabel('Part 1 amount')).toBeDisabled();
   await counter.screenshot(shot('counter-split-declined'));
+  // the parts and the send bar pass WCAG 2.1 A/AA (axe-core), paid part and alert included
+  const { violations } = await new AxeBuilder({ page: counter })
+    .withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'])
+    .include('[data-testid="split-editor"]')
+    .include('[aria-label="Order and payment"]')
+    .analyze();
+  expect(violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.help}`)).toEqual([]);
   await expect(bar.getByTestId('drink-card').filter({ hasText: 'Rosalind Vey' })).toHaveCount(0);
 
   // another card for part 2: the order is paid in two parts and the latte goes to the bar
