@@ -7,7 +7,7 @@ import { json } from '@server/db/rows';
 import type { Deps } from '@server/deps';
 import type { Row } from '@server/db/tables';
 import type { PaidPart } from '@/domain/split-payment';
-import { paidParts } from './settle';
+import { paidPartRows } from './settle';
 
 export function toOrderView(
   o: Row<'orders'>,
@@ -65,9 +65,16 @@ export function toOrderView(
 export async function loadOrder(db: Db, orderId: number): Promise<OrderView> {
   const o = await db('orders').where({ id: orderId }).first();
   const items = await db('order_items').where({ order_id: orderId }).orderBy('line_no');
-  const payment = await db('payments').where({ order_id: orderId, status: 'succeeded', method: 'card' }).orderBy('part').first('provider_id');
+  const parts = await paidPartRows(db, orderId);
+  const card = parts.find((p) => p.method === 'card');
   const user = o.taken_by ? await db('users').where({ id: o.taken_by }).first('name') : null;
-  return toOrderView(o, items, payment, user?.name, await paidParts(db, orderId));
+  return toOrderView(
+    o,
+    items,
+    { provider_id: card?.providerId ?? null },
+    user?.name,
+    parts.map(({ providerId: _, ...part }) => part),
+  );
 }
 
 export async function findOrderInLocation(db: Db, user: SessionUser, orderId: number) {

@@ -53,15 +53,18 @@ export async function fireOrder(trx: Db, orderId: number, at: string, fields: Re
     .update({ ...fields, ...settledColumns(Boolean(hasBar), at) });
 }
 
-/** The order's paid parts, the first first, each with what has been given back of it. */
+/** The order's paid parts, the first first, each with what has been given back of it (one query). */
 export async function paidParts(trx: Db, orderId: number): Promise<PaidPart[]> {
-  const rows = await trx('payments')
-    .where({ order_id: orderId, status: 'succeeded' })
-    .orderBy('part')
-    .select('id', 'part', 'method', 'amount_cents', 'tendered_cents', 'change_cents');
-  const refunded = await trx('refunds').where({ order_id: orderId }).select('payment_id', 'amount_cents');
-  const back = new Map<number, number>();
-  for (const r of refunded) back.set(r.payment_id, (back.get(r.payment_id) ?? 0) + r.amount_cents);
+  return (await paidPartRows(trx, orderId)).map(({ providerId: _, ...part }) => part);
+}
+
+/** The paid parts with each card's charge id at the card service. */
+export async function paidPartRows(trx: Db, orderId: number): Promise<(PaidPart & { providerId: string | null })[]> {
+  const rows = await trx('payments as p')
+    .where({ 'p.order_id': orderId, 'p.status': 'succeeded' })
+    .orderBy('p.part')
+    .select('p.id', 'p.part', 'p.method', 'p.amount_cents', 'p.tendered_cents', 'p.change_cents', 'p.provider_id')
+    .select(trx.raw('(SELECT COALESCE(SUM(r.amount_cents), 0) FROM refunds r WHERE r.payment_id = p.id) AS refunded'));
   return rows.map((r) => ({
     paymentId: r.id,
     part: r.part,
@@ -69,7 +72,8 @@ export async function paidParts(trx: Db, orderId: number): Promise<PaidPart[]> {
     amountCents: r.amount_cents,
     tenderedCents: r.tendered_cents,
     changeCents: r.change_cents,
-    refundedCents: back.get(r.id) ?? 0,
+    refundedCents: Number(r.refunded),
+    providerId: r.provider_id,
   }));
 }
 
