@@ -91,7 +91,10 @@ export async function createOrder(deps: Deps, user: SessionUser, body: CreateOrd
     if (replay.status === 'pending' && replay.paymentStatus === 'unpaid') {
       const { payment } = body;
       if (payment.method === 'split') return { order: await payInParts(deps, user, replay.id, payment.parts), created: false };
-      if (replay.payment.parts.length > 0) {
+      // a part paid and the rest still due: only a split can take the rest. (Parts that cover it
+      // are a payment settling right now: the paths below find the order paid and answer it.)
+      const paid = replay.payment.parts.reduce((sum, p) => sum + p.amountCents, 0);
+      if (paid > 0 && paid < amountDueCents(replay.totalCents, replay.tipCents)) {
         throw conflict('Part of this order is paid already; send the rest as a split with the paid parts as they were', { orderId: replay.id });
       }
       const order =

@@ -29,6 +29,8 @@ async function startAttempt(deps: Deps, user: SessionUser, orderId: number, part
     if (!order) throw notFound('Order');
     if (order.payment_status !== 'unpaid' || order.status !== 'pending') return null; // already settled
     const paid = await paidParts(trx, orderId);
+    // a split with a part paid takes the rest as a split, never as one card for the whole
+    if (!part && paid.length > 0) throw conflict('Part of this order is paid already; send the rest as a split', { orderId });
     if (paid.some((p) => p.part === (part?.part ?? 1))) return null; // this part is paid
     const left = amountDueCents(order.total_cents, order.tip_cents) - paidSum(paid); // the tip is charged with the order
     const amount = part?.amountCents ?? left;
