@@ -10,8 +10,9 @@ import { releaseStaleAttempts, settleOpenAttempts } from '@server/payments/card-
 import { appendEvent, runCommand } from '@server/events';
 import { findOrderInLocation, loadOrder } from './order-views';
 import { loadTicket } from '@server/tickets/ticket-views';
+import { markDrinkRefunded } from './drink-refunds';
 
-export async function refundOrder(deps: Deps, user: SessionUser, orderId: number, input: { amountCents?: number; reason: string }) {
+export async function refundOrder(deps: Deps, user: SessionUser, orderId: number, input: { amountCents?: number; reason: string; orderItemId?: number }) {
   const order = await findOrderInLocation(deps.db, user, orderId);
   if (!order) throw notFound('Order');
   if (order.payment_status === 'unpaid') throw conflict('This order was never paid; void it instead');
@@ -34,7 +35,7 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
         providerId: payment.provider_id,
         amountCents: amount,
         reason: input.reason,
-        idempotencyKey: `jugline-refund-${orderId}-${order.refunded_cents}-${amount}`,
+        idempotencyKey: `jugline-refund-${orderId}-${order.refunded_cents}-${amount}${input.orderItemId ? `-drink-${input.orderItemId}` : ''}`,
       }));
     } catch (err) {
       if (err instanceof GatewayRefused) throw conflict(`The card service refused the refund: ${err.message}`);
@@ -50,6 +51,9 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
     // re-read inside the transaction, holding the order: another refund may have landed meanwhile,
     // and one sent at the same moment waits here until this one has committed
     const fresh = await lockingRead(trx, trx('orders').where({ id: orderId })).first();
+    // one drink's own money (drink-refunds.ts): the drink is marked once, holding the order, so
+    // the same drink sent twice at once is refused (409) whatever the card service answered
+    if (input.orderItemId) await markDrinkRefunded(trx, orderId, input.orderItemId, input.reason, at);
     if (fresh.refunded_cents !== order.refunded_cents) {
       // Cash: nothing has been handed back yet, so refuse. Card: the provider has already given
       // this money back (it checks the charge's own balance), so it must be recorded, unless it
@@ -67,6 +71,7 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
       amount_cents: amount,
       reason: input.reason,
       provider_id: providerId,
+      order_item_id: input.orderItemId ?? null,
       created_by: user.id,
       created_at: at,
     });
