@@ -68,9 +68,17 @@ test('remake a spilled drink and refund one not made yet, from Today’s orders;
   await drawer.screenshot(shot('drink-remake-drawer'));
   await bar.screenshot(shot('drink-remake-bar'));
 
+  // the Pickup wall says, in a word, that Wren's order is being made again
+  const pickup = await pageAs(browser, 'lead', '/pickup', { width: 1920, height: 1080 }, own.baseURL);
+  const wrenName = pickup.getByTestId('pickup-name').filter({ hasText: 'Wren' });
+  await expect(wrenName.getByTestId('pickup-remake')).toHaveText('remake');
+  await pickup.screenshot(shot('drink-remake-pickup'));
+
   // the Bar bumps the remake: Wren's order is ready again
+
   await remadeCard.getByRole('button', { name: 'Bump ✓' }).click();
   await expect(cards('Wren Alder')).toHaveCount(0);
+  await expect(wrenName.getByTestId('pickup-remake')).toHaveCount(0);
 
   const reports = await pageAs(browser, 'lead', '/reports', { width: 1600, height: 1000 }, own.baseURL);
   const panel = reports.getByRole('region', { name: 'Remakes', exact: true });
@@ -78,5 +86,5 @@ test('remake a spilled drink and refund one not made yet, from Today’s orders;
   await panel.scrollIntoViewIfNeeded();
   await panel.screenshot(shot('drink-remake-report'));
 
-  for (const page of [bar, counter, reports]) expect(errorsOf(page)).toEqual([]);
+  for (const page of [bar, counter, pickup, reports]) expect(errorsOf(page)).toEqual([]);
 });

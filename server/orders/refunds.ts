@@ -35,7 +35,10 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
         providerId: payment.provider_id,
         amountCents: amount,
         reason: input.reason,
-        idempotencyKey: `jugline-refund-${orderId}-${order.refunded_cents}-${amount}${input.orderItemId ? `-drink-${input.orderItemId}` : ''}`,
+        // a drink's own refund is named by the drink alone: sent twice, even at once, the card service gives it back once
+        idempotencyKey: input.orderItemId
+          ? `jugline-refund-${orderId}-drink-${input.orderItemId}`
+          : `jugline-refund-${orderId}-${order.refunded_cents}-${amount}`,
       }));
     } catch (err) {
       if (err instanceof GatewayRefused) throw conflict(`The card service refused the refund: ${err.message}`);

@@ -18,6 +18,9 @@ let lead: Agent;
 let leadId: number;
 let cashierId: number;
 let ids: Awaited<ReturnType<typeof demoMenu>>;
+/** Terminals for the many-at-once tests, signed in once (sign-ins are paced per name). */
+let refunders: Agent[];
+let remakers: Agent[];
 
 beforeAll(async () => {
   server = await startTestServer({ clock: time.clock });
@@ -25,6 +28,14 @@ beforeAll(async () => {
   leadId = (await server.db('users').where({ username: 'lead' }).first()).id;
   cashierId = (await server.db('users').where({ username: 'cashier' }).first()).id;
   ids = await demoMenu(server);
+  const [leads, owners, cashiers] = [[lead], [], []] as Agent[][];
+  for (let i = 0; i < AT_ONCE / 2; i++) {
+    if (i > 0) leads.push(await server.signIn('lead'));
+    owners.push(await server.signIn('owner'));
+    cashiers.push(await server.signIn('cashier'));
+  }
+  refunders = [...leads, ...owners];
+  remakers = [...cashiers, ...leads];
 });
 afterAll(() => server.close());
 
@@ -131,7 +142,7 @@ describe('POST /api/drinks/:id/refund', () => {
     expect(madeRefund.body.order).toMatchObject({ refundedCents: 996, status: 'ready' });
   });
 
-  it('is refused: to a cashier (403), an unknown drink or a counter item (404), without a reason (400), for a bumped-then-refunded bar drink (409)', async () => {
+  it('is refused: to a cashier (403), an unknown drink or a counter item (404), without a reason (400)', async () => {
     const order = await paidOrder('Tamsin Roe', [FLAT_WHITE(), BANANA_BREAD()]);
     const [drink, bread] = order.lines;
     await expectRefused(() => cashier.post(`/api/drinks/${drink.id}/refund`).send({ reason: 'Spilled it' }), 403, 'forbidden', order.id);
@@ -141,14 +152,45 @@ describe('POST /api/drinks/:id/refund', () => {
     expect(bad.body.error.details!.map((d) => d.path)).toEqual(['reason']);
   });
 
+  it('a card order: the card service gives the drink back, its refund id kept on the refunds row that names the drink', async () => {
+    // the provider's documented test card that succeeds (as refunds.test.ts)
+    const body = { ...orderBody('Petra Lowell', [FLAT_WHITE(), ESPRESSO()]), payment: { method: 'card' as const, paymentMethod: 'pm_card_visa' } };
+    const placed = await cashier.post('/api/orders').send(body);
+    expect(placed.status, JSON.stringify(placed.body)).toBe(201);
+    const order = placed.body.order as OrderView;
+    const [, espresso] = barLines(order);
+    const res = await lead.post(`/api/drinks/${espresso.id}/refund`).send({ reason: 'Too bitter' });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    // 780 + 64 tax = 844; 844 − round(844 × 460 / 780) = 844 − 498 = 346 (by hand)
+    expect(res.body.order).toMatchObject({ refundedCents: 346, paymentStatus: 'paid', status: 'open' });
+    const [refund] = await server.db('refunds').where({ order_id: order.id });
+    expect(refund).toMatchObject({ amount_cents: 346, order_item_id: espresso.id });
+    expect(refund.provider_id).toMatch(/^re_/);
+    await expectRefused(() => lead.post(`/api/drinks/${espresso.id}/refund`).send({ reason: 'Too bitter' }), 409, 'conflict', order.id);
+  });
+
   it(`${AT_ONCE} refunds of one drink at once: one is made, the others 409, one refunds row`, async () => {
     const order = await paidOrder('Lorcan Pike', [FLAT_WHITE(), ESPRESSO()]);
     const [drink] = barLines(order);
-    const leads = await Promise.all(Array.from({ length: AT_ONCE }, () => server.signIn('lead')));
-    const res = await Promise.all(leads.map((l) => l.post(`/api/drinks/${drink.id}/refund`).send({ reason: 'Sent twice' })));
+    const res = await Promise.all(refunders.map((l) => l.post(`/api/drinks/${drink.id}/refund`).send({ reason: 'Sent twice' })));
     expect(res.map((r) => r.status).sort()).toEqual([200, ...Array(AT_ONCE - 1).fill(409)]);
     expect(await server.db('refunds').where({ order_id: order.id })).toHaveLength(1);
     expect((await orderRow(order.id)).refunded_cents).toBe(498);
+  });
+
+  it(`${AT_ONCE} refunds of one drink of a card order at once: one refund, the card given it back once`, async () => {
+    const body = { ...orderBody('Greer Oakes', [FLAT_WHITE(), ESPRESSO()]), payment: { method: 'card' as const, paymentMethod: 'pm_card_visa' } };
+    const placed = await cashier.post('/api/orders').send(body);
+    expect(placed.status, JSON.stringify(placed.body)).toBe(201);
+    const order = placed.body.order as OrderView;
+    const [, espresso] = barLines(order);
+    const res = await Promise.all(refunders.map((l) => l.post(`/api/drinks/${espresso.id}/refund`).send({ reason: 'Sent twice' })));
+    expect(res.map((r) => r.status).sort()).toEqual([200, ...Array(AT_ONCE - 1).fill(409)]);
+    expect(await server.db('refunds').where({ order_id: order.id })).toHaveLength(1);
+    // the card service kept one refund of 346: the rest of the 844 charged can still be given back
+    const rest = await lead.post(`/api/orders/${order.id}/refund`).send({ reason: 'Everything back' });
+    expect(rest.status, JSON.stringify(rest.body)).toBe(200);
+    expect(rest.body.order).toMatchObject({ refundedCents: 844, paymentStatus: 'refunded' });
   });
 });
 
@@ -184,15 +226,20 @@ describe('POST /api/drinks/:id/remake', () => {
     expect(events.map((e) => e.type)).toEqual(['drink.remade']);
     expect(jsonOf(events[0].payload).ticket).toMatchObject({ id: order.id, status: 'open' });
 
+    // the Pickup wall is told, in a word, that this ticket is being made again (no drink named)
+    const pickupOf = async () => ((await lead.get('/api/pickup')).body.tickets as { id: number }[]).find((t) => t.id === order.id);
+    expect(await pickupOf()).toEqual({ id: order.id, number: order.number, firstName: 'Imelda', status: 'open', readyAt: null, remake: true });
+
     time.advance(60_000);
     await bump(remake.id);
+    expect(await pickupOf()).toEqual({ id: order.id, number: order.number, firstName: 'Imelda', status: 'ready', readyAt: nowIso() });
     const ready = await orderRow(order.id);
     expect(ready).toMatchObject({ status: 'ready', ready_at: nowIso() });
     // the wait runs from the order to the remake's bump: 5 minutes on the test clock
     expect(Number(ready.wait_seconds)).toBe(5 * 60);
   });
 
-  it('is refused: a drink not made yet, twice, refunded, voided; a barista (403); a bad reason or "other" without a note (400); unknown (404)', async () => {
+  it('is refused: a drink not made yet, twice, refunded, a remake’s refund; a barista (403); a bad reason or "other" without a note (400); unknown (404)', async () => {
     const order = await paidOrder('Rufus Vane', [FLAT_WHITE(), ESPRESSO()]);
     const [flatWhite, espresso] = barLines(order);
     await expectRefused(() => cashier.post(`/api/drinks/${flatWhite.id}/remake`).send({ reason: 'made_wrong' }), 409, 'conflict', order.id);
@@ -224,8 +271,7 @@ describe('POST /api/drinks/:id/remake', () => {
     const order = await paidOrder('Jolyon Ash', [FLAT_WHITE()]);
     const [drink] = barLines(order);
     await bump(drink.id);
-    const cashiers = await Promise.all(Array.from({ length: AT_ONCE }, () => server.signIn('cashier')));
-    const res = await Promise.all(cashiers.map((c) => c.post(`/api/drinks/${drink.id}/remake`).send({ reason: 'made_wrong' })));
+    const res = await Promise.all(remakers.map((c) => c.post(`/api/drinks/${drink.id}/remake`).send({ reason: 'made_wrong' })));
     expect(res.map((r) => r.status).sort()).toEqual([201, ...Array(AT_ONCE - 1).fill(409)]);
     expect(await server.db('order_items').where({ remake_of: drink.id })).toHaveLength(1);
     expect((await itemRows(order.id)).length).toBe(2);
