@@ -7,7 +7,8 @@ import type { Knex } from 'knex';
 // - order_items.remake_of: a remake is a new drink on the same ticket, at no charge, pointing at
 //   the drink it replaces; unique, so a drink is remade once (a remake that goes wrong again is
 //   itself remade). remake_reason is one of REMAKE_REASONS, remake_note the staff's own words,
-//   remade_by who asked for it.
+//   remade_by who asked for it and remade_at when (the remake reaches the bar then, not when the
+//   order was fired: the bar's pace counts it from there).
 const REASONS = "('made_wrong', 'spilled', 'not_right', 'other')";
 
 export async function up(knex: Knex): Promise<void> {
@@ -17,6 +18,7 @@ export async function up(knex: Knex): Promise<void> {
   await knex.raw(`ALTER TABLE order_items ADD COLUMN remake_reason varchar(16) CHECK (remake_reason IN ${REASONS})`);
   await knex.raw('ALTER TABLE order_items ADD COLUMN remake_note varchar(140)');
   await knex.raw('ALTER TABLE order_items ADD COLUMN remade_by integer REFERENCES users (id)');
+  await knex.raw('ALTER TABLE order_items ADD COLUMN remade_at varchar(30)');
   await knex.raw('CREATE UNIQUE INDEX order_items_remake_of_unique ON order_items (remake_of)');
   await knex.raw('ALTER TABLE refunds ADD COLUMN order_item_id integer REFERENCES order_items (id)');
   await knex.raw('CREATE UNIQUE INDEX refunds_order_item_id_unique ON refunds (order_item_id)');
@@ -26,7 +28,7 @@ export async function down(knex: Knex): Promise<void> {
   await knex.raw('DROP INDEX refunds_order_item_id_unique');
   await knex.raw('ALTER TABLE refunds DROP COLUMN order_item_id');
   await knex.raw('DROP INDEX order_items_remake_of_unique');
-  for (const column of ['remade_by', 'remake_note', 'remake_reason', 'remake_of', 'refunded_at']) {
+  for (const column of ['remade_at', 'remade_by', 'remake_note', 'remake_reason', 'remake_of', 'refunded_at']) {
     await knex.raw(`ALTER TABLE order_items DROP COLUMN ${column}`);
   }
 }

@@ -247,6 +247,7 @@ export interface Tables {
     remake_reason: RemakeReason | null;
     remake_note: string | null;
     remade_by: number | null;
+    remade_at: string | null;
   };
   orders: {
     id: number;

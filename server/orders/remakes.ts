@@ -39,6 +39,7 @@ const SAME_DRINK = [
  * (fired → ready, orders.wait_seconds and the reports) run from the order to the moment the
  * remade drink is bumped — how long this customer waited for a drink that was right. The first
  * ready time is not kept; the remake itself is counted, with its reason, in the reports' waste.
+ * The bar's pace (quotes.ts) counts the remade drink from remade_at, when it reached the bar.
  *
  * Twice at once: the order's row is held while the drink is checked and the remake written, and
  * order_items.remake_of is unique, so one remake is made and the other request is answered 409.
@@ -76,6 +77,7 @@ export async function remakeDrink(deps: Deps, user: SessionUser, drinkId: number
         remake_reason: input.reason,
         remake_note: input.note || null,
         remade_by: user.id,
+        remade_at: at,
       });
       // back on the Bar; a collected order is collected again when the remake is handed over
       if (order.status !== 'open') {

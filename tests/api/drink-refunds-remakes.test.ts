@@ -217,7 +217,14 @@ describe('POST /api/drinks/:id/remake', () => {
     });
     expect(remade.lines.find((l) => l.id === flatWhite.id)!.remadeAs).toBe(remake.id);
     const rows = await itemRows(order.id);
-    expect(rows.at(-1)).toMatchObject({ remake_of: flatWhite.id, remade_by: cashierId, milk_ml: rows[0].milk_ml, dose_dg: rows[0].dose_dg, line_no: 3 });
+    expect(rows.at(-1)).toMatchObject({
+      remake_of: flatWhite.id,
+      remade_by: cashierId,
+      remade_at: nowIso(),
+      milk_ml: rows[0].milk_ml,
+      dose_dg: rows[0].dose_dg,
+      line_no: 3,
+    });
     const back = await orderRow(order.id);
     expect(back).toMatchObject({ status: 'open', ready_at: null, collected_at: null, wait_seconds: null, subtotal_cents: order.subtotalCents });
     const ticket = (await openTicket(order.id))!;
