@@ -56,6 +56,10 @@ export function drinkRefundCents(order: { subtotalCents: number; totalCents: num
   return share(standingCents) - share(standingCents - drinkCents);
 }
 
+/** The lines the customer bought: a remake is the same drink again at no charge, so a receipt or a
+ * mail lists the drink once. */
+export const soldLines = <L extends { remake: RemakeMark | null }>(lines: readonly L[]): L[] => lines.filter((l) => !l.remake);
+
 /** One row of the waste remakes caused: per reason, how many and what went in the bin. */
 export interface RemakeWasteRow {
   reason: RemakeReason;

@@ -2,7 +2,7 @@
 // hand; the tax rule is money.ts's (half-up rounding per invoice, SSUTA §324).
 import { describe, expect, it } from 'vitest';
 import { orderTotals } from '@/domain/money';
-import { drinkRefundCents, REMAKE_REASONS, remakeWaste } from '@/domain/remakes';
+import { drinkRefundCents, REMAKE_REASONS, remakeWaste, soldLines } from '@/domain/remakes';
 
 const EXCLUSIVE = { taxRateMilliPct: 8250, taxMode: 'exclusive' as const };
 
@@ -69,5 +69,16 @@ describe('remakeWaste', () => {
       ],
     });
     expect(REMAKE_REASONS[0]).toBe('made_wrong');
+  });
+});
+
+describe('soldLines', () => {
+  it('leaves out remakes: the receipt lists the drink the customer bought once', () => {
+    const lines = [
+      { id: 1, remake: null },
+      { id: 2, remake: null },
+      { id: 3, remake: { of: 1, reason: 'spilled' as const, note: null } },
+    ];
+    expect(soldLines(lines).map((l) => l.id)).toEqual([1, 2]);
   });
 });
