@@ -143,7 +143,28 @@ test('the owner adds a seasonal drink with its recipe; the open Counter sells it
   await owner.screenshot(shot('admin-menu-editor-milks'));
   await owner.getByRole('tab', { name: 'Extras' }).click();
   await expect(owner.getByRole('article', { name: 'Group Syrup' })).toContainText('Vanilla syrup');
+  // an extra that changes how the Bar makes the drink says so in its row, in words
+  const dryRow = owner
+    .getByRole('article', { name: 'Group Foam' })
+    .getByRole('listitem')
+    .filter({ has: owner.getByText('Dry', { exact: true }) });
+  await expect(dryRow.getByTestId('extra-bar-effect')).toHaveText('At the bar: Dry');
+  await expect(owner.getByRole('article', { name: 'Group Syrup' }).getByTestId('extra-bar-effect')).toHaveCount(0);
   await owner.screenshot(shot('admin-menu-editor-extras', { fullPage: true }));
+  // its form: "At the bar" is labelled as Name and Price are
+  await owner.getByRole('button', { name: 'Edit Dry' }).click();
+  const extraSheet = owner.getByRole('dialog', { name: 'Edit Dry' });
+  await expect(extraSheet.getByLabel('At the bar')).toHaveValue('dry');
+  const labelLook = (name: string) =>
+    extraSheet
+      .locator('label')
+      .filter({ hasText: new RegExp(`^${name}$`) })
+      .evaluate((l) => ['fontSize', 'fontWeight', 'textTransform', 'letterSpacing', 'color'].map((k) => getComputedStyle(l)[k as 'fontSize']).join(' '));
+  expect(await labelLook('At the bar')).toBe(await labelLook('Name'));
+  expect(await labelLook('At the bar')).toBe(await labelLook('Price'));
+  await extraSheet.screenshot(shot('admin-menu-extra-form'));
+  await extraSheet.getByRole('button', { name: 'Cancel' }).click();
+  await expect(extraSheet).toBeHidden();
 
   for (const page of [counter, bar, owner]) expect(errorsOf(page)).toEqual([]);
 });

@@ -45,6 +45,8 @@ test('a shift on Pulse: open, live numbers, close with a count, report mailed', 
   await expect(pulse.getByTestId('staffing-inputs')).toContainText(/From \d+ drinks fired in the last 30 min/);
   await expect(pulse.getByTestId('staffing-inputs')).toContainText('with 2 on bar');
   await expect(pulse.getByTestId('staffing-inputs')).not.toContainText('Erlang');
+  // this café takes no tips: no "Tips today" (e2e/tips.spec.ts shows it on)
+  await expect(pulse.getByTestId('tips-today')).toHaveCount(0);
   await pulse.screenshot(shot('pulse', { fullPage: true }));
   await pulse.getByRole('region', { name: 'Staffing' }).getByText('How we work this out').click();
   await expect(pulse.getByRole('region', { name: 'Staffing' })).toContainText('Erlang C');

@@ -54,6 +54,8 @@ test('a lead reads a week day by day, with today’s orders, and downloads it as
   await expect(page.getByTestId('days-total').locator('td').first()).toHaveText(week.toLocaleString('en-US'));
   await expect(page.getByRole('columnheader', { name: 'Half waited under' })).toBeVisible();
   await expect(page.getByRole('columnheader', { name: 'Net revenue' })).toBeVisible();
+  // no tips in the range: no Tips column (e2e/tips.spec.ts has one)
+  await expect(page.getByRole('columnheader', { name: 'Tips' })).toHaveCount(0);
   // the section at the top of the window, so the picture holds the whole table and its total
   const toSection = () => page.getByRole('heading', { name: 'Day by day' }).evaluate((h) => h.scrollIntoView({ block: 'start' }));
   await toSection();
@@ -67,6 +69,7 @@ test('a lead reads a week day by day, with today’s orders, and downloads it as
   const lines = (await readFile((await download.path())!, 'utf8')).trim().split('\r\n');
   expect(lines[0].startsWith('"Date","Orders","Drinks","Gross (USD)","Tax (USD)","Discounts (USD)","Refunds (USD)","Net (USD)"')).toBe(true);
   expect(lines[0]).toMatch(/"Median wait \(s\)","p90 wait \(s\)","Over \d+ s target","Tickets timed","Shots pulled"$/);
+  expect(lines[0]).toContain('"Card (USD)","Tips (USD)","Cash tips (USD)","Card tips (USD)"');
   expect(lines).toHaveLength(1 + 7 + 1);
   expect(lines[7].startsWith(`"${today}","${todays}",`)).toBe(true);
   expect(lines[8].startsWith(`"Total","${week}",`)).toBe(true);

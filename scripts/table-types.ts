@@ -27,7 +27,7 @@ const WORDS: Record<string, [string, string]> = {
   'orders.status': ['TicketStatus', '@/domain/types'],
   'orders.payment_status': ['PaymentStatus', '@/domain/types'],
   'orders.service': ['Service', '@/domain/types'],
-  'orders.payment_method': ["'cash' | 'card'", ''],
+  'orders.payment_method': ["'cash' | 'card' | 'split'", ''],
   'payments.method': ["'cash' | 'card'", ''],
   'order_items.station': ['Station', '@/domain/types'],
   'order_items.status': ['DrinkStatus', '@/domain/types'],

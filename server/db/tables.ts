@@ -268,7 +268,7 @@ export interface Tables {
     tax_cents: number;
     total_cents: number;
     refunded_cents: number;
-    payment_method: 'cash' | 'card';
+    payment_method: 'cash' | 'card' | 'split';
     tendered_cents: number | null;
     change_cents: number | null;
     quoted_wait_seconds: number | null;
@@ -288,6 +288,7 @@ export interface Tables {
     ready_mail_at: string | null;
     ready_mail_error: string | null;
     tip_cents: number;
+    split_cash_cents: number | null;
   };
   outbox: {
     id: number;
@@ -314,6 +315,7 @@ export interface Tables {
     message: string | null;
     created_at: string;
     updated_at: string;
+    part: number;
   };
   pitchers: {
     id: number;

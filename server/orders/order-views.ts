@@ -7,8 +7,16 @@ import type { Db } from '@server/db/knex';
 import { json } from '@server/db/rows';
 import type { Deps } from '@server/deps';
 import type { Row } from '@server/db/tables';
+import type { PaidPart } from '@/domain/split-payment';
+import { paidParts } from './settle';
 
-export function toOrderView(o: Row<'orders'>, items: Row<'order_items'>[], payment?: Pick<Row<'payments'>, 'provider_id'>, takenBy?: string): OrderView {
+export function toOrderView(
+  o: Row<'orders'>,
+  items: Row<'order_items'>[],
+  payment?: Pick<Row<'payments'>, 'provider_id'>,
+  takenBy?: string,
+  parts: PaidPart[] = [],
+): OrderView {
   const remadeAs = new Map(items.filter((i) => i.remake_of != null).map((i) => [i.remake_of!, i.id]));
   return {
     id: o.id,
@@ -49,6 +57,7 @@ export function toOrderView(o: Row<'orders'>, items: Row<'order_items'>[], payme
       tenderedCents: o.tendered_cents,
       changeCents: o.change_cents,
       providerId: payment?.provider_id ?? null,
+      parts,
     },
     changeCents: o.change_cents,
     quotedWaitSeconds: o.quoted_wait_seconds,
@@ -67,9 +76,9 @@ export function remakeMark(i: Pick<Row<'order_items'>, 'remake_of' | 'remake_rea
 export async function loadOrder(db: Db, orderId: number): Promise<OrderView> {
   const o = await db('orders').where({ id: orderId }).first();
   const items = await db('order_items').where({ order_id: orderId }).orderBy('line_no');
-  const payment = await db('payments').where({ order_id: orderId, status: 'succeeded' }).first('provider_id');
+  const payment = await db('payments').where({ order_id: orderId, status: 'succeeded', method: 'card' }).orderBy('part').first('provider_id');
   const user = o.taken_by ? await db('users').where({ id: o.taken_by }).first('name') : null;
-  return toOrderView(o, items, payment, user?.name);
+  return toOrderView(o, items, payment, user?.name, await paidParts(db, orderId));
 }
 
 export async function findOrderInLocation(db: Db, user: SessionUser, orderId: number) {

@@ -1,6 +1,7 @@
 // Taking an order: price it on the server, store it with its drinks, payment and event in one
 // transaction, and make a replay of the same client order id return the same order. Cash is
-// fired to the bar at once; a card order waits, unfired, until its payment has succeeded.
+// fired to the bar at once; a card order waits, unfired, until its payment has succeeded, and an
+// order paid in parts until every part is in (split-payment.ts).
 import type { CreateOrderBody } from '@/domain/schemas';
 import type { OrderView, SessionUser } from '@/domain/types';
 import { businessDate } from '@/domain/business-date';
@@ -10,7 +11,8 @@ import { isUniqueViolation } from '@server/db/rows';
 import { conflict } from '@server/domain-errors';
 import { payByCard } from '@server/payments/card-payments';
 import { settleOpenAttempts } from '@server/payments/card-settle';
-import { cashColumns, cashPayment, fireOrder, requireEnoughCash, settledColumns } from './settle';
+import { cashColumns, cashPayment, fireOrder, paidParts, requireEnoughCash, settledColumns } from './settle';
+import { payInParts, requirePartsCover } from './split-payment';
 import { orderItemRow } from './order-item-row';
 import type { Deps } from '@server/deps';
 import { appendEvent, lockCafe, runCommand } from '@server/events';
@@ -87,16 +89,23 @@ export async function createOrder(deps: Deps, user: SessionUser, body: CreateOrd
   if (replay) {
     // A declined card may be tried again with another card; a paid order is never charged again.
     if (replay.status === 'pending' && replay.paymentStatus === 'unpaid') {
+      const { payment } = body;
+      if (payment.method === 'split') return { order: await payInParts(deps, user, replay.id, payment.parts), created: false };
+      if (replay.payment.parts.length > 0) {
+        throw conflict('Part of this order is paid already; send the rest as a split with the paid parts as they were', { orderId: replay.id });
+      }
       const order =
-        body.payment.method === 'card'
-          ? await payByCard(deps, user, replay.id, body.payment.paymentMethod)
-          : await payPendingByCash(deps, user, replay.id, body.payment.tenderedCents);
+        payment.method === 'card'
+          ? await payByCard(deps, user, replay.id, payment.paymentMethod)
+          : await payPendingByCash(deps, user, replay.id, payment.tenderedCents);
       return { order, created: false };
     }
     return { order: replay, created: false };
   }
 
   const priced = await priceOrder(deps, user, body);
+  // a split that doesn't cover the order is refused before anything is stored
+  if (body.payment.method === 'split') requirePartsCover(body.payment.parts, amountDueCents(priced.totals.totalCents, priced.tipCents));
   let orderId: number;
   try {
     orderId = await insertOrder(deps, user, body, priced);
@@ -111,6 +120,7 @@ export async function createOrder(deps: Deps, user: SessionUser, body: CreateOrd
   if (body.payment.method === 'card') {
     return { order: await payByCard(deps, user, orderId, body.payment.paymentMethod), created: true };
   }
+  if (body.payment.method === 'split') return { order: await payInParts(deps, user, orderId, body.payment.parts), created: true };
   return { order: await loadOrder(deps.db, orderId), created: true };
 }
 
@@ -122,6 +132,8 @@ async function payPendingByCash(deps: Deps, user: SessionUser, orderId: number, 
   return runCommand(deps, async (trx) => {
     const order = await lockingRead(trx, trx('orders').where({ id: orderId, location_id: user.locationId })).first();
     if (order.status !== 'pending' || order.payment_status !== 'unpaid') return { result: await loadOrder(trx, orderId), events: [] };
+    // a split that raced this send has paid a part: cash for the whole would take it twice
+    if ((await paidParts(trx, orderId)).length > 0) throw conflict('Part of this order is paid already; send the rest as a split', { orderId });
     const due = amountDueCents(order.total_cents, order.tip_cents);
     requireEnoughCash(due, tendered);
     const live = await trx('payments').where({ order_id: orderId, status: 'processing' }).first('id');

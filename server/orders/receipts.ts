@@ -4,6 +4,7 @@ import type { Deps } from '@server/deps';
 import { formatCents } from '@/domain/money';
 import { groupOrderLines } from '@/domain/order-quantity';
 import { soldLines } from '@/domain/remakes';
+import { partLines } from '@/domain/split-payment';
 import { amountDueCents } from '@/domain/tips';
 import type { OrderLineView, OrderView } from '@/domain/types';
 import { escapeHtml } from '@/domain/html';
@@ -44,9 +45,11 @@ export function receiptEmail(order: OrderView, location: ReceiptLocation, footer
   const name = firstName(order.customerName);
   const { payment } = order;
   const paidLine =
-    payment.method === 'cash'
-      ? `Paid in cash: ${money(payment.tenderedCents ?? order.totalCents)} · change ${money(payment.changeCents ?? 0)}`
-      : `Paid by ${payment.method}: ${money(amountDueCents(order.totalCents, order.tipCents))}`;
+    payment.method === 'split'
+      ? `Paid in ${payment.parts.length} parts: ${partLines(payment.parts, money).join('; ')}`
+      : payment.method === 'cash'
+        ? `Paid in cash: ${money(payment.tenderedCents ?? order.totalCents)} · change ${money(payment.changeCents ?? 0)}`
+        : `Paid by ${payment.method}: ${money(amountDueCents(order.totalCents, order.tipCents))}`;
 
   const discountLabel = order.discountReason ? `Discount (${order.discountReason})` : 'Discount';
   const totals: [string, string][] = [

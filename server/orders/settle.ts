@@ -2,6 +2,8 @@
 // (now or when its late answer arrives), or in cash after a declined card. Settling fires it: an
 // order with bar drinks goes to the Bar (open); an order of counter items only is collected at
 // the till at once (collected, and ready at the same moment).
+import { paidColumns, type PaidPart } from '@/domain/split-payment';
+import { amountDueCents } from '@/domain/tips';
 import { invalid } from '@server/domain-errors';
 import type { Db } from '@server/db/knex';
 
@@ -30,9 +32,10 @@ export const cashColumns = (dueCents: number, tenderedCents: number) => ({
   change_cents: tenderedCents - dueCents,
 });
 
-/** The succeeded payment row of cash taken at `at`: the amount is the total and the tip. */
-export const cashPayment = (orderId: number, dueCents: number, tenderedCents: number, at: string) => ({
+/** The succeeded payment row of cash taken at `at`: the amount is the total and the tip (or one part of them). */
+export const cashPayment = (orderId: number, dueCents: number, tenderedCents: number, at: string, part = 1) => ({
   order_id: orderId,
+  part,
   method: 'cash',
   status: 'succeeded',
   amount_cents: dueCents,
@@ -48,4 +51,37 @@ export async function fireOrder(trx: Db, orderId: number, at: string, fields: Re
   await trx('orders')
     .where({ id: orderId })
     .update({ ...fields, ...settledColumns(Boolean(hasBar), at) });
+}
+
+/** The order's paid parts, the first first, each with what has been given back of it. */
+export async function paidParts(trx: Db, orderId: number): Promise<PaidPart[]> {
+  const rows = await trx('payments')
+    .where({ order_id: orderId, status: 'succeeded' })
+    .orderBy('part')
+    .select('id', 'part', 'method', 'amount_cents', 'tendered_cents', 'change_cents');
+  const refunded = await trx('refunds').where({ order_id: orderId }).select('payment_id', 'amount_cents');
+  const back = new Map<number, number>();
+  for (const r of refunded) back.set(r.payment_id, (back.get(r.payment_id) ?? 0) + r.amount_cents);
+  return rows.map((r) => ({
+    paymentId: r.id,
+    part: r.part,
+    method: r.method,
+    amountCents: r.amount_cents,
+    tenderedCents: r.tendered_cents,
+    changeCents: r.change_cents,
+    refundedCents: back.get(r.id) ?? 0,
+  }));
+}
+
+export const paidSum = (paid: readonly { amountCents: number }[]) => paid.reduce((sum, p) => sum + p.amountCents, 0);
+
+/**
+ * Once the order's parts cover everything due (total and tip): settle it and fire it. Answers true
+ * when it fired. Called holding the order's row, after a part was recorded.
+ */
+export async function fireIfPaid(trx: Db, order: { id: number; total_cents: number; tip_cents: number }, at: string): Promise<boolean> {
+  const paid = await paidParts(trx, order.id);
+  if (paidSum(paid) < amountDueCents(order.total_cents, order.tip_cents)) return false;
+  await fireOrder(trx, order.id, at, paidColumns(paid));
+  return true;
 }

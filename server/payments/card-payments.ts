@@ -15,20 +15,31 @@ import { applyChargeState, markAttempt, settleOpenAttempts } from './card-settle
 import type { Deps } from '@server/deps';
 import { loadLocation } from '@server/menu/menu';
 import { loadOrder } from '@server/orders/order-views';
+import { paidParts, paidSum } from '@server/orders/settle';
 
-async function startAttempt(deps: Deps, user: SessionUser, orderId: number) {
+/** One part of a split order: its number and amount. Left out, the card pays the whole amount due as part 1. */
+export interface CardPart {
+  part: number;
+  amountCents: number;
+}
+
+async function startAttempt(deps: Deps, user: SessionUser, orderId: number, part: CardPart | undefined) {
   return deps.db.transaction(async (trx) => {
     const order = await lockingRead(trx, trx('orders').where({ id: orderId, location_id: user.locationId })).first();
     if (!order) throw notFound('Order');
     if (order.payment_status !== 'unpaid' || order.status !== 'pending') return null; // already settled
+    const paid = await paidParts(trx, orderId);
+    if (paid.some((p) => p.part === (part?.part ?? 1))) return null; // this part is paid
+    const left = amountDueCents(order.total_cents, order.tip_cents) - paidSum(paid); // the tip is charged with the order
+    const amount = part?.amountCents ?? left;
+    if (amount > left) throw conflict(`This part is more than is left to pay (${left} cents)`, { orderId });
     const at = deps.clock().toISOString();
-    const due = amountDueCents(order.total_cents, order.tip_cents); // the tip is charged with the order
     try {
       const [{ id }] = await trx('payments')
-        .insert({ order_id: orderId, method: 'card', status: 'processing', amount_cents: due, created_at: at, updated_at: at })
+        .insert({ order_id: orderId, part: part?.part ?? 1, method: 'card', status: 'processing', amount_cents: amount, created_at: at, updated_at: at })
         .returning('id');
       const location = await loadLocation(trx, user.locationId);
-      return { paymentId: id as number, amountCents: due, currency: location.currency };
+      return { paymentId: id as number, amountCents: amount, currency: location.currency };
     } catch (err) {
       if (isUniqueViolation(err)) throw conflict('A card payment for this order is in progress');
       throw err;
@@ -39,14 +50,14 @@ async function startAttempt(deps: Deps, user: SessionUser, orderId: number) {
 const unavailable = (orderId: number, message: string) => upstreamFailed(message, { orderId });
 const messageOf = (err: unknown) => String((err as Error)?.message ?? err).slice(0, 200);
 
-export async function payByCard(deps: Deps, user: SessionUser, orderId: number, paymentMethod: string): Promise<OrderView> {
+export async function payByCard(deps: Deps, user: SessionUser, orderId: number, paymentMethod: string, part?: CardPart): Promise<OrderView> {
   const gateway = deps.payments;
   if (!gateway) throw notSetUp('Card payments are not set up here; take cash');
   // Never run a card while an earlier one's outcome is unknown: it may have been charged.
   if (!(await settleOpenAttempts(deps, orderId))) {
     throw unavailable(orderId, "The card service isn't answering, so whether the last card was charged isn't known yet. Try again in a moment, or take cash.");
   }
-  const attempt = await startAttempt(deps, user, orderId);
+  const attempt = await startAttempt(deps, user, orderId, part);
   if (!attempt) return loadOrder(deps.db, orderId);
   const key = `jugline-payment-${attempt.paymentId}`;
 

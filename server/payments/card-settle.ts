@@ -5,13 +5,12 @@
 // through here, possibly at the same moment for the same attempt: each decision is one
 // transaction that re-reads the attempt, so the first decides and the rest find it done.
 import { AUTO_REFUND_REASON, autoRefundCause, type AutoRefundCause } from '@/domain/card-check';
-import { isUniqueViolation } from '@server/db/rows';
-import { conflict } from '@server/domain-errors';
+import { amountDueCents } from '@/domain/tips';
 import { GatewayRefused, GatewayUnavailable, type ChargeState, type PaymentGateway } from './gateway';
 import { lockingRead } from '@server/db/dialect';
 import type { Deps } from '@server/deps';
 import { appendEvent, runCommand } from '@server/events';
-import { fireOrder } from '@server/orders/settle';
+import { fireIfPaid, paidParts, paidSum } from '@server/orders/settle';
 import { loadTicket } from '@server/tickets/ticket-views';
 
 /** Longer than the SDK's three tries with their timeouts: a "processing" attempt this old was cut off. */
@@ -91,21 +90,20 @@ async function settleCharge(deps: Deps, paymentId: number, state: ChargeState) {
     }
     const order = await trx('orders').where({ id: p.order_id }).first();
     const at = nowIso(deps);
-    if (order.status === 'pending' && order.payment_status === 'unpaid') {
-      try {
-        await trx('payments').where({ id: paymentId }).update({ status: 'succeeded', provider_id: state.providerId, updated_at: at });
-      } catch (err) {
-        // Another attempt for the order is running now; the card service will send this again.
-        if (isUniqueViolation(err)) throw conflict('Another card payment for this order is in progress');
-        throw err;
-      }
-      await fireOrder(trx, order.id, at, { payment_method: 'card', tendered_cents: null, change_cents: null });
+    const paid = await paidParts(trx, order.id);
+    const left = amountDueCents(order.total_cents, order.tip_cents) - paidSum(paid);
+    const takes = order.status === 'pending' && order.payment_status === 'unpaid' && !paid.some((q) => q.part === p.part) && p.amount_cents <= left;
+    if (takes) {
+      await trx('payments').where({ id: paymentId }).update({ status: 'succeeded', provider_id: state.providerId, updated_at: at });
+      // the order goes to the bar once its last part is in (a split may still wait for another)
+      if (!(await fireIfPaid(trx, order, at))) return { result: null, events: [] };
       const event = await appendEvent(trx, order.location_id, 'order.fired', await loadTicket(trx, order.id), at, null);
       return { result: null, events: [event] };
     }
     // The order can't take this money. The ticket doesn't change, so no event goes to the screens;
     // the refund row is the record, and the card check shows it.
-    const paidBy = await trx('payments').where({ order_id: order.id, status: 'succeeded' }).first('method');
+    // paid already: this part by another card or in cash, or the order as a whole
+    const paidBy = paid.find((q) => q.part === p.part) ?? paid[0];
     const cause = autoRefundCause(paidBy?.method ?? null);
     await trx('payments').where({ id: paymentId }).update({ status: 'refunding', provider_id: state.providerId, updated_at: at });
     const [{ id }] = await trx('refunds')

@@ -12,13 +12,13 @@
 import type { Knex } from 'knex';
 import { dialectOf, lockReportDays, rawRows } from '@server/db/dialect';
 import { json } from '@server/db/rows';
-import type { HourRow, OverTargetTicket, ReportView } from '@/domain/reports';
+import { NO_TIPS, sumTips, type HourRow, type OverTargetTicket, type ReportView, type TipTotals } from '@/domain/reports';
 import { dayFigures, type ReportDaysView } from '@/domain/report-days';
 import { median, summarizeWaits } from '@/domain/stats';
 import { businessDate } from '@/domain/business-date';
 import { localHourSql } from './local-hours';
 import { moneyView, PAID, type ReportLocation } from './scope';
-import { HAS_WAIT, n, ORDER_REFUNDS, waitSeconds, type LineRow, type MoneyRow, type WaitRow } from './sql';
+import { CASH_OF_TOTAL, CASH_ORDER, HAS_WAIT, n, ORDER_REFUNDS, waitSeconds, type LineRow, type MoneyRow, type WaitRow } from './sql';
 
 const OVER_TARGET_LIMIT = 20;
 const TOP_ITEMS = 10;
@@ -92,7 +92,7 @@ export async function computeDays(db: Knex, location: ReportLocation, from: stri
     await db.raw(
       `SELECT o.business_date AS d, ${hour.sql} AS hour, COUNT(*) AS orders, SUM(o.total_cents) AS gross, SUM(o.tax_cents) AS tax,
          SUM(o.discount_cents) AS discount, SUM(${ORDER_REFUNDS}) AS refunds,
-         SUM(CASE WHEN o.payment_method = 'cash' THEN 1 ELSE 0 END) AS cash_orders, SUM(CASE WHEN o.payment_method = 'cash' THEN o.total_cents ELSE 0 END) AS cash_cents
+         SUM(CASE WHEN ${CASH_ORDER} THEN 1 ELSE 0 END) AS cash_orders, SUM(${CASH_OF_TOTAL}) AS cash_cents
        FROM orders o WHERE ${where} AND ${PAID} GROUP BY 1, 2`,
       [...hour.bindings, ...bindings],
     ),
@@ -314,11 +314,18 @@ export function mergeDays(
 /**
  * Day by day from the partials (in date order): each date's row merged from its partial alone, as
  * that date's own range report is, and the total merged from all of them, as the range's report
- * is (a median of the whole range, never one of the days' medians).
+ * is (a median of the whole range, never one of the days' medians). Tips come by date from the
+ * orders (./tips.ts), a date without any as none; the total's are the days' added up.
  */
-export function dayByDay(parts: DayPartial[], dates: string[], targetSeconds: number): Pick<ReportDaysView, 'days' | 'total'> {
+export function dayByDay(
+  parts: DayPartial[],
+  dates: string[],
+  targetSeconds: number,
+  tips = new Map<string, TipTotals>(),
+): Pick<ReportDaysView, 'days' | 'total'> {
+  const tipsOf = (date: string) => tips.get(date) ?? NO_TIPS;
   return {
-    days: dates.map((date, i) => ({ date, ...dayFigures(mergeDays([parts[i]], [date], targetSeconds)) })),
-    total: dayFigures(mergeDays(parts, dates, targetSeconds)),
+    days: dates.map((date, i) => ({ date, ...dayFigures({ ...mergeDays([parts[i]], [date], targetSeconds), tips: tipsOf(date) }) })),
+    total: dayFigures({ ...mergeDays(parts, dates, targetSeconds), tips: sumTips(dates.map(tipsOf)) }),
   };
 }

@@ -10,8 +10,22 @@ import { median, summarizeWaits } from '@/domain/stats';
 import { remakeWaste, type RemakeReason, type RemakeWaste } from '@/domain/remakes';
 import { dayByDay, datesBetween, mergeDays, rangeDays } from './days';
 import { localHour, localHourSql } from './local-hours';
+import { tipsByDate } from './tips';
 import { moneyView, PAID, rangeScope, shiftScope, type MoneyTotals, type Scope } from './scope';
-import { HAS_WAIT, n, ORDER_REFUNDS, TIP_KEPT, waitSeconds, type LineRow, type MoneyRow, type Sum, type WaitRow } from './sql';
+import {
+  CASH_OF_TOTAL,
+  CASH_ORDER,
+  CASH_TIP,
+  HAS_WAIT,
+  n,
+  ORDER_REFUNDS,
+  TIP_KEPT,
+  waitSeconds,
+  type LineRow,
+  type MoneyRow,
+  type Sum,
+  type WaitRow,
+} from './sql';
 
 const OVER_TARGET_LIMIT = 20;
 const TOP_ITEMS = 10;
@@ -56,7 +70,7 @@ export async function reportDays(db: Knex, locationId: number, fromDate: string,
     locale: s.location.locale,
     timeZone: s.location.timeZone,
     targetSeconds: s.targetSeconds,
-    ...dayByDay(parts, datesBetween(fromDate, toDate), s.targetSeconds),
+    ...dayByDay(parts, datesBetween(fromDate, toDate), s.targetSeconds, await tipsByDate(db, locationId, fromDate, toDate)),
   };
 }
 
@@ -75,7 +89,7 @@ async function moneyByHour(db: Knex, s: Scope, hours: Hours) {
     await db.raw(
       `SELECT ${hour.sql} AS hour, COUNT(*) AS orders, SUM(o.total_cents) AS gross, SUM(o.tax_cents) AS tax,
          SUM(o.discount_cents) AS discount, SUM(${ORDER_REFUNDS}) AS refunds,
-         SUM(CASE WHEN o.payment_method = 'cash' THEN 1 ELSE 0 END) AS cash_orders, SUM(CASE WHEN o.payment_method = 'cash' THEN o.total_cents ELSE 0 END) AS cash_cents
+         SUM(CASE WHEN ${CASH_ORDER} THEN 1 ELSE 0 END) AS cash_orders, SUM(${CASH_OF_TOTAL}) AS cash_cents
        FROM orders o WHERE ${s.where} AND ${PAID} GROUP BY 1`,
       [...hour.bindings, ...s.bindings],
     ),
@@ -175,8 +189,7 @@ async function overTarget(db: Knex, s: Scope): Promise<OverTargetTicket[]> {
 async function tipTotals(db: Knex, s: Scope): Promise<TipTotals> {
   const rows = rawRows<{ cash: Sum; card: Sum }>(
     await db.raw(
-      `SELECT SUM(CASE WHEN o.payment_method = 'cash' THEN ${TIP_KEPT} ELSE 0 END) AS cash,
-         SUM(CASE WHEN o.payment_method = 'cash' THEN 0 ELSE ${TIP_KEPT} END) AS card
+      `SELECT SUM(${CASH_TIP}) AS cash, SUM(${TIP_KEPT} - (${CASH_TIP})) AS card
        FROM orders o WHERE ${s.where} AND ${PAID} AND o.tip_cents > 0`,
       s.bindings,
     ),

@@ -28,6 +28,17 @@ export const ORDER_REFUNDS = `CASE WHEN o.refunded_cents > o.total_cents THEN o.
 /** The tip the café kept: the order's tip less what a refund gave back of it. */
 export const TIP_KEPT = `(o.tip_cents - (o.refunded_cents - ${ORDER_REFUNDS}))`;
 
+/**
+ * The part of an order's total paid in cash: all of it for a cash order; for one paid in parts, its
+ * cash parts (split_cash_cents) up to the total — the cash pays the order first and any cash past
+ * the total was tip (CASH_TIP). A card order's, and the rest of a split's, is card.
+ */
+export const CASH_OF_TOTAL = `CASE WHEN o.payment_method = 'cash' THEN o.total_cents WHEN o.payment_method = 'split' THEN (CASE WHEN o.split_cash_cents > o.total_cents THEN o.total_cents ELSE o.split_cash_cents END) ELSE 0 END`;
+/** A cash order: paid in cash, or in parts that were all cash (two friends with notes). */
+export const CASH_ORDER = `(o.payment_method = 'cash' OR (o.payment_method = 'split' AND o.split_cash_cents >= o.total_cents + o.tip_cents))`;
+/** The tip kept in cash: a cash order's, or a split's cash past its total (never more than the tip kept). */
+export const CASH_TIP = `CASE WHEN o.payment_method = 'cash' THEN ${TIP_KEPT} WHEN o.payment_method = 'split' AND o.split_cash_cents > o.total_cents THEN (CASE WHEN o.split_cash_cents - o.total_cents < ${TIP_KEPT} THEN o.split_cash_cents - o.total_cents ELSE ${TIP_KEPT} END) ELSE 0 END`;
+
 /** A SUM or COUNT as it comes back: a number or null (SQLite), text for big integers (PostgreSQL). */
 export type Sum = number | string | null;
 

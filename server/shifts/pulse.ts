@@ -7,12 +7,15 @@ import { staffingAdvice, type ErlangResult } from '@/domain/erlang';
 import { fraction } from '@/domain/fraction';
 import { durationWords } from '@/domain/format';
 import { bumpShares } from '@/domain/make-times';
-import type { PulseView } from '@/domain/pulse';
+import { pulseTips, type PulseView } from '@/domain/pulse';
+import { NO_TIPS } from '@/domain/reports';
+import { TIPS_OFF } from '@/domain/tips';
 import { DEFAULT_MAKE_SECONDS, DEFAULT_WEIGHT_DRINKS, quoteWaitSeconds } from '@/domain/quote';
 import { median, PERCENTILE_METHOD, summarizeWaits } from '@/domain/stats';
 import { staffingSentence } from '@/domain/wait-now';
 import type { Deps } from '@server/deps';
 import { pulseBeanAlerts } from '@server/beans/alerts';
+import { tipsByDate } from '@server/reports/tips';
 import { loadLocation } from '@server/menu/menu';
 import { businessDate } from '@/domain/business-date';
 import { barNow, PACE_WINDOW_MS } from '@server/orders/quotes';
@@ -228,5 +231,6 @@ export async function pulse(deps: Deps, locationId: number): Promise<PulseView> 
     },
     alert,
     beanAlerts: await pulseBeanAlerts(deps.db, locationId, nowDate, location.timeZone),
+    tipsToday: pulseTips((location.tips ?? TIPS_OFF).on, (await tipsByDate(deps.db, locationId, day, day)).get(day) ?? NO_TIPS),
   };
 }

@@ -24,6 +24,14 @@ export const BAR_EFFECT_LABEL: Record<BarEffect, string> = {
   kids_temp: "Kids' temperature: steamed cooler, in a jug of its own",
 };
 
+/** The effect's name alone, for a list of extras: "Dry". */
+export const BAR_EFFECT_NAME: Record<BarEffect, string> = {
+  wet: 'Wet',
+  more_foam: 'More foam',
+  dry: 'Dry',
+  kids_temp: "Kids' temperature",
+};
+
 /** The café's milk growth when the settings are not at hand (the settings' own defaults). */
 export const DEFAULT_MILK_GROWTH_PCT: Record<SteamedTexture, number> = { flat: 15, silky: 25, foamy: 75 };
 /** Dry: this share of the milk that would fill the cup with foamy milk. */

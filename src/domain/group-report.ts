@@ -1,7 +1,7 @@
 // The café group's report: each café's range report cut down to one row, side by side, and the
 // group's totals. The figures are the cafés' own reports (server/reports/group.ts asks each for its
 // range report); nothing here counts an order again, it only picks and sums.
-import type { ReportView } from './reports';
+import { sumTips, type ReportView, type TipTotals } from './reports';
 import type { WaitSummary } from './stats';
 
 /** One café's row: what its own range report says for the same dates. */
@@ -15,6 +15,8 @@ export interface GroupCafeRow {
   grossCents: number;
   refundsCents: number;
   netCents: number;
+  /** the customers' tips, kept, as the café's report shows them: never in net */
+  tips: TipTotals;
   /** the café's waits against its own target; percentiles can't be summed, so no group figure */
   waits: WaitSummary;
   targetSeconds: number;
@@ -28,6 +30,7 @@ export interface GroupTotals {
   grossCents: number;
   refundsCents: number;
   netCents: number;
+  tips: TipTotals;
 }
 
 export interface GroupReportView {
@@ -51,6 +54,7 @@ export function groupCafeRow(cafe: { id: number; name: string }, report: ReportV
     grossCents: report.grossCents,
     refundsCents: report.refundsCents,
     netCents: report.netCents,
+    tips: report.tips,
     waits: report.waits,
     targetSeconds: report.targetSeconds,
   };
@@ -66,6 +70,7 @@ export function groupTotals(rows: GroupCafeRow[]): GroupTotals | null {
     grossCents: sum((r) => r.grossCents),
     refundsCents: sum((r) => r.refundsCents),
     netCents: sum((r) => r.netCents),
+    tips: sumTips(rows.map((r) => r.tips)),
   };
 }
 

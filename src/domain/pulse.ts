@@ -1,5 +1,6 @@
 // What the Pulse board shows: live ticket times against the target, and whether to move people.
 import type { BeanAlert } from './bean-stock';
+import type { TipTotals } from './reports';
 import type { WaitSummary } from './stats';
 import type { ShiftView } from './types';
 import type { WaitNow } from './wait-now';
@@ -61,4 +62,13 @@ export interface PulseView {
   alert: string | null;
   /** Coffee in the grinders running low or out, and lots past their best (src/domain/bean-stock.ts). */
   beanAlerts: BeanAlert[];
+  /** Today's tips so far (the café-local date, as the day's report counts them); null when the
+   * café takes no tips and none came today (pulseTips). */
+  tipsToday: TipTotals | null;
+}
+
+/** Pulse shows today's tips while the café takes tips, or when some came today all the same
+ * (tips turned off after the morning's): never a row of zeros for a café without them. */
+export function pulseTips(tipsOn: boolean, today: TipTotals): TipTotals | null {
+  return tipsOn || today.cents > 0 ? today : null;
 }

@@ -8,7 +8,7 @@ export const MAX_REPORT_DAYS = 366;
 
 /** The figures of one date's (or the whole range's) report that a day's row shows: the report's
  * own counts and money as they are, and the rest flattened for a table row and the CSV. */
-export interface DayFigures extends Pick<ReportView, 'orders' | 'drinks' | 'grossCents' | 'taxCents' | 'discountCents' | 'refundsCents' | 'netCents'> {
+export interface DayFigures extends Pick<ReportView, 'orders' | 'drinks' | 'grossCents' | 'taxCents' | 'discountCents' | 'refundsCents' | 'netCents' | 'tips'> {
   /** what cash and card orders took, before refunds (together grossCents) */
   cashCents: number;
   cardCents: number;
@@ -47,7 +47,7 @@ export function daysInRange(from: string, to: string): number {
 
 type ReportFigures = Pick<
   ReportView,
-  'orders' | 'drinks' | 'grossCents' | 'taxCents' | 'discountCents' | 'refundsCents' | 'netCents' | 'paymentMix' | 'waits' | 'shotsPulled'
+  'orders' | 'drinks' | 'grossCents' | 'taxCents' | 'discountCents' | 'refundsCents' | 'netCents' | 'tips' | 'paymentMix' | 'waits' | 'shotsPulled'
 >;
 
 /** A report's figures as a day's row shows them. */
@@ -61,6 +61,7 @@ export function dayFigures(report: ReportFigures): DayFigures {
     discountCents: report.discountCents,
     refundsCents: report.refundsCents,
     netCents: report.netCents,
+    tips: report.tips,
     cashCents: report.paymentMix.cash.cents,
     cardCents: report.paymentMix.card.cents,
     medianWaitSeconds: w.medianSeconds,

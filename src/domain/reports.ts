@@ -39,6 +39,14 @@ export interface TipTotals {
   cardCents: number;
 }
 
+/** A period without tips. */
+export const NO_TIPS: TipTotals = { cents: 0, cashCents: 0, cardCents: 0 };
+
+/** Tips of several periods (days, cafés in one currency) added up. */
+export function sumTips(list: TipTotals[]): TipTotals {
+  return list.reduce((t, x) => ({ cents: t.cents + x.cents, cashCents: t.cashCents + x.cashCents, cardCents: t.cardCents + x.cardCents }), NO_TIPS);
+}
+
 export interface MoneyByMethod {
   orders: number;
   /** total_cents of the method's paid and refunded orders, before refunds (sums to grossCents) */
@@ -119,7 +127,7 @@ export interface TicketHistoryRow {
   customerName: string;
   status: TicketStatus;
   paymentStatus: 'unpaid' | 'paid' | 'refunded';
-  paymentMethod: 'cash' | 'card';
+  paymentMethod: 'cash' | 'card' | 'split';
   totalCents: number;
   refundedCents: number;
   createdAt: string;

@@ -7,6 +7,7 @@ import { daysInRange, MAX_REPORT_DAYS } from './report-days';
 import { SCREENS, type ScreenId } from './screens';
 import { REMAKE_REASONS } from './remakes';
 import { plainText } from './text';
+import { SPLIT_PARTS_MAX } from './split-payment';
 import { TIP_MAX_CENTS } from './tips';
 
 export const signInBody = z.object({
@@ -53,6 +54,28 @@ export const cardPayment = z.object({
   paymentMethod: z.string().regex(/^pm_[A-Za-z0-9_]{1,60}$/, 'Not a payment method id'),
 });
 
+const partAmount = z.number({ error: 'An amount in cents' }).int('Whole cents').min(1, 'A part is at least 1 cent').max(10_000_00);
+
+/** One part of a split payment: cash handed over at the till (with what was tendered), or one card. */
+export const paymentPart = z.discriminatedUnion('method', [
+  cashPayment.extend({ amountCents: partAmount }).refine((p) => p.tenderedCents >= p.amountCents, {
+    message: 'The cash tendered is less than this part',
+    path: ['tenderedCents'],
+  }),
+  cardPayment.extend({ amountCents: partAmount }),
+]);
+export type PaymentPart = z.infer<typeof paymentPart>;
+
+/**
+ * An order paid in parts (src/domain/split-payment.ts). Part n of the list is part n of the order
+ * every time it is sent: a part already paid is not taken again, so a declined card is replaced by
+ * sending the same list with another card in its place.
+ */
+export const splitPayment = z.object({
+  method: z.literal('split'),
+  parts: z.array(paymentPart).min(2, 'A split has at least 2 parts').max(SPLIT_PARTS_MAX, `A split has at most ${SPLIT_PARTS_MAX} parts`),
+});
+
 export const discountInput = z.object({
   kind: z.enum(['percent', 'amount']),
   /** whole percent (1–100) or cents */
@@ -82,7 +105,7 @@ export const createOrderBody = z.object({
     .min(0, 'Tip: not below 0')
     .max(TIP_MAX_CENTS, `Tip: at most ${TIP_MAX_CENTS} cents`)
     .optional(),
-  payment: z.discriminatedUnion('method', [cashPayment, cardPayment]),
+  payment: z.discriminatedUnion('method', [cashPayment, cardPayment, splitPayment]),
 });
 export type CreateOrderBody = z.infer<typeof createOrderBody>;
 
@@ -103,6 +126,8 @@ export const ordersQuery = z.object({
 export const refundBody = z.object({
   /** Leave out to refund everything still refundable. */
   amountCents: z.number().int().positive().optional(),
+  /** One part of a split order (its payment's id); left out, the parts are refunded last paid first. */
+  paymentId: z.number().int().positive().optional(),
   reason: plainText().min(3, 'Say why').max(200),
 });
 

@@ -20,6 +20,7 @@ export const PAYMENT_STATUS_WORDS: Record<TicketHistoryRow['paymentStatus'], str
 export const PAYMENT_METHOD_WORDS: Record<TicketHistoryRow['paymentMethod'], string> = {
   cash: 'Cash',
   card: 'Card',
+  split: 'Split',
 };
 
 /**

@@ -3,6 +3,7 @@ import type { BarEffect } from './drink-options';
 import type { Jug, JugRules, SteamedTexture } from './jug-plan';
 import type { RemakeMark } from './remakes';
 import type { Role } from './roles';
+import type { PaidPart } from './split-payment';
 import type { TipSettings } from './tips';
 import type { TemperatureUnit, VolumeUnit } from './units';
 
@@ -256,11 +257,14 @@ export interface OrderView {
   /** everything given back, the tip included once the order's total is back */
   refundedCents: number;
   payment: {
-    method: 'cash' | 'card';
+    /** split: paid in parts, listed in `parts` */
+    method: 'cash' | 'card' | 'split';
     tenderedCents: number | null;
     changeCents: number | null;
-    /** The provider's id of the successful card payment. */
+    /** The provider's id of the successful card payment (the first card part's on a split). */
     providerId: string | null;
+    /** The parts paid so far, the first first: one for an order paid at once. */
+    parts: PaidPart[];
   };
   changeCents: number | null;
   quotedWaitSeconds: number | null;

@@ -9,14 +9,14 @@ import { addLine, cupsOf, orderCountLabel } from '@/domain/order-quantity';
 import { plural } from '@/domain/plural';
 import { quoteLabel } from '@/domain/quote';
 import { can } from '@/domain/roles';
-import { orderDraft, type OrderDraft, type OrderDraftInput, type OrderLineInput } from '@/domain/schemas';
+import { orderDraft, type CreateOrderBody, type OrderDraft, type OrderDraftInput, type OrderLineInput } from '@/domain/schemas';
 import type { MenuItemView, OrderView } from '@/domain/types';
 import { Button } from '@/components/ui/button';
 import { LinkStateBadge } from '@/components/ui/link-state';
 import { StaffMenu } from '@/features/team/staff-menu';
 import { barBoardQuery } from '@/queries/board';
 import { useLiveBoard } from '@/live/use-live-board';
-import { emptyCheckout, previewTotals, tenderedCents, tipCentsOf, type Checkout } from '@/features/counter/checkout';
+import { emptyCheckout, previewTotals, splitParts, tenderedCents, tipCentsOf, type Checkout } from '@/features/counter/checkout';
 import { TipPicker } from '@/features/counter/tip-picker';
 import { amountDueCents, maxTipCents, TIPS_OFF } from '@/domain/tips';
 import { CheckoutPanel, PaymentPanel, SendBar } from '@/features/counter/checkout-panel';
@@ -28,6 +28,8 @@ import { OrderPanel } from '@/features/counter/order-panel';
 import { OfflineOrdersBanner } from '@/features/counter/offline-orders-banner';
 import { useOfflineOrders } from '@/features/counter/use-offline-orders';
 import { useSendOrder } from '@/features/counter/use-send-order';
+import { SplitEditor } from '@/features/counter/split-editor';
+import { useWide } from '@/lib/use-wide';
 import { WaitNow } from '@/features/counter/wait-now';
 import { menuQuery } from '@/queries/menu';
 import { sessionQuery } from '@/queries/session';
@@ -71,6 +73,10 @@ function Counter() {
   const tipCents = tips.on ? tipCentsOf(checkout.tip, totals.totalCents) : 0;
   const tipOk = tipCents !== null && tipCents <= maxTipCents(totals.totalCents);
   const dueCents = amountDueCents(totals.totalCents, tipCents ?? 0);
+  const wide = useWide();
+  const [menuWhileSplit, setMenuWhileSplit] = useState(false);
+  const splitOnLeft = wide && checkout.method === 'split' && !menuWhileSplit;
+  const splitEditor = <SplitEditor checkout={checkout} onCheckout={setCheckout} dueCents={dueCents} currency={menu.location.currency} />;
   const queued = board.tickets.filter((t) => t.status === 'open').flatMap((t) => t.drinks.filter((d) => d.status !== 'done'));
 
   const pick = useCallback(
@@ -100,6 +106,7 @@ function Counter() {
     clientOrderId.current = null;
     form.reset(BLANK_DRAFT);
     setCheckout(emptyCheckout);
+    setMenuWhileSplit(false);
     // the next customer's order starts at the top, with the menu in front on a phone
     for (const box of [orderScroll.current, orderScroll.current?.firstElementChild]) box?.scrollTo({ top: 0 });
     setPhoneView('menu');
@@ -116,10 +123,13 @@ function Counter() {
       tipCents: tipCents ? tipCents : undefined,
     };
     try {
-      const payment =
-        checkout.method === 'card'
-          ? ({ method: 'card', paymentMethod: checkout.paymentMethod! } as const)
-          : ({ method: 'cash', tenderedCents: tenderedCents(checkout, dueCents) ?? 0 } as const);
+      const split = checkout.method === 'split' ? splitParts(checkout.split, dueCents) : null;
+      const payment: CreateOrderBody['payment'] =
+        split && 'parts' in split
+          ? { method: 'split', parts: split.parts }
+          : checkout.method === 'card'
+            ? { method: 'card', paymentMethod: checkout.paymentMethod! }
+            : { method: 'cash', tenderedCents: tenderedCents(checkout, dueCents) ?? 0 };
       // Cash that can't reach the server is kept and resent by itself. A card is charged only
       // with the customer there: one that can't reach the server is held, and the banner asks
       // the cashier (charge it now, they paid cash, or cancel) — never charged on its own.
@@ -128,8 +138,11 @@ function Counter() {
       // the receipt address travels in the order: the server mails it once the order is in, even
       // when it is sent later as an offline order
       finish(result.queued ? null : result.order);
-    } catch {
-      /* shown from send.error; the same id is kept for the retry */
+    } catch (err) {
+      // shown from send.error; the same id is kept for the retry. A split says which parts the
+      // server took before a card was declined: those stay as they were, marked paid.
+      const paidParts = err instanceof ApiError ? (err.details as { paidParts?: unknown } | undefined)?.paidParts : undefined;
+      if (Array.isArray(paidParts)) setCheckout((c) => ({ ...c, paidParts: paidParts.filter((n): n is number => typeof n === 'number') }));
     }
   });
 
@@ -180,10 +193,11 @@ function Counter() {
         >
           <span>
             Sent <strong>#{sent.number}</strong> for <strong>{sent.customerName}</strong> · {money(amountDueCents(sent.totalCents, sent.tipCents ?? 0))}
-            {sent.tipCents ? ` with ${money(sent.tipCents)} tip` : ''} {sent.payment.method === 'card' ? '· card paid' : ''}
+            {sent.tipCents ? ` with ${money(sent.tipCents)} tip` : ''}{' '}
+            {sent.payment.method === 'card' ? '· card paid' : sent.payment.method === 'split' ? `· paid in ${sent.payment.parts.length} parts` : ''}
             {sent.allergens.length > 0 || sent.allergyNote ? ' · ⚠ allergy flagged' : ''}
           </span>
-          {sent.payment.method === 'cash' && (
+          {sent.payment.method !== 'card' && sent.changeCents !== null && (
             <span>
               Change due <strong data-testid="sent-change">{money(sent.changeCents)}</strong>
             </span>
@@ -203,10 +217,23 @@ function Counter() {
       <form
         onSubmit={onSubmit}
         noValidate
-        className="grid min-h-0 flex-1 grid-cols-1 gap-3 p-2 md:grid-cols-[1fr_22rem] md:gap-4 md:p-4 lg:grid-cols-[1fr_26rem]"
+        className="grid min-h-0 flex-1 grid-cols-1 gap-3 p-2 md:grid-cols-[1fr_22rem] md:gap-4 md:p-4 lg:grid-cols-[1fr_28rem]"
       >
         <div className={cn('min-h-0 min-w-0 flex-col', phoneView === 'menu' ? 'flex' : 'hidden', 'md:flex')}>
-          <MenuGrid menu={menu} onPick={pick} />
+          {/* from a tablet up the parts of a split take the menu's place: the payment column has no room for them at 768 px high */}
+          {splitOnLeft ? (
+            <div className="min-h-0 flex-1 overflow-y-auto">
+              <div className="mb-2 flex items-center gap-3">
+                <h2 className="text-2xl font-semibold">Paying in parts · {money(dueCents)}</h2>
+                <Button tone="quiet" className="ml-auto" onClick={() => setMenuWhileSplit(true)}>
+                  Show the menu
+                </Button>
+              </div>
+              {splitEditor}
+            </div>
+          ) : (
+            <MenuGrid menu={menu} onPick={pick} />
+          )}
           {/* a phone: the order is one tap away, with its count and total on the button */}
           <Button size="lg" className="mt-2 w-full shrink-0 md:hidden" onClick={() => setPhoneView('order')}>
             Order · {orderCountLabel(menu, items)} · {money(totals.totalCents)} ›
@@ -256,6 +283,20 @@ function Counter() {
               checkout={checkout}
               onCheckout={setCheckout}
               totalCents={dueCents}
+              split={
+                wide ? (
+                  <p className="text-lg">
+                    The parts are on the left.{' '}
+                    {menuWhileSplit && (
+                      <Button tone="quiet" onClick={() => setMenuWhileSplit(false)}>
+                        Show the parts
+                      </Button>
+                    )}
+                  </p>
+                ) : (
+                  splitEditor
+                )
+              }
               tipPicker={
                 tips.on && (
                   <TipPicker

@@ -3,6 +3,7 @@ import { useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { lazy, Suspense, useEffect, useState } from 'react';
 import type { LoaderFunctionArgs } from 'react-router';
 import { durationWords, formatDuration } from '@/domain/format';
+import { formatCents } from '@/domain/money';
 import type { PulseView, WaitSummary } from '@/domain/pulse';
 import { LinkStateBadge } from '@/components/ui/link-state';
 import { StaffMenu } from '@/features/team/staff-menu';
@@ -143,6 +144,13 @@ function Pulse() {
         <span data-testid="wait-now" className="text-lg">
           Wait now <strong>~{Math.max(1, Math.ceil(p.staffing.waitNow.seconds / 60))} min</strong> ({drinksWord(p.staffing.waitNow.drinksOnBar)} on the bar)
         </span>
+        {p.tipsToday && (
+          // the staff's money so far today, apart from the café's takings
+          <span data-testid="tips-today" className="text-lg">
+            Tips today <strong>{formatCents(p.tipsToday.cents, menu.location.currency)}</strong> (cash{' '}
+            {formatCents(p.tipsToday.cashCents, menu.location.currency)} · card {formatCents(p.tipsToday.cardCents, menu.location.currency)})
+          </span>
+        )}
         <LinkStateBadge state={link} className="ml-auto" />
         <StaffMenu />
       </header>

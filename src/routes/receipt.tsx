@@ -1,4 +1,5 @@
 // A printable receipt (80 mm roll) for one order.
+import { Fragment } from 'react';
 import { useSuspenseQuery } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router';
 import { formatCents } from '@/domain/money';
@@ -68,9 +69,22 @@ function Receipt() {
             <dd className="text-right text-base font-semibold">{money(amountDueCents(o.totalCents, o.tipCents))}</dd>
           </>
         )}
-        <dt>{o.payment.method === 'card' ? 'Card' : 'Cash'}</dt>
-        <dd className="text-right">{money(o.payment.tenderedCents ?? amountDueCents(o.totalCents, o.tipCents))}</dd>
-        {o.payment.method === 'cash' && (
+        {o.payment.method === 'split' ? (
+          o.payment.parts.map((p) => (
+            <Fragment key={p.part}>
+              <dt>
+                Part {p.part} · {p.method === 'card' ? 'card' : 'cash'}
+              </dt>
+              <dd className="text-right">{money(p.amountCents)}</dd>
+            </Fragment>
+          ))
+        ) : (
+          <>
+            <dt>{o.payment.method === 'card' ? 'Card' : 'Cash'}</dt>
+            <dd className="text-right">{money(o.payment.tenderedCents ?? amountDueCents(o.totalCents, o.tipCents))}</dd>
+          </>
+        )}
+        {o.payment.method !== 'card' && o.payment.tenderedCents !== null && (
           <>
             <dt>Change</dt>
             <dd className="text-right">{money(o.changeCents ?? 0)}</dd>

@@ -169,6 +169,33 @@ describe('POST /api/drinks/:id/refund', () => {
     await expectRefused(() => lead.post(`/api/drinks/${espresso.id}/refund`).send({ reason: 'Too bitter' }), 409, 'conflict', order.id);
   });
 
+  it('an order paid in two parts: the drink comes back from the parts as refundOrder plans it, each refund naming the drink', async () => {
+    const items = [FLAT_WHITE(), ESPRESSO()];
+    // 780 + 64 tax = 844, paid 600 in cash and 244 by card
+    const body = {
+      ...orderBody('Ottilie Brack', items),
+      payment: {
+        method: 'split' as const,
+        parts: [
+          { method: 'cash' as const, amountCents: 600, tenderedCents: 600 },
+          { method: 'card' as const, amountCents: 244, paymentMethod: 'pm_card_visa' },
+        ],
+      },
+    };
+    const placed = await cashier.post('/api/orders').send(body);
+    expect(placed.status, JSON.stringify(placed.body)).toBe(201);
+    const order = placed.body.order as OrderView;
+    expect(order.totalCents).toBe(844);
+    const [flatWhite] = barLines(order);
+    const res = await lead.post(`/api/drinks/${flatWhite.id}/refund`).send({ reason: 'Customer could not wait' });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.order).toMatchObject({ refundedCents: 498, paymentStatus: 'paid' });
+    const refunds = await server.db('refunds').where({ order_id: order.id });
+    expect(refunds.reduce((a, r) => a + r.amount_cents, 0)).toBe(498);
+    expect(refunds.every((r) => r.order_item_id === flatWhite.id)).toBe(true);
+    await expectRefused(() => lead.post(`/api/drinks/${flatWhite.id}/refund`).send({ reason: 'Again' }), 409, 'conflict', order.id);
+  });
+
   it(`${AT_ONCE} refunds of one drink at once: one is made, the others 409, one refunds row`, async () => {
     const order = await paidOrder('Lorcan Pike', [FLAT_WHITE(), ESPRESSO()]);
     const [drink] = barLines(order);

@@ -1,7 +1,8 @@
 // The café group's report (GET /api/reports/group): one row per café of the owner's group, each
 // exactly what that café's own range report says, the totals their sums, for the owner alone. A
 // café of another group never shows. Orders are placed through the API by each café's own cashier
-// and bumped by its own barista at known waits on the manual clock.
+// and bumped by its own barista at known waits on the manual clock; both cafés take tips, and some
+// customers leave one.
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { SECOND_CAFE_NAME, demoCafeId } from '@seeds/demo-cafe';
@@ -24,14 +25,22 @@ let outside: number;
 
 const at = (seconds: number) => new Date(Date.parse(T0) + seconds * 1000).toISOString();
 
-/** Cash orders of one Long black each at `cafe`, taken at T0 by its cashier, bumped by its barista after `waits` seconds. */
-async function placeAt(cafe: number, cashierLogin: DemoLogin, baristaLogin: DemoLogin, names: string[], waits: number[]): Promise<OrderView[]> {
+/** Cash orders of one Long black each at `cafe`, taken at T0 by its cashier (with the tip of the same place in `tips`), bumped by its barista after `waits` seconds. */
+async function placeAt(
+  cafe: number,
+  cashierLogin: DemoLogin,
+  baristaLogin: DemoLogin,
+  names: string[],
+  waits: number[],
+  tips: number[] = [],
+): Promise<OrderView[]> {
   const ids = await demoMenu(server, cafe);
   const [cashier, barista] = [await server.signIn(cashierLogin), await server.signIn(baristaLogin)];
   time.set(T0);
   const orders: OrderView[] = [];
-  for (const name of names) {
-    const res = await cashier.post('/api/orders').send(orderBody(name, [{ menuItemId: ids.item('Long black'), sizeId: ids.size('Long black', 'Regular') }]));
+  for (const [i, name] of names.entries()) {
+    const body = orderBody(name, [{ menuItemId: ids.item('Long black'), sizeId: ids.size('Long black', 'Regular') }]);
+    const res = await cashier.post('/api/orders').send(tips[i] ? { ...body, tipCents: tips[i] } : body);
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     orders.push(res.body.order);
   }
@@ -56,8 +65,15 @@ beforeAll(async () => {
     .insert({ name: 'Saltmarsh Espresso', created_at: created, group_id: await groupOfItsOwn(server.db, 'Saltmarsh Espresso', created) })
     .returning('id');
 
-  homeOrders = await placeAt(home, 'cashier', 'barista', ['Ada Finch', 'Bram Okafor', 'Cora Lind'], [120, 300, 360]);
-  ropewalkOrders = await placeAt(ropewalk, 'rw-cashier', 'rw-barista', ['Wren Halloway', 'Gus Ware'], [60]);
+  // the owner turns tips on at each café in turn (settings are the café in view's)
+  const settingOwner = await server.signIn('owner');
+  for (const cafe of [home, ropewalk]) {
+    await settingOwner.post('/api/session/cafe').send({ locationId: cafe }).expect(200);
+    const res = await settingOwner.put('/api/settings').send({ tipsOn: true, tipPercents: [10, 15], tipCustom: true });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+  }
+  homeOrders = await placeAt(home, 'cashier', 'barista', ['Ada Finch', 'Bram Okafor', 'Cora Lind'], [120, 300, 360], [40, 0, 25]);
+  ropewalkOrders = await placeAt(ropewalk, 'rw-cashier', 'rw-barista', ['Wren Halloway', 'Gus Ware'], [60], [0, 60]);
   // a partial refund at the home café, so refunds and net differ from gross there
   const lead = await server.signIn('lead');
   const refund = await lead.post(`/api/orders/${homeOrders[0].id}/refund`).send({ amountCents: 50, reason: 'Short pour' });
@@ -85,6 +101,7 @@ const rowFrom = (cafe: { id: number; name: string }, r: ReportView) => ({
   grossCents: r.grossCents,
   refundsCents: r.refundsCents,
   netCents: r.netCents,
+  tips: r.tips,
   waits: r.waits,
   targetSeconds: r.targetSeconds,
 });
@@ -117,6 +134,11 @@ describe('GET /api/reports/group', () => {
     // Ropewalk bumped one of its two, 60 s
     expect(h.waits).toMatchObject({ count: 3, medianSeconds: 300, overTargetShare: 2 / 3 });
     expect(r.waits).toMatchObject({ count: 1, medianSeconds: 60, overTargetShare: 0 });
+    // Ada's 0.40 (her 0.50 refund is the order's money, the tip stays) and Cora's 0.25; Gus's 0.60
+    expect([h.tips, r.tips]).toEqual([
+      { cents: 65, cashCents: 65, cardCents: 0 },
+      { cents: 60, cashCents: 60, cardCents: 0 },
+    ]);
   });
 
   it('totals the money and the counts of the cafés, and nothing of the waits', async () => {
@@ -129,16 +151,20 @@ describe('GET /api/reports/group', () => {
       grossCents: sum((c) => c.grossCents),
       refundsCents: 50,
       netCents: sum((c) => c.netCents),
+      // 0.65 + 0.60, by hand
+      tips: { cents: 125, cashCents: 125, cardCents: 0 },
     });
     expect(totals!.netCents).toBe(totals!.grossCents - totals!.refundsCents);
   });
 
-  it('has no totals once a café takes another currency', async () => {
+  it('has no totals (tips neither) once a café takes another currency', async () => {
     await server.db('locations').where({ id: ropewalk }).update({ currency: 'EUR' });
     try {
       const group = await groupOf();
       expect(group.totals).toBeNull();
       expect(group.cafes.map((c) => c.currency)).toEqual(['USD', 'EUR']);
+      // each café still shows its own tips, in its own currency
+      expect(group.cafes.map((c) => c.tips.cents)).toEqual([65, 60]);
     } finally {
       await server.db('locations').where({ id: ropewalk }).update({ currency: 'USD' });
     }

@@ -1,6 +1,7 @@
 // Pulse, the quote and the shift report at their edges, over HTTP on a real server: a bar worked
 // exactly to capacity, a few slow drinks pulling the mean make time past the median, a jug of
-// lattes bumped as one batch, and a shift that runs past midnight. Numbers worked by hand.
+// lattes bumped as one batch, a shift that runs past midnight, and today's tips (the café-local
+// date's, as the day's report counts them). Numbers worked by hand.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { PulseView } from '@/domain/pulse';
 import type { ReportView } from '@/domain/reports';
@@ -176,5 +177,45 @@ describe('a shift across midnight', () => {
     expect(res.status).toBe(200);
     const report: ReportView = res.body;
     expect(report.hourly.map((r) => r.hour)).toEqual([22, 23, 0]);
+  });
+});
+
+describe("today's tips", () => {
+  const h = bar('2026-03-02T14:00:00.000Z'); // 09:00 on 2 March in New York
+  const setTips = async (tipsOn: boolean) => {
+    const res = await (await h.ctx.server.signIn('owner')).put('/api/settings').send({ tipsOn, tipPercents: [10, 15, 20], tipCustom: true });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+  };
+  const tipped = async (name: string, tipCents: number, card = false) => {
+    const body = { ...orderBody(name, [{ menuItemId: h.ctx.ids.item('Long black') }]), tipCents };
+    const res = await h.ctx.cashier.post('/api/orders').send(card ? { ...body, payment: { method: 'card', paymentMethod: 'pm_card_visa' } } : body);
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+  };
+
+  it('a café without tips sees none; once they are on, zeros until the first', async () => {
+    expect((await h.pulse()).tipsToday).toBeNull();
+    await setTips(true);
+    expect((await h.pulse()).tipsToday).toEqual({ cents: 0, cashCents: 0, cardCents: 0 });
+    await tipped('Ama Reyes', 1_00);
+    expect((await h.pulse()).tipsToday).toEqual({ cents: 1_00, cashCents: 1_00, cardCents: 0 });
+  });
+
+  it("counts today's only, cash and card apart, as the day's report does", async () => {
+    h.setMinute(24 * 60); // 09:00 on 3 March: yesterday's 1.00 no longer counts
+    expect((await h.pulse()).tipsToday).toEqual({ cents: 0, cashCents: 0, cardCents: 0 });
+    await tipped('Bo Sayer', 80);
+    await tipped('Cai Dunn', 1_50, true);
+    const { tipsToday } = await h.pulse();
+    // 0.80 + 1.50 = 2.30 (by hand)
+    expect(tipsToday).toEqual({ cents: 2_30, cashCents: 80, cardCents: 1_50 });
+    const day = await h.ctx.lead.get('/api/reports/range?from=2026-03-03&to=2026-03-03');
+    expect((day.body as ReportView).tips).toEqual(tipsToday);
+  });
+
+  it("tips turned off: today's still show; the next day, nothing", async () => {
+    await setTips(false);
+    expect((await h.pulse()).tipsToday).toEqual({ cents: 2_30, cashCents: 80, cardCents: 1_50 });
+    h.setMinute(2 * 24 * 60); // 09:00 on 4 March
+    expect((await h.pulse()).tipsToday).toBeNull();
   });
 });

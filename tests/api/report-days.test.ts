@@ -2,7 +2,9 @@
 // each exactly what the range report of that date alone answers, dates without orders as zeros,
 // the total exactly the whole range's report. Orders are placed through the API on three dates
 // (the Reports fixture's morning, a card-and-cash morning two days later, and today, which is
-// never stored) and bumped at known waits on the manual clock.
+// never stored) and bumped at known waits on the manual clock. Tips are on from 4 March: a cash
+// and a card tip each on 4 March and today, and the 4 March card order refunded past its total, so
+// part of its tip went back.
 import Papa from 'papaparse';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -17,7 +19,7 @@ const time = manualClock(T0);
 let server: TestServer;
 let lead: Agent;
 let day: ReportDay;
-/** 4 March: two orders (cash, card), both bumped; 5 March (today): three, one bumped */
+/** 4 March: two orders (cash, card), both bumped; 5 March (today): three, one bumped. Tips below. */
 let fourth: OrderView[];
 let today: OrderView[];
 const FROM = '2026-03-01';
@@ -25,13 +27,13 @@ const TO = '2026-03-05';
 const DATES = ['2026-03-01', '2026-03-02', '2026-03-03', '2026-03-04', '2026-03-05'];
 
 /** Orders of one Latte each taken at `t0` (09:00 in New York), the first `waits.length` bumped after those seconds. */
-async function placeAt(t0: string, orders: { name: string; card?: boolean }[], waits: number[]): Promise<OrderView[]> {
+async function placeAt(t0: string, orders: { name: string; card?: boolean; tip?: number }[], waits: number[]): Promise<OrderView[]> {
   const ids = await demoMenu(server);
   const [cashier, barista] = [await server.signIn('cashier'), await server.signIn('barista')];
   time.set(t0);
   const placed: OrderView[] = [];
-  for (const { name, card } of orders) {
-    const body = orderBody(name, [{ menuItemId: ids.item('Latte') }, { menuItemId: ids.item('Banana bread') }]);
+  for (const { name, card, tip } of orders) {
+    const body = { ...orderBody(name, [{ menuItemId: ids.item('Latte') }, { menuItemId: ids.item('Banana bread') }]), ...(tip ? { tipCents: tip } : {}) };
     const res = await cashier.post('/api/orders').send(card ? { ...body, payment: { method: 'card', paymentMethod: 'pm_card_visa' } } : body);
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     placed.push(res.body.order);
@@ -47,10 +49,22 @@ async function placeAt(t0: string, orders: { name: string; card?: boolean }[], w
 beforeAll(async () => {
   server = await startTestServer({ clock: time.clock });
   day = await placeReportDay(server, time);
-  fourth = await placeAt('2026-03-04T14:00:00.000Z', [{ name: 'Hana Moss' }, { name: 'Ivo Tarr', card: true }], [90, 360]);
-  today = await placeAt('2026-03-05T14:00:00.000Z', [{ name: 'Jun Abara' }, { name: 'Kit Lowe', card: true }, { name: 'Lia Brook' }], [150]);
+  const tipsOn = await (await server.signIn('owner')).put('/api/settings').send({ tipsOn: true, tipPercents: [10, 15, 20], tipCustom: true });
+  expect(tipsOn.status, JSON.stringify(tipsOn.body)).toBe(200);
+  fourth = await placeAt(
+    '2026-03-04T14:00:00.000Z',
+    [
+      { name: 'Hana Moss', tip: 50 },
+      { name: 'Ivo Tarr', card: true, tip: 120 },
+    ],
+    [90, 360],
+  );
+  today = await placeAt('2026-03-05T14:00:00.000Z', [{ name: 'Jun Abara', tip: 30 }, { name: 'Kit Lowe', card: true, tip: 75 }, { name: 'Lia Brook' }], [150]);
   time.set('2026-03-05T16:00:00.000Z'); // 11:00 in New York on 5 March: the other dates are past
   lead = await server.signIn('lead');
+  // 40 cents past Ivo's total: the order's money back, and 40 of his 120 cents of tip
+  const refund = await lead.post(`/api/orders/${fourth[1].id}/refund`).send({ amountCents: fourth[1].totalCents + 40, reason: 'Spilt on the counter' });
+  expect(refund.status, JSON.stringify(refund.body)).toBe(200);
 }, 60_000);
 afterAll(() => server.close());
 
@@ -71,6 +85,7 @@ const figuresOf = (r: ReportView): DayFigures => ({
   discountCents: r.discountCents,
   refundsCents: r.refundsCents,
   netCents: r.netCents,
+  tips: r.tips,
   cashCents: r.paymentMix.cash.cents,
   cardCents: r.paymentMix.card.cents,
   medianWaitSeconds: r.waits.medianSeconds,
@@ -108,6 +123,7 @@ describe('GET /api/reports/days', () => {
         discountCents: 0,
         refundsCents: 0,
         netCents: 0,
+        tips: { cents: 0, cashCents: 0, cardCents: 0 },
         cashCents: 0,
         cardCents: 0,
         medianWaitSeconds: null,
@@ -117,6 +133,17 @@ describe('GET /api/reports/days', () => {
         shotsPulled: 0,
       });
     }
+  });
+
+  it('gives each date the tips kept that day, cash and card, and totals them (by hand)', async () => {
+    const { days, total } = await daysOf();
+    const none = { cents: 0, cashCents: 0, cardCents: 0 };
+    // 4 March: Hana's 0.50 in cash; Ivo's 1.20 by card less the 0.40 refunded past his total
+    // today: Jun's 0.30 in cash, Kit's 0.75 by card; the first days had none
+    expect(days.map((d) => d.tips)).toEqual([none, none, none, { cents: 130, cashCents: 50, cardCents: 80 }, { cents: 105, cashCents: 30, cardCents: 75 }]);
+    expect(total.tips).toEqual({ cents: 235, cashCents: 80, cardCents: 155 });
+    // never in the café's money: 4 March's refunds are Ivo's total alone, not the tip's 40 cents
+    expect(days[3].refundsCents).toBe(fourth[1].totalCents);
   });
 
   it("totals exactly the whole range's report, and the money adds up across the rows", async () => {
@@ -197,6 +224,9 @@ describe('GET /api/reports/days.csv', () => {
       'Net (USD)',
       'Cash (USD)',
       'Card (USD)',
+      'Tips (USD)',
+      'Cash tips (USD)',
+      'Card tips (USD)',
       'Median wait (s)',
       'p90 wait (s)',
       'Over 240 s target',
@@ -216,6 +246,9 @@ describe('GET /api/reports/days.csv', () => {
       money(f.netCents),
       money(f.cashCents),
       money(f.cardCents),
+      money(f.tips.cents),
+      money(f.tips.cashCents),
+      money(f.tips.cardCents),
       wait(f.medianWaitSeconds),
       wait(f.p90WaitSeconds),
       String(f.overTargetCount),

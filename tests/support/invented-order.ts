@@ -55,7 +55,7 @@ export function inventedOrder(over: Partial<OrderView> = {}): OrderView {
     totalCents: 1315,
     tipCents: 0,
     refundedCents: 0,
-    payment: { method: 'cash', tenderedCents: 2000, changeCents: 685, providerId: null },
+    payment: { method: 'cash', tenderedCents: 2000, changeCents: 685, providerId: null, parts: [] },
     changeCents: 685,
     quotedWaitSeconds: null,
     takenBy: null,

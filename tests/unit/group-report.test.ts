@@ -52,9 +52,30 @@ describe('groupReportView', () => {
     const view = groupReportView('2026-03-02', '2026-03-03', [
       {
         cafe: harbour,
-        report: report({ orders: 5, drinks: 7, grossCents: 30_45, refundsCents: 1_50, netCents: 28_95, waits: waits(200), targetSeconds: 240 }),
+        report: report({
+          orders: 5,
+          drinks: 7,
+          grossCents: 30_45,
+          refundsCents: 1_50,
+          netCents: 28_95,
+          tips: { cents: 4_35, cashCents: 1_00, cardCents: 3_35 },
+          waits: waits(200),
+          targetSeconds: 240,
+        }),
       },
-      { cafe: ropewalk, report: report({ orders: 2, drinks: 3, grossCents: 12_00, refundsCents: 0, netCents: 12_00, waits: waits(90), targetSeconds: 300 }) },
+      {
+        cafe: ropewalk,
+        report: report({
+          orders: 2,
+          drinks: 3,
+          grossCents: 12_00,
+          refundsCents: 0,
+          netCents: 12_00,
+          tips: { cents: 1_80, cashCents: 1_80, cardCents: 0 },
+          waits: waits(90),
+          targetSeconds: 300,
+        }),
+      },
     ]);
     expect(view).toEqual({
       from: '2026-03-02',
@@ -69,6 +90,7 @@ describe('groupReportView', () => {
           grossCents: 30_45,
           refundsCents: 1_50,
           netCents: 28_95,
+          tips: { cents: 4_35, cashCents: 1_00, cardCents: 3_35 },
           waits: waits(200),
           targetSeconds: 240,
         },
@@ -81,19 +103,28 @@ describe('groupReportView', () => {
           grossCents: 12_00,
           refundsCents: 0,
           netCents: 12_00,
+          tips: { cents: 1_80, cashCents: 1_80, cardCents: 0 },
           waits: waits(90),
           targetSeconds: 300,
         },
       ],
-      // 30.45 + 12.00 = 42.45; 28.95 + 12.00 = 40.95 (by hand)
-      totals: { currency: 'USD', orders: 7, drinks: 10, grossCents: 42_45, refundsCents: 1_50, netCents: 40_95 },
+      // 30.45 + 12.00 = 42.45; 28.95 + 12.00 = 40.95; tips 4.35 + 1.80 = 6.15, cash 1.00 + 1.80 = 2.80 (by hand)
+      totals: {
+        currency: 'USD',
+        orders: 7,
+        drinks: 10,
+        grossCents: 42_45,
+        refundsCents: 1_50,
+        netCents: 40_95,
+        tips: { cents: 6_15, cashCents: 2_80, cardCents: 3_35 },
+      },
     });
   });
 
   it('keeps a café with no orders as a row of zeros and no waits', () => {
     const view = groupReportView('2026-03-02', '2026-03-02', [{ cafe: ropewalk, report: report({}) }]);
     expect(view.cafes[0]).toMatchObject({ orders: 0, netCents: 0, waits: { count: 0, medianSeconds: null, overTargetShare: null } });
-    expect(view.totals).toMatchObject({ orders: 0, netCents: 0 });
+    expect(view.totals).toMatchObject({ orders: 0, netCents: 0, tips: { cents: 0, cashCents: 0, cardCents: 0 } });
   });
 });
 
@@ -107,11 +138,12 @@ describe('groupTotals', () => {
     grossCents: netCents,
     refundsCents: 0,
     netCents,
+    tips: { cents: 50, cashCents: 50, cardCents: 0 },
     waits: waits(60),
     targetSeconds: 240,
   });
 
-  it('is null when the cafés take different currencies: dollars and euros don’t add up', () => {
+  it('is null when the cafés take different currencies: dollars and euros (and their tips) don’t add up', () => {
     expect(groupTotals([row('USD', 5_00), row('EUR', 5_00)])).toBeNull();
   });
 

@@ -25,7 +25,11 @@ describe('receiptEmail', () => {
 
   it('shows a discount with its reason, and a card payment without change', () => {
     const { text } = receiptEmail(
-      order({ discountCents: 150, discountReason: 'Regular', payment: { method: 'card', tenderedCents: null, changeCents: null, providerId: 'pi_1' } }),
+      order({
+        discountCents: 150,
+        discountReason: 'Regular',
+        payment: { method: 'card', tenderedCents: null, changeCents: null, providerId: 'pi_1', parts: [] },
+      }),
       cafe,
     );
     expect(text).toContain('Discount (Regular): −$1.50');
@@ -35,16 +39,29 @@ describe('receiptEmail', () => {
 
   it('says a tip after the total (outside it), then the amount paid; no tip line without one', () => {
     // by hand: total $13.15 + tip $1.97 (15 %) = $15.12 charged to the card; cash $20.00 − $15.12 = $4.88 change
-    const card = receiptEmail(order({ tipCents: 197, payment: { method: 'card', tenderedCents: null, changeCents: null, providerId: 'pi_1' } }), cafe);
+    const card = receiptEmail(
+      order({ tipCents: 197, payment: { method: 'card', tenderedCents: null, changeCents: null, providerId: 'pi_1', parts: [] } }),
+      cafe,
+    );
     expect(card.text).toContain('Tax: $1.00\nTotal: $13.15\nTip: $1.97\nAmount paid: $15.12');
     expect(card.text).toContain('Paid by card: $15.12');
     expect(card.html).toContain('Tip');
     const cash = receiptEmail(
-      order({ tipCents: 197, changeCents: 488, payment: { method: 'cash', tenderedCents: 2000, changeCents: 488, providerId: null } }),
+      order({ tipCents: 197, changeCents: 488, payment: { method: 'cash', tenderedCents: 2000, changeCents: 488, providerId: null, parts: [] } }),
       cafe,
     );
     expect(cash.text).toContain('Paid in cash: $20.00 · change $4.88');
     expect(receiptEmail(order(), cafe).text).not.toContain('Tip');
+  });
+
+  it('says each part of a split payment', () => {
+    // by hand: $13.15 = $5.00 cash (tendered $10.00, $5.00 change) + $8.15 card
+    const parts = [
+      { paymentId: 1, part: 1, method: 'cash' as const, amountCents: 500, tenderedCents: 1000, changeCents: 500, refundedCents: 0 },
+      { paymentId: 2, part: 2, method: 'card' as const, amountCents: 815, tenderedCents: null, changeCents: null, refundedCents: 0 },
+    ];
+    const { text } = receiptEmail(order({ payment: { method: 'split', tenderedCents: 1000, changeCents: 500, providerId: 'pi_1', parts } }), cafe);
+    expect(text).toContain('Paid in 2 parts: Part 1 · cash $5.00 (tendered $10.00, change $5.00); Part 2 · card $8.15');
   });
 
   it('writes money in the café’s currency and locale', () => {

@@ -5,6 +5,7 @@
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { dayFigures, daysInRange, MAX_REPORT_DAYS, type ReportDaysView } from '@/domain/report-days';
+import { sumTips } from '@/domain/reports';
 import { reportDaysQuery } from '@/domain/schemas';
 import { dayByDay, emptyPartial, type DayPartial } from '@server/reports/days';
 import { reportDaysCsv } from '@server/reports/csv';
@@ -34,6 +35,7 @@ const zeros = {
   discountCents: 0,
   refundsCents: 0,
   netCents: 0,
+  tips: { cents: 0, cashCents: 0, cardCents: 0 },
   cashCents: 0,
   cardCents: 0,
   medianWaitSeconds: null,
@@ -80,7 +82,12 @@ describe('dayByDay', () => {
     emptyPartial(TZ),
     partial([[450, false]], [500], 2),
   ];
-  const { days, total } = dayByDay(parts, dates, 240);
+  // tips on the first and last dates only: a date without an entry had none
+  const tips = new Map([
+    ['2026-03-01', { cents: 1_25, cashCents: 75, cardCents: 50 }],
+    ['2026-03-03', { cents: 2_00, cashCents: 0, cardCents: 2_00 }],
+  ]);
+  const { days, total } = dayByDay(parts, dates, 240, tips);
 
   it('gives every date a row, oldest first, a date without orders all zeros', () => {
     expect(days.map((d) => d.date)).toEqual(dates);
@@ -92,6 +99,7 @@ describe('dayByDay', () => {
     expect(days[0]).toMatchObject({ orders: 2, drinks: 2, grossCents: 1200, netCents: 1200, cashCents: 500, cardCents: 700 });
     expect(days[0]).toMatchObject({ medianWaitSeconds: 200, overTargetCount: 1, timedTickets: 2, shotsPulled: 3 });
     expect(days[2]).toMatchObject({ orders: 1, cashCents: 0, cardCents: 450, medianWaitSeconds: 500, overTargetCount: 1, timedTickets: 1 });
+    expect(days.map((d) => d.tips)).toEqual([tips.get('2026-03-01'), { cents: 0, cashCents: 0, cardCents: 0 }, tips.get('2026-03-03')]);
   });
 
   it("totals the range as one: the sums of the rows, and the range's own median", () => {
@@ -108,6 +116,25 @@ describe('dayByDay', () => {
     });
     // 100, 300, 500 → 300; the days' medians (200, 500) would give 350
     expect(total.medianWaitSeconds).toBe(300);
+    // 1.25 + 2.00 = 3.25; cash 0.75, card 0.50 + 2.00 = 2.50 (by hand)
+    expect(total.tips).toEqual({ cents: 3_25, cashCents: 75, cardCents: 2_50 });
+  });
+
+  it('gives every row no tips when the range had none', () => {
+    const none = dayByDay(parts, dates, 240);
+    expect([...none.days.map((d) => d.tips), none.total.tips]).toEqual(Array(4).fill({ cents: 0, cashCents: 0, cardCents: 0 }));
+  });
+});
+
+describe('sumTips', () => {
+  it('adds total, cash and card separately; nothing to add is no tips', () => {
+    expect(sumTips([])).toEqual({ cents: 0, cashCents: 0, cardCents: 0 });
+    expect(
+      sumTips([
+        { cents: 3_10, cashCents: 1_10, cardCents: 2_00 },
+        { cents: 45, cashCents: 45, cardCents: 0 },
+      ]),
+    ).toEqual({ cents: 3_55, cashCents: 1_55, cardCents: 2_00 });
   });
 });
 
@@ -115,7 +142,8 @@ describe('dayFigures', () => {
   it('counts the tickets over target back from the share exactly, for any count', () => {
     const waits = { count: 7, meanSeconds: 1, medianSeconds: 1, p90Seconds: 1, maxSeconds: 1, overTargetShare: 3 / 7 };
     const mix = { cash: { orders: 0, cents: 0 }, card: { orders: 0, cents: 0 } };
-    const base = { orders: 0, drinks: 0, grossCents: 0, taxCents: 0, discountCents: 0, refundsCents: 0, netCents: 0, paymentMix: mix, shotsPulled: 0 };
+    const tips = { cents: 0, cashCents: 0, cardCents: 0 };
+    const base = { orders: 0, drinks: 0, grossCents: 0, taxCents: 0, discountCents: 0, refundsCents: 0, netCents: 0, tips, paymentMix: mix, shotsPulled: 0 };
     expect(dayFigures({ ...base, waits }).overTargetCount).toBe(3);
   });
 });
@@ -142,6 +170,7 @@ describe('reportDaysCsv', () => {
       ],
       ['2026-03-01', '2026-03-02', '2026-03-03'],
       240,
+      new Map([['2026-03-03', { cents: 1_49, cashCents: 0, cardCents: 1_49 }]]),
     ),
   };
   const rows = Papa.parse<string[]>(reportDaysCsv(view).trim()).data;
@@ -158,6 +187,9 @@ describe('reportDaysCsv', () => {
       'Net (USD)',
       'Cash (USD)',
       'Card (USD)',
+      'Tips (USD)',
+      'Cash tips (USD)',
+      'Card tips (USD)',
       'Median wait (s)',
       'p90 wait (s)',
       'Over 240 s target',
@@ -166,9 +198,11 @@ describe('reportDaysCsv', () => {
     ]);
     expect(rows.map((r) => r[0])).toEqual(['Date', '2026-03-01', '2026-03-02', '2026-03-03', 'Total']);
     expect(rows[1].slice(0, 4)).toEqual(['2026-03-01', '1', '1', '12.50']);
-    expect(rows[1].slice(10, 12)).toEqual(['123.5', '123.5']);
-    // no waits: empty cells, not zeros
-    expect(rows[2]).toEqual(['2026-03-02', '0', '0', '0.00', '0.00', '0.00', '0.00', '0.00', '0.00', '0.00', '', '', '0', '0', '0']);
+    expect(rows[1].slice(13, 15)).toEqual(['123.5', '123.5']);
+    // no waits: empty cells, not zeros; no tips: zeros
+    expect(rows[2]).toEqual(['2026-03-02', '0', '0', '0.00', '0.00', '0.00', '0.00', '0.00', '0.00', '0.00', '0.00', '0.00', '0.00', '', '', '0', '0', '0']);
+    expect(rows[3].slice(10, 13)).toEqual(['1.49', '0.00', '1.49']);
+    expect(rows[4].slice(10, 13)).toEqual(['1.49', '0.00', '1.49']);
     expect(rows[4].slice(0, 4)).toEqual(['Total', '3', '3', '22.40']);
   });
 

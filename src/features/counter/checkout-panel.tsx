@@ -1,5 +1,5 @@
 // Paying: the name for the cup, here or to go, allergies, a receipt address, a lead's discount,
-// and cash (with change) or card (through the card reader).
+// and cash (with change), card (through the card reader) or both in parts.
 import { useId, useState, type ReactNode } from 'react';
 import type { UseFormReturn } from 'react-hook-form';
 import { cashQuickAmounts, formatCents } from '@/domain/money';
@@ -9,7 +9,7 @@ import { Button } from '@/components/ui/button';
 import { FieldError } from '@/components/ui/field-error';
 import { Segmented } from '@/components/ui/segmented';
 import { AllergyPicker } from './allergy-picker';
-import { blockedLines, clashesOf, tenderedCents, type Checkout } from './checkout';
+import { blockedLines, clashesOf, splitParts, tenderedCents, type Checkout } from './checkout';
 import { DiscountEditor } from './discount-editor';
 import { TEST_CARDS } from './test-cards';
 
@@ -68,7 +68,8 @@ export function PaymentPanel({
   onCheckout,
   totalCents,
   tipPicker,
-}: Omit<Props, 'sending' | 'error' | 'canDiscount'> & { tipPicker?: ReactNode }) {
+  split,
+}: Omit<Props, 'sending' | 'error' | 'canDiscount'> & { tipPicker?: ReactNode; split?: ReactNode }) {
   const money = (c: number) => formatCents(c, menu.location.currency);
   const [allergyOpen, setAllergyOpen] = useState(false);
   const allergens = form.watch('allergens') ?? [];
@@ -110,8 +111,10 @@ export function PaymentPanel({
           onNote={(n) => form.setValue('allergyNote', n || undefined)}
         />
       )}
+      {/* service and payment share one row on a 1024×768 tablet (the card reader must stay in view under them) */}
       <div className="flex flex-wrap gap-x-3 gap-y-2">
         <Segmented
+          snug
           label="Service"
           value={form.watch('service')}
           onChange={(service) => form.setValue('service', service)}
@@ -121,17 +124,21 @@ export function PaymentPanel({
           ]}
         />
         <Segmented
+          snug
           label="Payment"
           value={checkout.method}
           onChange={(method) => set({ method })}
           options={[
             { value: 'cash', label: 'Cash' },
             { value: 'card', label: 'Card' },
+            { value: 'split', label: 'Split' },
           ]}
         />
       </div>
       {tipPicker}
-      {checkout.method === 'cash' ? (
+      {checkout.method === 'split' ? (
+        split
+      ) : checkout.method === 'cash' ? (
         <div>
           <label className="block text-base font-semibold" htmlFor="tendered">
             Cash tendered <span className="font-normal text-ink-600">(blank = exact)</span>
@@ -198,11 +205,14 @@ export function SendBar({ menu, form, checkout, onCheckout, totalCents, sending,
   const clashes = clashesOf(menu, items, form.watch('allergens') ?? []);
   // a line that can't be made (86'd since it was added, or gone from the menu) blocks the order
   const blocked = blockedLines(menu, items);
-  const ready =
-    blocked.length === 0 &&
-    tipOk &&
-    (checkout.method === 'card' ? checkout.paymentMethod !== null : tendered !== null && tendered >= totalCents) &&
-    (clashes.length === 0 || checkout.clashConfirmed);
+  const split = checkout.method === 'split' ? splitParts(checkout.split, totalCents) : null;
+  const paymentReady =
+    checkout.method === 'split'
+      ? split !== null && 'parts' in split
+      : checkout.method === 'card'
+        ? checkout.paymentMethod !== null
+        : tendered !== null && tendered >= totalCents;
+  const ready = blocked.length === 0 && tipOk && paymentReady && (clashes.length === 0 || checkout.clashConfirmed);
   return (
     <div className="flex shrink-0 flex-col gap-2 bg-white pt-2">
       {clashes.length > 0 && (
@@ -230,6 +240,11 @@ export function SendBar({ menu, form, checkout, onCheckout, totalCents, sending,
           {error}
         </p>
       )}
+      {split && 'problem' in split && (
+        <p data-testid="split-problem" className="text-lg font-semibold text-ink-900">
+          {split.problem}
+        </p>
+      )}
       {blocked.length > 0 && (
         <p data-testid="send-blocked" className="text-lg font-semibold text-ink-900">
           <span aria-hidden>⊘ </span>
@@ -239,7 +254,7 @@ export function SendBar({ menu, form, checkout, onCheckout, totalCents, sending,
       <Button type="submit" size="xl" className="w-full" disabled={items.length === 0 || sending || !ready}>
         {sending
           ? 'Sending…'
-          : `${checkout.method === 'card' ? 'Charge card' : 'Send'}${blocked.length ? '' : ` · ${formatCents(totalCents, menu.location.currency)}`}`}
+          : `${checkout.method === 'card' ? 'Charge card' : checkout.method === 'split' ? 'Take the parts' : 'Send'}${blocked.length ? '' : ` · ${formatCents(totalCents, menu.location.currency)}`}`}
       </Button>
     </div>
   );

@@ -2,13 +2,14 @@
 import { discountCents, orderTotals, parseAmountToCents, type OrderTotals } from '@/domain/money';
 import { resolveLine } from '@/domain/order-lines';
 import { expandByQuantity } from '@/domain/order-quantity';
-import type { DiscountInput, OrderLineInput } from '@/domain/schemas';
+import type { DiscountInput, OrderLineInput, PaymentPart } from '@/domain/schemas';
+import { remainderCents } from '@/domain/split-payment';
 import { allergyClash } from '@/domain/allergens';
 import { tipForPercent } from '@/domain/tips';
 import type { MenuView } from '@/domain/types';
 
 export interface Checkout {
-  method: 'cash' | 'card';
+  method: 'cash' | 'card' | 'split';
   /** Cash tendered as typed; blank means exact. */
   tendered: string;
   paymentMethod: string | null;
@@ -18,7 +19,22 @@ export interface Checkout {
   clashConfirmed: boolean;
   /** The customer's tip, when the café takes tips: none, a suggested percentage, or an amount as typed. */
   tip: TipChoice;
+  /** The parts of a split payment, as typed; the last part's amount is what the others leave. */
+  split: SplitPartDraft[];
+  /** Parts the server has taken already (after a declined card): shown paid, not editable. */
+  paidParts: number[];
 }
+
+export interface SplitPartDraft {
+  method: 'cash' | 'card';
+  /** The part's amount as typed (ignored on the last part). */
+  amount: string;
+  /** Cash tendered as typed; blank means exact. */
+  tendered: string;
+  paymentMethod: string | null;
+}
+
+export const emptySplitPart = (method: SplitPartDraft['method']): SplitPartDraft => ({ method, amount: '', tendered: '', paymentMethod: null });
 
 export type TipChoice = { kind: 'none' } | { kind: 'percent'; percent: number } | { kind: 'custom'; text: string };
 
@@ -30,6 +46,8 @@ export const emptyCheckout: Checkout = {
   discount: null,
   clashConfirmed: false,
   tip: { kind: 'none' },
+  split: [emptySplitPart('cash'), emptySplitPart('card')],
+  paidParts: [],
 };
 
 /** The tip in cents on an order of this total (after discount, with tax); null when the typed amount isn't one. */
@@ -82,4 +100,36 @@ export function blockedLines(menu: MenuView, items: OrderLineInput[]): string[] 
 /** Tendered cents, the total when blank, null when it isn't an amount. */
 export function tenderedCents(checkout: Checkout, totalCents: number): number | null {
   return checkout.tendered.trim() === '' ? totalCents : parseAmountToCents(checkout.tendered);
+}
+
+/** Each split part's amount in cents: typed (null when it isn't an amount), the last what the others leave. */
+export function splitAmounts(split: SplitPartDraft[], dueCents: number): (number | null)[] {
+  const typed = split.slice(0, -1).map((p) => parseAmountToCents(p.amount));
+  const earlier = typed.map((c) => ({ amountCents: c ?? 0 }));
+  return [...typed, remainderCents(earlier, dueCents)];
+}
+
+/**
+ * The split as the server takes it, or why it can't go yet (an amount not typed, a part of nothing,
+ * cash short of its part, a card not chosen). Each part's problem is said in the cashier's words.
+ */
+export function splitParts(split: SplitPartDraft[], dueCents: number): { parts: PaymentPart[] } | { problem: string } {
+  const amounts = splitAmounts(split, dueCents);
+  const parts: PaymentPart[] = [];
+  for (const [i, p] of split.entries()) {
+    const amountCents = amounts[i];
+    const n = i + 1;
+    if (amountCents === null) return { problem: `Part ${n}: enter an amount like 5 or 5.50` };
+    if (amountCents <= 0) return { problem: i === split.length - 1 ? 'The other parts already cover everything' : `Part ${n}: more than 0, please` };
+    if (p.method === 'card') {
+      if (!p.paymentMethod) return { problem: `Part ${n}: choose the card` };
+      parts.push({ method: 'card', amountCents, paymentMethod: p.paymentMethod });
+    } else {
+      const tendered = p.tendered.trim() === '' ? amountCents : parseAmountToCents(p.tendered);
+      if (tendered === null) return { problem: `Part ${n}: enter the cash like 10 or 10.50` };
+      if (tendered < amountCents) return { problem: `Part ${n}: the cash is less than the part` };
+      parts.push({ method: 'cash', amountCents, tenderedCents: tendered });
+    }
+  }
+  return { parts };
 }

@@ -20,12 +20,17 @@ export interface OfflineOrder {
   attempts: number;
   /**
    * waiting: a cash order, resent automatically; refused: the server said no (4xx) and the cashier
-   * decides; held: a card order, never sent by itself — the cashier charges it with the customer
+   * decides; held: a card order (or a split with a card part), never sent by itself — the cashier charges it with the customer
    * there, records that they paid cash, or cancels it.
    */
   state: 'waiting' | 'refused' | 'held';
   /** The last failure: a lost connection, or the server's own message for a refusal. */
   lastError: { status: number; code: string; message: string } | null;
+}
+
+/** A card is in the payment (a card order, or a split with a card part): never sent unasked. */
+export function takesCard(payment: CreateOrderBody['payment']): boolean {
+  return payment.method === 'card' || (payment.method === 'split' && payment.parts.some((p) => p.method === 'card'));
 }
 
 // Used when indexedDB is missing, or when a write to it fails (a full or blocked store): an
@@ -69,7 +74,7 @@ export async function listOfflineOrders(): Promise<OfflineOrder[]> {
   for (const o of memory.values()) byId.set(o.clientOrderId, o);
   // a card order stored as waiting (by an older page) is held all the same: never charged unasked
   return [...byId.values()]
-    .map((o) => (o.state === 'waiting' && o.body.payment.method === 'card' ? { ...o, state: 'held' as const } : o))
+    .map((o) => (o.state === 'waiting' && takesCard(o.body.payment) ? { ...o, state: 'held' as const } : o))
     .sort((a, b) => a.queuedAt.localeCompare(b.queuedAt) || a.clientOrderId.localeCompare(b.clientOrderId));
 }
 

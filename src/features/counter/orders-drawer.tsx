@@ -25,11 +25,12 @@ export function OrdersDrawer({ canRefund, canRemake, currency, onClose }: { canR
   const api = useApi();
   const qc = useQueryClient();
   const [q, setQ] = useState('');
-  const [acting, setActing] = useState<{ id: number; kind: 'refund' | 'void' } | null>(null);
+  const [acting, setActing] = useState<{ id: number; kind: 'refund' | 'void'; paymentId?: number } | null>(null);
   const [reason, setReason] = useState('');
   const list = useQuery(ordersQuery(api, q));
   const act = useMutation({
-    mutationFn: ({ id, kind }: { id: number; kind: 'refund' | 'void' }) => (kind === 'refund' ? send.refundOrder : send.voidOrder)({ id, reason }),
+    mutationFn: ({ id, kind, paymentId }: { id: number; kind: 'refund' | 'void'; paymentId?: number }) =>
+      kind === 'refund' ? send.refundOrder({ id, reason, paymentId }) : send.voidOrder({ id, reason }),
     onSuccess: () => {
       setActing(null);
       setReason('');
@@ -78,19 +79,29 @@ export function OrdersDrawer({ canRefund, canRemake, currency, onClose }: { canR
                 <span className="ml-auto text-lg">{money(o.totalCents)}</span>
               </div>
               <p className="text-ink-600">
-                {o.payment.method === 'card' ? 'Card' : 'Cash'} · {o.paymentStatus}
+                {paymentWords(o, money)} · {o.paymentStatus}
                 {o.refundedCents > 0 ? ` · refunded ${money(o.refundedCents)}` : ''} · {o.lines.map((l) => l.itemName).join(', ')}
               </p>
               <div className="mt-1 flex flex-wrap gap-2">
                 <a className="underline" href={`/receipts/${o.id}`} target="_blank" rel="noreferrer">
                   Reprint receipt
                 </a>
-                {canRefund && o.paymentStatus === 'paid' && (
+                {canRefund && refundable(o) > 0 && (
                   <Button tone="quiet" onClick={() => setActing({ id: o.id, kind: 'refund' })}>
-                    Refund…
+                    {o.status === 'pending' ? 'Give back and void…' : 'Refund…'}
                   </Button>
                 )}
-                {canRefund && o.status === 'pending' && (
+                {/* each part of a split on its own: the cash back from the till, a card to its card */}
+                {canRefund &&
+                  o.payment.method === 'split' &&
+                  o.payment.parts
+                    .filter((p) => p.amountCents > p.refundedCents)
+                    .map((p) => (
+                      <Button key={p.paymentId} tone="quiet" onClick={() => setActing({ id: o.id, kind: 'refund', paymentId: p.paymentId })}>
+                        Refund part {p.part}…
+                      </Button>
+                    ))}
+                {canRefund && o.status === 'pending' && o.payment.parts.length === 0 && (
                   <Button tone="quiet" onClick={() => setActing({ id: o.id, kind: 'void' })}>
                     Void…
                   </Button>
@@ -107,7 +118,7 @@ export function OrdersDrawer({ canRefund, canRemake, currency, onClose }: { canR
                     onChange={(e) => setReason(e.target.value)}
                   />
                   <Button disabled={reason.trim().length < 3 || act.isPending} onClick={() => act.mutate(acting)}>
-                    {acting.kind === 'refund' ? `Refund ${money(o.totalCents - o.refundedCents)}` : 'Void order'}
+                    {acting.kind === 'void' ? 'Void order' : refundLabel(o, acting.paymentId, money)}
                   </Button>
                 </div>
               )}
@@ -118,4 +129,18 @@ export function OrdersDrawer({ canRefund, canRemake, currency, onClose }: { canR
       </div>
     </div>
   );
+}
+
+/** What the customer paid and has not had back, the tip included. */
+const refundable = (o: OrderView) => o.payment.parts.reduce((sum, p) => sum + p.amountCents, 0) - o.refundedCents;
+
+function paymentWords(o: OrderView, money: (c: number) => string): string {
+  if (o.payment.method !== 'split') return o.payment.method === 'card' ? 'Card' : 'Cash';
+  return `Split: ${o.payment.parts.map((p) => `${p.method} ${money(p.amountCents)}`).join(' + ')}`;
+}
+
+function refundLabel(o: OrderView, paymentId: number | undefined, money: (c: number) => string): string {
+  const part = o.payment.parts.find((p) => p.paymentId === paymentId);
+  if (part) return `Refund part ${part.part} · ${part.method} ${money(part.amountCents - part.refundedCents)}`;
+  return `Refund ${money(refundable(o))}`;
 }

@@ -28,6 +28,13 @@ function useChipsThatFit(): number {
   return count;
 }
 
+/**
+ * How many chips to show of `ready`: all when they fit, else `fit` and "+n more". The widths above
+ * count the "more" button's room, and a chip is wider than it, so one chip more never fits in its
+ * place (at 390 px two chips ran past the edge).
+ */
+export const chipsToShow = (ready: number, fit: number) => Math.min(ready, fit);
+
 /** Newest on the shelf first; the ticket number breaks a tie. */
 export const newestReadyFirst = (tickets: TicketView[]) =>
   tickets.filter((t) => t.status === 'ready').sort((a, b) => (b.readyAt ?? '').localeCompare(a.readyAt ?? '') || b.number - a.number);
@@ -42,7 +49,7 @@ export function ReadyStrip({ tickets }: { tickets: TicketView[] }) {
   const fit = useChipsThatFit();
   const ready = newestReadyFirst(tickets);
   if (ready.length === 0) return null;
-  const shown = ready.length > fit + 1 ? ready.slice(0, fit) : ready; // "+1 more" would take a chip's place
+  const shown = ready.slice(0, chipsToShow(ready.length, fit));
   // two lines: what tapping does, then whose order — the number and name never cut off first
   const chip = (t: TicketView) => (
     <Button

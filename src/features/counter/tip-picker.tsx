@@ -3,9 +3,8 @@
 // customer names. One tap for the usual choices; the amount to pay below updates with it.
 import { formatCents } from '@/domain/money';
 import { maxTipCents, tipForPercent, type TipSettings } from '@/domain/tips';
-import { useId } from 'react';
-import { cn } from '@/lib/cn';
 import { FieldError } from '@/components/ui/field-error';
+import { Segmented } from '@/components/ui/segmented';
 import type { TipChoice } from './checkout';
 
 type Option = 'none' | 'custom' | `${number}`;
@@ -34,7 +33,6 @@ export function TipPicker({
     ...tips.percents.map((p) => ({ value: `${p}` as Option, label: `${p} %`, hint: money(tipForPercent(totalCents, p)) })),
     ...(tips.custom ? [{ value: 'custom' as const, label: 'Other' }] : []),
   ];
-  const labelId = useId();
   const choose = (v: Option) =>
     onChange(
       v === 'none'
@@ -47,35 +45,7 @@ export function TipPicker({
   return (
     <div data-testid="tip-picker">
       {/* one compact row beside its word, so the cash part stays in view on a 1024×768 tablet */}
-      <div className="flex items-center gap-2">
-        <span id={labelId} className="w-9 shrink-0 text-sm font-semibold tracking-widest text-ink-600 uppercase">
-          Tip
-        </span>
-        <div role="radiogroup" aria-labelledby={labelId} className="grid flex-1 auto-cols-fr grid-flow-col gap-1.5">
-          {options.map((o) => {
-            const selected = o.value === optionOf(tip);
-            return (
-              <button
-                key={o.value}
-                type="button"
-                role="radio"
-                aria-checked={selected}
-                onClick={() => choose(o.value)}
-                className={cn(
-                  'flex min-h-12 min-w-0 flex-col items-center justify-center rounded-lg border-2 px-1 text-base leading-tight font-semibold',
-                  selected ? 'border-ink-900 bg-ink-900 text-steam-50' : 'border-steam-200 bg-white text-ink-900',
-                )}
-              >
-                <span>
-                  {selected && <span aria-hidden>✓ </span>}
-                  {o.label}
-                </span>
-                {o.hint && <span className={cn('text-sm font-medium', selected ? 'text-steam-200' : 'text-ink-600')}>{o.hint}</span>}
-              </button>
-            );
-          })}
-        </div>
-      </div>
+      <Segmented compact label="Tip" options={options} value={optionOf(tip)} onChange={choose} />
       {tip.kind === 'custom' && (
         <label className="mt-1 ml-11 flex items-center gap-2 text-base font-semibold">
           Tip amount

@@ -13,7 +13,7 @@ import { send } from '@/lib/commands';
 import { ApiError } from '@/lib/http';
 import { onLiveConnected } from '@/lib/live-socket';
 import { menuKeys } from '@/queries/menu';
-import { listOfflineOrders, putOfflineOrder, removeOfflineOrder, type OfflineOrder } from './offline-orders';
+import { listOfflineOrders, putOfflineOrder, removeOfflineOrder, takesCard, type OfflineOrder } from './offline-orders';
 
 export type SendOrderFn = (body: CreateOrderBody) => Promise<{ order: OrderView }>;
 
@@ -112,7 +112,7 @@ export function useOfflineOrders(send: SendOrderFn = postOrder, options: Offline
       do {
         l.again = false;
         let blocked = false;
-        for (const order of (await listOfflineOrders()).filter((o) => o.state === 'waiting' && o.body.payment.method === 'cash')) {
+        for (const order of (await listOfflineOrders()).filter((o) => o.state === 'waiting' && !takesCard(o.body.payment))) {
           try {
             await fns.current.resend(order.body);
             await removeOfflineOrder(order.clientOrderId).catch(() => {
@@ -172,14 +172,14 @@ export function useOfflineOrders(send: SendOrderFn = postOrder, options: Offline
       } catch (err) {
         if (!isUnreachable(err)) throw err;
         // our server answered that the card service didn't: the cashier sees that at once
-        if (body.payment.method === 'card' && err instanceof ApiError && err.code === 'payment_unavailable') throw err;
+        if (takesCard(body.payment) && err instanceof ApiError && err.code === 'payment_unavailable') throw err;
         const kept: OfflineOrder = {
           clientOrderId: body.clientOrderId,
           body,
           totalCents: summary.totalCents ?? null,
           queuedAt: new Date().toISOString(),
           attempts: 0,
-          state: body.payment.method === 'card' ? 'held' : 'waiting',
+          state: takesCard(body.payment) ? 'held' : 'waiting',
           lastError: errorOf(err),
         };
         await putOfflineOrder(kept);

@@ -4,7 +4,7 @@ import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
 import { extraForm, extraGroupForm, type ExtraFormValues, type ExtraGroupBody, type ExtraGroupFormValues } from '@/domain/menu-admin-schemas';
 import type { Ingredient } from '@/domain/ingredients';
-import { BAR_EFFECT_LABEL, BAR_EFFECTS, type BarEffect } from '@/domain/drink-options';
+import { BAR_EFFECT_LABEL, BAR_EFFECT_NAME, BAR_EFFECTS, type BarEffect } from '@/domain/drink-options';
 import type { AdminMenuView, AdminExtra, AdminExtraGroup } from '@/domain/menu-admin-view';
 import { centsToAmountText } from '@/domain/menu-units';
 import { Button } from '@/components/ui/button';
@@ -12,7 +12,7 @@ import { FieldError } from '@/components/ui/field-error';
 import { Segmented } from '@/components/ui/segmented';
 import type { MenuCommand } from './commands';
 import { ConfirmRetire, Sheet } from './dialog';
-import { CheckGroup, Field, IngredientPicker } from './fields';
+import { CheckGroup, Field, IngredientPicker, labelClass } from './fields';
 import { currencySign, moneyOf } from './format';
 import { MoveButtons } from './move-buttons';
 import { showServerErrors } from './server-errors';
@@ -164,12 +164,15 @@ function ExtraForm({
           {...form.register('price')}
           id="extra-price"
         />
-        <label className="flex flex-col gap-1 text-base font-semibold" htmlFor="extra-bar-effect">
-          At the bar
+        <div>
+          <label className={labelClass} htmlFor="extra-bar-effect">
+            At the bar
+          </label>
           <select
             id="extra-bar-effect"
+            aria-describedby="extra-bar-effect-hint"
             {...form.register('barEffect')}
-            className="min-h-11 max-w-md rounded-lg border border-steam-200 bg-white px-3 font-normal"
+            className="min-h-11 w-full max-w-md rounded-lg border border-steam-200 bg-white px-3 text-base"
           >
             <option value="">Nothing more: named on the Bar card</option>
             {BAR_EFFECTS.map((e) => (
@@ -178,8 +181,10 @@ function ExtraForm({
               </option>
             ))}
           </select>
-          <span className="text-sm font-normal text-ink-600">Changes the drink's milk and jug as the Bar makes it; the price stays as set above.</span>
-        </label>
+          <p id="extra-bar-effect-hint" className="mt-1 text-sm text-ink-600">
+            Changes the drink's milk and jug as the Bar makes it; the price stays as set above.
+          </p>
+        </div>
         <Controller
           control={form.control}
           name="ingredients"
@@ -293,6 +298,12 @@ export function ExtrasPanel({ menu, command, notify }: { menu: AdminMenuView; co
                     )}
                     <span className="min-w-48 text-lg font-semibold">{m.name}</span>
                     <span className="w-24 text-lg tabular-nums">{m.priceCents ? `+${money(m.priceCents)}` : 'free'}</span>
+                    {m.barEffect && (
+                      // in words: the extra changes how the Bar makes the drink
+                      <span data-testid="extra-bar-effect" className="rounded-full border border-ink-600 px-2.5 py-0.5 text-sm font-semibold whitespace-nowrap">
+                        At the bar: {BAR_EFFECT_NAME[m.barEffect]}
+                      </span>
+                    )}
                     <span className="text-base">{m.allergens.length ? `⚠ ${m.allergens.join(', ')}` : ''}</span>
                     {m.retired && <StatusBadge status="retired" />}
                     <span className="ml-auto inline-flex gap-2">

@@ -6,6 +6,9 @@ import { ALLERGEN_CAUTION, allergensFrom, INGREDIENT_GROUPS, ingredientsIn, inOr
 import { FieldError } from '@/components/ui/field-error';
 import { cn } from '@/lib/cn';
 
+/** A field's label: small capitals, as every field of the editor names itself. */
+export const labelClass = 'mb-1 block text-sm font-semibold tracking-wide text-ink-600 uppercase';
+
 export const inputClass =
   'min-h-12 w-full rounded-lg border border-steam-200 bg-white px-3 text-lg text-ink-900 aria-invalid:border-copper-700 aria-invalid:border-2';
 
@@ -22,7 +25,7 @@ export function Field({ label, error, hint, unit, prefix, className, id, ...inpu
   const fieldId = id ?? `f-${input.name}`;
   return (
     <div className={className}>
-      <label htmlFor={fieldId} className="mb-1 block text-sm font-semibold tracking-wide text-ink-600 uppercase">
+      <label htmlFor={fieldId} className={labelClass}>
         {label}
       </label>
       <div className="flex items-center gap-2">

@@ -3,7 +3,7 @@
 // is the whole range's median, not a sum of the days'.
 import { ScrollBox } from '@/components/ui/scroll-box';
 import { Panel, numClass, tdClass } from '@/components/report/report-breakdowns';
-import { FiguresHead } from './figures-head';
+import { FiguresHead, TipsCell } from './figures-head';
 import { buttonStyles } from '@/components/ui/button';
 import { formatDuration } from '@/domain/format';
 import { formatCents } from '@/domain/money';
@@ -27,6 +27,8 @@ const overTarget = (f: DayFigures, locale: string) =>
 export function DaysTable({ view }: { view: ReportDaysView }) {
   const { locale, currency } = view;
   const money = (c: number) => formatCents(c, currency, locale);
+  // the column only when the range had tips, as the report shows its Tips tile only then
+  const tips = view.total.tips.cents > 0;
   return (
     <Panel title="Day by day">
       <div className="mb-2 flex flex-wrap items-center justify-between gap-2">
@@ -40,7 +42,7 @@ export function DaysTable({ view }: { view: ReportDaysView }) {
       </div>
       <ScrollBox label="Day by day table">
         <table className="w-full text-base" data-testid="report-days" aria-describedby="days-note">
-          <FiguresHead rowLabel="Date" />
+          <FiguresHead rowLabel="Date" tips={tips} />
           <tbody>
             {view.days.map((d) => (
               <tr key={d.date} data-testid="report-day" data-date={d.date} className={d.orders === 0 ? 'text-ink-600' : undefined}>
@@ -52,6 +54,7 @@ export function DaysTable({ view }: { view: ReportDaysView }) {
                 </td>
                 <td className={cn(tdClass, numClass)}>{formatCount(d.drinks, locale)}</td>
                 <td className={cn(tdClass, numClass)}>{money(d.netCents)}</td>
+                {tips && <TipsCell tips={d.tips} money={money} className={cn(tdClass, numClass)} />}
                 <td className={cn(tdClass, numClass)}>{formatDuration(d.medianWaitSeconds)}</td>
                 <td className={cn(tdClass, numClass, 'whitespace-nowrap')}>{overTarget(d, locale)}</td>
               </tr>
@@ -65,6 +68,7 @@ export function DaysTable({ view }: { view: ReportDaysView }) {
               <td className={cn(footClass, numClass)}>{formatCount(view.total.orders, locale)}</td>
               <td className={cn(footClass, numClass)}>{formatCount(view.total.drinks, locale)}</td>
               <td className={cn(footClass, numClass)}>{money(view.total.netCents)}</td>
+              {tips && <TipsCell tips={view.total.tips} money={money} className={cn(footClass, numClass)} />}
               <td className={cn(footClass, numClass)}>{formatDuration(view.total.medianWaitSeconds)}</td>
               <td className={cn(footClass, numClass, 'whitespace-nowrap')}>{overTarget(view.total, locale)}</td>
             </tr>

@@ -3,7 +3,7 @@
 // of medians is no one's median.
 import { ScrollBox } from '@/components/ui/scroll-box';
 import { Panel, numClass, tdClass } from '@/components/report/report-breakdowns';
-import { FiguresHead } from './figures-head';
+import { FiguresHead, TipsCell } from './figures-head';
 import { formatDuration } from '@/domain/format';
 import type { GroupReportView } from '@/domain/group-report';
 import { formatCents } from '@/domain/money';
@@ -14,6 +14,8 @@ import { cn } from '@/lib/cn';
 export function GroupTable({ group, inView }: { group: GroupReportView; inView: string | null }) {
   const { cafes, totals } = group;
   const locale = cafes[0]?.locale ?? 'en-US';
+  // the column only when a café had tips, as a café's report shows its Tips tile only then
+  const tips = cafes.some((c) => c.tips.cents > 0);
   return (
     <Panel title="Cafés side by side">
       {/* outside the scroll box, so on a phone it wraps to the screen rather than scrolling with the table */}
@@ -23,7 +25,7 @@ export function GroupTable({ group, inView }: { group: GroupReportView; inView: 
       </p>
       <ScrollBox label="Cafés side by side table">
         <table className="w-full text-base" data-testid="group-report" aria-describedby="group-report-note">
-          <FiguresHead rowLabel="Café" />
+          <FiguresHead rowLabel="Café" tips={tips} />
           <tbody>
             {cafes.map((c) => (
               <tr key={c.id} data-testid="group-cafe">
@@ -35,6 +37,7 @@ export function GroupTable({ group, inView }: { group: GroupReportView; inView: 
                 </td>
                 <td className={cn(tdClass, numClass)}>{formatCount(c.drinks, c.locale)}</td>
                 <td className={cn(tdClass, numClass)}>{formatCents(c.netCents, c.currency, c.locale)}</td>
+                {tips && <TipsCell tips={c.tips} money={(x) => formatCents(x, c.currency, c.locale)} className={cn(tdClass, numClass)} />}
                 <td className={cn(tdClass, numClass)}>
                   {formatDuration(c.waits.medianSeconds)}
                   <span className="block text-sm text-ink-600">{plural(c.waits.count, 'ticket')} timed</span>
@@ -55,6 +58,13 @@ export function GroupTable({ group, inView }: { group: GroupReportView; inView: 
                 <td className={cn('border-t-2 border-steam-200 px-2 py-1.5', numClass)}>{formatCount(totals.orders, locale)}</td>
                 <td className={cn('border-t-2 border-steam-200 px-2 py-1.5', numClass)}>{formatCount(totals.drinks, locale)}</td>
                 <td className={cn('border-t-2 border-steam-200 px-2 py-1.5', numClass)}>{formatCents(totals.netCents, totals.currency, locale)}</td>
+                {tips && (
+                  <TipsCell
+                    tips={totals.tips}
+                    money={(x) => formatCents(x, totals.currency, locale)}
+                    className={cn('border-t-2 border-steam-200 px-2 py-1.5', numClass)}
+                  />
+                )}
                 <td colSpan={2} className="border-t-2 border-steam-200 px-2 py-1.5 text-right text-sm font-normal text-ink-600">
                   waits are each café’s own
                 </td>
