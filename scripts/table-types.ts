@@ -36,6 +36,7 @@ const WORDS: Record<string, [string, string]> = {
   'menu_items.texture': ['Texture', '@/domain/types'],
   'jugs.steam_for': ['SteamedTexture', '@/domain/jug-plan'],
   'extras.bar_effect': ['BarEffect', '@/domain/drink-options'],
+  'order_items.remake_reason': ['RemakeReason', '@/domain/remakes'],
   'users.role': ['Role', '@/domain/roles'],
   'invitations.purpose': ['LinkPurpose', '@/domain/team-schemas'],
   'dial_in_shots.advice': ['AdviceCode', '@/domain/dial-in'],

@@ -95,6 +95,23 @@ export const commands = {
     params: id,
     body: schema(schemas, 'voidBody'),
   }),
+  /** One drink's own money back (:id is the drink, an order line); who may refund may refund a drink. */
+  refundDrink: command<{ order: OrderView }>()({
+    method: 'post',
+    path: '/drinks/:id/refund',
+    capability: 'refundOrders',
+    params: id,
+    body: schema(schemas, 'drinkRefundBody'),
+  }),
+  /** 201: a new drink on the same ticket, at no charge, back on the Bar. */
+  remakeDrink: command<{ order: OrderView }>()({
+    method: 'post',
+    path: '/drinks/:id/remake',
+    capability: 'remakeDrinks',
+    params: id,
+    body: schema(schemas, 'remakeBody'),
+    status: 201,
+  }),
   /** 202: handed to the mail server. Mounted only when the server has one. */
   mailReceipt: command<{ sent: true; messageId: string }>()({
     method: 'post',

@@ -3,6 +3,7 @@
 import type { AdviceCode } from '@/domain/dial-in';
 import type { BarEffect } from '@/domain/drink-options';
 import type { SteamedTexture } from '@/domain/jug-plan';
+import type { RemakeReason } from '@/domain/remakes';
 import type { Role } from '@/domain/roles';
 import type { LinkPurpose } from '@/domain/team-schemas';
 import type { DrinkStatus, PaymentStatus, Service, Station, Texture, TicketStatus } from '@/domain/types';
@@ -241,6 +242,12 @@ export interface Tables {
     done_by: number | null;
     bump_seq: number | null;
     kids_temp: Flag;
+    refunded_at: string | null;
+    remake_of: number | null;
+    remake_reason: RemakeReason | null;
+    remake_note: string | null;
+    remade_by: number | null;
+    remade_at: string | null;
   };
   orders: {
     id: number;
@@ -327,6 +334,7 @@ export interface Tables {
     created_by: number | null;
     cause: string | null;
     created_at: string;
+    order_item_id: number | null;
   };
   report_days: {
     location_id: number;

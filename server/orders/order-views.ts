@@ -1,5 +1,6 @@
 // An order as the Counter and receipts read it: one order, or today's list with a search.
 import { businessDate } from '@/domain/business-date';
+import type { RemakeMark } from '@/domain/remakes';
 import type { OrderView, SessionUser } from '@/domain/types';
 import { containing, containsSql, dialectOf } from '@server/db/dialect';
 import type { Db } from '@server/db/knex';
@@ -16,6 +17,7 @@ export function toOrderView(
   takenBy?: string,
   parts: PaidPart[] = [],
 ): OrderView {
+  const remadeAs = new Map(items.filter((i) => i.remake_of != null).map((i) => [i.remake_of!, i.id]));
   return {
     id: o.id,
     clientOrderId: o.client_order_id,
@@ -38,6 +40,10 @@ export function toOrderView(
       extras: json<{ name: string }[]>(i.extras, []).map((m) => m.name),
       note: i.note,
       priceCents: i.price_cents,
+      status: i.status,
+      refundedAt: i.refunded_at ?? null,
+      remake: remakeMark(i),
+      remadeAs: remadeAs.get(i.id) ?? null,
     })),
     subtotalCents: o.subtotal_cents,
     discountCents: o.discount_cents,
@@ -60,6 +66,11 @@ export function toOrderView(
     firedAt: o.fired_at,
     voidReason: o.void_reason ?? null,
   };
+}
+
+/** The remake an order line carries, or null (src/domain/remakes.ts). */
+export function remakeMark(i: Pick<Row<'order_items'>, 'remake_of' | 'remake_reason' | 'remake_note'>): RemakeMark | null {
+  return i.remake_of != null && i.remake_reason ? { of: i.remake_of, reason: i.remake_reason, note: i.remake_note ?? null } : null;
 }
 
 export async function loadOrder(db: Db, orderId: number): Promise<OrderView> {

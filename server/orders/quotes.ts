@@ -30,11 +30,19 @@ async function barDrinks(db: Db, locationId: number, sinceIso: string): Promise<
       w.orWhere((x) => x.where('orders.location_id', locationId).where('orders.created_at', '>=', sinceIso));
     })
     .whereNot('orders.status', 'void')
-    .select('orders.status as order_status', 'orders.fired_at', 'order_items.status', 'order_items.done_at');
+    .select(
+      'orders.status as order_status',
+      'orders.fired_at',
+      'order_items.status',
+      'order_items.done_at',
+      'order_items.refunded_at',
+      'order_items.remade_at',
+    );
   return rows.map((r) => ({
-    firedMs: Date.parse(r.fired_at),
+    // a remake reaches the bar when it is asked for, not when its order was fired
+    firedMs: Date.parse(r.remade_at ?? r.fired_at),
     doneMs: r.status === 'done' && r.done_at ? Date.parse(r.done_at) : null,
-    onBar: r.order_status === 'open' && r.status !== 'done',
+    onBar: r.order_status === 'open' && r.status !== 'done' && !r.refunded_at,
   }));
 }
 

@@ -3,6 +3,7 @@
 // the Outbox in the demo), after the bump has committed, and at most once per order.
 import type { Deps } from '@server/deps';
 import { groupOrderLines } from '@/domain/order-quantity';
+import { soldLines } from '@/domain/remakes';
 import type { OrderView, TicketView } from '@/domain/types';
 import { escapeHtml } from '@/domain/html';
 import { bool } from '@server/db/rows';
@@ -14,7 +15,7 @@ const firstName = (name: string) => name.trim().split(/\s+/)[0] || name;
 /** The ready mail for an order: its number, the name on the cup and the drinks to collect. */
 export function readyEmail(order: OrderView, cafeName: string, locale = 'en-US'): ReceiptEmail {
   // counter items were handed over when the order was taken: the mail names what the Bar made
-  const drinks = groupOrderLines(order.lines.filter((l) => l.station === 'bar'));
+  const drinks = groupOrderLines(soldLines(order.lines).filter((l) => l.station === 'bar'));
   const name = firstName(order.customerName);
   const subject = `Your order #${order.number} is ready at ${cafeName}`;
   const collect = `Ask for #${order.number}, ${order.customerName}, where the drinks are handed out.`;

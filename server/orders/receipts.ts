@@ -3,6 +3,7 @@ import type { Knex } from 'knex';
 import type { Deps } from '@server/deps';
 import { formatCents } from '@/domain/money';
 import { groupOrderLines } from '@/domain/order-quantity';
+import { soldLines } from '@/domain/remakes';
 import { partLines } from '@/domain/split-payment';
 import { amountDueCents } from '@/domain/tips';
 import type { OrderLineView, OrderView } from '@/domain/types';
@@ -71,7 +72,7 @@ export function receiptEmail(order: OrderView, location: ReceiptLocation, footer
     `Thank you, ${name}!`,
     when,
     '',
-    ...groupOrderLines(order.lines).flatMap(({ line: l, quantity, totalCents }) => {
+    ...groupOrderLines(soldLines(order.lines)).flatMap(({ line: l, quantity, totalCents }) => {
       const details = lineDetails(l);
       return [
         `${quantity > 1 ? `${quantity} × ` : ''}${l.itemName} — ${money(totalCents)}`,
@@ -89,7 +90,7 @@ export function receiptEmail(order: OrderView, location: ReceiptLocation, footer
 
   const e = escapeHtml;
   const cell = 'padding:6px 0;border-bottom:1px solid #e4ddd2;vertical-align:top';
-  const rows = groupOrderLines(order.lines)
+  const rows = groupOrderLines(soldLines(order.lines))
     .map(({ line: l, quantity, totalCents }) => {
       const details = lineDetails(l);
       return (

@@ -11,12 +11,15 @@ import { appendEvent, runCommand } from '@server/events';
 import { findOrderInLocation, loadOrder } from './order-views';
 import { paidParts, paidSum } from './settle';
 import { loadTicket } from '@server/tickets/ticket-views';
+import { markDrinkRefunded } from './drink-refunds';
 
 interface RefundInput {
   amountCents?: number;
   reason: string;
   /** one part of a split order; left out, the parts give back the last paid first */
   paymentId?: number;
+  /** one drink's own money (drink-refunds.ts): the drink is named on the refund and marked once */
+  orderItemId?: number;
 }
 
 /** Which parts give back how much: the named part alone, or the last paid first (refundPlan). */
@@ -48,15 +51,25 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
   const plan = planRefund(paid, order.refunded_cents, input);
   let result: OrderView | undefined;
   // one part after another, each its own refund at the card service and its own command
-  for (const step of plan) {
+  for (const [i, step] of plan.entries()) {
     const part = paid.find((p) => p.paymentId === step.paymentId) as PaidPart;
-    result = await refundPart(deps, user, orderId, part, step.amountCents, input.reason);
+    // a drink is marked by the first part's command (a retry then can't give it back twice)
+    const drink = input.orderItemId ? { id: input.orderItemId, mark: i === 0 } : undefined;
+    result = await refundPart(deps, user, orderId, part, step.amountCents, input.reason, drink);
   }
   return result as OrderView;
 }
 
 /** Give back `amount` of one paid part: at the card service first for a card, then the record. */
-async function refundPart(deps: Deps, user: SessionUser, orderId: number, part: PaidPart, amount: number, reason: string) {
+async function refundPart(
+  deps: Deps,
+  user: SessionUser,
+  orderId: number,
+  part: PaidPart,
+  amount: number,
+  reason: string,
+  drink?: { id: number; mark: boolean },
+) {
   let providerId: string | null = null;
   if (part.method === 'card') {
     if (!deps.payments) throw notSetUp('Card payments are not set up here');
@@ -67,7 +80,10 @@ async function refundPart(deps: Deps, user: SessionUser, orderId: number, part: 
         providerId: payment.provider_id,
         amountCents: amount,
         reason,
-        idempotencyKey: `jugline-refund-${orderId}-${part.paymentId}-${part.refundedCents}-${amount}`,
+        // a drink's own refund is named by the drink: sent twice, even at once, the card service gives it back once
+        idempotencyKey: drink
+          ? `jugline-refund-${orderId}-${part.paymentId}-drink-${drink.id}`
+          : `jugline-refund-${orderId}-${part.paymentId}-${part.refundedCents}-${amount}`,
       }));
     } catch (err) {
       if (err instanceof GatewayRefused) throw conflict(`The card service refused the refund: ${err.message}`);
@@ -83,6 +99,8 @@ async function refundPart(deps: Deps, user: SessionUser, orderId: number, part: 
     // re-read inside the transaction, holding the order: another refund may have landed meanwhile,
     // and one sent at the same moment waits here until this one has committed
     const fresh = await lockingRead(trx, trx('orders').where({ id: orderId })).first();
+    // holding the order: the same drink sent twice at once is refused (409) whatever the card service answered
+    if (drink?.mark) await markDrinkRefunded(trx, orderId, drink.id, reason, at);
     const now = await paidParts(trx, orderId);
     const freshPart = now.find((p) => p.paymentId === part.paymentId) as PaidPart;
     if (freshPart.refundedCents !== part.refundedCents) {
@@ -104,6 +122,7 @@ async function refundPart(deps: Deps, user: SessionUser, orderId: number, part: 
       amount_cents: amount,
       reason,
       provider_id: providerId,
+      order_item_id: drink?.id ?? null,
       created_by: user.id,
       created_at: at,
     });

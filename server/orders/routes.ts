@@ -6,12 +6,14 @@ import type { Deps } from '@server/deps';
 import { createOrder } from './orders';
 import { mailReceiptWithOrder } from './receipts';
 import { refundOrder, voidOrder } from './refunds';
+import { refundDrink } from './drink-refunds';
+import { remakeDrink } from './remakes';
 import type { ApiRoute } from '@server/routes';
 
 export const WEBHOOK_PATH = '/webhooks/payments';
 
 /** The orders' commands (src/commands.ts). */
-export const orderCommands: CommandHandlers<'placeOrder' | 'refundOrder' | 'voidOrder'> = {
+export const orderCommands: CommandHandlers<'placeOrder' | 'refundOrder' | 'voidOrder' | 'refundDrink' | 'remakeDrink'> = {
   placeOrder: async ({ deps, user, status }, body) => {
     const { order, created } = await createOrder(deps, user, body);
     // after the commit, however the order came (at once, queued offline, a retry): once per order
@@ -22,6 +24,8 @@ export const orderCommands: CommandHandlers<'placeOrder' | 'refundOrder' | 'void
   },
   refundOrder: async ({ deps, user, params }, body) => ({ order: await refundOrder(deps, user, params.id, body) }),
   voidOrder: async ({ deps, user, params }, { reason }) => ({ order: await voidOrder(deps, user, params.id, reason) }),
+  refundDrink: async ({ deps, user, params }, { reason }) => ({ order: await refundDrink(deps, user, params.id, reason) }),
+  remakeDrink: async ({ deps, user, params }, body) => ({ order: await remakeDrink(deps, user, params.id, body) }),
 };
 
 /** The payment provider's webhook: a plain route, not a command (its raw body is checked against its signature). */

@@ -6,6 +6,7 @@ import { toCsv } from '@/domain/csv';
 import { hourLabel, type ReportView, type TicketHistoryRow } from '@/domain/reports';
 import type { DayFigures, ReportDaysView } from '@/domain/report-days';
 import { PERCENTILE_METHOD } from '@/domain/stats';
+import { REMAKE_REASON_SHORT } from '@/domain/remakes';
 import { localIsoWithOffset, PAYMENT_METHOD_WORDS, PAYMENT_STATUS_WORDS, TICKET_STATUS_WORDS } from '@/domain/ticket-words';
 
 /** 790 → "7.90": two decimals, as a spreadsheet reads an amount */
@@ -78,6 +79,13 @@ export function reportCsv(report: ReportView): string {
   add('Tips', undefined, `total (${cur})`, amount(report.tips.cents));
   add('Tips', 'cash', `kept (${cur})`, amount(report.tips.cashCents));
   add('Tips', 'card', `kept (${cur})`, amount(report.tips.cardCents));
+  // remakes are waste: the drinks they replaced went in the bin (per reason, in the list's order)
+  add('Remakes', undefined, 'drinks remade', report.remakes.count);
+  for (const r of report.remakes.byReason) {
+    add('Remakes', REMAKE_REASON_SHORT[r.reason], 'drinks remade', r.count);
+    add('Remakes', REMAKE_REASON_SHORT[r.reason], 'coffee wasted (g)', r.doseDg / 10);
+    add('Remakes', REMAKE_REASON_SHORT[r.reason], 'milk wasted (ml)', r.milkMl);
+  }
   for (const m of ['cash', 'card'] as const) {
     add('Payment mix', m, 'orders', report.paymentMix[m].orders);
     add('Payment mix', m, `taken (${cur})`, amount(report.paymentMix[m].cents));

@@ -112,7 +112,7 @@ export async function computeDays(db: Knex, location: ReportLocation, from: stri
   const lines = rawRows<LineRow & { d: string }>(
     await db.raw(
       `SELECT o.business_date AS d, i.item_name AS item, i.milk_name AS milk, i.station AS station, ${hour.sql} AS hour,
-         SUM(CASE WHEN ${PAID} THEN 1 ELSE 0 END) AS sold, SUM(CASE WHEN ${PAID} THEN i.price_cents ELSE 0 END) AS cents,
+         SUM(CASE WHEN ${PAID} AND i.remake_of IS NULL THEN 1 ELSE 0 END) AS sold, SUM(CASE WHEN ${PAID} THEN i.price_cents ELSE 0 END) AS cents,
          SUM(CASE WHEN ${made} THEN i.milk_ml ELSE 0 END) AS milk_ml,
          SUM(CASE WHEN ${made} THEN i.shots ELSE 0 END) AS shots,
          SUM(CASE WHEN ${made} THEN i.dose_dg ELSE 0 END) AS dose_dg
@@ -242,7 +242,7 @@ export function mergeDays(
   parts: DayPartial[],
   dates: string[],
   targetSeconds: number,
-): Omit<ReportView, 'period' | 'currency' | 'locale' | 'timeZone' | 'targetSeconds' | 'tips'> {
+): Omit<ReportView, 'period' | 'currency' | 'locale' | 'timeZone' | 'targetSeconds' | 'tips' | 'remakes'> {
   const t = { orders: 0, gross: 0, tax: 0, discount: 0, refunds: 0, cashOrders: 0, cashCents: 0, drinks: 0, shots: 0, dose: 0 };
   const hours = new Map<number, HourRow>();
   const milks = new Map<string, number>();

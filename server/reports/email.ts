@@ -1,5 +1,6 @@
 // The shift report as an e-mail for the owner: plain text and HTML, from a ReportView. Pure: the
 // caller sends it (e.g. with the Mailer when a shift closes).
+import { REMAKE_REASON_SHORT } from '@/domain/remakes';
 import { formatCents } from '@/domain/money';
 import { formatDuration } from '@/domain/format';
 import { formatCoffee, formatLitres, formatShare, type ReportView } from '@/domain/reports';
@@ -63,6 +64,11 @@ export function shiftReportEmail(report: ReportView, location: ReportMailLocatio
     ['Shots pulled', String(report.shotsPulled)],
     ['Coffee used', formatCoffee(report.coffeeUsedDg, locale)],
     ...report.milkUsedMl.map((m): Row => [`Milk: ${m.milk}`, formatLitres(m.ml, locale)]),
+    // remakes as waste, per reason, only when there were any
+    ...report.remakes.byReason.map((r): Row => [
+      `Remade: ${REMAKE_REASON_SHORT[r.reason]}`,
+      `${r.count} · ${formatCoffee(r.doseDg, locale)} coffee · ${formatLitres(r.milkMl, locale)} milk wasted`,
+    ]),
   ];
   const cash = shift?.cash;
   const currency = location.currency ?? report.currency;

@@ -7,6 +7,7 @@ import { dialectOf, rawRows } from '@server/db/dialect';
 import { inHourOrder, type HourRow, type OverTargetTicket, type ReportView, type TipTotals } from '@/domain/reports';
 import type { ReportDaysView } from '@/domain/report-days';
 import { median, summarizeWaits } from '@/domain/stats';
+import { remakeWaste, type RemakeReason, type RemakeWaste } from '@/domain/remakes';
 import { dayByDay, datesBetween, mergeDays, rangeDays } from './days';
 import { localHour, localHourSql } from './local-hours';
 import { tipsByDate } from './tips';
@@ -50,6 +51,7 @@ export async function rangeReport(db: Knex, locationId: number, fromDate: string
     targetSeconds: s.targetSeconds,
     ...mergeDays(parts, datesBetween(fromDate, toDate), s.targetSeconds),
     tips: await tipTotals(db, s),
+    remakes: await remakeTotals(db, s),
   };
 }
 
@@ -113,7 +115,7 @@ async function lineTotals(db: Knex, s: Scope, hours: Hours) {
   const rows = rawRows<LineRow>(
     await db.raw(
       `SELECT i.item_name AS item, i.milk_name AS milk, i.station AS station, ${hour.sql} AS hour,
-         SUM(CASE WHEN ${PAID} THEN 1 ELSE 0 END) AS sold, SUM(CASE WHEN ${PAID} THEN i.price_cents ELSE 0 END) AS cents,
+         SUM(CASE WHEN ${PAID} AND i.remake_of IS NULL THEN 1 ELSE 0 END) AS sold, SUM(CASE WHEN ${PAID} THEN i.price_cents ELSE 0 END) AS cents,
          SUM(CASE WHEN ${made} THEN i.milk_ml ELSE 0 END) AS milk_ml,
          SUM(CASE WHEN ${made} THEN i.shots ELSE 0 END) AS shots,
          SUM(CASE WHEN ${made} THEN i.dose_dg ELSE 0 END) AS dose_dg
@@ -197,6 +199,23 @@ async function tipTotals(db: Knex, s: Scope): Promise<TipTotals> {
   return { cents: cash + card, cashCents: cash, cardCents: card };
 }
 
+/**
+ * Remakes as waste, per reason: how many, and the coffee and cold milk of the drinks they
+ * replaced (those went in the bin; the remake itself is counted in the coffee and milk used).
+ * Read from the orders directly, as the tips are: a remake is a line of an order of the period.
+ */
+async function remakeTotals(db: Knex, s: Scope): Promise<RemakeWaste> {
+  const rows = rawRows<{ reason: RemakeReason; count: Sum; dose: Sum; milk: Sum }>(
+    await db.raw(
+      `SELECT r.remake_reason AS reason, COUNT(*) AS count, SUM(w.dose_dg) AS dose, SUM(w.milk_ml) AS milk
+       FROM orders o JOIN order_items r ON r.order_id = o.id JOIN order_items w ON w.id = r.remake_of
+       WHERE ${s.where} GROUP BY r.remake_reason`,
+      s.bindings,
+    ),
+  );
+  return remakeWaste(rows.map((r) => ({ reason: r.reason, count: n(r.count), doseDg: n(r.dose), milkMl: n(r.milk) })));
+}
+
 async function buildReport(db: Knex, s: Scope): Promise<ReportView> {
   const hours: Hours = new Map();
   // one connection: these run one after another, and the order fills `hours` before the waits read it
@@ -212,6 +231,7 @@ async function buildReport(db: Knex, s: Scope): Promise<ReportView> {
     targetSeconds: s.targetSeconds,
     ...money,
     tips: await tipTotals(db, s),
+    remakes: await remakeTotals(db, s),
     drinks: lines.drinks,
     waits: summarizeWaits(waits, s.targetSeconds),
     overTarget: over,

@@ -52,6 +52,8 @@ export async function openDrinks(trx: Knex.Transaction, user: SessionUser, drink
     )
     .leftJoin('users as bumper', 'bumper.id', 'order_items.done_by');
   for (const id of drinkIds) if (!rows.some((r) => r.id === id)) throw notFound(`Drink ${id}`);
+  const refunded = rows.find((r) => r.refunded_at && r.status !== 'done');
+  if (refunded) throw conflict(`The ${refunded.item_name} for ${ticketWords(refunded)} was refunded: it is not on the bar`);
   for (const r of rows) if (r.order_status !== 'open') throw conflict(notOnBar(r));
   return rows;
 }
@@ -96,7 +98,12 @@ export async function nextBumpSeq(trx: Knex.Transaction, locationId: number): Pr
 
 /** Once every bar drink is done the ticket is ready for pickup. */
 export async function settleTicket(trx: Knex.Transaction, orderId: number, at: string) {
-  const left = await trx('order_items').where({ order_id: orderId, station: 'bar' }).whereNot({ status: 'done' }).count<{ n: number }>({ n: '*' }).first();
+  const left = await trx('order_items')
+    .where({ order_id: orderId, station: 'bar' })
+    .whereNot({ status: 'done' })
+    .whereNull('refunded_at') // refunded before it was made: not made at all
+    .count<{ n: number }>({ n: '*' })
+    .first();
   if (Number(left?.n) === 0) {
     const changed = await trx('orders').where({ id: orderId, status: 'open' }).update({ status: 'ready', ready_at: at });
     if (changed) await trx.raw(`UPDATE orders AS o SET wait_seconds = ${waitOfOrder(dialectOf(trx))} WHERE o.id = ?`, [orderId]);

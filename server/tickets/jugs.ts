@@ -79,6 +79,7 @@ export async function bumpJug(deps: Deps, user: SessionUser, jugId: number, drin
       .join('order_items', 'order_items.id', 'jug_drinks.order_item_id')
       .where('jug_drinks.jug_id', jugId)
       .whereNot('order_items.status', 'done')
+      .whereNull('order_items.refunded_at')
       .orderBy('order_items.id')
       .pluck('order_items.id');
     const problem = jugBumpProblem(open, drinkIds);

@@ -4,6 +4,7 @@ import { bool, json } from '@server/db/rows';
 import type { Db } from '@server/db/knex';
 import type { Flag, Row } from '@server/db/tables';
 import type { SteamedTexture } from '@/domain/jug-plan';
+import { remakeMark } from '@server/orders/order-views';
 
 /** A bar drink as loadTickets reads it: its row, who acted on it, and its started jug if any. */
 type DrinkRow = Row<'order_items'> & {
@@ -22,6 +23,7 @@ type DrinkRow = Row<'order_items'> & {
 };
 
 function toDrink(r: DrinkRow): DrinkView {
+  const remake = remakeMark(r);
   return {
     id: r.id,
     ticketId: r.order_id,
@@ -46,6 +48,7 @@ function toDrink(r: DrinkRow): DrinkView {
     startedBy: r.started_by_name ?? null,
     doneBy: r.done_by_name ?? null,
     jug: jugOf(r),
+    ...(remake ? { remake } : {}),
   };
 }
 
@@ -78,6 +81,8 @@ export async function loadTickets(db: Db, orders: Row<'orders'>[]): Promise<Tick
       orders.map((o) => o.id),
     )
     .andWhere('order_items.station', 'bar')
+    // a drink refunded before it was made is not made: it leaves the bar (a made one stays, done)
+    .andWhere((w) => w.whereNull('order_items.refunded_at').orWhere('order_items.status', 'done'))
     .orderBy(['order_items.order_id', 'order_items.line_no'])
     .select(
       'order_items.*',

@@ -92,7 +92,7 @@ export async function bumpTicket(deps: Deps, user: SessionUser, orderId: number)
   const ticket = await runCommand(deps, async (trx) => {
     const order = await orderInLocation(trx, orderId, user);
     if (order.status !== 'open') throw conflict('This ticket has no drinks left to bump');
-    const left = await trx('order_items').where({ order_id: orderId, station: 'bar' }).whereNot({ status: 'done' }).select('id');
+    const left = await trx('order_items').where({ order_id: orderId, station: 'bar' }).whereNot({ status: 'done' }).whereNull('refunded_at').select('id');
     if (left.length === 0) throw conflict('This ticket has no drinks left to bump');
     assertAllergyRead(
       await openDrinks(
@@ -103,10 +103,11 @@ export async function bumpTicket(deps: Deps, user: SessionUser, orderId: number)
     );
     const at = deps.clock().toISOString();
     const bumpSeq = await nextBumpSeq(trx, user.locationId);
-    await trx('order_items').where({ order_id: orderId, station: 'bar', status: 'queued' }).update({ started_at: at });
+    await trx('order_items').where({ order_id: orderId, station: 'bar', status: 'queued' }).whereNull('refunded_at').update({ started_at: at });
     await trx('order_items')
       .where({ order_id: orderId, station: 'bar' })
       .whereNot({ status: 'done' })
+      .whereNull('refunded_at')
       .update({ status: 'done', done_at: at, done_by: user.id, bump_seq: bumpSeq });
     await recordCoffeeUse(
       trx,

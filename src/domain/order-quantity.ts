@@ -46,7 +46,19 @@ export interface LineGroup {
 export function groupOrderLines(lines: readonly OrderLineView[]): LineGroup[] {
   const groups = new Map<string, LineGroup>();
   for (const l of lines) {
-    const key = JSON.stringify([l.menuItemId, l.itemName, l.sizeName, l.milkName, l.shots, l.extras, l.note, l.priceCents]);
+    // a refunded drink or a remake is told apart from its identical neighbours
+    const key = JSON.stringify([
+      l.menuItemId,
+      l.itemName,
+      l.sizeName,
+      l.milkName,
+      l.shots,
+      l.extras,
+      l.note,
+      l.priceCents,
+      !!l.refundedAt,
+      l.remake?.reason ?? null,
+    ]);
     const g = groups.get(key);
     if (g) {
       g.quantity += 1;

@@ -13,6 +13,8 @@ export interface PickupTicket {
   firstName: string;
   status: TicketStatus;
   readyAt: string | null;
+  /** Being made again: a drink of it is a remake not yet bumped (the word only, never which drink). */
+  remake?: true;
 }
 
 export interface PickupBoard {
@@ -38,7 +40,15 @@ export type PickupServerMessage =
 const byTaking = (a: PickupTicket, b: PickupTicket) => a.id - b.id;
 
 export function pickupTicket(t: TicketView): PickupTicket {
-  return { id: t.id, number: t.number, firstName: firstName(t.customerName), status: t.status, readyAt: t.readyAt };
+  const remake = t.status === 'open' && t.drinks.some((d) => d.remake && d.status !== 'done');
+  return {
+    id: t.id,
+    number: t.number,
+    firstName: firstName(t.customerName),
+    status: t.status,
+    readyAt: t.readyAt,
+    ...(remake ? { remake: true as const } : {}),
+  };
 }
 
 export function pickupView(board: BoardSnapshot): PickupBoard {

@@ -1,5 +1,6 @@
 // What the Reports screen, the CSV exports and the shift-close mail show. Money in integer cents,
 // times as ISO-8601 UTC strings, dates as the café's own calendar dates (YYYY-MM-DD).
+import type { RemakeWaste } from './remakes';
 import type { WaitSummary } from './stats';
 import type { TicketStatus } from './types';
 
@@ -92,6 +93,8 @@ export interface ReportView {
   netCents: number;
   /** the customers' tips, kept (less tips refunded): never in gross, net or tax */
   tips: TipTotals;
+  /** drinks made again at no charge, per reason, with what the replaced drinks took */
+  remakes: RemakeWaste;
   paymentMix: { cash: MoneyByMethod; card: MoneyByMethod };
   /** fired → ready, in seconds, of the tickets with bar drinks that reached ready */
   waits: WaitSummary;

@@ -12,6 +12,9 @@ export const CAPABILITIES = {
   viewOutbox: ['lead', 'owner'],
   giveDiscounts: ['lead', 'owner'],
   refundOrders: ['lead', 'owner'],
+  // a drink made again at no charge: asked for where the customer is, at the Counter or the
+  // pickup shelf; a barista tells the Counter (the Bar shows the remake when it comes back)
+  remakeDrinks: ['cashier', 'lead', 'owner'],
   eightySix: ['lead', 'owner'],
   rushTickets: ['lead', 'owner'],
   collectTickets: ['cashier', 'barista', 'lead', 'owner'],

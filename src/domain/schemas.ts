@@ -5,6 +5,7 @@ import { cupsOf, MAX_CUPS, MAX_QUANTITY } from './order-quantity';
 import { TICKET_SORTS } from './reports';
 import { daysInRange, MAX_REPORT_DAYS } from './report-days';
 import { SCREENS, type ScreenId } from './screens';
+import { REMAKE_REASONS } from './remakes';
 import { plainText } from './text';
 import { SPLIT_PARTS_MAX } from './split-payment';
 import { TIP_MAX_CENTS } from './tips';
@@ -131,6 +132,17 @@ export const refundBody = z.object({
 });
 
 export const voidBody = z.object({ reason: plainText().min(3, 'Say why').max(200) });
+
+/** One drink's own money back (src/domain/remakes.ts works out how much). */
+export const drinkRefundBody = z.object({ reason: plainText().min(3, 'Say why').max(200) });
+
+/** One drink made again at no charge: a reason from the list, and a note ("other" needs one). */
+export const remakeBody = z
+  .object({
+    reason: z.enum(REMAKE_REASONS, 'Choose a reason'),
+    note: plainText().max(140).optional(),
+  })
+  .refine((b) => b.reason !== 'other' || (b.note ?? '').length >= 3, { path: ['note'], message: 'Say what went wrong' });
 
 /** A batch of drinks to start or bump in one command. */
 export const drinkBatchBody = z.object({

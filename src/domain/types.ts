@@ -1,6 +1,7 @@
 // Shapes the API answers with and the screens render. Shared by client and server.
 import type { BarEffect } from './drink-options';
 import type { Jug, JugRules, SteamedTexture } from './jug-plan';
+import type { RemakeMark } from './remakes';
 import type { Role } from './roles';
 import type { PaidPart } from './split-payment';
 import type { TipSettings } from './tips';
@@ -186,6 +187,8 @@ export interface DrinkView {
   doneBy?: string | null;
   /** The jug it was started in, with that jug's pour as started; null if none. */
   jug?: JugRef | null;
+  /** Set on a drink made again at no charge (src/domain/remakes.ts); absent otherwise. */
+  remake?: RemakeMark;
 }
 
 /** A started jug as each of its drinks carries it: fixed from the moment it was started. */
@@ -222,6 +225,14 @@ export interface OrderLineView {
   extras: string[];
   note: string | null;
   priceCents: number;
+  /** where the drink stands at the bar ('done' for a counter item) */
+  status: DrinkStatus;
+  /** when this drink's own money was given back (a drink refund); null if not */
+  refundedAt: string | null;
+  /** set on a drink made again at no charge */
+  remake: RemakeMark | null;
+  /** the line that remade this one, if any */
+  remadeAs: number | null;
 }
 
 export interface OrderView {
@@ -272,6 +283,7 @@ export const TICKET_EVENT_TYPES = [
   'drink.bumped',
   'ticket.bumped',
   'ticket.recalled',
+  'drink.remade',
   'ticket.rushed',
   'ticket.collected',
   'drink.allergy_acknowledged',

@@ -334,7 +334,12 @@ function Counter() {
         />
       )}
       {ordersOpen && (
-        <OrdersDrawer canRefund={can(session.user?.role, 'refundOrders')} currency={menu.location.currency} onClose={() => setOrdersOpen(false)} />
+        <OrdersDrawer
+          canRefund={can(session.user?.role, 'refundOrders')}
+          canRemake={can(session.user?.role, 'remakeDrinks')}
+          currency={menu.location.currency}
+          onClose={() => setOrdersOpen(false)}
+        />
       )}
     </div>
   );

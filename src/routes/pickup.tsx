@@ -42,7 +42,18 @@ function NameRow({ t, fresh }: { t: PickupTicket; fresh?: boolean }) {
       <span className={cn('font-display leading-[1.1] font-semibold whitespace-nowrap', fresh && 'ready-fresh')} style={nameSize(t.firstName)}>
         {t.firstName}
       </span>
-      <span className="shrink-0 font-display text-[0.5em] text-crema-300">#{t.number}</span>
+      {/* the number, and under it (in the room the number keeps) the word for a ticket being made again */}
+      <span className="flex shrink-0 flex-col items-start font-display">
+        <span className="text-[0.5em] text-crema-300">#{t.number}</span>
+        {t.remake && (
+          <span
+            data-testid="pickup-remake"
+            className="rounded border border-dashed border-crema-300 px-[0.15em] text-[0.2em] leading-tight tracking-wide uppercase"
+          >
+            remake
+          </span>
+        )}
+      </span>
     </li>
   );
 }

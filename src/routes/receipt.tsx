@@ -4,6 +4,7 @@ import { useSuspenseQuery } from '@tanstack/react-query';
 import { useParams, type LoaderFunctionArgs } from 'react-router';
 import { formatCents } from '@/domain/money';
 import { groupOrderLines } from '@/domain/order-quantity';
+import { soldLines } from '@/domain/remakes';
 import { amountDueCents } from '@/domain/tips';
 import { Button } from '@/components/ui/button';
 import { menuQuery } from '@/queries/menu';
@@ -33,7 +34,7 @@ function Receipt() {
       </p>
       <table className="mt-3 w-full text-sm">
         <tbody>
-          {groupOrderLines(o.lines).map(({ line: l, quantity, totalCents }) => (
+          {groupOrderLines(soldLines(o.lines)).map(({ line: l, quantity, totalCents }) => (
             <tr key={l.id} className="align-top">
               <td className="py-1">
                 {quantity > 1 ? `${quantity} × ` : ''}

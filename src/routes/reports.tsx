@@ -14,7 +14,7 @@ import { PeriodPicker, shiftLabel } from '@/features/reports/period-picker';
 import { groupReportQuery, reportDaysQuery, reportQuery, reportShiftsQuery, ticketHistoryQuery } from '@/queries/reports';
 import { sessionQuery } from '@/queries/session';
 import type { SessionView } from '@/domain/types';
-import { BarUse, PaymentMix, TopItems } from '@/components/report/report-breakdowns';
+import { BarUse, PaymentMix, RemakeWastePanel, TopItems } from '@/components/report/report-breakdowns';
 import { ReportTiles } from '@/components/report/report-tiles';
 import { DaysTable } from '@/features/reports/days-table';
 import { GroupTable } from '@/features/reports/group-table';
@@ -122,6 +122,7 @@ function Reports() {
         <div className="grid grid-cols-1 items-start gap-4 md:grid-cols-2 xl:grid-cols-3">
           <PaymentMix report={report} />
           <BarUse report={report} />
+          <RemakeWastePanel report={report} />
           <TopItems report={report} />
           <HourlyTable report={report} />
           <OverTargetList report={report} multiDay={multiDay} />

@@ -31,6 +31,7 @@ function report(over: Partial<ReportView>): ReportView {
     refundsCents: 0,
     netCents: 0,
     tips: { cents: 0, cashCents: 0, cardCents: 0 },
+    remakes: { count: 0, doseDg: 0, milkMl: 0, byReason: [] },
     paymentMix: { cash: { orders: 0, cents: 0 }, card: { orders: 0, cents: 0 } },
     waits: waits(null),
     overTarget: [],

@@ -79,6 +79,10 @@ describe('groupOrderLines', () => {
     extras: [],
     note: null,
     priceCents: 350,
+    status: 'done',
+    refundedAt: null,
+    remake: null,
+    remadeAs: null,
     ...over,
   });
   it('groups identical stored drinks back into "3 × Short black" with the line total', () => {

@@ -1,8 +1,9 @@
-// The report in parts: how people paid, what the bar used, and what sold best.
+// The report in parts: how people paid, what the bar used, what sold best, and what remakes wasted.
 import { ScrollBox } from '@/components/ui/scroll-box';
 import type { ReactNode } from 'react';
 import { formatCents } from '@/domain/money';
 import { formatCoffee, formatCount, formatLitres, formatShare, type ReportView } from '@/domain/reports';
+import { REMAKE_REASON_SHORT } from '@/domain/remakes';
 import { cn } from '@/lib/cn';
 
 export const cardClass = 'min-w-0 rounded-xl border border-steam-200 bg-white p-4';
@@ -142,6 +143,48 @@ export function TopItems({ report }: { report: ReportView }) {
         </ScrollBox>
       )}
       <p className="mt-2 text-sm text-ink-600">Menu prices, before order discounts.</p>
+    </Panel>
+  );
+}
+
+/** Drinks made again at no charge, per reason: the waste the bar can work on. */
+export function RemakeWastePanel({ report }: { report: ReportView }) {
+  const w = report.remakes;
+  return (
+    <Panel title="Remakes">
+      {w.count === 0 ? (
+        <p className="text-base text-ink-600">No drinks remade.</p>
+      ) : (
+        <ScrollBox label="Remakes table">
+          <table className="w-full text-base" data-testid="remake-waste">
+            <thead>
+              <tr>
+                <th className={thClass}>Reason</th>
+                <th className={cn(thClass, numClass)}>Drinks</th>
+                <th className={cn(thClass, numClass)}>Coffee</th>
+                <th className={cn(thClass, numClass)}>Milk</th>
+              </tr>
+            </thead>
+            <tbody>
+              {w.byReason.map((r) => (
+                <tr key={r.reason}>
+                  <td className={tdClass}>{REMAKE_REASON_SHORT[r.reason]}</td>
+                  <td className={cn(tdClass, numClass)}>{formatCount(r.count, report.locale)}</td>
+                  <td className={cn(tdClass, numClass)}>{formatCoffee(r.doseDg, report.locale)}</td>
+                  <td className={cn(tdClass, numClass)}>{formatLitres(r.milkMl, report.locale)}</td>
+                </tr>
+              ))}
+              <tr className="font-semibold">
+                <td className={tdClass}>All</td>
+                <td className={cn(tdClass, numClass)}>{formatCount(w.count, report.locale)}</td>
+                <td className={cn(tdClass, numClass)}>{formatCoffee(w.doseDg, report.locale)}</td>
+                <td className={cn(tdClass, numClass)}>{formatLitres(w.milkMl, report.locale)}</td>
+              </tr>
+            </tbody>
+          </table>
+        </ScrollBox>
+      )}
+      <p className="mt-2 text-sm text-ink-600">Wasted: the coffee and cold milk of the drinks the remakes replaced.</p>
     </Panel>
   );
 }

@@ -1,5 +1,6 @@
 import { allergyClash } from '@/domain/allergens';
 import { needsAllergyAck, hasAllergy, type LaneDrink } from '@/domain/lanes';
+import { REMAKE_REASON_SHORT } from '@/domain/remakes';
 import { ticketAgeSeconds } from '@/domain/tickets';
 import { cn } from '@/lib/cn';
 import { Button } from '@/components/ui/button';
@@ -126,6 +127,12 @@ export function DrinkCard({ card, unit, nowMs, targetSeconds, keyNumber, jugLabe
       {card.kidsTemp && (
         <p data-testid="kids-temp" className="mt-1 w-fit rounded-md border-2 border-dashed border-crema-100 px-2 text-2xl font-semibold">
           Kids' temperature: steam cooler, in its own jug
+        </p>
+      )}
+      {card.remake && (
+        <p data-testid="remake" className="mt-1 w-fit rounded-md border-2 border-crema-100 px-2 text-2xl font-semibold">
+          <span className="font-bold tracking-wide uppercase">Remake</span> · {REMAKE_REASON_SHORT[card.remake.reason]}
+          {card.remake.note ? `: ${card.remake.note}` : ''}
         </p>
       )}
       {card.note && <p className="mt-1 text-2xl font-semibold text-alert-ink">Note: {card.note}</p>}

@@ -1,5 +1,6 @@
 // Today's orders for the cashier: search, status, reprint; a lead can void an unpaid order or
-// refund a paid one, with a reason, and the bar sees it at once.
+// refund a paid one, with a reason, and the bar sees it at once; per drink, refund one or remake
+// one (drink-actions.tsx).
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
 import { formatCents } from '@/domain/money';
@@ -10,6 +11,7 @@ import { useApi } from '@/lib/api-context';
 import { send } from '@/lib/commands';
 import { ApiError } from '@/lib/http';
 import { orderKeys, ordersQuery } from '@/queries/orders';
+import { DrinkActions } from './drink-actions';
 
 const STATUS: Record<OrderView['status'], string> = {
   pending: 'waiting for payment',
@@ -19,7 +21,7 @@ const STATUS: Record<OrderView['status'], string> = {
   void: 'void',
 };
 
-export function OrdersDrawer({ canRefund, currency, onClose }: { canRefund: boolean; currency: string; onClose(): void }) {
+export function OrdersDrawer({ canRefund, canRemake, currency, onClose }: { canRefund: boolean; canRemake: boolean; currency: string; onClose(): void }) {
   const api = useApi();
   const qc = useQueryClient();
   const [q, setQ] = useState('');
@@ -105,6 +107,7 @@ export function OrdersDrawer({ canRefund, currency, onClose }: { canRefund: bool
                   </Button>
                 )}
               </div>
+              <DrinkActions order={o} canRefund={canRefund} canRemake={canRemake} currency={currency} />
               {acting?.id === o.id && (
                 <div className="mt-2 flex gap-2">
                   <input
