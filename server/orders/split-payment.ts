@@ -27,7 +27,7 @@ export function requirePartsCover(parts: readonly PaymentPart[], dueCents: numbe
   }
 }
 
-const describe = (p: { method: string; amountCents: number }) => `${p.method} ${p.amountCents} cents`;
+const partWords = (p: { method: string; amountCents: number }) => `${p.method} ${p.amountCents} cents`;
 
 /** The parts sent must agree with what the order was paid already: a paid part can't change. */
 async function checkAgainstPaid(deps: Deps, user: SessionUser, orderId: number, parts: readonly PaymentPart[]) {
@@ -39,7 +39,7 @@ async function checkAgainstPaid(deps: Deps, user: SessionUser, orderId: number, 
   for (const paid of await paidParts(deps.db, orderId)) {
     const listed = parts[paid.part - 1];
     if (!listed || listed.method !== paid.method || listed.amountCents !== paid.amountCents) {
-      throw conflict(`Part ${paid.part} was paid already (${describe(paid)}); send it again as it was`, { orderId, part: paid.part });
+      throw conflict(`Part ${paid.part} was paid already (${partWords(paid)}); send it again as it was`, { orderId, part: paid.part });
     }
   }
 }
