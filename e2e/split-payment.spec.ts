@@ -7,6 +7,9 @@ import { errorsOf, expect, pageAs, test } from './fixtures';
 import { shot } from './shots';
 
 test('part cash, part card, a declined card replaced, one part refunded', async ({ browser }) => {
+  // four signed-in pages and an axe audit: past Playwright's 30 s once on a loaded full run (a
+  // safety net, not a measure)
+  test.setTimeout(90_000);
   const counter = await pageAs(browser, 'cashier', '/counter', { width: 1024, height: 768 });
   const bar = await pageAs(browser, 'barista', '/bar');
   await expect(counter.getByRole('status').filter({ hasText: 'Live' })).toBeVisible();
