@@ -4,28 +4,15 @@
 // the percentiles) and the 20 longest.
 import type { Knex } from 'knex';
 import { dialectOf, rawRows } from '@server/db/dialect';
-import { inHourOrder, type HourRow, type OverTargetTicket, type ReportView, type TipTotals } from '@/domain/reports';
+import { inHourOrder, type HourRow, type OverTargetTicket, type ReportView } from '@/domain/reports';
 import type { ReportDaysView } from '@/domain/report-days';
 import { median, summarizeWaits } from '@/domain/stats';
 import { remakeWaste, type RemakeReason, type RemakeWaste } from '@/domain/remakes';
 import { dayByDay, datesBetween, mergeDays, rangeDays } from './days';
 import { localHour, localHourSql } from './local-hours';
-import { tipsByDate } from './tips';
+import { tipsByDate, tipTotals } from './tips';
 import { moneyView, PAID, rangeScope, shiftScope, type MoneyTotals, type Scope } from './scope';
-import {
-  CASH_OF_TOTAL,
-  CASH_ORDER,
-  CASH_TIP,
-  HAS_WAIT,
-  n,
-  ORDER_REFUNDS,
-  TIP_KEPT,
-  waitSeconds,
-  type LineRow,
-  type MoneyRow,
-  type Sum,
-  type WaitRow,
-} from './sql';
+import { CASH_OF_TOTAL, CASH_ORDER, HAS_WAIT, n, ORDER_REFUNDS, waitSeconds, type LineRow, type MoneyRow, type Sum, type WaitRow } from './sql';
 
 const OVER_TARGET_LIMIT = 20;
 const TOP_ITEMS = 10;
@@ -50,7 +37,7 @@ export async function rangeReport(db: Knex, locationId: number, fromDate: string
     timeZone: s.location.timeZone,
     targetSeconds: s.targetSeconds,
     ...mergeDays(parts, datesBetween(fromDate, toDate), s.targetSeconds),
-    tips: await tipTotals(db, s),
+    tips: await tipTotals(db, s.where, s.bindings),
     remakes: await remakeTotals(db, s),
   };
 }
@@ -183,23 +170,6 @@ async function overTarget(db: Knex, s: Scope): Promise<OverTargetTicket[]> {
 }
 
 /**
- * The tips the paid orders carried, kept (less tips refunded), by how they were paid. Read from the
- * orders directly, not from the stored days: one indexed pass over the period's orders.
- */
-async function tipTotals(db: Knex, s: Scope): Promise<TipTotals> {
-  const rows = rawRows<{ cash: Sum; card: Sum }>(
-    await db.raw(
-      `SELECT SUM(${CASH_TIP}) AS cash, SUM(${TIP_KEPT} - (${CASH_TIP})) AS card
-       FROM orders o WHERE ${s.where} AND ${PAID} AND o.tip_cents > 0`,
-      s.bindings,
-    ),
-  );
-  const cash = n(rows[0]?.cash);
-  const card = n(rows[0]?.card);
-  return { cents: cash + card, cashCents: cash, cardCents: card };
-}
-
-/**
  * Remakes as waste, per reason: how many, and the coffee and cold milk of the drinks they
  * replaced (those went in the bin; the remake itself is counted in the coffee and milk used).
  * Read from the orders directly, as the tips are: a remake is a line of an order of the period.
@@ -230,7 +200,7 @@ async function buildReport(db: Knex, s: Scope): Promise<ReportView> {
     timeZone: s.location.timeZone,
     targetSeconds: s.targetSeconds,
     ...money,
-    tips: await tipTotals(db, s),
+    tips: await tipTotals(db, s.where, s.bindings),
     remakes: await remakeTotals(db, s),
     drinks: lines.drinks,
     waits: summarizeWaits(waits, s.targetSeconds),
