@@ -22,8 +22,12 @@ interface RefundInput {
   orderItemId?: number;
 }
 
-/** Which parts give back how much: the named part alone, or the last paid first (refundPlan). */
-function planRefund(paid: PaidPart[], refundedCents: number, input: RefundInput) {
+/**
+ * Which parts give back how much: the named part alone, or the last paid first (refundPlan).
+ * What is left is judged from the parts alone, as one read gave them: the order's refunded_cents,
+ * read at another moment, may be behind a refund that landed in between.
+ */
+export function planRefund(paid: PaidPart[], input: RefundInput) {
   if (input.paymentId !== undefined) {
     const part = paid.find((p) => p.paymentId === input.paymentId);
     if (!part) throw invalid('That is not a paid part of this order', [{ path: 'paymentId', message: 'Not a paid part of this order' }]);
@@ -34,9 +38,11 @@ function planRefund(paid: PaidPart[], refundedCents: number, input: RefundInput)
     return [{ paymentId: part.paymentId, amountCents: amount }];
   }
   // what the customer paid, the tip included: a full refund gives the tip back too
-  const refundable = paidSum(paid) - refundedCents;
+  const refundable = paidSum(paid) - paid.reduce((sum, p) => sum + p.refundedCents, 0);
   if (refundable <= 0) throw conflict('This order has been refunded in full already');
   const amount = input.amountCents ?? refundable;
+  // a drink's amount is the server's own: past what is left, another refund got there first
+  if (amount > refundable && input.orderItemId !== undefined) throw conflict('Another refund changed this order; look again');
   if (amount > refundable) {
     throw invalid('That is more than is left to refund', [{ path: 'amountCents', message: `At most ${refundable} cents can be refunded` }]);
   }
@@ -48,7 +54,7 @@ export async function refundOrder(deps: Deps, user: SessionUser, orderId: number
   if (!order) throw notFound('Order');
   const paid = await paidParts(deps.db, orderId);
   if (paid.length === 0) throw conflict('This order was never paid; void it instead');
-  const plan = planRefund(paid, order.refunded_cents, input);
+  const plan = planRefund(paid, input);
   let result: OrderView | undefined;
   // one part after another, each its own refund at the card service and its own command
   for (const [i, step] of plan.entries()) {
