@@ -18,6 +18,10 @@ function pending(locationId: number, event: AnyLiveEvent, actorId: number | null
   return { locationId, event, actorId };
 }
 
+/** The events of a command that changed what loadMenu reads: the menu, the café's settings, the
+ * baristas on bar (the quote's). Every such command writes one (screens reload on it). */
+const MENU_CHANGES: ReadonlySet<string> = new Set(['menu.availability', 'menu.changed', 'shift.changed']);
+
 /**
  * Write the command's events as the last step of its transaction: take their numbers from the
  * café's counter row (one upsert, RETURNING the new last number), which the transaction then holds
@@ -30,10 +34,15 @@ async function writeEvents(trx: Knex.Transaction, events: PendingEvent[]): Promi
   const cafes = [...new Set(events.map((e) => e.locationId))].sort((a, b) => a - b); // one lock order
   for (const locationId of cafes) {
     const mine = events.filter((e) => e.locationId === locationId);
+    // a command that changed what the menu reads moves the café's menu version with its number
+    const menuChanges = mine.filter((e) => MENU_CHANGES.has(e.event.type)).length;
     const [{ last_seq: last }] = await trx('event_seqs')
-      .insert({ location_id: locationId, last_seq: mine.length })
+      .insert({ location_id: locationId, last_seq: mine.length, menu_version: menuChanges })
       .onConflict('location_id')
-      .merge({ last_seq: trx.raw('?? + ?', ['event_seqs.last_seq', mine.length]) })
+      .merge({
+        last_seq: trx.raw('?? + ?', ['event_seqs.last_seq', mine.length]),
+        ...(menuChanges ? { menu_version: trx.raw('?? + ?', ['event_seqs.menu_version', menuChanges]) } : {}),
+      })
       .returning('last_seq');
     mine.forEach((e, i) => (e.event.seq = Number(last) - mine.length + 1 + i));
     await trx('events').insert(

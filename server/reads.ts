@@ -16,7 +16,7 @@ import type { Deps } from './deps';
 import { asHttpError, notFound, parse } from './errors';
 import { outboxView } from './mail/outbox';
 import { loadAdminMenu } from './menu/admin';
-import { loadMenu } from './menu/menu';
+import { currentMenu } from './menu/menu-cache';
 import { findOrderInLocation, listOrders, loadOrder } from './orders/order-views';
 import { waitNowForCounter } from './orders/quotes';
 import { cardCheck } from './payments/card-check';
@@ -40,7 +40,7 @@ export type ReadHandler<R> = (ctx: ReadContext<R>, input: ParsedInput<R>) => Pro
 export const readHandlers: { [K in keyof Reads]: ReadHandler<Reads[K]> } = {
   session: ({ deps, user }) => sessionView(deps.db, user),
 
-  menu: ({ deps, user }) => loadMenu(deps.db, user.locationId),
+  menu: ({ deps, user }) => currentMenu(deps.db, user.locationId),
   tickets: async ({ deps, user }, { view }) => {
     const board = await boardSnapshot(deps, user.locationId);
     return view === 'open' ? { ...board, tickets: board.tickets.filter((t) => openTickets(t, 0)) } : board;

@@ -71,6 +71,7 @@ export interface Tables {
   event_seqs: {
     location_id: number;
     last_seq: number;
+    menu_version: number;
   };
   events: {
     id: number;

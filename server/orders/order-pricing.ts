@@ -9,7 +9,7 @@ import type { CreateOrderBody } from '@/domain/schemas';
 import type { MenuView, SessionUser } from '@/domain/types';
 import { conflict, fieldsNeedFixing, forbidden } from '@server/domain-errors';
 import type { Deps } from '@server/deps';
-import { loadMenu } from '@server/menu/menu';
+import { currentMenu } from '@server/menu/menu-cache';
 import { requireEnoughCash } from './settle';
 
 export interface PricedOrder {
@@ -23,7 +23,7 @@ export interface PricedOrder {
 const fieldNeedsFixing = (path: string, message: string) => fieldsNeedFixing([{ path, message }]);
 
 export async function priceOrder(deps: Deps, user: SessionUser, body: CreateOrderBody): Promise<PricedOrder> {
-  const menu = await loadMenu(deps.db, user.locationId);
+  const menu = await currentMenu(deps.db, user.locationId);
   const resolved = body.items.map((input, i) => {
     const r = resolveLine(menu, input);
     if (r.ok) return r.line;

@@ -11,14 +11,14 @@ import { isUniqueViolation } from '@server/db/rows';
 import { conflict } from '@server/domain-errors';
 import { payByCard } from '@server/payments/card-payments';
 import { settleOpenAttempts } from '@server/payments/card-settle';
-import { cashColumns, cashPayment, fireOrder, paidParts, requireEnoughCash, settledColumns } from './settle';
+import { cashColumns, cashPayment, fireOrder, paidPartOf, paidParts, requireEnoughCash, settledColumns } from './settle';
 import { payInParts, requirePartsCover } from './split-payment';
 import { orderItemRow } from './order-item-row';
 import type { Deps } from '@server/deps';
 import { appendEvent, lockCafe, runCommand } from '@server/events';
 import { priceOrder, type PricedOrder } from './order-pricing';
 import { quoteForNewOrder } from './quotes';
-import { loadOrder } from './order-views';
+import { loadOrder, toOrderView } from './order-views';
 import { loadTicket } from '@server/tickets/ticket-views';
 import type { Db } from '@server/db/knex';
 
@@ -29,7 +29,11 @@ async function findByClientId(db: Db, user: SessionUser, clientOrderId: string) 
   return loadOrder(db, existing.id);
 }
 
-async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody, priced: PricedOrder): Promise<number> {
+/**
+ * Store the order; answers it as GET /api/orders/:id would, from the rows the inserts returned
+ * (defaults included), so the rush's hottest path reads nothing back after its commit.
+ */
+async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody, priced: PricedOrder): Promise<OrderView> {
   const { menu, lines, totals, tipCents } = priced;
   const due = amountDueCents(totals.totalCents, tipCents);
   const cash = body.payment.method === 'cash' ? body.payment : null;
@@ -44,7 +48,7 @@ async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody,
     const shift = await trx('shifts').where({ location_id: user.locationId }).whereNull('closed_at').first('id');
     await lockCafe(trx, user.locationId); // orders taken at once get numbers one after another
     const last = await trx('orders').where({ location_id: user.locationId, business_date: day }).max<{ n: number | null }>({ n: 'number' }).first();
-    const [{ id: orderId }] = await trx('orders')
+    const [order] = await trx('orders')
       .insert({
         location_id: user.locationId,
         shift_id: shift?.id ?? null,
@@ -70,17 +74,31 @@ async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody,
           ? { ...cashColumns(due, cash.tenderedCents), ...settledColumns(barDrinks > 0, at) }
           : { payment_method: body.payment.method, status: 'pending', payment_status: 'unpaid' }),
       })
-      .returning('id');
-    await trx('order_items').insert(
-      lines.map((l, i) => ({
-        ...orderItemRow(l, orderId, i + 1),
-        status: l.station === 'bar' ? 'queued' : 'done',
-      })),
-    );
-    if (cash) await trx('payments').insert(cashPayment(orderId, due, cash.tenderedCents, at));
-    const ticket = await loadTicket(trx, orderId);
+      .returning('*');
+    const items = await trx('order_items')
+      .insert(
+        lines.map((l, i) => ({
+          ...orderItemRow(l, order.id, i + 1),
+          status: l.station === 'bar' ? 'queued' : 'done',
+        })),
+      )
+      .returning('*');
+    const payments = cash
+      ? await trx('payments')
+          .insert(cashPayment(order.id, due, cash.tenderedCents, at))
+          .returning('*')
+      : [];
+    const ticket = await loadTicket(trx, order.id);
     const event = await appendEvent(trx, user.locationId, cash ? 'order.fired' : 'order.taken', ticket, at, user.id);
-    return { result: orderId, events: [event] };
+    items.sort((a, b) => a.line_no - b.line_no);
+    const view = toOrderView(
+      order,
+      items,
+      undefined,
+      user.name,
+      payments.map((p) => paidPartOf(p, 0)),
+    );
+    return { result: view, events: [event] };
   });
 }
 
@@ -109,9 +127,9 @@ export async function createOrder(deps: Deps, user: SessionUser, body: CreateOrd
   const priced = await priceOrder(deps, user, body);
   // a split that doesn't cover the order is refused before anything is stored
   if (body.payment.method === 'split') requirePartsCover(body.payment.parts, amountDueCents(priced.totals.totalCents, priced.tipCents));
-  let orderId: number;
+  let order: OrderView;
   try {
-    orderId = await insertOrder(deps, user, body, priced);
+    order = await insertOrder(deps, user, body, priced);
   } catch (err) {
     // Two sends of one order raced: the loser answers with the winner's order.
     if (isUniqueViolation(err)) {
@@ -121,10 +139,10 @@ export async function createOrder(deps: Deps, user: SessionUser, body: CreateOrd
     throw err;
   }
   if (body.payment.method === 'card') {
-    return { order: await payByCard(deps, user, orderId, body.payment.paymentMethod), created: true };
+    return { order: await payByCard(deps, user, order.id, body.payment.paymentMethod), created: true };
   }
-  if (body.payment.method === 'split') return { order: await payInParts(deps, user, orderId, body.payment.parts), created: true };
-  return { order: await loadOrder(deps.db, orderId), created: true };
+  if (body.payment.method === 'split') return { order: await payInParts(deps, user, order.id, body.payment.parts), created: true };
+  return { order, created: true };
 }
 
 /** A card was declined and the customer pays cash instead: settle the waiting order and fire it. */

@@ -6,6 +6,7 @@ import { paidColumns, type PaidPart } from '@/domain/split-payment';
 import { amountDueCents } from '@/domain/tips';
 import { invalid } from '@server/domain-errors';
 import type { Db } from '@server/db/knex';
+import type { Row } from '@server/db/tables';
 
 /** The order's columns once it is paid and fired at `at`. */
 export function settledColumns(hasBarDrinks: boolean, at: string) {
@@ -65,16 +66,23 @@ export async function paidPartRows(trx: Db, orderId: number): Promise<(PaidPart 
     .orderBy('p.part')
     .select('p.id', 'p.part', 'p.method', 'p.amount_cents', 'p.tendered_cents', 'p.change_cents', 'p.provider_id')
     .select(trx.raw('(SELECT COALESCE(SUM(r.amount_cents), 0) FROM refunds r WHERE r.payment_id = p.id) AS refunded'));
-  return rows.map((r) => ({
+  return rows.map((r) => ({ ...paidPartOf(r, Number(r.refunded)), providerId: r.provider_id }));
+}
+
+/** A succeeded payment row as a paid part, given what has been refunded of it. */
+export function paidPartOf(
+  r: Pick<Row<'payments'>, 'id' | 'part' | 'method' | 'amount_cents' | 'tendered_cents' | 'change_cents'>,
+  refundedCents: number,
+): PaidPart {
+  return {
     paymentId: r.id,
     part: r.part,
     method: r.method,
     amountCents: r.amount_cents,
     tenderedCents: r.tendered_cents,
     changeCents: r.change_cents,
-    refundedCents: Number(r.refunded),
-    providerId: r.provider_id,
-  }));
+    refundedCents,
+  };
 }
 
 export const paidSum = (paid: readonly { amountCents: number }[]) => paid.reduce((sum, p) => sum + p.amountCents, 0);
