@@ -15,7 +15,7 @@ interface Kept {
 /** per database (tests run several servers in one process), per café */
 const kept = new WeakMap<Db, Map<number, Kept>>();
 
-export async function menuVersion(db: Db, locationId: number): Promise<number> {
+async function menuVersion(db: Db, locationId: number): Promise<number> {
   const row = await db('event_seqs').where({ location_id: locationId }).first('menu_version');
   return Number(row?.menu_version ?? 0);
 }

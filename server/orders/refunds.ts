@@ -41,9 +41,9 @@ export function planRefund(paid: PaidPart[], input: RefundInput) {
   const refundable = paidSum(paid) - paid.reduce((sum, p) => sum + p.refundedCents, 0);
   if (refundable <= 0) throw conflict('This order has been refunded in full already');
   const amount = input.amountCents ?? refundable;
-  // a drink's amount is the server's own: past what is left, another refund got there first
-  if (amount > refundable && input.orderItemId !== undefined) throw conflict('Another refund changed this order; look again');
   if (amount > refundable) {
+    // a drink's amount is the server's own: past what is left, another refund got there first
+    if (input.orderItemId !== undefined) throw conflict('Another refund changed this order; look again');
     throw invalid('That is more than is left to refund', [{ path: 'amountCents', message: `At most ${refundable} cents can be refunded` }]);
   }
   return refundPlan(paid, amount);
