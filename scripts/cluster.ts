@@ -33,11 +33,11 @@ function options() {
   return { processes, port };
 }
 
-/** One Jugline process (server/start.ts: builds first if there is no build), ready once it serves. */
+/** One Jugline process (the compiled server, as `npm start` runs it), ready once it serves. */
 function startProcess(env: NodeJS.ProcessEnv, port: number): Promise<ChildProcess> {
-  const child = fork(path.join(ROOT, 'server/start.ts'), [], {
+  const child = fork(path.join(ROOT, 'scripts/start.mjs'), [], {
     cwd: ROOT,
-    execArgv: ['--import', 'tsx'],
+    execArgv: ['--enable-source-maps'],
     env: { ...env, PORT: String(port) },
     stdio: ['ignore', 'pipe', 'pipe', 'ipc'],
   });

@@ -1,22 +1,45 @@
 // The one Knex instance: over the SQLite file (the default, one café), or over PostgreSQL when
 // the target is a postgres:// URL (DATABASE_URL, a group of cafés).
+import { readdirSync } from 'node:fs';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import knexFactory, { type Knex } from 'knex';
 import { isPostgresUrl } from './dialect';
+import { PROJECT_ROOT } from '@server/root';
 
-const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
+// `npm start` runs the server compiled ahead of time (dist/app, scripts/build-server.ts), where
+// this module is part of a .js bundle; tests, scripts and `npm run dev` run the sources through tsx.
+const COMPILED = fileURLToPath(import.meta.url).endsWith('.js');
+const SOURCES = path.join(PROJECT_ROOT, 'migrations');
+const BUILT = path.join(PROJECT_ROOT, 'dist/app/migrations');
 
-export const migrationConfig: Knex.MigratorConfig = {
-  directory: path.join(root, 'migrations'),
-  extension: 'ts',
-  loadExtensions: ['.ts'],
-};
+/**
+ * The migrations, named by their source file (`…_menu.ts`) either way: that name is what the
+ * knex_migrations table records, so a database migrated by the sources is current for the
+ * compiled server and the other way round. The compiled server imports the .js beside its bundle.
+ */
+class Migrations implements Knex.MigrationSource<{ file: string; directory: string }> {
+  async getMigrations() {
+    return readdirSync(SOURCES)
+      .filter((f) => f.endsWith('.ts'))
+      .sort()
+      .map((file) => ({ file, directory: SOURCES }));
+  }
+  getMigrationName(m: { file: string }) {
+    return m.file;
+  }
+  getMigration(m: { file: string }): Promise<Knex.Migration> {
+    const file = COMPILED ? path.join(BUILT, m.file.replace(/\.ts$/, '.js')) : path.join(SOURCES, m.file);
+    return import(pathToFileURL(file).href);
+  }
+}
 
-/** How long a statement waits for another process's write lock before SQLite answers SQLITE_BUSY (PostgreSQL: lock_timeout). */
+export const migrationConfig: Knex.MigratorConfig = { migrationSource: new Migrations() };
+
 /** What a read or write runs on: the database, or a command's transaction. */
 export type Db = Knex | Knex.Transaction;
 
+/** How long a statement waits for another process's write lock before SQLite answers SQLITE_BUSY (PostgreSQL: lock_timeout). */
 export const DEFAULT_BUSY_TIMEOUT_MS = 5000;
 
 export interface DbOptions {

@@ -3,14 +3,15 @@
 import { existsSync, readFileSync, symlinkSync } from 'node:fs';
 import type { Server } from 'node:http';
 import path from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
+import { pathToFileURL } from 'node:url';
 import express, { type Request, type RequestHandler } from 'express';
 import type { RenderResult } from '@/entry-server';
 import type { Api } from '@/reads';
 import type { Deps } from '@server/deps';
 import { serverApi } from '@server/reads';
+import { PROJECT_ROOT } from '@server/root';
 
-export const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
+export const ROOT = PROJECT_ROOT;
 // JUGLINE_DIST: another build folder (e.g. two builds side by side on one machine)
 const DIST = path.resolve(ROOT, process.env.JUGLINE_DIST ?? 'dist');
 export const CLIENT_DIR = path.join(DIST, 'client');

@@ -14,7 +14,7 @@ export const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
 /** Builds dist/ once if it is missing (`npm run test:faults` normally runs after `npm run build`). */
 export function ensureBuilt() {
-  if (existsSync(path.join(ROOT, 'dist/client')) && existsSync(path.join(ROOT, 'dist/server'))) return;
+  if (['dist/client', 'dist/server', 'dist/app'].every((d) => existsSync(path.join(ROOT, d)))) return;
   const build = spawnSync('npm', ['run', 'build'], { cwd: ROOT, encoding: 'utf8' });
   if (build.status !== 0) throw new Error(`dist/ is missing and \`npm run build\` failed:\n${build.stdout}\n${build.stderr}`);
 }
@@ -39,6 +39,8 @@ export class BuiltServer {
     readonly port: number,
     /** More environment, e.g. DATABASE_URL and REDIS_URL for one process of a group. */
     private readonly env: NodeJS.ProcessEnv = {},
+    /** serve: e2e/serve.ts through tsx; start: `npm start`'s own script, the compiled server on plain node. */
+    private readonly via: 'serve' | 'start' = 'serve',
   ) {}
 
   get url() {
@@ -57,10 +59,14 @@ export class BuiltServer {
     );
 
   async start() {
-    const child = spawn(path.join(ROOT, 'node_modules/.bin/tsx'), ['e2e/serve.ts'], {
+    const [command, args, env] =
+      this.via === 'serve'
+        ? [path.join(ROOT, 'node_modules/.bin/tsx'), ['e2e/serve.ts'], { E2E_PORT: String(this.port), E2E_DATABASE_FILE: this.databaseFile }]
+        : [process.execPath, ['scripts/start.mjs'], { NODE_ENV: 'production', PORT: String(this.port), HOST: '127.0.0.1', DATABASE_FILE: this.databaseFile }];
+    const child = spawn(command, args, {
       cwd: ROOT,
       detached: true, // its own process group: tsx and the node it runs die together
-      env: { ...process.env, ...this.env, E2E_PORT: String(this.port), E2E_DATABASE_FILE: this.databaseFile },
+      env: { ...process.env, NODE_OPTIONS: '', ...this.env, ...env },
       stdio: ['ignore', 'pipe', 'pipe'],
     });
     child.stdout?.on('data', (d) => (this.log += d));
