@@ -8,6 +8,7 @@ import type { Config } from './config';
 import { migrationConfig } from './db/knex';
 import { HttpError, errorHandler } from './errors';
 import { requestLogger } from './logging';
+import { admission } from './admission';
 import { sameOriginOnly, securityHeaders } from './security';
 import type { Logger } from 'pino';
 import { createInProcessHub, type Hub } from './realtime/hub';
@@ -35,7 +36,7 @@ import type { PageRenderer } from './ssr/pages';
 
 export interface AppOptions {
   db: Knex;
-  config: Pick<Config, 'sessionSecret' | 'env'> & Partial<Pick<Config, 'sessionIdleMinutes' | 'trustProxy'>>;
+  config: Pick<Config, 'sessionSecret' | 'env'> & Partial<Pick<Config, 'sessionIdleMinutes' | 'trustProxy' | 'maxRequestsInFlight'>>;
   clock?: Clock;
   hub?: Hub;
   /** Sign-outs and person switches; several processes share them through Redis (redis-hub.ts). */
@@ -131,6 +132,8 @@ export function createApp(opts: AppOptions): App {
   // the reads (src/reads.ts) last: a download such as /reports/shift/:id.csv must be matched first
   routes.push(...readRoutes(deps));
 
+  // first, so a request refused at a rush costs neither a body read nor a session read
+  if (opts.config.maxRequestsInFlight) app.use('/api', admission(opts.config.maxRequestsInFlight));
   // The payment webhook is verified against its exact bytes, so it alone keeps a raw body.
   const json = express.json({ limit: '32kb' });
   const raw = express.raw({ type: 'application/json', limit: '256kb' });

@@ -8,6 +8,7 @@ import { z } from 'zod';
 const bool = z.enum(['true', 'false', '1', '0', 'yes', 'no'], { error: 'use true or false' }).transform((v) => v === 'true' || v === '1' || v === 'yes');
 
 const IDLE_MINUTES = 'use whole minutes, 1 to 480';
+const IN_FLIGHT = 'use a whole number of requests, 1 to 10000';
 
 const envSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
@@ -46,6 +47,8 @@ const envSchema = z.object({
   // from X-Forwarded-For; unset: only a proxy on this machine (loopback) is trusted
   TRUST_PROXY: z.string().min(1).optional(),
   // set: live events reach the screens of every process through Redis (several processes)
+  // API requests one process works on at once; more are answered 503 with Retry-After (admission.ts)
+  MAX_REQUESTS_IN_FLIGHT: z.coerce.number({ error: IN_FLIGHT }).int(IN_FLIGHT).min(1, IN_FLIGHT).max(10_000, IN_FLIGHT).default(16),
   REDIS_URL: z
     .string()
     .regex(/^rediss?:\/\/./, 'use redis://host:6379 or redis://:password@host:6379/0')
@@ -79,6 +82,8 @@ export interface Config {
   redisUrl?: string;
   /** Express's `trust proxy`: the load balancer's address; unset: loopback. */
   trustProxy?: string;
+  /** API requests at once before the rest are refused with 503 (admission.ts); unset: no limit (tests). */
+  maxRequestsInFlight?: number;
   /** SQLite's busy timeout; unset: 5 s (db/knex.ts). Only tests shorten it, to wait less per refusal. */
   dbBusyTimeoutMs?: number;
 }
@@ -122,6 +127,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     mediaDir: e.MEDIA_DIR ? path.resolve(e.MEDIA_DIR) : undefined,
     redisUrl: e.REDIS_URL,
     trustProxy: e.TRUST_PROXY,
+    maxRequestsInFlight: e.MAX_REQUESTS_IN_FLIGHT,
   };
 }
 

@@ -46,6 +46,8 @@ export async function startTestServer(
     redisUrl?: string;
     /** a second process of the same café: that server's database and session secret */
     sharing?: TestServer;
+    /** load shedding (server/admission.ts); unset: no limit */
+    maxRequestsInFlight?: number;
   } = {},
 ): Promise<TestServer> {
   const dir = opts.sharing?.dir ?? mkdtempSync(path.join(os.tmpdir(), 'jugline-test-'));
@@ -62,6 +64,7 @@ export async function startTestServer(
     dbBusyTimeoutMs: opts.dbBusyTimeoutMs,
     smtpUrl: opts.smtpUrl,
     redisUrl: opts.redisUrl,
+    maxRequestsInFlight: opts.maxRequestsInFlight,
   };
   const running = await startServer(config, {
     pages: opts.pages ?? 'none',
