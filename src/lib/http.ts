@@ -11,9 +11,27 @@ export class ApiError extends Error {
     readonly code: string,
     message: string,
     readonly details?: ErrorDetail[],
+    /** How long the server asked to be left alone (its Retry-After), when it said. */
+    readonly retryAfterMs?: number,
   ) {
     super(message);
   }
+}
+
+/**
+ * A Retry-After header as ms from `now`, or undefined when there is none or it can't be read.
+ * RFC 9110 §10.2.3: Retry-After = HTTP-date / delay-seconds. An HTTP-date is always UTC and starts
+ * with the day's name in all three forms a recipient must accept (§5.6.7); the obsolete asctime
+ * form doesn't say GMT, and Date.parse would take it as local time. Requiring the name first also
+ * keeps Date.parse's leniency ("1.5" is a date to it) out.
+ */
+export function retryAfterMs(header: string | null, now: number): number | undefined {
+  const value = header?.trim();
+  if (!value) return undefined;
+  if (/^\d+$/.test(value)) return Number(value) * 1000;
+  if (!/^[A-Za-z]{3}/.test(value)) return undefined;
+  const at = Date.parse(value.endsWith('GMT') ? value : `${value} GMT`);
+  return Number.isNaN(at) ? undefined : Math.max(0, at - now);
 }
 
 /** To sign-in, coming back here after; not from sign-in itself or a welcome link (both signed out). */
@@ -87,7 +105,13 @@ export async function http<T>(method: string, path: string, body?: unknown, opts
     // password or PIN, which the form shows itself.
     if (res.status === 401 && !path.startsWith('/session')) goToSignIn();
     const e = data?.error ?? {};
-    throw new ApiError(res.status, e.code ?? 'internal', e.message ?? `Request failed (${res.status})`, e.details);
+    throw new ApiError(
+      res.status,
+      e.code ?? 'internal',
+      e.message ?? `Request failed (${res.status})`,
+      e.details,
+      retryAfterMs(res.headers.get('retry-after'), Date.now()),
+    );
   }
   return data as T;
 }

@@ -6,13 +6,13 @@ import { act, render, renderHook, screen, waitFor } from '@testing-library/react
 import userEvent from '@testing-library/user-event';
 import { createStore, values } from 'idb-keyval';
 import type { ReactNode } from 'react';
-import { afterEach, describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import { createOrderBody, type CreateOrderBody } from '@/domain/schemas';
 import type { OrderView } from '@/domain/types';
 import { OfflineOrdersBanner } from '@/features/counter/offline-orders-banner';
 import { listOfflineOrders, putOfflineOrder, removeOfflineOrder, type OfflineOrder } from '@/features/counter/offline-orders';
 import { useOfflineOrders, type SendOrderFn } from '@/features/counter/use-offline-orders';
-import { ApiError } from '@/lib/http';
+import { ApiError, http } from '@/lib/http';
 import { uuid } from '@/lib/uuid';
 
 // Read IndexedDB itself, not through the module, to be sure the order is really stored there
@@ -57,6 +57,8 @@ function wrapper({ children }: { children: ReactNode }) {
 }
 
 afterEach(async () => {
+  vi.useRealTimers();
+  vi.unstubAllGlobals();
   for (const o of await listOfflineOrders()) await removeOfflineOrder(o.clientOrderId);
 });
 
@@ -147,6 +149,116 @@ describe('useOfflineOrders', () => {
     act(() => void window.dispatchEvent(new Event('online')));
     await waitFor(() => expect(result.current.orders).toEqual([]));
     expect(server.bodies.map((b) => b.clientOrderId)).toEqual([left.clientOrderId, left.clientOrderId]);
+  });
+});
+
+// An overloaded server answers 503 with Retry-After (RFC 9110 §10.2.3); the queue waits at least that
+// long before its next resend, whatever its own backoff says.
+describe('useOfflineOrders and Retry-After', () => {
+  const busy = (retryAfterMs: number) => new ApiError(503, 'unavailable', 'The database is busy; try again in a moment', undefined, retryAfterMs);
+  // The fake clock moves setTimeout and Date only: fake-indexeddb works on setImmediate, left real.
+  const fakeClock = () => vi.useFakeTimers({ toFake: ['setTimeout', 'clearTimeout', 'Date'] });
+  const realSetTimeout = globalThis.setTimeout;
+  /** Let IndexedDB finish what the last tick started; the fake clock stands still meanwhile. */
+  const settle = () => act(() => new Promise<void>((r) => realSetTimeout(r, 20)));
+  async function tick(ms: number) {
+    await act(() => vi.advanceTimersByTimeAsync(ms));
+    await settle();
+  }
+
+  /** The resends, each with the fake time it was made at (ms from the start). */
+  function timedResends(server: ReturnType<typeof scriptedServer>) {
+    const start = Date.now();
+    const at: number[] = [];
+    const resend: SendOrderFn = (b) => {
+      at.push(Date.now() - start);
+      return server.send(b);
+    };
+    return { resend, at };
+  }
+
+  it('a first send answered 503 with Retry-After: 3 is resent no sooner than 3 s later, and lands once', async () => {
+    fakeClock();
+    const first = scriptedServer(busy(3_000));
+    const later = scriptedServer('ok');
+    const resends = timedResends(later);
+    // its own backoff alone would resend after 1 ms
+    const { result } = renderHook(() => useOfflineOrders(first.send, { resend: resends.resend, retryDelayMs: () => 1 }), { wrapper });
+    const order = body('Wren Ashby');
+    await act(async () => {
+      expect((await result.current.sendOrQueue(order)).queued).toBe(true);
+    });
+
+    await tick(2_999);
+    expect(resends.at).toEqual([]);
+    expect(result.current.orders.map((o) => o.clientOrderId)).toEqual([order.clientOrderId]);
+
+    for (let i = 0; i < 20 && result.current.orders.length > 0; i++) await tick(250);
+    expect(result.current.orders).toEqual([]);
+    expect(await inIndexedDb()).toEqual([]);
+    expect(resends.at).toHaveLength(1);
+    expect(resends.at[0]).toBeGreaterThanOrEqual(3_000);
+    expect(later.bodies.map((b) => b.clientOrderId)).toEqual([order.clientOrderId]);
+  });
+
+  it('a resend answered 503 with Retry-After: 3 holds the next round at least 3 s, then the order lands once', async () => {
+    fakeClock();
+    const first = scriptedServer(offline());
+    const later = scriptedServer(busy(3_000), 'ok');
+    const resends = timedResends(later);
+    const { result } = renderHook(() => useOfflineOrders(first.send, { resend: resends.resend, retryDelayMs: () => 1 }), { wrapper });
+    const order = body('Robin Vale');
+    await act(async () => {
+      await result.current.sendOrQueue(order);
+    });
+
+    for (let i = 0; i < 40 && result.current.orders.length > 0; i++) await tick(250);
+    expect(result.current.orders).toEqual([]);
+    expect(resends.at).toHaveLength(2); // the 503, then the one that landed
+    expect(resends.at[1] - resends.at[0]).toBeGreaterThanOrEqual(3_000);
+    expect(later.bodies.map((b) => b.clientOrderId)).toEqual([order.clientOrderId, order.clientOrderId]);
+
+    await tick(10_000);
+    expect(resends.at).toHaveLength(2); // nothing left to send
+  });
+
+  it('"Send now" still sends at once inside the Retry-After, and the waiting round does not send it again', async () => {
+    fakeClock();
+    const first = scriptedServer(busy(3_000));
+    const later = scriptedServer('ok');
+    const resends = timedResends(later);
+    const { result } = renderHook(() => useOfflineOrders(first.send, { resend: resends.resend, retryDelayMs: () => 1 }), { wrapper });
+    await act(async () => {
+      await result.current.sendOrQueue(body('Kit'));
+    });
+
+    act(() => result.current.retryNow());
+    await settle();
+    expect(result.current.orders).toEqual([]);
+    expect(resends.at).toEqual([0]);
+
+    await tick(10_000);
+    expect(resends.at).toEqual([0]);
+  });
+
+  it('http() puts the Retry-After of a refused request on the ApiError', async () => {
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(() =>
+        Promise.resolve(
+          Response.json(
+            { error: { code: 'unavailable', message: 'The database is busy; try again in a moment' } },
+            { status: 503, headers: { 'Retry-After': '5' } },
+          ),
+        ),
+      ),
+    );
+    await expect(http('POST', '/orders', body('Ada'))).rejects.toMatchObject({ status: 503, code: 'unavailable', retryAfterMs: 5_000 });
+
+    vi.stubGlobal('fetch', () => Promise.resolve(Response.json({ error: { code: 'internal', message: 'Bad gateway' } }, { status: 502 })));
+    const err = await http('POST', '/orders', body('Ada')).catch((e: unknown) => e);
+    expect(err).toBeInstanceOf(ApiError);
+    expect((err as ApiError).retryAfterMs).toBeUndefined();
   });
 });
 

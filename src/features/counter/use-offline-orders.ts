@@ -1,8 +1,9 @@
 // The Counter's offline orders. An order the server can't be reached for (no connection, or a gateway
 // answering 502/503/504) is kept in this browser and resent with the same clientOrderId: on a
-// timer with backoff, when the browser says it is back online, when the live socket reconnects,
-// and when the cashier taps "Send now". An order the server refuses (4xx) is never queued; one
-// that was queued and is refused later stays, with the server's message, until discarded.
+// timer with backoff, never sooner than a Retry-After the server gave; when the browser says it is
+// back online, when the live socket reconnects, and when the cashier taps "Send now". An order the
+// server refuses (4xx) is never queued; one that was queued and is refused later stays, with the
+// server's message, until discarded.
 // A card order is never sent by itself: a card is charged with the customer standing there, and
 // meanwhile they may have paid cash. It is held until the cashier chooses (settleHeld).
 import { useQueryClient } from '@tanstack/react-query';
@@ -64,6 +65,11 @@ const postOrder: SendOrderFn = (body) => send.placeOrder(body);
 // 2 s, 4 s, 8 s … up to 30 s, with jitter so a room of tablets doesn't resend at once.
 const defaultDelay = (failures: number) => Math.min(30_000, 1000 * 2 ** failures) * (0.75 + Math.random() / 2);
 
+// A longer delay makes setTimeout fire at once.
+const MAX_TIMER_MS = 2 ** 31 - 1;
+
+const retryAfterOf = (err: unknown) => (err instanceof ApiError ? (err.retryAfterMs ?? 0) : 0);
+
 const errorOf = (err: unknown): OfflineOrder['lastError'] =>
   err instanceof ApiError
     ? { status: err.status, code: err.code, message: err.message }
@@ -79,7 +85,15 @@ export function useOfflineOrders(send: SendOrderFn = postOrder, options: Offline
   const [resending, setResending] = useState(false);
   const fns = useRef({ send, resend: options.resend ?? postOrder, delay: options.retryDelayMs ?? defaultDelay });
   fns.current = { send, resend: options.resend ?? postOrder, delay: options.retryDelayMs ?? defaultDelay };
-  const loop = useRef({ running: false, again: false, failures: 0, timer: undefined as ReturnType<typeof setTimeout> | undefined, alive: false });
+  const loop = useRef({
+    running: false,
+    again: false,
+    failures: 0,
+    /** The Retry-After of the last failure (0 if it gave none): the next automatic round waits at least this. */
+    retryAfterMs: 0,
+    timer: undefined as ReturnType<typeof setTimeout> | undefined,
+    alive: false,
+  });
 
   const refresh = useCallback(async () => {
     const list = await listOfflineOrders();
@@ -94,7 +108,11 @@ export function useOfflineOrders(send: SendOrderFn = postOrder, options: Offline
     clearTimeout(l.timer);
     l.timer = undefined;
     if (!l.alive || !list.some((o) => o.state === 'waiting')) return; // held card orders wait for the cashier
-    l.timer = setTimeout(() => void flushRef.current(), fns.current.delay(Math.max(1, l.failures)));
+    const backoff = fns.current.delay(Math.max(1, l.failures));
+    // An overloaded server said when to come back: not sooner. The jitter that keeps a room of
+    // tablets from resending together goes only on top of that time.
+    const floor = l.retryAfterMs * (1 + Math.random() / 4);
+    l.timer = setTimeout(() => void flushRef.current(), Math.min(MAX_TIMER_MS, Math.max(backoff, floor)));
   }, []);
 
   /** One round: resend every waiting order in the order taken; stop at the first that can't get through. */
@@ -111,6 +129,7 @@ export function useOfflineOrders(send: SendOrderFn = postOrder, options: Offline
     try {
       do {
         l.again = false;
+        l.retryAfterMs = 0;
         let blocked = false;
         for (const order of (await listOfflineOrders()).filter((o) => o.state === 'waiting' && !takesCard(o.body.payment))) {
           try {
@@ -125,6 +144,7 @@ export function useOfflineOrders(send: SendOrderFn = postOrder, options: Offline
               continue;
             }
             await putOfflineOrder({ ...order, attempts: order.attempts + 1, lastError: errorOf(err) });
+            l.retryAfterMs = retryAfterOf(err);
             blocked = true;
             break;
           }
@@ -141,7 +161,13 @@ export function useOfflineOrders(send: SendOrderFn = postOrder, options: Offline
   }, [qc, refresh, schedule]);
   flushRef.current = flush;
 
-  /** A sign the server may be back: forget the backoff and try at once. */
+  /**
+   * A sign the server may be back: forget the backoff and try at once, Retry-After included.
+   * "Send now" is a person asking, with the customer in front of them; the 'online' event and a
+   * live socket reconnecting are news newer than the answer that set the wait. Each is one round,
+   * never a second send beside one in flight (one round at a time), and a server still overloaded
+   * answers with a new Retry-After that holds the automatic rounds after it.
+   */
   const retrySoon = useCallback(() => {
     loop.current.failures = 0;
     void flush();
@@ -183,6 +209,7 @@ export function useOfflineOrders(send: SendOrderFn = postOrder, options: Offline
           lastError: errorOf(err),
         };
         await putOfflineOrder(kept);
+        loop.current.retryAfterMs = retryAfterOf(err);
         const list = await refresh();
         if (!loop.current.running) schedule(list);
         return { queued: true, offlineOrder: kept };
@@ -225,7 +252,10 @@ export function useOfflineOrders(send: SendOrderFn = postOrder, options: Offline
         // cash was taken: it may go on its own now; a card stays held for the cashier
         const state = choice === 'cash' && isUnreachable(err) ? 'waiting' : 'held';
         await putOfflineOrder({ ...order, body: state === 'waiting' ? body : order.body, state, attempts: order.attempts + 1, lastError: errorOf(err) });
-        if (state === 'waiting') schedule(await refresh());
+        if (state === 'waiting') {
+          loop.current.retryAfterMs = retryAfterOf(err);
+          schedule(await refresh());
+        }
         return null;
       } finally {
         await refresh();
