@@ -36,7 +36,7 @@ import type { PageRenderer } from './ssr/pages';
 
 export interface AppOptions {
   db: Knex;
-  config: Pick<Config, 'sessionSecret' | 'env'> & Partial<Pick<Config, 'sessionIdleMinutes' | 'trustProxy' | 'maxRequestsInFlight'>>;
+  config: Pick<Config, 'sessionSecret' | 'env'> & Partial<Pick<Config, 'sessionIdleMinutes' | 'trustProxy' | 'maxRequestsInFlight' | 'maxLoopStallMs'>>;
   clock?: Clock;
   hub?: Hub;
   /** Sign-outs and person switches; several processes share them through Redis (redis-hub.ts). */
@@ -133,7 +133,14 @@ export function createApp(opts: AppOptions): App {
   routes.push(...readRoutes(deps));
 
   // first, so a request refused at a rush costs neither a body read nor a session read
-  if (opts.config.maxRequestsInFlight) app.use('/api', admission(opts.config.maxRequestsInFlight));
+  if (opts.config.maxRequestsInFlight) {
+    const gate = admission({
+      maxInFlight: opts.config.maxRequestsInFlight,
+      maxStallMs: opts.config.maxLoopStallMs ?? 0,
+      shedOnStall: (req) => req.method === 'POST' && req.path === '/orders',
+    });
+    app.use('/api', gate);
+  }
   // The payment webhook is verified against its exact bytes, so it alone keeps a raw body.
   const json = express.json({ limit: '32kb' });
   const raw = express.raw({ type: 'application/json', limit: '256kb' });

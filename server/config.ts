@@ -9,6 +9,7 @@ const bool = z.enum(['true', 'false', '1', '0', 'yes', 'no'], { error: 'use true
 
 const IDLE_MINUTES = 'use whole minutes, 1 to 480';
 const IN_FLIGHT = 'use a whole number of requests, 1 to 10000';
+const STALL = 'use whole milliseconds, 0 (never) to 60000';
 
 const envSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
@@ -49,6 +50,8 @@ const envSchema = z.object({
   // set: live events reach the screens of every process through Redis (several processes)
   // API requests one process works on at once; more are answered 503 with Retry-After (admission.ts)
   MAX_REQUESTS_IN_FLIGHT: z.coerce.number({ error: IN_FLIGHT }).int(IN_FLIGHT).min(1, IN_FLIGHT).max(10_000, IN_FLIGHT).default(16),
+  // a new order read after the event loop went this long without coming round is refused the same way; 0: never
+  MAX_LOOP_STALL_MS: z.coerce.number({ error: STALL }).int(STALL).min(0, STALL).max(60_000, STALL).default(100),
   REDIS_URL: z
     .string()
     .regex(/^rediss?:\/\/./, 'use redis://host:6379 or redis://:password@host:6379/0')
@@ -84,6 +87,8 @@ export interface Config {
   trustProxy?: string;
   /** API requests at once before the rest are refused with 503 (admission.ts); unset: no limit (tests). */
   maxRequestsInFlight?: number;
+  /** A new order read after the event loop stalled this long is refused with 503 (admission.ts); 0 or unset: never. */
+  maxLoopStallMs?: number;
   /** SQLite's busy timeout; unset: 5 s (db/knex.ts). Only tests shorten it, to wait less per refusal. */
   dbBusyTimeoutMs?: number;
 }
@@ -128,6 +133,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     redisUrl: e.REDIS_URL,
     trustProxy: e.TRUST_PROXY,
     maxRequestsInFlight: e.MAX_REQUESTS_IN_FLIGHT,
+    maxLoopStallMs: e.MAX_LOOP_STALL_MS,
   };
 }
 

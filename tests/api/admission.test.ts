@@ -112,3 +112,49 @@ describe('past the limit of requests in progress', () => {
     expect(await ordersNamed('Gone One')).toEqual([]);
   });
 });
+
+describe('when the event loop has not come round for a while', () => {
+  // On SQLite a command runs start to end without yielding, so a rush never shows as requests in
+  // progress at once: they wait unread while the loop works. Here one request blocks the loop as a
+  // long command would, while a second one already waits in the socket buffer.
+  it('refuses a request read after a stall past the limit (not one it is told to keep), and takes the next one once the loop is back', async () => {
+    const express = (await import('express')).default;
+    const { admission } = await import('@server/admission');
+    const app = express();
+    app.use(admission({ maxInFlight: 100, maxStallMs: 50, shedOnStall: (req) => req.path !== '/bump' }));
+    app.get('/slow', (_req, res) => {
+      const until = performance.now() + 120;
+      while (performance.now() < until); // the loop is stalled for 120 ms
+      res.json({ slow: true });
+    });
+    app.get('/quick', (_req, res) => res.json({ quick: true }));
+    app.get('/bump', (_req, res) => res.json({ bump: true }));
+    const listener = app.listen(0, '127.0.0.1');
+    await new Promise((r) => listener.once('listening', r));
+    const { port } = listener.address() as { port: number };
+    try {
+      const { connect } = await import('node:net');
+      const socket = connect(port, '127.0.0.1');
+      let text = '';
+      const answered = new Promise<string>((resolve) => {
+        socket.on('data', (d) => {
+          text += d;
+          if ((text.match(/\r\n\r\n\{[^}]*\}/g) ?? []).length === 4) resolve(text);
+        });
+      });
+      // two requests in one write (HTTP/1.1 pipelining): the server reads the second in the same
+      // round as the first, right after the first has stalled the loop
+      socket.write(['/slow', '/quick', '/slow', '/bump'].map((p) => `GET ${p} HTTP/1.1\r\nHost: x\r\n\r\n`).join(''));
+      const [slow, quick, , bump] = (await answered).split(/(?=HTTP\/1\.1 )/);
+      socket.destroy();
+      expect(slow).toMatch(/^HTTP\/1\.1 200/);
+      expect(quick).toMatch(/^HTTP\/1\.1 503/);
+      expect(quick).toMatch(/Retry-After: 2/i);
+      expect(bump, 'a request the stall does not refuse').toMatch(/^HTTP\/1\.1 200/);
+      const after = await fetch(`http://127.0.0.1:${port}/quick`);
+      expect(after.status).toBe(200);
+    } finally {
+      await new Promise((r) => listener.close(r));
+    }
+  });
+});

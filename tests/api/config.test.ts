@@ -67,11 +67,14 @@ describe('loadConfig', () => {
     expect(loadConfig({ DATABASE_FILE: file, TRUST_PROXY: '10.0.0.5' }).trustProxy).toBe('10.0.0.5');
   });
 
-  it('sheds API requests past 16 at once unless MAX_REQUESTS_IN_FLIGHT says otherwise', () => {
+  it('sheds API requests past 16 at once, and new orders after a 100 ms stall, unless told otherwise', () => {
     expect(loadConfig({ DATABASE_FILE: file }).maxRequestsInFlight).toBe(16);
     expect(loadConfig({ DATABASE_FILE: file, MAX_REQUESTS_IN_FLIGHT: '64' }).maxRequestsInFlight).toBe(64);
     expect(() => loadConfig({ DATABASE_FILE: file, MAX_REQUESTS_IN_FLIGHT: '0' })).toThrow(/MAX_REQUESTS_IN_FLIGHT: use a whole number of requests/);
     expect(() => loadConfig({ DATABASE_FILE: file, MAX_REQUESTS_IN_FLIGHT: 'lots' })).toThrow(/MAX_REQUESTS_IN_FLIGHT/);
+    expect(loadConfig({ DATABASE_FILE: file }).maxLoopStallMs).toBe(100);
+    expect(loadConfig({ DATABASE_FILE: file, MAX_LOOP_STALL_MS: '0' }).maxLoopStallMs).toBe(0);
+    expect(() => loadConfig({ DATABASE_FILE: file, MAX_LOOP_STALL_MS: '-1' })).toThrow(/MAX_LOOP_STALL_MS: use whole milliseconds/);
   });
 
   it('runs on PostgreSQL with DATABASE_URL, migrating at start-up only when asked', () => {
