@@ -2,6 +2,7 @@
 import { fork, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { compileServer } from '@scripts/build-server';
 import type { ProbeReading } from './probe';
 
 export const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
@@ -12,13 +13,36 @@ export interface ServerChild {
   stop(): Promise<void>;
 }
 
-/** Both servers run the same way: Node with tsx, --expose-gc so memory is read after a collection. */
+const compiled = new Map<string, Promise<string>>();
+
+/** The script compiled ahead of time as `npm start`'s server is (scripts/build-server.ts), beside it in <dist>/app. */
+function compile(script: string, dist: string): Promise<string> {
+  const out = path.join(dist, 'app');
+  const key = `${out}/${script}`;
+  if (!compiled.has(key)) {
+    compiled.set(
+      key,
+      compileServer(out, [`bench/${script}`]).then(() => path.join(out, 'bench', script.replace(/\.ts$/, '.js'))),
+    );
+  }
+  return compiled.get(key)!;
+}
+
+/**
+ * Both servers run the same way: compiled ahead of time, on plain Node as `npm start` runs
+ * Jugline, with --expose-gc so memory is read after a collection.
+ */
 export async function startChild(script: string, env: Record<string, string>): Promise<ServerChild> {
   let errors = '';
-  const child: ChildProcess = fork(path.join(ROOT, 'bench', script), [], {
+  const file = await compile(script, path.resolve(ROOT, env.JUGLINE_DIST ?? process.env.JUGLINE_DIST ?? 'dist'));
+  const child: ChildProcess = fork(file, [], {
     cwd: ROOT,
     // BENCH_PROFILE_DIR (--profile): a V8 CPU profile of each server process, written as it exits
-    execArgv: ['--import', 'tsx', '--expose-gc', ...(process.env.BENCH_PROFILE_DIR ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_PROFILE_DIR}`] : [])],
+    execArgv: [
+      '--enable-source-maps',
+      '--expose-gc',
+      ...(process.env.BENCH_PROFILE_DIR ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_PROFILE_DIR}`] : []),
+    ],
     // NODE_ENV as `npm start` sets it: React's production build renders the screens
     env: { ...process.env, NODE_ENV: 'production', ...env },
     stdio: ['ignore', 'ignore', 'pipe', 'ipc'],

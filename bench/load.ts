@@ -42,8 +42,8 @@ interface Counter {
   cookie?: string;
 }
 
-/** POST one order; resolves with the answer's status and body when it has fully arrived. */
-export function postOrder(url: string, counter: Counter, body: object): Promise<{ status: number; text: string }> {
+/** POST one order; resolves with the answer's status, body and Retry-After when it has fully arrived. */
+export function postOrder(url: string, counter: Counter, body: object): Promise<{ status: number; text: string; retryAfter?: string }> {
   const data = JSON.stringify(body);
   const u = new URL('/api/orders', url);
   return new Promise((resolve, reject) => {
@@ -63,7 +63,7 @@ export function postOrder(url: string, counter: Counter, body: object): Promise<
       (res) => {
         const chunks: Buffer[] = [];
         res.on('data', (c: Buffer) => chunks.push(c));
-        res.on('end', () => resolve({ status: res.statusCode ?? 0, text: Buffer.concat(chunks).toString() }));
+        res.on('end', () => resolve({ status: res.statusCode ?? 0, text: Buffer.concat(chunks).toString(), retryAfter: res.headers['retry-after'] }));
         res.on('error', reject);
       },
     );
@@ -311,6 +311,123 @@ export async function closedLoop(
     delivered: delivered / Math.max(1, names.length),
     loop: last.loop,
     cpuPerOrder: (last.cpuMs - first.cpuMs) / Math.max(1, done),
+  };
+}
+
+export interface OverloadResult {
+  rate: number;
+  seconds: number;
+  sent: number;
+  /** Answered 201 the first time: their POST → answer times. */
+  accepted: Summary;
+  /** Answered 503: their POST → answer times, and how many carried Retry-After. */
+  refused: Summary;
+  refusedWithRetryAfter: number;
+  /** Any other answer, or no answer (a refused or reset connection). */
+  errors: number;
+  firstErrors: string[];
+  /** The refused orders sent again after Retry-After with the same clientOrderId, as the Counter's queue does. */
+  resent: { rounds: number; placed: number; refusedAgain: number; alreadyThere: number; left: number };
+  /** Distinct orders the server answered, against distinct orders sent: equal when each was placed once. */
+  distinctOrders: number;
+  rssBefore: number;
+  rssAfter: number;
+  loop: ProbeReading['loop'];
+}
+
+/**
+ * Overload: an open loop at `rate` (twice what the closed loop reached) for `seconds`, each counter
+ * free to open as many connections as it needs, so the server, not the load generator, decides what
+ * waits. Then the refused orders go again after their Retry-After, as the Counter's queue sends
+ * them, until each is placed.
+ */
+export async function overload(h: Harness, opts: RunOptions): Promise<OverloadResult> {
+  const counters = h.counters.map((c) => ({ cookie: c.cookie, agent: new Agent({ keepAlive: true, maxSockets: 64 }) }));
+  const before = await h.server.probe({ gc: true, reset: true });
+  const total = Math.round(opts.rate * opts.seconds);
+  const accepted = new Samples();
+  const refusedTimes = new Samples();
+  const refused: { body: object; retryAfter: number }[] = [];
+  const ids = new Set<number>();
+  let withRetryAfter = 0;
+  let errors = 0;
+  const firstErrors: string[] = [];
+  const error = (what: string) => {
+    errors++;
+    if (firstErrors.length < 3) firstErrors.push(what.slice(0, 200));
+  };
+  const sends: Promise<void>[] = [];
+  const start = performance.now() + 20;
+  for (let k = 0; k < total; k++) {
+    const due = start + (k * 1000) / opts.rate;
+    const wait = due - performance.now();
+    if (wait > 1) await sleep(wait);
+    const { body } = orderBody(h, opts, k);
+    sends.push(
+      postOrder(h.url, counters[k % counters.length], body).then(
+        ({ status, text, retryAfter }) => {
+          const took = performance.now() - due;
+          if (status === 201) {
+            accepted.push(took);
+            ids.add((JSON.parse(text) as { order: { id: number } }).order.id);
+          } else if (status === 503) {
+            refusedTimes.push(took);
+            if (retryAfter) withRetryAfter++;
+            refused.push({ body, retryAfter: Number(retryAfter ?? 1) });
+          } else error(`${status} ${text}`);
+        },
+        (err: Error) => error(err.message),
+      ),
+    );
+  }
+  await Promise.all(sends);
+  const during = await h.server.probe();
+  // the Counter's queue: wait what the server said, send again (same clientOrderId), until placed
+  const resent = { rounds: 0, placed: 0, refusedAgain: 0, alreadyThere: 0, left: refused.length };
+  let waiting = refused;
+  while (waiting.length && resent.rounds < 20) {
+    resent.rounds++;
+    await sleep(Math.max(...waiting.map((w) => w.retryAfter)) * 1000);
+    const next: typeof waiting = [];
+    // a room of counters, one order at a time each
+    await Promise.all(
+      counters.map(async (counter, c) => {
+        for (let i = c; i < waiting.length; i += counters.length) {
+          const { status, text, retryAfter } = await postOrder(h.url, counter, waiting[i].body).catch((err: Error) => ({
+            status: 0,
+            text: err.message,
+            retryAfter: undefined,
+          }));
+          if (status === 201 || status === 200) {
+            if (status === 201) resent.placed++;
+            else resent.alreadyThere++; // a refused order the server had kept after all
+            ids.add((JSON.parse(text) as { order: { id: number } }).order.id);
+          } else if (status === 503) {
+            resent.refusedAgain++;
+            next.push({ body: waiting[i].body, retryAfter: Number(retryAfter ?? 1) });
+          } else error(`resend: ${status} ${text}`);
+        }
+      }),
+    );
+    waiting = next;
+  }
+  resent.left = waiting.length;
+  const after = await h.server.probe({ gc: true });
+  for (const c of counters) c.agent.destroy();
+  return {
+    rate: opts.rate,
+    seconds: opts.seconds,
+    sent: total,
+    accepted: summarize(accepted.values()),
+    refused: summarize(refusedTimes.values()),
+    refusedWithRetryAfter: withRetryAfter,
+    errors,
+    firstErrors,
+    resent,
+    distinctOrders: ids.size,
+    rssBefore: before.rss,
+    rssAfter: after.rss,
+    loop: during.loop,
   };
 }
 

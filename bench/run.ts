@@ -3,11 +3,14 @@
 // One run, on fresh databases (SQLite files in a temp folder, or with --db postgres databases in a
 // throwaway PostgreSQL cluster), against the production build (built first when the folder has none).
 // The floor always runs on SQLite: it is the fixed yardstick both runs are read against.
-//   1. order → screens: Jugline, then the floor (the same libraries bare), under the same load;
+//   1. order → screens: Jugline, then the floor (the same libraries bare), under the same load; a
+//      closed loop for the most each takes; on Jugline, twice that as an open loop (overload);
 //   2. a bigger socket count on both (--big; 0 leaves it out);
 //   3. /bar server-rendered with 20, 100 and 300 open drinks, Pulse and the reports over a year;
 //   4. one sign-in storming the live socket with resumes while /healthz is timed (bench/storm.ts);
-//   5. client weight per screen from the build manifest.
+//   5. `npm start` → /readyz, first start and restarts (bench/startup.ts);
+//   6. client weight per screen from the build manifest.
+// Both servers run compiled ahead of time on plain Node, as `npm start` runs Jugline (bench/child.ts).
 // --storm-only runs step 4 alone on a fresh server (about 30 s) and writes nothing.
 // Prints one table and writes it into BENCHMARKS.md between its markers.
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -23,7 +26,22 @@ import { prepareDatabase } from '@server/server';
 import { ROOT, startChild, type ServerChild } from './child';
 import { benchDatabases, type BenchDatabases, type BenchDb } from './databases';
 import type { OrderTemplate } from './floor-server';
-import { closedLoop, closeHarness, connectMeasured, harness, openLoop, signIn, type Harness, type MemoryReading, type OrderBody, type RunResult } from './load';
+import {
+  closedLoop,
+  closeHarness,
+  connectMeasured,
+  harness,
+  openLoop,
+  overload,
+  signIn,
+  type Harness,
+  type MemoryReading,
+  type OrderBody,
+  type OverloadResult,
+  type RunResult,
+} from './load';
+import { startupTimes } from './startup';
+import { buildServer } from '@scripts/build-server';
 import { fillOpenDrinks, historyEndpoints, renderBar, type Timed } from './pages';
 import { between, putBetween, RESULTS } from './blocks';
 import { orderBodies, type MenuItem } from './bodies';
@@ -99,12 +117,15 @@ function options() {
 }
 
 async function ensureBuild(dist: string) {
-  const built = ['client/index.html', 'client/.vite/manifest.json', 'server/entry-server.js'].every((f) => existsSync(path.join(dist, f)));
+  const built = ['client/index.html', 'client/.vite/manifest.json', 'server/entry-server.js', 'app/server/index.js'].every((f) =>
+    existsSync(path.join(dist, f)),
+  );
   if (built) return false;
   console.log(`No complete build in ${dist} — building it…`);
   const { build } = await import('vite');
   await build({ root: ROOT, logLevel: 'warn', build: { outDir: path.join(dist, 'client'), emptyOutDir: true } });
   await build({ root: ROOT, logLevel: 'warn', build: { ssr: 'src/entry-server.tsx', outDir: path.join(dist, 'server'), emptyOutDir: true } });
+  await buildServer(dist);
   return true;
 }
 
@@ -156,6 +177,8 @@ export interface SideResult {
   memory: MemoryReading;
   saturation: Awaited<ReturnType<typeof closedLoop>>;
   big?: { run: RunResult; memory: MemoryReading };
+  /** Jugline only: twice the closed loop's throughput, open loop (the floor sheds nothing). */
+  overload?: OverloadResult;
 }
 
 type O = ReturnType<typeof options>;
@@ -221,8 +244,16 @@ async function orderToScreens(
   }
   const saturation = await closedLoop(h, run, 5);
   console.log(`  closed loop, ${o.counters} counters: ${saturation.throughput.toFixed(0)} orders/s`);
+  let over: OverloadResult | undefined;
+  if (tag === 'Jug') {
+    over = await overload(h, { ...run, rate: Math.round(2 * saturation.throughput), seconds: 6 });
+    console.log(
+      `  overload at ${over.rate} orders/s: ${over.accepted.n} taken (p99 ${over.accepted.p99.toFixed(0)} ms), ${over.refused.n} refused with 503, ${over.errors} errors; ` +
+        `${over.resent.placed} placed later in ${over.resent.rounds} rounds`,
+    );
+  }
   await closeHarness(h);
-  return { h, result: { main, memory, saturation, big } satisfies SideResult };
+  return { h, result: { main, memory, saturation, big, overload: over } satisfies SideResult };
 }
 
 async function main() {
@@ -296,6 +327,13 @@ async function main() {
     await hist.stop();
     children.pop();
 
+    // 4. npm start → /readyz
+    console.log('npm start → /readyz…');
+    const startup = await startupTimes(o.dist, tmp, o.port + 3);
+    console.log(
+      `  first start ${startup.first.toFixed(0)} ms, restart median ${startup.restart.p50.toFixed(0)} ms (sources through tsx: ${startup.sources.p50.toFixed(0)} ms)`,
+    );
+
     const results: BenchResults = {
       machine: {
         cores: os.cpus().length,
@@ -316,6 +354,7 @@ async function main() {
       bar,
       endpoints,
       storm,
+      startup,
       weights,
       seconds: (performance.now() - started) / 1000,
     };

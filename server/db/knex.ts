@@ -9,9 +9,11 @@ import { PROJECT_ROOT } from '@server/root';
 
 // `npm start` runs the server compiled ahead of time (dist/app, scripts/build-server.ts), where
 // this module is part of a .js bundle; tests, scripts and `npm run dev` run the sources through tsx.
-const COMPILED = fileURLToPath(import.meta.url).endsWith('.js');
+const HERE = fileURLToPath(import.meta.url);
+const COMPILED = HERE.endsWith('.js');
 const SOURCES = path.join(PROJECT_ROOT, 'migrations');
-const BUILT = path.join(PROJECT_ROOT, 'dist/app/migrations');
+// beside the bundle: <dist>/app/server/index.js (or the bench's <dist>/app/bench/…) → <dist>/app/migrations
+const BUILT = path.resolve(path.dirname(HERE), '../migrations');
 
 /**
  * The migrations, named by their source file (`…_menu.ts`) either way: that name is what the
