@@ -63,13 +63,15 @@ export default defineConfig({
           include: ['tests/api/**/*.test.ts', 'tests/realtime/**/*.test.ts'],
           // files whose subject is not the database: the input fuzzers (what they send is refused
           // before any SQL runs; they take a minute), settings, the error mapping, the request log
-          // (a SQLite file of its own), the row types (read from SQLite's schema) and the throttles' Redis counts
+          // (a SQLite file of its own), the row types (read from SQLite's schema), SQLite's kept prepared
+          // statements and the throttles' Redis counts
           exclude: [
             'tests/api/bad-input.property.test.ts',
             'tests/api/control-characters.property.test.ts',
             'tests/api/config.test.ts',
             'tests/api/domain-errors.test.ts',
             'tests/api/logging.test.ts',
+            'tests/api/prepared-statements.test.ts',
             'tests/api/table-types.test.ts',
             'tests/realtime/shared-limits.test.ts',
           ],
