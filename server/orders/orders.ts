@@ -19,7 +19,7 @@ import { appendEvent, lockCafe, runCommand } from '@server/events';
 import { priceOrder, type PricedOrder } from './order-pricing';
 import { quoteForNewOrder } from './quotes';
 import { loadOrder, toOrderView } from './order-views';
-import { loadTicket } from '@server/tickets/ticket-views';
+import { loadTicket, loadTickets } from '@server/tickets/ticket-views';
 import type { Db } from '@server/db/knex';
 
 async function findByClientId(db: Db, user: SessionUser, clientOrderId: string) {
@@ -88,7 +88,8 @@ async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody,
           .insert(cashPayment(order.id, due, cash.tenderedCents, at))
           .returning('*')
       : [];
-    const ticket = await loadTicket(trx, order.id);
+    // the event's ticket from the row the insert returned, taken by the person of the session
+    const [ticket] = await loadTickets(trx, [order], new Map([[user.id, user.name]]));
     const event = await appendEvent(trx, user.locationId, cash ? 'order.fired' : 'order.taken', ticket, at, user.id);
     items.sort((a, b) => a.line_no - b.line_no);
     const view = toOrderView(

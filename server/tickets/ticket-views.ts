@@ -67,7 +67,11 @@ function jugOf(r: DrinkRow): JugRef | null {
   };
 }
 
-export async function loadTickets(db: Db, orders: Row<'orders'>[]): Promise<TicketView[]> {
+/**
+ * `names`: people the caller knows already (the person taking the order, from the session), so
+ * their name is not read again.
+ */
+export async function loadTickets(db: Db, orders: Row<'orders'>[], names: ReadonlyMap<number, string> = new Map()): Promise<TicketView[]> {
   if (orders.length === 0) return [];
   const drinks = await db('order_items')
     .leftJoin('users', 'users.id', 'order_items.allergy_ack_by')
@@ -99,8 +103,8 @@ export async function loadTickets(db: Db, orders: Row<'orders'>[]): Promise<Tick
       'jugs.fits as jug_fits',
       'milk_options.sort as milk_sort',
     );
-  const takers = new Map<number, string>();
-  const takerIds = [...new Set(orders.map((o) => o.taken_by).filter((id): id is number => id != null))];
+  const takers = new Map<number, string>(names);
+  const takerIds = [...new Set(orders.map((o) => o.taken_by).filter((id): id is number => id != null && !takers.has(id)))];
   if (takerIds.length) for (const u of await db('users').whereIn('id', takerIds).select('id', 'name')) takers.set(u.id, u.name);
   const byOrder = new Map<number, DrinkView[]>();
   for (const d of drinks) byOrder.set(d.order_id, [...(byOrder.get(d.order_id) ?? []), toDrink(d)]);
