@@ -42,7 +42,7 @@ async function insertOrder(deps: Deps, user: SessionUser, body: CreateOrderBody,
     const at = now.toISOString();
     const day = businessDate(now, menu.location.timeZone);
     // The quote and the open shift are read before the café's lock: neither needs it, and the quote
-    // reads every drink on the bar, which would keep the café's other counters waiting meanwhile.
+    // counts the drinks on the bar, which would keep the café's other counters waiting meanwhile.
     const barDrinks = lines.filter((l) => l.station === 'bar').length;
     const quote = await quoteForNewOrder(trx, user.locationId, now, barDrinks, menu.location.baristasOnBar);
     const shift = await trx('shifts').where({ location_id: user.locationId }).whereNull('closed_at').first('id');

@@ -29,7 +29,8 @@ afterAll(async () => {
 const latteAndCroissant = (name: string) => orderBody(name, [{ menuItemId: ids.item('Latte') }, { menuItemId: ids.item('Butter croissant') }], 20_00);
 
 /** Budget: the session and its person (2), the replay check (1), the menu's version (1), the
- * quote (1), BEGIN, the shift, the café's lock, the next number, three inserts, the event's
+ * quote (1: the bar's counts; the drinks for its pace are a second read once the bar has bumped
+ * in the last half hour, and no bump has happened here), BEGIN, the shift, the café's lock, the next number, three inserts, the event's
  * ticket (1: its bar drinks; the order is the inserted row, its taker the session's person), the
  * event's number and row (2), COMMIT. */
 const STATEMENTS_PER_CASH_ORDER = 16;
