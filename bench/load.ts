@@ -333,6 +333,9 @@ export interface OverloadResult {
   rssBefore: number;
   rssAfter: number;
   loop: ProbeReading['loop'];
+  /** This process's own event-loop delay p99, and how late it sent an order at worst (ms): when high, the times include the load generator's lag. */
+  clientLoopP99: number;
+  latestSend: number;
 }
 
 /**
@@ -357,11 +360,15 @@ export async function overload(h: Harness, opts: RunOptions): Promise<OverloadRe
     if (firstErrors.length < 3) firstErrors.push(what.slice(0, 200));
   };
   const sends: Promise<void>[] = [];
+  const own = monitorEventLoopDelay({ resolution: 10 });
+  own.enable();
+  let latestSend = 0;
   const start = performance.now() + 20;
   for (let k = 0; k < total; k++) {
     const due = start + (k * 1000) / opts.rate;
     const wait = due - performance.now();
     if (wait > 1) await sleep(wait);
+    latestSend = Math.max(latestSend, performance.now() - due);
     const { body } = orderBody(h, opts, k);
     sends.push(
       postOrder(h.url, counters[k % counters.length], body).then(
@@ -381,6 +388,7 @@ export async function overload(h: Harness, opts: RunOptions): Promise<OverloadRe
     );
   }
   await Promise.all(sends);
+  own.disable();
   const during = await h.server.probe();
   // the Counter's queue: wait what the server said, send again (same clientOrderId), until placed
   const resent = { rounds: 0, placed: 0, refusedAgain: 0, alreadyThere: 0, left: refused.length };
@@ -428,6 +436,8 @@ export async function overload(h: Harness, opts: RunOptions): Promise<OverloadRe
     rssBefore: before.rss,
     rssAfter: after.rss,
     loop: during.loop,
+    clientLoopP99: own.percentile(99) / 1e6,
+    latestSend,
   };
 }
 

@@ -169,6 +169,7 @@ export function overloadTable(o: OverloadResult): string {
           `${mb(o.rssBefore)} → ${mb(o.rssAfter)}`,
           `grew < 32 MB: ${mark(grew < 32 * 2 ** 20)}`,
         ],
+        ["the load generator's own event-loop delay p99; its latest send after the order's time (ms)", '', ms(o.clientLoopP99), ms(o.latestSend), '', ''],
       ],
     ),
     ...(o.firstErrors.length ? ['', `First errors: ${o.firstErrors.join(' | ')}`] : []),
