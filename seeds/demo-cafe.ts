@@ -201,8 +201,11 @@ export async function seedDemoCafe(db: Knex, now = new Date(), passwordCost?: nu
  * transaction, so of two processes seeding at once one finds the other's café (on SQLite the
  * second may instead fail busy and try again: server/db/migrate.ts). Null when a café was there.
  */
-export async function seedDemoCafeIfEmpty(db: Knex, now = new Date()): Promise<number | null> {
-  return seedDemo(db, now, undefined, true);
+export async function seedDemoCafeIfEmpty(db: Knex, now = new Date(), hash: Hasher = hashPassword): Promise<number | null> {
+  // Most starts find a café: asked first, so they hash nothing (sixteen bcrypt hashes, about two
+  // seconds before the server could answer). Asked again inside the transaction, which decides.
+  if (!(await isEmpty(db))) return null;
+  return seedDemo(db, now, undefined, true, hash);
 }
 
 interface CafeSeed {
@@ -217,13 +220,14 @@ const CAFES: CafeSeed[] = [
   { name: SECOND_CAFE_NAME, staff: SECOND_CAFE_STAFF, barista: 'rw-barista' },
 ];
 
-async function seedDemo(db: Knex, now: Date, passwordCost: number | undefined, onlyIfEmpty: boolean): Promise<number | null> {
+type Hasher = (password: string, cost?: number) => Promise<string>;
+
+async function seedDemo(db: Knex, now: Date, passwordCost: number | undefined, onlyIfEmpty: boolean, hash: Hasher = hashPassword): Promise<number | null> {
   const createdAt = now.toISOString();
   const hashes = new Map(
     await Promise.all(
       DEMO_SIGN_INS.map(
-        async (s) =>
-          [s.username, { password: await hashPassword(DEMO_PASSWORD, passwordCost), pin: await hashPassword(DEMO_PINS[s.username], passwordCost) }] as const,
+        async (s) => [s.username, { password: await hash(DEMO_PASSWORD, passwordCost), pin: await hash(DEMO_PINS[s.username], passwordCost) }] as const,
       ),
     ),
   );
