@@ -62,10 +62,12 @@ export default defineConfig({
           isolate: false, // as `server` above
           include: ['tests/api/**/*.test.ts', 'tests/realtime/**/*.test.ts'],
           // files whose subject is not the database: the input fuzzers (what they send is refused
-          // before any SQL runs; they take a minute), settings, the error mapping, the request log
+          // before any SQL runs; they take a minute), load shedding (refused before any SQL),
+          // settings, the error mapping, the request log
           // (a SQLite file of its own), the row types (read from SQLite's schema), SQLite's kept prepared
           // statements and the throttles' Redis counts
           exclude: [
+            'tests/api/admission.test.ts',
             'tests/api/bad-input.property.test.ts',
             'tests/api/control-characters.property.test.ts',
             'tests/api/config.test.ts',

@@ -16,7 +16,11 @@ beforeAll(async () => {
   cookie = await server.cookieFor('cashier');
   ids = await demoMenu(server);
 });
-afterAll(() => server.close());
+const held: { abandon(): void }[] = [];
+afterAll(async () => {
+  for (const h of held) h.abandon(); // a failed test's held requests must not keep the server open
+  await server.close();
+});
 
 interface Answer {
   status: number;
@@ -33,6 +37,7 @@ function heldOrder(body: object): { finish(): Promise<Answer>; abandon(): void }
     port: u.port,
     path: u.pathname,
     method: 'POST',
+    agent: false, // a connection of its own, never one a pool kept (or the server has since closed)
     headers: { cookie, origin: server.url, 'content-type': 'application/json', 'content-length': data.length },
   });
   const answered = new Promise<Answer>((resolve, reject) => {
@@ -45,11 +50,13 @@ function heldOrder(body: object): { finish(): Promise<Answer>; abandon(): void }
   });
   req.write(data.subarray(0, 10));
   req.flushHeaders();
-  return {
+  const h = {
     finish: () => (req.end(data.subarray(10)), answered),
     // the client goes away: its answer never comes (the rejection is the expected hang-up)
     abandon: () => (answered.catch(() => {}), req.destroy()),
   };
+  held.push(h);
+  return h;
 }
 
 async function send(method: 'GET' | 'POST', path: string, body?: object): Promise<Answer> {
@@ -100,16 +107,18 @@ describe('past the limit of requests in progress', () => {
   });
 
   it('frees the place of a client that goes away before its answer', async () => {
-    const held = [heldOrder(latte('Gone One')), heldOrder(latte('Gone Two'))];
+    // three, so both places are taken even if the last answer of the test before is still being
+    // finished on the server (seen on PostgreSQL): one of the three may be refused at once
+    const gone = ['Gone One', 'Gone Two', 'Gone Three'].map((name) => heldOrder(latte(name)));
     await untilRefused();
-    for (const h of held) h.abandon();
+    for (const h of gone) h.abandon();
     let answer: Answer | undefined;
     for (let i = 0; i < 500 && answer?.status !== 200; i++) {
       answer = await send('GET', '/api/menu');
       if (answer.status !== 200) await new Promise((r) => setTimeout(r, 5));
     }
     expect(answer?.status).toBe(200);
-    expect(await ordersNamed('Gone One')).toEqual([]);
+    expect(await server.db('orders').where('customer_name', 'like', 'Gone %')).toEqual([]);
   });
 });
 
