@@ -47,11 +47,13 @@ const envSchema = z.object({
   // behind a load balancer: its address (or addresses, CIDRs), so a client's own address is read
   // from X-Forwarded-For; unset: only a proxy on this machine (loopback) is trusted
   TRUST_PROXY: z.string().min(1).optional(),
-  // set: live events reach the screens of every process through Redis (several processes)
-  // API requests one process works on at once; more are answered 503 with Retry-After (admission.ts)
-  MAX_REQUESTS_IN_FLIGHT: z.coerce.number({ error: IN_FLIGHT }).int(IN_FLIGHT).min(1, IN_FLIGHT).max(10_000, IN_FLIGHT).default(16),
+  // API requests one process works on at once; more are answered 503 with Retry-After (admission.ts).
+  // Not 16: a sign-in waits its turn in flight (sign-in pacing), and two screens opening at once
+  // passed 16 on a test machine; a rush on SQLite is caught by the loop stall instead
+  MAX_REQUESTS_IN_FLIGHT: z.coerce.number({ error: IN_FLIGHT }).int(IN_FLIGHT).min(1, IN_FLIGHT).max(10_000, IN_FLIGHT).default(64),
   // a new order read after the event loop went this long without coming round is refused the same way; 0: never
   MAX_LOOP_STALL_MS: z.coerce.number({ error: STALL }).int(STALL).min(0, STALL).max(60_000, STALL).default(100),
+  // set: live events reach the screens of every process through Redis (several processes)
   REDIS_URL: z
     .string()
     .regex(/^rediss?:\/\/./, 'use redis://host:6379 or redis://:password@host:6379/0')

@@ -67,8 +67,8 @@ describe('loadConfig', () => {
     expect(loadConfig({ DATABASE_FILE: file, TRUST_PROXY: '10.0.0.5' }).trustProxy).toBe('10.0.0.5');
   });
 
-  it('sheds API requests past 16 at once, and new orders after a 100 ms stall, unless told otherwise', () => {
-    expect(loadConfig({ DATABASE_FILE: file }).maxRequestsInFlight).toBe(16);
+  it('sheds API requests past 64 at once, and new orders after a 100 ms stall, unless told otherwise', () => {
+    expect(loadConfig({ DATABASE_FILE: file }).maxRequestsInFlight).toBe(64);
     expect(loadConfig({ DATABASE_FILE: file, MAX_REQUESTS_IN_FLIGHT: '64' }).maxRequestsInFlight).toBe(64);
     expect(() => loadConfig({ DATABASE_FILE: file, MAX_REQUESTS_IN_FLIGHT: '0' })).toThrow(/MAX_REQUESTS_IN_FLIGHT: use a whole number of requests/);
     expect(() => loadConfig({ DATABASE_FILE: file, MAX_REQUESTS_IN_FLIGHT: 'lots' })).toThrow(/MAX_REQUESTS_IN_FLIGHT/);
